@@ -1,0 +1,3 @@
+module stereoline
+
+go 1.26.8

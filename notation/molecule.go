@@ -264,7 +264,7 @@ func (m *Molecule) Degree(a int) int { return len(m.Atoms[a].Bonds) }
 // BondBetween returns the index of the bond joining atoms a and b, or -1.
 func (m *Molecule) BondBetween(a, b int) int {
 	for _, bi := range m.Atoms[a].Bonds {
-		if m.Bonds[bi].Other(a) == b {
+		if bi >= 0 && m.Bonds[bi].Other(a) == b {
 			return bi
 		}
 	}

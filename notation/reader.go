@@ -1,9 +1,422 @@
 package notation
 
+import (
+	"fmt"
+	"unicode/utf8"
+)
+
+// maxErrors bounds the error list of one record so that a megabyte of
+// garbage costs a bounded amount of memory. The last entry says that the
+// rest was dropped.
+const maxErrors = 200
+
 // Read parses one notation string (a molecule or a reaction, without its
 // title) and returns the best molecule it could build. Reading never
-// fails: every problem is in the returned molecule's Errors.
+// fails: every problem is in the returned molecule's Errors, sorted by
+// position.
+//
+// The reader is a single loop over the bytes with an explicit branch
+// stack, so nesting depth costs heap, not Go stack, and the work is linear
+// in the length of the text.
 func Read(text string) *Molecule {
-	m := &Molecule{Text: text}
-	return m
+	r := &reader{text: text, mol: &Molecule{Text: text}, prev: -1, rings: map[int]*openRing{}}
+	r.mol.Atoms = make([]Atom, 0, len(text)/2+1)
+	r.mol.Bonds = make([]Bond, 0, len(text)/2+1)
+	r.read()
+	finish(r.mol)
+	r.mol.Errors.Sort()
+	if len(r.mol.Errors) > maxErrors+1 {
+		r.mol.Errors = r.mol.Errors[:maxErrors+1]
+	}
+	return r.mol
+}
+
+// reader is the state of one Read.
+type reader struct {
+	text string
+	pos  int
+	mol  *Molecule
+
+	prev    int       // atom the next atom bonds to, or -1
+	bond    byte      // pending bond symbol, 0 when none
+	bondPos int       // where the pending bond symbol is
+	stack   []branch  // open branches
+	rings   map[int]*openRing
+	role    Role
+	arrows  int
+	dropped bool // errors were dropped past maxErrors
+
+	lastRingAtom int // atom the last ring-bond digit was attached to
+	afterBranch  bool
+}
+
+// branch is an open '(' with the atom it hangs from.
+type branch struct {
+	atom int
+	pos  int
+}
+
+// openRing is a ring-closure digit waiting for its partner.
+type openRing struct {
+	atom    int
+	slot    int  // index in the atom's Bonds reserved for the closure
+	symbol  byte // bond symbol before the digit, or 0
+	span    Span // symbol and digits
+	symSpan Span
+}
+
+func (r *reader) errorf(span Span, code Code, format string, args ...any) *Error {
+	if len(r.mol.Errors) >= maxErrors {
+		if !r.dropped {
+			r.dropped = true
+			r.mol.Errors.Add(span, CodeSyntax, "too many errors; the rest of the record is not reported")
+		}
+		return &Error{}
+	}
+	return r.mol.Errors.Add(span, code, format, args...)
+}
+
+// found describes the byte at pos for messages: "'x'" or "end of text".
+func (r *reader) found(pos int) string {
+	if pos >= len(r.text) {
+		return "end of text"
+	}
+	c, _ := utf8.DecodeRuneInString(r.text[pos:])
+	return quoteRune(c)
+}
+
+func quoteRune(c rune) string {
+	switch {
+	case c == utf8.RuneError:
+		return "an invalid byte"
+	case c < 0x20 || c == 0x7f:
+		return fmt.Sprintf("control character U+%04X", c)
+	case c == ' ':
+		return "a space"
+	case c == '\'':
+		return `"'"`
+	}
+	return "'" + string(c) + "'"
+}
+
+func (r *reader) read() {
+	if r.hasArrow() {
+		r.mol.Reaction = true
+		r.role = RoleReactant
+	}
+	if len(r.text) == 0 {
+		r.errorf(Span{0, 0}, CodeEmpty, "expected an atom, found end of text")
+		return
+	}
+	for r.pos < len(r.text) {
+		c := r.text[r.pos]
+		switch {
+		case c == '[':
+			r.atom(r.bracketAtom())
+		case isOrganicStart(c):
+			r.atom(r.organicAtom())
+		case c == '(':
+			r.openBranch()
+		case c == ')':
+			r.closeBranch()
+		case isBondSymbol(c):
+			r.bondSymbol()
+		case c >= '0' && c <= '9' || c == '%':
+			r.ringBond()
+		case c == '.':
+			r.dot()
+		case c == '>':
+			r.arrow()
+		default:
+			r.unexpected()
+		}
+	}
+	r.endPart(len(r.text))
+}
+
+// hasArrow reports whether the text has a '>' outside brackets.
+func (r *reader) hasArrow() bool {
+	inBracket := false
+	for i := 0; i < len(r.text); i++ {
+		switch r.text[i] {
+		case '[':
+			inBracket = true
+		case ']':
+			inBracket = false
+		case '>':
+			if !inBracket {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+func (r *reader) unexpected() {
+	c, size := utf8.DecodeRuneInString(r.text[r.pos:])
+	span := Span{r.pos, r.pos + size}
+	switch {
+	case c == utf8.RuneError && size <= 1:
+		r.errorf(span, CodeEncoding, "expected text in UTF-8, found an invalid byte")
+	case c < 0x20 || c == 0x7f:
+		r.errorf(span, CodeEncoding, "expected an atom or bond, found %s", quoteRune(c))
+	case c == ']':
+		r.errorf(span, CodeSyntax, "expected an atom or bond, found ']' without '['")
+	case c >= 'A' && c <= 'Z' || c >= 'a' && c <= 'z':
+		r.letters(span)
+		return
+	default:
+		r.errorf(span, CodeSyntax, "expected an atom or bond, found %s", quoteRune(c))
+	}
+	r.pos += size
+}
+
+// letters reports a symbol that is not in the organic subset, saying
+// whether it names an element that needs brackets.
+func (r *reader) letters(span Span) {
+	end := span.End
+	if end < len(r.text) && r.text[end] >= 'a' && r.text[end] <= 'z' {
+		end++
+	}
+	sym := r.text[span.Start:end]
+	if _, ok := ElementNumber(sym); ok {
+		r.errorf(Span{span.Start, end}, CodeSyntax, "expected an organic-subset atom, found '%s' (write it in brackets: [%s])", sym, sym)
+		r.pos = end
+		return
+	}
+	if _, ok := ElementNumber(sym[:1]); ok && len(sym) == 1 {
+		r.errorf(span, CodeSyntax, "expected an organic-subset atom, found '%s' (write it in brackets: [%s])", sym, sym)
+	} else {
+		r.errorf(span, CodeUnknownElement, "expected an element symbol, found '%s'", r.text[span.Start:span.End])
+	}
+	r.pos = span.End
+}
+
+// atom links a freshly read atom into the graph. A negative index means
+// the token was unreadable and nothing was added.
+func (r *reader) atom(idx int) {
+	if idx < 0 {
+		return
+	}
+	m := r.mol
+	a := &m.Atoms[idx]
+	a.Role = r.role
+	a.Component = m.Components
+	if r.prev >= 0 {
+		r.addBond(r.prev, idx, r.bond, r.bondSpan(a.Span.Start))
+		a.HasPrev = true
+	} else if r.bond != 0 {
+		r.errorf(Span{r.bondPos, r.bondPos + 1}, CodeSyntax, "expected an atom before bond '%c'", r.bond)
+	}
+	if r.prev < 0 {
+		m.Components++
+	}
+	a.Component = m.Components - 1
+	r.bond = 0
+	r.prev = idx
+	r.afterBranch = false
+}
+
+func (r *reader) bondSpan(next int) Span {
+	if r.bond == 0 {
+		return Span{next, next}
+	}
+	return Span{r.bondPos, r.bondPos + 1}
+}
+
+// addBond appends a chain or branch bond from atom a (written first) to
+// atom b.
+func (r *reader) addBond(a, b int, sym byte, span Span) int {
+	m := r.mol
+	bd := Bond{Begin: a, End: b, Written: sym, Span: span}
+	bd.Order, bd.Dir = orderOf(sym, m.Atoms[a].Aromatic && m.Atoms[b].Aromatic)
+	m.Bonds = append(m.Bonds, bd)
+	bi := len(m.Bonds) - 1
+	m.Atoms[a].Bonds = append(m.Atoms[a].Bonds, bi)
+	m.Atoms[b].Bonds = append(m.Atoms[b].Bonds, bi)
+	return bi
+}
+
+// orderOf maps a bond symbol to its order and direction; sym 0 is an
+// implied bond, aromatic between two aromatic atoms (OpenSMILES 3.3).
+func orderOf(sym byte, bothAromatic bool) (BondOrder, Direction) {
+	switch sym {
+	case '-':
+		return OrderSingle, DirNone
+	case '=':
+		return OrderDouble, DirNone
+	case '#':
+		return OrderTriple, DirNone
+	case '$':
+		return OrderQuadruple, DirNone
+	case ':':
+		return OrderAromatic, DirNone
+	case '/':
+		return OrderSingle, DirUp
+	case '\\':
+		return OrderSingle, DirDown
+	}
+	if bothAromatic {
+		return OrderAromatic, DirNone
+	}
+	return OrderSingle, DirNone
+}
+
+func isBondSymbol(c byte) bool {
+	switch c {
+	case '-', '=', '#', '$', ':', '/', '\\':
+		return true
+	}
+	return false
+}
+
+func (r *reader) bondSymbol() {
+	if r.bond != 0 {
+		r.errorf(Span{r.pos, r.pos + 1}, CodeSyntax, "expected an atom after bond '%c', found '%c'", r.bond, r.text[r.pos])
+	}
+	if r.prev < 0 {
+		r.errorf(Span{r.pos, r.pos + 1}, CodeSyntax, "expected an atom before bond '%c'", r.text[r.pos])
+		r.pos++
+		return
+	}
+	r.bond = r.text[r.pos]
+	r.bondPos = r.pos
+	r.pos++
+}
+
+// pendingBondError reports a bond symbol left without an atom after it.
+func (r *reader) pendingBondError() {
+	if r.bond != 0 {
+		r.errorf(Span{r.bondPos, r.bondPos + 1}, CodeSyntax, "expected an atom after bond '%c', found %s", r.bond, r.found(r.pos))
+		r.bond = 0
+	}
+}
+
+func (r *reader) openBranch() {
+	start := r.pos
+	r.pos++
+	if r.prev < 0 {
+		r.errorf(Span{start, start + 1}, CodeSyntax, "expected an atom before '('")
+	}
+	if r.bond != 0 {
+		r.errorf(Span{r.bondPos, r.bondPos + 1}, CodeSyntax, "expected an atom after bond '%c', found '('", r.bond)
+		r.bond = 0
+	}
+	r.stack = append(r.stack, branch{atom: r.prev, pos: start})
+	if r.pos < len(r.text) && r.text[r.pos] == ')' {
+		r.errorf(Span{start, r.pos + 1}, CodeSyntax, "expected an atom or bond after '(', found ')'")
+	}
+}
+
+func (r *reader) closeBranch() {
+	span := Span{r.pos, r.pos + 1}
+	r.pos++
+	r.pendingBondError()
+	if len(r.stack) == 0 {
+		r.errorf(span, CodeSyntax, "expected an atom or bond, found ')' without '('")
+		return
+	}
+	top := r.stack[len(r.stack)-1]
+	r.stack = r.stack[:len(r.stack)-1]
+	r.prev = top.atom
+	r.afterBranch = true
+}
+
+func (r *reader) dot() {
+	span := Span{r.pos, r.pos + 1}
+	r.pos++
+	r.pendingBondError()
+	if r.prev < 0 && len(r.stack) == 0 {
+		r.errorf(span, CodeEmpty, "expected an atom before '.'")
+	}
+	r.prev = -1
+}
+
+func (r *reader) arrow() {
+	span := Span{r.pos, r.pos + 1}
+	r.pos++
+	r.endPart(span.Start)
+	r.arrows++
+	r.mol.Arrows = append(r.mol.Arrows, span)
+	switch r.arrows {
+	case 1:
+		r.role = RoleAgent
+	case 2:
+		r.role = RoleProduct
+	default:
+		r.errorf(span, CodeReaction, "expected two '>' in a reaction, found a third")
+	}
+	r.prev = -1
+}
+
+// endPart closes everything still open at the end of the text or of a
+// reaction part.
+func (r *reader) endPart(at int) {
+	r.pendingBondError()
+	for i := len(r.stack) - 1; i >= 0; i-- {
+		b := r.stack[i]
+		r.errorf(Span{b.pos, b.pos + 1}, CodeSyntax, "expected ')' to close this branch, found %s", r.found(at))
+	}
+	r.stack = r.stack[:0]
+	r.closeOpenRings()
+	if at == len(r.text) && r.mol.Reaction && r.arrows < 2 {
+		r.errorf(Span{at, at}, CodeReaction, "expected two '>' in a reaction, found %d", r.arrows)
+	}
+}
+
+func isOrganicStart(c byte) bool {
+	switch c {
+	case 'B', 'C', 'N', 'O', 'P', 'S', 'F', 'I', '*', 'b', 'c', 'n', 'o', 'p', 's':
+		return true
+	}
+	return false
+}
+
+// organicAtom reads an atom of the organic subset (OpenSMILES 3.1.5).
+func (r *reader) organicAtom() int {
+	start := r.pos
+	c := r.text[r.pos]
+	sym := string(c)
+	if c == 'C' && r.pos+1 < len(r.text) && r.text[r.pos+1] == 'l' {
+		sym = "Cl"
+	} else if c == 'B' && r.pos+1 < len(r.text) && r.text[r.pos+1] == 'r' {
+		sym = "Br"
+	}
+	if len(sym) == 1 && r.pos+1 < len(r.text) {
+		// "Co", "Sc", "Na"... are elements outside the organic subset.
+		n := r.text[r.pos+1]
+		if n >= 'a' && n <= 'z' && c >= 'A' && c <= 'Z' {
+			two := string([]byte{c, n})
+			if _, ok := ElementNumber(two); ok && !organicFollow(n) {
+				r.errorf(Span{start, start + 2}, CodeSyntax, "expected an organic-subset atom, found '%s' (write it in brackets: [%s])", two, two)
+				sym = two
+			}
+		}
+	}
+	r.pos += len(sym)
+	a := Atom{Symbol: sym, Span: Span{start, r.pos}}
+	if len(sym) == 2 && sym != "Cl" && sym != "Br" {
+		a.Bracket = true // recovered: no implicit hydrogens for it
+		a.Number, _ = ElementNumber(sym)
+	} else if z, ok := aromaticSymbols[sym]; ok {
+		a.Number = z
+		a.Aromatic = true
+	} else {
+		a.Number, _ = ElementNumber(sym)
+	}
+	r.mol.Atoms = append(r.mol.Atoms, a)
+	return len(r.mol.Atoms) - 1
+}
+
+// organicFollow reports whether the lowercase letter n after an uppercase
+// organic-subset atom starts an atom of its own. OpenSMILES reads the
+// organic subset by its own symbols, so "Cc" and "Co" are two atoms
+// (aliphatic carbon, then an aromatic atom), while "Ca" can only be a
+// calcium written without its brackets.
+func organicFollow(n byte) bool {
+	switch n {
+	case 'b', 'c', 'n', 'o', 'p', 's':
+		return true
+	}
+	return false
 }

@@ -1,0 +1,320 @@
+package notation
+
+import (
+	"sort"
+	"strings"
+)
+
+// kekulizeBudget bounds the matching work of one record, so that a huge
+// aromatic sheet written to defeat the greedy start ends in a kekulize
+// error instead of a long wait.
+const kekulizeBudget = 50_000_000
+
+// kekulize turns the aromatic bonds of m into a Kekulé structure: every
+// aromatic atom that needs a double bond (pi) gets exactly one, on an
+// aromatic ring bond to another such atom. That is a perfect matching on
+// the graph of those atoms, found by a greedy start and augmenting paths
+// (Edmonds' blossom method, since fused rings give odd cycles). It
+// returns which atoms take a double bond and reports atoms that cannot.
+func kekulize(m *Molecule, inRing []bool) []bool {
+	pi := make([]bool, len(m.Atoms))
+	any := false
+	for i := range m.Atoms {
+		if m.Atoms[i].Aromatic {
+			any = true
+			break
+		}
+	}
+	if !any {
+		return pi
+	}
+	// Which aromatic bonds belong to the aromatic system.
+	arom := make([]bool, len(m.Bonds))
+	for bi := range m.Bonds {
+		b := &m.Bonds[bi]
+		if b.Order == OrderAromatic && m.Atoms[b.Begin].Aromatic && m.Atoms[b.End].Aromatic && inRing[bi] {
+			arom[bi] = true
+		}
+	}
+	for i := range m.Atoms {
+		a := &m.Atoms[i]
+		if !a.Aromatic {
+			continue
+		}
+		ringed := false
+		for _, bi := range a.Bonds {
+			if arom[bi] {
+				ringed = true
+			}
+		}
+		if !ringed {
+			if a.Number != 0 {
+				m.Errors.Add(a.Span, CodeKekulize, "expected an aromatic atom to be in an aromatic ring, found %s outside any", a.Symbol)
+			}
+			continue
+		}
+		pi[i] = needsDoubleBond(m, i)
+	}
+	match := newMatcher(m, pi, arom)
+	match.run()
+	for bi := range m.Bonds {
+		if arom[bi] {
+			m.Bonds[bi].Kekule = 1
+		}
+	}
+	for v, w := range match.mate {
+		if w > v {
+			a, b := match.atoms[v], match.atoms[w]
+			m.Bonds[m.BondBetween(a, b)].Kekule = 2
+		}
+	}
+	match.report()
+	return pi
+}
+
+// needsDoubleBond decides whether aromatic atom i takes a double bond in
+// the Kekulé structure: it does when its valence, counting each aromatic
+// bond once, falls short of the next allowed valence (pyridine n, every
+// c), and does not when its bonds already fill an allowed valence (furan
+// o, thiophene s, pyrrole [nH], the c of a ring C=O).
+func needsDoubleBond(m *Molecule, i int) bool {
+	a := &m.Atoms[i]
+	sum := bondOrderSum(m, i) // aromatic bonds still count 1 here
+	if a.Number == 0 {
+		return true // '*' fills whatever the ring needs; matched if possible
+	}
+	var vals []int
+	if a.Bracket {
+		sum += a.BracketH
+		vals = AllowedValences(a.Number, a.Charge)
+	} else {
+		vals = organicValences[a.Number]
+	}
+	for _, v := range vals {
+		if v >= sum {
+			return v > sum
+		}
+	}
+	return false
+}
+
+// matcher finds a maximum matching on the aromatic atoms that need a
+// double bond, one connected part at a time.
+type matcher struct {
+	m     *Molecule
+	atoms []int       // local index -> atom index
+	local map[int]int // atom index -> local index
+	adj   [][]int
+	mate  []int
+	work  int
+
+	// blossom search state, reused across searches
+	parent, base []int
+	used, inBlossom []bool
+	queue           []int
+}
+
+func newMatcher(m *Molecule, pi []bool, arom []bool) *matcher {
+	x := &matcher{m: m, local: map[int]int{}}
+	for i := range m.Atoms {
+		if pi[i] {
+			x.local[i] = len(x.atoms)
+			x.atoms = append(x.atoms, i)
+		}
+	}
+	x.adj = make([][]int, len(x.atoms))
+	for v, a := range x.atoms {
+		for _, bi := range m.Atoms[a].Bonds {
+			if !arom[bi] {
+				continue
+			}
+			if w, ok := x.local[m.Bonds[bi].Other(a)]; ok {
+				x.adj[v] = append(x.adj[v], w)
+			}
+		}
+	}
+	x.mate = make([]int, len(x.atoms))
+	for i := range x.mate {
+		x.mate[i] = -1
+	}
+	return x
+}
+
+func (x *matcher) run() {
+	n := len(x.atoms)
+	// Greedy start: atoms with a single candidate first, then in order.
+	for v := 0; v < n; v++ {
+		if x.mate[v] < 0 && len(x.adj[v]) == 1 && x.mate[x.adj[v][0]] < 0 {
+			w := x.adj[v][0]
+			x.mate[v], x.mate[w] = w, v
+		}
+	}
+	for v := 0; v < n; v++ {
+		if x.mate[v] >= 0 {
+			continue
+		}
+		for _, w := range x.adj[v] {
+			if x.mate[w] < 0 {
+				x.mate[v], x.mate[w] = w, v
+				break
+			}
+		}
+	}
+	x.parent = make([]int, n)
+	x.base = make([]int, n)
+	x.used = make([]bool, n)
+	x.inBlossom = make([]bool, n)
+	for v := 0; v < n; v++ {
+		if x.mate[v] >= 0 || len(x.adj[v]) == 0 {
+			continue
+		}
+		if x.work > kekulizeBudget {
+			break
+		}
+		if end := x.search(v); end >= 0 {
+			for end >= 0 {
+				pv := x.parent[end]
+				next := x.mate[pv]
+				x.mate[end], x.mate[pv] = pv, end
+				end = next
+			}
+		}
+	}
+}
+
+// component lists the local vertices reachable from root, so that one
+// search costs the size of its own ring system, not of the record.
+func (x *matcher) component(root int) []int {
+	seen := x.used
+	comp := []int{root}
+	seen[root] = true
+	for i := 0; i < len(comp); i++ {
+		for _, w := range x.adj[comp[i]] {
+			if !seen[w] {
+				seen[w] = true
+				comp = append(comp, w)
+			}
+		}
+	}
+	for _, v := range comp {
+		seen[v] = false
+	}
+	return comp
+}
+
+// search looks for an augmenting path from the free vertex root and
+// returns its free far end, or -1.
+func (x *matcher) search(root int) int {
+	comp := x.component(root)
+	x.work += len(comp)
+	for _, v := range comp {
+		x.used[v] = false
+		x.parent[v] = -1
+		x.base[v] = v
+	}
+	x.used[root] = true
+	x.queue = append(x.queue[:0], root)
+	for qi := 0; qi < len(x.queue); qi++ {
+		v := x.queue[qi]
+		for _, to := range x.adj[v] {
+			x.work++
+			if x.base[v] == x.base[to] || x.mate[v] == to {
+				continue
+			}
+			if to == root || x.mate[to] >= 0 && x.parent[x.mate[to]] >= 0 {
+				cur := x.lca(v, to, comp)
+				for _, u := range comp {
+					x.inBlossom[u] = false
+				}
+				x.markPath(v, cur, to)
+				x.markPath(to, cur, v)
+				x.work += len(comp)
+				for _, u := range comp {
+					if x.inBlossom[x.base[u]] {
+						x.base[u] = cur
+						if !x.used[u] {
+							x.used[u] = true
+							x.queue = append(x.queue, u)
+						}
+					}
+				}
+			} else if x.parent[to] < 0 {
+				x.parent[to] = v
+				if x.mate[to] < 0 {
+					return to
+				}
+				x.used[x.mate[to]] = true
+				x.queue = append(x.queue, x.mate[to])
+			}
+		}
+	}
+	return -1
+}
+
+func (x *matcher) lca(a, b int, comp []int) int {
+	seen := x.inBlossom
+	for _, u := range comp {
+		seen[u] = false
+	}
+	for {
+		a = x.base[a]
+		seen[a] = true
+		if x.mate[a] < 0 {
+			break
+		}
+		a = x.parent[x.mate[a]]
+	}
+	for {
+		b = x.base[b]
+		if seen[b] {
+			return b
+		}
+		b = x.parent[x.mate[b]]
+	}
+}
+
+func (x *matcher) markPath(v, b, child int) {
+	for x.base[v] != b {
+		x.inBlossom[x.base[v]] = true
+		x.inBlossom[x.base[x.mate[v]]] = true
+		x.parent[v] = child
+		child = x.mate[v]
+		v = x.parent[x.mate[v]]
+	}
+}
+
+// report adds one kekulize error per aromatic system that kept atoms
+// without a double bond, naming those atoms.
+func (x *matcher) report() {
+	seen := make([]bool, len(x.atoms))
+	for v := range x.atoms {
+		if x.mate[v] >= 0 || seen[v] {
+			continue
+		}
+		comp := x.component(v)
+		var free []int
+		for _, u := range comp {
+			seen[u] = true
+			if x.mate[u] < 0 && x.m.Atoms[x.atoms[u]].Number != 0 {
+				free = append(free, x.atoms[u])
+			}
+		}
+		if len(free) == 0 {
+			continue // only wildcard atoms left over: '*' may stand for anything
+		}
+		sort.Ints(free)
+		names := make([]string, 0, min(len(free), 8))
+		for i, a := range free {
+			if i == 8 {
+				names = append(names, "...")
+				break
+			}
+			names = append(names, x.m.Atoms[a].Symbol+itoa(a+1))
+		}
+		first := &x.m.Atoms[free[0]]
+		e := x.m.Errors.Add(first.Span, CodeKekulize, "expected a Kekulé structure for the aromatic atoms, found none: no double bond fits at %s", strings.Join(names, ", "))
+		for _, a := range free[1:min(len(free), 20)] {
+			e.Related = append(e.Related, Related{x.m.Atoms[a].Span, "also without a double bond"})
+		}
+	}
+}

@@ -109,7 +109,7 @@ type matcher struct {
 	work  int
 
 	// blossom search state, reused across searches
-	parent, base []int
+	parent, base    []int
 	used, inBlossom []bool
 	queue           []int
 }

@@ -37,10 +37,10 @@ type reader struct {
 	pos  int
 	mol  *Molecule
 
-	prev    int       // atom the next atom bonds to, or -1
-	bond    byte      // pending bond symbol, 0 when none
-	bondPos int       // where the pending bond symbol is
-	stack   []branch  // open branches
+	prev    int      // atom the next atom bonds to, or -1
+	bond    byte     // pending bond symbol, 0 when none
+	bondPos int      // where the pending bond symbol is
+	stack   []branch // open branches
 	rings   map[int]*openRing
 	role    Role
 	arrows  int

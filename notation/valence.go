@@ -7,15 +7,15 @@ package notation
 // them (sulfones, phosphates, periodates, xenon fluorides); common
 // practice, from memory.
 var neutralValences = map[int][]int{
-	ElemH: {1},
-	2:     {0}, // He
-	ElemB: {3},
-	ElemC: {4},
-	ElemN: {3},
-	ElemO: {2},
-	ElemF: {1},
-	10:    {0}, // Ne
-	13:    {3}, // Al
+	ElemH:  {1},
+	2:      {0}, // He
+	ElemB:  {3},
+	ElemC:  {4},
+	ElemN:  {3},
+	ElemO:  {2},
+	ElemF:  {1},
+	10:     {0}, // Ne
+	13:     {3}, // Al
 	ElemSi: {4},
 	ElemP:  {3, 5},
 	ElemS:  {2, 4, 6},

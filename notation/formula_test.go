@@ -1,0 +1,167 @@
+package notation
+
+import (
+	"bufio"
+	"math"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// TestFormulaKnownMolecules checks Hill formulas and masses of real
+// molecules. Formulas and average weights are those printed in every
+// handbook (common practice); monoisotopic masses are the sums of AME2020
+// atomic masses (from memory), for ions less or plus the electron mass.
+func TestFormulaKnownMolecules(t *testing.T) {
+	tests := []struct {
+		name, smiles string
+		hill         string
+		charged      string
+		avg, mono    float64
+	}{
+		{"caffeine", "CN1C=NC2=C1C(=O)N(C(=O)N2C)C", "C8H10N4O2", "C8H10N4O2", 194.19, 194.080376},
+		{"caffeine aromatic", "Cn1cnc2c1c(=O)n(C)c(=O)n2C", "C8H10N4O2", "C8H10N4O2", 194.19, 194.080376},
+		{"ethanol", "CCO", "C2H6O", "C2H6O", 46.07, 46.041865},
+		{"benzene", "c1ccccc1", "C6H6", "C6H6", 78.11, 78.046950},
+		{"acetate", "CC(=O)[O-]", "C2H3O2", "C2H3O2-", 59.04, 59.013853},
+		{"ammonium, no carbon so H is alphabetical", "[NH4+]", "H4N", "H4N+", 18.04, 18.033826},
+		{"sulfate", "[O-]S(=O)(=O)[O-]", "O4S", "O4S2-", 96.06, 95.953202},
+		{"sodium chloride", "[Na+].[Cl-]", "ClNa", "ClNa", 58.44, 57.958622},
+		{"water with explicit hydrogen atoms", "[H]O[H]", "H2O", "H2O", 18.015, 18.010565},
+		{"heavy water: isotopes left out of the formula", "[2H]O[2H]", "H2O", "H2O", 20.03, 20.023118},
+		{"carbon-13 methane", "[13CH4]", "CH4", "CH4", 17.035, 17.034655},
+		{"chloroform", "ClC(Cl)Cl", "CHCl3", "CHCl3", 119.37, 117.914383},
+		{"glucose", "OC[C@H]1OC(O)[C@H](O)[C@@H](O)[C@@H]1O", "C6H12O6", "C6H12O6", 180.16, 180.063388},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			m := Read(tt.smiles)
+			if m.Errors.HasErrors() {
+				t.Fatalf("read %q: %v", tt.smiles, m.Errors)
+			}
+			f := MolecularFormula(m)
+			if got := f.String(); got != tt.hill {
+				t.Errorf("formula %q, want %q", got, tt.hill)
+			}
+			if got := f.ChargedString(); got != tt.charged {
+				t.Errorf("charged formula %q, want %q", got, tt.charged)
+			}
+			if math.Abs(f.AverageMass-tt.avg) > 0.01 {
+				t.Errorf("average mass %.4f, want %.2f", f.AverageMass, tt.avg)
+			}
+			if math.Abs(f.MonoisotopicMass-tt.mono) > 0.0005 {
+				t.Errorf("monoisotopic mass %.6f, want %.6f", f.MonoisotopicMass, tt.mono)
+			}
+		})
+	}
+}
+
+// TestRoleFormula checks that a reaction's formula is split by role:
+// esterification of acetic acid with ethanol, catalysed by acid
+// (textbook reaction, common practice).
+func TestRoleFormula(t *testing.T) {
+	m := Read("CC(=O)O.OCC>[H+]>CC(=O)OCC.O")
+	want := map[Role]string{RoleReactant: "C4H10O3", RoleAgent: "H", RoleProduct: "C4H10O3"}
+	for role, hill := range want {
+		if got := RoleFormula(m, role).String(); got != hill {
+			t.Errorf("%v formula %q, want %q", role, got, hill)
+		}
+	}
+	if got := RoleFormula(m, RoleAgent).Charge; got != 1 {
+		t.Errorf("agent charge %d, want 1", got)
+	}
+	if got := ComponentFormula(m, 0).String(); got != "C2H4O2" {
+		t.Errorf("first component %q, want C2H4O2", got)
+	}
+}
+
+// TestAtomicWeightTable spot-checks the weight and isotope tables against
+// values printed on the IUPAC periodic table (from memory), and checks
+// that the two tables line up: every element has a weight, and its most
+// abundant isotope's mass lies within half a dalton of its mass number
+// and within a few daltons of the element's weight.
+func TestAtomicWeightTable(t *testing.T) {
+	spot := map[int]float64{1: 1.008, 6: 12.011, 17: 35.45, 26: 55.845, 35: 79.904, 53: 126.90,
+		79: 196.97, 80: 200.59, 82: 207.2, 92: 238.03, 118: 294}
+	for z, w := range spot {
+		if got := StandardAtomicWeight(z); got != w {
+			t.Errorf("weight of %s = %v, want %v", ElementSymbol(z), got, w)
+		}
+	}
+	for z := 1; z <= MaxElement; z++ {
+		w := StandardAtomicWeight(z)
+		iso := commonIsotopes[z]
+		if w == 0 || iso.number == 0 {
+			t.Errorf("%s has no weight or isotope", ElementSymbol(z))
+			continue
+		}
+		if math.Abs(iso.mass-float64(iso.number)) > 0.5 {
+			t.Errorf("%s-%d mass %v far from its mass number", ElementSymbol(z), iso.number, iso.mass)
+		}
+		if math.Abs(iso.mass-w) > 3 {
+			t.Errorf("%s-%d mass %v far from the weight %v", ElementSymbol(z), iso.number, iso.mass, w)
+		}
+		if z > 1 && w < StandardAtomicWeight(z-1) && !weightInversion[z] {
+			t.Errorf("%s weighs less than %s", ElementSymbol(z), ElementSymbol(z-1))
+		}
+	}
+	for key, mass := range labelIsotopes {
+		if math.Abs(mass-float64(key[1])) > 0.5 {
+			t.Errorf("isotope %d of %s: mass %v far from its mass number", key[1], ElementSymbol(key[0]), mass)
+		}
+	}
+}
+
+// weightInversion lists the elements lighter than their predecessor:
+// Ar/K, Co/Ni, Te/I, Th/Pa, U/Np, Pu/Am, as every periodic table shows
+// (common practice), plus the superheavy entries whose bracketed mass
+// numbers are not monotonic.
+var weightInversion = map[int]bool{19: true, 28: true, 53: true, 91: true, 93: true, 95: true, 108: true}
+
+// TestFormulaAgainstRDKit compares Hill formulas and net charges with
+// the RDKit fixture (testdata/rdkit/reader.tsv, generated by RDKit
+// 2022.09.3 from the NCI sample shipped in Debian's rdkit-data).
+func TestFormulaAgainstRDKit(t *testing.T) {
+	path := filepath.Join("..", "testdata", "rdkit", "reader.tsv")
+	file, err := os.Open(path)
+	if err != nil {
+		t.Skipf("fixture %s absent: %v", path, err)
+	}
+	defer file.Close()
+	sc := bufio.NewScanner(file)
+	sc.Buffer(make([]byte, 1<<20), 1<<20)
+	rows, bad := 0, 0
+	for sc.Scan() {
+		line := sc.Text()
+		if strings.HasPrefix(line, "#") || line == "" {
+			continue
+		}
+		// columns: id variant smiles accepted hcounts formula_rdkit
+		// formula_rdkit_isotopes hill charge
+		cols := strings.Split(line, "\t")
+		if len(cols) < 9 || cols[3] != "1" {
+			continue
+		}
+		id, smiles, hill, charge := cols[0], cols[2], cols[7], cols[8]
+		m := Read(smiles)
+		if m.Errors.HasErrors() {
+			continue // the reader's own tests cover acceptance
+		}
+		rows++
+		f := MolecularFormula(m)
+		if f.String() != hill || strconv.Itoa(f.Charge) != charge {
+			bad++
+			if bad <= 10 {
+				t.Errorf("%s %s: formula %s charge %d, RDKit %s charge %s", id, smiles, f, f.Charge, hill, charge)
+			}
+		}
+	}
+	if rows == 0 {
+		t.Fatalf("no rows read from %s", path)
+	}
+	if bad > 0 {
+		t.Errorf("%d of %d records differ", bad, rows)
+	}
+}

@@ -130,10 +130,19 @@ func (r *reader) bracketSymbol(a *Atom) bool {
 		return false
 	case c >= 'a' && c <= 'z':
 		if r.pos+1 < len(t) {
-			if z, ok := aromaticSymbols[t[r.pos:r.pos+2]]; ok {
-				a.Symbol, a.Number, a.Aromatic = t[r.pos:r.pos+2], z, true
+			two := t[r.pos : r.pos+2]
+			if z, ok := aromaticSymbols[two]; ok {
+				a.Symbol, a.Number, a.Aromatic = two, z, true
 				r.pos += 2
 				return true
+			}
+			if two[1] >= 'a' && two[1] <= 'z' {
+				if _, ok := ElementNumber(string(two[0]-'a'+'A') + two[1:]); ok {
+					r.errorf(Span{start, start + 2}, CodeBadAromatic, "expected an aromatic symbol (b c n o p s se as te), found '%s'", two)
+					a.Symbol = "*"
+					r.pos += 2
+					return false
+				}
 			}
 		}
 		if z, ok := aromaticSymbols[t[r.pos:r.pos+1]]; ok {

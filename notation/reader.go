@@ -360,7 +360,11 @@ func (r *reader) endPart(at int) {
 	r.stack = r.stack[:0]
 	r.closeOpenRings()
 	if at == len(r.text) && r.mol.Reaction && r.arrows < 2 {
-		r.errorf(Span{at, at}, CodeReaction, "expected two '>' in a reaction, found %d", r.arrows)
+		span := Span{at, at}
+		if len(r.mol.Arrows) > 0 {
+			span = r.mol.Arrows[0]
+		}
+		r.errorf(span, CodeReaction, "expected two '>' in a reaction, found one")
 	}
 }
 

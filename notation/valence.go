@@ -90,6 +90,12 @@ func implicitHydrogens(m *Molecule, pi []bool) {
 			a.ImplicitH = 0
 			continue
 		}
+		if a.Aromatic && !hasDoubleBond(m, i) {
+			// The matching left this atom without its double bond (a
+			// kekulize error is reported); count it as placed so the
+			// hydrogen count is what the writer meant.
+			sum++
+		}
 		for _, v := range vals {
 			if v >= sum {
 				a.ImplicitH = v - sum
@@ -139,4 +145,13 @@ func chargeSuffix(c int) string {
 		return "-" + itoa(-c)
 	}
 	return ""
+}
+
+func hasDoubleBond(m *Molecule, a int) bool {
+	for _, bi := range m.Atoms[a].Bonds {
+		if m.Bonds[bi].Kekule >= 2 {
+			return true
+		}
+	}
+	return false
 }

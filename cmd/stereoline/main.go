@@ -1,13 +1,48 @@
-// Command stereoline checks and explains the stereo marks in line
-// notation found in files.
+// Command stereoline checks and explains the stereo marks of SMILES and
+// reaction SMILES found in files: describe reads records and explains
+// them, check reports problems for CI, transform rewrites marks, compare
+// relates two structures and serve runs the language server.
 package main
 
 import (
 	"fmt"
+	"io"
 	"os"
 )
 
+const usage = `usage: stereoline <command> [arguments]
+
+commands:
+  describe [--json] [FILE...]   explain each record: atoms, bonds, formula, stereo, diagnostics
+  help                          show this text
+
+Run 'stereoline <command> -h' for the options of a command.
+`
+
 func main() {
-	fmt.Fprintln(os.Stderr, "stereoline: not yet implemented")
-	os.Exit(2)
+	os.Exit(run(os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
+}
+
+// run is main without the process: it returns the exit status, so tests
+// can drive every command in-process.
+func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) {
+	defer func() {
+		if r := recover(); r != nil {
+			fmt.Fprintf(stderr, "stereoline: internal error: %v\n", r)
+			status = 3
+		}
+	}()
+	if len(args) == 0 {
+		fmt.Fprint(stderr, usage)
+		return 2
+	}
+	switch args[0] {
+	case "describe":
+		return describe(args[1:], stdin, stdout, stderr)
+	case "help", "-h", "--help":
+		fmt.Fprint(stdout, usage)
+		return 0
+	}
+	fmt.Fprintf(stderr, "stereoline: unknown command %q\n\n%s", args[0], usage)
+	return 2
 }

@@ -1,0 +1,207 @@
+package main
+
+import (
+	"bufio"
+	"encoding/json"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"strings"
+	"text/tabwriter"
+
+	"stereoline/notation"
+)
+
+// describe implements 'stereoline describe'.
+func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+	fs := flag.NewFlagSet("describe", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	asJSON := fs.Bool("json", false, "print one JSON object per record, one per line")
+	fs.Usage = func() {
+		fmt.Fprintln(stderr, "usage: stereoline describe [--json] [FILE...]\n\nReads records (one notation per line, a title may follow after whitespace)\nfrom the files, or from standard input when none is named.")
+		fs.PrintDefaults()
+	}
+	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	out := bufio.NewWriter(stdout)
+	defer out.Flush()
+	status := 0
+	each := func(r io.Reader) error {
+		sc := bufio.NewScanner(r)
+		sc.Buffer(make([]byte, 1<<16), 64<<20)
+		for sc.Scan() {
+			line := sc.Text()
+			if strings.TrimSpace(line) == "" || strings.HasPrefix(strings.TrimSpace(line), "#") {
+				continue
+			}
+			rec := notation.SplitRecord(line)
+			d := describeRecord(rec)
+			if *asJSON {
+				b, err := json.Marshal(d)
+				if err != nil {
+					return err
+				}
+				out.Write(b)
+				out.WriteByte('\n')
+			} else {
+				writeTable(out, d)
+			}
+		}
+		return sc.Err()
+	}
+	if fs.NArg() == 0 {
+		if err := each(stdin); err != nil {
+			fmt.Fprintf(stderr, "stereoline: standard input: %v\n", err)
+			return 2
+		}
+		return 0
+	}
+	for _, name := range fs.Args() {
+		f, err := os.Open(name)
+		if err != nil {
+			fmt.Fprintf(stderr, "stereoline: %v\n", err)
+			status = 2
+			continue
+		}
+		err = each(f)
+		f.Close()
+		if err != nil {
+			fmt.Fprintf(stderr, "stereoline: %s: %v\n", name, err)
+			status = 2
+		}
+	}
+	return status
+}
+
+// recordJSON is the object describe --json prints for one record. Later
+// fields are added at the end; consumers must ignore fields they do not
+// know.
+type recordJSON struct {
+	Input       string           `json:"input"`
+	Name        string           `json:"name"`
+	Reaction    bool             `json:"reaction,omitempty"`
+	Atoms       []atomJSON       `json:"atoms"`
+	Bonds       []bondJSON       `json:"bonds"`
+	Formula     string           `json:"formula"`
+	Mass        float64          `json:"averageMass"`
+	Mono        float64          `json:"monoisotopicMass"`
+	Diagnostics []diagnosticJSON `json:"diagnostics"`
+}
+
+type atomJSON struct {
+	N         int         `json:"n"`
+	Symbol    string      `json:"symbol"`
+	Charge    int         `json:"charge"`
+	Hydrogens int         `json:"hydrogens"`
+	Aromatic  bool        `json:"aromatic"`
+	Map       int         `json:"map"`
+	Isotope   int         `json:"isotope,omitempty"`
+	Role      string      `json:"role,omitempty"`
+	Span      [2]int      `json:"span"`
+	Chirality *chiralJSON `json:"chirality,omitempty"`
+}
+
+type chiralJSON struct {
+	Mark string `json:"mark"`
+	Span [2]int `json:"span"`
+}
+
+type bondJSON struct {
+	Ends  [2]int `json:"ends"`
+	Order any    `json:"order"`
+	Mark  string `json:"mark,omitempty"`
+	Span  [2]int `json:"span"`
+	Ring  bool   `json:"ring,omitempty"`
+}
+
+type diagnosticJSON struct {
+	Code     string `json:"code"`
+	Severity string `json:"severity"`
+	Message  string `json:"message"`
+	Span     [2]int `json:"span"`
+}
+
+func spanJSON(s notation.Span) [2]int { return [2]int{s.Start, s.End} }
+
+func describeRecord(rec notation.Record) recordJSON {
+	m := notation.Read(rec.Notation)
+	d := recordJSON{Input: rec.Notation, Name: rec.Title, Reaction: m.Reaction,
+		Atoms: []atomJSON{}, Bonds: []bondJSON{}, Diagnostics: []diagnosticJSON{}}
+	for i := range m.Atoms {
+		a := &m.Atoms[i]
+		aj := atomJSON{N: i + 1, Symbol: a.Symbol, Charge: a.Charge, Hydrogens: a.HydrogenCount(),
+			Aromatic: a.Aromatic, Map: a.Map, Isotope: a.Isotope, Span: spanJSON(a.Span)}
+		if m.Reaction {
+			aj.Role = a.Role.String()
+		}
+		if a.Chirality.Class != notation.ChiralNone {
+			aj.Chirality = &chiralJSON{Mark: m.Text[a.Chirality.Span.Start:a.Chirality.Span.End], Span: spanJSON(a.Chirality.Span)}
+		}
+		d.Atoms = append(d.Atoms, aj)
+	}
+	for i := range m.Bonds {
+		b := &m.Bonds[i]
+		bj := bondJSON{Ends: [2]int{b.Begin + 1, b.End + 1}, Span: spanJSON(b.Span), Ring: b.Ring}
+		switch b.Order {
+		case notation.OrderAromatic:
+			bj.Order = "aromatic"
+		case notation.OrderDouble:
+			bj.Order = 2
+		case notation.OrderTriple:
+			bj.Order = 3
+		case notation.OrderQuadruple:
+			bj.Order = 4
+		default:
+			bj.Order = 1
+		}
+		if b.Written != 0 {
+			bj.Mark = string(b.Written)
+		}
+		d.Bonds = append(d.Bonds, bj)
+	}
+	f := notation.MolecularFormula(m)
+	d.Formula = f.String()
+	d.Mass = round(f.AverageMass, 4)
+	d.Mono = round(f.MonoisotopicMass, 6)
+	for _, e := range m.Errors {
+		d.Diagnostics = append(d.Diagnostics, diagnosticJSON{Code: string(e.Code), Severity: e.Severity.String(), Message: e.Msg, Span: spanJSON(e.Span)})
+	}
+	return d
+}
+
+func round(x float64, places int) float64 {
+	p := 1.0
+	for i := 0; i < places; i++ {
+		p *= 10
+	}
+	if x < 0 {
+		return -float64(int64(-x*p+0.5)) / p
+	}
+	return float64(int64(x*p+0.5)) / p
+}
+
+// writeTable prints a record for people.
+func writeTable(w io.Writer, d recordJSON) {
+	title := d.Name
+	if title == "" {
+		title = "(untitled)"
+	}
+	fmt.Fprintf(w, "%s  %s\n", d.Input, title)
+	fmt.Fprintf(w, "  formula %s, average mass %.4f, monoisotopic mass %.6f\n", d.Formula, d.Mass, d.Mono)
+	tw := tabwriter.NewWriter(w, 2, 4, 2, ' ', 0)
+	fmt.Fprintln(tw, "  atom\tsymbol\tcharge\tH\taromatic\tmap\tmark")
+	for _, a := range d.Atoms {
+		mark := ""
+		if a.Chirality != nil {
+			mark = a.Chirality.Mark
+		}
+		fmt.Fprintf(tw, "  %d\t%s\t%+d\t%d\t%v\t%d\t%s\n", a.N, a.Symbol, a.Charge, a.Hydrogens, a.Aromatic, a.Map, mark)
+	}
+	tw.Flush()
+	for _, e := range d.Diagnostics {
+		fmt.Fprintf(w, "  %s: %s [%s] at bytes %d-%d\n", e.Severity, e.Message, e.Code, e.Span[0], e.Span[1])
+	}
+	fmt.Fprintln(w)
+}

@@ -1,0 +1,320 @@
+package notation
+
+import (
+	"strings"
+	"testing"
+)
+
+// The valid examples below are the worked examples of the OpenSMILES
+// specification (opensmiles.org, "OpenSMILES specification", sections
+// named beside each), plus a few molecules whose hydrogen counts are
+// common practice.
+func TestReadValid(t *testing.T) {
+	tests := []struct {
+		section string
+		have    string
+		atoms   int
+		bonds   int
+		hs      []int // total hydrogens per atom, nil to skip
+	}{
+		{"3.1.1 atomic symbol", "[U]", 1, 0, []int{0}},
+		{"3.1.1 wildcard", "[*]", 1, 0, []int{0}},
+		{"3.1.2 hydrogens", "[CH4]", 1, 0, []int{4}},
+		{"3.1.2 hydrogens", "[ClH]", 1, 0, []int{1}},
+		{"3.1.2 hydrogens", "[ClH1]", 1, 0, []int{1}},
+		{"3.1.3 charge", "[Cu+2]", 1, 0, []int{0}},
+		{"3.1.3 charge", "[Cu++]", 1, 0, []int{0}},
+		{"3.1.3 charge", "[CH3-]", 1, 0, []int{3}},
+		{"3.1.4 isotope", "[13CH4]", 1, 0, []int{4}},
+		{"3.1.4 isotope", "[2H+]", 1, 0, []int{0}},
+		{"3.1.4 isotope", "[238U]", 1, 0, []int{0}},
+		{"3.1.5 organic subset", "C", 1, 0, []int{4}},
+		{"3.1.5 organic subset", "N", 1, 0, []int{3}},
+		{"3.1.5 organic subset", "Cl", 1, 0, []int{1}},
+		{"3.1.5 organic subset", "[Cl-]", 1, 0, []int{0}},
+		{"3.1.7 atom class", "[CH4:2]", 1, 0, []int{4}},
+		{"3.2.1 bonds", "CC", 2, 1, []int{3, 3}},
+		{"3.2.1 bonds", "C=C", 2, 1, []int{2, 2}},
+		{"3.2.1 bonds", "C#N", 2, 1, []int{1, 0}},
+		{"3.2.1 quadruple bond", "[Rh-](Cl)(Cl)(Cl)(Cl)$[Rh-](Cl)(Cl)(Cl)Cl", 10, 9, nil},
+		{"3.2.3 branches", "CCC(CC)CO", 7, 6, []int{3, 2, 1, 2, 3, 2, 1}},
+		{"3.2.3 nested branches", "CC(C(C)(C)C)O", 7, 6, nil},
+		{"3.3 rings", "C1CCCCC1", 6, 6, []int{2, 2, 2, 2, 2, 2}},
+		{"3.3 ring bond on closure", "C=1CCCCC1", 6, 6, []int{1, 2, 2, 2, 2, 1}},
+		{"3.3 ring bond on closure", "C1CCCCC=1", 6, 6, []int{1, 2, 2, 2, 2, 1}},
+		{"3.3 two-digit ring", "C%10CCCCC%10", 6, 6, nil},
+		{"3.3 ring number reuse", "C1CC1C1CC1", 6, 7, nil},
+		{"3.3 fused rings", "C1CC2CCCCC2CC1", 10, 11, nil},
+		{"3.3 ring closure across a dot", "C1.C1", 2, 1, []int{3, 3}},
+		{"3.4 disconnected", "[Na+].[Cl-]", 2, 0, []int{0, 0}},
+		{"3.5 aromaticity", "c1ccccc1", 6, 6, []int{1, 1, 1, 1, 1, 1}},
+		{"3.5 aromaticity pyrrole", "c1cc[nH]c1", 5, 5, []int{1, 1, 1, 1, 1}},
+		{"3.5 aromaticity pyridine", "n1ccccc1", 6, 6, []int{0, 1, 1, 1, 1, 1}},
+		{"3.5 aromaticity furan", "o1cccc1", 5, 5, []int{0, 1, 1, 1, 1}},
+		{"3.5 aromaticity thiophene", "c1ccsc1", 5, 5, []int{1, 1, 1, 0, 1}},
+		{"3.5 naphthalene", "c1ccc2ccccc2c1", 10, 11, []int{1, 1, 1, 0, 1, 1, 1, 1, 0, 1}},
+		{"3.5 2-pyridone, common practice", "O=c1cccc[nH]1", 7, 7, []int{0, 0, 1, 1, 1, 1, 1}},
+		{"3.5 biphenyl, implied bond between rings", "c1ccccc1c1ccccc1", 12, 13, nil},
+		{"3.5 pyridinium, common practice", "C[n+]1ccccc1", 7, 7, []int{3, 0, 1, 1, 1, 1, 1}},
+		{"3.5 cyclopentadienide, common practice", "[cH-]1cccc1", 5, 5, []int{1, 1, 1, 1, 1}},
+		{"3.5 tropylium, common practice", "[cH+]1cccccc1", 7, 7, nil},
+		{"3.5 azulene, odd rings", "c1cc2cccccc2c1", 10, 11, nil},
+		{"3.6 cis/trans", "F/C=C/F", 4, 3, []int{0, 1, 1, 0}},
+		{"3.6 cis/trans", "F/C=C\\F", 4, 3, nil},
+		{"3.7 tetrahedral", "N[C@@H](C)C(=O)O", 6, 5, []int{2, 1, 3, 0, 0, 1}},
+		{"3.8 allene", "NC(Br)=[C@]=C(O)C", 7, 6, nil},
+		{"3.9 square planar", "F[Po@SP1](Cl)(Br)I", 5, 4, nil},
+		{"3.9 trigonal bipyramidal", "S[As@TB1](F)(Cl)(Br)N", 6, 5, nil},
+		{"3.9 octahedral", "C[Co@](F)(Cl)(Br)(I)S", 7, 6, nil},
+		{"4.3 reaction", "[CH3:1][OH:2]>>[CH2:1]=[O:2]", 4, 2, nil},
+		{"4.3 reaction with agent", "CC(=O)O.OCC>[H+]>CC(=O)OCC.O", 15, 10, nil},
+		{"3.5 sulfone, hypervalent S", "CS(=O)(=O)C", 5, 4, []int{3, 0, 0, 0, 3}},
+		{"3.5 phosphate, hypervalent P", "OP(=O)(O)O", 5, 4, nil},
+		{"xenon tetrafluoride, common practice", "F[Xe](F)(F)F", 5, 4, nil},
+		{"periodate, common practice", "[O-]I(=O)(=O)=O", 5, 4, nil},
+	}
+	for _, tt := range tests {
+		m := Read(tt.have)
+		if len(m.Errors) != 0 {
+			t.Errorf("%s: Read(%q) errors: %v", tt.section, tt.have, m.Errors)
+			continue
+		}
+		if len(m.Atoms) != tt.atoms || len(m.Bonds) != tt.bonds {
+			t.Errorf("%s: Read(%q) = %d atoms, %d bonds; want %d, %d", tt.section, tt.have, len(m.Atoms), len(m.Bonds), tt.atoms, tt.bonds)
+		}
+		if tt.hs != nil {
+			var got []int
+			for i := range m.Atoms {
+				got = append(got, m.Atoms[i].HydrogenCount())
+			}
+			if !equalInts(got, tt.hs) {
+				t.Errorf("%s: Read(%q) hydrogens = %v, want %v", tt.section, tt.have, got, tt.hs)
+			}
+		}
+		for i, a := range m.Atoms {
+			if !strings.HasPrefix(tt.have[a.Span.Start:a.Span.End], strings.TrimPrefix(a.Symbol, "")) && !a.Bracket {
+				t.Errorf("%s: atom %d span %v does not cover %q", tt.have, i+1, a.Span, a.Symbol)
+			}
+		}
+	}
+}
+
+func equalInts(a, b []int) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		if a[i] != b[i] {
+			return false
+		}
+	}
+	return true
+}
+
+// TestReadErrors checks codes and places. In each case the offending text
+// is marked with « and »; the markers are removed before reading and give
+// the span the first error must have.
+func TestReadErrors(t *testing.T) {
+	tests := []struct {
+		source string
+		have   string
+		code   Code
+	}{
+		{"OpenSMILES 3.3 unclosed ring", "C«1»CCCC", CodeUnclosedRing},
+		{"OpenSMILES 3.3 ring bond mismatch", "C=1CCCC«#1»", CodeRingBondMismatch},
+		{"OpenSMILES 3.3 ring closure duplicating a bond", "C12CCCCC1«2»", CodeRingDuplicate},
+		{"OpenSMILES 3.3 ring closure to itself", "C1«1»", CodeRingSelf},
+		{"OpenSMILES 3.3 ring closure after the chain bond", "C1«1»C", CodeRingSelf},
+		{"OpenSMILES 3.3 adjacent ring closure", "CC1«1»", CodeRingSelf},
+		{"OpenSMILES 3.1.1 unknown element", "C[«Xx»]C", CodeUnknownElement},
+		{"OpenSMILES 3.1.5 element outside the organic subset", "C«Na»C", CodeSyntax},
+		{"OpenSMILES 3.5 kekulization", "c1cc«c»c1", CodeKekulize},
+		{"OpenSMILES 3.5 pyrrole without [nH]", "c1cc«n»c1", CodeKekulize},
+		{"OpenSMILES 3.5 aromatic atom outside a ring", "C«c»", CodeKekulize},
+		{"OpenSMILES 3.9 chirality class out of range", "F[C«@TH3»](Cl)(Br)I", CodeBadChirality},
+		{"OpenSMILES 3.9 chirality class out of range", "F[Po«@SP4»](Cl)(Br)I", CodeBadChirality},
+		{"valence, common practice", "«C»(C)(C)(C)(C)C", CodeValence},
+		{"valence of neutral nitrogen, common practice", "C«N»(=O)=O", CodeValence},
+		{"valence of fluorine, common practice", "C«F»C", CodeValence},
+		{"OpenSMILES grammar: branch before any atom", "«(»C)C", CodeSyntax},
+		{"OpenSMILES grammar: close without open", "CC«)»C", CodeSyntax},
+		{"OpenSMILES grammar: unclosed branch", "C«(»CC", CodeSyntax},
+		{"OpenSMILES grammar: bond at the end", "CC«=»", CodeSyntax},
+		{"OpenSMILES grammar: two bonds", "C=«#»C", CodeSyntax},
+		{"OpenSMILES grammar: empty branch", "C«()»C", CodeSyntax},
+		{"OpenSMILES grammar: unclosed bracket", "C[CH3«(»C", CodeSyntax},
+		{"OpenSMILES grammar: dot at start", "«.»C", CodeEmpty},
+		{"OpenSMILES grammar: empty", "«»", CodeEmpty},
+		{"OpenSMILES grammar: percent needs two digits", "C«%1»CC", CodeSyntax},
+		{"OpenSMILES grammar: lowercase non-aromatic", "C[«si»]C", CodeBadAromatic},
+		{"control character", "C«\x01»C", CodeEncoding},
+		{"invalid UTF-8", "C«\xff»C", CodeEncoding},
+		{"OpenSMILES 4.3 reaction with one arrow", "CC«>»CC", CodeReaction},
+		{"OpenSMILES 4.3 reaction with three arrows", "C>C>C«>»C", CodeReaction},
+		{"space inside the notation", "C« »C", CodeSyntax},
+	}
+	for _, tt := range tests {
+		text, want := unmark(tt.have)
+		m := Read(text)
+		if len(m.Errors) == 0 {
+			t.Errorf("%s: Read(%q): no error, want %s at %v", tt.source, text, tt.code, want)
+			continue
+		}
+		found := false
+		for _, e := range m.Errors {
+			if e.Code == tt.code && e.Span == want {
+				found = true
+			}
+			if e.Span.Start < 0 || e.Span.End > len(text) || e.Span.Start > e.Span.End {
+				t.Errorf("%s: Read(%q): span %v outside the text", tt.source, text, e.Span)
+			}
+			if e.Msg == "" || strings.ToLower(e.Msg[:1]) != e.Msg[:1] {
+				t.Errorf("%s: message %q should be a lowercase fragment", tt.source, e.Msg)
+			}
+		}
+		if !found {
+			t.Errorf("%s: Read(%q) = %v; want %s at %v", tt.source, text, m.Errors, tt.code, want)
+		}
+	}
+}
+
+// unmark removes « » markers and returns the span they enclosed.
+func unmark(s string) (string, Span) {
+	i := strings.Index(s, "«")
+	j := strings.Index(s, "»")
+	if i < 0 || j < 0 {
+		return s, Span{}
+	}
+	text := s[:i] + s[i+len("«"):j] + s[j+len("»"):]
+	return text, Span{i, j - len("«")}
+}
+
+// TestNeighbourOrder checks the stereo neighbour order of OpenSMILES 3.7:
+// the preceding atom, the bracket hydrogen, ring closures in the order
+// their digits are written, then branches and the chain.
+func TestNeighbourOrder(t *testing.T) {
+	tests := []struct {
+		have   string
+		atom   int   // 0-based
+		want   []int // neighbour atom numbers, 0-based
+		hasPrv bool
+	}{
+		{"N[C@@H](C)C(=O)O", 1, []int{0, 2, 3}, true},
+		{"[C@@H](N)(C)C", 0, []int{1, 2, 3}, false},
+		{"C[C@]1(F)CCCC1", 1, []int{0, 6, 2, 3}, true},
+		{"C[C@@]12CCCC1CC2", 1, []int{0, 5, 7, 2}, true},
+		{"C1CCCC[C@]1(F)Cl", 5, []int{4, 0, 6, 7}, true},
+		{"[C@]1(F)(Cl)CC1", 0, []int{4, 1, 2, 3}, false},
+	}
+	for _, tt := range tests {
+		m := Read(tt.have)
+		if len(m.Errors) > 0 {
+			t.Fatalf("Read(%q): %v", tt.have, m.Errors)
+		}
+		var got []int
+		for i := range m.Atoms[tt.atom].Bonds {
+			got = append(got, m.Neighbour(tt.atom, i))
+		}
+		if !equalInts(got, tt.want) || m.Atoms[tt.atom].HasPrev != tt.hasPrv {
+			t.Errorf("Read(%q) atom %d neighbours %v hasPrev %v; want %v %v", tt.have, tt.atom+1, got, m.Atoms[tt.atom].HasPrev, tt.want, tt.hasPrv)
+		}
+	}
+}
+
+func TestChiralityAndDirections(t *testing.T) {
+	m := Read("F/C=C\\[C@@H](Cl)[Po@SP3](F)(Cl)Br")
+	if len(m.Errors) > 0 {
+		t.Fatal(m.Errors)
+	}
+	if d := m.Bonds[0].Dir; d != DirUp {
+		t.Errorf("first bond direction = %v, want /", d)
+	}
+	if d := m.Bonds[2].Dir; d != DirDown {
+		t.Errorf("third bond direction = %v, want \\", d)
+	}
+	c := m.Atoms[3].Chirality
+	if c.Class != ChiralTH || c.Num != 2 || !c.Short || m.Text[c.Span.Start:c.Span.End] != "@@" {
+		t.Errorf("atom 4 chirality = %+v", c)
+	}
+	c = m.Atoms[5].Chirality
+	if c.Class != ChiralSP || c.Num != 3 || m.Text[c.Span.Start:c.Span.End] != "@SP3" {
+		t.Errorf("atom 6 chirality = %+v", c)
+	}
+	// A direction mark on a ring closure is kept at each end.
+	m = Read("F/C=C/1.C\\1")
+	if len(m.Errors) > 0 {
+		t.Fatal(m.Errors)
+	}
+	var ring *Bond
+	for i := range m.Bonds {
+		if m.Bonds[i].Ring {
+			ring = &m.Bonds[i]
+		}
+	}
+	if ring == nil || ring.Dir != DirUp || ring.CloseDir != DirDown || ring.DirFrom(ring.Begin) != DirUp {
+		t.Errorf("ring closure bond = %+v", ring)
+	}
+}
+
+func TestReaction(t *testing.T) {
+	m := Read("[CH3:1][OH:2].[Na+]>O>[CH3:1][O-:2]")
+	if len(m.Errors) > 0 {
+		t.Fatal(m.Errors)
+	}
+	roles := []Role{RoleReactant, RoleReactant, RoleReactant, RoleAgent, RoleProduct, RoleProduct}
+	for i, r := range roles {
+		if m.Atoms[i].Role != r {
+			t.Errorf("atom %d role %v, want %v", i+1, m.Atoms[i].Role, r)
+		}
+	}
+	if !m.Reaction || len(m.Arrows) != 2 || m.Atoms[4].Map != 1 {
+		t.Errorf("reaction = %v arrows %v map %d", m.Reaction, m.Arrows, m.Atoms[4].Map)
+	}
+	if m.Components != 4 {
+		t.Errorf("components = %d, want 4", m.Components)
+	}
+}
+
+func TestSplitRecord(t *testing.T) {
+	r := SplitRecord("C[C@H](N)O\tAX-0042 batch 7\r\n")
+	if r.Notation != "C[C@H](N)O" || r.Title != "AX-0042 batch 7" || r.TitleSpan.Start != 11 {
+		t.Errorf("SplitRecord = %+v", r)
+	}
+	r = SplitRecord("  CCO  ")
+	if r.Notation != "CCO" || r.Title != "" || r.NotationSpan != (Span{2, 5}) {
+		t.Errorf("SplitRecord = %+v", r)
+	}
+}
+
+// TestHostileInput checks that large and deep inputs are read in linear
+// cost without exhausting the stack.
+func TestHostileInput(t *testing.T) {
+	deep := strings.Repeat("C(", 100000) + "C" + strings.Repeat(")", 100000)
+	if m := Read(deep); len(m.Errors) != 0 || len(m.Atoms) != 100001 {
+		t.Errorf("deep branches: %d atoms, errors %v", len(m.Atoms), m.Errors.Err())
+	}
+	var b strings.Builder
+	for i := 0; i < 20000; i++ {
+		b.WriteString("C%(" + itoa(i+100) + ")")
+	}
+	for i := 0; i < 20000; i++ {
+		b.WriteString("C%(" + itoa(i+100) + ")")
+	}
+	if m := Read(b.String()); len(m.Errors) != 0 || len(m.Bonds) != 40000-1+20000 {
+		t.Errorf("20,000 ring closures: %d bonds, errors %v", len(m.Bonds), m.Errors.Err())
+	}
+	big := strings.Repeat("c1ccccc1", 1<<20/8)
+	m := Read(big)
+	if len(m.Errors) != 0 {
+		t.Errorf("1 MB record: %v", m.Errors.Err())
+	}
+	garbage := strings.Repeat("(]\x00%", 1<<18)
+	m = Read(garbage)
+	if len(m.Errors) == 0 || len(m.Errors) > maxErrors+1 {
+		t.Errorf("garbage: %d errors, want between 1 and %d", len(m.Errors), maxErrors+1)
+	}
+	unclosed := strings.Repeat("C1", 1) + strings.Repeat("C(", 50000)
+	if m := Read(unclosed); len(m.Errors) == 0 {
+		t.Errorf("unclosed branches: no error")
+	}
+}

@@ -1,0 +1,76 @@
+package stereo
+
+// Allenes and cumulenes with an even number of double bonds: extended
+// tetrahedral centres labelled M/P (m/p). The two substituents of each
+// terminal atom are ranked against each other; the pair of one end is
+// then taken as ranks 1 and 2 and the other as 3 and 4, and the written
+// winding gives R or S for that extended tetrahedron, which is M or P
+// (aR is M, aS is P; P-93.5.7, common practice).
+
+func (l *labeller) allene(c *alleneConfig) label {
+	var out label
+	rankOf := map[[2]int]int{} // (end, atom) -> rank 1..4
+	hRank := [2]int{}
+	isPseudo := false
+	for e := 0; e < 2; e++ {
+		d := newDigraph(l.g, l.cfg, c.ends[e], l.nodeCap)
+		var ligs []nodeID
+		for _, k := range d.ligandsOf(0, noNode) {
+			if d.nodes[k].atom != c.inner[e] {
+				ligs = append(ligs, k)
+			}
+		}
+		r := d.rankLigands(0, ligs)
+		if d.capped {
+			out.capped = true
+		}
+		if r.tie || len(ligs) != 2 {
+			out.tie = true
+		}
+		isPseudo = isPseudo || r.pseudo
+		for i, n := range r.order {
+			rank := 2*e + i + 1
+			a := d.ligandAtom(n)
+			if a == implicitLigand {
+				hRank[e] = rank
+			} else {
+				rankOf[[2]int{e, a}] = rank
+			}
+			out.ranked = append(out.ranked, RankedLigand{Rank: rank, Atom: a, End: e})
+		}
+		for _, dc := range r.decisions {
+			dc.End = e
+			dc.Higher += 2 * e
+			dc.Lower += 2 * e
+			out.decisions = append(out.decisions, dc)
+		}
+	}
+	switch {
+	case out.capped:
+		out.desc = DescUndetermined
+		return out
+	case out.tie || len(c.ligands) != 4:
+		out.tie = true
+		return out
+	}
+	ranks := make([]int, 4)
+	for i, a := range c.ligands {
+		if a == implicitLigand {
+			ranks[i] = hRank[c.ligEnd[i]]
+		} else {
+			ranks[i] = rankOf[[2]int{c.ligEnd[i], a}]
+		}
+		if ranks[i] == 0 {
+			out.tie = true
+			return out
+		}
+	}
+	out.desc = DescM
+	if tetrahedralDescriptor(ranks, c.winding) == DescS {
+		out.desc = DescP
+	}
+	if isPseudo {
+		out.desc = pseudo(out.desc)
+	}
+	return out
+}

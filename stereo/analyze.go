@@ -1,0 +1,192 @@
+package stereo
+
+import (
+	"sort"
+
+	"stereoline/notation"
+)
+
+// Unit is one stereogenic unit of a molecule, marked or not.
+type Unit struct {
+	Kind Kind
+	// Atoms are 0-based: the centre for tetrahedral and higher classes;
+	// the two atoms of a double bond or the two terminal atoms of a
+	// cumulene; the two terminal atoms of an allene.
+	Atoms []int
+	// Centre is the marked atom for tetrahedral, allene and higher
+	// classes, -1 otherwise. Bond is the (middle) double bond of a
+	// cis/trans unit, -1 otherwise.
+	Centre, Bond int
+	// Specified is true when the marks fix the configuration.
+	Specified bool
+	// Descriptor is the CIP label; DescNone when unspecified,
+	// DescUndetermined when the labeller gave up.
+	Descriptor Descriptor
+	// Permutation is the number of a square-planar, trigonal-bipyramidal
+	// or octahedral mark (@SP1 is 1); 0 for other kinds.
+	Permutation int
+	// Ranked lists the ligands by CIP priority; Decisions say which rule
+	// at which sphere told each neighbouring pair apart.
+	Ranked    []RankedLigand
+	Decisions []Decision
+	// Marks are the spans of the marks that specify the unit.
+	Marks []notation.Span
+}
+
+// Analysis is the result of Analyze. It is a value of its own: nothing in
+// the molecule is changed.
+type Analysis struct {
+	Units       []Unit
+	Diagnostics notation.ErrorList
+}
+
+// Options tune Analyze; the zero value is the default.
+type Options struct {
+	// NodeCap bounds the nodes of each digraph; 0 means the default.
+	NodeCap int
+}
+
+// Analyze finds the stereogenic units of m, labels them and reports the
+// marks that mean nothing or cannot be true.
+func Analyze(m *notation.Molecule) *Analysis { return AnalyzeWith(m, Options{}) }
+
+// AnalyzeWith is Analyze with options.
+func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
+	res = &Analysis{}
+	if m == nil || len(m.Atoms) == 0 {
+		return res
+	}
+	defer func() {
+		// an internal error must not reach the user; the analysis so far
+		// is kept and the failure reported at the start of the text
+		if r := recover(); r != nil {
+			res.Diagnostics.Add(notation.Span{}, CodeUndetermined, "internal error in stereo analysis: %v", r)
+		}
+	}()
+	l := &labeller{g: newGraph(m), cfg: newConfigs(), nodeCap: opt.NodeCap, res: res}
+	if l.nodeCap <= 0 {
+		l.nodeCap = defaultNodeCap
+	}
+	l.readCentres()
+	l.readBonds()
+	l.checkRingClosures()
+	l.labelAll()
+	l.perceiveUnmarked()
+	l.reportStrayBondMarks()
+	sort.SliceStable(res.Units, func(i, j int) bool { return unitKey(&res.Units[i]) < unitKey(&res.Units[j]) })
+	res.Diagnostics.Sort()
+	return res
+}
+
+func unitKey(u *Unit) int {
+	k := 1 << 30
+	for _, a := range u.Atoms {
+		k = min(k, a)
+	}
+	return k
+}
+
+// labeller holds the state of one Analyze call.
+type labeller struct {
+	g       *graph
+	cfg     *configs
+	nodeCap int
+	res     *Analysis
+
+	usedBondMarks map[int]bool // single bonds whose marks belong to some double bond
+	unitAtoms     map[int]bool // centres already reported as units or diagnostics
+	unitBonds     map[int]bool
+	anyMarks      bool
+	oneSided      []*bondConfig
+}
+
+func (l *labeller) warn(sp notation.Span, code notation.Code, format string, args ...any) *notation.Error {
+	e := l.res.Diagnostics.Add(sp, code, format, args...)
+	e.Severity = notation.SeverityWarning
+	return e
+}
+
+func (l *labeller) fail(sp notation.Span, code notation.Code, format string, args ...any) *notation.Error {
+	return l.res.Diagnostics.Add(sp, code, format, args...)
+}
+
+// readCentres reads every chirality mark.
+func (l *labeller) readCentres() {
+	g, m := l.g, l.g.mol
+	l.unitAtoms = map[int]bool{}
+	for a := range m.Atoms {
+		at := &m.Atoms[a]
+		ch := at.Chirality
+		if ch.Class == notation.ChiralNone {
+			continue
+		}
+		l.anyMarks = true
+		sp := ch.Span
+		if ch.Span.Len() == 0 {
+			sp = at.Span
+		}
+		count := len(at.Bonds) + at.HydrogenCount()
+		switch ch.Class {
+		case notation.ChiralTH, notation.ChiralAL:
+			if _, _, ok := g.alleneEnds(a); ok && (ch.Short || ch.Class == notation.ChiralAL) {
+				if c := g.readAllene(a, ch); c != nil && len(c.ligands) == 4 {
+					l.cfg.allene[a] = c
+				} else {
+					l.fail(sp, CodeImpossibleCenter, "extended tetrahedral mark needs two substituents or hydrogens at each end")
+				}
+				continue
+			}
+			if ch.Class == notation.ChiralAL {
+				l.fail(sp, CodeImpossibleCenter, "allene mark on an atom that is not the centre of an allene")
+				continue
+			}
+			if count < 3 || count > 4 || at.HydrogenCount() > 1 {
+				l.fail(sp, CodeImpossibleCenter, "tetrahedral mark needs 3 or 4 neighbours, found %d", count)
+				continue
+			}
+			if at.Aromatic {
+				l.fail(sp, CodeImpossibleCenter, "tetrahedral mark on an aromatic atom, which is planar")
+				continue
+			}
+			if (at.Number == notation.ElemC || at.Number == notation.ElemN || at.Number == notation.ElemB) && g.doubleBonds(a) > 0 {
+				l.fail(sp, CodeImpossibleCenter, "tetrahedral mark on a double-bonded atom, which is planar")
+				continue
+			}
+			if count == 3 && !hasLonePair(at, g.valence(a)) {
+				l.fail(sp, CodeImpossibleCenter, "tetrahedral mark on a three-coordinate atom without a lone pair")
+				continue
+			}
+			l.cfg.tetra[a] = &tetraConfig{centre: a, ligands: stereoLigands(m, a), winding: ch.Num,
+				lonePair: count == 3, span: sp}
+		case notation.ChiralSP, notation.ChiralTB, notation.ChiralOH:
+			kind, need := KindSquarePlanar, 4
+			if ch.Class == notation.ChiralTB {
+				kind, need = KindTrigonalBipyramidal, 5
+			} else if ch.Class == notation.ChiralOH {
+				kind, need = KindOctahedral, 6
+			}
+			if count != need {
+				l.fail(sp, CodeImpossibleCenter, "@%s mark needs %d neighbours, found %d", ch.Class, need, count)
+				continue
+			}
+			l.cfg.higher[a] = &higherConfig{centre: a, kind: kind, number: ch.Num, ligands: stereoLigands(m, a), span: sp}
+		}
+	}
+}
+
+// hasLonePair reports whether a three-coordinate atom keeps a lone pair
+// that can act as its fourth ligand (amines, phosphines, sulfoxides,
+// sulfonium ions), judged from its group and charge.
+func hasLonePair(at *notation.Atom, valence int) bool {
+	switch at.Number {
+	case notation.ElemN, notation.ElemP, notation.ElemAs:
+		return at.Charge == 0 && valence <= 5
+	case notation.ElemS, notation.ElemSe, notation.ElemTe:
+		return (at.Charge == 0 && valence == 4) || (at.Charge == 1 && valence == 3) || (at.Charge == 0 && valence == 2)
+	case notation.ElemC, notation.ElemSi, notation.ElemGe:
+		return at.Charge == -1
+	case notation.ElemO:
+		return at.Charge == 1
+	}
+	return false
+}

@@ -1,0 +1,155 @@
+package stereo
+
+// Auxiliary descriptors (P-92.1.3.4 with the 2018 guide): the
+// stereodescriptors Rules 3 to 5 compare are assigned inside the digraph,
+// to the nodes of stereogenic atoms and double bonds, by ranking each
+// node's ligands in the tree re-rooted at that node. A node's ranking may
+// use the auxiliary descriptors of nodes farther from the original root
+// only, which keeps the recursion finite.
+
+// auxFor returns the auxiliary descriptor of n as used in the view rooted
+// at root, or DescNone when n lies no farther out than the view's root.
+func (d *digraph) auxFor(root, n nodeID) Descriptor {
+	if n == noNode || d.nodes[n].depth <= d.nodes[root].depth || d.nodes[n].kind != nodeAtom {
+		return DescNone
+	}
+	if x, ok := d.aux[n]; ok {
+		return x
+	}
+	if d.auxing[n] {
+		return DescNone
+	}
+	d.auxing[n] = true
+	x := d.computeAux(n)
+	delete(d.auxing, n)
+	d.aux[n] = x
+	return x
+}
+
+func (d *digraph) computeAux(n nodeID) Descriptor {
+	a := d.nodes[n].atom
+	if t, ok := d.cfg.tetra[a]; ok {
+		return d.auxTetrahedral(n, t)
+	}
+	// a configured double bond from this atom to a tree neighbour
+	for _, y := range d.neighbours(n, noNode) {
+		if d.nodes[y].kind != nodeAtom {
+			continue
+		}
+		bi := d.g.mol.BondBetween(a, d.nodes[y].atom)
+		if bi < 0 {
+			continue
+		}
+		if c, ok := d.cfg.bonds[bi]; ok && c.inner[0] == c.ends[1] {
+			return d.auxDoubleBond(n, y, c)
+		}
+	}
+	return DescNone
+}
+
+// auxTetrahedral labels a tetrahedral node in the tree re-rooted at it.
+func (d *digraph) auxTetrahedral(n nodeID, t *tetraConfig) Descriptor {
+	ligs := d.ligandsOf(n, noNode)
+	if len(ligs) == 3 && t.lonePair {
+		if lp := d.lonePair(n); lp != noNode {
+			ligs = append(ligs, lp)
+		}
+	}
+	if len(ligs) != len(t.ligands) || len(ligs) != 4 {
+		return DescNone
+	}
+	r := d.rankLigands(n, ligs)
+	if r.tie || d.capped {
+		return DescNone
+	}
+	x, ok := d.descriptorFromRanking(r, t)
+	if !ok {
+		return DescNone
+	}
+	if r.pseudo {
+		x = pseudo(x)
+	}
+	return x
+}
+
+// descriptorFromRanking maps ranked ligand nodes onto the written ligand
+// order of a tetrahedral configuration.
+func (d *digraph) descriptorFromRanking(r ranking, t *tetraConfig) (Descriptor, bool) {
+	ranks := make([]int, len(t.ligands))
+	used := make([]bool, len(r.order))
+	for i, atom := range t.ligands {
+		for k, nd := range r.order {
+			if !used[k] && d.ligandAtom(nd) == atom {
+				ranks[i] = k + 1
+				used[k] = true
+				break
+			}
+		}
+		if ranks[i] == 0 {
+			return DescNone, false
+		}
+	}
+	return tetrahedralDescriptor(ranks, t.winding), true
+}
+
+// auxDoubleBond labels the double bond between node x and its tree
+// neighbour y.
+func (d *digraph) auxDoubleBond(x, y nodeID, c *bondConfig) Descriptor {
+	hx, px, okx := d.topLigand(x, y)
+	hy, py, oky := d.topLigand(y, x)
+	if !okx || !oky {
+		return DescNone
+	}
+	ax := d.nodes[x].atom
+	trans := c.trans
+	if ax == c.ends[0] {
+		trans = trans != (hx != c.refs[0]) != (hy != c.refs[1])
+	} else {
+		trans = trans != (hx != c.refs[1]) != (hy != c.refs[0])
+	}
+	x2 := DescZ
+	if trans {
+		x2 = DescE
+	}
+	if px || py {
+		x2 = pseudo(x2)
+	}
+	return x2
+}
+
+// topLigand ranks the ligands of end n of a double bond (the partner
+// excluded) in the view rooted at n and returns the atom of the highest,
+// whether Rule 5 was needed, and false on a tie.
+func (d *digraph) topLigand(n, partner nodeID) (int, bool, bool) {
+	ligs := d.ligandsOf(n, partner)
+	switch len(ligs) {
+	case 0:
+		return 0, false, false
+	case 1:
+		return d.ligandAtom(ligs[0]), false, true
+	}
+	r := d.rankLigands(n, ligs)
+	if r.tie || d.capped {
+		return 0, false, false
+	}
+	return d.ligandAtom(r.order[0]), r.pseudo, true
+}
+
+// pseudo returns the lowercase form of a descriptor.
+func pseudo(x Descriptor) Descriptor {
+	switch x {
+	case DescR:
+		return DescPseudoR
+	case DescS:
+		return DescPseudoS
+	case DescE:
+		return DescPseudoE
+	case DescZ:
+		return DescPseudoZ
+	case DescM:
+		return DescPseudoM
+	case DescP:
+		return DescPseudoP
+	}
+	return x
+}

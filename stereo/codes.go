@@ -1,0 +1,17 @@
+package stereo
+
+import "stereoline/notation"
+
+// Diagnostic codes reported by the stereo engine. Like the reader's codes
+// they are part of the public interface and never renamed.
+const (
+	CodeIneffectiveCenter notation.Code = "stereo-ineffective-center" // a tetrahedral or extended mark on a unit that is not stereogenic
+	CodeImpossibleCenter  notation.Code = "stereo-impossible-center"  // a mark that cannot apply to its atom
+	CodeOneSidedBond      notation.Code = "stereo-one-sided-bond"     // only one end of a double bond is marked
+	CodeIneffectiveBond   notation.Code = "stereo-ineffective-bond"   // direction marks that specify nothing
+	CodeConflictingMarks  notation.Code = "stereo-conflicting-marks"  // direction marks that contradict each other
+	CodeStrainedRing      notation.Code = "stereo-strained-ring"      // a trans double bond in a ring of fewer than 8 atoms
+	CodeInvertingNitrogen notation.Code = "stereo-inverting-nitrogen" // a mark on a nitrogen that inverts quickly
+	CodeUndefined         notation.Code = "stereo-undefined"          // a stereogenic unit left unmarked
+	CodeUndetermined      notation.Code = "stereo-undetermined"       // the labeller hit its node cap
+)

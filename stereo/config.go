@@ -1,0 +1,208 @@
+package stereo
+
+import (
+	"sort"
+
+	"stereoline/notation"
+)
+
+// The configuration as written: each mark read over the neighbour order
+// OpenSMILES defines, before any question of whether it means anything.
+
+// implicitLigand stands for an implicit or bracket hydrogen, or a lone
+// pair, in a ligand list.
+const implicitLigand = -1
+
+// tetraConfig is a tetrahedral mark: the ligands in stereo order and the
+// winding seen from the first (1 anticlockwise '@', 2 clockwise '@@').
+type tetraConfig struct {
+	centre   int
+	ligands  []int
+	winding  int
+	lonePair bool // the implicit ligand is a lone pair, not a hydrogen
+	span     notation.Span
+}
+
+// bondConfig is a cis/trans configuration on a double bond or an odd
+// cumulene, between the terminal atoms ends[0] and ends[1]: refs are one
+// substituent at each end and trans says whether they lie on opposite
+// sides.
+type bondConfig struct {
+	bond  int    // the (middle) double bond
+	ends  [2]int // terminal atoms
+	inner [2]int // the chain atom bonded to each terminal
+	refs  [2]int
+	trans bool
+	spans []notation.Span
+}
+
+// alleneConfig is an extended tetrahedral mark on the centre of an even
+// cumulene: the four substituents of the terminal atoms in OpenSMILES
+// order, which end each belongs to, and the winding.
+type alleneConfig struct {
+	centre  int
+	ends    [2]int
+	inner   [2]int
+	ligands []int
+	ligEnd  []int
+	winding int
+	span    notation.Span
+}
+
+// higherConfig keeps a square-planar, trigonal-bipyramidal or octahedral
+// mark with its permutation number; the engine does not label them.
+type higherConfig struct {
+	centre  int
+	kind    Kind
+	number  int
+	ligands []int
+	span    notation.Span
+}
+
+// configs gathers every configuration read from the marks.
+type configs struct {
+	tetra  map[int]*tetraConfig
+	bonds  map[int]*bondConfig // by the bond index of each double bond of the unit
+	allene map[int]*alleneConfig
+	higher map[int]*higherConfig
+}
+
+func newConfigs() *configs {
+	return &configs{tetra: map[int]*tetraConfig{}, bonds: map[int]*bondConfig{},
+		allene: map[int]*alleneConfig{}, higher: map[int]*higherConfig{}}
+}
+
+// stereoLigands lists the ligands of atom a in stereo order, with the
+// bracket hydrogen at its slot.
+func stereoLigands(m *notation.Molecule, a int) []int {
+	at := &m.Atoms[a]
+	var out []int
+	for _, bi := range at.Bonds {
+		out = append(out, m.Bonds[bi].Other(a))
+	}
+	for h := 0; h < at.HydrogenCount(); h++ {
+		slot := at.HydrogenSlot()
+		if slot > len(out) {
+			slot = len(out)
+		}
+		out = append(out, 0)
+		copy(out[slot+1:], out[slot:])
+		out[slot] = implicitLigand
+	}
+	return out
+}
+
+// cumulene follows a chain of cumulated double bonds from atom a through
+// neighbour b (a=b). It returns the terminal atom reached, the chain atom
+// next to it, and the number of double bonds walked.
+func (g *graph) cumulene(a, b int) (terminal, inner, count int) {
+	prev, cur := a, b
+	count = 1
+	for g.cumulated(cur) && count < g.n {
+		next := -1
+		for _, e := range g.adj[cur] {
+			if e.to != prev && e.order == 2 {
+				next = e.to
+			}
+		}
+		if next < 0 {
+			break
+		}
+		prev, cur = cur, next
+		count++
+	}
+	return cur, prev, count
+}
+
+// cumulated reports whether a is an inner atom of a cumulene: exactly two
+// neighbours, both through double bonds.
+func (g *graph) cumulated(a int) bool {
+	if len(g.adj[a]) != 2 || g.hyd[a] != 0 {
+		return false
+	}
+	return g.adj[a][0].order == 2 && g.adj[a][1].order == 2
+}
+
+// alleneEnds returns the terminal atoms of the even cumulene centred on
+// c, or ok false when c is no such centre.
+func (g *graph) alleneEnds(c int) (ends, inner [2]int, ok bool) {
+	if !g.cumulated(c) {
+		return ends, inner, false
+	}
+	t0, i0, n0 := g.cumulene(c, g.adj[c][0].to)
+	t1, i1, n1 := g.cumulene(c, g.adj[c][1].to)
+	if n0 != n1 || t0 == t1 {
+		return ends, inner, false
+	}
+	return [2]int{t0, t1}, [2]int{i0, i1}, true
+}
+
+// substituents lists the neighbours of terminal t other than the chain
+// atom, plus its implicit hydrogens, as (atom, sort key) pairs; a
+// hydrogen sorts at the terminal's own position.
+func (g *graph) substituents(t, inner int) (atoms []int, keys []float64) {
+	for _, e := range g.adj[t] {
+		if e.to != inner {
+			atoms = append(atoms, e.to)
+			keys = append(keys, float64(e.to))
+		}
+	}
+	for h := 0; h < g.hyd[t]; h++ {
+		atoms = append(atoms, implicitLigand)
+		keys = append(keys, float64(t))
+	}
+	return atoms, keys
+}
+
+// readAllene builds the extended tetrahedral configuration at c.
+func (g *graph) readAllene(c int, ch notation.Chirality) *alleneConfig {
+	ends, inner, ok := g.alleneEnds(c)
+	if !ok {
+		return nil
+	}
+	cfg := &alleneConfig{centre: c, ends: ends, inner: inner, winding: ch.Num, span: ch.Span}
+	type lig struct {
+		atom, end int
+		key       float64
+	}
+	var ls []lig
+	for e := 0; e < 2; e++ {
+		atoms, keys := g.substituents(ends[e], inner[e])
+		for i := range atoms {
+			ls = append(ls, lig{atoms[i], e, keys[i]})
+		}
+	}
+	sort.SliceStable(ls, func(i, j int) bool { return ls[i].key < ls[j].key })
+	for _, l := range ls {
+		cfg.ligands = append(cfg.ligands, l.atom)
+		cfg.ligEnd = append(cfg.ligEnd, l.end)
+	}
+	return cfg
+}
+
+// markedSides returns, for terminal t of a cis/trans unit, the marked
+// substituents and the side of each: the direction of the bond read from
+// the substituent towards t.
+func (g *graph) markedSides(t, inner int) (atoms []int, sides []notation.Direction, spans []notation.Span) {
+	m := g.mol
+	for _, e := range g.adj[t] {
+		if e.to == inner || e.order != 1 {
+			continue
+		}
+		b := &m.Bonds[e.bond]
+		if d := b.DirFrom(e.to); d != notation.DirNone {
+			atoms = append(atoms, e.to)
+			sides = append(sides, d)
+			spans = append(spans, markSpan(b))
+		}
+	}
+	return atoms, sides, spans
+}
+
+// markSpan is the span of the direction mark(s) on a bond.
+func markSpan(b *notation.Bond) notation.Span {
+	if b.Dir == notation.DirNone && b.Ring && b.CloseDir != notation.DirNone {
+		return b.CloseSpan
+	}
+	return b.Span
+}

@@ -1,0 +1,229 @@
+package stereo
+
+// The hierarchical digraph of P-92.1.4: a tree of paths that starts at
+// the stereogenic unit (the root) and grows outwards, one sphere at a
+// time. An atom met again on a path (a ring closure) becomes a duplicate
+// node without substituents, and each extra bond order adds duplicates
+// at both ends of a multiple bond. The tree grows lazily, only as far as
+// comparisons need, and stops at a node cap so that no molecule can make
+// the labeller run without bound.
+
+// nodeID indexes digraph.nodes; noNode is the absent node.
+type nodeID int32
+
+const noNode nodeID = -1
+
+// nodeKind says what a node stands for.
+type nodeKind uint8
+
+const (
+	nodeAtom      nodeKind = iota // an atom of the molecule
+	nodeDuplicate                 // a duplicate atom (ring closure or multiple bond)
+	nodeHydrogen                  // a hydrogen that is not an atom of its own
+	nodeLonePair                  // the lone pair of a three-coordinate centre
+)
+
+// node is one vertex of the digraph.
+type node struct {
+	atom     int // atom index; -1 for hydrogens and lone pairs
+	kind     nodeKind
+	parent   nodeID
+	depth    int
+	z        float64 // atomic number (averaged for mancude duplicates)
+	mass     float64
+	corr     nodeID // for a duplicate: the node of the atom it duplicates
+	bond     int    // bond to the parent; -1 for the root and implicit atoms
+	kids     []nodeID
+	expanded bool
+	ringDup  bool // a duplicate closing a ring (a real ligand), not an extra bond order
+}
+
+// digraph is one hierarchical digraph. It belongs to one labelling call
+// and is discarded afterwards; nothing in it is shared.
+type digraph struct {
+	g      *graph
+	nodes  []node
+	limit  int
+	capped bool
+
+	sorted map[sortKey][]nodeID
+	aux    map[nodeID]Descriptor
+	auxing map[nodeID]bool
+	cfg    *configs
+}
+
+type sortKey struct {
+	n, from, root nodeID
+	level         int
+}
+
+// defaultNodeCap bounds every digraph. Real molecules of a few hundred
+// atoms stay far below it; ladders of fused rings reach it, and their
+// units are reported undetermined.
+const defaultNodeCap = 40000
+
+func newDigraph(g *graph, cfg *configs, rootAtom int, limit int) *digraph {
+	d := &digraph{g: g, limit: limit, cfg: cfg,
+		sorted: map[sortKey][]nodeID{}, aux: map[nodeID]Descriptor{}, auxing: map[nodeID]bool{}}
+	d.nodes = append(d.nodes, node{atom: rootAtom, kind: nodeAtom, parent: noNode, corr: noNode, bond: -1,
+		z: float64(g.z[rootAtom]), mass: g.mass[rootAtom]})
+	return d
+}
+
+func (d *digraph) add(n node) nodeID {
+	if len(d.nodes) >= d.limit {
+		d.capped = true
+		return noNode
+	}
+	d.nodes = append(d.nodes, n)
+	return nodeID(len(d.nodes) - 1)
+}
+
+// kids returns the children of n in the tree as grown from the root,
+// growing them on first use.
+func (d *digraph) kids(n nodeID) []nodeID {
+	if n == noNode {
+		return nil
+	}
+	if !d.nodes[n].expanded {
+		d.expand(n)
+	}
+	return d.nodes[n].kids
+}
+
+// onPath returns the node on the path from the root to n (n included)
+// that stands for atom a, or noNode.
+func (d *digraph) onPath(n nodeID, a int) nodeID {
+	for ; n != noNode; n = d.nodes[n].parent {
+		if d.nodes[n].kind == nodeAtom && d.nodes[n].atom == a {
+			return n
+		}
+	}
+	return noNode
+}
+
+func (d *digraph) expand(n nodeID) {
+	d.nodes[n].expanded = true
+	x := d.nodes[n]
+	if x.kind != nodeAtom {
+		return
+	}
+	g := d.g
+	a := x.atom
+	var kids []nodeID
+	push := func(k nodeID) {
+		if k != noNode {
+			kids = append(kids, k)
+		}
+	}
+	dupZ := func(carrier, of int, bond int) float64 {
+		if g.inMancude(carrier, of) && g.ringBond[bond] {
+			return g.mancudeZ[carrier]
+		}
+		return float64(g.z[of])
+	}
+	for _, e := range g.adj[a] {
+		if e.bond == x.bond {
+			// the bond back to the parent: only its extra orders appear
+			for i := 1; i < e.order; i++ {
+				push(d.add(node{atom: e.to, kind: nodeDuplicate, parent: n, depth: x.depth + 1,
+					z: dupZ(a, e.to, e.bond), mass: g.mass[e.to], corr: x.parent, bond: e.bond, expanded: true}))
+			}
+			continue
+		}
+		if anc := d.onPath(n, e.to); anc != noNode {
+			// a ring closure back to an atom already on the path
+			for i := 0; i < e.order; i++ {
+				z := float64(g.z[e.to])
+				if i > 0 {
+					z = dupZ(a, e.to, e.bond)
+				}
+				push(d.add(node{atom: e.to, kind: nodeDuplicate, parent: n, depth: x.depth + 1,
+					z: z, mass: g.mass[e.to], corr: anc, bond: e.bond, expanded: true, ringDup: i == 0}))
+			}
+			continue
+		}
+		k := d.add(node{atom: e.to, kind: nodeAtom, parent: n, depth: x.depth + 1, corr: noNode,
+			z: float64(g.z[e.to]), mass: g.mass[e.to], bond: e.bond})
+		if k == noNode {
+			break
+		}
+		push(k)
+		for i := 1; i < e.order; i++ {
+			push(d.add(node{atom: e.to, kind: nodeDuplicate, parent: n, depth: x.depth + 1,
+				z: dupZ(a, e.to, e.bond), mass: g.mass[e.to], corr: k, bond: e.bond, expanded: true}))
+		}
+	}
+	for i := 0; i < g.hyd[a]; i++ {
+		push(d.add(node{atom: -1, kind: nodeHydrogen, parent: n, depth: x.depth + 1, corr: noNode,
+			z: 1, mass: atomMass(1, 0), bond: -1, expanded: true}))
+	}
+	d.nodes[n].kids = kids
+}
+
+// lonePair adds a lone-pair node under n (used for the ligands of
+// three-coordinate centres).
+func (d *digraph) lonePair(n nodeID) nodeID {
+	return d.add(node{atom: -1, kind: nodeLonePair, parent: n, depth: d.nodes[n].depth + 1, corr: noNode, bond: -1, expanded: true})
+}
+
+// neighbours returns the tree neighbours of n seen from a view whose
+// walk arrived at n from `from`: the parent and the children, minus from.
+func (d *digraph) neighbours(n, from nodeID) []nodeID {
+	ks := d.kids(n)
+	p := d.nodes[n].parent
+	if from == p {
+		return ks
+	}
+	out := make([]nodeID, 0, len(ks)+1)
+	if p != noNode {
+		out = append(out, p)
+	}
+	for _, k := range ks {
+		if k != from {
+			out = append(out, k)
+		}
+	}
+	return out
+}
+
+// treeDistance is the number of edges between two nodes of the tree.
+func (d *digraph) treeDistance(a, b nodeID) int {
+	da, db := d.nodes[a].depth, d.nodes[b].depth
+	n := 0
+	for da > db {
+		a = d.nodes[a].parent
+		da--
+		n++
+	}
+	for db > da {
+		b = d.nodes[b].parent
+		db--
+		n++
+	}
+	for a != b {
+		a, b = d.nodes[a].parent, d.nodes[b].parent
+		n += 2
+	}
+	return n
+}
+
+// isLigand reports whether a tree neighbour counts as a ligand of its
+// atom: everything except the duplicates that stand for extra bond
+// orders.
+func (d *digraph) isLigand(n nodeID) bool {
+	x := &d.nodes[n]
+	return x.kind != nodeDuplicate || x.ringDup
+}
+
+// ligandsOf returns the ligands of n seen from `from` (excluded), that
+// is its tree neighbours without bond-order duplicates.
+func (d *digraph) ligandsOf(n, from nodeID) []nodeID {
+	var out []nodeID
+	for _, k := range d.neighbours(n, from) {
+		if d.isLigand(k) {
+			out = append(out, k)
+		}
+	}
+	return out
+}

@@ -1,0 +1,55 @@
+package document
+
+import (
+	"sync"
+
+	"stereoline/notation"
+	"stereoline/stereo"
+)
+
+// cacheLimit bounds the entries of one cache generation. When a
+// generation fills, the older one is dropped, so memory stays bounded
+// while the records of the file being edited stay warm.
+const cacheLimit = 250_000
+
+// analysis is what the engine knows of one notation text, independent of
+// where it was found.
+type analysis struct {
+	mol    *notation.Molecule
+	stereo *stereo.Analysis
+}
+
+// cache holds analyses keyed by notation text. Repeated records and an
+// edit of one line of a large list re-analyse only what changed.
+type cache struct {
+	mu       sync.Mutex
+	cur, old map[string]*analysis
+}
+
+func newCache() *cache {
+	return &cache{cur: map[string]*analysis{}, old: map[string]*analysis{}}
+}
+
+// get returns the analysis of text, computing it outside the lock.
+func (c *cache) get(text string) *analysis {
+	c.mu.Lock()
+	if a, ok := c.cur[text]; ok {
+		c.mu.Unlock()
+		return a
+	}
+	if a, ok := c.old[text]; ok {
+		c.cur[text] = a
+		c.mu.Unlock()
+		return a
+	}
+	c.mu.Unlock()
+	m := notation.Read(text)
+	a := &analysis{mol: m, stereo: stereo.Analyze(m)}
+	c.mu.Lock()
+	if len(c.cur) >= cacheLimit {
+		c.old, c.cur = c.cur, map[string]*analysis{}
+	}
+	c.cur[text] = a
+	c.mu.Unlock()
+	return a
+}

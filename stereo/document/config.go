@@ -1,0 +1,98 @@
+// Package document is the one engine behind the checker and the language
+// server: it finds notation in a host file, reads and labels every
+// record, relates the records of a list, and answers the questions an
+// editor asks (diagnostics, hover, labels, rewrites) in host byte
+// offsets. It knows nothing of LSP; converting offsets to editor
+// positions is the caller's job.
+package document
+
+import (
+	"encoding/json"
+	"fmt"
+
+	"stereoline/notation"
+	"stereoline/notation/find"
+)
+
+// Config is the configuration shared by the checker's configuration file
+// and the language server's settings. The zero value is not the default;
+// use DefaultConfig.
+type Config struct {
+	// Severity overrides the severity of a diagnostic code: "error",
+	// "warning", "information", "hint" or "off".
+	Severity map[string]string `json:"severity,omitempty"`
+	// InlayHints turns the inline descriptors on or off.
+	InlayHints bool `json:"inlayHints"`
+	// Detection is how eagerly string literals are taken as notation:
+	// "normal" (names, places and unmistakable literals) or "names"
+	// (only where a name or place says so).
+	Detection string `json:"detection,omitempty"`
+	// Columns names extra CSV/TSV columns that hold notation.
+	Columns []string `json:"columns,omitempty"`
+	// Names lists extra words that mark a variable, key or argument as
+	// holding notation.
+	Names []string `json:"names,omitempty"`
+	// Files maps extra file patterns (path.Match syntax on the base name)
+	// to a host kind: "smi", "csv", "tsv", "python", "markdown", ...
+	Files map[string]string `json:"files,omitempty"`
+}
+
+// DefaultConfig returns the configuration used when nothing is set.
+func DefaultConfig() Config {
+	return Config{InlayHints: true, Detection: "normal"}
+}
+
+// Validate reports settings that cannot be honoured, naming them.
+func (c *Config) Validate() error {
+	for code, s := range c.Severity {
+		if s == "off" {
+			continue
+		}
+		if _, ok := notation.ParseSeverity(s); !ok {
+			return fmt.Errorf("severity of %q: expected error, warning, information, hint or off, found %q", code, s)
+		}
+	}
+	switch c.Detection {
+	case "", "normal", "names":
+	default:
+		return fmt.Errorf("detection: expected normal or names, found %q", c.Detection)
+	}
+	return nil
+}
+
+// Merge applies the settings present in a JSON object on top of c, so a
+// partial settings object from an editor changes only what it names.
+func (c *Config) Merge(raw json.RawMessage) error {
+	if len(raw) == 0 || string(raw) == "null" {
+		return nil
+	}
+	next := *c
+	if err := json.Unmarshal(raw, &next); err != nil {
+		return err
+	}
+	if err := next.Validate(); err != nil {
+		return err
+	}
+	*c = next
+	return nil
+}
+
+// severityFor applies the overrides to a diagnostic's own severity; ok is
+// false when the code is switched off.
+func (c *Config) severityFor(code notation.Code, s notation.Severity) (notation.Severity, bool) {
+	v, set := c.Severity[string(code)]
+	if !set {
+		return s, true
+	}
+	if v == "off" {
+		return s, false
+	}
+	if p, ok := notation.ParseSeverity(v); ok {
+		return p, true
+	}
+	return s, true
+}
+
+func (c *Config) findConfig() find.Config {
+	return find.Config{Columns: c.Columns, Names: c.Names, NoGuess: c.Detection == "names"}
+}

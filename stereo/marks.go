@@ -1,0 +1,136 @@
+package stereo
+
+import "stereoline/notation"
+
+// readBonds reads the '/' and '\' marks around every double bond and odd
+// cumulene, reporting one-sided and contradictory marks.
+func (l *labeller) readBonds() {
+	g, m := l.g, l.g.mol
+	l.usedBondMarks = map[int]bool{}
+	l.unitBonds = map[int]bool{}
+	seen := map[int]bool{}
+	for bi := range m.Bonds {
+		b := &m.Bonds[bi]
+		if b.Dir != notation.DirNone || b.CloseDir != notation.DirNone {
+			l.anyMarks = true
+		}
+		if seen[bi] || bondOrder(b) != 2 || b.Order == notation.OrderAromatic {
+			continue
+		}
+		// walk the cumulene this bond belongs to
+		t0, i0, n0 := g.cumulene(b.End, b.Begin)
+		t1, i1, n1 := g.cumulene(b.Begin, b.End)
+		count := n0 + n1 - 1
+		l.markChain(t0, i0, seen)
+		if count%2 == 0 || t0 == t1 {
+			continue // even cumulene: an axial unit, read from its centre mark
+		}
+		mid := l.middleBond(t0, i0, count)
+		c := &bondConfig{bond: mid, ends: [2]int{t0, t1}, inner: [2]int{i0, i1}}
+		marked := [2]bool{}
+		ok := true
+		var sides [2]notation.Direction
+		for e := 0; e < 2; e++ {
+			atoms, ss, spans := g.markedSides(c.ends[e], c.inner[e])
+			for _, x := range atoms {
+				l.usedBondMarks[m.BondBetween(x, c.ends[e])] = true
+			}
+			c.spans = append(c.spans, spans...)
+			if len(atoms) == 0 {
+				continue
+			}
+			marked[e] = true
+			c.refs[e], sides[e] = atoms[0], ss[0]
+			if len(atoms) == 2 && ss[0] == ss[1] {
+				ok = false
+				err := l.fail(spans[1], CodeConflictingMarks, "both substituents of this end are marked on the same side")
+				err.Related = append(err.Related, notation.Related{Span: spans[0], Msg: "the other mark at this end"})
+			}
+		}
+		if !ok {
+			continue
+		}
+		switch {
+		case marked[0] && marked[1]:
+			c.trans = sides[0] != sides[1]
+			l.cfg.bonds[bi] = c
+			if mid != bi {
+				l.cfg.bonds[mid] = c
+			}
+		case marked[0] || marked[1]:
+			l.oneSided = append(l.oneSided, c)
+		}
+	}
+}
+
+// markChain records every double bond of the cumulene starting at
+// terminal t (through inner) as seen.
+func (l *labeller) markChain(t, inner int, seen map[int]bool) {
+	g := l.g
+	prev, cur := t, inner
+	for steps := 0; steps <= g.n; steps++ {
+		bi := g.mol.BondBetween(prev, cur)
+		if bi < 0 || seen[bi] {
+			return
+		}
+		seen[bi] = true
+		if !g.cumulated(cur) {
+			return
+		}
+		next := -1
+		for _, e := range g.adj[cur] {
+			if e.to != prev {
+				next = e.to
+			}
+		}
+		prev, cur = cur, next
+	}
+}
+
+// middleBond returns the middle double bond of an odd cumulene of count
+// double bonds starting at terminal t.
+func (l *labeller) middleBond(t, inner, count int) int {
+	g := l.g
+	prev, cur := t, inner
+	for i := 0; i < count/2; i++ {
+		next := -1
+		for _, e := range g.adj[cur] {
+			if e.to != prev {
+				next = e.to
+			}
+		}
+		prev, cur = cur, next
+	}
+	return g.mol.BondBetween(prev, cur)
+}
+
+// checkRingClosures reports ring-closure bonds marked differently at
+// their two digits.
+func (l *labeller) checkRingClosures() {
+	for bi := range l.g.mol.Bonds {
+		b := &l.g.mol.Bonds[bi]
+		if b.Ring && b.Dir != notation.DirNone && b.CloseDir != notation.DirNone && b.CloseDir != b.Dir.Reverse() {
+			err := l.fail(b.CloseSpan, CodeConflictingMarks, "ring closure marked %s here but %s at its opening digit", b.CloseDir, b.Dir)
+			err.Related = append(err.Related, notation.Related{Span: b.Span, Msg: "the opening digit"})
+			for k, c := range l.cfg.bonds {
+				for e := 0; e < 2; e++ {
+					if l.g.mol.BondBetween(c.ends[e], c.refs[e]) == bi {
+						delete(l.cfg.bonds, k)
+					}
+				}
+			}
+		}
+	}
+}
+
+// reportStrayBondMarks warns about direction marks next to no double
+// bond at all.
+func (l *labeller) reportStrayBondMarks() {
+	for bi := range l.g.mol.Bonds {
+		b := &l.g.mol.Bonds[bi]
+		if (b.Dir == notation.DirNone && b.CloseDir == notation.DirNone) || l.usedBondMarks[bi] {
+			continue
+		}
+		l.warn(markSpan(b), CodeIneffectiveBond, "direction mark next to no double bond")
+	}
+}

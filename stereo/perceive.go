@@ -1,0 +1,194 @@
+package stereo
+
+import "stereoline/notation"
+
+// perceiveUnmarked finds stereogenic units that carry no mark and
+// reports them as undefined. Constitutional symmetry classes decide:
+// a tetrahedral atom whose four ligands fall in four classes, a double
+// bond whose ends each carry two ligands of different classes, and the
+// units that are stereogenic only together (two ring atoms each with one
+// pair of equal ring branches, as in 1,4-disubstituted cyclohexanes).
+func (l *labeller) perceiveUnmarked() {
+	g := l.g
+	class := symmetryClasses(g)
+	sev := notation.SeverityHint
+	if l.anyMarks {
+		sev = notation.SeverityInformation
+	}
+	report := func(sp notation.Span, what string) {
+		e := l.res.Diagnostics.Add(sp, CodeUndefined, "%s", what)
+		e.Severity = sev
+	}
+	var paired []int // candidate atoms with one pair of equal ring branches
+	for a := 0; a < g.n; a++ {
+		if l.unitAtoms[a] || !tetrahedralCapable(g, a) {
+			continue
+		}
+		distinct, pairInRing := ligandClasses(g, a, class)
+		switch {
+		case distinct:
+			l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1})
+			report(g.mol.Atoms[a].Span, "stereocentre without a configuration")
+		case pairInRing:
+			paired = append(paired, a)
+		}
+	}
+	// units stereogenic together: two paired atoms on one ring
+	for _, ring := range g.rings {
+		var on []int
+		for _, a := range paired {
+			for _, r := range ring {
+				if r == a {
+					on = append(on, a)
+				}
+			}
+		}
+		if len(on) < 2 {
+			continue
+		}
+		for _, a := range on {
+			if l.unitAtoms[a] {
+				continue
+			}
+			l.unitAtoms[a] = true
+			l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1})
+			report(g.mol.Atoms[a].Span, "stereocentre (together with another ring atom) without a configuration")
+		}
+	}
+	for bi := range g.mol.Bonds {
+		b := &g.mol.Bonds[bi]
+		if l.unitBonds[bi] || bondOrder(b) != 2 || b.Order == notation.OrderAromatic || g.mancudeZ[b.Begin] > 0 && g.mancudeZ[b.End] > 0 {
+			continue
+		}
+		if g.cumulated(b.Begin) || g.cumulated(b.End) {
+			continue
+		}
+		if s := g.smallRing[bi]; s > 0 && s < 8 {
+			continue
+		}
+		if bondEndDistinct(g, b.Begin, b.End, class) && bondEndDistinct(g, b.End, b.Begin, class) {
+			l.res.Units = append(l.res.Units, Unit{Kind: KindDoubleBond, Atoms: []int{b.Begin, b.End}, Centre: -1, Bond: bi})
+			report(b.Span, "stereogenic double bond without a configuration")
+		}
+	}
+}
+
+// tetrahedralCapable reports whether an atom can be a tetrahedral centre
+// that holds its configuration: four ligands (hydrogens counted) on an
+// sp3 atom, or three with a lone pair on P, As, S, Se.
+func tetrahedralCapable(g *graph, a int) bool {
+	at := &g.mol.Atoms[a]
+	if at.Aromatic || g.hyd[a] > 1 {
+		return false
+	}
+	deg := g.degree(a)
+	switch at.Number {
+	case notation.ElemC, notation.ElemSi, notation.ElemGe, notation.ElemB:
+		return deg == 4 && g.doubleBonds(a) == 0
+	case notation.ElemN:
+		return deg == 4 && at.Charge == 1
+	case notation.ElemP, notation.ElemAs:
+		return deg == 4 || (deg == 3 && at.Charge == 0 && g.valence(a) == 3)
+	case notation.ElemS, notation.ElemSe:
+		return deg == 3 && hasLonePair(at, g.valence(a))
+	}
+	return false
+}
+
+// ligandClasses says whether the ligands of a fall in distinct symmetry
+// classes, and otherwise whether exactly one pair is equal and both of
+// that pair are ring bonds.
+func ligandClasses(g *graph, a int, class []int) (distinct, pairInRing bool) {
+	seen := map[int]int{}
+	if g.hyd[a] == 1 {
+		seen[-1] = -1
+	}
+	pairs := 0
+	ringPair := false
+	for _, e := range g.adj[a] {
+		k := class[e.to]
+		if prev, ok := seen[k]; ok {
+			pairs++
+			ringPair = g.ringBond[e.bond] && prev >= 0 && g.ringBond[prev]
+			continue
+		}
+		seen[k] = e.bond
+	}
+	return pairs == 0, pairs == 1 && ringPair
+}
+
+// bondEndDistinct reports whether end a of the double bond a=b carries
+// two ligands of different classes (a hydrogen or lone pair counting as
+// one).
+func bondEndDistinct(g *graph, a, b int, class []int) bool {
+	var others []int
+	for _, e := range g.adj[a] {
+		if e.to != b {
+			others = append(others, class[e.to])
+		}
+	}
+	switch len(others) {
+	case 1:
+		return g.hyd[a] == 1 || (g.hyd[a] == 0 && g.z[a] == notation.ElemN)
+	case 2:
+		return others[0] != others[1]
+	}
+	return false
+}
+
+// symmetryClasses partitions the atoms by constitution: atoms start in
+// classes of equal element, charge, isotope, degree and hydrogens and are
+// split by the classes of their neighbours until nothing changes.
+func symmetryClasses(g *graph) []int {
+	n := g.n
+	class := make([]int, n)
+	ids := map[[6]int]int{}
+	for a := 0; a < n; a++ {
+		at := &g.mol.Atoms[a]
+		k := [6]int{at.Number, at.Charge, at.Isotope, len(g.adj[a]), g.hyd[a], g.valence(a)}
+		if _, ok := ids[k]; !ok {
+			ids[k] = len(ids)
+		}
+		class[a] = ids[k]
+	}
+	count := len(ids)
+	for iter := 0; iter < n; iter++ {
+		next := make([]int, n)
+		keys := map[string]int{}
+		for a := 0; a < n; a++ {
+			nb := make([]int, 0, len(g.adj[a]))
+			for _, e := range g.adj[a] {
+				nb = append(nb, class[e.to]*8+e.order)
+			}
+			sortInts(nb)
+			key := make([]byte, 0, 4*len(nb)+4)
+			key = appendInt(key, class[a])
+			for _, v := range nb {
+				key = appendInt(key, v)
+			}
+			s := string(key)
+			if _, ok := keys[s]; !ok {
+				keys[s] = len(keys)
+			}
+			next[a] = keys[s]
+		}
+		class = next
+		if len(keys) == count {
+			break
+		}
+		count = len(keys)
+	}
+	return class
+}
+
+func appendInt(b []byte, v int) []byte {
+	return append(b, byte(v), byte(v>>8), byte(v>>16), byte(v>>24))
+}
+
+func sortInts(xs []int) {
+	for i := 1; i < len(xs); i++ {
+		for j := i; j > 0 && xs[j] < xs[j-1]; j-- {
+			xs[j], xs[j-1] = xs[j-1], xs[j]
+		}
+	}
+}

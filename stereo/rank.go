@@ -1,0 +1,92 @@
+package stereo
+
+// Ranking the ligands of one stereogenic unit and keeping the reasons.
+
+// Decision records how two neighbouring ligands in the final order were
+// told apart: the rule and the sphere (1 for the ligand atoms themselves)
+// where the first difference lies.
+type Decision struct {
+	Higher, Lower int // ranks (1-based) of the two ligands
+	End           int // for double bonds and allenes: which terminal atom (0 or 1)
+	Rule          Rule
+	Sphere        int
+}
+
+// RankedLigand is one ligand of a labelled unit.
+type RankedLigand struct {
+	Rank     int  // 1 is the highest priority
+	Atom     int  // 0-based atom the ligand begins at; -1 for an implicit hydrogen or lone pair
+	LonePair bool // the implicit ligand is a lone pair
+	End      int  // for double bonds and allenes: which terminal atom the ligand is on
+}
+
+// ranking is the outcome of ordering the ligands of a root.
+type ranking struct {
+	order     []nodeID // highest first
+	decisions []Decision
+	tie       bool
+	pseudo    bool // some pair was told apart only by Rule 5
+}
+
+// rankLigands sorts the ligands of root in the view rooted at root.
+func (d *digraph) rankLigands(root nodeID, ligs []nodeID) ranking {
+	s := append([]nodeID(nil), ligs...)
+	for i := 1; i < len(s); i++ {
+		for j := i; j > 0; j-- {
+			c, _, _ := d.compareChain(root, s[j], root, s[j-1], root, Rule6)
+			if c <= 0 {
+				break
+			}
+			s[j], s[j-1] = s[j-1], s[j]
+		}
+	}
+	r := ranking{order: s}
+	for i := 0; i+1 < len(s); i++ {
+		c, rule, sphere := d.compareChain(root, s[i], root, s[i+1], root, Rule6)
+		if c == 0 {
+			r.tie = true
+			continue
+		}
+		if rule == Rule5 {
+			r.pseudo = true
+		}
+		r.decisions = append(r.decisions, Decision{Higher: i + 1, Lower: i + 2, Rule: rule, Sphere: sphere})
+	}
+	return r
+}
+
+// ligandAtom is the atom a ligand node stands for, or implicitLigand.
+func (d *digraph) ligandAtom(n nodeID) int {
+	x := &d.nodes[n]
+	if x.kind == nodeHydrogen || x.kind == nodeLonePair {
+		return implicitLigand
+	}
+	return x.atom
+}
+
+// inversions counts the pairs out of order, for permutation parity.
+func inversions(xs []int) int {
+	n := 0
+	for i := range xs {
+		for j := i + 1; j < len(xs); j++ {
+			if xs[i] > xs[j] {
+				n++
+			}
+		}
+	}
+	return n
+}
+
+// tetrahedralDescriptor turns ranks (1..4, in the written ligand order)
+// and the written winding into R or S. '@' means the second to fourth
+// ligands turn anticlockwise seen from the first; R means ranks 1, 2, 3
+// turn clockwise seen from the side away from rank 4, that is
+// anticlockwise seen from rank 4. The written order is compared with
+// (4, 1, 2, 3), an odd permutation of (1, 2, 3, 4).
+func tetrahedralDescriptor(ranks []int, winding int) Descriptor {
+	even := (inversions(ranks)+3)%2 == 0
+	if even == (winding == 1) {
+		return DescR
+	}
+	return DescS
+}

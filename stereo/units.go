@@ -1,0 +1,151 @@
+package stereo
+
+import (
+	"sort"
+
+	"stereoline/notation"
+)
+
+// labelAll labels every unit that carries a configuration.
+func (l *labeller) labelAll() {
+	g, m := l.g, l.g.mol
+	for _, a := range sortedKeys(l.cfg.tetra) {
+		t := l.cfg.tetra[a]
+		l.unitAtoms[a] = true
+		lb := l.tetrahedral(t)
+		if lb.tie {
+			l.warn(t.span, CodeIneffectiveCenter, "mark on an atom that is not a stereocentre: two of its ligands are the same")
+			continue
+		}
+		if lb.capped {
+			l.warn(t.span, CodeUndetermined, "configuration too deep to label within %d digraph nodes", l.nodeCap)
+		}
+		if l.invertingNitrogen(a) {
+			l.warn(t.span, CodeInvertingNitrogen, "this nitrogen inverts quickly at room temperature, so its mark does not hold")
+		}
+		l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1,
+			Specified: true, Descriptor: lb.desc, Ranked: lb.ranked, Decisions: lb.decisions, Marks: []notation.Span{t.span}})
+	}
+	done := map[*bondConfig]bool{}
+	for _, bi := range sortedKeys(l.cfg.bonds) {
+		c := l.cfg.bonds[bi]
+		if done[c] {
+			continue
+		}
+		done[c] = true
+		l.unitBonds[c.bond] = true
+		if size := l.ringSize(c); size > 0 && size < 8 {
+			if l.transInRing(c) {
+				l.fail(c.spans[0], CodeStrainedRing, "trans double bond in a ring of %d atoms; the smallest ring that holds one has 8", size)
+			} else {
+				l.warn(c.spans[0], CodeIneffectiveBond, "a double bond in a ring of %d atoms can only be cis; the marks add nothing", size)
+			}
+			continue
+		}
+		lb := l.doubleBond(c)
+		if lb.tie {
+			l.warn(c.spans[0], CodeIneffectiveBond, "marks on a double bond that is not stereogenic: one end carries two equal ligands")
+			continue
+		}
+		if lb.capped {
+			l.warn(c.spans[0], CodeUndetermined, "configuration too deep to label within %d digraph nodes", l.nodeCap)
+		}
+		l.res.Units = append(l.res.Units, Unit{Kind: KindDoubleBond, Atoms: []int{c.ends[0], c.ends[1]}, Centre: -1, Bond: c.bond,
+			Specified: true, Descriptor: lb.desc, Ranked: lb.ranked, Decisions: lb.decisions, Marks: c.spans})
+	}
+	for _, c := range l.oneSided {
+		l.unitBonds[c.bond] = true
+		probe := *c
+		lb := l.doubleBond(&probe)
+		if lb.tie || (l.ringSize(c) > 0 && l.ringSize(c) < 8) {
+			l.warn(c.spans[0], CodeIneffectiveBond, "marks on a double bond that is not stereogenic")
+			continue
+		}
+		l.warn(c.spans[0], CodeOneSidedBond, "only one end of this double bond is marked, so its configuration is open")
+		l.res.Units = append(l.res.Units, Unit{Kind: KindDoubleBond, Atoms: []int{c.ends[0], c.ends[1]}, Centre: -1, Bond: c.bond,
+			Ranked: lb.ranked, Marks: c.spans})
+	}
+	for _, a := range sortedKeys(l.cfg.allene) {
+		c := l.cfg.allene[a]
+		l.unitAtoms[a] = true
+		lb := l.allene(c)
+		if lb.tie {
+			l.warn(c.span, CodeIneffectiveCenter, "mark on an allene that is not stereogenic: one end carries two equal ligands")
+			continue
+		}
+		if lb.capped {
+			l.warn(c.span, CodeUndetermined, "configuration too deep to label within %d digraph nodes", l.nodeCap)
+		}
+		l.res.Units = append(l.res.Units, Unit{Kind: KindAllene, Atoms: []int{c.ends[0], c.ends[1]}, Centre: a, Bond: -1,
+			Specified: true, Descriptor: lb.desc, Ranked: lb.ranked, Decisions: lb.decisions, Marks: []notation.Span{c.span}})
+	}
+	for _, a := range sortedKeys(l.cfg.higher) {
+		c := l.cfg.higher[a]
+		l.unitAtoms[a] = true
+		var ranked []RankedLigand
+		for i, x := range c.ligands {
+			ranked = append(ranked, RankedLigand{Rank: i + 1, Atom: x})
+		}
+		_ = g
+		_ = m
+		l.res.Units = append(l.res.Units, Unit{Kind: c.kind, Atoms: []int{a}, Centre: a, Bond: -1, Specified: true,
+			Permutation: c.number, Marks: []notation.Span{c.span}})
+	}
+}
+
+// ringSize is the size of the smallest ring holding the unit's double
+// bond, 0 when it is acyclic. Cumulenes count their middle bond.
+func (l *labeller) ringSize(c *bondConfig) int { return l.g.smallRing[c.bond] }
+
+// transInRing reports whether the ring continues on opposite sides of the
+// double bond: the ring neighbours of the two ends are trans.
+func (l *labeller) transInRing(c *bondConfig) bool {
+	ring := l.g.ringOf[c.bond]
+	in := map[int]bool{}
+	for _, a := range ring {
+		in[a] = true
+	}
+	trans := c.trans
+	for e := 0; e < 2; e++ {
+		rn := -1
+		for _, ed := range l.g.adj[c.ends[e]] {
+			if ed.to != c.inner[e] && in[ed.to] {
+				rn = ed.to
+			}
+		}
+		if rn != c.refs[e] {
+			trans = !trans
+		}
+	}
+	return trans
+}
+
+// invertingNitrogen reports a marked neutral three-coordinate nitrogen
+// that is not held in place by a three-membered ring, a bridgehead or
+// a positive charge.
+func (l *labeller) invertingNitrogen(a int) bool {
+	g := l.g
+	at := &g.mol.Atoms[a]
+	if at.Number != notation.ElemN || at.Charge != 0 || g.degree(a) != 3 {
+		return false
+	}
+	ringBonds := 0
+	for _, e := range g.adj[a] {
+		if g.ringBond[e.bond] {
+			ringBonds++
+			if g.smallRing[e.bond] == 3 {
+				return false
+			}
+		}
+	}
+	return ringBonds < 3
+}
+
+func sortedKeys[V any](m map[int]V) []int {
+	ks := make([]int, 0, len(m))
+	for k := range m {
+		ks = append(ks, k)
+	}
+	sort.Ints(ks)
+	return ks
+}

@@ -1,0 +1,650 @@
+package notation
+
+import (
+	"math/rand/v2"
+	"sort"
+	"strconv"
+	"strings"
+)
+
+// WriteOptions chooses among the many valid writings of one molecule.
+// The zero value writes each part from its lowest-numbered atom, follows
+// bonds in the order they were read and keeps aromatic atoms aromatic.
+type WriteOptions struct {
+	// Start is the atom the writing of its part begins with. Other parts
+	// begin with their lowest-numbered atom (or a random one).
+	Start int
+	// Random, when set, shuffles the order in which neighbours are
+	// visited, ring-closure digits are written and parts other than
+	// Start's begin. Property tests use it to produce many writings of
+	// one structure.
+	Random *rand.Rand
+	// Kekule writes aromatic bonds with the single and double bonds the
+	// reader's Kekulé structure assigned, and aromatic atoms in capitals.
+	Kekule bool
+}
+
+// Written is the result of Write.
+type Written struct {
+	Text string
+	// Order maps positions to atoms: Order[i] is the atom of the written
+	// molecule that became the i-th atom of Text.
+	Order []int
+	// Unadjusted lists atoms whose chirality mark is not tetrahedral
+	// (allene, square planar, trigonal bipyramidal, octahedral) and whose
+	// neighbours were written in a different order: their mark is copied
+	// as written and may no longer describe the same arrangement.
+	Unadjusted []int
+	// Dropped lists bonds that could not be written: bonds joining atoms
+	// of different reaction roles.
+	Dropped []int
+}
+
+// Write serialises m as OpenSMILES. Atoms are written without brackets
+// whenever the organic subset implies exactly their hydrogens; ring
+// closures use the lowest free number; tetrahedral chirality marks are
+// rewritten for the new neighbour order (a transposition of two
+// neighbours turns '@' into '@@'), and bond direction marks are written
+// as seen in the direction the bond is written, so both kinds of stereo
+// keep their meaning. A reaction keeps its reactant>agent>product layout.
+//
+// Write is linear in the size of the molecule and does not recurse, so a
+// long chain cannot exhaust the stack.
+func Write(m *Molecule, opt WriteOptions) Written {
+	w := &writer{m: m, opt: opt}
+	w.init()
+	groups := []Role{RoleNone}
+	if m.Reaction {
+		groups = []Role{RoleReactant, RoleAgent, RoleProduct}
+	}
+	for gi, role := range groups {
+		if gi > 0 {
+			w.sb.WriteByte('>')
+		}
+		first := true
+		for _, root := range w.roots(role) {
+			if !first {
+				w.sb.WriteByte('.')
+			}
+			first = false
+			w.component(root)
+		}
+	}
+	w.checkAllenes()
+	sort.Ints(w.out.Unadjusted)
+	sort.Ints(w.out.Dropped)
+	w.out.Text = w.sb.String()
+	return w.out
+}
+
+// writer is the state of one Write call.
+type writer struct {
+	m   *Molecule
+	opt WriteOptions
+	sb  strings.Builder
+	out Written
+
+	aromatic []bool // atom written in lowercase
+	seen     []bool // atom placed in the depth-first tree
+	bondUsed []bool
+
+	parent   []int   // bond to the parent atom, -1 at a root
+	children [][]int // tree bonds to children, in writing order
+	opens    [][]int // ring bonds opened at the atom
+	closes   [][]int // ring bonds closed at the atom
+	rings    [][]int // ring bonds in the order their digits were written
+	digit    []int   // ring-closure number of each ring bond
+	free     []bool  // free[d] when number d is not in use
+	position []int   // position of each atom in Text
+}
+
+func (w *writer) init() {
+	n, nb := len(w.m.Atoms), len(w.m.Bonds)
+	w.aromatic = make([]bool, n)
+	w.seen = make([]bool, n)
+	w.bondUsed = make([]bool, nb)
+	w.parent = make([]int, n)
+	w.children = make([][]int, n)
+	w.opens = make([][]int, n)
+	w.closes = make([][]int, n)
+	w.rings = make([][]int, n)
+	w.digit = make([]int, nb)
+	w.position = make([]int, n)
+	for i := range w.m.Atoms {
+		w.aromatic[i] = w.writtenAromatic(i)
+		w.position[i] = -1
+	}
+}
+
+// writtenAromatic decides the case of an atom. In Kekulé form an atom
+// stays lowercase only when one of its aromatic bonds has no Kekulé order
+// (a molecule built by hand without one).
+func (w *writer) writtenAromatic(a int) bool {
+	at := &w.m.Atoms[a]
+	if !at.Aromatic {
+		return false
+	}
+	if !w.opt.Kekule {
+		return true
+	}
+	for _, b := range at.Bonds {
+		if bd := &w.m.Bonds[b]; bd.Order == OrderAromatic && bd.Kekule == 0 {
+			return true
+		}
+	}
+	return false
+}
+
+// roots returns one start atom for each connected part of a role, in the
+// order of the parts' lowest atoms.
+func (w *writer) roots(role Role) []int {
+	var roots []int
+	mark := make(map[int]bool)
+	for a := range w.m.Atoms {
+		if w.seen[a] || mark[a] || !w.inGroup(a, role) {
+			continue
+		}
+		part := w.part(a, mark)
+		root := a
+		switch {
+		case w.opt.Start > 0 && w.opt.Start < len(w.m.Atoms) && mark[w.opt.Start] && containsInt(part, w.opt.Start):
+			root = w.opt.Start
+		case w.opt.Random != nil:
+			root = part[w.opt.Random.IntN(len(part))]
+		}
+		roots = append(roots, root)
+	}
+	return roots
+}
+
+func containsInt(s []int, v int) bool {
+	for _, x := range s {
+		if x == v {
+			return true
+		}
+	}
+	return false
+}
+
+func (w *writer) inGroup(a int, role Role) bool {
+	return !w.m.Reaction || w.m.Atoms[a].Role == role
+}
+
+// part lists the atoms connected to a within its role, marking them.
+func (w *writer) part(a int, mark map[int]bool) []int {
+	role := w.m.Atoms[a].Role
+	mark[a] = true
+	list := []int{a}
+	for i := 0; i < len(list); i++ {
+		x := list[i]
+		for _, b := range w.m.Atoms[x].Bonds {
+			y := w.m.Bonds[b].Other(x)
+			if !mark[y] && (!w.m.Reaction || w.m.Atoms[y].Role == role) {
+				mark[y] = true
+				list = append(list, y)
+			}
+		}
+	}
+	return list
+}
+
+// component writes the part that contains root: a depth-first search
+// first builds the spanning tree and ring closures, then a second walk
+// emits the text.
+func (w *writer) component(root int) {
+	w.buildTree(root)
+	w.emitTree(root)
+}
+
+// neighbourBonds returns the bonds of atom a in the order they are
+// explored: by the neighbour's position in the molecule (so a molecule
+// read from text is written much as it was read), or shuffled.
+func (w *writer) neighbourBonds(a int) []int {
+	bonds := append([]int(nil), w.m.Atoms[a].Bonds...)
+	if w.opt.Random != nil {
+		w.opt.Random.Shuffle(len(bonds), func(i, j int) { bonds[i], bonds[j] = bonds[j], bonds[i] })
+		return bonds
+	}
+	sort.SliceStable(bonds, func(i, j int) bool {
+		return w.m.Bonds[bonds[i]].Other(a) < w.m.Bonds[bonds[j]].Other(a)
+	})
+	return bonds
+}
+
+func (w *writer) buildTree(root int) {
+	type frame struct {
+		atom  int
+		bonds []int
+		next  int
+	}
+	role := w.m.Atoms[root].Role
+	w.seen[root] = true
+	w.parent[root] = -1
+	stack := []frame{{root, w.neighbourBonds(root), 0}}
+	for len(stack) > 0 {
+		f := &stack[len(stack)-1]
+		if f.next == len(f.bonds) {
+			stack = stack[:len(stack)-1]
+			continue
+		}
+		b := f.bonds[f.next]
+		f.next++
+		if w.bondUsed[b] {
+			continue
+		}
+		w.bondUsed[b] = true
+		u := f.atom
+		v := w.m.Bonds[b].Other(u)
+		if v == u || (w.m.Reaction && w.m.Atoms[v].Role != role) {
+			w.out.Dropped = append(w.out.Dropped, b)
+			continue
+		}
+		if !w.seen[v] {
+			w.seen[v] = true
+			w.parent[v] = b
+			w.children[u] = append(w.children[u], b)
+			stack = append(stack, frame{v, w.neighbourBonds(v), 0})
+			continue
+		}
+		// v was reached before and this bond is unused, so v is an
+		// ancestor of u still on the stack: the ring opens at v.
+		w.opens[v] = append(w.opens[v], b)
+		w.closes[u] = append(w.closes[u], b)
+	}
+}
+
+func (w *writer) emitTree(root int) {
+	type frame struct{ atom, next int }
+	w.emitAtom(root)
+	stack := []frame{{root, 0}}
+	for len(stack) > 0 {
+		f := &stack[len(stack)-1]
+		kids := w.children[f.atom]
+		if f.next < len(kids) {
+			b := kids[f.next]
+			f.next++
+			if f.next < len(kids) {
+				w.sb.WriteByte('(')
+			}
+			from := f.atom
+			to := w.m.Bonds[b].Other(from)
+			w.sb.WriteString(w.bondSymbol(b, from))
+			w.emitAtom(to)
+			stack = append(stack, frame{to, 0})
+			continue
+		}
+		stack = stack[:len(stack)-1]
+		if len(stack) > 0 {
+			p := stack[len(stack)-1]
+			if p.next < len(w.children[p.atom]) {
+				w.sb.WriteByte(')')
+			}
+		}
+	}
+}
+
+// emitAtom writes the atom token and its ring-closure numbers: first the
+// rings it closes, then those it opens. New rings take the lowest free
+// number; numbers closed here are released only afterwards, so one token
+// never closes and reopens the same number.
+func (w *writer) emitAtom(a int) {
+	w.position[a] = len(w.out.Order)
+	w.out.Order = append(w.out.Order, a)
+	closes, opens := w.closes[a], w.opens[a]
+	if w.opt.Random != nil {
+		w.opt.Random.Shuffle(len(closes), func(i, j int) { closes[i], closes[j] = closes[j], closes[i] })
+		w.opt.Random.Shuffle(len(opens), func(i, j int) { opens[i], opens[j] = opens[j], opens[i] })
+	}
+	w.rings[a] = append(append(w.rings[a], closes...), opens...)
+	w.sb.WriteString(w.atomToken(a, w.newChirality(a)))
+	for _, b := range closes {
+		w.sb.WriteString(ringNumber(w.digit[b]))
+	}
+	for _, b := range opens {
+		d := w.takeDigit()
+		w.digit[b] = d
+		w.sb.WriteString(w.bondSymbol(b, a))
+		w.sb.WriteString(ringNumber(d))
+	}
+	for _, b := range closes {
+		w.free[w.digit[b]] = true
+	}
+}
+
+func (w *writer) takeDigit() int {
+	for d := 1; d < len(w.free); d++ {
+		if w.free[d] {
+			w.free[d] = false
+			return d
+		}
+	}
+	if len(w.free) == 0 {
+		w.free = append(w.free, false) // number 0 is never used
+	}
+	w.free = append(w.free, false)
+	return len(w.free) - 1
+}
+
+// ringNumber writes a ring-closure number: one digit, '%' and two digits,
+// or, past 99 rings open at once, the '%(n)' form some readers accept.
+func ringNumber(d int) string {
+	switch {
+	case d < 10:
+		return strconv.Itoa(d)
+	case d < 100:
+		return "%" + strconv.Itoa(d)
+	}
+	return "%(" + strconv.Itoa(d) + ")"
+}
+
+// bondSymbol returns the symbol for bond b written from atom from: empty
+// where the notation implies the bond.
+func (w *writer) bondSymbol(b, from int) string {
+	bd := &w.m.Bonds[b]
+	to := bd.Other(from)
+	bothAromatic := w.aromatic[from] && w.aromatic[to]
+	order := bd.Order
+	if order == OrderAromatic && w.opt.Kekule && bd.Kekule > 0 {
+		order = [...]BondOrder{OrderSingle, OrderSingle, OrderDouble, OrderTriple, OrderQuadruple}[min(bd.Kekule, 4)]
+	}
+	switch order {
+	case OrderDouble:
+		return "="
+	case OrderTriple:
+		return "#"
+	case OrderQuadruple:
+		return "$"
+	case OrderAromatic:
+		if bothAromatic {
+			return ""
+		}
+		return ":"
+	}
+	if d := bd.DirFrom(from); d != DirNone {
+		return d.String()
+	}
+	if bothAromatic {
+		return "-"
+	}
+	return ""
+}
+
+// atomToken writes one atom, in brackets unless the organic subset says
+// everything about it.
+func (w *writer) atomToken(a int, chirality Chirality) string {
+	at := &w.m.Atoms[a]
+	sym := ElementSymbol(at.Number)
+	if at.Number == 0 && at.Symbol != "" && at.Symbol != "*" {
+		sym = at.Symbol // an unknown element: keep what was written
+	}
+	if w.aromatic[a] {
+		if _, ok := aromaticSymbols[strings.ToLower(sym)]; ok {
+			sym = strings.ToLower(sym)
+		}
+	}
+	if w.organic(a, sym) {
+		return sym
+	}
+	var sb strings.Builder
+	sb.WriteByte('[')
+	if at.Isotope > 0 {
+		sb.WriteString(strconv.Itoa(at.Isotope))
+	}
+	sb.WriteString(sym)
+	sb.WriteString(chiralityText(chirality))
+	if h := at.HydrogenCount(); h > 0 {
+		sb.WriteByte('H')
+		if h > 1 {
+			sb.WriteString(strconv.Itoa(h))
+		}
+	}
+	switch c := at.Charge; {
+	case c == 1:
+		sb.WriteByte('+')
+	case c == -1:
+		sb.WriteByte('-')
+	case c > 1:
+		sb.WriteString("+" + strconv.Itoa(c))
+	case c < -1:
+		sb.WriteString(strconv.Itoa(c))
+	}
+	if at.Map > 0 {
+		sb.WriteString(":" + strconv.Itoa(at.Map))
+	}
+	sb.WriteByte(']')
+	return sb.String()
+}
+
+// chiralityText writes a chirality mark, already adjusted for the new
+// neighbour order by newChirality.
+func chiralityText(c Chirality) string {
+	if c.Class == ChiralNone {
+		return ""
+	}
+	if c.Short && (c.Class == ChiralTH || c.Class == ChiralAL) {
+		if c.Num == 2 {
+			return "@@"
+		}
+		return "@"
+	}
+	return "@" + c.Class.String() + strconv.Itoa(c.Num)
+}
+
+// organic reports whether atom a can be written without brackets: an
+// element of the organic subset (or '*') with no isotope, charge, class or
+// chirality, whose hydrogens are exactly those the reader will imply.
+func (w *writer) organic(a int, sym string) bool {
+	at := &w.m.Atoms[a]
+	if at.Isotope != 0 || at.Charge != 0 || at.Map != 0 || at.Chirality.Class != ChiralNone {
+		return false
+	}
+	if sym == "*" {
+		return at.HydrogenCount() == 0
+	}
+	vals, ok := organicValences[at.Number]
+	if !ok {
+		return false
+	}
+	if w.aromatic[a] {
+		if _, ok := map[string]bool{"b": true, "c": true, "n": true, "o": true, "p": true, "s": true}[sym]; !ok {
+			return false
+		}
+		// The hydrogens of an aromatic atom follow from the Kekulé
+		// structure the reader finds; with the same neighbours it finds
+		// the same, so an atom read without brackets can be written
+		// without them.
+		return !at.Bracket
+	}
+	sum := 0
+	for _, b := range at.Bonds {
+		bd := &w.m.Bonds[b]
+		switch {
+		case bd.Order == OrderAromatic && bd.Kekule > 0:
+			sum += bd.Kekule
+		case bd.Order == OrderDouble:
+			sum += 2
+		case bd.Order == OrderTriple:
+			sum += 3
+		case bd.Order == OrderQuadruple:
+			sum += 4
+		default:
+			sum++
+		}
+	}
+	implied := 0
+	for _, v := range vals {
+		if v >= sum {
+			implied = v - sum
+			break
+		}
+	}
+	return implied == at.HydrogenCount()
+}
+
+// implicitSlot stands for the implicit hydrogen or lone pair of a
+// centre in neighbour orders.
+const implicitSlot = -1
+
+// newChirality returns the mark atom a needs in the new writing. A
+// tetrahedral mark flips when the new neighbour order is an odd
+// permutation of the old one.
+func (w *writer) newChirality(a int) Chirality {
+	at := &w.m.Atoms[a]
+	c := at.Chirality
+	if c.Class == ChiralNone {
+		return c
+	}
+	before := w.readOrder(a)
+	after := w.writtenOrder(a)
+	if sameInts(before, after) {
+		return c
+	}
+	tetrahedral := c.Class == ChiralTH && !(c.Short && w.alleneCentre(a))
+	odd, ok := permutationOdd(before, after)
+	if !tetrahedral || len(before) != 4 || (c.Num != 1 && c.Num != 2) || !ok {
+		w.out.Unadjusted = append(w.out.Unadjusted, a)
+		return c
+	}
+	if odd {
+		c.Num = 3 - c.Num
+	}
+	return c
+}
+
+// checkAllenes adds to Unadjusted the allene centres whose ligands (the
+// neighbours of the two terminal atoms) now appear in a different
+// relative order. An allene mark is not rewritten: its meaning rests on
+// the order of atoms two bonds away and of the terminals' hydrogens.
+func (w *writer) checkAllenes() {
+	for a := range w.m.Atoms {
+		at := &w.m.Atoms[a]
+		allene := at.Chirality.Class == ChiralAL || (at.Chirality.Class == ChiralTH && at.Chirality.Short && w.alleneCentre(a))
+		if !allene || w.position[a] < 0 {
+			continue
+		}
+		var ligands []int
+		for _, b := range at.Bonds {
+			end := w.m.Bonds[b].Other(a)
+			for _, b2 := range w.m.Atoms[end].Bonds {
+				if x := w.m.Bonds[b2].Other(end); x != a {
+					ligands = append(ligands, x)
+				}
+			}
+		}
+		byInput := append([]int(nil), ligands...)
+		sort.Ints(byInput)
+		byOutput := append([]int(nil), ligands...)
+		sort.Slice(byOutput, func(i, j int) bool { return w.position[byOutput[i]] < w.position[byOutput[j]] })
+		if !sameInts(byInput, byOutput) && !containsInt(w.out.Unadjusted, a) {
+			w.out.Unadjusted = append(w.out.Unadjusted, a)
+		}
+	}
+}
+
+// alleneCentre reports whether a short mark on atom a is an allene
+// (extended tetrahedral) mark: two neighbours, both double bonds.
+func (w *writer) alleneCentre(a int) bool {
+	bonds := w.m.Atoms[a].Bonds
+	if len(bonds) != 2 {
+		return false
+	}
+	for _, b := range bonds {
+		if w.m.Bonds[b].Order != OrderDouble {
+			return false
+		}
+	}
+	return true
+}
+
+// readOrder is the neighbour order the mark was written against: the
+// atom's bonds as read, with the implicit hydrogen or lone pair in its
+// slot when the centre has three neighbours.
+func (w *writer) readOrder(a int) []int {
+	at := &w.m.Atoms[a]
+	var order []int
+	for _, b := range at.Bonds {
+		order = append(order, w.m.Bonds[b].Other(a))
+	}
+	if len(order) == 3 {
+		order = insertAt(order, at.HydrogenSlot(), implicitSlot)
+	}
+	return order
+}
+
+// writtenOrder is the neighbour order in the new text: the parent, the
+// implicit slot, ring closures in the order their numbers were written,
+// then branches and the chain.
+func (w *writer) writtenOrder(a int) []int {
+	var order []int
+	hasPrev := w.parent[a] >= 0
+	if hasPrev {
+		order = append(order, w.m.Bonds[w.parent[a]].Other(a))
+	}
+	for _, b := range w.rings[a] {
+		order = append(order, w.m.Bonds[b].Other(a))
+	}
+	for _, b := range w.children[a] {
+		order = append(order, w.m.Bonds[b].Other(a))
+	}
+	if len(order) == 3 {
+		slot := 0
+		if hasPrev {
+			slot = 1
+		}
+		order = insertAt(order, slot, implicitSlot)
+	}
+	return order
+}
+
+func insertAt(s []int, i, v int) []int {
+	s = append(s, 0)
+	copy(s[i+1:], s[i:])
+	s[i] = v
+	return s
+}
+
+func sameInts(a, b []int) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		if a[i] != b[i] {
+			return false
+		}
+	}
+	return true
+}
+
+// permutationOdd reports whether after is an odd permutation of before,
+// and false for ok when the two do not hold the same distinct items.
+func permutationOdd(before, after []int) (odd, ok bool) {
+	if len(before) != len(after) {
+		return false, false
+	}
+	where := make(map[int]int, len(before))
+	for i, v := range before {
+		if _, dup := where[v]; dup {
+			return false, false
+		}
+		where[v] = i
+	}
+	perm := make([]int, len(after))
+	for i, v := range after {
+		j, found := where[v]
+		if !found {
+			return false, false
+		}
+		perm[i] = j
+	}
+	seen := make([]bool, len(perm))
+	swaps := 0
+	for i := range perm {
+		for j := i; !seen[j]; j = perm[j] {
+			seen[j] = true
+			if perm[j] != i {
+				swaps++
+			}
+		}
+	}
+	return swaps%2 == 1, true
+}

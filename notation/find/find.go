@@ -1,0 +1,57 @@
+package find
+
+// Find returns the notation records in a host file, in order of their
+// host offsets. The host kind comes from cfg.Kind when set, otherwise from
+// the file name's extension (see KindForName); files of unknown kind have
+// no occurrences. Find never fails and never panics on any content:
+// malformed hosts (an unterminated string, broken JSON) yield what could
+// be found before and around the damage.
+//
+// Spans and offsets of the occurrences are byte offsets into content.
+func Find(name string, content []byte, cfg Config) []Occurrence {
+	k := cfg.Kind
+	if k == KindUnknown {
+		k = KindForName(name)
+	}
+	return FindKind(k, content, cfg)
+}
+
+// FindKind is Find for a document whose kind is already known: an editor
+// buffer with a language identifier (see KindFor), standard input with a
+// --stdin-name, or one notebook cell sent by the editor as a document of
+// its own. For a cell, pass the cell's text and language; the offsets are
+// then offsets into the cell text.
+func FindKind(kind Kind, content []byte, cfg Config) []Occurrence {
+	switch kind {
+	case KindList:
+		return findList(content)
+	case KindCSV:
+		return findTable(content, ',', &cfg)
+	case KindTSV:
+		return findTable(content, '\t', &cfg)
+	case KindMarkdown:
+		return findMarkdown(content, &cfg)
+	case KindJSON:
+		return findJSON(content, &cfg)
+	case KindYAML:
+		return findYAML(content, &cfg)
+	case KindNotebook:
+		return findNotebook(content, &cfg)
+	}
+	if lang := codeLangs[kind]; lang != nil {
+		return findCode(content, lang, &cfg)
+	}
+	return nil
+}
+
+// codeLangs are the programming languages with a lexer.
+var codeLangs = map[Kind]*codeLang{
+	KindPython:     python,
+	KindJavaScript: javascript,
+	KindGo:         golang,
+	KindR:          rlang,
+	KindJulia:      julia,
+	KindRust:       rust,
+	KindJava:       java,
+	KindKotlin:     kotlin,
+}

@@ -1,0 +1,116 @@
+package find
+
+import (
+	"strings"
+
+	"stereoline/notation"
+)
+
+// notationByte marks the bytes that may appear in a record: the
+// OpenSMILES alphabet (atoms, bonds, branches, ring closures, brackets,
+// charges, classes, reaction arrows) and the few extra operators of
+// query notation. Blanks and quotes are not in it.
+var notationByte = func() (t [256]bool) {
+	for c := 'a'; c <= 'z'; c++ {
+		t[c] = true
+	}
+	for c := 'A'; c <= 'Z'; c++ {
+		t[c] = true
+	}
+	for c := '0'; c <= '9'; c++ {
+		t[c] = true
+	}
+	for _, c := range "[]()=#$:/\\@+-.%*>~,;&!" {
+		t[c] = true
+	}
+	return t
+}()
+
+// fileSuffixes are extensions that make a plausible-looking word a file
+// name ("input.smi", "out.csv").
+var fileSuffixes = []string{
+	".smi", ".smiles", ".rsmi", ".csv", ".tsv", ".txt", ".sdf", ".mol", ".json", ".yaml",
+	".yml", ".py", ".gz", ".zip", ".xlsx", ".parquet", ".pkl", ".md", ".html", ".log",
+}
+
+// plausible reports whether s could be a record at all: not empty, only
+// notation bytes, not a file name or URL. Text taken because a name says
+// so must still pass this, so that smiles = "" or smiles = "see table"
+// are not reported as broken notation.
+func plausible(s string) bool {
+	if s == "" || len(s) > 1<<16 {
+		return false
+	}
+	for i := 0; i < len(s); i++ {
+		if !notationByte[s[i]] {
+			return false
+		}
+	}
+	if strings.Contains(s, "://") {
+		return false
+	}
+	for _, suf := range fileSuffixes {
+		if strings.HasSuffix(s, suf) {
+			return false
+		}
+	}
+	return true
+}
+
+// unmistakable reports whether a literal nobody names is notation anyway:
+// it reads without error and carries something ordinary text does not —
+// a chirality mark, a bond direction mark in a molecule that has a double
+// bond for it to mean something, a ring closure, or a bracket atom with a
+// charge, isotope, hydrogen count or class. Element-like words ("Cl",
+// "CO", "NO", "SCSS"), "I/O" and "N/A", paths, dates and versions fail one
+// of these tests.
+func unmistakable(s string) bool {
+	if len(s) < 3 || !plausible(s) {
+		return false
+	}
+	c := s[0]
+	if c >= '0' && c <= '9' || c == '/' || c == '.' || c == '-' || c == '\\' {
+		return false
+	}
+	if strings.Contains(s, "//") || strings.Contains(s, "..") {
+		return false
+	}
+	if !strings.ContainsAny(s, "@/\\[0123456789%") {
+		return false
+	}
+	m := notation.Read(s)
+	if m.Errors.HasErrors() || len(m.Atoms) == 0 {
+		return false
+	}
+	return hasEvidence(m)
+}
+
+// hasEvidence reports whether a molecule carries a stereo mark, ring or
+// bracket detail that an ordinary word would not.
+func hasEvidence(m *notation.Molecule) bool {
+	double := false
+	for i := range m.Bonds {
+		if m.Bonds[i].Order == notation.OrderDouble {
+			double = true
+		}
+	}
+	for i := range m.Bonds {
+		b := &m.Bonds[i]
+		if b.Ring && len(m.Atoms) >= 3 {
+			return true
+		}
+		if double && (b.Dir != notation.DirNone || b.CloseDir != notation.DirNone) {
+			return true
+		}
+	}
+	for i := range m.Atoms {
+		a := &m.Atoms[i]
+		if a.Chirality.Class != notation.ChiralNone {
+			return true
+		}
+		if a.Bracket && (a.Charge != 0 || a.Isotope != 0 || a.BracketH != 0 || a.Map != 0) {
+			return true
+		}
+	}
+	return false
+}

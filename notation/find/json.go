@@ -1,0 +1,309 @@
+package find
+
+import (
+	"strings"
+	"unicode/utf8"
+
+	"stereoline/notation"
+)
+
+// jsonValue is one value of a JSON document (RFC 8259) with its spans.
+// The parser is forgiving: it stops quietly at the first syntax error,
+// keeping what it has read.
+type jsonValue struct {
+	kind byte          // 'o' object, 'a' array, 's' string, 'v' other
+	span notation.Span // the whole value (a string's quotes included)
+	keys []jsonValue   // object keys (strings)
+	vals []jsonValue   // object values or array elements
+}
+
+// maxJSONDepth bounds nesting so that hostile input cannot exhaust the
+// stack.
+const maxJSONDepth = 500
+
+type jsonParser struct {
+	src []byte
+	i   int
+	bad bool
+}
+
+func parseJSON(src []byte) jsonValue {
+	p := &jsonParser{src: src}
+	return p.value(0)
+}
+
+func (p *jsonParser) blank() {
+	for p.i < len(p.src) {
+		switch p.src[p.i] {
+		case ' ', '\t', '\n', '\r':
+			p.i++
+		default:
+			return
+		}
+	}
+}
+
+func (p *jsonParser) value(depth int) jsonValue {
+	p.blank()
+	start := p.i
+	if p.i >= len(p.src) || depth > maxJSONDepth {
+		p.bad = true
+		return jsonValue{kind: 'v', span: notation.Span{Start: start, End: start}}
+	}
+	switch p.src[p.i] {
+	case '"':
+		_, end, ok := quoted(p.src, p.i+1, `"`, true, false)
+		if !ok {
+			p.bad = true
+		}
+		p.i = max(end, p.i+1)
+		return jsonValue{kind: 's', span: notation.Span{Start: start, End: p.i}}
+	case '{', '[':
+		v := jsonValue{kind: 'o'}
+		closer := byte('}')
+		if p.src[p.i] == '[' {
+			v.kind, closer = 'a', ']'
+		}
+		p.i++
+		for !p.bad {
+			p.blank()
+			if p.i < len(p.src) && p.src[p.i] == closer {
+				p.i++
+				break
+			}
+			if v.kind == 'o' {
+				k := p.value(depth + 1)
+				if k.kind != 's' {
+					p.bad = true
+					break
+				}
+				p.blank()
+				if p.i >= len(p.src) || p.src[p.i] != ':' {
+					p.bad = true
+					break
+				}
+				p.i++
+				v.keys = append(v.keys, k)
+			}
+			v.vals = append(v.vals, p.value(depth+1))
+			p.blank()
+			if p.i < len(p.src) && p.src[p.i] == ',' {
+				p.i++
+			} else if p.i >= len(p.src) || p.src[p.i] != closer {
+				p.bad = true
+			}
+		}
+		v.span = notation.Span{Start: start, End: p.i}
+		return v
+	}
+	for p.i < len(p.src) && strings.IndexByte(",]}: \t\r\n", p.src[p.i]) < 0 {
+		p.i++
+	}
+	if p.i == start {
+		p.bad = true
+	}
+	return jsonValue{kind: 'v', span: notation.Span{Start: start, End: p.i}}
+}
+
+// content returns the span between a string value's quotes.
+func (v *jsonValue) content(src []byte) notation.Span {
+	s := notation.Span{Start: v.span.Start + 1, End: v.span.End - 1}
+	if s.End < s.Start || v.span.End > len(src) || src[v.span.End-1] != '"' || v.span.Len() < 2 {
+		s.End = max(s.Start, v.span.End)
+	}
+	return s
+}
+
+// decodeJSON decodes a JSON string's content. With exact set it decodes
+// every escape as JSON defines it (a notebook cell's source is exactly
+// the decoded text). Otherwise the string is a notation value: escapes
+// standing for control characters, and unknown escapes, are kept as
+// written and reported, since they are backslash bonds the writer forgot
+// to double. `\/` is '/' in both modes: encoders write it for any slash.
+func decodeJSON(src []byte, s notation.Span, exact bool, d *decoded) {
+	i, end := s.Start, s.End
+	for i < end {
+		c := src[i]
+		if c != '\\' || i+1 >= end {
+			j := i + 1
+			for j < end && src[j] != '\\' {
+				j++
+			}
+			d.copy(src, i, j)
+			i = j
+			continue
+		}
+		e := src[i+1]
+		switch {
+		case e == '\\' || e == '"' || e == '/':
+			d.escape([]byte{e}, i, 2)
+			i += 2
+		case strings.IndexByte("bfnrt", e) >= 0:
+			if exact {
+				d.escape([]byte{byte(simpleEscape(e))}, i, 2)
+			} else {
+				d.keep(src, i, i+2, notation.SeverityError, "json reads '"+string(src[i:i+2])+"' as "+describeRune(simpleEscape(e))+"; double the backslash")
+			}
+			i += 2
+		case e == 'u':
+			r, n := jsonCodePoint(src[i:end])
+			if n == 0 {
+				d.keep(src, i, i+2, notation.SeverityError, "json rejects the malformed escape '\\u', so the file is not valid json; double the backslash")
+				i += 2
+				continue
+			}
+			if !exact && r < 0x20 {
+				d.keep(src, i, i+n, notation.SeverityError, "json reads '"+string(src[i:i+n])+"' as "+describeRune(r)+"; double the backslash")
+			} else {
+				d.escape(utf8.AppendRune(nil, r), i, n)
+			}
+			i += n
+		default:
+			_, size := utf8.DecodeRune(src[i+1 : end])
+			d.keep(src, i, i+1+size, notation.SeverityError, "json rejects the unknown escape '"+string(src[i:i+1+size])+"', so the file is not valid json; double the backslash")
+			i += 1 + size
+		}
+	}
+}
+
+// jsonCodePoint reads \uXXXX, joining a surrogate pair, and returns the
+// character and the bytes read (0 when malformed).
+func jsonCodePoint(b []byte) (rune, int) {
+	hex := func(b []byte) (rune, bool) {
+		if len(b) < 6 || b[0] != '\\' || b[1] != 'u' {
+			return 0, false
+		}
+		var r rune
+		for _, c := range b[2:6] {
+			if !isHex(c) {
+				return 0, false
+			}
+			r = r<<4 | rune(hexVal(c))
+		}
+		return r, true
+	}
+	r, ok := hex(b)
+	if !ok {
+		return 0, 0
+	}
+	if r >= 0xd800 && r < 0xdc00 {
+		if r2, ok := hex(b[6:]); ok && r2 >= 0xdc00 && r2 < 0xe000 {
+			return (r-0xd800)<<10 | (r2 - 0xdc00) + 0x10000, 12
+		}
+		return utf8.RuneError, 6
+	}
+	return r, 6
+}
+
+func hexVal(c byte) byte {
+	switch {
+	case c >= 'a':
+		return c - 'a' + 10
+	case c >= 'A':
+		return c - 'A' + 10
+	}
+	return c - '0'
+}
+
+// jsonEscape writes s as the content of a JSON string.
+func jsonEscape(s string) string {
+	var sb strings.Builder
+	for _, r := range s {
+		switch {
+		case r == '\\' || r == '"':
+			sb.WriteByte('\\')
+			sb.WriteRune(r)
+		case r == '\n':
+			sb.WriteString(`\n`)
+		case r == '\t':
+			sb.WriteString(`\t`)
+		case r < 0x20:
+			sb.WriteString(`\u00`)
+			sb.WriteByte("0123456789abcdef"[r>>4])
+			sb.WriteByte("0123456789abcdef"[r&15])
+		default:
+			sb.WriteRune(r)
+		}
+	}
+	return sb.String()
+}
+
+// findJSON takes string values under notation-named keys (and inside
+// arrays and objects under them, except under keys that are about the
+// notation, like "name"), and string values anywhere that are
+// unmistakably notation. Keys themselves are never notation.
+func findJSON(src []byte, cfg *Config) []Occurrence {
+	jf := &jsonFinder{src: src, cfg: cfg, nm: newNamer(cfg)}
+	jf.walk(parseJSON(src), false)
+	return jf.out
+}
+
+type jsonFinder struct {
+	src []byte
+	cfg *Config
+	nm  namer
+	out []Occurrence
+}
+
+func (jf *jsonFinder) walk(v jsonValue, named bool) {
+	switch v.kind {
+	case 'o':
+		for k := range v.vals {
+			key := jf.keyText(v.keys[k])
+			jf.walk(v.vals[k], jf.nm.value(key) || named && !aboutKey(key))
+		}
+	case 'a':
+		for _, e := range v.vals {
+			jf.walk(e, named)
+		}
+	case 's':
+		jf.str(v, named)
+	}
+}
+
+func (jf *jsonFinder) keyText(k jsonValue) string {
+	var d decoded
+	decodeJSON(jf.src, k.content(jf.src), true, &d)
+	return string(d.text)
+}
+
+// aboutKey reports whether a key inside a notation-named object is about
+// the notation rather than notation: {"reactions": [{"name": "Suzuki"}]}.
+func aboutKey(key string) bool {
+	for _, p := range nameParts(key) {
+		if aboutWords[p] {
+			return true
+		}
+	}
+	return false
+}
+
+func (jf *jsonFinder) str(v jsonValue, named bool) {
+	if !named && jf.cfg.NoGuess {
+		return
+	}
+	var d decoded
+	cs := v.content(jf.src)
+	decodeJSON(jf.src, cs, false, &d)
+	text := string(d.text)
+	if named && !plausible(text) || !named && !unmistakable(text) {
+		return
+	}
+	m := d.b.done(cs.Start)
+	o := Occurrence{
+		Text:      text,
+		Span:      notation.Span{Start: m.hostStart(), End: m.hostEnd()},
+		Kind:      KindJSON,
+		Construct: ConstructJSONValue,
+		Reason:    ReasonName,
+		m:         m,
+	}
+	if !named {
+		o.Reason = ReasonGuess
+	}
+	for _, is := range d.issues {
+		e := &notation.Error{Span: is.span, Code: CodeHostEscape, Severity: is.sev, Msg: is.msg}
+		o.addDiag(e, []Fix{{Title: "double the backslashes", Span: v.span, NewText: `"` + jsonEscape(text) + `"`}})
+	}
+	jf.out = append(jf.out, o)
+}

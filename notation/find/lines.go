@@ -1,0 +1,58 @@
+package find
+
+import "sort"
+
+// lineTable holds the offsets where lines start, for pragmas that work
+// line by line. Built on demand: files without pragmas never need it.
+type lineTable []int
+
+func newLineTable(src []byte) lineTable {
+	t := lineTable{0}
+	for i, c := range src {
+		if c == '\n' {
+			t = append(t, i+1)
+		}
+	}
+	return t
+}
+
+// line returns the 0-based line holding offset off.
+func (t lineTable) line(off int) int {
+	return sort.Search(len(t), func(i int) bool { return t[i] > off }) - 1
+}
+
+// splitRecord splits one line of a record list into the record and its
+// title: the record runs to the first blank (space or tab), the title is
+// the rest, trimmed. A CXSMILES extension ("|...|" right after the
+// blank) belongs to neither and is skipped. Results are offsets into line.
+func splitRecord(line []byte) (recEnd, titleStart, titleEnd int) {
+	recEnd = len(line)
+	for i, c := range line {
+		if c == ' ' || c == '\t' {
+			recEnd = i
+			break
+		}
+	}
+	titleEnd = len(line)
+	for titleEnd > recEnd && isBlank(line[titleEnd-1]) {
+		titleEnd--
+	}
+	titleStart = recEnd
+	for titleStart < titleEnd && isBlank(line[titleStart]) {
+		titleStart++
+	}
+	if titleStart < titleEnd && line[titleStart] == '|' {
+		for k := titleStart + 1; k < titleEnd; k++ {
+			if line[k] == '|' {
+				titleStart = k + 1
+				for titleStart < titleEnd && isBlank(line[titleStart]) {
+					titleStart++
+				}
+				break
+			}
+		}
+	}
+	return recEnd, titleStart, titleEnd
+}
+
+func isBlank(c byte) bool { return c == ' ' || c == '\t' || c == '\r' }

@@ -1,0 +1,189 @@
+package find
+
+import (
+	"bytes"
+	"strings"
+
+	"stereoline/notation"
+)
+
+// findTable reads a CSV or TSV table (RFC 4180: fields separated by the
+// separator, records by CRLF or LF, a field in double quotes may hold
+// separators, line breaks and doubled quotes). The first record is the
+// header. Cells of structure columns are notation: a column whose header
+// mentions smiles, structure, rxn or reaction (name parts as for
+// variables, so "reaction_id" and "structure name" are not), or one of
+// cfg.Columns. A .csv whose first line has semicolons and no commas is
+// read with ';', as spreadsheet exports in many locales write it (common
+// practice). The title of a record is its cell in the first name, title
+// or id column.
+func findTable(src []byte, sep byte, cfg *Config) []Occurrence {
+	if sep == ',' {
+		first := src
+		if k := bytes.IndexByte(src, '\n'); k >= 0 {
+			first = src[:k]
+		}
+		if bytes.IndexByte(first, ',') < 0 && bytes.IndexByte(first, ';') >= 0 {
+			sep = ';'
+		}
+	}
+	nm := newNamer(cfg)
+	var (
+		out      []Occurrence
+		columns  []bool // structure columns by index
+		titleCol = -1
+		header   = true
+	)
+	var rec []tableCell
+	for i := 0; i < len(src); {
+		rec, i = readRecord(src, i, sep, rec[:0])
+		if header {
+			header = false
+			for k, c := range rec {
+				h := strings.TrimSpace(string(c.text))
+				columns = append(columns, nm.column(h, cfg.Columns))
+				if titleCol < 0 && isTitleHeader(h) {
+					titleCol = k
+				}
+			}
+			continue
+		}
+		title := ""
+		if titleCol >= 0 && titleCol < len(rec) {
+			title = strings.TrimSpace(string(rec[titleCol].text))
+		}
+		for k, c := range rec {
+			if k >= len(columns) || !columns[k] {
+				continue
+			}
+			if o, ok := cellOccurrence(c, title); ok {
+				if sep == '\t' {
+					o.Kind = KindTSV
+				}
+				out = append(out, o)
+			}
+		}
+	}
+	return out
+}
+
+// tableCell is one field: its text as the table means it and the map
+// back to the file.
+type tableCell struct {
+	text []byte
+	m    offsetMap
+}
+
+// readRecord reads the record starting at i and returns its cells and
+// the offset of the next record.
+func readRecord(src []byte, i int, sep byte, rec []tableCell) ([]tableCell, int) {
+	for {
+		var c tableCell
+		if i < len(src) && src[i] == '"' {
+			var d decoded
+			j := i + 1
+			for j < len(src) {
+				k := bytes.IndexByte(src[j:], '"')
+				if k < 0 {
+					d.copy(src, j, len(src))
+					j = len(src)
+					break
+				}
+				d.copy(src, j, j+k)
+				j += k
+				if j+1 < len(src) && src[j+1] == '"' {
+					d.escape([]byte{'"'}, j, 2)
+					j += 2
+					continue
+				}
+				j++ // closing quote
+				break
+			}
+			c = tableCell{text: d.text, m: d.b.done(i + 1)}
+			// Anything between the closing quote and the separator is
+			// malformed; skip it.
+			for j < len(src) && src[j] != sep && src[j] != '\n' {
+				j++
+			}
+			i = j
+		} else {
+			j := i
+			for j < len(src) && src[j] != sep && src[j] != '\n' {
+				j++
+			}
+			end := j
+			if end > i && src[end-1] == '\r' {
+				end--
+			}
+			c = tableCell{text: src[i:end], m: identityMap(i, end-i)}
+			i = j
+		}
+		rec = append(rec, c)
+		if i >= len(src) {
+			return rec, i
+		}
+		if src[i] == '\n' {
+			return rec, i + 1
+		}
+		i++ // separator
+	}
+}
+
+// placeholders are cell values that mean "no structure" (common practice).
+var placeholders = map[string]bool{"-": true, "na": true, "n/a": true, "nan": true, "none": true, "null": true, "?": true}
+
+// cellOccurrence turns a structure cell into an occurrence, without the
+// blanks around it; empty and placeholder cells are skipped.
+func cellOccurrence(c tableCell, title string) (Occurrence, bool) {
+	from, to := 0, len(c.text)
+	for from < to && isBlank(c.text[from]) {
+		from++
+	}
+	for to > from && isBlank(c.text[to-1]) {
+		to--
+	}
+	text := string(c.text[from:to])
+	if text == "" || placeholders[strings.ToLower(text)] {
+		return Occurrence{}, false
+	}
+	m := c.m
+	if from != 0 || to != len(c.text) {
+		m = c.m.slice(from, to)
+	}
+	return Occurrence{
+		Text:      text,
+		Title:     title,
+		Span:      notation.Span{Start: m.hostStart(), End: m.hostEnd()},
+		Kind:      KindCSV,
+		Construct: ConstructTableCell,
+		Reason:    ReasonPlace,
+		m:         m,
+	}, true
+}
+
+// column reports whether a table header names a structure column.
+func (n namer) column(h string, extra []string) bool {
+	for _, e := range extra {
+		if strings.EqualFold(strings.TrimSpace(e), h) {
+			return true
+		}
+	}
+	found := false
+	for _, p := range nameParts(h) {
+		if aboutWords[p] {
+			return false
+		}
+		if n.word(p) || strings.Contains(p, "structure") || strings.Contains(p, "reaction") || strings.Contains(p, "rxn") {
+			found = true
+		}
+	}
+	return found
+}
+
+func isTitleHeader(h string) bool {
+	switch strings.ToLower(h) {
+	case "name", "title", "id", "compound", "compound name", "compound_name":
+		return true
+	}
+	return false
+}

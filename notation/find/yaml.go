@@ -1,0 +1,290 @@
+package find
+
+import (
+	"bytes"
+	"strings"
+
+	"stereoline/notation"
+)
+
+// yamlRules are the escapes of YAML double-quoted scalars (YAML 1.2.2,
+// 5.7 "Escaped Characters"). `\/` and `\ ` give the byte itself.
+var yamlRules = &escapeRules{
+	lang: "yaml", harmless: `"/ ` + "\t", simple: "0abtnvfreN_LP", hex: true, unicode: "uU",
+	unknown: unknownReject,
+}
+
+// findYAML reads the block subset of YAML that configuration and data
+// files use, line by line: "key: value" mappings nested by indentation,
+// "- item" sequences, one-line flow sequences [a, "b"], plain, single-
+// and double-quoted scalars, and literal or folded block scalars (| >),
+// whose lines are records when their key names the notation. Values
+// under a notation-named key, and in sequences and mappings under it
+// (except under keys about the notation, like name), are notation; other
+// scalars only when unmistakably so. '#' comments may carry pragmas.
+func findYAML(src []byte, cfg *Config) []Occurrence {
+	yf := &yamlFinder{src: src, cfg: cfg, nm: newNamer(cfg), prag: newPragmas(src)}
+	yf.run()
+	return yf.out
+}
+
+type yamlFinder struct {
+	src  []byte
+	cfg  *Config
+	nm   namer
+	prag *pragmas
+	out  []Occurrence
+}
+
+type yamlLevel struct {
+	indent int
+	named  bool
+}
+
+func (yf *yamlFinder) run() {
+	src := yf.src
+	var stack []yamlLevel
+	block := -1 // indent of the key owning a block scalar being skipped
+	blockNamed := false
+	for start := 0; start < len(src); {
+		end := bytes.IndexByte(src[start:], '\n')
+		if end < 0 {
+			end = len(src)
+		} else {
+			end += start
+		}
+		line := src[start:end]
+		ls := start
+		start = end + 1
+		indent := 0
+		for indent < len(line) && line[indent] == ' ' {
+			indent++
+		}
+		rest := bytes.TrimRight(line, " \t\r")
+		if block >= 0 {
+			if indent > block || len(bytes.TrimSpace(line)) == 0 {
+				if blockNamed && indent < len(rest) && rest[indent] != '#' {
+					yf.record(rest[indent:], ls+indent)
+				}
+				continue
+			}
+			block = -1
+		}
+		body := rest[min(indent, len(rest)):]
+		if c := yamlComment(body); c >= 0 {
+			yf.prag.addComment(body[c:], ls+indent+c)
+			body = bytes.TrimRight(body[:c], " \t")
+		}
+		if len(body) == 0 || bytes.HasPrefix(body, []byte("---")) || bytes.HasPrefix(body, []byte("...")) {
+			continue
+		}
+		for len(stack) > 0 && stack[len(stack)-1].indent >= indent {
+			stack = stack[:len(stack)-1]
+		}
+		named := len(stack) > 0 && stack[len(stack)-1].named
+		at := ls + indent
+		// Sequence items: "- value" or "- key: value".
+		for len(body) > 0 && body[0] == '-' && (len(body) == 1 || body[1] == ' ') {
+			k := 1
+			for k < len(body) && body[k] == ' ' {
+				k++
+			}
+			stack = append(stack, yamlLevel{indent: indent, named: named})
+			indent += k
+			body, at = body[k:], at+k
+		}
+		if len(body) == 0 {
+			continue
+		}
+		key, valueAt, ok := yamlKey(body)
+		if !ok {
+			yf.scalar(body, at, named)
+			continue
+		}
+		keyNamed := yf.nm.value(key) || named && !aboutKey(key)
+		value := body[valueAt:]
+		switch {
+		case len(value) == 0:
+			stack = append(stack, yamlLevel{indent: indent, named: keyNamed})
+		case value[0] == '|' || value[0] == '>':
+			block, blockNamed = indent, keyNamed
+		default:
+			yf.scalar(value, at+valueAt, keyNamed)
+		}
+	}
+}
+
+// yamlComment returns where a comment starts in a line ('#' at the start
+// or after a blank, outside quotes), or -1.
+func yamlComment(b []byte) int {
+	var q byte
+	for i := 0; i < len(b); i++ {
+		c := b[i]
+		if q != 0 {
+			if q == '"' && c == '\\' {
+				i++
+			} else if c == q {
+				q = 0
+			}
+			continue
+		}
+		switch {
+		case (c == '"' || c == '\'') && (i == 0 || strings.IndexByte(" [,:-", b[i-1]) >= 0):
+			q = c
+		case c == '#' && (i == 0 || b[i-1] == ' ' || b[i-1] == '\t'):
+			return i
+		}
+	}
+	return -1
+}
+
+// yamlKey splits "key: value" and returns the key and where the value
+// starts; quoted keys are unquoted.
+func yamlKey(b []byte) (string, int, bool) {
+	if len(b) > 0 && (b[0] == '"' || b[0] == '\'') {
+		k := bytes.IndexByte(b[1:], b[0])
+		if k < 0 || k+2 >= len(b)+1 {
+			return "", 0, false
+		}
+		after := k + 2
+		if after < len(b) && b[after] == ':' && (after+1 == len(b) || b[after+1] == ' ') {
+			return string(b[1 : k+1]), skipSpaces(b, after+1), true
+		}
+		return "", 0, false
+	}
+	if len(b) > 0 && (b[0] == '[' || b[0] == '{') {
+		return "", 0, false
+	}
+	for i := 0; i < len(b); i++ {
+		if b[i] == ':' && (i+1 == len(b) || b[i+1] == ' ' || b[i+1] == '\t') {
+			return strings.TrimSpace(string(b[:i])), skipSpaces(b, i+1), true
+		}
+	}
+	return "", 0, false
+}
+
+func skipSpaces(b []byte, i int) int {
+	for i < len(b) && (b[i] == ' ' || b[i] == '\t') {
+		i++
+	}
+	return i
+}
+
+// scalar handles a value: a flow sequence, or one scalar.
+func (yf *yamlFinder) scalar(v []byte, at int, named bool) {
+	if len(v) > 1 && v[0] == '[' && v[len(v)-1] == ']' {
+		inner := v[1 : len(v)-1]
+		for i := 0; i < len(inner); {
+			j, q := i, byte(0)
+			for j < len(inner) && (q != 0 || inner[j] != ',') {
+				if q == 0 && (inner[j] == '"' || inner[j] == '\'') {
+					q = inner[j]
+				} else if q != 0 && inner[j] == q {
+					q = 0
+				} else if q == '"' && inner[j] == '\\' {
+					j++
+				}
+				j++
+			}
+			j = min(j, len(inner))
+			item := inner[i:j]
+			lead := len(item) - len(bytes.TrimLeft(item, " "))
+			yf.one(bytes.TrimSpace(item), at+1+i+lead, named)
+			i = j + 1
+		}
+		return
+	}
+	yf.one(v, at, named)
+}
+
+// one handles a single scalar at host offset at.
+func (yf *yamlFinder) one(v []byte, at int, named bool) {
+	if len(v) == 0 || !yf.prag.allowed(at) || !named && yf.cfg.NoGuess {
+		return
+	}
+	var d decoded
+	var quote byte
+	var tok notation.Span
+	switch v[0] {
+	case '"':
+		quote = '"'
+		end := len(v)
+		if end > 1 && v[end-1] == '"' {
+			end--
+		}
+		tok = notation.Span{Start: at, End: at + len(v)}
+		pc := piece{content: notation.Span{Start: at + 1, End: at + end}}
+		d.piece(yf.src, &pc, yamlRules)
+	case '\'':
+		quote = '\''
+		end := len(v)
+		if end > 1 && v[end-1] == '\'' {
+			end--
+		}
+		tok = notation.Span{Start: at, End: at + len(v)}
+		for i := 1; i < end; i++ {
+			if v[i] == '\'' && i+1 < end && v[i+1] == '\'' {
+				d.escape([]byte{'\''}, at+i, 2)
+				i++
+				continue
+			}
+			d.copy(yf.src, at+i, at+i+1)
+		}
+	default:
+		if v[0] == '{' || v[0] == '&' || v[0] == '*' || v[0] == '!' || v[0] == '|' || v[0] == '>' {
+			return
+		}
+		d.copy(yf.src, at, at+len(v))
+	}
+	text := string(d.text)
+	reason := ReasonName
+	switch {
+	case yf.prag.forced(at):
+		reason = ReasonPragma
+	case named && plausible(text):
+	case !named && unmistakable(text):
+		reason = ReasonGuess
+	default:
+		return
+	}
+	start := at
+	if quote != 0 {
+		start = at + 1
+	}
+	m := d.b.done(start)
+	o := Occurrence{
+		Text:      text,
+		Span:      notation.Span{Start: m.hostStart(), End: m.hostEnd()},
+		Kind:      KindYAML,
+		Construct: ConstructYAMLValue,
+		Reason:    reason,
+		m:         m,
+	}
+	for _, is := range d.issues {
+		e := &notation.Error{Span: is.span, Code: CodeHostEscape, Severity: is.sev, Msg: is.msg}
+		o.addDiag(e, []Fix{
+			{Title: "make it a single-quoted string", Span: tok, NewText: "'" + strings.ReplaceAll(text, "'", "''") + "'"},
+		})
+	}
+	yf.out = append(yf.out, o)
+}
+
+// record takes one line of a block scalar under a notation-named key.
+func (yf *yamlFinder) record(line []byte, at int) {
+	if !yf.prag.allowed(at) {
+		return
+	}
+	recEnd, ts, te := splitRecord(line)
+	if recEnd == 0 {
+		return
+	}
+	yf.out = append(yf.out, Occurrence{
+		Text:      string(line[:recEnd]),
+		Title:     string(line[ts:te]),
+		Span:      notation.Span{Start: at, End: at + recEnd},
+		Kind:      KindYAML,
+		Construct: ConstructYAMLValue,
+		Reason:    ReasonName,
+		m:         identityMap(at, recEnd),
+	})
+}

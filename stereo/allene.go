@@ -27,7 +27,7 @@ func (l *labeller) allene(c *alleneConfig) label {
 		if r.tie || len(ligs) != 2 {
 			out.tie = true
 		}
-		isPseudo = isPseudo || r.pseudo
+		isPseudo = isPseudo != r.pseudo
 		for i, n := range r.order {
 			rank := 2*e + i + 1
 			a := d.ligandAtom(n)

@@ -111,7 +111,7 @@ func (d *digraph) auxDoubleBond(x, y nodeID, c *bondConfig) Descriptor {
 	if trans {
 		x2 = DescE
 	}
-	if px || py {
+	if px != py {
 		x2 = pseudo(x2)
 	}
 	return x2

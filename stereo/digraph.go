@@ -125,7 +125,7 @@ func (d *digraph) expand(n nodeID) {
 	for _, e := range g.adj[a] {
 		if e.bond == x.bond {
 			// the bond back to the parent: only its extra orders appear
-			for i := 1; i < e.order; i++ {
+			for i := 1; i < e.cip; i++ {
 				push(d.add(node{atom: e.to, kind: nodeDuplicate, parent: n, depth: x.depth + 1,
 					z: dupZ(a, e.to, e.bond), mass: g.mass[e.to], corr: x.parent, bond: e.bond, expanded: true}))
 			}
@@ -133,7 +133,7 @@ func (d *digraph) expand(n nodeID) {
 		}
 		if anc := d.onPath(n, e.to); anc != noNode {
 			// a ring closure back to an atom already on the path
-			for i := 0; i < e.order; i++ {
+			for i := 0; i < e.cip; i++ {
 				z := float64(g.z[e.to])
 				if i > 0 {
 					z = dupZ(a, e.to, e.bond)
@@ -149,7 +149,7 @@ func (d *digraph) expand(n nodeID) {
 			break
 		}
 		push(k)
-		for i := 1; i < e.order; i++ {
+		for i := 1; i < e.cip; i++ {
 			push(d.add(node{atom: e.to, kind: nodeDuplicate, parent: n, depth: x.depth + 1,
 				z: dupZ(a, e.to, e.bond), mass: g.mass[e.to], corr: k, bond: e.bond, expanded: true}))
 		}

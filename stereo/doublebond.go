@@ -27,7 +27,13 @@ func (l *labeller) doubleBond(c *bondConfig) label {
 			out.tie = true
 		}
 		if r.pseudo {
-			out.desc = DescPseudoE // marks pseudo; replaced below
+			// both ends enantiomorphic: reflection swaps both and the
+			// label stays uppercase
+			if out.desc == DescPseudoE {
+				out.desc = DescNone
+			} else {
+				out.desc = DescPseudoE
+			}
 		}
 		for i, n := range r.order {
 			out.ranked = append(out.ranked, RankedLigand{Rank: i + 1, Atom: d.ligandAtom(n), End: e, LonePair: d.nodes[n].kind == nodeLonePair})

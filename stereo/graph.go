@@ -27,6 +27,35 @@ type graph struct {
 type edge struct {
 	to, bond int
 	order    int // Kekulé order 1..4
+	cip      int // the order the digraph duplicates (see cipOrder)
+}
+
+// cipOrder is the bond order the hierarchical digraph uses. A double bond
+// from phosphorus, sulfur, selenium or tellurium to a terminal oxygen,
+// sulfur, selenium or tellurium (phosphoryl, sulfinyl, sulfonyl) is
+// taken as the single bond of its dipolar form, P+-O-, without duplicate
+// atoms: the validation suite of Hanson et al. 2018 ranks sulfinate and
+// phosphonate centres that way (VS014, VS038, VS122, VS177).
+func cipOrder(m *notation.Molecule, b *notation.Bond) int {
+	o := bondOrder(b)
+	if o != 2 {
+		return o
+	}
+	for _, pair := range [2][2]int{{b.Begin, b.End}, {b.End, b.Begin}} {
+		c, t := &m.Atoms[pair[0]], &m.Atoms[pair[1]]
+		if hypervalentCentre(c.Number) && chalcogen(t.Number) && len(t.Bonds) == 1 && t.HydrogenCount() == 0 {
+			return 1
+		}
+	}
+	return o
+}
+
+func hypervalentCentre(z int) bool {
+	return z == notation.ElemP || z == notation.ElemS || z == notation.ElemSe || z == notation.ElemTe || z == notation.ElemAs
+}
+
+func chalcogen(z int) bool {
+	return z == notation.ElemO || z == notation.ElemS || z == notation.ElemSe || z == notation.ElemTe
 }
 
 func newGraph(m *notation.Molecule) *graph {
@@ -45,7 +74,7 @@ func newGraph(m *notation.Molecule) *graph {
 				continue
 			}
 			b := &m.Bonds[bi]
-			g.adj[i] = append(g.adj[i], edge{to: b.Other(i), bond: bi, order: bondOrder(b)})
+			g.adj[i] = append(g.adj[i], edge{to: b.Other(i), bond: bi, order: bondOrder(b), cip: cipOrder(m, b)})
 		}
 	}
 	g.findRings()

@@ -25,7 +25,7 @@ type ranking struct {
 	order     []nodeID // highest first
 	decisions []Decision
 	tie       bool
-	pseudo    bool // some pair was told apart only by Rule 5
+	pseudo    bool // an odd number of pairs was told apart only by Rule 5
 }
 
 // rankLigands sorts the ligands of root in the view rooted at root.
@@ -48,7 +48,9 @@ func (d *digraph) rankLigands(root nodeID, ligs []nodeID) ranking {
 			continue
 		}
 		if rule == Rule5 {
-			r.pseudo = true
+			// each enantiomorphic pair swaps under reflection; an odd
+			// number of swaps keeps the label, which makes it lowercase
+			r.pseudo = !r.pseudo
 		}
 		r.decisions = append(r.decisions, Decision{Higher: i + 1, Lower: i + 2, Rule: rule, Sphere: sphere})
 	}

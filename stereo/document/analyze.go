@@ -1,0 +1,227 @@
+package document
+
+import (
+	"path"
+	"sort"
+
+	"stereoline/notation"
+	"stereoline/notation/find"
+	"stereoline/stereo"
+)
+
+// Source is the value of Diagnostic.Source for every finding.
+const Source = "stereoline"
+
+// Analyzer analyses documents. It is safe for concurrent use: the
+// configuration is read-only and the cache locks itself.
+type Analyzer struct {
+	cfg   Config
+	cache *cache
+}
+
+// NewAnalyzer returns an analyzer for a configuration.
+func NewAnalyzer(cfg Config) *Analyzer {
+	return &Analyzer{cfg: cfg, cache: newCache()}
+}
+
+// WithConfig returns an analyzer with another configuration that shares
+// this one's cache (analyses do not depend on the configuration; what is
+// reported does).
+func (a *Analyzer) WithConfig(cfg Config) *Analyzer {
+	return &Analyzer{cfg: cfg, cache: a.cache}
+}
+
+// Config returns the analyzer's configuration.
+func (a *Analyzer) Config() Config { return a.cfg }
+
+// Result is everything known about one document at one version.
+type Result struct {
+	Name    string
+	Content []byte
+	Kind    find.Kind
+	Records []Record
+	// Diagnostics are sorted by host position.
+	Diagnostics []Diagnostic
+
+	cfg *Config
+}
+
+// Record is one notation occurrence with its analysis.
+type Record struct {
+	Occ    *find.Occurrence
+	Mol    *notation.Molecule
+	Stereo *stereo.Analysis
+}
+
+// Diagnostic is one finding in host byte offsets.
+type Diagnostic struct {
+	Span        notation.Span
+	Code        notation.Code
+	Severity    notation.Severity
+	Message     string
+	Related     []Related
+	Unnecessary bool
+	Fixes       []Fix
+	// Record is the index of the record the finding is about, -1 for
+	// findings about the host file itself.
+	Record int
+}
+
+// Related is a secondary place, in host offsets.
+type Related struct {
+	Span    notation.Span
+	Message string
+}
+
+// Fix is one way to resolve a finding: edits in host offsets.
+type Fix struct {
+	Title string
+	Edits []Edit
+}
+
+// Edit replaces the host bytes of Span with NewText.
+type Edit struct {
+	Span    notation.Span
+	NewText string
+}
+
+// unnecessary are the codes whose marks change nothing; editors grey
+// them out.
+var unnecessary = map[notation.Code]bool{
+	stereo.CodeIneffectiveCenter: true,
+	stereo.CodeIneffectiveBond:   true,
+}
+
+// kindOf picks the host kind from the language id, the configured file
+// patterns and the file name, in that order.
+func (a *Analyzer) kindOf(name, languageID string) find.Kind {
+	if languageID != "" {
+		if k := find.KindFor(languageID); k != find.KindUnknown {
+			// An editor may call a .smi file "plaintext"; the name then
+			// decides below.
+			return k
+		}
+	}
+	base := path.Base(name)
+	for pat, kind := range a.cfg.Files {
+		if ok, _ := path.Match(pat, base); ok {
+			if k := find.KindFor(kind); k != find.KindUnknown {
+				return k
+			}
+		}
+	}
+	return find.KindForName(name)
+}
+
+// Analyze finds, reads and labels every record of a document. name is a
+// file name or the path of a URI (it picks the host kind); languageID, if
+// not empty, overrides the name.
+func (a *Analyzer) Analyze(name, languageID string, content []byte) *Result {
+	cfg := a.cfg
+	kind := a.kindOf(name, languageID)
+	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
+	occs := find.FindKind(kind, content, cfg.findConfig())
+	res.Records = make([]Record, len(occs))
+	for i := range occs {
+		an := a.cache.get(occs[i].Text)
+		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo}
+	}
+	for i := range res.Records {
+		res.recordDiagnostics(i)
+	}
+	res.relateRecords()
+	sort.SliceStable(res.Diagnostics, func(i, j int) bool {
+		x, y := res.Diagnostics[i].Span, res.Diagnostics[j].Span
+		if x.Start != y.Start {
+			return x.Start < y.Start
+		}
+		return x.End < y.End
+	})
+	return res
+}
+
+// add appends a diagnostic after applying the configured severity.
+func (r *Result) add(d Diagnostic) {
+	sev, on := r.cfg.severityFor(d.Code, d.Severity)
+	if !on {
+		return
+	}
+	d.Severity = sev
+	if unnecessary[d.Code] {
+		d.Unnecessary = true
+	}
+	r.Diagnostics = append(r.Diagnostics, d)
+}
+
+// recordDiagnostics maps the host, reader and stereo findings of one
+// record to host offsets.
+func (r *Result) recordDiagnostics(i int) {
+	rec := &r.Records[i]
+	occ := rec.Occ
+	for j, e := range occ.Diagnostics {
+		d := Diagnostic{Span: e.Span, Code: e.Code, Severity: e.Severity, Message: e.Msg, Record: i}
+		for _, rel := range e.Related {
+			d.Related = append(d.Related, Related{rel.Span, rel.Msg})
+		}
+		if j < len(occ.Fixes) {
+			for _, f := range occ.Fixes[j] {
+				d.Fixes = append(d.Fixes, Fix{Title: f.Title, Edits: []Edit{{Span: f.Span, NewText: f.NewText}}})
+			}
+		}
+		r.add(d)
+	}
+	mapped := func(e *notation.Error) Diagnostic {
+		d := Diagnostic{Span: occ.HostSpan(e.Span), Code: e.Code, Severity: e.Severity, Message: e.Msg, Record: i}
+		for _, rel := range e.Related {
+			d.Related = append(d.Related, Related{occ.HostSpan(rel.Span), rel.Msg})
+		}
+		return d
+	}
+	for _, e := range rec.Mol.Errors {
+		r.add(mapped(e))
+	}
+	for _, e := range rec.Stereo.Diagnostics {
+		d := mapped(e)
+		d.Fixes = r.fixesFor(i, e)
+		r.add(d)
+	}
+}
+
+// RecordAt returns the index of the record whose host span holds offset
+// off (a cursor at the end of a record still counts), or -1.
+func (r *Result) RecordAt(off int) int {
+	i := sort.Search(len(r.Records), func(i int) bool { return r.Records[i].Occ.Span.End >= off })
+	for ; i < len(r.Records); i++ {
+		s := r.Records[i].Occ.Span
+		if s.Start > off {
+			break
+		}
+		if off >= s.Start && off <= s.End {
+			return i
+		}
+	}
+	return -1
+}
+
+// Symbol is an outline entry: one record of a list file.
+type Symbol struct {
+	Name string
+	Span notation.Span
+}
+
+// Symbols returns an outline entry per record: its title, or the start
+// of its notation.
+func (r *Result) Symbols() []Symbol {
+	out := make([]Symbol, 0, len(r.Records))
+	for _, rec := range r.Records {
+		name := rec.Occ.Title
+		if name == "" {
+			name = rec.Occ.Text
+			if len(name) > 40 {
+				name = name[:40] + "…"
+			}
+		}
+		out = append(out, Symbol{Name: name, Span: rec.Occ.Span})
+	}
+	return out
+}

@@ -73,8 +73,12 @@ func ringBonds(m *Molecule) []bool {
 					disc[to], low[to] = clock, clock
 					clock++
 					stack = append(stack, frame{to, bi, 0})
-				} else if disc[to] < low[f.atom] {
-					low[f.atom] = disc[to]
+				} else {
+					// A back edge always closes a cycle.
+					inRing[bi] = true
+					if disc[to] < low[f.atom] {
+						low[f.atom] = disc[to]
+					}
 				}
 				continue
 			}

@@ -11,6 +11,7 @@ import (
 	"text/tabwriter"
 
 	"stereoline/notation"
+	"stereoline/stereo"
 )
 
 // describe implements 'stereoline describe'.
@@ -88,6 +89,26 @@ type recordJSON struct {
 	Mass        float64          `json:"averageMass"`
 	Mono        float64          `json:"monoisotopicMass"`
 	Diagnostics []diagnosticJSON `json:"diagnostics"`
+	Stereo      []unitJSON       `json:"stereo"`
+}
+
+// unitJSON is one perceived stereogenic unit. Atom numbers are 1-based.
+type unitJSON struct {
+	Kind      string       `json:"kind"`
+	Atoms     []int        `json:"atoms"`
+	Specified bool         `json:"specified"`
+	CIP       string       `json:"cip,omitempty"`
+	Ranked    []ligandJSON `json:"ranked"`
+}
+
+// ligandJSON is a ranked ligand: the atom it begins at (null for an
+// implicit hydrogen or lone pair) and, for double bonds and allenes, the
+// terminal atom it hangs from.
+type ligandJSON struct {
+	Rank     int    `json:"rank"`
+	Atom     *int   `json:"atom"`
+	Implicit string `json:"implicit,omitempty"`
+	On       int    `json:"on,omitempty"`
 }
 
 type atomJSON struct {
@@ -165,10 +186,43 @@ func describeRecord(rec notation.Record) recordJSON {
 	d.Formula = f.String()
 	d.Mass = round(f.AverageMass, 4)
 	d.Mono = round(f.MonoisotopicMass, 6)
-	for _, e := range m.Errors {
+	an := stereo.Analyze(m)
+	diags := append(append(notation.ErrorList{}, m.Errors...), an.Diagnostics...)
+	diags.Sort()
+	for _, e := range diags {
 		d.Diagnostics = append(d.Diagnostics, diagnosticJSON{Code: string(e.Code), Severity: e.Severity.String(), Message: e.Msg, Span: spanJSON(e.Span)})
 	}
+	d.Stereo = []unitJSON{}
+	for i := range an.Units {
+		d.Stereo = append(d.Stereo, unitToJSON(&an.Units[i]))
+	}
 	return d
+}
+
+func unitToJSON(u *stereo.Unit) unitJSON {
+	j := unitJSON{Kind: u.Kind.String(), Specified: u.Specified, Ranked: []ligandJSON{}}
+	for _, a := range u.Atoms {
+		j.Atoms = append(j.Atoms, a+1)
+	}
+	if u.Specified && u.Descriptor.Labelled() {
+		j.CIP = u.Descriptor.String()
+	}
+	for _, l := range u.Ranked {
+		lj := ligandJSON{Rank: l.Rank}
+		if l.Atom >= 0 {
+			n := l.Atom + 1
+			lj.Atom = &n
+		} else if l.LonePair {
+			lj.Implicit = "lone pair"
+		} else {
+			lj.Implicit = "H"
+		}
+		if len(u.Atoms) == 2 && u.Kind != stereo.KindTetrahedral && l.End >= 0 && l.End < 2 {
+			lj.On = u.Atoms[l.End] + 1
+		}
+		j.Ranked = append(j.Ranked, lj)
+	}
+	return j
 }
 
 func round(x float64, places int) float64 {
@@ -200,6 +254,16 @@ func writeTable(w io.Writer, d recordJSON) {
 		fmt.Fprintf(tw, "  %d\t%s\t%+d\t%d\t%v\t%d\t%s\n", a.N, a.Symbol, a.Charge, a.Hydrogens, a.Aromatic, a.Map, mark)
 	}
 	tw.Flush()
+	for _, u := range d.Stereo {
+		label := u.CIP
+		if label == "" {
+			label = "unspecified"
+			if u.Specified {
+				label = "undetermined"
+			}
+		}
+		fmt.Fprintf(w, "  %s %v: %s\n", u.Kind, u.Atoms, label)
+	}
 	for _, e := range d.Diagnostics {
 		fmt.Fprintf(w, "  %s: %s [%s] at bytes %d-%d\n", e.Severity, e.Message, e.Code, e.Span[0], e.Span[1])
 	}

@@ -5,7 +5,11 @@ For each record of first_5K.smi (shipped by Debian's rdkit-data) it writes
 the record as given, two random re-writings and one Kekule writing, and for
 each written string: whether RDKit accepts it, the total hydrogen count of
 every atom in the order the atoms appear in that string, and the molecular
-formula.
+formula. The NCI records carry no stereo marks, no isotopes and no [H]
+atoms, so some records get one more writing that has them: a stereoisomer
+(records with a potential stereo unit), all hydrogens as [H] atoms (every
+fifth record) or every atom in brackets with its hydrogen count (the next
+record of every five).
 
 Usage: /usr/bin/python3 testdata/rdkit/gen_reader.py [first_5K.smi] [out.tsv]
 """
@@ -16,6 +20,7 @@ import sys
 
 from rdkit import Chem
 from rdkit.Chem import rdMolDescriptors
+from rdkit.Chem.EnumerateStereoisomers import EnumerateStereoisomers, StereoEnumerationOptions
 
 import fixturelib
 
@@ -29,7 +34,13 @@ COLUMNS = [
     ("variant", "given (the record as written in first_5K.smi), random1, random2 "
      "(Chem.MolToRandomSmilesVect(mol, 2, randomSeed=%d+line number), isomeric), "
      "kekule (Chem.Kekulize(mol, clearAromaticFlags=True) then "
-     "Chem.MolToSmiles(mol, kekuleSmiles=True))" % SEED),
+     "Chem.MolToSmiles(mol, kekuleSmiles=True)), isomer (records with "
+     "len(Chem.FindPotentialStereo(mol)) > 0: the last isomer of "
+     "EnumerateStereoisomers(mol, StereoEnumerationOptions(unique=True, maxIsomers=8, "
+     "onlyUnassigned=False)) written by Chem.MolToRandomSmilesVect(isomer, 1, "
+     "randomSeed=%d+line number)), explicit_h (line number %% 5 == 0: "
+     "Chem.MolToSmiles(Chem.AddHs(mol)), hydrogens as [H] atoms), bracket_h (line number "
+     "%% 5 == 1: Chem.MolToSmiles(mol, allHsExplicit=True))" % (SEED, SEED)),
     ("smiles", "the written string"),
     ("accepted", "1 if Chem.MolFromSmiles(smiles) (sanitize=True) returns a molecule, else 0"),
     ("hcounts", "comma-separated atom.GetTotalNumHs() for every atom in the order the atoms "
@@ -97,6 +108,17 @@ def writings(smiles, lineno):
     except Exception:  # a sanitized molecule always kekulizes; keep going if not
         return
     yield "kekule", Chem.MolToSmiles(kek, kekuleSmiles=True)
+    if len(Chem.FindPotentialStereo(mol)) > 0:
+        opts = StereoEnumerationOptions(unique=True, maxIsomers=8, onlyUnassigned=False)
+        isomers = list(EnumerateStereoisomers(mol, options=opts))
+        if isomers:
+            # The last isomer: the first often carries no mark at all when
+            # the potential unit is not a real one.
+            yield "isomer", Chem.MolToRandomSmilesVect(isomers[-1], 1, randomSeed=SEED + lineno)[0]
+    if lineno % 5 == 0:
+        yield "explicit_h", Chem.MolToSmiles(Chem.AddHs(mol))
+    elif lineno % 5 == 1:
+        yield "bracket_h", Chem.MolToSmiles(mol, allHsExplicit=True)
 
 
 def main():

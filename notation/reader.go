@@ -46,8 +46,11 @@ type reader struct {
 	arrows  int
 	dropped bool // errors were dropped past maxErrors
 
-	lastRingAtom int // atom the last ring-bond digit was attached to
-	afterBranch  bool
+	afterBranch bool // a branch was just closed: ring digits may not follow
+
+	// pairs holds the bonded atom pairs once a ring closure joins two
+	// atoms with many bonds each; nil until then (see bonded).
+	pairs map[uint64]struct{}
 }
 
 // branch is an open '(' with the atom it hangs from.
@@ -232,6 +235,9 @@ func (r *reader) addBond(a, b int, sym byte, span Span) int {
 	bd.Order, bd.Dir = orderOf(sym, m.Atoms[a].Aromatic && m.Atoms[b].Aromatic)
 	m.Bonds = append(m.Bonds, bd)
 	bi := len(m.Bonds) - 1
+	if r.pairs != nil {
+		r.pairs[pairKey(a, b)] = struct{}{}
+	}
 	m.Atoms[a].Bonds = append(m.Atoms[a].Bonds, bi)
 	m.Atoms[b].Bonds = append(m.Atoms[b].Bonds, bi)
 	return bi

@@ -318,3 +318,23 @@ func TestHostileInput(t *testing.T) {
 		t.Errorf("unclosed branches: no error")
 	}
 }
+
+// BenchmarkManyClosuresOnTwoAtoms reads a record whose two atoms share
+// thousands of ring closures (each after the first a duplicate bond): the
+// duplicate check must not make reading quadratic.
+func BenchmarkManyClosuresOnTwoAtoms(b *testing.B) {
+	var sb strings.Builder
+	sb.WriteString("C")
+	for i := 0; i < 50000; i++ {
+		sb.WriteString("%(" + itoa(i+100) + ")")
+	}
+	sb.WriteString("C")
+	for i := 0; i < 50000; i++ {
+		sb.WriteString("%(" + itoa(i+100) + ")")
+	}
+	text := sb.String()
+	b.SetBytes(int64(len(text)))
+	for b.Loop() {
+		Read(text)
+	}
+}

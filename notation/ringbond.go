@@ -96,7 +96,7 @@ func (r *reader) closeRing(open *openRing, sym byte, span, symSpan Span) {
 		drop()
 		return
 	}
-	if m.BondBetween(open.atom, cur) >= 0 {
+	if r.bonded(open.atom, cur) {
 		e := r.errorf(span, CodeRingDuplicate, "expected a ring closure between atoms not yet bonded, found a second bond between atoms %d and %d", open.atom+1, cur+1)
 		e.Related = append(e.Related, Related{open.span, "ring opened here"})
 		drop()
@@ -118,8 +118,42 @@ func (r *reader) closeRing(open *openRing, sym byte, span, symSpan Span) {
 	}
 	m.Bonds = append(m.Bonds, bd)
 	bi := len(m.Bonds) - 1
+	if r.pairs != nil {
+		r.pairs[pairKey(open.atom, cur)] = struct{}{}
+	}
 	m.Atoms[open.atom].Bonds[open.slot] = bi
 	m.Atoms[cur].Bonds = append(m.Atoms[cur].Bonds, bi)
+}
+
+// bonded reports whether atoms a and b are already bonded. Scanning the
+// shorter neighbour list is enough for ordinary molecules; when both atoms
+// carry many bonds (a record written to have thousands of ring closures
+// on two atoms) a set of bonded pairs keeps the check constant-time, so
+// reading stays linear.
+func (r *reader) bonded(a, b int) bool {
+	m := r.mol
+	da, db := len(m.Atoms[a].Bonds), len(m.Atoms[b].Bonds)
+	if da <= 16 || db <= 16 {
+		if db < da {
+			a, b = b, a
+		}
+		return m.BondBetween(a, b) >= 0
+	}
+	if r.pairs == nil {
+		r.pairs = make(map[uint64]struct{}, len(m.Bonds))
+		for i := range m.Bonds {
+			r.pairs[pairKey(m.Bonds[i].Begin, m.Bonds[i].End)] = struct{}{}
+		}
+	}
+	_, ok := r.pairs[pairKey(a, b)]
+	return ok
+}
+
+func pairKey(a, b int) uint64 {
+	if a > b {
+		a, b = b, a
+	}
+	return uint64(a)<<32 | uint64(uint32(b))
 }
 
 func orderOf1(sym byte) BondOrder {

@@ -220,12 +220,13 @@ func (g *ringGraph) blocks() ([][]int, int) {
 // ringSearch holds the scratch arrays reused by every search, so that
 // the many small searches of a large record allocate nothing per atom.
 type ringSearch struct {
-	g     *ringGraph
-	stamp []int // stamp[a] == round when atom a was reached in this round
-	via   []int // bond by which atom a was reached
-	dist  []int
-	round int
-	queue []int
+	g      *ringGraph
+	stamp  []int // stamp[a] == round when atom a was reached in this round
+	via    []int // bond by which atom a was reached
+	dist   []int
+	branch []int // child of the root under which each atom hangs (Horton)
+	round  int
+	queue  []int
 }
 
 // block finds the ring sizes and basis rings of one biconnected block.
@@ -363,8 +364,9 @@ func (s *ringSearch) hortonFrom(x int, blk []int, pool *ringPool) {
 	s.round++
 	if len(s.dist) < len(s.stamp) {
 		s.dist = make([]int, len(s.stamp))
+		s.branch = make([]int, len(s.stamp))
 	}
-	branch := make(map[int]int)
+	branch := s.branch
 	s.stamp[x], s.via[x], s.dist[x] = s.round, -1, 0
 	branch[x] = x
 	s.queue = append(s.queue[:0], x)

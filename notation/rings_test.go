@@ -328,3 +328,65 @@ func BenchmarkFindRingsCubane(b *testing.B) {
 		FindRings(m)
 	}
 }
+
+// TestFindRingsRead checks ring perception on molecules read from text:
+// cubane, adamantane, spiro[3.3]heptane, caffeine and a ring closure
+// across a dot (textbook SSSR, common practice).
+func TestFindRingsRead(t *testing.T) {
+	tests := []struct{ name, smiles, sssr string }{
+		{"cubane", "C12C3C4C1C5C2C3C45", "4 4 4 4 4"},
+		{"adamantane", "C1C2CC3CC1CC(C2)C3", "6 6 6"},
+		{"spiroheptane", "C1CC[C@]12CCC2", "4 4"},
+		{"caffeine", "Cn1cnc2c1c(=O)n(C)c(=O)n2C", "5 6"},
+		{"ring bonds across a dot", "C12CC.C1C2", "3"},
+		{"reaction", "C1CC1>>C=CC", "3"},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			m := Read(tt.smiles)
+			if m.Errors.HasErrors() {
+				t.Fatalf("read: %v", m.Errors)
+			}
+			r := FindRings(m)
+			if got := ringSizes(r); got != tt.sssr || len(r.SSSR) != r.Expected {
+				t.Errorf("SSSR %q (expected count %d), want %q", got, r.Expected, tt.sssr)
+			}
+			checkRingsAreCycles(t, m, r)
+		})
+	}
+}
+
+// TestLargeRecords reads, perceives rings in and writes a record of about
+// a megabyte with 20,000 ring closures, and a long chain, within a time
+// that rules out quadratic behaviour.
+func TestLargeRecords(t *testing.T) {
+	var sb strings.Builder
+	for i := 0; i < 20000; i++ {
+		sb.WriteString("C1CCC(CC1)C(=O)NC(C)(C)") // a ring and a chain unit
+		sb.WriteString("c1ccc2ccccc2c1OCC")
+	}
+	sb.WriteString("C")
+	huge := sb.String()
+	for _, text := range []string{huge, strings.Repeat("CC(C)O", 150000) + "C"} {
+		start := time.Now()
+		m := Read(text)
+		read := time.Since(start)
+		r := FindRings(m)
+		rings := time.Since(start) - read
+		w := Write(m, WriteOptions{})
+		written := time.Since(start) - read - rings
+		if rings > 5*time.Second || written > 5*time.Second {
+			t.Errorf("%d bytes: rings took %v, writing %v", len(text), rings, written)
+		}
+		if m.Errors.HasErrors() {
+			t.Fatalf("read: %v", m.Errors[0])
+		}
+		if len(r.SSSR) != r.Expected || r.Approximate {
+			t.Errorf("%d rings of %d expected (approximate %v)", len(r.SSSR), r.Expected, r.Approximate)
+		}
+		if len(w.Order) != len(m.Atoms) {
+			t.Errorf("wrote %d atoms of %d", len(w.Order), len(m.Atoms))
+		}
+		t.Logf("%d bytes, %d atoms, %d rings: read %v, rings %v, write %v", len(text), len(m.Atoms), len(r.SSSR), read, rings, written)
+	}
+}

@@ -20,8 +20,9 @@ const maxErrors = 200
 // in the length of the text.
 func Read(text string) *Molecule {
 	r := &reader{text: text, mol: &Molecule{Text: text}, prev: -1, rings: map[int]*openRing{}}
-	r.mol.Atoms = make([]Atom, 0, len(text)/2+1)
-	r.mol.Bonds = make([]Bond, 0, len(text)/2+1)
+	atoms, rings := countTokens(text)
+	r.mol.Atoms = make([]Atom, 0, atoms)
+	r.mol.Bonds = make([]Bond, 0, atoms+rings)
 	r.read()
 	finish(r.mol)
 	r.mol.Errors.Sort()
@@ -29,6 +30,21 @@ func Read(text string) *Molecule {
 		r.mol.Errors = r.mol.Errors[:maxErrors+1]
 	}
 	return r.mol
+}
+
+// countTokens bounds the number of atoms (capital letters, aromatic
+// letters and '*') and ring closures (digits) in text, so the slices are
+// allocated once at about the right size.
+func countTokens(text string) (atoms, rings int) {
+	for i := 0; i < len(text); i++ {
+		switch c := text[i]; {
+		case c >= 'A' && c <= 'Z', c == '*', c == 'c', c == 'n', c == 'o', c == 's', c == 'p', c == 'b':
+			atoms++
+		case c >= '0' && c <= '9':
+			rings++
+		}
+	}
+	return atoms + 1, rings/2 + 1
 }
 
 // reader is the state of one Read.

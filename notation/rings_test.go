@@ -367,7 +367,7 @@ func TestLargeRecords(t *testing.T) {
 	}
 	sb.WriteString("C")
 	huge := sb.String()
-	for _, text := range []string{huge, strings.Repeat("CC(C)O", 150000) + "C"} {
+	for _, text := range []string{huge, strings.Repeat("CC(C)O", 150000) + "C", strings.Repeat("[Na+].[Cl-].", 50000) + "O"} {
 		start := time.Now()
 		m := Read(text)
 		read := time.Since(start)

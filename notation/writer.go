@@ -12,7 +12,8 @@ import (
 // bonds in the order they were read and keeps aromatic atoms aromatic.
 type WriteOptions struct {
 	// Start is the atom the writing of its part begins with. Other parts
-	// begin with their lowest-numbered atom (or a random one).
+	// begin with their lowest-numbered atom (or a random one). Zero is
+	// the default: atom 0, or a random atom when Random is set.
 	Start int
 	// Random, when set, shuffles the order in which neighbours are
 	// visited, ring-closure digits are written and parts other than
@@ -96,6 +97,8 @@ type writer struct {
 	digit    []int   // ring-closure number of each ring bond
 	free     []bool  // free[d] when number d is not in use
 	position []int   // position of each atom in Text
+	partOf   []int   // connected part of each atom, -1 before it is found
+	parts    []int   // atom count of each part
 }
 
 func (w *writer) init() {
@@ -110,9 +113,11 @@ func (w *writer) init() {
 	w.rings = make([][]int, n)
 	w.digit = make([]int, nb)
 	w.position = make([]int, n)
+	w.partOf = make([]int, n)
 	for i := range w.m.Atoms {
 		w.aromatic[i] = w.writtenAromatic(i)
 		w.position[i] = -1
+		w.partOf[i] = -1
 	}
 }
 
@@ -139,15 +144,16 @@ func (w *writer) writtenAromatic(a int) bool {
 // order of the parts' lowest atoms.
 func (w *writer) roots(role Role) []int {
 	var roots []int
-	mark := make(map[int]bool)
 	for a := range w.m.Atoms {
-		if w.seen[a] || mark[a] || !w.inGroup(a, role) {
+		if w.partOf[a] >= 0 || !w.inGroup(a, role) {
 			continue
 		}
-		part := w.part(a, mark)
+		id := len(w.parts)
+		part := w.part(a, id)
+		w.parts = append(w.parts, len(part))
 		root := a
 		switch {
-		case w.opt.Start > 0 && w.opt.Start < len(w.m.Atoms) && mark[w.opt.Start] && containsInt(part, w.opt.Start):
+		case w.opt.Start > 0 && w.opt.Start < len(w.m.Atoms) && w.partOf[w.opt.Start] == id:
 			root = w.opt.Start
 		case w.opt.Random != nil:
 			root = part[w.opt.Random.IntN(len(part))]
@@ -170,17 +176,18 @@ func (w *writer) inGroup(a int, role Role) bool {
 	return !w.m.Reaction || w.m.Atoms[a].Role == role
 }
 
-// part lists the atoms connected to a within its role, marking them.
-func (w *writer) part(a int, mark map[int]bool) []int {
+// part lists the atoms connected to a within its role, giving them the
+// part number id.
+func (w *writer) part(a, id int) []int {
 	role := w.m.Atoms[a].Role
-	mark[a] = true
+	w.partOf[a] = id
 	list := []int{a}
 	for i := 0; i < len(list); i++ {
 		x := list[i]
 		for _, b := range w.m.Atoms[x].Bonds {
 			y := w.m.Bonds[b].Other(x)
-			if !mark[y] && (!w.m.Reaction || w.m.Atoms[y].Role == role) {
-				mark[y] = true
+			if w.partOf[y] < 0 && (!w.m.Reaction || w.m.Atoms[y].Role == role) {
+				w.partOf[y] = id
 				list = append(list, y)
 			}
 		}

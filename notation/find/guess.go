@@ -46,7 +46,7 @@ func plausible(s string) bool {
 			return false
 		}
 	}
-	if strings.Contains(s, "://") {
+	if strings.Contains(s, "://") || !hasAtom(s) {
 		return false
 	}
 	for _, suf := range fileSuffixes {
@@ -55,6 +55,18 @@ func plausible(s string) bool {
 		}
 	}
 	return true
+}
+
+// hasAtom reports whether s has a byte that can start an atom (a letter,
+// '*' or '['): "\\" or "=" alone is not a record.
+func hasAtom(s string) bool {
+	for i := 0; i < len(s); i++ {
+		c := s[i] | 0x20
+		if c >= 'a' && c <= 'z' || s[i] == '*' || s[i] == '[' {
+			return true
+		}
+	}
+	return false
 }
 
 // unmistakable reports whether a literal nobody names is notation anyway:

@@ -42,7 +42,7 @@ func findTable(src []byte, sep byte, cfg *Config) []Occurrence {
 			for k, c := range rec {
 				h := strings.TrimSpace(string(c.text))
 				columns = append(columns, nm.column(h, cfg.Columns))
-				if titleCol < 0 && isTitleHeader(h) {
+				if p := titlePriority(h); p > 0 && (titleCol < 0 || p < titlePriority(strings.TrimSpace(string(rec[titleCol].text)))) {
 					titleCol = k
 				}
 			}
@@ -180,10 +180,16 @@ func (n namer) column(h string, extra []string) bool {
 	return found
 }
 
-func isTitleHeader(h string) bool {
+// titlePriority ranks headers for the title column: 1 is best, 0 is not
+// a title column.
+func titlePriority(h string) int {
 	switch strings.ToLower(h) {
-	case "name", "title", "id", "compound", "compound name", "compound_name":
-		return true
+	case "name", "title", "compound name", "compound_name":
+		return 1
+	case "compound", "molecule":
+		return 2
+	case "id":
+		return 3
 	}
-	return false
+	return 0
 }

@@ -1,0 +1,73 @@
+# Marker file for Python sources. Escape rules from the Python Language
+# Reference, "String and Bytes literals" (escape sequences table; invalid
+# escapes are kept and warned about since 3.6, SyntaxWarning since 3.12).
+# Molecules: (E)-1,2-difluoroethene F/C=C/F and (S)-alanine-like centres
+# from the OpenSMILES specification's examples.
+import re
+
+smiles = "F/C=C/F"  # want «F/C=C/F»
+SMILES_LIST = ["CCO", 'c1ccccc1']  # want «CCO» want «c1ccccc1»
+reactant_smiles: str = "CC(=O)O"  # want «CC(=O)O»
+data = {"smiles": "N[C@@H](C)C(=O)O", "name": "alanine"}  # want «N[C@@H](C)C(=O)O»
+mol = Chem.MolFromSmiles("C[C@H](N)O", sanitize=False)  # want «C[C@H](N)O»
+mol = load(smiles="F/C=C\\F")  # want «F/C=C\\F» text «F/C=C\F»
+row["smiles"] = "OCC"  # want «OCC»
+rxn = "CC=O.N>>CC=N"  # want «CC=O.N>>CC=N»
+smiles_col = "SMILES"
+smiles_file = "input.smi"
+reaction_name = "Suzuki coupling"
+label = "CO"
+element = "Cl"
+status = "OK"
+path = "/usr/local/bin"
+date = "2024/01/31"
+version = "1.2.3"
+na = "N/A"
+io = "I/O"
+pattern = re.compile(r"\d+/\w+")
+url = "https://example.org/a/b"
+guess = "C/C=C/C"  # want «C/C=C/C»
+ring = 'C1CCCCC1'  # want «C1CCCCC1»
+# comment "F/C=C/F" is not code
+text = "a # F/C=C/F in a string is not a comment"
+
+# Raw strings keep backslashes; \\ is one backslash.
+raw = r"F/C=C\F"  # want «F/C=C\F»
+doubled = "F/C=C\\F"  # want «F/C=C\\F» text «F/C=C\F»
+
+# Escapes that change the string are errors; the text is as written.
+octal = "C1CC\1"  # want «C1CC\1» error «\1» fix «r"C1CC\1"» fix «"C1CC\\1"»
+smiles_oct7 = "C\7C"  # want «C\7C» error «\7»
+smiles_t = "C\tC"  # want «C\tC» error «\t»
+smiles_n = "C\nC"  # want «C\nC» error «\n»
+smiles_r = "C\rC"  # want «C\rC» error «\r»
+smiles_a = "C\aC"  # want «C\aC» error «\a»
+smiles_b = "C\bC"  # want «C\bC» error «\b»
+smiles_f = "F/C=C\fC"  # want «F/C=C\fC» error «\f»
+smiles_v = "C\vC"  # want «C\vC» error «\v»
+smiles_x = "C\x41C"  # want «C\x41C» error «\x41»
+smiles_bad_n = "C\NC"  # want «C\NC» error «\N»
+# Invalid escapes are kept by Python with a warning.
+warn = "F/C=C\C"  # want «F/C=C\C» warning «\C» fix «r"F/C=C\C"»
+smiles_slash = "C\/C=C/C"  # want «C\/C=C/C» warning «\/»
+
+# Implicitly joined literals are one occurrence with a piecewise map.
+joined_smiles = "F/C=C" "/F"  # want «F/C=C" "/F» text «F/C=C/F»
+# f-strings and byte strings are skipped.
+smiles_f2 = f"F/C=C/{x}"
+smiles_b2 = b"F/C=C/F"
+
+# A named triple-quoted literal is a list, one record a line.
+# want-after «CCO» title «ethanol» want-after «F/C=C/F» title «difluoroethene»
+SMILES_BLOCK = """
+CCO ethanol
+F/C=C/F difluoroethene
+"""
+# stereoline: off
+off_smiles = "F/C=C/F"
+# stereoline: on
+on_smiles = "F/C=C/F"  # want «F/C=C/F»
+skipped_smiles = "F/C=C/F"  # stereoline: skip
+# stereoline: skip-next
+next_smiles = "F/C=C/F"
+forced = "CO"  # stereoline: notation  want «CO»

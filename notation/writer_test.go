@@ -36,6 +36,10 @@ func TestWriteExamples(t *testing.T) {
 		{"tetrahedral mark kept for an even permutation", "F[C@](Cl)(Br)I", WriteOptions{Start: 3}, "Br[C@](F)(Cl)I"},
 		{"tetrahedral mark flipped for a four-cycle", "F[C@](Cl)(Br)I", WriteOptions{Start: 4}, "I[C@@](F)(Cl)Br"},
 		{"ring closure in the neighbour order", "C1CC[C@]12CCC2", WriteOptions{Start: 4}, "C1[C@@]2(CCC2)CC1"},
+		// L-alanine is written both N[C@@H](C)C(=O)O and C[C@H](N)C(=O)O (common practice)
+		{"L-alanine from the methyl group", "N[C@@H](C)C(=O)O", WriteOptions{Start: 2}, "C[C@H](N)C(=O)O"},
+		{"sulfoxide lone pair takes the hydrogen's place", "C[S@@](=O)CC", WriteOptions{Start: 4}, "CC[S@@](C)=O"},
+		{"allene as read", "OC(Cl)=[C@]=C(C)F", WriteOptions{}, "OC(Cl)=[C@]=C(C)F"},
 		{"trans difluoroethene from the other end", "F/C=C/F", WriteOptions{Start: 3}, "F\\C=C\\F"},
 		{"reaction layout kept", "CC(=O)O.OCC>[H+]>CC(=O)OCC.O", WriteOptions{}, "CC(=O)O.OCC>[H+]>CC(=O)OCC.O"},
 		{"reaction with no agent", "C=C>>CC", WriteOptions{}, "C=C>>CC"},
@@ -52,6 +56,35 @@ func TestWriteExamples(t *testing.T) {
 			}
 			if err := sameStructure(m, got, tt.opt.Kekule); err != nil {
 				t.Errorf("Write(%q) = %q: %v", tt.have, got.Text, err)
+			}
+		})
+	}
+}
+
+// TestWriteUnadjusted checks that marks the writer cannot re-express are
+// reported rather than silently kept: an allene written from the other
+// end and an octahedral centre written with its neighbours reordered.
+func TestWriteUnadjusted(t *testing.T) {
+	tests := []struct {
+		name, have string
+		opt        WriteOptions
+		want       []int
+	}{
+		{"allene as read", "OC(Cl)=[C@]=C(C)F", WriteOptions{}, nil},
+		{"allene from the other end", "OC(Cl)=[C@]=C(C)F", WriteOptions{Start: 6}, []int{3}},
+		{"octahedral as read", "C[Co@OH1](F)(Cl)(Br)(I)N", WriteOptions{}, nil},
+		{"octahedral reordered", "C[Co@OH1](F)(Cl)(Br)(I)N", WriteOptions{Start: 6}, []int{1}},
+		{"tetrahedral is rewritten, not reported", "F[C@](Cl)(Br)I", WriteOptions{Start: 4}, nil},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			m := Read(tt.have)
+			if m.Errors.HasErrors() {
+				t.Fatalf("read %q: %v", tt.have, m.Errors)
+			}
+			got := Write(m, tt.opt)
+			if !sameInts(got.Unadjusted, tt.want) {
+				t.Errorf("Write(%q) = %q, unadjusted %v, want %v", tt.have, got.Text, got.Unadjusted, tt.want)
 			}
 		})
 	}

@@ -1,0 +1,104 @@
+// The Stereoline extension: it starts `stereoline serve` over stdio and
+// hands it list files, Python, notebooks, CSV, TSV and Markdown. All
+// analysis happens in the server; this file only wires settings and
+// documents to it.
+import * as vscode from "vscode";
+import {
+  LanguageClient,
+  LanguageClientOptions,
+  ServerOptions,
+  TransportKind,
+} from "vscode-languageclient/node";
+
+// section is the settings section the server reads, both from
+// initializationOptions and from workspace/configuration.
+const section = "stereoline";
+
+// Languages whose documents go to the server. "smiles" and "rsmi" are
+// contributed by this extension; the others are VS Code's own ids (csv and
+// tsv are also contributed here, since VS Code has none built in).
+const languages = ["smiles", "rsmi", "python", "csv", "tsv", "markdown"];
+
+let client: LanguageClient | undefined;
+
+// settings returns the server's part of the configuration: every key but
+// the ones the extension itself uses (path, trace).
+function settings(): Record<string, unknown> {
+  const c = vscode.workspace.getConfiguration(section);
+  return {
+    severity: c.get("severity", {}),
+    inlayHints: c.get("inlayHints", true),
+    detection: c.get("detection", "normal"),
+    columns: c.get("columns", []),
+    names: c.get("names", []),
+    files: c.get("files", {}),
+  };
+}
+
+function newClient(): LanguageClient {
+  const command = vscode.workspace.getConfiguration(section).get<string>("path", "stereoline") || "stereoline";
+  const server: ServerOptions = {
+    run: { command, args: ["serve"], transport: TransportKind.stdio },
+    debug: { command, args: ["serve"], transport: TransportKind.stdio },
+  };
+  const documentSelector = languages.flatMap((language) => [
+    { scheme: "file", language },
+    { scheme: "untitled", language },
+  ]);
+  const options: LanguageClientOptions = {
+    documentSelector,
+    initializationOptions: settings(),
+    // Notebook cells reach the server through notebookDocument/* once it
+    // announces notebookDocumentSync; the client takes the notebook
+    // selector from the server's capabilities.
+    synchronize: {
+      // Send workspace/didChangeConfiguration when our settings change,
+      // so the server pulls them again.
+      configurationSection: section,
+    },
+    outputChannelName: "Stereoline",
+  };
+  return new LanguageClient(section, "Stereoline", server, options);
+}
+
+async function start(): Promise<void> {
+  client = newClient();
+  try {
+    await client.start();
+  } catch (err) {
+    const message = err instanceof Error ? err.message : String(err);
+    void vscode.window.showErrorMessage(
+      `Stereoline: could not start the language server (${message}). Set "stereoline.path" to the stereoline program.`,
+    );
+  }
+}
+
+async function stop(): Promise<void> {
+  const c = client;
+  client = undefined;
+  if (c && c.isRunning()) {
+    await c.stop();
+  }
+}
+
+export async function activate(context: vscode.ExtensionContext): Promise<void> {
+  context.subscriptions.push(
+    vscode.commands.registerCommand("stereoline.restartServer", async () => {
+      await stop();
+      await start();
+    }),
+    // A new program path needs a new process; other settings reach the
+    // running server through didChangeConfiguration.
+    vscode.workspace.onDidChangeConfiguration(async (e) => {
+      if (e.affectsConfiguration(`${section}.path`)) {
+        await stop();
+        await start();
+      }
+    }),
+  );
+  await start();
+}
+
+export async function deactivate(): Promise<void> {
+  await stop();
+}

@@ -8,24 +8,48 @@ package stereo
 // (aR is M, aS is P; P-93.5.7, common practice).
 
 func (l *labeller) allene(c *alleneConfig) label {
+	lb, cands := l.alleneWith(c, -1)
+	if lb.tie && !lb.capped {
+		lb = l.withReference(lb, cands, func(ref int) label {
+			x, _ := l.alleneWith(c, ref)
+			return x
+		})
+	}
+	return lb
+}
+
+// alleneWith labels an allene with a given Rule 6 reference atom.
+func (l *labeller) alleneWith(c *alleneConfig, ref int) (label, []int) {
 	var out label
+	var cands []int
 	rankOf := map[[2]int]int{} // (end, atom) -> rank 1..4
 	hRank := [2]int{}
 	isPseudo := false
 	for e := 0; e < 2; e++ {
-		d := newDigraph(l.g, l.cfg, c.ends[e], l.nodeCap)
-		var ligs []nodeID
-		for _, k := range d.ligandsOf(0, noNode) {
-			if d.nodes[k].atom != c.inner[e] {
-				ligs = append(ligs, k)
+		var nl int
+		d, r := l.rootRanking(c.ends[e], ref, func(d *digraph) []nodeID {
+			var ligs []nodeID
+			for _, k := range d.ligandsOf(0, noNode) {
+				if d.nodes[k].atom != c.inner[e] {
+					ligs = append(ligs, k)
+				}
 			}
-		}
-		r := d.rankLigands(0, ligs)
+			nl = len(ligs)
+			return ligs
+		})
+		ligs := make([]nodeID, nl)
 		if d.capped {
 			out.capped = true
 		}
 		if r.tie || len(ligs) != 2 {
 			out.tie = true
+			if cands == nil {
+				for _, n := range r.tied {
+					if a := d.ligandAtom(n); a >= 0 {
+						cands = append(cands, a)
+					}
+				}
+			}
 		}
 		isPseudo = isPseudo != r.pseudo
 		for i, n := range r.order {
@@ -48,10 +72,10 @@ func (l *labeller) allene(c *alleneConfig) label {
 	switch {
 	case out.capped:
 		out.desc = DescUndetermined
-		return out
+		return out, cands
 	case out.tie || len(c.ligands) != 4:
 		out.tie = true
-		return out
+		return out, cands
 	}
 	ranks := make([]int, 4)
 	for i, a := range c.ligands {
@@ -62,7 +86,7 @@ func (l *labeller) allene(c *alleneConfig) label {
 		}
 		if ranks[i] == 0 {
 			out.tie = true
-			return out
+			return out, cands
 		}
 	}
 	out.desc = DescM
@@ -72,5 +96,5 @@ func (l *labeller) allene(c *alleneConfig) label {
 	if isPseudo {
 		out.desc = pseudo(out.desc)
 	}
-	return out
+	return out, cands
 }

@@ -13,16 +13,29 @@ func (d *digraph) auxFor(root, n nodeID) Descriptor {
 	if n == noNode || d.nodes[n].depth <= d.nodes[root].depth || d.nodes[n].kind != nodeAtom {
 		return DescNone
 	}
-	if x, ok := d.aux[n]; ok {
-		return x
+	x, ok := d.aux[n]
+	if !ok {
+		if d.auxing[n] {
+			return DescNone
+		}
+		d.auxing[n] = true
+		x = d.computeAux(n)
+		delete(d.auxing, n)
+		d.aux[n] = x
 	}
-	if d.auxing[n] {
-		return DescNone
+	if d.mirror && root == 0 {
+		return mirrorAux(x)
 	}
-	d.auxing[n] = true
-	x := d.computeAux(n)
-	delete(d.auxing, n)
-	d.aux[n] = x
+	return x
+}
+
+// mirrorAux is the auxiliary descriptor of the same node in the mirror
+// image: chiral labels swap, pseudoasymmetric and E/Z labels stay.
+func mirrorAux(x Descriptor) Descriptor {
+	switch x {
+	case DescR, DescS, DescM, DescP:
+		return x.Mirror()
+	}
 	return x
 }
 

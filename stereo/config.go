@@ -138,18 +138,32 @@ func (g *graph) alleneEnds(c int) (ends, inner [2]int, ok bool) {
 }
 
 // substituents lists the neighbours of terminal t other than the chain
-// atom, plus its implicit hydrogens, as (atom, sort key) pairs; a
-// hydrogen sorts at the terminal's own position.
+// atom, plus its implicit hydrogens, each with the text offset where the
+// notation names it as seen from t: a chain or branch neighbour at its
+// own position, a ring-closure neighbour at the digit written on t, a
+// hydrogen inside t's brackets. Sorting the four substituents of an
+// allene by these offsets gives the OpenSMILES neighbour order.
 func (g *graph) substituents(t, inner int) (atoms []int, keys []float64) {
+	m := g.mol
 	for _, e := range g.adj[t] {
-		if e.to != inner {
-			atoms = append(atoms, e.to)
-			keys = append(keys, float64(e.to))
+		if e.to == inner {
+			continue
 		}
+		b := &m.Bonds[e.bond]
+		key := float64(m.Atoms[e.to].Span.Start)
+		if b.Ring {
+			if b.Begin == t {
+				key = float64(b.Span.Start) + 0.5
+			} else {
+				key = float64(b.CloseSpan.Start) + 0.5
+			}
+		}
+		atoms = append(atoms, e.to)
+		keys = append(keys, key)
 	}
 	for h := 0; h < g.hyd[t]; h++ {
 		atoms = append(atoms, implicitLigand)
-		keys = append(keys, float64(t))
+		keys = append(keys, float64(m.Atoms[t].Span.Start)+0.25)
 	}
 	return atoms, keys
 }

@@ -1,6 +1,7 @@
 package stereo
 
 import (
+	"fmt"
 	"os"
 	"testing"
 
@@ -18,5 +19,43 @@ func TestDebugOne(t *testing.T) {
 	}
 	for _, e := range a.Diagnostics {
 		t.Logf("%v", e)
+	}
+}
+
+func TestDebugSpheres(t *testing.T) {
+	smi := os.Getenv("SMI2")
+	if smi == "" {
+		t.Skip()
+	}
+	m := notation.Read(smi)
+	l := &labeller{g: newGraph(m), cfg: newConfigs(), nodeCap: defaultNodeCap, res: &Analysis{}}
+	l.readCentres()
+	d := newDigraph(l.g, l.cfg, 1, defaultNodeCap)
+	d.refAtom = 0
+	ligs := d.ligandsOf(0, noNode)
+	var a, b nodeID
+	for _, n := range ligs {
+		if d.nodes[n].atom == 8 {
+			a = n
+		}
+		if d.nodes[n].atom == 2 {
+			b = n
+		}
+	}
+	for _, x := range []nodeID{a, b} {
+		q := []step{{x, 0}}
+		for s := 1; s <= 6; s++ {
+			var row []string
+			var next []step
+			for _, st := range q {
+				nd := d.nodes[st.n]
+				row = append(row, fmt.Sprintf("%d%s:%v", nd.atom, map[nodeKind]string{0: "", 1: "d", 2: "h", 3: "l"}[nd.kind], rule6Value(d, 0, st.n)))
+				for _, k := range d.sortedNeighbours(0, st.n, st.from, Rule6) {
+					next = append(next, step{k, st.n})
+				}
+			}
+			t.Logf("sphere %d: %v", s, row)
+			q = next
+		}
 	}
 }

@@ -50,6 +50,12 @@ type digraph struct {
 	aux    map[nodeID]Descriptor
 	auxing map[nodeID]bool
 	cfg    *configs
+	// refAtom is the Rule 6 reference, -1 when none is chosen.
+	refAtom int
+	// mirror makes the root's view see the auxiliary descriptors of the
+	// mirror image (R and S swapped, r and s kept), to test whether a
+	// ranking is pseudoasymmetric.
+	mirror bool
 }
 
 type sortKey struct {
@@ -63,7 +69,7 @@ type sortKey struct {
 const defaultNodeCap = 40000
 
 func newDigraph(g *graph, cfg *configs, rootAtom int, limit int) *digraph {
-	d := &digraph{g: g, limit: limit, cfg: cfg,
+	d := &digraph{g: g, limit: limit, cfg: cfg, refAtom: -1,
 		sorted: map[sortKey][]nodeID{}, aux: map[nodeID]Descriptor{}, auxing: map[nodeID]bool{}}
 	d.nodes = append(d.nodes, node{atom: rootAtom, kind: nodeAtom, parent: noNode, corr: noNode, bond: -1,
 		z: float64(g.z[rootAtom]), mass: g.mass[rootAtom]})

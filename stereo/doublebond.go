@@ -8,18 +8,22 @@ func (l *labeller) doubleBond(c *bondConfig) label {
 	var out label
 	trans := c.trans
 	for e := 0; e < 2; e++ {
-		d := newDigraph(l.g, l.cfg, c.ends[e], l.nodeCap)
-		var ligs []nodeID
-		for _, k := range d.ligandsOf(0, noNode) {
-			if d.nodes[k].atom != c.inner[e] {
-				ligs = append(ligs, k)
+		var nl int
+		d, r := l.rootRanking(c.ends[e], -1, func(d *digraph) []nodeID {
+			var ligs []nodeID
+			for _, k := range d.ligandsOf(0, noNode) {
+				if d.nodes[k].atom != c.inner[e] {
+					ligs = append(ligs, k)
+				}
 			}
-		}
-		if len(ligs) == 1 && l.g.hyd[c.ends[e]] == 0 && len(l.g.adj[c.ends[e]]) == 2 {
-			// =N- : the lone pair is the second ligand
-			ligs = append(ligs, d.lonePair(0))
-		}
-		r := d.rankLigands(0, ligs)
+			if len(ligs) == 1 && l.g.hyd[c.ends[e]] == 0 && len(l.g.adj[c.ends[e]]) == 2 {
+				// =N- : the lone pair is the second ligand
+				ligs = append(ligs, d.lonePair(0))
+			}
+			nl = len(ligs)
+			return ligs
+		})
+		ligs := make([]nodeID, nl)
 		if d.capped {
 			out.capped = true
 		}

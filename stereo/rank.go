@@ -25,7 +25,8 @@ type ranking struct {
 	order     []nodeID // highest first
 	decisions []Decision
 	tie       bool
-	pseudo    bool // an odd number of pairs was told apart only by Rule 5
+	tied      []nodeID // the first group of ligands left tied
+	pseudo    bool // an odd number of pairs was told apart only by Rule 5 or 6
 }
 
 // rankLigands sorts the ligands of root in the view rooted at root.
@@ -44,10 +45,19 @@ func (d *digraph) rankLigands(root nodeID, ligs []nodeID) ranking {
 	for i := 0; i+1 < len(s); i++ {
 		c, rule, sphere := d.compareChain(root, s[i], root, s[i+1], root, Rule6)
 		if c == 0 {
+			if !r.tie {
+				r.tied = append(r.tied, s[i])
+				for j := i + 1; j < len(s); j++ {
+					if c2, _, _ := d.compareChain(root, s[i], root, s[j], root, Rule6); c2 != 0 {
+						break
+					}
+					r.tied = append(r.tied, s[j])
+				}
+			}
 			r.tie = true
 			continue
 		}
-		if rule == Rule5 {
+		if rule == Rule5 || rule == Rule6 {
 			// each enantiomorphic pair swaps under reflection; an odd
 			// number of swaps keeps the label, which makes it lowercase
 			r.pseudo = !r.pseudo
@@ -91,4 +101,45 @@ func tetrahedralDescriptor(ranks []int, winding int) Descriptor {
 		return DescR
 	}
 	return DescS
+}
+
+// rootRanking ranks the ligands pick selects at the root atom, with the
+// given Rule 6 reference. A ranking decided by the descriptor rules is
+// pseudoasymmetric when the mirror image ranks the same ligands in an
+// order of the opposite parity: reflection then leaves the label as it
+// is, which is what lowercase labels mean (P-92.1.3.4).
+func (l *labeller) rootRanking(atom, ref int, pick func(d *digraph) []nodeID) (*digraph, ranking) {
+	d := newDigraph(l.g, l.cfg, atom, l.nodeCap)
+	d.refAtom = ref
+	r := d.rankLigands(0, pick(d))
+	r.pseudo = false
+	if r.tie || d.capped || !usesDescriptorRules(r) {
+		return d, r
+	}
+	m := newDigraph(l.g, l.cfg, atom, l.nodeCap)
+	m.refAtom = ref
+	m.mirror = true
+	mr := m.rankLigands(0, pick(m))
+	if mr.tie || m.capped || len(mr.order) != len(r.order) {
+		return d, r
+	}
+	pos := map[int]int{}
+	for i, n := range r.order {
+		pos[d.ligandAtom(n)] = i
+	}
+	perm := make([]int, len(mr.order))
+	for i, n := range mr.order {
+		perm[i] = pos[m.ligandAtom(n)]
+	}
+	r.pseudo = inversions(perm)%2 == 1
+	return d, r
+}
+
+func usesDescriptorRules(r ranking) bool {
+	for _, dc := range r.decisions {
+		if dc.Rule >= Rule3 {
+			return true
+		}
+	}
+	return false
 }

@@ -1,14 +1,43 @@
 package stereo
 
 // Rule 6 (proposed by Hanson et al. 2018): an undifferentiated reference
-// node has priority over any other undifferentiated node. In a digraph
-// this is a duplicate of the root: when the branches are otherwise
-// equal, the one that returns to the root first (reached through the
-// duplicate nearest in hierarchical order) precedes.
+// node has priority over any other undifferentiated node. When Rules 1 to
+// 5 leave ligands of a unit tied although the unit is stereogenic (C2-
+// and D2-symmetric spiro compounds and cages), one of the tied ligands is
+// taken as the reference; every node standing for its atom then ranks
+// above the others. The unit is stereogenic only if every choice of
+// reference gives the same descriptor (see withReference).
 func rule6Value(d *digraph, root, n nodeID) float64 {
 	x := &d.nodes[n]
-	if x.kind == nodeDuplicate && x.corr == root {
+	if d.refAtom >= 0 && x.atom == d.refAtom && (x.kind == nodeAtom || x.kind == nodeDuplicate) {
 		return 1
 	}
 	return 0
+}
+
+// withReference relabels a unit whose ranking was left tied, once with
+// each tied candidate as the Rule 6 reference. It returns the label when
+// all choices agree, and the tied label otherwise.
+func (l *labeller) withReference(tied label, candidates []int, run func(ref int) label) label {
+	// a reference can split a pair; three or more equal ligands (the
+	// bridgeheads of adamantane, cubane, barrelene) stay equal
+	if len(candidates) < 2 {
+		return tied
+	}
+	var first label
+	for i, c := range candidates {
+		lb := run(c)
+		if lb.capped {
+			return lb
+		}
+		if lb.tie || !lb.desc.Labelled() {
+			return tied
+		}
+		if i == 0 {
+			first = lb
+		} else if lb.desc != first.desc {
+			return tied
+		}
+	}
+	return first
 }

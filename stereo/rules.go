@@ -80,6 +80,24 @@ func (d *digraph) compareChain(root, a, af, b, bf nodeID, last Rule) (int, Rule,
 	return 0, last, 0
 }
 
+// compareForOrder orders two siblings for the hierarchical walk of rule
+// r: by the rules up to r, except that Rule 6 orders by the
+// constitutional rules (1a, 1b, 2) and itself only. Its reference is
+// fixed by constitution; ordering by the descriptor rules, which invert
+// in a mirror image, would let a mirror plane through the reference tell
+// the two mirror-image ligands apart (the bridgeheads of adamantane).
+func (d *digraph) compareForOrder(root, x, y, from nodeID, r Rule) int {
+	if r != Rule6 {
+		c, _, _ := d.compareChain(root, x, from, y, from, r)
+		return c
+	}
+	if c, _, _ := d.compareChain(root, x, from, y, from, Rule2); c != 0 {
+		return c
+	}
+	c, _ := d.compareRule(root, x, from, y, from, Rule6)
+	return c
+}
+
 type step struct{ n, from nodeID }
 
 // compareSpheres walks both branches breadth first. At each sphere the
@@ -157,7 +175,7 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 	// insertion sort: few children, and a stable order for ties
 	for i := 1; i < len(s); i++ {
 		for j := i; j > 0; j-- {
-			c, _, _ := d.compareChain(root, s[j], n, s[j-1], n, r)
+			c := d.compareForOrder(root, s[j], s[j-1], n, r)
 			if c <= 0 {
 				break
 			}

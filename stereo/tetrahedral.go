@@ -13,12 +13,29 @@ type label struct {
 }
 
 func (l *labeller) tetrahedral(t *tetraConfig) label {
-	d := newDigraph(l.g, l.cfg, t.centre, l.nodeCap)
-	ligs := d.ligandsOf(0, noNode)
-	if t.lonePair && len(ligs) == 3 {
-		ligs = append(ligs, d.lonePair(0))
+	lb, cands := l.tetrahedralWith(t, -1)
+	if lb.tie && !lb.capped {
+		lb = l.withReference(lb, cands, func(ref int) label {
+			x, _ := l.tetrahedralWith(t, ref)
+			return x
+		})
 	}
-	r := d.rankLigands(0, ligs)
+	return lb
+}
+
+// tetrahedralWith labels a centre with a given Rule 6 reference atom (-1
+// for none) and returns the atoms of the ligands left tied.
+func (l *labeller) tetrahedralWith(t *tetraConfig, ref int) (label, []int) {
+	var n3 int
+	d, r := l.rootRanking(t.centre, ref, func(d *digraph) []nodeID {
+		ligs := d.ligandsOf(0, noNode)
+		if t.lonePair && len(ligs) == 3 {
+			ligs = append(ligs, d.lonePair(0))
+		}
+		n3 = len(ligs)
+		return ligs
+	})
+	ligs := make([]nodeID, n3)
 	out := label{capped: d.capped, tie: r.tie}
 	out.decisions = r.decisions
 	for i, n := range r.order {
@@ -40,5 +57,11 @@ func (l *labeller) tetrahedral(t *tetraConfig) label {
 		}
 		out.desc = x
 	}
-	return out
+	var cands []int
+	for _, n := range r.tied {
+		if a := d.ligandAtom(n); a >= 0 {
+			cands = append(cands, a)
+		}
+	}
+	return out, cands
 }

@@ -255,7 +255,7 @@ func impliedHydrogensWithoutBrackets(m *Molecule, atom int) bool {
 		return false
 	}
 	if at.Aromatic {
-		if _, ok := map[string]bool{"b": true, "c": true, "n": true, "o": true, "p": true, "s": true}[at.Symbol]; !ok {
+		if !organicAromatic[at.Symbol] {
 			return false
 		}
 	}

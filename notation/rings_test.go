@@ -360,6 +360,9 @@ func TestFindRingsRead(t *testing.T) {
 // a megabyte with 20,000 ring closures, and a long chain, within a time
 // that rules out quadratic behaviour.
 func TestLargeRecords(t *testing.T) {
+	if testing.Short() {
+		t.Skip("megabyte records skipped in short mode")
+	}
 	var sb strings.Builder
 	for i := 0; i < 20000; i++ {
 		sb.WriteString("C1CCC(CC1)C(=O)NC(C)(C)") // a ring and a chain unit

@@ -98,6 +98,7 @@ type writer struct {
 	free     []bool  // free[d] when number d is not in use
 	position []int   // position of each atom in Text
 	partOf   []int   // connected part of each atom, -1 before it is found
+	scratch  []int   // room for every atom's neighbour order, taken once per atom
 	parts    []int   // atom count of each part
 }
 
@@ -114,6 +115,11 @@ func (w *writer) init() {
 	w.digit = make([]int, nb)
 	w.position = make([]int, n)
 	w.partOf = make([]int, n)
+	total := 0
+	for i := range w.m.Atoms {
+		total += len(w.m.Atoms[i].Bonds)
+	}
+	w.scratch = make([]int, total)
 	for i := range w.m.Atoms {
 		w.aromatic[i] = w.writtenAromatic(i)
 		w.position[i] = -1
@@ -207,14 +213,20 @@ func (w *writer) component(root int) {
 // explored: by the neighbour's position in the molecule (so a molecule
 // read from text is written much as it was read), or shuffled.
 func (w *writer) neighbourBonds(a int) []int {
-	bonds := append([]int(nil), w.m.Atoms[a].Bonds...)
+	src := w.m.Atoms[a].Bonds
+	bonds := w.scratch[:len(src):len(src)]
+	w.scratch = w.scratch[len(src):]
+	copy(bonds, src)
 	if w.opt.Random != nil {
 		w.opt.Random.Shuffle(len(bonds), func(i, j int) { bonds[i], bonds[j] = bonds[j], bonds[i] })
 		return bonds
 	}
-	sort.SliceStable(bonds, func(i, j int) bool {
-		return w.m.Bonds[bonds[i]].Other(a) < w.m.Bonds[bonds[j]].Other(a)
-	})
+	// insertion sort: degrees are small, and it allocates nothing
+	for i := 1; i < len(bonds); i++ {
+		for j := i; j > 0 && w.m.Bonds[bonds[j]].Other(a) < w.m.Bonds[bonds[j-1]].Other(a); j-- {
+			bonds[j], bonds[j-1] = bonds[j-1], bonds[j]
+		}
+	}
 	return bonds
 }
 
@@ -437,6 +449,10 @@ func chiralityText(c Chirality) string {
 	return "@" + c.Class.String() + strconv.Itoa(c.Num)
 }
 
+// organicAromatic are the aromatic symbols allowed without brackets
+// (OpenSMILES 3.5).
+var organicAromatic = map[string]bool{"b": true, "c": true, "n": true, "o": true, "p": true, "s": true}
+
 // organic reports whether atom a can be written without brackets: an
 // element of the organic subset (or '*') with no isotope, charge, class or
 // chirality, whose hydrogens are exactly those the reader will imply.
@@ -453,7 +469,7 @@ func (w *writer) organic(a int, sym string) bool {
 		return false
 	}
 	if w.aromatic[a] {
-		if _, ok := map[string]bool{"b": true, "c": true, "n": true, "o": true, "p": true, "s": true}[sym]; !ok {
+		if !organicAromatic[sym] {
 			return false
 		}
 		// The hydrogens of an aromatic atom follow from the Kekulé

@@ -138,6 +138,11 @@ func writeAtom(b *strings.Builder, rec *Record, a int) {
 	}
 	b.WriteString("\n")
 	writeUnit(b, rec, u)
+	for _, f := range stereo.Families(m) {
+		if f.Atom == a {
+			fmt.Fprintf(b, "\nFischer family: **%s** (%s reference carbon)\n", f.Family, f.Kind)
+		}
+	}
 }
 
 func writeBond(b *strings.Builder, rec *Record, bi int) {

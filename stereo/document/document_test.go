@@ -1,0 +1,94 @@
+package document
+
+import (
+	"strings"
+	"testing"
+
+	"stereoline/stereo"
+)
+
+// The facts checked here are common practice: L-alanine is (S), a mark
+// on a methylene carbon is ineffective, an unmarked double bond end of
+// F/C=CF is one-sided.
+
+func analyze(t *testing.T, name, text string) *Result {
+	t.Helper()
+	return NewAnalyzer(DefaultConfig()).Analyze(name, "", []byte(text))
+}
+
+func TestListDiagnosticsInHostOffsets(t *testing.T) {
+	text := "N[C@@H](C)C(=O)O L-alanine\nC[C@H](C)O propan-2-ol, marked\n"
+	res := analyze(t, "blocks.smi", text)
+	if len(res.Records) != 2 {
+		t.Fatalf("records = %d, want 2", len(res.Records))
+	}
+	var found bool
+	for _, d := range res.Diagnostics {
+		if d.Code == stereo.CodeIneffectiveCenter {
+			found = true
+			if got := text[d.Span.Start:d.Span.End]; !strings.Contains(got, "@") {
+				t.Errorf("ineffective mark span covers %q, want the mark", got)
+			}
+			if !d.Unnecessary {
+				t.Errorf("ineffective mark not tagged unnecessary")
+			}
+		}
+	}
+	if !found {
+		t.Errorf("no %s on C[C@H](C)O: %+v", stereo.CodeIneffectiveCenter, res.Diagnostics)
+	}
+}
+
+func TestHoverAndLabels(t *testing.T) {
+	text := "# é — a comment with non-ASCII text\nalanine_smiles = \"N[C@@H](C)C(=O)O\"\n"
+	res := analyze(t, "amino.py", text)
+	if len(res.Records) != 1 {
+		t.Fatalf("records = %d, want 1", len(res.Records))
+	}
+	at := strings.Index(text, "[C@@H]") + 2
+	md, span, ok := res.Hover(at)
+	if !ok {
+		t.Fatalf("no hover at the centre")
+	}
+	if got := text[span.Start:span.End]; got != "[C@@H]" {
+		t.Errorf("hover span covers %q, want [C@@H]", got)
+	}
+	for _, want := range []string{"(S)", "clockwise", "Fischer family: **L**", "notation as written"} {
+		if !strings.Contains(md, want) {
+			t.Errorf("hover lacks %q:\n%s", want, md)
+		}
+	}
+	labels := res.InlayLabels()
+	if len(labels) != 1 || labels[0].Text != "S" || labels[0].Offset != strings.Index(text, "[C@@H]")+len("[C@@H]") {
+		t.Errorf("labels = %+v", labels)
+	}
+	cfg := DefaultConfig()
+	cfg.InlayHints = false
+	if l := NewAnalyzer(cfg).Analyze("amino.py", "", []byte(text)).InlayLabels(); len(l) != 0 {
+		t.Errorf("labels with hints off = %+v", l)
+	}
+}
+
+func TestSeverityOverride(t *testing.T) {
+	cfg := DefaultConfig()
+	if err := cfg.Merge([]byte(`{"severity": {"stereo-ineffective-center": "off"}}`)); err != nil {
+		t.Fatal(err)
+	}
+	res := NewAnalyzer(cfg).Analyze("x.smi", "", []byte("C[C@H](C)O\n"))
+	for _, d := range res.Diagnostics {
+		if d.Code == stereo.CodeIneffectiveCenter {
+			t.Errorf("code switched off but reported: %+v", d)
+		}
+	}
+	if err := cfg.Merge([]byte(`{"severity": {"stereo-undefined": "loud"}}`)); err == nil {
+		t.Errorf("bad severity accepted")
+	}
+}
+
+func TestSymbols(t *testing.T) {
+	res := analyze(t, "x.smi", "CCO ethanol\nC[C@@H](O)CC\n")
+	syms := res.Symbols()
+	if len(syms) != 2 || syms[0].Name != "ethanol" || syms[1].Name != "C[C@@H](O)CC" {
+		t.Errorf("symbols = %+v", syms)
+	}
+}

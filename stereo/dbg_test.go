@@ -35,16 +35,16 @@ func TestDebugSpheres(t *testing.T) {
 	ligs := d.ligandsOf(0, noNode)
 	var a, b nodeID
 	for _, n := range ligs {
-		if d.nodes[n].atom == 8 {
+		if d.nodes[n].atom == 2 {
 			a = n
 		}
-		if d.nodes[n].atom == 2 {
+		if d.nodes[n].atom == 7 {
 			b = n
 		}
 	}
 	for _, x := range []nodeID{a, b} {
 		q := []step{{x, 0}}
-		for s := 1; s <= 6; s++ {
+		for s := 1; s <= 8; s++ {
 			var row []string
 			var next []step
 			for _, st := range q {
@@ -58,4 +58,29 @@ func TestDebugSpheres(t *testing.T) {
 			q = next
 		}
 	}
+}
+
+func TestDebugAux(t *testing.T) {
+	smi := os.Getenv("SMI3")
+	if smi == "" {
+		t.Skip()
+	}
+	m := notation.Read(smi)
+	l := &labeller{g: newGraph(m), cfg: newConfigs(), nodeCap: defaultNodeCap, res: &Analysis{}}
+	l.readCentres()
+	l.readBonds()
+	d := newDigraph(l.g, l.cfg, 1, defaultNodeCap)
+	var walk func(n nodeID, depth int)
+	walk = func(n nodeID, depth int) {
+		if depth > 3 {
+			return
+		}
+		for _, k := range d.kids(n) {
+			if x := d.auxFor(0, k); x != DescNone {
+				t.Logf("node %d atom %d depth %d aux %v", k, d.nodes[k].atom, d.nodes[k].depth, x)
+			}
+			walk(k, depth+1)
+		}
+	}
+	walk(0, 0)
 }

@@ -1,0 +1,338 @@
+package find
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"stereoline/notation"
+)
+
+func TestKindForName(t *testing.T) {
+	// Extensions: common practice for each format; .ipynb from the
+	// Jupyter notebook format documentation.
+	tests := []struct {
+		name string
+		want Kind
+	}{
+		{"library.smi", KindList},
+		{"dir/sub/REACTIONS.RSMI", KindList},
+		{"x.cxsmiles", KindList},
+		{"table.csv", KindCSV},
+		{"table.tsv", KindTSV},
+		{"analysis.ipynb", KindNotebook},
+		{"script.py", KindPython},
+		{"app.tsx", KindJavaScript},
+		{"main.go", KindGo},
+		{`C:\work\plot.R`, KindR},
+		{"model.jl", KindJulia},
+		{"lib.rs", KindRust},
+		{"Mol.java", KindJava},
+		{"build.gradle.kts", KindKotlin},
+		{"README.md", KindMarkdown},
+		{"data.json", KindJSON},
+		{"conf.yml", KindYAML},
+		{"notes.txt", KindUnknown},
+		{"Makefile", KindUnknown},
+		{"", KindUnknown},
+	}
+	for _, tt := range tests {
+		if got := KindForName(tt.name); got != tt.want {
+			t.Errorf("KindForName(%q) = %s, want %s", tt.name, got, tt.want)
+		}
+	}
+}
+
+func TestKindFor(t *testing.T) {
+	// Language identifiers from the LSP 3.17 specification, section
+	// "TextDocumentItem" (table of known language identifiers).
+	tests := []struct {
+		id   string
+		want Kind
+	}{
+		{"python", KindPython},
+		{"typescriptreact", KindJavaScript},
+		{"javascript", KindJavaScript},
+		{"go", KindGo},
+		{"r", KindR},
+		{"rust", KindRust},
+		{"java", KindJava},
+		{"markdown", KindMarkdown},
+		{"json", KindJSON},
+		{"yaml", KindYAML},
+		{"csv", KindCSV},
+		{"Python", KindPython},
+		{"smiles", KindList},
+		{"cpp", KindUnknown},
+		{"plaintext", KindUnknown},
+	}
+	for _, tt := range tests {
+		if got := KindFor(tt.id); got != tt.want {
+			t.Errorf("KindFor(%q) = %s, want %s", tt.id, got, tt.want)
+		}
+	}
+	// Every kind's own name maps back to it.
+	for k := KindList; k <= KindNotebook; k++ {
+		if got := KindFor(k.String()); got != k {
+			t.Errorf("KindFor(%q) = %s", k.String(), got)
+		}
+	}
+}
+
+func TestNames(t *testing.T) {
+	nm := newNamer(&Config{})
+	tests := []struct {
+		name        string
+		value, call bool
+	}{
+		{"smiles", true, true},
+		{"SMILES_LIST", true, true},
+		{"MolFromSmiles", true, true},
+		{"reactantSmiles", true, true},
+		{"rxn", true, true},
+		{"reaction", true, true},
+		{"canonicalsmiles", true, true},
+		{"smi", true, true},
+		{"smiles_col", false, false},
+		{"smiles_file", false, false},
+		{"reaction_name", false, true},
+		{"is_valid_smiles", true, true},
+		{"read_smiles_file", false, false},
+		{"semicolon", false, false},
+		{"transmission", false, false},
+		{"smith", false, false},
+		{"name", false, false},
+	}
+	for _, tt := range tests {
+		if got := nm.value(tt.name); got != tt.value {
+			t.Errorf("value(%q) = %v, want %v (parts %v)", tt.name, got, tt.value, nameParts(tt.name))
+		}
+		if got := nm.call(tt.name); got != tt.call {
+			t.Errorf("call(%q) = %v, want %v", tt.name, got, tt.call)
+		}
+	}
+	extra := newNamer(&Config{Names: []string{"Structure"}})
+	if !extra.value("mol_structure") || nm.value("mol_structure") {
+		t.Error("Config.Names should add name parts")
+	}
+}
+
+func TestUnmistakable(t *testing.T) {
+	tests := []struct {
+		s    string
+		want bool
+	}{
+		// Notation from the OpenSMILES specification's examples.
+		{"F/C=C/F", true},
+		{"F/C=C\\F", true},
+		{"N[C@@H](C)C(=O)O", true},
+		{"C1CCCCC1", true},
+		{"c1ccccc1", true},
+		{"[NH4+]", true},
+		{"[2H]C", true},
+		// Ordinary words and element-like strings (common practice).
+		{"Cl", false},
+		{"CO", false},
+		{"NO", false},
+		{"Co", false},
+		{"C", false},
+		{"OK", false},
+		{"SCSS", false},
+		{"OCCO", false},
+		{"I/O", false},
+		{"N/A", false},
+		{"B/C", false},
+		{"C/C", false},
+		{"CO/NO", false},
+		{"/usr/bin", false},
+		{"src/main", false},
+		{"https://example.org/a", false},
+		{"2024/01/31", false},
+		{"1.2.3", false},
+		{"[0-9]+", false},
+		{"\\d+", false},
+		{"[C]", false},
+		{"[OK]", false},
+		{"C3PO", false},
+		{"CO2", false},
+		{"H2O", false},
+		{"C1C1", false},
+		{"O-O", false},
+		{"Nf3", false},
+		{"in.smi", false},
+	}
+	for _, tt := range tests {
+		if got := unmistakable(tt.s); got != tt.want {
+			m := notation.Read(tt.s)
+			t.Errorf("unmistakable(%q) = %v, want %v (reader errors: %v)", tt.s, got, tt.want, m.Errors)
+		}
+	}
+}
+
+func TestOffsetMap(t *testing.T) {
+	// Python source `x = "a\\b" "c"`: notation a\bc. Offsets by hand
+	// from the text below: the quote at 4, a at 5, \\ at 6-7, b at 8,
+	// the second literal's c at 12.
+	src := []byte(`x = "a\\b" "c"`)
+	occs := FindKind(KindPython, src, Config{Kind: KindPython, Names: []string{"x"}})
+	_ = occs // x is too short a name; build the map directly instead
+	var d decoded
+	p1 := piece{content: notation.Span{Start: 5, End: 9}}
+	p2 := piece{content: notation.Span{Start: 12, End: 13}}
+	d.piece(src, &p1, python.rules)
+	d.piece(src, &p2, python.rules)
+	m := d.b.done(5)
+	o := Occurrence{Text: string(d.text), m: m}
+	if o.Text != `a\bc` {
+		t.Fatalf("text %q", o.Text)
+	}
+	hosts := []int{5, 6, 8, 12, 13}
+	for i, want := range hosts {
+		if got := o.HostOffset(i); got != want {
+			t.Errorf("HostOffset(%d) = %d, want %d", i, got, want)
+		}
+	}
+	if got := o.HostSpan(notation.Span{Start: 1, End: 2}); got != (notation.Span{Start: 6, End: 8}) {
+		t.Errorf("HostSpan of the backslash = %v, want the whole escape 6-8", got)
+	}
+	if got := o.HostSpan(notation.Span{Start: 2, End: 3}); got != (notation.Span{Start: 8, End: 9}) {
+		t.Errorf("HostSpan of b = %v, want 8-9", got)
+	}
+	for _, tt := range []struct {
+		host, want int
+		ok         bool
+	}{{5, 0, true}, {6, 1, true}, {7, 1, true}, {8, 2, true}, {9, 0, false}, {11, 0, false}, {12, 3, true}, {13, 4, true}, {14, 0, false}, {2, 0, false}} {
+		n, ok := o.NotationOffset(tt.host)
+		if ok != tt.ok || ok && n != tt.want {
+			t.Errorf("NotationOffset(%d) = %d, %v; want %d, %v", tt.host, n, ok, tt.want, tt.ok)
+		}
+	}
+	// slice keeps host offsets.
+	s := m.slice(1, 3)
+	if s.host(0) != 6 || s.host(1) != 8 || s.host(2) != 9 {
+		t.Errorf("slice: %d %d %d", s.host(0), s.host(1), s.host(2))
+	}
+	// compose with a shift is a shift.
+	c := compose(m, identityMap(100, 20))
+	if c.host(3) != 112 || c.span(notation.Span{Start: 1, End: 2}) != (notation.Span{Start: 106, End: 108}) {
+		t.Errorf("compose with a shift: %d %v", c.host(3), c.span(notation.Span{Start: 1, End: 2}))
+	}
+}
+
+func TestNotebookHostBytes(t *testing.T) {
+	// The cell source line smiles = "F/C=C\\F" is stored in JSON with
+	// each backslash doubled again (RFC 8259, section 7), so the one
+	// backslash of the notation is four bytes of the file.
+	src, err := os.ReadFile(filepath.Join("testdata", "markers", "notebook.ipynb"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var o *Occurrence
+	occs := Find("notebook.ipynb", src, Config{})
+	for i := range occs {
+		if occs[i].Text == `F/C=C\F` && occs[i].Cell == 2 {
+			o = &occs[i]
+			break
+		}
+	}
+	if o == nil {
+		t.Fatal("no F/C=C\\F in cell 2")
+	}
+	for i := 0; i < len(o.Text); i++ {
+		s := o.HostSpan(notation.Span{Start: i, End: i + 1})
+		host := string(src[s.Start:s.End])
+		want := o.Text[i : i+1]
+		if o.Text[i] == '\\' {
+			want = `\\\\`
+		}
+		if host != want {
+			t.Errorf("notation byte %d %q is host %q, want %q", i, o.Text[i], host, want)
+		}
+	}
+	// The cell, analysed on its own as an editor sends it, gives the
+	// same text, with offsets into the cell.
+	cell := "smiles = \"F/C=C\\\\F\"\n"
+	cellOccs := FindKind(KindFor("python"), []byte(cell), Config{})
+	if len(cellOccs) != 1 || cellOccs[0].Text != o.Text || cellOccs[0].Span != (notation.Span{Start: 10, End: 18}) {
+		t.Errorf("cell occurrences %+v", cellOccs)
+	}
+}
+
+func TestConfig(t *testing.T) {
+	src := []byte("id,mol,note\n1,F/C=C/F,x\n")
+	if n := len(FindKind(KindCSV, src, Config{})); n != 0 {
+		t.Errorf("column mol taken without configuration: %d", n)
+	}
+	if n := len(FindKind(KindCSV, src, Config{Columns: []string{"MOL"}})); n != 1 {
+		t.Errorf("configured column: %d occurrences, want 1", n)
+	}
+	code := []byte(`x = "C1CCCCC1"` + "\n" + `structure = "CCO"` + "\n")
+	if n := len(FindKind(KindPython, code, Config{NoGuess: true})); n != 0 {
+		t.Errorf("NoGuess: %d occurrences, want 0", n)
+	}
+	if n := len(FindKind(KindPython, code, Config{NoGuess: true, Names: []string{"structure"}})); n != 1 {
+		t.Errorf("Names: %d occurrences, want 1", n)
+	}
+	if n := len(Find("x.txt", code, Config{Kind: KindPython})); n != 1 {
+		t.Errorf("Kind override: %d occurrences, want 1", n)
+	}
+}
+
+func TestPragmaFile(t *testing.T) {
+	// "off" on the first line switches the whole file off.
+	for _, tt := range []struct {
+		kind Kind
+		src  string
+	}{
+		{KindPython, "# stereoline: off\nsmiles = 'F/C=C/F'\nx = 'C1CCCCC1'\n"},
+		{KindGo, "// stereoline: off\nvar smiles = \"F/C=C/F\"\n"},
+		{KindList, "# stereoline: off\nF/C=C/F\nCCO\n"},
+		{KindMarkdown, "<!-- stereoline: off -->\n`F/C=C/F`\n"},
+		{KindYAML, "# stereoline: off\nsmiles: F/C=C/F\n"},
+	} {
+		if occs := FindKind(tt.kind, []byte(tt.src), Config{}); len(occs) != 0 {
+			t.Errorf("%s: %d occurrences in a file switched off", tt.kind, len(occs))
+		}
+		on := strings.Replace(tt.src, "stereoline: off", "stereoline: online", 1)
+		if occs := FindKind(tt.kind, []byte(on), Config{}); len(occs) == 0 {
+			t.Errorf("%s: 'online' must not read as a pragma", tt.kind)
+		}
+	}
+}
+
+// TestFixesFix applies every suggested fix in the marker files and checks
+// that the host then holds the same notation with no host problem: a fix
+// that does not fix is a bug.
+func TestFixesFix(t *testing.T) {
+	files, _ := filepath.Glob(filepath.Join("testdata", "markers", "*"))
+	fixes := 0
+	for _, path := range files {
+		if strings.HasSuffix(path, ".want") {
+			continue
+		}
+		src, _ := os.ReadFile(path)
+		name := strings.TrimSuffix(path, ".src")
+		for _, o := range Find(name, src, Config{}) {
+			for k := range o.Diagnostics {
+				for _, f := range o.Fixes[k] {
+					fixes++
+					fixed := string(src[:f.Span.Start]) + f.NewText + string(src[f.Span.End:])
+					ok := false
+					for _, p := range Find(name, []byte(fixed), Config{}) {
+						if p.Span.Start >= f.Span.Start && p.Span.End <= f.Span.Start+len(f.NewText) &&
+							p.Text == o.Text && len(p.Diagnostics) == 0 {
+							ok = true
+						}
+					}
+					if !ok {
+						t.Errorf("%s: fix %q (%s) of %q leaves a problem or loses the notation", path, f.NewText, f.Title, o.Text)
+					}
+				}
+			}
+		}
+	}
+	if fixes < 20 {
+		t.Errorf("only %d fixes in the marker files", fixes)
+	}
+}

@@ -39,6 +39,8 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	switch args[0] {
 	case "describe":
 		return describe(args[1:], stdin, stdout, stderr)
+	case "serve":
+		return serve(args[1:], stdin, stdout, stderr)
 	case "help", "-h", "--help":
 		fmt.Fprint(stdout, usage)
 		return 0

@@ -1,0 +1,64 @@
+package main
+
+import (
+	"context"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+
+	"go.uber.org/zap"
+	"go.uber.org/zap/zapcore"
+
+	"stereoline/lsp"
+)
+
+// serve implements 'stereoline serve': the language server on standard
+// input and output. Logs go to standard error or to --log FILE, never to
+// standard output, which carries the protocol.
+func serve(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+	fs := flag.NewFlagSet("serve", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	fs.Bool("stdio", true, "speak the protocol on standard input and output (the only transport)")
+	logFile := fs.String("log", "", "append the log to `FILE` instead of standard error")
+	verbose := fs.Bool("v", false, "log every analysis, not only problems")
+	fs.Usage = func() {
+		fmt.Fprintln(stderr, "usage: stereoline serve [--stdio] [--log FILE] [-v]\n\nRuns the language server on standard input and output.")
+		fs.PrintDefaults()
+	}
+	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	if fs.NArg() > 0 {
+		fmt.Fprintf(stderr, "stereoline serve: unexpected argument %q\n", fs.Arg(0))
+		return 2
+	}
+	var sink zapcore.WriteSyncer = zapcore.AddSync(stderr)
+	if *logFile != "" {
+		f, err := os.OpenFile(*logFile, os.O_CREATE|os.O_APPEND|os.O_WRONLY, 0o644)
+		if err != nil {
+			fmt.Fprintf(stderr, "stereoline serve: %v\n", err)
+			return 2
+		}
+		defer f.Close()
+		sink = zapcore.AddSync(f)
+	}
+	level := zapcore.InfoLevel
+	if *verbose {
+		level = zapcore.DebugLevel
+	}
+	enc := zap.NewProductionEncoderConfig()
+	enc.EncodeTime = zapcore.ISO8601TimeEncoder
+	log := zap.New(zapcore.NewCore(zapcore.NewJSONEncoder(enc), zapcore.Lock(sink), level))
+	defer log.Sync()
+	return lsp.Serve(context.Background(), stdio{stdin, stdout}, log, lsp.Options{})
+}
+
+// stdio joins standard input and output into the stream the server reads
+// and writes. Closing it closes neither: the process ends right after.
+type stdio struct {
+	io.Reader
+	io.Writer
+}
+
+func (stdio) Close() error { return nil }

@@ -1,0 +1,189 @@
+package lsp
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"sync"
+	"time"
+
+	"go.lsp.dev/protocol"
+	"go.uber.org/zap"
+
+	"stereoline/stereo/document"
+)
+
+// analysis is the engine's result for one document version under one
+// configuration. It is computed at most once, by whoever needs it first
+// (the diagnostics worker or a request), on a goroutine of its own, so a
+// cancelled request stops waiting without wasting the work.
+type analysis struct {
+	file     *fileVersion
+	analyzer *document.Analyzer
+
+	once   sync.Once
+	done   chan struct{}
+	result *document.Result
+	err    error
+}
+
+func newAnalysis(f *fileVersion, a *document.Analyzer) *analysis {
+	return &analysis{file: f, analyzer: a, done: make(chan struct{})}
+}
+
+// errAnalysis is returned when the engine panicked on a document; the
+// panic itself is logged where it happened.
+var errAnalysis = errors.New("internal error while analysing the document")
+
+// get returns the result, starting the analysis if nobody has, and
+// waiting for it unless ctx ends first.
+func (a *analysis) get(ctx context.Context, log *zap.Logger) (*document.Result, error) {
+	a.once.Do(func() { go a.run(log) })
+	select {
+	case <-a.done:
+		return a.result, a.err
+	case <-ctx.Done():
+		return nil, ctx.Err()
+	}
+}
+
+func (a *analysis) run(log *zap.Logger) {
+	defer close(a.done)
+	defer func() {
+		if r := recover(); r != nil {
+			log.Error("internal error", zap.String("uri", a.file.URI), zap.Int32("version", a.file.Version),
+				zap.Any("panic", r), zap.Stack("stack"))
+			a.result, a.err = nil, errAnalysis
+		}
+	}()
+	start := time.Now()
+	a.result = a.analyzer.Analyze(a.file.Name, a.file.LanguageID, a.file.content())
+	log.Debug("analysed", zap.String("uri", a.file.URI), zap.Int32("version", a.file.Version),
+		zap.Int("records", len(a.result.Records)), zap.Duration("took", time.Since(start)))
+}
+
+// result is the common start of every document request: the document, its
+// analysis, or ok false when the document is not open.
+func (s *Server) result(ctx context.Context, snap *snapshot, uri string) (*fileVersion, *document.Result, bool, error) {
+	f, a, ok := snap.lookup(uri)
+	if !ok {
+		return nil, nil, false, nil
+	}
+	res, err := a.get(ctx, s.log)
+	if err != nil {
+		return nil, nil, false, err
+	}
+	return f, res, true, nil
+}
+
+// worker analyses documents after they change and publishes their
+// diagnostics. Edits are debounced per document: a document is analysed
+// once its last change is older than the debounce time, and only its
+// latest version is published.
+type worker struct {
+	s    *Server
+	mu   sync.Mutex
+	due  map[string]time.Time
+	sent map[string]bool // documents with diagnostics on the client
+	wake chan struct{}
+}
+
+func newWorker(s *Server) *worker {
+	return &worker{s: s, due: map[string]time.Time{}, sent: map[string]bool{}, wake: make(chan struct{}, 1)}
+}
+
+// schedule asks for uri to be published after delay (0: now).
+func (w *worker) schedule(uri string, delay time.Duration) {
+	w.mu.Lock()
+	w.due[uri] = time.Now().Add(delay)
+	w.mu.Unlock()
+	select {
+	case w.wake <- struct{}{}:
+	default:
+	}
+}
+
+// take removes and returns the documents that are due, and the time the
+// next one will be.
+func (w *worker) take(now time.Time) (ready []string, next time.Time) {
+	w.mu.Lock()
+	defer w.mu.Unlock()
+	for uri, t := range w.due {
+		if !t.After(now) {
+			ready = append(ready, uri)
+			delete(w.due, uri)
+		} else if next.IsZero() || t.Before(next) {
+			next = t
+		}
+	}
+	return ready, next
+}
+
+func (w *worker) run(ctx context.Context) {
+	timer := time.NewTimer(time.Hour)
+	defer timer.Stop()
+	for {
+		ready, next := w.take(time.Now())
+		for _, uri := range ready {
+			w.publish(ctx, uri)
+		}
+		if len(ready) > 0 {
+			continue
+		}
+		wait := time.Hour
+		if !next.IsZero() {
+			wait = time.Until(next)
+		}
+		timer.Reset(wait)
+		select {
+		case <-ctx.Done():
+			return
+		case <-w.wake:
+		case <-timer.C:
+		}
+		if !timer.Stop() {
+			select {
+			case <-timer.C:
+			default:
+			}
+		}
+	}
+}
+
+// publish analyses the current version of uri and pushes its
+// diagnostics, or clears them when the document was closed. A version
+// that was replaced while it was analysed is not published: its
+// successor is already scheduled.
+func (w *worker) publish(ctx context.Context, uri string) {
+	defer w.s.recoverPanic("publishDiagnostics")
+	s := w.s
+	snap := s.current()
+	f, a, open := snap.lookup(uri)
+	if !open {
+		w.mu.Lock()
+		had := w.sent[uri]
+		delete(w.sent, uri)
+		w.mu.Unlock()
+		if had && s.pushesDiagnostics() {
+			s.notify("textDocument/publishDiagnostics", publishDiagnosticsParams{URI: uri, Diagnostics: []protocol.Diagnostic{}})
+		}
+		return
+	}
+	res, err := a.get(ctx, s.log)
+	if err != nil || !s.pushesDiagnostics() {
+		return // the analysis is warm for the pull that will come
+	}
+	if cur := s.current(); cur.analyses[uri] != a {
+		return
+	}
+	diags, err := s.toDiagnostics(f, res)
+	if err != nil {
+		s.log.Error("internal error", zap.String("uri", uri), zap.Error(fmt.Errorf("diagnostics: %w", err)))
+		return
+	}
+	version := f.Version
+	w.mu.Lock()
+	w.sent[uri] = true
+	w.mu.Unlock()
+	s.notify("textDocument/publishDiagnostics", publishDiagnosticsParams{URI: uri, Version: &version, Diagnostics: diags})
+}

@@ -1,0 +1,122 @@
+package lsp
+
+import (
+	"encoding/json"
+	"fmt"
+
+	"go.uber.org/zap"
+)
+
+// Settings come in three layers, each over the one before: the engine's
+// defaults, the client's initializationOptions, then the "stereoline"
+// section of the workspace settings (pulled with workspace/configuration
+// or pushed with workspace/didChangeConfiguration). A partial object
+// changes only what it names.
+
+// configSection is the settings section the server reads.
+const configSection = "stereoline"
+
+// settingsSection returns the "stereoline" member of a settings object
+// when it has one, and the object itself otherwise, so both
+// {"stereoline": {...}} and {...} work as initializationOptions.
+func settingsSection(raw json.RawMessage) json.RawMessage {
+	var obj map[string]json.RawMessage
+	if json.Unmarshal(raw, &obj) == nil {
+		if v, ok := obj[configSection]; ok {
+			return v
+		}
+	}
+	return raw
+}
+
+// fetchConfiguration asks the client for the workspace settings and
+// applies them.
+func (s *Server) fetchConfiguration() {
+	defer s.recoverPanic("workspace/configuration")
+	params := map[string]any{"items": []map[string]string{{"section": configSection}}}
+	var result []json.RawMessage
+	if err := s.callClient(s.ctx, "workspace/configuration", params, &result); err != nil {
+		s.log.Info("no workspace settings", zap.Error(err))
+		return
+	}
+	if len(result) == 0 {
+		return
+	}
+	if err := s.applySettings(result[0]); err != nil {
+		s.log.Warn("workspace settings ignored", zap.Error(err))
+		s.showWarning(fmt.Sprintf("stereoline: settings ignored: %v", err))
+	}
+}
+
+// didChangeConfiguration applies pushed settings, or pulls them when the
+// notification carries none of ours (clients that use the pull model send
+// null).
+func (s *Server) didChangeConfiguration(params json.RawMessage) error {
+	var p struct {
+		Settings json.RawMessage `json:"settings"`
+	}
+	if err := json.Unmarshal(params, &p); err != nil {
+		return err
+	}
+	var obj map[string]json.RawMessage
+	if json.Unmarshal(p.Settings, &obj) == nil {
+		if section, ok := obj[configSection]; ok {
+			if err := s.applySettings(section); err != nil {
+				s.showWarning(fmt.Sprintf("stereoline: settings ignored: %v", err))
+				return err
+			}
+			return nil
+		}
+	}
+	s.mu.Lock()
+	pull := s.caps.Workspace.Configuration
+	s.mu.Unlock()
+	if pull {
+		go s.fetchConfiguration()
+	}
+	return nil
+}
+
+// applySettings makes a configuration from the base layer and a settings
+// section, then analyses every open document again under it and asks the
+// client to refresh what it pulls.
+func (s *Server) applySettings(section json.RawMessage) error {
+	s.mu.Lock()
+	cfg := s.baseCfg
+	s.mu.Unlock()
+	if err := cfg.Merge(section); err != nil {
+		return err
+	}
+	s.mu.Lock()
+	next := s.snap.withAnalyzer(s.snap.analyzer.WithConfig(cfg))
+	s.setSnapshot(next)
+	uris := make([]string, 0, len(next.files))
+	for uri := range next.files {
+		uris = append(uris, uri)
+	}
+	caps := s.caps
+	s.mu.Unlock()
+	s.log.Info("settings applied", zap.Any("config", cfg))
+	for _, uri := range uris {
+		s.work.schedule(uri, 0)
+	}
+	if caps.Workspace.InlayHint.RefreshSupport {
+		go s.refresh(methodInlayHintRefresh)
+	}
+	if caps.Workspace.Diagnostics.RefreshSupport {
+		go s.refresh(methodDiagnosticRefresh)
+	}
+	return nil
+}
+
+// refresh sends a refresh request, whose answer carries nothing.
+func (s *Server) refresh(method string) {
+	if err := s.callClient(s.ctx, method, nil, nil); err != nil {
+		s.log.Info("refresh failed", zap.String("method", method), zap.Error(err))
+	}
+}
+
+// showWarning tells the user something the log alone would hide.
+func (s *Server) showWarning(msg string) {
+	s.notify("window/showMessage", map[string]any{"type": 2, "message": msg})
+}

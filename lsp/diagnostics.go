@@ -1,0 +1,320 @@
+package lsp
+
+import (
+	"context"
+	"encoding/json"
+	"fmt"
+	"io/fs"
+	"os"
+	"path"
+	"path/filepath"
+	"sort"
+	"strings"
+
+	"go.lsp.dev/protocol"
+	"go.lsp.dev/uri"
+
+	"stereoline/notation"
+	"stereoline/notation/find"
+	"stereoline/stereo/document"
+)
+
+// toDiagnostics converts the engine's findings to LSP diagnostics: code,
+// source, severity, the Unnecessary tag for marks that change nothing, and
+// related places in the same document.
+func (s *Server) toDiagnostics(f *fileVersion, res *document.Result) ([]protocol.Diagnostic, error) {
+	out := make([]protocol.Diagnostic, 0, len(res.Diagnostics))
+	for i := range res.Diagnostics {
+		d, err := toDiagnostic(f, &res.Diagnostics[i])
+		if err != nil {
+			return nil, err
+		}
+		out = append(out, d)
+	}
+	return out, nil
+}
+
+func toDiagnostic(f *fileVersion, d *document.Diagnostic) (protocol.Diagnostic, error) {
+	rng, err := f.mapper.SpanToRange(d.Span)
+	if err != nil {
+		return protocol.Diagnostic{}, fmt.Errorf("%s: %w", d.Code, err)
+	}
+	pd := protocol.Diagnostic{
+		Range:    rng,
+		Severity: toSeverity(d.Severity),
+		Code:     string(d.Code),
+		Source:   document.Source,
+		Message:  d.Message,
+	}
+	if d.Unnecessary {
+		pd.Tags = []protocol.DiagnosticTag{protocol.DiagnosticTagUnnecessary}
+	}
+	for _, rel := range d.Related {
+		r, err := f.mapper.SpanToRange(rel.Span)
+		if err != nil {
+			return protocol.Diagnostic{}, fmt.Errorf("%s related: %w", d.Code, err)
+		}
+		pd.RelatedInformation = append(pd.RelatedInformation, protocol.DiagnosticRelatedInformation{
+			Location: protocol.Location{URI: uri.URI(f.URI), Range: r},
+			Message:  rel.Message,
+		})
+	}
+	return pd, nil
+}
+
+// toSeverity maps the engine's severities, which follow the protocol's
+// order from 0, to the protocol's numbers from 1.
+func toSeverity(s notation.Severity) protocol.DiagnosticSeverity {
+	switch s {
+	case notation.SeverityWarning:
+		return protocol.DiagnosticSeverityWarning
+	case notation.SeverityInformation:
+		return protocol.DiagnosticSeverityInformation
+	case notation.SeverityHint:
+		return protocol.DiagnosticSeverityHint
+	}
+	return protocol.DiagnosticSeverityError
+}
+
+// resultID names what a pull report was computed from: the document
+// version and the configuration generation.
+func resultID(snap *snapshot, f *fileVersion) string {
+	return fmt.Sprintf("v%d.c%d", f.Version, snap.config)
+}
+
+// documentDiagnostic answers textDocument/diagnostic for the version the
+// request saw. A document that is not open has no findings.
+func (s *Server) documentDiagnostic(ctx context.Context, snap *snapshot, params json.RawMessage) (any, error) {
+	var p documentDiagnosticParams
+	if err := decode(params, &p); err != nil {
+		return nil, err
+	}
+	f, res, ok, err := s.result(ctx, snap, string(p.TextDocument.URI))
+	if err != nil {
+		return nil, err
+	}
+	if !ok {
+		return documentDiagnosticReport{Kind: "full"}, nil
+	}
+	id := resultID(snap, f)
+	if p.PreviousResultID == id {
+		return documentDiagnosticReport{Kind: "unchanged", ResultID: id}, nil
+	}
+	diags, err := s.toDiagnostics(f, res)
+	if err != nil {
+		return nil, err
+	}
+	return documentDiagnosticReport{Kind: "full", ResultID: id, Items: diags}, nil
+}
+
+// Bounds of a workspace scan, so a huge tree costs bounded time and
+// memory.
+const (
+	maxScanFiles    = 20_000
+	maxScanFileSize = 32 << 20
+	progressEvery   = 25
+)
+
+// workspaceDiagnostic answers workspace/diagnostic: the open documents
+// (at the request's snapshot) and every host file under the workspace
+// folders that is not open. Progress goes to the client's work-done token
+// when it gave one; cancellation is checked between files.
+func (s *Server) workspaceDiagnostic(ctx context.Context, snap *snapshot, params json.RawMessage) (any, error) {
+	var p workspaceDiagnosticParams
+	if err := decode(params, &p); err != nil {
+		return nil, err
+	}
+	previous := map[string]string{}
+	for _, r := range p.PreviousResultIDs {
+		previous[r.URI] = r.Value
+	}
+	s.mu.Lock()
+	roots := append([]string{}, s.roots...)
+	s.mu.Unlock()
+
+	openPaths := map[string]bool{}
+	uris := make([]string, 0, len(snap.files))
+	for u, f := range snap.files {
+		uris = append(uris, u)
+		if p := fileURIPath(f.URI); p != "" {
+			openPaths[filepath.Clean(filepath.FromSlash(p))] = true
+		}
+	}
+	sort.Strings(uris)
+	disk := s.hostFiles(ctx, snap, roots, openPaths)
+
+	prog := s.startProgress(p.WorkDoneToken, "Checking stereo marks", len(uris)+len(disk))
+	defer prog.end()
+	report := workspaceDiagnosticReport{Items: []workspaceDocumentReport{}}
+	done := 0
+	for _, u := range uris {
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+		f, res, ok, err := s.result(ctx, snap, u)
+		if err != nil {
+			return nil, err
+		}
+		done++
+		prog.report(done)
+		if !ok {
+			continue
+		}
+		version := f.Version
+		item := workspaceDocumentReport{URI: u, Version: &version}
+		id := resultID(snap, f)
+		if previous[u] == id {
+			item.documentDiagnosticReport = documentDiagnosticReport{Kind: "unchanged", ResultID: id}
+		} else {
+			diags, err := s.toDiagnostics(f, res)
+			if err != nil {
+				return nil, err
+			}
+			item.documentDiagnosticReport = documentDiagnosticReport{Kind: "full", ResultID: id, Items: diags}
+		}
+		report.Items = append(report.Items, item)
+	}
+	for _, file := range disk {
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+		done++
+		prog.report(done)
+		item, ok := s.diskReport(snap, file, previous)
+		if ok {
+			report.Items = append(report.Items, item)
+		}
+	}
+	return report, nil
+}
+
+// diskFile is a host file found under a workspace folder.
+type diskFile struct {
+	path string
+	info fs.FileInfo
+}
+
+// hostFiles lists the files under roots whose names the finder reads,
+// skipping open documents, hidden folders and dependency folders.
+func (s *Server) hostFiles(ctx context.Context, snap *snapshot, roots []string, open map[string]bool) []diskFile {
+	cfg := snap.analyzer.Config()
+	var out []diskFile
+	for _, root := range roots {
+		filepath.WalkDir(root, func(p string, d fs.DirEntry, err error) error {
+			if err != nil || ctx.Err() != nil || len(out) >= maxScanFiles {
+				if d != nil && d.IsDir() && err != nil {
+					return fs.SkipDir
+				}
+				if ctx.Err() != nil || len(out) >= maxScanFiles {
+					return fs.SkipAll
+				}
+				return nil
+			}
+			name := d.Name()
+			if d.IsDir() {
+				if p != root && (strings.HasPrefix(name, ".") || name == "node_modules" || name == "__pycache__") {
+					return fs.SkipDir
+				}
+				return nil
+			}
+			if !d.Type().IsRegular() || open[filepath.Clean(p)] || !isHostFile(cfg, name) {
+				return nil
+			}
+			info, err := d.Info()
+			if err != nil || info.Size() > maxScanFileSize {
+				return nil
+			}
+			out = append(out, diskFile{path: p, info: info})
+			return nil
+		})
+	}
+	return out
+}
+
+// isHostFile reports whether the finder reads files of this name: a kind
+// it knows from the name, or one of the configured patterns.
+func isHostFile(cfg document.Config, name string) bool {
+	if find.KindForName(name) != find.KindUnknown {
+		return true
+	}
+	for pat := range cfg.Files {
+		if ok, _ := path.Match(pat, name); ok {
+			return true
+		}
+	}
+	return false
+}
+
+// diskReport analyses a file that is not open. Its result id is its
+// modification time and size, so an unchanged file is not read again.
+func (s *Server) diskReport(snap *snapshot, file diskFile, previous map[string]string) (workspaceDocumentReport, bool) {
+	u := string(uri.File(file.path))
+	id := fmt.Sprintf("d%d.%d.c%d", file.info.ModTime().UnixNano(), file.info.Size(), snap.config)
+	item := workspaceDocumentReport{URI: u}
+	if previous[u] == id {
+		item.documentDiagnosticReport = documentDiagnosticReport{Kind: "unchanged", ResultID: id}
+		return item, true
+	}
+	content, err := os.ReadFile(file.path)
+	if err != nil {
+		return item, false
+	}
+	f := &fileVersion{URI: u, Name: file.path, mapper: NewMapper(content, snap.encoding)}
+	res, err := newAnalysis(f, snap.analyzer).get(s.ctx, s.log)
+	if err != nil {
+		return item, false
+	}
+	diags, err := s.toDiagnostics(f, res)
+	if err != nil {
+		return item, false
+	}
+	item.documentDiagnosticReport = documentDiagnosticReport{Kind: "full", ResultID: id, Items: diags}
+	return item, true
+}
+
+// progress reports work done to a client's token; without a token it
+// does nothing.
+type progress struct {
+	s       *Server
+	token   *protocol.ProgressToken
+	total   int
+	last    int
+	started bool
+}
+
+func (s *Server) startProgress(token *protocol.ProgressToken, title string, total int) *progress {
+	p := &progress{s: s, token: token, total: total}
+	if token == nil {
+		return p
+	}
+	p.started = true
+	s.notify("$/progress", progressParams{Token: token, Value: &protocol.WorkDoneProgressBegin{
+		Kind:       protocol.WorkDoneProgressKindBegin,
+		Title:      title,
+		Message:    fmt.Sprintf("0/%d files", total),
+		Percentage: 0,
+	}})
+	return p
+}
+
+func (p *progress) report(done int) {
+	if !p.started || p.total == 0 || (done-p.last < progressEvery && done != p.total) {
+		return
+	}
+	p.last = done
+	p.s.notify("$/progress", progressParams{Token: p.token, Value: &protocol.WorkDoneProgressReport{
+		Kind:       protocol.WorkDoneProgressKindReport,
+		Message:    fmt.Sprintf("%d/%d files", done, p.total),
+		Percentage: uint32(done * 100 / p.total),
+	}})
+}
+
+func (p *progress) end() {
+	if !p.started {
+		return
+	}
+	p.s.notify("$/progress", progressParams{Token: p.token, Value: &protocol.WorkDoneProgressEnd{
+		Kind:    protocol.WorkDoneProgressKindEnd,
+		Message: fmt.Sprintf("%d files", p.total),
+	}})
+}

@@ -1,0 +1,192 @@
+package lsp
+
+import (
+	"fmt"
+	"sort"
+	"unicode/utf8"
+
+	"go.lsp.dev/protocol"
+
+	"stereoline/notation"
+)
+
+// PositionEncoding is the unit an LSP position's character counts, as
+// negotiated in initialize (LSP 3.17, "Position Encoding Kind").
+type PositionEncoding string
+
+// The encodings of LSP 3.17. UTF-16 is the default every client
+// understands; UTF-8 makes characters equal to bytes.
+const (
+	EncodingUTF8  PositionEncoding = "utf-8"
+	EncodingUTF16 PositionEncoding = "utf-16"
+	EncodingUTF32 PositionEncoding = "utf-32"
+)
+
+// Mapper converts between byte offsets into one text and LSP positions.
+// It is the only place in the server that does position arithmetic: the
+// engine speaks byte offsets, the client speaks lines and characters.
+//
+// Lines end at "\n", "\r\n" or "\r" (LSP 3.17, "Text Documents"); a
+// character counts UTF-16 code units, bytes or code points according to
+// the encoding. A Mapper is immutable and safe for concurrent use.
+type Mapper struct {
+	content    []byte
+	lineStarts []int // offset of the first byte of each line; lineStarts[0] == 0
+	encoding   PositionEncoding
+}
+
+// NewMapper builds the line table of content for the given encoding. An
+// unknown or empty encoding means UTF-16.
+func NewMapper(content []byte, enc PositionEncoding) *Mapper {
+	if enc != EncodingUTF8 && enc != EncodingUTF32 {
+		enc = EncodingUTF16
+	}
+	starts := make([]int, 1, 1+len(content)/32)
+	for i := 0; i < len(content); i++ {
+		switch content[i] {
+		case '\n':
+			starts = append(starts, i+1)
+		case '\r':
+			if i+1 < len(content) && content[i+1] == '\n' {
+				i++
+			}
+			starts = append(starts, i+1)
+		}
+	}
+	return &Mapper{content: content, lineStarts: starts, encoding: enc}
+}
+
+// Content returns the text the mapper was built for.
+func (m *Mapper) Content() []byte { return m.content }
+
+// Encoding returns the unit characters are counted in.
+func (m *Mapper) Encoding() PositionEncoding { return m.encoding }
+
+// LineCount returns the number of lines; a text ending in a line break
+// has an empty last line.
+func (m *Mapper) LineCount() int { return len(m.lineStarts) }
+
+// lineEnd returns the offset of the line break that ends line i, or the
+// end of the text for the last line.
+func (m *Mapper) lineEnd(i int) int {
+	if i+1 >= len(m.lineStarts) {
+		return len(m.content)
+	}
+	end := m.lineStarts[i+1] - 1
+	if end > m.lineStarts[i] && m.content[end] == '\n' && m.content[end-1] == '\r' {
+		end--
+	}
+	return end
+}
+
+// OffsetToPosition converts a byte offset (0 <= off <= len(content)) to a
+// position. An offset inside a multi-byte character or inside a "\r\n"
+// pair maps to the start of that character or pair.
+func (m *Mapper) OffsetToPosition(off int) (protocol.Position, error) {
+	if off < 0 || off > len(m.content) {
+		return protocol.Position{}, fmt.Errorf("offset %d outside the text (length %d)", off, len(m.content))
+	}
+	line := sort.Search(len(m.lineStarts), func(i int) bool { return m.lineStarts[i] > off }) - 1
+	start := m.lineStarts[line]
+	if end := m.lineEnd(line); off > end {
+		off = end
+	}
+	return protocol.Position{Line: uint32(line), Character: uint32(m.units(m.content[start:off]))}, nil
+}
+
+// units counts the characters of b in the mapper's encoding. A trailing
+// partial character is not counted; invalid bytes count one each, as the
+// replacement character a client shows for them does.
+func (m *Mapper) units(b []byte) int {
+	if m.encoding == EncodingUTF8 {
+		return len(b)
+	}
+	n := 0
+	for len(b) > 0 {
+		r, size := utf8.DecodeRune(b)
+		if r == utf8.RuneError && size == 1 && !utf8.FullRune(b) {
+			break // a character cut by the offset
+		}
+		n++
+		if m.encoding == EncodingUTF16 && r >= 0x10000 {
+			n++ // a surrogate pair
+		}
+		b = b[size:]
+	}
+	return n
+}
+
+// PositionToOffset converts a position to a byte offset. A character past
+// the end of its line means the end of the line (LSP 3.17); a character
+// inside a surrogate pair or inside a multi-byte character maps to the
+// start of that character. A line past the last line is an error, except
+// that the line just after the last, character 0, is the end of the text,
+// which some clients send for an edit appended at the end.
+func (m *Mapper) PositionToOffset(p protocol.Position) (int, error) {
+	line := int(p.Line)
+	if line >= len(m.lineStarts) {
+		if line == len(m.lineStarts) && p.Character == 0 {
+			return len(m.content), nil
+		}
+		return 0, fmt.Errorf("line %d outside the text (%d lines)", line, len(m.lineStarts))
+	}
+	start, end := m.lineStarts[line], m.lineEnd(line)
+	want := int(p.Character)
+	if m.encoding == EncodingUTF8 {
+		off := start + want
+		if off > end {
+			off = end
+		}
+		for off > start && !utf8.RuneStart(m.content[off]) {
+			off--
+		}
+		return off, nil
+	}
+	off, n := start, 0
+	for off < end {
+		r, size := utf8.DecodeRune(m.content[off:end])
+		w := 1
+		if m.encoding == EncodingUTF16 && r >= 0x10000 {
+			w = 2
+		}
+		if n+w > want {
+			break
+		}
+		n += w
+		off += size
+	}
+	return off, nil
+}
+
+// SpanToRange converts a half-open byte span to a range.
+func (m *Mapper) SpanToRange(s notation.Span) (protocol.Range, error) {
+	if s.End < s.Start {
+		return protocol.Range{}, fmt.Errorf("span %d-%d ends before it starts", s.Start, s.End)
+	}
+	start, err := m.OffsetToPosition(s.Start)
+	if err != nil {
+		return protocol.Range{}, err
+	}
+	end, err := m.OffsetToPosition(s.End)
+	if err != nil {
+		return protocol.Range{}, err
+	}
+	return protocol.Range{Start: start, End: end}, nil
+}
+
+// RangeToSpan converts a range to a half-open byte span. A range whose end
+// comes before its start is an error.
+func (m *Mapper) RangeToSpan(r protocol.Range) (notation.Span, error) {
+	start, err := m.PositionToOffset(r.Start)
+	if err != nil {
+		return notation.Span{}, err
+	}
+	end, err := m.PositionToOffset(r.End)
+	if err != nil {
+		return notation.Span{}, err
+	}
+	if end < start {
+		return notation.Span{}, fmt.Errorf("range ends before it starts")
+	}
+	return notation.Span{Start: start, End: end}, nil
+}

@@ -1,0 +1,125 @@
+package lsp
+
+import (
+	"strings"
+	"testing"
+	"unicode/utf16"
+	"unicode/utf8"
+
+	"go.lsp.dev/protocol"
+
+	"stereoline/notation"
+)
+
+// The expected characters follow LSP 3.17, "Position" and "Position
+// Encoding Kind": UTF-16 counts code units (an emoji outside the Basic
+// Multilingual Plane is two), UTF-8 counts bytes, UTF-32 code points; lines
+// end at \n, \r\n or \r.
+func TestMapperOffsetToPosition(t *testing.T) {
+	text := "# é😀\r\nx = \"C[C@H](O)N\"\rlast"
+	tests := []struct {
+		enc        PositionEncoding
+		find       string // the offset is the first byte of this text
+		line, char uint32
+	}{
+		{EncodingUTF16, "é", 0, 2},
+		{EncodingUTF16, "😀", 0, 3},
+		{EncodingUTF16, "\r\n", 0, 5}, // é is one unit, the emoji two
+		{EncodingUTF8, "\r\n", 0, 8},  // é is two bytes, the emoji four
+		{EncodingUTF32, "\r\n", 0, 4},
+		{EncodingUTF16, "x =", 1, 0},
+		{EncodingUTF16, "@H", 1, 8},
+		{EncodingUTF16, "last", 2, 0},
+	}
+	for _, tt := range tests {
+		m := NewMapper([]byte(text), tt.enc)
+		off := strings.Index(text, tt.find)
+		got, err := m.OffsetToPosition(off)
+		if err != nil {
+			t.Fatalf("%s %q: %v", tt.enc, tt.find, err)
+		}
+		if got.Line != tt.line || got.Character != tt.char {
+			t.Errorf("%s %q: got %d:%d, want %d:%d", tt.enc, tt.find, got.Line, got.Character, tt.line, tt.char)
+		}
+		back, err := m.PositionToOffset(got)
+		if err != nil || back != off {
+			t.Errorf("%s %q: back to %d (%v), want %d", tt.enc, tt.find, back, err, off)
+		}
+	}
+}
+
+// The UTF-16 column of every rune must equal the length of the preceding
+// text as the client holds it: a Go conversion to UTF-16 is the outside
+// reference here (unicode/utf16 implements RFC 2781).
+func TestMapperAgreesWithUTF16(t *testing.T) {
+	line := "αβγ 😀 [C@@H] 日本 \U0001F9EA F/C=C/F"
+	m := NewMapper([]byte(line), EncodingUTF16)
+	for off := range line {
+		want := len(utf16.Encode([]rune(line[:off])))
+		got, err := m.OffsetToPosition(off)
+		if err != nil || got.Line != 0 || int(got.Character) != want {
+			t.Fatalf("offset %d: got %v (%v), want 0:%d", off, got, err, want)
+		}
+		back, err := m.PositionToOffset(got)
+		if err != nil || back != off {
+			t.Fatalf("position %v: back to %d (%v), want %d", got, back, err, off)
+		}
+	}
+}
+
+func TestMapperClamps(t *testing.T) {
+	text := "ab😀\r\ncd\n"
+	m := NewMapper([]byte(text), EncodingUTF16)
+	tests := []struct {
+		name string
+		pos  protocol.Position
+		want int
+	}{
+		// LSP 3.17: "If the character value is greater than the line
+		// length it defaults back to the line length."
+		{"past the line end", protocol.Position{Line: 0, Character: 99}, strings.Index(text, "\r")},
+		{"inside a surrogate pair", protocol.Position{Line: 0, Character: 3}, 2},
+		{"after the pair", protocol.Position{Line: 0, Character: 4}, 2 + utf8.RuneLen('😀')},
+		{"empty last line", protocol.Position{Line: 2, Character: 0}, len(text)},
+		{"one past the last line", protocol.Position{Line: 3, Character: 0}, len(text)},
+	}
+	for _, tt := range tests {
+		got, err := m.PositionToOffset(tt.pos)
+		if err != nil || got != tt.want {
+			t.Errorf("%s: got %d (%v), want %d", tt.name, got, err, tt.want)
+		}
+	}
+	if _, err := m.PositionToOffset(protocol.Position{Line: 4}); err == nil {
+		t.Errorf("line 4 of a 3-line text: no error")
+	}
+	if _, err := m.OffsetToPosition(len(text) + 1); err == nil {
+		t.Errorf("offset past the end: no error")
+	}
+	// An offset between \r and \n is the end of the line.
+	p, _ := m.OffsetToPosition(strings.Index(text, "\n"))
+	if p.Line != 0 || p.Character != 4 {
+		t.Errorf("offset of \\n in \\r\\n: got %v, want 0:4", p)
+	}
+}
+
+func TestMapperSpanToRange(t *testing.T) {
+	text := "s = \"é\" + 'C/C=C/C'"
+	m := NewMapper([]byte(text), EncodingUTF16)
+	start := strings.Index(text, "/C=")
+	r, err := m.SpanToRange(notation.Span{Start: start, End: start + 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// é is two bytes but one UTF-16 unit, so the column is one less than
+	// the byte offset.
+	if r.Start.Character != uint32(start-1) || r.End.Character != uint32(start) {
+		t.Errorf("got %v, want characters %d-%d", r, start-1, start)
+	}
+	s, err := m.RangeToSpan(r)
+	if err != nil || s != (notation.Span{Start: start, End: start + 1}) {
+		t.Errorf("back: got %v (%v)", s, err)
+	}
+	if _, err := m.RangeToSpan(protocol.Range{Start: r.End, End: r.Start}); err == nil {
+		t.Errorf("reversed range: no error")
+	}
+}

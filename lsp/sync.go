@@ -1,0 +1,135 @@
+package lsp
+
+import (
+	"encoding/json"
+	"fmt"
+
+	"go.lsp.dev/protocol"
+	"go.uber.org/zap"
+)
+
+// didOpen adds a document and analyses it at once: nothing was typed yet,
+// so there is nothing to wait for.
+func (s *Server) didOpen(params json.RawMessage) error {
+	var p protocol.DidOpenTextDocumentParams
+	if err := json.Unmarshal(params, &p); err != nil {
+		return err
+	}
+	d := p.TextDocument
+	s.open(&fileVersion{
+		URI:        string(d.URI),
+		Name:       uriPath(string(d.URI)),
+		LanguageID: string(d.LanguageID),
+		Version:    d.Version,
+	}, []byte(d.Text))
+	return nil
+}
+
+// open installs a document version in a new snapshot and schedules its
+// diagnostics.
+func (s *Server) open(f *fileVersion, content []byte) {
+	s.mu.Lock()
+	f.mapper = NewMapper(content, s.snap.encoding)
+	next := s.snap.clone()
+	next.put(f)
+	s.setSnapshot(next)
+	s.mu.Unlock()
+	s.work.schedule(f.URI, 0)
+}
+
+// didChange applies full or incremental changes in order and schedules
+// diagnostics after the debounce time.
+func (s *Server) didChange(params json.RawMessage) error {
+	var p didChangeParams
+	if err := json.Unmarshal(params, &p); err != nil {
+		return err
+	}
+	return s.change(string(p.TextDocument.URI), p.TextDocument.Version, p.ContentChanges)
+}
+
+// change makes the next version of an open document.
+func (s *Server) change(uri string, version int32, changes []contentChange) error {
+	s.mu.Lock()
+	old, ok := s.snap.files[uri]
+	enc := s.snap.encoding
+	s.mu.Unlock()
+	if !ok {
+		return fmt.Errorf("change to a document that is not open: %s", uri)
+	}
+	if version <= old.Version {
+		s.log.Warn("document version did not increase", zap.String("uri", uri),
+			zap.Int32("had", old.Version), zap.Int32("got", version))
+	}
+	content, err := applyChanges(old.mapper, enc, changes)
+	if err != nil {
+		// The client and the server now disagree on the text; keeping
+		// the old version is the least wrong, and the log says so.
+		return fmt.Errorf("%s version %d: %w", uri, version, err)
+	}
+	next := *old
+	next.Version = version
+	next.mapper = NewMapper(content, enc)
+	s.mu.Lock()
+	if cur := s.snap.files[uri]; cur != old {
+		s.mu.Unlock()
+		return fmt.Errorf("document changed concurrently: %s", uri)
+	}
+	snap := s.snap.clone()
+	snap.put(&next)
+	s.setSnapshot(snap)
+	s.mu.Unlock()
+	s.work.schedule(uri, s.opts.Debounce)
+	return nil
+}
+
+// applyChanges applies content changes to a text in order: a change
+// without a range replaces the whole text, one with a range replaces that
+// range of the text as the previous change left it (LSP 3.17,
+// "DidChangeTextDocument Notification").
+func applyChanges(m *Mapper, enc PositionEncoding, changes []contentChange) ([]byte, error) {
+	content := m.Content()
+	for i, ch := range changes {
+		if ch.Range == nil {
+			content = []byte(ch.Text)
+			m = nil
+			continue
+		}
+		if m == nil {
+			m = NewMapper(content, enc)
+		}
+		span, err := m.RangeToSpan(*ch.Range)
+		if err != nil {
+			return nil, fmt.Errorf("change %d: %w", i, err)
+		}
+		next := make([]byte, 0, len(content)-span.Len()+len(ch.Text))
+		next = append(next, content[:span.Start]...)
+		next = append(next, ch.Text...)
+		next = append(next, content[span.End:]...)
+		content = next
+		m = nil
+	}
+	return content, nil
+}
+
+// didClose drops a document; its diagnostics are cleared.
+func (s *Server) didClose(params json.RawMessage) error {
+	var p protocol.DidCloseTextDocumentParams
+	if err := json.Unmarshal(params, &p); err != nil {
+		return err
+	}
+	s.close(string(p.TextDocument.URI))
+	return nil
+}
+
+func (s *Server) close(uris ...string) {
+	s.mu.Lock()
+	next := s.snap.clone()
+	for _, uri := range uris {
+		next.remove(uri)
+	}
+	s.setSnapshot(next)
+	s.mu.Unlock()
+	for _, uri := range uris {
+		s.work.schedule(uri, 0)
+	}
+}

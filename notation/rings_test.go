@@ -393,3 +393,23 @@ func TestLargeRecords(t *testing.T) {
 		t.Logf("%d bytes, %d atoms, %d rings: read %v, rings %v, write %v", len(text), len(m.Atoms), len(r.SSSR), read, rings, written)
 	}
 }
+
+// FuzzFindRings checks, for whatever the reader makes of a text, that
+// ring perception ends, reports rings that are cycles of the molecule,
+// and finds as many rings as the cyclomatic number.
+func FuzzFindRings(f *testing.F) {
+	for _, s := range []string{"C12C3C4C1C5C2C3C45", "C1C2CC3CC1CC(C2)C3", "c1ccc2ccccc2c1", "C1CC.C1", "C1CC1>>C"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		if len(s) > 4000 {
+			return
+		}
+		m := Read(s)
+		r := FindRings(m)
+		checkRingsAreCycles(t, m, r)
+		if !r.Approximate && len(r.SSSR) != r.Expected {
+			t.Fatalf("%q: %d rings, cyclomatic number %d", s, len(r.SSSR), r.Expected)
+		}
+	})
+}

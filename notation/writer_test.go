@@ -277,11 +277,11 @@ func FuzzWriteRoundTrip(f *testing.F) {
 			return
 		}
 		m := Read(s)
+		opt := WriteOptions{Random: rand.New(rand.NewPCG(seed, 0)), Kekule: kekule}
+		w := Write(m, opt) // a molecule with errors must be written without panicking too
 		if m.Errors.HasErrors() {
 			return
 		}
-		opt := WriteOptions{Random: rand.New(rand.NewPCG(seed, 0)), Kekule: kekule}
-		w := Write(m, opt)
 		if err := sameStructure(m, w, kekule); err != nil && !errors.Is(err, errReadBackKekulize) {
 			t.Fatalf("%q written as %q: %v", s, w.Text, err)
 		}

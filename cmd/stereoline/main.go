@@ -14,6 +14,7 @@ const usage = `usage: stereoline <command> [arguments]
 
 commands:
   describe [--json] [FILE...]   explain each record: atoms, bonds, formula, stereo, diagnostics
+  check [options] [PATH...]     report problems in files and folders (text, JSON Lines, SARIF) for CI
   help                          show this text
 
 Run 'stereoline <command> -h' for the options of a command.
@@ -39,6 +40,8 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	switch args[0] {
 	case "describe":
 		return describe(args[1:], stdin, stdout, stderr)
+	case "check":
+		return check(args[1:], stdin, stdout, stderr)
 	case "serve":
 		return serve(args[1:], stdin, stdout, stderr)
 	case "help", "-h", "--help":

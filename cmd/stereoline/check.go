@@ -1,0 +1,190 @@
+package main
+
+import (
+	"bufio"
+	"flag"
+	"fmt"
+	"io"
+	"runtime"
+	"strconv"
+	"strings"
+
+	"stereoline/notation"
+)
+
+const checkUsage = `usage: stereoline check [options] [PATH...]
+
+Checks the stereo marks of the notation found in files and folders (folders
+are searched recursively; hidden entries, binary files and files larger than
+--max-size are skipped) and prints one line per finding. A PATH of "-" reads
+standard input; --stdin-name then names it (the name picks the host kind and
+is the path printed). With no PATH the current folder is checked.
+
+Exit status: 0 when nothing at or above the --fail-on level was found, 1 when
+something was, 2 for usage errors, unreadable paths and bad configuration.
+
+options:
+`
+
+// checkOptions are the parsed command-line settings of one check run.
+type checkOptions struct {
+	format       string // text, json or sarif
+	failOn       notation.Severity
+	changedSince string
+	configFile   string
+	stdinName    string
+	maxSize      int64
+	jobs         int
+	paths        []string
+}
+
+// check implements 'stereoline check'.
+func check(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+	opts, status := parseCheckArgs(args, stderr)
+	if status >= 0 {
+		return status
+	}
+	run := newCheckRun(opts, stdin, stderr)
+	files := run.collect()
+	if run.failed {
+		// A path that cannot be read is a usage problem: report it before
+		// any findings so CI logs lead with it.
+		return 2
+	}
+	if opts.changedSince != "" {
+		if err := run.loadChanges(files); err != nil {
+			fmt.Fprintf(stderr, "stereoline: --changed-since %s: %v\n", opts.changedSince, err)
+			return 2
+		}
+	}
+	reports := run.analyzeAll(files)
+	if run.failed {
+		return 2
+	}
+	out := bufio.NewWriter(stdout)
+	var err error
+	switch opts.format {
+	case "json":
+		err = writeJSONLines(out, reports)
+	case "sarif":
+		err = writeSARIF(out, reports)
+	default:
+		err = writeText(out, reports)
+	}
+	if err == nil {
+		err = out.Flush()
+	}
+	if err != nil {
+		fmt.Fprintf(stderr, "stereoline: writing the report: %v\n", err)
+		return 2
+	}
+	sum := summarize(reports)
+	fmt.Fprintln(stderr, sum.line(opts.changedSince != ""))
+	if sum.atOrAbove(opts.failOn) > 0 {
+		return 1
+	}
+	return 0
+}
+
+// parseCheckArgs reads the options; status is -1 to go on, otherwise the
+// exit status to return at once. Options and paths may be mixed, as most
+// command-line tools allow; "--" ends the options.
+func parseCheckArgs(args []string, stderr io.Writer) (checkOptions, int) {
+	opts := checkOptions{}
+	fs := flag.NewFlagSet("check", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	fs.StringVar(&opts.format, "format", "text", "output format: text, json (JSON Lines) or sarif (SARIF 2.1.0)")
+	failOn := fs.String("fail-on", "error", "exit 1 when a finding at or above this level is reported: error, warning or information")
+	fs.StringVar(&opts.changedSince, "changed-since", "", "report only findings on lines changed since this git revision")
+	fs.StringVar(&opts.configFile, "config", "", "configuration `file` to use instead of the "+configFileName+" found next to the checked files")
+	fs.StringVar(&opts.stdinName, "stdin-name", "", "file `name` for standard input (picks the host kind; printed as its path)")
+	maxSize := fs.String("max-size", "10MB", "skip files larger than this (bytes, or with a kB, MB or GB suffix)")
+	fs.IntVar(&opts.jobs, "jobs", runtime.GOMAXPROCS(0), "number of files analysed at the same time")
+	fs.Usage = func() {
+		fmt.Fprint(stderr, checkUsage)
+		fs.PrintDefaults()
+	}
+	rest := args
+	var tail []string
+	for i, a := range args {
+		if a == "--" {
+			rest, tail = args[:i], args[i+1:]
+			break
+		}
+	}
+	for {
+		if err := fs.Parse(rest); err != nil {
+			if err == flag.ErrHelp {
+				return opts, 0
+			}
+			return opts, 2
+		}
+		rest = fs.Args()
+		if len(rest) == 0 {
+			break
+		}
+		opts.paths = append(opts.paths, rest[0])
+		rest = rest[1:]
+	}
+	opts.paths = append(opts.paths, tail...)
+	usageErr := func(format string, a ...any) (checkOptions, int) {
+		fmt.Fprintf(stderr, "stereoline check: "+format+"\n", a...)
+		return opts, 2
+	}
+	switch opts.format {
+	case "text", "json", "sarif":
+	default:
+		return usageErr("--format: expected text, json or sarif, found %q", opts.format)
+	}
+	switch *failOn {
+	case "error", "warning", "information":
+		opts.failOn, _ = notation.ParseSeverity(*failOn)
+	default:
+		return usageErr("--fail-on: expected error, warning or information, found %q", *failOn)
+	}
+	n, err := parseSize(*maxSize)
+	if err != nil {
+		return usageErr("--max-size: %v", err)
+	}
+	opts.maxSize = n
+	if opts.jobs < 1 {
+		return usageErr("--jobs: expected a positive number, found %d", opts.jobs)
+	}
+	if len(opts.paths) == 0 {
+		opts.paths = []string{"."}
+	}
+	stdinCount := 0
+	for _, p := range opts.paths {
+		if p == "-" {
+			stdinCount++
+		}
+	}
+	if stdinCount > 1 {
+		return usageErr("standard input (-) named more than once")
+	}
+	if opts.stdinName != "" && stdinCount == 0 {
+		return usageErr("--stdin-name given but standard input (-) is not checked")
+	}
+	return opts, -1
+}
+
+// parseSize reads a byte count with an optional decimal suffix (kB, MB,
+// GB; K, M and G are accepted too, case-insensitively).
+func parseSize(s string) (int64, error) {
+	t := strings.ToLower(strings.TrimSpace(s))
+	mult := int64(1)
+	for _, u := range []struct {
+		suffix string
+		mult   int64
+	}{{"gb", 1e9}, {"mb", 1e6}, {"kb", 1e3}, {"g", 1e9}, {"m", 1e6}, {"k", 1e3}, {"b", 1}} {
+		if strings.HasSuffix(t, u.suffix) {
+			t, mult = strings.TrimSpace(strings.TrimSuffix(t, u.suffix)), u.mult
+			break
+		}
+	}
+	n, err := strconv.ParseInt(t, 10, 64)
+	if err != nil || n <= 0 || n > (1<<62)/mult {
+		return 0, fmt.Errorf("expected a positive size such as 500kB or 10MB, found %q", s)
+	}
+	return n * mult, nil
+}

@@ -1,0 +1,255 @@
+package main
+
+import (
+	"stereoline/notation"
+	"stereoline/notation/find"
+	"stereoline/stereo"
+)
+
+// codeDoc documents one diagnostic code: what the SARIF rules and the
+// README's catalogue say about it. Every code the
+// project declares must have one (TestCatalogueCoversEveryCode).
+type codeDoc struct {
+	Code  notation.Code
+	Short string // one line
+	Full  string // what it means and why it matters
+	Help  string // what to do
+	// Example is a host file that gives rise to the code.
+	Example codeExample
+	// Origin says where the code comes from: the reader, the stereo
+	// engine, the finder, or the rewriting functions (whose codes are
+	// returned to the caller of a rewrite and never appear in a check).
+	Origin string
+}
+
+// codeExample is a small host file that gives rise to a code.
+type codeExample struct {
+	File string // host file name; its extension picks the host kind
+	Text string
+	// Shown is how the README prints the example when Text holds
+	// something unprintable; empty means Text.
+	Shown string
+	// NotShown says why the example cannot be checked by running the
+	// engine on it (the code needs a pathological input or is not a
+	// diagnostic); empty means the catalogue test runs it.
+	NotShown string
+}
+
+// display is the example as the README prints it.
+func (e codeExample) display() string {
+	if e.Shown != "" {
+		return e.Shown
+	}
+	return e.Text
+}
+
+const (
+	originReader  = "reader"
+	originStereo  = "stereo"
+	originFinder  = "finder"
+	originRewrite = "rewrite"
+)
+
+// codeCatalogue lists every diagnostic code, grouped by origin, in the
+// order the README presents them.
+var codeCatalogue = []codeDoc{
+	// The reader (notation/errors.go), rules of the OpenSMILES
+	// specification.
+	{
+		Code: notation.CodeSyntax, Origin: originReader,
+		Short:   "A character the notation grammar does not allow here.",
+		Full:    "The record does not follow the OpenSMILES grammar at this point: an unclosed branch, a bond symbol with no atom after it, a stray character. The reader keeps going and reports what it can, but the structure read is a guess.",
+		Help:    "Correct the notation at the marked character; a missing ')' or a doubled bond symbol is the usual cause.",
+		Example: codeExample{File: "example.smi", Text: "C(C\n"},
+	},
+	{
+		Code: notation.CodeUnclosedRing, Origin: originReader,
+		Short:   "A ring-closure digit that is never closed.",
+		Full:    "A ring-closure number opens a bond that a later atom with the same number must close. This one has no partner, so a ring bond is missing and the molecule read has too few bonds.",
+		Help:    "Add the closing digit on the atom that completes the ring, or remove the digit if there is no ring.",
+		Example: codeExample{File: "example.smi", Text: "C1CC\n"},
+	},
+	{
+		Code: notation.CodeRingBondMismatch, Origin: originReader,
+		Short:   "The two ends of a ring closure name different bonds.",
+		Full:    "OpenSMILES allows a bond symbol on either end of a ring closure, or the same symbol on both; two different symbols (such as '=' and '-') contradict each other and the bond order is a guess.",
+		Help:    "Write the bond symbol on one end only, or the same symbol on both.",
+		Example: codeExample{File: "example.smi", Text: "C=1CCC-1\n"},
+	},
+	{
+		Code: notation.CodeRingDuplicate, Origin: originReader,
+		Short:   "A ring closure between atoms that are already bonded.",
+		Full:    "Two atoms can share one bond only; a ring closure between neighbours would make a second bond between them, which the notation cannot express.",
+		Help:    "Remove the ring-closure digits, or write a double bond with '=' if a multiple bond was meant.",
+		Example: codeExample{File: "example.smi", Text: "C1C1\n"},
+	},
+	{
+		Code: notation.CodeRingSelf, Origin: originReader,
+		Short:   "A ring closure that returns to the same atom.",
+		Full:    "The same atom opens and closes a ring-closure number, which would bond the atom to itself.",
+		Help:    "Move the closing digit to the atom that completes the ring.",
+		Example: codeExample{File: "example.smi", Text: "C11\n"},
+	},
+	{
+		Code: notation.CodeUnknownElement, Origin: originReader,
+		Short:   "A symbol that names no element.",
+		Full:    "Inside brackets any element symbol may appear; outside, only the organic subset (B C N O P S F Cl Br I and their aromatic forms). This symbol is neither, so the atom is unknown.",
+		Help:    "Check the spelling and capitalisation of the element symbol (Cl, not CL), and bracket elements outside the organic subset.",
+		Example: codeExample{File: "example.smi", Text: "[Xy]\n"},
+	},
+	{
+		Code: notation.CodeValence, Origin: originReader,
+		Short:   "More bonds than the element allows.",
+		Full:    "The atom has more bonds than any normal valence of its element, counting bond orders and explicit hydrogens. The notation is most likely missing a charge or has a bond too many.",
+		Help:    "Check the bonds to the atom; write a charge in brackets ([N+]) if the atom is charged.",
+		Example: codeExample{File: "example.smi", Text: "C(C)(C)(C)(C)C\n"},
+	},
+	{
+		Code: notation.CodeKekulize, Origin: originReader,
+		Short:   "Aromatic atoms that cannot be given a Kekulé structure.",
+		Full:    "Lowercase atoms must be placed in alternating single and double bonds. For these atoms no such assignment exists (an odd ring, a pyrrole-type nitrogen written without its hydrogen, an aromatic atom outside a ring), so bond orders and hydrogen counts are unknown.",
+		Help:    "Write the hydrogen on a pyrrole-type nitrogen ([nH]), fix the ring size, or write the ring in Kekulé form with explicit double bonds.",
+		Example: codeExample{File: "example.smi", Text: "c1cccc1\n"},
+	},
+	{
+		Code: notation.CodeBadAromatic, Origin: originReader,
+		Short:   "A lowercase symbol for an element that has no aromatic form.",
+		Full:    "Only b, c, n, o, p, s, se, as and te may be written in lowercase (OpenSMILES); any other lowercase symbol is an error.",
+		Help:    "Write the element in its normal capitalisation.",
+		Example: codeExample{File: "example.smi", Text: "c1ccccc1[cl]\n"},
+	},
+	{
+		Code: notation.CodeBadChirality, Origin: originReader,
+		Short:   "A chirality class number outside its range.",
+		Full:    "Each chirality class has a fixed number of permutations: @TH1-@TH2, @AL1-@AL2, @SP1-@SP3, @TB1-@TB20, @OH1-@OH30. A number outside that range names no configuration.",
+		Help:    "Use a permutation number in range, or the plain @ and @@ for a tetrahedral centre.",
+		Example: codeExample{File: "example.smi", Text: "[C@TH3](F)(Cl)(Br)I\n"},
+	},
+	{
+		Code: notation.CodeEmpty, Origin: originReader,
+		Short:   "A record or component with no atoms.",
+		Full:    "Two dots in a row, a dot at the start or end, or an empty reaction role leaves a component without atoms.",
+		Help:    "Remove the extra '.' or fill in the missing component.",
+		Example: codeExample{File: "example.smi", Text: "C..C\n"},
+	},
+	{
+		Code: notation.CodeReaction, Origin: originReader,
+		Short:   "A malformed reaction arrow.",
+		Full:    "A reaction has exactly two '>' separating reactants, agents and products; more or fewer leave the roles unclear.",
+		Help:    "Write reactants>agents>products, or reactants>>products without agents.",
+		Example: codeExample{File: "example.rsmi", Text: "CC>>>C\n"},
+	},
+	{
+		Code: notation.CodeEncoding, Origin: originReader,
+		Short:   "Bytes that are not valid UTF-8, or control characters.",
+		Full:    "The notation holds a control character or bytes that are not UTF-8. This usually comes from a copy and paste or from an escape in a host language that turned a backslash sequence into a control character.",
+		Help:    "Delete the invisible character, or fix the escape in the host file (see host-escape).",
+		Example: codeExample{File: "example.smi", Text: "C\x01C\n", Shown: "C<U+0001>C (a control character between the two atoms)"},
+	},
+	// The stereo engine (stereo/codes.go).
+	{
+		Code: stereo.CodeIneffectiveCenter, Origin: originStereo,
+		Short:   "A stereo mark on an atom or allene that is not stereogenic.",
+		Full:    "The mark '@' or '@@' sits on a unit whose ligands are not all different, so swapping it changes nothing: both writings are the same compound. Often it points to a wrong substituent rather than a superfluous mark.",
+		Help:    "Check the substituents of the marked atom; if they are right, remove the mark.",
+		Example: codeExample{File: "example.smi", Text: "F[C@H](F)Cl\n"},
+	},
+	{
+		Code: stereo.CodeImpossibleCenter, Origin: originStereo,
+		Short:   "A stereo mark that cannot apply to its atom.",
+		Full:    "A tetrahedral mark needs an atom with three or four neighbours (counting an implicit hydrogen) and no double bond that makes it planar; this atom has neither, so the mark has no meaning.",
+		Help:    "Move the mark to the intended stereocentre, or remove it.",
+		Example: codeExample{File: "example.smi", Text: "C[C@H]=CC\n"},
+	},
+	{
+		Code: stereo.CodeOneSidedBond, Origin: originStereo,
+		Short:   "Only one end of a double bond is marked.",
+		Full:    "A configuration of a double bond needs a direction mark ('/' or '\\') on a substituent at each end. With one end marked the configuration is open, which is rarely what the author meant.",
+		Help:    "Mark a substituent at the other end too: C/C=C/C is E (trans), C/C=C\\C is Z (cis).",
+		Example: codeExample{File: "example.smi", Text: "C/C=CC\n"},
+	},
+	{
+		Code: stereo.CodeIneffectiveBond, Origin: originStereo,
+		Short:   "Direction marks that specify nothing.",
+		Full:    "The direction marks lie next to no stereogenic double bond: one end carries two equal ligands, the double bond sits in a small ring where only cis is possible, or there is no double bond at all.",
+		Help:    "Remove the marks, or check whether a substituent is wrong.",
+		Example: codeExample{File: "example.smi", Text: "F/C(/F)=C/C\n"},
+	},
+	{
+		Code: stereo.CodeConflictingMarks, Origin: originStereo,
+		Short:   "Direction marks that contradict each other.",
+		Full:    "Two marks on the same end of a double bond put both substituents on the same side, or a ring closure is marked differently at its two digits. No configuration satisfies them.",
+		Help:    "Keep one mark per end, or make the marks agree: F/C(/Cl)=C/Br puts F and Cl on opposite sides.",
+		Example: codeExample{File: "example.smi", Text: "F/C(\\Cl)=C/Br\n"},
+	},
+	{
+		Code: stereo.CodeStrainedRing, Origin: originStereo,
+		Short:   "A trans double bond in a ring of fewer than 8 atoms.",
+		Full:    "A trans (E) double bond needs a ring of at least eight atoms; in a smaller ring it cannot exist as a stable compound, so the marks are almost certainly flipped.",
+		Help:    "Flip one direction mark to make the ring bond cis, or check the ring size.",
+		Example: codeExample{File: "example.smi", Text: "C1CCC/C=C/1\n"},
+	},
+	{
+		Code: stereo.CodeInvertingNitrogen, Origin: originStereo,
+		Short:   "A stereo mark on a nitrogen that inverts quickly.",
+		Full:    "An amine nitrogen with three different substituents inverts through its planar form many times a second at room temperature, so its two configurations interconvert and the mark does not describe a separable compound. Bridgehead, aziridine and quaternary nitrogens keep their configuration and are not flagged.",
+		Help:    "Remove the mark unless the nitrogen is held by a ring or a charge.",
+		Example: codeExample{File: "example.smi", Text: "C[N@](CC)CCC\n"},
+	},
+	{
+		Code: stereo.CodeUndefined, Origin: originStereo,
+		Short:   "A stereogenic unit left unmarked.",
+		Full:    "The atom or double bond is stereogenic but carries no mark, so the record stands for any of its stereoisomers (or a mixture). In a record that marks other units this is often an oversight; its severity is lower when nothing in the record is marked.",
+		Help:    "Add the mark if the configuration is known; leave it open on purpose for racemates and unknown configurations.",
+		Example: codeExample{File: "example.smi", Text: "C/C=C/C(O)CC\n"},
+	},
+	{
+		Code: stereo.CodeUndetermined, Origin: originStereo,
+		Short:   "The labeller hit its limit before ranking the ligands.",
+		Full:    "Ranking by the Cahn-Ingold-Prelog rules explores the molecule outwards from the stereocentre; for very large or highly symmetric structures the exploration is cut off at a node cap so that the check stays fast, and the descriptor is left open.",
+		Help:    "Check this centre with another tool or by hand; the mark itself may be fine.",
+		Example: codeExample{File: "example.smi", Text: "C[C@H](CCCCCCCCCC)CCCCCCCCCC\n",
+			NotShown: "needs a molecule large enough to reach the node cap; the short form here only shows the shape of such a centre"},
+	},
+	// The finder (notation/find).
+	{
+		Code: find.CodeHostEscape, Origin: originFinder,
+		Short:   "The host language turns a backslash of the notation into something else.",
+		Full:    "In a Python, JavaScript or other string literal, a backslash starts an escape: '\\1' is the control character U+0001 (an octal escape), not a direction mark and a ring digit. The program reads different notation from what the file shows.",
+		Help:    "Write a raw string (r\"...\" in Python) or double the backslash.",
+		Example: codeExample{File: "example.py", Text: "smiles = \"F/C=C\\1CCCCC1\"\n"},
+	},
+	// The rewriting functions (notation/edit.go): returned by rewrites,
+	// never by a check.
+	{
+		Code: notation.CodeEditOverlap, Origin: originRewrite,
+		Short:   "Two edits of a rewrite touch the same text.",
+		Full:    "A rewrite was asked to make two changes that overlap or insert at the same place, so their order would be a guess. Nothing is changed.",
+		Help:    "Ask for one change at a time at that place.",
+		Example: codeExample{File: "example.smi", Text: "C[C@H](O)CC\n", NotShown: "returned by a rewrite that changes the same '@' twice, not by a check"},
+	},
+	{
+		Code: notation.CodeEditRange, Origin: originRewrite,
+		Short:   "An edit outside the text.",
+		Full:    "A rewrite was given a place beyond the end of the text or a range that ends before it starts, usually because the text changed since the place was computed.",
+		Help:    "Check the file again and retry the rewrite on the current text.",
+		Example: codeExample{File: "example.smi", Text: "CCO\n", NotShown: "returned by a rewrite asked to change offset 10 of a 3-character record, not by a check"},
+	},
+	{
+		Code: notation.CodeEditUnsupported, Origin: originRewrite,
+		Short:   "The requested change cannot be written at this place.",
+		Full:    "The rewrite cannot express the change in the notation as written there, for example a mark the host escapes would corrupt.",
+		Help:    "Make the change by hand, or rewrite the whole record.",
+		Example: codeExample{File: "example.smi", Text: "CC=CC\n", NotShown: "returned by a rewrite, not by a check"},
+	},
+}
+
+// lookupCode returns the documentation of a code.
+func lookupCode(c notation.Code) (codeDoc, bool) {
+	for _, d := range codeCatalogue {
+		if d.Code == c {
+			return d, true
+		}
+	}
+	return codeDoc{}, false
+}

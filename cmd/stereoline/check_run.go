@@ -1,0 +1,214 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"sync"
+	"sync/atomic"
+	"time"
+
+	"stereoline/notation"
+	"stereoline/stereo/document"
+)
+
+// checkRun is the state of one 'stereoline check' invocation.
+type checkRun struct {
+	opts   checkOptions
+	stdin  io.Reader
+	stderr io.Writer
+
+	mu          sync.Mutex // guards failed, cfgReported and writes to stderr
+	failed      bool
+	cfgReported map[*loadedConfig]bool
+
+	cfgMu        sync.Mutex
+	configs      map[string]*loadedConfig // by configuration file path
+	dirConfig    map[string]*loadedConfig // by absolute folder
+	baseAnalyzer *document.Analyzer
+
+	changes *changedLines // nil unless --changed-since
+}
+
+func newCheckRun(opts checkOptions, stdin io.Reader, stderr io.Writer) *checkRun {
+	return &checkRun{
+		opts: opts, stdin: stdin, stderr: stderr,
+		configs: map[string]*loadedConfig{}, dirConfig: map[string]*loadedConfig{},
+		cfgReported: map[*loadedConfig]bool{},
+	}
+}
+
+// position is one end of a finding's range in the three conventions the
+// output formats need.
+type position struct {
+	Line   int // 0-based
+	Char16 int // 0-based, UTF-16 code units (LSP)
+	CharCP int // 0-based, Unicode code points (text and SARIF columns)
+}
+
+// finding is one diagnostic ready to print.
+type finding struct {
+	Start, End position
+	Severity   notation.Severity
+	Code       notation.Code
+	Message    string
+}
+
+// fileReport is what one checked file contributed.
+type fileReport struct {
+	Path     string
+	Skipped  string // why the file was not analysed, if it was not
+	Records  int
+	Findings []finding
+}
+
+// analyzeAll analyses the files on --jobs workers. Reports come back in
+// the order of files, whatever order the workers finish in, so output is
+// the same on one core and on many.
+func (r *checkRun) analyzeAll(files []checkFile) []fileReport {
+	reports := make([]fileReport, len(files))
+	var next, done atomic.Int64
+	stop := r.startProgress(len(files), &done)
+	var wg sync.WaitGroup
+	for w := 0; w < min(r.opts.jobs, max(len(files), 1)); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				i := int(next.Add(1) - 1)
+				if i >= len(files) {
+					return
+				}
+				reports[i] = r.analyzeFile(files[i])
+				done.Add(1)
+			}
+		}()
+	}
+	wg.Wait()
+	stop()
+	return reports
+}
+
+// analyzeFile reads and analyses one file. A panic in the engine is
+// reported against the file instead of ending the run.
+func (r *checkRun) analyzeFile(f checkFile) (rep fileReport) {
+	rep.Path = f.path
+	defer func() {
+		if p := recover(); p != nil {
+			r.pathError(f.path, fmt.Errorf("internal error: %v", p))
+		}
+	}()
+	data, err := r.readCheckFile(f)
+	if err != nil {
+		var skip errSkipped
+		if errors.As(err, &skip) {
+			rep.Skipped = skip.reason
+			if f.explicit {
+				r.mu.Lock()
+				fmt.Fprintf(r.stderr, "stereoline: %s: skipped: %s\n", f.path, skip.reason)
+				r.mu.Unlock()
+			}
+			return rep
+		}
+		r.pathError(f.path, err)
+		return rep
+	}
+	cfgPath := f.osPath
+	if f.stdin {
+		cfgPath = filepath.FromSlash(f.path)
+	}
+	lc := r.loadedFor(cfgPath)
+	if lc.err != nil {
+		r.configError(lc)
+		return rep
+	}
+	res := lc.analyzer.Analyze(f.path, "", data)
+	rep.Records = len(res.Records)
+	rep.Findings = r.findings(f, res)
+	return rep
+}
+
+// configError reports a bad configuration file once.
+func (r *checkRun) configError(lc *loadedConfig) {
+	r.mu.Lock()
+	defer r.mu.Unlock()
+	if !r.cfgReported[lc] {
+		r.cfgReported[lc] = true
+		fmt.Fprintf(r.stderr, "stereoline: %v\n", lc.err)
+	}
+	r.failed = true
+}
+
+// findings converts the engine's diagnostics (host byte offsets) to the
+// positions of the output formats, keeping only changed lines when asked.
+func (r *checkRun) findings(f checkFile, res *document.Result) []finding {
+	if len(res.Diagnostics) == 0 {
+		return nil
+	}
+	idx := newLineIndex(res.Content)
+	var changed lineSet
+	if r.changes != nil {
+		changed = r.changes.forFile(f)
+	}
+	out := make([]finding, 0, len(res.Diagnostics))
+	for _, d := range res.Diagnostics {
+		fd := finding{Start: idx.position(d.Span.Start), End: idx.position(d.Span.End), Severity: d.Severity, Code: d.Code, Message: d.Message}
+		if r.changes != nil && !changed.touches(fd.Start, fd.End) {
+			continue
+		}
+		out = append(out, fd)
+	}
+	return out
+}
+
+// startProgress shows "checked N/M files" on stderr while a run takes
+// longer than a moment, and only when stderr is a terminal: a CI log gets
+// no carriage returns. The returned function clears the line.
+func (r *checkRun) startProgress(total int, done *atomic.Int64) func() {
+	if !isTerminal(r.stderr) || total < 2 {
+		return func() {}
+	}
+	quit := make(chan struct{})
+	finished := make(chan struct{})
+	go func() {
+		defer close(finished)
+		shown := false
+		delay := time.NewTimer(500 * time.Millisecond)
+		defer delay.Stop()
+		tick := time.NewTicker(100 * time.Millisecond)
+		defer tick.Stop()
+		for {
+			select {
+			case <-quit:
+				if shown {
+					r.mu.Lock()
+					fmt.Fprint(r.stderr, "\r\x1b[K")
+					r.mu.Unlock()
+				}
+				return
+			case <-delay.C:
+				shown = true
+			case <-tick.C:
+				if shown {
+					r.mu.Lock()
+					fmt.Fprintf(r.stderr, "\rchecked %d/%d files", done.Load(), total)
+					r.mu.Unlock()
+				}
+			}
+		}
+	}()
+	return func() { close(quit); <-finished }
+}
+
+// isTerminal reports whether w is a character device (a terminal), the
+// usual test for interactive output without a terminal library.
+func isTerminal(w io.Writer) bool {
+	f, ok := w.(*os.File)
+	if !ok {
+		return false
+	}
+	st, err := f.Stat()
+	return err == nil && st.Mode()&os.ModeCharDevice != 0
+}

@@ -1,0 +1,119 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"fmt"
+	"os"
+	"path/filepath"
+
+	"stereoline/stereo/document"
+)
+
+// configFileName is the configuration file the checker looks for in the
+// folder of each checked file and in every folder above it; the nearest
+// one wins. Its content is a JSON object with the fields of
+// document.Config (severity, inlayHints, detection, columns, names,
+// files), the same settings the language server takes from the editor.
+const configFileName = ".stereoline.json"
+
+// loadedConfig is one configuration file read and validated, with the
+// analyzer built for it.
+type loadedConfig struct {
+	path     string // empty for the built-in defaults
+	cfg      document.Config
+	analyzer *document.Analyzer
+	err      error
+}
+
+// readConfigFile reads a configuration file on top of the defaults.
+// Unknown settings are errors: a misspelt "severty" would otherwise be
+// ignored without a word.
+func readConfigFile(path string) (document.Config, error) {
+	cfg := document.DefaultConfig()
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return cfg, err
+	}
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	var probe document.Config
+	if err := dec.Decode(&probe); err != nil {
+		return cfg, fmt.Errorf("not a valid configuration: %v", err)
+	}
+	if err := cfg.Merge(data); err != nil {
+		return cfg, err
+	}
+	return cfg, nil
+}
+
+// configFor returns the configuration that applies to a checked file: the
+// one named by --config, else the nearest configuration file in the
+// file's folder or above, else the defaults. Results are cached per
+// folder.
+func (r *checkRun) configFor(path string) (document.Config, error) {
+	lc := r.loadedFor(path)
+	return lc.cfg, lc.err
+}
+
+// loadedFor is configFor with the analyzer.
+func (r *checkRun) loadedFor(path string) *loadedConfig {
+	r.cfgMu.Lock()
+	defer r.cfgMu.Unlock()
+	if r.opts.configFile != "" {
+		return r.loadConfigLocked(r.opts.configFile)
+	}
+	abs, err := filepath.Abs(path)
+	if err != nil {
+		return r.loadConfigLocked("")
+	}
+	dir := filepath.Dir(abs)
+	var visited []string
+	var found *loadedConfig
+	for {
+		if lc, ok := r.dirConfig[dir]; ok {
+			found = lc
+			break
+		}
+		visited = append(visited, dir)
+		candidate := filepath.Join(dir, configFileName)
+		if st, err := os.Stat(candidate); err == nil && !st.IsDir() {
+			found = r.loadConfigLocked(candidate)
+			break
+		}
+		parent := filepath.Dir(dir)
+		if parent == dir {
+			found = r.loadConfigLocked("")
+			break
+		}
+		dir = parent
+	}
+	for _, d := range visited {
+		r.dirConfig[d] = found
+	}
+	return found
+}
+
+// loadConfigLocked reads a configuration file once; "" is the defaults.
+func (r *checkRun) loadConfigLocked(path string) *loadedConfig {
+	if lc, ok := r.configs[path]; ok {
+		return lc
+	}
+	lc := &loadedConfig{path: path, cfg: document.DefaultConfig()}
+	if path != "" {
+		lc.cfg, lc.err = readConfigFile(path)
+		if lc.err != nil {
+			lc.err = fmt.Errorf("%s: %v", filepath.ToSlash(path), lc.err)
+		}
+	}
+	// Analyzers of different configurations share one cache: analyses do
+	// not depend on the configuration, only what is reported does.
+	if r.baseAnalyzer == nil {
+		r.baseAnalyzer = document.NewAnalyzer(lc.cfg)
+		lc.analyzer = r.baseAnalyzer
+	} else {
+		lc.analyzer = r.baseAnalyzer.WithConfig(lc.cfg)
+	}
+	r.configs[path] = lc
+	return lc
+}

@@ -205,9 +205,9 @@ var codeCatalogue = []codeDoc{
 	},
 	{
 		Code: stereo.CodeUndetermined, Origin: originStereo,
-		Short:   "The labeller hit its limit before ranking the ligands.",
-		Full:    "Ranking by the Cahn-Ingold-Prelog rules explores the molecule outwards from the stereocentre; for very large or highly symmetric structures the exploration is cut off at a node cap so that the check stays fast, and the descriptor is left open.",
-		Help:    "Check this centre with another tool or by hand; the mark itself may be fine.",
+		Short: "The labeller hit its limit before ranking the ligands.",
+		Full:  "Ranking by the Cahn-Ingold-Prelog rules explores the molecule outwards from the stereocentre; for very large or highly symmetric structures the exploration is cut off at a node cap so that the check stays fast, and the descriptor is left open.",
+		Help:  "Check this centre with another tool or by hand; the mark itself may be fine.",
 		Example: codeExample{File: "example.smi", Text: "C[C@H](CCCCCCCCCC)CCCCCCCCCC\n",
 			NotShown: "needs a molecule large enough to reach the node cap; the short form here only shows the shape of such a centre"},
 	},

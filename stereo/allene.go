@@ -8,10 +8,11 @@ package stereo
 // (aR is M, aS is P; P-93.5.7, common practice).
 
 func (l *labeller) allene(c *alleneConfig) label {
-	lb, cands := l.alleneWith(c, -1)
+	ds := [2]*digraph{newDigraph(l.g, l.cfg, c.ends[0], l.nodeCap), newDigraph(l.g, l.cfg, c.ends[1], l.nodeCap)}
+	lb, cands := l.alleneWith(ds, c, -1)
 	if lb.tie && !lb.capped {
 		lb = l.withReference(lb, cands, func(ref int) label {
-			x, _ := l.alleneWith(c, ref)
+			x, _ := l.alleneWith(ds, c, ref)
 			return x
 		})
 	}
@@ -19,7 +20,7 @@ func (l *labeller) allene(c *alleneConfig) label {
 }
 
 // alleneWith labels an allene with a given Rule 6 reference atom.
-func (l *labeller) alleneWith(c *alleneConfig, ref int) (label, []int) {
+func (l *labeller) alleneWith(ds [2]*digraph, c *alleneConfig, ref int) (label, []int) {
 	var out label
 	var cands []int
 	rankOf := map[[2]int]int{} // (end, atom) -> rank 1..4
@@ -27,7 +28,8 @@ func (l *labeller) alleneWith(c *alleneConfig, ref int) (label, []int) {
 	isPseudo := false
 	for e := 0; e < 2; e++ {
 		var nl int
-		d, r := l.rootRanking(c.ends[e], ref, func(d *digraph) []nodeID {
+		d := ds[e]
+		r := l.rootRanking(d, ref, func(d *digraph) []nodeID {
 			var ligs []nodeID
 			for _, k := range d.ligandsOf(0, noNode) {
 				if d.nodes[k].atom != c.inner[e] {

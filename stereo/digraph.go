@@ -46,10 +46,11 @@ type digraph struct {
 	limit  int
 	capped bool
 
-	sorted map[sortKey][]nodeID
-	aux    map[nodeID]Descriptor
-	auxing map[nodeID]bool
-	cfg    *configs
+	sorted   map[sortKey][]nodeID
+	compared map[cmpKey][2]int
+	aux      map[nodeID]Descriptor
+	auxing   map[nodeID]bool
+	cfg      *configs
 	// refAtom is the Rule 6 reference, -1 when none is chosen.
 	refAtom int
 	// mirror makes the root's view see the auxiliary descriptors of the
@@ -61,6 +62,10 @@ type digraph struct {
 type sortKey struct {
 	n, from, root nodeID
 	level         int
+	// the Rule 6 reference and the mirror flag change the root's view
+	// only; auxiliary views share their entries across them
+	ref    int
+	mirror bool
 }
 
 // defaultNodeCap bounds every digraph. Real molecules of a few hundred
@@ -70,7 +75,7 @@ const defaultNodeCap = 40000
 
 func newDigraph(g *graph, cfg *configs, rootAtom int, limit int) *digraph {
 	d := &digraph{g: g, limit: limit, cfg: cfg, refAtom: -1,
-		sorted: map[sortKey][]nodeID{}, aux: map[nodeID]Descriptor{}, auxing: map[nodeID]bool{}}
+		sorted: map[sortKey][]nodeID{}, compared: map[cmpKey][2]int{}, aux: map[nodeID]Descriptor{}, auxing: map[nodeID]bool{}}
 	d.nodes = append(d.nodes, node{atom: rootAtom, kind: nodeAtom, parent: noNode, corr: noNode, bond: -1,
 		z: float64(g.z[rootAtom]), mass: g.mass[rootAtom]})
 	return d

@@ -9,7 +9,8 @@ func (l *labeller) doubleBond(c *bondConfig) label {
 	trans := c.trans
 	for e := 0; e < 2; e++ {
 		var nl int
-		d, r := l.rootRanking(c.ends[e], -1, func(d *digraph) []nodeID {
+		d := newDigraph(l.g, l.cfg, c.ends[e], l.nodeCap)
+		r := l.rootRanking(d, -1, func(d *digraph) []nodeID {
 			var ligs []nodeID
 			for _, k := range d.ligandsOf(0, noNode) {
 				if d.nodes[k].atom != c.inner[e] {

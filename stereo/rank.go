@@ -26,7 +26,7 @@ type ranking struct {
 	decisions []Decision
 	tie       bool
 	tied      []nodeID // the first group of ligands left tied
-	pseudo    bool // an odd number of pairs was told apart only by Rule 5 or 6
+	pseudo    bool     // an odd number of pairs was told apart only by Rule 5 or 6
 }
 
 // rankLigands sorts the ligands of root in the view rooted at root.
@@ -103,36 +103,36 @@ func tetrahedralDescriptor(ranks []int, winding int) Descriptor {
 	return DescS
 }
 
-// rootRanking ranks the ligands pick selects at the root atom, with the
+// rootRanking ranks the ligands pick selects at the root of d, with the
 // given Rule 6 reference. A ranking decided by the descriptor rules is
 // pseudoasymmetric when the mirror image ranks the same ligands in an
 // order of the opposite parity: reflection then leaves the label as it
-// is, which is what lowercase labels mean (P-92.1.3.4).
-func (l *labeller) rootRanking(atom, ref int, pick func(d *digraph) []nodeID) (*digraph, ranking) {
-	d := newDigraph(l.g, l.cfg, atom, l.nodeCap)
-	d.refAtom = ref
-	r := d.rankLigands(0, pick(d))
+// is, which is what lowercase labels mean (P-92.1.3.4). The mirror view
+// reuses the digraph and its auxiliary descriptors.
+func (l *labeller) rootRanking(d *digraph, ref int, pick func(d *digraph) []nodeID) ranking {
+	d.refAtom, d.mirror = ref, false
+	ligs := pick(d)
+	r := d.rankLigands(0, ligs)
 	r.pseudo = false
 	if r.tie || d.capped || !usesDescriptorRules(r) {
-		return d, r
+		return r
 	}
-	m := newDigraph(l.g, l.cfg, atom, l.nodeCap)
-	m.refAtom = ref
-	m.mirror = true
-	mr := m.rankLigands(0, pick(m))
-	if mr.tie || m.capped || len(mr.order) != len(r.order) {
-		return d, r
+	d.mirror = true
+	mr := d.rankLigands(0, ligs)
+	d.mirror = false
+	if mr.tie || d.capped || len(mr.order) != len(r.order) {
+		return r
 	}
-	pos := map[int]int{}
+	pos := map[nodeID]int{}
 	for i, n := range r.order {
-		pos[d.ligandAtom(n)] = i
+		pos[n] = i
 	}
 	perm := make([]int, len(mr.order))
 	for i, n := range mr.order {
-		perm[i] = pos[m.ligandAtom(n)]
+		perm[i] = pos[n]
 	}
 	r.pseudo = inversions(perm)%2 == 1
-	return d, r
+	return r
 }
 
 func usesDescriptorRules(r ranking) bool {

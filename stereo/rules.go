@@ -60,10 +60,33 @@ func init() {
 // (positive when a precedes) and the sphere, counted from the root, where
 // the difference lies.
 func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
-	if r == Rule4b {
-		return d.compareLikeUnlike(root, a, af, b, bf)
+	key := cmpKey{root: root, a: a, af: af, b: b, bf: bf, rule: r, ref: -1}
+	if root == 0 {
+		key.ref, key.mirror = d.refAtom, d.mirror
 	}
-	return d.compareSpheres(root, a, af, b, bf, r)
+	if v, ok := d.compared[key]; ok {
+		return v[0], v[1]
+	}
+	var c, s int
+	if r == Rule4b {
+		c, s = d.compareLikeUnlike(root, a, af, b, bf)
+	} else {
+		c, s = d.compareSpheres(root, a, af, b, bf, r)
+	}
+	if !d.capped {
+		d.compared[key] = [2]int{c, s}
+	}
+	return c, s
+}
+
+// cmpKey identifies one comparison for the memo: the same pair of
+// branches is compared again and again while siblings are sorted at
+// each level of the rule chain.
+type cmpKey struct {
+	root, a, af, b, bf nodeID
+	rule               Rule
+	ref                int
+	mirror             bool
 }
 
 // compareChain applies the rules up to and including last, in order. It
@@ -165,7 +188,10 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 	if n == noNode {
 		return nil
 	}
-	key := sortKey{n, from, root, int(r)}
+	key := sortKey{n: n, from: from, root: root, level: int(r), ref: -1}
+	if root == 0 {
+		key.ref, key.mirror = d.refAtom, d.mirror
+	}
 	if s, ok := d.sorted[key]; ok {
 		return s
 	}

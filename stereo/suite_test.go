@@ -8,6 +8,7 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+	"time"
 
 	"stereoline/notation"
 )
@@ -87,7 +88,11 @@ func TestValidationSuite(t *testing.T) {
 	var fails []string
 	for _, c := range cases {
 		m := notation.Read(c.smiles)
+		start := time.Now()
 		a := Analyze(m)
+		if el := time.Since(start); el > 200*time.Millisecond {
+			t.Logf("%s took %v", c.id, el)
+		}
 		got := labelSet(a)
 		if strings.Join(got, " ") == strings.Join(c.want, " ") {
 			pass++

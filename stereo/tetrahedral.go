@@ -13,10 +13,11 @@ type label struct {
 }
 
 func (l *labeller) tetrahedral(t *tetraConfig) label {
-	lb, cands := l.tetrahedralWith(t, -1)
+	d := newDigraph(l.g, l.cfg, t.centre, l.nodeCap)
+	lb, cands := l.tetrahedralWith(d, t, -1)
 	if lb.tie && !lb.capped {
 		lb = l.withReference(lb, cands, func(ref int) label {
-			x, _ := l.tetrahedralWith(t, ref)
+			x, _ := l.tetrahedralWith(d, t, ref)
 			return x
 		})
 	}
@@ -25,9 +26,9 @@ func (l *labeller) tetrahedral(t *tetraConfig) label {
 
 // tetrahedralWith labels a centre with a given Rule 6 reference atom (-1
 // for none) and returns the atoms of the ligands left tied.
-func (l *labeller) tetrahedralWith(t *tetraConfig, ref int) (label, []int) {
+func (l *labeller) tetrahedralWith(d *digraph, t *tetraConfig, ref int) (label, []int) {
 	var n3 int
-	d, r := l.rootRanking(t.centre, ref, func(d *digraph) []nodeID {
+	r := l.rootRanking(d, ref, func(d *digraph) []nodeID {
 		ligs := d.ligandsOf(0, noNode)
 		if t.lonePair && len(ligs) == 3 {
 			ligs = append(ligs, d.lonePair(0))

@@ -1,0 +1,122 @@
+package stereo
+
+import (
+	"strings"
+	"testing"
+
+	"stereoline/notation"
+)
+
+// labelsOf returns the suite-style label set of a notation string.
+func labelsOf(t *testing.T, smi string) string {
+	t.Helper()
+	return strings.Join(labelSet(Analyze(notation.Read(smi))), " ")
+}
+
+// TestHandCheckedFacts checks single facts of the trade.
+func TestHandCheckedFacts(t *testing.T) {
+	cases := []struct {
+		name, smiles, want, source string
+	}{
+		// L-alanine is (S)-alanine: common practice (every amino acid
+		// table; the notation is the standard one for L-alanine)
+		{"L-alanine", "N[C@@H](C)C(=O)O", "2S", "common practice"},
+		{"D-alanine", "N[C@H](C)C(=O)O", "2R", "common practice"},
+		// (E)-but-2-ene: F/C=C/F style marks mean trans (OpenSMILES 1.0, section 3.8.3)
+		{"(E)-but-2-ene", "C/C=C/C", "2E 3E", "common practice"},
+		{"(Z)-but-2-ene", `C/C=C\C`, "2Z 3Z", "common practice"},
+		// methyl phenyl sulfoxide: the lone pair takes the hydrogen's
+		// slot (OpenSMILES 1.0, 3.9.1); O > phenyl > methyl > lone pair,
+		// and seen from the lone pair O -> Ph -> Me turns anticlockwise:
+		// (R), worked by hand
+		{"sulfoxide", "C[S@@](=O)c1ccccc1", "2R", "worked by hand"},
+		{"sulfoxide mirror", "C[S@](=O)c1ccccc1", "2S", "worked by hand"},
+		// quaternary ammonium: phenyl > propyl > ethyl > methyl (Rule 1a
+		// at the first and second spheres), written in the order 4 3 2 1
+		// with '@@': (R), worked by hand
+		{"quaternary ammonium", "C[N@@+](CC)(CCC)c1ccccc1", "2R", "worked by hand"},
+		// meso-butane-2,3-diol is (2R,3S); the chiral pair is (R,R) and
+		// (S,S): common practice
+		{"meso diol", "C[C@@H](O)[C@@H](O)C", "2R 4S", "common practice"},
+		{"chiral diol", "C[C@@H](O)[C@H](O)C", "2R 4R", "common practice"},
+		// trans-1,4-dimethylcyclohexane: both ring carbons are labelled
+		// r (like trans-cyclohexane-1,4-diol, VS221 of the validation
+		// suite), never R/S; which writing is trans was worked out from the
+		// OpenSMILES definition of '@' on a flat hexagon
+		{"trans-1,4-dimethylcyclohexane", "C[C@H]1CC[C@H](C)CC1", "2r 5r", "worked by hand"},
+		{"cis-1,4-dimethylcyclohexane", "C[C@H]1CC[C@@H](C)CC1", "2s 5s", "worked by hand"},
+	}
+	for _, c := range cases {
+		if got := labelsOf(t, c.smiles); got != c.want {
+			t.Errorf("%s (%s): %s gives %q, want %q", c.name, c.source, c.smiles, got, c.want)
+		}
+	}
+}
+
+// TestDiagnostics checks that each diagnostic fires on its textbook case
+// and carries a span on the mark.
+func TestDiagnostics(t *testing.T) {
+	cases := []struct {
+		smiles string
+		code   notation.Code
+		sev    notation.Severity
+		mark   string // the text the span must cover (a prefix is enough)
+	}{
+		// two equal methyl groups: not a stereocentre (common practice)
+		{"C[C@H](C)O", CodeIneffectiveCenter, notation.SeverityWarning, "@"},
+		// @SP needs four neighbours (OpenSMILES 1.0, section 3.9.4)
+		{"C[C@SP1H]C", CodeImpossibleCenter, notation.SeverityError, "@SP1"},
+		// an aromatic carbon is planar
+		{"c1cc[c@H]cc1", CodeImpossibleCenter, notation.SeverityError, "@"},
+		// only one end of the double bond marked
+		{"C/C=CC", CodeOneSidedBond, notation.SeverityWarning, "/"},
+		// CH2= end: not stereogenic
+		{"C/C=C/[H]", CodeIneffectiveBond, notation.SeverityWarning, ""},
+		{"C/CC", CodeIneffectiveBond, notation.SeverityWarning, "/"},
+		// both substituents of one end on the same side (the issue's example)
+		{`F/C(\Cl)=C/Br`, CodeConflictingMarks, notation.SeverityError, ""},
+		// trans-cyclohexene: common practice, trans-cyclooctene is the smallest isolable
+		{`C1CCC/C=C/1`, CodeStrainedRing, notation.SeverityError, ""},
+		// a plain tertiary amine inverts (common practice)
+		{"C[N@](CC)CCC", CodeInvertingNitrogen, notation.SeverityWarning, "@"},
+		// 2-butanol without a mark: hint, nothing else is marked
+		{"CC(O)CC", CodeUndefined, notation.SeverityHint, "C"},
+		{"CC(O)C/C=C/C", CodeUndefined, notation.SeverityInformation, "C"},
+	}
+	for _, c := range cases {
+		m := notation.Read(c.smiles)
+		a := Analyze(m)
+		found := false
+		for _, e := range a.Diagnostics {
+			if e.Code != c.code {
+				continue
+			}
+			found = true
+			if e.Severity != c.sev {
+				t.Errorf("%s: %s has severity %v, want %v", c.smiles, c.code, e.Severity, c.sev)
+			}
+			if e.Span.End > len(c.smiles) || e.Span.Start < 0 || e.Span.Start > e.Span.End {
+				t.Errorf("%s: span %v outside the text", c.smiles, e.Span)
+			} else if c.mark != "" && !strings.HasPrefix(c.smiles[e.Span.Start:], c.mark) {
+				t.Errorf("%s: %s span %v covers %q, want it on %q", c.smiles, c.code, e.Span, c.smiles[e.Span.Start:e.Span.End], c.mark)
+			}
+		}
+		if !found {
+			t.Errorf("%s: no %s diagnostic; got %v", c.smiles, c.code, a.Diagnostics)
+		}
+	}
+}
+
+// TestJSON checks the describe shape on L-alanine.
+func TestJSON(t *testing.T) {
+	a := Analyze(notation.Read("N[C@@H](C)C(=O)O"))
+	b, err := UnitsJSON(a)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// ranks of L-alanine: N > COOH > CH3 > H (Rule 1a, common practice)
+	want := `[{"kind":"tetrahedral","atoms":[2],"specified":true,"cip":"S","ranked":[{"rank":1,"atom":1},{"rank":2,"atom":4},{"rank":3,"atom":3},{"rank":4,"implicit":"hydrogen"}],"decisions":[{"higher":1,"lower":2,"rule":"1a","sphere":1},{"higher":2,"lower":3,"rule":"1a","sphere":2},{"higher":3,"lower":4,"rule":"1a","sphere":1}]}]`
+	if string(b) != want {
+		t.Errorf("got  %s\nwant %s", b, want)
+	}
+}

@@ -1,0 +1,99 @@
+package stereo
+
+import (
+	"fmt"
+	"strings"
+	"testing"
+
+	"stereoline/notation"
+)
+
+// ladder writes a ladder of n fused four-membered rings: a top row
+// t0..tn, a bottom row b0..bn, and rungs t_i-b_i, as one path
+// t0..tn bn..b0 with the rungs as ring closures. tail is written on tn.
+func ladder(n int, tail string) string {
+	var b strings.Builder
+	for i := 0; i <= n; i++ {
+		b.WriteString("C")
+		if i < n {
+			fmt.Fprintf(&b, "%%%d", 10+i)
+		}
+		if i == n && tail != "" {
+			b.WriteString("(" + tail + ")")
+		}
+	}
+	for i := n; i >= 0; i-- {
+		b.WriteString("C")
+		if i < n {
+			fmt.Fprintf(&b, "%%%d", 10+i)
+		}
+	}
+	return b.String()
+}
+
+// dendrimer writes a tree where every carbon carries three branches, to
+// the given depth; leaf is written at the last leaf.
+func dendrimer(depth int, leaf string) string {
+	if depth == 0 {
+		return "C" + leaf
+	}
+	sub := dendrimer(depth-1, "")
+	return "C(" + sub + ")(" + sub + ")" + dendrimer(depth-1, leaf)
+}
+
+var hostileCases = []struct{ name, smiles string }{
+	// a stereocentre between two ladders of 40 fused rings that differ
+	// only at their far ends
+	{"ladders", "O[C@H](" + ladder(40, "F") + ")" + ladder(40, "Cl")},
+	// cubane (VS009 of the validation suite) and adamantane with every
+	// atom marked; the CH2 marks of adamantane cannot apply
+	{"cubane", "[C@@H]12[C@H]3[C@H]4[C@@H]1[C@@H]5[C@H]4[C@H]3[C@H]25"},
+	{"adamantane", "[C@H2]1[C@H]2[C@H2][C@H]3[C@H2][C@@H]1[C@H2][C@@H]([C@H2]2)[C@H2]3"},
+	// a dendrimer of depth 6 (729 leaves) around one centre whose two
+	// big branches differ at a single leaf
+	{"dendrimer", "O[C@H](" + dendrimer(6, "") + ")" + dendrimer(6, "F")},
+}
+
+// TestHostile checks that pathological inputs come back with a result,
+// and that a unit left undetermined by the node cap says so.
+func TestHostile(t *testing.T) {
+	for _, c := range hostileCases {
+		t.Run(c.name, func(t *testing.T) {
+			m := notation.Read(c.smiles)
+			if len(m.Atoms) == 0 {
+				t.Fatalf("reader returned no atoms")
+			}
+			a := Analyze(m)
+			if a == nil {
+				t.Fatal("no analysis")
+			}
+			undetermined := 0
+			for _, u := range a.Units {
+				if u.Descriptor == DescUndetermined {
+					undetermined++
+				}
+			}
+			diag := 0
+			for _, e := range a.Diagnostics {
+				if e.Code == CodeUndetermined {
+					diag++
+				}
+			}
+			if undetermined > 0 && diag == 0 {
+				t.Errorf("%d units undetermined without a diagnostic", undetermined)
+			}
+			t.Logf("%d atoms, %d units (%d undetermined), %d diagnostics", len(m.Atoms), len(a.Units), undetermined, len(a.Diagnostics))
+		})
+	}
+}
+
+func BenchmarkHostile(b *testing.B) {
+	for _, c := range hostileCases {
+		m := notation.Read(c.smiles)
+		b.Run(c.name, func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				Analyze(m)
+			}
+		})
+	}
+}

@@ -259,10 +259,78 @@ func (s *ringSearch) block(r *Rings, blk []int) {
 	}
 	want := len(blk) - len(atoms) + 1
 	basis, exact := selectBasis(pool.rings, blk, want)
+	if len(basis) < want {
+		// The searches gave up somewhere: complete the basis with the
+		// fundamental cycles of a spanning tree, which always span the
+		// cycle space, so that the count is right even if the rings are
+		// not all the smallest.
+		s.fundamentalCycles(blk, atoms[0], pool)
+		basis, exact = selectBasis(pool.rings, blk, want)
+	}
 	if !exact || len(basis) < want {
 		r.Approximate = true
 	}
 	r.SSSR = append(r.SSSR, basis...)
+}
+
+// fundamentalCycles adds to the pool, for every bond of the block outside
+// a breadth-first spanning tree rooted at root, the cycle the bond closes
+// in the tree. Their total length is bounded by eliminationBudget.
+func (s *ringSearch) fundamentalCycles(blk []int, root int, pool *ringPool) {
+	g := s.g
+	id := g.block[blk[0]]
+	s.round++
+	if len(s.dist) < len(s.stamp) {
+		s.dist = make([]int, len(s.stamp))
+		s.branch = make([]int, len(s.stamp))
+	}
+	s.stamp[root], s.via[root], s.dist[root] = s.round, -1, 0
+	s.queue = append(s.queue[:0], root)
+	for head := 0; head < len(s.queue); head++ {
+		a := s.queue[head]
+		for _, arc := range g.arcs(a) {
+			if g.block[arc.bond] != id || s.stamp[arc.atom] == s.round {
+				continue
+			}
+			s.stamp[arc.atom] = s.round
+			s.via[arc.atom] = arc.bond
+			s.dist[arc.atom] = s.dist[a] + 1
+			s.queue = append(s.queue, arc.atom)
+		}
+	}
+	work := 0
+	for _, b := range blk {
+		bond := &g.m.Bonds[b]
+		y, z := bond.Begin, bond.End
+		if s.via[y] == b || s.via[z] == b {
+			continue
+		}
+		// climb from both ends to their lowest common ancestor; the ring
+		// runs from it down to z, across the bond to y, and back up.
+		var left, right Ring
+		for y != z {
+			if s.dist[y] >= s.dist[z] {
+				left.Atoms = append(left.Atoms, y)
+				left.Bonds = append(left.Bonds, s.via[y])
+				y = g.m.Bonds[s.via[y]].Other(y)
+			} else {
+				right.Atoms = append(right.Atoms, z)
+				right.Bonds = append(right.Bonds, s.via[z])
+				z = g.m.Bonds[s.via[z]].Other(z)
+			}
+		}
+		reverseInts(right.Atoms)
+		reverseInts(right.Bonds)
+		ring := Ring{
+			Atoms: append(append([]int{y}, right.Atoms...), left.Atoms...),
+			Bonds: append(append(right.Bonds, b), left.Bonds...),
+		}
+		work += ring.Size()
+		if work > eliminationBudget {
+			return
+		}
+		pool.add(ring)
+	}
 }
 
 // blockAtoms lists the atoms touched by the bonds of a block.

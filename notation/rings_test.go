@@ -413,3 +413,41 @@ func FuzzFindRings(f *testing.F) {
 		}
 	})
 }
+
+// TestFindRingsBudget builds a ring system whose smallest rings are
+// larger than one search may visit (three 3,000-atom paths joining two
+// atoms): the result must come quickly, say it is approximate, and give
+// sizes that are upper bounds.
+func TestFindRingsBudget(t *testing.T) {
+	const path = 3000
+	var bonds [][2]int
+	n := 2
+	for k := 0; k < 3; k++ {
+		prev := 0
+		for i := 0; i < path; i++ {
+			bonds = append(bonds, [2]int{prev, n})
+			prev = n
+			n++
+		}
+		bonds = append(bonds, [2]int{prev, 1})
+	}
+	m := graphMolecule(n, bonds)
+	start := time.Now()
+	r := FindRings(m)
+	if d := time.Since(start); d > 10*time.Second {
+		t.Errorf("took %v", d)
+	}
+	if !r.Approximate {
+		t.Errorf("not marked approximate")
+	}
+	const smallest = 2 * (path + 1)
+	for b, size := range r.BondSize {
+		if size < smallest {
+			t.Fatalf("bond %d smallest ring %d, below the true %d", b, size, smallest)
+		}
+	}
+	if r.Expected != 2 || len(r.SSSR) != 2 {
+		t.Errorf("%d rings, cyclomatic number %d, want 2 and 2", len(r.SSSR), r.Expected)
+	}
+	checkRingsAreCycles(t, m, r)
+}

@@ -209,7 +209,7 @@ func (cf *codeFinder) literal(t token, named bool) {
 	if cf.prag.forced(t.span.Start) {
 		named, reason = true, ReasonPragma
 	}
-	if !named && cf.cfg.NoGuess {
+	if !named && (cf.cfg.NoGuess || !mayGuess(cf.src, lit)) {
 		return
 	}
 	d := &decoded{}
@@ -232,6 +232,26 @@ func (cf *codeFinder) literal(t token, named bool) {
 	if unmistakable(text) {
 		cf.emit(lit, d, &m, 0, len(text), "", ReasonGuess)
 	}
+}
+
+// mayGuess is a quick test on the host bytes of an unnamed literal
+// before it is decoded: a literal with a blank, a quote or any byte that
+// is in no record cannot be unmistakably notation, and most literals are
+// such. Only single-piece literals are guessed.
+func mayGuess(src []byte, lit *literal) bool {
+	if len(lit.pieces) != 1 {
+		return len(lit.pieces) > 1
+	}
+	c := lit.pieces[0].content
+	if c.Len() < 3 {
+		return false
+	}
+	for _, b := range src[c.Start:c.End] {
+		if !notationByte[b] {
+			return false
+		}
+	}
+	return true
 }
 
 // records takes a named multi-line literal as a record list.

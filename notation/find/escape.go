@@ -283,13 +283,16 @@ func rawHint(lang string) string {
 	return "double the backslash"
 }
 
+// dropRaw removes the raw-string marks from a prefix.
+var dropRaw = strings.NewReplacer("r", "", "R", "")
+
 // doubled returns a piece rewritten with the notation text escaped the
 // plain way: every backslash doubled, the quote escaped, and control
 // characters (only newlines appear in notation pieces) written as \n when
 // the quote does not allow them.
 func doubled(pc *piece, text string, multiline bool) string {
 	var sb strings.Builder
-	prefix := strings.NewReplacer("r", "", "R", "").Replace(pc.prefix)
+	prefix := dropRaw.Replace(pc.prefix)
 	if strings.HasPrefix(pc.prefix, "String.raw") {
 		prefix = ""
 	}

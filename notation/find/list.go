@@ -14,6 +14,9 @@ import (
 // no per-line allocation beyond the two strings and identity offset maps.
 func findList(src []byte) []Occurrence {
 	prag := newPragmas(src)
+	// One string for the whole file: records and titles are slices of
+	// it, so the list costs one allocation however long it is.
+	text := string(src)
 	out := make([]Occurrence, 0, bytes.Count(src, []byte{'\n'})+1)
 	first := true
 	for start := 0; start < len(src); {
@@ -48,7 +51,7 @@ func findList(src []byte) []Occurrence {
 			continue
 		}
 		o := Occurrence{
-			Text:      string(line[:recEnd]),
+			Text:      text[lineStart : lineStart+recEnd],
 			Span:      notation.Span{Start: lineStart, End: lineStart + recEnd},
 			Kind:      KindList,
 			Construct: ConstructListRecord,
@@ -56,7 +59,7 @@ func findList(src []byte) []Occurrence {
 			m:         identityMap(lineStart, recEnd),
 		}
 		if te > ts {
-			o.Title = string(line[ts:te])
+			o.Title = text[lineStart+ts : lineStart+te]
 		}
 		out = append(out, o)
 	}

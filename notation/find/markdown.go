@@ -96,6 +96,9 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 	return out
 }
 
+// maxCodeSpan bounds the length of an inline code span searched for.
+const maxCodeSpan = 4096
+
 // fenceAliases are info-string tags editors write for our languages.
 var fenceAliases = map[string]Kind{
 	"py": KindPython, "python3": KindPython, "js": KindJavaScript, "ts": KindJavaScript,
@@ -152,8 +155,12 @@ func inlineCode(out []Occurrence, line []byte, lineStart int, prag *pragmas, nm 
 		n := fenceRun(line[open:], '`')
 		from := open + n
 		closeAt := -1
-		for j := from; j < len(line); {
-			q := bytes.IndexByte(line[j:], '`')
+		// A code span is looked for within maxCodeSpan bytes: longer
+		// ones are not notation, and the bound keeps a line full of
+		// unmatched backticks linear.
+		limit := min(len(line), from+maxCodeSpan)
+		for j := from; j < limit; {
+			q := bytes.IndexByte(line[j:limit], '`')
 			if q < 0 {
 				break
 			}

@@ -76,6 +76,37 @@ var pathWords = map[string]bool{
 	"column": true, "col": true, "folder": true,
 }
 
+// mentions is a quick test, without allocation, that name contains one
+// of the notation words at all (case-insensitively): most names do not,
+// and splitting them into parts would be wasted work.
+func mentions(name string) bool {
+	for i := 0; i+3 <= len(name); i++ {
+		c := name[i] | 0x20
+		if c != 's' && c != 'r' && c != 'i' {
+			continue
+		}
+		w := name[i:min(i+8, len(name))]
+		if hasFold(w, "smi") || hasFold(w, "rxn") || hasFold(w, "reaction") || hasFold(w, "ism") {
+			return true
+		}
+	}
+	return false
+}
+
+// hasFold reports whether s starts with the lowercase word w, ignoring
+// ASCII case.
+func hasFold(s, w string) bool {
+	if len(s) < len(w) {
+		return false
+	}
+	for i := 0; i < len(w); i++ {
+		if s[i]|0x20 != w[i] {
+			return false
+		}
+	}
+	return true
+}
+
 // namer decides whether names say "notation".
 type namer struct{ extra map[string]bool }
 
@@ -103,7 +134,7 @@ func (n namer) value(name string) bool { return n.match(name, aboutWords) }
 func (n namer) call(name string) bool { return n.match(name, pathWords) }
 
 func (n namer) match(name string, stop map[string]bool) bool {
-	if len(name) < 3 || len(name) > 200 {
+	if len(name) < 3 || len(name) > 200 || n.extra == nil && !mentions(name) {
 		return false
 	}
 	found := false

@@ -2,6 +2,7 @@ package find
 
 import (
 	"bytes"
+	"sort"
 	"strings"
 )
 
@@ -129,14 +130,10 @@ func (p *pragmas) allowed(off int) bool {
 	if p.skip[l] {
 		return false
 	}
-	on := true
-	for _, s := range p.switches {
-		if s.line > l {
-			break
-		}
-		on = s.on
-	}
-	return on
+	// The last switch at or before the line decides; switches are in
+	// line order, so a binary search keeps many pragmas cheap.
+	k := sort.Search(len(p.switches), func(i int) bool { return p.switches[i].line > l })
+	return k == 0 || p.switches[k-1].on
 }
 
 // forced reports whether a "notation" directive covers offset off.

@@ -25,13 +25,16 @@ var python = &codeLang{
 			len(pc.quote) == 1 && strings.ContainsAny(text, "\n"+pc.quote) {
 			return "", false
 		}
-		prefix := strings.NewReplacer("u", "", "U", "").Replace(pc.prefix)
+		prefix := dropUnicode.Replace(pc.prefix)
 		if !strings.ContainsAny(prefix, "rR") {
 			prefix = "r" + prefix
 		}
 		return prefix + pc.quote + text + pc.quote, true
 	},
 }
+
+// dropUnicode removes the u prefix, which cannot be combined with r.
+var dropUnicode = strings.NewReplacer("u", "", "U", "")
 
 func lexPython(src []byte, prag *pragmas) []token {
 	return joinAdjacent(lex(src, prag, pythonHook))

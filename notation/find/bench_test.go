@@ -1,0 +1,49 @@
+package find
+
+import (
+	"bytes"
+	"fmt"
+	"os"
+	"path/filepath"
+	"testing"
+)
+
+// BenchmarkFindList measures the list path on a 100,000-record .smi file
+// (the hot path for large libraries); b.SetBytes makes the result MB/s.
+func BenchmarkFindList(b *testing.B) {
+	var buf bytes.Buffer
+	records := []string{"F/C=C/F", "N[C@@H](C)C(=O)O", "C1CCCCC1", "CC(=O)Oc1ccccc1C(=O)O", "C/C=C\\C"}
+	for i := 0; i < 100000; i++ {
+		fmt.Fprintf(&buf, "%s compound-%d\n", records[i%len(records)], i)
+	}
+	src := buf.Bytes()
+	b.SetBytes(int64(len(src)))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if n := len(FindKind(KindList, src, Config{})); n != 100000 {
+			b.Fatalf("%d records", n)
+		}
+	}
+}
+
+// BenchmarkFindPython measures a large Python file: the ordinary service
+// module of the negative corpus and the Python marker file, repeated to
+// about 1 MB.
+func BenchmarkFindPython(b *testing.B) {
+	var unit []byte
+	for _, p := range []string{"negatives/service.py", "markers/python.py"} {
+		s, err := os.ReadFile(filepath.Join("testdata", p))
+		if err != nil {
+			b.Fatal(err)
+		}
+		unit = append(unit, s...)
+	}
+	src := bytes.Repeat(unit, 1<<20/len(unit)+1)
+	b.SetBytes(int64(len(src)))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		FindKind(KindPython, src, Config{})
+	}
+}

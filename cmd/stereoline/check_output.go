@@ -110,11 +110,11 @@ func (s checkSummary) line(changedOnly bool) string {
 		total += n
 	}
 	var b strings.Builder
-	fmt.Fprintf(&b, "stereoline: %s, %s", plural(s.files, "file"), plural(s.records, "record"))
+	fmt.Fprintf(&b, "stereoline: %s", plural(s.files, "file"))
 	if s.skipped > 0 {
 		fmt.Fprintf(&b, " (%d skipped)", s.skipped)
 	}
-	fmt.Fprintf(&b, ", %s", plural(total, "diagnostic"))
+	fmt.Fprintf(&b, ", %s, %s", plural(s.records, "record"), plural(total, "diagnostic"))
 	if changedOnly {
 		b.WriteString(" on changed lines")
 	}

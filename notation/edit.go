@@ -204,6 +204,13 @@ func atomAt(m *Molecule, atom int) (*Atom, error) {
 	if at.Span.Start < 0 || at.Span.End > len(m.Text) || at.Span.Len() == 0 {
 		return nil, editError(at.Span, CodeEditRange, "atom has no place in the text")
 	}
+	c := at.Chirality.Span
+	if at.Chirality.Class != ChiralNone && (c.Start < at.Span.Start || c.End > at.Span.End || c.Len() == 0) {
+		return nil, editError(at.Span, CodeEditRange, "chirality mark has no place in the atom")
+	}
+	if at.Bracket && (at.Span.Len() < 2 || symbolEnd(m, at) > at.Span.End-1) {
+		return nil, editError(at.Span, CodeEditRange, "bracket atom symbol not found")
+	}
 	return at, nil
 }
 

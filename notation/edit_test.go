@@ -197,3 +197,41 @@ func TestBondDirectionEdits(t *testing.T) {
 		})
 	}
 }
+
+// FuzzEdits runs every edit helper on every atom and bond of whatever
+// the reader makes of a text: no helper may panic, and every edit it
+// returns must apply and stay inside the token it is about.
+func FuzzEdits(f *testing.F) {
+	for _, s := range []string{"N[C@@H](C)C(=O)O", "F/C=C/1.Cl/1", "[13C@H](F)(Cl)Br", "c1ccccc1-c1ccccc1", "OC(Cl)=[C@]=C(C)F"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		if len(s) > 1000 {
+			return
+		}
+		m := Read(s)
+		for i := range m.Atoms {
+			for _, mark := range []string{"@", "@@", "@TH2", ""} {
+				edits, err := SetChirality(m, i, mark)
+				if err == nil {
+					applyOn(t, m, m.Atoms[i].Span, edits)
+				}
+			}
+			if edits, err := InvertChirality(m, i); err == nil {
+				applyOn(t, m, m.Atoms[i].Span, edits)
+			}
+		}
+		for b := range m.Bonds {
+			bd := m.Bonds[b]
+			token := bd.Span
+			if bd.Ring {
+				token = bd.Span.Union(bd.CloseSpan)
+			}
+			for _, d := range []Direction{DirUp, DirDown, DirNone} {
+				if edits, err := SetBondDirection(m, b, bd.Begin, d); err == nil {
+					applyOn(t, m, token, edits)
+				}
+			}
+		}
+	})
+}

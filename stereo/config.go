@@ -34,6 +34,7 @@ type bondConfig struct {
 	refs  [2]int
 	trans bool
 	spans []notation.Span
+	marks []int // the marked single bonds at both ends
 }
 
 // alleneConfig is an extended tetrahedral mark on the centre of an even

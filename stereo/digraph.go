@@ -133,24 +133,30 @@ func (d *digraph) expand(n nodeID) {
 		}
 		return float64(g.z[of])
 	}
+	dupMass := func(carrier, of int, bond int) float64 {
+		if g.inMancude(carrier, of) && g.ringBond[bond] {
+			return g.mancudeM[carrier]
+		}
+		return g.mass[of]
+	}
 	for _, e := range g.adj[a] {
 		if e.bond == x.bond {
 			// the bond back to the parent: only its extra orders appear
 			for i := 1; i < e.cip; i++ {
 				push(d.add(node{atom: e.to, kind: nodeDuplicate, parent: n, depth: x.depth + 1,
-					z: dupZ(a, e.to, e.bond), mass: g.mass[e.to], corr: x.parent, bond: e.bond, expanded: true}))
+					z: dupZ(a, e.to, e.bond), mass: dupMass(a, e.to, e.bond), corr: x.parent, bond: e.bond, expanded: true}))
 			}
 			continue
 		}
 		if anc := d.onPath(n, e.to); anc != noNode {
 			// a ring closure back to an atom already on the path
 			for i := 0; i < e.cip; i++ {
-				z := float64(g.z[e.to])
+				z, mass := float64(g.z[e.to]), g.mass[e.to]
 				if i > 0 {
-					z = dupZ(a, e.to, e.bond)
+					z, mass = dupZ(a, e.to, e.bond), dupMass(a, e.to, e.bond)
 				}
 				push(d.add(node{atom: e.to, kind: nodeDuplicate, parent: n, depth: x.depth + 1,
-					z: z, mass: g.mass[e.to], corr: anc, bond: e.bond, expanded: true, ringDup: i == 0}))
+					z: z, mass: mass, corr: anc, bond: e.bond, expanded: true, ringDup: i == 0}))
 			}
 			continue
 		}
@@ -162,7 +168,7 @@ func (d *digraph) expand(n nodeID) {
 		push(k)
 		for i := 1; i < e.cip; i++ {
 			push(d.add(node{atom: e.to, kind: nodeDuplicate, parent: n, depth: x.depth + 1,
-				z: dupZ(a, e.to, e.bond), mass: g.mass[e.to], corr: k, bond: e.bond, expanded: true}))
+				z: dupZ(a, e.to, e.bond), mass: dupMass(a, e.to, e.bond), corr: k, bond: e.bond, expanded: true}))
 		}
 	}
 	for i := 0; i < g.hyd[a]; i++ {

@@ -18,6 +18,7 @@ type graph struct {
 	ringAtom   []bool
 	rings      [][]int   // smallest ring through each ring bond, deduplicated
 	mancudeZ   []float64 // for an atom of a mancude ring system, the atomic number of its duplicate
+	mancudeM   []float64 // and the mass of that duplicate, averaged the same way
 	smallRing  []int     // per bond: size of the smallest ring containing it, 0 when acyclic
 	ringOf     [][]int   // per bond: the atoms of that smallest ring
 	components []int
@@ -202,6 +203,7 @@ func ringKey(ring []int) string {
 // the Kekulé structures, approximated by its neighbours in the system.
 func (g *graph) findMancude() {
 	g.mancudeZ = make([]float64, g.n)
+	g.mancudeM = make([]float64, g.n)
 	in := make([]bool, g.n)
 	sp2 := make([]bool, g.n)
 	for a := 0; a < g.n; a++ {
@@ -264,15 +266,17 @@ func (g *graph) findMancude() {
 		if !in[a] || !sp2[a] {
 			continue
 		}
-		sum, cnt := 0, 0
+		sum, cnt, mass := 0, 0, 0.0
 		for _, e := range g.adj[a] {
 			if in[e.to] && sp2[e.to] && g.ringBond[e.bond] {
 				sum += g.z[e.to]
+				mass += g.mass[e.to]
 				cnt++
 			}
 		}
 		if cnt > 0 {
 			g.mancudeZ[a] = float64(sum) / float64(cnt)
+			g.mancudeM[a] = mass / float64(cnt)
 		}
 	}
 }

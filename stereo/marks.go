@@ -33,7 +33,9 @@ func (l *labeller) readBonds() {
 		for e := 0; e < 2; e++ {
 			atoms, ss, spans := g.markedSides(c.ends[e], c.inner[e])
 			for _, x := range atoms {
-				l.usedBondMarks[m.BondBetween(x, c.ends[e])] = true
+				mb := m.BondBetween(x, c.ends[e])
+				l.usedBondMarks[mb] = true
+				c.marks = append(c.marks, mb)
 			}
 			c.spans = append(c.spans, spans...)
 			if len(atoms) == 0 {

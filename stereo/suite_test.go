@@ -108,3 +108,68 @@ func TestValidationSuite(t *testing.T) {
 		t.Errorf("%d compounds differ", len(cases)-pass)
 	}
 }
+
+// TestValidationSuiteMarks checks the other half of the suite's README:
+// a mark on a unit with no expected label must be reported as
+// ineffective, and a labelled unit must not be.
+func TestValidationSuiteMarks(t *testing.T) {
+	cases := readSuite(t)
+	bad := 0
+	for _, c := range cases {
+		m := notation.Read(c.smiles)
+		a := Analyze(m)
+		labelled := map[int]bool{}
+		for _, w := range c.want {
+			n, _ := strconv.Atoi(strings.TrimRight(w, "RSrsEZezMPmp"))
+			labelled[n-1] = true
+		}
+		ineffective := func(sp notation.Span, code notation.Code) bool {
+			for _, e := range a.Diagnostics {
+				if e.Code == code && e.Span.Overlaps(sp) {
+					return true
+				}
+			}
+			return false
+		}
+		for i := range m.Atoms {
+			ch := m.Atoms[i].Chirality
+			if ch.Class == notation.ChiralNone {
+				continue
+			}
+			if _, ok := l0(m, i); ok && !labelled[i] {
+				// extended tetrahedral marks are labelled on the terminals
+				continue
+			}
+			has := ineffective(ch.Span, CodeIneffectiveCenter)
+			if labelled[i] == has {
+				bad++
+				t.Errorf("%s: atom %d labelled=%v but ineffective-center=%v  %s", c.id, i+1, labelled[i], has, c.smiles)
+			}
+		}
+		for bi := range m.Bonds {
+			b := &m.Bonds[bi]
+			if b.Dir == notation.DirNone && b.CloseDir == notation.DirNone {
+				continue
+			}
+			// the double bond this mark belongs to is labelled when the
+			// marked atom's neighbour across it is
+			anyLabelled := labelled[b.Begin] || labelled[b.End]
+			if anyLabelled {
+				if ineffective(markSpan(b), CodeIneffectiveBond) {
+					bad++
+					t.Errorf("%s: mark on bond %d-%d of a labelled unit reported ineffective  %s", c.id, b.Begin+1, b.End+1, c.smiles)
+				}
+			}
+		}
+	}
+	if bad > 0 {
+		t.Logf("%d marks misreported", bad)
+	}
+}
+
+// l0 reports whether atom a is the centre of an allene-type unit.
+func l0(m *notation.Molecule, a int) (int, bool) {
+	g := newGraph(m)
+	_, _, ok := g.alleneEnds(a)
+	return a, ok
+}

@@ -26,7 +26,12 @@ func (l *labeller) labelAll() {
 		l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1,
 			Specified: true, Descriptor: lb.desc, Ranked: lb.ranked, Decisions: lb.decisions, Marks: []notation.Span{t.span}})
 	}
+	// double bonds first, so that a mark shared with a neighbouring
+	// double bond (conjugated chains, a benzene ring next to a marked
+	// chain) is not blamed on the unit that cannot use it
 	done := map[*bondConfig]bool{}
+	var quiet []*bondConfig // units whose marks may belong to another unit
+	effective := map[int]bool{}
 	for _, bi := range sortedKeys(l.cfg.bonds) {
 		c := l.cfg.bonds[bi]
 		if done[c] {
@@ -35,17 +40,16 @@ func (l *labeller) labelAll() {
 		done[c] = true
 		l.unitBonds[c.bond] = true
 		if size := l.ringSize(c); size > 0 && size < 8 {
-			if l.transInRing(c) {
-				l.fail(c.spans[0], CodeStrainedRing, "trans double bond in a ring of %d atoms; the smallest ring that holds one has 8", size)
-			} else {
-				l.warn(c.spans[0], CodeIneffectiveBond, "a double bond in a ring of %d atoms can only be cis; the marks add nothing", size)
-			}
+			quiet = append(quiet, c)
 			continue
 		}
 		lb := l.doubleBond(c)
 		if lb.tie {
-			l.warn(c.spans[0], CodeIneffectiveBond, "marks on a double bond that is not stereogenic: one end carries two equal ligands")
+			quiet = append(quiet, c)
 			continue
+		}
+		for _, mb := range c.marks {
+			effective[mb] = true
 		}
 		if lb.capped {
 			l.warn(c.spans[0], CodeUndetermined, "configuration too deep to label within %d digraph nodes", l.nodeCap)
@@ -53,8 +57,33 @@ func (l *labeller) labelAll() {
 		l.res.Units = append(l.res.Units, Unit{Kind: KindDoubleBond, Atoms: []int{c.ends[0], c.ends[1]}, Centre: -1, Bond: c.bond,
 			Specified: true, Descriptor: lb.desc, Ranked: lb.ranked, Decisions: lb.decisions, Marks: c.spans})
 	}
+	shared := func(c *bondConfig) bool {
+		for _, mb := range c.marks {
+			if !effective[mb] {
+				return false
+			}
+		}
+		return true
+	}
+	for _, c := range quiet {
+		if shared(c) {
+			continue
+		}
+		size := l.ringSize(c)
+		switch {
+		case size > 0 && size < 8 && l.g.mancudeZ[c.ends[0]] == 0 && l.transInRing(c):
+			l.fail(c.spans[0], CodeStrainedRing, "trans double bond in a ring of %d atoms; the smallest ring that holds one has 8", size)
+		case size > 0 && size < 8:
+			l.warn(c.spans[0], CodeIneffectiveBond, "a double bond in a ring of %d atoms can only be cis; the marks add nothing", size)
+		default:
+			l.warn(c.spans[0], CodeIneffectiveBond, "marks on a double bond that is not stereogenic: one end carries two equal ligands")
+		}
+	}
 	for _, c := range l.oneSided {
 		l.unitBonds[c.bond] = true
+		if shared(c) {
+			continue
+		}
 		probe := *c
 		lb := l.doubleBond(&probe)
 		if lb.tie || (l.ringSize(c) > 0 && l.ringSize(c) < 8) {

@@ -57,6 +57,9 @@ type frame struct {
 	// notation, 2 after an operator whose left side did not (a keyword
 	// argument sanitize=...), 0 otherwise.
 	val int
+	// about: the key just read is about the notation ("name"), so the
+	// value after ':' is not notation even inside a notation collection.
+	about bool
 }
 
 func (f *frame) taken() bool { return f.val == 1 || f.val == 0 && f.base }
@@ -106,15 +109,19 @@ func (cf *codeFinder) walk(toks []token) {
 		case tNumber:
 		case tNewline:
 			if f.open == 0 || f.open == '{' && cf.lang.braceBlocks {
-				f.seg, f.val = false, 0
+				f.seg, f.val, f.about = false, 0, false
 			}
 		case tString:
 			next := nextToken(toks, i)
-			key := next >= 0 && toks[next].kind == tPunct && cf.text(toks[next])[0] == ':' && len(cf.text(toks[next])) == 1 ||
+			// A string before ':' inside braces is a key ({"smiles": ...});
+			// elsewhere the colon ends a statement head (if s == "CCO":).
+			key := f.open == '{' && next >= 0 && cf.is(toks[next], ":") ||
 				f.subscript && next >= 0 && cf.is(toks[next], "]")
 			if key {
-				if !t.lit.skip && cf.nm.value(cf.keyText(t)) {
-					f.seg = true
+				if !t.lit.skip {
+					k := cf.keyText(t)
+					f.seg = cf.nm.value(k)
+					f.about = !f.seg && aboutKey(k)
 				}
 				continue
 			}
@@ -130,14 +137,17 @@ func (cf *codeFinder) walk(toks []token) {
 				}
 				f.seg = false
 			case ":":
-				if f.seg {
+				switch {
+				case f.seg:
 					f.val = 1
-				} else if f.val != 1 {
+				case f.about:
+					f.val = 2
+				case f.val != 1:
 					f.val = 0
 				}
-				f.seg = false
+				f.seg, f.about = false, false
 			case ",", ";":
-				f.seg, f.val = false, 0
+				f.seg, f.val, f.about = false, 0, false
 			case "(", "[", "{":
 				frames = append(frames, cf.open(toks, i, f))
 			case ")", "]", "}":
@@ -223,9 +233,10 @@ func (cf *codeFinder) literal(t token, named bool) {
 			cf.records(lit, d, &m, text, reason)
 			return
 		}
-		recEnd, ts, te := splitRecord(d.text)
-		if reason == ReasonPragma && recEnd > 0 || plausible(text[:recEnd]) {
-			cf.emit(lit, d, &m, 0, recEnd, text[ts:te], reason)
+		// One line is one record without a title: prose such as
+		// "see table 2" in a smiles variable is not a record.
+		if reason == ReasonPragma && text != "" || plausible(text) {
+			cf.emit(lit, d, &m, 0, len(text), "", reason)
 		}
 		return
 	}

@@ -28,7 +28,7 @@ func (t lineTable) line(off int) int {
 func splitRecord(line []byte) (recEnd, titleStart, titleEnd int) {
 	recEnd = len(line)
 	for i, c := range line {
-		if c == ' ' || c == '\t' {
+		if c == ' ' || c == '\t' || c == '\r' {
 			recEnd = i
 			break
 		}
@@ -56,3 +56,13 @@ func splitRecord(line []byte) (recEnd, titleStart, titleEnd int) {
 }
 
 func isBlank(c byte) bool { return c == ' ' || c == '\t' || c == '\r' }
+
+// skipBOM returns where the text of a file starts: after a UTF-8 byte
+// order mark, which spreadsheet and editor exports on Windows write
+// (common practice) and which is no part of the first record or header.
+func skipBOM(src []byte) int {
+	if len(src) >= 3 && src[0] == 0xef && src[1] == 0xbb && src[2] == 0xbf {
+		return 3
+	}
+	return 0
+}

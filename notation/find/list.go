@@ -19,7 +19,7 @@ func findList(src []byte) []Occurrence {
 	text := string(src)
 	out := make([]Occurrence, 0, bytes.Count(src, []byte{'\n'})+1)
 	first := true
-	for start := 0; start < len(src); {
+	for start := skipBOM(src); start < len(src); {
 		end := bytes.IndexByte(src[start:], '\n')
 		if end < 0 {
 			end = len(src)

@@ -35,7 +35,7 @@ func findTable(src []byte, sep byte, cfg *Config) []Occurrence {
 		header   = true
 	)
 	var rec []tableCell
-	for i := 0; i < len(src); {
+	for i := skipBOM(src); i < len(src); {
 		rec, i = readRecord(src, i, sep, rec[:0])
 		if header {
 			header = false

@@ -8,8 +8,10 @@ import (
 )
 
 // WriteOptions chooses among the many valid writings of one molecule.
-// The zero value writes each part from its lowest-numbered atom, follows
-// bonds in the order they were read and keeps aromatic atoms aromatic.
+// The zero value writes each part from its lowest-numbered atom, visits
+// neighbours in the order of their atom numbers (so a molecule read from
+// text comes out much as it was written) and keeps aromatic atoms
+// aromatic.
 type WriteOptions struct {
 	// Start is the atom the writing of its part begins with. Other parts
 	// begin with their lowest-numbered atom (or a random one). Zero is
@@ -49,8 +51,9 @@ type Written struct {
 // as seen in the direction the bond is written, so both kinds of stereo
 // keep their meaning. A reaction keeps its reactant>agent>product layout.
 //
-// Write is linear in the size of the molecule and does not recurse, so a
-// long chain cannot exhaust the stack.
+// Write takes time linear in the size of the molecule (times the number
+// of ring closures open at once, for choosing free numbers) and does not
+// recurse, so a long chain cannot exhaust the stack.
 func Write(m *Molecule, opt WriteOptions) Written {
 	w := &writer{m: m, opt: opt}
 	w.init()

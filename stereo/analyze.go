@@ -156,7 +156,14 @@ func (l *labeller) readCentres() {
 				l.fail(sp, CodeImpossibleCenter, "tetrahedral mark on a three-coordinate atom without a lone pair")
 				continue
 			}
-			l.cfg.tetra[a] = &tetraConfig{centre: a, ligands: stereoLigands(m, a), winding: ch.Num,
+			ligs := stereoLigands(m, a)
+			if count == 3 {
+				// the lone pair takes the slot an implicit hydrogen would
+				// (OpenSMILES 1.0, 3.9.1)
+				slot := min(at.HydrogenSlot(), len(ligs))
+				ligs = append(ligs[:slot], append([]int{implicitLigand}, ligs[slot:]...)...)
+			}
+			l.cfg.tetra[a] = &tetraConfig{centre: a, ligands: ligs, winding: ch.Num,
 				lonePair: count == 3, span: sp}
 		case notation.ChiralSP, notation.ChiralTB, notation.ChiralOH:
 			kind, need := KindSquarePlanar, 4

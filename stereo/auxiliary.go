@@ -44,6 +44,9 @@ func (d *digraph) computeAux(n nodeID) Descriptor {
 	if t, ok := d.cfg.tetra[a]; ok {
 		return d.auxTetrahedral(n, t)
 	}
+	if c, ok := d.cfg.allene[a]; ok {
+		return d.auxAllene(n, c)
+	}
 	// a configured double bond from this atom to a tree neighbour
 	for _, y := range d.neighbours(n, noNode) {
 		if d.nodes[y].kind != nodeAtom {
@@ -146,6 +149,68 @@ func (d *digraph) topLigand(n, partner nodeID) (int, bool, bool) {
 		return 0, false, false
 	}
 	return d.ligandAtom(r.order[0]), r.pseudo, true
+}
+
+// auxAllene labels an allene centre node: the terminal on the root side
+// is its parent, the far terminal its child.
+func (d *digraph) auxAllene(n nodeID, c *alleneConfig) Descriptor {
+	p := d.nodes[n].parent
+	if p == noNode || d.nodes[p].kind != nodeAtom {
+		return DescNone
+	}
+	near := -1
+	for e := 0; e < 2; e++ {
+		if c.ends[e] == d.nodes[p].atom && c.inner[e] == c.centre {
+			near = e
+		}
+	}
+	if near < 0 {
+		return DescNone
+	}
+	far := noNode
+	for _, k := range d.kids(n) {
+		if d.nodes[k].kind == nodeAtom && d.nodes[k].atom == c.ends[1-near] {
+			far = k
+		}
+	}
+	if far == noNode {
+		return DescNone
+	}
+	rankOf := map[[2]int]int{}
+	isPseudo := false
+	for i, end := range [2]nodeID{p, far} {
+		e := near
+		if i == 1 {
+			e = 1 - near
+		}
+		ligs := d.ligandsOf(end, n)
+		if len(ligs) != 2 {
+			return DescNone
+		}
+		r := d.rankLigands(end, ligs)
+		if r.tie || d.capped {
+			return DescNone
+		}
+		isPseudo = isPseudo != r.pseudo
+		for k, nd := range r.order {
+			rankOf[[2]int{e, d.ligandAtom(nd)}] = 2*e + k + 1
+		}
+	}
+	ranks := make([]int, 4)
+	for i, a := range c.ligands {
+		ranks[i] = rankOf[[2]int{c.ligEnd[i], a}]
+		if ranks[i] == 0 {
+			return DescNone
+		}
+	}
+	x := DescM
+	if tetrahedralDescriptor(ranks, c.winding) == DescS {
+		x = DescP
+	}
+	if isPseudo {
+		x = pseudo(x)
+	}
+	return x
 }
 
 // pseudo returns the lowercase form of a descriptor.

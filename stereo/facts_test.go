@@ -31,6 +31,10 @@ func TestHandCheckedFacts(t *testing.T) {
 		// (R), worked by hand
 		{"sulfoxide", "C[S@@](=O)c1ccccc1", "2R", "worked by hand"},
 		{"sulfoxide mirror", "C[S@](=O)c1ccccc1", "2S", "worked by hand"},
+		// the same centre written from the sulfur: the lone pair is
+		// then the first ligand; [S@@](C)(=O)c1ccccc1 reads Me, O, Ph
+		// clockwise from the lone pair, anticlockwise from the back: (S)
+		{"sulfoxide written first", "[S@@](C)(=O)c1ccccc1", "1S", "worked by hand"},
 		// quaternary ammonium: phenyl > propyl > ethyl > methyl (Rule 1a
 		// at the first and second spheres), written in the order 4 3 2 1
 		// with '@@': (R), worked by hand

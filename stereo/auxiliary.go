@@ -30,11 +30,17 @@ func (d *digraph) auxFor(root, n nodeID) Descriptor {
 }
 
 // mirrorAux is the auxiliary descriptor of the same node in the mirror
-// image: chiral labels swap, pseudoasymmetric and E/Z labels stay.
+// image: chiral labels swap, pseudoasymmetric r/s and plain E/Z stay,
+// and e/z swap, because a double bond labelled e or z owes its ranking to
+// enantiomorphic ligands at one end, which trade places in the mirror.
 func mirrorAux(x Descriptor) Descriptor {
 	switch x {
 	case DescR, DescS, DescM, DescP:
 		return x.Mirror()
+	case DescPseudoE:
+		return DescPseudoZ
+	case DescPseudoZ:
+		return DescPseudoE
 	}
 	return x
 }

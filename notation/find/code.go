@@ -55,8 +55,12 @@ type frame struct {
 	seg bool
 	// val: 1 inside the value after an operator whose left side named
 	// notation, 2 after an operator whose left side did not (a keyword
-	// argument sanitize=...), 0 otherwise.
+	// argument sanitize=...), 3 after one whose left side named something
+	// about the notation (smiles_file =, reaction_smarts =), whose value
+	// is not even guessed; 0 otherwise.
 	val int
+	// other: the current segment named something about the notation.
+	other bool
 	// about: the key just read is about the notation ("name"), so the
 	// value after ':' is not notation even inside a notation collection.
 	about bool
@@ -103,13 +107,16 @@ func (cf *codeFinder) walk(toks []token) {
 		f := &frames[len(frames)-1]
 		switch t.kind {
 		case tIdent:
-			if cf.nm.value(cf.textS(t)) {
+			name := cf.textS(t)
+			if cf.nm.value(name) {
 				f.seg = true
+			} else if cf.nm.other(name) {
+				f.other = true
 			}
 		case tNumber:
 		case tNewline:
 			if f.open == 0 || f.open == '{' && cf.lang.braceBlocks {
-				f.seg, f.val, f.about = false, 0, false
+				f.seg, f.val, f.about, f.other = false, 0, false, false
 			}
 		case tString:
 			next := nextToken(toks, i)
@@ -122,32 +129,38 @@ func (cf *codeFinder) walk(toks []token) {
 					k := cf.keyText(t)
 					f.seg = cf.nm.value(k)
 					f.about = !f.seg && aboutKey(k)
+					f.other = cf.nm.other(k)
 				}
 				continue
 			}
-			cf.literal(t, f.taken())
+			cf.literal(t, f.taken(), f.val == 3)
 		case tPunct:
 			p := cf.text(t)
 			switch string(p) {
 			case "=", ":=", "==", "<-", "+=":
-				if f.seg || f.val == 1 {
+				switch {
+				case f.seg || f.val == 1:
 					f.val = 1
-				} else {
+				case f.other:
+					f.val = 3
+				default:
 					f.val = 2
 				}
-				f.seg = false
+				f.seg, f.other = false, false
 			case ":":
 				switch {
 				case f.seg:
 					f.val = 1
+				case f.other:
+					f.val = 3
 				case f.about:
 					f.val = 2
 				case f.val != 1:
 					f.val = 0
 				}
-				f.seg, f.about = false, false
+				f.seg, f.about, f.other = false, false, false
 			case ",", ";":
-				f.seg, f.val, f.about = false, 0, false
+				f.seg, f.val, f.about, f.other = false, 0, false, false
 			case "(", "[", "{":
 				frames = append(frames, cf.open(toks, i, f))
 			case ")", "]", "}":
@@ -210,7 +223,7 @@ func (cf *codeFinder) keyText(t token) string {
 }
 
 // literal decides about one string literal and records what it yields.
-func (cf *codeFinder) literal(t token, named bool) {
+func (cf *codeFinder) literal(t token, named, noGuess bool) {
 	lit := t.lit
 	if lit.skip || !cf.prag.allowed(t.span.Start) {
 		return
@@ -219,7 +232,7 @@ func (cf *codeFinder) literal(t token, named bool) {
 	if cf.prag.forced(t.span.Start) {
 		named, reason = true, ReasonPragma
 	}
-	if !named && (cf.cfg.NoGuess || !mayGuess(cf.src, lit)) {
+	if !named && (noGuess || cf.cfg.NoGuess || !mayGuess(cf.src, lit)) {
 		return
 	}
 	d := &decoded{}

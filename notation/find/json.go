@@ -234,7 +234,7 @@ func jsonEscape(s string) string {
 // unmistakably notation. Keys themselves are never notation.
 func findJSON(src []byte, cfg *Config) []Occurrence {
 	jf := &jsonFinder{src: src, cfg: cfg, nm: newNamer(cfg)}
-	jf.walk(parseJSON(src), false)
+	jf.walk(parseJSON(src), false, false)
 	return jf.out
 }
 
@@ -245,19 +245,24 @@ type jsonFinder struct {
 	out []Occurrence
 }
 
-func (jf *jsonFinder) walk(v jsonValue, named bool) {
+// walk visits a value; named says a key above names the notation, other
+// that one names something about it ("smiles_file"), whose values are
+// not guessed.
+func (jf *jsonFinder) walk(v jsonValue, named, other bool) {
 	switch v.kind {
 	case 'o':
 		for k := range v.vals {
 			key := jf.keyText(v.keys[k])
-			jf.walk(v.vals[k], jf.nm.value(key) || named && !aboutKey(key))
+			jf.walk(v.vals[k], jf.nm.value(key) || named && !aboutKey(key), other || jf.nm.other(key))
 		}
 	case 'a':
 		for _, e := range v.vals {
-			jf.walk(e, named)
+			jf.walk(e, named, other)
 		}
 	case 's':
-		jf.str(v, named)
+		if named || !other {
+			jf.str(v, named)
+		}
 	}
 }
 

@@ -67,6 +67,9 @@ var aboutWords = map[string]bool{
 	"flag": true, "flags": true, "attr": true, "tag": true, "sheet": true, "table": true,
 	"title": true, "description": true, "desc": true, "comment": true, "note": true,
 	"error": true, "message": true, "msg": true, "status": true, "time": true, "date": true,
+	// Query notation is another language: its operators are errors to
+	// a reader of SMILES (reaction_smarts, MolFromSmarts).
+	"smarts": true, "smirks": true, "smart": true, "query": true,
 }
 
 // pathWords are the subset of aboutWords that, in a function name, say
@@ -74,6 +77,7 @@ var aboutWords = map[string]bool{
 var pathWords = map[string]bool{
 	"file": true, "files": true, "filename": true, "path": true, "dir": true, "url": true,
 	"column": true, "col": true, "folder": true,
+	"smarts": true, "smirks": true, "smart": true, "query": true,
 }
 
 // mentions is a quick test, without allocation, that name contains one
@@ -132,6 +136,21 @@ func (n namer) value(name string) bool { return n.match(name, aboutWords) }
 // call reports whether a function name says that its string arguments
 // are notation.
 func (n namer) call(name string) bool { return n.match(name, pathWords) }
+
+// other reports whether a name mentions the notation but says its value
+// is something else about it (smiles_file, reaction_smarts): such a value
+// is not even guessed.
+func (n namer) other(name string) bool {
+	if len(name) < 3 || len(name) > 200 || n.extra == nil && !mentions(name) {
+		return false
+	}
+	word, stop := false, false
+	for _, p := range nameParts(name) {
+		word = word || n.word(p)
+		stop = stop || aboutWords[p]
+	}
+	return word && stop
+}
 
 func (n namer) match(name string, stop map[string]bool) bool {
 	if len(name) < 3 || len(name) > 200 || n.extra == nil && !mentions(name) {

@@ -1,0 +1,73 @@
+// Package find finds line notation (SMILES and reaction SMILES records)
+// inside host files and maps positions between the notation and the host.
+//
+// # Use
+//
+//	occs := find.Find("analysis.ipynb", content, find.Config{})
+//	for i := range occs {
+//		o := &occs[i]
+//		m := notation.Read(o.Text)
+//		for _, e := range m.Errors {
+//			span := o.HostSpan(e.Span) // host byte offsets
+//			...
+//		}
+//		// o.Diagnostics: host problems (host-escape), already in host
+//		// offsets, with o.Fixes[i] for Diagnostics[i].
+//	}
+//
+// Find picks the host kind from the file name (KindForName); Config.Kind
+// overrides it (for standard input with --stdin-name, pass that name, or
+// set the kind). An editor that knows a document's language identifier
+// calls FindKind(KindFor(languageID), text, cfg); notebook cells that an
+// editor synchronises as documents of their own are analysed that way,
+// with offsets into the cell.
+//
+// # What is found
+//
+//   - Lists (.smi .smiles .rsmi .cxsmi .cxsmiles .ism .can): one record a
+//     line, the title after the first blank, '#' lines and blank lines
+//     skipped.
+//   - Tables (.csv .tsv): cells of columns whose header names structures
+//     (see findTable), with RFC 4180 quoting.
+//   - Source code (Python, JavaScript and TypeScript, Go, R, Julia, Rust,
+//     Java, Kotlin): string literals by the rules of findCode — named by
+//     a variable, key, argument or function, or unmistakably notation.
+//   - Markdown: code spans that are unmistakably notation or introduced
+//     by the word SMILES, fenced blocks tagged smiles (one record a line),
+//     fenced blocks in a language above.
+//   - JSON and YAML: string values under notation-named keys, and
+//     unmistakable values anywhere.
+//   - Notebooks (.ipynb): code cells in the notebook's language, markdown
+//     cells as Markdown, through the JSON escapes of the cell source.
+//
+// Python's adjacent literals ("F/C=C" "/F") are joined into one
+// occurrence, as Python joins them; its map is piecewise, and host
+// offsets between the pieces map to no notation offset. f-strings, byte
+// strings, interpolated and template strings with substitutions are not
+// fixed text and are skipped.
+//
+// # Escapes
+//
+// The notation analysed is the notation as the author wrote it: an
+// escape the host resolves harmlessly (`\\` for one backslash, an escaped
+// quote, `""` in a CSV cell) is resolved; a backslash the host would eat
+// (`\1` in a Python string, `\/` in JavaScript, `\C` in Go) is kept and
+// reported as a host-escape diagnostic, error or warning as the language
+// treats it, with fixes (a raw string, doubled backslashes). The offset
+// map of each occurrence is the only place that knows how notation bytes
+// sit in the host; callers never compute offsets themselves.
+//
+// # Pragmas
+//
+// A comment containing "stereoline: off", "stereoline: on",
+// "stereoline: skip", "stereoline: skip-next" or "stereoline: notation"
+// switches detection off and on from its line, skips its line or the
+// next one, or makes every literal on its line notation. See pragma.go.
+//
+// # Guarantees
+//
+// Find never panics and never fails; malformed hosts give what can be
+// found. Time and memory are linear in the input (FuzzFind, TestNoBlowUp).
+// Occurrences come in host order within each scanner; spans are inside
+// the content; maps are monotone.
+package find

@@ -36,6 +36,8 @@ type node struct {
 	kids     []nodeID
 	expanded bool
 	ringDup  bool // a duplicate closing a ring (a real ligand), not an extra bond order
+	// sorted caches the children in rule order for the root's plain view
+	sorted [numRules]*[]nodeID
 }
 
 // digraph is one hierarchical digraph. It belongs to one labelling call

@@ -61,9 +61,7 @@ func init() {
 // the difference lies.
 func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
 	key := cmpKey{root: root, a: a, af: af, b: b, bf: bf, rule: r, ref: -1}
-	if root == 0 {
-		key.ref, key.mirror = d.refAtom, d.mirror
-	}
+	key.ref, key.mirror = d.viewState(root, r)
 	if v, ok := d.compared[key]; ok {
 		return v[0], v[1]
 	}
@@ -188,12 +186,18 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 	if n == noNode {
 		return nil
 	}
-	key := sortKey{n: n, from: from, root: root, level: int(r), ref: -1}
-	if root == 0 {
-		key.ref, key.mirror = d.refAtom, d.mirror
+	ref, mirror := d.viewState(root, r)
+	fast := root == 0 && from == d.nodes[n].parent && ref < 0 && !mirror
+	if fast {
+		if s := d.nodes[n].sorted[r]; s != nil {
+			return *s
+		}
 	}
-	if s, ok := d.sorted[key]; ok {
-		return s
+	key := sortKey{n: n, from: from, root: root, level: int(r), ref: ref, mirror: mirror}
+	if !fast {
+		if s, ok := d.sorted[key]; ok {
+			return s
+		}
 	}
 	nb := d.neighbours(n, from)
 	s := make([]nodeID, len(nb))
@@ -208,6 +212,26 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 			s[j], s[j-1] = s[j-1], s[j]
 		}
 	}
-	d.sorted[key] = s
+	if fast {
+		d.nodes[n].sorted[r] = &s
+	} else {
+		d.sorted[key] = s
+	}
 	return s
+}
+
+// viewState returns the parts of the root's view a comparison under rule
+// r depends on: the Rule 6 reference matters to Rule 6 only, the mirror
+// flag to the descriptor rules only, and neither to auxiliary views.
+func (d *digraph) viewState(root nodeID, r Rule) (ref int, mirror bool) {
+	if root != 0 {
+		return -1, false
+	}
+	if r >= Rule3 {
+		mirror = d.mirror
+	}
+	if r >= Rule6 {
+		return d.refAtom, mirror
+	}
+	return -1, mirror
 }

@@ -49,6 +49,11 @@ func plausible(s string) bool {
 	if strings.Contains(s, "://") || !hasAtom(s) {
 		return false
 	}
+	// A record starts with an atom, or with '>' when a reaction has no
+	// reactants; "--input", "=SUM(A1)" and "-1" are not records.
+	if c := s[0] | 0x20; !(c >= 'a' && c <= 'z' || s[0] == '[' || s[0] == '*' || s[0] == '>') {
+		return false
+	}
 	for _, suf := range fileSuffixes {
 		if strings.HasSuffix(s, suf) {
 			return false

@@ -61,6 +61,9 @@ type frame struct {
 	val int
 	// other: the current segment named something about the notation.
 	other bool
+	// noGuess: strings directly at this level are never guessed (the
+	// arguments of MolFromSmarts(...)).
+	noGuess bool
 	// about: the key just read is about the notation ("name"), so the
 	// value after ':' is not notation even inside a notation collection.
 	about bool
@@ -133,7 +136,7 @@ func (cf *codeFinder) walk(toks []token) {
 				}
 				continue
 			}
-			cf.literal(t, f.taken(), f.val == 3)
+			cf.literal(t, f.taken(), f.val == 3 || f.val == 0 && f.noGuess)
 		case tPunct:
 			p := cf.text(t)
 			switch string(p) {
@@ -190,6 +193,7 @@ func (cf *codeFinder) open(toks []token, i int, parent *frame) frame {
 		if pt.kind == tIdent && !keywords[cf.textS(pt)] {
 			name := cf.textS(pt)
 			nf.base = cf.nm.call(name) || passThrough[name] && (parent.taken() || parent.seg)
+			nf.noGuess = !nf.base && cf.nm.other(name)
 		}
 	case '[':
 		if pt.kind == tIdent && !keywords[cf.textS(pt)] || pt.kind == tString || cf.is(pt, ")") || cf.is(pt, "]") {

@@ -72,6 +72,11 @@ var aboutWords = map[string]bool{
 	"smarts": true, "smirks": true, "smart": true, "query": true,
 }
 
+// queryWords name query notation, a language of its own: a value or
+// argument so named is never taken, not even by guessing
+// (MolFromSmarts("[#6]"), patt_smarts = "...").
+var queryWords = map[string]bool{"smarts": true, "smirks": true, "smart": true}
+
 // pathWords are the subset of aboutWords that, in a function name, say
 // its arguments are files rather than notation: read_smiles_file(p).
 var pathWords = map[string]bool{
@@ -90,7 +95,8 @@ func mentions(name string) bool {
 			continue
 		}
 		w := name[i:min(i+8, len(name))]
-		if hasFold(w, "smi") || hasFold(w, "rxn") || hasFold(w, "reaction") || hasFold(w, "ism") {
+		if hasFold(w, "smi") || hasFold(w, "rxn") || hasFold(w, "reaction") || hasFold(w, "ism") ||
+			hasFold(w, "smarts") || hasFold(w, "smirks") {
 			return true
 		}
 	}
@@ -146,6 +152,9 @@ func (n namer) other(name string) bool {
 	}
 	word, stop := false, false
 	for _, p := range nameParts(name) {
+		if queryWords[p] {
+			return true
+		}
 		word = word || n.word(p)
 		stop = stop || aboutWords[p]
 	}

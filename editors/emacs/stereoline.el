@@ -90,13 +90,16 @@ Other servers' sections set in `eglot-workspace-configuration' before
 
 ;;;###autoload
 (defun stereoline-setup ()
-  "Register stereoline with eglot for `stereoline-modes'."
-  (setq eglot-server-programs
-        (cons (cons stereoline-modes
-                    (list stereoline-program "serve"
-                          :initializationOptions #'stereoline--initialization-options))
-              (cl-remove-if (lambda (entry) (equal (car entry) stereoline-modes))
-                            eglot-server-programs)))
+  "Register stereoline with eglot for each of `stereoline-modes'.
+One entry per mode, hence one server per mode and project: eglot 1.9
+sends every buffer of a server with the language id of the mode that
+started it, and the server reads a buffer by its language id."
+  (let ((contact (list stereoline-program "serve"
+                       :initializationOptions #'stereoline--initialization-options)))
+    (dolist (mode (reverse stereoline-modes))
+      (setq eglot-server-programs
+            (cons (cons mode contact)
+                  (cl-remove-if (lambda (entry) (eq (car entry) mode)) eglot-server-programs)))))
   (unless (functionp (default-value 'eglot-workspace-configuration))
     (setq stereoline--saved-configuration (default-value 'eglot-workspace-configuration))
     (setq-default eglot-workspace-configuration #'stereoline--configuration)))

@@ -110,12 +110,13 @@ end
 function M.setup(opts)
   config = vim.tbl_deep_extend("force", vim.deepcopy(M.defaults), opts or {})
   local group = vim.api.nvim_create_augroup("stereoline", { clear = true })
-  -- List files and tables: Neovim 0.7 knows none of these extensions;
-  -- setfiletype leaves a filetype another plugin chose alone.
+  -- List files: Neovim's own detection takes *.smi for an SNMP MIB, so
+  -- the filetype is set, not merely suggested. Tables: Neovim 0.7 knows
+  -- no csv or tsv filetype; setfiletype leaves one another plugin chose.
   vim.api.nvim_create_autocmd({ "BufRead", "BufNewFile" }, {
     group = group,
     pattern = { "*.smi", "*.smiles", "*.rsmi" },
-    command = "setfiletype smiles",
+    command = "set filetype=smiles",
   })
   vim.api.nvim_create_autocmd({ "BufRead", "BufNewFile" }, {
     group = group,

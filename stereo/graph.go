@@ -196,93 +196,98 @@ func ringKey(ring []int) string {
 	return string(b)
 }
 
-// findMancude finds the rings with the most non-cumulative double bonds
-// (aromatic rings, written aromatic or in a Kekulé form) and gives each of
-// their atoms the duplicate atomic number P-92.1.4.4 asks for: the
-// average of the atomic numbers of the atoms it is double-bonded to in
-// the Kekulé structures, approximated by its neighbours in the system.
+// findMancude finds the atoms of mancude rings and ring systems (the
+// most non-cumulative double bonds, aromatic or not, written in any
+// Kekulé form) and gives each the duplicate P-92.1.4.4 asks for: the
+// average of the atomic numbers (and masses) of the atoms it is double
+// bonded to across the Kekulé structures. The written Kekulé structure is
+// a matching of the double-bonded atoms; another structure can pair atom
+// a with a ring neighbour v exactly when the bond a-v closes a cycle
+// whose bonds alternate between the matching and the rest, so each
+// candidate bond is tested with a search for such a cycle. This also
+// finds perimeter systems that no smallest ring describes (the
+// fourteen-atom perimeter of an azaphenalene dimer, VS215 of the suite).
 func (g *graph) findMancude() {
 	g.mancudeZ = make([]float64, g.n)
 	g.mancudeM = make([]float64, g.n)
-	in := make([]bool, g.n)
-	sp2 := make([]bool, g.n)
+	partner := make([]int, g.n)
 	for a := 0; a < g.n; a++ {
-		if g.mol.Atoms[a].Aromatic {
-			sp2[a] = true
-			continue
-		}
-		if !g.ringAtom[a] {
-			continue
-		}
-		// one double bond, on a ring bond
-		d := 0
-		ring := false
+		partner[a] = -1
+		dbl := 0
 		for _, e := range g.adj[a] {
-			if e.order == 2 {
-				d++
-				ring = g.ringBond[e.bond]
-			} else if e.order > 2 {
-				d += 2
+			if e.order >= 2 {
+				dbl++
+				if e.order == 2 && g.ringBond[e.bond] {
+					partner[a] = e.to
+				}
 			}
 		}
-		sp2[a] = d == 1 && ring
-	}
-	changed := true
-	for changed {
-		changed = false
-		for _, ring := range g.rings {
-			if len(ring) < 5 || len(ring) > 7 {
-				continue
-			}
-			electrons, ok := 0, true
-			done := true
-			for _, a := range ring {
-				if !in[a] {
-					done = false
-				}
-				switch {
-				case sp2[a] && g.mol.Atoms[a].Aromatic && (g.z[a] != notation.ElemC) && g.doubleBonds(a) == 0 && (g.hyd[a] > 0 || g.z[a] != notation.ElemN || len(g.adj[a]) == 3):
-					electrons += 2 // pyrrole-type nitrogen, furan oxygen
-				case sp2[a]:
-					electrons++
-				case len(ring) == 5 && g.doubleBonds(a) == 0 && (g.z[a] == notation.ElemN || g.z[a] == notation.ElemO || g.z[a] == notation.ElemS):
-					electrons += 2
-				default:
-					ok = false
-				}
-			}
-			if !ok || done || electrons%4 != 2 {
-				continue
-			}
-			for _, a := range ring {
-				if !in[a] {
-					in[a] = true
-					changed = true
-				}
-			}
+		if dbl != 1 {
+			partner[a] = -1
 		}
 	}
 	for a := 0; a < g.n; a++ {
-		if !in[a] || !sp2[a] {
-			continue
-		}
-		sum, cnt, mass := 0, 0, 0.0
-		for _, e := range g.adj[a] {
-			if in[e.to] && sp2[e.to] && g.ringBond[e.bond] {
-				sum += g.z[e.to]
-				mass += g.mass[e.to]
-				cnt++
-			}
-		}
-		if cnt > 0 {
-			g.mancudeZ[a] = float64(sum) / float64(cnt)
-			g.mancudeM[a] = mass / float64(cnt)
+		if partner[a] >= 0 && partner[partner[a]] != a {
+			partner[a] = -1
 		}
 	}
+	seen := make([]int, g.n)
+	stamp := 0
+	for a := 0; a < g.n; a++ {
+		if partner[a] < 0 {
+			continue
+		}
+		zs, ms := float64(g.z[partner[a]]), g.mass[partner[a]]
+		count := 1
+		for _, e := range g.adj[a] {
+			v := e.to
+			if v == partner[a] || partner[v] < 0 || !g.ringBond[e.bond] || e.order != 1 {
+				continue
+			}
+			stamp++
+			if g.alternatingCycle(a, v, partner, seen, stamp) {
+				zs += float64(g.z[v])
+				ms += g.mass[v]
+				count++
+			}
+		}
+		if count > 1 {
+			g.mancudeZ[a] = zs / float64(count)
+			g.mancudeM[a] = ms / float64(count)
+		}
+	}
+}
+
+// alternatingCycle reports whether the single bond a-v lies on a cycle
+// alternating between matched (double) and unmatched ring bonds:
+// a - v = partner(v) - ... - partner(a) = a.
+func (g *graph) alternatingCycle(a, v int, partner, seen []int, stamp int) bool {
+	target := partner[a]
+	queue := []int{partner[v]}
+	seen[v], seen[partner[v]], seen[a] = stamp, stamp, stamp
+	for len(queue) > 0 {
+		x := queue[0]
+		queue = queue[1:]
+		for _, e := range g.adj[x] {
+			y := e.to
+			if e.order != 1 || !g.ringBond[e.bond] || partner[y] < 0 || seen[y] == stamp {
+				continue
+			}
+			if y == target {
+				return true
+			}
+			seen[y] = stamp
+			if w := partner[y]; seen[w] != stamp {
+				seen[w] = stamp
+				queue = append(queue, w)
+			}
+		}
+	}
+	return false
 }
 
 // inMancude reports whether the bond joins two atoms of one mancude
 // system, so that its duplicate atoms take averaged atomic numbers.
 func (g *graph) inMancude(a, b int) bool {
-	return g.mancudeZ[a] > 0 && g.mancudeZ[b] > 0
+	return g.mancudeZ[a] > 0
 }

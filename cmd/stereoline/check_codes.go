@@ -157,7 +157,7 @@ var codeCatalogue = []codeDoc{
 	{
 		Code: stereo.CodeImpossibleCenter, Origin: originStereo,
 		Short:   "A stereo mark that cannot apply to its atom.",
-		Full:    "A tetrahedral mark needs an atom with three or four neighbours (counting an implicit hydrogen) and no double bond that makes it planar; this atom has neither, so the mark has no meaning.",
+		Full:    "A tetrahedral mark needs an atom with three or four neighbours (counting an implicit hydrogen) and no double bond that makes it planar; this atom is not such an atom, so the mark has no meaning.",
 		Help:    "Move the mark to the intended stereocentre, or remove it.",
 		Example: codeExample{File: "example.smi", Text: "C[C@H]=CC\n"},
 	},
@@ -208,8 +208,8 @@ var codeCatalogue = []codeDoc{
 		Short: "The labeller hit its limit before ranking the ligands.",
 		Full:  "Ranking by the Cahn-Ingold-Prelog rules explores the molecule outwards from the stereocentre; for very large or highly symmetric structures the exploration is cut off at a node cap so that the check stays fast, and the descriptor is left open.",
 		Help:  "Check this centre with another tool or by hand; the mark itself may be fine.",
-		Example: codeExample{File: "example.smi", Text: "C[C@H](CCCCCCCCCC)CCCCCCCCCC\n",
-			NotShown: "needs a molecule large enough to reach the node cap; the short form here only shows the shape of such a centre"},
+		Example: codeExample{File: "example.smi", Text: "C[C@H](CCCCCCCCCCCO)CCCCCCCCCCCN\n",
+			NotShown: "needs a molecule large enough to reach the node cap; this one only shows the shape of such a centre, two branches that differ far from it"},
 	},
 	// The finder (notation/find).
 	{

@@ -188,6 +188,9 @@ func catalogueMarkdown() string {
 			if d.Example.File != "example.smi" {
 				ex += " in `" + d.Example.File + "`"
 			}
+			if d.Example.NotShown != "" {
+				ex += " (" + d.Example.NotShown + ")"
+			}
 			b.WriteString("| `" + string(d.Code) + "` | " + cell(d.Full) + " | " + ex + " | " + cell(d.Help) + " |\n")
 		}
 	}

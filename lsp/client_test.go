@@ -283,6 +283,20 @@ func (c *fakeClient) diagnostics(uri string, version int32) []protocol.Diagnosti
 	return got
 }
 
+// cleared waits until the last publication for uri is the empty list
+// without a version that clears a closed document's diagnostics.
+func (c *fakeClient) cleared(uri string) {
+	c.t.Helper()
+	c.until("diagnostics of "+uri+" cleared", func() bool {
+		for i := len(c.diags) - 1; i >= 0; i-- {
+			if p := c.diags[i]; p.URI == uri {
+				return p.Version == nil && len(p.Diagnostics) == 0
+			}
+		}
+		return false
+	})
+}
+
 // published returns every publication for uri so far.
 func (c *fakeClient) published(uri string) []publishDiagnosticsParams {
 	c.mu.Lock()

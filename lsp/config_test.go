@@ -1,0 +1,127 @@
+package lsp
+
+import (
+	"encoding/json"
+	"strings"
+	"testing"
+
+	"go.lsp.dev/protocol"
+)
+
+// Settings layers: initializationOptions, then the workspace section
+// pulled with workspace/configuration, then pushed changes (LSP 3.17,
+// "Configuration Request" and "DidChangeConfiguration Notification").
+
+const isobutane = "C[C@H](C)C marked isobutane\n" // an ineffective mark, a warning by default
+
+func severityOf(diags []protocol.Diagnostic, code string) protocol.DiagnosticSeverity {
+	for _, d := range diags {
+		if d.Code == code {
+			return d.Severity
+		}
+	}
+	return 0
+}
+
+func TestInitializationOptions(t *testing.T) {
+	c := start(t, clientSetup{initOpts: map[string]any{"stereoline": map[string]any{
+		"severity":   map[string]string{"stereo-ineffective-center": "error"},
+		"inlayHints": false,
+	}}})
+	const u = "file:///work/opts.smi"
+	c.open(u, "", 1, isobutane+"N[C@@H](C)C(=O)O\n")
+	if s := severityOf(c.diagnostics(u, 1), "stereo-ineffective-center"); s != protocol.DiagnosticSeverityError {
+		t.Errorf("severity = %v, want error from initializationOptions", s)
+	}
+	var hints []hint
+	c.mustCall(methodInlayHint, map[string]any{"textDocument": textDoc(u), "range": wholeRange(isobutane)}, &hints)
+	if len(hints) != 0 {
+		t.Errorf("hints switched off, got %+v", hints)
+	}
+}
+
+func TestWorkspaceConfiguration(t *testing.T) {
+	c := start(t, clientSetup{
+		caps: map[string]any{"workspace": map[string]any{
+			"configuration": true,
+			"inlayHint":     map[string]any{"refreshSupport": true},
+		}},
+		settings: json.RawMessage(`{"severity": {"stereo-ineffective-center": "hint"}}`),
+	})
+	c.until("workspace/configuration", func() bool { return c.asked > 0 })
+	const u = "file:///work/settings.smi"
+	c.open(u, "", 1, isobutane)
+	c.until("hint severity", func() bool {
+		for _, p := range c.diags {
+			if p.URI == u && severityOf(p.Diagnostics, "stereo-ineffective-center") == protocol.DiagnosticSeverityHint {
+				return true
+			}
+		}
+		return false
+	})
+
+	// A pushed change switches the code off: the open document is
+	// published again without it, and the client is asked to refresh its
+	// inlay hints.
+	before := len(c.published(u))
+	c.notify("workspace/didChangeConfiguration", map[string]any{"settings": map[string]any{
+		"stereoline": map[string]any{"severity": map[string]string{"stereo-ineffective-center": "off"}},
+	}})
+	c.until("republished without the code", func() bool {
+		n := 0
+		for _, p := range c.diags {
+			if p.URI == u {
+				n++
+				if n > before && len(p.Diagnostics) == 0 {
+					return true
+				}
+			}
+		}
+		return false
+	})
+	c.until("inlay hint refresh", func() bool { return len(c.refresh) > 0 })
+
+	// Null settings mean "ask me" (the pull model).
+	asked := c.asked
+	c.mu.Lock()
+	c.settings = json.RawMessage(`{"severity": {"stereo-ineffective-center": "information"}}`)
+	c.mu.Unlock()
+	c.notify("workspace/didChangeConfiguration", map[string]any{"settings": nil})
+	c.until("a second workspace/configuration", func() bool { return c.asked > asked })
+	var rep struct {
+		Items []protocol.Diagnostic `json:"items"`
+	}
+	c.until("information severity", func() bool {
+		for i := len(c.diags) - 1; i >= 0; i-- {
+			if p := c.diags[i]; p.URI == u {
+				return severityOf(p.Diagnostics, "stereo-ineffective-center") == protocol.DiagnosticSeverityInformation
+			}
+		}
+		return false
+	})
+	c.mustCall(methodDocumentDiagnostic, map[string]any{"textDocument": textDoc(u)}, &rep)
+	if severityOf(rep.Items, "stereo-ineffective-center") != protocol.DiagnosticSeverityInformation {
+		t.Errorf("pulled after the change: %+v", rep.Items)
+	}
+}
+
+// A setting the engine cannot honour is refused with a message to the
+// user; the settings in force stay.
+func TestBadSettings(t *testing.T) {
+	c := start(t, clientSetup{})
+	c.notify("workspace/didChangeConfiguration", map[string]any{"settings": map[string]any{
+		"stereoline": map[string]any{"severity": map[string]string{"stereo-ineffective-center": "loud"}},
+	}})
+	c.until("a warning message", func() bool { return len(c.messages) > 0 })
+	c.mu.Lock()
+	msg := c.messages[0]
+	c.mu.Unlock()
+	if !strings.Contains(msg, "loud") {
+		t.Errorf("message %q does not name the bad value", msg)
+	}
+	const u = "file:///work/still.smi"
+	c.open(u, "", 1, isobutane)
+	if s := severityOf(c.diagnostics(u, 1), "stereo-ineffective-center"); s != protocol.DiagnosticSeverityWarning {
+		t.Errorf("severity after a refused setting = %v, want the default warning", s)
+	}
+}

@@ -1,0 +1,116 @@
+package lsp
+
+import (
+	"strings"
+	"testing"
+	"time"
+)
+
+// Incremental sync follows LSP 3.17, "DidChangeTextDocument Notification":
+// changes apply in order, each to the text the previous one left; a change
+// without a range replaces the whole text; an empty range inserts.
+
+// codes lists the diagnostic codes with the text each covers.
+func codes(t *testing.T, c *fakeClient, uri string, version int32, text string) []string {
+	t.Helper()
+	var out []string
+	for _, d := range c.diagnostics(uri, version) {
+		out = append(out, d.Code.(string)+" "+rangeText(t, text, d.Range, EncodingUTF16))
+	}
+	return out
+}
+
+func TestIncrementalSync(t *testing.T) {
+	c := start(t, clientSetup{})
+	const u = "file:///work/edit.smi"
+	text := "CCO ethanol\n"
+	c.open(u, "", 1, text)
+	if got := codes(t, c, u, 1, text); len(got) != 0 {
+		t.Fatalf("ethanol: %v", got)
+	}
+
+	// An insertion at 0:0 has a range; it must not be taken for a
+	// replacement of the whole text.
+	c.change(u, 2, edit(0, 0, 0, 0, "C[C@H](C)C é😀 marked\n"))
+	text = "C[C@H](C)C é😀 marked\nCCO ethanol\n"
+	if got := codes(t, c, u, 2, text); len(got) != 1 || got[0] != "stereo-ineffective-center @" {
+		t.Fatalf("after the insertion: %v", got)
+	}
+
+	// Two changes in one notification, the second positioned in the
+	// text the first left: the title after the emoji is edited in UTF-16
+	// columns, then the mark is removed.
+	title := position(t, text, "marked", 0, EncodingUTF16)
+	c.change(u, 3,
+		edit(0, int(title.Character), 0, int(title.Character)+len("marked"), "mark gone"),
+		edit(0, 3, 0, 4, ""),
+	)
+	text = "C[CH](C)C é😀 mark gone\nCCO ethanol\n"
+	if got := codes(t, c, u, 3, text); len(got) != 0 {
+		t.Fatalf("after removing the mark: %v", got)
+	}
+
+	// A full replacement, then an edit on a second line written with
+	// CRLF.
+	c.change(u, 4, map[string]any{"text": "CCO\r\nF/C=C/F\r\n"})
+	c.change(u, 5, edit(1, 5, 1, 6, ""))
+	text = "CCO\r\nF/C=CF\r\n"
+	if got := codes(t, c, u, 5, text); len(got) != 1 || got[0] != "stereo-one-sided-bond /" {
+		t.Fatalf("after the CRLF edit: %v", got)
+	}
+	// Only the last version of a burst needs publishing; every version
+	// published carries its own number.
+	for _, p := range c.published(u) {
+		if p.Version == nil || *p.Version < 1 || *p.Version > 5 {
+			t.Errorf("publication with version %v", p.Version)
+		}
+	}
+}
+
+// A change that does not fit the text is refused and logged; the server
+// keeps the version it had and goes on.
+func TestChangeOutsideTheText(t *testing.T) {
+	c := start(t, clientSetup{})
+	const u = "file:///work/short.smi"
+	c.open(u, "", 1, "CCO\n")
+	c.diagnostics(u, 1)
+	c.change(u, 2, edit(9, 0, 9, 1, "x"))
+	c.change("file:///work/never-opened.smi", 1, edit(0, 0, 0, 0, "x"))
+	var syms []struct {
+		Name string `json:"name"`
+	}
+	c.mustCall("textDocument/documentSymbol", map[string]any{"textDocument": textDoc(u)}, &syms)
+	if len(syms) != 1 || syms[0].Name != "CCO" {
+		t.Errorf("symbols after a bad change = %+v, want the old text's", syms)
+	}
+	if logs := c.logs.String(); !strings.Contains(logs, "outside the text") || !strings.Contains(logs, "not open") {
+		t.Errorf("log does not mention the refused changes:\n%s", logs)
+	}
+}
+
+// A request for a version newer than the last analysis waits for it, or
+// starts it: with a long debounce nothing is published yet, but hover
+// already answers from the new text.
+func TestRequestTriggersAnalysis(t *testing.T) {
+	c := start(t, clientSetup{debounce: time.Minute})
+	const u = "file:///work/later.smi"
+	text := "CCO\n"
+	c.open(u, "", 1, text)
+	c.diagnostics(u, 1)
+	// L-alanine is (S) (common practice).
+	c.change(u, 2, map[string]any{"text": "N[C@@H](C)C(=O)O L-alanine\n"})
+	var hover struct {
+		Contents struct {
+			Value string `json:"value"`
+		} `json:"contents"`
+	}
+	c.mustCall("textDocument/hover", map[string]any{"textDocument": textDoc(u), "position": map[string]any{"line": 0, "character": 3}}, &hover)
+	if !strings.Contains(hover.Contents.Value, "(S)") {
+		t.Errorf("hover on the new text = %q, want (S)", hover.Contents.Value)
+	}
+	for _, p := range c.published(u) {
+		if *p.Version == 2 {
+			t.Errorf("version 2 published before its debounce ended")
+		}
+	}
+}

@@ -95,6 +95,9 @@ func unmistakable(s string) bool {
 	if !strings.ContainsAny(s, "@/\\[0123456789%") {
 		return false
 	}
+	if !organicShape(s) {
+		return false
+	}
 	m := notation.Read(s)
 	if m.Errors.HasErrors() || len(m.Atoms) == 0 {
 		return false
@@ -130,4 +133,29 @@ func hasEvidence(m *notation.Molecule) bool {
 		}
 	}
 	return false
+}
+
+// organicShape is a quick check, before the reader runs, that the letters
+// outside brackets are symbols of the organic subset of OpenSMILES
+// (section 3.1.5: B C N O P S F Cl Br I and aromatic b c n o p s) or the
+// wildcard: most words fail here at no cost ("R2D2", "A1:C10", "Hello").
+func organicShape(s string) bool {
+	depth := 0
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		switch {
+		case c == '[':
+			depth++
+		case c == ']':
+			depth--
+		case depth > 0:
+		case c == 'C' && i+1 < len(s) && s[i+1] == 'l', c == 'B' && i+1 < len(s) && s[i+1] == 'r':
+			i++
+		case c >= 'A' && c <= 'Z' || c >= 'a' && c <= 'z':
+			if strings.IndexByte("BCNOPSFIbcnops", c) < 0 {
+				return false
+			}
+		}
+	}
+	return depth == 0
 }

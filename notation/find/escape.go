@@ -83,6 +83,14 @@ func (d *decoded) piece(src []byte, pc *piece, r *escapeRules) {
 	pr := pieceRange{start: len(d.text), issues: len(d.issues)}
 	i, end := pc.content.Start, pc.content.End
 	if pc.raw || r == nil {
+		for pc.dropCR && i < end {
+			k := bytes.IndexByte(src[i:end], '\r')
+			if k < 0 {
+				break
+			}
+			d.copy(src, i, i+k)
+			i += k + 1
+		}
 		d.copy(src, i, end)
 	}
 	for !pc.raw && r != nil && i < end {

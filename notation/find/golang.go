@@ -31,6 +31,9 @@ func goHook(lx *lexer) bool {
 		return true
 	case '`':
 		lx.simpleString(0, "`", true, false, true, false)
+		// The specification discards carriage returns from raw string
+		// values, so a file with CRLF line ends gives the same strings.
+		lx.toks[len(lx.toks)-1].lit.pieces[0].dropCR = true
 		return true
 	case '\'':
 		charLiteral(lx)

@@ -49,6 +49,7 @@ type piece struct {
 	prefix  string        // as written before the opening quote ("r", "u", "String.raw")
 	quote   string        // the opening quote, which is also the closing one
 	raw     bool          // backslashes are not escapes
+	dropCR  bool          // carriage returns are not part of the value (Go raw strings)
 }
 
 // lexer is the shared scanning state.

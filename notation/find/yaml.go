@@ -102,6 +102,10 @@ func (yf *yamlFinder) run() {
 			continue
 		}
 		keyNamed := yf.nm.value(key) || named && !aboutKey(key)
+		if !keyNamed && yf.nm.other(key) {
+			// smiles_file: in.smi, reaction_smarts: ...: not even guessed.
+			continue
+		}
 		value := body[valueAt:]
 		switch {
 		case len(value) == 0:

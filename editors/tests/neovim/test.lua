@@ -262,6 +262,16 @@ ok, why = apply_action(smi, range_at(mark, 2), { diagnostics = {}, only = { "ref
 check(ok, "mirror action applied on the lactate record", why)
 golden(smi, "sample.smi")
 
+-- Settings changed after start-up reach the server under the
+-- "stereoline" section: switching a code off removes its diagnostic.
+sl.settings_changed({ severity = { ["stereo-one-sided-bond"] = "off" } })
+vim.wait(5000, function()
+  return find_diag(vim.diagnostic.get(smi), "stereo-one-sided-bond") == nil
+end, 20)
+diags = vim.diagnostic.get(smi)
+check(find_diag(diags, "stereo-one-sided-bond") == nil and find_diag(diags, "stereo-ineffective-center") ~= nil,
+  "severity off for stereo-one-sided-bond removes only that diagnostic", vim.inspect(diags))
+
 -- Shutdown ----------------------------------------------------------------
 io.stdout:write("shutdown\n")
 local client = client_of(smi)

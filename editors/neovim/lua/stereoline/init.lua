@@ -31,6 +31,8 @@ M.defaults = {
 }
 
 local config = vim.deepcopy(M.defaults)
+-- vim.uv replaced vim.loop in 0.10.
+local uv = vim.uv or vim.loop
 -- clients maps a root directory to a client id (Neovim 0.7 only).
 local clients = {}
 
@@ -42,7 +44,7 @@ local function find_root(bufnr)
   local cur = dir
   while true do
     for _, marker in ipairs(config.root_markers) do
-      if vim.loop.fs_stat(cur .. "/" .. marker) then
+      if uv.fs_stat(cur .. "/" .. marker) then
         return cur
       end
     end
@@ -147,10 +149,19 @@ end
 -- user who changes them after setup.
 function M.settings_changed(settings)
   config.settings = vim.tbl_deep_extend("force", config.settings, settings or {})
-  for _, client in ipairs(vim.lsp.get_active_clients()) do
+  -- get_clients replaced get_active_clients in 0.10, and client methods
+  -- are called with ':' from 0.11 on.
+  local list = vim.lsp.get_clients and vim.lsp.get_clients({ name = "stereoline" }) or vim.lsp.get_active_clients()
+  local colon = vim.fn.has("nvim-0.11") == 1
+  for _, client in ipairs(list) do
     if client.name == "stereoline" then
       client.config.settings = { [M.section] = config.settings }
-      client.notify("workspace/didChangeConfiguration", { settings = client.config.settings })
+      local params = { settings = client.config.settings }
+      if colon then
+        client:notify("workspace/didChangeConfiguration", params)
+      else
+        client.notify("workspace/didChangeConfiguration", params)
+      end
     end
   end
 end

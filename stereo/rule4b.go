@@ -9,9 +9,7 @@ import "sort"
 // descriptors, sphere by sphere and in hierarchical order, are then read
 // as like or unlike to it and the two sequences compared.
 func (d *digraph) compareLikeUnlike(root, a, af, b, bf nodeID) (int, int) {
-	la := d.descriptorSpheres(root, a, af)
-	lb := d.descriptorSpheres(root, b, bf)
-	sa, sb := bestLikeSequence(la), bestLikeSequence(lb)
+	sa, sb := d.bestLikeSequence(root, a, af), d.bestLikeSequence(root, b, bf)
 	if sa == nil || sb == nil {
 		return 0, 0
 	}
@@ -44,37 +42,19 @@ func at(xs []int, i int) int {
 	return 0
 }
 
-// tagged is a descriptor with the group of nodes it is tied with under
-// the rules before 4b; the order inside a group is not fixed by those
-// rules, so like pairs are taken first there.
-type tagged struct {
-	desc  Descriptor
-	group int
-}
-
 // bestLikeSequence reads a branch's descriptors as like (2) or unlike
-// (1) to a reference, sphere by sphere. The reference is the first
-// descriptor in hierarchical order; when nodes tied for that place carry
-// different descriptors each is tried and the sequence that ranks higher
-// kept. It returns nil when the branch has no descriptor.
-func bestLikeSequence(l [][]tagged) [][]int {
-	first := -1
-	for i, s := range l {
-		if len(s) > 0 {
-			first = i
-			break
-		}
-	}
-	if first < 0 {
-		return nil
-	}
+// (1) to a reference, sphere by sphere in hierarchical order. The
+// reference is the first descriptor in hierarchical order. Where nodes
+// tied by the earlier rules carry descriptors, that order is not fixed:
+// each tied candidate is tried as the reference, its branch is then
+// explored first among its tied siblings, and the sequence that ranks
+// higher is kept (P-92.1.3.4: the reference is chosen to give the
+// higher precedence). It returns nil when the branch has no descriptor.
+func (d *digraph) bestLikeSequence(root, a, af nodeID) [][]int {
+	cands := d.referenceCandidates(root, a, af)
 	var best [][]int
-	g0 := l[first][0].group
-	for _, cand := range l[first] {
-		if cand.group != g0 {
-			break
-		}
-		seq := likeSequence(l, cand.desc)
+	for _, ref := range cands {
+		seq := d.likeSequence(root, a, af, ref)
 		if best == nil || compareSequences(seq, best) > 0 {
 			best = seq
 		}
@@ -82,35 +62,146 @@ func bestLikeSequence(l [][]tagged) [][]int {
 	return best
 }
 
-func likeSequence(l [][]tagged, ref Descriptor) [][]int {
-	out := make([][]int, len(l))
-	for s, row := range l {
-		var vals []int
-		for i := 0; i < len(row); {
-			j := i
-			for j < len(row) && row[j].group == row[i].group {
-				j++
+// referenceCandidates returns the nodes of the first sphere holding a
+// chiral descriptor that are tied, under the rules up to 4a, with the
+// first such node.
+func (d *digraph) referenceCandidates(root, a, af nodeID) []nodeID {
+	type item struct {
+		step
+		group int
+	}
+	q := []item{{step{a, af}, 0}}
+	ids := map[[2]int]int{}
+	for len(q) > 0 && !d.capped {
+		var found []item
+		var next []item
+		for _, s := range q {
+			if handedness(d.auxFor(root, s.n)) != 0 {
+				found = append(found, s)
 			}
-			var grp []int
-			for _, t := range row[i:j] {
+			ks := d.sortedNeighbours(root, s.n, s.from, Rule4a)
+			run := 0
+			for i, k := range ks {
+				if i > 0 && !d.tiedUpTo(root, ks[i-1], k, s.n, Rule4a) {
+					run++
+				}
+				key := [2]int{s.group, run}
+				id, ok := ids[key]
+				if !ok {
+					id = len(ids) + 1
+					ids[key] = id
+				}
+				next = append(next, item{step{k, s.n}, id})
+			}
+		}
+		if len(found) > 0 {
+			var out []nodeID
+			for _, f := range found {
+				if f.group == found[0].group {
+					out = append(out, f.n)
+				}
+			}
+			return out
+		}
+		q = next
+	}
+	return nil
+}
+
+// likeSequence walks the branch in hierarchical order, with the path to
+// ref explored first among tied siblings, and scores each chiral
+// descriptor against ref's.
+func (d *digraph) likeSequence(root, a, af, ref nodeID) [][]int {
+	onPath := map[nodeID]bool{}
+	for n := ref; n != noNode; n = d.nodes[n].parent {
+		onPath[n] = true
+		if n == a {
+			break
+		}
+	}
+	refDesc := d.auxFor(root, ref)
+	type item struct {
+		step
+		group int
+	}
+	type scored struct{ group, v int }
+	ids := map[[2]int]int{}
+	newID := func(key [2]int) int {
+		id, ok := ids[key]
+		if !ok {
+			id = len(ids) + 1
+			ids[key] = id
+		}
+		return id
+	}
+	var out [][]int
+	q := []item{{step{a, af}, 0}}
+	for len(q) > 0 && !d.capped {
+		var row []scored
+		var next []item
+		for _, s := range q {
+			if x := d.auxFor(root, s.n); handedness(x) != 0 {
 				v := 1
-				if handedness(t.desc) == handedness(ref) {
+				if handedness(x) == handedness(refDesc) {
 					v = 2
 				}
-				grp = append(grp, v)
+				row = append(row, scored{s.group, v})
 			}
-			// like before unlike inside a tied group
-			for x := 1; x < len(grp); x++ {
-				for y := x; y > 0 && grp[y] > grp[y-1]; y-- {
-					grp[y], grp[y-1] = grp[y-1], grp[y]
+			ks := d.sortedNeighbours(root, s.n, s.from, Rule4a)
+			ks = d.pathFirst(root, s.n, ks, onPath)
+			// children of tied siblings stay tied, except the path to
+			// the reference, which has been put first
+			run := 0
+			for i, k := range ks {
+				if i > 0 && !d.tiedUpTo(root, ks[i-1], k, s.n, Rule4a) {
+					run++
 				}
+				g := newID([2]int{s.group, run})
+				if onPath[k] {
+					g = newID([2]int{-int(k) - 1, 0})
+				}
+				next = append(next, item{step{k, s.n}, g})
 			}
-			vals = append(vals, grp...)
-			i = j
 		}
-		out[s] = vals
+		// like before unlike inside a tied group
+		sort.SliceStable(row, func(i, j int) bool {
+			if row[i].group != row[j].group {
+				return row[i].group < row[j].group
+			}
+			return row[i].v > row[j].v
+		})
+		vals := make([]int, len(row))
+		for i, r := range row {
+			vals[i] = r.v
+		}
+		out = append(out, vals)
+		q = next
 	}
 	return out
+}
+
+// pathFirst moves the child on the path to the reference to the front of
+// its run of tied siblings.
+func (d *digraph) pathFirst(root, from nodeID, ks []nodeID, onPath map[nodeID]bool) []nodeID {
+	for i, k := range ks {
+		if !onPath[k] {
+			continue
+		}
+		j := i
+		for j > 0 && d.tiedUpTo(root, ks[j-1], k, from, Rule4a) {
+			j--
+		}
+		if j == i {
+			return ks
+		}
+		out := make([]nodeID, 0, len(ks))
+		out = append(out, ks[:j]...)
+		out = append(out, k)
+		out = append(out, ks[j:i]...)
+		out = append(out, ks[i+1:]...)
+		return out
+	}
+	return ks
 }
 
 func compareSequences(a, b [][]int) int {
@@ -148,49 +239,6 @@ func handedness(x Descriptor) int {
 		return -1
 	}
 	return 0
-}
-
-// descriptorSpheres lists, sphere by sphere in hierarchical order (ranked
-// by the rules up to 4a), the chiral auxiliary descriptors of a branch,
-// each tagged with the group of siblings it is tied with.
-func (d *digraph) descriptorSpheres(root, a, af nodeID) [][]tagged {
-	var out [][]tagged
-	type item struct {
-		step
-		group int
-	}
-	q := []item{{step{a, af}, 0}}
-	ids := map[[2]int]int{}
-	for len(q) > 0 && !d.capped {
-		var row []tagged
-		var next []item
-		for _, s := range q {
-			if x := d.auxFor(root, s.n); handedness(x) != 0 {
-				row = append(row, tagged{x, s.group})
-			}
-			// children of nodes tied with each other are tied too: the
-			// group of a child is its parent's group and its run of
-			// tied siblings
-			ks := d.sortedNeighbours(root, s.n, s.from, Rule4a)
-			run := 0
-			for i, k := range ks {
-				if i > 0 && !d.tiedUpTo(root, ks[i-1], k, s.n, Rule4a) {
-					run++
-				}
-				key := [2]int{s.group, run}
-				id, ok := ids[key]
-				if !ok {
-					id = len(ids) + 1
-					ids[key] = id
-				}
-				next = append(next, item{step{k, s.n}, id})
-			}
-		}
-		sort.SliceStable(row, func(i, j int) bool { return row[i].group < row[j].group })
-		out = append(out, row)
-		q = next
-	}
-	return out
 }
 
 // tiedUpTo reports whether two siblings are equal under the rules up to r.

@@ -52,6 +52,7 @@ const (
 	ReasonPragma
 )
 
+// String returns the lowercase name of the reason ("guess").
 func (r Reason) String() string {
 	switch r {
 	case ReasonPlace:

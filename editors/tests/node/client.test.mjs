@@ -9,7 +9,7 @@
 // encodings, result shapes), the Unicode encoding forms (code units per
 // character), the OpenSMILES specification and the CIP rules of the IUPAC
 // 2013 recommendations (P-92, P-93); each check names its source.
-import { spawn } from "node:child_process";
+import { spawn, spawnSync } from "node:child_process";
 import { readFileSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
@@ -275,37 +275,55 @@ async function action(s, uri, range, context, kind, title = /./) {
   const actions = (await s.request(CodeActionRequest.type, { textDocument: { uri }, range, context })) ?? [];
   let a = actions.find((x) => x.kind === kind && title.test(x.title));
   assert.ok(a, `no ${kind} ${title} among ${JSON.stringify(actions.map((x) => [x.kind, x.title]))}`);
+  // This client declares resolveSupport for "edit", so the server may
+  // leave edits out and fill them in on codeAction/resolve (LSP 3.17).
+  let resolved = false;
   if (!a.edit) {
     assert.ok(s.init.capabilities.codeActionProvider?.resolveProvider, "an action without an edit, and no resolveProvider");
     a = await s.request(CodeActionResolveRequest.type, a);
+    resolved = true;
   }
   assert.ok(a.edit, "the resolved action has no edit");
-  return a;
+  return { ...a, resolved };
 }
 
-test("code actions: mirror and a quick fix, resolved", async () => {
+test("code action: the mirror rewrite, resolved", async () => {
   const s = await start({ encodings: ["utf-16"] });
   try {
     const smi = fixture("sample.smi");
-    const py = fixture("sample.py");
     await s.open(smi, "smiles");
-    await s.open(py, "python");
-    // OpenSMILES, tetrahedral centres: '@' for '@@' is the mirror image.
+    // OpenSMILES, tetrahedral centres: '@' for '@@' is the mirror image,
+    // so only the lactate line changes (sample.smi.golden).
     const at = smi.text.indexOf("@@");
     const range = { start: positionOf(smi.text, at, s.encoding), end: positionOf(smi.text, at + 2, s.encoding) };
     const m = await action(s, smi.uri, range, { diagnostics: [], only: ["refactor.rewrite.stereo.mirror"] }, "refactor.rewrite.stereo.mirror");
+    assert.ok(m.resolved, "the rewrite came with its edit: codeAction/resolve not exercised");
     const golden = readFileSync(join(fixtures, "sample.smi.golden"), "utf8");
     assert.equal(applyEdit(smi.text, m.edit, smi.uri, s.encoding), golden);
+  } finally {
+    assert.deepEqual(await s.stop(), { code: 0, signal: null });
+  }
+});
+
+test("code action: a quick fix, resolved, and hover", async () => {
+  const s = await start({ encodings: ["utf-16"] });
+  try {
+    const py = fixture("sample.py");
+    await s.open(py, "python");
     // Python Language Reference, string literals: a raw string keeps the
     // backslash as written.
     const diags = (await s.pull(py.uri)).items;
     const esc = diags.find((d) => d.code === "host-escape");
     assert.ok(esc, "no host-escape diagnostic");
     const q = await action(s, py.uri, esc.range, { diagnostics: [esc], only: ["quickfix"] }, "quickfix", /raw/);
+    // stereoline defers every edit to codeAction/resolve for a client
+    // that resolves them (its design: rewrites of a selection are not free).
+    assert.ok(q.resolved, "the quick fix came with its edit: codeAction/resolve not exercised");
     const fixed = applyEdit(py.text, q.edit, py.uri, s.encoding);
-    assert.ok(fixed.includes('alkene = r"F/C=C\\F"'), fixed);
-    // Hover on the list's lactate mark: (R), as above.
-    const hv = await s.request(HoverRequest.type, { textDocument: { uri: smi.uri }, position: range.start });
+    assert.equal(fixed, py.text.replace('alkene = "F/C=C\\F"', 'alkene = r"F/C=C\\F"'));
+    // (R)-lactic acid by the CIP rules (IUPAC 2013 P-92, worked by hand).
+    const at = py.text.indexOf("@@");
+    const hv = await s.request(HoverRequest.type, { textDocument: { uri: py.uri }, position: positionOf(py.text, at, s.encoding) });
     assert.match(typeof hv.contents === "string" ? hv.contents : hv.contents.value, /\(R\)/);
   } finally {
     assert.deepEqual(await s.stop(), { code: 0, signal: null });
@@ -370,6 +388,32 @@ test("notebook document sync", async () => {
       notebookDocument: { uri: nb.uri },
       cellTextDocuments: [0, 1, 2].map((i) => ({ uri: cellUri(i) })),
     });
+  } finally {
+    assert.deepEqual(await s.stop(), { code: 0, signal: null });
+  }
+});
+
+test("the editor reports what stereoline check reports", async () => {
+  // The project README promises that the editor and `stereoline check`
+  // report the same findings for the same text and settings; LSP 3.17
+  // numbers severities 1 error, 2 warning, 3 information, 4 hint.
+  const severity = { error: 1, warning: 2, information: 3, hint: 4 };
+  const s = await start({ encodings: ["utf-16"] });
+  try {
+    for (const [name, languageId] of [["sample.smi", "smiles"], ["sample.py", "python"], ["encoding.csv", "csv"]]) {
+      const doc = fixture(name);
+      const out = spawnSync(bin, ["check", "--format", "json", "--fail-on", "error", join(fixtures, name)], { encoding: "utf8" });
+      assert.equal(out.status, 0, out.stderr);
+      const want = out.stdout
+        .split("\n")
+        .filter((l) => l.trim() !== "")
+        .map((l) => JSON.parse(l))
+        .map((f) => ({ range: f.range, code: f.code, message: f.message, severity: severity[f.severity] }));
+      await s.open(doc, languageId);
+      const have = (await s.pull(doc.uri)).items.map((d) => ({ range: d.range, code: d.code, message: d.message, severity: d.severity }));
+      assert.ok(want.length > 0, `check found nothing in ${name}`);
+      assert.deepEqual(have, want, name);
+    }
   } finally {
     assert.deepEqual(await s.stop(), { code: 0, signal: null });
   }

@@ -203,7 +203,7 @@ func TestCheckSameAsEditor(t *testing.T) {
 		filepath.Join(goldenTree, "table.csv"),
 		filepath.Join(goldenTree, "sub", "script.py"),
 	}
-	if demo, err := filepath.Glob(filepath.Join("..", "..", "examples", "*", "*")); err == nil {
+	if demo, err := filepath.Glob(filepath.Join(repoRoot, "examples", "*")); err == nil {
 		files = append(files, demo...)
 	}
 	analyzer := document.NewAnalyzer(document.DefaultConfig())

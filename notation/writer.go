@@ -33,10 +33,11 @@ type Written struct {
 	// Order maps positions to atoms: Order[i] is the atom of the written
 	// molecule that became the i-th atom of Text.
 	Order []int
-	// Unadjusted lists atoms whose chirality mark is not tetrahedral
-	// (allene, square planar, trigonal bipyramidal, octahedral) and whose
-	// neighbours were written in a different order: their mark is copied
-	// as written and may no longer describe the same arrangement.
+	// Unadjusted lists atoms whose chirality mark could not be rewritten
+	// for the new order of their neighbours (an allene whose ends carry
+	// hydrogens, a mark whose number does not fit its neighbours): their
+	// mark is copied as written and may no longer describe the same
+	// arrangement.
 	Unadjusted []int
 	// Dropped lists bonds that could not be written: bonds joining atoms
 	// of different reaction roles.
@@ -74,10 +75,9 @@ func Write(m *Molecule, opt WriteOptions) Written {
 			w.component(root)
 		}
 	}
-	w.checkAllenes()
+	w.out.Text = w.fixAllenes(w.sb.String())
 	sort.Ints(w.out.Unadjusted)
 	sort.Ints(w.out.Dropped)
-	w.out.Text = w.sb.String()
 	return w.out
 }
 
@@ -102,7 +102,8 @@ type writer struct {
 	position []int   // position of each atom in Text
 	partOf   []int   // connected part of each atom, -1 before it is found
 	scratch  []int   // room for every atom's neighbour order, taken once per atom
-	parts    []int   // atom count of each part
+	allenes  []alleneFix
+	parts    []int // atom count of each part
 }
 
 func (w *writer) init() {
@@ -318,7 +319,16 @@ func (w *writer) emitAtom(a int) {
 		w.opt.Random.Shuffle(len(opens), func(i, j int) { opens[i], opens[j] = opens[j], opens[i] })
 	}
 	w.rings[a] = append(append(w.rings[a], closes...), opens...)
-	w.sb.WriteString(w.atomToken(a, w.newChirality(a)))
+	if at := &w.m.Atoms[a]; at.Chirality.Class != ChiralNone && w.geometry(a) == ChiralAL {
+		tok := w.atomToken(a, at.Chirality)
+		mark := chiralityText(at.Chirality)
+		if k := strings.Index(tok, mark); k >= 0 {
+			w.allenes = append(w.allenes, alleneFix{atom: a, offset: w.sb.Len() + k, mark: mark})
+		}
+		w.sb.WriteString(tok)
+	} else {
+		w.sb.WriteString(w.atomToken(a, w.newChirality(a)))
+	}
 	for _, b := range closes {
 		w.sb.WriteString(ringNumber(w.digit[b]))
 	}
@@ -511,87 +521,79 @@ func (w *writer) organic(a int, sym string) bool {
 // centre in neighbour orders.
 const implicitSlot = -1
 
+// geometry returns the arrangement a chirality mark on atom a describes:
+// the class as written, except that the short forms '@' and '@@' mean an
+// allene on an atom with two double bonds, and the first two
+// trigonal-bipyramidal or octahedral forms on atoms with five or six
+// neighbours (OpenSMILES 3.9).
+func (w *writer) geometry(a int) ChiralClass {
+	c := w.m.Atoms[a].Chirality
+	if c.Class != ChiralTH || !c.Short {
+		return c.Class
+	}
+	if w.alleneCentre(a) {
+		return ChiralAL
+	}
+	switch len(w.m.Atoms[a].Bonds) + min(w.m.Atoms[a].BracketH, 1) {
+	case 5:
+		return ChiralTB
+	case 6:
+		return ChiralOH
+	}
+	return ChiralTH
+}
+
 // newChirality returns the mark atom a needs in the new writing. A
 // tetrahedral mark flips when the new neighbour order is an odd
-// permutation of the old one.
+// permutation of the old one; square planar, trigonal bipyramidal and
+// octahedral marks get the number that describes the same arrangement in
+// the new order. Allene marks are settled after the whole text is
+// written (see fixAllenes), since their ligands come later.
 func (w *writer) newChirality(a int) Chirality {
 	at := &w.m.Atoms[a]
 	c := at.Chirality
-	if c.Class == ChiralNone {
+	g := w.geometry(a)
+	if c.Class == ChiralNone || g == ChiralAL {
 		return c
 	}
-	before := w.readOrder(a)
-	after := w.writtenOrder(a)
+	before := w.readOrder(a, g)
+	after := w.writtenOrder(a, g)
 	if sameInts(before, after) {
 		return c
 	}
-	tetrahedral := c.Class == ChiralTH && !(c.Short && w.alleneCentre(a))
-	odd, ok := permutationOdd(before, after)
-	if !tetrahedral || len(before) != 4 || (c.Num != 1 && c.Num != 2) || !ok {
+	var num int
+	switch g {
+	case ChiralTH:
+		if odd, ok := permutationOdd(before, after); ok && len(before) == 4 && (c.Num == 1 || c.Num == 2) {
+			num = c.Num
+			if odd {
+				num = 3 - c.Num
+			}
+		}
+	case ChiralSP, ChiralTB, ChiralOH:
+		num = renumber(g, before, c.Num, after)
+	}
+	if num == 0 {
 		w.out.Unadjusted = append(w.out.Unadjusted, a)
 		return c
 	}
-	if odd {
-		c.Num = 3 - c.Num
+	if c.Short && num <= 2 {
+		c.Num = num // '@' and '@@' keep their short form
+		return c
 	}
-	return c
-}
-
-// checkAllenes adds to Unadjusted the allene centres whose ligands (the
-// neighbours of the two terminal atoms) now appear in a different
-// relative order. An allene mark is not rewritten: its meaning rests on
-// the order of atoms two bonds away and of the terminals' hydrogens.
-func (w *writer) checkAllenes() {
-	for a := range w.m.Atoms {
-		at := &w.m.Atoms[a]
-		allene := at.Chirality.Class == ChiralAL || (at.Chirality.Class == ChiralTH && at.Chirality.Short && w.alleneCentre(a))
-		if !allene || w.position[a] < 0 {
-			continue
-		}
-		var ligands []int
-		for _, b := range at.Bonds {
-			end := w.m.Bonds[b].Other(a)
-			for _, b2 := range w.m.Atoms[end].Bonds {
-				if x := w.m.Bonds[b2].Other(end); x != a {
-					ligands = append(ligands, x)
-				}
-			}
-		}
-		byInput := append([]int(nil), ligands...)
-		sort.Ints(byInput)
-		byOutput := append([]int(nil), ligands...)
-		sort.Slice(byOutput, func(i, j int) bool { return w.position[byOutput[i]] < w.position[byOutput[j]] })
-		if !sameInts(byInput, byOutput) && !containsInt(w.out.Unadjusted, a) {
-			w.out.Unadjusted = append(w.out.Unadjusted, a)
-		}
-	}
-}
-
-// alleneCentre reports whether a short mark on atom a is an allene
-// (extended tetrahedral) mark: two neighbours, both double bonds.
-func (w *writer) alleneCentre(a int) bool {
-	bonds := w.m.Atoms[a].Bonds
-	if len(bonds) != 2 {
-		return false
-	}
-	for _, b := range bonds {
-		if w.m.Bonds[b].Order != OrderDouble {
-			return false
-		}
-	}
-	return true
+	return Chirality{Class: g, Num: num, Span: c.Span}
 }
 
 // readOrder is the neighbour order the mark was written against: the
-// atom's bonds as read, with the implicit hydrogen or lone pair in its
-// slot when the centre has three neighbours.
-func (w *writer) readOrder(a int) []int {
+// atom's bonds as read, with the implicit hydrogen (or, for a
+// tetrahedral centre, the lone pair) in its slot.
+func (w *writer) readOrder(a int, g ChiralClass) []int {
 	at := &w.m.Atoms[a]
 	var order []int
 	for _, b := range at.Bonds {
 		order = append(order, w.m.Bonds[b].Other(a))
 	}
-	if len(order) == 3 {
+	if implicitMember(g, len(order), at.BracketH) {
 		order = insertAt(order, at.HydrogenSlot(), implicitSlot)
 	}
 	return order
@@ -600,7 +602,7 @@ func (w *writer) readOrder(a int) []int {
 // writtenOrder is the neighbour order in the new text: the parent, the
 // implicit slot, ring closures in the order their numbers were written,
 // then branches and the chain.
-func (w *writer) writtenOrder(a int) []int {
+func (w *writer) writtenOrder(a int, g ChiralClass) []int {
 	var order []int
 	hasPrev := w.parent[a] >= 0
 	if hasPrev {
@@ -612,7 +614,7 @@ func (w *writer) writtenOrder(a int) []int {
 	for _, b := range w.children[a] {
 		order = append(order, w.m.Bonds[b].Other(a))
 	}
-	if len(order) == 3 {
+	if implicitMember(g, len(order), w.m.Atoms[a].BracketH) {
 		slot := 0
 		if hasPrev {
 			slot = 1
@@ -620,6 +622,341 @@ func (w *writer) writtenOrder(a int) []int {
 		order = insertAt(order, slot, implicitSlot)
 	}
 	return order
+}
+
+// implicitMember reports whether a centre's neighbour order includes an
+// implicit member: the hydrogen written inside the brackets, or the lone
+// pair of a three-coordinate tetrahedral centre.
+func implicitMember(g ChiralClass, bonds, brackH int) bool {
+	if g == ChiralTH {
+		return bonds == 3
+	}
+	return brackH == 1
+}
+
+// polyhedron is the arrangement a square planar, trigonal bipyramidal or
+// octahedral mark describes, in terms of atoms: the axis from one atom
+// towards another, and the atoms around the axis in anticlockwise order
+// seen from its start. Square planar centres have no axis (-2, -2) and
+// their ring is the order around the square.
+type polyhedron struct {
+	from, to int
+	ring     []int
+	key      string // set by canonical
+}
+
+// tbAxes gives, for @TB1 to @TB20, the positions of the viewing axis in
+// the neighbour order and whether the other three are anticlockwise
+// (OpenSMILES 3.9, trigonal bipyramidal table).
+var tbAxes = [21]struct {
+	from, to      int
+	anticlockwise bool
+}{
+	1: {0, 4, true}, 2: {0, 4, false}, 3: {0, 3, true}, 4: {0, 3, false},
+	5: {0, 2, true}, 6: {0, 2, false}, 7: {0, 1, true}, 8: {0, 1, false},
+	9: {1, 4, true}, 11: {1, 4, false}, 10: {1, 3, true}, 12: {1, 3, false},
+	13: {1, 2, true}, 14: {1, 2, false}, 15: {2, 4, true}, 20: {2, 4, false},
+	16: {2, 3, true}, 19: {2, 3, false}, 17: {3, 4, true}, 18: {3, 4, false},
+}
+
+// Shapes of four atoms drawn in a square (OpenSMILES 3.9): the ring
+// positions the atoms take in the order they are listed. U goes round
+// the square; Z goes along one side, across, and along the opposite
+// side; '4' goes across, along a side, and across again.
+var (
+	shapeU    = [4]int{0, 1, 2, 3}
+	shapeZ    = [4]int{0, 1, 3, 2}
+	shapeFour = [4]int{0, 2, 3, 1}
+)
+
+// ohAxes gives, for @OH1 to @OH30, the axis end (the axis always starts
+// at the first neighbour), the shape of the other four and whether they
+// wind anticlockwise (OpenSMILES 3.9, octahedral table).
+var ohAxes = [31]struct {
+	to            int
+	shape         [4]int
+	anticlockwise bool
+}{
+	1: {5, shapeU, true}, 2: {5, shapeU, false}, 3: {4, shapeU, true}, 16: {4, shapeU, false},
+	6: {3, shapeU, true}, 18: {3, shapeU, false}, 19: {2, shapeU, true}, 24: {2, shapeU, false},
+	25: {1, shapeU, true}, 30: {1, shapeU, false},
+	4: {5, shapeZ, true}, 14: {5, shapeZ, false}, 5: {4, shapeZ, true}, 15: {4, shapeZ, false},
+	7: {3, shapeZ, true}, 17: {3, shapeZ, false}, 20: {2, shapeZ, true}, 23: {2, shapeZ, false},
+	26: {1, shapeZ, true}, 29: {1, shapeZ, false},
+	10: {5, shapeFour, true}, 8: {5, shapeFour, false}, 11: {4, shapeFour, true}, 9: {4, shapeFour, false},
+	13: {3, shapeFour, true}, 12: {3, shapeFour, false}, 22: {2, shapeFour, true}, 21: {2, shapeFour, false},
+	28: {1, shapeFour, true}, 27: {1, shapeFour, false},
+}
+
+// spShapes gives the shape of @SP1 to @SP3: U, '4' and Z.
+var spShapes = [4][4]int{1: shapeU, 2: shapeFour, 3: shapeZ}
+
+// classLimit is the highest number of each class.
+func classLimit(g ChiralClass) int {
+	switch g {
+	case ChiralSP:
+		return 3
+	case ChiralTB:
+		return 20
+	case ChiralOH:
+		return 30
+	}
+	return 2
+}
+
+// decodePolyhedron turns a mark number and a neighbour order into the
+// arrangement it describes, in canonical form (see canonical), or false
+// when the number or the count of neighbours does not fit the class.
+func decodePolyhedron(g ChiralClass, order []int, num int) (polyhedron, bool) {
+	if num < 1 || num > classLimit(g) {
+		return polyhedron{}, false
+	}
+	others := func(from, to int) []int {
+		var rest []int
+		for i, v := range order {
+			if i != from && i != to {
+				rest = append(rest, v)
+			}
+		}
+		return rest
+	}
+	placeInRing := func(listed []int, shape [4]int) []int {
+		ring := make([]int, 4)
+		for i, pos := range shape {
+			ring[pos] = listed[i]
+		}
+		return ring
+	}
+	var p polyhedron
+	switch g {
+	case ChiralSP:
+		if len(order) != 4 {
+			return p, false
+		}
+		p = polyhedron{from: -2, to: -2, ring: placeInRing(order, spShapes[num])}
+	case ChiralTB:
+		ax := tbAxes[num]
+		if len(order) != 5 {
+			return p, false
+		}
+		p = polyhedron{from: order[ax.from], to: order[ax.to], ring: others(ax.from, ax.to)}
+		if !ax.anticlockwise {
+			reverseInts(p.ring)
+		}
+	case ChiralOH:
+		ax := ohAxes[num]
+		if len(order) != 6 {
+			return p, false
+		}
+		p = polyhedron{from: order[0], to: order[ax.to], ring: placeInRing(others(0, ax.to), ax.shape)}
+		if !ax.anticlockwise {
+			reverseInts(p.ring)
+		}
+	default:
+		return p, false
+	}
+	return p.canonical(g), true
+}
+
+// canonical puts an arrangement in one form and sets its key, which is
+// equal for two arrangements exactly when they are the same. Trigonal
+// bipyramids have one axis: it is made to start at the smaller atom
+// (seen from the other end the ring turns the other way) and the ring to
+// start at its smallest atom. A square has no sense of turning: its ring
+// starts at the smallest atom and runs towards the smaller neighbour. An
+// octahedron has three equivalent axes, so it is keyed by its three trans
+// pairs and the handedness of one atom from each pair.
+func (p polyhedron) canonical(g ChiralClass) polyhedron {
+	if g == ChiralOH {
+		p.key = octahedronKey(p.from, p.to, p.ring)
+		return p
+	}
+	ring := append([]int(nil), p.ring...)
+	if g != ChiralSP && p.to < p.from {
+		p.from, p.to = p.to, p.from
+		reverseInts(ring)
+	}
+	least := 0
+	for i, v := range ring {
+		if v < ring[least] {
+			least = i
+		}
+	}
+	ring = append(ring[least:], ring[:least]...)
+	if g == ChiralSP && len(ring) == 4 && ring[3] < ring[1] {
+		reverseInts(ring[1:])
+	}
+	p.ring = ring
+	var sb strings.Builder
+	for _, v := range append([]int{p.from, p.to}, ring...) {
+		sb.WriteString(strconv.Itoa(v))
+		sb.WriteByte(' ')
+	}
+	p.key = sb.String()
+	return p
+}
+
+// octahedronKey places the atoms on the axes (from on +z, to on -z, the
+// ring anticlockwise seen from +z: +x, +y, -x, -y), pairs the atoms that
+// are trans, and records the sign of the triple product of the smaller
+// atom of each pair, taken in order of those atoms.
+func octahedronKey(from, to int, ring []int) string {
+	if len(ring) != 4 {
+		return "invalid"
+	}
+	pos := map[int][3]int{
+		from: {0, 0, 1}, to: {0, 0, -1},
+		ring[0]: {1, 0, 0}, ring[1]: {0, 1, 0}, ring[2]: {-1, 0, 0}, ring[3]: {0, -1, 0},
+	}
+	pairs := [][2]int{
+		{min(from, to), max(from, to)},
+		{min(ring[0], ring[2]), max(ring[0], ring[2])},
+		{min(ring[1], ring[3]), max(ring[1], ring[3])},
+	}
+	sort.Slice(pairs, func(i, j int) bool { return pairs[i][0] < pairs[j][0] })
+	u, v, w := pos[pairs[0][0]], pos[pairs[1][0]], pos[pairs[2][0]]
+	det := u[0]*(v[1]*w[2]-v[2]*w[1]) - u[1]*(v[0]*w[2]-v[2]*w[0]) + u[2]*(v[0]*w[1]-v[1]*w[0])
+	var sb strings.Builder
+	for _, pr := range pairs {
+		sb.WriteString(strconv.Itoa(pr[0]) + "-" + strconv.Itoa(pr[1]) + " ")
+	}
+	if det > 0 {
+		sb.WriteString("right")
+	} else {
+		sb.WriteString("left")
+	}
+	return sb.String()
+}
+
+func (p polyhedron) equal(q polyhedron) bool { return p.key == q.key }
+
+// renumber returns the number of class g that describes, for the
+// neighbour order after, the arrangement mark num describes for the
+// order before; 0 when there is none. The classes are small (at most 30
+// numbers), so every number is tried.
+func renumber(g ChiralClass, before []int, num int, after []int) int {
+	want, ok := decodePolyhedron(g, before, num)
+	if !ok {
+		return 0
+	}
+	for n := 1; n <= classLimit(g); n++ {
+		if got, ok := decodePolyhedron(g, after, n); ok && got.equal(want) {
+			return n
+		}
+	}
+	return 0
+}
+
+// alleneFix is an allene mark written into the text, to be checked once
+// the positions of its ligands are known.
+type alleneFix struct {
+	atom   int
+	offset int // of the mark in the text
+	mark   string
+}
+
+// fixAllenes rewrites allene marks for the new order of their ligands.
+// The allene is read as one tetrahedral centre whose neighbours are the
+// atoms on the two ends of the cumulated double bonds, in the order they
+// appear (OpenSMILES 3.9, allene-like systems). When an end carries
+// hydrogens that are not atoms of their own, their place in that order
+// is not defined by the standard, so the mark is reported as unadjusted
+// instead.
+func (w *writer) fixAllenes(text string) string {
+	var edits []Edit
+	for _, fix := range w.allenes {
+		ligands, ok := w.alleneLigands(fix.atom)
+		if !ok {
+			if !w.identityLigands(ligands) {
+				w.out.Unadjusted = append(w.out.Unadjusted, fix.atom)
+			}
+			continue
+		}
+		after := append([]int(nil), ligands...)
+		sort.Slice(after, func(i, j int) bool { return w.position[after[i]] < w.position[after[j]] })
+		odd, ok := permutationOdd(ligands, after)
+		if !ok {
+			w.out.Unadjusted = append(w.out.Unadjusted, fix.atom)
+			continue
+		}
+		if odd {
+			c := w.m.Atoms[fix.atom].Chirality
+			c.Num = 3 - c.Num
+			edits = append(edits, Edit{Span: Span{fix.offset, fix.offset + len(fix.mark)}, New: chiralityText(c)})
+		}
+	}
+	if len(edits) == 0 {
+		return text
+	}
+	out, err := ApplyEdits(text, edits)
+	if err != nil {
+		panic("internal error: allene marks overlap: " + err.Error())
+	}
+	return out
+}
+
+// identityLigands reports whether ligands keep their relative order.
+func (w *writer) identityLigands(ligands []int) bool {
+	for i := 1; i < len(ligands); i++ {
+		if w.position[ligands[i-1]] > w.position[ligands[i]] {
+			return false
+		}
+	}
+	return true
+}
+
+// alleneLigands returns the atoms attached to the two ends of the
+// cumulated system centred on atom a, in the order they were read, and
+// false when an end has hydrogens that are not atoms or the ligands are
+// not four distinct atoms.
+func (w *writer) alleneLigands(a int) ([]int, bool) {
+	var ligands []int
+	ok := true
+	for _, b := range w.m.Atoms[a].Bonds {
+		prev, end := a, w.m.Bonds[b].Other(a)
+		for steps := 0; w.alleneCentre(end) && steps < len(w.m.Atoms); steps++ {
+			next := -1
+			for _, b2 := range w.m.Atoms[end].Bonds {
+				if x := w.m.Bonds[b2].Other(end); x != prev {
+					next = x
+				}
+			}
+			prev, end = end, next
+		}
+		if w.m.Atoms[end].HydrogenCount() > 0 {
+			ok = false
+		}
+		for _, b2 := range w.m.Atoms[end].Bonds {
+			if x := w.m.Bonds[b2].Other(end); x != prev {
+				ligands = append(ligands, x)
+			}
+		}
+	}
+	sort.Ints(ligands)
+	if len(ligands) != 4 {
+		ok = false
+	}
+	for i := 1; i < len(ligands); i++ {
+		if ligands[i] == ligands[i-1] {
+			ok = false
+		}
+	}
+	return ligands, ok
+}
+
+// alleneCentre reports whether atom a has exactly two bonds, both double:
+// the centre (or an inner atom) of a cumulated system.
+func (w *writer) alleneCentre(a int) bool {
+	bonds := w.m.Atoms[a].Bonds
+	if len(bonds) != 2 {
+		return false
+	}
+	for _, b := range bonds {
+		if w.m.Bonds[b].Order != OrderDouble {
+			return false
+		}
+	}
+	return true
 }
 
 func insertAt(s []int, i, v int) []int {

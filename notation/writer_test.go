@@ -6,6 +6,7 @@ import (
 	"math/rand/v2"
 	"os"
 	"path/filepath"
+	"sort"
 	"strings"
 	"testing"
 )
@@ -39,6 +40,10 @@ func TestWriteExamples(t *testing.T) {
 		{"L-alanine from the methyl group", "N[C@@H](C)C(=O)O", WriteOptions{Start: 2}, "C[C@H](N)C(=O)O"},
 		{"sulfoxide lone pair takes the hydrogen's place", "C[S@@](=O)CC", WriteOptions{Start: 4}, "CC[S@@](C)=O"},
 		{"allene as read", "OC(Cl)=[C@]=C(C)F", WriteOptions{}, "OC(Cl)=[C@]=C(C)F"},
+		// ligands O Cl C F read in the order F O Cl C: a four-cycle, odd
+		{"allene from the other end", "OC(Cl)=[C@]=C(C)F", WriteOptions{Start: 6}, "FC(=[C@@]=C(O)Cl)C"},
+		// OH1 viewed along C->N; written from N the axis is N->C (OH30: U shape, a->b, clockwise)
+		{"octahedral from the other axis end", "C[Co@OH1](F)(Cl)(Br)(I)N", WriteOptions{Start: 6}, "N[Co@OH30](C)(F)(Cl)(Br)I"},
 		{"trans difluoroethene from the other end", "F/C=C/F", WriteOptions{Start: 3}, "F\\C=C\\F"},
 		{"reaction layout kept", "CC(=O)O.OCC>[H+]>CC(=O)OCC.O", WriteOptions{}, "CC(=O)O.OCC>[H+]>CC(=O)OCC.O"},
 		{"reaction with no agent", "C=C>>CC", WriteOptions{}, "C=C>>CC"},
@@ -61,8 +66,7 @@ func TestWriteExamples(t *testing.T) {
 }
 
 // TestWriteUnadjusted checks that marks the writer cannot re-express are
-// reported rather than silently kept: an allene written from the other
-// end and an octahedral centre written with its neighbours reordered.
+// reported rather than silently kept, and that the others are not.
 func TestWriteUnadjusted(t *testing.T) {
 	tests := []struct {
 		name, have string
@@ -70,9 +74,10 @@ func TestWriteUnadjusted(t *testing.T) {
 		want       []int
 	}{
 		{"allene as read", "OC(Cl)=[C@]=C(C)F", WriteOptions{}, nil},
-		{"allene from the other end", "OC(Cl)=[C@]=C(C)F", WriteOptions{Start: 6}, []int{3}},
-		{"octahedral as read", "C[Co@OH1](F)(Cl)(Br)(I)N", WriteOptions{}, nil},
-		{"octahedral reordered", "C[Co@OH1](F)(Cl)(Br)(I)N", WriteOptions{Start: 6}, []int{1}},
+		{"allene from the other end is rewritten", "OC(Cl)=[C@]=C(C)F", WriteOptions{Start: 6}, nil},
+		{"allene with hydrogens on its ends", "CC=[C@]=CC", WriteOptions{Start: 4}, []int{2}},
+		{"octahedral reordered is rewritten", "C[Co@OH1](F)(Cl)(Br)(I)N", WriteOptions{Start: 6}, nil},
+		{"a class number that does not fit the neighbours", "F[C@TB1](Cl)Br", WriteOptions{Start: 3}, []int{1}},
 		{"tetrahedral is rewritten, not reported", "F[C@](Cl)(Br)I", WriteOptions{Start: 4}, nil},
 	}
 	for _, tt := range tests {
@@ -86,6 +91,174 @@ func TestWriteUnadjusted(t *testing.T) {
 				t.Errorf("Write(%q) = %q, unadjusted %v, want %v", tt.have, got.Text, got.Unadjusted, tt.want)
 			}
 		})
+	}
+}
+
+// stereoKey describes the arrangement at a centre in terms of its
+// neighbours' keys rather than atom numbers, so that different writings
+// of one structure can be compared: for a tetrahedral centre the sorted
+// keys and the parity of the mark against them, for the other classes the
+// canonical polyhedron. Keys must be distinct around the centre.
+func stereoKey(m *Molecule, centre int, key func(int) int) string {
+	w := &writer{m: m}
+	g := w.geometry(centre)
+	order := w.readOrder(centre, g)
+	keyed := make([]int, len(order))
+	for i, a := range order {
+		keyed[i] = -1
+		if a >= 0 {
+			keyed[i] = key(a)
+		}
+	}
+	c := m.Atoms[centre].Chirality
+	if g == ChiralTH {
+		sorted := append([]int(nil), keyed...)
+		sort.Ints(sorted)
+		odd, ok := permutationOdd(sorted, keyed)
+		if !ok {
+			return "invalid"
+		}
+		return fmt.Sprint("TH", sorted, odd == (c.Num == 1))
+	}
+	p, ok := decodePolyhedron(g, keyed, c.Num)
+	if !ok {
+		return "invalid"
+	}
+	return fmt.Sprint(g, " ", p.key)
+}
+
+// elementKey tells neighbours apart by element.
+func elementKey(m *Molecule) func(int) int {
+	return func(a int) int { return m.Atoms[a].Number }
+}
+
+// distanceKey tells neighbours apart by element and by their distance
+// from the first atom of element z.
+func distanceKey(m *Molecule, z int) func(int) int {
+	dist := make([]int, len(m.Atoms))
+	for i := range dist {
+		dist[i] = -1
+	}
+	var queue []int
+	for i, a := range m.Atoms {
+		if a.Number == z {
+			dist[i] = 0
+			queue = append(queue, i)
+			break
+		}
+	}
+	for h := 0; h < len(queue); h++ {
+		a := queue[h]
+		for _, b := range m.Atoms[a].Bonds {
+			if o := m.Bonds[b].Other(a); dist[o] < 0 {
+				dist[o] = dist[a] + 1
+				queue = append(queue, o)
+			}
+		}
+	}
+	return func(a int) int { return m.Atoms[a].Number*1000 + dist[a] }
+}
+
+func chiralCentre(m *Molecule) int {
+	for i, a := range m.Atoms {
+		if a.Chirality.Class != ChiralNone {
+			return i
+		}
+	}
+	return -1
+}
+
+// TestSpecEquivalentMarks takes the tables of equivalent writings in
+// OpenSMILES 3.9 (tetrahedral centres, ring bonds at a centre,
+// trigonal bipyramidal and octahedral centres): every writing in a table
+// must describe the same arrangement, and so must twenty random
+// re-writings of each by Write.
+func TestSpecEquivalentMarks(t *testing.T) {
+	tables := []struct {
+		name    string
+		smiles  []string
+		keyedBy func(*Molecule) func(int) int
+	}{
+		{"tetrahedral", []string{"N[C@](Br)(O)C", "Br[C@](O)(N)C", "O[C@](Br)(C)N", "Br[C@](C)(O)N",
+			"C[C@](Br)(N)O", "Br[C@](N)(C)O", "C[C@@](Br)(O)N", "Br[C@@](N)(O)C", "[C@@](C)(Br)(O)N",
+			"[C@@](Br)(N)(O)C"}, elementKey},
+		{"ring bonds", []string{"FC1C[C@](Br)(Cl)CCC1", "[C@]1(Br)(Cl)CCCC(F)C1"},
+			func(m *Molecule) func(int) int { return distanceKey(m, ElemF) }},
+		{"implicit hydrogen", []string{"N[C@H](O)C", "N[C@@H](C)O", "[C@@H](N)(O)C"}, elementKey},
+		{"trigonal bipyramidal", []string{"S[As@TB1](F)(Cl)(Br)N", "S[As@TB2](Br)(Cl)(F)N",
+			"S[As@TB5](F)(N)(Cl)Br", "F[As@TB10](S)(Cl)(N)Br", "F[As@TB15](Cl)(S)(Br)N",
+			"Br[As@TB20](Cl)(S)(F)N"}, elementKey},
+		{"octahedral", []string{"C[Co@](F)(Cl)(Br)(I)S", "F[Co@@](S)(I)(C)(Cl)Br", "S[Co@OH5](F)(I)(Cl)(C)Br",
+			"Br[Co@OH9](C)(S)(Cl)(F)I", "Br[Co@OH12](Cl)(I)(F)(S)C", "Cl[Co@OH15](C)(Br)(F)(I)S",
+			"Cl[Co@OH19](C)(I)(F)(S)Br", "I[Co@OH27](Cl)(Br)(F)(S)C"}, elementKey},
+	}
+	for _, tt := range tables {
+		t.Run(tt.name, func(t *testing.T) {
+			want := ""
+			for i, s := range tt.smiles {
+				m := Read(s)
+				if m.Errors.HasErrors() {
+					t.Fatalf("read %q: %v", s, m.Errors)
+				}
+				got := stereoKey(m, chiralCentre(m), tt.keyedBy(m))
+				if i == 0 {
+					want = got
+				} else if got != want {
+					t.Errorf("%q describes %s, %q describes %s", s, got, tt.smiles[0], want)
+				}
+				for seed := uint64(0); seed < 20; seed++ {
+					w := Write(m, WriteOptions{Random: rand.New(rand.NewPCG(seed, uint64(i)))})
+					r := Read(w.Text)
+					if len(w.Unadjusted) > 0 || r.Errors.HasErrors() {
+						t.Fatalf("%q written as %q: unadjusted %v, errors %v", s, w.Text, w.Unadjusted, r.Errors)
+					}
+					if got := stereoKey(r, chiralCentre(r), tt.keyedBy(r)); got != want {
+						t.Errorf("%q written as %q describes %s, want %s", s, w.Text, got, want)
+					}
+				}
+			}
+		})
+	}
+}
+
+// TestSpecCisTrans takes the double-bond tables of OpenSMILES 3.9:
+// F/C=C/F and F\C=C\F and C(\F)=C/F are trans, F\C=C/F and C(/F)=C/F
+// cis; random re-writings must keep each.
+func TestSpecCisTrans(t *testing.T) {
+	tests := []struct {
+		smiles string
+		trans  bool
+	}{
+		{"F/C=C/F", true}, {"F\\C=C\\F", true}, {"C(\\F)=C/F", true},
+		{"F\\C=C/F", false}, {"F/C=C\\F", false}, {"C(/F)=C/F", false},
+	}
+	// trans reports whether the two fluorines lie on opposite sides: the
+	// marks read from each carbon towards its fluorine differ.
+	trans := func(m *Molecule) (bool, bool) {
+		var marks []Direction
+		for _, b := range m.Bonds {
+			if m.Atoms[b.Begin].Number == ElemF {
+				marks = append(marks, b.DirFrom(b.End))
+			} else if m.Atoms[b.End].Number == ElemF {
+				marks = append(marks, b.DirFrom(b.Begin))
+			}
+		}
+		if len(marks) != 2 || marks[0] == DirNone || marks[1] == DirNone {
+			return false, false
+		}
+		return marks[0] != marks[1], true
+	}
+	for i, tt := range tests {
+		m := Read(tt.smiles)
+		if got, ok := trans(m); !ok || got != tt.trans {
+			t.Errorf("%q read as trans=%v (ok %v), want %v", tt.smiles, got, ok, tt.trans)
+		}
+		for seed := uint64(0); seed < 20; seed++ {
+			w := Write(m, WriteOptions{Random: rand.New(rand.NewPCG(seed, uint64(i)))})
+			if got, ok := trans(Read(w.Text)); !ok || got != tt.trans {
+				t.Errorf("%q written as %q reads trans=%v, want %v", tt.smiles, w.Text, got, tt.trans)
+			}
+		}
 	}
 }
 

@@ -9,7 +9,8 @@ import (
 
 // TestNegatives runs the finder over a corpus of ordinary files written
 // for this test (testdata/negatives: Python, JavaScript, Go, Markdown,
-// JSON, YAML and CSV without structure columns, full of element-like
+// JSON, YAML and CSV without structure columns, and a little R, Julia,
+// Rust, Java and Kotlin, full of element-like
 // words, paths, URLs, regexes, versions, dates, "N/A" and "I/O") and
 // asserts that it finds nothing: false positives must stay rare. The
 // corpus must be large enough to mean something, so the test also

@@ -1,0 +1,19 @@
+// Ordinary Java: nothing here is notation.
+import java.util.List;
+import java.util.Map;
+
+public class Stock {
+    static final List<String> STATES = List.of("CO", "NO", "OK", "IN", "OR");
+    static final Map<String, String> UNITS = Map.of("C", "celsius", "F", "fahrenheit", "K", "kelvin");
+    static final String MISSING = "N/A";
+    static final String PORT = "I/O";
+    static final String PATH = "C:\\Data\\stock.csv";
+    static final char SEP = '/';
+    static final String HELP = """
+        Usage: stock --input stock.csv
+        """;
+
+    String label(String loc, String sku) {
+        return loc + "/" + sku;
+    }
+}

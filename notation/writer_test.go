@@ -111,7 +111,18 @@ func stereoKey(m *Molecule, centre int, key func(int) int) string {
 		}
 	}
 	c := m.Atoms[centre].Chirality
-	if g == ChiralTH {
+	if g == ChiralAL {
+		// the ligands on the two ends, in the order they appear
+		ligands, ok := w.alleneLigands(centre)
+		if !ok {
+			return "allene with hydrogens on its ends"
+		}
+		keyed = keyed[:0]
+		for _, a := range ligands {
+			keyed = append(keyed, key(a))
+		}
+	}
+	if g == ChiralTH || g == ChiralAL {
 		sorted := append([]int(nil), keyed...)
 		sort.Ints(sorted)
 		odd, ok := permutationOdd(sorted, keyed)
@@ -311,18 +322,14 @@ func sameStructure(m *Molecule, w Written, kekule bool) error {
 		}
 	}
 	for i := range r.Atoms {
-		got, want := &r.Atoms[i], &m.Atoms[w.Order[i]]
-		if want.Chirality.Class != ChiralTH || containsInt(w.Unadjusted, w.Order[i]) {
+		a := w.Order[i]
+		if m.Atoms[a].Chirality.Class == ChiralNone || containsInt(w.Unadjusted, a) {
 			continue
 		}
-		before := stereoOrder(m, w.Order[i], func(x int) int { return x })
-		after := stereoOrder(r, i, func(x int) int { return w.Order[x] })
-		odd, ok := permutationOdd(before, after)
-		if !ok || len(before) != 4 {
-			continue
-		}
-		if (got.Chirality.Num == want.Chirality.Num) == odd {
-			return fmt.Errorf("atom %d: mark %d read back describes the other enantiomer", w.Order[i], got.Chirality.Num)
+		want := stereoKey(m, a, func(x int) int { return x })
+		got := stereoKey(r, i, func(x int) int { return w.Order[x] })
+		if got != want {
+			return fmt.Errorf("atom %d: mark read back describes %s, want %s", a, got, want)
 		}
 	}
 	return nil

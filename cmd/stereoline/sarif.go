@@ -111,13 +111,18 @@ func sarifMessage(m string) string {
 }
 
 // ruleName is the code in UpperCamelCase, the form SARIF 2.1.0 §3.49.7
-// suggests for reportingDescriptor.name.
+// suggests for reportingDescriptor.name. A name must differ from the id
+// (the validator's rule SARIF1001), so one-word codes, all the reader's,
+// get the prefix Notation.
 func ruleName(c notation.Code) string {
 	var b strings.Builder
 	for _, part := range strings.Split(string(c), "-") {
 		if part != "" {
 			b.WriteString(strings.ToUpper(part[:1]) + part[1:])
 		}
+	}
+	if strings.EqualFold(b.String(), string(c)) {
+		return "Notation" + b.String()
 	}
 	return b.String()
 }

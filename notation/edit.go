@@ -165,7 +165,9 @@ func SetBondDirection(m *Molecule, b, from int, dir Direction) ([]Edit, error) {
 		return nil, editError(bd.Span, CodeEditUnsupported, "bond symbol not found in the text")
 	}
 	var edits []Edit
-	if m.Text[open.Start:open.End] != symbol {
+	current := m.Text[open.Start:open.End]
+	directed := current == "/" || current == "\\"
+	if current != symbol && (d != DirNone || directed) {
 		edits = append(edits, Edit{Span: open, New: symbol})
 	}
 	if bd.Ring {

@@ -155,6 +155,8 @@ func TestBondDirectionEdits(t *testing.T) {
 		{"remove between two aromatic atoms", "c1ccccc1/c1ccccc1", 6, 5, DirNone, "c1ccccc1-c1ccccc1", ""},
 		{"ring closure opening", "F/C=C/1.Cl1", 2, 2, DirDown, "F/C=C\\1.Cl1", ""},
 		{"ring closure mark moved to the opening", "F/C=C1.Cl/1", 2, 2, DirUp, "F/C=C/1.Cl1", ""},
+		{"removing where there is none leaves '-' alone", "F-C=CF", 0, 0, DirNone, "F-C=CF", ""},
+		{"remove a closing-end mark only", "F/C=C1.Cl/1", 2, 2, DirNone, "F/C=C1.Cl1", ""},
 		{"not a single bond", "FC=CF", 1, 1, DirUp, "", CodeEditUnsupported},
 		{"not an end of the bond", "FC=CF", 0, 3, DirUp, "", CodeEditRange},
 	}

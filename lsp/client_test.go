@@ -33,11 +33,12 @@ const testDebounce = 20 * time.Millisecond
 
 // fakeClient is one editor session.
 type fakeClient struct {
-	t      *testing.T
+	t      testing.TB
 	conn   jsonrpc2.Conn
 	logs   *syncBuffer
 	status chan int
 	calls  int // requests sent so far: the next request's id is calls+1
+	limit  time.Duration
 
 	mu       sync.Mutex
 	changed  chan struct{} // closed and replaced on every message from the server
@@ -83,17 +84,21 @@ type clientSetup struct {
 	rootURI  string
 	debounce time.Duration
 	hook     func(*Server)
-	noInit   bool // do not send initialize
+	noInit   bool          // do not send initialize
+	limit    time.Duration // how long to wait for the server; 0 means waitLimit
 }
 
 // start runs a server on one end of a pipe and initializes it from the
 // other.
-func start(t *testing.T, setup clientSetup) *fakeClient {
+func start(t testing.TB, setup clientSetup) *fakeClient {
 	t.Helper()
 	serverEnd, clientEnd := net.Pipe()
 	logs := &syncBuffer{}
 	log := zap.New(zapcore.NewCore(zapcore.NewJSONEncoder(zap.NewProductionEncoderConfig()), logs, zapcore.DebugLevel))
-	c := &fakeClient{t: t, logs: logs, status: make(chan int, 1), changed: make(chan struct{}), settings: setup.settings}
+	c := &fakeClient{t: t, logs: logs, status: make(chan int, 1), changed: make(chan struct{}), settings: setup.settings, limit: setup.limit}
+	if c.limit == 0 {
+		c.limit = waitLimit
+	}
 	debounce := setup.debounce
 	if debounce == 0 {
 		debounce = testDebounce
@@ -193,12 +198,12 @@ func (c *fakeClient) handle(ctx context.Context, reply jsonrpc2.Replier, req jso
 // call sends a request and decodes its answer.
 func (c *fakeClient) call(method string, params, result any) error {
 	c.t.Helper()
-	ctx, cancel := context.WithTimeout(context.Background(), waitLimit)
+	ctx, cancel := context.WithTimeout(context.Background(), c.limit)
 	defer cancel()
 	c.calls++
 	_, err := c.conn.Call(ctx, method, params, result)
 	if errors.Is(err, context.DeadlineExceeded) {
-		c.t.Fatalf("%s: no answer in %v", method, waitLimit)
+		c.t.Fatalf("%s: no answer in %v", method, c.limit)
 	}
 	return err
 }
@@ -249,7 +254,7 @@ func edit(startLine, startChar, endLine, endChar int, text string) map[string]an
 // until waits for cond to hold over the collected messages.
 func (c *fakeClient) until(what string, cond func() bool) {
 	c.t.Helper()
-	deadline := time.After(waitLimit)
+	deadline := time.After(c.limit)
 	for {
 		c.mu.Lock()
 		ok := cond()
@@ -261,7 +266,7 @@ func (c *fakeClient) until(what string, cond func() bool) {
 		select {
 		case <-ch:
 		case <-deadline:
-			c.t.Fatalf("waited %v for %s", waitLimit, what)
+			c.t.Fatalf("waited %v for %s", c.limit, what)
 		}
 	}
 }
@@ -330,7 +335,7 @@ func (c *fakeClient) exit() int {
 // the server's mapper: lines split at \n, \r\n or \r, characters counted
 // in the negotiated encoding through Go's UTF-16 and UTF-8 packages (LSP
 // 3.17, "Position").
-func rangeText(t *testing.T, text string, r protocol.Range, enc PositionEncoding) string {
+func rangeText(t testing.TB, text string, r protocol.Range, enc PositionEncoding) string {
 	t.Helper()
 	start := positionOffset(t, text, r.Start, enc)
 	end := positionOffset(t, text, r.End, enc)
@@ -340,7 +345,7 @@ func rangeText(t *testing.T, text string, r protocol.Range, enc PositionEncoding
 	return text[start:end]
 }
 
-func positionOffset(t *testing.T, text string, p protocol.Position, enc PositionEncoding) int {
+func positionOffset(t testing.TB, text string, p protocol.Position, enc PositionEncoding) int {
 	t.Helper()
 	lineStart, line := 0, 0
 	for line < int(p.Line) {

@@ -11,7 +11,7 @@ import (
 // without a range replaces the whole text; an empty range inserts.
 
 // codes lists the diagnostic codes with the text each covers.
-func codes(t *testing.T, c *fakeClient, uri string, version int32, text string) []string {
+func codes(t testing.TB, c *fakeClient, uri string, version int32, text string) []string {
 	t.Helper()
 	var out []string
 	for _, d := range c.diagnostics(uri, version) {

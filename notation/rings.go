@@ -54,7 +54,7 @@ func (r *Rings) BondInRing(b int) bool { return b >= 0 && b < len(r.BondSize) &&
 // does at most eliminationBudget units of work.
 const (
 	ringSearchLimit   = 4096
-	hortonAtomLimit   = 64
+	hortonAtomLimit   = 128
 	eliminationBudget = 1 << 24
 )
 
@@ -68,8 +68,11 @@ const (
 // O(bonds * min(block size, ringSearchLimit)); in molecules with ordinary
 // rings each search ends after a few dozen atoms. Blocks of up to
 // hortonAtomLimit atoms also get Horton's candidate set (one search per
-// atom), which makes their basis exact. Chains and the acyclic parts of a
-// polymer cost one visit per atom and bond.
+// atom, O(atoms * bonds) for the block), which makes their basis exact.
+// In larger blocks each basis ring is a shortest ring through one of its
+// bonds; that is the usual smallest set for fused systems (a ladder, a
+// sheet) but not guaranteed for every graph. Chains and the acyclic parts
+// of a polymer cost one visit per atom and bond.
 func FindRings(m *Molecule) *Rings {
 	g := newRingGraph(m)
 	r := &Rings{

@@ -48,11 +48,12 @@ type digraph struct {
 	limit  int
 	capped bool
 
-	sorted   map[sortKey][]nodeID
-	compared map[cmpKey][2]int
-	aux      map[nodeID]Descriptor
-	auxing   map[nodeID]bool
-	cfg      *configs
+	compared   map[[2]uint64][2]int32
+	sortedAux  map[uint64][]nodeID // children in rule order, auxiliary views
+	sortedRoot map[sortKey][]nodeID
+	aux        map[nodeID]Descriptor
+	auxing     map[nodeID]bool
+	cfg        *configs
 	// refAtom is the Rule 6 reference, -1 when none is chosen.
 	refAtom int
 	// mirror makes the root's view see the auxiliary descriptors of the
@@ -75,9 +76,14 @@ type sortKey struct {
 // units are reported undetermined.
 const defaultNodeCap = 40000
 
+// maxNodeCap keeps node numbers within the 20 bits the memo keys give
+// them.
+const maxNodeCap = 1<<20 - 2
+
 func newDigraph(g *graph, cfg *configs, rootAtom int, limit int) *digraph {
+	limit = min(limit, maxNodeCap)
 	d := &digraph{g: g, limit: limit, cfg: cfg, refAtom: -1,
-		sorted: map[sortKey][]nodeID{}, compared: map[cmpKey][2]int{}, aux: map[nodeID]Descriptor{}, auxing: map[nodeID]bool{}}
+		compared: map[[2]uint64][2]int32{}, sortedAux: map[uint64][]nodeID{}, sortedRoot: map[sortKey][]nodeID{}, aux: map[nodeID]Descriptor{}, auxing: map[nodeID]bool{}}
 	d.nodes = append(d.nodes, node{atom: rootAtom, kind: nodeAtom, parent: noNode, corr: noNode, bond: -1,
 		z: float64(g.z[rootAtom]), mass: g.mass[rootAtom]})
 	return d

@@ -60,10 +60,10 @@ func init() {
 // (positive when a precedes) and the sphere, counted from the root, where
 // the difference lies.
 func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
-	key := cmpKey{root: root, a: a, af: af, b: b, bf: bf, rule: r, ref: -1}
-	key.ref, key.mirror = d.viewState(root, r)
+	ref, mirror := d.viewState(root, r)
+	key := packCompare(root, a, af, b, bf, r, ref, mirror)
 	if v, ok := d.compared[key]; ok {
-		return v[0], v[1]
+		return int(v[0]), int(v[1])
 	}
 	var c, s int
 	if r == Rule4b {
@@ -72,19 +72,27 @@ func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
 		c, s = d.compareSpheres(root, a, af, b, bf, r)
 	}
 	if !d.capped {
-		d.compared[key] = [2]int{c, s}
+		d.compared[key] = [2]int32{int32(c), int32(s)}
 	}
 	return c, s
 }
 
-// cmpKey identifies one comparison for the memo: the same pair of
-// branches is compared again and again while siblings are sorted at
-// each level of the rule chain.
-type cmpKey struct {
-	root, a, af, b, bf nodeID
-	rule               Rule
-	ref                int
-	mirror             bool
+// The memo keys pack node numbers (at most the node cap, so 20 bits
+// each, offset by one for noNode) into machine words, which hash far
+// faster than structs: the same pair of branches is compared again and
+// again while siblings are sorted at each level of the rule chain.
+
+func packView(n, from, root nodeID, r Rule) uint64 {
+	return uint64(n+1) | uint64(from+1)<<20 | uint64(root+1)<<40 | uint64(r)<<60
+}
+
+func packCompare(root, a, af, b, bf nodeID, r Rule, ref int, mirror bool) [2]uint64 {
+	k0 := uint64(root+1) | uint64(a+1)<<20 | uint64(af+1)<<40 | uint64(r)<<60
+	k1 := uint64(b+1) | uint64(bf+1)<<20 | uint64(ref+1)<<40
+	if mirror {
+		k1 |= 1 << 63
+	}
+	return [2]uint64{k0, k1}
 }
 
 // compareChain applies the rules up to and including last, in order. It
@@ -194,8 +202,13 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 		}
 	}
 	key := sortKey{n: n, from: from, root: root, level: int(r), ref: ref, mirror: mirror}
+	packed := packView(n, from, root, r)
 	if !fast {
-		if s, ok := d.sorted[key]; ok {
+		if root != 0 {
+			if s, ok := d.sortedAux[packed]; ok {
+				return s
+			}
+		} else if s, ok := d.sortedRoot[key]; ok {
 			return s
 		}
 	}
@@ -212,10 +225,13 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 			s[j], s[j-1] = s[j-1], s[j]
 		}
 	}
-	if fast {
+	switch {
+	case fast:
 		d.nodes[n].sorted[r] = &s
-	} else {
-		d.sorted[key] = s
+	case root != 0:
+		d.sortedAux[packed] = s
+	default:
+		d.sortedRoot[key] = s
 	}
 	return s
 }

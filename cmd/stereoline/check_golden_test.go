@@ -59,6 +59,10 @@ func TestCheckGolden(t *testing.T) {
 			if status != 1 {
 				t.Errorf("exit status %d, want 1; stderr:\n%s", status, stderr)
 			}
+			// stderr is not a terminal here: no progress line.
+			if strings.Contains(stderr, "\r") || strings.Contains(stderr, "checked ") {
+				t.Errorf("progress output on a non-terminal stderr: %q", stderr)
+			}
 			compareGolden(t, c.golden, []byte(stdout+"--- stderr\n"+stderr))
 		})
 	}

@@ -110,8 +110,9 @@ func (r *checkRun) loadChanges(files []checkFile) error {
 // addRepo runs git diff in one repository and records its changed lines.
 func (c *changedLines) addRepo(top string) error {
 	// core.quotepath=off keeps non-ASCII names as they are; --no-ext-diff
-	// and --no-color keep the output parseable whatever the user set.
-	out, err := git(top, "-c", "core.quotepath=off", "diff", "-U0", "--no-color", "--no-ext-diff", c.rev, "--")
+	// and --no-color keep the output parseable whatever the user set, and
+	// explicit prefixes undo diff.noprefix and diff.mnemonicPrefix.
+	out, err := git(top, "-c", "core.quotepath=off", "diff", "-U0", "--no-color", "--no-ext-diff", "--src-prefix=a/", "--dst-prefix=b/", c.rev, "--")
 	if err != nil {
 		return err
 	}

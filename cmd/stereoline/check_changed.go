@@ -146,7 +146,8 @@ func parseUnifiedZero(out string) map[string]lineSet {
 		line := sc.Text()
 		switch {
 		case strings.HasPrefix(line, "+++ "):
-			name := strings.TrimPrefix(line, "+++ ")
+			// git ends the line with a tab when the name holds a space.
+			name := strings.TrimSuffix(strings.TrimPrefix(line, "+++ "), "\t")
 			if name == "/dev/null" {
 				cur = ""
 				continue

@@ -34,12 +34,16 @@ func TestCheckChangedSince(t *testing.T) {
 		"CCO line 2\n" +
 		"C1CCC/C=C/1 line 3, strained before the change\n" +
 		"CCN line 4\n"
-	dir := gitRepo(t, map[string]string{"blocks.smi": base, "other.smi": "C/C=CC untouched\n"})
+	dir := gitRepo(t, map[string]string{"blocks.smi": base, "other.smi": "C/C=CC untouched\n", "with space.smi": "CCO\n"})
 	// Change line 2 to a one-sided bond and line 4 to a strained ring;
 	// lines 1 and 3 keep their old findings.
 	changed := strings.Replace(base, "CCO line 2", "C/C=CC line 2, new", 1)
 	changed = strings.Replace(changed, "CCN line 4", "C1CCC/C=C/1 line 4, new", 1)
 	if err := os.WriteFile(filepath.Join(dir, "blocks.smi"), []byte(changed), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	// A name with a space (git marks the end of such names with a tab).
+	if err := os.WriteFile(filepath.Join(dir, "with space.smi"), []byte("CCO\nC/C=CC spaced\n"), 0o644); err != nil {
 		t.Fatal(err)
 	}
 	// A file git does not track is new in every line.
@@ -57,6 +61,7 @@ func TestCheckChangedSince(t *testing.T) {
 		"blocks.smi:2:2: warning: only one end of this double bond is marked, so its configuration is open [stereo-one-sided-bond]",
 		"blocks.smi:4:6: error: trans double bond in a ring of 6 atoms; the smallest ring that holds one has 8 [stereo-strained-ring]",
 		"new.smi:1:2: warning: only one end of this double bond is marked, so its configuration is open [stereo-one-sided-bond]",
+		"with space.smi:2:2: warning: only one end of this double bond is marked, so its configuration is open [stereo-one-sided-bond]",
 	}
 	if !reflect.DeepEqual(lines, want) {
 		t.Errorf("findings on changed lines:\n%s\nwant:\n%s", strings.Join(lines, "\n"), strings.Join(want, "\n"))
@@ -66,8 +71,8 @@ func TestCheckChangedSince(t *testing.T) {
 	}
 	// Without the filter the old findings are there too.
 	all, _, _ := runCheck(t, "", dir)
-	if n := strings.Count(all, "\n"); n != 6 {
-		t.Errorf("without --changed-since want 6 findings, got %d:\n%s", n, all)
+	if n := strings.Count(all, "\n"); n != 7 {
+		t.Errorf("without --changed-since want 7 findings, got %d:\n%s", n, all)
 	}
 	// A revision git does not know is a usage error naming it.
 	_, stderr, status = runCheck(t, "", "--changed-since", "no-such-rev", dir)

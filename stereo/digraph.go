@@ -51,6 +51,7 @@ type digraph struct {
 	compared   map[[2]uint64][2]int32
 	sortedAux  map[uint64][]nodeID // children in rule order, auxiliary views
 	sortedRoot map[sortKey][]nodeID
+	free       []*[4][]step // walk queues for reuse
 	aux        map[nodeID]Descriptor
 	auxing     map[nodeID]bool
 	cfg        *configs

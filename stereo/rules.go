@@ -136,7 +136,12 @@ type step struct{ n, from nodeID }
 // (atomic number zero), so the two walks stay aligned.
 func (d *digraph) compareSpheres(root, a, af, b, bf nodeID, r Rule) (int, int) {
 	value := nodeRules[r]
-	qa, qb := []step{{a, af}}, []step{{b, bf}}
+	bufs := d.takeBuffers()
+	defer d.putBuffers(bufs)
+	qa, qb, na, nb := bufs[0][:0], bufs[1][:0], bufs[2][:0], bufs[3][:0]
+	qa = append(qa, step{a, af})
+	qb = append(qb, step{b, bf})
+	defer func() { bufs[0], bufs[1], bufs[2], bufs[3] = qa, qb, na, nb }()
 	for sphere := d.sphereOf(root, a); len(qa) > 0; sphere++ {
 		for i := range qa {
 			va, vb := d.valueOf(value, root, qa[i].n), d.valueOf(value, root, qb[i].n)
@@ -147,7 +152,7 @@ func (d *digraph) compareSpheres(root, a, af, b, bf nodeID, r Rule) (int, int) {
 				return -1, sphere
 			}
 		}
-		var na, nb []step
+		na, nb = na[:0], nb[:0]
 		for i := range qa {
 			ka := d.sortedNeighbours(root, qa[i].n, qa[i].from, r)
 			kb := d.sortedNeighbours(root, qb[i].n, qb[i].from, r)
@@ -160,10 +165,25 @@ func (d *digraph) compareSpheres(root, a, af, b, bf nodeID, r Rule) (int, int) {
 		if d.capped {
 			return 0, sphere
 		}
-		qa, qb = na, nb
+		qa, na = na, qa
+		qb, nb = nb, qb
 	}
 	return 0, 0
 }
+
+// takeBuffers hands out four reusable walk queues; comparisons nest
+// (sorting a node's children compares their branches), so the buffers
+// form a stack.
+func (d *digraph) takeBuffers() *[4][]step {
+	if n := len(d.free); n > 0 {
+		b := d.free[n-1]
+		d.free = d.free[:n-1]
+		return b
+	}
+	return new([4][]step)
+}
+
+func (d *digraph) putBuffers(b *[4][]step) { d.free = append(d.free, b) }
 
 func stepAt(ks []nodeID, j int, from nodeID) step {
 	if j < len(ks) {

@@ -45,12 +45,10 @@ func check(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		return status
 	}
 	run := newCheckRun(opts, stdin, stderr)
+	// A path that cannot be read is reported at once, naming it, and
+	// makes the exit status 2; the readable files are still checked, so
+	// one bad path in a CI job does not hide every other finding.
 	files := run.collect()
-	if run.failed {
-		// A path that cannot be read is a usage problem: report it before
-		// any findings so CI logs lead with it.
-		return 2
-	}
 	if opts.changedSince != "" {
 		if err := run.loadChanges(files); err != nil {
 			fmt.Fprintf(stderr, "stereoline: --changed-since %s: %v\n", opts.changedSince, err)
@@ -58,9 +56,6 @@ func check(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		}
 	}
 	reports := run.analyzeAll(files)
-	if run.failed {
-		return 2
-	}
 	out := bufio.NewWriter(stdout)
 	var err error
 	switch opts.format {
@@ -80,6 +75,9 @@ func check(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	}
 	sum := summarize(reports)
 	fmt.Fprintln(stderr, sum.line(opts.changedSince != ""))
+	if run.failed {
+		return 2
+	}
 	if sum.atOrAbove(opts.failOn) > 0 {
 		return 1
 	}

@@ -58,6 +58,7 @@ func TestCheckExitStatus(t *testing.T) {
 		{"options after the path", []string{p("warning.smi"), "--fail-on", "warning"}, 1, ""},
 		{"missing path names it", []string{p("no-such.smi")}, 2, "no-such.smi"},
 		{"missing path among good ones", []string{p("clean.smi"), p("gone")}, 2, "gone"},
+		{"missing path still checks the rest", []string{p("gone"), p("error.smi")}, 2, "1 error,"},
 		{"unknown option", []string{"--colour", p("clean.smi")}, 2, "colour"},
 		{"bad format", []string{"--format", "xml", p("clean.smi")}, 2, "--format"},
 		{"bad fail-on", []string{"--fail-on", "hint", p("clean.smi")}, 2, "--fail-on"},

@@ -68,6 +68,7 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 		l.nodeCap = defaultNodeCap
 	}
 	l.readCentres()
+	l.checkBridgeheads()
 	l.readBonds()
 	l.checkRingClosures()
 	l.labelAll()

@@ -70,6 +70,10 @@ func TestDiagnostics(t *testing.T) {
 		{"C[C@H](C)O", CodeIneffectiveCenter, notation.SeverityWarning, "@"},
 		// @SP needs four neighbours (OpenSMILES 1.0, section 3.9.4)
 		{"C[C@SP1H]C", CodeImpossibleCenter, notation.SeverityError, "@SP1"},
+		// norbornane with one bridgehead hydrogen inside the cage: the
+		// suite's VS113 (F[C@H]1[C@@H]2C[C@H]([C@H]1CC2)Br) with its second
+		// bridgehead inverted (common practice: small bicycles are out,out)
+		{"F[C@H]1[C@@H]2C[C@H]([C@@H]1CC2)Br", CodeImpossibleCenter, notation.SeverityError, "@@"},
 		// an aromatic carbon is planar
 		{"c1cc[c@H]cc1", CodeImpossibleCenter, notation.SeverityError, "@"},
 		// only one end of the double bond marked

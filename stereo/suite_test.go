@@ -146,6 +146,14 @@ func TestValidationSuiteMarks(t *testing.T) {
 				t.Errorf("%s: atom %d labelled=%v but ineffective-center=%v  %s", c.id, i+1, labelled[i], has, c.smiles)
 			}
 		}
+		// the suite's structures are real: no mark in them is impossible
+		// or contradictory
+		for _, e := range a.Diagnostics {
+			if e.Severity == notation.SeverityError {
+				bad++
+				t.Errorf("%s: %v  %s", c.id, e, c.smiles)
+			}
+		}
 		for bi := range m.Bonds {
 			b := &m.Bonds[bi]
 			if b.Dir == notation.DirNone && b.CloseDir == notation.DirNone {

@@ -79,17 +79,30 @@ func (s *Server) result(ctx context.Context, snap *snapshot, uri string) (*fileV
 // worker analyses documents after they change and publishes their
 // diagnostics. Edits are debounced per document: a document is analysed
 // once its last change is older than the debounce time, and only its
-// latest version is published.
+// latest version is published. Documents are published concurrently, so
+// a small file is not kept waiting behind a large one, but at most one
+// publication per document runs at a time: a version that arrives while
+// one is being analysed is published after it.
 type worker struct {
-	s    *Server
-	mu   sync.Mutex
-	due  map[string]time.Time
-	sent map[string]bool // documents with diagnostics on the client
-	wake chan struct{}
+	s        *Server
+	mu       sync.Mutex
+	due      map[string]time.Time
+	inflight map[string]bool
+	again    map[string]bool
+	sent     map[string]bool // documents with diagnostics on the client
+	wake     chan struct{}
+	pub      sync.Mutex // orders the check that a version is current with its publication
 }
 
 func newWorker(s *Server) *worker {
-	return &worker{s: s, due: map[string]time.Time{}, sent: map[string]bool{}, wake: make(chan struct{}, 1)}
+	return &worker{
+		s:        s,
+		due:      map[string]time.Time{},
+		inflight: map[string]bool{},
+		again:    map[string]bool{},
+		sent:     map[string]bool{},
+		wake:     make(chan struct{}, 1),
+	}
 }
 
 // schedule asks for uri to be published after delay (0: now).
@@ -103,15 +116,20 @@ func (w *worker) schedule(uri string, delay time.Duration) {
 	}
 }
 
-// take removes and returns the documents that are due, and the time the
-// next one will be.
+// take removes and returns the documents that are due and not being
+// published, and the time the next one will be due.
 func (w *worker) take(now time.Time) (ready []string, next time.Time) {
 	w.mu.Lock()
 	defer w.mu.Unlock()
 	for uri, t := range w.due {
 		if !t.After(now) {
-			ready = append(ready, uri)
 			delete(w.due, uri)
+			if w.inflight[uri] {
+				w.again[uri] = true
+				continue
+			}
+			w.inflight[uri] = true
+			ready = append(ready, uri)
 		} else if next.IsZero() || t.Before(next) {
 			next = t
 		}
@@ -125,10 +143,7 @@ func (w *worker) run(ctx context.Context) {
 	for {
 		ready, next := w.take(time.Now())
 		for _, uri := range ready {
-			w.publish(ctx, uri)
-		}
-		if len(ready) > 0 {
-			continue
+			go w.publishOnce(ctx, uri)
 		}
 		wait := time.Hour
 		if !next.IsZero() {
@@ -150,6 +165,19 @@ func (w *worker) run(ctx context.Context) {
 	}
 }
 
+// publishOnce publishes uri, then again if it changed meanwhile.
+func (w *worker) publishOnce(ctx context.Context, uri string) {
+	w.publish(ctx, uri)
+	w.mu.Lock()
+	delete(w.inflight, uri)
+	again := w.again[uri]
+	delete(w.again, uri)
+	w.mu.Unlock()
+	if again {
+		w.schedule(uri, 0)
+	}
+}
+
 // publish analyses the current version of uri and pushes its
 // diagnostics, or clears them when the document was closed. A version
 // that was replaced while it was analysed is not published: its
@@ -157,9 +185,13 @@ func (w *worker) run(ctx context.Context) {
 func (w *worker) publish(ctx context.Context, uri string) {
 	defer w.s.recoverPanic("publishDiagnostics")
 	s := w.s
-	snap := s.current()
-	f, a, open := snap.lookup(uri)
+	f, a, open := s.current().lookup(uri)
 	if !open {
+		w.pub.Lock()
+		defer w.pub.Unlock()
+		if _, _, reopened := s.current().lookup(uri); reopened {
+			return
+		}
 		w.mu.Lock()
 		had := w.sent[uri]
 		delete(w.sent, uri)
@@ -173,12 +205,14 @@ func (w *worker) publish(ctx context.Context, uri string) {
 	if err != nil || !s.pushesDiagnostics() {
 		return // the analysis is warm for the pull that will come
 	}
-	if cur := s.current(); cur.analyses[uri] != a {
-		return
-	}
 	diags, err := s.toDiagnostics(f, res)
 	if err != nil {
 		s.log.Error("internal error", zap.String("uri", uri), zap.Error(fmt.Errorf("diagnostics: %w", err)))
+		return
+	}
+	w.pub.Lock()
+	defer w.pub.Unlock()
+	if cur := s.current(); cur.analyses[uri] != a {
 		return
 	}
 	version := f.Version

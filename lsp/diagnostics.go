@@ -10,6 +10,7 @@ import (
 	"path/filepath"
 	"sort"
 	"strings"
+	"time"
 
 	"go.lsp.dev/protocol"
 	"go.lsp.dev/uri"
@@ -115,10 +116,20 @@ const (
 	progressEvery   = 25
 )
 
+// holdLimit bounds how long a workspace pull whose every report is
+// unchanged is held open waiting for a change.
+const holdLimit = time.Minute
+
 // workspaceDiagnostic answers workspace/diagnostic: the open documents
 // (at the request's snapshot) and every host file under the workspace
 // folders that is not open. Progress goes to the client's work-done token
 // when it gave one; cancellation is checked between files.
+//
+// Clients send the next workspace pull as soon as one is answered and
+// expect the server to hold it (LSP 3.17, "Workspace Diagnostics": the
+// server may keep the request open). So a pull whose reports would all be
+// unchanged waits for the next edit, up to holdLimit, and is then
+// computed again.
 func (s *Server) workspaceDiagnostic(ctx context.Context, snap *snapshot, params json.RawMessage) (any, error) {
 	var p workspaceDiagnosticParams
 	if err := decode(params, &p); err != nil {
@@ -128,10 +139,36 @@ func (s *Server) workspaceDiagnostic(ctx context.Context, snap *snapshot, params
 	for _, r := range p.PreviousResultIDs {
 		previous[r.URI] = r.Value
 	}
+	token := p.WorkDoneToken
+	held := time.NewTimer(holdLimit)
+	defer held.Stop()
+	for {
+		s.mu.Lock()
+		changed := s.changed
+		s.mu.Unlock()
+		report, fresh, err := s.scanWorkspace(ctx, snap, token, previous)
+		if err != nil || fresh > 0 || len(previous) == 0 {
+			return report, err
+		}
+		token = nil // a token's progress ends once
+		select {
+		case <-changed:
+			snap = s.current()
+		case <-held.C:
+			return report, nil
+		case <-ctx.Done():
+			return nil, ctx.Err()
+		}
+	}
+}
+
+// scanWorkspace builds one workspace report and counts its full
+// (changed) document reports.
+func (s *Server) scanWorkspace(ctx context.Context, snap *snapshot, token *protocol.ProgressToken, previous map[string]string) (workspaceDiagnosticReport, int, error) {
+	report := workspaceDiagnosticReport{Items: []workspaceDocumentReport{}}
 	s.mu.Lock()
 	roots := append([]string{}, s.roots...)
 	s.mu.Unlock()
-
 	openPaths := map[string]bool{}
 	uris := make([]string, 0, len(snap.files))
 	for u, f := range snap.files {
@@ -143,17 +180,22 @@ func (s *Server) workspaceDiagnostic(ctx context.Context, snap *snapshot, params
 	sort.Strings(uris)
 	disk := s.hostFiles(ctx, snap, roots, openPaths)
 
-	prog := s.startProgress(p.WorkDoneToken, "Checking stereo marks", len(uris)+len(disk))
+	prog := s.startProgress(token, "Checking stereo marks", len(uris)+len(disk))
 	defer prog.end()
-	report := workspaceDiagnosticReport{Items: []workspaceDocumentReport{}}
-	done := 0
+	done, fresh := 0, 0
+	add := func(item workspaceDocumentReport) {
+		report.Items = append(report.Items, item)
+		if item.Kind == "full" {
+			fresh++
+		}
+	}
 	for _, u := range uris {
 		if err := ctx.Err(); err != nil {
-			return nil, err
+			return report, 0, err
 		}
 		f, res, ok, err := s.result(ctx, snap, u)
 		if err != nil {
-			return nil, err
+			return report, 0, err
 		}
 		done++
 		prog.report(done)
@@ -168,24 +210,23 @@ func (s *Server) workspaceDiagnostic(ctx context.Context, snap *snapshot, params
 		} else {
 			diags, err := s.toDiagnostics(f, res)
 			if err != nil {
-				return nil, err
+				return report, 0, err
 			}
 			item.documentDiagnosticReport = documentDiagnosticReport{Kind: "full", ResultID: id, Items: diags}
 		}
-		report.Items = append(report.Items, item)
+		add(item)
 	}
 	for _, file := range disk {
 		if err := ctx.Err(); err != nil {
-			return nil, err
+			return report, 0, err
 		}
 		done++
 		prog.report(done)
-		item, ok := s.diskReport(snap, file, previous)
-		if ok {
-			report.Items = append(report.Items, item)
+		if item, ok := s.diskReport(ctx, snap, file, previous); ok {
+			add(item)
 		}
 	}
-	return report, nil
+	return report, fresh, nil
 }
 
 // diskFile is a host file found under a workspace folder.
@@ -247,7 +288,7 @@ func isHostFile(cfg document.Config, name string) bool {
 
 // diskReport analyses a file that is not open. Its result id is its
 // modification time and size, so an unchanged file is not read again.
-func (s *Server) diskReport(snap *snapshot, file diskFile, previous map[string]string) (workspaceDocumentReport, bool) {
+func (s *Server) diskReport(ctx context.Context, snap *snapshot, file diskFile, previous map[string]string) (workspaceDocumentReport, bool) {
 	u := string(uri.File(file.path))
 	id := fmt.Sprintf("d%d.%d.c%d", file.info.ModTime().UnixNano(), file.info.Size(), snap.config)
 	item := workspaceDocumentReport{URI: u}
@@ -260,7 +301,7 @@ func (s *Server) diskReport(snap *snapshot, file diskFile, previous map[string]s
 		return item, false
 	}
 	f := &fileVersion{URI: u, Name: file.path, mapper: NewMapper(content, snap.encoding)}
-	res, err := newAnalysis(f, snap.analyzer).get(s.ctx, s.log)
+	res, err := newAnalysis(f, snap.analyzer).get(ctx, s.log)
 	if err != nil {
 		return item, false
 	}

@@ -1,10 +1,13 @@
 package lsp
 
 import (
+	"context"
 	"os"
 	"path/filepath"
+	"sort"
 	"strings"
 	"testing"
+	"time"
 
 	"go.lsp.dev/protocol"
 	"go.lsp.dev/uri"
@@ -205,6 +208,48 @@ func TestWorkspaceDiagnostics(t *testing.T) {
 	if !seen["open.smi"] || !seen["disk.smi"] {
 		t.Errorf("reports for %v, want open.smi and disk.smi", seen)
 	}
+
+	// The next pull names every result id: nothing changed, so the server
+	// holds it until an edit.
+	var prev []map[string]string
+	for _, it := range rep.Items {
+		prev = append(prev, map[string]string{"uri": it.URI, "value": it.ResultID})
+	}
+	type answer struct {
+		items []string
+		err   error
+	}
+	held := make(chan answer, 1)
+	go func() {
+		var rep2 struct {
+			Items []struct {
+				URI  string `json:"uri"`
+				Kind string `json:"kind"`
+			} `json:"items"`
+		}
+		_, err := c.conn.Call(context.Background(), methodWorkspaceDiagnostic, map[string]any{"previousResultIds": prev}, &rep2)
+		var kinds []string
+		for _, it := range rep2.Items {
+			kinds = append(kinds, filepath.Base(it.URI)+" "+it.Kind)
+		}
+		held <- answer{kinds, err}
+	}()
+	select {
+	case a := <-held:
+		t.Fatalf("an all-unchanged pull was answered at once: %+v", a)
+	case <-time.After(200 * time.Millisecond):
+	}
+	c.change(openURI, 6, map[string]any{"text": "F/C=C/F\n"})
+	select {
+	case a := <-held:
+		sort.Strings(a.items)
+		if a.err != nil || strings.Join(a.items, ", ") != "disk.smi unchanged, open.smi full" {
+			t.Errorf("held pull answered %+v", a)
+		}
+	case <-time.After(waitLimit):
+		t.Fatalf("held pull not answered after an edit")
+	}
+
 	c.until("progress end", func() bool {
 		return len(c.progress) > 0 && c.progress[len(c.progress)-1].Kind == "end"
 	})

@@ -114,3 +114,28 @@ func TestRequestTriggersAnalysis(t *testing.T) {
 		}
 	}
 }
+
+// A long analysis blocks neither the reader nor other documents: while a
+// large list is being analysed, a small file opened after it gets its
+// hover answer and its diagnostics first.
+func TestLargeDocumentDoesNotBlock(t *testing.T) {
+	if testing.Short() {
+		t.Skip("analyses a 20,000-record list")
+	}
+	c := start(t, clientSetup{limit: 2 * time.Minute})
+	const big, small = "file:///work/big.smi", "file:///work/small.smi"
+	c.open(big, "", 1, bigList(20_000))
+	text := "N[C@@H](C)C(=O)O L-alanine\nC[C@H](C)C\n"
+	c.open(small, "", 1, text)
+	h := hoverAt(t, c, small, position(t, text, "@@", 0, EncodingUTF16))
+	if h == nil || !strings.Contains(h.Contents.Value, "(S)") {
+		t.Errorf("hover on the small file = %+v", h)
+	}
+	if got := codes(t, c, small, 1, text); len(got) != 1 {
+		t.Errorf("small file diagnostics %v", got)
+	}
+	if p := c.published(big); len(p) != 0 {
+		t.Errorf("the large list was published before the small file; the test shows nothing")
+	}
+	c.diagnostics(big, 1)
+}

@@ -2,6 +2,7 @@ package stereo
 
 import (
 	"fmt"
+	"strconv"
 	"os"
 	"testing"
 
@@ -69,10 +70,12 @@ func TestDebugAux(t *testing.T) {
 	l := &labeller{g: newGraph(m), cfg: newConfigs(), nodeCap: defaultNodeCap, res: &Analysis{}}
 	l.readCentres()
 	l.readBonds()
-	d := newDigraph(l.g, l.cfg, 1, defaultNodeCap)
+	rootAtom, _ := strconv.Atoi(os.Getenv("ROOT"))
+	maxDepth, _ := strconv.Atoi(os.Getenv("DEPTH"))
+	d := newDigraph(l.g, l.cfg, rootAtom, defaultNodeCap)
 	var walk func(n nodeID, depth int)
 	walk = func(n nodeID, depth int) {
-		if depth > 3 {
+		if depth > maxDepth {
 			return
 		}
 		for _, k := range d.kids(n) {

@@ -128,3 +128,30 @@ func TestJSON(t *testing.T) {
 		t.Errorf("got  %s\nwant %s", b, want)
 	}
 }
+
+// TestPerceivedByConfiguration checks the middle carbon of
+// 2,3,4-trichloroglutaric acid left unmarked: with unlike ends (R,S) it
+// is a pseudoasymmetric stereocentre and is reported undefined; with like
+// ends (R,R) its two halves are the same and it is no stereocentre
+// (P-93.4.1.2; the suite's VS016 and VS227 are the marked forms).
+func TestPerceivedByConfiguration(t *testing.T) {
+	cases := []struct {
+		smiles string
+		want   bool
+	}{
+		{"O=C([C@H](C([C@H](C(O)=O)Cl)Cl)Cl)O", true},   // ends R and S: VS227 with the middle mark dropped
+		{"O=C([C@H](C([C@@H](C(O)=O)Cl)Cl)Cl)O", false}, // ends R and R: VS016 with the middle mark dropped
+	}
+	for _, c := range cases {
+		a := Analyze(notation.Read(c.smiles))
+		got := false
+		for _, u := range a.Units {
+			if !u.Specified && len(u.Atoms) == 1 && u.Atoms[0] == 3 {
+				got = true
+			}
+		}
+		if got != c.want {
+			t.Errorf("%s: middle carbon perceived %v, want %v (units %+v)", c.smiles, got, c.want, a.Units)
+		}
+	}
+}

@@ -29,6 +29,14 @@ func (l *labeller) perceiveUnmarked() {
 		case distinct:
 			l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1})
 			report(g.mol.Atoms[a].Span, "stereocentre without a configuration")
+		case l.anyMarks && l.distinctByConfiguration(a):
+			// constitutionally equal ligands told apart by the
+			// configurations written elsewhere: a pseudoasymmetric
+			// centre (the middle carbon of a trisubstituted glutaric
+			// acid whose ends are unlike)
+			l.unitAtoms[a] = true
+			l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1})
+			report(g.mol.Atoms[a].Span, "stereocentre (made so by the configurations around it) without a configuration")
 		case pairInRing:
 			paired = append(paired, a)
 		}
@@ -71,6 +79,31 @@ func (l *labeller) perceiveUnmarked() {
 			report(b.Span, "stereogenic double bond without a configuration")
 		}
 	}
+}
+
+// distinctByConfiguration ranks the ligands of an unmarked atom by the
+// full rule chain, so that the configurations written elsewhere (through
+// their auxiliary descriptors) can split constitutionally equal ligands.
+// Ring pairs are left to the together test: their split comes from the
+// atom's own partner across the ring.
+func (l *labeller) distinctByConfiguration(a int) bool {
+	d := newDigraph(l.g, l.cfg, a, l.nodeCap)
+	r := l.rootRanking(d, -1, func(d *digraph) []nodeID {
+		ligs := d.ligandsOf(0, noNode)
+		if len(ligs) == 3 {
+			ligs = append(ligs, d.lonePair(0))
+		}
+		return ligs
+	})
+	if r.tie || d.capped {
+		return false
+	}
+	for _, dc := range r.decisions {
+		if dc.Rule >= Rule3 && dc.Rule <= Rule5 {
+			return true
+		}
+	}
+	return false
 }
 
 // tetrahedralCapable reports whether an atom can be a tetrahedral centre

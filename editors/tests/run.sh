@@ -107,8 +107,10 @@ vscode() {
     cd "$dir"
     echo "tsc --noEmit"
     npx --no-install tsc --noEmit -p .
-    node --test --test-reporter=spec test/
     npm run --silent bundle
+    # the grammar test, then the bundle activated with a stand-in vscode
+    # module against the real server
+    node --test --test-reporter=spec test/
     rm -f stereoline.vsix
     npx --no-install vsce package --no-dependencies --skip-license --allow-missing-repository --out stereoline.vsix </dev/null
     # The package must hold the manifest, the bundle and the grammar.

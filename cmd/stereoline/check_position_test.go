@@ -1,36 +1,39 @@
 package main
 
-import "testing"
+import (
+	"strings"
+	"testing"
+)
 
-// TestLineIndex checks positions against the rules of LSP 3.17, "Text
-// Documents": lines end at \n, \r\n or \r; characters count UTF-16 code
-// units, so a character outside the Basic Multilingual Plane (U+1F9EA,
-// four bytes in UTF-8) counts two; an offset inside a character or
-// inside \r\n maps to its start. Code points (the text format's
-// columns) count every character once.
-func TestLineIndex(t *testing.T) {
-	text := "a\r\nαβ\rx\U0001F9EAy\nz"
-	// Byte offsets: a=0 \r=1 \n=2 α=3-4 β=5-6 \r=7 x=8 🧪=9-12 y=13 \n=14 z=15.
-	idx := newLineIndex([]byte(text))
-	for _, c := range []struct {
-		off  int
-		want position
-	}{
-		{0, position{0, 0, 0}},
-		{1, position{0, 1, 1}},  // the \r that ends line 0
-		{2, position{0, 1, 1}},  // inside \r\n: start of the pair
-		{3, position{1, 0, 0}},  // α
-		{4, position{1, 0, 0}},  // inside α
-		{5, position{1, 1, 1}},  // β
-		{8, position{2, 0, 0}},  // x after a lone \r
-		{9, position{2, 1, 1}},  // the emoji
-		{13, position{2, 3, 2}}, // y: two UTF-16 units, one code point before it
-		{15, position{3, 0, 0}}, // z
-		{16, position{3, 1, 1}}, // end of text
-		{99, position{3, 1, 1}}, // past the end: clamped
-	} {
-		if got := idx.position(c.off); got != c.want {
-			t.Errorf("offset %d: got %+v, want %+v", c.off, got, c.want)
+// TestCheckPositions checks where findings land on a line with text
+// outside ASCII before the notation, by the rules of LSP 3.17, "Text
+// Documents" (characters count UTF-16 code units, so U+1F9EA, outside the
+// Basic Multilingual Plane, counts two) and of the text format (columns
+// count code points, from 1), and across a "\r" line break, which LSP
+// counts as one.
+func TestCheckPositions(t *testing.T) {
+	// A Python script whose first line has a Greek letter and an emoji
+	// before the notation, and whose lines end in a lone \r and in \r\n.
+	src := "label = \"\u03b1\U0001F9EA\"; smiles = \"C/C=CC\"\rnext = 1\r\nsmiles = \"C/C=CC\"\n"
+	stdout, stderr, _ := runCheck(t, src, "--stdin-name", "made_up.py", "-")
+	lines := strings.Split(strings.TrimSpace(stdout), "\n")
+	// The mark '/' follows 25 code points (label = "α🧪"; smiles = "C), so
+	// it is column 26 of the text format, and 26 UTF-16 units, the emoji
+	// counting two.
+	want := []string{
+		"made_up.py:1:26: warning:",
+		"made_up.py:3:12: warning:",
+	}
+	if len(lines) != len(want) {
+		t.Fatalf("got %d findings, want %d:\n%s\n%s", len(lines), len(want), stdout, stderr)
+	}
+	for i := range want {
+		if !strings.HasPrefix(lines[i], want[i]) {
+			t.Errorf("finding %d: %q, want prefix %q", i, lines[i], want[i])
 		}
+	}
+	stdout, _, _ = runCheck(t, src, "--stdin-name", "made_up.py", "--format", "json", "-")
+	if !strings.Contains(stdout, `"start":{"line":0,"character":26}`) || !strings.Contains(stdout, `"start":{"line":2,"character":11}`) {
+		t.Errorf("JSON positions should be 0-based UTF-16:\n%s", stdout)
 	}
 }

@@ -10,6 +10,7 @@ import (
 	"sync/atomic"
 	"time"
 
+	"stereoline/lsp"
 	"stereoline/notation"
 	"stereoline/stereo/document"
 )
@@ -147,14 +148,28 @@ func (r *checkRun) findings(f checkFile, res *document.Result) []finding {
 	if len(res.Diagnostics) == 0 {
 		return nil
 	}
-	idx := newLineIndex(res.Content)
+	// The language server's mapper is the one place that turns byte
+	// offsets into lines and characters, so check and the editor agree;
+	// text and SARIF columns count code points (its UTF-32 encoding),
+	// JSON Lines count UTF-16 units as LSP does.
+	m16 := lsp.NewMapper(res.Content, lsp.EncodingUTF16)
+	m32 := lsp.NewMapper(res.Content, lsp.EncodingUTF32)
+	pos := func(off int) position {
+		off = max(0, min(off, len(res.Content)))
+		p16, err16 := m16.OffsetToPosition(off)
+		p32, err32 := m32.OffsetToPosition(off)
+		if err16 != nil || err32 != nil {
+			return position{} // unreachable: off is clamped to the text
+		}
+		return position{Line: int(p16.Line), Char16: int(p16.Character), CharCP: int(p32.Character)}
+	}
 	var changed lineSet
 	if r.changes != nil {
 		changed = r.changes.forFile(f)
 	}
 	out := make([]finding, 0, len(res.Diagnostics))
 	for _, d := range res.Diagnostics {
-		fd := finding{Start: idx.position(d.Span.Start), End: idx.position(d.Span.End), Severity: d.Severity, Code: d.Code, Message: d.Message}
+		fd := finding{Start: pos(d.Span.Start), End: pos(d.Span.End), Severity: d.Severity, Code: d.Code, Message: d.Message}
 		if r.changes != nil && !changed.touches(fd.Start, fd.End) {
 			continue
 		}

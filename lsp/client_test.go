@@ -35,6 +35,7 @@ const testDebounce = 20 * time.Millisecond
 type fakeClient struct {
 	t      testing.TB
 	conn   jsonrpc2.Conn
+	raw    net.Conn // the client's end of the pipe, for writing broken frames
 	logs   *syncBuffer
 	status chan int
 	calls  int // requests sent so far: the next request's id is calls+1
@@ -108,6 +109,7 @@ func start(t testing.TB, setup clientSetup) *fakeClient {
 		c.status <- serve(ctx, serverEnd, log, Options{Debounce: debounce, Version: "test"}, setup.hook)
 		serverEnd.Close()
 	}()
+	c.raw = clientEnd
 	c.conn = jsonrpc2.NewConn(jsonrpc2.NewStream(clientEnd))
 	c.conn.Go(ctx, c.handle)
 	t.Cleanup(func() {

@@ -3,6 +3,7 @@ package lsp
 import (
 	"context"
 	"encoding/json"
+	"fmt"
 	"strings"
 	"testing"
 
@@ -176,5 +177,22 @@ func TestCancelRequest(t *testing.T) {
 	c.notify("$/cancelRequest", map[string]any{"id": id})
 	if err := <-errc; rpcCode(err) != codeRequestCancelled {
 		t.Errorf("cancelled request: %v, want code %d", err, codeRequestCancelled)
+	}
+}
+
+// A frame whose content is not JSON-RPC is skipped (LSP 3.17, "Base
+// Protocol": the header gives the length, so the next frame is found); the
+// session goes on.
+func TestMalformedMessageIsSkipped(t *testing.T) {
+	c := start(t, clientSetup{})
+	for _, body := range []string{"{not json", `{"jsonrpc":"2.0"}`, "[1,2,3]"} {
+		if _, err := fmt.Fprintf(c.raw, "Content-Length: %d\r\n\r\n%s", len(body), body); err != nil {
+			t.Fatal(err)
+		}
+	}
+	var syms []json.RawMessage
+	c.mustCall("textDocument/documentSymbol", map[string]any{"textDocument": textDoc("file:///x.smi")}, &syms)
+	if logs := c.logs.String(); strings.Count(logs, "message skipped") != 3 {
+		t.Errorf("log does not show three skipped messages:\n%s", logs)
 	}
 }

@@ -20,8 +20,10 @@ package lsp
 import (
 	"context"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"io"
+	"strings"
 	"sync"
 	"time"
 
@@ -107,7 +109,7 @@ func serve(ctx context.Context, stream io.ReadWriteCloser, log *zap.Logger, opts
 	if hook != nil {
 		hook(s)
 	}
-	s.conn = jsonrpc2.NewConn(jsonrpc2.NewStream(stream))
+	s.conn = jsonrpc2.NewConn(tolerantStream{jsonrpc2.NewStream(stream), log})
 	s.conn.Go(s.ctx, s.handle)
 	go s.work.run(s.ctx)
 
@@ -132,6 +134,37 @@ func serve(ctx context.Context, stream io.ReadWriteCloser, log *zap.Logger, opts
 	s.stop()
 	s.conn.Close()
 	return status
+}
+
+// tolerantStream skips a message whose JSON cannot be decoded instead of
+// ending the session: its frame was read whole, so the next one starts
+// cleanly. Broken framing still ends the stream, as nothing after it can
+// be trusted.
+type tolerantStream struct {
+	jsonrpc2.Stream
+	log *zap.Logger
+}
+
+func (t tolerantStream) Read(ctx context.Context) (jsonrpc2.Message, int64, error) {
+	for {
+		msg, n, err := t.Stream.Read(ctx)
+		if err != nil && isDecodeError(err) {
+			t.log.Warn("message skipped", zap.Error(err))
+			continue
+		}
+		return msg, n, err
+	}
+}
+
+// isDecodeError tells a frame whose content is not a JSON-RPC message
+// from a failure to read the stream. jsonrpc2 returns both as plain
+// errors; a decode failure is the invalid-request error or an unmarshal
+// error, which never wraps an I/O error.
+func isDecodeError(err error) bool {
+	if errors.Is(err, jsonrpc2.ErrInvalidRequest) {
+		return true
+	}
+	return strings.HasPrefix(err.Error(), "unmarshaling jsonrpc message")
 }
 
 func newServer(ctx context.Context, log *zap.Logger, opts Options) *Server {

@@ -81,8 +81,11 @@ func (d *digraph) auxTetrahedral(n nodeID, t *tetraConfig) Descriptor {
 		return DescNone
 	}
 	r := d.rankLigands(n, ligs)
-	if r.tie || d.capped {
+	if d.capped {
 		return DescNone
+	}
+	if r.tie {
+		return d.auxWithReference(n, ligs, r, t)
 	}
 	x, ok := d.descriptorFromRanking(r, t)
 	if !ok {
@@ -92,6 +95,41 @@ func (d *digraph) auxTetrahedral(n nodeID, t *tetraConfig) Descriptor {
 		x = pseudo(x)
 	}
 	return x
+}
+
+// auxWithReference applies Rule 6 to a tetrahedral node left tied, as
+// withReference does for the root: each tied ligand in turn is the
+// reference, and the node has a descriptor only if all choices agree.
+func (d *digraph) auxWithReference(n nodeID, ligs []nodeID, r ranking, t *tetraConfig) Descriptor {
+	if len(r.tied) < 2 {
+		return DescNone
+	}
+	defer delete(d.auxRef, n)
+	var first Descriptor
+	for i, c := range r.tied {
+		a := d.ligandAtom(c)
+		if a < 0 {
+			return DescNone
+		}
+		d.auxRef[n] = a
+		rr := d.rankLigands(n, ligs)
+		if rr.tie || d.capped {
+			return DescNone
+		}
+		x, ok := d.descriptorFromRanking(rr, t)
+		if !ok {
+			return DescNone
+		}
+		if rr.pseudo {
+			x = pseudo(x)
+		}
+		if i == 0 {
+			first = x
+		} else if x != first {
+			return DescNone
+		}
+	}
+	return first
 }
 
 // descriptorFromRanking maps ranked ligand nodes onto the written ligand

@@ -2,8 +2,8 @@ package stereo
 
 import (
 	"fmt"
-	"strconv"
 	"os"
+	"strconv"
 	"testing"
 
 	"stereoline/notation"

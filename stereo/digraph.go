@@ -52,6 +52,9 @@ type digraph struct {
 	sortedAux  map[uint64][]nodeID // children in rule order, auxiliary views
 	sortedRoot map[sortKey][]nodeID
 	free       []*[4][]step // walk queues for reuse
+	// auxRef holds the Rule 6 reference of an auxiliary ranking under
+	// way, by its root; such rankings bypass the memo at Rule 6
+	auxRef map[nodeID]int
 	aux        map[nodeID]Descriptor
 	auxing     map[nodeID]bool
 	cfg        *configs
@@ -84,7 +87,7 @@ const maxNodeCap = 1<<20 - 2
 func newDigraph(g *graph, cfg *configs, rootAtom int, limit int) *digraph {
 	limit = min(limit, maxNodeCap)
 	d := &digraph{g: g, limit: limit, cfg: cfg, refAtom: -1,
-		compared: map[[2]uint64][2]int32{}, sortedAux: map[uint64][]nodeID{}, sortedRoot: map[sortKey][]nodeID{}, aux: map[nodeID]Descriptor{}, auxing: map[nodeID]bool{}}
+		compared: map[[2]uint64][2]int32{}, sortedAux: map[uint64][]nodeID{}, sortedRoot: map[sortKey][]nodeID{}, auxRef: map[nodeID]int{}, aux: map[nodeID]Descriptor{}, auxing: map[nodeID]bool{}}
 	d.nodes = append(d.nodes, node{atom: rootAtom, kind: nodeAtom, parent: noNode, corr: noNode, bond: -1,
 		z: float64(g.z[rootAtom]), mass: g.mass[rootAtom]})
 	return d

@@ -9,9 +9,17 @@ package stereo
 // reference gives the same descriptor (see withReference).
 func rule6Value(d *digraph, root, n nodeID) float64 {
 	x := &d.nodes[n]
-	// the reference belongs to the unit being labelled; the auxiliary
-	// rankings inside the digraph (other roots) never see it
-	if root == 0 && d.refAtom >= 0 && x.atom == d.refAtom && (x.kind == nodeAtom || x.kind == nodeDuplicate) {
+	// the reference belongs to the unit being labelled; an auxiliary
+	// ranking (another root) sees only its own reference
+	ref := d.refAtom
+	if root != 0 {
+		r, ok := d.auxRef[root]
+		if !ok {
+			return 0
+		}
+		ref = r
+	}
+	if ref >= 0 && x.atom == ref && (x.kind == nodeAtom || x.kind == nodeDuplicate) {
 		return 1
 	}
 	return 0

@@ -62,7 +62,8 @@ func init() {
 func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
 	ref, mirror := d.viewState(root, r)
 	key := packCompare(root, a, af, b, bf, r, ref, mirror)
-	if v, ok := d.compared[key]; ok {
+	bypass := d.bypassMemo(root, r)
+	if v, ok := d.compared[key]; ok && !bypass {
 		return int(v[0]), int(v[1])
 	}
 	var c, s int
@@ -71,10 +72,20 @@ func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
 	} else {
 		c, s = d.compareSpheres(root, a, af, b, bf, r)
 	}
-	if !d.capped {
+	if !d.capped && !bypass {
 		d.compared[key] = [2]int32{int32(c), int32(s)}
 	}
 	return c, s
+}
+
+// bypassMemo reports a comparison whose result depends on an auxiliary
+// Rule 6 reference, which the memo keys do not hold.
+func (d *digraph) bypassMemo(root nodeID, r Rule) bool {
+	if root == 0 || r < Rule6 || len(d.auxRef) == 0 {
+		return false
+	}
+	_, ok := d.auxRef[root]
+	return ok
 }
 
 // The memo keys pack node numbers (at most the node cap, so 20 bits
@@ -223,7 +234,8 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 	}
 	key := sortKey{n: n, from: from, root: root, level: int(r), ref: ref, mirror: mirror}
 	packed := packView(n, from, root, r)
-	if !fast {
+	bypass := d.bypassMemo(root, r)
+	if !fast && !bypass {
 		if root != 0 {
 			if s, ok := d.sortedAux[packed]; ok {
 				return s
@@ -246,6 +258,7 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 		}
 	}
 	switch {
+	case bypass:
 	case fast:
 		d.nodes[n].sorted[r] = &s
 	case root != 0:

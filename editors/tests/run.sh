@@ -1,8 +1,8 @@
 #!/usr/bin/env bash
 # Runs the real-client tests against `stereoline serve`: Neovim headless,
 # Emacs with eglot in batch mode, a Node LSP 3.17 client, the VS Code
-# extension's type check, grammar test, bundle and package, and a parse
-# of the Helix fragment. It builds the server once, prints PASS or FAIL
+# extension (type check, bundle, grammar test, the bundle activated with a
+# stand-in vscode module, package) and a parse of the Helix fragment. It builds the server once, prints PASS or FAIL
 # per client and ends with "N passed, N failed"; the exit status is
 # non-zero when any client failed.
 #
@@ -35,7 +35,7 @@ client() {
   local skips
   skips=$(grep -cE '^[[:space:]]*(skip[[:space:]]|﹣ )' "$tmp/$name.log")
   local note=""
-  [ "$skips" -gt 0 ] && note=", $skips checks skipped"
+  [ "$skips" -gt 0 ] && note=", skipped checks: $skips"
   if [ $rc -eq 0 ]; then
     passed=$((passed + 1))
     echo "PASS $name ($((SECONDS - start))s$note)"

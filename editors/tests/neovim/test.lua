@@ -219,98 +219,107 @@ local function mirror(buf, pos)
   check(ok, "mirror action applied on the lactate record", why)
 end
 
--- Python file ------------------------------------------------------------
-io.stdout:write("python file\n")
-vim.cmd("edit " .. vim.fn.fnameescape(work .. "/sample.py"))
-local py = vim.api.nvim_get_current_buf()
-check(vim.bo[py].filetype == "python", "sample.py has filetype python", vim.bo[py].filetype)
-vim.wait(5000, function()
-  return client_of(py) ~= nil
-end, 20)
-check(client_of(py) ~= nil, "the set-up attached stereoline to the Python buffer")
-local diags = wait_diagnostics(py, 2)
--- Python's lexical rules: "\F" is not a recognised escape, so the string
--- does not hold the backslash as written (Python Language Reference,
--- lexical analysis, string literals).
-local esc = find_diag(diags, "host-escape")
-check(esc and esc.lnum == 3, "diagnostic host-escape on line 4 (the plain-string backslash)", vim.inspect(diags))
--- IUPAC 2013 P-92: a centre with two identical ligands (two methyl
--- groups) is not a stereocentre, so its mark is without effect.
-local odd = find_diag(diags, "stereo-ineffective-center")
-check(odd and odd.lnum == 6, "diagnostic stereo-ineffective-center on line 7 (two methyl groups)", vim.inspect(diags))
-
--- (R)-lactic acid: worked by hand from the CIP rules (IUPAC 2013 P-92):
--- O > COOH > CH3 > H; C[C@@H](O)C(=O)O reads clockwise with H away.
--- Hill formula C3H6O3 (common practice, lactic acid).
-local mark = position(py, "@@")
-local hv = hover_text(py, mark)
-check(hv:find("(R)", 1, true) ~= nil, "hover on the lactate mark says (R)", hv)
-check(hv:find("C3H6O3", 1, true) ~= nil, "hover on the lactate mark gives the formula C3H6O3", hv)
-
--- OpenSMILES specification, tetrahedral centres: swapping @@ for @
--- inverts the centre, so the mirror of lactate is C[C@H](O)C(=O)O.
-mirror(py, mark)
--- Python Language Reference, string literals: in a raw string the backslash stays as written.
-local esc_lsp = lsp_diags({ esc })[1]
-local ok, why = apply_action(py, esc_lsp and esc_lsp.range or range_at(position(py, "\\F"), 2),
-  { diagnostics = { esc_lsp }, only = { "quickfix" } },
-  function(a)
-    return a.kind == "quickfix" and a.title:find("raw") ~= nil
-  end)
-check(ok, "quick fix 'raw string' applied on the alkene", why)
-golden(py, "sample.py")
-
--- List file --------------------------------------------------------------
-io.stdout:write("list file\n")
-vim.cmd("edit " .. vim.fn.fnameescape(work .. "/sample.smi"))
-local smi = vim.api.nvim_get_current_buf()
-check(vim.bo[smi].filetype == "smiles", "sample.smi has filetype smiles", vim.bo[smi].filetype)
-vim.wait(5000, function()
-  return client_of(smi) ~= nil
-end, 20)
-check(client_of(smi) ~= nil, "the set-up attached stereoline to the list buffer")
-diags = wait_diagnostics(smi, 2)
-odd = find_diag(diags, "stereo-ineffective-center")
--- CC[C@H](C)C: the centre carries two methyl groups (IUPAC 2013 P-92).
-check(odd and odd.lnum == 3, "diagnostic stereo-ineffective-center on line 4", vim.inspect(diags))
--- F/C=CF: a direction mark on one side of the double bond only leaves its
--- configuration open (OpenSMILES
--- specification, cis/trans double bonds).
-local one = find_diag(diags, "stereo-one-sided-bond")
-check(one and one.lnum == 4, "diagnostic stereo-one-sided-bond on line 5", vim.inspect(diags))
-mark = position(smi, "@@")
-hv = hover_text(smi, mark)
-check(hv:find("(R)", 1, true) ~= nil, "hover on the lactate mark says (R)", hv)
-check(hv:find("C3H6O3", 1, true) ~= nil, "hover on the lactate mark gives the formula C3H6O3", hv)
--- OpenSMILES specification, cis/trans double bonds: F/C=C/F is trans;
--- with F the higher ligand on each carbon that is (E) (IUPAC 2013 P-93).
-local bond = position(smi, "F/C=C/F")
-hv = hover_text(smi, { line = bond.line, character = bond.character + 3 })
-check(hv:find("(E)", 1, true) ~= nil, "hover on the difluoroethene double bond says (E)", hv)
-mirror(smi, mark)
-golden(smi, "sample.smi")
-
--- Settings changed after start-up reach the server under the
--- "stereoline" section: switching a code off removes its diagnostic.
-sl.settings_changed({ severity = { ["stereo-one-sided-bond"] = "off" } })
-vim.wait(5000, function()
-  return find_diag(vim.diagnostic.get(smi), "stereo-one-sided-bond") == nil
-end, 20)
-diags = vim.diagnostic.get(smi)
-check(find_diag(diags, "stereo-one-sided-bond") == nil and find_diag(diags, "stereo-ineffective-center") ~= nil,
-  "severity off for stereo-one-sided-bond removes only that diagnostic", vim.inspect(diags))
-
--- Shutdown ----------------------------------------------------------------
-io.stdout:write("shutdown\n")
-local client = client_of(smi)
-if client then
-  client.stop()
+-- main runs the checks; an error in it (a Lua error, not a failed check)
+-- must still end Neovim, or the headless run would wait forever.
+local function main()
+  -- Python file ------------------------------------------------------------
+  io.stdout:write("python file\n")
+  vim.cmd("edit " .. vim.fn.fnameescape(work .. "/sample.py"))
+  local py = vim.api.nvim_get_current_buf()
+  check(vim.bo[py].filetype == "python", "sample.py has filetype python", vim.bo[py].filetype)
   vim.wait(5000, function()
-    return exit_code ~= nil
+    return client_of(py) ~= nil
   end, 20)
+  check(client_of(py) ~= nil, "the set-up attached stereoline to the Python buffer")
+  local diags = wait_diagnostics(py, 2)
+  -- Python's lexical rules: "\F" is not a recognised escape, so the string
+  -- does not hold the backslash as written (Python Language Reference,
+  -- lexical analysis, string literals).
+  local esc = find_diag(diags, "host-escape")
+  check(esc and esc.lnum == 3, "diagnostic host-escape on line 4 (the plain-string backslash)", vim.inspect(diags))
+  -- IUPAC 2013 P-92: a centre with two identical ligands (two methyl
+  -- groups) is not a stereocentre, so its mark is without effect.
+  local odd = find_diag(diags, "stereo-ineffective-center")
+  check(odd and odd.lnum == 6, "diagnostic stereo-ineffective-center on line 7 (two methyl groups)", vim.inspect(diags))
+
+  -- (R)-lactic acid: worked by hand from the CIP rules (IUPAC 2013 P-92):
+  -- O > COOH > CH3 > H; C[C@@H](O)C(=O)O reads clockwise with H away.
+  -- Hill formula C3H6O3 (common practice, lactic acid).
+  local mark = position(py, "@@")
+  local hv = hover_text(py, mark)
+  check(hv:find("(R)", 1, true) ~= nil, "hover on the lactate mark says (R)", hv)
+  check(hv:find("C3H6O3", 1, true) ~= nil, "hover on the lactate mark gives the formula C3H6O3", hv)
+
+  -- OpenSMILES specification, tetrahedral centres: swapping @@ for @
+  -- inverts the centre, so the mirror of lactate is C[C@H](O)C(=O)O.
+  mirror(py, mark)
+  -- Python Language Reference, string literals: in a raw string the backslash stays as written.
+  local esc_lsp = lsp_diags({ esc })[1]
+  local ok, why = apply_action(py, esc_lsp and esc_lsp.range or range_at(position(py, "\\F"), 2),
+    { diagnostics = { esc_lsp }, only = { "quickfix" } },
+    function(a)
+      return a.kind == "quickfix" and a.title:find("raw") ~= nil
+    end)
+  check(ok, "quick fix 'raw string' applied on the alkene", why)
+  golden(py, "sample.py")
+
+  -- List file --------------------------------------------------------------
+  io.stdout:write("list file\n")
+  vim.cmd("edit " .. vim.fn.fnameescape(work .. "/sample.smi"))
+  local smi = vim.api.nvim_get_current_buf()
+  check(vim.bo[smi].filetype == "smiles", "sample.smi has filetype smiles", vim.bo[smi].filetype)
+  vim.wait(5000, function()
+    return client_of(smi) ~= nil
+  end, 20)
+  check(client_of(smi) ~= nil, "the set-up attached stereoline to the list buffer")
+  diags = wait_diagnostics(smi, 2)
+  odd = find_diag(diags, "stereo-ineffective-center")
+  -- CC[C@H](C)C: the centre carries two methyl groups (IUPAC 2013 P-92).
+  check(odd and odd.lnum == 3, "diagnostic stereo-ineffective-center on line 4", vim.inspect(diags))
+  -- F/C=CF: a direction mark on one side of the double bond only leaves its
+  -- configuration open (OpenSMILES
+  -- specification, cis/trans double bonds).
+  local one = find_diag(diags, "stereo-one-sided-bond")
+  check(one and one.lnum == 4, "diagnostic stereo-one-sided-bond on line 5", vim.inspect(diags))
+  mark = position(smi, "@@")
+  hv = hover_text(smi, mark)
+  check(hv:find("(R)", 1, true) ~= nil, "hover on the lactate mark says (R)", hv)
+  check(hv:find("C3H6O3", 1, true) ~= nil, "hover on the lactate mark gives the formula C3H6O3", hv)
+  -- OpenSMILES specification, cis/trans double bonds: F/C=C/F is trans;
+  -- with F the higher ligand on each carbon that is (E) (IUPAC 2013 P-93).
+  local bond = position(smi, "F/C=C/F")
+  hv = hover_text(smi, { line = bond.line, character = bond.character + 3 })
+  check(hv:find("(E)", 1, true) ~= nil, "hover on the difluoroethene double bond says (E)", hv)
+  mirror(smi, mark)
+  golden(smi, "sample.smi")
+
+  -- Settings changed after start-up reach the server under the
+  -- "stereoline" section: switching a code off removes its diagnostic.
+  sl.settings_changed({ severity = { ["stereo-one-sided-bond"] = "off" } })
+  vim.wait(5000, function()
+    return find_diag(vim.diagnostic.get(smi), "stereo-one-sided-bond") == nil
+  end, 20)
+  diags = vim.diagnostic.get(smi)
+  check(find_diag(diags, "stereo-one-sided-bond") == nil and find_diag(diags, "stereo-ineffective-center") ~= nil,
+    "severity off for stereo-one-sided-bond removes only that diagnostic", vim.inspect(diags))
+
+  -- Shutdown ----------------------------------------------------------------
+  io.stdout:write("shutdown\n")
+  local client = client_of(smi)
+  if client then
+    client.stop()
+    vim.wait(5000, function()
+      return exit_code ~= nil
+    end, 20)
+  end
+  check(exit_code == 0 and (exit_signal or 0) == 0, "server exited with status 0 after shutdown and exit",
+    "code " .. tostring(exit_code) .. ", signal " .. tostring(exit_signal))
 end
-check(exit_code == 0 and (exit_signal or 0) == 0, "server exited with status 0 after shutdown and exit",
-  "code " .. tostring(exit_code) .. ", signal " .. tostring(exit_signal))
+
+local ok_main, err = xpcall(main, debug.traceback)
+if not ok_main then
+  check(false, "the test script ran to the end", err)
+end
 
 if failed == 0 then
   vim.cmd("qall!")

@@ -173,8 +173,11 @@ func (s *Server) scanWorkspace(ctx context.Context, snap *snapshot, token *proto
 	uris := make([]string, 0, len(snap.files))
 	for u, f := range snap.files {
 		uris = append(uris, u)
-		if p := fileURIPath(f.URI); p != "" {
-			openPaths[filepath.Clean(filepath.FromSlash(p))] = true
+		// An open notebook's cells stand for its file on disk.
+		for _, open := range []string{f.URI, f.Notebook} {
+			if p := fileURIPath(open); p != "" {
+				openPaths[filepath.Clean(filepath.FromSlash(p))] = true
+			}
 		}
 	}
 	sort.Strings(uris)
@@ -242,30 +245,23 @@ func (s *Server) hostFiles(ctx context.Context, snap *snapshot, roots []string, 
 	var out []diskFile
 	for _, root := range roots {
 		filepath.WalkDir(root, func(p string, d fs.DirEntry, err error) error {
-			if err != nil || ctx.Err() != nil || len(out) >= maxScanFiles {
-				if d != nil && d.IsDir() && err != nil {
-					return fs.SkipDir
-				}
-				if ctx.Err() != nil || len(out) >= maxScanFiles {
-					return fs.SkipAll
-				}
-				return nil
-			}
-			name := d.Name()
-			if d.IsDir() {
+			switch {
+			case ctx.Err() != nil || len(out) >= maxScanFiles:
+				return fs.SkipAll
+			case err != nil:
+				return nil // an unreadable entry is left out; WalkDir skips an unreadable folder
+			case d.IsDir():
+				name := d.Name()
 				if p != root && (strings.HasPrefix(name, ".") || name == "node_modules" || name == "__pycache__") {
 					return fs.SkipDir
 				}
 				return nil
-			}
-			if !d.Type().IsRegular() || open[filepath.Clean(p)] || !isHostFile(cfg, name) {
+			case !d.Type().IsRegular() || open[filepath.Clean(p)] || !isHostFile(cfg, d.Name()):
 				return nil
 			}
-			info, err := d.Info()
-			if err != nil || info.Size() > maxScanFileSize {
-				return nil
+			if info, err := d.Info(); err == nil && info.Size() <= maxScanFileSize {
+				out = append(out, diskFile{path: p, info: info})
 			}
-			out = append(out, diskFile{path: p, info: info})
 			return nil
 		})
 	}

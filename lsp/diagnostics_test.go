@@ -178,6 +178,14 @@ func TestWorkspaceDiagnostics(t *testing.T) {
 	c := start(t, clientSetup{rootURI: string(uri.File(dir)), caps: map[string]any{"textDocument": map[string]any{"diagnostic": map[string]any{}}}})
 	openURI := string(uri.File(filepath.Join(dir, "open.smi")))
 	c.open(openURI, "", 5, "F/C=CF\n") // the editor's text, not the disk's
+	// An open notebook's cells are reported, not its file.
+	write("assay.ipynb", `{"cells": [], "metadata": {}, "nbformat": 4, "nbformat_minor": 5}`)
+	nb := string(uri.File(filepath.Join(dir, "assay.ipynb")))
+	cell := "vscode-notebook-cell:" + filepath.Join(dir, "assay.ipynb") + "#W0"
+	c.notify(methodNotebookDidOpen, map[string]any{
+		"notebookDocument":  map[string]any{"uri": nb, "notebookType": "jupyter-notebook", "version": 1, "cells": []any{map[string]any{"kind": 2, "document": cell}}},
+		"cellTextDocuments": []any{map[string]any{"uri": cell, "languageId": "python", "version": 1, "text": "smiles = 'C[C@H](C)C'\n"}},
+	})
 	var rep struct {
 		Items []struct {
 			URI      string                `json:"uri"`
@@ -197,6 +205,10 @@ func TestWorkspaceDiagnostics(t *testing.T) {
 			if it.Version == nil || *it.Version != 5 || len(it.Items) != 1 || it.Items[0].Code != "stereo-one-sided-bond" {
 				t.Errorf("open document report %+v", it)
 			}
+		case "assay.ipynb#W0":
+			if it.Version == nil || len(it.Items) != 1 || it.Items[0].Code != "stereo-ineffective-center" {
+				t.Errorf("notebook cell report %+v", it)
+			}
 		case "disk.smi":
 			if it.Version != nil || len(it.Items) != 1 || it.Items[0].Code != "stereo-ineffective-center" {
 				t.Errorf("disk file report %+v", it)
@@ -205,8 +217,8 @@ func TestWorkspaceDiagnostics(t *testing.T) {
 			t.Errorf("unexpected report for %s", it.URI)
 		}
 	}
-	if !seen["open.smi"] || !seen["disk.smi"] {
-		t.Errorf("reports for %v, want open.smi and disk.smi", seen)
+	if !seen["open.smi"] || !seen["disk.smi"] || !seen["assay.ipynb#W0"] {
+		t.Errorf("reports for %v, want open.smi, the notebook cell and disk.smi", seen)
 	}
 
 	// The next pull names every result id: nothing changed, so the server
@@ -243,7 +255,7 @@ func TestWorkspaceDiagnostics(t *testing.T) {
 	select {
 	case a := <-held:
 		sort.Strings(a.items)
-		if a.err != nil || strings.Join(a.items, ", ") != "disk.smi unchanged, open.smi full" {
+		if a.err != nil || strings.Join(a.items, ", ") != "assay.ipynb#W0 unchanged, disk.smi unchanged, open.smi full" {
 			t.Errorf("held pull answered %+v", a)
 		}
 	case <-time.After(waitLimit):

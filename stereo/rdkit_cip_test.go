@@ -55,17 +55,28 @@ func readRDKitCIP(t testing.TB) []rdkitRow {
 // TestRDKitCIP reports agreement with RDKit's labeller, row by row.
 func TestRDKitCIP(t *testing.T) {
 	rows := readRDKitCIP(t)
-	agree := 0
+	agree, impossible := 0, 0
 	var diff []string
 	for _, r := range rows {
-		got := labelSet(Analyze(notation.Read(r.smiles)))
+		a := Analyze(notation.Read(r.smiles))
+		got := labelSet(a)
 		if strings.Join(got, " ") == strings.Join(r.want, " ") {
 			agree++
 			continue
 		}
+		// EnumerateStereoisomers (without embedding) also builds
+		// bridgehead combinations no small bicycle can take, e.g. the
+		// (R,R) and (S,S) bridgeheads of fenchone oxime, NCI 501, whose
+		// real isomers are (1S,4R) and (1R,4S); RDKit labels them, we
+		// report stereo-impossible-center and label neither bridgehead
+		if hasCode(a, CodeImpossibleCenter) {
+			impossible++
+			continue
+		}
 		diff = append(diff, r.group+"/"+r.isomer+"/"+r.variant+" rdkit "+strings.Join(r.want, " ")+" ours "+strings.Join(got, " ")+"  "+r.smiles)
 	}
-	t.Logf("RDKit rdCIPLabeler fixture: %d/%d rows agree", agree, len(rows))
+	t.Logf("RDKit rdCIPLabeler fixture: %d/%d rows agree; %d more are isomers with impossible bridgeheads; %d differ otherwise",
+		agree, len(rows), impossible, len(diff))
 	for _, d := range diff {
 		t.Log(d)
 	}
@@ -111,4 +122,13 @@ func labelLetters(ls []string) string {
 	}
 	sort.Strings(out)
 	return strings.Join(out, "")
+}
+
+func hasCode(a *Analysis, code notation.Code) bool {
+	for _, e := range a.Diagnostics {
+		if e.Code == code {
+			return true
+		}
+	}
+	return false
 }

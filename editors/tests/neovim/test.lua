@@ -268,6 +268,28 @@ local function main()
   vim.cmd("edit " .. vim.fn.fnameescape(work .. "/sample.smi"))
   local smi = vim.api.nvim_get_current_buf()
   check(vim.bo[smi].filetype == "smiles", "sample.smi has filetype smiles", vim.bo[smi].filetype)
+  -- The set-up's syntax file: token classes after the OpenSMILES
+  -- specification (chirality mark, direction mark, atom, title).
+  vim.cmd("syntax enable")
+  local function syn_at(text, offset)
+    local p = position(smi, text)
+    if not p then
+      return "no " .. text
+    end
+    return vim.fn.synIDattr(vim.fn.synID(p.line + 1, p.character + 1 + (offset or 0), 1), "name")
+  end
+  local syn = {
+    { "@@", 0, "smilesChirality" },
+    { "F/C=C/F", 1, "smilesStereo" },
+    { "F/C=C/F", 2, "smilesAtom" },
+    { "F/C=C/F", 3, "smilesBond" },
+    { "lactate-demo", 0, "smilesTitle" },
+    { "# Invented", 0, "smilesComment" },
+  }
+  for _, c in ipairs(syn) do
+    local have = syn_at(c[1], c[2])
+    check(have == c[3], string.format("syntax at %q+%d is %s", c[1], c[2], c[3]), have)
+  end
   vim.wait(5000, function()
     return client_of(smi) ~= nil
   end, 20)

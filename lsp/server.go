@@ -287,7 +287,9 @@ func (s *Server) call(call *jsonrpc2.Call, reply jsonrpc2.Replier) {
 	s.mu.Unlock()
 	go func() {
 		defer cancel()
+		begun := time.Now()
 		result, err := s.guard(method, func() (any, error) { return h(ctx, snap, call.Params()) })
+		s.log.Debug("request", zap.String("method", method), zap.Duration("took", time.Since(begun)), zap.Error(err))
 		s.mu.Lock()
 		delete(s.running, id)
 		s.mu.Unlock()

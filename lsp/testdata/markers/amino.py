@@ -11,4 +11,5 @@ trans_smiles = "F/C=C/F"  # é😀 @inlay("F/C=", "E")
 ring_smiles = "C1CC\1"  # @diag("\1", "host-escape") @diag("\1", "stereo-ineffective-bond")
 isobutane_smiles = "C[C@H](C)C"  # @diag("@", "stereo-ineffective-center")
 one_sided_smiles = 'F/C=CF'  # @diag("/", "stereo-one-sided-bond")
+label, pair_smiles = "é😀", "C[C@H](C)C"  # @diag("@", "stereo-ineffective-center")
 plain = "Cl"  # an element-like word, not notation: no annotation, so no finding

@@ -97,3 +97,37 @@ func BenchmarkHostile(b *testing.B) {
 		})
 	}
 }
+
+// TestNodeCap forces the cap on a small digraph budget: the centre
+// between the two ladders must come back undetermined, with a diagnostic
+// on its mark, instead of a label or a hang.
+func TestNodeCap(t *testing.T) {
+	smi := "O[C@H](" + ladder(40, "F") + ")" + ladder(40, "Cl")
+	a := AnalyzeWith(notation.Read(smi), Options{NodeCap: 200})
+	var centre *Unit
+	for i := range a.Units {
+		if a.Units[i].Centre == 1 {
+			centre = &a.Units[i]
+		}
+	}
+	if centre == nil || centre.Descriptor != DescUndetermined {
+		t.Fatalf("centre: got %+v, want an undetermined unit", centre)
+	}
+	found := false
+	for _, e := range a.Diagnostics {
+		if e.Code == CodeUndetermined && e.Span.Overlaps(centre.Marks[0]) {
+			found = true
+		}
+	}
+	if !found {
+		t.Errorf("no %s diagnostic on the mark; got %v", CodeUndetermined, a.Diagnostics)
+	}
+	// with shorter ladders the default cap reaches the far ends, and
+	// the difference there decides (Cl > F, Rule 1a)
+	short := "O[C@H](" + ladder(6, "F") + ")" + ladder(6, "Cl")
+	for _, u := range Analyze(notation.Read(short)).Units {
+		if u.Centre == 1 && !u.Descriptor.Labelled() {
+			t.Errorf("six-ring ladders: centre left %v", u.Descriptor)
+		}
+	}
+}

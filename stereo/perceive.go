@@ -29,7 +29,7 @@ func (l *labeller) perceiveUnmarked() {
 		case distinct:
 			l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1})
 			report(g.mol.Atoms[a].Span, "stereocentre without a configuration")
-		case l.anyMarks && l.distinctByConfiguration(a):
+		case l.anyMarks && l.configuredPair(a, class) && l.distinctByConfiguration(a):
 			// constitutionally equal ligands told apart by the
 			// configurations written elsewhere: a pseudoasymmetric
 			// centre (the middle carbon of a trisubstituted glutaric
@@ -79,6 +79,63 @@ func (l *labeller) perceiveUnmarked() {
 			report(b.Span, "stereogenic double bond without a configuration")
 		}
 	}
+}
+
+// configuredPair is the cheap test before distinctByConfiguration: the
+// atom has exactly one pair of constitutionally equal ligands, and each
+// of the pair leads to a configured atom within a few bonds. Three or
+// more equal ligands (a branch point of a dendrimer) are left alone.
+func (l *labeller) configuredPair(a int, class []int) bool {
+	g := l.g
+	count := map[int]int{}
+	for _, e := range g.adj[a] {
+		count[class[e.to]]++
+	}
+	var pair []int
+	for _, e := range g.adj[a] {
+		switch count[class[e.to]] {
+		case 2:
+			pair = append(pair, e.to)
+		case 1:
+		default:
+			return false
+		}
+	}
+	if len(pair) != 2 {
+		return false
+	}
+	for _, start := range pair {
+		if !l.configuredNear(start, a, 6) {
+			return false
+		}
+	}
+	return true
+}
+
+// configuredNear reports whether an atom with a written configuration
+// lies within depth bonds of start, without passing through avoid.
+func (l *labeller) configuredNear(start, avoid, depth int) bool {
+	seen := map[int]bool{avoid: true, start: true}
+	frontier := []int{start}
+	for d := 0; d <= depth && len(frontier) > 0; d++ {
+		var next []int
+		for _, x := range frontier {
+			if _, ok := l.cfg.tetra[x]; ok {
+				return true
+			}
+			for _, e := range l.g.adj[x] {
+				if _, ok := l.cfg.bonds[e.bond]; ok {
+					return true
+				}
+				if !seen[e.to] {
+					seen[e.to] = true
+					next = append(next, e.to)
+				}
+			}
+		}
+		frontier = next
+	}
+	return false
 }
 
 // distinctByConfiguration ranks the ligands of an unmarked atom by the

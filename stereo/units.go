@@ -13,6 +13,9 @@ func (l *labeller) labelAll() {
 		t := l.cfg.tetra[a]
 		l.unitAtoms[a] = true
 		lb := l.tetrahedral(t)
+		if lb.capped {
+			lb.tie, lb.desc = false, DescUndetermined
+		}
 		if lb.tie {
 			l.warn(t.span, CodeIneffectiveCenter, "mark on an atom that is not a stereocentre: two of its ligands are the same")
 			continue
@@ -44,6 +47,9 @@ func (l *labeller) labelAll() {
 			continue
 		}
 		lb := l.doubleBond(c)
+		if lb.capped {
+			lb.tie, lb.desc = false, DescUndetermined
+		}
 		if lb.tie {
 			quiet = append(quiet, c)
 			continue
@@ -98,6 +104,9 @@ func (l *labeller) labelAll() {
 		c := l.cfg.allene[a]
 		l.unitAtoms[a] = true
 		lb := l.allene(c)
+		if lb.capped {
+			lb.tie, lb.desc = false, DescUndetermined
+		}
 		if lb.tie {
 			l.warn(c.span, CodeIneffectiveCenter, "mark on an allene that is not stereogenic: one end carries two equal ligands")
 			continue

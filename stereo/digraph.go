@@ -37,7 +37,7 @@ type node struct {
 	expanded bool
 	ringDup  bool // a duplicate closing a ring (a real ligand), not an extra bond order
 	// sorted caches the children in rule order for the root's plain view
-	sorted [numRules]*[]nodeID
+	sorted *[numRules][]nodeID
 }
 
 // digraph is one hierarchical digraph. It belongs to one labelling call
@@ -55,9 +55,9 @@ type digraph struct {
 	// auxRef holds the Rule 6 reference of an auxiliary ranking under
 	// way, by its root; such rankings bypass the memo at Rule 6
 	auxRef map[nodeID]int
-	aux        map[nodeID]Descriptor
-	auxing     map[nodeID]bool
-	cfg        *configs
+	aux    map[nodeID]Descriptor
+	auxing map[nodeID]bool
+	cfg    *configs
 	// refAtom is the Rule 6 reference, -1 when none is chosen.
 	refAtom int
 	// mirror makes the root's view see the auxiliary descriptors of the
@@ -78,7 +78,7 @@ type sortKey struct {
 // defaultNodeCap bounds every digraph. Real molecules of a few hundred
 // atoms stay far below it; ladders of fused rings reach it, and their
 // units are reported undetermined.
-const defaultNodeCap = 40000
+const defaultNodeCap = 200000
 
 // maxNodeCap keeps node numbers within the 20 bits the memo keys give
 // them.

@@ -228,8 +228,8 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 	ref, mirror := d.viewState(root, r)
 	fast := root == 0 && from == d.nodes[n].parent && ref < 0 && !mirror
 	if fast {
-		if s := d.nodes[n].sorted[r]; s != nil {
-			return *s
+		if c := d.nodes[n].sorted; c != nil && c[r] != nil {
+			return c[r]
 		}
 	}
 	key := sortKey{n: n, from: from, root: root, level: int(r), ref: ref, mirror: mirror}
@@ -260,7 +260,13 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 	switch {
 	case bypass:
 	case fast:
-		d.nodes[n].sorted[r] = &s
+		if d.nodes[n].sorted == nil {
+			d.nodes[n].sorted = new([numRules][]nodeID)
+		}
+		if s == nil {
+			s = []nodeID{} // cached "no children", told apart from "not yet sorted"
+		}
+		d.nodes[n].sorted[r] = s
 	case root != 0:
 		d.sortedAux[packed] = s
 	default:

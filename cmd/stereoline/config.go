@@ -1,8 +1,6 @@
 package main
 
 import (
-	"bytes"
-	"encoding/json"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -12,10 +10,8 @@ import (
 
 // configFileName is the configuration file the checker looks for in the
 // folder of each checked file and in every folder above it; the nearest
-// one wins. Its content is a JSON object with the fields of
-// document.Config (severity, inlayHints, detection, columns, names,
-// files), the same settings the language server takes from the editor.
-const configFileName = ".stereoline.json"
+// one wins. The language server reads the same file.
+const configFileName = document.ConfigFileName
 
 // loadedConfig is one configuration file read and validated, with the
 // analyzer built for it.
@@ -27,25 +23,7 @@ type loadedConfig struct {
 }
 
 // readConfigFile reads a configuration file on top of the defaults.
-// Unknown settings are errors: a misspelt "severty" would otherwise be
-// ignored without a word.
-func readConfigFile(path string) (document.Config, error) {
-	cfg := document.DefaultConfig()
-	data, err := os.ReadFile(path)
-	if err != nil {
-		return cfg, err
-	}
-	dec := json.NewDecoder(bytes.NewReader(data))
-	dec.DisallowUnknownFields()
-	var probe document.Config
-	if err := dec.Decode(&probe); err != nil {
-		return cfg, fmt.Errorf("not a valid configuration: %v", err)
-	}
-	if err := cfg.Merge(data); err != nil {
-		return cfg, err
-	}
-	return cfg, nil
-}
+func readConfigFile(path string) (document.Config, error) { return document.ReadConfigFile(path) }
 
 // configFor returns the configuration that applies to a checked file: the
 // one named by --config, else the nearest configuration file in the

@@ -1,0 +1,76 @@
+package stereo
+
+import (
+	"testing"
+
+	"stereoline/notation"
+)
+
+// Identity of single structures. The chemistry of each case is textbook
+// (common practice); the writings were made by hand.
+func TestIdentifyCases(t *testing.T) {
+	tests := []struct {
+		name      string
+		a, b      string
+		same      bool      // a and b are one structure
+		chirality Chirality // of a
+	}{
+		{"alanine written from both ends", "N[C@@H](C)C(=O)O", "OC(=O)[C@@H](N)C", true, Chiral},
+		{"alanine with an explicit hydrogen", "N[C@@H](C)C(=O)O", "N[C@@]([H])(C)C(=O)O", true, Chiral},
+		{"L- and D-alanine", "N[C@@H](C)C(=O)O", "N[C@H](C)C(=O)O", false, Chiral},
+		{"meso-tartaric acid and its mirror image", "OC(=O)[C@H](O)[C@H](O)C(=O)O", "OC(=O)[C@@H](O)[C@@H](O)C(=O)O", true, Meso},
+		{"meso-tartaric acid written from the middle", "OC(=O)[C@H](O)[C@H](O)C(=O)O", "[C@@H](O)(C(=O)O)[C@@H](O)C(=O)O", true, Meso},
+		{"(R,R)- and (S,S)-tartaric acid", "OC(=O)[C@H](O)[C@@H](O)C(=O)O", "OC(=O)[C@@H](O)[C@H](O)C(=O)O", false, Chiral},
+		{"a mark on propan-2-ol means nothing", "C[C@H](C)O", "CC(C)O", true, Achiral},
+		{"cis- and trans-1,4-dimethylcyclohexane", "C[C@H]1CC[C@@H](C)CC1", "C[C@H]1CC[C@H](C)CC1", false, Achiral},
+		{"cis-1,4-dimethylcyclohexane written two ways", "C[C@H]1CC[C@@H](C)CC1", "C1C[C@@H](C)CC[C@H]1C", true, Achiral},
+		{"methylcyclohexane ring mark means nothing", "C[C@H]1CCCCC1", "CC1CCCCC1", true, Achiral},
+		{"E- and Z-1,2-difluoroethene", "F/C=C/F", "F/C=C\\F", false, Achiral},
+		{"E-1,2-difluoroethene written two ways", "F/C=C/F", "F\\C=C\\F", true, Achiral},
+		{"E-but-2-ene both ends marked", "C/C=C/C", "C(/C)=C/C", false, Achiral},
+		{"1,1-difluoroethene has no E/Z", "F/C(F)=C/C", "FC(F)=CC", true, Achiral},
+		{"penta-2,3-diene enantiomers", "CC=[C@]=CC", "CC=[C@@]=CC", false, Chiral},
+		{"penta-2,3-diene written backwards", "CC=[C@]=CC", "CC=[C@]=CC", true, Chiral},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			a, b := Identify(notation.Read(tc.a)), Identify(notation.Read(tc.b))
+			if (a.Key == b.Key) != tc.same {
+				t.Errorf("%s vs %s: same key %v, want %v", tc.a, tc.b, a.Key == b.Key, tc.same)
+			}
+			if a.ConstitutionKey != b.ConstitutionKey {
+				t.Errorf("%s vs %s: constitution keys differ", tc.a, tc.b)
+			}
+			if a.Chirality != tc.chirality {
+				t.Errorf("%s: chirality %v, want %v", tc.a, a.Chirality, tc.chirality)
+			}
+		})
+	}
+}
+
+// TestStereoisomerCounts: textbook counts (common practice).
+func TestStereoisomerCounts(t *testing.T) {
+	tests := []struct {
+		smiles string
+		want   int
+		why    string
+	}{
+		{"CCO", 1, "ethanol has no stereogenic unit"},
+		{"CC(O)CC", 2, "butan-2-ol: one centre"},
+		{"OC(C(=O)O)C(O)C(=O)O", 3, "tartaric acid: (R,R), (S,S) and meso"},
+		{"CC(O)C(O)C", 3, "butane-2,3-diol: (R,R), (S,S) and meso"},
+		{"OC(C(O)C(=O)O)C(O)C(=O)O", 4, "2,3,4-trihydroxyglutaric acid: two meso forms and one pair"},
+		{"CC=CC", 2, "but-2-ene: E and Z"},
+		{"CC1CCC(C)CC1", 2, "1,4-dimethylcyclohexane: cis and trans, both achiral"},
+		{"CC(O)C(Cl)C", 4, "3-chlorobutan-2-ol: two different centres"},
+		{"OC(C)C(O)C(C)O", 4, "pentane-2,3,4-triol: C3 is pseudoasymmetric"},
+		{"CC=C=CC", 2, "penta-2,3-diene: an axially chiral pair"},
+		{"OCC(O)C(O)C(O)C(O)C=O", 16, "an aldohexose: four centres"},
+	}
+	for _, tc := range tests {
+		got := Stereoisomers(notation.Read(tc.smiles))
+		if got.Count != tc.want {
+			t.Errorf("%s (%s): %d stereoisomers (%d units), want %d", tc.smiles, tc.why, got.Count, got.Units, tc.want)
+		}
+	}
+}

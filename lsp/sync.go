@@ -29,7 +29,12 @@ func (s *Server) didOpen(params json.RawMessage) error {
 // diagnostics.
 func (s *Server) open(f *fileVersion, content []byte) {
 	s.mu.Lock()
-	f.mapper = NewMapper(content, s.snap.encoding)
+	enc := s.snap.encoding
+	s.mu.Unlock()
+	// The encoding is fixed at initialize, so the line table of a large
+	// file is built without holding the lock.
+	f.mapper = NewMapper(content, enc)
+	s.mu.Lock()
 	next := s.snap.clone()
 	next.put(f)
 	s.setSnapshot(next)

@@ -90,6 +90,9 @@ func TestDiagnostics(t *testing.T) {
 		// 2-butanol without a mark: hint, nothing else is marked
 		{"CC(O)CC", CodeUndefined, notation.SeverityHint, "C"},
 		{"CC(O)C/C=C/C", CodeUndefined, notation.SeverityInformation, "C"},
+		// penta-2,3-diene is chiral (common practice); unmarked, its
+		// centre is reported
+		{"CC=C=CC", CodeUndefined, notation.SeverityHint, "C"},
 	}
 	for _, c := range cases {
 		m := notation.Read(c.smiles)

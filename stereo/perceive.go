@@ -63,6 +63,19 @@ func (l *labeller) perceiveUnmarked() {
 			report(g.mol.Atoms[a].Span, "stereocentre (together with another ring atom) without a configuration")
 		}
 	}
+	// allenes and even cumulenes: two different ligands at each end
+	for a := 0; a < g.n; a++ {
+		if l.unitAtoms[a] {
+			continue
+		}
+		ends, inner, ok := g.alleneEnds(a)
+		if !ok || !terminalDistinct(g, ends[0], inner[0], class) || !terminalDistinct(g, ends[1], inner[1], class) {
+			continue
+		}
+		l.unitAtoms[a] = true
+		l.res.Units = append(l.res.Units, Unit{Kind: KindAllene, Atoms: []int{ends[0], ends[1]}, Centre: a, Bond: -1})
+		report(g.mol.Atoms[a].Span, "stereogenic allene without a configuration")
+	}
 	for bi := range g.mol.Bonds {
 		b := &g.mol.Bonds[bi]
 		if l.unitBonds[bi] || bondOrder(b) != 2 || b.Order == notation.OrderAromatic || g.mancudeZ[b.Begin] > 0 && g.mancudeZ[b.End] > 0 {
@@ -205,6 +218,25 @@ func ligandClasses(g *graph, a int, class []int) (distinct, pairInRing bool) {
 		seen[k] = e.bond
 	}
 	return pairs == 0, pairs == 1 && ringPair
+}
+
+// terminalDistinct reports whether the terminal atom t of a cumulene
+// (bonded to the chain through inner) carries two ligands of different
+// classes, a hydrogen counting as one.
+func terminalDistinct(g *graph, t, inner int, class []int) bool {
+	var others []int
+	for _, e := range g.adj[t] {
+		if e.to != inner {
+			others = append(others, class[e.to])
+		}
+	}
+	switch len(others) {
+	case 1:
+		return g.hyd[t] == 1
+	case 2:
+		return others[0] != others[1] && g.hyd[t] == 0
+	}
+	return false
 }
 
 // bondEndDistinct reports whether end a of the double bond a=b carries

@@ -18,8 +18,8 @@ import (
 // (the diagnostics worker or a request), on a goroutine of its own, so a
 // cancelled request stops waiting without wasting the work.
 type analysis struct {
-	file     *fileVersion
-	analyzer *document.Analyzer
+	file   *fileVersion
+	config configured
 
 	once   sync.Once
 	done   chan struct{}
@@ -27,8 +27,8 @@ type analysis struct {
 	err    error
 }
 
-func newAnalysis(f *fileVersion, a *document.Analyzer) *analysis {
-	return &analysis{file: f, analyzer: a, done: make(chan struct{})}
+func newAnalysis(f *fileVersion, c configured) *analysis {
+	return &analysis{file: f, config: c, done: make(chan struct{})}
 }
 
 // errAnalysis is returned when the engine panicked on a document; the
@@ -57,7 +57,7 @@ func (a *analysis) run(log *zap.Logger) {
 		}
 	}()
 	start := time.Now()
-	a.result = a.analyzer.Analyze(a.file.Name, a.file.LanguageID, a.file.content())
+	a.result = a.config.analyzer.Analyze(a.file.Name, a.file.LanguageID, a.file.content())
 	log.Debug("analysed", zap.String("uri", a.file.URI), zap.Int32("version", a.file.Version),
 		zap.Int("records", len(a.result.Records)), zap.Duration("took", time.Since(start)))
 }

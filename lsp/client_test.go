@@ -186,7 +186,7 @@ func (c *fakeClient) handle(ctx context.Context, reply jsonrpc2.Replier, req jso
 			settings = json.RawMessage("null")
 		}
 		return reply(ctx, []json.RawMessage{settings}, nil)
-	case methodInlayHintRefresh, methodDiagnosticRefresh:
+	case methodInlayHintRefresh, methodDiagnosticRefresh, "client/registerCapability":
 		c.refresh = append(c.refresh, req.Method())
 		return reply(ctx, nil, nil)
 	default:

@@ -5,6 +5,8 @@ import (
 	"fmt"
 
 	"go.uber.org/zap"
+
+	"stereoline/stereo/document"
 )
 
 // Settings come in three layers, each over the one before: the engine's
@@ -82,13 +84,28 @@ func (s *Server) didChangeConfiguration(params json.RawMessage) error {
 // client to refresh what it pulls.
 func (s *Server) applySettings(section json.RawMessage) error {
 	s.mu.Lock()
-	cfg := s.baseCfg
+	cfg := cloneConfig(s.baseCfg)
 	s.mu.Unlock()
 	if err := cfg.Merge(section); err != nil {
 		return err
 	}
+	s.log.Info("settings applied", zap.Any("config", cfg))
+	s.reconfigure(&cfg)
+	return nil
+}
+
+// reconfigure analyses every open document again, under new editor
+// settings when cfg is not nil, and under the project files as they now
+// are; then it asks the client to refresh what it pulls.
+func (s *Server) reconfigure(cfg *document.Config) {
 	s.mu.Lock()
-	next := s.snap.withAnalyzer(s.snap.analyzer.WithConfig(cfg))
+	editor := s.snap.editor
+	if cfg != nil {
+		editor = newConfigured(editor.analyzer.WithConfig(*cfg))
+	}
+	next := s.snap.reconfigured(editor, func(snap *snapshot, f *fileVersion) configured {
+		return s.configFor(snap, f.path())
+	})
 	s.setSnapshot(next)
 	uris := make([]string, 0, len(next.files))
 	for uri := range next.files {
@@ -96,7 +113,6 @@ func (s *Server) applySettings(section json.RawMessage) error {
 	}
 	caps := s.caps
 	s.mu.Unlock()
-	s.log.Info("settings applied", zap.Any("config", cfg))
 	for _, uri := range uris {
 		s.work.schedule(uri, 0)
 	}
@@ -106,7 +122,6 @@ func (s *Server) applySettings(section json.RawMessage) error {
 	if caps.Workspace.Diagnostics.RefreshSupport {
 		go s.refresh(methodDiagnosticRefresh)
 	}
-	return nil
 }
 
 // refresh sends a refresh request, whose answer carries nothing.
@@ -116,7 +131,8 @@ func (s *Server) refresh(method string) {
 	}
 }
 
-// showWarning tells the user something the log alone would hide.
+// showWarning tells the user something the log alone would hide. It does
+// not wait for the write, since callers may hold the server's lock.
 func (s *Server) showWarning(msg string) {
-	s.notify("window/showMessage", map[string]any{"type": 2, "message": msg})
+	go s.notify("window/showMessage", map[string]any{"type": 2, "message": msg})
 }

@@ -78,9 +78,9 @@ func toSeverity(s notation.Severity) protocol.DiagnosticSeverity {
 }
 
 // resultID names what a pull report was computed from: the document
-// version and the configuration generation.
-func resultID(snap *snapshot, f *fileVersion) string {
-	return fmt.Sprintf("v%d.c%d", f.Version, snap.config)
+// version and the configuration.
+func resultID(a *analysis) string {
+	return fmt.Sprintf("v%d.c%d", a.file.Version, a.config.id)
 }
 
 // documentDiagnostic answers textDocument/diagnostic for the version the
@@ -97,7 +97,8 @@ func (s *Server) documentDiagnostic(ctx context.Context, snap *snapshot, params 
 	if !ok {
 		return documentDiagnosticReport{Kind: "full"}, nil
 	}
-	id := resultID(snap, f)
+	_, a, _ := snap.lookup(f.URI)
+	id := resultID(a)
 	if p.PreviousResultID == id {
 		return documentDiagnosticReport{Kind: "unchanged", ResultID: id}, nil
 	}
@@ -207,7 +208,7 @@ func (s *Server) scanWorkspace(ctx context.Context, snap *snapshot, token *proto
 		}
 		version := f.Version
 		item := workspaceDocumentReport{URI: u, Version: &version}
-		id := resultID(snap, f)
+		id := resultID(snap.analyses[u])
 		if previous[u] == id {
 			item.documentDiagnosticReport = documentDiagnosticReport{Kind: "unchanged", ResultID: id}
 		} else {
@@ -241,7 +242,7 @@ type diskFile struct {
 // hostFiles lists the files under roots whose names the finder reads,
 // skipping open documents, hidden folders and dependency folders.
 func (s *Server) hostFiles(ctx context.Context, snap *snapshot, roots []string, open map[string]bool) []diskFile {
-	cfg := snap.analyzer.Config()
+	cfg := snap.editor.analyzer.Config()
 	var out []diskFile
 	for _, root := range roots {
 		filepath.WalkDir(root, func(p string, d fs.DirEntry, err error) error {
@@ -286,7 +287,8 @@ func isHostFile(cfg document.Config, name string) bool {
 // modification time and size, so an unchanged file is not read again.
 func (s *Server) diskReport(ctx context.Context, snap *snapshot, file diskFile, previous map[string]string) (workspaceDocumentReport, bool) {
 	u := string(uri.File(file.path))
-	id := fmt.Sprintf("d%d.%d.c%d", file.info.ModTime().UnixNano(), file.info.Size(), snap.config)
+	c := s.configFor(snap, file.path)
+	id := fmt.Sprintf("d%d.%d.c%d", file.info.ModTime().UnixNano(), file.info.Size(), c.id)
 	item := workspaceDocumentReport{URI: u}
 	if previous[u] == id {
 		item.documentDiagnosticReport = documentDiagnosticReport{Kind: "unchanged", ResultID: id}
@@ -297,7 +299,7 @@ func (s *Server) diskReport(ctx context.Context, snap *snapshot, file diskFile, 
 		return item, false
 	}
 	f := &fileVersion{URI: u, Name: file.path, mapper: NewMapper(content, snap.encoding)}
-	res, err := newAnalysis(f, snap.analyzer).get(ctx, s.log)
+	res, err := newAnalysis(f, c).get(ctx, s.log)
 	if err != nil {
 		return item, false
 	}

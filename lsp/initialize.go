@@ -34,7 +34,7 @@ func (s *Server) initialize(params json.RawMessage) (any, error) {
 	s.caps = p.Capabilities
 	s.baseCfg = cfg
 	s.roots = workspaceRoots(p)
-	next := newSnapshot(document.NewAnalyzer(cfg), enc)
+	next := newSnapshot(newConfigured(document.NewAnalyzer(cfg)), enc)
 	s.setSnapshot(next)
 	s.state = stateInitialized
 	s.log.Info("initialized", zap.String("positionEncoding", string(enc)), zap.Strings("roots", s.roots))
@@ -97,14 +97,18 @@ func workspaceRoots(p initializeParams) []string {
 }
 
 // initialized is the client's acknowledgement; the server then asks for
-// the workspace settings, off the reader goroutine that will deliver the
-// answer.
+// the workspace settings and a watcher on project files, off the reader
+// goroutine that will deliver the answers.
 func (s *Server) initialized(json.RawMessage) error {
 	s.mu.Lock()
 	pull := s.caps.Workspace.Configuration
+	watch := s.caps.Workspace.DidChangeWatchedFiles.DynamicRegistration
 	s.mu.Unlock()
 	if pull {
 		go s.fetchConfiguration()
+	}
+	if watch {
+		go s.watchProjectFiles()
 	}
 	return nil
 }

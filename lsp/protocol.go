@@ -62,6 +62,9 @@ type clientCapabilities struct {
 		Diagnostics struct {
 			RefreshSupport bool `json:"refreshSupport"`
 		} `json:"diagnostics"`
+		DidChangeWatchedFiles struct {
+			DynamicRegistration bool `json:"dynamicRegistration"`
+		} `json:"didChangeWatchedFiles"`
 	} `json:"workspace"`
 	TextDocument struct {
 		CodeAction struct {

@@ -86,7 +86,8 @@ type Server struct {
 	status    int
 	exited    chan struct{}
 
-	work *worker
+	work     *worker
+	projects projectConfigs
 }
 
 // Serve runs a server on a stream (standard input and output, or one end
@@ -178,7 +179,7 @@ func newServer(ctx context.Context, log *zap.Logger, opts Options) *Server {
 		exited:    make(chan struct{}),
 	}
 	s.ctx, s.stop = context.WithCancel(ctx)
-	s.snap = newSnapshot(document.NewAnalyzer(s.baseCfg), EncodingUTF16)
+	s.snap = newSnapshot(newConfigured(document.NewAnalyzer(s.baseCfg)), EncodingUTF16)
 	s.work = newWorker(s)
 	s.requests = map[string]requestFunc{
 		"textDocument/hover":          s.hover,
@@ -194,7 +195,8 @@ func newServer(ctx context.Context, log *zap.Logger, opts Options) *Server {
 		"textDocument/didOpen":                s.didOpen,
 		"textDocument/didChange":              s.didChange,
 		"textDocument/didClose":               s.didClose,
-		"textDocument/didSave":                ignore,
+		"textDocument/didSave":                s.didSave,
+		"workspace/didChangeWatchedFiles":     s.didChangeWatchedFiles,
 		methodNotebookDidOpen:                 s.didOpenNotebook,
 		methodNotebookDidChange:               s.didChangeNotebook,
 		methodNotebookDidSave:                 ignore,

@@ -2,6 +2,7 @@ package lsp
 
 import (
 	"net/url"
+	"path/filepath"
 	"sync/atomic"
 
 	"stereoline/stereo/document"
@@ -25,20 +26,30 @@ func (f *fileVersion) content() []byte { return f.mapper.Content() }
 // arrived however the documents change meanwhile.
 type snapshot struct {
 	id       uint64
-	config   uint64 // configuration generation, part of result ids
 	encoding PositionEncoding
-	analyzer *document.Analyzer
+	editor   configured // the editor's settings; a project file may override them per document
 	files    map[string]*fileVersion
 	analyses map[string]*analysis
 }
 
-var snapshotIDs atomic.Uint64
+// configured is an analyzer and a number that names its configuration,
+// so a pull report's result id changes when the settings do.
+type configured struct {
+	analyzer *document.Analyzer
+	id       uint64
+}
 
-func newSnapshot(a *document.Analyzer, enc PositionEncoding) *snapshot {
+var snapshotIDs, configIDs atomic.Uint64
+
+func newConfigured(a *document.Analyzer) configured {
+	return configured{analyzer: a, id: configIDs.Add(1)}
+}
+
+func newSnapshot(editor configured, enc PositionEncoding) *snapshot {
 	return &snapshot{
 		id:       snapshotIDs.Add(1),
 		encoding: enc,
-		analyzer: a,
+		editor:   editor,
 		files:    map[string]*fileVersion{},
 		analyses: map[string]*analysis{},
 	}
@@ -59,9 +70,8 @@ func (s *snapshot) lookup(uri string) (*fileVersion, *analysis, bool) {
 func (s *snapshot) clone() *snapshot {
 	next := &snapshot{
 		id:       snapshotIDs.Add(1),
-		config:   s.config,
 		encoding: s.encoding,
-		analyzer: s.analyzer,
+		editor:   s.editor,
 		files:    make(map[string]*fileVersion, len(s.files)+1),
 		analyses: make(map[string]*analysis, len(s.analyses)+1),
 	}
@@ -74,10 +84,11 @@ func (s *snapshot) clone() *snapshot {
 	return next
 }
 
-// put adds or replaces a document in a snapshot being built.
-func (s *snapshot) put(f *fileVersion) {
+// put adds or replaces a document in a snapshot being built, to be
+// analysed under c.
+func (s *snapshot) put(f *fileVersion, c configured) {
 	s.files[f.URI] = f
-	s.analyses[f.URI] = newAnalysis(f, s.analyzer)
+	s.analyses[f.URI] = newAnalysis(f, c)
 }
 
 // remove drops a document from a snapshot being built.
@@ -86,16 +97,25 @@ func (s *snapshot) remove(uri string) {
 	delete(s.analyses, uri)
 }
 
-// withAnalyzer returns a snapshot whose every document is analysed again
-// by another analyzer (after a configuration change).
-func (s *snapshot) withAnalyzer(a *document.Analyzer) *snapshot {
+// reconfigured returns a snapshot under other editor settings whose every
+// document is analysed again, under the configuration resolve picks for
+// it (after a settings change or a change of a project file).
+func (s *snapshot) reconfigured(editor configured, resolve func(*snapshot, *fileVersion) configured) *snapshot {
 	next := s.clone()
-	next.analyzer = a
-	next.config++
+	next.editor = editor
 	for _, f := range next.files {
-		next.analyses[f.URI] = newAnalysis(f, a)
+		next.analyses[f.URI] = newAnalysis(f, resolve(next, f))
 	}
 	return next
+}
+
+// path returns the file a document is on disk, or "" (an untitled
+// document); a notebook cell is in its notebook's file.
+func (f *fileVersion) path() string {
+	if p := fileURIPath(f.URI); p != "" {
+		return filepath.FromSlash(p)
+	}
+	return filepath.FromSlash(fileURIPath(f.Notebook))
 }
 
 // uriPath returns the path part of a document URI, which names the file

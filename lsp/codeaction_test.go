@@ -180,10 +180,6 @@ func TestQuickFixesResolveTheirFinding(t *testing.T) {
 				t.Fatalf("eager client, action without edit: %+v", a)
 			}
 			after := applyEdits(t, text, a.Edit.Changes[protocol.DocumentURI(u)], EncodingUTF16)
-			if version > 1 {
-				version++
-				c.change(u, version, map[string]any{"text": text})
-			}
 			version++
 			c.change(u, version, map[string]any{"text": after})
 			for _, d2 := range c.diagnostics(u, version) {

@@ -63,6 +63,8 @@ func capabilities(enc PositionEncoding) serverCapabilities {
 			TextDocumentSync: &protocol.TextDocumentSyncOptions{
 				OpenClose: true,
 				Change:    protocol.TextDocumentSyncKindIncremental,
+				// didSave tells of a saved project configuration file.
+				Save: &protocol.SaveOptions{},
 			},
 			HoverProvider:          true,
 			CodeActionProvider:     &protocol.CodeActionOptions{CodeActionKinds: kinds, ResolveProvider: true},

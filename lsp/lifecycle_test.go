@@ -196,3 +196,20 @@ func TestMalformedMessageIsSkipped(t *testing.T) {
 		t.Errorf("log does not show three skipped messages:\n%s", logs)
 	}
 }
+
+// A second initialize is refused (LSP 3.17: initialize is sent once);
+// notifications before initialize are dropped, so a document opened then
+// is not known after.
+func TestInitializeOnceAndEarlyNotifications(t *testing.T) {
+	c := start(t, clientSetup{noInit: true})
+	c.open("file:///work/early.smi", "", 1, "C[C@H](C)C\n")
+	c.mustCall("initialize", map[string]any{"capabilities": map[string]any{}}, nil)
+	if err := c.call("initialize", map[string]any{"capabilities": map[string]any{}}, nil); rpcCode(err) != jsonrpc2.InvalidRequest {
+		t.Errorf("second initialize: %v, want code %d", err, jsonrpc2.InvalidRequest)
+	}
+	var syms []json.RawMessage
+	c.mustCall("textDocument/documentSymbol", map[string]any{"textDocument": textDoc("file:///work/early.smi")}, &syms)
+	if len(syms) != 0 {
+		t.Errorf("a document opened before initialize is known: %s", syms)
+	}
+}

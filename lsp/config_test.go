@@ -125,3 +125,19 @@ func TestBadSettings(t *testing.T) {
 		t.Errorf("severity after a refused setting = %v, want the default warning", s)
 	}
 }
+
+func TestBadInitializationOptions(t *testing.T) {
+	c := start(t, clientSetup{initOpts: map[string]any{"detection": "everything"}})
+	c.until("a warning message", func() bool { return len(c.messages) > 0 })
+	c.mu.Lock()
+	msg := c.messages[0]
+	c.mu.Unlock()
+	if !strings.Contains(msg, "everything") {
+		t.Errorf("message %q does not name the bad value", msg)
+	}
+	const u = "file:///work/defaults.smi"
+	c.open(u, "", 1, isobutane)
+	if s := severityOf(c.diagnostics(u, 1), "stereo-ineffective-center"); s != protocol.DiagnosticSeverityWarning {
+		t.Errorf("severity under the defaults = %v, want warning", s)
+	}
+}

@@ -2,6 +2,7 @@ package lsp
 
 import (
 	"encoding/json"
+	"fmt"
 
 	"go.lsp.dev/jsonrpc2"
 	"go.lsp.dev/protocol"
@@ -29,6 +30,7 @@ func (s *Server) initialize(params json.RawMessage) (any, error) {
 		// A bad setting must not keep the server from starting; the
 		// defaults stand and the log says why.
 		s.log.Warn("initializationOptions ignored", zap.Error(err))
+		s.showWarning(fmt.Sprintf("stereoline: initializationOptions ignored: %v", err))
 		cfg = document.DefaultConfig()
 	}
 	s.caps = p.Capabilities

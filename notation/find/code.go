@@ -320,6 +320,11 @@ func (cf *codeFinder) emit(lit *literal, d *decoded, m *offsetMap, from, to int,
 		m:         sub,
 	}
 	o.Span = notation.Span{Start: sub.hostStart(), End: sub.hostEnd()}
+	for k := range lit.pieces {
+		if pc := &lit.pieces[k]; pc.content.Start <= o.Span.Start && o.Span.Start <= pc.content.End && !pc.raw {
+			o.encode = doubleBackslashes
+		}
+	}
 	for _, is := range d.issues {
 		if is.span.Start < o.Span.Start || is.span.Start >= o.Span.End {
 			continue

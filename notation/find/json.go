@@ -302,6 +302,7 @@ func (jf *jsonFinder) str(v jsonValue, named bool) {
 		Construct: ConstructJSONValue,
 		Reason:    ReasonName,
 		m:         m,
+		encode:    jsonEscape,
 	}
 	if !named {
 		o.Reason = ReasonGuess

@@ -11,6 +11,15 @@ func lift(occs []Occurrence, outer offsetMap, encode func(string) string) {
 		o := &occs[i]
 		o.m = compose(o.m, outer)
 		o.Span = outer.span(o.Span)
+		if encode != nil {
+			inner := o.encode
+			o.encode = func(s string) string {
+				if inner != nil {
+					s = inner(s)
+				}
+				return encode(s)
+			}
+		}
 		for k, e := range o.Diagnostics {
 			e.Span = outer.span(e.Span)
 			var kept []Fix

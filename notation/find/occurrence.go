@@ -1,6 +1,10 @@
 package find
 
-import "stereoline/notation"
+import (
+	"strings"
+
+	"stereoline/notation"
+)
 
 // Construct is the kind of host construct an occurrence was found in.
 type Construct uint8
@@ -112,7 +116,27 @@ type Occurrence struct {
 	Fixes       [][]Fix
 
 	m offsetMap
+	// encode writes notation text as the host must hold it (a backslash
+	// doubled inside an escaping string literal); nil writes it verbatim.
+	encode func(string) string
 }
+
+// Encode returns notation text as it must be written at this occurrence
+// for the host to read it back unchanged: in an escaping string literal
+// or a JSON value a backslash is doubled, in a notebook both layers apply,
+// in a list record or a raw string nothing changes. Rewrites use it for
+// the text they insert.
+func (o *Occurrence) Encode(s string) string {
+	if o.encode == nil {
+		return s
+	}
+	return o.encode(s)
+}
+
+// doubleBackslashes is the encoding of string literals whose escapes
+// start with a backslash (Python, JavaScript, Go, Java, Kotlin, Rust,
+// Julia and R non-raw strings; YAML double-quoted scalars).
+func doubleBackslashes(s string) string { return strings.ReplaceAll(s, `\`, `\\`) }
 
 // HostOffset maps a notation offset (0 to len(Text)) to a host byte
 // offset: the first host byte of that notation byte, or the end of the

@@ -264,6 +264,9 @@ func (yf *yamlFinder) one(v []byte, at int, named bool) {
 		Reason:    reason,
 		m:         m,
 	}
+	if quote == '"' {
+		o.encode = doubleBackslashes
+	}
 	for _, is := range d.issues {
 		e := &notation.Error{Span: is.span, Code: CodeHostEscape, Severity: is.sev, Msg: is.msg}
 		o.addDiag(e, []Fix{

@@ -23,6 +23,9 @@ func (l *labeller) checkBridgeheads() {
 				continue
 			}
 			ta, tb := l.cfg.tetra[a], l.cfg.tetra[b]
+			if ta == nil || tb == nil {
+				continue // already reported with another bridgehead
+			}
 			wa, oka := bridgeWinding(ta, bridges, 0)
 			wb, okb := bridgeWinding(tb, bridges, 1)
 			if !oka || !okb || wa != wb {

@@ -15,6 +15,8 @@ const usage = `usage: stereoline <command> [arguments]
 commands:
   describe [--json] [FILE...]   explain each record: atoms, bonds, formula, stereo, diagnostics
   check [options] [PATH...]     report problems in files and folders (text, JSON Lines, SARIF) for CI
+  transform OPERATION [FILE...] rewrite stereo marks: --mirror, --invert N, --flip I-J, --set N=R|S|E|Z|M|P, --clean
+  compare A B [--json]          relate two structures: identical, enantiomers, diastereomers, ...
   help                          show this text
 
 Run 'stereoline <command> -h' for the options of a command.
@@ -42,6 +44,10 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 		return describe(args[1:], stdin, stdout, stderr)
 	case "check":
 		return check(args[1:], stdin, stdout, stderr)
+	case "transform":
+		return transform(args[1:], stdin, stdout, stderr)
+	case "compare":
+		return compare(args[1:], stdin, stdout, stderr)
 	case "serve":
 		return serve(args[1:], stdin, stdout, stderr)
 	case "help", "-h", "--help":

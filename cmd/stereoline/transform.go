@@ -1,0 +1,174 @@
+package main
+
+import (
+	"bufio"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"strconv"
+	"strings"
+
+	"stereoline/notation"
+	"stereoline/stereo"
+)
+
+// transform implements 'stereoline transform': it rewrites the stereo
+// marks of every record and prints the records, one per line, with
+// everything but the rewritten marks kept byte for byte. Lines that hold
+// no record (blank, or starting with '#') are copied. A record the
+// transform does not apply to is printed unchanged and reported on
+// standard error.
+func transform(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+	fs := flag.NewFlagSet("transform", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	mirror := fs.Bool("mirror", false, "write the mirror image (the enantiomer)")
+	invert := fs.Int("invert", 0, "invert the unit at atom `N` (1-based, as in describe)")
+	flip := fs.String("flip", "", "flip the double bond between atoms `I-J`")
+	set := fs.String("set", "", "set the unit at atom N to a descriptor: `N=R`, S, E, Z, M or P")
+	clean := fs.Bool("clean", false, "remove marks that specify nothing")
+	fs.Usage = func() {
+		fmt.Fprintln(stderr, "usage: stereoline transform --mirror | --invert N | --flip I-J | --set N=DESCRIPTOR | --clean [FILE...]\n\nRewrites the stereo marks of each record read from the files, or from\nstandard input when none is named, and prints the records.")
+		fs.PrintDefaults()
+	}
+	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	ops := 0
+	for _, on := range []bool{*mirror, *invert != 0, *flip != "", *set != "", *clean} {
+		if on {
+			ops++
+		}
+	}
+	if ops != 1 {
+		fmt.Fprintln(stderr, "stereoline transform: give exactly one of --mirror, --invert, --flip, --set, --clean")
+		return 2
+	}
+	op, err := transformOp(*mirror, *invert, *flip, *set, *clean)
+	if err != nil {
+		fmt.Fprintf(stderr, "stereoline transform: %v\n", err)
+		return 2
+	}
+	out := bufio.NewWriter(stdout)
+	defer out.Flush()
+	status := 0
+	each := func(name string, r io.Reader) error {
+		sc := bufio.NewScanner(r)
+		sc.Buffer(make([]byte, 1<<16), 64<<20)
+		line := 0
+		for sc.Scan() {
+			line++
+			text := sc.Text()
+			if trimmed := strings.TrimSpace(text); trimmed == "" || strings.HasPrefix(trimmed, "#") {
+				fmt.Fprintln(out, text)
+				continue
+			}
+			newText, notes, err := transformLine(text, op)
+			for _, n := range notes {
+				fmt.Fprintf(stderr, "%s:%d: %s\n", name, line, n)
+			}
+			if err != nil {
+				fmt.Fprintf(stderr, "%s:%d: %v\n", name, line, err)
+				status = 1
+			}
+			fmt.Fprintln(out, newText)
+		}
+		return sc.Err()
+	}
+	if fs.NArg() == 0 {
+		if err := each("<stdin>", stdin); err != nil {
+			fmt.Fprintf(stderr, "stereoline: standard input: %v\n", err)
+			return 2
+		}
+		return status
+	}
+	for _, name := range fs.Args() {
+		f, err := os.Open(name)
+		if err != nil {
+			fmt.Fprintf(stderr, "stereoline: %v\n", err)
+			status = 2
+			continue
+		}
+		err = each(name, f)
+		f.Close()
+		if err != nil {
+			fmt.Fprintf(stderr, "stereoline: %s: %v\n", name, err)
+			status = 2
+		}
+	}
+	return status
+}
+
+// transformFunc is one transform applied to a molecule.
+type transformFunc func(m *notation.Molecule) (stereo.Transform, error)
+
+// transformOp turns the flags into a transform; atom numbers arrive
+// 1-based and go to the stereo package 0-based.
+func transformOp(mirror bool, invert int, flip, set string, clean bool) (transformFunc, error) {
+	switch {
+	case mirror:
+		return stereo.Mirror, nil
+	case clean:
+		return stereo.Clean, nil
+	case invert != 0:
+		if invert < 1 {
+			return nil, fmt.Errorf("--invert wants an atom number from 1")
+		}
+		return func(m *notation.Molecule) (stereo.Transform, error) { return stereo.Invert(m, invert-1) }, nil
+	case flip != "":
+		i, j, ok := strings.Cut(flip, "-")
+		a, err1 := strconv.Atoi(i)
+		b, err2 := strconv.Atoi(j)
+		if !ok || err1 != nil || err2 != nil || a < 1 || b < 1 {
+			return nil, fmt.Errorf("--flip wants two atom numbers, as in 3-4, not %q", flip)
+		}
+		return func(m *notation.Molecule) (stereo.Transform, error) { return stereo.Flip(m, a-1, b-1) }, nil
+	case set != "":
+		n, d, ok := strings.Cut(set, "=")
+		a, err := strconv.Atoi(n)
+		desc, okd := parseDescriptor(d)
+		if !ok || err != nil || a < 1 || !okd {
+			return nil, fmt.Errorf("--set wants N=DESCRIPTOR with R, S, E, Z, M or P, as in 2=R, not %q", set)
+		}
+		return func(m *notation.Molecule) (stereo.Transform, error) { return stereo.SetDescriptor(m, a-1, desc) }, nil
+	}
+	return nil, fmt.Errorf("no transform given")
+}
+
+func parseDescriptor(s string) (stereo.Descriptor, bool) {
+	switch s {
+	case "R":
+		return stereo.DescR, true
+	case "S":
+		return stereo.DescS, true
+	case "E":
+		return stereo.DescE, true
+	case "Z":
+		return stereo.DescZ, true
+	case "M":
+		return stereo.DescM, true
+	case "P":
+		return stereo.DescP, true
+	}
+	return stereo.DescNone, false
+}
+
+// transformLine applies op to the record on one line and returns the
+// line with only the notation's edited bytes changed.
+func transformLine(line string, op transformFunc) (string, []string, error) {
+	rec := notation.SplitRecord(line)
+	m := notation.Read(rec.Notation)
+	t, err := op(m)
+	if err != nil {
+		return line, nil, err
+	}
+	shifted := make([]notation.Edit, len(t.Edits))
+	for i, e := range t.Edits {
+		shifted[i] = notation.Edit{Span: e.Span.Shift(rec.NotationSpan.Start), New: e.New}
+	}
+	out, err := notation.ApplyEdits(line, shifted)
+	if err != nil {
+		return line, t.Notes, err
+	}
+	return out, t.Notes, nil
+}

@@ -43,7 +43,8 @@ type Result struct {
 	// Diagnostics are sorted by host position.
 	Diagnostics []Diagnostic
 
-	cfg *Config
+	cfg   *Config
+	lines []int // line starts, built on first use
 }
 
 // Record is one notation occurrence with its analysis.
@@ -51,6 +52,10 @@ type Record struct {
 	Occ    *find.Occurrence
 	Mol    *notation.Molecule
 	Stereo *stereo.Analysis
+	// Identity is nil for reactions and for records that do not read
+	// without error; Reaction is nil unless the record is a reaction.
+	Identity *stereo.Identity
+	Reaction *stereo.ReactionResult
 }
 
 // Diagnostic is one finding in host byte offsets.
@@ -124,7 +129,7 @@ func (a *Analyzer) Analyze(name, languageID string, content []byte) *Result {
 	res.Records = make([]Record, len(occs))
 	for i := range occs {
 		an := a.cache.get(occs[i].Text)
-		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo}
+		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo, Identity: an.identity, Reaction: an.reaction}
 	}
 	for i := range res.Records {
 		res.recordDiagnostics(i)
@@ -184,6 +189,11 @@ func (r *Result) recordDiagnostics(i int) {
 		d := mapped(e)
 		d.Fixes = r.fixesFor(i, e)
 		r.add(d)
+	}
+	if rec.Reaction != nil {
+		for _, e := range rec.Reaction.Diagnostics {
+			r.add(mapped(e))
+		}
 	}
 }
 

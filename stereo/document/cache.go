@@ -15,8 +15,24 @@ const cacheLimit = 250_000
 // analysis is what the engine knows of one notation text, independent of
 // where it was found.
 type analysis struct {
-	mol    *notation.Molecule
-	stereo *stereo.Analysis
+	mol      *notation.Molecule
+	stereo   *stereo.Analysis
+	identity *stereo.Identity       // nil for reactions and records with reading errors
+	reaction *stereo.ReactionResult // nil unless the record is a reaction
+}
+
+// analyse runs the engine on one notation text.
+func analyse(text string) *analysis {
+	m := notation.Read(text)
+	a := &analysis{mol: m, stereo: stereo.Analyze(m)}
+	switch {
+	case m.Reaction:
+		a.reaction = stereo.AnalyzeReactionWith(m, a.stereo)
+	case !m.Errors.HasErrors() && len(m.Atoms) > 0:
+		id := stereo.Identify(m)
+		a.identity = &id
+	}
+	return a
 }
 
 // cache holds analyses keyed by notation text. Repeated records and an
@@ -43,8 +59,7 @@ func (c *cache) get(text string) *analysis {
 		return a
 	}
 	c.mu.Unlock()
-	m := notation.Read(text)
-	a := &analysis{mol: m, stereo: stereo.Analyze(m)}
+	a := analyse(text)
 	c.mu.Lock()
 	if len(c.cur) >= cacheLimit {
 		c.old, c.cur = c.cur, map[string]*analysis{}

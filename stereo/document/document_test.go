@@ -4,6 +4,7 @@ import (
 	"strings"
 	"testing"
 
+	"stereoline/notation"
 	"stereoline/stereo"
 )
 
@@ -90,5 +91,43 @@ func TestSymbols(t *testing.T) {
 	syms := res.Symbols()
 	if len(syms) != 2 || syms[0].Name != "ethanol" || syms[1].Name != "C[C@@H](O)CC" {
 		t.Errorf("symbols = %+v", syms)
+	}
+}
+
+// TestListRelations: L- and D-alanine are mirror images; the same
+// structure written from the other end is a duplicate; (2R,3R)- and
+// (2R,3S)-2,3-dibromobutane... here tartaric acid: the (R,R) form and the
+// meso form are diastereomers (common practice).
+func TestListRelations(t *testing.T) {
+	text := strings.Join([]string{
+		"N[C@@H](C)C(=O)O L-Ala",
+		"N[C@H](C)C(=O)O D-Ala",
+		"OC(=O)[C@H](C)N L-Ala again",
+		"O[C@H](C(=O)O)[C@@H](O)C(=O)O tartaric acid",
+		"O[C@H](C(=O)O)[C@H](O)C(=O)O tartaric acid, other form",
+		"CCO ethanol",
+	}, "\n") + "\n"
+	res := analyze(t, "pool.smi", text)
+	want := map[notation.Code]int{CodeListEnantiomer: 2, CodeListDuplicate: 3, CodeListStereoisomer: 5}
+	got := map[notation.Code]int{}
+	for _, d := range res.Diagnostics {
+		if _, ok := want[d.Code]; ok {
+			got[d.Code] = res.lineOf(d.Span.Start) + 1
+			if len(d.Related) != 1 || d.Related[0].Span.Start != res.Records[0].Occ.Span.Start && d.Code != CodeListStereoisomer {
+				t.Errorf("%s: related %+v, want the first record", d.Code, d.Related)
+			}
+		}
+	}
+	for code, line := range want {
+		if got[code] != line {
+			t.Errorf("%s on line %d, want line %d (all: %+v)", code, got[code], line, res.Diagnostics)
+		}
+	}
+	// Source code is not a list: the same string twice is not reported.
+	res = analyze(t, "t.py", "smiles_in = \"N[C@@H](C)C(=O)O\"\nsmiles_out = \"N[C@@H](C)C(=O)O\"\n")
+	for _, d := range res.Diagnostics {
+		if d.Code == CodeListDuplicate {
+			t.Errorf("duplicate reported in source code: %+v", d)
+		}
 	}
 }

@@ -46,6 +46,9 @@ func BenchmarkFirstDiagnostics(b *testing.B) {
 		if d := c.diagnostics("file:///bench/big.smi", 1); len(d) < benchRecords/1000 {
 			b.Fatalf("%d diagnostics, want at least %d", len(d), benchRecords/1000)
 		}
+		b.StopTimer()
+		c.stop()
+		b.StartTimer()
 	}
 }
 

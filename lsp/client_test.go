@@ -317,6 +317,16 @@ func (c *fakeClient) published(uri string) []publishDiagnosticsParams {
 	return out
 }
 
+// stop shuts the server down and waits for it to exit, so a benchmark
+// does not keep every iteration's server alive.
+func (c *fakeClient) stop() {
+	c.t.Helper()
+	c.mustCall("shutdown", nil, nil)
+	if st := c.exit(); st != 0 {
+		c.t.Fatalf("exit status %d after shutdown", st)
+	}
+}
+
 // exit sends exit and returns the server's exit status.
 func (c *fakeClient) exit() int {
 	c.t.Helper()

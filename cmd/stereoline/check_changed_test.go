@@ -58,7 +58,9 @@ func TestCheckChangedSince(t *testing.T) {
 		}
 	}
 	want := []string{
+		"blocks.smi:2:1: warning: the same structure as line 1 (line 1, one-sided before the change) [list-duplicate]",
 		"blocks.smi:2:2: warning: only one end of this double bond is marked, so its configuration is open [stereo-one-sided-bond]",
+		"blocks.smi:4:1: warning: the same structure as line 3 (line 3, strained before the change) [list-duplicate]",
 		"blocks.smi:4:6: error: trans double bond in a ring of 6 atoms; the smallest ring that holds one has 8 [stereo-strained-ring]",
 		"new.smi:1:2: warning: only one end of this double bond is marked, so its configuration is open [stereo-one-sided-bond]",
 		"with space.smi:2:2: warning: only one end of this double bond is marked, so its configuration is open [stereo-one-sided-bond]",
@@ -71,8 +73,8 @@ func TestCheckChangedSince(t *testing.T) {
 	}
 	// Without the filter the old findings are there too.
 	all, _, _ := runCheck(t, "", dir)
-	if n := strings.Count(all, "\n"); n != 7 {
-		t.Errorf("without --changed-since want 7 findings, got %d:\n%s", n, all)
+	if n := strings.Count(all, "\n"); n != 9 {
+		t.Errorf("without --changed-since want 9 findings, got %d:\n%s", n, all)
 	}
 	// A revision git does not know is a usage error naming it.
 	_, stderr, status = runCheck(t, "", "--changed-since", "no-such-rev", dir)

@@ -4,6 +4,7 @@ import (
 	"stereoline/notation"
 	"stereoline/notation/find"
 	"stereoline/stereo"
+	"stereoline/stereo/document"
 )
 
 // codeDoc documents one diagnostic code: what the SARIF rules and the
@@ -48,6 +49,8 @@ const (
 	originStereo  = "stereo"
 	originFinder  = "finder"
 	originRewrite = "rewrite"
+	originList    = "list"
+	originMap     = "reaction"
 )
 
 // codeCatalogue lists every diagnostic code, grouped by origin, in the
@@ -211,6 +214,50 @@ var codeCatalogue = []codeDoc{
 		Example: codeExample{File: "example.smi", Text: "C[C@H](CCCCCCCCCCCO)CCCCCCCCCCCN\n",
 			NotShown: "needs a molecule large enough to reach the node cap; this one only shows the shape of such a centre, two branches that differ far from it"},
 	},
+	// Relations between the records of one list (stereo/document).
+	{
+		Code: document.CodeListDuplicate, Origin: originList,
+		Short:   "The same structure as an earlier record of the list.",
+		Full:    "Two records of one list describe the same compound, stereo included, though they may be written differently. A duplicate inflates counts and, when the two titles differ, usually means one of them was meant to be something else.",
+		Help:    "Remove one record, or fix the marks of the one that was meant to be another isomer.",
+		Example: codeExample{File: "example.smi", Text: "N[C@@H](C)C(=O)O A-1\nOC(=O)[C@H](C)N A-2\n"},
+	},
+	{
+		Code: document.CodeListEnantiomer, Origin: originList,
+		Short:   "The mirror image of an earlier record.",
+		Full:    "The record is the enantiomer of an earlier one: every stereocentre is inverted. Lists often hold both enantiomers on purpose; when they do not, one flipped mark is the usual cause.",
+		Help:    "Keep both if both are meant; otherwise invert the marks of the wrong one.",
+		Example: codeExample{File: "example.smi", Text: "N[C@@H](C)C(=O)O A-1\nN[C@H](C)C(=O)O A-2\n"},
+	},
+	{
+		Code: document.CodeListStereoisomer, Origin: originList,
+		Short:   "Another configuration of an earlier record's constitution.",
+		Full:    "The record has the same constitution as an earlier one but a different configuration at the units named, or leaves some of them unmarked: a diastereomer, an E/Z isomer, or a less specified writing of the same compound.",
+		Help:    "Check that the units named are meant to differ.",
+		Example: codeExample{File: "example.smi", Text: "C/C=C/C A-1\nC/C=C\\C A-2\n", Shown: "C/C=C/C A-1\nC/C=C\\C A-2\n"},
+	},
+	// Atom-mapped reactions (stereo/reaction.go).
+	{
+		Code: stereo.CodeMapDuplicate, Origin: originMap,
+		Short:   "An atom-map number used twice on one side of a reaction.",
+		Full:    "Each atom-map number pairs one reactant atom with one product atom. Used twice on one side, the pairing is ambiguous and the stereo of the atoms involved cannot be followed across the arrow.",
+		Help:    "Give each mapped atom its own number on each side.",
+		Example: codeExample{File: "example.rsmi", Text: "[CH3:1][OH:2]>>[CH3:1][OH:1]\n"},
+	},
+	{
+		Code: stereo.CodeMapUnpaired, Origin: originMap,
+		Short:   "A product atom whose map number no reactant atom carries.",
+		Full:    "The product atom claims to come from a reactant atom that does not exist, so its origin, and what happened to its configuration, cannot be followed.",
+		Help:    "Fix the number, or remove it if the atom is not mapped.",
+		Example: codeExample{File: "example.rsmi", Text: "[CH3:1][OH:2]>>[CH3:1][OH:3]\n"},
+	},
+	{
+		Code: stereo.CodeStereoLost, Origin: originMap,
+		Short:   "A mapped unit specified in the reactants is unspecified in the products.",
+		Full:    "The reactant side fixes the configuration of a mapped stereocentre or double bond, the product side leaves it open. Either the reaction destroys the configuration (then say so) or a mark was dropped when the product was written.",
+		Help:    "Add the mark to the product, or remove it from the reactant if the configuration is really lost.",
+		Example: codeExample{File: "example.rsmi", Text: "[CH3:1][C@H:2]([OH:3])[CH2:4][CH3:5]>>[CH3:1][CH:2]([OH:3])[CH2:4][CH3:5]\n"},
+	},
 	// The finder (notation/find).
 	{
 		Code: find.CodeHostEscape, Origin: originFinder,
@@ -241,6 +288,34 @@ var codeCatalogue = []codeDoc{
 		Full:    "The rewrite cannot express the change in the notation as written there, for example a mark the host escapes would corrupt.",
 		Help:    "Make the change by hand, or rewrite the whole record.",
 		Example: codeExample{File: "example.smi", Text: "CC=CC\n", NotShown: "returned by a rewrite, not by a check"},
+	},
+	{
+		Code: stereo.CodeNoUnit, Origin: originRewrite,
+		Short:   "The atom or bond named is no stereogenic unit.",
+		Full:    "A rewrite was asked to invert, flip or set a unit at an atom that has no configuration to change.",
+		Help:    "Name the atom of a stereocentre or an end of a stereogenic double bond (atom numbers as in describe).",
+		Example: codeExample{File: "example.smi", Text: "CCO\n", NotShown: "returned by a rewrite asked to invert atom 1 of ethanol, not by a check"},
+	},
+	{
+		Code: stereo.CodeNotSpecified, Origin: originRewrite,
+		Short:   "The unit has no configuration to invert or flip.",
+		Full:    "Inverting or flipping needs a configuration to start from; this unit is unmarked.",
+		Help:    "Set the unit to a descriptor instead.",
+		Example: codeExample{File: "example.smi", Text: "CC(O)CC\n", NotShown: "returned by a rewrite asked to invert an unmarked centre, not by a check"},
+	},
+	{
+		Code: stereo.CodeBadDescriptor, Origin: originRewrite,
+		Short:   "The descriptor does not fit the unit.",
+		Full:    "A tetrahedral centre takes R or S, a double bond E or Z, an allene M or P; a pseudoasymmetric centre takes only r or s, which setting cannot choose.",
+		Help:    "Ask for a descriptor of the unit's kind.",
+		Example: codeExample{File: "example.smi", Text: "C[C@H](O)CC\n", NotShown: "returned by a rewrite asked to set a stereocentre to E, not by a check"},
+	},
+	{
+		Code: stereo.CodeNotVerified, Origin: originRewrite,
+		Short:   "The rewritten text does not read as intended.",
+		Full:    "After a rewrite the result is read and labelled again; this time the label or the structure did not come out as asked, so the rewrite is refused rather than written.",
+		Help:    "Make the change by hand and check it with describe.",
+		Example: codeExample{File: "example.smi", Text: "C[C@H](O)CC\n", NotShown: "returned by a rewrite whose result fails its own check, not by a check"},
 	},
 }
 

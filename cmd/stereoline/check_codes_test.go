@@ -173,6 +173,8 @@ func catalogueMarkdown() string {
 	origins := []struct{ origin, title string }{
 		{originReader, "Reading the notation"},
 		{originStereo, "Stereo marks"},
+		{originList, "Records of one list"},
+		{originMap, "Atom-mapped reactions"},
 		{originFinder, "Notation inside host files"},
 		{originRewrite, "Rewrites (returned by rewriting commands, never by `check`)"},
 	}

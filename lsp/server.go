@@ -7,9 +7,9 @@
 // (protocol.go, server.go), immutable snapshots of the open documents at
 // their versions (snapshot.go), one analysis per document version
 // (analysis.go), one converter between byte offsets and positions
-// (mapper.go), then a thin handler per feature (sync.go, notebook.go,
-// config.go, initialize.go, diagnostics.go, hover.go, inlay.go,
-// codeaction.go, symbols.go).
+// (mapper.go), the settings layers (config.go, project.go), then a thin
+// handler per feature (sync.go, notebook.go, initialize.go,
+// diagnostics.go, hover.go, inlay.go, codeaction.go, symbols.go).
 //
 // Notifications are handled in order on the connection's reader, where
 // they only build a new snapshot; requests run on goroutines of their own

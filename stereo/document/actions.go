@@ -38,7 +38,3 @@ func (r *Result) Actions(span notation.Span) []Action {
 	out = append(out, r.rewrites(span)...)
 	return out
 }
-
-// rewrites returns the stereo rewrites for the records at span. They are
-// filled in by the transforms.
-func (r *Result) rewrites(span notation.Span) []Action { return nil }

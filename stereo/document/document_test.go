@@ -131,3 +131,50 @@ func TestListRelations(t *testing.T) {
 		}
 	}
 }
+
+// TestActions: the rewrites touch only the marks, in host bytes, and a
+// backslash inserted into a Python string is written doubled (Python
+// language reference, string literals).
+func TestActions(t *testing.T) {
+	text := "smiles = \"N[C@@H](C)C(=O)O\"\nother_smiles = \"F\\\\C=CF\"\n"
+	res := analyze(t, "x.py", text)
+	at := strings.Index(text, "@@")
+	var mirror, set *Action
+	for _, a := range res.Actions(notation.Span{Start: at, End: at}) {
+		a := a
+		switch a.Kind {
+		case KindMirror:
+			mirror = &a
+		case KindSet:
+			set = &a
+		}
+	}
+	if mirror == nil || len(mirror.Edits) != 1 || text[mirror.Edits[0].Span.Start:mirror.Edits[0].Span.End] != "@@" || mirror.Edits[0].NewText != "@" {
+		t.Fatalf("mirror = %+v", mirror)
+	}
+	if set == nil || !strings.Contains(set.Title, "to R") {
+		t.Errorf("set = %+v", set)
+	}
+	// The one-sided bond's quick fix adds a partner mark, doubled.
+	var fix *Action
+	for _, d := range res.Diagnostics {
+		if d.Code == stereo.CodeOneSidedBond {
+			for _, a := range res.Actions(d.Span) {
+				if a.Kind == KindQuickFix {
+					a := a
+					fix = &a
+				}
+			}
+		}
+	}
+	if fix == nil || len(fix.Edits) != 1 || !strings.Contains(fix.Edits[0].NewText, `\\`) {
+		t.Fatalf("one-sided fix = %+v", fix)
+	}
+	fixed := text[:fix.Edits[0].Span.Start] + fix.Edits[0].NewText + text[fix.Edits[0].Span.End:]
+	after := analyze(t, "x.py", fixed)
+	for _, d := range after.Diagnostics {
+		if d.Code == stereo.CodeOneSidedBond {
+			t.Errorf("after the fix %q still one-sided: %+v", fixed, d)
+		}
+	}
+}

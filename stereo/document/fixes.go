@@ -1,6 +1,107 @@
 package document
 
-import "stereoline/notation"
+import (
+	"stereoline/notation"
+	"stereoline/stereo"
+)
 
-// fixesFor returns the quick fixes of a stereo finding on record i.
-func (r *Result) fixesFor(i int, e *notation.Error) []Fix { return nil }
+// fixesFor returns the quick fixes of a stereo finding on record i: the
+// ineffective or inverting mark removed, or the partner mark of a
+// one-sided double bond added. Every fix is a minimal edit of the marks.
+func (r *Result) fixesFor(i int, e *notation.Error) []Fix {
+	rec := &r.Records[i]
+	m := rec.Mol
+	var edits []notation.Edit
+	var title string
+	switch e.Code {
+	case stereo.CodeIneffectiveCenter, stereo.CodeInvertingNitrogen:
+		for a := range m.Atoms {
+			at := &m.Atoms[a]
+			if at.Chirality.Class == notation.ChiralNone || !at.Chirality.Span.Overlaps(e.Span) && !at.Span.Overlaps(e.Span) {
+				continue
+			}
+			if ed, err := notation.SetChirality(m, a, ""); err == nil {
+				edits = append(edits, ed...)
+			}
+		}
+		title = "remove the ineffective mark"
+		if e.Code == stereo.CodeInvertingNitrogen {
+			title = "remove the mark: this nitrogen inverts"
+		}
+	case stereo.CodeIneffectiveBond:
+		for bi := range m.Bonds {
+			b := &m.Bonds[bi]
+			if b.Dir == notation.DirNone && b.CloseDir == notation.DirNone {
+				continue
+			}
+			if !b.Span.Overlaps(e.Span) && !(b.Ring && b.CloseSpan.Overlaps(e.Span)) {
+				continue
+			}
+			if ed, err := notation.SetBondDirection(m, bi, b.Begin, notation.DirNone); err == nil {
+				edits = append(edits, ed...)
+			}
+		}
+		title = "remove the ineffective direction marks"
+	case stereo.CodeOneSidedBond:
+		edits = partnerMark(rec, e.Span)
+		title = "add the partner mark (puts the marked neighbours trans: check it)"
+	}
+	if len(edits) == 0 {
+		return nil
+	}
+	return []Fix{{Title: title, Edits: r.hostEdits(i, edits)}}
+}
+
+// partnerMark returns the edits that complete the one double bond whose
+// mark sits at span, leaving other one-sided bonds of the record alone.
+func partnerMark(rec *Record, span notation.Span) []notation.Edit {
+	m := rec.Mol
+	t, err := stereo.CompleteOneSided(m)
+	if err != nil {
+		return nil
+	}
+	var unit *stereo.Unit
+	for k := range rec.Stereo.Units {
+		u := &rec.Stereo.Units[k]
+		if u.Kind != stereo.KindDoubleBond || u.Specified {
+			continue
+		}
+		for _, s := range u.Marks {
+			if s.Overlaps(span) {
+				unit = u
+			}
+		}
+	}
+	if unit == nil {
+		return nil
+	}
+	near := map[int]bool{}
+	for _, a := range unit.Atoms {
+		near[a] = true
+	}
+	var out []notation.Edit
+	for _, ed := range t.Edits {
+		for bi := range m.Bonds {
+			b := &m.Bonds[bi]
+			if !near[b.Begin] && !near[b.End] {
+				continue
+			}
+			if b.Span.Overlaps(ed.Span) || b.Ring && b.CloseSpan.Overlaps(ed.Span) || b.Span.Len() == 0 && b.Span.Start == ed.Span.Start {
+				out = append(out, ed)
+				break
+			}
+		}
+	}
+	return out
+}
+
+// hostEdits maps notation edits of record i to host edits, writing the
+// new text as the host must hold it.
+func (r *Result) hostEdits(i int, edits []notation.Edit) []Edit {
+	occ := r.Records[i].Occ
+	out := make([]Edit, 0, len(edits))
+	for _, e := range edits {
+		out = append(out, Edit{Span: occ.HostSpan(e.Span), NewText: occ.Encode(e.New)})
+	}
+	return out
+}

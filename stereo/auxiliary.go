@@ -18,6 +18,10 @@ func (d *digraph) auxFor(root, n nodeID) Descriptor {
 		if d.auxing[n] {
 			return DescNone
 		}
+		if d.auxing == nil {
+			d.auxing = map[nodeID]bool{}
+			d.aux = map[nodeID]Descriptor{}
+		}
 		d.auxing[n] = true
 		x = d.computeAux(n)
 		delete(d.auxing, n)
@@ -110,6 +114,9 @@ func (d *digraph) auxWithReference(n nodeID, ligs []nodeID, r ranking, t *tetraC
 		a := d.ligandAtom(c)
 		if a < 0 {
 			return DescNone
+		}
+		if d.auxRef == nil {
+			d.auxRef = map[nodeID]int{}
 		}
 		d.auxRef[n] = a
 		rr := d.rankLigands(n, ligs)

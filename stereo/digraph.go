@@ -86,8 +86,9 @@ const maxNodeCap = 1<<20 - 2
 
 func newDigraph(g *graph, cfg *configs, rootAtom int, limit int) *digraph {
 	limit = min(limit, maxNodeCap)
-	d := &digraph{g: g, limit: limit, cfg: cfg, refAtom: -1,
-		compared: map[[2]uint64][2]int32{}, sortedAux: map[uint64][]nodeID{}, sortedRoot: map[sortKey][]nodeID{}, auxRef: map[nodeID]int{}, aux: map[nodeID]Descriptor{}, auxing: map[nodeID]bool{}}
+	// the maps are made on first use: most digraphs decide at the first
+	// spheres and never need them
+	d := &digraph{g: g, limit: limit, cfg: cfg, refAtom: -1}
 	d.nodes = append(d.nodes, node{atom: rootAtom, kind: nodeAtom, parent: noNode, corr: noNode, bond: -1,
 		z: float64(g.z[rootAtom]), mass: g.mass[rootAtom]})
 	return d

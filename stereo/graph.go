@@ -129,29 +129,37 @@ func (g *graph) findRings() {
 	g.smallRing = make([]int, len(m.Bonds))
 	g.ringOf = make([][]int, len(m.Bonds))
 	g.ringAtom = make([]bool, g.n)
+	cyclic := g.cyclicBonds()
 	seen := map[string]bool{}
 	prev := make([]int, g.n)
 	dist := make([]int, g.n)
+	var touched []int
+	for i := range dist {
+		dist[i] = -1
+	}
 	for bi := range m.Bonds {
 		b := &m.Bonds[bi]
-		if b.Begin < 0 || b.Begin >= g.n || b.End < 0 || b.End >= g.n {
+		if b.Begin < 0 || b.Begin >= g.n || b.End < 0 || b.End >= g.n || !cyclic[bi] {
 			continue
 		}
-		for i := range dist {
+		for _, i := range touched {
 			dist[i] = -1
 		}
+		touched = touched[:0]
 		src, dst := b.Begin, b.End
 		dist[src] = 0
+		touched = append(touched, src)
 		queue := []int{src}
 		found := false
 		for len(queue) > 0 && !found {
 			u := queue[0]
 			queue = queue[1:]
 			for _, e := range g.adj[u] {
-				if e.bond == bi || dist[e.to] >= 0 {
+				if e.bond == bi || dist[e.to] >= 0 || !cyclic[e.bond] {
 					continue
 				}
 				dist[e.to] = dist[u] + 1
+				touched = append(touched, e.to)
 				prev[e.to] = u
 				if e.to == dst {
 					found = true
@@ -180,6 +188,61 @@ func (g *graph) findRings() {
 			g.rings = append(g.rings, ring)
 		}
 	}
+}
+
+// cyclicBonds marks the bonds that lie on some cycle: every bond that is
+// not a bridge of the graph (depth-first search with low links, written
+// with an explicit stack so that long chains cannot exhaust it).
+func (g *graph) cyclicBonds() []bool {
+	nb := len(g.mol.Bonds)
+	cyclic := make([]bool, nb)
+	for i := range cyclic {
+		cyclic[i] = true
+	}
+	order := make([]int, g.n)
+	low := make([]int, g.n)
+	for i := range order {
+		order[i] = -1
+	}
+	type frame struct{ v, viaBond, next int }
+	counter := 0
+	for s := 0; s < g.n; s++ {
+		if order[s] >= 0 {
+			continue
+		}
+		stack := []frame{{s, -1, 0}}
+		order[s], low[s] = counter, counter
+		counter++
+		for len(stack) > 0 {
+			f := &stack[len(stack)-1]
+			if f.next < len(g.adj[f.v]) {
+				e := g.adj[f.v][f.next]
+				f.next++
+				if e.bond == f.viaBond {
+					continue
+				}
+				if order[e.to] < 0 {
+					order[e.to], low[e.to] = counter, counter
+					counter++
+					stack = append(stack, frame{e.to, e.bond, 0})
+				} else if order[e.to] < low[f.v] {
+					low[f.v] = order[e.to]
+				}
+				continue
+			}
+			stack = stack[:len(stack)-1]
+			if len(stack) > 0 {
+				p := &stack[len(stack)-1]
+				if low[f.v] < low[p.v] {
+					low[p.v] = low[f.v]
+				}
+				if low[f.v] > order[p.v] && f.viaBond >= 0 {
+					cyclic[f.viaBond] = false
+				}
+			}
+		}
+	}
+	return cyclic
 }
 
 func ringKey(ring []int) string {

@@ -72,7 +72,11 @@ func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
 	} else {
 		c, s = d.compareSpheres(root, a, af, b, bf, r)
 	}
-	if !d.capped && !bypass {
+	// a difference found at once is cheaper to find again than to keep
+	if !d.capped && !bypass && (c == 0 || s > d.nodes[a].depth-d.nodes[root].depth+1) {
+		if d.compared == nil {
+			d.compared = map[[2]uint64][2]int32{}
+		}
 		d.compared[key] = [2]int32{int32(c), int32(s)}
 	}
 	return c, s
@@ -268,8 +272,14 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 		}
 		d.nodes[n].sorted[r] = s
 	case root != 0:
+		if d.sortedAux == nil {
+			d.sortedAux = map[uint64][]nodeID{}
+		}
 		d.sortedAux[packed] = s
 	default:
+		if d.sortedRoot == nil {
+			d.sortedRoot = map[sortKey][]nodeID{}
+		}
 		d.sortedRoot[key] = s
 	}
 	return s

@@ -85,15 +85,41 @@ func (l *labeller) labelAll() {
 			l.warn(c.spans[0], CodeIneffectiveBond, "marks on a double bond that is not stereogenic: one end carries two equal ligands")
 		}
 	}
-	for _, c := range l.oneSided {
+	// A one-sided bond that can be stereogenic claims its marks too, so a
+	// mark between C=O and C=C (an acrylate) is not called ineffective
+	// because of the C=O it also touches.
+	oneSided := make([]label, len(l.oneSided))
+	claimed := map[int]bool{}
+	for mb := range effective {
+		claimed[mb] = true
+	}
+	for k, c := range l.oneSided {
+		probe := *c
+		oneSided[k] = l.doubleBond(&probe)
+		if !oneSided[k].tie && !(l.ringSize(c) > 0 && l.ringSize(c) < 8) {
+			for _, mb := range c.marks {
+				claimed[mb] = true
+			}
+		}
+	}
+	allClaimed := func(c *bondConfig) bool {
+		for _, mb := range c.marks {
+			if !claimed[mb] {
+				return false
+			}
+		}
+		return true
+	}
+	for k, c := range l.oneSided {
 		l.unitBonds[c.bond] = true
-		if shared(c) {
+		lb := oneSided[k]
+		if lb.tie || (l.ringSize(c) > 0 && l.ringSize(c) < 8) {
+			if !allClaimed(c) {
+				l.warn(c.spans[0], CodeIneffectiveBond, "marks on a double bond that is not stereogenic")
+			}
 			continue
 		}
-		probe := *c
-		lb := l.doubleBond(&probe)
-		if lb.tie || (l.ringSize(c) > 0 && l.ringSize(c) < 8) {
-			l.warn(c.spans[0], CodeIneffectiveBond, "marks on a double bond that is not stereogenic")
+		if shared(c) {
 			continue
 		}
 		l.warn(c.spans[0], CodeOneSidedBond, "only one end of this double bond is marked, so its configuration is open")

@@ -4,7 +4,9 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"path"
 	"sync"
+	"sync/atomic"
 	"time"
 
 	"go.lsp.dev/protocol"
@@ -38,7 +40,7 @@ var errAnalysis = errors.New("internal error while analysing the document")
 // get returns the result, starting the analysis if nobody has, and
 // waiting for it unless ctx ends first.
 func (a *analysis) get(ctx context.Context, log *zap.Logger) (*document.Result, error) {
-	a.once.Do(func() { go a.run(log) })
+	a.start(log)
 	select {
 	case <-a.done:
 		return a.result, a.err
@@ -46,6 +48,9 @@ func (a *analysis) get(ctx context.Context, log *zap.Logger) (*document.Result, 
 		return nil, ctx.Err()
 	}
 }
+
+// start starts the analysis unless it has started.
+func (a *analysis) start(log *zap.Logger) { a.once.Do(func() { go a.run(log) }) }
 
 func (a *analysis) run(log *zap.Logger) {
 	defer close(a.done)
@@ -201,6 +206,7 @@ func (w *worker) publish(ctx context.Context, uri string) {
 		}
 		return
 	}
+	w.showProgress(ctx, a)
 	res, err := a.get(ctx, s.log)
 	if err != nil || !s.pushesDiagnostics() {
 		return // the analysis is warm for the pull that will come
@@ -221,3 +227,48 @@ func (w *worker) publish(ctx context.Context, uri string) {
 	w.mu.Unlock()
 	s.notify("textDocument/publishDiagnostics", publishDiagnosticsParams{URI: uri, Version: &version, Diagnostics: diags})
 }
+
+// showProgress reports an analysis that takes longer than the progress
+// delay as work done progress the server starts (LSP 3.17,
+// "window/workDoneProgress/create"), so a large list does not look like
+// a server that hangs. It returns when the analysis is done.
+func (w *worker) showProgress(ctx context.Context, a *analysis) {
+	s := w.s
+	s.mu.Lock()
+	supported := s.caps.Window.WorkDoneProgress
+	s.mu.Unlock()
+	if !supported {
+		return
+	}
+	a.start(s.log)
+	delay := time.NewTimer(s.opts.ProgressDelay)
+	defer delay.Stop()
+	select {
+	case <-a.done:
+		return
+	case <-ctx.Done():
+		return
+	case <-delay.C:
+	}
+	token := protocol.NewProgressToken(fmt.Sprintf("stereoline/analysis/%d", progressIDs.Add(1)))
+	if err := s.callClient(ctx, "window/workDoneProgress/create", map[string]any{"token": token}, nil); err != nil {
+		s.log.Info("no progress token", zap.Error(err))
+		return
+	}
+	name := a.file.Name
+	if name == "" {
+		name = a.file.URI
+	}
+	s.notify("$/progress", progressParams{Token: token, Value: &protocol.WorkDoneProgressBegin{
+		Kind:    protocol.WorkDoneProgressKindBegin,
+		Title:   "Reading stereo marks",
+		Message: path.Base(name),
+	}})
+	select {
+	case <-a.done:
+	case <-ctx.Done():
+	}
+	s.notify("$/progress", progressParams{Token: token, Value: &protocol.WorkDoneProgressEnd{Kind: protocol.WorkDoneProgressKindEnd}})
+}
+
+var progressIDs atomic.Uint64

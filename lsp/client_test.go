@@ -48,7 +48,7 @@ type fakeClient struct {
 	messages []string
 	asked    int             // workspace/configuration requests received
 	settings json.RawMessage // the answer to workspace/configuration
-	refresh  []string
+	refresh  []string        // requests without an answer of substance: refreshes, registrations, progress tokens
 	exited   bool
 }
 
@@ -84,6 +84,7 @@ type clientSetup struct {
 	settings json.RawMessage // workspace settings section served on request
 	rootURI  string
 	debounce time.Duration
+	progress time.Duration // Options.ProgressDelay
 	hook     func(*Server)
 	noInit   bool          // do not send initialize
 	limit    time.Duration // how long to wait for the server; 0 means waitLimit
@@ -106,7 +107,7 @@ func start(t testing.TB, setup clientSetup) *fakeClient {
 	}
 	ctx, cancel := context.WithCancel(context.Background())
 	go func() {
-		c.status <- serve(ctx, serverEnd, log, Options{Debounce: debounce, Version: "test"}, setup.hook)
+		c.status <- serve(ctx, serverEnd, log, Options{Debounce: debounce, Version: "test", ProgressDelay: setup.progress}, setup.hook)
 		serverEnd.Close()
 	}()
 	c.raw = clientEnd
@@ -186,7 +187,7 @@ func (c *fakeClient) handle(ctx context.Context, reply jsonrpc2.Replier, req jso
 			settings = json.RawMessage("null")
 		}
 		return reply(ctx, []json.RawMessage{settings}, nil)
-	case methodInlayHintRefresh, methodDiagnosticRefresh, "client/registerCapability":
+	case methodInlayHintRefresh, methodDiagnosticRefresh, "client/registerCapability", "window/workDoneProgress/create":
 		c.refresh = append(c.refresh, req.Method())
 		return reply(ctx, nil, nil)
 	default:

@@ -66,6 +66,9 @@ type clientCapabilities struct {
 			DynamicRegistration bool `json:"dynamicRegistration"`
 		} `json:"didChangeWatchedFiles"`
 	} `json:"workspace"`
+	Window struct {
+		WorkDoneProgress bool `json:"workDoneProgress"`
+	} `json:"window"`
 	TextDocument struct {
 		CodeAction struct {
 			CodeActionLiteralSupport *json.RawMessage `json:"codeActionLiteralSupport"`

@@ -44,7 +44,14 @@ type Options struct {
 	Debounce time.Duration
 	// Version is reported to the client in serverInfo.
 	Version string
+	// ProgressDelay is how long an analysis runs before the client is
+	// shown its progress; zero means DefaultProgressDelay.
+	ProgressDelay time.Duration
 }
+
+// DefaultProgressDelay keeps progress reports away from the quick
+// analyses of ordinary files.
+const DefaultProgressDelay = 500 * time.Millisecond
 
 // state is where the server is in the LSP lifecycle.
 type state int
@@ -105,6 +112,9 @@ func serve(ctx context.Context, stream io.ReadWriteCloser, log *zap.Logger, opts
 	}
 	if opts.Debounce <= 0 {
 		opts.Debounce = DefaultDebounce
+	}
+	if opts.ProgressDelay <= 0 {
+		opts.ProgressDelay = DefaultProgressDelay
 	}
 	s := newServer(ctx, log, opts)
 	if hook != nil {

@@ -139,3 +139,27 @@ func TestLargeDocumentDoesNotBlock(t *testing.T) {
 	}
 	c.diagnostics(big, 1)
 }
+
+// An analysis that takes longer than the progress delay shows as work
+// done progress the server creates (LSP 3.17, "Server Initiated
+// Progress"): a created token, then begin and end on it.
+func TestAnalysisProgress(t *testing.T) {
+	c := start(t, clientSetup{
+		caps:     map[string]any{"window": map[string]any{"workDoneProgress": true}},
+		progress: time.Millisecond,
+	})
+	const u = "file:///work/medium.smi"
+	c.open(u, "", 1, bigList(3000))
+	c.diagnostics(u, 1)
+	c.until("progress begin and end", func() bool {
+		return len(c.progress) >= 2 && c.progress[len(c.progress)-1].Kind == "end"
+	})
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	if len(c.refresh) == 0 || c.refresh[0] != "window/workDoneProgress/create" {
+		t.Errorf("no token was created first: %v", c.refresh)
+	}
+	if p := c.progress; p[0].Kind != "begin" || string(p[0].Token) != string(p[len(p)-1].Token) {
+		t.Errorf("progress %+v, want begin and end on one token", p)
+	}
+}

@@ -211,3 +211,50 @@ func TestQuickFixesResolveTheirFinding(t *testing.T) {
 		t.Log("the engine offers no quick fix for stereo findings yet")
 	}
 }
+
+// Each rewrite kind at a cursor, applied by the client. Facts, common
+// practice and the OpenSMILES specification ("Tetrahedral centers",
+// "Cis/trans configuration"): swapping @@ and @ inverts a centre, so
+// L-alanine N[C@@H](C)C(=O)O becomes D-alanine N[C@H](C)C(=O)O; F/C=C/F
+// is trans (E) and F\C=C/F cis (Z).
+func TestCodeActionRewrites(t *testing.T) {
+	text := "N[C@@H](C)C(=O)O L-alanine é😀\nF/C=C/F trans\n"
+	tests := []struct {
+		cursor string // the cursor is on the first byte of this text
+		kind   string
+		want   string // the text after the first action of the kind
+	}{
+		{"@@", "refactor.rewrite.stereo.invert", "N[C@H](C)C(=O)O L-alanine é😀\nF/C=C/F trans\n"},
+		{"@@", "refactor.rewrite.stereo.set", "N[C@H](C)C(=O)O L-alanine é😀\nF/C=C/F trans\n"},
+		{"=C/F", "refactor.rewrite.stereo.flip", "N[C@@H](C)C(=O)O L-alanine é😀\nF\\C=C/F trans\n"},
+		{"=C/F", "refactor.rewrite.stereo.set", "N[C@@H](C)C(=O)O L-alanine é😀\nF\\C=C/F trans\n"},
+	}
+	c := start(t, clientSetup{})
+	const u = "file:///work/rewrites.smi"
+	c.open(u, "", 1, text)
+	c.diagnostics(u, 1)
+	for _, tt := range tests {
+		at := position(t, text, tt.cursor, 0, EncodingUTF16)
+		var acts []action
+		c.mustCall("textDocument/codeAction", map[string]any{"textDocument": textDoc(u), "range": map[string]any{"start": at, "end": at},
+			"context": map[string]any{"diagnostics": []any{}, "only": []string{tt.kind}}}, &acts)
+		if len(acts) == 0 {
+			t.Errorf("%s at %q: no action", tt.kind, tt.cursor)
+			continue
+		}
+		if got := applyEdits(t, text, acts[0].Edit.Changes[protocol.DocumentURI(u)], EncodingUTF16); got != tt.want {
+			t.Errorf("%s at %q (%s): got %q, want %q", tt.kind, tt.cursor, acts[0].Title, got, tt.want)
+		}
+	}
+	// Over a selection of both records the mirror rewrites every record
+	// inside; F/C=C/F has no centre, so only alanine changes.
+	var acts []action
+	c.mustCall("textDocument/codeAction", map[string]any{"textDocument": textDoc(u), "range": wholeRange(text),
+		"context": map[string]any{"diagnostics": []any{}, "only": []string{"refactor.rewrite.stereo.mirror"}}}, &acts)
+	if len(acts) != 1 {
+		t.Fatalf("mirror over the selection: %+v", acts)
+	}
+	if got := applyEdits(t, text, acts[0].Edit.Changes[protocol.DocumentURI(u)], EncodingUTF16); got != "N[C@H](C)C(=O)O L-alanine é😀\nF/C=C/F trans\n" {
+		t.Errorf("mirror over the selection: %q", got)
+	}
+}

@@ -52,6 +52,8 @@ type digraph struct {
 	sortedAux  map[uint64][]nodeID // children in rule order, auxiliary views
 	sortedRoot map[sortKey][]nodeID
 	free       []*[4][]step // walk queues for reuse
+	arena      []nodeID     // storage for children lists
+	kidBuf     []nodeID
 	// auxRef holds the Rule 6 reference of an auxiliary ranking under
 	// way, by its root; such rankings bypass the memo at Rule 6
 	auxRef map[nodeID]int
@@ -134,7 +136,7 @@ func (d *digraph) expand(n nodeID) {
 	}
 	g := d.g
 	a := x.atom
-	var kids []nodeID
+	kids := d.kidBuf[:0]
 	push := func(k nodeID) {
 		if k != noNode {
 			kids = append(kids, k)
@@ -188,7 +190,15 @@ func (d *digraph) expand(n nodeID) {
 		push(d.add(node{atom: -1, kind: nodeHydrogen, parent: n, depth: x.depth + 1, corr: noNode,
 			z: 1, mass: atomMass(1, 0), bond: -1, expanded: true}))
 	}
-	d.nodes[n].kids = kids
+	// children live in one arena per digraph: a few large allocations
+	// instead of one per node
+	if len(d.arena)+len(kids) > cap(d.arena) {
+		d.arena = make([]nodeID, 0, max(1024, 2*len(kids)))
+	}
+	start := len(d.arena)
+	d.arena = append(d.arena, kids...)
+	d.nodes[n].kids = d.arena[start:len(d.arena):len(d.arena)]
+	d.kidBuf = kids[:0]
 }
 
 // lonePair adds a lone-pair node under n (used for the ligands of

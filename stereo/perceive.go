@@ -274,27 +274,31 @@ func symmetryClasses(g *graph) []int {
 		class[a] = ids[k]
 	}
 	count := len(ids)
+	next := make([]int, n)
+	var key []byte
+	var nb []int
 	for iter := 0; iter < n; iter++ {
-		next := make([]int, n)
-		keys := map[string]int{}
+		keys := make(map[string]int, count)
 		for a := 0; a < n; a++ {
-			nb := make([]int, 0, len(g.adj[a]))
+			nb = nb[:0]
 			for _, e := range g.adj[a] {
 				nb = append(nb, class[e.to]*8+e.order)
 			}
 			sortInts(nb)
-			key := make([]byte, 0, 4*len(nb)+4)
-			key = appendInt(key, class[a])
+			key = appendInt(key[:0], class[a])
 			for _, v := range nb {
 				key = appendInt(key, v)
 			}
-			s := string(key)
-			if _, ok := keys[s]; !ok {
-				keys[s] = len(keys)
+			// the lookup with string(key) does not allocate; only new
+			// classes copy their key
+			id, ok := keys[string(key)]
+			if !ok {
+				id = len(keys)
+				keys[string(key)] = id
 			}
-			next[a] = keys[s]
+			next[a] = id
 		}
-		class = next
+		class, next = next, class
 		if len(keys) == count {
 			break
 		}

@@ -141,3 +141,33 @@ func TestBadInitializationOptions(t *testing.T) {
 		t.Errorf("severity under the defaults = %v, want warning", s)
 	}
 }
+
+// The finder's settings reach it through the server: a configured CSV
+// column is read although its header names no structure, and detection
+// "names" stops the guessing that finds unnamed inline code in Markdown.
+func TestFinderSettings(t *testing.T) {
+	csv := "id,compound\r\n1,C[C@H](C)C\r\n"
+	md := "Marked `C[C@H](C)C` by mistake.\n"
+	tests := []struct {
+		name     string
+		settings map[string]any
+		csv, md  int // diagnostics expected
+	}{
+		{"defaults", map[string]any{}, 0, 1},
+		{"a configured column", map[string]any{"columns": []string{"compound"}}, 1, 1},
+		{"names only", map[string]any{"detection": "names"}, 0, 0},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			c := start(t, clientSetup{initOpts: tt.settings})
+			c.open("file:///work/assay.csv", "csv", 1, csv)
+			c.open("file:///work/notes.md", "markdown", 1, md)
+			if got := codes(t, c, "file:///work/assay.csv", 1, csv); len(got) != tt.csv {
+				t.Errorf("csv: %v, want %d findings", got, tt.csv)
+			}
+			if got := codes(t, c, "file:///work/notes.md", 1, md); len(got) != tt.md {
+				t.Errorf("markdown: %v, want %d findings", got, tt.md)
+			}
+		})
+	}
+}

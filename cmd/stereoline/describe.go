@@ -80,16 +80,16 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 // fields are added at the end; consumers must ignore fields they do not
 // know.
 type recordJSON struct {
-	Input       string           `json:"input"`
-	Name        string           `json:"name"`
-	Reaction    bool             `json:"reaction,omitempty"`
-	Atoms       []atomJSON       `json:"atoms"`
-	Bonds       []bondJSON       `json:"bonds"`
-	Formula     string           `json:"formula"`
-	Mass        float64          `json:"averageMass"`
-	Mono        float64          `json:"monoisotopicMass"`
-	Diagnostics []diagnosticJSON `json:"diagnostics"`
-	Stereo      []unitJSON       `json:"stereo"`
+	Input       string               `json:"input"`
+	Name        string               `json:"name"`
+	Atoms       []atomJSON           `json:"atoms"`
+	Bonds       []bondJSON           `json:"bonds"`
+	Formula     string               `json:"formula"`
+	Mass        float64              `json:"averageMass"`
+	Mono        float64              `json:"monoisotopicMass"`
+	Diagnostics []diagnosticJSON     `json:"diagnostics"`
+	Stereo      []unitJSON           `json:"stereo"`
+	Reaction    *stereo.ReactionJSON `json:"reaction,omitempty"`
 }
 
 // unitJSON is one perceived stereogenic unit. Atom numbers are 1-based.
@@ -148,7 +148,7 @@ func spanJSON(s notation.Span) [2]int { return [2]int{s.Start, s.End} }
 
 func describeRecord(rec notation.Record) recordJSON {
 	m := notation.Read(rec.Notation)
-	d := recordJSON{Input: rec.Notation, Name: rec.Title, Reaction: m.Reaction,
+	d := recordJSON{Input: rec.Notation, Name: rec.Title,
 		Atoms: []atomJSON{}, Bonds: []bondJSON{}, Diagnostics: []diagnosticJSON{}}
 	for i := range m.Atoms {
 		a := &m.Atoms[i]
@@ -188,6 +188,12 @@ func describeRecord(rec notation.Record) recordJSON {
 	d.Mono = round(f.MonoisotopicMass, 6)
 	an := stereo.Analyze(m)
 	diags := append(append(notation.ErrorList{}, m.Errors...), an.Diagnostics...)
+	if m.Reaction {
+		rr := stereo.AnalyzeReactionWith(m, an)
+		j := rr.JSON()
+		d.Reaction = &j
+		diags = append(diags, rr.Diagnostics...)
+	}
 	diags.Sort()
 	for _, e := range diags {
 		d.Diagnostics = append(d.Diagnostics, diagnosticJSON{Code: string(e.Code), Severity: e.Severity.String(), Message: e.Msg, Span: spanJSON(e.Span)})

@@ -1,0 +1,56 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"strings"
+	"testing"
+)
+
+// TestDescribeJSON checks the describe --json fields on facts of the
+// trade: L-alanine is (S) with formula C3H7NO2 (common practice); an SN2
+// displacement at a stereocentre inverts it (common practice: Walden
+// inversion), here (R)-2-bromobutane to (S)-butan-2-ol with the hydroxide
+// written where the bromide was.
+func TestDescribeJSON(t *testing.T) {
+	in := "N[C@@H](C)C(=O)O L-alanine\n" +
+		"[CH3:1][C@@H:2]([Br:3])[CH2:4][CH3:5].[OH-:6]>>[CH3:1][C@H:2]([OH:6])[CH2:4][CH3:5].[Br-:3] SN2\n" +
+		"C1CC broken\n"
+	var out, errb bytes.Buffer
+	if status := run([]string{"describe", "--json"}, strings.NewReader(in), &out, &errb); status != 0 {
+		t.Fatalf("status %d: %s", status, errb.String())
+	}
+	lines := strings.Split(strings.TrimSpace(out.String()), "\n")
+	if len(lines) != 3 {
+		t.Fatalf("%d records, want 3:\n%s", len(lines), out.String())
+	}
+	var recs []map[string]any
+	for _, l := range lines {
+		var r map[string]any
+		if err := json.Unmarshal([]byte(l), &r); err != nil {
+			t.Fatalf("%v: %s", err, l)
+		}
+		recs = append(recs, r)
+	}
+	ala := recs[0]
+	if ala["name"] != "L-alanine" || ala["formula"] != "C3H7NO2" {
+		t.Errorf("alanine: name %v formula %v", ala["name"], ala["formula"])
+	}
+	atoms := ala["atoms"].([]any)
+	c2 := atoms[1].(map[string]any)
+	if c2["symbol"] != "C" || c2["hydrogens"] != 1.0 || c2["span"].([]any)[0] != 1.0 || c2["span"].([]any)[1] != 7.0 {
+		t.Errorf("atom 2 = %v", c2)
+	}
+	units := ala["stereo"].([]any)
+	if len(units) != 1 || units[0].(map[string]any)["cip"] != "S" || units[0].(map[string]any)["kind"] != "tetrahedral" {
+		t.Errorf("alanine stereo = %v", units)
+	}
+	rx := recs[1]["reaction"].(map[string]any)["centers"].([]any)
+	if len(rx) != 1 || rx[0].(map[string]any)["change"] != "inversion" || rx[0].(map[string]any)["map"] != 2.0 {
+		t.Errorf("reaction centres = %v", rx)
+	}
+	diags := recs[2]["diagnostics"].([]any)
+	if len(diags) == 0 || diags[0].(map[string]any)["code"] != "unclosed-ring" {
+		t.Errorf("broken record diagnostics = %v", diags)
+	}
+}

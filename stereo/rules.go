@@ -167,6 +167,15 @@ func (d *digraph) compareSpheres(root, a, af, b, bf nodeID, r Rule) (int, int) {
 				return -1, sphere
 			}
 		}
+		if r == Rule1a {
+			// Under Rule 1a siblings sort by their own atomic number
+			// first, so the next sphere can be compared from unsorted
+			// children; the deep sort that fixes the order for the
+			// sphere after is needed only when this one ties.
+			if c := d.peekAtomicNumbers(qa, qb); c != 0 {
+				return c, sphere + 1
+			}
+		}
 		na, nb = na[:0], nb[:0]
 		for i := range qa {
 			ka := d.sortedNeighbours(root, qa[i].n, qa[i].from, r)
@@ -184,6 +193,49 @@ func (d *digraph) compareSpheres(root, a, af, b, bf nodeID, r Rule) (int, int) {
 		qb, nb = nb, qb
 	}
 	return 0, 0
+}
+
+// peekAtomicNumbers compares the children of aligned node pairs by
+// their atomic numbers, highest first, group by group.
+func (d *digraph) peekAtomicNumbers(qa, qb []step) int {
+	var za, zb [8]float64
+	for i := range qa {
+		xa := d.childAtomicNumbers(qa[i], za[:0])
+		xb := d.childAtomicNumbers(qb[i], zb[:0])
+		for j := 0; j < len(xa) || j < len(xb); j++ {
+			var va, vb float64
+			if j < len(xa) {
+				va = xa[j]
+			}
+			if j < len(xb) {
+				vb = xb[j]
+			}
+			if va != vb {
+				if va > vb {
+					return 1
+				}
+				return -1
+			}
+		}
+	}
+	return 0
+}
+
+// childAtomicNumbers lists the atomic numbers of the branches leaving a
+// step, in descending order.
+func (d *digraph) childAtomicNumbers(s step, buf []float64) []float64 {
+	if s.n == noNode {
+		return buf
+	}
+	for _, k := range d.neighbours(s.n, s.from) {
+		buf = append(buf, d.nodes[k].z)
+	}
+	for i := 1; i < len(buf); i++ {
+		for j := i; j > 0 && buf[j] > buf[j-1]; j-- {
+			buf[j], buf[j-1] = buf[j-1], buf[j]
+		}
+	}
+	return buf
 }
 
 // takeBuffers hands out four reusable walk queues; comparisons nest

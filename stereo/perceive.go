@@ -105,17 +105,21 @@ func (l *labeller) configuredPair(a int, class []int) bool {
 		count[class[e.to]]++
 	}
 	var pair []int
+	ringPair := 0
 	for _, e := range g.adj[a] {
 		switch count[class[e.to]] {
 		case 2:
 			pair = append(pair, e.to)
+			if g.ringBond[e.bond] {
+				ringPair++
+			}
 		case 1:
 		default:
 			return false
 		}
 	}
-	if len(pair) != 2 {
-		return false
+	if len(pair) != 2 || ringPair == 2 {
+		return false // ring pairs are the together test's
 	}
 	for _, start := range pair {
 		if !l.configuredNear(start, a, 6) {

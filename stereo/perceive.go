@@ -279,26 +279,33 @@ func symmetryClasses(g *graph) []int {
 	}
 	count := len(ids)
 	next := make([]int, n)
-	var key []byte
 	var nb []int
+	keys := make(map[uint64]int, n)
 	for iter := 0; iter < n; iter++ {
-		keys := make(map[string]int, count)
+		clear(keys)
 		for a := 0; a < n; a++ {
 			nb = nb[:0]
 			for _, e := range g.adj[a] {
 				nb = append(nb, class[e.to]*8+e.order)
 			}
 			sortInts(nb)
-			key = appendInt(key[:0], class[a])
-			for _, v := range nb {
-				key = appendInt(key, v)
+			// a 64-bit FNV-1a hash of (class, sorted neighbour classes)
+			// names the new class; a collision would need 2^32 classes
+			h := uint64(14695981039346656037)
+			mix := func(v int) {
+				for k := 0; k < 4; k++ {
+					h ^= uint64(byte(v >> (8 * k)))
+					h *= 1099511628211
+				}
 			}
-			// the lookup with string(key) does not allocate; only new
-			// classes copy their key
-			id, ok := keys[string(key)]
+			mix(class[a])
+			for _, v := range nb {
+				mix(v)
+			}
+			id, ok := keys[h]
 			if !ok {
 				id = len(keys)
-				keys[string(key)] = id
+				keys[h] = id
 			}
 			next[a] = id
 		}
@@ -311,9 +318,6 @@ func symmetryClasses(g *graph) []int {
 	return class
 }
 
-func appendInt(b []byte, v int) []byte {
-	return append(b, byte(v), byte(v>>8), byte(v>>16), byte(v>>24))
-}
 
 func sortInts(xs []int) {
 	for i := 1; i < len(xs); i++ {

@@ -158,3 +158,27 @@ func TestPerceivedByConfiguration(t *testing.T) {
 		}
 	}
 }
+
+// TestHigherClasses checks that square-planar, trigonal-bipyramidal and
+// octahedral marks are kept with their permutation number (OpenSMILES
+// 1.0, 3.9.4-3.9.6 examples: cisplatin, a TB arsenic, an OH cobalt).
+func TestHigherClasses(t *testing.T) {
+	cases := []struct {
+		smiles string
+		kind   Kind
+		perm   int
+	}{
+		{"Cl[Pt@SP1](Cl)([NH3])[NH3]", KindSquarePlanar, 1},
+		{"S[As@TB1](F)(Cl)(Br)N", KindTrigonalBipyramidal, 1},
+		{"C[Co@OH8](F)(Cl)(Br)(I)S", KindOctahedral, 8},
+	}
+	for _, c := range cases {
+		a := Analyze(notation.Read(c.smiles))
+		if len(a.Units) != 1 || a.Units[0].Kind != c.kind || a.Units[0].Permutation != c.perm || !a.Units[0].Specified {
+			t.Errorf("%s: units %+v, want one %v unit with permutation %d", c.smiles, a.Units, c.kind, c.perm)
+		}
+		if a.Units[0].Descriptor.Labelled() {
+			t.Errorf("%s: got a CIP label %v for a %v unit", c.smiles, a.Units[0].Descriptor, c.kind)
+		}
+	}
+}

@@ -8,7 +8,6 @@ import (
 
 // labelAll labels every unit that carries a configuration.
 func (l *labeller) labelAll() {
-	g, m := l.g, l.g.mol
 	for _, a := range sortedKeys(l.cfg.tetra) {
 		t := l.cfg.tetra[a]
 		l.unitAtoms[a] = true
@@ -146,12 +145,8 @@ func (l *labeller) labelAll() {
 	for _, a := range sortedKeys(l.cfg.higher) {
 		c := l.cfg.higher[a]
 		l.unitAtoms[a] = true
-		var ranked []RankedLigand
-		for i, x := range c.ligands {
-			ranked = append(ranked, RankedLigand{Rank: i + 1, Atom: x})
-		}
-		_ = g
-		_ = m
+		// no CIP ranking: the engine keeps the mark and its permutation
+		// number, which the notation's neighbour order interprets
 		l.res.Units = append(l.res.Units, Unit{Kind: c.kind, Atoms: []int{a}, Centre: a, Bond: -1, Specified: true,
 			Permutation: c.number, Marks: []notation.Span{c.span}})
 	}

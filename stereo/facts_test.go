@@ -83,6 +83,9 @@ func TestDiagnostics(t *testing.T) {
 		{"C/CC", CodeIneffectiveBond, notation.SeverityWarning, "/"},
 		// both substituents of one end on the same side (the issue's example)
 		{`F/C(\Cl)=C/Br`, CodeConflictingMarks, notation.SeverityError, ""},
+		// a ring-closure bond marked '/' at both digits: read from its
+		// two ends these say opposite things (OpenSMILES 1.0, 3.8.4)
+		{"F/C=C/1CCCCCCC/1", CodeConflictingMarks, notation.SeverityError, "/1"},
 		// trans-cyclohexene: common practice, trans-cyclooctene is the smallest isolable
 		{`C1CCC/C=C/1`, CodeStrainedRing, notation.SeverityError, ""},
 		// a plain tertiary amine inverts (common practice)

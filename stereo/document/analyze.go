@@ -2,7 +2,10 @@ package document
 
 import (
 	"path"
+	"runtime"
 	"sort"
+	"sync"
+	"sync/atomic"
 
 	"stereoline/notation"
 	"stereoline/notation/find"
@@ -100,6 +103,10 @@ var unnecessary = map[notation.Code]bool{
 // kindOf picks the host kind from the language id, the configured file
 // patterns and the file name, in that order.
 func (a *Analyzer) kindOf(name, languageID string) find.Kind {
+	if find.KindForName(name) == find.KindNotebook {
+		// Editors often call a notebook file "json"; its cells matter.
+		return find.KindNotebook
+	}
 	if languageID != "" {
 		if k := find.KindFor(languageID); k != find.KindUnknown {
 			// An editor may call a .smi file "plaintext"; the name then
@@ -118,6 +125,10 @@ func (a *Analyzer) kindOf(name, languageID string) find.Kind {
 	return find.KindForName(name)
 }
 
+// Handles reports whether a file of this name is one the analyzer reads
+// (by its extension or a configured pattern), for scans of a folder.
+func (a *Analyzer) Handles(name string) bool { return a.kindOf(name, "") != find.KindUnknown }
+
 // Analyze finds, reads and labels every record of a document. name is a
 // file name or the path of a URI (it picks the host kind); languageID, if
 // not empty, overrides the name.
@@ -127,10 +138,11 @@ func (a *Analyzer) Analyze(name, languageID string, content []byte) *Result {
 	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
 	occs := find.FindKind(kind, content, cfg.findConfig())
 	res.Records = make([]Record, len(occs))
-	for i := range occs {
+	fill := func(i int) {
 		an := a.cache.get(occs[i].Text)
 		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo, Identity: an.identity, Reaction: an.reaction}
 	}
+	parallel(len(occs), fill)
 	for i := range res.Records {
 		res.recordDiagnostics(i)
 	}
@@ -143,6 +155,41 @@ func (a *Analyzer) Analyze(name, languageID string, content []byte) *Result {
 		return x.End < y.End
 	})
 	return res
+}
+
+// parallelMin is the number of records from which analysis is spread
+// over the cores; below it the goroutines cost more than they save.
+const parallelMin = 256
+
+// parallel calls f(0) ... f(n-1), on all cores when n is large. The
+// records are handed out in chunks so the cache lock is not contended.
+func parallel(n int, f func(int)) {
+	workers := runtime.GOMAXPROCS(0)
+	if n < parallelMin || workers < 2 {
+		for i := 0; i < n; i++ {
+			f(i)
+		}
+		return
+	}
+	const chunk = 64
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				start := int(next.Add(chunk)) - chunk
+				if start >= n {
+					return
+				}
+				for i := start; i < min(start+chunk, n); i++ {
+					f(i)
+				}
+			}
+		}()
+	}
+	wg.Wait()
 }
 
 // add appends a diagnostic after applying the configured severity.
@@ -219,9 +266,13 @@ type Symbol struct {
 	Span notation.Span
 }
 
-// Symbols returns an outline entry per record: its title, or the start
-// of its notation.
+// Symbols returns an outline entry per record of a list or table: its
+// title, or the start of its notation. Source code has an outline of its
+// own, so it gets none.
 func (r *Result) Symbols() []Symbol {
+	if r.Kind != find.KindList && r.Kind != find.KindCSV && r.Kind != find.KindTSV {
+		return nil
+	}
 	out := make([]Symbol, 0, len(r.Records))
 	for _, rec := range r.Records {
 		name := rec.Occ.Title

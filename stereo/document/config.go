@@ -9,6 +9,8 @@ package document
 import (
 	"encoding/json"
 	"fmt"
+	"maps"
+	"slices"
 
 	"stereoline/notation"
 	"stereoline/notation/find"
@@ -66,7 +68,7 @@ func (c *Config) Merge(raw json.RawMessage) error {
 	if len(raw) == 0 || string(raw) == "null" {
 		return nil
 	}
-	next := *c
+	next := c.clone()
 	if err := json.Unmarshal(raw, &next); err != nil {
 		return err
 	}
@@ -95,4 +97,15 @@ func (c *Config) severityFor(code notation.Code, s notation.Severity) (notation.
 
 func (c *Config) findConfig() find.Config {
 	return find.Config{Columns: c.Columns, Names: c.Names, NoGuess: c.Detection == "names"}
+}
+
+// clone returns a copy of c that shares no map or slice with it, so that
+// merging settings into the copy leaves c as it was.
+func (c *Config) clone() Config {
+	n := *c
+	n.Severity = maps.Clone(c.Severity)
+	n.Files = maps.Clone(c.Files)
+	n.Columns = slices.Clone(c.Columns)
+	n.Names = slices.Clone(c.Names)
+	return n
 }

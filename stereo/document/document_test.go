@@ -178,3 +178,38 @@ func TestActions(t *testing.T) {
 		}
 	}
 }
+
+// TestParallelAnalysis checks that a list large enough to be analysed on
+// all cores gives the same findings as one analysed record by record
+// (run it with -race).
+func TestParallelAnalysis(t *testing.T) {
+	records := []string{"N[C@@H](C)C(=O)O", "C[C@H](C)O", "F/C=CF", "C1CC", "O[C@H](C(=O)O)[C@@H](O)C(=O)O", "c1ccccc1", "N[C@H](C)C(=O)O"}
+	var b strings.Builder
+	for i := 0; i < 3*parallelMin; i++ {
+		b.WriteString(records[i%len(records)] + " r" + strings.Repeat("x", i%5) + "\n")
+	}
+	text := b.String()
+	big := analyze(t, "many.smi", text)
+	var want int
+	lines := strings.SplitAfter(text, "\n")
+	for _, l := range lines[:len(records)] {
+		one := analyze(t, "one.smi", l)
+		for _, d := range one.Diagnostics {
+			if !strings.HasPrefix(string(d.Code), "list-") {
+				want++
+			}
+		}
+	}
+	got := 0
+	for _, d := range big.Diagnostics {
+		if big.RecordAt(d.Span.Start) < len(records) && !strings.HasPrefix(string(d.Code), "list-") {
+			got++
+		}
+	}
+	if got != want {
+		t.Errorf("first %d records: %d findings in the big list, %d one by one", len(records), got, want)
+	}
+	if len(big.Records) != 3*parallelMin {
+		t.Errorf("records = %d", len(big.Records))
+	}
+}

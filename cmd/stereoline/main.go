@@ -17,6 +17,7 @@ commands:
   check [options] [PATH...]     report problems in files and folders (text, JSON Lines, SARIF) for CI
   transform OPERATION [FILE...] rewrite stereo marks: --mirror, --invert N, --flip I-J, --set N=R|S|E|Z|M|P, --clean
   compare A B [--json]          relate two structures: identical, enantiomers, diastereomers, ...
+  serve [--stdio] [--log FILE]  run the language server on standard input and output
   help                          show this text
 
 Run 'stereoline <command> -h' for the options of a command.

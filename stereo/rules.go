@@ -125,12 +125,31 @@ func (d *digraph) compareChain(root, a, af, b, bf nodeID, last Rule) (int, Rule,
 }
 
 // compareForOrder orders two siblings for the hierarchical walk of rule
-// r: by the rules up to r, except that Rule 6 orders by the
-// constitutional rules (1a, 1b, 2) and itself only. Its reference is
-// fixed by constitution; ordering by the descriptor rules, which invert
-// in a mirror image, would let a mirror plane through the reference tell
-// the two mirror-image ligands apart (the bridgeheads of adamantane).
+// r: by the rules up to r, with two exceptions.
+//
+// Rule 6 orders by the constitutional rules (1a, 1b, 2) and itself only.
+// Its reference is fixed by constitution; ordering by the descriptor
+// rules, which invert in a mirror image, would let a mirror plane
+// through the reference tell the two mirror-image ligands apart (the
+// bridgeheads of adamantane).
+//
+// Rules 4c and 5 order without Rule 4b. Like/unlike pairs are read
+// against a reference chosen inside each branch, so they can order the
+// sub-branches of two otherwise equal branches in opposite ways, and the
+// walk would then meet the r and s centres below them in opposite orders
+// (the suite's VS268, whose labels need those branches to tie under 4c).
 func (d *digraph) compareForOrder(root, x, y, from nodeID, r Rule) int {
+	if r >= Rule4c && r != Rule6 {
+		for q := Rule1a; q <= r; q++ {
+			if q == Rule4b {
+				continue
+			}
+			if c, _ := d.compareRule(root, x, from, y, from, q); c != 0 {
+				return c
+			}
+		}
+		return 0
+	}
 	if r != Rule6 {
 		c, _, _ := d.compareChain(root, x, from, y, from, r)
 		return c

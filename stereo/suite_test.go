@@ -121,11 +121,7 @@ func TestValidationSuite(t *testing.T) {
 // knownSuiteFailures are the compounds this engine still labels
 // differently from the suite, with what is understood of why. The issue
 // stays open while this list is not empty.
-var knownSuiteFailures = map[string]string{
-	"VS268": "atom 16 comes out r, not S: its two CH2CH2 chains are told apart by Rule 4c at sphere 5, " +
-		"where the suite's labels imply they tie until Rule 5; the hierarchical order Rule 4b gives the " +
-		"branches below atoms 13 and 19 puts the r and s centres in opposite orders",
-}
+var knownSuiteFailures = map[string]string{}
 
 // TestValidationSuiteMarks checks the other half of the suite's README:
 // a mark on a unit with no expected label must be reported as

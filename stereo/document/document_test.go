@@ -213,3 +213,15 @@ func TestParallelAnalysis(t *testing.T) {
 		t.Errorf("records = %d", len(big.Records))
 	}
 }
+
+// TestHoverReaction: an SN2 displacement inverts the centre (common
+// practice, Walden inversion).
+func TestHoverReaction(t *testing.T) {
+	text := "[CH3:1][C@@H:2]([Br:3])[CH2:4][CH3:5].[OH-:6]>>[CH3:1][C@H:2]([OH:6])[CH2:4][CH3:5].[Br-:3] RX-1\n"
+	res := analyze(t, "r.rsmi", text)
+	at := strings.LastIndex(text, "[C@H:2]") + 1
+	md, _, ok := res.Hover(at)
+	if !ok || !strings.Contains(md, "Across the reaction (map 2): **inversion**") {
+		t.Errorf("hover:\n%s", md)
+	}
+}

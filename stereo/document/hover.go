@@ -132,6 +132,7 @@ func writeAtom(b *strings.Builder, rec *Record, a int) {
 		fmt.Fprintf(b, ", in a %d-membered ring", s)
 	}
 	b.WriteString("\n")
+	writeReactionCentre(b, rec, a)
 	u := unitOfAtom(rec.Stereo, a)
 	if u == nil {
 		return
@@ -298,4 +299,32 @@ func elementName(z int) string {
 		return n
 	}
 	return "element " + notation.ElementSymbol(z)
+}
+
+// writeReactionCentre says what a mapped reaction happens to do to the
+// centre at atom a: retention or inversion by geometry, with the labels.
+func writeReactionCentre(b *strings.Builder, rec *Record, a int) {
+	if rec.Reaction == nil {
+		return
+	}
+	for _, c := range rec.Reaction.Centres {
+		if c.Reactant != a && c.Product != a {
+			continue
+		}
+		fmt.Fprintf(b, "\nAcross the reaction (map %d): **%s**", c.Map, c.Change)
+		if c.ReactantLabel.Labelled() || c.ProductLabel.Labelled() {
+			fmt.Fprintf(b, ", %s to %s", labelOrDash(c.ReactantLabel), labelOrDash(c.ProductLabel))
+		}
+		if c.Note != "" {
+			fmt.Fprintf(b, " (%s)", c.Note)
+		}
+		b.WriteString("\n")
+	}
+}
+
+func labelOrDash(d stereo.Descriptor) string {
+	if d.Labelled() {
+		return "(" + d.String() + ")"
+	}
+	return "unspecified"
 }

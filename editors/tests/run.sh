@@ -111,10 +111,9 @@ vscode() {
     # the grammar test, then the bundle activated with a stand-in vscode
     # module against the real server
     node --test --test-reporter=spec test/
-    rm -f stereoline.vsix
-    npx --no-install vsce package --no-dependencies --skip-license --allow-missing-repository --out stereoline.vsix </dev/null
+    npx --no-install vsce package --no-dependencies --skip-license --allow-missing-repository --out "$tmp/stereoline.vsix" </dev/null
     # The package must hold the manifest, the bundle and the grammar.
-    python3 - stereoline.vsix <<'PY'
+    python3 - "$tmp/stereoline.vsix" <<'PY'
 import sys, zipfile
 names = set(zipfile.ZipFile(sys.argv[1]).namelist())
 want = {"extension/package.json", "extension/dist/extension.js", "extension/syntaxes/smiles.tmLanguage.json"}

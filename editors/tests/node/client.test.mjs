@@ -55,7 +55,15 @@ function capabilities(encodings) {
   const general = encodings ? { positionEncodings: encodings } : {};
   return {
     general,
-    workspace: { configuration: true, didChangeConfiguration: { dynamicRegistration: false }, workspaceEdit: { documentChanges: true } },
+    workspace: {
+      configuration: true,
+      didChangeConfiguration: { dynamicRegistration: false },
+      workspaceEdit: { documentChanges: true },
+      // The server asks for these after new settings: the client then
+      // pulls again, knowing the settings are in force.
+      inlayHint: { refreshSupport: true },
+      diagnostics: { refreshSupport: true },
+    },
     textDocument: {
       synchronization: { dynamicRegistration: false, didSave: true },
       publishDiagnostics: { relatedInformation: true, tagSupport: { valueSet: [1, 2] }, codeDescriptionSupport: true, dataSupport: true },
@@ -87,6 +95,12 @@ async function start({ encodings, settings = {}, initializationOptions } = {}) {
   conn.onRequest(ConfigurationRequest.type, (p) => p.items.map((it) => (it.section === "stereoline" ? s.settings : null)));
   conn.onRequest(RegistrationRequest.type, () => null);
   conn.onRequest(WorkDoneProgressCreateRequest.type, () => null);
+  // Refresh requests come after new settings are in force; the tests
+  // pull again until the answer changes (see eventually), as an editor
+  // pulls again on a refresh.
+  for (const method of ["workspace/inlayHint/refresh", "workspace/diagnostic/refresh"]) {
+    conn.onRequest(method, () => null);
+  }
   conn.onNotification(PublishDiagnosticsNotification.type, (p) => s.pushed.set(p.uri, p));
   conn.onNotification("window/logMessage", () => {});
   conn.onNotification("window/showMessage", () => {});
@@ -168,6 +182,21 @@ function applyEdit(text, edit, uri, enc) {
   return text;
 }
 
+// eventually calls ask until check accepts its answer or 5 s pass, and
+// returns the last answer: settings sent in a notification take effect
+// when the server has applied them, which the client cannot observe
+// directly (the server's initial workspace/configuration pull may also
+// still be in flight).
+async function eventually(ask, check) {
+  const end = Date.now() + 5000;
+  let last = await ask();
+  while (!check(last) && Date.now() < end) {
+    await new Promise((r) => setTimeout(r, 50));
+    last = await ask();
+  }
+  return last;
+}
+
 const codesOf = (items) => items.map((d) => `${d.code}@${d.range.start.line}`).sort();
 
 test("position encoding negotiation", async () => {
@@ -229,7 +258,10 @@ test("pull diagnostics, result ids and configuration", async () => {
     // one code switched off, one raised to error (severity 1 in LSP).
     s.settings = { severity: { "stereo-ineffective-center": "off", "stereo-one-sided-bond": "error" } };
     await s.conn.sendNotification(DidChangeConfigurationNotification.type, { settings: { stereoline: s.settings } });
-    r = await s.pull(smi.uri);
+    r = await eventually(
+      () => s.pull(smi.uri),
+      (x) => x.kind === "full" && codesOf(x.items).length === 1,
+    );
     assert.equal(r.kind, "full");
     assert.deepEqual(codesOf(r.items), ["stereo-one-sided-bond@4"]);
     assert.equal(r.items[0].severity, 1);
@@ -262,7 +294,10 @@ test("inlay hints follow the stereocentre and the double bond", async () => {
     // inlayHints off (a setting of the "stereoline" section): no hints.
     s.settings = { inlayHints: false };
     await s.conn.sendNotification(DidChangeConfigurationNotification.type, { settings: { stereoline: s.settings } });
-    const none = await s.request(InlayHintRequest.type, { textDocument: { uri: smi.uri }, range });
+    const none = await eventually(
+      () => s.request(InlayHintRequest.type, { textDocument: { uri: smi.uri }, range }),
+      (x) => (x ?? []).length === 0,
+    );
     assert.deepEqual(none ?? [], []);
   } finally {
     assert.deepEqual(await s.stop(), { code: 0, signal: null });

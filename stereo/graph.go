@@ -130,7 +130,7 @@ func (g *graph) findRings() {
 	g.ringOf = make([][]int, len(m.Bonds))
 	g.ringAtom = make([]bool, g.n)
 	cyclic := g.cyclicBonds()
-	seen := map[string]bool{}
+	seen := map[uint64]bool{}
 	prev := make([]int, g.n)
 	dist := make([]int, g.n)
 	var touched []int
@@ -245,18 +245,22 @@ func (g *graph) cyclicBonds() []bool {
 	return cyclic
 }
 
-func ringKey(ring []int) string {
+// ringKey names a ring by a 64-bit hash of its sorted atoms (FNV-1a).
+func ringKey(ring []int) uint64 {
 	s := append([]int(nil), ring...)
 	for i := 1; i < len(s); i++ {
 		for j := i; j > 0 && s[j] < s[j-1]; j-- {
 			s[j], s[j-1] = s[j-1], s[j]
 		}
 	}
-	b := make([]byte, 0, 4*len(s))
+	h := uint64(14695981039346656037)
 	for _, v := range s {
-		b = append(b, byte(v), byte(v>>8), byte(v>>16), ',')
+		for k := 0; k < 4; k++ {
+			h ^= uint64(byte(v >> (8 * k)))
+			h *= 1099511628211
+		}
 	}
-	return string(b)
+	return h
 }
 
 // findMancude finds the atoms of mancude rings and ring systems (the

@@ -1,6 +1,7 @@
 package stereo
 
 import (
+	"fmt"
 	"strings"
 	"testing"
 
@@ -183,5 +184,27 @@ func TestHigherClasses(t *testing.T) {
 		if a.Units[0].Descriptor.Labelled() {
 			t.Errorf("%s: got a CIP label %v for a %v unit", c.smiles, a.Units[0].Descriptor, c.kind)
 		}
+	}
+}
+
+// TestUnspecifiedRanked checks that an unmarked stereocentre still
+// explains its ligands: butan-2-ol ranks O > ethyl > methyl > H (Rule 1a,
+// common practice) and has no CIP label.
+func TestUnspecifiedRanked(t *testing.T) {
+	a := Analyze(notation.Read("CC(O)CC"))
+	if len(a.Units) != 1 {
+		t.Fatalf("units %+v", a.Units)
+	}
+	u := a.Units[0]
+	var got []int
+	for _, r := range u.Ranked {
+		got = append(got, r.Atom)
+	}
+	if u.Specified || u.Descriptor.Labelled() || fmt.Sprint(got) != "[2 3 0 -1]" {
+		t.Errorf("unit %+v, ranked atoms %v, want [2 3 0 -1] unspecified", u, got)
+	}
+	b, _ := UnitsJSON(a)
+	if strings.Contains(string(b), `"cip"`) {
+		t.Errorf("unspecified unit renders a cip field: %s", b)
 	}
 }

@@ -27,7 +27,7 @@ func (l *labeller) perceiveUnmarked() {
 		distinct, pairInRing := ligandClasses(g, a, class)
 		switch {
 		case distinct:
-			l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1})
+			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a))
 			report(g.mol.Atoms[a].Span, "stereocentre without a configuration")
 		case l.anyMarks && l.configuredPair(a, class) && l.distinctByConfiguration(a):
 			// constitutionally equal ligands told apart by the
@@ -35,7 +35,7 @@ func (l *labeller) perceiveUnmarked() {
 			// centre (the middle carbon of a trisubstituted glutaric
 			// acid whose ends are unlike)
 			l.unitAtoms[a] = true
-			l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1})
+			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a))
 			report(g.mol.Atoms[a].Span, "stereocentre (made so by the configurations around it) without a configuration")
 		case pairInRing:
 			paired = append(paired, a)
@@ -59,7 +59,7 @@ func (l *labeller) perceiveUnmarked() {
 				continue
 			}
 			l.unitAtoms[a] = true
-			l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1})
+			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a))
 			report(g.mol.Atoms[a].Span, "stereocentre (together with another ring atom) without a configuration")
 		}
 	}
@@ -88,10 +88,52 @@ func (l *labeller) perceiveUnmarked() {
 			continue
 		}
 		if bondEndDistinct(g, b.Begin, b.End, class) && bondEndDistinct(g, b.End, b.Begin, class) {
-			l.res.Units = append(l.res.Units, Unit{Kind: KindDoubleBond, Atoms: []int{b.Begin, b.End}, Centre: -1, Bond: bi})
+			l.res.Units = append(l.res.Units, l.unspecifiedBond(b.Begin, b.End, bi))
 			report(b.Span, "stereogenic double bond without a configuration")
 		}
 	}
+}
+
+// unspecifiedCentre is the unit of an unmarked stereocentre, with its
+// ligands ranked (a ranking needs no configuration of the centre itself,
+// and the explanation is as useful before a mark is written).
+func (l *labeller) unspecifiedCentre(a int) Unit {
+	u := Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1}
+	ligs := stereoLigands(l.g.mol, a)
+	if len(ligs) == 3 {
+		ligs = append(ligs, implicitLigand)
+	}
+	defer l.explaining()()
+	lb := l.tetrahedral(&tetraConfig{centre: a, ligands: ligs, winding: 1, lonePair: len(l.g.mol.Atoms[a].Bonds) == 3 && l.g.hyd[a] == 0})
+	if !lb.capped {
+		u.Ranked, u.Decisions = lb.ranked, lb.decisions
+	}
+	return u
+}
+
+// explainCap bounds the digraphs that rank the ligands of unmarked
+// units: that ranking is an explanation only, and a molecule full of
+// unmarked centres (a ladder of fused rings) must not pay the full cap
+// for each of them.
+const explainCap = 2000
+
+// explaining lowers the node cap until the returned function restores it.
+func (l *labeller) explaining() func() {
+	saved := l.nodeCap
+	l.nodeCap = min(l.nodeCap, explainCap)
+	return func() { l.nodeCap = saved }
+}
+
+// unspecifiedBond is the unit of an unmarked stereogenic double bond,
+// with the ligands at each end ranked.
+func (l *labeller) unspecifiedBond(a, b, bi int) Unit {
+	u := Unit{Kind: KindDoubleBond, Atoms: []int{a, b}, Centre: -1, Bond: bi}
+	defer l.explaining()()
+	lb := l.doubleBond(&bondConfig{bond: bi, ends: [2]int{a, b}, inner: [2]int{b, a}, refs: [2]int{-2, -2}})
+	if !lb.capped {
+		u.Ranked, u.Decisions = lb.ranked, lb.decisions
+	}
+	return u
 }
 
 // configuredPair is the cheap test before distinctByConfiguration: the

@@ -56,8 +56,8 @@ type canonState struct {
 	keep   []bool // per unit: part of the key
 	ring   []bool // per unit: kept as a ring unit, parity only after tie-breaking
 	leaves int
-	// scratch
-	atoms []int
+	atoms  []int // the atoms in the order, folded hydrogens left out
+	seen   []bool
 }
 
 // canonResult is the outcome: the order (position -> atom), the rank of
@@ -134,13 +134,22 @@ func compareInts(a, b []int) int {
 	return len(a) - len(b)
 }
 
-// classes counts the distinct ranks.
+// classes counts the distinct ranks. Ranks are positions below the
+// number of atoms of the graph, so a flag per position suffices.
 func (c *canonState) classes(rank []int) int {
-	seen := make(map[int]bool, len(c.atoms))
-	for _, a := range c.atoms {
-		seen[rank[a]] = true
+	if cap(c.seen) < c.g.n {
+		c.seen = make([]bool, c.g.n)
 	}
-	return len(seen)
+	seen := c.seen[:c.g.n]
+	clear(seen)
+	n := 0
+	for _, a := range c.atoms {
+		if r := rank[a]; r >= 0 && r < len(seen) && !seen[r] {
+			seen[r] = true
+			n++
+		}
+	}
+	return n
 }
 
 // refine splits classes by the classes of the neighbours until stable.
@@ -153,14 +162,12 @@ func (c *canonState) refine(rank []int) []int {
 	n := c.classes(rank)
 	for iter := 0; iter <= len(c.atoms); iter++ {
 		for _, a := range c.atoms {
-			s := sig[a][:0]
-			s = append(s, rank[a])
-			nb := make([]int, 0, len(g.adj[a]))
+			s := append(sig[a][:0], rank[a])
 			for _, e := range g.adj[a] {
-				nb = append(nb, rank[e.to]*8+e.class)
+				s = append(s, rank[e.to]*8+e.class)
 			}
-			slices.Sort(nb)
-			sig[a] = append(s, nb...)
+			slices.Sort(s[1:])
+			sig[a] = s
 		}
 		next := c.rankBy(func(x, y int) int { return compareInts(sig[x], sig[y]) })
 		m := c.classes(next)
@@ -384,7 +391,11 @@ func (c *canonState) chooseUnits(rank []int) {
 // two of its ligands are the two ring neighbours of a symmetric ring,
 // and returns the ring system.
 func (c *canonState) ringCandidate(u *keyUnit, rank []int) (int, bool) {
-	if u.kind != keyTetrahedral || c.g.system[u.centre] < 0 {
+	if u.kind != keyTetrahedral {
+		return 0, false
+	}
+	c.g.findRingSystems()
+	if c.g.system[u.centre] < 0 {
 		return 0, false
 	}
 	m := c.g.mol

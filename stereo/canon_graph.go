@@ -112,13 +112,16 @@ func newKeyGraph(m *notation.Molecule) *keyGraph {
 		g.adj[b.Begin] = append(g.adj[b.Begin], keyEdge{b.End, c})
 		g.adj[b.End] = append(g.adj[b.End], keyEdge{b.Begin, c})
 	}
-	g.findRingSystems()
 	g.readUnits()
 	return g
 }
 
-// findRingSystems groups ring atoms joined by ring bonds.
+// findRingSystems groups ring atoms joined by ring bonds. It runs on
+// first use: only ring units need it.
 func (g *keyGraph) findRingSystems() {
+	if g.system != nil {
+		return
+	}
 	m := g.mol
 	rings := notation.FindRings(m)
 	g.ring = make([]bool, len(m.Bonds))

@@ -74,12 +74,22 @@ func Identify(m *notation.Molecule) Identity {
 // assignment).
 func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 	con := newCanonState(g, units, false).run()
+	if len(units) == 0 {
+		// no marks: the stereo serialisation is the constitution's with
+		// an empty unit list (a zero varint), and the mirror is the same
+		k := digest(con.text + "\x00")
+		return Identity{Key: k, MirrorKey: k, ConstitutionKey: digest(con.text)}
+	}
 	st := newCanonState(g, units, true)
 	res := st.run()
-	mirror := mirrorUnits(units)
-	mst := newCanonState(g, mirror, true)
-	mres := mst.run()
-	id := Identity{Key: digest(res.text), MirrorKey: digest(mres.text), ConstitutionKey: digest(con.text)}
+	id := Identity{Key: digest(res.text), MirrorKey: digest(res.text), ConstitutionKey: digest(con.text)}
+	for i := range units {
+		if st.keep[i] && units[i].kind != keyDoubleBond {
+			// only tetrahedral and allene units change in a mirror
+			id.MirrorKey = digest(newCanonState(g, mirrorUnits(units), true).run().text)
+			break
+		}
+	}
 	centres := 0
 	// a specified chirality centre: a tetrahedral unit whose ligands
 	// already differ by constitution

@@ -360,7 +360,6 @@ func symmetryClasses(g *graph) []int {
 	return class
 }
 
-
 func sortInts(xs []int) {
 	for i := 1; i < len(xs); i++ {
 		for j := i; j > 0 && xs[j] < xs[j-1]; j-- {

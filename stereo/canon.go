@@ -46,7 +46,7 @@ import (
 // canonLeafBudget bounds the tie-breaking orders tried for ring units;
 // past it the first choice is taken, and a very symmetric structure with
 // ring stereo may get a key that depends on the writing.
-const canonLeafBudget = 64
+const canonLeafBudget = 1024
 
 // canonState is one canonicalisation of a key graph.
 type canonState struct {

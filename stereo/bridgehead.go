@@ -15,7 +15,19 @@ const maxSmallBridge = 3
 
 func (l *labeller) checkBridgeheads() {
 	g := l.g
-	heads := sortedKeys(l.cfg.tetra)
+	// a bridgehead has three ring bonds
+	var heads []int
+	for _, a := range sortedKeys(l.cfg.tetra) {
+		n := 0
+		for _, e := range g.adj[a] {
+			if g.ringBond[e.bond] {
+				n++
+			}
+		}
+		if n >= 3 {
+			heads = append(heads, a)
+		}
+	}
 	for i, a := range heads {
 		for _, b := range heads[i+1:] {
 			bridges, ok := g.bridges(a, b)

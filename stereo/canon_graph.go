@@ -61,6 +61,7 @@ type keyGraph struct {
 	units  []keyUnit
 	ring   []bool // per bond: lies on a ring
 	system []int  // per atom: ring system id, -1 outside rings
+	rings  *notation.Rings
 }
 
 func bondClass(b *notation.Bond) int {
@@ -124,6 +125,7 @@ func (g *keyGraph) findRingSystems() {
 	}
 	m := g.mol
 	rings := notation.FindRings(m)
+	g.rings = rings
 	g.ring = make([]bool, len(m.Bonds))
 	parent := make([]int, g.n)
 	for i := range parent {
@@ -236,6 +238,49 @@ func (g *keyGraph) readUnits() {
 			g.units = append(g.units, u)
 		}
 	}
+	g.dropFixedUnits()
+}
+
+// dropFixedUnits leaves out marks that cannot tell two compounds apart:
+// a double bond in a ring of fewer than eight atoms can only be cis, and
+// a three-coordinate nitrogen inverts quickly unless a small ring or a
+// bridgehead position holds it (common practice; RDKit treats both the
+// same way).
+func (g *keyGraph) dropFixedUnits() {
+	m := g.mol
+	keep := g.units[:0]
+	for _, u := range g.units {
+		switch {
+		case u.kind == keyDoubleBond && u.bond >= 0:
+			g.findRingSystems()
+			if g.rings.BondInRing(u.bond) && g.rings.BondSize[u.bond] < 8 {
+				continue
+			}
+		case u.kind == keyTetrahedral && m.Atoms[u.centre].Number == notation.ElemN && len(g.adj[u.centre])+g.hydro[u.centre] == 3:
+			if !g.heldNitrogen(u.centre) {
+				continue
+			}
+		}
+		keep = append(keep, u)
+	}
+	g.units = keep
+}
+
+// heldNitrogen reports whether a three-coordinate nitrogen sits in a
+// three-membered ring or at a bridgehead (all three bonds in rings).
+func (g *keyGraph) heldNitrogen(a int) bool {
+	g.findRingSystems()
+	m := g.mol
+	if g.rings.AtomSize[a] == 3 {
+		return true
+	}
+	ringBonds := 0
+	for _, bi := range m.Atoms[a].Bonds {
+		if g.rings.BondInRing(bi) {
+			ringBonds++
+		}
+	}
+	return ringBonds == 3
 }
 
 // substituents lists the neighbours of double-bond end t other than

@@ -192,12 +192,7 @@ func (d *digraph) expand(n nodeID) {
 	}
 	// children live in one arena per digraph: a few large allocations
 	// instead of one per node
-	if len(d.arena)+len(kids) > cap(d.arena) {
-		d.arena = make([]nodeID, 0, max(1024, 2*len(kids)))
-	}
-	start := len(d.arena)
-	d.arena = append(d.arena, kids...)
-	d.nodes[n].kids = d.arena[start:len(d.arena):len(d.arena)]
+	d.nodes[n].kids = d.store(kids)
 	d.kidBuf = kids[:0]
 }
 
@@ -215,7 +210,7 @@ func (d *digraph) neighbours(n, from nodeID) []nodeID {
 	if from == p {
 		return ks
 	}
-	out := make([]nodeID, 0, len(ks)+1)
+	out := d.kidBuf[:0]
 	if p != noNode {
 		out = append(out, p)
 	}
@@ -224,7 +219,22 @@ func (d *digraph) neighbours(n, from nodeID) []nodeID {
 			out = append(out, k)
 		}
 	}
-	return out
+	d.kidBuf = out[:0]
+	return d.store(out)
+}
+
+// store copies a list of nodes into the digraph's arena and returns the
+// copy, capped so that appending to it cannot overwrite its neighbours.
+func (d *digraph) store(xs []nodeID) []nodeID {
+	if len(xs) == 0 {
+		return nil
+	}
+	if len(d.arena)+len(xs) > cap(d.arena) {
+		d.arena = make([]nodeID, 0, max(1024, 2*len(xs)))
+	}
+	start := len(d.arena)
+	d.arena = append(d.arena, xs...)
+	return d.arena[start:len(d.arena):len(d.arena)]
 }
 
 // treeDistance is the number of edges between two nodes of the tree.

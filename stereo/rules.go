@@ -320,8 +320,7 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 		}
 	}
 	nb := d.neighbours(n, from)
-	s := make([]nodeID, len(nb))
-	copy(s, nb)
+	s := d.store(nb)
 	// insertion sort: few children, and a stable order for ties
 	for i := 1; i < len(s); i++ {
 		for j := i; j > 0; j-- {

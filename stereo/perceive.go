@@ -104,7 +104,9 @@ func (l *labeller) unspecifiedCentre(a int) Unit {
 		ligs = append(ligs, implicitLigand)
 	}
 	defer l.explaining()()
-	lb := l.tetrahedral(&tetraConfig{centre: a, ligands: ligs, winding: 1, lonePair: len(l.g.mol.Atoms[a].Bonds) == 3 && l.g.hyd[a] == 0})
+	// no Rule 6 trials: they decide a label, which an unmarked unit has not
+	t := &tetraConfig{centre: a, ligands: ligs, winding: 1, lonePair: len(l.g.mol.Atoms[a].Bonds) == 3 && l.g.hyd[a] == 0}
+	lb, _ := l.tetrahedralWith(newDigraph(l.g, l.cfg, a, l.nodeCap), t, -1)
 	if !lb.capped {
 		u.Ranked, u.Decisions = lb.ranked, lb.decisions
 	}

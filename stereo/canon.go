@@ -95,7 +95,7 @@ func (c *canonState) run() canonResult {
 func (c *canonState) atomInvariant(a int) [7]int {
 	at := &c.g.mol.Atoms[a]
 	arom := 0
-	if at.Aromatic {
+	if c.g.arom[a] {
 		arom = 1
 	}
 	return [7]int{int(at.Role), at.Number, at.Isotope, at.Charge, arom, c.g.hydro[a], len(c.g.adj[a])}

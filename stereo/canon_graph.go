@@ -62,6 +62,7 @@ type keyGraph struct {
 	ring   []bool // per bond: lies on a ring
 	system []int  // per atom: ring system id, -1 outside rings
 	rings  *notation.Rings
+	arom   []bool // per atom: aromatic, as written or as found in a Kekulé ring
 }
 
 func bondClass(b *notation.Bond) int {
@@ -104,12 +105,20 @@ func newKeyGraph(m *notation.Molecule) *keyGraph {
 			g.hydro[m.Bonds[m.Atoms[a].Bonds[0]].Other(a)]++
 		}
 	}
+	var aromBond []bool
+	g.arom, aromBond = g.aromaticity()
 	for bi := range m.Bonds {
 		b := &m.Bonds[bi]
 		if b.Begin < 0 || b.End < 0 || b.Begin >= g.n || b.End >= g.n || g.folded[b.Begin] || g.folded[b.End] {
 			continue
 		}
 		c := bondClass(b)
+		switch {
+		case aromBond[bi]:
+			c = 5
+		case c == 5:
+			c = 1 // written aromatic but on no ring
+		}
 		g.adj[b.Begin] = append(g.adj[b.Begin], keyEdge{b.End, c})
 		g.adj[b.End] = append(g.adj[b.End], keyEdge{b.Begin, c})
 	}
@@ -220,7 +229,7 @@ func (g *keyGraph) readUnits() {
 			}
 			continue
 		}
-		if ch.Class != notation.ChiralTH || m.Atoms[a].Aromatic || g.doubleCount(a) > 0 && (m.Atoms[a].Number == notation.ElemC || m.Atoms[a].Number == notation.ElemN) {
+		if ch.Class != notation.ChiralTH || g.arom[a] || g.doubleCount(a) > 0 && (m.Atoms[a].Number == notation.ElemC || m.Atoms[a].Number == notation.ElemN) {
 			continue
 		}
 		count := len(g.adj[a]) + g.hydro[a]
@@ -300,7 +309,7 @@ func (g *keyGraph) substituents(t, partner int) []int {
 func (g *keyGraph) readDoubleBond(bi int) (keyUnit, bool) {
 	m := g.mol
 	b := &m.Bonds[bi]
-	if b.Order != notation.OrderDouble || g.folded[b.Begin] || g.folded[b.End] {
+	if b.Order != notation.OrderDouble || g.folded[b.Begin] || g.folded[b.End] || g.arom[b.Begin] && g.arom[b.End] {
 		return keyUnit{}, false
 	}
 	// an odd cumulene is read at its middle bond, between its terminal
@@ -320,7 +329,7 @@ func (g *keyGraph) readDoubleBond(bi int) (keyUnit, bool) {
 		found := false
 		for _, bj := range m.Atoms[t].Bonds {
 			x := m.Bonds[bj].Other(t)
-			if x == partner || bondClass(&m.Bonds[bj]) != 1 {
+			if x == partner || bondClass(&m.Bonds[bj]) == 2 || bondClass(&m.Bonds[bj]) == 3 {
 				continue
 			}
 			d := m.Bonds[bj].DirFrom(x)

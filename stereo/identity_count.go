@@ -87,7 +87,7 @@ func potentialUnits(g *keyGraph) []keyUnit {
 	}
 	for bi := range m.Bonds {
 		b := &m.Bonds[bi]
-		if b.Order != notation.OrderDouble || g.folded[b.Begin] || g.folded[b.End] || (rings.BondInRing(bi) && rings.BondSize[bi] < 8) {
+		if b.Order != notation.OrderDouble || g.folded[b.Begin] || g.folded[b.End] || g.arom[b.Begin] && g.arom[b.End] || (rings.BondInRing(bi) && rings.BondSize[bi] < 8) {
 			continue
 		}
 		u := keyUnit{kind: keyDoubleBond, centre: -1, ends: [2]int{b.Begin, b.End}, bond: bi, hand: 1}
@@ -125,7 +125,7 @@ func potentialUnits(g *keyGraph) []keyUnit {
 // nitrogen is left out: it inverts quickly (common practice).
 func tetrahedralCandidate(g *keyGraph, a int) (int, bool) {
 	at := &g.mol.Atoms[a]
-	if at.Aromatic || g.hydro[a] > 1 {
+	if g.arom[a] || g.hydro[a] > 1 {
 		return 0, false
 	}
 	count := len(g.adj[a]) + g.hydro[a]

@@ -12,7 +12,8 @@ import "stereoline/notation"
 // hydrogen, an oxygen or sulfur, none of them double-bonded) or none (a
 // carbon with an exocyclic double bond to O, N or S, as in pyridones),
 // with 4n+2 in all. Fused rings are taken up repeatedly until nothing
-// changes. A ring written aromatic stays aromatic. Bonds written aromatic
+// changes, then pairs of fused rings as one system. A ring written
+// aromatic stays aromatic. Bonds written aromatic
 // that lie on no ring (the implied bond of c1ccccc1c1ccccc1) are single.
 
 // aromaticity marks the aromatic atoms and bonds of the key graph.
@@ -50,7 +51,7 @@ func (g *keyGraph) aromaticity() (atoms, bonds []bool) {
 	for changed := true; changed; {
 		changed = false
 		for ri, r := range g.rings.SSSR {
-			if done[ri] || (r.Size() != 5 && r.Size() != 6) {
+			if done[ri] || r.Size() < 5 || r.Size() > 7 {
 				continue
 			}
 			if g.huckel(r, bonds) {
@@ -64,7 +65,64 @@ func (g *keyGraph) aromaticity() (atoms, bonds []bool) {
 			}
 		}
 	}
+	// fused systems whose rings fail one by one but pass together
+	// (indolizine, quinoid dyes): pairs of rings sharing a bond, taken
+	// as one π system
+	rs := g.rings.SSSR
+	for changed := true; changed; {
+		changed = false
+		for i := range rs {
+			for j := i + 1; j < len(rs); j++ {
+				if (done[i] && done[j]) || !shareBond(rs[i], rs[j]) || rs[i].Size() > 7 || rs[j].Size() > 7 {
+					continue
+				}
+				u := unionRing(rs[i], rs[j])
+				if g.huckel(u, bonds) {
+					done[i], done[j], changed = true, true, true
+					for _, a := range u.Atoms {
+						atoms[a] = true
+					}
+					for _, bi := range u.Bonds {
+						bonds[bi] = true
+					}
+				}
+			}
+		}
+	}
 	return atoms, bonds
+}
+
+func shareBond(a, b notation.Ring) bool {
+	for _, x := range a.Bonds {
+		for _, y := range b.Bonds {
+			if x == y {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// unionRing joins two fused rings into one atom and bond set (the order
+// of the atoms does not matter to huckel).
+func unionRing(a, b notation.Ring) notation.Ring {
+	var u notation.Ring
+	seenA, seenB := map[int]bool{}, map[int]bool{}
+	for _, r := range []notation.Ring{a, b} {
+		for _, x := range r.Atoms {
+			if !seenA[x] {
+				seenA[x] = true
+				u.Atoms = append(u.Atoms, x)
+			}
+		}
+		for _, x := range r.Bonds {
+			if !seenB[x] {
+				seenB[x] = true
+				u.Bonds = append(u.Bonds, x)
+			}
+		}
+	}
+	return u
 }
 
 // huckel counts the π electrons of ring r and applies 4n+2.

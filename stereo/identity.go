@@ -62,8 +62,8 @@ func digest(s string) string {
 
 // Identify computes the keys and the chirality class of m.
 func Identify(m *notation.Molecule) Identity {
-	if m == nil {
-		return Identity{}
+	if m == nil || len(m.Atoms) == 0 {
+		return Identity{} // no structure: no key, related to nothing
 	}
 	g := newKeyGraph(m)
 	return identifyGraph(g, g.units)

@@ -41,6 +41,12 @@ func TestTransformCases(t *testing.T) {
 		{"set an S centre to S changes nothing", "C[C@H](O)CC", func(m *notation.Molecule) (Transform, error) { return SetDescriptor(m, 1, DescS) }, "C[C@H](O)CC"},
 		{"set an unmarked centre adds brackets", "CC(O)CC", func(m *notation.Molecule) (Transform, error) { return SetDescriptor(m, 1, DescR) }, "C[C@@H](O)CC"},
 		{"set Z on an E bond flips it", "F/C=C/F", func(m *notation.Molecule) (Transform, error) { return SetDescriptor(m, 1, DescZ) }, "F\\C=C/F"},
+		{"set an allene to P", "CC=[C@]=CC", func(m *notation.Molecule) (Transform, error) { return SetDescriptor(m, 2, DescP) }, "CC=[C@@]=CC"},
+		// OpenSMILES 3.9.5: @TB1 and @TB2 share the axis from the first to
+		// the last neighbour and wind oppositely; a square-planar
+		// arrangement is its own mirror image
+		{"mirror a trigonal-bipyramidal mark", "S[As@TB1](F)(Cl)(Br)N", Mirror, "S[As@TB2](F)(Cl)(Br)N"},
+		{"mirror keeps a square-planar mark", "F[Pt@SP1](Cl)(Br)I", Mirror, "F[Pt@SP1](Cl)(Br)I"},
 		{"clean a mark on propan-2-ol", "C[C@H](C)O", Clean, "CC(C)O"},
 		{"clean a stray direction mark", "C/CC", Clean, "CCC"},
 		{"complete a one-sided bond", "F/C=CF", CompleteOneSided, "F/C=C/F"},

@@ -9,9 +9,10 @@ import "stereoline/notation"
 // makes some units stereogenic only in some assignments (the central
 // carbon of 2,3,4-trihydroxyglutaric acid is a stereocentre only when
 // its neighbours differ in configuration). Both are handled by
-// enumerating the assignments and counting distinct keys. Constraints
-// that need 3D (a small bridged ring that allows one relative
-// configuration only) are not seen.
+// enumerating the assignments and counting distinct keys. The two
+// bridgeheads of a small bicycle allow one relative configuration only;
+// assignments that break it are skipped (identity_bicycle.go). Other
+// constraints that need 3D are not seen.
 
 // maxEnumeratedUnits bounds the enumeration at 2^12 keys; past it the
 // count is the upper bound 2^n.
@@ -39,12 +40,16 @@ func Stereoisomers(m *notation.Molecule) StereoisomerCount {
 		return StereoisomerCount{Count: 1 << min(n, 62), Units: n}
 	}
 	seen := map[string]bool{}
+	pairs := smallBicycles(g, units)
 	for mask := 0; mask < 1<<n; mask++ {
 		for i := range units {
 			units[i].hand = 1
 			if mask&(1<<i) != 0 {
 				units[i].hand = -1
 			}
+		}
+		if !feasible(units, pairs) {
+			continue
 		}
 		seen[newCanonState(g, units, true).run().text] = true
 	}

@@ -80,6 +80,10 @@ func TestStereoisomerCounts(t *testing.T) {
 		{"OC(C)C(O)C(C)O", 4, "pentane-2,3,4-triol: C3 is pseudoasymmetric"},
 		{"CC=C=CC", 2, "penta-2,3-diene: an axially chiral pair"},
 		{"OCC(O)C(O)C(O)C(O)C=O", 16, "an aldohexose: four centres"},
+		{"CC1(C)C2CCC1(C)C(=O)C2", 2, "camphor: two bridgeheads of a bicyclo[2.2.1] cage, one relative configuration"},
+		{"OC1CC2CCC1C2", 4, "norbornan-2-ol: exo and endo, each a pair of enantiomers"},
+		{"C1CCC2CCCCC2C1", 2, "decalin: cis and trans, both possible in a [4.4.0] system"},
+		{"CC12CCC(CC1)CC2", 1, "1-methylbicyclo[2.2.2]octane: no stereocentre"},
 	}
 	for _, tc := range tests {
 		got := Stereoisomers(notation.Read(tc.smiles))

@@ -21,14 +21,6 @@ func benchMolecules(b *testing.B) []*notation.Molecule {
 	return out
 }
 
-// readerHangs lists fixture writings on which notation.Read did not
-// return when these benchmarks were written (a Kekulé search that does
-// not end on this fused thiophene system); reported to the reader's
-// owner.
-var readerHangs = map[string]bool{
-	"c12c3c(sc2c2c4c(ccc2)cccc14)c1c2c3cccc2ccc1": true,
-}
-
 // BenchmarkIdentify measures keys per second over the fixture writings
 // (parsing not timed).
 func BenchmarkIdentify(b *testing.B) {

@@ -69,12 +69,12 @@ type ReactionResult struct {
 
 // ReactionJSON is the form `describe --json` prints as "reaction".
 type ReactionJSON struct {
-	Centers []ReactionCenterJSON `json:"centers"`
+	Centres []ReactionCentreJSON `json:"centers"`
 }
 
-// ReactionCenterJSON is one centre in ReactionJSON. Atoms are 1-based as
+// ReactionCentreJSON is one centre in ReactionJSON. Atoms are 1-based as
 // elsewhere in the command line's output.
-type ReactionCenterJSON struct {
+type ReactionCentreJSON struct {
 	Map           int    `json:"map"`
 	Change        string `json:"change"`
 	ReactantAtom  int    `json:"reactant_atom"`
@@ -86,9 +86,9 @@ type ReactionCenterJSON struct {
 
 // JSON returns the result in the form describe prints.
 func (r *ReactionResult) JSON() ReactionJSON {
-	out := ReactionJSON{Centers: []ReactionCenterJSON{}}
+	out := ReactionJSON{Centres: []ReactionCentreJSON{}}
 	for _, c := range r.Centres {
-		out.Centers = append(out.Centers, ReactionCenterJSON{Map: c.Map, Change: c.Change.String(), ReactantAtom: c.Reactant + 1,
+		out.Centres = append(out.Centres, ReactionCentreJSON{Map: c.Map, Change: c.Change.String(), ReactantAtom: c.Reactant + 1,
 			ProductAtom: c.Product + 1, ReactantLabel: c.ReactantLabel.String(), ProductLabel: c.ProductLabel.String(), Note: c.Note})
 	}
 	return out

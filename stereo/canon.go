@@ -10,7 +10,9 @@ import (
 //  1. Invariants. Every atom starts with a class from what it is on its
 //     own: reaction role, atomic number, isotope, charge, aromaticity,
 //     hydrogen count and number of neighbours. Plain [H] atoms are folded
-//     into their neighbour's hydrogen count first, so C and C[H] agree.
+//     into their neighbour's hydrogen count first, so C and C[H] agree,
+//     and rings written in Kekulé form count as aromatic
+//     (canon_aromatic.go), so C1=CC=CC=C1 and c1ccccc1 agree.
 //  2. Refinement. Classes are refined until stable (the partition
 //     refinement of Weininger's CANON, common practice): an atom's new
 //     class is its old class followed by the sorted list of
@@ -35,6 +37,11 @@ import (
 //     exists only relative to the broken tie (cis/trans-1,4-disubstituted
 //     rings): then every atom of the class is tried, and the smallest
 //     serialisation wins.
+//
+// Marks that cannot tell compounds apart are dropped before step 1: a
+// double bond in a ring of fewer than eight atoms, a freely inverting
+// nitrogen (canon_graph.go). Square-planar, trigonal-bipyramidal and
+// octahedral marks are not part of the key.
 //
 // A unit that still has no parity after step 3 is not stereogenic and is
 // left out of the key (the mark on the central carbon of propan-2-ol

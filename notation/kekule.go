@@ -108,10 +108,17 @@ type matcher struct {
 	mate  []int
 	work  int
 
-	// blossom search state, reused across searches
+	// blossom search state, reused across searches; used and inBlossom
+	// are meaningful only on the vertices of the current search's
+	// component, which each search resets
 	parent, base    []int
 	used, inBlossom []bool
 	queue           []int
+
+	// reach marks vertices while a component is collected; it is all
+	// false between calls (a search leaves used set on its vertices, so
+	// collecting with used would miss them)
+	reach []bool
 }
 
 func newMatcher(m *Molecule, pi []bool, arom []bool) *matcher {
@@ -185,7 +192,10 @@ func (x *matcher) run() {
 // component lists the local vertices reachable from root, so that one
 // search costs the size of its own ring system, not of the record.
 func (x *matcher) component(root int) []int {
-	seen := x.used
+	if x.reach == nil {
+		x.reach = make([]bool, len(x.atoms))
+	}
+	seen := x.reach
 	comp := []int{root}
 	seen[root] = true
 	for i := 0; i < len(comp); i++ {

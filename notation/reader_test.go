@@ -338,3 +338,38 @@ func BenchmarkManyClosuresOnTwoAtoms(b *testing.B) {
 		Read(text)
 	}
 }
+
+// TestKekulizeFusedSystems reads polycyclic aromatics whose Kekulé
+// structure the greedy start does not find, so the augmenting search runs
+// more than once in one ring system (the second search once looped
+// forever). Each aromatic carbon must end with exactly one double bond
+// (common practice: every carbon of these hydrocarbons is sp2 with one
+// double bond in any Kekulé structure).
+func TestKekulizeFusedSystems(t *testing.T) {
+	for _, s := range []string{
+		"c12c3c(sc2c2c4c(ccc2)cccc14)c1c2c3cccc2ccc1", // a thiophene-fused polycycle
+		"c1cc2ccc3ccc4ccc5ccc6ccc1c7c2c3c4c5c67",       // coronene
+		"c1ccc2c(c1)c1cccc3c1c2ccc3",                   // fluoranthene written from the outside
+		"c1cc2cccc3c2c(c1)c1cccc2cccc3c21",             // perylene
+	} {
+		m := Read(s)
+		if len(m.Errors) > 0 {
+			t.Errorf("%s: %v", s, m.Errors)
+			continue
+		}
+		for i := range m.Atoms {
+			if !m.Atoms[i].Aromatic || m.Atoms[i].Number != ElemC {
+				continue
+			}
+			doubles := 0
+			for _, bi := range m.Atoms[i].Bonds {
+				if m.Bonds[bi].Kekule == 2 {
+					doubles++
+				}
+			}
+			if doubles != 1 {
+				t.Errorf("%s: atom %d has %d double bonds", s, i+1, doubles)
+			}
+		}
+	}
+}

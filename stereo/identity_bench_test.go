@@ -14,9 +14,7 @@ func benchMolecules(b *testing.B) []*notation.Molecule {
 	rows := readIdentityFixture(b)
 	var out []*notation.Molecule
 	for _, r := range rows {
-		if !readerHangs[r.smiles] {
-			out = append(out, notation.Read(r.smiles))
-		}
+		out = append(out, notation.Read(r.smiles))
 	}
 	return out
 }

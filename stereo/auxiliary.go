@@ -34,20 +34,8 @@ func (d *digraph) auxFor(root, n nodeID) Descriptor {
 }
 
 // mirrorAux is the auxiliary descriptor of the same node in the mirror
-// image: chiral labels swap, pseudoasymmetric r/s and plain E/Z stay,
-// and e/z swap, because a double bond labelled e or z owes its ranking to
-// enantiomorphic ligands at one end, which trade places in the mirror.
-func mirrorAux(x Descriptor) Descriptor {
-	switch x {
-	case DescR, DescS, DescM, DescP:
-		return x.Mirror()
-	case DescPseudoE:
-		return DescPseudoZ
-	case DescPseudoZ:
-		return DescPseudoE
-	}
-	return x
-}
+// image (see Descriptor.Mirror).
+func mirrorAux(x Descriptor) Descriptor { return x.Mirror() }
 
 func (d *digraph) computeAux(n nodeID) Descriptor {
 	a := d.nodes[n].atom

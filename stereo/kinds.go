@@ -50,26 +50,26 @@ func (d Descriptor) Pseudo() bool {
 	return false
 }
 
-// Mirror returns the descriptor of the mirror image (R and S swap, r and
-// s swap, M and P swap); E and Z are unchanged.
+// Mirror returns the descriptor of the same unit in the mirror image.
+// Chiral labels swap (R and S, M and P). Pseudoasymmetric r, s, m and p
+// stay: such a unit is its own mirror image, its ligands trading places
+// with their enantiomorphs (IUPAC 2013, P-93.5.1.1). E and Z stay, as
+// reflection keeps a double bond's geometry; e and z swap, since a bond
+// labelled so owes its ranking to enantiomorphic ligands at one end.
 func (d Descriptor) Mirror() Descriptor {
 	switch d {
 	case DescR:
 		return DescS
 	case DescS:
 		return DescR
-	case DescPseudoR:
-		return DescPseudoS
-	case DescPseudoS:
-		return DescPseudoR
 	case DescM:
 		return DescP
 	case DescP:
 		return DescM
-	case DescPseudoM:
-		return DescPseudoP
-	case DescPseudoP:
-		return DescPseudoM
+	case DescPseudoE:
+		return DescPseudoZ
+	case DescPseudoZ:
+		return DescPseudoE
 	}
 	return d
 }

@@ -348,9 +348,9 @@ func BenchmarkManyClosuresOnTwoAtoms(b *testing.B) {
 func TestKekulizeFusedSystems(t *testing.T) {
 	for _, s := range []string{
 		"c12c3c(sc2c2c4c(ccc2)cccc14)c1c2c3cccc2ccc1", // a thiophene-fused polycycle
-		"c1cc2ccc3ccc4ccc5ccc6ccc1c7c2c3c4c5c67",       // coronene
-		"c1ccc2c(c1)c1cccc3c1c2ccc3",                   // fluoranthene written from the outside
-		"c1cc2cccc3c2c(c1)c1cccc2cccc3c21",             // perylene
+		"c1cc2ccc3ccc4ccc5ccc6ccc1c7c2c3c4c5c67",      // coronene
+		"c1ccc2c(c1)c1cccc3c1c2ccc3",                  // fluoranthene written from the outside
+		"c1cc2cccc3c2c(c1)c1cccc2cccc3c21",            // perylene
 	} {
 		m := Read(s)
 		if len(m.Errors) > 0 {

@@ -37,10 +37,10 @@ func transformError(sp notation.Span, code notation.Code, format string, args ..
 
 // Mirror returns the edits that turn m into its mirror image: every
 // tetrahedral and allene mark inverted, a trigonal-bipyramidal mark
-// replaced by the permutation with the same axis and the opposite
-// winding, square-planar marks (a planar arrangement is its own mirror
-// image) and double bonds kept. An octahedral mark is left as written
-// and noted.
+// and an octahedral mark replaced by the permutation with the same axis
+// and the opposite winding (notation.MirrorPermutation), square-planar
+// marks (a planar arrangement is its own mirror image) and double bonds
+// kept.
 func Mirror(m *notation.Molecule) (Transform, error) {
 	var t Transform
 	if m == nil {
@@ -55,16 +55,17 @@ func Mirror(m *notation.Molecule) (Transform, error) {
 				return Transform{}, err
 			}
 			t.Edits = append(t.Edits, e...)
-		case notation.ChiralTB:
-			if ch.Num >= 1 && ch.Num < len(mirrorTB) {
-				e, err := notation.SetChirality(m, a, "@TB"+strconv.Itoa(mirrorTB[ch.Num]))
-				if err != nil {
-					return Transform{}, err
-				}
-				t.Edits = append(t.Edits, e...)
+		case notation.ChiralTB, notation.ChiralOH:
+			n, ok := notation.MirrorPermutation(ch.Class, ch.Num)
+			if !ok {
+				t.Notes = append(t.Notes, fmt.Sprintf("atom %d: the mark's permutation number is out of range; left as written", a+1))
+				continue
 			}
-		case notation.ChiralOH:
-			t.Notes = append(t.Notes, fmt.Sprintf("atom %d: octahedral mark left as written; its mirror permutation is not derived", a+1))
+			e, err := notation.SetChirality(m, a, "@"+ch.Class.String()+strconv.Itoa(n))
+			if err != nil {
+				return Transform{}, err
+			}
+			t.Edits = append(t.Edits, e...)
 		}
 	}
 	switch id := Identify(m); id.Chirality {
@@ -75,13 +76,6 @@ func Mirror(m *notation.Molecule) (Transform, error) {
 	}
 	return t, nil
 }
-
-// mirrorTB pairs each trigonal-bipyramidal permutation with the one that
-// has the same axis and the opposite winding (OpenSMILES 3.9.5 table of
-// @TB1-@TB20, from memory: 1/2, 3/4, 5/6 and 7/8 on the axes a-e, a-d,
-// a-c, a-b; 9/11, 10/12, 13/14 on b-e, b-d, b-c; 15/19, 16/20 on c-e,
-// c-d; 17/18 on d-e).
-var mirrorTB = [...]int{0, 2, 1, 4, 3, 6, 5, 8, 7, 11, 12, 9, 10, 14, 13, 19, 20, 18, 17, 15, 16}
 
 // unitAt finds the unit atom a belongs to: the centre of a tetrahedral or
 // allene unit (or an allene terminal), or an end of a double bond.

@@ -8,7 +8,8 @@ package stereo
 // (aR is M, aS is P; P-93.5.7, common practice).
 
 func (l *labeller) allene(c *alleneConfig) label {
-	ds := [2]*digraph{newDigraph(l.g, l.cfg, c.ends[0], l.nodeCap), newDigraph(l.g, l.cfg, c.ends[1], l.nodeCap)}
+	ds := [2]*digraph{l.digraph(c.ends[0]), l.digraph(c.ends[1])}
+	defer l.release(ds[0], ds[1])
 	lb, cands := l.alleneWith(ds, c, -1)
 	if lb.tie && !lb.capped {
 		lb = l.withReference(lb, cands, func(ref int) label {

@@ -99,6 +99,7 @@ type labeller struct {
 	unitBonds     map[int]bool
 	anyMarks      bool
 	oneSided      []*bondConfig
+	spare         []*digraph // storage of digraphs already used, for reuse (digraph_reuse.go)
 }
 
 func (l *labeller) warn(sp notation.Span, code notation.Code, format string, args ...any) *notation.Error {

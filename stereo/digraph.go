@@ -91,9 +91,15 @@ func newDigraph(g *graph, cfg *configs, rootAtom int, limit int) *digraph {
 	// the maps are made on first use: most digraphs decide at the first
 	// spheres and never need them
 	d := &digraph{g: g, limit: limit, cfg: cfg, refAtom: -1}
-	d.nodes = append(d.nodes, node{atom: rootAtom, kind: nodeAtom, parent: noNode, corr: noNode, bond: -1,
-		z: float64(g.z[rootAtom]), mass: g.mass[rootAtom]})
+	d.nodes = make([]node, 0, 64)
+	d.addRoot(rootAtom)
 	return d
+}
+
+// addRoot adds the root node to an empty digraph.
+func (d *digraph) addRoot(rootAtom int) {
+	d.nodes = append(d.nodes, node{atom: rootAtom, kind: nodeAtom, parent: noNode, corr: noNode, bond: -1,
+		z: float64(d.g.z[rootAtom]), mass: d.g.mass[rootAtom]})
 }
 
 func (d *digraph) add(n node) nodeID {

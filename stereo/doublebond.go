@@ -9,7 +9,7 @@ func (l *labeller) doubleBond(c *bondConfig) label {
 	trans := c.trans
 	for e := 0; e < 2; e++ {
 		var nl int
-		d := newDigraph(l.g, l.cfg, c.ends[e], l.nodeCap)
+		d := l.digraph(c.ends[e])
 		r := l.rootRanking(d, -1, func(d *digraph) []nodeID {
 			var ligs []nodeID
 			for _, k := range d.ligandsOf(0, noNode) {
@@ -50,6 +50,7 @@ func (l *labeller) doubleBond(c *bondConfig) label {
 		if len(r.order) > 0 && d.ligandAtom(r.order[0]) != c.refs[e] {
 			trans = !trans
 		}
+		l.release(d)
 	}
 	isPseudo := out.desc == DescPseudoE
 	out.desc = DescNone

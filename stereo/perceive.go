@@ -106,7 +106,9 @@ func (l *labeller) unspecifiedCentre(a int) Unit {
 	defer l.explaining()()
 	// no Rule 6 trials: they decide a label, which an unmarked unit has not
 	t := &tetraConfig{centre: a, ligands: ligs, winding: 1, lonePair: len(l.g.mol.Atoms[a].Bonds) == 3 && l.g.hyd[a] == 0}
-	lb, _ := l.tetrahedralWith(newDigraph(l.g, l.cfg, a, l.nodeCap), t, -1)
+	d := l.digraph(a)
+	defer l.release(d)
+	lb, _ := l.tetrahedralWith(d, t, -1)
 	if !lb.capped {
 		u.Ranked, u.Decisions = lb.ranked, lb.decisions
 	}
@@ -205,7 +207,8 @@ func (l *labeller) configuredNear(start, avoid, depth int) bool {
 // Ring pairs are left to the together test: their split comes from the
 // atom's own partner across the ring.
 func (l *labeller) distinctByConfiguration(a int) bool {
-	d := newDigraph(l.g, l.cfg, a, l.nodeCap)
+	d := l.digraph(a)
+	defer l.release(d)
 	r := l.rootRanking(d, -1, func(d *digraph) []nodeID {
 		ligs := d.ligandsOf(0, noNode)
 		if len(ligs) == 3 {

@@ -13,7 +13,8 @@ type label struct {
 }
 
 func (l *labeller) tetrahedral(t *tetraConfig) label {
-	d := newDigraph(l.g, l.cfg, t.centre, l.nodeCap)
+	d := l.digraph(t.centre)
+	defer l.release(d)
 	lb, cands := l.tetrahedralWith(d, t, -1)
 	if lb.tie && !lb.capped {
 		lb = l.withReference(lb, cands, func(ref int) label {

@@ -39,3 +39,24 @@ func MirrorPermutation(g ChiralClass, num int) (int, bool) {
 	}
 	return 0, false
 }
+
+// Arrangement describes where the n neighbours of a square-planar,
+// trigonal-bipyramidal or octahedral centre marked with number num sit,
+// as neighbour indices in the stereo order: the axis from one neighbour
+// to another, and the neighbours around it in anticlockwise order seen
+// from the start of the axis. A square has no axis (from and to are -1)
+// and its ring is the order around the square.
+func Arrangement(g ChiralClass, num, n int) (from, to int, ring []int, ok bool) {
+	order := make([]int, n)
+	for i := range order {
+		order[i] = i
+	}
+	p, ok := decodePolyhedron(g, order, num)
+	if !ok {
+		return -1, -1, nil, false
+	}
+	if g == ChiralSP {
+		return -1, -1, p.ring, true
+	}
+	return p.from, p.to, p.ring, true
+}

@@ -41,7 +41,8 @@ import (
 // Marks that cannot tell compounds apart are dropped before step 1: a
 // double bond in a ring of fewer than eight atoms, a freely inverting
 // nitrogen (canon_graph.go). Square-planar, trigonal-bipyramidal and
-// octahedral marks are not part of the key.
+// octahedral marks enter the key as the classes of their ligands on the
+// polyhedron (canon_polyhedron.go).
 //
 // A unit that still has no parity after step 3 is not stereogenic and is
 // left out of the key (the mark on the central carbon of propan-2-ol
@@ -65,6 +66,12 @@ type canonState struct {
 	leaves int
 	atoms  []int // the atoms in the order, folded hydrogens left out
 	seen   []bool
+
+	// sym holds the symmetry classes after refinement, before ties are
+	// broken, for the polyhedral centres (canon_polyhedron.go); mirrored
+	// reads those centres as in the mirror image.
+	sym      []int
+	mirrored bool
 }
 
 // canonResult is the outcome: the order (position -> atom), the rank of
@@ -94,6 +101,7 @@ func (c *canonState) run() canonResult {
 	if c.stereo {
 		rank = c.stereoRefine(rank)
 		c.chooseUnits(rank)
+		c.sym = slices.Clone(rank)
 	}
 	return c.search(rank)
 }
@@ -540,6 +548,15 @@ func (c *canonState) leaf(rank []int) canonResult {
 		for _, u := range us {
 			for _, v := range u {
 				put(v)
+			}
+		}
+		if poly := polyhedronCodes(g.mol, rank, c.sym, g.folded, c.mirrored); len(poly) > 0 {
+			put(len(poly))
+			for _, code := range poly {
+				put(len(code))
+				for _, v := range code {
+					put(v)
+				}
 			}
 		}
 	}

@@ -74,7 +74,8 @@ func Identify(m *notation.Molecule) Identity {
 // assignment).
 func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 	con := newCanonState(g, units, false).run()
-	if len(units) == 0 {
+	poly, polyChiral := hasPolyhedra(g.mol)
+	if len(units) == 0 && !poly {
 		// no marks: the stereo serialisation is the constitution's with
 		// an empty unit list (a zero varint), and the mirror is the same
 		k := digest(con.text + "\x00")
@@ -83,12 +84,17 @@ func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 	st := newCanonState(g, units, true)
 	res := st.run()
 	id := Identity{Key: digest(res.text), MirrorKey: digest(res.text), ConstitutionKey: digest(con.text)}
+	needMirror := polyChiral
 	for i := range units {
 		if st.keep[i] && units[i].kind != keyDoubleBond {
 			// only tetrahedral and allene units change in a mirror
-			id.MirrorKey = digest(newCanonState(g, mirrorUnits(units), true).run().text)
-			break
+			needMirror = true
 		}
+	}
+	if needMirror {
+		ms := newCanonState(g, mirrorUnits(units), true)
+		ms.mirrored = true
+		id.MirrorKey = digest(ms.run().text)
 	}
 	centres := 0
 	// a specified chirality centre: a tetrahedral unit whose ligands

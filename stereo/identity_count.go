@@ -95,7 +95,14 @@ func potentialUnits(g *keyGraph) []keyUnit {
 		if b.Order != notation.OrderDouble || g.folded[b.Begin] || g.folded[b.End] || g.arom[b.Begin] && g.arom[b.End] || (rings.BondInRing(bi) && rings.BondSize[bi] < 8) {
 			continue
 		}
-		u := keyUnit{kind: keyDoubleBond, centre: -1, ends: [2]int{b.Begin, b.End}, bond: bi, hand: 1}
+		// an odd cumulene counts once, at its middle bond, between its
+		// terminal atoms (as readDoubleBond reads its marks)
+		t0, c0 := g.walkCumulene(b.End, b.Begin)
+		t1, c1 := g.walkCumulene(b.Begin, b.End)
+		if c0 != c1 || t0 == t1 {
+			continue
+		}
+		u := keyUnit{kind: keyDoubleBond, centre: -1, ends: [2]int{t0, t1}, bond: bi, hand: 1}
 		ok := true
 		for e := 0; e < 2 && ok; e++ {
 			t := u.ends[e]

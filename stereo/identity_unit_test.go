@@ -79,6 +79,8 @@ func TestStereoisomerCounts(t *testing.T) {
 		{"CC(O)C(Cl)C", 4, "3-chlorobutan-2-ol: two different centres"},
 		{"OC(C)C(O)C(C)O", 4, "pentane-2,3,4-triol: C3 is pseudoasymmetric"},
 		{"CC=C=CC", 2, "penta-2,3-diene: an axially chiral pair"},
+		{"FC=C=C=CF", 2, "1,4-difluorobutatriene: an odd cumulene has cis and trans forms"},
+		{"CC(C)=C=C=CC", 1, "2-methylhexa-2,3,4-triene: one end carries two methyls, so no isomers"},
 		{"OCC(O)C(O)C(O)C(O)C=O", 16, "an aldohexose: four centres"},
 		{"CC1(C)C2CCC1(C)C(=O)C2", 2, "camphor: two bridgeheads of a bicyclo[2.2.1] cage, one relative configuration"},
 		{"OC1CC2CCC1C2", 4, "norbornan-2-ol: exo and endo, each a pair of enantiomers"},

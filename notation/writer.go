@@ -34,10 +34,9 @@ type Written struct {
 	// molecule that became the i-th atom of Text.
 	Order []int
 	// Unadjusted lists atoms whose chirality mark could not be rewritten
-	// for the new order of their neighbours (an allene whose ends carry
-	// hydrogens, a mark whose number does not fit its neighbours): their
-	// mark is copied as written and may no longer describe the same
-	// arrangement.
+	// for the new order of their neighbours (an allene with a CH2 end, a
+	// mark whose number does not fit its neighbours): their mark is
+	// copied as written and may no longer describe the same arrangement.
 	Unadjusted []int
 	// Dropped lists bonds that could not be written: bonds joining atoms
 	// of different reaction roles.
@@ -46,11 +45,12 @@ type Written struct {
 
 // Write serialises m as OpenSMILES. Atoms are written without brackets
 // whenever the organic subset implies exactly their hydrogens; ring
-// closures use the lowest free number; tetrahedral chirality marks are
-// rewritten for the new neighbour order (a transposition of two
-// neighbours turns '@' into '@@'), and bond direction marks are written
-// as seen in the direction the bond is written, so both kinds of stereo
-// keep their meaning. A reaction keeps its reactant>agent>product layout.
+// closures use the lowest free number; chirality marks are rewritten
+// for the new neighbour order (a transposition of two neighbours of a
+// tetrahedral or allene centre turns '@' into '@@'), and bond direction
+// marks are written as seen in the direction the bond is written, so
+// both kinds of stereo keep their meaning. A reaction keeps its
+// reactant>agent>product layout.
 //
 // Write takes time linear in the size of the molecule (times the number
 // of ring closures open at once, for choosing free numbers) and does not
@@ -856,25 +856,31 @@ type alleneFix struct {
 }
 
 // fixAllenes rewrites allene marks for the new order of their ligands.
-// The allene is read as one tetrahedral centre whose neighbours are the
-// atoms on the two ends of the cumulated double bonds, in the order they
-// appear (OpenSMILES 3.9, allene-like systems). When an end carries
-// hydrogens that are not atoms of their own, their place in that order
-// is not defined by the standard, so the mark is reported as unadjusted
-// instead.
+// OpenSMILES 3.9 reads an extended tetrahedral mark as a tetrahedral one
+// whose neighbours are the substituents of the two terminal atoms of the
+// cumulated system, in the order they appear in the text (see
+// alleneOrder). A mark flips when the written order is an odd
+// permutation of the read one. When the substituents are not four
+// distinct ones (an end with two hydrogens, an end that is not an atom
+// with two substituents), their order has no meaning; the mark is then
+// reported as unadjusted unless the order is unchanged.
 func (w *writer) fixAllenes(text string) string {
 	var edits []Edit
 	for _, fix := range w.allenes {
-		ligands, ok := w.alleneLigands(fix.atom)
-		if !ok {
-			if !w.identityLigands(ligands) {
+		ends, ok := w.alleneEnds(fix.atom)
+		if !ok || w.alleneDropped(ends) {
+			w.out.Unadjusted = append(w.out.Unadjusted, fix.atom)
+			continue
+		}
+		before, okBefore := w.alleneOrder(ends, w.readPlace)
+		after, okAfter := w.alleneOrder(ends, w.writtenPlace)
+		if !okBefore || !okAfter {
+			if !sameInts(before, after) {
 				w.out.Unadjusted = append(w.out.Unadjusted, fix.atom)
 			}
 			continue
 		}
-		after := append([]int(nil), ligands...)
-		sort.Slice(after, func(i, j int) bool { return w.position[after[i]] < w.position[after[j]] })
-		odd, ok := permutationOdd(ligands, after)
+		odd, ok := permutationOdd(before, after)
 		if !ok {
 			w.out.Unadjusted = append(w.out.Unadjusted, fix.atom)
 			continue
@@ -895,26 +901,18 @@ func (w *writer) fixAllenes(text string) string {
 	return out
 }
 
-// identityLigands reports whether ligands keep their relative order.
-func (w *writer) identityLigands(ligands []int) bool {
-	for i := 1; i < len(ligands); i++ {
-		if w.position[ligands[i-1]] > w.position[ligands[i]] {
-			return false
-		}
-	}
-	return true
-}
+// alleneEnd is a terminal atom of a cumulated system and its neighbour
+// inside the system, which is not one of its substituents.
+type alleneEnd struct{ atom, inner int }
 
-// alleneLigands returns the atoms attached to the two ends of the
-// cumulated system centred on atom a, in the order they were read, and
-// false when an end has hydrogens that are not atoms or the ligands are
-// not four distinct atoms.
-func (w *writer) alleneLigands(a int) ([]int, bool) {
-	var ligands []int
-	ok := true
+// alleneEnds follows the cumulated double bonds from centre a to the
+// terminal atom on each side; false when a does not have two sides or
+// the two sides meet (a ring of cumulated bonds).
+func (w *writer) alleneEnds(a int) ([]alleneEnd, bool) {
+	var ends []alleneEnd
 	for _, b := range w.m.Atoms[a].Bonds {
 		prev, end := a, w.m.Bonds[b].Other(a)
-		for steps := 0; w.alleneCentre(end) && steps < len(w.m.Atoms); steps++ {
+		for steps := 0; w.alleneCentre(end) && end != a && steps < len(w.m.Atoms); steps++ {
 			next := -1
 			for _, b2 := range w.m.Atoms[end].Bonds {
 				if x := w.m.Bonds[b2].Other(end); x != prev {
@@ -923,25 +921,113 @@ func (w *writer) alleneLigands(a int) ([]int, bool) {
 			}
 			prev, end = end, next
 		}
-		if w.m.Atoms[end].HydrogenCount() > 0 {
-			ok = false
-		}
-		for _, b2 := range w.m.Atoms[end].Bonds {
-			if x := w.m.Bonds[b2].Other(end); x != prev {
-				ligands = append(ligands, x)
+		ends = append(ends, alleneEnd{end, prev})
+	}
+	ok := len(ends) == 2 && ends[0].atom != ends[1].atom && ends[0].atom != a && ends[1].atom != a
+	return ends, ok
+}
+
+// alleneDropped reports whether a bond of a terminal atom was left out
+// of the text, so a substituent is missing from the writing.
+func (w *writer) alleneDropped(ends []alleneEnd) bool {
+	for _, e := range ends {
+		for _, b := range w.m.Atoms[e.atom].Bonds {
+			if containsInt(w.out.Dropped, b) {
+				return true
 			}
 		}
 	}
-	sort.Ints(ligands)
-	if len(ligands) != 4 {
-		ok = false
+	return false
+}
+
+// textPlace is where a substituent is named in a text: the position of
+// an atom among the atoms, and a rank among the things written with it
+// (0 for the atom itself, then its ring-closure digits from 1).
+type textPlace struct{ atom, rank int }
+
+func (p textPlace) less(q textPlace) bool {
+	return p.atom < q.atom || (p.atom == q.atom && p.rank < q.rank)
+}
+
+// alleneHydrogen stands for the implicit hydrogens of terminal atom t in
+// an allene's substituent order; it differs from every atom number and
+// from the hydrogen of the other end.
+func alleneHydrogen(t int) int { return -2 - t }
+
+// alleneOrder lists the substituents of the terminal atoms in the order
+// OpenSMILES 3.9 gives them for an extended tetrahedral mark: as they
+// appear in the text, a neighbour reached through a ring closure at its
+// digit on the terminal atom, and the implicit hydrogen of a terminal
+// atom at that atom, so after its preceding atom and before its digits
+// and branches, as for a tetrahedral centre. place says where bond b of
+// terminal t names its other atom, in the text read or the one written.
+// ok is false unless the list has four distinct members.
+func (w *writer) alleneOrder(ends []alleneEnd, place func(t, b int) textPlace) (order []int, ok bool) {
+	type named struct {
+		ligand int
+		at     textPlace
 	}
-	for i := 1; i < len(ligands); i++ {
-		if ligands[i] == ligands[i-1] {
-			ok = false
+	var list []named
+	for _, e := range ends {
+		at := &w.m.Atoms[e.atom]
+		for h := 0; h < at.HydrogenCount(); h++ {
+			list = append(list, named{alleneHydrogen(e.atom), place(e.atom, -1)})
+		}
+		for _, b := range at.Bonds {
+			if x := w.m.Bonds[b].Other(e.atom); x != e.inner {
+				list = append(list, named{x, place(e.atom, b)})
+			}
 		}
 	}
-	return ligands, ok
+	sort.SliceStable(list, func(i, j int) bool { return list[i].at.less(list[j].at) })
+	for _, n := range list {
+		order = append(order, n.ligand)
+	}
+	return order, len(order) == 4 && distinctInts(order)
+}
+
+// readPlace is where bond b of terminal t named its other atom in the
+// text the molecule was read from (b < 0: where t's hydrogens stand).
+// Atoms are numbered in the order they appear and a terminal atom's
+// bonds are listed in the order their neighbours or digits appear, so
+// the numbers say it.
+func (w *writer) readPlace(t, b int) textPlace {
+	if b < 0 {
+		return textPlace{t, 0}
+	}
+	if w.m.Bonds[b].Ring {
+		for i, x := range w.m.Atoms[t].Bonds {
+			if x == b {
+				return textPlace{t, 1 + i}
+			}
+		}
+	}
+	return textPlace{w.m.Bonds[b].Other(t), 0}
+}
+
+// writtenPlace is where bond b of terminal t names its other atom in the
+// text being written (b < 0: where t's hydrogens stand).
+func (w *writer) writtenPlace(t, b int) textPlace {
+	if b < 0 {
+		return textPlace{w.position[t], 0}
+	}
+	for i, x := range w.rings[t] {
+		if x == b {
+			return textPlace{w.position[t], 1 + i}
+		}
+	}
+	return textPlace{w.position[w.m.Bonds[b].Other(t)], 0}
+}
+
+func distinctInts(s []int) bool {
+	for i := range s {
+		for j := i + 1; j < len(s); j++ {
+			if s[i] == s[j] {
+				return false
+			}
+		}
+	}
+	return true
 }
 
 // alleneCentre reports whether atom a has exactly two bonds, both double:

@@ -42,6 +42,20 @@ func TestWriteExamples(t *testing.T) {
 		{"allene as read", "OC(Cl)=[C@]=C(C)F", WriteOptions{}, "OC(Cl)=[C@]=C(C)F"},
 		// ligands O Cl C F read in the order F O Cl C: a four-cycle, odd
 		{"allene from the other end", "OC(Cl)=[C@]=C(C)F", WriteOptions{Start: 6}, "FC(=[C@@]=C(O)Cl)C"},
+		// OpenSMILES 3.9 orders an allene's substituents as they appear, an
+		// implicit hydrogen at its terminal atom and a ring-closure
+		// neighbour at its digit. Read: C0 H1 H3 C4; written backwards:
+		// C4 H3 H1 C0, a reversal of four, even.
+		{"allene with hydrogens written backwards", "CC=[C@]=CC", WriteOptions{Start: 4}, "CC=[C@]=CC"},
+		// read: H0 F1 H3 C4; written: F1 H0 H3 C4, one exchange
+		{"allene hydrogen and atom exchanged on one end", "C(F)=[C@@]=CC", WriteOptions{Start: 1}, "FC=[C@]=CC"},
+		// read: O Cl H C; written: C H O Cl, a four-cycle, odd
+		{"allene with a hydrogen from the other end", "OC(Cl)=[C@]=CC", WriteOptions{Start: 5}, "CC=[C@@]=C(O)Cl"},
+		// read: F, C8 (digit on C1), H3, C4; written C1=[C@]=C(F)CCCCC1
+		// from C3: H3, C4 (digit on C3), F, C8, two exchanges, even
+		{"allene ring closure moves to the other end", "FC1=[C@]=CCCCCC1", WriteOptions{Start: 3}, "C1=[C@]=C(F)CCCCC1"},
+		// written from C5: C4, H3, F, C8 (a chain atom now), a four-cycle
+		{"allene ring closure becomes a chain bond", "FC1=[C@]=CCCCCC1", WriteOptions{Start: 5}, "C1CC=[C@@]=C(F)CCC1"},
 		// OH1 viewed along C->N; written from N the axis is N->C (OH30: U shape, a->b, clockwise)
 		{"octahedral from the other axis end", "C[Co@OH1](F)(Cl)(Br)(I)N", WriteOptions{Start: 6}, "N[Co@OH30](C)(F)(Cl)(Br)I"},
 		{"trans difluoroethene from the other end", "F/C=C/F", WriteOptions{Start: 3}, "F\\C=C\\F"},
@@ -75,7 +89,10 @@ func TestWriteUnadjusted(t *testing.T) {
 	}{
 		{"allene as read", "OC(Cl)=[C@]=C(C)F", WriteOptions{}, nil},
 		{"allene from the other end is rewritten", "OC(Cl)=[C@]=C(C)F", WriteOptions{Start: 6}, nil},
-		{"allene with hydrogens on its ends", "CC=[C@]=CC", WriteOptions{Start: 4}, []int{2}},
+		{"allene with hydrogens on its ends is rewritten", "CC=[C@]=CC", WriteOptions{Start: 4}, nil},
+		{"allene with a ring closure on an end is rewritten", "FC1=[C@]=CCCCCC1", WriteOptions{Start: 5}, nil},
+		// a CH2 end has two identical substituents: no order to rewrite
+		{"allene with a CH2 end", "C=[C@]=CC", WriteOptions{Start: 3}, []int{1}},
 		{"octahedral reordered is rewritten", "C[Co@OH1](F)(Cl)(Br)(I)N", WriteOptions{Start: 6}, nil},
 		{"a class number that does not fit the neighbours", "F[C@TB1](Cl)Br", WriteOptions{Start: 3}, []int{1}},
 		{"tetrahedral is rewritten, not reported", "F[C@](Cl)(Br)I", WriteOptions{Start: 4}, nil},
@@ -112,14 +129,23 @@ func stereoKey(m *Molecule, centre int, key func(int) int) string {
 	}
 	c := m.Atoms[centre].Chirality
 	if g == ChiralAL {
-		// the ligands on the two ends, in the order they appear
-		ligands, ok := w.alleneLigands(centre)
+		// the substituents of the two ends in the order they appear, each
+		// end's hydrogen keyed by its terminal atom
+		ends, ok := w.alleneEnds(centre)
 		if !ok {
-			return "allene with hydrogens on its ends"
+			return "not an allene"
+		}
+		ligands, ok := w.alleneOrder(ends, w.readPlace)
+		if !ok {
+			return "allene without four distinct substituents"
 		}
 		keyed = keyed[:0]
 		for _, a := range ligands {
-			keyed = append(keyed, key(a))
+			if a < 0 {
+				keyed = append(keyed, -2-key(-2-a))
+			} else {
+				keyed = append(keyed, key(a))
+			}
 		}
 	}
 	if g == ChiralTH || g == ChiralAL {
@@ -437,7 +463,8 @@ func TestWriteRoundTrip(t *testing.T) {
 // FuzzWriteRoundTrip checks that whatever the reader accepts, the writer
 // writes in a form that reads back as the same structure.
 func FuzzWriteRoundTrip(f *testing.F) {
-	for _, s := range []string{"CCO", "c1ccccc1", "F/C=C/F", "[C@@H](F)(Cl)Br", "C1CC[C@]12CCC2", "CC>>C"} {
+	for _, s := range []string{"CCO", "c1ccccc1", "F/C=C/F", "[C@@H](F)(Cl)Br", "C1CC[C@]12CCC2", "CC>>C",
+		"CC=[C@]=CC", "FC1=[C@]=CCCCCC1"} {
 		f.Add(s, uint64(1), false)
 	}
 	f.Fuzz(func(t *testing.T, s string, seed uint64, kekule bool) {

@@ -36,8 +36,9 @@ type node struct {
 	kids     []nodeID
 	expanded bool
 	ringDup  bool // a duplicate closing a ring (a real ligand), not an extra bond order
-	// sorted caches the children in rule order for the root's plain view
-	sorted *[numRules][]nodeID
+	// sorted caches the children in rule order for the root's plain
+	// view: 1 + an index into digraph.sortTables, 0 before any sort
+	sorted int32
 }
 
 // digraph is one hierarchical digraph. It belongs to one labelling call
@@ -53,6 +54,7 @@ type digraph struct {
 	sortedRoot map[sortKey][]nodeID
 	free       []*[4][]step // walk queues for reuse
 	arena      []nodeID     // storage for children lists
+	sortTables [][numRules][]nodeID
 	kidBuf     []nodeID
 	// auxRef holds the Rule 6 reference of an auxiliary ranking under
 	// way, by its root; such rankings bypass the memo at Rule 6
@@ -236,7 +238,9 @@ func (d *digraph) store(xs []nodeID) []nodeID {
 		return nil
 	}
 	if len(d.arena)+len(xs) > cap(d.arena) {
-		d.arena = make([]nodeID, 0, max(1024, 2*len(xs)))
+		// each new block doubles, so a large digraph needs few of them
+		// and the last one, kept for reuse, fits the next digraph
+		d.arena = make([]nodeID, 0, max(1024, 2*cap(d.arena), 2*len(xs)))
 	}
 	start := len(d.arena)
 	d.arena = append(d.arena, xs...)

@@ -25,6 +25,7 @@ func (l *labeller) digraph(rootAtom int) *digraph {
 		g: l.g, cfg: l.cfg, limit: min(l.nodeCap, maxNodeCap), refAtom: -1,
 		nodes:      d.nodes[:0],
 		arena:      d.arena[:0],
+		sortTables: d.sortTables[:0],
 		kidBuf:     d.kidBuf[:0],
 		free:       d.free,
 		compared:   reusable(d.compared),

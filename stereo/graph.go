@@ -65,18 +65,27 @@ func newGraph(m *notation.Molecule) *graph {
 	g.hyd = make([]int, g.n)
 	g.z = make([]int, g.n)
 	g.mass = make([]float64, g.n)
+	// every neighbour list is a window of one array: one allocation
+	// for the molecule instead of a few for each atom
+	total := 0
+	for i := range m.Atoms {
+		total += len(m.Atoms[i].Bonds)
+	}
+	edges := make([]edge, 0, total)
 	for i := range m.Atoms {
 		a := &m.Atoms[i]
 		g.z[i] = a.Number
 		g.hyd[i] = a.HydrogenCount()
 		g.mass[i] = atomMass(a.Number, a.Isotope)
+		start := len(edges)
 		for _, bi := range a.Bonds {
 			if bi < 0 || bi >= len(m.Bonds) {
 				continue
 			}
 			b := &m.Bonds[bi]
-			g.adj[i] = append(g.adj[i], edge{to: b.Other(i), bond: bi, order: bondOrder(b), cip: cipOrder(m, b)})
+			edges = append(edges, edge{to: b.Other(i), bond: bi, order: bondOrder(b), cip: cipOrder(m, b)})
 		}
+		g.adj[i] = edges[start:len(edges):len(edges)]
 	}
 	g.findRings()
 	g.findMancude()
@@ -130,10 +139,13 @@ func (g *graph) findRings() {
 	g.ringOf = make([][]int, len(m.Bonds))
 	g.ringAtom = make([]bool, g.n)
 	cyclic := g.cyclicBonds()
-	seen := map[uint64]bool{}
+	var seen map[uint64]bool
 	prev := make([]int, g.n)
 	dist := make([]int, g.n)
-	var touched []int
+	var touched, queue, sortBuf []int
+	// the rings share one backing array, capped per ring so that
+	// appending to one cannot overwrite the next
+	var ringStore []int
 	for i := range dist {
 		dist[i] = -1
 	}
@@ -149,11 +161,10 @@ func (g *graph) findRings() {
 		src, dst := b.Begin, b.End
 		dist[src] = 0
 		touched = append(touched, src)
-		queue := []int{src}
+		queue = append(queue[:0], src)
 		found := false
-		for len(queue) > 0 && !found {
-			u := queue[0]
-			queue = queue[1:]
+		for head := 0; head < len(queue) && !found; head++ {
+			u := queue[head]
 			for _, e := range g.adj[u] {
 				if e.bond == bi || dist[e.to] >= 0 || !cyclic[e.bond] {
 					continue
@@ -172,17 +183,27 @@ func (g *graph) findRings() {
 			continue
 		}
 		g.ringBond[bi] = true
-		ring := []int{dst}
+		size := dist[dst] + 1
+		if len(ringStore)+size > cap(ringStore) {
+			ringStore = make([]int, 0, max(256, 2*cap(ringStore), size))
+		}
+		start := len(ringStore)
+		ringStore = append(ringStore, dst)
 		for v := dst; v != src; {
 			v = prev[v]
-			ring = append(ring, v)
+			ringStore = append(ringStore, v)
 		}
+		ring := ringStore[start:len(ringStore):len(ringStore)]
 		g.smallRing[bi] = len(ring)
 		g.ringOf[bi] = ring
 		for _, a := range ring {
 			g.ringAtom[a] = true
 		}
-		key := ringKey(ring)
+		sortBuf = append(sortBuf[:0], ring...)
+		key := ringKey(sortBuf)
+		if seen == nil {
+			seen = map[uint64]bool{}
+		}
 		if !seen[key] {
 			seen[key] = true
 			g.rings = append(g.rings, ring)
@@ -246,8 +267,8 @@ func (g *graph) cyclicBonds() []bool {
 }
 
 // ringKey names a ring by a 64-bit hash of its sorted atoms (FNV-1a).
-func ringKey(ring []int) uint64 {
-	s := append([]int(nil), ring...)
+// It sorts s in place: callers pass a copy.
+func ringKey(s []int) uint64 {
 	for i := 1; i < len(s); i++ {
 		for j := i; j > 0 && s[j] < s[j-1]; j-- {
 			s[j], s[j-1] = s[j-1], s[j]

@@ -27,15 +27,13 @@ func (l *labeller) perceiveUnmarked() {
 		distinct, pairInRing := ligandClasses(g, a, class)
 		switch {
 		case distinct:
-			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a))
+			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a, nil))
 			report(g.mol.Atoms[a].Span, "stereocentre without a configuration")
-		case l.anyMarks && l.configuredPair(a, class) && l.distinctByConfiguration(a):
+		case l.anyMarks && l.configuredPair(a, class) && l.pseudoCentre(a):
 			// constitutionally equal ligands told apart by the
 			// configurations written elsewhere: a pseudoasymmetric
 			// centre (the middle carbon of a trisubstituted glutaric
-			// acid whose ends are unlike)
-			l.unitAtoms[a] = true
-			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a))
+			// acid whose ends are unlike); pseudoCentre has added it
 			report(g.mol.Atoms[a].Span, "stereocentre (made so by the configurations around it) without a configuration")
 		case pairInRing:
 			paired = append(paired, a)
@@ -59,7 +57,7 @@ func (l *labeller) perceiveUnmarked() {
 				continue
 			}
 			l.unitAtoms[a] = true
-			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a))
+			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a, nil))
 			report(g.mol.Atoms[a].Span, "stereocentre (together with another ring atom) without a configuration")
 		}
 	}
@@ -96,8 +94,11 @@ func (l *labeller) perceiveUnmarked() {
 
 // unspecifiedCentre is the unit of an unmarked stereocentre, with its
 // ligands ranked (a ranking needs no configuration of the centre itself,
-// and the explanation is as useful before a mark is written).
-func (l *labeller) unspecifiedCentre(a int) Unit {
+// and the explanation is as useful before a mark is written). ranked is
+// a digraph of the centre whose ligands distinctByConfiguration has
+// already ranked, or nil: ranking again on it reads the comparisons
+// from its memo instead of repeating them.
+func (l *labeller) unspecifiedCentre(a int, ranked *digraph) Unit {
 	u := Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1}
 	ligs := stereoLigands(l.g.mol, a)
 	if len(ligs) == 3 {
@@ -106,8 +107,16 @@ func (l *labeller) unspecifiedCentre(a int) Unit {
 	defer l.explaining()()
 	// no Rule 6 trials: they decide a label, which an unmarked unit has not
 	t := &tetraConfig{centre: a, ligands: ligs, winding: 1, lonePair: len(l.g.mol.Atoms[a].Bonds) == 3 && l.g.hyd[a] == 0}
-	d := l.digraph(a)
-	defer l.release(d)
+	d := ranked
+	// the ranked digraph stands in for a fresh one only when a fresh one
+	// would grow the same nodes: the same ligands (a lone pair exactly
+	// when three are atoms), no node cap reached and fewer nodes than
+	// the explanation's cap, which the growth, being the same, would not
+	// have met either
+	if d == nil || t.lonePair != (len(d.ligandsOf(0, noNode)) == 3) || d.capped || len(d.nodes) >= l.nodeCap {
+		d = l.digraph(a)
+		defer l.release(d)
+	}
 	lb, _ := l.tetrahedralWith(d, t, -1)
 	if !lb.capped {
 		u.Ranked, u.Decisions = lb.ranked, lb.decisions
@@ -206,9 +215,7 @@ func (l *labeller) configuredNear(start, avoid, depth int) bool {
 // their auxiliary descriptors) can split constitutionally equal ligands.
 // Ring pairs are left to the together test: their split comes from the
 // atom's own partner across the ring.
-func (l *labeller) distinctByConfiguration(a int) bool {
-	d := l.digraph(a)
-	defer l.release(d)
+func (l *labeller) distinctByConfiguration(d *digraph, a int) bool {
 	r := l.rootRanking(d, -1, func(d *digraph) []nodeID {
 		ligs := d.ligandsOf(0, noNode)
 		if len(ligs) == 3 {
@@ -225,6 +232,19 @@ func (l *labeller) distinctByConfiguration(a int) bool {
 		}
 	}
 	return false
+}
+
+// pseudoCentre adds the unit of atom a when distinctByConfiguration
+// finds it stereogenic, ranking its ligands on the same digraph.
+func (l *labeller) pseudoCentre(a int) bool {
+	d := l.digraph(a)
+	defer l.release(d)
+	if !l.distinctByConfiguration(d, a) {
+		return false
+	}
+	l.unitAtoms[a] = true
+	l.res.Units = append(l.res.Units, l.unspecifiedCentre(a, d))
+	return true
 }
 
 // tetrahedralCapable reports whether an atom can be a tetrahedral centre

@@ -303,8 +303,8 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 	ref, mirror := d.viewState(root, r)
 	fast := root == 0 && from == d.nodes[n].parent && ref < 0 && !mirror
 	if fast {
-		if c := d.nodes[n].sorted; c != nil && c[r] != nil {
-			return c[r]
+		if i := d.nodes[n].sorted; i > 0 && d.sortTables[i-1][r] != nil {
+			return d.sortTables[i-1][r]
 		}
 	}
 	key := sortKey{n: n, from: from, root: root, level: int(r), ref: ref, mirror: mirror}
@@ -334,13 +334,14 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 	switch {
 	case bypass:
 	case fast:
-		if d.nodes[n].sorted == nil {
-			d.nodes[n].sorted = new([numRules][]nodeID)
+		if d.nodes[n].sorted == 0 {
+			d.sortTables = append(d.sortTables, [numRules][]nodeID{})
+			d.nodes[n].sorted = int32(len(d.sortTables))
 		}
 		if s == nil {
 			s = []nodeID{} // cached "no children", told apart from "not yet sorted"
 		}
-		d.nodes[n].sorted[r] = s
+		d.sortTables[d.nodes[n].sorted-1][r] = s
 	case root != 0:
 		if d.sortedAux == nil {
 			d.sortedAux = map[uint64][]nodeID{}

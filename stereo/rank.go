@@ -32,9 +32,10 @@ type ranking struct {
 // rankLigands sorts the ligands of root in the view rooted at root.
 func (d *digraph) rankLigands(root nodeID, ligs []nodeID) ranking {
 	s := append([]nodeID(nil), ligs...)
+	pairs := newPairMemo(d, root, ligs)
 	for i := 1; i < len(s); i++ {
 		for j := i; j > 0; j-- {
-			c, _, _ := d.compareChain(root, s[j], root, s[j-1], root, Rule6)
+			c, _, _ := pairs.compare(s[j], s[j-1])
 			if c <= 0 {
 				break
 			}
@@ -43,12 +44,12 @@ func (d *digraph) rankLigands(root nodeID, ligs []nodeID) ranking {
 	}
 	r := ranking{order: s}
 	for i := 0; i+1 < len(s); i++ {
-		c, rule, sphere := d.compareChain(root, s[i], root, s[i+1], root, Rule6)
+		c, rule, sphere := pairs.compare(s[i], s[i+1])
 		if c == 0 {
 			if !r.tie {
 				r.tied = append(r.tied, s[i])
 				for j := i + 1; j < len(s); j++ {
-					if c2, _, _ := d.compareChain(root, s[i], root, s[j], root, Rule6); c2 != 0 {
+					if c2, _, _ := pairs.compare(s[i], s[j]); c2 != 0 {
 						break
 					}
 					r.tied = append(r.tied, s[j])
@@ -142,4 +143,59 @@ func usesDescriptorRules(r ranking) bool {
 		}
 	}
 	return false
+}
+
+// pairMemo keeps the full-chain comparisons of the ligands of one
+// ranking: sorting and then reading the decisions of neighbours compare
+// the same pairs again, and the digraph's own memo leaves out the pairs
+// decided at once. A comparison is antisymmetric (both branches are
+// walked alike), so one entry serves both orders of a pair.
+type pairMemo struct {
+	d     *digraph
+	root  nodeID
+	ligs  []nodeID
+	known [maxMemoLigands * maxMemoLigands]bool
+	res   [maxMemoLigands * maxMemoLigands]pairResult
+}
+
+// maxMemoLigands covers every geometry the labeller ranks (four ligands
+// at most); a longer list is compared without the memo.
+const maxMemoLigands = 6
+
+type pairResult struct {
+	c, sphere int
+	rule      Rule
+}
+
+func newPairMemo(d *digraph, root nodeID, ligs []nodeID) *pairMemo {
+	return &pairMemo{d: d, root: root, ligs: ligs}
+}
+
+func (p *pairMemo) index(n nodeID) int {
+	for i, x := range p.ligs {
+		if x == n {
+			return i
+		}
+	}
+	return -1
+}
+
+// compare is compareChain up to Rule 6 for two of the ligands.
+func (p *pairMemo) compare(a, b nodeID) (int, Rule, int) {
+	i, j := p.index(a), p.index(b)
+	if i < 0 || j < 0 || len(p.ligs) > maxMemoLigands {
+		return p.d.compareChain(p.root, a, p.root, b, p.root, Rule6)
+	}
+	if k := i*maxMemoLigands + j; p.known[k] {
+		x := p.res[k]
+		return x.c, x.rule, x.sphere
+	}
+	if k := j*maxMemoLigands + i; p.known[k] {
+		x := p.res[k]
+		return -x.c, x.rule, x.sphere
+	}
+	c, rule, sphere := p.d.compareChain(p.root, a, p.root, b, p.root, Rule6)
+	k := i*maxMemoLigands + j
+	p.known[k], p.res[k] = true, pairResult{c: c, sphere: sphere, rule: rule}
+	return c, rule, sphere
 }

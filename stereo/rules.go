@@ -60,6 +60,16 @@ func init() {
 // (positive when a precedes) and the sphere, counted from the root, where
 // the difference lies.
 func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
+	if r == Rule1a && a != noNode && b != noNode {
+		// most pairs differ in their own atomic numbers: the first
+		// sphere of compareSpheres, without its memo and queues
+		if za, zb := d.nodes[a].z, d.nodes[b].z; za != zb {
+			if za > zb {
+				return 1, d.sphereOf(root, a)
+			}
+			return -1, d.sphereOf(root, a)
+		}
+	}
 	ref, mirror := d.viewState(root, r)
 	key := packCompare(root, a, af, b, bf, r, ref, mirror)
 	bypass := d.bypassMemo(root, r)

@@ -941,8 +941,12 @@ func (w *writer) alleneDropped(ends []alleneEnd) bool {
 }
 
 // textPlace is where a substituent is named in a text: the position of
-// an atom among the atoms, and a rank among the things written with it
-// (0 for the atom itself, then its ring-closure digits from 1).
+// an atom among the atoms, and a rank among the things written with it:
+// 0 for the atom itself, 1 for its implicit hydrogens, then its
+// ring-closure digits from 2. (An atom can be both a terminal atom with
+// a hydrogen and a substituent of the other end, when the cumulated
+// atoms close a ring of three; the atom comes first, as its token
+// starts before the hydrogen count inside it.)
 type textPlace struct{ atom, rank int }
 
 func (p textPlace) less(q textPlace) bool {
@@ -993,12 +997,12 @@ func (w *writer) alleneOrder(ends []alleneEnd, place func(t, b int) textPlace) (
 // the numbers say it.
 func (w *writer) readPlace(t, b int) textPlace {
 	if b < 0 {
-		return textPlace{t, 0}
+		return textPlace{t, 1}
 	}
 	if w.m.Bonds[b].Ring {
 		for i, x := range w.m.Atoms[t].Bonds {
 			if x == b {
-				return textPlace{t, 1 + i}
+				return textPlace{t, 2 + i}
 			}
 		}
 	}
@@ -1009,11 +1013,11 @@ func (w *writer) readPlace(t, b int) textPlace {
 // text being written (b < 0: where t's hydrogens stand).
 func (w *writer) writtenPlace(t, b int) textPlace {
 	if b < 0 {
-		return textPlace{w.position[t], 0}
+		return textPlace{w.position[t], 1}
 	}
 	for i, x := range w.rings[t] {
 		if x == b {
-			return textPlace{w.position[t], 1 + i}
+			return textPlace{w.position[t], 2 + i}
 		}
 	}
 	return textPlace{w.position[w.m.Bonds[b].Other(t)], 0}

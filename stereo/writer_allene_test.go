@@ -27,8 +27,10 @@ func alleneLabels(a *Analysis, atom func(int) int) map[int]Descriptor {
 // engine, centre mapped through the writer's Order. The engine orders an
 // allene's four substituents as OpenSMILES 3.9 does for extended
 // tetrahedral centres: as they appear in the text, a ring-closure
-// neighbour at its digit, an implicit hydrogen right after its terminal
-// atom's preceding atom. The compounds are the allenes of the CIP
+// neighbour at its digit, an implicit hydrogen at its terminal atom
+// (which is right after the terminal atom's preceding atom, as for a
+// tetrahedral centre, unless the other end is written in between; the
+// last hand-written case is such a text). The compounds are the allenes of the CIP
 // validation suite (Hanson et al. 2018; VS079, VS166, VS287) and
 // hand-written ones for the cases the suite lacks: hydrogens on both
 // ends, a terminal atom opening the writing, ring closures on a terminal

@@ -36,7 +36,7 @@ type node struct {
 	kids     []nodeID
 	expanded bool
 	ringDup  bool // a duplicate closing a ring (a real ligand), not an extra bond order
-	// sorted caches the children in rule order for the root's plain
+	// sorted finds the children in rule order for the root's plain
 	// view: 1 + an index into digraph.sortTables, 0 before any sort
 	sorted int32
 }
@@ -54,7 +54,12 @@ type digraph struct {
 	sortedRoot map[sortKey][]nodeID
 	free       []*[4][]step // walk queues for reuse
 	arena      []nodeID     // storage for children lists
-	sortTables [][numRules][]nodeID
+	// sortTables holds, per sorted node and rule, 1 + the offset in
+	// sorts of its children in that rule's order (as many as it has
+	// children), 0 when not sorted yet. Offsets stay valid as sorts
+	// grows, and take a sixth of the room of a table of slices.
+	sortTables [][numRules]int32
+	sorts      []nodeID
 	kidBuf     []nodeID
 	// auxRef holds the Rule 6 reference of an auxiliary ranking under
 	// way, by its root; such rankings bypass the memo at Rule 6
@@ -240,7 +245,7 @@ func (d *digraph) store(xs []nodeID) []nodeID {
 	if len(d.arena)+len(xs) > cap(d.arena) {
 		// each new block doubles, so a large digraph needs few of them
 		// and the last one, kept for reuse, fits the next digraph
-		d.arena = make([]nodeID, 0, max(1024, 2*cap(d.arena), 2*len(xs)))
+		d.arena = make([]nodeID, 0, max(256, 2*cap(d.arena), 2*len(xs)))
 	}
 	start := len(d.arena)
 	d.arena = append(d.arena, xs...)

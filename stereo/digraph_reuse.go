@@ -26,6 +26,7 @@ func (l *labeller) digraph(rootAtom int) *digraph {
 		nodes:      d.nodes[:0],
 		arena:      d.arena[:0],
 		sortTables: d.sortTables[:0],
+		sorts:      d.sorts[:0],
 		kidBuf:     d.kidBuf[:0],
 		free:       d.free,
 		compared:   reusable(d.compared),

@@ -313,8 +313,10 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 	ref, mirror := d.viewState(root, r)
 	fast := root == 0 && from == d.nodes[n].parent && ref < 0 && !mirror
 	if fast {
-		if i := d.nodes[n].sorted; i > 0 && d.sortTables[i-1][r] != nil {
-			return d.sortTables[i-1][r]
+		if i := d.nodes[n].sorted; i > 0 && d.sortTables[i-1][r] > 0 {
+			start := int(d.sortTables[i-1][r] - 1)
+			end := start + len(d.nodes[n].kids)
+			return d.sorts[start:end:end]
 		}
 	}
 	key := sortKey{n: n, from: from, root: root, level: int(r), ref: ref, mirror: mirror}
@@ -345,13 +347,13 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 	case bypass:
 	case fast:
 		if d.nodes[n].sorted == 0 {
-			d.sortTables = append(d.sortTables, [numRules][]nodeID{})
+			d.sortTables = append(d.sortTables, [numRules]int32{})
 			d.nodes[n].sorted = int32(len(d.sortTables))
 		}
-		if s == nil {
-			s = []nodeID{} // cached "no children", told apart from "not yet sorted"
-		}
-		d.sortTables[d.nodes[n].sorted-1][r] = s
+		// copied only now: the sort above may have sorted other nodes
+		// and grown sorts meanwhile
+		d.sortTables[d.nodes[n].sorted-1][r] = int32(len(d.sorts) + 1)
+		d.sorts = append(d.sorts, s...)
 	case root != 0:
 		if d.sortedAux == nil {
 			d.sortedAux = map[uint64][]nodeID{}

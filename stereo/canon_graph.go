@@ -412,17 +412,33 @@ func (g *keyGraph) cumulated(a int) bool {
 // order OpenSMILES reads an extended tetrahedral mark: by position in the
 // text, a hydrogen standing at its terminal atom's position.
 func (g *keyGraph) alleneLigands(ends, inner [2]int) (ligs, ligEnd []int) {
-	type lig struct{ atom, end, key int }
+	type lig struct {
+		atom, end int
+		key       float64
+	}
+	m := g.mol
 	var ls []lig
 	for e := 0; e < 2; e++ {
 		t := ends[e]
 		for _, x := range g.adj[t] {
-			if x.to != inner[e] {
-				ls = append(ls, lig{x.to, e, 2*x.to + 1})
+			if x.to == inner[e] {
+				continue
 			}
+			// an ordinary neighbour stands where it is written, a ring
+			// closure at its digit on t
+			key := float64(m.Atoms[x.to].Span.Start)
+			if bi := m.BondBetween(t, x.to); bi >= 0 && m.Bonds[bi].Ring {
+				b := &m.Bonds[bi]
+				if b.Begin == t {
+					key = float64(b.Span.Start) + 0.5
+				} else {
+					key = float64(b.CloseSpan.Start) + 0.5
+				}
+			}
+			ls = append(ls, lig{x.to, e, key})
 		}
 		for h := 0; h < g.hydro[t]; h++ {
-			ls = append(ls, lig{hLigand, e, 2 * t})
+			ls = append(ls, lig{hLigand, e, float64(m.Atoms[t].Span.Start) + 0.25})
 		}
 	}
 	for i := 1; i < len(ls); i++ {

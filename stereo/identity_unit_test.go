@@ -97,9 +97,9 @@ func TestStereoisomerCounts(t *testing.T) {
 
 // TestKeyOverWriterWritings: every random writing the project's writer
 // makes of a fixture molecule (OpenSMILES allows many) must give the
-// molecule's key. The writer rewrites tetrahedral and bond marks for the
-// new order; allene and higher marks it copies as written, so molecules
-// with those are left out (Written.Unadjusted).
+// molecule's key. The writer rewrites every mark for the new order; the
+// few it cannot (Written.Unadjusted: an allene with a CH2 end) are left
+// out.
 func TestKeyOverWriterWritings(t *testing.T) {
 	mols := fixtureMolecules(t, 300)
 	bad := 0

@@ -25,20 +25,22 @@ const (
 
 // node is one vertex of the digraph.
 type node struct {
-	atom     int // atom index; -1 for hydrogens and lone pairs
-	kind     nodeKind
-	parent   nodeID
-	depth    int
-	z        float64 // atomic number (averaged for mancude duplicates)
-	mass     float64
-	corr     nodeID // for a duplicate: the node of the atom it duplicates
-	bond     int    // bond to the parent; -1 for the root and implicit atoms
-	kids     []nodeID
-	expanded bool
-	ringDup  bool // a duplicate closing a ring (a real ligand), not an extra bond order
+	atom int     // atom index; -1 for hydrogens and lone pairs
+	z    float64 // atomic number (averaged for mancude duplicates)
+	mass float64
+	kids []nodeID
+	// the narrow fields come last, packed, to keep the node small: a
+	// digraph holds many and copies them as it grows
+	parent nodeID
+	depth  int32
+	corr   nodeID // for a duplicate: the node of the atom it duplicates
+	bond   int32  // bond to the parent; -1 for the root and implicit atoms
 	// sorted finds the children in rule order for the root's plain
 	// view: 1 + an index into digraph.sortTables, 0 before any sort
-	sorted int32
+	sorted   int32
+	kind     nodeKind
+	expanded bool
+	ringDup  bool // a duplicate closing a ring (a real ligand), not an extra bond order
 }
 
 // digraph is one hierarchical digraph. It belongs to one labelling call
@@ -98,7 +100,7 @@ func newDigraph(g *graph, cfg *configs, rootAtom int, limit int) *digraph {
 	// the maps are made on first use: most digraphs decide at the first
 	// spheres and never need them
 	d := &digraph{g: g, limit: limit, cfg: cfg, refAtom: -1}
-	d.nodes = make([]node, 0, 64)
+	d.nodes = make([]node, 0, 32)
 	d.addRoot(rootAtom)
 	return d
 }
@@ -168,11 +170,11 @@ func (d *digraph) expand(n nodeID) {
 		return g.mass[of]
 	}
 	for _, e := range g.adj[a] {
-		if e.bond == x.bond {
+		if int32(e.bond) == x.bond {
 			// the bond back to the parent: only its extra orders appear
 			for i := 1; i < e.cip; i++ {
 				push(d.add(node{atom: e.to, kind: nodeDuplicate, parent: n, depth: x.depth + 1,
-					z: dupZ(a, e.to, e.bond), mass: dupMass(a, e.to, e.bond), corr: x.parent, bond: e.bond, expanded: true}))
+					z: dupZ(a, e.to, e.bond), mass: dupMass(a, e.to, e.bond), corr: x.parent, bond: int32(e.bond), expanded: true}))
 			}
 			continue
 		}
@@ -184,19 +186,19 @@ func (d *digraph) expand(n nodeID) {
 					z, mass = dupZ(a, e.to, e.bond), dupMass(a, e.to, e.bond)
 				}
 				push(d.add(node{atom: e.to, kind: nodeDuplicate, parent: n, depth: x.depth + 1,
-					z: z, mass: mass, corr: anc, bond: e.bond, expanded: true, ringDup: i == 0}))
+					z: z, mass: mass, corr: anc, bond: int32(e.bond), expanded: true, ringDup: i == 0}))
 			}
 			continue
 		}
 		k := d.add(node{atom: e.to, kind: nodeAtom, parent: n, depth: x.depth + 1, corr: noNode,
-			z: float64(g.z[e.to]), mass: g.mass[e.to], bond: e.bond})
+			z: float64(g.z[e.to]), mass: g.mass[e.to], bond: int32(e.bond)})
 		if k == noNode {
 			break
 		}
 		push(k)
 		for i := 1; i < e.cip; i++ {
 			push(d.add(node{atom: e.to, kind: nodeDuplicate, parent: n, depth: x.depth + 1,
-				z: dupZ(a, e.to, e.bond), mass: dupMass(a, e.to, e.bond), corr: k, bond: e.bond, expanded: true}))
+				z: dupZ(a, e.to, e.bond), mass: dupMass(a, e.to, e.bond), corr: k, bond: int32(e.bond), expanded: true}))
 		}
 	}
 	for i := 0; i < g.hyd[a]; i++ {
@@ -254,7 +256,7 @@ func (d *digraph) store(xs []nodeID) []nodeID {
 
 // treeDistance is the number of edges between two nodes of the tree.
 func (d *digraph) treeDistance(a, b nodeID) int {
-	da, db := d.nodes[a].depth, d.nodes[b].depth
+	da, db := int(d.nodes[a].depth), int(d.nodes[b].depth)
 	n := 0
 	for da > db {
 		a = d.nodes[a].parent

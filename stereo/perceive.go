@@ -10,7 +10,10 @@ import "stereoline/notation"
 // pair of equal ring branches, as in 1,4-disubstituted cyclohexanes).
 func (l *labeller) perceiveUnmarked() {
 	g := l.g
-	class := symmetryClasses(g)
+	// the classes are computed on first use: a molecule whose every
+	// candidate is marked, or fails a test that needs no classes, never
+	// pays for them
+	class := &lazyClasses{g: g}
 	sev := notation.SeverityHint
 	if l.anyMarks {
 		sev = notation.SeverityInformation
@@ -153,16 +156,20 @@ func (l *labeller) unspecifiedBond(a, b, bi int) Unit {
 // atom has exactly one pair of constitutionally equal ligands, and each
 // of the pair leads to a configured atom within a few bonds. Three or
 // more equal ligands (a branch point of a dendrimer) are left alone.
-func (l *labeller) configuredPair(a int, class []int) bool {
+func (l *labeller) configuredPair(a int, class *lazyClasses) bool {
 	g := l.g
-	count := map[int]int{}
-	for _, e := range g.adj[a] {
-		count[class[e.to]]++
+	count := func(k int) (n int) {
+		for _, e := range g.adj[a] {
+			if class.of(e.to) == k {
+				n++
+			}
+		}
+		return n
 	}
 	var pair []int
 	ringPair := 0
 	for _, e := range g.adj[a] {
-		switch count[class[e.to]] {
+		switch count(class.of(e.to)) {
 		case 2:
 			pair = append(pair, e.to)
 			if g.ringBond[e.bond] {
@@ -272,21 +279,20 @@ func tetrahedralCapable(g *graph, a int) bool {
 // ligandClasses says whether the ligands of a fall in distinct symmetry
 // classes, and otherwise whether exactly one pair is equal and both of
 // that pair are ring bonds.
-func ligandClasses(g *graph, a int, class []int) (distinct, pairInRing bool) {
-	seen := map[int]int{}
-	if g.hyd[a] == 1 {
-		seen[-1] = -1
-	}
+func ligandClasses(g *graph, a int, class *lazyClasses) (distinct, pairInRing bool) {
 	pairs := 0
 	ringPair := false
-	for _, e := range g.adj[a] {
-		k := class[e.to]
-		if prev, ok := seen[k]; ok {
-			pairs++
-			ringPair = g.ringBond[e.bond] && prev >= 0 && g.ringBond[prev]
-			continue
+	adj := g.adj[a]
+	for i, e := range adj {
+		k := class.of(e.to)
+		for _, prev := range adj[:i] {
+			if class.of(prev.to) == k {
+				// one pair per later ligand, as a set of seen classes counts
+				pairs++
+				ringPair = g.ringBond[e.bond] && g.ringBond[prev.bond]
+				break
+			}
 		}
-		seen[k] = e.bond
 	}
 	return pairs == 0, pairs == 1 && ringPair
 }
@@ -294,18 +300,23 @@ func ligandClasses(g *graph, a int, class []int) (distinct, pairInRing bool) {
 // terminalDistinct reports whether the terminal atom t of a cumulene
 // (bonded to the chain through inner) carries two ligands of different
 // classes, a hydrogen counting as one.
-func terminalDistinct(g *graph, t, inner int, class []int) bool {
-	var others []int
+func terminalDistinct(g *graph, t, inner int, class *lazyClasses) bool {
+	var others [2]int
+	n := 0
 	for _, e := range g.adj[t] {
 		if e.to != inner {
-			others = append(others, class[e.to])
+			if n == len(others) {
+				return false
+			}
+			others[n] = e.to
+			n++
 		}
 	}
-	switch len(others) {
+	switch n {
 	case 1:
 		return g.hyd[t] == 1
 	case 2:
-		return others[0] != others[1] && g.hyd[t] == 0
+		return g.hyd[t] == 0 && class.of(others[0]) != class.of(others[1])
 	}
 	return false
 }
@@ -313,20 +324,39 @@ func terminalDistinct(g *graph, t, inner int, class []int) bool {
 // bondEndDistinct reports whether end a of the double bond a=b carries
 // two ligands of different classes (a hydrogen or lone pair counting as
 // one).
-func bondEndDistinct(g *graph, a, b int, class []int) bool {
-	var others []int
+func bondEndDistinct(g *graph, a, b int, class *lazyClasses) bool {
+	var others [2]int
+	n := 0
 	for _, e := range g.adj[a] {
 		if e.to != b {
-			others = append(others, class[e.to])
+			if n == len(others) {
+				return false
+			}
+			others[n] = e.to
+			n++
 		}
 	}
-	switch len(others) {
+	switch n {
 	case 1:
 		return g.hyd[a] == 1 || (g.hyd[a] == 0 && g.z[a] == notation.ElemN)
 	case 2:
-		return others[0] != others[1]
+		return class.of(others[0]) != class.of(others[1])
 	}
 	return false
+}
+
+// lazyClasses computes the symmetry classes on first use.
+type lazyClasses struct {
+	g     *graph
+	class []int
+}
+
+// of returns the symmetry class of atom a.
+func (c *lazyClasses) of(a int) int {
+	if c.class == nil {
+		c.class = symmetryClasses(c.g)
+	}
+	return c.class[a]
 }
 
 // symmetryClasses partitions the atoms by constitution: atoms start in

@@ -83,7 +83,7 @@ func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
 		c, s = d.compareSpheres(root, a, af, b, bf, r)
 	}
 	// a difference found at once is cheaper to find again than to keep
-	if !d.capped && !bypass && (c == 0 || s > d.nodes[a].depth-d.nodes[root].depth+1) {
+	if !d.capped && !bypass && (c == 0 || s > int(d.nodes[a].depth-d.nodes[root].depth)+1) {
 		if d.compared == nil {
 			d.compared = map[[2]uint64][2]int32{}
 		}

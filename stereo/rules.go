@@ -70,6 +70,18 @@ func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
 			return -1, d.sphereOf(root, a)
 		}
 	}
+	if r != Rule4b && a != noNode && b != noNode && d.nodes[a].kind != nodeAtom && d.nodes[b].kind != nodeAtom {
+		// duplicates, hydrogens and lone pairs have no branches of
+		// their own: their own values decide, or nothing does
+		va, vb := nodeRules[r](d, root, a), nodeRules[r](d, root, b)
+		switch {
+		case va > vb:
+			return 1, d.sphereOf(root, a)
+		case va < vb:
+			return -1, d.sphereOf(root, a)
+		}
+		return 0, 0
+	}
 	ref, mirror := d.viewState(root, r)
 	key := packCompare(root, a, af, b, bf, r, ref, mirror)
 	bypass := d.bypassMemo(root, r)

@@ -62,9 +62,12 @@ func chalcogen(z int) bool {
 func newGraph(m *notation.Molecule) *graph {
 	g := &graph{mol: m, n: len(m.Atoms)}
 	g.adj = make([][]edge, g.n)
-	g.hyd = make([]int, g.n)
-	g.z = make([]int, g.n)
-	g.mass = make([]float64, g.n)
+	// the per-atom tables are windows of a few shared arrays: a graph
+	// is built for every Analyze call, and small allocations add up
+	ints := make([]int, 2*g.n)
+	g.hyd, g.z = ints[:g.n:g.n], ints[g.n:]
+	floats := make([]float64, 3*g.n)
+	g.mass, g.mancudeZ, g.mancudeM = floats[:g.n:g.n], floats[g.n:2*g.n:2*g.n], floats[2*g.n:]
 	// every neighbour list is a window of one array: one allocation
 	// for the molecule instead of a few for each atom
 	total := 0
@@ -134,18 +137,19 @@ func (g *graph) doubleBonds(a int) (n int) {
 // other that avoids the bond itself).
 func (g *graph) findRings() {
 	m := g.mol
-	g.ringBond = make([]bool, len(m.Bonds))
-	g.smallRing = make([]int, len(m.Bonds))
-	g.ringOf = make([][]int, len(m.Bonds))
-	g.ringAtom = make([]bool, g.n)
+	nb := len(m.Bonds)
+	bools := make([]bool, nb+g.n)
+	g.ringBond, g.ringAtom = bools[:nb:nb], bools[nb:]
+	g.smallRing = make([]int, nb)
+	g.ringOf = make([][]int, nb)
 	cyclic := g.cyclicBonds()
 	var seen map[uint64]bool
-	prev := make([]int, g.n)
-	dist := make([]int, g.n)
+	scratch := make([]int, 2*g.n)
+	prev, dist := scratch[:g.n], scratch[g.n:]
 	var touched, queue, sortBuf []int
 	// the rings share one backing array, capped per ring so that
 	// appending to one cannot overwrite the next
-	var ringStore []int
+	var ringStore []int // sized when the first ring is found
 	for i := range dist {
 		dist[i] = -1
 	}
@@ -185,7 +189,7 @@ func (g *graph) findRings() {
 		g.ringBond[bi] = true
 		size := dist[dst] + 1
 		if len(ringStore)+size > cap(ringStore) {
-			ringStore = make([]int, 0, max(256, 2*cap(ringStore), size))
+			ringStore = make([]int, 0, max(6*len(m.Bonds), 2*cap(ringStore), size))
 		}
 		start := len(ringStore)
 		ringStore = append(ringStore, dst)
@@ -220,18 +224,19 @@ func (g *graph) cyclicBonds() []bool {
 	for i := range cyclic {
 		cyclic[i] = true
 	}
-	order := make([]int, g.n)
-	low := make([]int, g.n)
+	scratch := make([]int, 2*g.n)
+	order, low := scratch[:g.n], scratch[g.n:]
 	for i := range order {
 		order[i] = -1
 	}
 	type frame struct{ v, viaBond, next int }
+	var stack []frame
 	counter := 0
 	for s := 0; s < g.n; s++ {
 		if order[s] >= 0 {
 			continue
 		}
-		stack := []frame{{s, -1, 0}}
+		stack = append(stack[:0], frame{s, -1, 0})
 		order[s], low[s] = counter, counter
 		counter++
 		for len(stack) > 0 {
@@ -296,9 +301,8 @@ func ringKey(s []int) uint64 {
 // finds perimeter systems that no smallest ring describes (the
 // fourteen-atom perimeter of an azaphenalene dimer, VS215 of the suite).
 func (g *graph) findMancude() {
-	g.mancudeZ = make([]float64, g.n)
-	g.mancudeM = make([]float64, g.n)
-	partner := make([]int, g.n)
+	scratch := make([]int, 2*g.n)
+	partner, seen := scratch[:g.n], scratch[g.n:]
 	for a := 0; a < g.n; a++ {
 		partner[a] = -1
 		dbl := 0
@@ -319,8 +323,8 @@ func (g *graph) findMancude() {
 			partner[a] = -1
 		}
 	}
-	seen := make([]int, g.n)
 	stamp := 0
+	var queue []int
 	for a := 0; a < g.n; a++ {
 		if partner[a] < 0 {
 			continue
@@ -333,7 +337,8 @@ func (g *graph) findMancude() {
 				continue
 			}
 			stamp++
-			if g.alternatingCycle(a, v, partner, seen, stamp) {
+			var found bool
+			if found, queue = g.alternatingCycle(a, v, partner, seen, stamp, queue); found {
 				zs += float64(g.z[v])
 				ms += g.mass[v]
 				count++
@@ -348,21 +353,21 @@ func (g *graph) findMancude() {
 
 // alternatingCycle reports whether the single bond a-v lies on a cycle
 // alternating between matched (double) and unmatched ring bonds:
-// a - v = partner(v) - ... - partner(a) = a.
-func (g *graph) alternatingCycle(a, v int, partner, seen []int, stamp int) bool {
+// a - v = partner(v) - ... - partner(a) = a. queue is scratch space,
+// returned for the next call.
+func (g *graph) alternatingCycle(a, v int, partner, seen []int, stamp int, queue []int) (bool, []int) {
 	target := partner[a]
-	queue := []int{partner[v]}
+	queue = append(queue[:0], partner[v])
 	seen[v], seen[partner[v]], seen[a] = stamp, stamp, stamp
-	for len(queue) > 0 {
-		x := queue[0]
-		queue = queue[1:]
+	for head := 0; head < len(queue); head++ {
+		x := queue[head]
 		for _, e := range g.adj[x] {
 			y := e.to
 			if e.order != 1 || !g.ringBond[e.bond] || partner[y] < 0 || seen[y] == stamp {
 				continue
 			}
 			if y == target {
-				return true
+				return true, queue
 			}
 			seen[y] = stamp
 			if w := partner[y]; seen[w] != stamp {
@@ -371,7 +376,7 @@ func (g *graph) alternatingCycle(a, v int, partner, seen []int, stamp int) bool 
 			}
 		}
 	}
-	return false
+	return false, queue
 }
 
 // inMancude reports whether the bond joins two atoms of one mancude

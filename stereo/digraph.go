@@ -71,6 +71,10 @@ type digraph struct {
 	cfg    *configs
 	// refAtom is the Rule 6 reference, -1 when none is chosen.
 	refAtom int
+	// otherCentres is set when an atom other than the root carries a
+	// tetrahedral or allene configuration: without one, Rules 4a to 5
+	// meet no descriptor and cannot split anything.
+	otherCentres bool
 	// mirror makes the root's view see the auxiliary descriptors of the
 	// mirror image (R and S swapped, r and s kept), to test whether a
 	// ranking is pseudoasymmetric.
@@ -107,6 +111,14 @@ func newDigraph(g *graph, cfg *configs, rootAtom int, limit int) *digraph {
 
 // addRoot adds the root node to an empty digraph.
 func (d *digraph) addRoot(rootAtom int) {
+	centres := len(d.cfg.tetra) + len(d.cfg.allene)
+	if _, ok := d.cfg.tetra[rootAtom]; ok {
+		centres--
+	}
+	if _, ok := d.cfg.allene[rootAtom]; ok {
+		centres--
+	}
+	d.otherCentres = centres > 0
 	d.nodes = append(d.nodes, node{atom: rootAtom, kind: nodeAtom, parent: noNode, corr: noNode, bond: -1,
 		z: float64(d.g.z[rootAtom]), mass: d.g.mass[rootAtom]})
 }

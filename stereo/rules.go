@@ -60,6 +60,9 @@ func init() {
 // (positive when a precedes) and the sphere, counted from the root, where
 // the difference lies.
 func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
+	if !d.canSplit(root, r) {
+		return 0, 0
+	}
 	if r == Rule1a && a != noNode && b != noNode {
 		// most pairs differ in their own atomic numbers: the first
 		// sphere of compareSpheres, without its memo and queues
@@ -102,6 +105,27 @@ func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
 		d.compared[key] = [2]int32{int32(c), int32(s)}
 	}
 	return c, s
+}
+
+// canSplit reports whether rule r can tell any two branches of the view
+// rooted at root apart. Every node of a rule that cannot has the same
+// value, so the walk, which would go to the end of both branches, is
+// skipped: Rule 3 needs a configured double bond, Rules 4a to 5 a
+// configured centre other than the root, Rule 6 a reference.
+func (d *digraph) canSplit(root nodeID, r Rule) bool {
+	switch {
+	case r == Rule3:
+		return len(d.cfg.bonds) > 0
+	case r >= Rule4a && r <= Rule5:
+		return d.otherCentres
+	case r == Rule6:
+		if root == 0 {
+			return d.refAtom >= 0
+		}
+		_, ok := d.auxRef[root]
+		return ok
+	}
+	return true
 }
 
 // bypassMemo reports a comparison whose result depends on an auxiliary

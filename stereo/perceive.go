@@ -88,7 +88,7 @@ func (l *labeller) perceiveUnmarked() {
 		if s := g.smallRing[bi]; s > 0 && s < 8 {
 			continue
 		}
-		if bondEndDistinct(g, b.Begin, b.End, class) && bondEndDistinct(g, b.End, b.Begin, class) {
+		if bondEndsDistinct(g, b.Begin, b.End, class) {
 			l.res.Units = append(l.res.Units, l.unspecifiedBond(b.Begin, b.End, bi))
 			report(b.Span, "stereogenic double bond without a configuration")
 		}
@@ -321,28 +321,55 @@ func terminalDistinct(g *graph, t, inner int, class *lazyClasses) bool {
 	return false
 }
 
-// bondEndDistinct reports whether end a of the double bond a=b carries
-// two ligands of different classes (a hydrogen or lone pair counting as
-// one).
-func bondEndDistinct(g *graph, a, b int, class *lazyClasses) bool {
-	var others [2]int
-	n := 0
+// bondEndsDistinct reports whether each end of the double bond a=b
+// carries two ligands of different classes (a hydrogen or lone pair
+// counting as one). The tests that need no classes are made at both
+// ends first, so that a carbonyl does not make the classes be computed.
+func bondEndsDistinct(g *graph, a, b int, class *lazyClasses) bool {
+	ea, ok := bondEnd(g, a, b)
+	if !ok {
+		return false
+	}
+	eb, ok := bondEnd(g, b, a)
+	if !ok {
+		return false
+	}
+	return ea.distinct(class) && eb.distinct(class)
+}
+
+// doubleBondEnd holds the neighbours of one end of a double bond other
+// than its partner, when there are one or two.
+type doubleBondEnd struct {
+	others [2]int
+	n      int
+}
+
+// bondEnd collects the neighbours of end a of a=b, and reports false
+// when the end cannot carry two different ligands whatever the classes:
+// too many or too few neighbours, or a single one beside neither a
+// hydrogen nor the lone pair of an imine nitrogen.
+func bondEnd(g *graph, a, b int) (doubleBondEnd, bool) {
+	var end doubleBondEnd
 	for _, e := range g.adj[a] {
 		if e.to != b {
-			if n == len(others) {
-				return false
+			if end.n == len(end.others) {
+				return end, false
 			}
-			others[n] = e.to
-			n++
+			end.others[end.n] = e.to
+			end.n++
 		}
 	}
-	switch n {
+	switch end.n {
 	case 1:
-		return g.hyd[a] == 1 || (g.hyd[a] == 0 && g.z[a] == notation.ElemN)
+		return end, g.hyd[a] == 1 || (g.hyd[a] == 0 && g.z[a] == notation.ElemN)
 	case 2:
-		return class.of(others[0]) != class.of(others[1])
+		return end, true
 	}
-	return false
+	return end, false
+}
+
+func (e doubleBondEnd) distinct(class *lazyClasses) bool {
+	return e.n == 1 || class.of(e.others[0]) != class.of(e.others[1])
 }
 
 // lazyClasses computes the symmetry classes on first use.

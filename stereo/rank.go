@@ -42,7 +42,7 @@ func (d *digraph) rankLigands(root nodeID, ligs []nodeID) ranking {
 			s[j], s[j-1] = s[j-1], s[j]
 		}
 	}
-	r := ranking{order: s}
+	r := ranking{order: s, decisions: make([]Decision, 0, max(len(s)-1, 0))}
 	for i := 0; i+1 < len(s); i++ {
 		c, rule, sphere := pairs.compare(s[i], s[i+1])
 		if c == 0 {

@@ -40,6 +40,7 @@ func (l *labeller) tetrahedralWith(d *digraph, t *tetraConfig, ref int) (label, 
 	ligs := make([]nodeID, n3)
 	out := label{capped: d.capped, tie: r.tie}
 	out.decisions = r.decisions
+	out.ranked = make([]RankedLigand, 0, len(r.order))
 	for i, n := range r.order {
 		out.ranked = append(out.ranked, RankedLigand{Rank: i + 1, Atom: d.ligandAtom(n), LonePair: d.nodes[n].kind == nodeLonePair})
 	}

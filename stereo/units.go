@@ -1,6 +1,7 @@
 package stereo
 
 import (
+	"slices"
 	"sort"
 
 	"stereoline/notation"
@@ -8,6 +9,8 @@ import (
 
 // labelAll labels every unit that carries a configuration.
 func (l *labeller) labelAll() {
+	// room for every marked unit, grown once
+	l.res.Units = slices.Grow(l.res.Units, len(l.cfg.tetra)+len(l.cfg.bonds)+len(l.cfg.allene)+len(l.cfg.higher)+len(l.oneSided))
 	for _, a := range sortedKeys(l.cfg.tetra) {
 		t := l.cfg.tetra[a]
 		l.unitAtoms[a] = true

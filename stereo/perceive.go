@@ -120,7 +120,7 @@ func (l *labeller) unspecifiedCentre(a int, ranked *digraph) Unit {
 		d = l.digraph(a)
 		defer l.release(d)
 	}
-	lb, _ := l.tetrahedralWith(d, t, -1)
+	lb, _ := l.tetrahedralWith(d, t, -1, false)
 	if !lb.capped {
 		u.Ranked, u.Decisions = lb.ranked, lb.decisions
 	}
@@ -223,7 +223,8 @@ func (l *labeller) configuredNear(start, avoid, depth int) bool {
 // Ring pairs are left to the together test: their split comes from the
 // atom's own partner across the ring.
 func (l *labeller) distinctByConfiguration(d *digraph, a int) bool {
-	r := l.rootRanking(d, -1, func(d *digraph) []nodeID {
+	// the decisions tell; whether the label would be lowercase does not
+	r, _ := l.plainRanking(d, -1, func(d *digraph) []nodeID {
 		ligs := d.ligandsOf(0, noNode)
 		if len(ligs) == 3 {
 			ligs = append(ligs, d.lonePair(0))

@@ -1,5 +1,7 @@
 package stereo
 
+import "slices"
+
 // Ranking the ligands of one stereogenic unit and keeping the reasons.
 
 // Decision records how two neighbouring ligands in the final order were
@@ -111,10 +113,7 @@ func tetrahedralDescriptor(ranks []int, winding int) Descriptor {
 // is, which is what lowercase labels mean (P-92.1.3.4). The mirror view
 // reuses the digraph and its auxiliary descriptors.
 func (l *labeller) rootRanking(d *digraph, ref int, pick func(d *digraph) []nodeID) ranking {
-	d.refAtom, d.mirror = ref, false
-	ligs := pick(d)
-	r := d.rankLigands(0, ligs)
-	r.pseudo = false
+	r, ligs := l.plainRanking(d, ref, pick)
 	if r.tie || d.capped || !usesDescriptorRules(r) {
 		return r
 	}
@@ -124,16 +123,25 @@ func (l *labeller) rootRanking(d *digraph, ref int, pick func(d *digraph) []node
 	if mr.tie || d.capped || len(mr.order) != len(r.order) {
 		return r
 	}
-	pos := map[nodeID]int{}
-	for i, n := range r.order {
-		pos[n] = i
-	}
 	perm := make([]int, len(mr.order))
 	for i, n := range mr.order {
-		perm[i] = pos[n]
+		// a handful of ligands: a search beats a map
+		perm[i] = slices.Index(r.order, n)
 	}
 	r.pseudo = inversions(perm)%2 == 1
 	return r
+}
+
+// plainRanking is rootRanking without the mirror-image test, for the
+// rankings whose order and decisions are wanted but not a label (an
+// unmarked centre has none): pseudo is always false. It also returns
+// the ligands pick chose.
+func (l *labeller) plainRanking(d *digraph, ref int, pick func(d *digraph) []nodeID) (ranking, []nodeID) {
+	d.refAtom, d.mirror = ref, false
+	ligs := pick(d)
+	r := d.rankLigands(0, ligs)
+	r.pseudo = false
+	return r, ligs
 }
 
 func usesDescriptorRules(r ranking) bool {

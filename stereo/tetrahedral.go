@@ -15,10 +15,10 @@ type label struct {
 func (l *labeller) tetrahedral(t *tetraConfig) label {
 	d := l.digraph(t.centre)
 	defer l.release(d)
-	lb, cands := l.tetrahedralWith(d, t, -1)
+	lb, cands := l.tetrahedralWith(d, t, -1, true)
 	if lb.tie && !lb.capped {
 		lb = l.withReference(lb, cands, func(ref int) label {
-			x, _ := l.tetrahedralWith(d, t, ref)
+			x, _ := l.tetrahedralWith(d, t, ref, true)
 			return x
 		})
 	}
@@ -26,17 +26,26 @@ func (l *labeller) tetrahedral(t *tetraConfig) label {
 }
 
 // tetrahedralWith labels a centre with a given Rule 6 reference atom (-1
-// for none) and returns the atoms of the ligands left tied.
-func (l *labeller) tetrahedralWith(d *digraph, t *tetraConfig, ref int) (label, []int) {
+// for none) and returns the atoms of the ligands left tied. Without
+// wantLabel only the ranking counts (an unmarked centre): the
+// mirror-image test for a pseudoasymmetric label is left out, and the
+// descriptor is never lowercase.
+func (l *labeller) tetrahedralWith(d *digraph, t *tetraConfig, ref int, wantLabel bool) (label, []int) {
 	var n3 int
-	r := l.rootRanking(d, ref, func(d *digraph) []nodeID {
+	pick := func(d *digraph) []nodeID {
 		ligs := d.ligandsOf(0, noNode)
 		if t.lonePair && len(ligs) == 3 {
 			ligs = append(ligs, d.lonePair(0))
 		}
 		n3 = len(ligs)
 		return ligs
-	})
+	}
+	var r ranking
+	if wantLabel {
+		r = l.rootRanking(d, ref, pick)
+	} else {
+		r, _ = l.plainRanking(d, ref, pick)
+	}
 	ligs := make([]nodeID, n3)
 	out := label{capped: d.capped, tie: r.tie}
 	out.decisions = r.decisions

@@ -104,7 +104,7 @@ func newDigraph(g *graph, cfg *configs, rootAtom int, limit int) *digraph {
 	// the maps are made on first use: most digraphs decide at the first
 	// spheres and never need them
 	d := &digraph{g: g, limit: limit, cfg: cfg, refAtom: -1}
-	d.nodes = make([]node, 0, 32)
+	d.nodes = make([]node, 0, 16)
 	d.addRoot(rootAtom)
 	return d
 }
@@ -259,7 +259,7 @@ func (d *digraph) store(xs []nodeID) []nodeID {
 	if len(d.arena)+len(xs) > cap(d.arena) {
 		// each new block doubles, so a large digraph needs few of them
 		// and the last one, kept for reuse, fits the next digraph
-		d.arena = make([]nodeID, 0, max(256, 2*cap(d.arena), 2*len(xs)))
+		d.arena = make([]nodeID, 0, max(64, 2*cap(d.arena), 2*len(xs)))
 	}
 	start := len(d.arena)
 	d.arena = append(d.arena, xs...)

@@ -28,13 +28,15 @@ type node struct {
 	atom int     // atom index; -1 for hydrogens and lone pairs
 	z    float64 // atomic number (averaged for mancude duplicates)
 	mass float64
-	kids []nodeID
 	// the narrow fields come last, packed, to keep the node small: a
-	// digraph holds many and copies them as it grows
-	parent nodeID
-	depth  int32
-	corr   nodeID // for a duplicate: the node of the atom it duplicates
-	bond   int32  // bond to the parent; -1 for the root and implicit atoms
+	// digraph holds many and copies them as it grows. A node holds no
+	// pointer (its children are a window of the arena, by offset), so the
+	// collector need not scan the node table.
+	kidStart, kidCount int32
+	parent             nodeID
+	depth              int32
+	corr               nodeID // for a duplicate: the node of the atom it duplicates
+	bond               int32  // bond to the parent; -1 for the root and implicit atoms
 	// sorted finds the children in rule order for the root's plain
 	// view: 1 + an index into digraph.sortTables, 0 before any sort
 	sorted   int32
@@ -141,7 +143,9 @@ func (d *digraph) kids(n nodeID) []nodeID {
 	if !d.nodes[n].expanded {
 		d.expand(n)
 	}
-	return d.nodes[n].kids
+	x := &d.nodes[n]
+	end := x.kidStart + x.kidCount
+	return d.arena[x.kidStart:end:end]
 }
 
 // onPath returns the node on the path from the root to n (n included)
@@ -219,7 +223,8 @@ func (d *digraph) expand(n nodeID) {
 	}
 	// children live in one arena per digraph: a few large allocations
 	// instead of one per node
-	d.nodes[n].kids = d.store(kids)
+	d.nodes[n].kidStart, d.nodes[n].kidCount = int32(len(d.arena)), int32(len(kids))
+	d.store(kids)
 	d.kidBuf = kids[:0]
 }
 
@@ -250,16 +255,13 @@ func (d *digraph) neighbours(n, from nodeID) []nodeID {
 	return d.store(out)
 }
 
-// store copies a list of nodes into the digraph's arena and returns the
-// copy, capped so that appending to it cannot overwrite its neighbours.
+// store copies a list of nodes to the end of the digraph's arena and
+// returns the copy, capped so that appending to it cannot overwrite its
+// neighbours. The arena only grows: a copy handed out earlier keeps its
+// contents when the arena moves, and children are found by offset.
 func (d *digraph) store(xs []nodeID) []nodeID {
 	if len(xs) == 0 {
 		return nil
-	}
-	if len(d.arena)+len(xs) > cap(d.arena) {
-		// each new block doubles, so a large digraph needs few of them
-		// and the last one, kept for reuse, fits the next digraph
-		d.arena = make([]nodeID, 0, max(64, 2*cap(d.arena), 2*len(xs)))
 	}
 	start := len(d.arena)
 	d.arena = append(d.arena, xs...)

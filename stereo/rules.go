@@ -351,7 +351,7 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 	if fast {
 		if i := d.nodes[n].sorted; i > 0 && d.sortTables[i-1][r] > 0 {
 			start := int(d.sortTables[i-1][r] - 1)
-			end := start + len(d.nodes[n].kids)
+			end := start + int(d.nodes[n].kidCount)
 			return d.sorts[start:end:end]
 		}
 	}

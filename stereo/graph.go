@@ -146,7 +146,7 @@ func (g *graph) findRings() {
 	var seen map[uint64]bool
 	scratch := make([]int, 2*g.n)
 	prev, dist := scratch[:g.n], scratch[g.n:]
-	var touched, queue, sortBuf []int
+	var touched, queue []int
 	// the rings share one backing array, capped per ring so that
 	// appending to one cannot overwrite the next
 	var ringStore []int // sized when the first ring is found
@@ -203,8 +203,7 @@ func (g *graph) findRings() {
 		for _, a := range ring {
 			g.ringAtom[a] = true
 		}
-		sortBuf = append(sortBuf[:0], ring...)
-		key := ringKey(sortBuf)
+		key := ringKey(ring)
 		if seen == nil {
 			seen = map[uint64]bool{}
 		}
@@ -271,20 +270,18 @@ func (g *graph) cyclicBonds() []bool {
 	return cyclic
 }
 
-// ringKey names a ring by a 64-bit hash of its sorted atoms (FNV-1a).
-// It sorts s in place: callers pass a copy.
-func ringKey(s []int) uint64 {
-	for i := 1; i < len(s); i++ {
-		for j := i; j > 0 && s[j] < s[j-1]; j-- {
-			s[j], s[j-1] = s[j-1], s[j]
-		}
-	}
-	h := uint64(14695981039346656037)
-	for _, v := range s {
-		for k := 0; k < 4; k++ {
-			h ^= uint64(byte(v >> (8 * k)))
-			h *= 1099511628211
-		}
+// ringKey names a ring by a 64-bit hash of its set of atoms: the sum
+// of a mixed value of each atom (the splitmix64 finaliser, common
+// practice), which does not depend on the order the search found them
+// in, so no sorted copy is needed. Two different rings would need a
+// 64-bit collision to share a key.
+func ringKey(ring []int) uint64 {
+	h := uint64(len(ring))
+	for _, v := range ring {
+		x := uint64(v) + 0x9e3779b97f4a7c15
+		x = (x ^ x>>30) * 0xbf58476d1ce4e5b9
+		x = (x ^ x>>27) * 0x94d049bb133111eb
+		h += x ^ x>>31
 	}
 	return h
 }

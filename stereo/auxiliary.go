@@ -13,25 +13,41 @@ func (d *digraph) auxFor(root, n nodeID) Descriptor {
 	if n == noNode || d.nodes[n].depth <= d.nodes[root].depth || d.nodes[n].kind != nodeAtom {
 		return DescNone
 	}
-	x, ok := d.aux[n]
-	if !ok {
-		if d.auxing[n] {
-			return DescNone
-		}
-		if d.auxing == nil {
-			d.auxing = map[nodeID]bool{}
-			d.aux = map[nodeID]Descriptor{}
-		}
-		d.auxing[n] = true
+	// aux grows with the nodes on demand; its entries say whether the
+	// descriptor is known, being computed, or not looked at yet
+	for len(d.aux) <= int(n) {
+		d.aux = append(d.aux, auxEntry{})
+	}
+	var x Descriptor
+	switch e := d.aux[n]; e.state {
+	case auxKnown:
+		x = e.desc
+	case auxComputing:
+		return DescNone
+	default:
+		d.aux[n].state = auxComputing
 		x = d.computeAux(n)
-		delete(d.auxing, n)
-		d.aux[n] = x
+		d.aux[n] = auxEntry{state: auxKnown, desc: x}
 	}
 	if d.mirror && root == 0 {
 		return mirrorAux(x)
 	}
 	return x
 }
+
+// auxEntry is the auxiliary descriptor of one node, once known.
+type auxEntry struct {
+	state auxState
+	desc  Descriptor
+}
+
+type auxState uint8
+
+const (
+	auxUnknown   auxState = iota // not looked at yet
+	auxComputing                 // being computed: a recursion back to it sees none
+	auxKnown
+)
 
 // mirrorAux is the auxiliary descriptor of the same node in the mirror
 // image (see Descriptor.Mirror).

@@ -68,8 +68,7 @@ type digraph struct {
 	// auxRef holds the Rule 6 reference of an auxiliary ranking under
 	// way, by its root; such rankings bypass the memo at Rule 6
 	auxRef map[nodeID]int
-	aux    map[nodeID]Descriptor
-	auxing map[nodeID]bool
+	aux    []auxEntry // by node, grown on demand (auxiliary.go)
 	cfg    *configs
 	// refAtom is the Rule 6 reference, -1 when none is chosen.
 	refAtom int

@@ -32,8 +32,7 @@ func (l *labeller) digraph(rootAtom int) *digraph {
 		compared:   reusable(d.compared),
 		sortedAux:  reusable(d.sortedAux),
 		sortedRoot: reusable(d.sortedRoot),
-		aux:        reusable(d.aux),
-		auxing:     reusable(d.auxing),
+		aux:        d.aux[:0],
 		auxRef:     reusable(d.auxRef),
 	}
 	d.addRoot(rootAtom)

@@ -1,6 +1,6 @@
 package stereo
 
-import "sort"
+import "slices"
 
 // Rule 4b: when two branches differ in the relation of their
 // stereodescriptors to a reference descriptor, like pairs (RR, SS, RM,
@@ -112,13 +112,15 @@ func (d *digraph) referenceCandidates(root, a, af nodeID) []nodeID {
 // ref explored first among tied siblings, and scores each chiral
 // descriptor against ref's.
 func (d *digraph) likeSequence(root, a, af, ref nodeID) [][]int {
-	onPath := map[nodeID]bool{}
+	// the path from ref up to a: a few nodes, searched in place
+	var path []nodeID
 	for n := ref; n != noNode; n = d.nodes[n].parent {
-		onPath[n] = true
+		path = append(path, n)
 		if n == a {
 			break
 		}
 	}
+	onPath := func(n nodeID) bool { return slices.Contains(path, n) }
 	refDesc := d.auxFor(root, ref)
 	type item struct {
 		step
@@ -157,18 +159,18 @@ func (d *digraph) likeSequence(root, a, af, ref nodeID) [][]int {
 					run++
 				}
 				g := newID([2]int{s.group, run})
-				if onPath[k] {
+				if onPath(k) {
 					g = newID([2]int{-int(k) - 1, 0})
 				}
 				next = append(next, item{step{k, s.n}, g})
 			}
 		}
 		// like before unlike inside a tied group
-		sort.SliceStable(row, func(i, j int) bool {
-			if row[i].group != row[j].group {
-				return row[i].group < row[j].group
+		slices.SortStableFunc(row, func(x, y scored) int {
+			if x.group != y.group {
+				return x.group - y.group
 			}
-			return row[i].v > row[j].v
+			return y.v - x.v
 		})
 		vals := make([]int, len(row))
 		for i, r := range row {
@@ -182,9 +184,9 @@ func (d *digraph) likeSequence(root, a, af, ref nodeID) [][]int {
 
 // pathFirst moves the child on the path to the reference to the front of
 // its run of tied siblings.
-func (d *digraph) pathFirst(root, from nodeID, ks []nodeID, onPath map[nodeID]bool) []nodeID {
+func (d *digraph) pathFirst(root, from nodeID, ks []nodeID, onPath func(nodeID) bool) []nodeID {
 	for i, k := range ks {
-		if !onPath[k] {
+		if !onPath(k) {
 			continue
 		}
 		j := i

@@ -22,6 +22,9 @@ type graph struct {
 	smallRing  []int     // per bond: size of the smallest ring containing it, 0 when acyclic
 	ringOf     [][]int   // per bond: the atoms of that smallest ring
 	components []int
+
+	// massByZ caches massFollowsZ: 0 before it is asked, 1 or -1 after
+	massByZ int8
 }
 
 // edge is one neighbour of an atom.
@@ -374,6 +377,42 @@ func (g *graph) alternatingCycle(a, v int, partner, seen []int, stamp int, queue
 		}
 	}
 	return false, queue
+}
+
+// massFollowsZ reports whether every node a digraph of this molecule
+// can hold has a mass fixed by its atomic number: no written isotope
+// gives an atom a mass apart from its element's, and the averaged
+// duplicates of mancude rings agree too. Lone pairs and phantom atoms
+// have zero for both. Then Rule 2 cannot split branches that Rule 1a
+// left tied (rules.go, canSplit). Worked out on first use and kept.
+func (g *graph) massFollowsZ() bool {
+	if g.massByZ == 0 {
+		g.massByZ = -1
+		if g.massesAgree() {
+			g.massByZ = 1
+		}
+	}
+	return g.massByZ > 0
+}
+
+func (g *graph) massesAgree() bool {
+	seen := map[float64]float64{0: 0, 1: atomMass(1, 0)}
+	agree := func(z, mass float64) bool {
+		if m, ok := seen[z]; ok {
+			return m == mass
+		}
+		seen[z] = mass
+		return true
+	}
+	for a := 0; a < g.n; a++ {
+		if !agree(float64(g.z[a]), g.mass[a]) {
+			return false
+		}
+		if g.mancudeZ[a] > 0 && !agree(g.mancudeZ[a], g.mancudeM[a]) {
+			return false
+		}
+	}
+	return true
 }
 
 // inMancude reports whether the bond joins two atoms of one mancude

@@ -107,13 +107,19 @@ func (d *digraph) compareRule(root, a, af, b, bf nodeID, r Rule) (int, int) {
 	return c, s
 }
 
-// canSplit reports whether rule r can tell any two branches of the view
-// rooted at root apart. Every node of a rule that cannot has the same
-// value, so the walk, which would go to the end of both branches, is
-// skipped: Rule 3 needs a configured double bond, Rules 4a to 5 a
-// configured centre other than the root, Rule 6 a reference.
+// canSplit reports whether rule r can tell apart two branches of the
+// view rooted at root that the rules before it left tied (every caller
+// walks the rules in order and stops at the first that decides). A
+// rule that cannot is skipped, sparing a walk to the end of both
+// branches: Rule 2 adds nothing to Rule 1a when mass follows atomic
+// number (the hierarchical orders of both rules then read the same
+// atomic numbers sphere by sphere, hence the same masses); Rule 3 needs
+// a configured double bond, Rules 4a to 5 a configured centre other
+// than the root, Rule 6 a reference.
 func (d *digraph) canSplit(root nodeID, r Rule) bool {
 	switch {
+	case r == Rule2:
+		return !d.g.massFollowsZ()
 	case r == Rule3:
 		return len(d.cfg.bonds) > 0
 	case r >= Rule4a && r <= Rule5:

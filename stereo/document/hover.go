@@ -180,23 +180,27 @@ func writeUnit(b *strings.Builder, rec *Record, u *stereo.Unit) {
 	b.WriteString("\n")
 	if len(u.Ranked) > 0 {
 		b.WriteString("\nCIP priority: ")
+		pair := u.Kind != stereo.KindTetrahedral && len(u.Atoms) == 2
 		for i, l := range u.Ranked {
 			if i > 0 {
-				b.WriteString(" > ")
+				if pair && l.End != u.Ranked[i-1].End {
+					b.WriteString("; ")
+				} else {
+					b.WriteString(" > ")
+				}
 			}
-			name := AtomName(m, l.Atom)
-			if l.Atom < 0 && l.LonePair {
-				name = "lone pair"
-			}
-			if u.Kind != stereo.KindTetrahedral && len(u.Atoms) == 2 {
-				fmt.Fprintf(b, "%s (on %s)", name, AtomName(m, u.Atoms[l.End]))
-			} else {
-				b.WriteString(name)
+			b.WriteString(ligandName(m, l))
+			if pair {
+				fmt.Fprintf(b, " (on %s)", AtomName(m, u.Atoms[l.End]))
 			}
 		}
 		b.WriteString("\n")
 		for _, d := range u.Decisions {
-			fmt.Fprintf(b, "- %d over %d by rule %s at sphere %d\n", d.Higher, d.Lower, d.Rule, d.Sphere)
+			hi, lo := rankedAt(u, d.Higher, d.End), rankedAt(u, d.Lower, d.End)
+			if hi == nil || lo == nil {
+				continue
+			}
+			fmt.Fprintf(b, "- %s over %s: rule %s, sphere %d\n", ligandName(m, *hi), ligandName(m, *lo), d.Rule, d.Sphere)
 		}
 	}
 	if s := markReading(m, u); s != "" {
@@ -271,9 +275,17 @@ func writeRecord(b *strings.Builder, rec *Record) {
 			labels = append(labels, unitLabel(m, &u))
 		}
 	}
-	fmt.Fprintf(b, "Stereo: %d unit(s), %d specified", units, specified)
+	fmt.Fprintf(b, "Stereo: %d unit(s), %d specified, %d not", units, specified, units-specified)
 	if len(labels) > 0 {
 		fmt.Fprintf(b, "; %s", strings.Join(labels, " "))
+	}
+	if rec.Identity != nil {
+		fmt.Fprintf(b, "; %s", rec.Identity.Chirality)
+		if n := stereo.Stereoisomers(m); n.Exact {
+			fmt.Fprintf(b, "; %d stereoisomer(s) for this constitution", n.Count)
+		} else {
+			fmt.Fprintf(b, "; at most %d stereoisomers for this constitution", n.Count)
+		}
 	}
 	b.WriteString("\n")
 }
@@ -327,4 +339,25 @@ func labelOrDash(d stereo.Descriptor) string {
 		return "(" + d.String() + ")"
 	}
 	return "unspecified"
+}
+
+// ligandName names a ranked ligand: its first atom, H or the lone pair.
+func ligandName(m *notation.Molecule, l stereo.RankedLigand) string {
+	if l.Atom < 0 && l.LonePair {
+		return "lone pair"
+	}
+	return AtomName(m, l.Atom)
+}
+
+// rankedAt returns the ligand of a unit with the given rank (on the given
+// end, for double bonds and allenes).
+func rankedAt(u *stereo.Unit, rank, end int) *stereo.RankedLigand {
+	pair := u.Kind != stereo.KindTetrahedral && len(u.Atoms) == 2
+	for i := range u.Ranked {
+		l := &u.Ranked[i]
+		if l.Rank == rank && (!pair || l.End == end) {
+			return l
+		}
+	}
+	return nil
 }

@@ -6,7 +6,6 @@ import (
 	"flag"
 	"fmt"
 	"io"
-	"os"
 	"strings"
 	"text/tabwriter"
 
@@ -28,50 +27,27 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	}
 	out := bufio.NewWriter(stdout)
 	defer out.Flush()
-	status := 0
-	each := func(r io.Reader) error {
-		sc := bufio.NewScanner(r)
-		sc.Buffer(make([]byte, 1<<16), 64<<20)
-		for sc.Scan() {
-			line := sc.Text()
-			if strings.TrimSpace(line) == "" || strings.HasPrefix(strings.TrimSpace(line), "#") {
-				continue
-			}
-			rec := notation.SplitRecord(line)
-			d := describeRecord(rec)
-			if *asJSON {
-				b, err := json.Marshal(d)
-				if err != nil {
-					return err
-				}
-				out.Write(b)
-				out.WriteByte('\n')
-			} else {
-				writeTable(out, d)
-			}
+	failed := false
+	status := eachLine(fs.Args(), stdin, stderr, func(name string, n int, line string) {
+		if trimmed := strings.TrimSpace(line); trimmed == "" || strings.HasPrefix(trimmed, "#") {
+			return
 		}
-		return sc.Err()
-	}
-	if fs.NArg() == 0 {
-		if err := each(stdin); err != nil {
-			fmt.Fprintf(stderr, "stereoline: standard input: %v\n", err)
-			return 2
+		d := describeRecord(notation.SplitRecord(line))
+		if !*asJSON {
+			writeTable(out, d)
+			return
 		}
-		return 0
-	}
-	for _, name := range fs.Args() {
-		f, err := os.Open(name)
+		b, err := json.Marshal(d)
 		if err != nil {
-			fmt.Fprintf(stderr, "stereoline: %v\n", err)
-			status = 2
-			continue
+			fmt.Fprintf(stderr, "%s:%d: %v\n", name, n, err)
+			failed = true
+			return
 		}
-		err = each(f)
-		f.Close()
-		if err != nil {
-			fmt.Fprintf(stderr, "stereoline: %s: %v\n", name, err)
-			status = 2
-		}
+		out.Write(b)
+		out.WriteByte('\n')
+	})
+	if failed && status == 0 {
+		status = 1
 	}
 	return status
 }

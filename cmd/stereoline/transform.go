@@ -5,7 +5,6 @@ import (
 	"flag"
 	"fmt"
 	"io"
-	"os"
 	"strconv"
 	"strings"
 
@@ -51,50 +50,24 @@ func transform(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	}
 	out := bufio.NewWriter(stdout)
 	defer out.Flush()
-	status := 0
-	each := func(name string, r io.Reader) error {
-		sc := bufio.NewScanner(r)
-		sc.Buffer(make([]byte, 1<<16), 64<<20)
-		line := 0
-		for sc.Scan() {
-			line++
-			text := sc.Text()
-			if trimmed := strings.TrimSpace(text); trimmed == "" || strings.HasPrefix(trimmed, "#") {
-				fmt.Fprintln(out, text)
-				continue
-			}
-			newText, notes, err := transformLine(text, op)
-			for _, n := range notes {
-				fmt.Fprintf(stderr, "%s:%d: %s\n", name, line, n)
-			}
-			if err != nil {
-				fmt.Fprintf(stderr, "%s:%d: %v\n", name, line, err)
-				status = 1
-			}
-			fmt.Fprintln(out, newText)
+	failed := false
+	status := eachLine(fs.Args(), stdin, stderr, func(name string, line int, text string) {
+		if trimmed := strings.TrimSpace(text); trimmed == "" || strings.HasPrefix(trimmed, "#") {
+			fmt.Fprintln(out, text)
+			return
 		}
-		return sc.Err()
-	}
-	if fs.NArg() == 0 {
-		if err := each("<stdin>", stdin); err != nil {
-			fmt.Fprintf(stderr, "stereoline: standard input: %v\n", err)
-			return 2
+		newText, notes, err := transformLine(text, op)
+		for _, n := range notes {
+			fmt.Fprintf(stderr, "%s:%d: %s\n", name, line, n)
 		}
-		return status
-	}
-	for _, name := range fs.Args() {
-		f, err := os.Open(name)
 		if err != nil {
-			fmt.Fprintf(stderr, "stereoline: %v\n", err)
-			status = 2
-			continue
+			fmt.Fprintf(stderr, "%s:%d: %v\n", name, line, err)
+			failed = true
 		}
-		err = each(name, f)
-		f.Close()
-		if err != nil {
-			fmt.Fprintf(stderr, "stereoline: %s: %v\n", name, err)
-			status = 2
-		}
+		fmt.Fprintln(out, newText)
+	})
+	if failed && status == 0 {
+		status = 1
 	}
 	return status
 }

@@ -94,9 +94,9 @@ type labeller struct {
 	nodeCap int
 	res     *Analysis
 
-	usedBondMarks map[int]bool // single bonds whose marks belong to some double bond
-	unitAtoms     map[int]bool // centres already reported as units or diagnostics
-	unitBonds     map[int]bool
+	usedBondMarks []bool // by bond: single bonds whose marks belong to some double bond
+	unitAtoms     []bool // by atom: centres already reported as units or diagnostics
+	unitBonds     []bool // by bond
 	anyMarks      bool
 	oneSided      []*bondConfig
 	spare         []*digraph // storage of digraphs already used, for reuse (digraph_reuse.go)
@@ -115,7 +115,7 @@ func (l *labeller) fail(sp notation.Span, code notation.Code, format string, arg
 // readCentres reads every chirality mark.
 func (l *labeller) readCentres() {
 	g, m := l.g, l.g.mol
-	l.unitAtoms = map[int]bool{}
+	l.unitAtoms = make([]bool, len(m.Atoms))
 	for a := range m.Atoms {
 		at := &m.Atoms[a]
 		ch := at.Chirality

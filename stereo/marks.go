@@ -6,9 +6,10 @@ import "stereoline/notation"
 // cumulene, reporting one-sided and contradictory marks.
 func (l *labeller) readBonds() {
 	g, m := l.g, l.g.mol
-	l.usedBondMarks = map[int]bool{}
-	l.unitBonds = map[int]bool{}
-	seen := map[int]bool{}
+	nb := len(l.g.mol.Bonds)
+	marks := make([]bool, 3*nb)
+	l.usedBondMarks, l.unitBonds = marks[:nb:nb], marks[nb:2*nb:2*nb]
+	seen := marks[2*nb:] // by bond: double bonds of chains already read
 	for bi := range m.Bonds {
 		b := &m.Bonds[bi]
 		if b.Dir != notation.DirNone || b.CloseDir != notation.DirNone {
@@ -67,7 +68,7 @@ func (l *labeller) readBonds() {
 
 // markChain records every double bond of the cumulene starting at
 // terminal t (through inner) as seen.
-func (l *labeller) markChain(t, inner int, seen map[int]bool) {
+func (l *labeller) markChain(t, inner int, seen []bool) {
 	g := l.g
 	prev, cur := t, inner
 	for steps := 0; steps <= g.n; steps++ {

@@ -1,6 +1,9 @@
 package find
 
-import "sort"
+import (
+	"bytes"
+	"sort"
+)
 
 // lineTable holds the offsets where lines start, for pragmas that work
 // line by line. Built on demand: files without pragmas never need it.
@@ -65,4 +68,15 @@ func skipBOM(src []byte) int {
 		return 3
 	}
 	return 0
+}
+
+// nextLine returns the line of src that starts at start, without its
+// newline, and the offset where the next line starts (len(src) after the
+// last line).
+func nextLine(src []byte, start int) (line []byte, next int) {
+	end := bytes.IndexByte(src[start:], '\n')
+	if end < 0 {
+		return src[start:], len(src)
+	}
+	return src[start : start+end], start + end + 1
 }

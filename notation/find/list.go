@@ -20,15 +20,9 @@ func findList(src []byte) []Occurrence {
 	out := make([]Occurrence, 0, bytes.Count(src, []byte{'\n'})+1)
 	first := true
 	for start := skipBOM(src); start < len(src); {
-		end := bytes.IndexByte(src[start:], '\n')
-		if end < 0 {
-			end = len(src)
-		} else {
-			end += start
-		}
-		line := src[start:end]
+		line, next := nextLine(src, start)
 		lineStart := start
-		start = end + 1
+		start = next
 		for len(line) > 0 && (line[0] == ' ' || line[0] == '\t') {
 			line = line[1:]
 			lineStart++

@@ -32,15 +32,9 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 		bodyStart int
 	}
 	for start := 0; start < len(src); {
-		end := bytes.IndexByte(src[start:], '\n')
-		if end < 0 {
-			end = len(src)
-		} else {
-			end += start
-		}
-		line := src[start:end]
+		line, next := nextLine(src, start)
 		lineStart := start
-		start = end + 1
+		start = next
 		indent := 0
 		for indent < len(line) && indent < 4 && line[indent] == ' ' {
 			indent++

@@ -47,15 +47,9 @@ func (yf *yamlFinder) run() {
 	block := -1 // indent of the key owning a block scalar being skipped
 	blockNamed := false
 	for start := 0; start < len(src); {
-		end := bytes.IndexByte(src[start:], '\n')
-		if end < 0 {
-			end = len(src)
-		} else {
-			end += start
-		}
-		line := src[start:end]
+		line, next := nextLine(src, start)
 		ls := start
-		start = end + 1
+		start = next
 		indent := 0
 		for indent < len(line) && line[indent] == ' ' {
 			indent++

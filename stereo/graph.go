@@ -16,12 +16,14 @@ type graph struct {
 
 	ringBond   []bool // bond lies on a ring
 	ringAtom   []bool
-	rings      [][]int   // smallest ring through each ring bond, deduplicated
 	mancudeZ   []float64 // for an atom of a mancude ring system, the atomic number of its duplicate
 	mancudeM   []float64 // and the mass of that duplicate, averaged the same way
-	smallRing  []int     // per bond: size of the smallest ring containing it, 0 when acyclic
-	ringOf     [][]int   // per bond: the atoms of that smallest ring
-	components []int
+
+	// found on demand (smallestRing, smallRings)
+	rings  [][]int // smallest ring through each ring bond, deduplicated
+	ringOf [][]int // per bond: the atoms of that smallest ring, nil until searched
+	// scratch space of the ring searches
+	prev, dist, touched, queue []int
 
 	// massByZ caches massFollowsZ: 0 before it is asked, 1 or -1 after
 	massByZ int8
@@ -135,94 +137,124 @@ func (g *graph) doubleBonds(a int) (n int) {
 	return n
 }
 
-// findRings marks ring bonds and records, for every ring bond, the
-// smallest ring through it (a breadth-first search from one end to the
-// other that avoids the bond itself).
+// findRings marks the ring bonds and ring atoms: a bond lies on a ring
+// exactly when it is not a bridge of the graph. The smallest ring through
+// a bond is searched for only when asked (ringSize, smallestRing): most
+// molecules never ask, and a search per ring bond was a good part of the
+// time of a whole analysis.
 func (g *graph) findRings() {
 	m := g.mol
 	nb := len(m.Bonds)
 	bools := make([]bool, nb+g.n)
 	g.ringBond, g.ringAtom = bools[:nb:nb], bools[nb:]
-	g.smallRing = make([]int, nb)
-	g.ringOf = make([][]int, nb)
-	cyclic := g.cyclicBonds()
-	var seen map[uint64]bool
-	scratch := make([]int, 2*g.n)
-	prev, dist := scratch[:g.n], scratch[g.n:]
-	var touched, queue []int
-	// the rings share one backing array, capped per ring so that
-	// appending to one cannot overwrite the next
-	var ringStore []int // sized when the first ring is found
-	for i := range dist {
-		dist[i] = -1
-	}
+	g.cyclicBonds(g.ringBond)
 	for bi := range m.Bonds {
 		b := &m.Bonds[bi]
-		if b.Begin < 0 || b.Begin >= g.n || b.End < 0 || b.End >= g.n || !cyclic[bi] {
+		if b.Begin < 0 || b.Begin >= g.n || b.End < 0 || b.End >= g.n || b.Begin == b.End {
+			g.ringBond[bi] = false // in no neighbour list, so on no ring
 			continue
 		}
-		for _, i := range touched {
-			dist[i] = -1
+		if g.ringBond[bi] {
+			g.ringAtom[b.Begin], g.ringAtom[b.End] = true, true
 		}
-		touched = touched[:0]
-		src, dst := b.Begin, b.End
-		dist[src] = 0
-		touched = append(touched, src)
-		queue = append(queue[:0], src)
-		found := false
-		for head := 0; head < len(queue) && !found; head++ {
-			u := queue[head]
-			for _, e := range g.adj[u] {
-				if e.bond == bi || dist[e.to] >= 0 || !cyclic[e.bond] {
-					continue
-				}
-				dist[e.to] = dist[u] + 1
-				touched = append(touched, e.to)
-				prev[e.to] = u
-				if e.to == dst {
-					found = true
-					break
-				}
-				queue = append(queue, e.to)
+	}
+}
+
+// ringSize is the number of atoms of the smallest ring through bond bi,
+// 0 when the bond lies on none.
+func (g *graph) ringSize(bi int) int { return len(g.smallestRing(bi)) }
+
+// smallestRing returns the atoms of the smallest ring through bond bi
+// (from its end atom round to its begin atom), nil when the bond lies on
+// none. The ring is found by a breadth-first search from one end to the
+// other that avoids the bond itself, once per bond, and kept.
+func (g *graph) smallestRing(bi int) []int {
+	if bi < 0 || bi >= len(g.ringBond) || !g.ringBond[bi] {
+		return nil
+	}
+	if g.ringOf == nil {
+		g.ringOf = make([][]int, len(g.ringBond))
+	}
+	if r := g.ringOf[bi]; r != nil {
+		return r
+	}
+	if g.prev == nil {
+		scratch := make([]int, 2*g.n)
+		g.prev, g.dist = scratch[:g.n:g.n], scratch[g.n:]
+		for i := range g.dist {
+			g.dist[i] = -1
+		}
+	}
+	prev, dist := g.prev, g.dist
+	b := &g.mol.Bonds[bi]
+	src, dst := b.Begin, b.End
+	touched := append(g.touched[:0], src)
+	queue := append(g.queue[:0], src)
+	dist[src] = 0
+	found := false
+	for head := 0; head < len(queue) && !found; head++ {
+		u := queue[head]
+		for _, e := range g.adj[u] {
+			if int(e.bond) == bi || dist[e.to] >= 0 || !g.ringBond[e.bond] {
+				continue
 			}
+			dist[e.to] = dist[u] + 1
+			touched = append(touched, int(e.to))
+			prev[e.to] = u
+			if int(e.to) == dst {
+				found = true
+				break
+			}
+			queue = append(queue, int(e.to))
 		}
-		if !found {
-			continue
-		}
-		g.ringBond[bi] = true
-		size := dist[dst] + 1
-		if len(ringStore)+size > cap(ringStore) {
-			ringStore = make([]int, 0, max(6*len(m.Bonds), 2*cap(ringStore), size))
-		}
-		start := len(ringStore)
-		ringStore = append(ringStore, dst)
+	}
+	var ring []int
+	if found {
+		ring = make([]int, 0, dist[dst]+1)
+		ring = append(ring, dst)
 		for v := dst; v != src; {
 			v = prev[v]
-			ringStore = append(ringStore, v)
+			ring = append(ring, v)
 		}
-		ring := ringStore[start:len(ringStore):len(ringStore)]
-		g.smallRing[bi] = len(ring)
-		g.ringOf[bi] = ring
-		for _, a := range ring {
-			g.ringAtom[a] = true
+		ring = ring[:len(ring):len(ring)]
+	}
+	for _, i := range touched {
+		dist[i] = -1
+	}
+	g.touched, g.queue = touched[:0], queue[:0]
+	if ring == nil {
+		// cannot happen for a bond that is no bridge; kept empty
+		ring = []int{}
+	}
+	g.ringOf[bi] = ring
+	return ring
+}
+
+// smallRings returns the smallest ring through each ring bond, each ring
+// once, in the order of the bonds.
+func (g *graph) smallRings() [][]int {
+	if g.rings != nil {
+		return g.rings
+	}
+	g.rings = [][]int{}
+	seen := map[uint64]bool{}
+	for bi := range g.ringBond {
+		ring := g.smallestRing(bi)
+		if len(ring) == 0 {
+			continue
 		}
-		key := ringKey(ring)
-		if seen == nil {
-			seen = map[uint64]bool{}
-		}
-		if !seen[key] {
+		if key := ringKey(ring); !seen[key] {
 			seen[key] = true
 			g.rings = append(g.rings, ring)
 		}
 	}
+	return g.rings
 }
 
 // cyclicBonds marks the bonds that lie on some cycle: every bond that is
 // not a bridge of the graph (depth-first search with low links, written
 // with an explicit stack so that long chains cannot exhaust it).
-func (g *graph) cyclicBonds() []bool {
-	nb := len(g.mol.Bonds)
-	cyclic := make([]bool, nb)
+func (g *graph) cyclicBonds(cyclic []bool) {
 	for i := range cyclic {
 		cyclic[i] = true
 	}
@@ -270,7 +302,6 @@ func (g *graph) cyclicBonds() []bool {
 			}
 		}
 	}
-	return cyclic
 }
 
 // ringKey names a ring by a 64-bit hash of its set of atoms: the sum

@@ -43,7 +43,7 @@ func (l *labeller) perceiveUnmarked() {
 		}
 	}
 	// units stereogenic together: two paired atoms on one ring
-	for _, ring := range g.rings {
+	for _, ring := range g.smallRings() {
 		var on []int
 		for _, a := range paired {
 			for _, r := range ring {
@@ -85,7 +85,7 @@ func (l *labeller) perceiveUnmarked() {
 		if g.cumulated(b.Begin) || g.cumulated(b.End) {
 			continue
 		}
-		if s := g.smallRing[bi]; s > 0 && s < 8 {
+		if s := g.ringSize(bi); s > 0 && s < 8 {
 			continue
 		}
 		if bondEndsDistinct(g, b.Begin, b.End, class) {

@@ -157,12 +157,12 @@ func (l *labeller) labelAll() {
 
 // ringSize is the size of the smallest ring holding the unit's double
 // bond, 0 when it is acyclic. Cumulenes count their middle bond.
-func (l *labeller) ringSize(c *bondConfig) int { return l.g.smallRing[c.bond] }
+func (l *labeller) ringSize(c *bondConfig) int { return l.g.ringSize(c.bond) }
 
 // transInRing reports whether the ring continues on opposite sides of the
 // double bond: the ring neighbours of the two ends are trans.
 func (l *labeller) transInRing(c *bondConfig) bool {
-	ring := l.g.ringOf[c.bond]
+	ring := l.g.smallestRing(c.bond)
 	in := map[int]bool{}
 	for _, a := range ring {
 		in[a] = true
@@ -195,7 +195,7 @@ func (l *labeller) invertingNitrogen(a int) bool {
 	for _, e := range g.adj[a] {
 		if g.ringBond[e.bond] {
 			ringBonds++
-			if g.smallRing[e.bond] == 3 {
+			if g.ringSize(e.bond) == 3 {
 				return false
 			}
 		}

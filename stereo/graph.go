@@ -14,10 +14,10 @@ type graph struct {
 	z    []int
 	mass []float64 // mass used by Rule 2
 
-	ringBond   []bool // bond lies on a ring
-	ringAtom   []bool
-	mancudeZ   []float64 // for an atom of a mancude ring system, the atomic number of its duplicate
-	mancudeM   []float64 // and the mass of that duplicate, averaged the same way
+	ringBond []bool // bond lies on a ring
+	ringAtom []bool
+	mancudeZ []float64 // for an atom of a mancude ring system, the atomic number of its duplicate
+	mancudeM []float64 // and the mass of that duplicate, averaged the same way
 
 	// found on demand (smallestRing, smallRings)
 	rings  [][]int // smallest ring through each ring bond, deduplicated

@@ -56,14 +56,21 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 	if m == nil || len(m.Atoms) == 0 {
 		return res
 	}
+	ws := takeWorkspace()
+	ws.g.build(m)
+	ws.cfg.reset()
+	l := &labeller{g: &ws.g, cfg: &ws.cfg, nodeCap: opt.NodeCap, res: res, spare: ws.spare}
 	defer func() {
 		// an internal error must not reach the user; the analysis so far
-		// is kept and the failure reported at the start of the text
+		// is kept and the failure reported at the start of the text. The
+		// workspace of a failed call is left to the collector: its state
+		// is not known.
 		if r := recover(); r != nil {
 			res.Diagnostics.Add(notation.Span{}, CodeUndetermined, "internal error in stereo analysis: %v", r)
+			return
 		}
+		ws.giveBack(l)
 	}()
-	l := &labeller{g: newGraph(m), cfg: newConfigs(), nodeCap: opt.NodeCap, res: res}
 	if l.nodeCap <= 0 {
 		l.nodeCap = defaultNodeCap
 	}

@@ -69,8 +69,29 @@ type configs struct {
 }
 
 func newConfigs() *configs {
-	return &configs{tetra: map[int]*tetraConfig{}, bonds: map[int]*bondConfig{},
-		allene: map[int]*alleneConfig{}, higher: map[int]*higherConfig{}}
+	c := &configs{}
+	c.reset()
+	return c
+}
+
+// keepConfigs is the largest map reset keeps: clearing costs time in
+// proportion to the room a map once grew to.
+const keepConfigs = 256
+
+// reset empties c for another molecule, keeping small maps.
+func (c *configs) reset() {
+	c.tetra = emptied(c.tetra)
+	c.bonds = emptied(c.bonds)
+	c.allene = emptied(c.allene)
+	c.higher = emptied(c.higher)
+}
+
+func emptied[V any](m map[int]V) map[int]V {
+	if m == nil || len(m) > keepConfigs {
+		return map[int]V{}
+	}
+	clear(m)
+	return m
 }
 
 // stereoLigands lists the ligands of atom a in stereo order, with the

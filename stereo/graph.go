@@ -24,6 +24,9 @@ type graph struct {
 	ringOf [][]int // per bond: the atoms of that smallest ring, nil until searched
 	// scratch space of the ring searches
 	prev, dist, touched, queue []int
+	ringStore                  []int // the rings found, one after another
+
+	store graphStore // storage reused by the next build
 
 	// massByZ caches massFollowsZ: 0 before it is asked, 1 or -1 after
 	massByZ int8
@@ -65,21 +68,29 @@ func chalcogen(z int) bool {
 }
 
 func newGraph(m *notation.Molecule) *graph {
-	g := &graph{mol: m, n: len(m.Atoms)}
-	g.adj = make([][]edge, g.n)
-	// the per-atom tables are windows of a few shared arrays: a graph
-	// is built for every Analyze call, and small allocations add up
-	ints := make([]int, 2*g.n)
-	g.hyd, g.z = ints[:g.n:g.n], ints[g.n:]
-	floats := make([]float64, 3*g.n)
-	g.mass, g.mancudeZ, g.mancudeM = floats[:g.n:g.n], floats[g.n:2*g.n:2*g.n], floats[2*g.n:]
-	// every neighbour list is a window of one array: one allocation
-	// for the molecule instead of a few for each atom
+	g := &graph{}
+	g.build(m)
+	return g
+}
+
+// build makes g the view of m, reusing the storage an earlier build left
+// in g (analyses take their graph from a pool, workspace.go). Every
+// per-atom table is a window of a few shared arrays, and every
+// neighbour list a window of one array of edges.
+func (g *graph) build(m *notation.Molecule) {
+	n := len(m.Atoms)
+	st := g.store
+	*g = graph{mol: m, n: n, store: st, ringStore: st.rings[:0]}
+	g.adj = sized(&g.store.adj, n)
+	ints := sized(&g.store.ints, 2*n)
+	g.hyd, g.z = ints[:n:n], ints[n:]
+	floats := sized(&g.store.floats, 3*n)
+	g.mass, g.mancudeZ, g.mancudeM = floats[:n:n], floats[n:2*n:2*n], floats[2*n:]
 	total := 0
 	for i := range m.Atoms {
 		total += len(m.Atoms[i].Bonds)
 	}
-	edges := make([]edge, 0, total)
+	edges := sized(&g.store.edges, total)[:0]
 	for i := range m.Atoms {
 		a := &m.Atoms[i]
 		g.z[i] = a.Number
@@ -97,7 +108,28 @@ func newGraph(m *notation.Molecule) *graph {
 	}
 	g.findRings()
 	g.findMancude()
-	return g
+}
+
+// graphStore is the storage of a graph kept for the next build.
+type graphStore struct {
+	adj     [][]edge
+	ints    []int
+	floats  []float64
+	edges   []edge
+	bools   []bool
+	scratch []int
+	frames  []dfsFrame
+	rings   []int
+}
+
+// sized returns (*buf)[:n], zeroed, growing *buf when it is too small.
+func sized[T any](buf *[]T, n int) []T {
+	if cap(*buf) < n {
+		*buf = make([]T, n, n+n/4)
+	}
+	s := (*buf)[:n:n]
+	clear(s)
+	return s
 }
 
 func bondOrder(b *notation.Bond) int {
@@ -145,7 +177,7 @@ func (g *graph) doubleBonds(a int) (n int) {
 func (g *graph) findRings() {
 	m := g.mol
 	nb := len(m.Bonds)
-	bools := make([]bool, nb+g.n)
+	bools := sized(&g.store.bools, nb+g.n)
 	g.ringBond, g.ringAtom = bools[:nb:nb], bools[nb:]
 	g.cyclicBonds(g.ringBond)
 	for bi := range m.Bonds {
@@ -210,13 +242,21 @@ func (g *graph) smallestRing(bi int) []int {
 	}
 	var ring []int
 	if found {
-		ring = make([]int, 0, dist[dst]+1)
-		ring = append(ring, dst)
+		// the rings are windows of one array, capped so that appending
+		// to one cannot overwrite the next; a full array is replaced,
+		// leaving the rings already handed out in the old one
+		size := dist[dst] + 1
+		if len(g.ringStore)+size > cap(g.ringStore) {
+			g.ringStore = make([]int, 0, max(6*len(g.ringBond), 2*cap(g.ringStore), size))
+			g.store.rings = g.ringStore
+		}
+		start := len(g.ringStore)
+		g.ringStore = append(g.ringStore, dst)
 		for v := dst; v != src; {
 			v = prev[v]
-			ring = append(ring, v)
+			g.ringStore = append(g.ringStore, v)
 		}
-		ring = ring[:len(ring):len(ring)]
+		ring = g.ringStore[start:len(g.ringStore):len(g.ringStore)]
 	}
 	for _, i := range touched {
 		dist[i] = -1
@@ -251,6 +291,9 @@ func (g *graph) smallRings() [][]int {
 	return g.rings
 }
 
+// dfsFrame is one atom on the stack of the bridge search.
+type dfsFrame struct{ v, viaBond, next int }
+
 // cyclicBonds marks the bonds that lie on some cycle: every bond that is
 // not a bridge of the graph (depth-first search with low links, written
 // with an explicit stack so that long chains cannot exhaust it).
@@ -258,19 +301,19 @@ func (g *graph) cyclicBonds(cyclic []bool) {
 	for i := range cyclic {
 		cyclic[i] = true
 	}
-	scratch := make([]int, 2*g.n)
+	scratch := sized(&g.store.scratch, 2*g.n)
 	order, low := scratch[:g.n], scratch[g.n:]
 	for i := range order {
 		order[i] = -1
 	}
-	type frame struct{ v, viaBond, next int }
-	var stack []frame
+	stack := g.store.frames[:0]
+	defer func() { g.store.frames = stack[:0] }()
 	counter := 0
 	for s := 0; s < g.n; s++ {
 		if order[s] >= 0 {
 			continue
 		}
-		stack = append(stack[:0], frame{s, -1, 0})
+		stack = append(stack[:0], dfsFrame{s, -1, 0})
 		order[s], low[s] = counter, counter
 		counter++
 		for len(stack) > 0 {
@@ -284,7 +327,7 @@ func (g *graph) cyclicBonds(cyclic []bool) {
 				if order[e.to] < 0 {
 					order[e.to], low[e.to] = counter, counter
 					counter++
-					stack = append(stack, frame{e.to, e.bond, 0})
+					stack = append(stack, dfsFrame{e.to, e.bond, 0})
 				} else if order[e.to] < low[f.v] {
 					low[f.v] = order[e.to]
 				}
@@ -332,7 +375,7 @@ func ringKey(ring []int) uint64 {
 // finds perimeter systems that no smallest ring describes (the
 // fourteen-atom perimeter of an azaphenalene dimer, VS215 of the suite).
 func (g *graph) findMancude() {
-	scratch := make([]int, 2*g.n)
+	scratch := sized(&g.store.scratch, 2*g.n)
 	partner, seen := scratch[:g.n], scratch[g.n:]
 	for a := 0; a < g.n; a++ {
 		partner[a] = -1

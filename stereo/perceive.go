@@ -43,7 +43,11 @@ func (l *labeller) perceiveUnmarked() {
 		}
 	}
 	// units stereogenic together: two paired atoms on one ring
-	for _, ring := range g.smallRings() {
+	var rings [][]int
+	if len(paired) >= 2 {
+		rings = g.smallRings()
+	}
+	for _, ring := range rings {
 		var on []int
 		for _, a := range paired {
 			for _, r := range ring {

@@ -55,10 +55,24 @@ type Record struct {
 	Occ    *find.Occurrence
 	Mol    *notation.Molecule
 	Stereo *stereo.Analysis
-	// Identity is nil for reactions and for records that do not read
-	// without error; Reaction is nil unless the record is a reaction.
+	// Identity is set for the records of a list whose relations needed
+	// it (those whose constitution pre-key another record shares) and
+	// nil otherwise; Identify gives it for any record. Reaction is nil
+	// unless the record is a reaction.
 	Identity *stereo.Identity
 	Reaction *stereo.ReactionResult
+
+	an *analysis // the cached analysis the record was filled from
+}
+
+// Identify returns the record's identity keys, computing them on first
+// use; nil for reactions and for records that do not read without error.
+// It is safe for concurrent use.
+func (rec *Record) Identify() *stereo.Identity {
+	if rec.Identity != nil || rec.an == nil {
+		return rec.Identity
+	}
+	return rec.an.identify()
 }
 
 // Diagnostic is one finding in host byte offsets.
@@ -140,7 +154,7 @@ func (a *Analyzer) Analyze(name, languageID string, content []byte) *Result {
 	res.Records = make([]Record, len(occs))
 	fill := func(i int) {
 		an := a.cache.get(occs[i].Text)
-		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo, Identity: an.identity, Reaction: an.reaction}
+		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
 	}
 	parallel(len(occs), fill)
 	for i := range res.Records {

@@ -17,8 +17,16 @@ const cacheLimit = 250_000
 type analysis struct {
 	mol      *notation.Molecule
 	stereo   *stereo.Analysis
-	identity *stereo.Identity       // nil for reactions and records with reading errors
 	reaction *stereo.ReactionResult // nil unless the record is a reaction
+
+	// identifiable is true for a structure that has identity keys (not a
+	// reaction, read without error, not empty). The keys are the
+	// costliest part of an analysis and most records of a list never
+	// need them (prekey.go), so they are computed on first use.
+	identifiable bool
+	preKey       uint64
+	identityOnce sync.Once
+	identity     *stereo.Identity
 }
 
 // analyse runs the engine on one notation text.
@@ -29,10 +37,23 @@ func analyse(text string) *analysis {
 	case m.Reaction:
 		a.reaction = stereo.AnalyzeReactionWith(m, a.stereo)
 	case !m.Errors.HasErrors() && len(m.Atoms) > 0:
-		id := stereo.Identify(m)
-		a.identity = &id
+		a.identifiable = true
+		a.preKey = constitutionPreKey(m)
 	}
 	return a
+}
+
+// identify returns the identity keys, computing them once; nil when the
+// record has none.
+func (a *analysis) identify() *stereo.Identity {
+	if !a.identifiable {
+		return nil
+	}
+	a.identityOnce.Do(func() {
+		id := stereo.Identify(a.mol)
+		a.identity = &id
+	})
+	return a.identity
 }
 
 // cache holds analyses keyed by notation text. Repeated records and an

@@ -279,8 +279,8 @@ func writeRecord(b *strings.Builder, rec *Record) {
 	if len(labels) > 0 {
 		fmt.Fprintf(b, "; %s", strings.Join(labels, " "))
 	}
-	if rec.Identity != nil {
-		fmt.Fprintf(b, "; %s", rec.Identity.Chirality)
+	if id := rec.Identify(); id != nil {
+		fmt.Fprintf(b, "; %s", id.Chirality)
 		if n := stereo.Stereoisomers(m); n.Exact {
 			fmt.Fprintf(b, "; %d stereoisomer(s) for this constitution", n.Count)
 		} else {

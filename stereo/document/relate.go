@@ -27,11 +27,14 @@ var relatedKinds = map[find.Kind]bool{
 // relateRecords reports duplicates, mirror images and stereoisomers among
 // the records of a list, each against the first earlier record it
 // matches. The identity index keeps keys in maps, so a list of 100,000
-// records is related in one pass.
+// records is related in one pass; only records whose constitution
+// pre-key another record shares get identity keys (prekey.go), since the
+// others can match nothing.
 func (r *Result) relateRecords() {
 	if !relatedKinds[r.Kind] {
 		return
 	}
+	r.identifyColliding()
 	idx := stereo.NewIndex()
 	var order []int // index position -> record
 	for i := range r.Records {
@@ -67,6 +70,27 @@ func (r *Result) relateRecords() {
 		}
 		r.add(d)
 	}
+}
+
+// identifyColliding sets the Identity of every record whose pre-key
+// occurs more than once in the list, computing the keys on all cores.
+func (r *Result) identifyColliding() {
+	seen := make(map[uint64]int, len(r.Records))
+	for i := range r.Records {
+		if an := r.Records[i].an; an != nil && an.identifiable {
+			seen[an.preKey]++
+		}
+	}
+	var colliding []int
+	for i := range r.Records {
+		if an := r.Records[i].an; an != nil && an.identifiable && seen[an.preKey] > 1 {
+			colliding = append(colliding, i)
+		}
+	}
+	parallel(len(colliding), func(k int) {
+		rec := &r.Records[colliding[k]]
+		rec.Identity = rec.an.identify()
+	})
 }
 
 // describeRecord names a record for messages: "line 12 (LRK-BB-003)".

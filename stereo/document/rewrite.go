@@ -52,7 +52,7 @@ func (r *Result) mirror(recs []int) (Action, bool) {
 	title := "Mirror: write the enantiomer"
 	if len(recs) > 1 {
 		title = fmt.Sprintf("Mirror %d records: write their enantiomers", len(recs))
-	} else if id := r.Records[recs[0]].Identity; id != nil && id.Chirality != stereo.Chiral {
+	} else if id := r.Records[recs[0]].Identify(); id != nil && id.Chirality != stereo.Chiral {
 		title = fmt.Sprintf("Mirror (the structure is %s: the mirror image is the same compound)", id.Chirality)
 	}
 	return Action{Title: title, Kind: KindMirror, Edits: edits, Diagnostic: -1}, true

@@ -1,0 +1,283 @@
+package document
+
+import (
+	"bufio"
+	"fmt"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"stereoline/notation"
+	"stereoline/stereo"
+)
+
+// readFixture returns the rows of a tab-separated fixture under
+// testdata/rdkit (RDKit 2022.09.3, Debian python3-rdkit and rdkit-data;
+// see testdata/rdkit/README.md), skipping the test when it is absent.
+func readFixture(t *testing.T, name string, columns int) [][]string {
+	t.Helper()
+	path := filepath.Join("..", "..", "testdata", "rdkit", name)
+	f, err := os.Open(path)
+	if err != nil {
+		t.Skipf("fixture not found at %s: %v", path, err)
+	}
+	defer f.Close()
+	var rows [][]string
+	sc := bufio.NewScanner(f)
+	sc.Buffer(make([]byte, 1<<20), 1<<20)
+	for line := 1; sc.Scan(); line++ {
+		text := sc.Text()
+		if text == "" || strings.HasPrefix(text, "#") {
+			continue
+		}
+		c := strings.Split(text, "\t")
+		if len(c) < columns {
+			t.Fatalf("%s:%d: %d columns, want %d", name, line, len(c), columns)
+		}
+		rows = append(rows, c)
+	}
+	return rows
+}
+
+// TestPreKeyAgreesAcrossWritings: the writings of one NCI record in
+// reader.tsv (as given, two random writings, the Kekulé form, a
+// stereoisomer, all hydrogens as [H] atoms, all hydrogens in brackets;
+// RDKit 2022.09.3) are one constitution. Wherever the identity key's
+// constitution key agrees that two of them are one constitution, the
+// pre-key must agree too, or a duplicate would go unreported.
+func TestPreKeyAgreesAcrossWritings(t *testing.T) {
+	rows := readFixture(t, "reader.tsv", 4)
+	type writing struct {
+		variant, smiles, constitution string
+		pre                           uint64
+	}
+	byRecord := map[string][]writing{}
+	var order []string
+	if testing.Short() {
+		rows = rows[:len(rows)/4]
+	}
+	for _, c := range rows {
+		if c[3] != "1" {
+			continue // RDKit rejects it; nothing to compare
+		}
+		m := notation.Read(c[2])
+		if m.Errors.HasErrors() || len(m.Atoms) == 0 || m.Reaction {
+			continue
+		}
+		if _, ok := byRecord[c[0]]; !ok {
+			order = append(order, c[0])
+		}
+		byRecord[c[0]] = append(byRecord[c[0]], writing{c[1], c[2], stereo.ConstitutionKey(m), constitutionPreKey(m)})
+	}
+	compared, bad := 0, 0
+	for _, id := range order {
+		ws := byRecord[id]
+		for _, w := range ws[1:] {
+			if w.constitution != ws[0].constitution {
+				continue // the identity key itself tells them apart
+			}
+			compared++
+			if w.pre != ws[0].pre {
+				bad++
+				if bad <= 10 {
+					t.Errorf("record %s: %s %q and %s %q are one constitution but their pre-keys differ",
+						id, ws[0].variant, ws[0].smiles, w.variant, w.smiles)
+				}
+			}
+		}
+	}
+	if compared < len(order) {
+		t.Fatalf("only %d writings compared over %d records", compared, len(order))
+	}
+	t.Logf("%d writings of %d records compared, %d with differing pre-keys", compared, len(order), bad)
+}
+
+// TestPreKeySeparatesConstitutions: over the molecules of identity.tsv
+// (RDKit's canonical SMILES without stereo names the constitution), the
+// pre-key should rarely give two different constitutions one value, or
+// it saves nothing. A collision is allowed, so this bounds their share.
+func TestPreKeySeparatesConstitutions(t *testing.T) {
+	rows := readFixture(t, "identity.tsv", 7)
+	owner := map[uint64]string{} // pre-key -> the first constitution that had it
+	constitutions := map[string]bool{}
+	collisions := map[string]bool{}
+	for _, c := range rows {
+		if c[2] != "0" {
+			continue // the first writing of each molecule is enough here
+		}
+		m := notation.Read(c[3])
+		if m.Errors.HasErrors() || len(m.Atoms) == 0 {
+			continue
+		}
+		plain := c[5]
+		constitutions[plain] = true
+		pre := constitutionPreKey(m)
+		if first, ok := owner[pre]; !ok {
+			owner[pre] = plain
+		} else if first != plain {
+			collisions[plain] = true
+		}
+	}
+	if len(constitutions) < 500 {
+		t.Fatalf("only %d constitutions read", len(constitutions))
+	}
+	// The bound is ours: 1% of the constitutions.
+	if len(collisions)*100 > len(constitutions) {
+		t.Errorf("%d of %d constitutions share a pre-key with another one", len(collisions), len(constitutions))
+	}
+	t.Logf("%d constitutions, %d pre-keys, %d sharing one", len(constitutions), len(owner), len(collisions))
+}
+
+// TestRelationsNeedCollidingPreKeys: a record whose constitution no other
+// record shares (ethanol among alanines) gets no identity keys and no
+// relation, while the colliding records are related as before (L- and
+// D-alanine are mirror images, the same structure written from the other
+// end is a duplicate; common practice). Hover still learns the chirality
+// of the lone record from keys computed on demand.
+func TestRelationsNeedCollidingPreKeys(t *testing.T) {
+	text := strings.Join([]string{
+		"N[C@@H](C)C(=O)O L-Ala",
+		"CCO ethanol",
+		"N[C@H](C)C(=O)O D-Ala",
+		"OC(=O)[C@H](C)N L-Ala again",
+		"C[C@@H](O)CC butan-2-ol",
+	}, "\n") + "\n"
+	res := analyze(t, "pool.smi", text)
+	related := map[int]notation.Code{}
+	for _, d := range res.Diagnostics {
+		if strings.HasPrefix(string(d.Code), "list-") {
+			related[d.Record] = d.Code
+		}
+	}
+	want := map[int]notation.Code{2: CodeListEnantiomer, 3: CodeListDuplicate}
+	if fmt.Sprint(related) != fmt.Sprint(want) {
+		t.Errorf("relations by record = %v, want %v", related, want)
+	}
+	for i, wantKeys := range []bool{true, false, true, true, false} {
+		if got := res.Records[i].Identity != nil; got != wantKeys {
+			t.Errorf("record %d: identity computed = %v, want %v", i, got, wantKeys)
+		}
+	}
+	if id := res.Records[4].Identify(); id == nil || id.Chirality != stereo.Chiral {
+		t.Errorf("butan-2-ol identity on demand = %+v, want chiral", id)
+	}
+	md, _, ok := res.Hover(strings.Index(text, "butan") - 3)
+	if !ok || !strings.Contains(md, "; chiral") {
+		t.Errorf("hover of butan-2-ol lacks its chirality:\n%s", md)
+	}
+}
+
+// TestPreKeyKeepsRelations relates a list of random writings of
+// stereoisomers (identity.tsv, the stereo part: RDKit 2022.09.3) twice:
+// as the document does, with identity keys only where pre-keys collide,
+// and with an index fed every record. The relations must be the same.
+func TestPreKeyKeepsRelations(t *testing.T) {
+	rows := readFixture(t, "identity.tsv", 7)
+	limit := 3000
+	if testing.Short() {
+		limit = 600
+	}
+	var b strings.Builder
+	n := 0
+	for _, c := range rows {
+		// Every third writing, so that many molecules appear once only
+		// and their pre-keys are unique in the list.
+		if c[6] != "1" || (c[2] != "0" && c[2] != "3") {
+			continue
+		}
+		fmt.Fprintf(&b, "%s %s-%s-%s\n", c[3], c[0], c[1], c[2])
+		if n++; n == limit {
+			break
+		}
+	}
+	// Lone constitutions: the plain part's first writings.
+	for _, c := range rows {
+		if c[6] == "0" && c[2] == "0" && n < limit+limit/3 {
+			fmt.Fprintf(&b, "%s plain-%s\n", c[3], c[0])
+			n++
+		}
+	}
+	res := analyze(t, "isomers.smi", b.String())
+
+	type relation struct {
+		code    notation.Code
+		earlier int
+	}
+	got := map[int]relation{}
+	for _, d := range res.Diagnostics {
+		if strings.HasPrefix(string(d.Code), "list-") {
+			got[d.Record] = relation{d.Code, res.RecordAt(d.Related[0].Span.Start)}
+		}
+	}
+	want := map[int]relation{}
+	idx := stereo.NewIndex()
+	var order []int
+	lone := 0
+	for i := range res.Records {
+		rec := &res.Records[i]
+		id := rec.Identify()
+		if id == nil {
+			continue
+		}
+		if rec.Identity == nil {
+			lone++
+		}
+		m := idx.Add(*id)
+		order = append(order, i)
+		code := map[stereo.Relation]notation.Code{
+			stereo.Identical: CodeListDuplicate, stereo.Enantiomers: CodeListEnantiomer,
+			stereo.Diastereomers: CodeListStereoisomer, stereo.Unspecified: CodeListStereoisomer,
+		}[m.Relation]
+		if m.Earlier >= 0 && code != "" {
+			want[i] = relation{code, order[m.Earlier]}
+		}
+	}
+	if len(want) < 100 || lone < 100 {
+		t.Fatalf("%d relations and %d records without keys: the list does not test the filter", len(want), lone)
+	}
+	for i, w := range want {
+		if got[i] != w {
+			t.Errorf("record %d (%s): relation %v, want %v", i, res.Records[i].Occ.Text, got[i], w)
+		}
+	}
+	for i, g := range got {
+		if _, ok := want[i]; !ok {
+			t.Errorf("record %d (%s): relation %v, want none", i, res.Records[i].Occ.Text, g)
+		}
+	}
+	t.Logf("%d records, %d relations, %d without identity keys", len(res.Records), len(want), lone)
+}
+
+// TestPreKeyTable: writings of one constitution share a pre-key, and a
+// few constitutions the refinement must look far to tell apart do not.
+// Same constitution (OpenSMILES: organic-subset atoms carry their implied
+// hydrogens, [H] atoms are hydrogens, aromatic and Kekulé benzene are one
+// molecule; common practice): the pairs marked same.
+func TestPreKeyTable(t *testing.T) {
+	tests := []struct {
+		a, b string
+		same bool
+	}{
+		{"c1ccccc1", "C1=CC=CC=C1", true},
+		{"C", "[CH4]", true},
+		{"C", "[H]C([H])([H])[H]", true},
+		{"OCC", "CCO", true},
+		{"N[C@@H](C)C(=O)O", "N[C@H](C)C(=O)O", true}, // stereo is not constitution
+		{"[2H]C", "[H]C", false},                      // an isotope is
+		{"CC(=O)[O-]", "CC(=O)O", false},
+		{"CCO", "COC", false},
+		// A segment between two alike atoms written the other way round:
+		// every atom differs from its neighbours after one round, yet only
+		// later rounds see which end the segment is joined to.
+		{"N[C@@H](COONCOCCCC)C(=O)O", "N[C@@H](COCNOOCCCC)C(=O)O", false},
+		{"CCCCCCCCCCCCCCCCCCCCCCCCCCCCCCO", "CCCCCCCCCCCCCCCCCCCCCCCCCCCCCOC", false},
+	}
+	for _, tt := range tests {
+		ka := constitutionPreKey(notation.Read(tt.a))
+		kb := constitutionPreKey(notation.Read(tt.b))
+		if (ka == kb) != tt.same {
+			t.Errorf("%s and %s: same pre-key = %v, want %v", tt.a, tt.b, ka == kb, tt.same)
+		}
+	}
+}

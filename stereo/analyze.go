@@ -60,6 +60,7 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 	ws.g.build(m)
 	ws.cfg.reset()
 	l := &labeller{g: &ws.g, cfg: &ws.cfg, nodeCap: opt.NodeCap, res: res, spare: ws.spare}
+	l.classes = &lazyClasses{g: l.g}
 	defer func() {
 		// an internal error must not reach the user; the analysis so far
 		// is kept and the failure reported at the start of the text. The
@@ -78,6 +79,7 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 	l.checkBridgeheads()
 	l.readBonds()
 	l.checkRingClosures()
+	l.checkCages()
 	l.labelAll()
 	l.perceiveUnmarked()
 	l.reportStrayBondMarks()
@@ -106,7 +108,8 @@ type labeller struct {
 	unitBonds     []bool // by bond
 	anyMarks      bool
 	oneSided      []*bondConfig
-	spare         []*digraph // storage of digraphs already used, for reuse (digraph_reuse.go)
+	spare         []*digraph   // storage of digraphs already used, for reuse (digraph_reuse.go)
+	classes       *lazyClasses // constitutional symmetry classes, computed on first use
 }
 
 func (l *labeller) warn(sp notation.Span, code notation.Code, format string, args ...any) *notation.Error {

@@ -57,16 +57,33 @@ func (l *labeller) checkBridgeheads() {
 // atom at a and at b.
 func (g *graph) bridges(a, b int) ([3][2]int, bool) {
 	var out [3][2]int
+	paths, ok := g.bridgePaths(a, b)
+	if !ok {
+		return out, false
+	}
+	for i, p := range paths {
+		out[i] = [2]int{p[0], p[len(p)-1]}
+	}
+	return out, true
+}
+
+// bridgePaths is bridges with the whole paths: the atoms of each bridge
+// from the one next to a to the one next to b.
+func (g *graph) bridgePaths(a, b int) ([3][]int, bool) {
+	var out [3][]int
 	if len(g.adj[a]) < 3 || len(g.adj[b]) < 3 || g.mol.BondBetween(a, b) >= 0 {
 		return out, false
 	}
-	used := map[int]bool{a: true, b: true}
+	used := g.bfsMarks()
+	used.stamp++
+	blocked := used.stamp
+	used.mark[a], used.mark[b] = blocked, blocked
 	n := 0
 	for _, e := range g.adj[a] {
-		if !g.ringBond[e.bond] || used[e.to] {
+		if !g.ringBond[e.bond] || used.mark[e.to] == blocked {
 			continue
 		}
-		path := g.shortPath(e.to, b, used, maxSmallBridge)
+		path := g.shortPath(e.to, b, used, blocked, maxSmallBridge)
 		if path == nil {
 			continue
 		}
@@ -74,39 +91,56 @@ func (g *graph) bridges(a, b int) ([3][2]int, bool) {
 			return out, false
 		}
 		for _, x := range path {
-			used[x] = true
+			used.mark[x] = blocked
 		}
-		out[n] = [2]int{path[0], path[len(path)-1]}
+		out[n] = path
 		n++
 	}
 	return out, n == 3
 }
 
+// bfsScratch is the state of the small searches of this file, kept in
+// the graph: mark holds, per atom, the stamp of the search that last
+// touched it, so no table is cleared between searches.
+type bfsScratch struct {
+	mark, prev, depth []int
+	stamp             int
+	queue             []int
+}
+
+func (g *graph) bfsMarks() *bfsScratch {
+	if sc := &g.store.bfs; len(sc.mark) < g.n {
+		*sc = bfsScratch{mark: make([]int, g.n), prev: make([]int, g.n), depth: make([]int, g.n), stamp: sc.stamp}
+	}
+	return &g.store.bfs
+}
+
 // shortPath returns the atoms of a shortest path from s to a neighbour
-// of t (t excluded) avoiding blocked atoms, with at most limit atoms.
-func (g *graph) shortPath(s, t int, blocked map[int]bool, limit int) []int {
-	prev := map[int]int{s: -1}
-	queue := []int{s}
-	depth := map[int]int{s: 1}
-	for len(queue) > 0 {
-		u := queue[0]
-		queue = queue[1:]
+// of t (t excluded) avoiding the atoms whose mark is blocked, with at
+// most limit atoms.
+func (g *graph) shortPath(s, t int, sc *bfsScratch, blocked, limit int) []int {
+	sc.stamp++
+	seen := sc.stamp
+	sc.mark[s], sc.prev[s], sc.depth[s] = seen, -1, 1
+	queue := append(sc.queue[:0], s)
+	defer func() { sc.queue = queue[:0] }()
+	for head := 0; head < len(queue); head++ {
+		u := queue[head]
 		if g.mol.BondBetween(u, t) >= 0 {
-			var path []int
-			for x := u; x != -1; x = prev[x] {
-				path = append([]int{x}, path...)
+			path := make([]int, sc.depth[u])
+			for x, i := u, sc.depth[u]-1; x != -1; x, i = sc.prev[x], i-1 {
+				path[i] = x
 			}
 			return path
 		}
-		if depth[u] >= limit {
+		if sc.depth[u] >= limit {
 			continue
 		}
 		for _, e := range g.adj[u] {
-			if _, seen := prev[e.to]; seen || blocked[e.to] || e.to == t {
+			if m := sc.mark[e.to]; m == seen || m == blocked || e.to == t {
 				continue
 			}
-			prev[e.to] = u
-			depth[e.to] = depth[u] + 1
+			sc.mark[e.to], sc.prev[e.to], sc.depth[e.to] = seen, u, sc.depth[u]+1
 			queue = append(queue, e.to)
 		}
 	}
@@ -146,4 +180,142 @@ func bridgeWinding(t *tetraConfig, bridges [3][2]int, side int) (bool, bool) {
 		return false, false
 	}
 	return (inversions(order)%2 == 0) == (t.winding == 1), true
+}
+
+// Bridgeheads fixed by their cage. When two bridges of a small bicycle
+// are constitutionally equal and neither carries a configuration, the
+// renaming that swaps them maps the molecule onto itself and reverses
+// the written configuration of both bridgeheads. Reversing one alone
+// would put its substituent inside the cage. So a mark at such a
+// bridgehead says nothing, and leaving it out leaves nothing open:
+// norbornane has no stereoisomers, and the bridgeheads of a
+// 9,10-dihydro-9,10-ethanoanthracene are fixed once the ethano bridge is
+// configured (common practice). Camphor's bridgeheads are untouched:
+// their bridges all differ.
+
+// checkCages reports the marks on bridgeheads fixed by their cage and
+// drops them, so that no other unit reads a configuration from them.
+func (l *labeller) checkCages() {
+	for _, a := range sortedKeys(l.cfg.tetra) {
+		if !l.cageFixed(a) {
+			continue
+		}
+		t := l.cfg.tetra[a]
+		l.warn(t.span, CodeIneffectiveCenter, "mark on a bridgehead that its cage fixes: two of its bridges are the same and carry no configuration")
+		delete(l.cfg.tetra, a)
+		l.unitAtoms[a] = true
+	}
+}
+
+// cageFixed reports whether atom x is a bridgehead of a small bicycle
+// two of whose bridges are constitutionally equal and carry no
+// configuration.
+func (l *labeller) cageFixed(x int) bool {
+	g := l.g
+	if g.degree(x) != 4 || ringDegree(g, x) < 3 {
+		return false
+	}
+	for _, y := range l.partnerHeads(x) {
+		paths, ok := g.bridgePaths(x, y)
+		if !ok {
+			continue
+		}
+		for i := 0; i < 3; i++ {
+			for j := i + 1; j < 3; j++ {
+				pi, pj := paths[i], paths[j]
+				if len(pi) != len(pj) || l.classes.of(pi[0]) != l.classes.of(pj[0]) ||
+					l.classes.of(pi[len(pi)-1]) != l.classes.of(pj[len(pj)-1]) {
+					continue
+				}
+				third := paths[3-i-j]
+				if !l.configuredBeside(x, y, third, pi) && !l.configuredBeside(x, y, third, pj) {
+					return true
+				}
+			}
+		}
+	}
+	return false
+}
+
+// ringDegree counts the ring bonds of a.
+func ringDegree(g *graph, a int) (n int) {
+	for _, e := range g.adj[a] {
+		if g.ringBond[e.bond] {
+			n++
+		}
+	}
+	return n
+}
+
+// partnerHeads lists the atoms with three or more ring bonds that lie
+// within maxSmallBridge+1 ring bonds of x: the bridgeheads a small
+// bicycle could pair with x.
+func (l *labeller) partnerHeads(x int) []int {
+	g := l.g
+	sc := g.bfsMarks()
+	sc.stamp++
+	seen := sc.stamp
+	sc.mark[x], sc.depth[x] = seen, 0
+	queue := append(sc.queue[:0], x)
+	var out []int
+	for head := 0; head < len(queue); head++ {
+		u := queue[head]
+		if u != x && ringDegree(g, u) >= 3 {
+			out = append(out, u)
+		}
+		if sc.depth[u] > maxSmallBridge {
+			continue
+		}
+		for _, e := range g.adj[u] {
+			if g.ringBond[e.bond] && sc.mark[e.to] != seen {
+				sc.mark[e.to], sc.depth[e.to] = seen, sc.depth[u]+1
+				queue = append(queue, e.to)
+			}
+		}
+	}
+	sc.queue = queue[:0]
+	return out
+}
+
+// configuredBeside reports whether a configuration lies on the bridge
+// path or on anything attached to it, searching from the bridge without
+// passing the bridgeheads x and y or the atoms of the other bridge
+// given; a search that runs round into other bridges counts them too,
+// which can only keep a mark.
+func (l *labeller) configuredBeside(x, y int, other, path []int) bool {
+	g := l.g
+	sc := g.bfsMarks()
+	sc.stamp++
+	seen := sc.stamp
+	sc.mark[x], sc.mark[y] = seen, seen
+	for _, a := range other {
+		sc.mark[a] = seen
+	}
+	queue := sc.queue[:0]
+	for _, a := range path {
+		if sc.mark[a] != seen {
+			sc.mark[a] = seen
+			queue = append(queue, a)
+		}
+	}
+	defer func() { sc.queue = queue[:0] }()
+	for head := 0; head < len(queue); head++ {
+		u := queue[head]
+		if _, ok := l.cfg.tetra[u]; ok {
+			return true
+		}
+		if _, ok := l.cfg.allene[u]; ok {
+			return true
+		}
+		for _, e := range g.adj[u] {
+			if _, ok := l.cfg.bonds[e.bond]; ok {
+				return true
+			}
+			if sc.mark[e.to] != seen {
+				sc.mark[e.to] = seen
+				queue = append(queue, e.to)
+			}
+		}
+	}
+	return false
 }

@@ -120,6 +120,7 @@ type graphStore struct {
 	scratch []int
 	frames  []dfsFrame
 	rings   []int
+	bfs     bfsScratch // its stamps keep growing across builds, so old marks never match
 }
 
 // sized returns (*buf)[:n], zeroed, growing *buf when it is too small.

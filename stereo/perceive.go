@@ -13,7 +13,7 @@ func (l *labeller) perceiveUnmarked() {
 	// the classes are computed on first use: a molecule whose every
 	// candidate is marked, or fails a test that needs no classes, never
 	// pays for them
-	class := &lazyClasses{g: g}
+	class := l.classes
 	sev := notation.SeverityHint
 	if l.anyMarks {
 		sev = notation.SeverityInformation
@@ -60,7 +60,7 @@ func (l *labeller) perceiveUnmarked() {
 			continue
 		}
 		for _, a := range on {
-			if l.unitAtoms[a] {
+			if l.unitAtoms[a] || l.cageFixed(a) {
 				continue
 			}
 			l.unitAtoms[a] = true

@@ -343,6 +343,9 @@ func (d *digraph) sphereOf(root, n nodeID) int {
 	if n == noNode {
 		return 1
 	}
+	if root == 0 {
+		return int(d.nodes[n].depth) // the root's view: depth is the distance
+	}
 	return d.treeDistance(root, n)
 }
 

@@ -1,0 +1,65 @@
+package stereo
+
+import (
+	"fmt"
+	"strings"
+	"testing"
+
+	"stereoline/notation"
+)
+
+// TestCageFixedBridgeheads checks the bridgeheads whose configuration a
+// small bicycle fixes, against the stereoisomer counts of the trade.
+func TestCageFixedBridgeheads(t *testing.T) {
+	cases := []struct {
+		name, smiles string
+		// labels is the suite-style label set; ineffective and undefined
+		// count the diagnostics of those codes
+		labels                 string
+		ineffective, undefined int
+		source                 string
+	}{
+		// norbornane has no stereoisomers (common practice): marks on its
+		// bridgeheads say nothing
+		{"norbornane marked", "[C@H]12CC[C@H](C1)CC2", "", 2, 0, "common practice"},
+		{"norbornane unmarked", "C1CC2CCC1C2", "", 0, 0, "common practice"},
+		// (1R,4R)-camphor: every bridge differs, both bridgeheads keep
+		// their descriptors (from memory: (+)-camphor is (1R,4R))
+		{"camphor", "CC1(C)[C@@H]2CC[C@@]1(C)C(=O)C2", "4R 7R", 0, 0, "from memory"},
+		// 9,10-dihydro-9,10-ethanoanthracene with a configured ethano
+		// bridge: the two benzo bridges are the same and unconfigured,
+		// so the bridgeheads are fixed by the cage; only the two ethano
+		// carbons are stereocentres (worked by hand from the renaming
+		// that swaps the benzo bridges)
+		{"ethanoanthracene", "c1ccc2c(c1)C[C@@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", "23S 8S", 0, 0, "worked by hand"},
+		// a bicyclo[2.2.2]octane-2,6-diol: the equal bridges at C1 carry
+		// the configured carbinol carbons, so the bridgehead stays a
+		// stereocentre (worked by hand: swapping its marks turns
+		// hydroxyls that face each other into hydroxyls that face the
+		// ethano bridge). Only the number of labelled centres is checked.
+		{"octanediol", "O[C@H]1C[C@H]2C[C@H](O)[C@@H]1CC2", "4 labels", 0, 0, "worked by hand"},
+	}
+	for _, c := range cases {
+		a := Analyze(notation.Read(c.smiles))
+		got := strings.Join(labelSet(a), " ")
+		if strings.HasSuffix(c.labels, " labels") {
+			got = fmt.Sprintf("%d labels", len(labelSet(a)))
+		}
+		if got != c.labels {
+			t.Errorf("%s (%s): labels %q, want %q", c.name, c.source, got, c.labels)
+		}
+		var ineffective, undefined int
+		for _, e := range a.Diagnostics {
+			switch e.Code {
+			case CodeIneffectiveCenter:
+				ineffective++
+			case CodeUndefined:
+				undefined++
+			}
+		}
+		if ineffective != c.ineffective || undefined != c.undefined {
+			t.Errorf("%s (%s): %d ineffective and %d undefined, want %d and %d: %v",
+				c.name, c.source, ineffective, undefined, c.ineffective, c.undefined, a.Diagnostics)
+		}
+	}
+}

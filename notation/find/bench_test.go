@@ -47,3 +47,24 @@ func BenchmarkFindPython(b *testing.B) {
 		FindKind(KindPython, src, Config{})
 	}
 }
+
+// BenchmarkFindJava measures a large Java file: the ordinary class of the
+// negative corpus and the Java marker file (text blocks included),
+// repeated to about 1 MB.
+func BenchmarkFindJava(b *testing.B) {
+	var unit []byte
+	for _, p := range []string{"negatives/Stock.java", "markers/java.java"} {
+		s, err := os.ReadFile(filepath.Join("testdata", p))
+		if err != nil {
+			b.Fatal(err)
+		}
+		unit = append(unit, s...)
+	}
+	src := bytes.Repeat(unit, 1<<20/len(unit)+1)
+	b.SetBytes(int64(len(src)))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		FindKind(KindJava, src, Config{})
+	}
+}

@@ -128,7 +128,7 @@ func (cf *codeFinder) walk(toks []token) {
 			key := f.open == '{' && next >= 0 && cf.is(toks[next], ":") ||
 				f.subscript && next >= 0 && cf.is(toks[next], "]")
 			if key {
-				if !t.lit.skip {
+				if !t.lit.skip && !t.lit.hasHoles() {
 					k := cf.keyText(t)
 					f.seg = cf.nm.value(k)
 					f.about = !f.seg && aboutKey(k)
@@ -236,14 +236,14 @@ func (cf *codeFinder) literal(t token, named, noGuess bool) {
 	if cf.prag.forced(t.span.Start) {
 		named, reason = true, ReasonPragma
 	}
+	if lit.template() {
+		cf.templateLiteral(lit, named, reason, noGuess)
+		return
+	}
 	if !named && (noGuess || cf.cfg.NoGuess || !mayGuess(cf.src, lit)) {
 		return
 	}
-	d := &decoded{}
-	for k := range lit.pieces {
-		d.piece(cf.src, &lit.pieces[k], cf.lang.rules)
-	}
-	m := d.b.done(lit.pieces[0].content.Start)
+	d, m := cf.decode(lit)
 	text := string(d.text)
 	if named {
 		if strings.IndexByte(text, '\n') >= 0 {
@@ -260,6 +260,15 @@ func (cf *codeFinder) literal(t token, named, noGuess bool) {
 	if unmistakable(text) {
 		cf.emit(lit, d, &m, 0, len(text), "", ReasonGuess)
 	}
+}
+
+// decode returns the notation text of a literal and its offset map.
+func (cf *codeFinder) decode(lit *literal) (*decoded, offsetMap) {
+	d := &decoded{}
+	for k := range lit.pieces {
+		d.piece(cf.src, &lit.pieces[k], cf.lang.rules)
+	}
+	return d, d.b.done(lit.pieces[0].content.Start)
 }
 
 // mayGuess is a quick test on the host bytes of an unnamed literal
@@ -298,7 +307,13 @@ func (cf *codeFinder) records(lit *literal, d *decoded, m *offsetMap, text strin
 			recEnd, ts, te := splitRecord(trimmed)
 			rs := start + lead
 			if plausible(text[rs:rs+recEnd]) && cf.prag.allowed(m.host(rs)) {
-				cf.emit(lit, d, m, rs, rs+recEnd, string(trimmed[ts:te]), reason)
+				title := trimmed[ts:te]
+				if bytes.IndexByte(title, holeByte) >= 0 {
+					// A title with a replacement field is not known
+					// before the program runs.
+					title = nil
+				}
+				cf.emit(lit, d, m, rs, rs+recEnd, string(title), reason)
 			}
 		}
 		start = end + 1
@@ -333,6 +348,12 @@ func (cf *codeFinder) emit(lit *literal, d *decoded, m *offsetMap, from, to int,
 		var fixes []Fix
 		for k := range lit.pieces {
 			if pc := &lit.pieces[k]; pc.content.Start <= is.span.Start && is.span.Start < pc.content.End {
+				if pc.block || pc.template {
+					// Rewriting the whole piece would have to rebuild
+					// its layout or fields; the record alone is enough.
+					fixes = []Fix{{Title: "double the backslashes", Span: o.Span, NewText: doubleBackslashes(o.Text)}}
+					continue
+				}
 				pr := d.pieces[k]
 				fixes = cf.fixes(pc, string(d.text[pr.start:pr.end]))
 			}

@@ -81,35 +81,96 @@ func (d *decoded) keep(src []byte, from, to int, sev notation.Severity, msg stri
 // piece decodes one literal piece.
 func (d *decoded) piece(src []byte, pc *piece, r *escapeRules) {
 	pr := pieceRange{start: len(d.text), issues: len(d.issues)}
-	i, end := pc.content.Start, pc.content.End
-	if pc.raw || r == nil {
-		for pc.dropCR && i < end {
-			k := bytes.IndexByte(src[i:end], '\r')
-			if k < 0 {
-				break
-			}
-			d.copy(src, i, i+k)
-			i += k + 1
+	if pc.block {
+		d.textBlock(src, pc, r)
+	} else {
+		from := pc.content.Start
+		for _, h := range pc.holes {
+			d.fixed(src, pc, from, h.Start, r)
+			d.hole(h)
+			from = h.End
 		}
-		d.copy(src, i, end)
-	}
-	for !pc.raw && r != nil && i < end {
-		k := bytes.IndexByte(src[i:end], '\\')
-		if k < 0 {
-			d.copy(src, i, end)
-			break
-		}
-		d.copy(src, i, i+k)
-		i += k
-		i = d.backslash(src, i, end, r)
+		d.fixed(src, pc, from, pc.content.End, r)
 	}
 	pr.end = len(d.text)
 	d.pieces = append(d.pieces, pr)
 }
 
+// fixed decodes the fixed text src[i:end] of a piece.
+func (d *decoded) fixed(src []byte, pc *piece, i, end int, r *escapeRules) {
+	escapes := !pc.raw && r != nil
+	special := specialBytes(escapes, pc.braces, pc.dropCR)
+	for i < end {
+		var k int
+		switch special {
+		case "":
+			k = -1
+		case `\`:
+			k = bytes.IndexByte(src[i:end], '\\')
+		default:
+			k = bytes.IndexAny(src[i:end], special)
+		}
+		if k < 0 {
+			d.copy(src, i, end)
+			return
+		}
+		d.copy(src, i, i+k)
+		i += k
+		switch src[i] {
+		case '\\':
+			i = d.backslash(src, i, end, r, pc.template)
+		case '\r':
+			i++ // not part of the value
+		default:
+			// A doubled brace is one brace; a single one (a stray '}')
+			// is kept.
+			if i+1 < end && src[i+1] == src[i] {
+				d.escape(src[i:i+1], i, 2)
+				i += 2
+			} else {
+				d.copy(src, i, i+1)
+				i++
+			}
+		}
+	}
+}
+
+// specialBytes lists the bytes fixed text cannot copy verbatim.
+func specialBytes(escapes, braces, dropCR bool) string {
+	s := ""
+	if escapes {
+		s += `\`
+	}
+	if braces {
+		s += "{}"
+	}
+	if dropCR {
+		s += "\r"
+	}
+	return s
+}
+
+// holeByte stands in the decoded text for a replacement field or
+// substitution: it is no notation byte and no blank, so a token touching
+// a field is never plausible and never a record.
+const holeByte = 0
+
+// hole records a replacement field at host span h as one holeByte.
+func (d *decoded) hole(h notation.Span) {
+	d.text = append(d.text, holeByte)
+	if h.Len() == 1 {
+		d.b.copy(h.Start, 1)
+		return
+	}
+	d.b.escape(1, h.Start, h.Len())
+}
+
 // backslash decodes the escape sequence at src[i] (a backslash) and
 // returns the offset after it.
-func (d *decoded) backslash(src []byte, i, end int, r *escapeRules) int {
+//
+// In a template (blanks set), \t, \n and \r lay out the values and are
+// read as the blank they stand for, so that they separate tokens.
+func (d *decoded) backslash(src []byte, i, end int, r *escapeRules, blanks bool) int {
 	if i+1 >= end {
 		d.copy(src, i, i+1)
 		return i + 1
@@ -119,6 +180,9 @@ func (d *decoded) backslash(src []byte, i, end int, r *escapeRules) int {
 	switch {
 	case e == '\\' || strings.IndexByte(r.harmless, e) >= 0:
 		d.escape([]byte{e}, i, 2)
+		return i + 2
+	case blanks && (e == 't' || e == 'n' || e == 'r') && strings.IndexByte(r.simple, e) >= 0:
+		d.escape([]byte{byte(simpleEscape(e))}, i, 2)
 		return i + 2
 	case (e == '\n' || e == '\r') && r.joinLines:
 		j := i + 2

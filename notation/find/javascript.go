@@ -8,9 +8,10 @@ import (
 
 // JavaScript and TypeScript string literals (ECMA-262, "String Literals"
 // and "Template Literals"): '...' and "..." on one line, `...` templates
-// over lines. A template with ${...} substitutions is skipped; one tagged
-// String.raw is raw. Regular expression literals are recognised from the
-// token before the slash, so that quotes inside /["']/ start no string.
+// over lines. The fixed text of a template with ${...} substitutions is
+// searched as a template (template.go); one tagged String.raw is raw.
+// Regular expression literals are recognised from the token before the
+// slash, so that quotes inside /["']/ start no string.
 var javascript = &codeLang{
 	kind: KindJavaScript,
 	lex:  func(src []byte, prag *pragmas) []token { return lex(src, prag, jsHook) },
@@ -103,15 +104,19 @@ func skipRegex(lx *lexer) {
 func template(lx *lexer) {
 	start := lx.i
 	j := lx.i + 1
-	subst := false
+	var holes []notation.Span
 	for j < len(lx.src) && lx.src[j] != '`' {
 		switch {
 		case lx.src[j] == '\\':
 			j += 2
 			continue
 		case lx.src[j] == '$' && j+1 < len(lx.src) && lx.src[j+1] == '{':
-			subst = true
-			j = skipBraces(lx.src, j+1)
+			e := skipBrackets(lx.src, j+1, false)
+			if e < 0 {
+				e = len(lx.src)
+			}
+			holes = append(holes, notation.Span{Start: j, End: e})
+			j = e
 			continue
 		}
 		j++
@@ -121,9 +126,11 @@ func template(lx *lexer) {
 		cend, end = len(lx.src), len(lx.src)
 	}
 	pc := piece{
-		tok:     notation.Span{Start: start, End: end},
-		content: notation.Span{Start: start + 1, End: cend},
-		quote:   "`",
+		tok:      notation.Span{Start: start, End: end},
+		content:  notation.Span{Start: start + 1, End: cend},
+		quote:    "`",
+		holes:    holes,
+		template: len(holes) > 0,
 	}
 	if n := len(lx.toks); n >= 3 && string(lx.text(lx.toks[n-1])) == "raw" && string(lx.text(lx.toks[n-2])) == "." &&
 		string(lx.text(lx.toks[n-3])) == "String" {
@@ -132,26 +139,36 @@ func template(lx *lexer) {
 		pc.tok.Start = lx.toks[n-3].span.Start
 		lx.toks = lx.toks[:n-3]
 	}
-	lx.str(pc, subst || !ok)
+	lx.str(pc, !ok)
 }
 
-// skipBraces returns the offset after the '}' matching the '{' at i,
-// skipping strings and templates inside.
-func skipBraces(src []byte, i int) int {
+// skipBrackets returns the offset after the bracket matching the '{' or
+// '(' at i, skipping strings and templates inside, or -1 when it is not
+// closed (before the end of the line when oneLine is set).
+func skipBrackets(src []byte, i int, oneLine bool) int {
+	open := src[i]
+	close := byte('}')
+	if open == '(' {
+		close = ')'
+	}
 	depth := 0
 	for j := i; j < len(src); j++ {
 		switch c := src[j]; c {
-		case '{':
+		case open:
 			depth++
-		case '}':
+		case close:
 			depth--
 			if depth == 0 {
 				return j + 1
+			}
+		case '\n':
+			if oneLine {
+				return -1
 			}
 		case '"', '\'', '`':
 			_, end, _ := quoted(src, j+1, string(c), true, c == '`')
 			j = end - 1
 		}
 	}
-	return len(src)
+	return -1
 }

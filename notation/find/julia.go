@@ -3,8 +3,9 @@ package find
 import "strings"
 
 // Julia string literals (Julia manual, "Strings"): "..." and """..."""
-// with escapes (an invalid one is a parse error) and $ interpolation,
-// which makes a literal skipped; raw"..." is raw; other string macros
+// with escapes (an invalid one is a parse error) and $name and $(...)
+// interpolation, whose fixed text is searched as a template
+// (template.go); raw"..." is raw; other string macros
 // (r"..." regexes, b"...", custom ones) are skipped. #= =# comments nest.
 // A quote after a value is the transpose operator, not a character.
 var julia = &codeLang{
@@ -65,10 +66,9 @@ func juliaString(lx *lexer, prefixLen int, raw, skip bool) {
 	if lx.i+prefixLen+2 < len(lx.src) && string(lx.src[lx.i+prefixLen:lx.i+prefixLen+3]) == `"""` {
 		q = `"""`
 	}
-	lx.simpleString(prefixLen, q, raw, true, true, skip)
-	t := &lx.toks[len(lx.toks)-1]
-	pc := t.lit.pieces[0]
-	if !raw {
-		t.lit.skip = t.lit.skip || hasTemplate(lx.src[pc.content.Start:pc.content.End], true)
+	if raw || skip {
+		lx.simpleString(prefixLen, q, raw, true, true, skip)
+		return
 	}
+	dollarString(lx, prefixLen, dollarForm{quote: q, escapes: true, multiline: true, open: '('}, false)
 }

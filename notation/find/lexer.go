@@ -37,9 +37,31 @@ type token struct {
 // several when the language joins adjacent literals (Python).
 type literal struct {
 	pieces []piece
-	// skip marks literals that are not fixed text (f-strings,
-	// interpolated and byte strings, text blocks): never notation.
+	// skip marks literals that are never notation: byte strings, string
+	// macros, unterminated or malformed literals.
 	skip bool
+}
+
+// template reports whether a piece of the literal builds its text at run
+// time (see piece.template); such literals are searched token by token.
+func (l *literal) template() bool {
+	for k := range l.pieces {
+		if l.pieces[k].template {
+			return true
+		}
+	}
+	return false
+}
+
+// hasHoles reports whether a piece of the literal has a replacement field
+// or substitution.
+func (l *literal) hasHoles() bool {
+	for k := range l.pieces {
+		if len(l.pieces[k].holes) > 0 {
+			return true
+		}
+	}
+	return false
 }
 
 // piece is one quoted literal token.
@@ -50,6 +72,22 @@ type piece struct {
 	quote   string        // the opening quote, which is also the closing one
 	raw     bool          // backslashes are not escapes
 	dropCR  bool          // carriage returns are not part of the value (Go raw strings)
+	// holes are the replacement fields and substitutions of a template
+	// ({...} in a Python f-string, ${...} in JavaScript, $name and ${...}
+	// in Kotlin), as host spans inside content, in order. They are not
+	// fixed text, and no notation spans one.
+	holes []notation.Span
+	// template: the piece is formatted at run time (an f-string, a
+	// template with substitutions), so its fixed text is a layout of
+	// values: it is searched token by token, and the escapes \t, \n and
+	// \r are read as the blanks they stand for, which separate tokens.
+	template bool
+	// braces: {{ and }} stand for one brace (Python f- and t-strings).
+	braces bool
+	// block: a Java text block, whose content (from the line after the
+	// opening delimiter) is stripped of incidental white space before its
+	// escapes are read.
+	block bool
 }
 
 // lexer is the shared scanning state.

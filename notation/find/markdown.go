@@ -14,8 +14,8 @@ import (
 //   - a fenced block tagged with a language we lex (python, js, go, ...)
 //     is searched as that language;
 //   - an inline code span is notation when it is unmistakably so, or when
-//     the text just before it on the line mentions SMILES ("SMILES:
-//     `CCO`"); code spans are taken within one line only;
+//     the text just before it mentions SMILES ("SMILES: `CCO`"); see
+//     codespan.go for spans over line breaks;
 //   - <!-- stereoline: ... --> comments are pragmas.
 //
 // Backslashes are literal in code spans and blocks, so maps are plain.
@@ -30,6 +30,15 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 		records   bool
 		kind      Kind
 		bodyStart int
+	}
+	// para is the paragraph being read: code spans may run over its
+	// lines but not out of it.
+	para := notation.Span{Start: -1}
+	flush := func() {
+		if para.Start >= 0 {
+			out = inlineCode(out, src[para.Start:para.End], para.Start, prag, nm, cfg)
+			para.Start = -1
+		}
 	}
 	for start := 0; start < len(src); {
 		line, next := nextLine(src, start)
@@ -55,6 +64,10 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 			}
 			continue
 		}
+		if len(bytes.TrimSpace(line)) == 0 {
+			flush()
+			continue
+		}
 		if indent < 4 {
 			if n := fenceRun(body, '`'); n >= 3 {
 				fence.open, fence.char, fence.n = true, '`', n
@@ -62,6 +75,7 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 				fence.open, fence.char, fence.n = true, '~', n
 			}
 			if fence.open {
+				flush()
 				info := strings.Fields(strings.ToLower(string(body[fence.n:])))
 				fence.records, fence.kind, fence.bodyStart = false, KindUnknown, start
 				if len(info) > 0 {
@@ -85,13 +99,22 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 		if k := bytes.Index(line, []byte("<!--")); k >= 0 {
 			prag.addComment(line[k:], lineStart+k)
 		}
-		out = inlineCode(out, line, lineStart, prag, nm, cfg)
+		heading := indent < 4 && len(body) > 0 && body[0] == '#'
+		if heading {
+			// An ATX heading is a block of one line.
+			flush()
+		}
+		if para.Start < 0 {
+			para.Start = lineStart
+		}
+		para.End = start
+		if heading {
+			flush()
+		}
 	}
+	flush()
 	return out
 }
-
-// maxCodeSpan bounds the length of an inline code span searched for.
-const maxCodeSpan = 4096
 
 // fenceAliases are info-string tags editors write for our languages.
 var fenceAliases = map[string]Kind{
@@ -136,86 +159,4 @@ func fencedRecord(out []Occurrence, line []byte, lineStart int, prag *pragmas) [
 		Reason:    ReasonPlace,
 		m:         identityMap(lineStart, recEnd),
 	})
-}
-
-// inlineCode adds the notation in the code spans of one line.
-func inlineCode(out []Occurrence, line []byte, lineStart int, prag *pragmas, nm namer, cfg *Config) []Occurrence {
-	for i := 0; i < len(line); {
-		k := bytes.IndexByte(line[i:], '`')
-		if k < 0 {
-			break
-		}
-		open := i + k
-		n := fenceRun(line[open:], '`')
-		from := open + n
-		closeAt := -1
-		// A code span is looked for within maxCodeSpan bytes: longer
-		// ones are not notation, and the bound keeps a line full of
-		// unmatched backticks linear.
-		limit := min(len(line), from+maxCodeSpan)
-		for j := from; j < limit; {
-			q := bytes.IndexByte(line[j:limit], '`')
-			if q < 0 {
-				break
-			}
-			m := fenceRun(line[j+q:], '`')
-			if m == n {
-				closeAt = j + q
-				break
-			}
-			j += q + m
-		}
-		if closeAt < 0 {
-			i = from
-			continue
-		}
-		i = closeAt + n
-		cs, ce := from, closeAt
-		if ce-cs >= 2 && line[cs] == ' ' && line[ce-1] == ' ' && len(bytes.TrimSpace(line[cs:ce])) > 0 {
-			cs, ce = cs+1, ce-1
-		}
-		text := string(line[cs:ce])
-		if !prag.allowed(lineStart) {
-			continue
-		}
-		reason := Reason(0)
-		switch {
-		case prag.forced(lineStart):
-			reason = ReasonPragma
-		case namedBefore(line[:open], nm) && plausible(text):
-			reason = ReasonName
-		case !cfg.NoGuess && unmistakable(text):
-			reason = ReasonGuess
-		}
-		if reason == 0 {
-			continue
-		}
-		out = append(out, Occurrence{
-			Text:      text,
-			Span:      notation.Span{Start: lineStart + cs, End: lineStart + ce},
-			Kind:      KindMarkdown,
-			Construct: ConstructInlineCode,
-			Reason:    reason,
-			m:         identityMap(lineStart+cs, ce-cs),
-		})
-	}
-	return out
-}
-
-// namedBefore reports whether the last words before a code span name the
-// notation ("the SMILES `CCO`", "Reaction SMILES: `...`").
-func namedBefore(before []byte, nm namer) bool {
-	if len(before) > 40 {
-		before = before[len(before)-40:]
-	}
-	words := strings.Fields(string(before))
-	if len(words) > 3 {
-		words = words[len(words)-3:]
-	}
-	for _, w := range words {
-		if nm.value(strings.Trim(w, ":*_,()")) {
-			return true
-		}
-	}
-	return false
 }

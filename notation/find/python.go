@@ -11,8 +11,8 @@ import (
 // pairs; single, double and triple quotes; adjacent literals are joined
 // into one string, so they form one literal here, whose offset map is
 // piecewise (the quotes and blanks between pieces belong to no notation
-// byte). A group with an f-, t- or byte piece is skipped: its value is
-// not fixed text.
+// byte). f- and t-strings are templates (fstring.go); a group with a
+// byte piece is skipped: its value is no text.
 var python = &codeLang{
 	kind: KindPython,
 	lex:  lexPython,
@@ -83,8 +83,11 @@ func pythonString(lx *lexer, n int) {
 		quote = strings.Repeat(quote, 3)
 	}
 	raw := strings.Contains(prefix, "r")
-	skip := strings.ContainsAny(prefix, "bft")
-	lx.simpleString(n, quote, raw, true, len(quote) == 3, skip)
+	if strings.ContainsAny(prefix, "ft") && !strings.Contains(prefix, "b") {
+		fString(lx, n, quote, raw)
+		return
+	}
+	lx.simpleString(n, quote, raw, true, len(quote) == 3, strings.Contains(prefix, "b"))
 }
 
 // joinAdjacent merges string tokens with nothing but blanks, newlines

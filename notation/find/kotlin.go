@@ -1,0 +1,127 @@
+package find
+
+import (
+	"bytes"
+	"strings"
+
+	"stereoline/notation"
+)
+
+// Kotlin string literals (Kotlin language specification, "String
+// literals"): "..." with escapes, and raw """...""" without; both with
+// $name and ${...} templates, whose fixed text is searched as a template
+// (template.go). trimIndent() and trimMargin() after a raw string are
+// not applied: its lines are searched as written, a record list trimming
+// the blanks that start a line anyway.
+var kotlin = &codeLang{
+	kind: KindKotlin,
+	lex:  func(src []byte, prag *pragmas) []token { return lex(src, prag, kotlinHook) },
+	rules: &escapeRules{
+		lang: "kotlin", harmless: `"'$`, simple: "tbnr", unicode: "u", unknown: unknownReject,
+	},
+	rawForm: func(pc *piece, text string) (string, bool) {
+		if strings.Contains(text, `"""`) || strings.Contains(text, "$") || strings.HasSuffix(text, `"`) {
+			return "", false
+		}
+		return `"""` + text + `"""`, true
+	},
+	braceBlocks: true,
+}
+
+func kotlinHook(lx *lexer) bool {
+	switch lx.src[lx.i] {
+	case '/':
+		return lx.lineComment("//") || lx.blockComment("/*", "*/", true)
+	case '"':
+		f := dollarForm{quote: `"`, escapes: true, open: '{'}
+		if lx.has(`"""`) {
+			f = dollarForm{quote: `"""`, multiline: true, open: '{', quoteRun: true}
+		}
+		dollarString(lx, 0, f, f.quote == `"""`)
+		return true
+	case '\'':
+		charLiteral(lx)
+		return true
+	}
+	return false
+}
+
+// dollarForm says how to scan a literal whose templates start with '$'
+// (Kotlin: $name and ${...}; Julia: $name and $(...)).
+type dollarForm struct {
+	quote     string
+	escapes   bool // a backslash protects the next byte (and \$ is a dollar)
+	multiline bool
+	open      byte // the bracket after '$' that opens an expression
+	quoteRun  bool // more than three quotes close with the last three (Kotlin raw strings)
+}
+
+// dollarString scans and emits a literal with a prefix of prefixLen bytes
+// at lx.i. Its templates become holes: a template piece, searched token
+// by token (see template.go).
+func dollarString(lx *lexer, prefixLen int, f dollarForm, raw bool) {
+	start := lx.i
+	from := start + prefixLen + len(f.quote)
+	cend, end, holes, ok := scanDollar(lx.src, from, f)
+	lx.str(piece{
+		tok:      notation.Span{Start: start, End: end},
+		content:  notation.Span{Start: from, End: cend},
+		prefix:   string(lx.src[start : start+prefixLen]),
+		quote:    f.quote,
+		raw:      raw,
+		holes:    holes,
+		template: len(holes) > 0,
+	}, !ok)
+}
+
+// scanDollar finds the end of a literal whose content starts at from,
+// and its templates. An unterminated literal ends at the line end (one
+// line literals) or the end of the file, and reports ok false.
+func scanDollar(src []byte, from int, f dollarForm) (cend, end int, holes []notation.Span, ok bool) {
+	j := from
+	for j < len(src) {
+		c := src[j]
+		switch {
+		case c == '\\' && f.escapes:
+			j += 2
+			continue
+		case c == '\n' && !f.multiline:
+			return j, j, holes, false
+		case c == f.quote[0] && bytes.HasPrefix(src[j:], []byte(f.quote)):
+			end := j + len(f.quote)
+			for f.quoteRun && end < len(src) && src[end] == f.quote[0] {
+				end++
+			}
+			return end - len(f.quote), end, holes, true
+		case c == '$' && j+1 < len(src) && src[j+1] == f.open:
+			e := skipBrackets(src, j+1, !f.multiline)
+			if e < 0 {
+				if !f.multiline {
+					if nl := bytes.IndexByte(src[j:], '\n'); nl >= 0 {
+						return j + nl, j + nl, holes, false
+					}
+				}
+				return len(src), len(src), holes, false
+			}
+			holes = append(holes, notation.Span{Start: j, End: e})
+			j = e
+			continue
+		case c == '$' && j+1 < len(src) && templateNameStart(src[j+1]):
+			k := j + 2
+			for k < len(src) && (templateNameStart(src[k]) || src[k] >= '0' && src[k] <= '9') {
+				k++
+			}
+			holes = append(holes, notation.Span{Start: j, End: k})
+			j = k
+			continue
+		}
+		j++
+	}
+	return len(src), len(src), holes, false
+}
+
+// templateNameStart reports whether c may start the name of a $name
+// template: a letter, '_' or a byte of a non-ASCII letter.
+func templateNameStart(c byte) bool {
+	return c == '_' || c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z' || c >= 0x80
+}

@@ -1,0 +1,114 @@
+package find
+
+import (
+	"strings"
+)
+
+// Templates are literals formatted at run time: Python f- and t-strings,
+// JavaScript template literals with substitutions, Kotlin (and Julia)
+// strings with $name or ${...} templates. Only their fixed text is
+// known, and it is a layout of values rather than a value: in
+// f"{cid}\tC[C@H](N)C(=O)O" the record is the token after the tab. So a
+// template is searched token by token, a token being a run of fixed text
+// between blanks (spaces, tabs, line ends, and the \t, \n and \r escapes
+// that stand for them) and the ends of the literal. A token touching a
+// replacement field is part of a value built at run time
+// (f"C{n}CO", f"{prefix}/F") and is never taken; nor is anything that
+// spans a field.
+//
+// A template is taken
+//   - when a name or pragma says so and it has no field at all (a
+//     template without fields is a plain literal);
+//   - with several lines under a name or pragma: as a record list, one
+//     record a line, when the record is whole fixed text;
+//   - otherwise token by token, each token that is unmistakably notation
+//     (or, under a "stereoline: notation" pragma, each token).
+
+// templateLiteral decides about a template literal (see above).
+func (cf *codeFinder) templateLiteral(lit *literal, named bool, reason Reason, noGuess bool) {
+	guess := !noGuess && !cf.cfg.NoGuess
+	forced := reason == ReasonPragma
+	if !named && (!guess || !mayGuessTemplate(cf.src, lit)) {
+		return
+	}
+	d, m := cf.decode(lit)
+	text := string(d.text)
+	if named {
+		switch {
+		case strings.IndexByte(text, '\n') >= 0:
+			cf.records(lit, d, &m, text, reason)
+			return
+		case strings.IndexByte(text, holeByte) < 0:
+			if forced && text != "" || plausible(text) {
+				cf.emit(lit, d, &m, 0, len(text), "", reason)
+			}
+			return
+		}
+		// One line with fields: its tokens, as if unnamed.
+	}
+	for start := 0; start < len(text); {
+		for start < len(text) && isTokenBlank(text[start]) {
+			start++
+		}
+		end := start
+		for end < len(text) && !isTokenBlank(text[end]) {
+			end++
+		}
+		tok := text[start:end]
+		ok := tok != "" && strings.IndexByte(tok, holeByte) < 0 &&
+			(forced || guess && unmistakable(tok))
+		if ok && cf.prag.allowed(m.host(start)) {
+			why := ReasonGuess
+			if forced {
+				why = ReasonPragma
+			}
+			cf.emit(lit, d, &m, start, end, "", why)
+		}
+		start = end
+	}
+}
+
+func isTokenBlank(c byte) bool { return c == ' ' || c == '\t' || c == '\r' || c == '\n' }
+
+// mayGuessTemplate is the quick test of mayGuess for templates: an
+// unmistakable token is at least three notation bytes of fixed text with
+// a mark, ring digit, bracket or class among them, and without such a
+// run in the host bytes no token can be. Most templates (messages, paths,
+// keys) fail here before they are decoded.
+func mayGuessTemplate(src []byte, lit *literal) bool {
+	for k := range lit.pieces {
+		pc := &lit.pieces[k]
+		from := pc.content.Start
+		for _, h := range pc.holes {
+			if evidenceRun(src[from:h.Start]) {
+				return true
+			}
+			from = h.End
+		}
+		if evidenceRun(src[from:pc.content.End]) {
+			return true
+		}
+	}
+	return false
+}
+
+// evidenceRun reports whether b has three or more consecutive notation
+// bytes, one of which is a mark, digit, bracket or '%'.
+func evidenceRun(b []byte) bool {
+	n, evidence := 0, false
+	for _, c := range b {
+		if !notationByte[c] {
+			n, evidence = 0, false
+			continue
+		}
+		n++
+		switch {
+		case c == '@' || c == '/' || c == '\\' || c == '[' || c == '%' || c >= '0' && c <= '9':
+			evidence = true
+		}
+		if evidence && n >= 3 {
+			return true
+		}
+	}
+	return false
+}

@@ -83,6 +83,7 @@ type clientSetup struct {
 	initOpts any             // initializationOptions
 	settings json.RawMessage // workspace settings section served on request
 	rootURI  string
+	folders  []string // workspace folder URIs sent at initialize
 	debounce time.Duration
 	progress time.Duration // Options.ProgressDelay
 	hook     func(*Server)
@@ -141,6 +142,13 @@ func start(t testing.TB, setup clientSetup) *fakeClient {
 	}
 	if setup.rootURI != "" {
 		params["rootUri"] = setup.rootURI
+	}
+	if setup.folders != nil {
+		var folders []map[string]string
+		for _, f := range setup.folders {
+			folders = append(folders, map[string]string{"uri": f, "name": f})
+		}
+		params["workspaceFolders"] = folders
 	}
 	var res json.RawMessage
 	if err := c.call("initialize", params, &res); err != nil {

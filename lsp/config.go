@@ -94,29 +94,36 @@ func (s *Server) applySettings(section json.RawMessage) error {
 	return nil
 }
 
-// reconfigure analyses every open document again, under new editor
+// reconfigure analyses the open documents again under new editor
 // settings when cfg is not nil, and under the project files as they now
 // are; then it asks the client to refresh what it pulls.
 func (s *Server) reconfigure(cfg *document.Config) {
+	s.resettle(func(next *snapshot) {
+		if cfg != nil {
+			next.editor = newConfigured(next.editor.analyzer.WithConfig(*cfg))
+		}
+	})
+}
+
+// resettle builds the next snapshot with change applied to it (editor
+// settings, workspace folders, or nothing when a project file changed),
+// analyses and publishes again the open documents whose configuration
+// that alters, and asks the client to refresh what it pulls: files on
+// disk may have changed configuration too.
+func (s *Server) resettle(change func(next *snapshot)) {
 	s.mu.Lock()
-	editor := s.snap.editor
-	if cfg != nil {
-		editor = newConfigured(editor.analyzer.WithConfig(*cfg))
-	}
-	next := s.snap.reconfigured(editor, func(snap *snapshot, f *fileVersion) configured {
+	next := s.snap.clone()
+	change(next)
+	changed := next.reresolve(func(snap *snapshot, f *fileVersion) configured {
 		return s.configFor(snap, f.path())
 	})
 	s.setSnapshot(next)
-	uris := make([]string, 0, len(next.files))
-	for uri := range next.files {
-		uris = append(uris, uri)
-	}
 	caps := s.caps
 	s.mu.Unlock()
-	for _, uri := range uris {
+	for _, uri := range changed {
 		s.work.schedule(uri, 0)
 	}
-	if caps.Workspace.InlayHint.RefreshSupport {
+	if caps.Workspace.InlayHint.RefreshSupport && len(changed) > 0 {
 		go s.refresh(methodInlayHintRefresh)
 	}
 	if caps.Workspace.Diagnostics.RefreshSupport {

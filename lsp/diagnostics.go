@@ -167,9 +167,7 @@ func (s *Server) workspaceDiagnostic(ctx context.Context, snap *snapshot, params
 // (changed) document reports.
 func (s *Server) scanWorkspace(ctx context.Context, snap *snapshot, token *protocol.ProgressToken, previous map[string]string) (workspaceDiagnosticReport, int, error) {
 	report := workspaceDiagnosticReport{Items: []workspaceDocumentReport{}}
-	s.mu.Lock()
-	roots := append([]string{}, s.roots...)
-	s.mu.Unlock()
+	roots := snap.roots
 	openPaths := map[string]bool{}
 	uris := make([]string, 0, len(snap.files))
 	for u, f := range snap.files {
@@ -187,8 +185,10 @@ func (s *Server) scanWorkspace(ctx context.Context, snap *snapshot, token *proto
 	prog := s.startProgress(token, "Checking stereo marks", len(uris)+len(disk))
 	defer prog.end()
 	done, fresh := 0, 0
+	reported := map[string]bool{}
 	add := func(item workspaceDocumentReport) {
 		report.Items = append(report.Items, item)
+		reported[item.URI] = true
 		if item.Kind == "full" {
 			fresh++
 		}
@@ -230,8 +230,26 @@ func (s *Server) scanWorkspace(ctx context.Context, snap *snapshot, token *proto
 			add(item)
 		}
 	}
+	// A document the client holds a report for that is neither open nor
+	// found now (its folder left the workspace, or it was deleted) gets
+	// one empty report, so the client stops showing its findings; a
+	// client keeps the last report of a document the server leaves out.
+	var gone []string
+	for u, id := range previous {
+		if !reported[u] && id != resultGone {
+			gone = append(gone, u)
+		}
+	}
+	sort.Strings(gone)
+	for _, u := range gone {
+		add(workspaceDocumentReport{URI: u, documentDiagnosticReport: documentDiagnosticReport{Kind: "full", ResultID: resultGone}})
+	}
 	return report, fresh, nil
 }
+
+// resultGone is the result id of the empty report of a document that left
+// the workspace; it is not reported again.
+const resultGone = "gone"
 
 // diskFile is a host file found under a workspace folder.
 type diskFile struct {
@@ -240,7 +258,8 @@ type diskFile struct {
 }
 
 // hostFiles lists the files under roots whose names the finder reads,
-// skipping open documents, hidden folders and dependency folders.
+// skipping open documents, hidden folders, dependency folders and project
+// configuration files (JSON by name, but settings rather than records).
 func (s *Server) hostFiles(ctx context.Context, snap *snapshot, roots []string, open map[string]bool) []diskFile {
 	cfg := snap.editor.analyzer.Config()
 	var out []diskFile
@@ -257,7 +276,7 @@ func (s *Server) hostFiles(ctx context.Context, snap *snapshot, roots []string, 
 					return fs.SkipDir
 				}
 				return nil
-			case !d.Type().IsRegular() || open[filepath.Clean(p)] || !isHostFile(cfg, d.Name()):
+			case !d.Type().IsRegular() || open[filepath.Clean(p)] || d.Name() == document.ConfigFileName || !isHostFile(cfg, d.Name()):
 				return nil
 			}
 			if info, err := d.Info(); err == nil && info.Size() <= maxScanFileSize {

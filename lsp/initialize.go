@@ -3,6 +3,7 @@ package lsp
 import (
 	"encoding/json"
 	"fmt"
+	"path/filepath"
 
 	"go.lsp.dev/jsonrpc2"
 	"go.lsp.dev/protocol"
@@ -35,11 +36,11 @@ func (s *Server) initialize(params json.RawMessage) (any, error) {
 	}
 	s.caps = p.Capabilities
 	s.baseCfg = cfg
-	s.roots = workspaceRoots(p)
 	next := newSnapshot(newConfigured(document.NewAnalyzer(cfg)), enc)
+	next.roots = workspaceRoots(p)
 	s.setSnapshot(next)
 	s.state = stateInitialized
-	s.log.Info("initialized", zap.String("positionEncoding", string(enc)), zap.Strings("roots", s.roots))
+	s.log.Info("initialized", zap.String("positionEncoding", string(enc)), zap.Strings("roots", next.roots))
 	return initializeResult{Capabilities: capabilities(enc), ServerInfo: &protocol.ServerInfo{Name: "stereoline", Version: s.opts.Version}}, nil
 }
 
@@ -71,6 +72,11 @@ func capabilities(enc PositionEncoding) serverCapabilities {
 			HoverProvider:          true,
 			CodeActionProvider:     &protocol.CodeActionOptions{CodeActionKinds: kinds, ResolveProvider: true},
 			DocumentSymbolProvider: true,
+			// The folders decide which project files apply and which
+			// files a workspace pull covers (folders.go).
+			Workspace: &protocol.ServerCapabilitiesWorkspace{
+				WorkspaceFolders: &protocol.ServerCapabilitiesWorkspaceFolders{Supported: true, ChangeNotifications: true},
+			},
 		},
 		PositionEncoding:  enc,
 		InlayHintProvider: true,
@@ -82,19 +88,21 @@ func capabilities(enc PositionEncoding) serverCapabilities {
 	}
 }
 
-// workspaceRoots returns the paths of the workspace folders on disk.
+// workspaceRoots returns the paths of the workspace folders on disk: the
+// folders the client names, or its root when it names none (a client
+// without workspace folder support, LSP 3.17 "InitializeParams").
 func workspaceRoots(p initializeParams) []string {
 	var roots []string
 	for _, f := range p.WorkspaceFolders {
 		if path := fileURIPath(string(f.URI)); path != "" {
-			roots = append(roots, path)
+			roots = changeRoots(roots, []string{cleanPath(path)}, nil)
 		}
 	}
 	if len(roots) == 0 {
 		if path := fileURIPath(p.RootURI); path != "" {
-			roots = append(roots, path)
+			roots = append(roots, cleanPath(path))
 		} else if p.RootPath != "" {
-			roots = append(roots, p.RootPath)
+			roots = append(roots, filepath.Clean(p.RootPath))
 		}
 	}
 	return roots

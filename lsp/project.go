@@ -14,9 +14,10 @@ import (
 
 // A project configuration file (document.ConfigFileName) in a document's
 // folder or a folder above applies to it, as it does for the checker: the
-// nearest one wins. It is the top layer, over the editor's settings, so
-// the editor reports what 'stereoline check' reports; settings the file
-// leaves out come from the editor.
+// nearest one wins, within the document's workspace folder (folders.go).
+// It is the top layer, over the editor's settings, so the editor reports
+// what 'stereoline check' reports; settings the file leaves out come from
+// the editor.
 
 // projectConfigs caches the configurations read from project files, per
 // file and per editor configuration.
@@ -39,7 +40,7 @@ func (s *Server) configFor(snap *snapshot, path string) configured {
 	if path == "" {
 		return snap.editor
 	}
-	file, ok := document.FindConfigFile(filepath.Dir(path))
+	file, ok := projectFileFor(snap.roots, path)
 	if !ok {
 		return snap.editor
 	}
@@ -114,16 +115,34 @@ func cloneConfig(c document.Config) document.Config {
 	return c
 }
 
-// isProjectFile reports whether a URI names a project configuration file.
-func isProjectFile(uri string) bool {
-	return filepath.Base(fileURIPath(uri)) == document.ConfigFileName
+// projectFilePath returns the path of the project configuration file a
+// URI names, or "" when it names another file.
+func projectFilePath(uri string) string {
+	p := fileURIPath(uri)
+	if p == "" || filepath.Base(p) != document.ConfigFileName {
+		return ""
+	}
+	return cleanPath(p)
 }
 
-// forget drops what was read, so the next lookup reads the files again
-// even if a change kept their size and time.
-func (p *projectConfigs) forget() {
+// forgetFile drops what was read from one project file, so the next
+// lookup reads it again even if a change kept its size and time. The
+// others stay cached, so documents under them keep their analyses.
+func (p *projectConfigs) forgetFile(file string) {
 	p.mu.Lock()
-	p.entries = nil
+	delete(p.entries, file)
+	p.mu.Unlock()
+}
+
+// forgetUnder drops what was read from the project files under a folder
+// that left the workspace.
+func (p *projectConfigs) forgetUnder(root string) {
+	p.mu.Lock()
+	for file := range p.entries {
+		if within(root, file) {
+			delete(p.entries, file)
+		}
+	}
 	p.mu.Unlock()
 }
 

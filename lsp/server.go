@@ -84,7 +84,6 @@ type Server struct {
 	mu        sync.Mutex
 	state     state
 	caps      clientCapabilities
-	roots     []string        // workspace folder paths on disk
 	baseCfg   document.Config // defaults with initializationOptions applied
 	snap      *snapshot
 	changed   chan struct{} // closed and replaced at every new snapshot
@@ -214,7 +213,7 @@ func newServer(ctx context.Context, log *zap.Logger, opts Options) *Server {
 		"workspace/didChangeConfiguration":    s.didChangeConfiguration,
 		"$/cancelRequest":                     s.cancelRequest,
 		"$/setTrace":                          ignore,
-		"workspace/didChangeWorkspaceFolders": ignore,
+		"workspace/didChangeWorkspaceFolders": s.didChangeWorkspaceFolders,
 	}
 	return s
 }

@@ -3,6 +3,7 @@ package lsp
 import (
 	"net/url"
 	"path/filepath"
+	"sort"
 	"sync/atomic"
 
 	"stereoline/stereo/document"
@@ -28,6 +29,7 @@ type snapshot struct {
 	id       uint64
 	encoding PositionEncoding
 	editor   configured // the editor's settings; a project file may override them per document
+	roots    []string   // workspace folder paths on disk (clean); shared between snapshots, never changed
 	files    map[string]*fileVersion
 	analyses map[string]*analysis
 }
@@ -72,6 +74,7 @@ func (s *snapshot) clone() *snapshot {
 		id:       snapshotIDs.Add(1),
 		encoding: s.encoding,
 		editor:   s.editor,
+		roots:    s.roots,
 		files:    make(map[string]*fileVersion, len(s.files)+1),
 		analyses: make(map[string]*analysis, len(s.analyses)+1),
 	}
@@ -97,16 +100,24 @@ func (s *snapshot) remove(uri string) {
 	delete(s.analyses, uri)
 }
 
-// reconfigured returns a snapshot under other editor settings whose every
-// document is analysed again, under the configuration resolve picks for
-// it (after a settings change or a change of a project file).
-func (s *snapshot) reconfigured(editor configured, resolve func(*snapshot, *fileVersion) configured) *snapshot {
-	next := s.clone()
-	next.editor = editor
-	for _, f := range next.files {
-		next.analyses[f.URI] = newAnalysis(f, resolve(next, f))
+// reresolve asks resolve again for the configuration of every document of
+// a snapshot being built (after a change of settings, of a project file
+// or of the workspace folders) and analyses again the documents whose
+// configuration is not the one their analysis used; it returns those.
+// The others keep their analyses, so they are neither analysed nor
+// published again.
+func (s *snapshot) reresolve(resolve func(*snapshot, *fileVersion) configured) []string {
+	var changed []string
+	for uri, f := range s.files {
+		c := resolve(s, f)
+		if a := s.analyses[uri]; a != nil && a.config.id == c.id {
+			continue
+		}
+		s.analyses[uri] = newAnalysis(f, c)
+		changed = append(changed, uri)
 	}
-	return next
+	sort.Strings(changed)
+	return changed
 }
 
 // path returns the file a document is on disk, or "" (an untitled

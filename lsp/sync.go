@@ -146,15 +146,17 @@ func (s *Server) didSave(params json.RawMessage) error {
 	if err := json.Unmarshal(params, &p); err != nil {
 		return err
 	}
-	if isProjectFile(string(p.TextDocument.URI)) {
-		s.projects.forget()
+	if file := projectFilePath(string(p.TextDocument.URI)); file != "" {
+		s.projects.forgetFile(file)
 		s.reconfigure(nil)
 	}
 	return nil
 }
 
-// didChangeWatchedFiles does the same for a project file changed outside
-// the editor.
+// didChangeWatchedFiles does the same for project files created, changed
+// or deleted outside the editor: a created one may now be the nearest for
+// documents below it, a deleted one no longer applies. Only documents
+// whose configuration that alters are analysed again.
 func (s *Server) didChangeWatchedFiles(params json.RawMessage) error {
 	var p struct {
 		Changes []struct {
@@ -164,12 +166,15 @@ func (s *Server) didChangeWatchedFiles(params json.RawMessage) error {
 	if err := json.Unmarshal(params, &p); err != nil {
 		return err
 	}
+	found := false
 	for _, c := range p.Changes {
-		if isProjectFile(c.URI) {
-			s.projects.forget()
-			s.reconfigure(nil)
-			return nil
+		if file := projectFilePath(c.URI); file != "" {
+			s.projects.forgetFile(file)
+			found = true
 		}
+	}
+	if found {
+		s.reconfigure(nil)
 	}
 	return nil
 }

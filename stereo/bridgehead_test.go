@@ -32,6 +32,10 @@ func TestCageFixedBridgeheads(t *testing.T) {
 		// carbons are stereocentres (worked by hand from the renaming
 		// that swaps the benzo bridges)
 		{"ethanoanthracene", "c1ccc2c(c1)C[C@@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", "23S 8S", 0, 0, "worked by hand"},
+		// the same ring system written another way round, whose Kekulé
+		// structure places the double bonds of the two benzo rings
+		// differently: the benzo bridges must still count as equal
+		{"ethanoanthracene rewritten", "c12ccccc2C2c3c(cccc3)C1[C@H]1Cc3c(cccc3)C[C@@H]21", "15S 24R", 0, 0, "worked by hand"},
 		// a bicyclo[2.2.2]octane-2,6-diol: the equal bridges at C1 carry
 		// the configured carbinol carbons, so the bridgehead stays a
 		// stereocentre (worked by hand: swapping its marks turns

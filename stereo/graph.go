@@ -18,6 +18,9 @@ type graph struct {
 	ringAtom []bool
 	mancudeZ []float64 // for an atom of a mancude ring system, the atomic number of its duplicate
 	mancudeM []float64 // and the mass of that duplicate, averaged the same way
+	// mancudeBond marks the bonds that are double in some Kekulé
+	// structure of a mancude ring system, the written one or another
+	mancudeBond []bool
 
 	// found on demand (smallestRing, smallRings)
 	rings  [][]int // smallest ring through each ring bond, deduplicated
@@ -178,8 +181,8 @@ func (g *graph) doubleBonds(a int) (n int) {
 func (g *graph) findRings() {
 	m := g.mol
 	nb := len(m.Bonds)
-	bools := sized(&g.store.bools, nb+g.n)
-	g.ringBond, g.ringAtom = bools[:nb:nb], bools[nb:]
+	bools := sized(&g.store.bools, 2*nb+g.n)
+	g.ringBond, g.mancudeBond, g.ringAtom = bools[:nb:nb], bools[nb:2*nb:2*nb], bools[2*nb:]
 	g.cyclicBonds(g.ringBond)
 	for bi := range m.Bonds {
 		b := &m.Bonds[bi]
@@ -414,12 +417,18 @@ func (g *graph) findMancude() {
 			stamp++
 			var found bool
 			if found, queue = g.alternatingCycle(a, v, partner, seen, stamp, queue); found {
+				g.mancudeBond[e.bond] = true
 				zs += float64(g.z[v])
 				ms += g.mass[v]
 				count++
 			}
 		}
 		if count > 1 {
+			for _, e := range g.adj[a] {
+				if e.to == partner[a] {
+					g.mancudeBond[e.bond] = true
+				}
+			}
 			g.mancudeZ[a] = zs / float64(count)
 			g.mancudeM[a] = ms / float64(count)
 		}

@@ -415,7 +415,7 @@ func symmetryClasses(g *graph) []int {
 		for a := 0; a < n; a++ {
 			nb = nb[:0]
 			for _, e := range g.adj[a] {
-				nb = append(nb, class[e.to]*8+e.order)
+				nb = append(nb, class[e.to]*8+classOrder(g, a, e))
 			}
 			sortInts(nb)
 			// a 64-bit FNV-1a hash of (class, sorted neighbour classes)
@@ -445,6 +445,17 @@ func symmetryClasses(g *graph) []int {
 		count = len(keys)
 	}
 	return class
+}
+
+// classOrder is the order of a bond as symmetry classes see it: a bond
+// inside a mancude ring system gets one order of its own, whichever
+// Kekulé structure was written, so that two fused benzo rings stay
+// equal although their double bonds were placed differently.
+func classOrder(g *graph, a int, e edge) int {
+	if g.mancudeBond[e.bond] {
+		return 5
+	}
+	return e.order
 }
 
 func sortInts(xs []int) {

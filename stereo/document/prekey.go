@@ -1,6 +1,10 @@
 package document
 
-import "stereoline/notation"
+import (
+	"sync"
+
+	"stereoline/notation"
+)
 
 // A cheap key of a record's constitution, computed before the identity
 // keys. Two records can be duplicates, mirror images or stereoisomers of
@@ -33,31 +37,56 @@ import "stereoline/notation"
 // with a rearranged one, which is allowed.
 const preKeyRounds = 32
 
+// preKeyScratch is the working memory of one pre-key, reused between
+// records: a list of 100,000 records would otherwise allocate it 100,000
+// times.
+type preKeyScratch struct {
+	heavy  []int    // atom -> heavy vertex, -1 for hydrogen atoms
+	start  []int    // vertex -> first of its neighbours in nbrs (one more entry than vertices)
+	nbrs   []int    // neighbours of every vertex, one after another
+	label  []uint64 // current colour of each vertex
+	next   []uint64
+	spread []uint64 // spread(label) of each vertex, for the sums of neighbours
+}
+
+var preKeyScratches = sync.Pool{New: func() any { return new(preKeyScratch) }}
+
+// grow returns xs with length n, reusing its memory when it can.
+func grow[T any](xs []T, n int) []T {
+	if cap(xs) < n {
+		return make([]T, n)
+	}
+	return xs[:n]
+}
+
 // constitutionPreKey returns the pre-key of a molecule that read without
 // error.
 func constitutionPreKey(m *notation.Molecule) uint64 {
+	sc := preKeyScratches.Get().(*preKeyScratch)
+	defer preKeyScratches.Put(sc)
 	n := len(m.Atoms)
-	heavy := make([]int, n) // atom -> heavy vertex, -1 for hydrogen atoms
+	sc.heavy = grow(sc.heavy, n)
 	hydrogens, hAtoms, vertices := 0, 0, 0
 	for a := range m.Atoms {
 		at := &m.Atoms[a]
 		hydrogens += at.HydrogenCount()
 		if at.Number == 1 {
 			hAtoms++
-			heavy[a] = -1
+			sc.heavy[a] = -1
 			continue
 		}
-		heavy[a] = vertices
+		sc.heavy[a] = vertices
 		vertices++
 	}
-	label := make([]uint64, vertices)
-	adj := make([][]int, vertices)
-	edges := 0
+	sc.label = grow(sc.label, vertices)
+	sc.start = grow(sc.start, vertices+1)
+	sc.nbrs = sc.nbrs[:0]
 	for a := range m.Atoms {
-		v := heavy[a]
+		v := sc.heavy[a]
 		if v < 0 {
 			continue
 		}
+		sc.start[v] = len(sc.nbrs)
 		at := &m.Atoms[a]
 		h := at.HydrogenCount()
 		var hKinds uint64 // isotopes and charges of hydrogen atoms; a folded [H] has neither
@@ -68,20 +97,21 @@ func constitutionPreKey(m *notation.Molecule) uint64 {
 			o := m.Bonds[bi].Other(a)
 			switch {
 			case o < 0 || o >= n || o == a:
-			case heavy[o] < 0:
+			case sc.heavy[o] < 0:
 				h++ // a hydrogen atom counts on its heavy neighbour
 				hKinds += spread(uint64(int64(m.Atoms[o].Isotope))<<8 ^ uint64(int64(m.Atoms[o].Charge)))
 			default:
-				adj[v] = append(adj[v], heavy[o])
-				edges++
+				sc.nbrs = append(sc.nbrs, sc.heavy[o])
 			}
 		}
-		label[v] = mix(mix(mix(mix(uint64(at.Number), uint64(int64(at.Isotope))), uint64(int64(at.Charge))), uint64(h)), uint64(len(adj[v]))) + hKinds
+		degree := len(sc.nbrs) - sc.start[v]
+		sc.label[v] = mix(mix(mix(mix(uint64(at.Number), uint64(int64(at.Isotope))), uint64(int64(at.Charge))), uint64(h)), uint64(degree)) + hKinds
 	}
-	label = refineColours(label, adj)
+	sc.start[vertices] = len(sc.nbrs)
+	label := sc.refineColours(vertices)
 	// Hydrogens counted on atoms and written as atoms together: the key
 	// folds some [H] atoms into counts, so neither number alone is fixed.
-	key := mix(mix(uint64(vertices), uint64(edges)), uint64(hydrogens+hAtoms))
+	key := mix(mix(uint64(vertices), uint64(len(sc.nbrs))), uint64(hydrogens+hAtoms))
 	var sum uint64
 	for _, l := range label {
 		sum += spread(l) // a sum of spread labels is a hash of the multiset
@@ -97,18 +127,24 @@ func constitutionPreKey(m *notation.Molecule) uint64 {
 // many rounds as the longest path, one atom's label stands for the whole
 // graph around it, so trees (most molecules' skeletons) never collide
 // but by hashing.
-func refineColours(label []uint64, adj [][]int) []uint64 {
-	next := make([]uint64, len(label))
-	for round := 0; round < min(len(label), preKeyRounds); round++ {
-		for v, ns := range adj {
+func (sc *preKeyScratch) refineColours(vertices int) []uint64 {
+	label := sc.label
+	next := grow(sc.next, vertices)
+	spreads := grow(sc.spread, vertices)
+	for round := 0; round < min(vertices, preKeyRounds); round++ {
+		for v, l := range label {
+			spreads[v] = spread(l)
+		}
+		for v := range label {
 			var around uint64
-			for _, w := range ns {
-				around += spread(label[w])
+			for _, w := range sc.nbrs[sc.start[v]:sc.start[v+1]] {
+				around += spreads[w]
 			}
 			next[v] = mix(label[v], around)
 		}
 		label, next = next, label
 	}
+	sc.label, sc.next, sc.spread = label, next, spreads
 	return label
 }
 

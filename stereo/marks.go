@@ -44,7 +44,7 @@ func (l *labeller) readBonds() {
 			}
 			marked[e] = true
 			c.refs[e], sides[e] = atoms[0], ss[0]
-			if len(atoms) == 2 && ss[0] == ss[1] {
+			if len(atoms) == 2 && ss[0] == ss[1] && !g.bare(c.ends[1-e], c.inner[1-e]) {
 				ok = false
 				err := l.fail(spans[1], CodeConflictingMarks, "both substituents of this end are marked on the same side")
 				err.Related = append(err.Related, notation.Related{Span: spans[0], Msg: "the other mark at this end"})
@@ -64,6 +64,24 @@ func (l *labeller) readBonds() {
 			l.oneSided = append(l.oneSided, c)
 		}
 	}
+}
+
+// bare reports whether terminal t of a double bond (bonded to the chain
+// through inner) carries nothing else, no atom and no hydrogen: the
+// oxygen of a carbonyl. Such a bond cannot be configured, so two marks
+// on one side at its other end contradict nothing; they belong to other
+// double bonds (the carbon of a dienone, O=C(/C=C/Ar)/C=C/Ar, carries
+// one mark for each C=C) or are reported as ineffective.
+func (g *graph) bare(t, inner int) bool {
+	if g.hyd[t] > 0 {
+		return false
+	}
+	for _, e := range g.adj[t] {
+		if e.to != inner {
+			return false
+		}
+	}
+	return true
 }
 
 // markChain records every double bond of the cumulene starting at

@@ -1,0 +1,50 @@
+package stereo
+
+import (
+	"testing"
+
+	"stereoline/notation"
+)
+
+// TestMarksAtABareDoubleBond checks the marks at the carbon of a C=O,
+// which no mark can configure: two marks on one side there belong to
+// other double bonds or mean nothing, and contradict nothing.
+func TestMarksAtABareDoubleBond(t *testing.T) {
+	cases := []struct {
+		name, smiles string
+		labels       int                   // labelled double bonds
+		want         map[notation.Code]int // diagnostics by code
+		source       string
+	}{
+		// a dibenzylidene-acetone-like dienone as RDKit 2022.09 writes it
+		// (a row of testdata/rdkit/cip_labels.tsv): each mark at the
+		// carbonyl carbon serves one C=C
+		{"dienone", "O=C(/C=C/c1ccccc1Cl)/C=C/c1ccccc1Cl", 2, map[notation.Code]int{}, "RDKit fixture"},
+		// the second mark at the carbonyl carbon serves nothing
+		{"enone with a stray mark", "O=C(/C=C/C)/C", 1, map[notation.Code]int{CodeIneffectiveBond: 1}, "common practice"},
+		// the issue's own contradiction stays one
+		{"conflict", `F/C(\Cl)=C/Br`, 0, map[notation.Code]int{CodeConflictingMarks: 1, CodeUndefined: 1}, "OpenSMILES 1.0, 3.8.3"},
+	}
+	for _, c := range cases {
+		a := Analyze(notation.Read(c.smiles))
+		labels := 0
+		for _, u := range a.Units {
+			if u.Kind == KindDoubleBond && u.Specified {
+				labels++
+			}
+		}
+		got := map[notation.Code]int{}
+		for _, e := range a.Diagnostics {
+			got[e.Code]++
+		}
+		if labels != c.labels || len(got) != len(c.want) {
+			t.Errorf("%s (%s): %d labelled bonds and diagnostics %v, want %d and %v", c.name, c.source, labels, got, c.labels, c.want)
+			continue
+		}
+		for code, n := range c.want {
+			if got[code] != n {
+				t.Errorf("%s (%s): %d %s, want %d", c.name, c.source, got[code], code, n)
+			}
+		}
+	}
+}

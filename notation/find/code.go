@@ -2,6 +2,7 @@ package find
 
 import (
 	"bytes"
+	"sort"
 	"strings"
 
 	"stereoline/notation"
@@ -335,25 +336,27 @@ func (cf *codeFinder) emit(lit *literal, d *decoded, m *offsetMap, from, to int,
 		m:         sub,
 	}
 	o.Span = notation.Span{Start: sub.hostStart(), End: sub.hostEnd()}
-	for k := range lit.pieces {
-		if pc := &lit.pieces[k]; pc.content.Start <= o.Span.Start && o.Span.Start <= pc.content.End && !pc.raw {
+	// Pieces and issues are in host order: a literal joined from many
+	// pieces with many records is searched, not walked, per record.
+	if k := pieceAt(lit, o.Span.Start); k >= 0 {
+		if pc := &lit.pieces[k]; o.Span.Start <= pc.content.End && !pc.raw {
 			o.encode = doubleBackslashes
 		}
 	}
-	for _, is := range d.issues {
-		if is.span.Start < o.Span.Start || is.span.Start >= o.Span.End {
-			continue
+	first := sort.Search(len(d.issues), func(k int) bool { return d.issues[k].span.Start >= o.Span.Start })
+	for _, is := range d.issues[first:] {
+		if is.span.Start >= o.Span.End {
+			break
 		}
 		e := &notation.Error{Span: is.span, Code: CodeHostEscape, Severity: is.sev, Msg: is.msg}
 		var fixes []Fix
-		for k := range lit.pieces {
-			if pc := &lit.pieces[k]; pc.content.Start <= is.span.Start && is.span.Start < pc.content.End {
-				if pc.block || pc.template {
-					// Rewriting the whole piece would have to rebuild
-					// its layout or fields; the record alone is enough.
-					fixes = []Fix{{Title: "double the backslashes", Span: o.Span, NewText: doubleBackslashes(o.Text)}}
-					continue
-				}
+		if k := pieceAt(lit, is.span.Start); k >= 0 && is.span.Start < lit.pieces[k].content.End {
+			pc := &lit.pieces[k]
+			if pc.block || pc.template {
+				// Rewriting the whole piece would have to rebuild its
+				// layout or fields; the record alone is enough.
+				fixes = []Fix{{Title: "double the backslashes", Span: o.Span, NewText: doubleBackslashes(o.Text)}}
+			} else {
 				pr := d.pieces[k]
 				fixes = cf.fixes(pc, string(d.text[pr.start:pr.end]))
 			}
@@ -361,6 +364,12 @@ func (cf *codeFinder) emit(lit *literal, d *decoded, m *offsetMap, from, to int,
 		o.addDiag(e, fixes)
 	}
 	cf.out = append(cf.out, o)
+}
+
+// pieceAt returns the index of the last piece of a literal whose content
+// starts at or before host offset h, or -1.
+func pieceAt(lit *literal, h int) int {
+	return sort.Search(len(lit.pieces), func(k int) bool { return lit.pieces[k].content.Start > h }) - 1
 }
 
 // fixes suggests rewrites of a piece whose notation is text.

@@ -26,3 +26,11 @@ const smilesHex = "C\x41"; // want «C\x41» error «\x41»
 const offSmiles = "F/C=C/F";
 // stereoline: on
 const typed: string = "F/C=C/F"; // want «F/C=C/F»
+// Templates with substitutions: the fixed text between ${...} is searched
+// token by token; a token touching a substitution is built at run time.
+const tsv = `${id}\tC[C@H](N)C(=O)O\n`; // want «C[C@H](N)C(=O)O»
+const nested = `${a}/${b} F/C=C/F ${`x${y}`} C${n}CC`; // want «F/C=C/F»
+const rawSub = String.raw`${a} F/C=C\F`; // want «F/C=C\F»
+const objSub = `${{ k: "}" }.k} C1CCCCC1`; // want «C1CCCCC1»
+// stereoline: skip-next
+const skipTpl = `${id} C1CCCCC1`;

@@ -53,9 +53,32 @@ smiles_slash = "C\/C=C/C"  # want «C\/C=C/C» warning «\/»
 
 # Implicitly joined literals are one occurrence with a piecewise map.
 joined_smiles = "F/C=C" "/F"  # want «F/C=C" "/F» text «F/C=C/F»
-# f-strings and byte strings are skipped.
+# Byte strings are skipped. f-strings and t-strings (language reference,
+# "f-strings", "t-strings"; PEP 701 for quotes reused inside fields):
+# their fixed text is searched token by token; a token touching a
+# replacement field is built at run time and never taken.
 smiles_f2 = f"F/C=C/{x}"
 smiles_b2 = b"F/C=C/F"
+line = f"{cid}\tC[C@H](N)C(=O)O\n"  # want «C[C@H](N)C(=O)O»
+row = f"{cid} {name:>{width}} F/C=C/F {row["note"]!r:'>10}"  # want «F/C=C/F»
+prefix = f"C{n}CO {core}/F N{x}"
+literal_braces = f"{{F/C=C/F}} {x}"
+smiles_fixed = f"N[C@@H](C)C(=O)O"  # want «N[C@@H](C)C(=O)O»
+smiles_prose = f"see {table} for C{n}"
+template_string = t"{a} C1CCCCC1"  # want «C1CCCCC1»
+raw_f = rf"{a} F/C=C\F"  # want «F/C=C\F»
+escaped_f = f"{a} C1CC\1"  # want «C1CC\1» error «\1» fix «C1CC\\1»
+named_escape = f"{a} \N{DEGREE SIGN}C1CCCCC1 F/C=C/F"  # want «F/C=C/F»
+joined = "C1CCCC" f"C1 {x}"  # want «C1CCCC" f"C1» text «C1CCCCC1»
+# want-after «CCO» title «ethanol» want-after «F/C=C/F» title «»
+SMILES_F_BLOCK = f"""
+CCO ethanol
+{x} CCN
+F/C=C/F {name}
+"""
+# stereoline: skip-next
+skip_f = f"{a} C1CCCCC1"
+forced_f = f"{a} CO"  # stereoline: notation  want «CO»
 
 # A named triple-quoted literal is a list, one record a line.
 # want-after «CCO» title «ethanol» want-after «F/C=C/F» title «difluoroethene»

@@ -17,3 +17,17 @@ public class Stock {
         return loc + "/" + sku;
     }
 }
+class Queries {
+    static final String SQL = """
+        SELECT sku, name, qty
+          FROM stock
+         WHERE loc = 'C1/B2' AND qty > 10
+        """;
+    static final String JSON = """
+        {"state": "CO", "port": "I/O", "missing": "N/A", "range": "A1:C10"}
+        """;
+    static final String PATHS = """
+        C:\\Data\\stock.csv \
+        /usr/local/bin\s
+        """;
+}

@@ -91,3 +91,11 @@ const messages = {
 };
 
 module.exports = { buildUrl, fetchItems, formatDate, slugify, Cart, temperature, messages };
+
+function summary(items, year) {
+  const head = `${"SKU".padEnd(12)} ${"NAME"} total ${items.length}`;
+  const path = `data/${year}/C1/report.csv and B2:B10 at 12:30:00\n`;
+  const codes = `${items[0].sku} H2O CO2 C3PO N/A I/O v1.2.3 10.0.0.1 ${year}/01/31`;
+  const nested = `${items.map((i) => `${i.sku}/${i.qty}`).join(", ")} ratio 16/9`;
+  return [head, path, codes, nested].join("\n");
+}

@@ -12,3 +12,8 @@ re = r"^[A-Z]{2}[0-9]+$"
 A = [1 2; 3 4]; B = A'; c = 'x'
 ratio = 16 / 9
 end
+report(sku, qty, year) = "$sku: $qty items on $(year)/01/31, ratio $(qty/2)/9, v1.2.3"
+help = """
+    Usage: model --input $(ENV["HOME"])/stock.csv
+    Codes: H2O CO2 C3PO A1:C10 N/A I/O
+"""

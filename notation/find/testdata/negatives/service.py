@@ -160,3 +160,22 @@ TEMPLATES = {
 
 if __name__ == "__main__":
     sys.exit(main())
+
+
+def report_lines(items, year, width=12):
+    """Formatted output: templates full of paths, ranges and codes."""
+    out = [f"{'SKU':<{width}} {'NAME':^20} {'QTY':>6}"]
+    for it in items:
+        out.append(f"{it.sku:<{width}} {it.name!s:^20} {it.qty:>6d}")
+        out.append(f"  see data/{year}/C1/report.csv or B2:B10 at 12:30:00\n")
+        out.append(f"  cell A1:C10 = {it.total:.2f} (H2O, CO2, C3PO) N/A I/O")
+        out.append(f"  C:\\Data\\{it.sku}.csv and /usr/local/{it.name}/bin")
+    out.append(f"{{total}} {len(items)} items on {year}/01/31, v1.2.3, 10.0.0.1")
+    out.append(f"{sum(i.qty for i in items)=} {items[0].tags["color"]!r}")
+    out.append(t"{year} {width} 50-00-0 7732-18-5")
+    out.append(f"""
+Summary for {year}:
+    {len(items)} items, ratio {year}/{width}, code C{year}N
+    ratio 16/9, 4/3 and 1/2; path a/b/c
+""")
+    return "\n".join(out)

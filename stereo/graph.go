@@ -123,7 +123,10 @@ type graphStore struct {
 	scratch []int
 	frames  []dfsFrame
 	rings   []int
-	bfs     bfsScratch // its stamps keep growing across builds, so old marks never match
+	// symmetry classes (perceive.go)
+	class, classNext []int
+	classIDs         map[uint64]int
+	bfs              bfsScratch // its stamps keep growing across builds, so old marks never match
 }
 
 // sized returns (*buf)[:n], zeroed, growing *buf when it is too small.

@@ -392,59 +392,70 @@ func (c *lazyClasses) of(a int) int {
 }
 
 // symmetryClasses partitions the atoms by constitution: atoms start in
-// classes of equal element, charge, isotope, degree and hydrogens and are
-// split by the classes of their neighbours until nothing changes.
+// classes of equal element, charge, isotope, degree, hydrogens and
+// valence and are split by the classes of their neighbours until nothing
+// changes. The tables live in the graph's storage, reused by the next
+// analysis.
 func symmetryClasses(g *graph) []int {
 	n := g.n
-	class := make([]int, n)
-	ids := map[[6]int]int{}
+	class := sized(&g.store.class, n)
+	next := sized(&g.store.classNext, n)
+	if g.store.classIDs == nil {
+		g.store.classIDs = map[uint64]int{}
+	}
+	ids := g.store.classIDs
+	clear(ids)
+	dense := func(h uint64) int {
+		id, ok := ids[h]
+		if !ok {
+			id = len(ids)
+			ids[h] = id
+		}
+		return id
+	}
 	for a := 0; a < n; a++ {
 		at := &g.mol.Atoms[a]
-		k := [6]int{at.Number, at.Charge, at.Isotope, len(g.adj[a]), g.hyd[a], g.valence(a)}
-		if _, ok := ids[k]; !ok {
-			ids[k] = len(ids)
-		}
-		class[a] = ids[k]
+		h := mix64(uint64(at.Number))
+		h = mix64(h ^ uint64(at.Charge+128)<<8)
+		h = mix64(h ^ uint64(at.Isotope)<<16)
+		h = mix64(h ^ uint64(len(g.adj[a]))<<32 ^ uint64(g.hyd[a])<<40 ^ uint64(g.valence(a))<<48)
+		class[a] = dense(h)
 	}
 	count := len(ids)
-	next := make([]int, n)
-	var nb []int
-	keys := make(map[uint64]int, n)
 	for iter := 0; iter < n; iter++ {
-		clear(keys)
+		clear(ids)
 		for a := 0; a < n; a++ {
-			nb = nb[:0]
+			// the neighbours enter as a sum of mixed values, which does
+			// not depend on their order, so none is sorted; two
+			// different neighbourhoods would need a 64-bit collision
+			var sum uint64
 			for _, e := range g.adj[a] {
-				nb = append(nb, class[e.to]*8+classOrder(g, a, e))
+				sum += mix64(uint64(class[e.to])<<3 | uint64(classOrder(g, a, e)))
 			}
-			sortInts(nb)
-			// a 64-bit FNV-1a hash of (class, sorted neighbour classes)
-			// names the new class; a collision would need 2^32 classes
-			h := uint64(14695981039346656037)
-			mix := func(v int) {
-				for k := 0; k < 4; k++ {
-					h ^= uint64(byte(v >> (8 * k)))
-					h *= 1099511628211
-				}
-			}
-			mix(class[a])
-			for _, v := range nb {
-				mix(v)
-			}
-			id, ok := keys[h]
-			if !ok {
-				id = len(keys)
-				keys[h] = id
-			}
-			next[a] = id
+			next[a] = dense(mix64(uint64(class[a])) ^ sum)
 		}
 		class, next = next, class
-		if len(keys) == count {
+		if len(ids) == count {
 			break
 		}
-		count = len(keys)
+		count = len(ids)
+	}
+	// the two tables swap roles: keep both for the next analysis, and
+	// the map unless it grew large (clearing costs its whole room)
+	g.store.class, g.store.classNext = class, next
+	if len(ids) > keepMemo {
+		g.store.classIDs = nil
 	}
 	return class
+}
+
+// mix64 is the splitmix64 finaliser (common practice), a cheap mixing
+// of 64 bits for the hashes above.
+func mix64(x uint64) uint64 {
+	x += 0x9e3779b97f4a7c15
+	x = (x ^ x>>30) * 0xbf58476d1ce4e5b9
+	x = (x ^ x>>27) * 0x94d049bb133111eb
+	return x ^ x>>31
 }
 
 // classOrder is the order of a bond as symmetry classes see it: a bond
@@ -456,12 +467,4 @@ func classOrder(g *graph, a int, e edge) int {
 		return 5
 	}
 	return e.order
-}
-
-func sortInts(xs []int) {
-	for i := 1; i < len(xs); i++ {
-		for j := i; j > 0 && xs[j] < xs[j-1]; j-- {
-			xs[j], xs[j-1] = xs[j-1], xs[j]
-		}
-	}
 }

@@ -46,8 +46,9 @@ type Result struct {
 	// Diagnostics are sorted by host position.
 	Diagnostics []Diagnostic
 
-	cfg   *Config
-	lines []int // line starts, built on first use
+	cfg     *Config
+	lines   []int // line starts, built on first use
+	related bool  // Relate has run
 }
 
 // Record is one notation occurrence with its analysis.
@@ -143,10 +144,19 @@ func (a *Analyzer) kindOf(name, languageID string) find.Kind {
 // (by its extension or a configured pattern), for scans of a folder.
 func (a *Analyzer) Handles(name string) bool { return a.kindOf(name, "") != find.KindUnknown }
 
-// Analyze finds, reads and labels every record of a document. name is a
-// file name or the path of a URI (it picks the host kind); languageID, if
-// not empty, overrides the name.
+// Analyze finds, reads and labels every record of a document and relates
+// the records of a list. name is a file name or the path of a URI (it
+// picks the host kind); languageID, if not empty, overrides the name.
 func (a *Analyzer) Analyze(name, languageID string, content []byte) *Result {
+	return a.AnalyzeRecords(name, languageID, content).Relate()
+}
+
+// AnalyzeRecords is the first part of Analyze: every record found, read
+// and labelled, with the findings about each record on its own. The
+// relations between the records of a list, whose identity keys can cost
+// more than all the rest, are left to Relate, so an editor can show the
+// rest first.
+func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Result {
 	cfg := a.cfg
 	kind := a.kindOf(name, languageID)
 	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
@@ -160,15 +170,20 @@ func (a *Analyzer) Analyze(name, languageID string, content []byte) *Result {
 	for i := range res.Records {
 		res.recordDiagnostics(i)
 	}
-	res.relateRecords()
-	sort.SliceStable(res.Diagnostics, func(i, j int) bool {
-		x, y := res.Diagnostics[i].Span, res.Diagnostics[j].Span
+	res.sortDiagnostics()
+	return res
+}
+
+// sortDiagnostics orders the findings by host position, stably, so
+// findings at one place keep the order they were made in.
+func (r *Result) sortDiagnostics() {
+	sort.SliceStable(r.Diagnostics, func(i, j int) bool {
+		x, y := r.Diagnostics[i].Span, r.Diagnostics[j].Span
 		if x.Start != y.Start {
 			return x.Start < y.Start
 		}
 		return x.End < y.End
 	})
-	return res
 }
 
 // parallelMin is the number of records from which analysis is spread

@@ -24,6 +24,34 @@ var relatedKinds = map[find.Kind]bool{
 	find.KindList: true, find.KindCSV: true, find.KindTSV: true, find.KindJSON: true, find.KindYAML: true,
 }
 
+// Relate returns the result with the relations between the records of a
+// list added (duplicates, mirror images, stereoisomers): what Analyze
+// returns. r itself is left as it was, so readers of it are not
+// disturbed; the new result shares the records' analyses. A result that
+// is related already is returned as it is.
+func (r *Result) Relate() *Result {
+	if r.related {
+		return r
+	}
+	next := &Result{
+		Name:        r.Name,
+		Content:     r.Content,
+		Kind:        r.Kind,
+		Records:     append([]Record(nil), r.Records...),
+		Diagnostics: append([]Diagnostic(nil), r.Diagnostics...),
+		cfg:         r.cfg,
+		related:     true,
+	}
+	before := len(next.Diagnostics)
+	next.relateRecords()
+	if len(next.Diagnostics) > before {
+		// The findings before were sorted; a stable sort keeps them
+		// ahead of relations at the same place, as one pass would.
+		next.sortDiagnostics()
+	}
+	return next
+}
+
 // relateRecords reports duplicates, mirror images and stereoisomers among
 // the records of a list, each against the first earlier record it
 // matches. The identity index keeps keys in maps, so a list of 100,000

@@ -89,11 +89,8 @@ func (g *graph) build(m *notation.Molecule) {
 	g.hyd, g.z = ints[:n:n], ints[n:]
 	floats := sized(&g.store.floats, 3*n)
 	g.mass, g.mancudeZ, g.mancudeM = floats[:n:n], floats[n:2*n:2*n], floats[2*n:]
-	total := 0
-	for i := range m.Atoms {
-		total += len(m.Atoms[i].Bonds)
-	}
-	edges := sized(&g.store.edges, total)[:0]
+	// every bond gives an edge to each end: one pass less over the atoms
+	edges := sized(&g.store.edges, 2*len(m.Bonds))[:0]
 	for i := range m.Atoms {
 		a := &m.Atoms[i]
 		g.z[i] = a.Number

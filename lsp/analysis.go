@@ -19,18 +19,27 @@ import (
 // configuration. It is computed at most once, by whoever needs it first
 // (the diagnostics worker or a request), on a goroutine of its own, so a
 // cancelled request stops waiting without wasting the work.
+//
+// It comes in two stages: the records with their own findings, then the
+// whole result with the relations between the records of a list, which
+// can take longer than everything else on a large list. Requests wait
+// for the whole result; the worker may publish the first stage before.
 type analysis struct {
 	file   *fileVersion
 	config configured
 
-	once   sync.Once
+	once sync.Once
+
+	recordsDone chan struct{} // closed when records is set, or the analysis failed
+	records     *document.Result
+
 	done   chan struct{}
 	result *document.Result
 	err    error
 }
 
 func newAnalysis(f *fileVersion, c configured) *analysis {
-	return &analysis{file: f, config: c, done: make(chan struct{})}
+	return &analysis{file: f, config: c, recordsDone: make(chan struct{}), done: make(chan struct{})}
 }
 
 // errAnalysis is returned when the engine panicked on a document; the
@@ -53,7 +62,15 @@ func (a *analysis) get(ctx context.Context, log *zap.Logger) (*document.Result, 
 func (a *analysis) start(log *zap.Logger) { a.once.Do(func() { go a.run(log) }) }
 
 func (a *analysis) run(log *zap.Logger) {
+	recordsClosed := false
+	closeRecords := func() {
+		if !recordsClosed {
+			recordsClosed = true
+			close(a.recordsDone)
+		}
+	}
 	defer close(a.done)
+	defer closeRecords() // after a panic in the first stage
 	defer func() {
 		if r := recover(); r != nil {
 			log.Error("internal error", zap.String("uri", a.file.URI), zap.Int32("version", a.file.Version),
@@ -62,9 +79,37 @@ func (a *analysis) run(log *zap.Logger) {
 		}
 	}()
 	start := time.Now()
-	a.result = a.config.analyzer.Analyze(a.file.Name, a.file.LanguageID, a.file.content())
+	a.records = a.config.analyzer.AnalyzeRecords(a.file.Name, a.file.LanguageID, a.file.content())
+	closeRecords()
+	recorded := time.Since(start)
+	a.result = a.records.Relate()
 	log.Debug("analysed", zap.String("uri", a.file.URI), zap.Int32("version", a.file.Version),
-		zap.Int("records", len(a.result.Records)), zap.Duration("took", time.Since(start)))
+		zap.Int("records", len(a.result.Records)), zap.Duration("records took", recorded), zap.Duration("took", time.Since(start)))
+}
+
+// getRecords returns the first stage, starting the analysis if nobody
+// has, and waiting for it unless ctx ends first.
+func (a *analysis) getRecords(ctx context.Context, log *zap.Logger) (*document.Result, error) {
+	a.start(log)
+	select {
+	case <-a.recordsDone:
+		if a.records == nil {
+			return nil, errAnalysis // the first stage panicked; the log says why
+		}
+		return a.records, nil
+	case <-ctx.Done():
+		return nil, ctx.Err()
+	}
+}
+
+// finished reports whether the whole result is ready.
+func (a *analysis) finished() bool {
+	select {
+	case <-a.done:
+		return true
+	default:
+		return false
+	}
 }
 
 // result is the common start of every document request: the document, its
@@ -206,26 +251,99 @@ func (w *worker) publish(ctx context.Context, uri string) {
 		}
 		return
 	}
-	w.showProgress(ctx, a)
-	res, err := a.get(ctx, s.log)
-	if err != nil || !s.pushesDiagnostics() {
-		return // the analysis is warm for the pull that will come
+	go w.showProgress(ctx, a)
+	if !s.pushesDiagnostics() {
+		a.start(s.log) // the analysis is warm for the pull that will come
+		return
 	}
+	first, err := a.getRecords(ctx, s.log)
+	if err != nil {
+		return
+	}
+	w.mu.Lock()
+	shown := w.sent[uri]
+	w.mu.Unlock()
+	if !shown && !w.finishes(ctx, a) {
+		// Nothing is shown for the document yet and its relations are
+		// slow: show its own findings now. A document whose findings
+		// are shown keeps them until the whole result replaces them,
+		// so an edit does not make the relations blink.
+		if !w.send(f, a, first) {
+			return
+		}
+	} else {
+		first = nil
+	}
+	if !w.await(ctx, uri, a) {
+		return
+	}
+	if a.err != nil || first != nil && len(a.result.Diagnostics) == len(first.Diagnostics) {
+		return // failed, or the relations added nothing to what was sent
+	}
+	w.send(f, a, a.result)
+}
+
+// finishes reports whether the whole result of a is ready within the
+// relation grace time, so one publication can carry it.
+func (w *worker) finishes(ctx context.Context, a *analysis) bool {
+	if a.finished() {
+		return true
+	}
+	grace := time.NewTimer(w.s.relationGrace)
+	defer grace.Stop()
+	select {
+	case <-a.done:
+		return true
+	case <-grace.C:
+	case <-ctx.Done():
+	}
+	return a.finished()
+}
+
+// await waits for the whole result of a, giving up when a stops being
+// the document's current analysis (an edit or a close replaced it), so a
+// newer version is not kept waiting behind the relations of an old one.
+func (w *worker) await(ctx context.Context, uri string, a *analysis) bool {
+	for {
+		s := w.s
+		s.mu.Lock()
+		current := s.snap.analyses[uri] == a
+		changed := s.changed
+		s.mu.Unlock()
+		if !current {
+			return false
+		}
+		select {
+		case <-a.done:
+			return true
+		case <-changed:
+		case <-ctx.Done():
+			return false
+		}
+	}
+}
+
+// send publishes res for the document version of a, unless a is no
+// longer the document's current analysis: a stale publication would
+// replace newer findings on the client. It reports whether it sent.
+func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
+	s := w.s
 	diags, err := s.toDiagnostics(f, res)
 	if err != nil {
-		s.log.Error("internal error", zap.String("uri", uri), zap.Error(fmt.Errorf("diagnostics: %w", err)))
-		return
+		s.log.Error("internal error", zap.String("uri", f.URI), zap.Error(fmt.Errorf("diagnostics: %w", err)))
+		return false
 	}
 	w.pub.Lock()
 	defer w.pub.Unlock()
-	if cur := s.current(); cur.analyses[uri] != a {
-		return
+	if cur := s.current(); cur.analyses[f.URI] != a {
+		return false
 	}
 	version := f.Version
 	w.mu.Lock()
-	w.sent[uri] = true
+	w.sent[f.URI] = true
 	w.mu.Unlock()
-	s.notify("textDocument/publishDiagnostics", publishDiagnosticsParams{URI: uri, Version: &version, Diagnostics: diags})
+	s.notify("textDocument/publishDiagnostics", publishDiagnosticsParams{URI: f.URI, Version: &version, Diagnostics: diags})
+	return true
 }
 
 // showProgress reports an analysis that takes longer than the progress

@@ -5,6 +5,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"stereoline/stereo/document"
 )
 
 // benchRecords is the size of the list the benchmarks open.
@@ -35,21 +37,54 @@ func bigList(n int) string {
 
 // BenchmarkFirstDiagnostics measures didOpen of a 100,000-record list to
 // its diagnostics arriving at the client, on a fresh server each time.
+// relations-ms is the time until the relations between the records (the
+// 99 duplicates of the marked record) have arrived as well, in the same
+// publication or a second one.
 func BenchmarkFirstDiagnostics(b *testing.B) {
-	text := bigList(benchRecords)
+	benchOpen(b, bigList(benchRecords), benchRecords/1000)
+}
+
+// BenchmarkIsomerListDiagnostics is the same for a list of 20,000
+// stereoisomers (isomerList), where every record needs identity keys for
+// the relations: the first publication carries the records' own findings
+// and the relations follow.
+func BenchmarkIsomerListDiagnostics(b *testing.B) {
+	benchOpen(b, isomerList(20_000), 20_000/50)
+}
+
+// benchOpen opens text on a fresh server per iteration and waits for at
+// least minDiags diagnostics, then for the relations.
+func benchOpen(b *testing.B, text string, minDiags int) {
+	const u = "file:///bench/big.smi"
 	b.SetBytes(int64(len(text)))
+	var first, related time.Duration
 	for i := 0; i < b.N; i++ {
 		b.StopTimer()
 		c := start(b, clientSetup{debounce: time.Millisecond, limit: 5 * time.Minute})
 		b.StartTimer()
-		c.open("file:///bench/big.smi", "", 1, text)
-		if d := c.diagnostics("file:///bench/big.smi", 1); len(d) < benchRecords/1000 {
-			b.Fatalf("%d diagnostics, want at least %d", len(d), benchRecords/1000)
+		begun := time.Now()
+		c.open(u, "", 1, text)
+		if d := c.diagnostics(u, 1); len(d) < minDiags {
+			b.Fatalf("%d diagnostics, want at least %d", len(d), minDiags)
 		}
+		first += time.Since(begun)
+		c.until("the relations", func() bool {
+			for _, p := range c.diags {
+				for _, d := range p.Diagnostics {
+					if d.Code == string(document.CodeListDuplicate) || d.Code == string(document.CodeListStereoisomer) {
+						return true
+					}
+				}
+			}
+			return false
+		})
+		related += time.Since(begun)
 		b.StopTimer()
 		c.stop()
 		b.StartTimer()
 	}
+	b.ReportMetric(float64(first.Milliseconds())/float64(b.N), "first-ms")
+	b.ReportMetric(float64(related.Milliseconds())/float64(b.N), "relations-ms")
 }
 
 // BenchmarkEditDiagnostics measures a one-line edit of the same list to

@@ -94,7 +94,17 @@ type Server struct {
 
 	work     *worker
 	projects projectConfigs
+
+	// relationGrace is how long the worker waits, once a document's
+	// records are analysed, for the relations between them before it
+	// publishes the records' own findings alone (tests shorten it).
+	relationGrace time.Duration
 }
+
+// defaultRelationGrace keeps the relations of an ordinary list in the
+// first publication; only a list whose relations take longer is
+// published twice.
+const defaultRelationGrace = 50 * time.Millisecond
 
 // Serve runs a server on a stream (standard input and output, or one end
 // of a pipe in tests) until the client sends exit, the stream ends or ctx
@@ -186,6 +196,8 @@ func newServer(ctx context.Context, log *zap.Logger, opts Options) *Server {
 		notebooks: map[string][]string{},
 		running:   map[jsonrpc2.ID]context.CancelFunc{},
 		exited:    make(chan struct{}),
+
+		relationGrace: defaultRelationGrace,
 	}
 	s.ctx, s.stop = context.WithCancel(ctx)
 	s.snap = newSnapshot(newConfigured(document.NewAnalyzer(s.baseCfg)), EncodingUTF16)

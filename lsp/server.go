@@ -7,7 +7,8 @@
 // (protocol.go, server.go), immutable snapshots of the open documents at
 // their versions (snapshot.go), one analysis per document version
 // (analysis.go), one converter between byte offsets and positions
-// (mapper.go), the settings layers (config.go, project.go), then a thin
+// (mapper.go), the settings layers and the workspace folders that bound
+// them (config.go, project.go, folders.go), then a thin
 // handler per feature (sync.go, notebook.go, initialize.go,
 // diagnostics.go, hover.go, inlay.go, codeaction.go, symbols.go).
 //

@@ -97,22 +97,37 @@ func TestPreKeyAgreesAcrossWritings(t *testing.T) {
 // (RDKit's canonical SMILES without stereo names the constitution), the
 // pre-key should rarely give two different constitutions one value, or
 // it saves nothing. A collision is allowed, so this bounds their share.
+// The ten random writings of each molecule must share its pre-key
+// wherever the constitution key agrees they are one constitution.
 func TestPreKeySeparatesConstitutions(t *testing.T) {
 	rows := readFixture(t, "identity.tsv", 7)
 	owner := map[uint64]string{} // pre-key -> the first constitution that had it
 	constitutions := map[string]bool{}
 	collisions := map[string]bool{}
+	type firstWriting struct {
+		smiles string
+		pre    uint64
+	}
+	byPlain := map[string]firstWriting{}
+	differing := 0
 	for _, c := range rows {
-		if c[2] != "0" {
-			continue // the first writing of each molecule is enough here
-		}
 		m := notation.Read(c[3])
 		if m.Errors.HasErrors() || len(m.Atoms) == 0 {
 			continue
 		}
 		plain := c[5]
-		constitutions[plain] = true
 		pre := constitutionPreKey(m)
+		if w, ok := byPlain[plain]; !ok {
+			byPlain[plain] = firstWriting{c[3], pre}
+		} else if w.pre != pre && stereo.ConstitutionKey(notation.Read(w.smiles)) == stereo.ConstitutionKey(m) {
+			if differing++; differing <= 10 {
+				t.Errorf("%q and %q are one constitution but their pre-keys differ", w.smiles, c[3])
+			}
+		}
+		if c[2] != "0" {
+			continue // the first writing of each molecule is enough for collisions
+		}
+		constitutions[plain] = true
 		if first, ok := owner[pre]; !ok {
 			owner[pre] = plain
 		} else if first != plain {

@@ -1,6 +1,10 @@
 package stereo
 
-import "stereoline/notation"
+import (
+	"slices"
+
+	"stereoline/notation"
+)
 
 // In/out bridgeheads. In a small bridged bicycle the substituents of the
 // two bridgeheads must both point out of the cage: seen from its
@@ -28,8 +32,18 @@ func (l *labeller) checkBridgeheads() {
 			heads = append(heads, a)
 		}
 	}
-	for i, a := range heads {
-		for _, b := range heads[i+1:] {
+	isHead := make(map[int]bool, len(heads))
+	for _, a := range heads {
+		isHead[a] = true
+	}
+	for _, a := range heads {
+		// only heads close enough to share short bridges are tried
+		near := l.partnerHeads(a)
+		slices.Sort(near)
+		for _, b := range near {
+			if b <= a || !isHead[b] {
+				continue
+			}
 			bridges, ok := g.bridges(a, b)
 			if !ok {
 				continue
@@ -212,7 +226,7 @@ func (l *labeller) checkCages() {
 // configuration.
 func (l *labeller) cageFixed(x int) bool {
 	g := l.g
-	if g.degree(x) != 4 || ringDegree(g, x) < 3 {
+	if g.degree(x) != 4 || ringDegree(g, x) < 3 || !l.equalRingLigands(x) {
 		return false
 	}
 	for _, y := range l.partnerHeads(x) {
@@ -231,6 +245,23 @@ func (l *labeller) cageFixed(x int) bool {
 				if !l.configuredBeside(x, y, third, pi) && !l.configuredBeside(x, y, third, pj) {
 					return true
 				}
+			}
+		}
+	}
+	return false
+}
+
+// equalRingLigands reports whether two ring neighbours of x fall in one
+// symmetry class: the cheap test before any search for bridges.
+func (l *labeller) equalRingLigands(x int) bool {
+	adj := l.g.adj[x]
+	for i, e := range adj {
+		if !l.g.ringBond[e.bond] {
+			continue
+		}
+		for _, f := range adj[i+1:] {
+			if l.g.ringBond[f.bond] && l.classes.of(e.to) == l.classes.of(f.to) {
+				return true
 			}
 		}
 	}

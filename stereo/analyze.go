@@ -1,7 +1,7 @@
 package stereo
 
 import (
-	"sort"
+	"slices"
 
 	"stereoline/notation"
 )
@@ -83,7 +83,7 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 	l.labelAll()
 	l.perceiveUnmarked()
 	l.reportStrayBondMarks()
-	sort.SliceStable(res.Units, func(i, j int) bool { return unitKey(&res.Units[i]) < unitKey(&res.Units[j]) })
+	slices.SortStableFunc(res.Units, func(a, b Unit) int { return unitKey(&a) - unitKey(&b) })
 	res.Diagnostics.Sort()
 	return res
 }

@@ -299,11 +299,14 @@ func (d *digraph) isLigand(n nodeID) bool {
 // ligandsOf returns the ligands of n seen from `from` (excluded), that
 // is its tree neighbours without bond-order duplicates.
 func (d *digraph) ligandsOf(n, from nodeID) []nodeID {
-	var out []nodeID
-	for _, k := range d.neighbours(n, from) {
+	nb := d.neighbours(n, from)
+	// copied to the end of the arena (which nb may be a window of: a
+	// move of the arena leaves nb's contents where they were)
+	start := len(d.arena)
+	for _, k := range nb {
 		if d.isLigand(k) {
-			out = append(out, k)
+			d.arena = append(d.arena, k)
 		}
 	}
-	return out
+	return d.arena[start:len(d.arena):len(d.arena)]
 }

@@ -244,7 +244,8 @@ func (cf *codeFinder) literal(t token, named, noGuess bool) {
 	if !named && (noGuess || cf.cfg.NoGuess || !mayGuess(cf.src, lit)) {
 		return
 	}
-	d, m := cf.decode(lit)
+	d := &decoded{}
+	m := cf.decode(lit, d)
 	text := string(d.text)
 	if named {
 		if strings.IndexByte(text, '\n') >= 0 {
@@ -263,13 +264,12 @@ func (cf *codeFinder) literal(t token, named, noGuess bool) {
 	}
 }
 
-// decode returns the notation text of a literal and its offset map.
-func (cf *codeFinder) decode(lit *literal) (*decoded, offsetMap) {
-	d := &decoded{}
+// decode decodes a literal into d and returns its offset map.
+func (cf *codeFinder) decode(lit *literal, d *decoded) offsetMap {
 	for k := range lit.pieces {
 		d.piece(cf.src, &lit.pieces[k], cf.lang.rules)
 	}
-	return d, d.b.done(lit.pieces[0].content.Start)
+	return d.b.done(lit.pieces[0].content.Start)
 }
 
 // mayGuess is a quick test on the host bytes of an unnamed literal

@@ -31,7 +31,8 @@ func (cf *codeFinder) templateLiteral(lit *literal, named bool, reason Reason, n
 	if !named && (!guess || !mayGuessTemplate(cf.src, lit)) {
 		return
 	}
-	d, m := cf.decode(lit)
+	d := &decoded{}
+	m := cf.decode(lit, d)
 	text := string(d.text)
 	if named {
 		switch {

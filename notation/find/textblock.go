@@ -52,7 +52,15 @@ func javaBlank(c byte) bool {
 // textBlock decodes a text block piece whose content starts at the line
 // after the opening delimiter.
 func (d *decoded) textBlock(src []byte, pc *piece, r *escapeRules) {
-	st, stm := stripIndent(src, pc.content)
+	if bytes.IndexByte(src[pc.content.Start:pc.content.End], '\\') < 0 {
+		// No escapes: the stripped text is the value.
+		stripIndent(src, pc.content, &d.text, &d.b)
+		return
+	}
+	var st []byte
+	var sb mapBuilder
+	stripIndent(src, pc.content, &st, &sb)
+	stm := sb.done(pc.content.Start)
 	rules := *r
 	rules.joinLines = true
 	var inner decoded
@@ -71,55 +79,50 @@ func (d *decoded) textBlock(src []byte, pc *piece, r *escapeRules) {
 	}
 }
 
-// stripIndent does steps 1 and 2 over the host bytes content and returns
-// the text with its map to the host.
-func stripIndent(src []byte, content notation.Span) ([]byte, offsetMap) {
+// stripIndent does steps 1 and 2 over the host bytes content, appending
+// the text to st and its map to the host to b.
+func stripIndent(src []byte, content notation.Span, st *[]byte, b *mapBuilder) {
 	body := src[content.Start:content.End]
-	type line struct{ start, end, term int } // offsets into body; term: terminator length
-	var lines []line
-	for i := 0; ; {
+	// nextLine returns the line at i: its end, the start of the next
+	// line, and the blanks starting it; next is -1 after the last line.
+	nextLine := func(i int) (end, next, lead int) {
 		k := bytes.IndexAny(body[i:], "\r\n")
-		if k < 0 {
-			lines = append(lines, line{i, len(body), 0})
-			break
+		end, next = len(body), -1
+		if k >= 0 {
+			end, next = i+k, i+k+1
+			if body[end] == '\r' && next < len(body) && body[next] == '\n' {
+				next++
+			}
 		}
-		t := 1
-		if body[i+k] == '\r' && i+k+1 < len(body) && body[i+k+1] == '\n' {
-			t = 2
-		}
-		lines = append(lines, line{i, i + k, t})
-		i += k + t
-	}
-	indent := func(l line) (lead int, blank bool) {
-		for lead < l.end-l.start && javaBlank(body[l.start+lead]) {
+		for i+lead < end && javaBlank(body[i+lead]) {
 			lead++
 		}
-		return lead, lead == l.end-l.start
+		return end, next, lead
 	}
 	least := -1
-	for k, l := range lines {
-		lead, blank := indent(l)
-		if (!blank || k == len(lines)-1) && (least < 0 || lead < least) {
+	for i := 0; i >= 0; {
+		end, next, lead := nextLine(i)
+		if (i+lead < end || next < 0) && (least < 0 || lead < least) {
 			least = lead
 		}
+		i = next
 	}
-	var st []byte
-	var b mapBuilder
-	for _, l := range lines {
-		if _, blank := indent(l); !blank {
-			end := l.end
-			for end > l.start && javaBlank(body[end-1]) {
-				end--
+	for i := 0; i >= 0; {
+		end, next, lead := nextLine(i)
+		if i+lead < end {
+			e := end
+			for javaBlank(body[e-1]) {
+				e--
 			}
-			st = append(st, body[l.start+least:end]...)
-			b.copy(content.Start+l.start+least, end-l.start-least)
+			*st = append(*st, body[i+least:e]...)
+			b.copy(content.Start+i+least, e-i-least)
 		}
-		if l.term > 0 {
+		if next >= 0 {
 			// The LF of the value stands at the LF of the host, or at
 			// a lone CR.
-			st = append(st, '\n')
-			b.copy(content.Start+l.end+l.term-1, 1)
+			*st = append(*st, '\n')
+			b.copy(content.Start+next-1, 1)
 		}
+		i = next
 	}
-	return st, b.done(content.Start)
 }

@@ -2,7 +2,6 @@ package lsp
 
 import (
 	"encoding/json"
-	"os"
 	"path/filepath"
 	"strings"
 
@@ -18,13 +17,13 @@ import (
 // folders from then on. Each snapshot holds the set it was built with.
 //
 // The folders decide two things:
-//   - which project file applies to a document: inside a folder, the
-//     nearest one between the document's own folder and the workspace
-//     folder, so a project file above the workspace (one in the home
-//     folder, say) is not read; outside every folder, none, since such a
-//     document belongs to no project the user opened. A client that
-//     names no folder and no root gets the checker's rule: the nearest
-//     project file above the document.
+//   - whether project files apply to a document: inside a folder, the
+//     nearest one above the document does, as for the checker (it may lie
+//     above the folder, at the top of a repository whose subfolder is
+//     open); outside every folder, none does, since such a document
+//     belongs to no project the user opened and the client watches
+//     project files only inside the folders. A client that names no
+//     folder and no root gets the checker's rule for every document.
 //   - which files on disk a workspace pull reports.
 
 // didChangeWorkspaceFolders applies a folder change: project files cached
@@ -115,47 +114,22 @@ func within(root, path string) bool {
 	return strings.HasPrefix(path, prefix)
 }
 
-// folderOf returns the innermost root holding path, and whether one does.
-// The innermost wins because a folder added inside another is the more
-// specific project.
-func folderOf(roots []string, path string) (string, bool) {
-	best, found := "", false
+// inWorkspace reports whether path lies in one of the folders.
+func inWorkspace(roots []string, path string) bool {
 	for _, r := range roots {
-		if within(r, path) && len(r) > len(best) {
-			best, found = r, true
+		if within(r, path) {
+			return true
 		}
 	}
-	return best, found
+	return false
 }
 
 // projectFileFor returns the project file that applies to the document
 // at path under the workspace folders roots, following the rules above.
 func projectFileFor(roots []string, path string) (string, bool) {
 	path = filepath.Clean(path)
-	dir := filepath.Dir(path)
-	if len(roots) == 0 {
-		return document.FindConfigFile(dir)
-	}
-	root, ok := folderOf(roots, path)
-	if !ok {
+	if len(roots) > 0 && !inWorkspace(roots, path) {
 		return "", false
 	}
-	return findConfigWithin(dir, root)
-}
-
-// findConfigWithin looks for the project file in dir and the folders
-// above it, up to and including top.
-func findConfigWithin(dir, top string) (string, bool) {
-	for d := dir; within(top, d); {
-		candidate := filepath.Join(d, document.ConfigFileName)
-		if st, err := os.Stat(candidate); err == nil && !st.IsDir() {
-			return candidate, true
-		}
-		parent := filepath.Dir(d)
-		if parent == d {
-			break
-		}
-		d = parent
-	}
-	return "", false
+	return document.FindConfigFile(filepath.Dir(path))
 }

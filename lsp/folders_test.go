@@ -250,6 +250,28 @@ func TestFolderRemoved(t *testing.T) {
 	})
 }
 
+// A project file above a workspace folder applies to the documents in it,
+// as it does for the checker: the folder may be a subfolder of the
+// project.
+func TestProjectFileAboveFolder(t *testing.T) {
+	dirs := projectTree(t, map[string]string{
+		"repo":           `{"severity": {"stereo-ineffective-center": "error"}}`,
+		"repo/assays":    "",
+		"repo/assays/b1": `{"severity": {"stereo-ineffective-center": "hint"}}`,
+	})
+	c := start(t, clientSetup{caps: capsFrom(t, foldersCap), folders: []string{string(uri.File(dirs["repo/assays"]))}})
+	top := string(uri.File(filepath.Join(dirs["repo/assays"], "list.smi")))
+	nested := string(uri.File(filepath.Join(dirs["repo/assays/b1"], "list.smi")))
+	c.open(top, "", 1, isobutane)
+	c.open(nested, "", 1, isobutane)
+	if s := severityOf(c.diagnostics(top, 1), "stereo-ineffective-center"); s != protocol.DiagnosticSeverityError {
+		t.Errorf("under the repository's project file: severity %v, want error", s)
+	}
+	if s := severityOf(c.diagnostics(nested, 1), "stereo-ineffective-center"); s != protocol.DiagnosticSeverityHint {
+		t.Errorf("under a nearer project file: severity %v, want its hint", s)
+	}
+}
+
 // A changed project file reaches the documents under it, through a
 // watcher the server registers when the client allows it, and only them.
 func TestProjectFileChangedInOneFolder(t *testing.T) {

@@ -14,7 +14,7 @@ import (
 
 // A project configuration file (document.ConfigFileName) in a document's
 // folder or a folder above applies to it, as it does for the checker: the
-// nearest one wins, within the document's workspace folder (folders.go).
+// nearest one wins, for documents in the workspace folders (folders.go).
 // It is the top layer, over the editor's settings, so the editor reports
 // what 'stereoline check' reports; settings the file leaves out come from
 // the editor.

@@ -125,7 +125,7 @@ func (l *labeller) fail(sp notation.Span, code notation.Code, format string, arg
 // readCentres reads every chirality mark.
 func (l *labeller) readCentres() {
 	g, m := l.g, l.g.mol
-	l.unitAtoms = make([]bool, len(m.Atoms))
+	l.unitAtoms = sized(&g.store.unitAtoms, len(m.Atoms))
 	for a := range m.Atoms {
 		at := &m.Atoms[a]
 		ch := at.Chirality
@@ -173,7 +173,7 @@ func (l *labeller) readCentres() {
 				// the lone pair takes the slot an implicit hydrogen would
 				// (OpenSMILES 1.0, 3.9.1)
 				slot := min(at.HydrogenSlot(), len(ligs))
-				ligs = append(ligs[:slot], append([]int{implicitLigand}, ligs[slot:]...)...)
+				ligs = slices.Insert(ligs, slot, implicitLigand)
 			}
 			l.cfg.tetra[a] = &tetraConfig{centre: a, ligands: ligs, winding: ch.Num,
 				lonePair: count == 3, span: sp}

@@ -1,6 +1,7 @@
 package stereo
 
 import (
+	"slices"
 	"sort"
 
 	"stereoline/notation"
@@ -98,18 +99,17 @@ func emptied[V any](m map[int]V) map[int]V {
 // bracket hydrogen at its slot.
 func stereoLigands(m *notation.Molecule, a int) []int {
 	at := &m.Atoms[a]
-	var out []int
+	h := at.HydrogenCount()
+	// one allocation, with room for a lone pair a caller may insert
+	out := make([]int, 0, len(at.Bonds)+h+1)
 	for _, bi := range at.Bonds {
 		out = append(out, m.Bonds[bi].Other(a))
 	}
-	for h := 0; h < at.HydrogenCount(); h++ {
-		slot := at.HydrogenSlot()
-		if slot > len(out) {
-			slot = len(out)
+	if h > 0 {
+		slot := min(at.HydrogenSlot(), len(out))
+		for range h {
+			out = slices.Insert(out, slot, implicitLigand)
 		}
-		out = append(out, 0)
-		copy(out[slot+1:], out[slot:])
-		out[slot] = implicitLigand
 	}
 	return out
 }

@@ -120,6 +120,8 @@ type graphStore struct {
 	scratch []int
 	frames  []dfsFrame
 	rings   []int
+	// the labeller's flags by bond and by atom (marks.go, analyze.go)
+	marks, unitAtoms []bool
 	// symmetry classes (perceive.go)
 	class, classNext []int
 	classIDs         map[uint64]int

@@ -7,7 +7,7 @@ import "stereoline/notation"
 func (l *labeller) readBonds() {
 	g, m := l.g, l.g.mol
 	nb := len(l.g.mol.Bonds)
-	marks := make([]bool, 3*nb)
+	marks := sized(&g.store.marks, 3*nb)
 	l.usedBondMarks, l.unitBonds = marks[:nb:nb], marks[nb:2*nb:2*nb]
 	seen := marks[2*nb:] // by bond: double bonds of chains already read
 	for bi := range m.Bonds {

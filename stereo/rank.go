@@ -34,7 +34,7 @@ type ranking struct {
 // rankLigands sorts the ligands of root in the view rooted at root.
 func (d *digraph) rankLigands(root nodeID, ligs []nodeID) ranking {
 	s := d.store(ligs) // the order lives as long as the digraph
-	pairs := newPairMemo(d, root, ligs)
+	pairs := &pairMemo{d: d, root: root, ligs: ligs} // stays on the stack
 	for i := 1; i < len(s); i++ {
 		for j := i; j > 0; j-- {
 			c, _, _ := pairs.compare(s[j], s[j-1])
@@ -173,10 +173,6 @@ const maxMemoLigands = 6
 type pairResult struct {
 	c, sphere int
 	rule      Rule
-}
-
-func newPairMemo(d *digraph, root nodeID, ligs []nodeID) *pairMemo {
-	return &pairMemo{d: d, root: root, ligs: ligs}
 }
 
 func (p *pairMemo) index(n nodeID) int {

@@ -303,6 +303,9 @@ func (cf *codeFinder) records(lit *literal, d *decoded, m *offsetMap, text strin
 		}
 		line := d.text[start:end]
 		trimmed := bytes.TrimLeft(line, " \t")
+		if lit.margin != "" && bytes.HasPrefix(trimmed, []byte(lit.margin)) {
+			trimmed = trimmed[len(lit.margin):]
+		}
 		lead := len(line) - len(trimmed)
 		if len(trimmed) > 0 && trimmed[0] != '#' {
 			recEnd, ts, te := splitRecord(trimmed)

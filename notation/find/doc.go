@@ -34,7 +34,11 @@
 //     a variable, key, argument or function, or unmistakably notation.
 //   - Markdown: code spans that are unmistakably notation or introduced
 //     by the word SMILES, fenced blocks tagged smiles (one record a line),
-//     fenced blocks in a language above.
+//     fenced blocks in a language above. Code spans are read over the
+//     lines of a paragraph (CommonMark), so one that closes on the next
+//     line closes there; a span still holding a line break (a space, once
+//     read) is never notation, one broken only at its ends is its
+//     content (codespan.go).
 //   - JSON and YAML: string values under notation-named keys, and
 //     unmistakable values anywhere.
 //   - Notebooks (.ipynb): code cells in the notebook's language, markdown
@@ -42,9 +46,23 @@
 //
 // Python's adjacent literals ("F/C=C" "/F") are joined into one
 // occurrence, as Python joins them; its map is piecewise, and host
-// offsets between the pieces map to no notation offset. f-strings, byte
-// strings, interpolated and template strings with substitutions are not
-// fixed text and are skipped.
+// offsets between the pieces map to no notation offset. Byte strings and
+// string macros are skipped.
+//
+// Java text blocks are read as the Java compiler reads them: the lines
+// after the opening delimiter, incidental indentation and trailing blanks
+// stripped, then escapes; a named block is a record list, and a record
+// split by \<newline> maps piece by piece (textblock.go). Kotlin raw
+// strings are searched line by line as written (trimMargin() prefixes
+// dropped).
+//
+// Templates (Python f- and t-strings, JavaScript template literals with
+// ${...}, Kotlin and Julia strings with $name, ${...} or $(...)) are
+// formatted at run time: only the fixed text between the replacement
+// fields is searched, token by token (blanks and the \t, \n, \r escapes
+// separate tokens), and a token touching a field is never taken, so no
+// notation spans a field (template.go, fstring.go). f"{cid}\tC[C@H](N)O"
+// yields C[C@H](N)O; f"C{n}CO" yields nothing.
 //
 // # Escapes
 //

@@ -10,12 +10,14 @@ import (
 // Kotlin string literals (Kotlin language specification, "String
 // literals"): "..." with escapes, and raw """...""" without; both with
 // $name and ${...} templates, whose fixed text is searched as a template
-// (template.go). trimIndent() and trimMargin() after a raw string are
-// not applied: its lines are searched as written, a record list trimming
-// the blanks that start a line anyway.
+// (template.go). trimIndent() after a raw string needs nothing: a record
+// list trims the blanks that start a line anyway; trimMargin() (with "|"
+// or a literal argument) also drops the margin prefix after them.
 var kotlin = &codeLang{
 	kind: KindKotlin,
-	lex:  func(src []byte, prag *pragmas) []token { return lex(src, prag, kotlinHook) },
+	lex: func(src []byte, prag *pragmas) []token {
+		return marginCalls(src, lex(src, prag, kotlinHook))
+	},
 	rules: &escapeRules{
 		lang: "kotlin", harmless: `"'$`, simple: "tbnr", unicode: "u", unknown: unknownReject,
 	},
@@ -124,4 +126,30 @@ func scanDollar(src []byte, from int, f dollarForm) (cend, end int, holes []nota
 // template: a letter, '_' or a byte of a non-ASCII letter.
 func templateNameStart(c byte) bool {
 	return c == '_' || c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z' || c >= 0x80
+}
+
+// marginCalls marks the raw strings followed by .trimMargin() or
+// .trimMargin("prefix") with the margin that call removes.
+func marginCalls(src []byte, toks []token) []token {
+	text := func(k int) string {
+		if k >= len(toks) {
+			return ""
+		}
+		return string(src[toks[k].span.Start:toks[k].span.End])
+	}
+	for k := range toks {
+		t := toks[k]
+		if t.kind != tString || t.lit.pieces[0].quote != `"""` || text(k+1) != "." ||
+			text(k+2) != "trimMargin" || text(k+3) != "(" {
+			continue
+		}
+		switch {
+		case text(k+4) == ")":
+			t.lit.margin = "|"
+		case k+5 < len(toks) && toks[k+4].kind == tString && !toks[k+4].lit.skip && !toks[k+4].lit.hasHoles() && text(k+5) == ")":
+			pc := toks[k+4].lit.pieces[0]
+			t.lit.margin = strings.TrimSpace(string(src[pc.content.Start:pc.content.End]))
+		}
+	}
+	return toks
 }

@@ -40,6 +40,9 @@ type literal struct {
 	// skip marks literals that are never notation: byte strings, string
 	// macros, unterminated or malformed literals.
 	skip bool
+	// margin is the prefix that a trimMargin() call after the literal
+	// removes from its lines, after their blanks (Kotlin).
+	margin string
 }
 
 // template reports whether a piece of the literal builds its text at run

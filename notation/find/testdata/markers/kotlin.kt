@@ -25,3 +25,13 @@ val smilesBlock = """
 """.trimIndent()
 // stereoline: skip-next
 val skipped = "$id C1CCCCC1"
+// trimMargin() drops the margin prefix after the blanks of each line.
+// want-after «CCO» title «ethanol» want-after «F/C=C/F»
+val smilesMargin = """
+    |CCO ethanol
+    |F/C=C/F
+""".trimMargin()
+// want-after «C1CCCCC1»
+val smilesHash = """
+    >C1CCCCC1
+""".trimMargin(">")

@@ -16,6 +16,9 @@ type codeLang struct {
 	// rawForm writes text as a raw literal of the language, reporting
 	// false when the text cannot be written that way.
 	rawForm func(pc *piece, text string) (string, bool)
+	// dollar returns how a '$' of the notation is written in a piece
+	// where '$' may start a template ("" where it cannot).
+	dollar func(pc *piece) string
 	// braceBlocks: '{' opens statement blocks, so a newline inside braces
 	// ends a statement (Go, JavaScript, Rust, ...; not Python).
 	braceBlocks bool
@@ -342,8 +345,8 @@ func (cf *codeFinder) emit(lit *literal, d *decoded, m *offsetMap, from, to int,
 	// Pieces and issues are in host order: a literal joined from many
 	// pieces with many records is searched, not walked, per record.
 	if k := pieceAt(lit, o.Span.Start); k >= 0 {
-		if pc := &lit.pieces[k]; o.Span.Start <= pc.content.End && !pc.raw {
-			o.encode = doubleBackslashes
+		if pc := &lit.pieces[k]; o.Span.Start <= pc.content.End {
+			o.encode = cf.encoder(pc)
 		}
 	}
 	first := sort.Search(len(d.issues), func(k int) bool { return d.issues[k].span.Start >= o.Span.Start })
@@ -367,6 +370,25 @@ func (cf *codeFinder) emit(lit *literal, d *decoded, m *offsetMap, from, to int,
 		o.addDiag(e, fixes)
 	}
 	cf.out = append(cf.out, o)
+}
+
+// encoder returns how text inserted into a piece must be written: with
+// backslashes doubled unless the piece is raw, and with each '$' (the
+// quadruple bond) written so that it starts no template where '$' does.
+func (cf *codeFinder) encoder(pc *piece) func(string) string {
+	dollar := ""
+	if cf.lang.dollar != nil {
+		dollar = cf.lang.dollar(pc)
+	}
+	switch {
+	case dollar != "" && pc.raw:
+		return func(s string) string { return strings.ReplaceAll(s, "$", dollar) }
+	case dollar != "":
+		return func(s string) string { return strings.ReplaceAll(doubleBackslashes(s), "$", dollar) }
+	case pc.raw:
+		return nil
+	}
+	return doubleBackslashes
 }
 
 // pieceAt returns the index of the last piece of a literal whose content

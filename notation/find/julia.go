@@ -21,6 +21,13 @@ var julia = &codeLang{
 		}
 		return `raw"` + text + `"`, true
 	},
+	// raw"..." does not interpolate.
+	dollar: func(pc *piece) string {
+		if pc.raw {
+			return ""
+		}
+		return `\$`
+	},
 	braceBlocks: true,
 }
 

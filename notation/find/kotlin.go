@@ -27,6 +27,14 @@ var kotlin = &codeLang{
 		}
 		return `"""` + text + `"""`, true
 	},
+	// A raw string has no escapes: a dollar is written as a template
+	// whose value is a dollar (common practice).
+	dollar: func(pc *piece) string {
+		if pc.raw {
+			return "${'$'}"
+		}
+		return `\$`
+	},
 	braceBlocks: true,
 }
 

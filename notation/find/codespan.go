@@ -21,9 +21,11 @@ import (
 // endings are the ones stripped at its ends (`⏎F/C=C/F⏎`) is read as its
 // content, which then lies on one line.
 
-// inlineCode adds the notation in the code spans of one paragraph, the
-// host bytes text starting at host offset at.
-func inlineCode(out []Occurrence, text []byte, at int, prag *pragmas, nm namer, cfg *Config) []Occurrence {
+// inlineCode adds the notation in the code spans of one paragraph (or
+// table cell), the host bytes text starting at host offset at; pre is the
+// text before it on its line that may name the notation (the cells before
+// a cell), or nil.
+func inlineCode(out []Occurrence, text []byte, at int, pre []byte, prag *pragmas, nm namer, cfg *Config) []Occurrence {
 	if bytes.IndexByte(text, '`') < 0 {
 		return out
 	}
@@ -52,7 +54,7 @@ func inlineCode(out []Occurrence, text []byte, at int, prag *pragmas, nm namer, 
 		if bytes.IndexAny(text[cs:ce], "\r\n") >= 0 {
 			continue
 		}
-		o, ok := codeSpan(text, cs, ce, open.Start, at, prag, nm, cfg)
+		o, ok := codeSpan(text, cs, ce, open.Start, at, pre, prag, nm, cfg)
 		if ok {
 			out = append(out, o)
 		}
@@ -110,7 +112,7 @@ func codeSpanContent(text []byte, cs, ce int) (int, int) {
 
 // codeSpan decides about the content text[cs:ce] of a code span opened at
 // text offset open.
-func codeSpan(text []byte, cs, ce, open, at int, prag *pragmas, nm namer, cfg *Config) (Occurrence, bool) {
+func codeSpan(text []byte, cs, ce, open, at int, pre []byte, prag *pragmas, nm namer, cfg *Config) (Occurrence, bool) {
 	s := string(text[cs:ce])
 	if !prag.allowed(at + open) {
 		return Occurrence{}, false
@@ -119,7 +121,7 @@ func codeSpan(text []byte, cs, ce, open, at int, prag *pragmas, nm namer, cfg *C
 	switch {
 	case prag.forced(at + open):
 		reason = ReasonPragma
-	case namedBefore(text[:open], nm) && plausible(s):
+	case namedBefore(pre, text[:open], nm) && plausible(s):
 		reason = ReasonName
 	case !cfg.NoGuess && unmistakable(s):
 		reason = ReasonGuess
@@ -137,11 +139,15 @@ func codeSpan(text []byte, cs, ce, open, at int, prag *pragmas, nm namer, cfg *C
 	}, true
 }
 
-// namedBefore reports whether the last words before a code span name the
-// notation ("the SMILES `CCO`", "Reaction SMILES: `...`").
-func namedBefore(before []byte, nm namer) bool {
+// namedBefore reports whether the last words before a code span, in pre
+// and then before, name the notation ("the SMILES `CCO`", "Reaction
+// SMILES: `...`", "| SMILES | `CCO` |").
+func namedBefore(pre, before []byte, nm namer) bool {
 	if len(before) > 40 {
 		before = before[len(before)-40:]
+	} else if len(pre) > 0 {
+		pre = pre[max(0, len(pre)-(40-len(before))):]
+		before = append(append([]byte(nil), pre...), before...)
 	}
 	words := strings.Fields(string(before))
 	if len(words) > 3 {

@@ -36,7 +36,7 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 	para := notation.Span{Start: -1}
 	flush := func() {
 		if para.Start >= 0 {
-			out = inlineCode(out, src[para.Start:para.End], para.Start, prag, nm, cfg)
+			out = inlineCode(out, src[para.Start:para.End], para.Start, nil, prag, nm, cfg)
 			para.Start = -1
 		}
 	}
@@ -99,9 +99,18 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 		if k := bytes.Index(line, []byte("<!--")); k >= 0 {
 			prag.addComment(line[k:], lineStart+k)
 		}
+		if t := bytes.TrimLeft(line, " \t"); len(t) > 0 && t[0] == '|' {
+			// A table row (GitHub Flavored Markdown, "Tables"): its
+			// cells are split at unescaped pipes before code spans are
+			// read, so each cell is read on its own.
+			flush()
+			out = tableRowCode(out, line, lineStart, prag, nm, cfg)
+			continue
+		}
 		heading := indent < 4 && len(body) > 0 && body[0] == '#'
-		if heading {
-			// An ATX heading is a block of one line.
+		if heading || startsItem(line) {
+			// An ATX heading is a block of one line; a list item
+			// starts a block of its own.
 			flush()
 		}
 		if para.Start < 0 {
@@ -159,4 +168,42 @@ func fencedRecord(out []Occurrence, line []byte, lineStart int, prag *pragmas) [
 		Reason:    ReasonPlace,
 		m:         identityMap(lineStart, recEnd),
 	})
+}
+
+// startsItem reports whether a line starts a list item (CommonMark 5.2:
+// '-', '+' or '*', or one to nine digits and '.' or ')', then a blank or
+// the line end), which ends the paragraph before it.
+func startsItem(line []byte) bool {
+	b := bytes.TrimLeft(line, " \t")
+	if len(b) == 0 {
+		return false
+	}
+	n := 0
+	switch {
+	case b[0] == '-' || b[0] == '+' || b[0] == '*':
+		n = 1
+	default:
+		for n < len(b) && n < 9 && b[n] >= '0' && b[n] <= '9' {
+			n++
+		}
+		if n == 0 || n >= len(b) || b[n] != '.' && b[n] != ')' {
+			return false
+		}
+		n++
+	}
+	return n == len(b) || b[n] == ' ' || b[n] == '\t' || b[n] == '\r'
+}
+
+// tableRowCode adds the notation in the code spans of the cells of a
+// table row.
+func tableRowCode(out []Occurrence, line []byte, lineStart int, prag *pragmas, nm namer, cfg *Config) []Occurrence {
+	from := 0
+	for i := 0; i <= len(line); i++ {
+		if i < len(line) && (line[i] != '|' || i > 0 && line[i-1] == '\\') {
+			continue
+		}
+		out = inlineCode(out, line[from:i], lineStart+from, line[:from], prag, nm, cfg)
+		from = i + 1
+	}
+	return out
 }

@@ -226,7 +226,9 @@ func (l *labeller) checkCages() {
 // configuration.
 func (l *labeller) cageFixed(x int) bool {
 	g := l.g
-	if g.degree(x) != 4 || ringDegree(g, x) < 3 || !l.equalRingLigands(x) {
+	// the classes are asked only once a bicycle is found: most ring
+	// fusions are no bicycle, and their molecules may need no classes
+	if g.degree(x) != 4 || ringDegree(g, x) < 3 {
 		return false
 	}
 	for _, y := range l.partnerHeads(x) {
@@ -245,23 +247,6 @@ func (l *labeller) cageFixed(x int) bool {
 				if !l.configuredBeside(x, y, third, pi) && !l.configuredBeside(x, y, third, pj) {
 					return true
 				}
-			}
-		}
-	}
-	return false
-}
-
-// equalRingLigands reports whether two ring neighbours of x fall in one
-// symmetry class: the cheap test before any search for bridges.
-func (l *labeller) equalRingLigands(x int) bool {
-	adj := l.g.adj[x]
-	for i, e := range adj {
-		if !l.g.ringBond[e.bond] {
-			continue
-		}
-		for _, f := range adj[i+1:] {
-			if l.g.ringBond[f.bond] && l.classes.of(e.to) == l.classes.of(f.to) {
-				return true
 			}
 		}
 	}

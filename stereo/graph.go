@@ -48,18 +48,17 @@ type edge struct {
 // taken as the single bond of its dipolar form, P+-O-, without duplicate
 // atoms: the validation suite of Hanson et al. 2018 ranks sulfinate and
 // phosphonate centres that way (VS014, VS038, VS122, VS177).
-func cipOrder(m *notation.Molecule, b *notation.Bond) int {
-	o := bondOrder(b)
-	if o != 2 {
-		return o
+func cipOrder(g *graph, b *notation.Bond, order int) int {
+	if order != 2 {
+		return order
 	}
 	for _, pair := range [2][2]int{{b.Begin, b.End}, {b.End, b.Begin}} {
-		c, t := &m.Atoms[pair[0]], &m.Atoms[pair[1]]
-		if hypervalentCentre(c.Number) && chalcogen(t.Number) && len(t.Bonds) == 1 && t.HydrogenCount() == 0 {
+		c, t := pair[0], pair[1]
+		if hypervalentCentre(g.z[c]) && chalcogen(g.z[t]) && len(g.adj[t]) == 1 && g.hyd[t] == 0 {
 			return 1
 		}
 	}
-	return o
+	return order
 }
 
 func hypervalentCentre(z int) bool {
@@ -102,9 +101,14 @@ func (g *graph) build(m *notation.Molecule) {
 				continue
 			}
 			b := &m.Bonds[bi]
-			edges = append(edges, edge{to: b.Other(i), bond: bi, order: bondOrder(b), cip: cipOrder(m, b)})
+			edges = append(edges, edge{to: b.Other(i), bond: bi, order: bondOrder(b)})
 		}
 		g.adj[i] = edges[start:len(edges):len(edges)]
+	}
+	// the orders the digraph duplicates need every atom's neighbours
+	for i := range edges {
+		e := &edges[i]
+		e.cip = cipOrder(g, &m.Bonds[e.bond], e.order)
 	}
 	g.findRings()
 	g.findMancude()

@@ -15,7 +15,9 @@ import (
 // spaces.
 //
 // Spans are read over the whole paragraph, so a span that closes on the
-// next line closes there and its closing backticks open nothing. A span
+// next line closes there and its closing backticks open nothing. A
+// paragraph here ends at a blank line, a fence, a heading or a list item;
+// table rows are read cell by cell (findMarkdown). A span
 // whose content still holds a line ending after the stripping holds a
 // space, which no record has: it is never notation. One whose only line
 // endings are the ones stripped at its ends (`⏎F/C=C/F⏎`) is read as its

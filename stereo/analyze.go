@@ -110,6 +110,8 @@ type labeller struct {
 	oneSided      []*bondConfig
 	spare         []*digraph   // storage of digraphs already used, for reuse (digraph_reuse.go)
 	classes       *lazyClasses // constitutional symmetry classes, computed on first use
+	halfMarked    []member     // marked units that may be stereogenic together (together.go)
+	effective     map[int]bool // by bond: marks that configure a labelled double bond
 }
 
 func (l *labeller) warn(sp notation.Span, code notation.Code, format string, args ...any) *notation.Error {

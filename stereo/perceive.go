@@ -42,32 +42,21 @@ func (l *labeller) perceiveUnmarked() {
 			paired = append(paired, a)
 		}
 	}
-	// units stereogenic together: two paired atoms on one ring
-	var rings [][]int
-	if len(paired) >= 2 {
-		rings = g.smallRings()
+	// units stereogenic together: two paired atoms or exocyclic double
+	// bonds on one ring, marked or not
+	members := l.halfMarked
+	for _, a := range paired {
+		members = append(members, member{atom: a, bond: -1})
 	}
-	for _, ring := range rings {
-		var on []int
-		for _, a := range paired {
-			for _, r := range ring {
-				if r == a {
-					on = append(on, a)
-				}
-			}
-		}
-		if len(on) < 2 {
+	for bi := range g.mol.Bonds {
+		if l.unitBonds[bi] || g.ringBond[bi] || bondOrder(&g.mol.Bonds[bi]) != 2 {
 			continue
 		}
-		for _, a := range on {
-			if l.unitAtoms[a] || l.cageFixed(a) {
-				continue
-			}
-			l.unitAtoms[a] = true
-			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a, nil))
-			report(g.mol.Atoms[a].Span, "stereocentre (together with another ring atom) without a configuration")
+		if r, o, ok := l.exoPaired(bi); ok {
+			members = append(members, member{atom: r, bond: bi, other: o})
 		}
 	}
+	l.together(members, report)
 	// allenes and even cumulenes: two different ligands at each end
 	for a := 0; a < g.n; a++ {
 		if l.unitAtoms[a] {
@@ -92,9 +81,23 @@ func (l *labeller) perceiveUnmarked() {
 		if s := g.ringSize(bi); s > 0 && s < 8 {
 			continue
 		}
-		if bondEndsDistinct(g, b.Begin, b.End, class) {
+		switch {
+		case bondEndsDistinct(g, b.Begin, b.End, class):
 			l.res.Units = append(l.res.Units, l.unspecifiedBond(b.Begin, b.End, bi))
 			report(b.Span, "stereogenic double bond without a configuration")
+		case l.anyMarks && l.configuredBondPair(b.Begin, b.End) && l.configuredBondPair(b.End, b.Begin):
+			// an end whose two equal ligands the configurations written
+			// elsewhere tell apart, as for pseudoCentre
+			probe := &bondConfig{bond: bi, ends: [2]int{b.Begin, b.End}, inner: [2]int{b.End, b.Begin}, refs: [2]int{-2, -2}}
+			restore := l.explaining()
+			lb := l.doubleBond(probe)
+			restore()
+			if lb.tie || lb.capped {
+				continue
+			}
+			l.res.Units = append(l.res.Units, Unit{Kind: KindDoubleBond, Atoms: []int{b.Begin, b.End}, Centre: -1, Bond: bi,
+				Ranked: lb.ranked, Decisions: lb.decisions})
+			report(b.Span, "stereogenic double bond (made so by the configurations around it) without a configuration")
 		}
 	}
 }
@@ -193,6 +196,28 @@ func (l *labeller) configuredPair(a int, class *lazyClasses) bool {
 		}
 	}
 	return true
+}
+
+// configuredBondPair is the cheap test before a double bond is ranked
+// for configurations elsewhere: end a of a=b can carry two different
+// ligands, and if its two ligands are constitutionally equal, they are
+// no pair of ring branches (the together test's) and each leads to a
+// configured atom within a few bonds. At least one end of the bond must
+// have such a pair for the test to be worth it; bondEndsDistinct has
+// already failed, so one has.
+func (l *labeller) configuredBondPair(a, b int) bool {
+	end, ok := bondEnd(l.g, a, b)
+	if !ok {
+		return false
+	}
+	if end.distinct(l.classes) {
+		return true
+	}
+	x, y := end.others[0], end.others[1]
+	if bx, by := l.g.mol.BondBetween(a, x), l.g.mol.BondBetween(a, y); l.g.ringBond[bx] && l.g.ringBond[by] {
+		return false
+	}
+	return l.configuredNear(x, a, 6) && l.configuredNear(y, a, 6)
 }
 
 // configuredNear reports whether an atom with a written configuration

@@ -19,6 +19,12 @@ func (l *labeller) labelAll() {
 			lb.tie, lb.desc = false, DescUndetermined
 		}
 		if lb.tie {
+			if l.ringPaired(a) {
+				// may be stereogenic together with another ring atom:
+				// decided once every candidate is known (together.go)
+				l.halfMarked = append(l.halfMarked, member{atom: a, bond: -1, marked: true, tetra: t, lb: lb})
+				continue
+			}
 			l.warn(t.span, CodeIneffectiveCenter, "mark on an atom that is not a stereocentre: two of its ligands are the same")
 			continue
 		}
@@ -36,7 +42,8 @@ func (l *labeller) labelAll() {
 	// chain) is not blamed on the unit that cannot use it
 	done := map[*bondConfig]bool{}
 	var quiet []*bondConfig // units whose marks may belong to another unit
-	effective := map[int]bool{}
+	l.effective = map[int]bool{}
+	effective := l.effective
 	for _, bi := range sortedKeys(l.cfg.bonds) {
 		c := l.cfg.bonds[bi]
 		if done[c] {
@@ -53,6 +60,10 @@ func (l *labeller) labelAll() {
 			lb.tie, lb.desc = false, DescUndetermined
 		}
 		if lb.tie {
+			if r, o, ok := l.exoPaired(c.bond); ok {
+				l.halfMarked = append(l.halfMarked, member{atom: r, bond: c.bond, other: o, marked: true, bondc: c, lb: lb})
+				continue
+			}
 			quiet = append(quiet, c)
 			continue
 		}
@@ -74,18 +85,7 @@ func (l *labeller) labelAll() {
 		return true
 	}
 	for _, c := range quiet {
-		if shared(c) {
-			continue
-		}
-		size := l.ringSize(c)
-		switch {
-		case size > 0 && size < 8 && l.g.mancudeZ[c.ends[0]] == 0 && l.transInRing(c):
-			l.fail(c.spans[0], CodeStrainedRing, "trans double bond in a ring of %d atoms; the smallest ring that holds one has 8", size)
-		case size > 0 && size < 8:
-			l.warn(c.spans[0], CodeIneffectiveBond, "a double bond in a ring of %d atoms can only be cis; the marks add nothing", size)
-		default:
-			l.warn(c.spans[0], CodeIneffectiveBond, "marks on a double bond that is not stereogenic: one end carries two equal ligands")
-		}
+		l.warnQuietBond(c)
 	}
 	// A one-sided bond that can be stereogenic claims its marks too, so a
 	// mark between C=O and C=C (an acrylate) is not called ineffective
@@ -94,6 +94,15 @@ func (l *labeller) labelAll() {
 	claimed := map[int]bool{}
 	for mb := range effective {
 		claimed[mb] = true
+	}
+	// a bond that may be stereogenic together with a ring atom claims
+	// its marks as well; alone, it is reported by together.go
+	for _, h := range l.halfMarked {
+		if h.bondc != nil {
+			for _, mb := range h.bondc.marks {
+				claimed[mb] = true
+			}
+		}
 	}
 	for k, c := range l.oneSided {
 		probe := *c
@@ -122,9 +131,14 @@ func (l *labeller) labelAll() {
 			continue
 		}
 		if shared(c) {
-			continue
+			// the mark configures a neighbouring double bond too (a
+			// conjugated chain, C/C=C/C=CC): this one is still open, and
+			// is reported on its own bond, not on the mark it shares
+			e := l.warn(l.g.mol.Bonds[c.bond].Span, CodeOneSidedBond, "only one end of this double bond is marked, by a mark it shares with its neighbour, so its configuration is open")
+			e.Related = append(e.Related, notation.Related{Span: c.spans[0], Msg: "the shared mark"})
+		} else {
+			l.warn(c.spans[0], CodeOneSidedBond, "only one end of this double bond is marked, so its configuration is open")
 		}
-		l.warn(c.spans[0], CodeOneSidedBond, "only one end of this double bond is marked, so its configuration is open")
 		l.res.Units = append(l.res.Units, Unit{Kind: KindDoubleBond, Atoms: []int{c.ends[0], c.ends[1]}, Centre: -1, Bond: c.bond,
 			Ranked: lb.ranked, Marks: c.spans})
 	}
@@ -152,6 +166,31 @@ func (l *labeller) labelAll() {
 		// number, which the notation's neighbour order interprets
 		l.res.Units = append(l.res.Units, Unit{Kind: c.kind, Atoms: []int{a}, Centre: a, Bond: -1, Specified: true,
 			Permutation: c.number, Marks: []notation.Span{c.span}})
+	}
+}
+
+// warnQuietBond reports the marks of a configured double bond that
+// decides nothing: trans in a small ring, cis-only in a small ring, or
+// one end with two equal ligands; marks that serve another double bond
+// are left alone.
+func (l *labeller) warnQuietBond(c *bondConfig) {
+	shared := true
+	for _, mb := range c.marks {
+		if !l.effective[mb] {
+			shared = false
+		}
+	}
+	if shared {
+		return
+	}
+	size := l.ringSize(c)
+	switch {
+	case size > 0 && size < 8 && l.g.mancudeZ[c.ends[0]] == 0 && l.transInRing(c):
+		l.fail(c.spans[0], CodeStrainedRing, "trans double bond in a ring of %d atoms; the smallest ring that holds one has 8", size)
+	case size > 0 && size < 8:
+		l.warn(c.spans[0], CodeIneffectiveBond, "a double bond in a ring of %d atoms can only be cis; the marks add nothing", size)
+	default:
+		l.warn(c.spans[0], CodeIneffectiveBond, "marks on a double bond that is not stereogenic: one end carries two equal ligands")
 	}
 }
 

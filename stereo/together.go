@@ -1,0 +1,143 @@
+package stereo
+
+import "stereoline/notation"
+
+// Units stereogenic only together. A ring atom whose two ring branches
+// are constitutionally equal is no stereocentre on its own, yet two such
+// atoms on one ring are: cis- and trans-1,4-dimethylcyclohexane differ.
+// The same holds for a ring atom carrying an exocyclic double bond whose
+// far end has two different ligands (the axially chiral
+// 4-methylcyclohexylideneacetic acid; common practice). A mark on one
+// member alone says nothing until its partner is marked too, so such a
+// mark is not reported as ineffective: its unmarked partner is reported
+// as undefined instead.
+
+// member is one ring atom that may be stereogenic together with another.
+type member struct {
+	atom int // the ring atom
+	// bond is the exocyclic double bond, -1 for a tetrahedral centre;
+	// other is its atom off the ring
+	bond, other int
+	// marked members carry marks that decide nothing alone
+	marked bool
+	tetra  *tetraConfig
+	bondc  *bondConfig
+	lb     label
+}
+
+// ringPaired reports whether atom a has exactly one pair of
+// constitutionally equal ligands and both lie on ring bonds.
+func (l *labeller) ringPaired(a int) bool {
+	_, pairInRing := ligandClasses(l.g, a, l.classes)
+	return pairInRing
+}
+
+// exoPaired reports whether double bond bi leaves a ring from an atom
+// whose two ring branches are equal, towards an atom with two different
+// ligands, and returns the ring atom and the other end.
+func (l *labeller) exoPaired(bi int) (ring, other int, ok bool) {
+	g := l.g
+	b := &g.mol.Bonds[bi]
+	if bi < 0 || bi >= len(g.mol.Bonds) || g.ringBond[bi] || bondOrder(b) != 2 || b.Order == notation.OrderAromatic {
+		return 0, 0, false
+	}
+	for _, ends := range [2][2]int{{b.Begin, b.End}, {b.End, b.Begin}} {
+		r, o := ends[0], ends[1]
+		if g.hyd[r] != 0 || len(g.adj[r]) != 3 || g.cumulated(r) || g.cumulated(o) {
+			continue
+		}
+		var pair [2]int
+		n := 0
+		for _, e := range g.adj[r] {
+			if e.bond == bi {
+				continue
+			}
+			if !g.ringBond[e.bond] || n == 2 {
+				n = -1
+				break
+			}
+			pair[n] = e.to
+			n++
+		}
+		if n != 2 || l.classes.of(pair[0]) != l.classes.of(pair[1]) {
+			continue
+		}
+		if end, ok := bondEnd(g, o, r); ok && end.distinct(l.classes) {
+			return r, o, true
+		}
+	}
+	return 0, 0, false
+}
+
+// together joins the members on common rings and reports them: unmarked
+// members as undefined, marked ones as units whose configuration is
+// still open. Members left without a partner get the diagnostics a mark
+// that decides nothing gets.
+func (l *labeller) together(members []member, report func(notation.Span, string)) {
+	g := l.g
+	// a bridgehead fixed by its cage has no configuration to pair
+	kept := members[:0]
+	for _, m := range members {
+		if m.bond >= 0 || !l.cageFixed(m.atom) {
+			kept = append(kept, m)
+		}
+	}
+	members = kept
+	joined := make([]bool, len(members))
+	if len(members) >= 2 {
+		for _, ring := range g.smallRings() {
+			var on []int
+			for i, m := range members {
+				for _, r := range ring {
+					if r == m.atom {
+						on = append(on, i)
+						break
+					}
+				}
+			}
+			if len(on) < 2 {
+				continue
+			}
+			for _, i := range on {
+				joined[i] = true
+			}
+		}
+	}
+	for i, m := range members {
+		switch {
+		case !joined[i] && m.marked:
+			l.alone(m)
+		case !joined[i]:
+		case m.marked && m.bond < 0:
+			l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{m.atom}, Centre: m.atom, Bond: -1,
+				Ranked: m.lb.ranked, Decisions: m.lb.decisions, Marks: []notation.Span{m.tetra.span}})
+		case m.marked:
+			c := m.bondc
+			l.res.Units = append(l.res.Units, Unit{Kind: KindDoubleBond, Atoms: []int{c.ends[0], c.ends[1]}, Centre: -1, Bond: c.bond,
+				Ranked: m.lb.ranked, Decisions: m.lb.decisions, Marks: c.spans})
+		case m.bond < 0:
+			if l.unitAtoms[m.atom] {
+				continue
+			}
+			l.unitAtoms[m.atom] = true
+			l.res.Units = append(l.res.Units, l.unspecifiedCentre(m.atom, nil))
+			report(g.mol.Atoms[m.atom].Span, "stereocentre (together with another ring atom) without a configuration")
+		default:
+			if l.unitBonds[m.bond] {
+				continue
+			}
+			l.unitBonds[m.bond] = true
+			l.res.Units = append(l.res.Units, l.unspecifiedBond(m.atom, m.other, m.bond))
+			report(g.mol.Bonds[m.bond].Span, "stereogenic double bond (together with a ring atom) without a configuration")
+		}
+	}
+}
+
+// alone reports the marks of a member that found no partner.
+func (l *labeller) alone(m member) {
+	if m.bond < 0 {
+		l.warn(m.tetra.span, CodeIneffectiveCenter, "mark on an atom that is not a stereocentre: two of its ligands are the same")
+		return
+	}
+	l.warnQuietBond(m.bondc)
+}

@@ -1,0 +1,66 @@
+package stereo
+
+import (
+	"testing"
+
+	"stereoline/notation"
+)
+
+// TestStereogenicTogether checks units that are stereogenic only with a
+// partner, and marks whose meaning waits for one.
+func TestStereogenicTogether(t *testing.T) {
+	cases := []struct {
+		name, smiles string
+		specified    int                   // units the marks specify
+		want         map[notation.Code]int // diagnostics by code
+		source       string
+	}{
+		// 1,4-dimethylcyclohexane has cis and trans isomers (common
+		// practice); one mark alone is half a relative configuration:
+		// its partner is undefined, the mark itself is not noise
+		{"one of a 1,4 pair marked", "C[C@H]1CCC(C)CC1", 0, map[notation.Code]int{CodeUndefined: 1}, "common practice"},
+		{"both of a 1,4 pair marked", "C[C@H]1CC[C@H](C)CC1", 2, map[notation.Code]int{}, "common practice"},
+		// methylcyclohexane has no stereoisomers (common practice)
+		{"no partner", "C[C@H]1CCCCC1", 0, map[notation.Code]int{CodeIneffectiveCenter: 1}, "common practice"},
+		// (4-methylcyclohexylidene)acetic acid is axially chiral (common
+		// practice): the ring carbon and the exocyclic double bond are
+		// stereogenic together
+		{"exocyclic unmarked", "CC1CCC(=CC(=O)O)CC1", 0, map[notation.Code]int{CodeUndefined: 2}, "common practice"},
+		{"exocyclic, centre marked", "C[C@H]1CCC(CC1)=CC(=O)O", 0, map[notation.Code]int{CodeUndefined: 1}, "common practice"},
+		{"exocyclic, bond marked", "CC1CC/C(=C/C(=O)O)CC1", 0, map[notation.Code]int{CodeUndefined: 1}, "common practice"},
+		{"exocyclic, both marked", "C[C@H]1CC/C(=C/C(=O)O)CC1", 2, map[notation.Code]int{}, "common practice"},
+		// cyclohexylideneacetic acid has no stereoisomers (common practice)
+		{"exocyclic, no partner", "C1CC/C(=C/C(=O)O)CC1", 0, map[notation.Code]int{CodeIneffectiveBond: 1}, "common practice"},
+		// a mark shared by two conjugated double bonds configures the
+		// first, whose other end is marked too; the second stays open
+		// (OpenSMILES 1.0, 3.8.3 on conjugated systems)
+		{"shared mark", "C/C=C/C=CC", 1, map[notation.Code]int{CodeOneSidedBond: 1}, "OpenSMILES 1.0"},
+		{"shared mark, terminal CH2", "C/C=C/C=C", 1, map[notation.Code]int{}, "OpenSMILES 1.0"},
+		// a double bond between a (R) and an (S) branch is stereogenic,
+		// between two (R) branches it is not (worked by hand: the two
+		// (R) branches are the same, the (R) and (S) ones mirror images)
+		{"double bond between R and S", "C[C@@H](O)C(=CC)[C@@H](O)C", 2, map[notation.Code]int{CodeUndefined: 1}, "worked by hand"},
+		{"double bond between R and R", "C[C@@H](O)C(=CC)[C@H](O)C", 2, map[notation.Code]int{}, "worked by hand"},
+	}
+	for _, c := range cases {
+		a := Analyze(notation.Read(c.smiles))
+		specified := 0
+		for _, u := range a.Units {
+			if u.Specified {
+				specified++
+			}
+		}
+		got := map[notation.Code]int{}
+		for _, e := range a.Diagnostics {
+			got[e.Code]++
+		}
+		ok := specified == c.specified && len(got) == len(c.want)
+		for code, n := range c.want {
+			ok = ok && got[code] == n
+		}
+		if !ok {
+			t.Errorf("%s (%s): %s gives %d specified units and %v, want %d and %v",
+				c.name, c.source, c.smiles, specified, got, c.specified, c.want)
+		}
+	}
+}

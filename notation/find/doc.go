@@ -62,7 +62,10 @@
 // fields is searched, token by token (blanks and the \t, \n, \r escapes
 // separate tokens), and a token touching a field is never taken, so no
 // notation spans a field (template.go, fstring.go). f"{cid}\tC[C@H](N)O"
-// yields C[C@H](N)O; f"C{n}CO" yields nothing.
+// yields C[C@H](N)O; f"C{n}CO" yields nothing. Format strings are read
+// the same way: Python "...".format() and "..." % values, Java
+// .formatted(), String.format() and printf(), Kotlin .format()
+// (format.go).
 //
 // # Escapes
 //

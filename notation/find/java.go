@@ -8,7 +8,9 @@ import "stereoline/notation"
 // consumed.
 var java = &codeLang{
 	kind: KindJava,
-	lex:  func(src []byte, prag *pragmas) []token { return lex(src, prag, javaHook) },
+	lex: func(src []byte, prag *pragmas) []token {
+		return formatCalls(src, lex(src, prag, javaHook), KindJava)
+	},
 	rules: &escapeRules{
 		lang: "java", harmless: `"'`, simple: "btnfrs", octal: 3, unicode: "u", unknown: unknownReject,
 	},

@@ -16,7 +16,7 @@ import (
 var kotlin = &codeLang{
 	kind: KindKotlin,
 	lex: func(src []byte, prag *pragmas) []token {
-		return marginCalls(src, lex(src, prag, kotlinHook))
+		return formatCalls(src, marginCalls(src, lex(src, prag, kotlinHook)), KindKotlin)
 	},
 	rules: &escapeRules{
 		lang: "kotlin", harmless: `"'$`, simple: "tbnr", unicode: "u", unknown: unknownReject,

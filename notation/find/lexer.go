@@ -43,6 +43,9 @@ type literal struct {
 	// margin is the prefix that a trimMargin() call after the literal
 	// removes from its lines, after their blanks (Kotlin).
 	margin string
+	// format is how a call or operator after (or around) the literal
+	// formats it, when one does (format.go).
+	format formatStyle
 }
 
 // template reports whether a piece of the literal builds its text at run

@@ -37,7 +37,7 @@ var python = &codeLang{
 var dropUnicode = strings.NewReplacer("u", "", "U", "")
 
 func lexPython(src []byte, prag *pragmas) []token {
-	return joinAdjacent(lex(src, prag, pythonHook))
+	return formatCalls(src, joinAdjacent(lex(src, prag, pythonHook)), KindPython)
 }
 
 func pythonHook(lx *lexer) bool {

@@ -6,7 +6,8 @@ import (
 
 // Templates are literals formatted at run time: Python f- and t-strings,
 // JavaScript template literals with substitutions, Kotlin (and Julia)
-// strings with $name or ${...} templates. Only their fixed text is
+// strings with $name or ${...} templates, and format strings
+// (format.go). Only their fixed text is
 // known, and it is a layout of values rather than a value: in
 // f"{cid}\tC[C@H](N)C(=O)O" the record is the token after the tab. So a
 // template is searched token by token, a token being a run of fixed text
@@ -33,6 +34,9 @@ func (cf *codeFinder) templateLiteral(lit *literal, named bool, reason Reason, n
 	}
 	d := &decoded{}
 	m := cf.decode(lit, d)
+	if lit.format != formatNone {
+		d.text, m = collapseFields(d.text, m, lit.format)
+	}
 	text := string(d.text)
 	if named {
 		switch {

@@ -217,3 +217,33 @@ func TestFieldReading(t *testing.T) {
 		}
 	}
 }
+
+// TestFormatFields checks the fixed text left by the fields of format
+// strings (a field shown as ⟨⟩): Python library reference, "Format String
+// Syntax" and "printf-style String Formatting"; java.util.Formatter
+// documentation, "Format String Syntax" (examples from memory).
+func TestFormatFields(t *testing.T) {
+	tests := []struct {
+		style formatStyle
+		text  string
+		want  string
+	}{
+		{formatBraces, "{0}, {1}, {2} x", "⟨⟩, ⟨⟩, ⟨⟩ x"},
+		{formatBraces, "{:<30} {0:{1}} {{F}}", "⟨⟩ ⟨⟩ {F}"},
+		{formatBraces, "{name!r:^10} }", "⟨⟩ }"},
+		{formatBraces, "a {b", "a ⟨⟩"},
+		{formatPrintfPython, "%s %5.2f %-10d %(name)s %% %c", "⟨⟩ ⟨⟩ ⟨⟩ ⟨⟩ % ⟨⟩"},
+		{formatPrintfPython, "%*d %.*f %ld 100%! % x", "⟨⟩ ⟨⟩ ⟨⟩ 100%! ⟨⟩"}, // "% x": a blank flag and x
+		{formatPrintfJava, "%1$s %2$-10d %<s %,.2f %tY %n %%", "⟨⟩ ⟨⟩ ⟨⟩ ⟨⟩ ⟨⟩ \n %"},
+		{formatPrintfJava, "%(,.2f %08X %b 5%", "⟨⟩ ⟨⟩ ⟨⟩ 5%"},
+	}
+	for _, tt := range tests {
+		text, m := collapseFields([]byte(tt.text), identityMap(10, len(tt.text)), tt.style)
+		if got := strings.ReplaceAll(string(text), "\x00", "⟨⟩"); got != tt.want {
+			t.Errorf("%q: fixed text %q, want %q", tt.text, got, tt.want)
+		}
+		if m.hostStart() != 10 || m.hostEnd() != 10+len(tt.text) {
+			t.Errorf("%q: map covers %d-%d, want 10-%d", tt.text, m.hostStart(), m.hostEnd(), 10+len(tt.text))
+		}
+	}
+}

@@ -41,5 +41,14 @@ class Markers {
         CCN
         """;
     // stereoline: on
+    // Format strings (java.util.Formatter): conversions are fields, %n a
+    // line end, %% a percent sign.
+    // want-after «C1CCCCC1» title «»
+    String smilesFormatted = """
+        C1CCCCC1 %s
+        C%dC
+        """.formatted(name, n);
+    String line = String.format("%s\tF/C=C/F%n", id); // want «F/C=C/F»
+    void print() { System.out.printf("%d C%%10CC%%10 %s", a, b); } // want «C%%10CC%%10» text «C%10CC%10»
     String[] words = {"CO", "Cl", "N/A"};
 }

@@ -35,3 +35,6 @@ val smilesMargin = """
 val smilesHash = """
     >C1CCCCC1
 """.trimMargin(">")
+// Format strings: java.util.Formatter conversions are replacement fields.
+val fmtLine = "%s\tC[C@H](N)C(=O)O%n".format(id) // want «C[C@H](N)C(=O)O»
+val smilesFmt = String.format("C%dC", n)

@@ -94,3 +94,10 @@ skipped_smiles = "F/C=C/F"  # stereoline: skip
 # stereoline: skip-next
 next_smiles = "F/C=C/F"
 forced = "CO"  # stereoline: notation  want «CO»
+# Format strings (library reference, "Format String Syntax" and
+# "printf-style String Formatting"): their fields are replacement fields.
+fmt_line = "{}\tC[C@H](N)C(=O)O\n".format(cid)  # want «C[C@H](N)C(=O)O»
+pct_line = "%s\tF/C=C/F %5.2f" % (cid, mass)  # want «F/C=C/F»
+smiles_pct = "C%sC" % ring
+smiles_ring = "C%%10CCCCC%%10 %s" % x  # want «C%%10CCCCC%%10» text «C%10CCCCC%10»
+smiles_fmt = "{0}{{x}} C{n}C".format(a, n=2)

@@ -31,3 +31,11 @@ class Queries {
         /usr/local/bin\s
         """;
 }
+class Formats {
+    String row(String sku, int qty) {
+        return String.format("%-12s %6d C%dN %s/%s%n", sku, qty, 1, "C1", "B2");
+    }
+    String help = """
+        %s: %d items, 100%% done at %tH:%tM
+        """.formatted("stock", 3, now, now);
+}

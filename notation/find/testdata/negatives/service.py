@@ -179,3 +179,12 @@ Summary for {year}:
     ratio 16/9, 4/3 and 1/2; path a/b/c
 """)
     return "\n".join(out)
+
+
+def legacy_report(items):
+    """Old-style formatting: fields and percent signs are not notation."""
+    lines = ["%-12s %6d %5.1f%%" % (i.sku, i.qty, i.share) for i in items]
+    lines.append("%(sku)s/%(loc)s C%(n)dN" % {"sku": "B12", "loc": "C1", "n": 2})
+    lines.append("{}/{} at {:%Y/%m/%d} ratio {0:.2f}/{1}".format(a, b, when, x, y))
+    lines.append("100% done, C1/B2 %s" % "ok")
+    return "\n".join(lines)

@@ -1,14 +1,12 @@
 package find
 
-import (
-	"strings"
-)
+import "strings"
 
 // Templates are literals formatted at run time: Python f- and t-strings,
 // JavaScript template literals with substitutions, Kotlin (and Julia)
 // strings with $name or ${...} templates, and format strings
-// (format.go). Only their fixed text is
-// known, and it is a layout of values rather than a value: in
+// (format.go). Only their fixed text is known, and it is a layout of
+// values rather than a value: in
 // f"{cid}\tC[C@H](N)C(=O)O" the record is the token after the tab. So a
 // template is searched token by token, a token being a run of fixed text
 // between blanks (spaces, tabs, line ends, and the \t, \n and \r escapes

@@ -64,8 +64,8 @@
 // notation spans a field (template.go, fstring.go). f"{cid}\tC[C@H](N)O"
 // yields C[C@H](N)O; f"C{n}CO" yields nothing. Format strings are read
 // the same way: Python "...".format() and "..." % values, Java
-// .formatted(), String.format() and printf(), Kotlin .format()
-// (format.go).
+// .formatted(), String.format() and printf(), Kotlin .format(), Go
+// Sprintf-like calls, Rust format! and println!-like macros (format.go).
 //
 // # Escapes
 //

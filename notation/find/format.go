@@ -11,7 +11,14 @@ package find
 //   - Java "...".formatted(...), String.format("...", ...) and
 //     printf("...", ...); Kotlin "...".format(...) and
 //     String.format("...", ...): the conversions of java.util.Formatter,
-//     %% for a percent sign and %n for a line end.
+//     %% for a percent sign and %n for a line end;
+//   - Go: the format argument of the fmt and log functions and of the
+//     methods whose names end in f by the same convention (Sprintf,
+//     Errorf, t.Fatalf, ...): the verbs of package fmt, %% for a percent
+//     sign;
+//   - Rust: the format string of format!, print!, println!, eprint!,
+//     eprintln!, panic!, format_args!, write! and writeln!: {...} fields,
+//     {{ and }} for braces (std::fmt).
 //
 // The fields are found in the value of the literal, after its escapes
 // are read, as the formatter finds them; the literal is then searched as
@@ -26,7 +33,24 @@ const (
 	formatBraces                   // Python str.format
 	formatPrintfPython             // Python % operator
 	formatPrintfJava               // java.util.Formatter (Java, Kotlin)
+	formatPrintfGo                 // package fmt (Go)
 )
+
+// goFormatFuncs are the Go functions and methods whose argument just
+// before the values is a format string (the names go vet's printf check
+// knows, and the f-suffixed logging methods of common practice).
+var goFormatFuncs = map[string]bool{
+	"Sprintf": true, "Printf": true, "Errorf": true, "Fatalf": true, "Panicf": true,
+	"Logf": true, "Skipf": true, "Infof": true, "Warnf": true, "Warningf": true,
+	"Debugf": true, "Tracef": true, "Appendf": true,
+}
+
+// rustFormatMacros are the standard macros whose first argument is a
+// format string (write! and writeln! take it second).
+var rustFormatMacros = map[string]bool{
+	"format": true, "print": true, "println": true, "eprint": true, "eprintln": true,
+	"panic": true, "format_args": true, "unreachable": true, "todo": true,
+}
 
 // formatCalls marks the literals of toks that are formatted (see above)
 // and makes their pieces templates.
@@ -57,6 +81,18 @@ func formatCalls(src []byte, toks []token, kind Kind) []token {
 		case KindJava, KindKotlin:
 			if after && (text(k+2) == "formatted" || kind == KindKotlin && text(k+2) == "format") || before {
 				style = formatPrintfJava
+			}
+		case KindGo:
+			// f(..., "format") or f(w, "format") for Fprintf and
+			// Fprint-like writers.
+			if text(k-1) == "(" && goFormatFuncs[text(k-2)] ||
+				text(k-1) == "," && text(k-3) == "(" && (text(k-4) == "Fprintf" || text(k-4) == "Appendf") {
+				style = formatPrintfGo
+			}
+		case KindRust:
+			if text(k-1) == "(" && text(k-2) == "!" && rustFormatMacros[text(k-3)] ||
+				text(k-1) == "," && text(k-3) == "(" && text(k-4) == "!" && (text(k-5) == "write" || text(k-5) == "writeln") {
+				style = formatBraces
 			}
 		}
 		if style == formatNone {
@@ -119,7 +155,7 @@ func formatField(text []byte, i int, style formatStyle) (int, byte) {
 		}
 		// Unclosed: the formatter fails; nothing after it is fixed.
 		return len(text) - i, holeByte
-	case formatPrintfPython, formatPrintfJava:
+	case formatPrintfPython, formatPrintfJava, formatPrintfGo:
 		if c != '%' || i+1 >= len(text) {
 			return 0, 0
 		}
@@ -129,7 +165,7 @@ func formatField(text []byte, i int, style formatStyle) (int, byte) {
 		if style == formatPrintfJava && text[i+1] == 'n' {
 			return 2, '\n'
 		}
-		if n := printfSpec(text[i+1:], style == formatPrintfJava); n > 0 {
+		if n := printfSpec(text[i+1:], style); n > 0 {
 			return n + 1, holeByte
 		}
 	}
@@ -140,15 +176,23 @@ func formatField(text []byte, i int, style formatStyle) (int, byte) {
 // '%', or 0 when b starts none: Python's (name), flags, width, precision,
 // length modifier and conversion; java.util.Formatter's argument index
 // (n$ or <), flags, width, precision and conversion (t and T take a
-// second letter).
-func printfSpec(b []byte, java bool) int {
+// second letter); Go's flags, [n] argument indexes, width, precision and
+// verb.
+func printfSpec(b []byte, style formatStyle) int {
+	java, golang := style == formatPrintfJava, style == formatPrintfGo
 	j := 0
 	digits := func() {
+		if golang && j < len(b) && b[j] == '[' {
+			for j < len(b) && b[j] != ']' {
+				j++
+			}
+			j++
+		}
 		for j < len(b) && (b[j] >= '0' && b[j] <= '9' || !java && b[j] == '*') {
 			j++
 		}
 	}
-	if !java && j < len(b) && b[j] == '(' {
+	if style == formatPrintfPython && j < len(b) && b[j] == '(' {
 		for j < len(b) && b[j] != ')' {
 			j++
 		}
@@ -180,17 +224,23 @@ func printfSpec(b []byte, java bool) int {
 		j++
 		digits()
 	}
-	if !java {
+	if style == formatPrintfPython {
 		for j < len(b) && (b[j] == 'h' || b[j] == 'l' || b[j] == 'L') {
 			j++
 		}
+	}
+	if golang && j < len(b) && b[j] == '[' {
+		digits()
 	}
 	if j >= len(b) {
 		return 0
 	}
 	conv := "diouxXeEfFgGcrsa"
-	if java {
+	switch style {
+	case formatPrintfJava:
 		conv = "bBhHsScCdoxXeEfgGaAtT"
+	case formatPrintfGo:
+		conv = "vTtbcdoOqxXUeEfFgGspw" // w: Errorf
 	}
 	if !indexByte(conv, b[j]) {
 		return 0

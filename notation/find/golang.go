@@ -8,7 +8,9 @@ import "strings"
 // escapes. Rune literals are consumed so their quotes start nothing.
 var golang = &codeLang{
 	kind: KindGo,
-	lex:  func(src []byte, prag *pragmas) []token { return lex(src, prag, goHook) },
+	lex: func(src []byte, prag *pragmas) []token {
+		return formatCalls(src, lex(src, prag, goHook), KindGo)
+	},
 	rules: &escapeRules{
 		lang: "go", harmless: `"`, simple: "abfnrtv", octal: 3, octalExact: true, hex: true,
 		unicode: "uU", unknown: unknownReject,

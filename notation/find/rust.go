@@ -14,7 +14,9 @@ import (
 // otherwise it is a lifetime ('a).
 var rust = &codeLang{
 	kind: KindRust,
-	lex:  func(src []byte, prag *pragmas) []token { return lex(src, prag, rustHook) },
+	lex: func(src []byte, prag *pragmas) []token {
+		return formatCalls(src, lex(src, prag, rustHook), KindRust)
+	},
 	rules: &escapeRules{
 		lang: "rust", harmless: `"'`, simple: "nrt0", hex: true, unicode: "u",
 		joinLines: true, skipIndent: true, unknown: unknownReject,

@@ -248,6 +248,11 @@ func TestFormatFields(t *testing.T) {
 		{formatPrintfPython, "%*d %.*f %ld 100%! % x", "⟨⟩ ⟨⟩ ⟨⟩ 100%! ⟨⟩"}, // "% x": a blank flag and x
 		{formatPrintfJava, "%1$s %2$-10d %<s %,.2f %tY %n %%", "⟨⟩ ⟨⟩ ⟨⟩ ⟨⟩ ⟨⟩ \n %"},
 		{formatPrintfJava, "%(,.2f %08X %b 5%", "⟨⟩ ⟨⟩ ⟨⟩ 5%"},
+		// Go, package fmt documentation ("Printing", "Explicit
+		// argument indexes").
+		{formatPrintfGo, "%v %+v %#x %q %T %[2]d %[1]*d %6.2f %% %w", "⟨⟩ ⟨⟩ ⟨⟩ ⟨⟩ ⟨⟩ ⟨⟩ ⟨⟩ ⟨⟩ % ⟨⟩"},
+		// Rust, std::fmt documentation: {} {0} {name} {:>8} {:#?}.
+		{formatBraces, "{} {0} {name} {:>8} {:#?} {{}}", "⟨⟩ ⟨⟩ ⟨⟩ ⟨⟩ ⟨⟩ {}"},
 	}
 	for _, tt := range tests {
 		text, m := collapseFields([]byte(tt.text), identityMap(10, len(tt.text)), tt.style)

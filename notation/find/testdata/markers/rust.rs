@@ -11,4 +11,8 @@ fn main() {
     let bad_smiles = "F/C=C\F"; // want «F/C=C\F» error «\F» fix «r"F/C=C\F"»
     /* "F/C=C/F" /* nested */ "F/C=C/F" */
     let ok = "F/C=C\\F"; // want «F/C=C\\F» text «F/C=C\F»
+    // Format strings (std::fmt): {...} fields, {{ and }} for braces.
+    let line = format!("{}\tC[C@H](N)C(=O)O\n", id); // want «C[C@H](N)C(=O)O»
+    writeln!(out, "{id:>8} F/C=C/F {{C}}").unwrap(); // want «F/C=C/F»
+    let smiles = format!("C{}C", n);
 }

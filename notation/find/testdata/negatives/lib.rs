@@ -25,3 +25,8 @@ fn main() {
     println!("{} {} {} {} {:?} {:?}", path, missing, port, c, bytes, codes);
     println!("{}", label("B2", "A-100"));
 }
+
+fn report(sku: &str, qty: u32, year: u32) -> String {
+    println!("{sku:<12} {qty:>6} C{}N at {year}/01/31 {{total}}", 1);
+    format!("saved to /var/lib/{}/C1/report.csv (B2:B10, v1.2.3), N/A I/O", sku)
+}

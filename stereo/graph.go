@@ -127,9 +127,8 @@ type graphStore struct {
 	// the labeller's flags by bond and by atom (marks.go, analyze.go)
 	marks, unitAtoms []bool
 	// symmetry classes (perceive.go)
-	class, classNext []int
-	classIDs         map[uint64]int
-	bfs              bfsScratch // its stamps keep growing across builds, so old marks never match
+	class, classNext, classSort []uint64
+	bfs                         bfsScratch // its stamps keep growing across builds, so old marks never match
 }
 
 // sized returns (*buf)[:n], zeroed, growing *buf when it is too small.

@@ -1,6 +1,10 @@
 package stereo
 
-import "stereoline/notation"
+import (
+	"slices"
+
+	"stereoline/notation"
+)
 
 // perceiveUnmarked finds stereogenic units that carry no mark and
 // reports them as undefined. Constitutional symmetry classes decide:
@@ -85,7 +89,7 @@ func (l *labeller) perceiveUnmarked() {
 		case bondEndsDistinct(g, b.Begin, b.End, class):
 			l.res.Units = append(l.res.Units, l.unspecifiedBond(b.Begin, b.End, bi))
 			report(b.Span, "stereogenic double bond without a configuration")
-		case l.anyMarks && l.configuredBondPair(b.Begin, b.End) && l.configuredBondPair(b.End, b.Begin):
+		case l.anyMarks && bondEndsPossible(g, b.Begin, b.End) && l.configuredBondPair(b.Begin, b.End) && l.configuredBondPair(b.End, b.Begin):
 			// an end whose two equal ligands the configurations written
 			// elsewhere tell apart, as for pseudoCentre
 			probe := &bondConfig{bond: bi, ends: [2]int{b.Begin, b.End}, inner: [2]int{b.End, b.Begin}, refs: [2]int{-2, -2}}
@@ -165,7 +169,7 @@ func (l *labeller) unspecifiedBond(a, b, bi int) Unit {
 // more equal ligands (a branch point of a dendrimer) are left alone.
 func (l *labeller) configuredPair(a int, class *lazyClasses) bool {
 	g := l.g
-	count := func(k int) (n int) {
+	count := func(k uint64) (n int) {
 		for _, e := range g.adj[a] {
 			if class.of(e.to) == k {
 				n++
@@ -367,6 +371,14 @@ func bondEndsDistinct(g *graph, a, b int, class *lazyClasses) bool {
 	return ea.distinct(class) && eb.distinct(class)
 }
 
+// bondEndsPossible reports whether both ends of a=b could carry two
+// different ligands, whatever the classes (bondEnd).
+func bondEndsPossible(g *graph, a, b int) bool {
+	_, okA := bondEnd(g, a, b)
+	_, okB := bondEnd(g, b, a)
+	return okA && okB
+}
+
 // doubleBondEnd holds the neighbours of one end of a double bond other
 // than its partner, when there are one or two.
 type doubleBondEnd struct {
@@ -405,11 +417,12 @@ func (e doubleBondEnd) distinct(class *lazyClasses) bool {
 // lazyClasses computes the symmetry classes on first use.
 type lazyClasses struct {
 	g     *graph
-	class []int
+	class []uint64
 }
 
-// of returns the symmetry class of atom a.
-func (c *lazyClasses) of(a int) int {
+// of returns the symmetry class of atom a: a 64-bit name, equal for
+// atoms of one class.
+func (c *lazyClasses) of(a int) uint64 {
 	if c.class == nil {
 		c.class = symmetryClasses(c.g)
 	}
@@ -419,59 +432,58 @@ func (c *lazyClasses) of(a int) int {
 // symmetryClasses partitions the atoms by constitution: atoms start in
 // classes of equal element, charge, isotope, degree, hydrogens and
 // valence and are split by the classes of their neighbours until nothing
-// changes. The tables live in the graph's storage, reused by the next
-// analysis.
-func symmetryClasses(g *graph) []int {
+// changes. A class is named by a 64-bit hash of what tells it apart, so
+// no table maps names to numbers; two different classes would need a
+// 64-bit collision to merge. The tables live in the graph's storage,
+// reused by the next analysis.
+func symmetryClasses(g *graph) []uint64 {
 	n := g.n
 	class := sized(&g.store.class, n)
 	next := sized(&g.store.classNext, n)
-	if g.store.classIDs == nil {
-		g.store.classIDs = map[uint64]int{}
-	}
-	ids := g.store.classIDs
-	clear(ids)
-	dense := func(h uint64) int {
-		id, ok := ids[h]
-		if !ok {
-			id = len(ids)
-			ids[h] = id
-		}
-		return id
-	}
+	buf := sized(&g.store.classSort, n)
 	for a := 0; a < n; a++ {
 		at := &g.mol.Atoms[a]
 		h := mix64(uint64(at.Number))
 		h = mix64(h ^ uint64(at.Charge+128)<<8)
 		h = mix64(h ^ uint64(at.Isotope)<<16)
-		h = mix64(h ^ uint64(len(g.adj[a]))<<32 ^ uint64(g.hyd[a])<<40 ^ uint64(g.valence(a))<<48)
-		class[a] = dense(h)
+		class[a] = mix64(h ^ uint64(len(g.adj[a]))<<32 ^ uint64(g.hyd[a])<<40 ^ uint64(g.valence(a))<<48)
 	}
-	count := len(ids)
+	count := countDistinct(class, buf)
 	for iter := 0; iter < n; iter++ {
-		clear(ids)
 		for a := 0; a < n; a++ {
 			// the neighbours enter as a sum of mixed values, which does
-			// not depend on their order, so none is sorted; two
-			// different neighbourhoods would need a 64-bit collision
+			// not depend on their order, so none is sorted
 			var sum uint64
 			for _, e := range g.adj[a] {
-				sum += mix64(uint64(class[e.to])<<3 | uint64(classOrder(g, a, e)))
+				sum += mix64(class[e.to] + uint64(classOrder(g, a, e)))
 			}
-			next[a] = dense(mix64(uint64(class[a])) ^ sum)
+			next[a] = mix64(class[a]) ^ sum
 		}
 		class, next = next, class
-		if len(ids) == count {
+		// each name includes the one before, so classes only split: the
+		// same count means nothing changed
+		c := countDistinct(class, buf)
+		if c == count {
 			break
 		}
-		count = len(ids)
+		count = c
 	}
-	// the two tables swap roles: keep both for the next analysis, and
-	// the map unless it grew large (clearing costs its whole room)
+	// the two tables swap roles: keep both for the next analysis
 	g.store.class, g.store.classNext = class, next
-	if len(ids) > keepMemo {
-		g.store.classIDs = nil
-	}
 	return class
+}
+
+// countDistinct counts the distinct values of xs, sorting a copy in buf.
+func countDistinct(xs, buf []uint64) int {
+	copy(buf, xs)
+	slices.Sort(buf)
+	n := 0
+	for i := range buf {
+		if i == 0 || buf[i] != buf[i-1] {
+			n++
+		}
+	}
+	return n
 }
 
 // mix64 is the splitmix64 finaliser (common practice), a cheap mixing

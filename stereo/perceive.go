@@ -1,10 +1,6 @@
 package stereo
 
-import (
-	"slices"
-
-	"stereoline/notation"
-)
+import "stereoline/notation"
 
 // perceiveUnmarked finds stereogenic units that carry no mark and
 // reports them as undefined. Constitutional symmetry classes decide:
@@ -440,7 +436,11 @@ func symmetryClasses(g *graph) []uint64 {
 	n := g.n
 	class := sized(&g.store.class, n)
 	next := sized(&g.store.classNext, n)
-	buf := sized(&g.store.classSort, n)
+	size := 4
+	for size < 2*n {
+		size *= 2
+	}
+	buf := sized(&g.store.classSort, size)
 	for a := 0; a < n; a++ {
 		at := &g.mol.Atoms[a]
 		h := mix64(uint64(at.Number))
@@ -473,14 +473,31 @@ func symmetryClasses(g *graph) []uint64 {
 	return class
 }
 
-// countDistinct counts the distinct values of xs, sorting a copy in buf.
+// countDistinct counts the distinct values of xs with an open-addressing
+// set in buf (cleared here), whose length is a power of two at least
+// twice len(xs). Zero marks an empty slot; a zero value is counted apart.
 func countDistinct(xs, buf []uint64) int {
-	copy(buf, xs)
-	slices.Sort(buf)
-	n := 0
-	for i := range buf {
-		if i == 0 || buf[i] != buf[i-1] {
-			n++
+	clear(buf)
+	mask := uint64(len(buf) - 1)
+	n, zero := 0, false
+	for _, x := range xs {
+		if x == 0 {
+			if !zero {
+				zero = true
+				n++
+			}
+			continue
+		}
+		// the values are hashes already: their low bits index the table
+		for i := x & mask; ; i = (i + 1) & mask {
+			if buf[i] == x {
+				break
+			}
+			if buf[i] == 0 {
+				buf[i] = x
+				n++
+				break
+			}
 		}
 	}
 	return n

@@ -112,6 +112,8 @@ type labeller struct {
 	classes       *lazyClasses // constitutional symmetry classes, computed on first use
 	halfMarked    []member     // marked units that may be stereogenic together (together.go)
 	effective     map[int]bool // by bond: marks that configure a labelled double bond
+	bicycleList   []bicycle    // small bicycles, found on first use (bridgehead.go)
+	bicyclesFound bool
 }
 
 func (l *labeller) warn(sp notation.Span, code notation.Code, format string, args ...any) *notation.Error {

@@ -18,52 +18,72 @@ import (
 const maxSmallBridge = 3
 
 func (l *labeller) checkBridgeheads() {
+	// two marked atoms with three ring bonds each, or nothing to check
+	heads := 0
+	for a := range l.cfg.tetra {
+		if ringDegree(l.g, a) >= 3 {
+			heads++
+		}
+	}
+	if heads < 2 {
+		return
+	}
+	for _, bc := range l.bicycles() {
+		a, b := bc.heads[0], bc.heads[1]
+		ta, tb := l.cfg.tetra[a], l.cfg.tetra[b]
+		if ta == nil || tb == nil {
+			continue // unmarked, or already reported with another bridgehead
+		}
+		var bridges [3][2]int
+		for i, p := range bc.paths {
+			bridges[i] = [2]int{p[0], p[len(p)-1]}
+		}
+		wa, oka := bridgeWinding(ta, bridges, 0)
+		wb, okb := bridgeWinding(tb, bridges, 1)
+		if !oka || !okb || wa != wb {
+			continue
+		}
+		err := l.fail(tb.span, CodeImpossibleCenter, "these marks put a substituent of a bridgehead inside a small bicycle")
+		err.Related = append(err.Related, notation.Related{Span: ta.span, Msg: "the other bridgehead"})
+		delete(l.cfg.tetra, a)
+		delete(l.cfg.tetra, b)
+		l.unitAtoms[a], l.unitAtoms[b] = true, true
+	}
+}
+
+// bicycle is a small bridged bicycle: its two bridgeheads and its three
+// bridges, each from the atom next to heads[0] to the one next to
+// heads[1].
+type bicycle struct {
+	heads [2]int
+	paths [3][]int
+}
+
+// bicycles finds the small bicycles of the molecule once and keeps them:
+// both the in/out check and the cage check read them. Pairs of
+// bridgeheads come in the order of their first then second atom.
+func (l *labeller) bicycles() []bicycle {
+	if l.bicyclesFound {
+		return l.bicycleList
+	}
+	l.bicyclesFound = true
 	g := l.g
-	// a bridgehead has three ring bonds
-	var heads []int
-	for _, a := range sortedKeys(l.cfg.tetra) {
-		n := 0
-		for _, e := range g.adj[a] {
-			if g.ringBond[e.bond] {
-				n++
-			}
+	for x := 0; x < g.n; x++ {
+		if ringDegree(g, x) < 3 {
+			continue
 		}
-		if n >= 3 {
-			heads = append(heads, a)
-		}
-	}
-	isHead := make(map[int]bool, len(heads))
-	for _, a := range heads {
-		isHead[a] = true
-	}
-	for _, a := range heads {
-		// only heads close enough to share short bridges are tried
-		near := l.partnerHeads(a)
+		near := l.partnerHeads(x)
 		slices.Sort(near)
-		for _, b := range near {
-			if b <= a || !isHead[b] {
+		for _, y := range near {
+			if y <= x {
 				continue
 			}
-			bridges, ok := g.bridges(a, b)
-			if !ok {
-				continue
+			if paths, ok := g.bridgePaths(x, y); ok {
+				l.bicycleList = append(l.bicycleList, bicycle{heads: [2]int{x, y}, paths: paths})
 			}
-			ta, tb := l.cfg.tetra[a], l.cfg.tetra[b]
-			if ta == nil || tb == nil {
-				continue // already reported with another bridgehead
-			}
-			wa, oka := bridgeWinding(ta, bridges, 0)
-			wb, okb := bridgeWinding(tb, bridges, 1)
-			if !oka || !okb || wa != wb {
-				continue
-			}
-			err := l.fail(tb.span, CodeImpossibleCenter, "these marks put a substituent of a bridgehead inside a small bicycle")
-			err.Related = append(err.Related, notation.Related{Span: ta.span, Msg: "the other bridgehead"})
-			delete(l.cfg.tetra, a)
-			delete(l.cfg.tetra, b)
-			l.unitAtoms[a], l.unitAtoms[b] = true, true
 		}
 	}
+	return l.bicycleList
 }
 
 // bridges finds three vertex-disjoint paths between atoms a and b, each
@@ -231,10 +251,13 @@ func (l *labeller) cageFixed(x int) bool {
 	if g.degree(x) != 4 || ringDegree(g, x) < 3 {
 		return false
 	}
-	for _, y := range l.partnerHeads(x) {
-		paths, ok := g.bridgePaths(x, y)
-		if !ok {
+	for _, bc := range l.bicycles() {
+		if bc.heads[0] != x && bc.heads[1] != x {
 			continue
+		}
+		paths, y := bc.paths, bc.heads[1]
+		if y == x {
+			y = bc.heads[0]
 		}
 		for i := 0; i < 3; i++ {
 			for j := i + 1; j < 3; j++ {

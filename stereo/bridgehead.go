@@ -68,14 +68,26 @@ func (l *labeller) bicycles() []bicycle {
 	}
 	l.bicyclesFound = true
 	g := l.g
+	// a bridgehead that can hold a configuration has four ligands (or
+	// three and a lone pair: the nitrogens of Tröger's base), no double
+	// bond and three ring bonds; aromatic ring fusions, the most common
+	// atoms with three ring bonds, are left out at once
+	head := func(a int) bool {
+		at := &g.mol.Atoms[a]
+		if at.Aromatic || g.doubleBonds(a) > 0 || ringDegree(g, a) < 3 {
+			return false
+		}
+		d := g.degree(a)
+		return d == 4 || d == 3 && hasLonePair(at, g.valence(a))
+	}
 	for x := 0; x < g.n; x++ {
-		if ringDegree(g, x) < 3 {
+		if !head(x) {
 			continue
 		}
 		near := l.partnerHeads(x)
 		slices.Sort(near)
 		for _, y := range near {
-			if y <= x {
+			if y <= x || !head(y) {
 				continue
 			}
 			if paths, ok := g.bridgePaths(x, y); ok {

@@ -36,6 +36,13 @@ func TestCageFixedBridgeheads(t *testing.T) {
 		// structure places the double bonds of the two benzo rings
 		// differently: the benzo bridges must still count as equal
 		{"ethanoanthracene rewritten", "c12ccccc2C2c3c(cccc3)C1[C@H]1Cc3c(cccc3)C[C@@H]21", "15S 24R", 0, 0, "worked by hand"},
+		// Tröger's base: its bridgehead nitrogens cannot invert and it is
+		// resolved into enantiomers (common practice); unmarked, both are
+		// undefined stereocentres; the enantiomers are (5R,11R) and
+		// (5S,11S), so one '@' with one '@@' here is the possible pair
+		// (worked by hand from the in/out rule)
+		{"Tröger's base unmarked", "CC1=CC2=C(C=C1)N3CC4=C(C=CC(=C4)C)N(C2)C3", "", 0, 2, "common practice"},
+		{"Tröger's base marked", "CC1=CC2=C(C=C1)[N@]3CC4=C(C=CC(=C4)C)[N@@](C2)C3", "2 labels", 0, 0, "worked by hand"},
 		// a bicyclo[2.2.2]octane-2,6-diol: the equal bridges at C1 carry
 		// the configured carbinol carbons, so the bridgehead stays a
 		// stereocentre (worked by hand: swapping its marks turns

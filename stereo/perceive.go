@@ -24,7 +24,7 @@ func (l *labeller) perceiveUnmarked() {
 	}
 	var paired []int // candidate atoms with one pair of equal ring branches
 	for a := 0; a < g.n; a++ {
-		if l.unitAtoms[a] || !tetrahedralCapable(g, a) {
+		if l.unitAtoms[a] || !tetrahedralCapable(g, a) && !l.heldNitrogen(a) {
 			continue
 		}
 		distinct, pairInRing := ligandClasses(g, a, class)
@@ -282,6 +282,25 @@ func (l *labeller) pseudoCentre(a int) bool {
 	l.unitAtoms[a] = true
 	l.res.Units = append(l.res.Units, l.unspecifiedCentre(a, d))
 	return true
+}
+
+// heldNitrogen reports whether a three-coordinate nitrogen cannot invert
+// because it is a bridgehead of a small bicycle (the nitrogens of
+// Tröger's base, which is resolved into enantiomers; common practice),
+// so that it is a stereocentre when its ligands differ.
+func (l *labeller) heldNitrogen(a int) bool {
+	g := l.g
+	at := &g.mol.Atoms[a]
+	if at.Number != notation.ElemN || at.Charge != 0 || at.Aromatic || len(g.adj[a]) != 3 || g.hyd[a] != 0 ||
+		g.valence(a) != 3 || ringDegree(g, a) != 3 {
+		return false
+	}
+	for _, bc := range l.bicycles() {
+		if bc.heads[0] == a || bc.heads[1] == a {
+			return true
+		}
+	}
+	return false
 }
 
 // tetrahedralCapable reports whether an atom can be a tetrahedral centre

@@ -35,12 +35,14 @@ import (
 //     symmetry-equivalent in all but rare graphs, so which one moves
 //     does not change the result, except for ring units whose parity
 //     exists only relative to the broken tie (cis/trans-1,4-disubstituted
-//     rings): then every atom of the class is tried, and the smallest
+//     rings, an exocyclic double bond with a ring centre opposite):
+//     then every atom of the class is tried, and the smallest
 //     serialisation wins.
 //
 // Marks that cannot tell compounds apart are dropped before step 1: a
 // double bond in a ring of fewer than eight atoms, a freely inverting
-// nitrogen (canon_graph.go). Square-planar, trigonal-bipyramidal and
+// nitrogen (canon_graph.go), a bridgehead fixed by its cage
+// (identity_cage.go). Square-planar, trigonal-bipyramidal and
 // octahedral marks enter the key as the classes of their ligands on the
 // polyhedron (canon_polyhedron.go).
 //
@@ -379,6 +381,7 @@ func permutationParity(xs []int) (odd, ok bool) {
 func (c *canonState) chooseUnits(rank []int) {
 	c.keep = make([]bool, len(c.units))
 	c.ring = make([]bool, len(c.units))
+	var system []int // per unit: its ring system, when a ring candidate
 	perSystem := map[int]int{}
 	for i := range c.units {
 		u := &c.units[i]
@@ -387,13 +390,16 @@ func (c *canonState) chooseUnits(rank []int) {
 			continue
 		}
 		if s, ok := c.ringCandidate(u, rank); ok {
-			c.ring[i] = true
+			if system == nil {
+				system = make([]int, len(c.units))
+			}
+			c.ring[i], system[i] = true, s
 			perSystem[s]++
 		}
 	}
 	for i := range c.units {
 		if c.ring[i] {
-			if perSystem[c.g.system[c.units[i].centre]] >= 2 {
+			if perSystem[system[i]] >= 2 {
 				c.keep[i] = true
 			} else {
 				c.ring[i] = false
@@ -402,10 +408,15 @@ func (c *canonState) chooseUnits(rank []int) {
 	}
 }
 
-// ringCandidate reports whether a tetrahedral centre ties only because
-// two of its ligands are the two ring neighbours of a symmetric ring,
-// and returns the ring system.
+// ringCandidate reports whether a unit ties only because two of its
+// ligands are the two ring branches of a symmetric ring, and returns the
+// ring system. Such a unit is stereogenic together with another one on
+// the same ring system: a tetrahedral centre (1,4-disubstituted
+// cyclohexanes) or an exocyclic double bond (exocyclicCandidate).
 func (c *canonState) ringCandidate(u *keyUnit, rank []int) (int, bool) {
+	if u.kind == keyDoubleBond {
+		return c.exocyclicCandidate(u, rank)
+	}
 	if u.kind != keyTetrahedral {
 		return 0, false
 	}

@@ -251,10 +251,10 @@ func (g *keyGraph) readUnits() {
 }
 
 // dropFixedUnits leaves out marks that cannot tell two compounds apart:
-// a double bond in a ring of fewer than eight atoms can only be cis, and
-// a three-coordinate nitrogen inverts quickly unless a small ring or a
+// a double bond in a ring of fewer than eight atoms can only be cis, a
+// three-coordinate nitrogen inverts quickly unless a small ring or a
 // bridgehead position holds it (common practice; RDKit treats both the
-// same way).
+// same way), and a bridgehead whose cage fixes it (identity_cage.go).
 func (g *keyGraph) dropFixedUnits() {
 	m := g.mol
 	keep := g.units[:0]
@@ -272,7 +272,7 @@ func (g *keyGraph) dropFixedUnits() {
 		}
 		keep = append(keep, u)
 	}
-	g.units = keep
+	g.units = g.dropCageFixed(keep, nil, nil)
 }
 
 // heldNitrogen reports whether a three-coordinate nitrogen sits in a

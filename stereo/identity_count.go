@@ -11,8 +11,9 @@ import "stereoline/notation"
 // its neighbours differ in configuration). Both are handled by
 // enumerating the assignments and counting distinct keys. The two
 // bridgeheads of a small bicycle allow one relative configuration only;
-// assignments that break it are skipped (identity_bicycle.go). Other
-// constraints that need 3D are not seen.
+// assignments that break it are skipped (identity_bicycle.go), and
+// bridgeheads whose cage fixes them are no units at all
+// (identity_cage.go). Other constraints that need 3D are not seen.
 
 // maxEnumeratedUnits bounds the enumeration at 2^12 keys; past it the
 // count is the upper bound 2^n.
@@ -59,7 +60,9 @@ func Stereoisomers(m *notation.Molecule) StereoisomerCount {
 // potentialUnits finds the units that could be stereogenic: tetrahedral
 // centres whose ligands differ by constitution, or tie in a way that
 // stereo elsewhere could break; double bonds outside small rings with two
-// different substituents at each end; allenes likewise. Configurations
+// different substituents at each end, or tied ones (an exocyclic bond
+// opposite a ring centre, a bond between branches that differ only in
+// configuration); allenes likewise. Configurations
 // are left at +1 for the caller to assign.
 func potentialUnits(g *keyGraph) []keyUnit {
 	m := g.mol
@@ -124,6 +127,9 @@ func potentialUnits(g *keyGraph) []keyUnit {
 			tied = append(tied, u)
 		}
 	}
+	// a bridgehead fixed by its cage ties (two of its bridges are equal)
+	// and stays fixed, whatever the rest is given
+	tied = g.dropCageFixed(tied, definite, rank)
 	// a tie can be broken by configuration only if some other unit exists
 	if len(definite)+len(tied) >= 2 {
 		definite = append(definite, tied...)

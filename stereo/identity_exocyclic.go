@@ -1,0 +1,46 @@
+package stereo
+
+// Exocyclic double bonds stereogenic together with a ring atom. A double
+// bond leaving a ring from an atom whose two ring branches are
+// constitutionally equal has no parity of its own, yet with a second
+// such unit on the ring it has: (4-methylcyclohexylidene)acetic acid is
+// axially chiral and exists as two enantiomers (common practice), the
+// ring carbon's hydrogen and the far end's higher substituent lying on
+// one side or the other. The key keeps such a bond the way it keeps the
+// ring carbons of 1,4-disubstituted cyclohexanes: as a ring unit whose
+// parity exists once the tie between the ring branches is broken. The
+// labeller pairs the same bonds (exoPaired in together.go): a plain
+// double bond off the ring, the ring end with no hydrogen and two ring
+// branches, the far end with two different ligands.
+
+// exocyclicCandidate reports whether double-bond unit u is such a bond:
+// on these ranks the two ring branches at one end tie and the far end
+// does not. It returns the ring system of the ring end.
+func (c *canonState) exocyclicCandidate(u *keyUnit, rank []int) (int, bool) {
+	g := c.g
+	if u.bond < 0 {
+		return 0, false
+	}
+	g.findRingSystems()
+	b := &g.mol.Bonds[u.bond]
+	if g.ring[u.bond] || !(b.Begin == u.ends[0] && b.End == u.ends[1] || b.Begin == u.ends[1] && b.End == u.ends[0]) {
+		return 0, false // a ring bond, or the middle of a cumulene
+	}
+	for e := 0; e < 2; e++ {
+		r, o := u.ends[e], u.ends[1-e]
+		if g.system[r] < 0 || g.hydro[r] != 0 {
+			continue
+		}
+		subs := g.substituents(r, o)
+		if len(subs) != 2 || rank[subs[0]] != rank[subs[1]] {
+			continue
+		}
+		if !g.ring[g.mol.BondBetween(r, subs[0])] || !g.ring[g.mol.BondBetween(r, subs[1])] {
+			continue
+		}
+		if _, ok := c.topSubstituent(o, r, rank); ok {
+			return g.system[r], true
+		}
+	}
+	return 0, false
+}

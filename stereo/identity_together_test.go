@@ -1,0 +1,135 @@
+package stereo
+
+import (
+	"testing"
+
+	"stereoline/notation"
+)
+
+// Units whose stereogenicity depends on another unit or on a cage: the
+// key must keep exactly the marks that tell compounds apart. RDKit
+// 2022.09 (the identity.tsv fixture) perceives neither exocyclic axial
+// chirality nor double bonds made stereogenic by the configurations of
+// their ligands, so these cases are checked against common practice and
+// against reasoning written beside each, not against that fixture.
+func TestIdentifyUnitsTogether(t *testing.T) {
+	// relation of b to a
+	const (
+		same = iota
+		mirror
+		other // another stereoisomer, not the mirror image
+	)
+	tests := []struct {
+		name      string
+		a, b      string
+		rel       int
+		chirality Chirality // of a
+	}{
+		// (4-methylcyclohexylidene)acetic acid is axially chiral (common
+		// practice): the marked centre and the exocyclic bond are one
+		// stereogenic unit together, so flipping either gives the other
+		// enantiomer. Inverting every @ of a writing gives its mirror
+		// image (OpenSMILES: / and \ survive a reflection), so a and the
+		// first b are enantiomers by construction.
+		{"(4-methylcyclohexylidene)acetic acid, centre flipped", "C[C@H]1CC/C(=C/C(=O)O)CC1", "C[C@@H]1CC/C(=C/C(=O)O)CC1", mirror, Chiral},
+		// Worked by hand: renaming the two equal ring branches writes
+		// C[C@@H]1CC/C(=C/C(=O)O)CC1 with its ring neighbours listed the
+		// other way round at both ring ends, which inverts the centre's
+		// mark and the bond's; so flipping the bond alone also gives the
+		// mirror image.
+		{"(4-methylcyclohexylidene)acetic acid, bond flipped", "C[C@H]1CC/C(=C/C(=O)O)CC1", "C[C@H]1CC/C(=C\\C(=O)O)CC1", mirror, Chiral},
+		{"(4-methylcyclohexylidene)acetic acid, both flipped", "C[C@H]1CC/C(=C/C(=O)O)CC1", "C[C@@H]1CC/C(=C\\C(=O)O)CC1", same, Chiral},
+		{"4-methylcyclohexanone oxime, bond flipped", "C[C@H]1CC/C(=N/O)CC1", "C[C@H]1CC/C(=N\\O)CC1", mirror, Chiral},
+		// without a partner on the ring the bond marks mean nothing
+		// (cyclohexylideneacetic acid has no stereoisomers; common practice)
+		{"cyclohexylideneacetic acid", "C1CC/C(=C/C(=O)O)CC1", "C1CCC(=CC(=O)O)CC1", same, Achiral},
+		// the far end carries two equal ligands: no unit (common practice)
+		{"4-methyl-1-(propan-2-ylidene)cyclohexane", "C[C@H]1CCC(=C(C)C)CC1", "CC1CCC(=C(C)C)CC1", same, Achiral},
+
+		// Bridgeheads fixed by their cage (common practice): norbornane
+		// has no stereoisomers, so its bridgehead marks say nothing.
+		{"norbornane", "[C@H]12CC[C@H](C1)CC2", "C1CC2CCC1C2", same, Achiral},
+		{"1-methylnorbornane", "C[C@]12CC[C@H](C1)CC2", "CC12CCC(C1)CC2", same, Achiral},
+		// 9,10-dihydro-9,10-ethanoanthracene fused at its ethano bridge:
+		// the bridgeheads follow the ethano carbons, so marks on them add
+		// nothing (worked by hand: the two benzo bridges are equal and
+		// unconfigured). Cis is meso, trans a pair of enantiomers.
+		{"ethanoanthracene, bridgehead marks added", "c1ccc2c(c1)C[C@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", "c1ccc2c(c1)C[C@H]1[C@H]3c4ccccc4[C@@H](c4ccccc43)[C@H]1C2", same, Meso},
+		{"ethanoanthracene, cis written with both marks flipped", "c1ccc2c(c1)C[C@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", "c1ccc2c(c1)C[C@@H]1C3c4ccccc4C(c4ccccc43)[C@@H]1C2", same, Meso},
+		{"ethanoanthracene, cis and trans", "c1ccc2c(c1)C[C@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", "c1ccc2c(c1)C[C@@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", other, Meso},
+		{"ethanoanthracene, trans enantiomers", "c1ccc2c(c1)C[C@@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", "c1ccc2c(c1)C[C@H]1C3c4ccccc4C(c4ccccc43)[C@@H]1C2", mirror, Chiral},
+		// camphor's bridges all differ: its bridgehead marks stay, and
+		// (1R,4R)- and (1S,4S)-camphor are enantiomers (common practice)
+		{"camphor enantiomers", "CC1(C)[C@@H]2CC[C@@]1(C)C(=O)C2", "CC1(C)[C@H]2CC[C@]1(C)C(=O)C2", mirror, Chiral},
+		// Bicyclo[2.2.2]octane-2,6-diol with the OH carbons opposite
+		// (one R, one S) has two meso forms, both OH towards each other
+		// or both towards the ethano bridge (worked by hand); they differ
+		// only at the bridgeheads, whose equal bridges carry the OH
+		// carbons, so the bridgehead marks must stay.
+		{"bicyclo[2.2.2]octane-2,6-diol, bridgeheads flipped", "O[C@H]1C[C@H]2C[C@@H](O)[C@@H]1CC2", "O[C@H]1C[C@@H]2C[C@@H](O)[C@H]1CC2", other, Meso},
+
+		// A double bond whose two ligands at one end are constitutionally
+		// equal is stereogenic when they differ in configuration (worked
+		// by hand, and so the labeller's e/z). Reflection inverts both
+		// centres and keeps the bond, so the methyl then lies cis to the
+		// other branch: the two bond configurations are enantiomers.
+		{"R,S branches, bond flipped", "C[C@@H](O)/C(=C/C)[C@@H](O)C", "C[C@@H](O)/C(=C\\C)[C@@H](O)C", mirror, Chiral},
+		{"R,S branches, all flipped", "C[C@@H](O)/C(=C/C)[C@@H](O)C", "C[C@H](O)/C(=C\\C)[C@H](O)C", same, Chiral},
+		// with equal configurations the renaming that swaps the branches
+		// maps either bond configuration onto the other: no unit
+		{"R,R branches, bond flipped", "C[C@@H](O)/C(=C/C)[C@H](O)C", "C[C@@H](O)/C(=C\\C)[C@H](O)C", same, Chiral},
+		{"R,R branches, bond unmarked", "C[C@@H](O)/C(=C/C)[C@H](O)C", "C[C@@H](O)C(=CC)[C@H](O)C", same, Chiral},
+		{"R,R and S,S branches", "C[C@@H](O)C(=CC)[C@H](O)C", "C[C@H](O)C(=CC)[C@@H](O)C", mirror, Chiral},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			a, b := Identify(notation.Read(tc.a)), Identify(notation.Read(tc.b))
+			var got int
+			switch {
+			case a.Key == b.Key:
+				got = same
+			case a.MirrorKey == b.Key:
+				got = mirror
+			default:
+				got = other
+			}
+			names := [...]string{"the same structure", "the mirror image", "another stereoisomer"}
+			if got != tc.rel {
+				t.Errorf("%s vs %s: %s, want %s", tc.a, tc.b, names[got], names[tc.rel])
+			}
+			if a.ConstitutionKey != b.ConstitutionKey {
+				t.Errorf("%s vs %s: constitution keys differ", tc.a, tc.b)
+			}
+			if a.Chirality != tc.chirality {
+				t.Errorf("%s: chirality %v, want %v", tc.a, a.Chirality, tc.chirality)
+			}
+		})
+	}
+}
+
+// TestStereoisomersTogether counts the isomers of the constitutions
+// above; sources as given.
+func TestStereoisomersTogether(t *testing.T) {
+	tests := []struct {
+		smiles string
+		want   int
+		why    string
+	}{
+		{"CC1CCC(=CC(=O)O)CC1", 2, "(4-methylcyclohexylidene)acetic acid: one axially chiral pair (common practice)"},
+		{"CC1CCC(=NO)CC1", 2, "4-methylcyclohexanone oxime: one axially chiral pair (common practice)"},
+		{"C1CCC(=CC(=O)O)CC1", 1, "cyclohexylideneacetic acid: no partner on the ring (common practice)"},
+		{"CC1CCC(=C(C)C)CC1", 1, "the far end carries two methyls (common practice)"},
+		{"OC(=O)C=C1CCC(=CC(=O)O)CC1", 2, "cyclohexane-1,4-diylidenediacetic acid: the two bonds together, like a 1,4-disubstituted ring (worked by hand)"},
+		{"C1CC2CCC1C2", 1, "norbornane (common practice)"},
+		{"c1ccc2c(c1)CC1C3c4ccccc4C(c4ccccc43)C1C2", 3, "ethano-fused 9,10-dihydro-9,10-ethanoanthracene: cis (meso) and a trans pair; the bridgeheads follow (worked by hand)"},
+		{"CC1(C)C2CCC1(C)C(=O)C2", 2, "camphor: the two bridgeheads, one relative configuration (common practice)"},
+		{"OC1CC2CC(O)C1CC2", 4, "bicyclo[2.2.2]octane-2,6-diol: two meso forms (OH towards each other, OH towards the ethano bridge) and one pair (worked by hand)"},
+		{"CC(O)C(=CC)C(O)C", 4, "(R,R), (S,S), and with R,S the methyl cis to the R or to the S branch, mirror images of each other (worked by hand)"},
+	}
+	for _, tc := range tests {
+		got := Stereoisomers(notation.Read(tc.smiles))
+		if got.Count != tc.want || !got.Exact {
+			t.Errorf("%s (%s): %d stereoisomers (%d units, exact %v), want %d", tc.smiles, tc.why, got.Count, got.Units, got.Exact, tc.want)
+		}
+	}
+}

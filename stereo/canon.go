@@ -412,10 +412,14 @@ func (c *canonState) chooseUnits(rank []int) {
 // ligands are the two ring branches of a symmetric ring, and returns the
 // ring system. Such a unit is stereogenic together with another one on
 // the same ring system: a tetrahedral centre (1,4-disubstituted
-// cyclohexanes) or an exocyclic double bond (exocyclicCandidate).
+// cyclohexanes), an exocyclic double bond or allene
+// (identity_exocyclic.go).
 func (c *canonState) ringCandidate(u *keyUnit, rank []int) (int, bool) {
-	if u.kind == keyDoubleBond {
+	switch u.kind {
+	case keyDoubleBond:
 		return c.exocyclicCandidate(u, rank)
+	case keyAllene:
+		return c.exocyclicAllene(u, rank)
 	}
 	if u.kind != keyTetrahedral {
 		return 0, false

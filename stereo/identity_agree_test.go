@@ -28,6 +28,7 @@ func TestIdentityUnitsAgreeWithLabeller(t *testing.T) {
 		"CC1(C)[C@@H]2CC[C@@]1(C)C(=O)C2", "O[C@H]1C[C@H]2C[C@@H](O)[C@@H]1CC2", "O[C@H]1C[C@H]2C[C@H](O)[C@@H]1CC2",
 		"C[C@@H](O)/C(=C/C)[C@@H](O)C", "C[C@@H](O)/C(=C/C)[C@H](O)C", "C[C@@H](O)C(=CC)[C@@H](O)C",
 		"C[C@H]1CC[C@@H](C)CC1", "OC(=O)[C@H](O)[C@H](O)C(=O)O",
+		"CC=[C@]=C1CC[C@H](CC1)CC", "CC=[C@]=C1CCC(CC1)=[C@@]=CC", "CC=[C@]=C1CCCCC1",
 	}
 	rows := readIdentityFixture(t)
 	for _, r := range rows {

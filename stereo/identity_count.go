@@ -77,8 +77,14 @@ func potentialUnits(g *keyGraph) []keyUnit {
 		if ends, inner, ok := g.alleneEnds(a); ok {
 			u := keyUnit{kind: keyAllene, centre: a, ends: ends, hand: 1, bond: -1}
 			u.ligands, u.ligEnd = g.alleneLigands(ends, inner)
-			if len(u.ligands) == 4 && cs.parity(&u, rank) != 0 {
+			switch {
+			case len(u.ligands) != 4:
+			case cs.parity(&u, rank) != 0:
 				definite = append(definite, u)
+			case oneEndTied(&u, rank):
+				// an allene off a ring, stereogenic together with a
+				// ring centre opposite (identity_exocyclic.go)
+				tied = append(tied, u)
 			}
 			continue
 		}
@@ -179,4 +185,17 @@ func oneTiedPair(ligs []int, rank []int) bool {
 		}
 	}
 	return pairs == 1
+}
+
+// oneEndTied reports whether the two ligands at exactly one end of an
+// allene tie.
+func oneEndTied(u *keyUnit, rank []int) bool {
+	var r [2][]int
+	for i, x := range u.ligands {
+		r[u.ligEnd[i]] = append(r[u.ligEnd[i]], ligandRank(rank, x))
+	}
+	if len(r[0]) != 2 || len(r[1]) != 2 {
+		return false
+	}
+	return (r[0][0] == r[0][1]) != (r[1][0] == r[1][1])
 }

@@ -44,3 +44,39 @@ func (c *canonState) exocyclicCandidate(u *keyUnit, rank []int) (int, bool) {
 	}
 	return 0, false
 }
+
+// exocyclicAllene is exocyclicCandidate for an allene one of whose
+// terminal atoms is the ring atom: its two ligands there are ring
+// branches that tie, and the two at the far end do not. Such an allene
+// with a ring centre opposite is stereogenic together with it, as an
+// exocyclic double bond is, though the pair is achiral: the far end's
+// ligands lie in the ring's mirror plane, so the two forms are
+// diastereomers (worked by hand; the labeller gives them lowercase
+// descriptors).
+func (c *canonState) exocyclicAllene(u *keyUnit, rank []int) (int, bool) {
+	g := c.g
+	if len(u.ligands) != 4 || len(u.ligEnd) != 4 {
+		return 0, false
+	}
+	g.findRingSystems()
+	var at [2][]int
+	for i, x := range u.ligands {
+		at[u.ligEnd[i]] = append(at[u.ligEnd[i]], x)
+	}
+	if len(at[0]) != 2 || len(at[1]) != 2 {
+		return 0, false
+	}
+	for e := 0; e < 2; e++ {
+		r, ring, far := u.ends[e], at[e], at[1-e]
+		if g.system[r] < 0 || ring[0] == hLigand || ring[1] == hLigand || rank[ring[0]] != rank[ring[1]] {
+			continue
+		}
+		if !g.ring[g.mol.BondBetween(r, ring[0])] || !g.ring[g.mol.BondBetween(r, ring[1])] {
+			continue
+		}
+		if ligandRank(rank, far[0]) != ligandRank(rank, far[1]) {
+			return g.system[r], true
+		}
+	}
+	return 0, false
+}

@@ -1,6 +1,7 @@
 package stereo
 
 import (
+	"math/rand/v2"
 	"testing"
 
 	"stereoline/notation"
@@ -43,6 +44,14 @@ func TestIdentifyUnitsTogether(t *testing.T) {
 		// without a partner on the ring the bond marks mean nothing
 		// (cyclohexylideneacetic acid has no stereoisomers; common practice)
 		{"cyclohexylideneacetic acid", "C1CC/C(=C/C(=O)O)CC1", "C1CCC(=CC(=O)O)CC1", same, Achiral},
+		// An allene off the ring is stereogenic with the ring centre too,
+		// but achiral: the far end's ligands lie in the ring's mirror
+		// plane (through C1, C4 and the allene axis), so flipping one
+		// unit gives a diastereomer and flipping both the same structure
+		// (worked by hand).
+		{"4-ethylcyclohexylidene-propene, allene flipped", "CC=[C@]=C1CC[C@H](CC1)CC", "CC=[C@@]=C1CC[C@H](CC1)CC", other, Achiral},
+		{"4-ethylcyclohexylidene-propene, both flipped", "CC=[C@]=C1CC[C@H](CC1)CC", "CC=[C@@]=C1CC[C@@H](CC1)CC", same, Achiral},
+		{"cyclohexylidene-propene", "CC=[C@]=C1CCCCC1", "CC=C=C1CCCCC1", same, Achiral},
 		// the far end carries two equal ligands: no unit (common practice)
 		{"4-methyl-1-(propan-2-ylidene)cyclohexane", "C[C@H]1CCC(=C(C)C)CC1", "CC1CCC(=C(C)C)CC1", same, Achiral},
 
@@ -119,6 +128,9 @@ func TestStereoisomersTogether(t *testing.T) {
 		{"CC1CCC(=NO)CC1", 2, "4-methylcyclohexanone oxime: one axially chiral pair (common practice)"},
 		{"C1CCC(=CC(=O)O)CC1", 1, "cyclohexylideneacetic acid: no partner on the ring (common practice)"},
 		{"CC1CCC(=C(C)C)CC1", 1, "the far end carries two methyls (common practice)"},
+		{"CC=C=C1CCC(CC)CC1", 2, "an allene off the ring with a ring centre opposite: two achiral diastereomers (worked by hand)"},
+		{"CC=C=C1CCC(CC1)=C=CC", 2, "two allenes off one ring: two achiral diastereomers (worked by hand)"},
+		{"CC=C=C1CCCCC1", 1, "an allene off the ring and no partner (worked by hand)"},
 		{"OC(=O)C=C1CCC(=CC(=O)O)CC1", 2, "cyclohexane-1,4-diylidenediacetic acid: the two bonds together, like a 1,4-disubstituted ring (worked by hand)"},
 		{"C1CC2CCC1C2", 1, "norbornane (common practice)"},
 		{"c1ccc2c(c1)CC1C3c4ccccc4C(c4ccccc43)C1C2", 3, "ethano-fused 9,10-dihydro-9,10-ethanoanthracene: cis (meso) and a trans pair; the bridgeheads follow (worked by hand)"},
@@ -130,6 +142,38 @@ func TestStereoisomersTogether(t *testing.T) {
 		got := Stereoisomers(notation.Read(tc.smiles))
 		if got.Count != tc.want || !got.Exact {
 			t.Errorf("%s (%s): %d stereoisomers (%d units, exact %v), want %d", tc.smiles, tc.why, got.Count, got.Units, got.Exact, tc.want)
+		}
+	}
+}
+
+// TestTogetherKeysOverWritings: the key of a unit kept only together
+// with another depends on the order the tie-breaking search tries, so
+// every random writing the project's writer makes of these structures
+// must give the same key (OpenSMILES allows many writings of one
+// structure).
+func TestTogetherKeysOverWritings(t *testing.T) {
+	for k, text := range []string{
+		"C[C@H]1CC/C(=C/C(=O)O)CC1", "C[C@H]1CC/C(=N/O)CC1", "OC(=O)/C=C1/CC/C(=C/C(=O)O)CC1",
+		"CC=[C@]=C1CC[C@H](CC1)CC", "CC=[C@]=C1CCC(CC1)=[C@@]=CC",
+		"c1ccc2c(c1)C[C@@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", "O[C@H]1C[C@H]2C[C@@H](O)[C@@H]1CC2",
+		"C[C@@H](O)/C(=C/C)[C@@H](O)C",
+	} {
+		m := notation.Read(text)
+		want := Identify(m).Key
+		written := 0
+		for i := 0; i < 20; i++ {
+			w := notation.Write(m, notation.WriteOptions{Random: rand.New(rand.NewPCG(uint64(k), uint64(i)))})
+			if len(w.Unadjusted) > 0 || len(w.Dropped) > 0 {
+				continue
+			}
+			written++
+			if got := Identify(notation.Read(w.Text)).Key; got != want {
+				t.Errorf("%s written as %s: key differs", text, w.Text)
+				break
+			}
+		}
+		if written == 0 {
+			t.Errorf("%s: the writer could not rewrite its marks", text)
 		}
 	}
 }

@@ -83,13 +83,15 @@ func (g *graph) build(m *notation.Molecule) {
 	n := len(m.Atoms)
 	st := g.store
 	*g = graph{mol: m, n: n, store: st, ringStore: st.rings[:0]}
-	g.adj = sized(&g.store.adj, n)
-	ints := sized(&g.store.ints, 2*n)
+	// tables the loop below writes in full need no clearing first
+	g.adj = grown(&g.store.adj, n)
+	ints := grown(&g.store.ints, 2*n)
 	g.hyd, g.z = ints[:n:n], ints[n:]
-	floats := sized(&g.store.floats, 3*n)
+	floats := grown(&g.store.floats, 3*n)
 	g.mass, g.mancudeZ, g.mancudeM = floats[:n:n], floats[n:2*n:2*n], floats[2*n:]
+	clear(floats[n:])
 	// every bond gives an edge to each end: one pass less over the atoms
-	edges := sized(&g.store.edges, 2*len(m.Bonds))[:0]
+	edges := grown(&g.store.edges, 2*len(m.Bonds))[:0]
 	for i := range m.Atoms {
 		a := &m.Atoms[i]
 		g.z[i] = a.Number
@@ -133,12 +135,18 @@ type graphStore struct {
 
 // sized returns (*buf)[:n], zeroed, growing *buf when it is too small.
 func sized[T any](buf *[]T, n int) []T {
+	s := grown(buf, n)
+	clear(s)
+	return s
+}
+
+// grown is sized without the zeroing, for tables the caller writes in
+// full before reading.
+func grown[T any](buf *[]T, n int) []T {
 	if cap(*buf) < n {
 		*buf = make([]T, n, n+n/4)
 	}
-	s := (*buf)[:n:n]
-	clear(s)
-	return s
+	return (*buf)[:n:n]
 }
 
 func bondOrder(b *notation.Bond) int {

@@ -377,29 +377,59 @@ func permutationParity(xs []int) (odd, ok bool) {
 }
 
 // chooseUnits decides which units belong in the key, on the ranks after
-// stereo refinement and before any tie is broken.
+// stereo refinement and before any tie is broken. A ring unit is kept
+// when its ring system holds another one, ring systems joined by a
+// double bond between them (ringLink) counting as one.
 func (c *canonState) chooseUnits(rank []int) {
 	c.keep = make([]bool, len(c.units))
 	c.ring = make([]bool, len(c.units))
-	var system []int // per unit: its ring system, when a ring candidate
-	perSystem := map[int]int{}
+	var system [][2]int // per unit: its ring systems, when a ring unit
 	for i := range c.units {
 		u := &c.units[i]
 		if c.parity(u, rank) != 0 {
 			c.keep[i] = true
 			continue
 		}
-		if s, ok := c.ringCandidate(u, rank); ok {
+		s, ok := c.ringCandidate(u, rank)
+		pair := [2]int{s, -1}
+		if !ok {
+			pair[0], pair[1], ok = c.ringLink(u, rank)
+		}
+		if ok {
 			if system == nil {
-				system = make([]int, len(c.units))
+				system = make([][2]int, len(c.units))
 			}
-			c.ring[i], system[i] = true, s
-			perSystem[s]++
+			c.ring[i], system[i] = true, pair
+		}
+	}
+	if system == nil {
+		return
+	}
+	parent := map[int]int{}
+	var root func(int) int
+	root = func(s int) int {
+		p, ok := parent[s]
+		if !ok || p == s {
+			return s
+		}
+		r := root(p)
+		parent[s] = r
+		return r
+	}
+	for i := range c.units {
+		if c.ring[i] && system[i][1] >= 0 {
+			parent[root(system[i][0])] = root(system[i][1])
+		}
+	}
+	perSystem := map[int]int{}
+	for i := range c.units {
+		if c.ring[i] && system[i][1] < 0 {
+			perSystem[root(system[i][0])]++
 		}
 	}
 	for i := range c.units {
 		if c.ring[i] {
-			if perSystem[system[i]] >= 2 {
+			if perSystem[root(system[i][0])] >= 2 {
 				c.keep[i] = true
 			} else {
 				c.ring[i] = false

@@ -29,6 +29,7 @@ func TestIdentityUnitsAgreeWithLabeller(t *testing.T) {
 		"C[C@@H](O)/C(=C/C)[C@@H](O)C", "C[C@@H](O)/C(=C/C)[C@H](O)C", "C[C@@H](O)C(=CC)[C@@H](O)C",
 		"C[C@H]1CC[C@@H](C)CC1", "OC(=O)[C@H](O)[C@H](O)C(=O)O",
 		"CC=[C@]=C1CC[C@H](CC1)CC", "CC=[C@]=C1CCC(CC1)=[C@@]=CC", "CC=[C@]=C1CCCCC1",
+		"CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@H](CC2)CC", "CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@@H](CC2)CC",
 	}
 	rows := readIdentityFixture(t)
 	for _, r := range rows {

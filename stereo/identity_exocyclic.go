@@ -80,3 +80,34 @@ func (c *canonState) exocyclicAllene(u *keyUnit, rank []int) (int, bool) {
 	}
 	return 0, false
 }
+
+// ringLink reports whether double-bond unit u joins two ring systems,
+// each end a ring atom whose two ring branches tie: the central bond of
+// a 4,4'-disubstituted bicyclohexylidene. Such a bond is stereogenic
+// only with a ring unit on each side (the two ring substituents then lie
+// in one mirror plane, on the same or on opposite sides of the bond's
+// plane: two achiral diastereomers, worked by hand), so it joins the two
+// systems into one for chooseUnits. It returns the two ring systems.
+func (c *canonState) ringLink(u *keyUnit, rank []int) (int, int, bool) {
+	g := c.g
+	if u.kind != keyDoubleBond || u.bond < 0 {
+		return 0, 0, false
+	}
+	g.findRingSystems()
+	b := &g.mol.Bonds[u.bond]
+	if g.ring[u.bond] || !(b.Begin == u.ends[0] && b.End == u.ends[1] || b.Begin == u.ends[1] && b.End == u.ends[0]) {
+		return 0, 0, false
+	}
+	for e := 0; e < 2; e++ {
+		r, o := u.ends[e], u.ends[1-e]
+		if g.system[r] < 0 || g.hydro[r] != 0 {
+			return 0, 0, false
+		}
+		subs := g.substituents(r, o)
+		if len(subs) != 2 || rank[subs[0]] != rank[subs[1]] ||
+			!g.ring[g.mol.BondBetween(r, subs[0])] || !g.ring[g.mol.BondBetween(r, subs[1])] {
+			return 0, 0, false
+		}
+	}
+	return g.system[u.ends[0]], g.system[u.ends[1]], true
+}

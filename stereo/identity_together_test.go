@@ -52,6 +52,13 @@ func TestIdentifyUnitsTogether(t *testing.T) {
 		{"4-ethylcyclohexylidene-propene, allene flipped", "CC=[C@]=C1CC[C@H](CC1)CC", "CC=[C@@]=C1CC[C@H](CC1)CC", other, Achiral},
 		{"4-ethylcyclohexylidene-propene, both flipped", "CC=[C@]=C1CC[C@H](CC1)CC", "CC=[C@@]=C1CC[C@@H](CC1)CC", same, Achiral},
 		{"cyclohexylidene-propene", "CC=[C@]=C1CCCCC1", "CC=C=C1CCCCC1", same, Achiral},
+		// 4,4'-diethylbicyclohexylidene: the central bond joins the two
+		// ring centres, whose ethyl groups lie in one mirror plane, on one
+		// side of the bond's plane or on opposite sides: two achiral
+		// diastereomers (worked by hand; the labeller says E and Z)
+		{"4,4'-diethylbicyclohexylidene, E and Z", "CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@H](CC2)CC", "CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@@H](CC2)CC", other, Achiral},
+		{"4,4'-diethylbicyclohexylidene, both centres flipped", "CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@H](CC2)CC", "CC[C@H]1CC/C(/CC1)=C\\2/CC[C@@H](CC2)CC", same, Achiral},
+		{"4-methylbicyclohexylidene has no stereoisomers", "C[C@@H]1CC/C(/CC1)=C\\2/CCCCC2", "CC1CCC(CC1)=C1CCCCC1", same, Achiral},
 		// the far end carries two equal ligands: no unit (common practice)
 		{"4-methyl-1-(propan-2-ylidene)cyclohexane", "C[C@H]1CCC(=C(C)C)CC1", "CC1CCC(=C(C)C)CC1", same, Achiral},
 
@@ -132,6 +139,8 @@ func TestStereoisomersTogether(t *testing.T) {
 		{"CC=C=C1CCC(CC1)=C=CC", 2, "two allenes off one ring: two achiral diastereomers (worked by hand)"},
 		{"CC=C=C1CCCCC1", 1, "an allene off the ring and no partner (worked by hand)"},
 		{"OC(=O)C=C1CCC(=CC(=O)O)CC1", 2, "cyclohexane-1,4-diylidenediacetic acid: the two bonds together, like a 1,4-disubstituted ring (worked by hand)"},
+		{"CCC1CCC(CC1)=C1CCC(CC)CC1", 2, "4,4'-diethylbicyclohexylidene: two achiral diastereomers (worked by hand)"},
+		{"CC1CCC(CC1)=C1CCCCC1", 1, "4-methylbicyclohexylidene: one ring centre alone (worked by hand)"},
 		{"C1CC2CCC1C2", 1, "norbornane (common practice)"},
 		{"c1ccc2c(c1)CC1C3c4ccccc4C(c4ccccc43)C1C2", 3, "ethano-fused 9,10-dihydro-9,10-ethanoanthracene: cis (meso) and a trans pair; the bridgeheads follow (worked by hand)"},
 		{"CC1(C)C2CCC1(C)C(=O)C2", 2, "camphor: the two bridgeheads, one relative configuration (common practice)"},
@@ -156,7 +165,7 @@ func TestTogetherKeysOverWritings(t *testing.T) {
 		"C[C@H]1CC/C(=C/C(=O)O)CC1", "C[C@H]1CC/C(=N/O)CC1", "OC(=O)/C=C1/CC/C(=C/C(=O)O)CC1",
 		"CC=[C@]=C1CC[C@H](CC1)CC", "CC=[C@]=C1CCC(CC1)=[C@@]=CC",
 		"c1ccc2c(c1)C[C@@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", "O[C@H]1C[C@H]2C[C@@H](O)[C@@H]1CC2",
-		"C[C@@H](O)/C(=C/C)[C@@H](O)C",
+		"C[C@@H](O)/C(=C/C)[C@@H](O)C", "CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@H](CC2)CC",
 	} {
 		m := notation.Read(text)
 		want := Identify(m).Key

@@ -293,11 +293,13 @@ func (g *keyGraph) heldNitrogen(a int) bool {
 }
 
 // substituents lists the neighbours of double-bond end t other than
-// partner, joined by single bonds.
+// partner, joined by single bonds, or by aromatic ones when t is a ring
+// atom of an aromatic ring with the double bond outside it (the imine
+// of a 2-iminothiazoline).
 func (g *keyGraph) substituents(t, partner int) []int {
 	var out []int
 	for _, e := range g.adj[t] {
-		if e.to != partner && e.class == 1 {
+		if e.to != partner && (e.class == 1 || e.class == 5) {
 			out = append(out, e.to)
 		}
 	}

@@ -44,6 +44,10 @@ func TestIdentifyCases(t *testing.T) {
 		{"biphenyl with an implied link", "c1ccccc1c1ccccc1", "C1=CC=CC=C1C1=CC=CC=C1", true, Achiral},
 		{"cyclohexa-1,3-diene is not aromatic", "C1=CC=CCC1", "c1ccccc1", false, Achiral},
 		{"L-phenylalanine, Kekulé ring", "N[C@@H](Cc1ccccc1)C(=O)O", "N[C@@H](CC1=CC=CC=C1)C(=O)O", true, Chiral},
+		// an imine on an aromatic ring atom whose ring neighbours differ
+		// has E and Z forms; its ring bonds are its substituents
+		{"imine on a thiazoline ring, E and Z", "C/N=c1/sccn1C", "C/N=c1\\sccn1C", false, Achiral},
+		{"imine on a thiazoline ring, Kekulé ring", "C/N=c1/sccn1C", "C/N=C1/SC=CN1C", true, Achiral},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {

@@ -36,6 +36,12 @@ func (l *labeller) checkBridgeheads() {
 		}
 		var bridges [3][2]int
 		for i, p := range bc.paths {
+			if len(p) == 0 {
+				// the direct bond of a fused bicycle: each head's bridge
+				// begins at the other head
+				bridges[i] = [2]int{b, a}
+				continue
+			}
 			bridges[i] = [2]int{p[0], p[len(p)-1]}
 		}
 		wa, oka := bridgeWinding(ta, bridges, 0)
@@ -43,7 +49,11 @@ func (l *labeller) checkBridgeheads() {
 		if !oka || !okb || wa != wb {
 			continue
 		}
-		err := l.fail(tb.span, CodeImpossibleCenter, "these marks put a substituent of a bridgehead inside a small bicycle")
+		msg := "these marks put a substituent of a bridgehead inside a small bicycle"
+		if len(bc.paths[2]) == 0 {
+			msg = "these marks put the bridgehead substituents of a small fused bicycle trans, which it cannot take"
+		}
+		err := l.fail(tb.span, CodeImpossibleCenter, "%s", msg)
 		err.Related = append(err.Related, notation.Related{Span: ta.span, Msg: "the other bridgehead"})
 		delete(l.cfg.tetra, a)
 		delete(l.cfg.tetra, b)
@@ -51,9 +61,10 @@ func (l *labeller) checkBridgeheads() {
 	}
 }
 
-// bicycle is a small bridged bicycle: its two bridgeheads and its three
-// bridges, each from the atom next to heads[0] to the one next to
-// heads[1].
+// bicycle is a small bridged or fused bicycle: its two bridgeheads and
+// its three bridges, each from the atom next to heads[0] to the one next
+// to heads[1]; in a fused bicycle the third bridge is the bond between
+// the heads, and empty.
 type bicycle struct {
 	heads [2]int
 	paths [3][]int
@@ -92,6 +103,9 @@ func (l *labeller) bicycles() []bicycle {
 			}
 			if paths, ok := g.bridgePaths(x, y); ok {
 				l.bicycleList = append(l.bicycleList, bicycle{heads: [2]int{x, y}, paths: paths})
+			} else if rings, ok := g.fusedPaths(x, y); ok {
+				// the bond between the heads is the third bridge, of no atoms
+				l.bicycleList = append(l.bicycleList, bicycle{heads: [2]int{x, y}, paths: [3][]int{rings[0], rings[1], nil}})
 			}
 		}
 	}
@@ -143,6 +157,50 @@ func (g *graph) bridgePaths(a, b int) ([3][]int, bool) {
 		n++
 	}
 	return out, n == 3
+}
+
+// maxFusedPerimeter is the largest fused bicycle (two rings sharing a
+// bond) that is reported as unable to be trans-fused, counted in atoms
+// round its perimeter: bicyclo[2.2.0]hexane, bicyclo[3.1.0]hexane and
+// the smaller ones have no trans-fused form (common practice), while
+// trans-bicyclo[3.3.0]octane and trans-bicyclo[4.2.0]octane exist. The
+// seven-atom cases (bicyclo[3.2.0]heptane, bicyclo[4.1.0]heptane) are
+// highly strained when trans; they are left alone rather than called
+// impossible, since an error there would be worse than silence.
+const maxFusedPerimeter = 6
+
+// fusedPaths finds the two rings of a small fused bicycle around the bond
+// a-b: two vertex-disjoint paths from a to b besides the bond itself,
+// with at most maxFusedPerimeter atoms round the outside.
+func (g *graph) fusedPaths(a, b int) ([2][]int, bool) {
+	var out [2][]int
+	if len(g.adj[a]) < 3 || len(g.adj[b]) < 3 || g.mol.BondBetween(a, b) < 0 {
+		return out, false
+	}
+	used := g.bfsMarks()
+	used.stamp++
+	blocked := used.stamp
+	used.mark[a], used.mark[b] = blocked, blocked
+	n, atoms := 0, 2
+	for _, e := range g.adj[a] {
+		if !g.ringBond[e.bond] || used.mark[e.to] == blocked {
+			continue
+		}
+		path := g.shortPath(e.to, b, used, blocked, maxFusedPerimeter-3)
+		if path == nil {
+			continue
+		}
+		if n == 2 {
+			return out, false // a third path: more than a bicycle
+		}
+		for _, x := range path {
+			used.mark[x] = blocked
+		}
+		out[n] = path
+		n++
+		atoms += len(path)
+	}
+	return out, n == 2 && atoms <= maxFusedPerimeter
 }
 
 // bfsScratch is the state of the small searches of this file, kept in
@@ -274,7 +332,7 @@ func (l *labeller) cageFixed(x int) bool {
 		for i := 0; i < 3; i++ {
 			for j := i + 1; j < 3; j++ {
 				pi, pj := paths[i], paths[j]
-				if len(pi) != len(pj) || l.classes.of(pi[0]) != l.classes.of(pj[0]) ||
+				if len(pi) == 0 || len(pi) != len(pj) || l.classes.of(pi[0]) != l.classes.of(pj[0]) ||
 					l.classes.of(pi[len(pi)-1]) != l.classes.of(pj[len(pj)-1]) {
 					continue
 				}

@@ -74,3 +74,37 @@ func TestCageFixedBridgeheads(t *testing.T) {
 		}
 	}
 }
+
+// TestFusedBicycles checks trans fusion of small fused bicycles. Which
+// writing is cis and which trans was checked with RDKit 2022.09 (Debian
+// python3-rdkit): a 3D embedding of each writing, reading the dihedral
+// angle between the two bridgehead hydrogens (near 0 for cis, near 180
+// for trans); the trans writings of the small bicycles failed to embed.
+func TestFusedBicycles(t *testing.T) {
+	cases := []struct {
+		name, smiles string
+		impossible   bool
+		source       string
+	}{
+		// no trans-fused bicyclo[2.2.0]hexane is known (common practice)
+		{"cis-bicyclo[2.2.0]hexane", "[C@H]12CC[C@H]1CC2", false, "RDKit embedding: cis"},
+		{"trans-bicyclo[2.2.0]hexane", "[C@H]12CC[C@@H]1CC2", true, "common practice"},
+		// trans-bicyclo[3.3.0]octane and trans-decalin exist (common practice)
+		{"trans-bicyclo[3.3.0]octane", "[C@H]12CCC[C@@H]1CCC2", false, "RDKit embedding: trans"},
+		{"trans-decalin", "[C@H]12CCCC[C@@H]1CCCC2", false, "RDKit embedding: trans"},
+		// seven-atom perimeters are left alone (bridgehead.go)
+		{"trans-bicyclo[4.1.0]heptane", "[C@H]12CCCC[C@@H]1C2", false, "left alone by design"},
+	}
+	for _, c := range cases {
+		a := Analyze(notation.Read(c.smiles))
+		got := false
+		for _, e := range a.Diagnostics {
+			if e.Code == CodeImpossibleCenter {
+				got = true
+			}
+		}
+		if got != c.impossible {
+			t.Errorf("%s (%s): %s impossible %v, want %v: %v", c.name, c.source, c.smiles, got, c.impossible, a.Diagnostics)
+		}
+	}
+}

@@ -33,7 +33,7 @@ type ranking struct {
 
 // rankLigands sorts the ligands of root in the view rooted at root.
 func (d *digraph) rankLigands(root nodeID, ligs []nodeID) ranking {
-	s := d.store(ligs) // the order lives as long as the digraph
+	s := d.store(ligs)                               // the order lives as long as the digraph
 	pairs := &pairMemo{d: d, root: root, ligs: ligs} // stays on the stack
 	for i := 1; i < len(s); i++ {
 		for j := i; j > 0; j-- {

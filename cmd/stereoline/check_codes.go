@@ -153,14 +153,14 @@ var codeCatalogue = []codeDoc{
 	{
 		Code: stereo.CodeIneffectiveCenter, Origin: originStereo,
 		Short:   "A stereo mark on an atom or allene that is not stereogenic.",
-		Full:    "The mark '@' or '@@' sits on a unit whose ligands are not all different, so swapping it changes nothing: both writings are the same compound. Often it points to a wrong substituent rather than a superfluous mark.",
+		Full:    "The mark '@' or '@@' sits on a unit whose ligands are not all different, so swapping it changes nothing: both writings are the same compound. Often it points to a wrong substituent rather than a superfluous mark. A bridgehead of a small bicycle whose two equal bridges carry no configuration (norbornane) is fixed by its cage and gets this code too. A ring atom that is stereogenic only together with another (1,4-disubstituted rings, exocyclic double bonds) does not: when its partner is unmarked, the partner is reported as stereo-undefined instead.",
 		Help:    "Check the substituents of the marked atom; if they are right, remove the mark.",
 		Example: codeExample{File: "example.smi", Text: "F[C@H](F)Cl\n"},
 	},
 	{
 		Code: stereo.CodeImpossibleCenter, Origin: originStereo,
 		Short:   "A stereo mark that cannot apply to its atom.",
-		Full:    "A tetrahedral mark needs an atom with three or four neighbours (counting an implicit hydrogen) and no double bond that makes it planar; this atom is not such an atom, so the mark has no meaning.",
+		Full:    "A tetrahedral mark needs an atom with three or four neighbours (counting an implicit hydrogen) and no double bond that makes it planar; this atom is not such an atom, so the mark has no meaning. The code is also given when the marks at the two bridgeheads of a small bicycle would put one bridgehead substituent inside the cage, or fuse two small rings trans (bicyclo[2.2.0]hexane and smaller), which no such molecule can do.",
 		Help:    "Move the mark to the intended stereocentre, or remove it.",
 		Example: codeExample{File: "example.smi", Text: "C[C@H]=CC\n"},
 	},
@@ -202,7 +202,7 @@ var codeCatalogue = []codeDoc{
 	{
 		Code: stereo.CodeUndefined, Origin: originStereo,
 		Short:   "A stereogenic unit left unmarked.",
-		Full:    "The atom or double bond is stereogenic but carries no mark, so the record stands for any of its stereoisomers (or a mixture). In a record that marks other units this is often an oversight; its severity is lower when nothing in the record is marked.",
+		Full:    "The atom or double bond is stereogenic but carries no mark, so the record stands for any of its stereoisomers (or a mixture). In a record that marks other units this is often an oversight; its severity is lower when nothing in the record is marked. Units stereogenic only together (the ring carbons of a 1,4-disubstituted cyclohexane, a ring carbon and an exocyclic double bond), units made stereogenic by the configurations around them (pseudoasymmetric centres and double bonds) and the bridgehead nitrogens of small bicycles are reported too.",
 		Help:    "Add the mark if the configuration is known; leave it open on purpose for racemates and unknown configurations.",
 		Example: codeExample{File: "example.smi", Text: "C/C=C/C(O)CC\n"},
 	},

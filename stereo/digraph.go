@@ -56,8 +56,9 @@ type digraph struct {
 	compared   map[[2]uint64][2]int32
 	sortedAux  map[uint64][]nodeID // children in rule order, auxiliary views
 	sortedRoot map[sortKey][]nodeID
-	free       []*[4][]step // walk queues for reuse
-	arena      []nodeID     // storage for children lists
+	free       []*[4][]step     // walk queues for reuse
+	groupIDs   []map[[2]int]int // Rule 4b group numberings for reuse (rule4b.go)
+	arena      []nodeID         // storage for children lists
 	// sortTables holds, per sorted node and rule, 1 + the offset in
 	// sorts of its children in that rule's order (as many as it has
 	// children), 0 when not sorted yet. Offsets stay valid as sorts

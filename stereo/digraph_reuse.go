@@ -29,6 +29,7 @@ func (l *labeller) digraph(rootAtom int) *digraph {
 		sorts:      d.sorts[:0],
 		kidBuf:     d.kidBuf[:0],
 		free:       d.free,
+		groupIDs:   d.groupIDs,
 		compared:   reusable(d.compared),
 		sortedAux:  reusable(d.sortedAux),
 		sortedRoot: reusable(d.sortedRoot),

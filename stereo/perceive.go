@@ -30,7 +30,7 @@ func (l *labeller) perceiveUnmarked() {
 		distinct, pairInRing := ligandClasses(g, a, class)
 		switch {
 		case distinct:
-			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a, nil))
+			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a))
 			report(g.mol.Atoms[a].Span, "stereocentre without a configuration")
 		case l.anyMarks && l.configuredPair(a, class) && l.pseudoCentre(a):
 			// constitutionally equal ligands told apart by the
@@ -104,34 +104,30 @@ func (l *labeller) perceiveUnmarked() {
 
 // unspecifiedCentre is the unit of an unmarked stereocentre, with its
 // ligands ranked (a ranking needs no configuration of the centre itself,
-// and the explanation is as useful before a mark is written). ranked is
-// a digraph of the centre whose ligands distinctByConfiguration has
-// already ranked, or nil: ranking again on it reads the comparisons
-// from its memo instead of repeating them.
-func (l *labeller) unspecifiedCentre(a int, ranked *digraph) Unit {
+// and the explanation is as useful before a mark is written).
+func (l *labeller) unspecifiedCentre(a int) Unit {
 	u := Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1}
-	ligs := stereoLigands(l.g.mol, a)
-	if len(ligs) == 3 {
-		ligs = append(ligs, implicitLigand)
-	}
 	defer l.explaining()()
+	d := l.digraph(a)
+	defer l.release(d)
 	// no Rule 6 trials: they decide a label, which an unmarked unit has not
-	t := &tetraConfig{centre: a, ligands: ligs, winding: 1, lonePair: len(l.g.mol.Atoms[a].Bonds) == 3 && l.g.hyd[a] == 0}
-	d := ranked
-	// the ranked digraph stands in for a fresh one only when a fresh one
-	// would grow the same nodes: the same ligands (a lone pair exactly
-	// when three are atoms), no node cap reached and fewer nodes than
-	// the explanation's cap, which the growth, being the same, would not
-	// have met either
-	if d == nil || t.lonePair != (len(d.ligandsOf(0, noNode)) == 3) || d.capped || len(d.nodes) >= l.nodeCap {
-		d = l.digraph(a)
-		defer l.release(d)
-	}
-	lb, _ := l.tetrahedralWith(d, t, -1, false)
+	lb, _ := l.tetrahedralWith(d, l.unmarkedConfig(a), -1, false)
 	if !lb.capped {
 		u.Ranked, u.Decisions = lb.ranked, lb.decisions
 	}
 	return u
+}
+
+// unmarkedConfig is the configuration an unmarked centre is ranked
+// under: its ligands in stereo order, the implicit ligand a hydrogen or,
+// with three atoms and no hydrogen, a lone pair; the winding is
+// arbitrary, as no label is read from it.
+func (l *labeller) unmarkedConfig(a int) *tetraConfig {
+	ligs := stereoLigands(l.g.mol, a)
+	if len(ligs) == 3 {
+		ligs = append(ligs, implicitLigand)
+	}
+	return &tetraConfig{centre: a, ligands: ligs, winding: 1, lonePair: len(l.g.mol.Atoms[a].Bonds) == 3 && l.g.hyd[a] == 0}
 }
 
 // explainCap bounds the digraphs that rank the ligands of unmarked
@@ -246,42 +242,35 @@ func (l *labeller) configuredNear(start, avoid, depth int) bool {
 	return false
 }
 
-// distinctByConfiguration ranks the ligands of an unmarked atom by the
-// full rule chain, so that the configurations written elsewhere (through
-// their auxiliary descriptors) can split constitutionally equal ligands.
-// Ring pairs are left to the together test: their split comes from the
-// atom's own partner across the ring.
-func (l *labeller) distinctByConfiguration(d *digraph, a int) bool {
-	// the decisions tell; whether the label would be lowercase does not
-	r, _ := l.plainRanking(d, -1, func(d *digraph) []nodeID {
-		ligs := d.ligandsOf(0, noNode)
-		if len(ligs) == 3 {
-			ligs = append(ligs, d.lonePair(0))
-		}
-		return ligs
-	})
-	if r.tie || d.capped {
+// pseudoCentre ranks the ligands of an unmarked atom by the full rule
+// chain, so that the configurations written elsewhere (through their
+// auxiliary descriptors) can split constitutionally equal ligands, and
+// adds the atom's unit, with that ranking as its explanation, when they
+// do. Ring pairs are left to the together test: their split comes from
+// the atom's own partner across the ring.
+func (l *labeller) pseudoCentre(a int) bool {
+	d := l.digraph(a)
+	defer l.release(d)
+	lb, _ := l.tetrahedralWith(d, l.unmarkedConfig(a), -1, false)
+	if lb.tie || lb.capped || !decidedByDescriptors(lb.decisions) {
 		return false
 	}
-	for _, dc := range r.decisions {
+	l.unitAtoms[a] = true
+	l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1,
+		Ranked: lb.ranked, Decisions: lb.decisions})
+	return true
+}
+
+// decidedByDescriptors reports whether a ranking needed the rules that
+// read configurations (3 to 5) to tell some pair apart; whether the
+// label would be lowercase does not matter here.
+func decidedByDescriptors(ds []Decision) bool {
+	for _, dc := range ds {
 		if dc.Rule >= Rule3 && dc.Rule <= Rule5 {
 			return true
 		}
 	}
 	return false
-}
-
-// pseudoCentre adds the unit of atom a when distinctByConfiguration
-// finds it stereogenic, ranking its ligands on the same digraph.
-func (l *labeller) pseudoCentre(a int) bool {
-	d := l.digraph(a)
-	defer l.release(d)
-	if !l.distinctByConfiguration(d, a) {
-		return false
-	}
-	l.unitAtoms[a] = true
-	l.res.Units = append(l.res.Units, l.unspecifiedCentre(a, d))
-	return true
 }
 
 // heldNitrogen reports whether a three-coordinate nitrogen cannot invert

@@ -71,7 +71,8 @@ func (d *digraph) referenceCandidates(root, a, af nodeID) []nodeID {
 		group int
 	}
 	q := []item{{step{a, af}, 0}}
-	ids := map[[2]int]int{}
+	ids := d.takeGroupIDs()
+	defer d.putGroupIDs(ids)
 	for len(q) > 0 && !d.capped {
 		var found []item
 		var next []item
@@ -127,7 +128,8 @@ func (d *digraph) likeSequence(root, a, af, ref nodeID) [][]int {
 		group int
 	}
 	type scored struct{ group, v int }
-	ids := map[[2]int]int{}
+	ids := d.takeGroupIDs()
+	defer d.putGroupIDs(ids)
 	newID := func(key [2]int) int {
 		id, ok := ids[key]
 		if !ok {
@@ -204,6 +206,27 @@ func (d *digraph) pathFirst(root, from nodeID, ks []nodeID, onPath func(nodeID) 
 		return out
 	}
 	return ks
+}
+
+// takeGroupIDs hands out an empty map for numbering tied groups. The
+// walks of this file nest (an auxiliary descriptor met on the way ranks
+// its own ligands, which may come back here), so the maps form a stack
+// kept by the digraph, as the walk queues do.
+func (d *digraph) takeGroupIDs() map[[2]int]int {
+	if n := len(d.groupIDs); n > 0 {
+		m := d.groupIDs[n-1]
+		d.groupIDs = d.groupIDs[:n-1]
+		return m
+	}
+	return map[[2]int]int{}
+}
+
+func (d *digraph) putGroupIDs(m map[[2]int]int) {
+	if len(m) > keepMemo {
+		return // clearing a large map costs more than a new one
+	}
+	clear(m)
+	d.groupIDs = append(d.groupIDs, m)
 }
 
 func compareSequences(a, b [][]int) int {

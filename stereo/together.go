@@ -120,7 +120,7 @@ func (l *labeller) together(members []member, report func(notation.Span, string)
 				continue
 			}
 			l.unitAtoms[m.atom] = true
-			l.res.Units = append(l.res.Units, l.unspecifiedCentre(m.atom, nil))
+			l.res.Units = append(l.res.Units, l.unspecifiedCentre(m.atom))
 			report(g.mol.Atoms[m.atom].Span, "stereocentre (together with another ring atom) without a configuration")
 		default:
 			if l.unitBonds[m.bond] {

@@ -384,11 +384,24 @@ func (c *canonState) chooseUnits(rank []int) {
 	c.keep = make([]bool, len(c.units))
 	c.ring = make([]bool, len(c.units))
 	var system [][2]int // per unit: its ring systems, when a ring unit
+	var spiros []int    // spiro centres between two symmetric rings
 	for i := range c.units {
 		u := &c.units[i]
 		if c.parity(u, rank) != 0 {
 			c.keep[i] = true
 			continue
+		}
+		if u.kind == keyTetrahedral {
+			// parity after tie-breaking; alone, no partner needed, else
+			// one in each ring (identity_spiro.go)
+			if alone, ok := c.g.spiroShape(u.centre, u.ligands, rank); ok {
+				if alone {
+					c.keep[i] = true
+				} else {
+					spiros = append(spiros, i)
+				}
+				continue
+			}
 		}
 		s, ok := c.ringCandidate(u, rank)
 		pair := [2]int{s, -1}
@@ -405,6 +418,7 @@ func (c *canonState) chooseUnits(rank []int) {
 	if system == nil {
 		return
 	}
+	defer c.keepSpiros(spiros)
 	parent := map[int]int{}
 	var root func(int) int
 	root = func(s int) int {

@@ -93,9 +93,14 @@ func potentialUnits(g *keyGraph) []keyUnit {
 			continue
 		}
 		u := keyUnit{kind: keyTetrahedral, centre: a, hand: 1, bond: -1, ligands: g.stereoOrder(a, count == 3)}
-		if cs.parity(&u, rank) != 0 {
+		alone, spiro := false, false
+		if cs.parity(&u, rank) == 0 {
+			alone, spiro = g.spiroShape(a, u.ligands, rank)
+		}
+		switch {
+		case cs.parity(&u, rank) != 0, spiro && alone:
 			definite = append(definite, u)
-		} else if oneTiedPair(u.ligands, rank) {
+		case spiro, oneTiedPair(u.ligands, rank):
 			tied = append(tied, u)
 		}
 	}

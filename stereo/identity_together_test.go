@@ -59,6 +59,15 @@ func TestIdentifyUnitsTogether(t *testing.T) {
 		{"4,4'-diethylbicyclohexylidene, E and Z", "CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@H](CC2)CC", "CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@@H](CC2)CC", other, Achiral},
 		{"4,4'-diethylbicyclohexylidene, both centres flipped", "CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@H](CC2)CC", "CC[C@H]1CC/C(/CC1)=C\\2/CC[C@@H](CC2)CC", same, Achiral},
 		{"4-methylbicyclohexylidene has no stereoisomers", "C[C@@H]1CC/C(/CC1)=C\\2/CCCCC2", "CC1CCC(CC1)=C1CCCCC1", same, Achiral},
+		// Spiranes (common practice): spiro[4.4]nonane-1,6-dione is
+		// axially chiral through its spiro centre alone, whose ligands
+		// tie by constitution; 2,6-dichlorospiro[3.3]heptane is axially
+		// chiral through its three centres together; in
+		// 2-chlorospiro[3.3]heptane nothing is stereogenic.
+		{"spiro[4.4]nonane-1,6-dione enantiomers", "O=C1[C@@]2(CCCC2=O)CCC1", "O=C1[C@]2(CCCC2=O)CCC1", mirror, Chiral},
+		{"2,6-dichlorospiro[3.3]heptane, one ring centre flipped", "Cl[C@H]1C[C@]2(C1)C[C@H](C2)Cl", "Cl[C@@H]1C[C@]2(C1)C[C@H](C2)Cl", mirror, Chiral},
+		{"2,6-dichlorospiro[3.3]heptane, spiro centre flipped too", "Cl[C@H]1C[C@]2(C1)C[C@H](C2)Cl", "Cl[C@@H]1C[C@@]2(C1)C[C@H](C2)Cl", same, Chiral},
+		{"2-chlorospiro[3.3]heptane", "Cl[C@H]1C[C@]2(C1)CCC2", "ClC1CC2(C1)CCC2", same, Achiral},
 		// the far end carries two equal ligands: no unit (common practice)
 		{"4-methyl-1-(propan-2-ylidene)cyclohexane", "C[C@H]1CCC(=C(C)C)CC1", "CC1CCC(=C(C)C)CC1", same, Achiral},
 
@@ -141,6 +150,10 @@ func TestStereoisomersTogether(t *testing.T) {
 		{"OC(=O)C=C1CCC(=CC(=O)O)CC1", 2, "cyclohexane-1,4-diylidenediacetic acid: the two bonds together, like a 1,4-disubstituted ring (worked by hand)"},
 		{"CCC1CCC(CC1)=C1CCC(CC)CC1", 2, "4,4'-diethylbicyclohexylidene: two achiral diastereomers (worked by hand)"},
 		{"CC1CCC(CC1)=C1CCCCC1", 1, "4-methylbicyclohexylidene: one ring centre alone (worked by hand)"},
+		{"O=C1C2(CCCC2=O)CCC1", 2, "spiro[4.4]nonane-1,6-dione: one axially chiral pair (common practice)"},
+		{"ClC1CC2(C1)CC(C2)Cl", 2, "2,6-dichlorospiro[3.3]heptane: one axially chiral pair (common practice)"},
+		{"ClC1CC2(C1)CCC2", 1, "2-chlorospiro[3.3]heptane: none (common practice)"},
+		{"C1CCC2(C1)CCCC2", 1, "spiro[4.4]nonane: none (common practice)"},
 		{"C1CC2CCC1C2", 1, "norbornane (common practice)"},
 		{"c1ccc2c(c1)CC1C3c4ccccc4C(c4ccccc43)C1C2", 3, "ethano-fused 9,10-dihydro-9,10-ethanoanthracene: cis (meso) and a trans pair; the bridgeheads follow (worked by hand)"},
 		{"CC1(C)C2CCC1(C)C(=O)C2", 2, "camphor: the two bridgeheads, one relative configuration (common practice)"},
@@ -166,6 +179,7 @@ func TestTogetherKeysOverWritings(t *testing.T) {
 		"CC=[C@]=C1CC[C@H](CC1)CC", "CC=[C@]=C1CCC(CC1)=[C@@]=CC",
 		"c1ccc2c(c1)C[C@@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", "O[C@H]1C[C@H]2C[C@@H](O)[C@@H]1CC2",
 		"C[C@@H](O)/C(=C/C)[C@@H](O)C", "CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@H](CC2)CC",
+		"O=C1[C@@]2(CCCC2=O)CCC1", "Cl[C@H]1C[C@]2(C1)C[C@H](C2)Cl",
 	} {
 		m := notation.Read(text)
 		want := Identify(m).Key

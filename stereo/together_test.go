@@ -1,6 +1,11 @@
 package stereo
 
 import (
+	"fmt"
+	"math/rand/v2"
+	"sort"
+	"strconv"
+	"strings"
 	"testing"
 
 	"stereoline/notation"
@@ -61,6 +66,65 @@ func TestStereogenicTogether(t *testing.T) {
 		if !ok {
 			t.Errorf("%s (%s): %s gives %d specified units and %v, want %d and %v",
 				c.name, c.source, c.smiles, specified, got, c.specified, c.want)
+		}
+	}
+}
+
+// TestPerceptionInvariance checks that what perception finds does not
+// depend on how a structure is written: over 10 random writings (atom
+// order, ring-closure numbers, branch order, Kekulé or aromatic), each
+// structure keeps its units (kind, atoms, specified, label) and the
+// number of diagnostics of each code. The structures are the cases of
+// the perception tests above and of bridgehead_test.go.
+func TestPerceptionInvariance(t *testing.T) {
+	structures := []string{
+		"CC1CCC(=CC(=O)O)CC1", "C[C@H]1CCC(CC1)=CC(=O)O", "CC1CC/C(=C/C(=O)O)CC1", "C[C@H]1CC/C(=C/C(=O)O)CC1",
+		"C[C@H]1CCC(C)CC1", "CC1CCC(C)CC1", "C[C@H]1CCCCC1", "C1CC/C(=C/C(=O)O)CC1",
+		"C/C=C/C=CC", "C[C@@H](O)C(=CC)[C@@H](O)C", "C[C@@H](O)C(=CC)[C@H](O)C",
+		"[C@H]12CC[C@H](C1)CC2", "CC1(C)[C@@H]2CC[C@@]1(C)C(=O)C2",
+		"c1ccc2c(c1)C[C@@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", "O[C@H]1C[C@H]2C[C@H](O)[C@@H]1CC2",
+		"CC1=CC2=C(C=C1)N3CC4=C(C=CC(=C4)C)N(C2)C3", "CC1=CC2=C(C=C1)[N@]3CC4=C(C=CC(=C4)C)[N@@](C2)C3",
+		"[C@H]12CC[C@@H]1CC2", "[C@H]12CCC[C@@H]1CCC2", "O=C(/C=C/c1ccccc1Cl)/C=C/c1ccccc1Cl",
+	}
+	describe := func(a *Analysis, order []int) string {
+		var parts []string
+		for _, u := range a.Units {
+			atoms := make([]string, len(u.Atoms))
+			for i, at := range u.Atoms {
+				if order != nil {
+					at = order[at]
+				}
+				atoms[i] = strconv.Itoa(at)
+			}
+			sort.Strings(atoms)
+			parts = append(parts, fmt.Sprintf("%s:%s:%v:%s", u.Kind, strings.Join(atoms, ","), u.Specified, u.Descriptor))
+		}
+		for _, e := range a.Diagnostics {
+			parts = append(parts, string(e.Code))
+		}
+		sort.Strings(parts)
+		return strings.Join(parts, " ")
+	}
+	for si, s := range structures {
+		m := notation.Read(s)
+		n := len(m.Atoms)
+		identity := make([]int, n)
+		for i := range identity {
+			identity[i] = i
+		}
+		want := describe(Analyze(m), identity)
+		rng := rand.New(rand.NewPCG(uint64(si), 7))
+		for k := 0; k < 10; k++ {
+			w := notation.Write(m, notation.WriteOptions{Random: rng, Kekule: k%2 == 1, Start: rng.IntN(n)})
+			if len(w.Unadjusted) > 0 || len(w.Dropped) > 0 {
+				continue
+			}
+			// units of the rewriting name its own atoms; w.Order maps
+			// them back to the atoms of the first writing
+			if got := describe(Analyze(notation.Read(w.Text)), w.Order); got != want {
+				t.Errorf("%s gives %s; its writing %s gives %s", s, want, w.Text, got)
+				break
+			}
 		}
 	}
 }

@@ -2,6 +2,7 @@ package stereo
 
 import (
 	"bufio"
+	"fmt"
 	"os"
 	"path/filepath"
 	"sort"
@@ -82,7 +83,8 @@ func TestRDKitCIP(t *testing.T) {
 	}
 }
 
-// TestInvarianceRDKitWritings checks that the labels of an isomer do not
+// TestInvarianceRDKitWritings checks that the labels of an isomer, and
+// the units and diagnostics perception finds in it, do not
 // depend on how it is written: the fixture carries each isomer in its
 // canonical and two random writings (atom order, ring-closure numbers
 // and branch order differ). Atom numbers differ between writings, so the
@@ -102,7 +104,18 @@ func TestInvarianceRDKitWritings(t *testing.T) {
 	for _, k := range keys {
 		var first string
 		for i, r := range byIsomer[k] {
-			ls := labelLetters(labelSet(Analyze(notation.Read(r.smiles))))
+			// the labels, and what perception finds: units by kind and
+			// whether specified, diagnostics by code
+			a := Analyze(notation.Read(r.smiles))
+			parts := []string{labelLetters(labelSet(a))}
+			for _, u := range a.Units {
+				parts = append(parts, fmt.Sprintf("%s/%v", u.Kind, u.Specified))
+			}
+			for _, e := range a.Diagnostics {
+				parts = append(parts, string(e.Code))
+			}
+			sort.Strings(parts[1:])
+			ls := strings.Join(parts, " ")
 			if i == 0 {
 				first = ls
 			} else if ls != first {

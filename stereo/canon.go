@@ -49,7 +49,8 @@ import (
 // A unit that still has no parity after step 3 is not stereogenic and is
 // left out of the key (the mark on the central carbon of propan-2-ol
 // means nothing), unless it is such a ring unit and another one shares
-// its ring system. The key is the serialisation of the final order:
+// its ring system (chooseUnits), or a spiro centre (identity_spiro.go).
+// The key is the serialisation of the final order:
 // atoms with their invariants, bonds as pairs of positions, and the kept
 // units with their parities.
 

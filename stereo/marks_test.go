@@ -48,3 +48,43 @@ func TestMarksAtABareDoubleBond(t *testing.T) {
 		}
 	}
 }
+
+// TestExchangingOxygens checks centres whose =O and -OH (or -O⁻) are one
+// ligand because the proton or the charge moves between them.
+func TestExchangingOxygens(t *testing.T) {
+	cases := []struct {
+		name, smiles string
+		labels       int // labelled centres
+		ineffective  int
+		undefined    int
+		source       string
+	}{
+		// a phosphonic acid monoester and its anion have no configuration
+		// at phosphorus; neither has a sulfinic acid (common practice)
+		{"phosphonic monoester", "C[P@](=O)(O)OC", 0, 1, 0, "common practice"},
+		{"phosphonate anion", "C[P@](=O)([O-])OC", 0, 1, 0, "common practice"},
+		{"sulfinic acid", "C[S@](=O)O", 0, 1, 0, "common practice"},
+		{"unmarked arsonic anhydride", "O=[As](O)(O[As](=O)(O)c1ccccc1)c1ccccc1", 0, 0, 0, "common practice"},
+		// different isotopes keep the oxygens apart (VS177 of the suite);
+		// a diester and a thiophosphonate (VS068) are stereocentres
+		{"isotopes", "[18O-][P@@](=O)(OC)[17O-]", 1, 0, 0, "CIP validation suite VS177"},
+		{"diester", "C[P@](=O)(OC)OCC", 1, 0, 0, "common practice"},
+		{"thiophosphonate", "S=[P@@]([O-])(C)OC(C)C", 1, 0, 0, "CIP validation suite VS068"},
+	}
+	for _, c := range cases {
+		a := Analyze(notation.Read(c.smiles))
+		labels := 0
+		for _, u := range a.Units {
+			if u.Descriptor.Labelled() {
+				labels++
+			}
+		}
+		got := map[notation.Code]int{}
+		for _, e := range a.Diagnostics {
+			got[e.Code]++
+		}
+		if labels != c.labels || got[CodeIneffectiveCenter] != c.ineffective || got[CodeUndefined] != c.undefined {
+			t.Errorf("%s (%s): %s gives %d labels and %v", c.name, c.source, c.smiles, labels, got)
+		}
+	}
+}

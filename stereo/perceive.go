@@ -24,7 +24,7 @@ func (l *labeller) perceiveUnmarked() {
 	}
 	var paired []int // candidate atoms with one pair of equal ring branches
 	for a := 0; a < g.n; a++ {
-		if l.unitAtoms[a] || !tetrahedralCapable(g, a) && !l.heldNitrogen(a) {
+		if l.unitAtoms[a] || !tetrahedralCapable(g, a) && !l.heldNitrogen(a) || exchangingOxygens(g, a) {
 			continue
 		}
 		distinct, pairInRing := ligandClasses(g, a, class)

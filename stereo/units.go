@@ -14,6 +14,10 @@ func (l *labeller) labelAll() {
 	for _, a := range sortedKeys(l.cfg.tetra) {
 		t := l.cfg.tetra[a]
 		l.unitAtoms[a] = true
+		if exchangingOxygens(l.g, a) {
+			l.warn(t.span, CodeIneffectiveCenter, "mark on an atom whose two terminal chalcogens (=O and -OH or -O⁻) exchange a proton or charge, so it is not a stereocentre")
+			continue
+		}
 		lb := l.tetrahedral(t)
 		if lb.capped {
 			lb.tie, lb.desc = false, DescUndetermined
@@ -240,6 +244,37 @@ func (l *labeller) invertingNitrogen(a int) bool {
 		}
 	}
 	return ringBonds < 3
+}
+
+// exchangingOxygens reports whether a phosphorus, arsenic, sulfur,
+// selenium or tellurium centre carries a terminal chalcogen by a double
+// bond and a terminal atom of the same element and isotope by a single
+// bond that has a hydrogen or a negative charge: the acid proton moves
+// between the two (and the anion is one resonance hybrid), so they are
+// the same ligand and the centre is no stereocentre (common practice;
+// a phosphonic acid monoester R-P(=O)(OH)-OR' has no configuration at
+// phosphorus). Isotopes that differ keep the two apart, as in VS177 of
+// the validation suite.
+func exchangingOxygens(g *graph, a int) bool {
+	if !hypervalentCentre(g.z[a]) {
+		return false
+	}
+	m := g.mol
+	for _, d := range g.adj[a] {
+		if d.order != 2 || len(g.adj[d.to]) != 1 || g.hyd[d.to] != 0 || !chalcogen(g.z[d.to]) {
+			continue
+		}
+		for _, s := range g.adj[a] {
+			t := &m.Atoms[s.to]
+			if s.order != 1 || len(g.adj[s.to]) != 1 || g.z[s.to] != g.z[d.to] || t.Isotope != m.Atoms[d.to].Isotope {
+				continue
+			}
+			if g.hyd[s.to] == 1 && t.Charge == 0 || g.hyd[s.to] == 0 && t.Charge == -1 {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 func sortedKeys[V any](m map[int]V) []int {

@@ -75,6 +75,13 @@ type canonState struct {
 	// reads those centres as in the mirror image.
 	sym      []int
 	mirrored bool
+
+	// ringRoot is, per ring unit, its ring system (systems joined by a
+	// ring link counting as one); related holds, per atom, the invariant
+	// of a cis/trans relation between two ring units
+	// (identity_relative.go)
+	ringRoot []int
+	related  []int
 }
 
 // canonResult is the outcome: the order (position -> atom), the rank of
@@ -104,6 +111,10 @@ func (c *canonState) run() canonResult {
 	if c.stereo {
 		rank = c.stereoRefine(rank)
 		c.chooseUnits(rank)
+		if c.relateRingPairs(rank) {
+			rank = c.stereoRefine(rank)
+			c.chooseUnits(rank)
+		}
 		c.sym = slices.Clone(rank)
 	}
 	return c.search(rank)
@@ -242,6 +253,12 @@ func (c *canonState) stereoRefine(rank []int) []int {
 			case keyDoubleBond:
 				extra[u.ends[0]] += 16 * code
 				extra[u.ends[1]] += 16 * code
+			}
+		}
+		if c.related != nil {
+			any = true
+			for a, code := range c.related {
+				extra[a] += code
 			}
 		}
 		if !any {
@@ -416,10 +433,10 @@ func (c *canonState) chooseUnits(rank []int) {
 			c.ring[i], system[i] = true, pair
 		}
 	}
+	c.ringRoot = nil
 	if system == nil {
 		return
 	}
-	defer c.keepSpiros(spiros)
 	parent := map[int]int{}
 	var root func(int) int
 	root = func(s int) int {
@@ -449,6 +466,18 @@ func (c *canonState) chooseUnits(rank []int) {
 			} else {
 				c.ring[i] = false
 			}
+		}
+	}
+	c.keepSpiros(spiros)
+	c.ringRoot = make([]int, len(c.units))
+	for i := range c.units {
+		switch {
+		case !c.ring[i]:
+			c.ringRoot[i] = -1
+		case slices.Contains(spiros, i):
+			c.ringRoot[i] = root(c.g.system[c.units[i].centre])
+		default:
+			c.ringRoot[i] = root(system[i][0])
 		}
 	}
 }
@@ -512,7 +541,23 @@ func (c *canonState) search(rank []int) canonResult {
 		c.leaves++
 		return c.leaf(rank)
 	}
-	// the lowest rank held by more than one atom
+	low, members := c.lowestTie(rank)
+	if !c.stereo || c.leaves >= canonLeafBudget || !c.pending(rank) {
+		members = members[:1]
+	}
+	var best canonResult
+	for i, a := range members {
+		r := c.search(c.moveAhead(rank, low, a))
+		if i == 0 || r.text < best.text {
+			best = r
+		}
+	}
+	return best
+}
+
+// lowestTie returns the lowest rank held by more than one atom and its
+// atoms.
+func (c *canonState) lowestTie(rank []int) (int, []int) {
 	count := map[int]int{}
 	for _, a := range c.atoms {
 		count[rank[a]]++
@@ -530,34 +575,30 @@ func (c *canonState) search(rank []int) canonResult {
 			members = append(members, a)
 		}
 	}
-	if !c.stereo || c.leaves >= canonLeafBudget || !c.pending(rank) {
-		members = members[:1]
-	}
-	var best canonResult
-	for i, a := range members {
-		next := make([]int, len(rank))
-		for _, x := range c.atoms {
-			next[x] = 2 * rank[x]
-			if rank[x] == low && x != a {
-				next[x]++
-			}
-		}
-		for x := range next {
-			if c.g.folded[x] {
-				next[x] = -1
-			}
-		}
-		next = c.rankBy(func(x, y int) int { return next[x] - next[y] })
-		next = c.refine(next)
-		if c.stereo {
-			next = c.stereoRefine(next)
-		}
-		r := c.search(next)
-		if i == 0 || r.text < best.text {
-			best = r
+	return low, members
+}
+
+// moveAhead breaks the tie of class low by moving atom a ahead of the
+// rest of its class, and refines.
+func (c *canonState) moveAhead(rank []int, low, a int) []int {
+	next := make([]int, len(rank))
+	for _, x := range c.atoms {
+		next[x] = 2 * rank[x]
+		if rank[x] == low && x != a {
+			next[x]++
 		}
 	}
-	return best
+	for x := range next {
+		if c.g.folded[x] {
+			next[x] = -1
+		}
+	}
+	next = c.rankBy(func(x, y int) int { return next[x] - next[y] })
+	next = c.refine(next)
+	if c.stereo {
+		next = c.stereoRefine(next)
+	}
+	return next
 }
 
 // leaf serialises a total order.

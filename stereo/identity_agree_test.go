@@ -28,7 +28,8 @@ func TestIdentityUnitsAgreeWithLabeller(t *testing.T) {
 		"CC1(C)[C@@H]2CC[C@@]1(C)C(=O)C2", "O[C@H]1C[C@H]2C[C@@H](O)[C@@H]1CC2", "O[C@H]1C[C@H]2C[C@H](O)[C@@H]1CC2",
 		"C[C@@H](O)/C(=C/C)[C@@H](O)C", "C[C@@H](O)/C(=C/C)[C@H](O)C", "C[C@@H](O)C(=CC)[C@@H](O)C",
 		"C[C@H]1CC[C@@H](C)CC1", "OC(=O)[C@H](O)[C@H](O)C(=O)O",
-		"O=C1[C@@]2(CCCC2=O)CCC1", "Cl[C@H]1C[C@]2(C1)C[C@H](C2)Cl", "Cl[C@H]1C[C@]2(C1)CCC2", "C/N=c1/sccn1C", "CCCC/N=c1/ssc(=O)n1CCCC",
+		"O=C1[C@@]2(CCCC2=O)CCC1", "Cl[C@H]1C[C@]2(C1)C[C@H](C2)Cl", "Cl[C@H]1C[C@]2(C1)CCC2",
+		"O[C@@H](C[C@H]1CC[C@@H](CC1)C)C[C@@H]2CC[C@@H](CC2)C", "O[C@@H](C[C@H]1CC[C@@H](CC1)C)C[C@H]2CC[C@@H](CC2)C", "C/N=c1/sccn1C", "CCCC/N=c1/ssc(=O)n1CCCC",
 		"CC=[C@]=C1CC[C@H](CC1)CC", "CC=[C@]=C1CCC(CC1)=[C@@]=CC", "CC=[C@]=C1CCCCC1",
 		"CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@H](CC2)CC", "CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@@H](CC2)CC",
 	}

@@ -68,6 +68,14 @@ func TestIdentifyUnitsTogether(t *testing.T) {
 		{"2,6-dichlorospiro[3.3]heptane, one ring centre flipped", "Cl[C@H]1C[C@]2(C1)C[C@H](C2)Cl", "Cl[C@@H]1C[C@]2(C1)C[C@H](C2)Cl", mirror, Chiral},
 		{"2,6-dichlorospiro[3.3]heptane, spiro centre flipped too", "Cl[C@H]1C[C@]2(C1)C[C@H](C2)Cl", "Cl[C@@H]1C[C@@]2(C1)C[C@H](C2)Cl", same, Chiral},
 		{"2-chlorospiro[3.3]heptane", "Cl[C@H]1C[C@]2(C1)CCC2", "ClC1CC2(C1)CCC2", same, Achiral},
+		// 1,3-bis(4-methylcyclohexyl)propan-2-ol: with one cis and one
+		// trans ring the central carbon's branches differ, so it is a
+		// stereocentre and the compound chiral; with two rings alike it
+		// is none (worked by hand; the labeller agrees, R/S or no unit).
+		// The first writing has unlike rings, the third like ones.
+		{"bis(methylcyclohexyl)propanol, unlike rings, centre flipped", "O[C@@H](C[C@H]1CC[C@@H](CC1)C)C[C@@H]2CC[C@@H](CC2)C", "O[C@H](C[C@H]1CC[C@@H](CC1)C)C[C@@H]2CC[C@@H](CC2)C", mirror, Chiral},
+		{"bis(methylcyclohexyl)propanol, unlike and like rings", "O[C@@H](C[C@H]1CC[C@@H](CC1)C)C[C@@H]2CC[C@@H](CC2)C", "O[C@@H](C[C@H]1CC[C@@H](CC1)C)C[C@H]2CC[C@@H](CC2)C", other, Chiral},
+		{"bis(methylcyclohexyl)propanol, like rings, centre flipped", "O[C@@H](C[C@H]1CC[C@@H](CC1)C)C[C@H]2CC[C@@H](CC2)C", "O[C@H](C[C@H]1CC[C@@H](CC1)C)C[C@H]2CC[C@@H](CC2)C", same, Achiral},
 		// the far end carries two equal ligands: no unit (common practice)
 		{"4-methyl-1-(propan-2-ylidene)cyclohexane", "C[C@H]1CCC(=C(C)C)CC1", "CC1CCC(=C(C)C)CC1", same, Achiral},
 
@@ -154,6 +162,7 @@ func TestStereoisomersTogether(t *testing.T) {
 		{"ClC1CC2(C1)CC(C2)Cl", 2, "2,6-dichlorospiro[3.3]heptane: one axially chiral pair (common practice)"},
 		{"ClC1CC2(C1)CCC2", 1, "2-chlorospiro[3.3]heptane: none (common practice)"},
 		{"C1CCC2(C1)CCCC2", 1, "spiro[4.4]nonane: none (common practice)"},
+		{"OC(CC1CCC(C)CC1)CC1CCC(C)CC1", 4, "1,3-bis(4-methylcyclohexyl)propan-2-ol: cis,cis and trans,trans (achiral) and a cis,trans pair of enantiomers (worked by hand)"},
 		{"C1CC2CCC1C2", 1, "norbornane (common practice)"},
 		{"c1ccc2c(c1)CC1C3c4ccccc4C(c4ccccc43)C1C2", 3, "ethano-fused 9,10-dihydro-9,10-ethanoanthracene: cis (meso) and a trans pair; the bridgeheads follow (worked by hand)"},
 		{"CC1(C)C2CCC1(C)C(=O)C2", 2, "camphor: the two bridgeheads, one relative configuration (common practice)"},
@@ -180,6 +189,7 @@ func TestTogetherKeysOverWritings(t *testing.T) {
 		"c1ccc2c(c1)C[C@@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", "O[C@H]1C[C@H]2C[C@@H](O)[C@@H]1CC2",
 		"C[C@@H](O)/C(=C/C)[C@@H](O)C", "CC[C@@H]1CC/C(/CC1)=C\\2/CC[C@H](CC2)CC",
 		"O=C1[C@@]2(CCCC2=O)CCC1", "Cl[C@H]1C[C@]2(C1)C[C@H](C2)Cl",
+		"O[C@@H](C[C@H]1CC[C@@H](CC1)C)C[C@@H]2CC[C@@H](CC2)C",
 	} {
 		m := notation.Read(text)
 		want := Identify(m).Key

@@ -114,6 +114,8 @@ type labeller struct {
 	effective     map[int]bool // by bond: marks that configure a labelled double bond
 	bicycleList   []bicycle    // small bicycles, found on first use (bridgehead.go)
 	bicyclesFound bool
+	blocks        []int // by bond: ring system, found on first use (together.go)
+	unjoined      []int // ring-paired atoms that found no partner (together.go)
 }
 
 func (l *labeller) warn(sp notation.Span, code notation.Code, format string, args ...any) *notation.Error {

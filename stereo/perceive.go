@@ -23,6 +23,7 @@ func (l *labeller) perceiveUnmarked() {
 		e.Severity = sev
 	}
 	var paired []int // candidate atoms with one pair of equal ring branches
+	var relays []int // spiro atoms with two pairs (together.go)
 	for a := 0; a < g.n; a++ {
 		if l.unitAtoms[a] || !tetrahedralCapable(g, a) && !l.heldNitrogen(a) || exchangingOxygens(g, a) {
 			continue
@@ -40,6 +41,8 @@ func (l *labeller) perceiveUnmarked() {
 			report(g.mol.Atoms[a].Span, "stereocentre (made so by the configurations around it) without a configuration")
 		case pairInRing:
 			paired = append(paired, a)
+		case l.spiroRelay(a):
+			relays = append(relays, a)
 		}
 	}
 	// units stereogenic together: two paired atoms or exocyclic double
@@ -47,6 +50,9 @@ func (l *labeller) perceiveUnmarked() {
 	members := l.halfMarked
 	for _, a := range paired {
 		members = append(members, member{atom: a, bond: -1})
+	}
+	for _, a := range relays {
+		members = append(members, member{atom: a, bond: -1, relay: true})
 	}
 	for bi := range g.mol.Bonds {
 		if l.unitBonds[bi] || g.ringBond[bi] || bondOrder(&g.mol.Bonds[bi]) != 2 {
@@ -57,6 +63,15 @@ func (l *labeller) perceiveUnmarked() {
 		}
 	}
 	l.together(members, report)
+	// a ring-paired atom with no partner may still have its two ring
+	// branches told apart by configurations written elsewhere (the
+	// 3-position of a cis-fused bicyclo[3.3.0]octane whose bridgeheads
+	// are marked: exo or endo)
+	for _, a := range l.unjoined {
+		if l.anyMarks && !l.unitAtoms[a] && l.configuredRingPair(a) && l.pseudoCentre(a) {
+			report(g.mol.Atoms[a].Span, "stereocentre (made so by the configurations around it) without a configuration")
+		}
+	}
 	// allenes and even cumulenes: two different ligands at each end
 	for a := 0; a < g.n; a++ {
 		if l.unitAtoms[a] {
@@ -214,6 +229,25 @@ func (l *labeller) configuredBondPair(a, b int) bool {
 		return false
 	}
 	return l.configuredNear(x, a, 6) && l.configuredNear(y, a, 6)
+}
+
+// configuredRingPair is configuredPair for an atom whose equal pair lies
+// on ring bonds: both branches lead to a configured atom within a few
+// bonds.
+func (l *labeller) configuredRingPair(a int) bool {
+	g := l.g
+	n := 0
+	for i, e := range g.adj[a] {
+		for _, f := range g.adj[a][i+1:] {
+			if g.ringBond[e.bond] && g.ringBond[f.bond] && l.classes.of(e.to) == l.classes.of(f.to) {
+				if !l.configuredNear(e.to, a, 6) || !l.configuredNear(f.to, a, 6) {
+					return false
+				}
+				n++
+			}
+		}
+	}
+	return n == 1
 }
 
 // configuredNear reports whether an atom with a written configuration

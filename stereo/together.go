@@ -1,6 +1,10 @@
 package stereo
 
-import "stereoline/notation"
+import (
+	"slices"
+
+	"stereoline/notation"
+)
 
 // Units stereogenic only together. A ring atom whose two ring branches
 // are constitutionally equal is no stereocentre on its own, yet two such
@@ -20,9 +24,13 @@ type member struct {
 	bond, other int
 	// marked members carry marks that decide nothing alone
 	marked bool
-	tetra  *tetraConfig
-	bondc  *bondConfig
-	lb     label
+	// relay members are spiro atoms: two pairs of equal ring branches,
+	// one pair in each of two ring systems, which pass the relation
+	// between members on either side (spiro[3.3]heptane-2,6-diyl)
+	relay bool
+	tetra *tetraConfig
+	bondc *bondConfig
+	lb    label
 }
 
 // ringPaired reports whether atom a has exactly one pair of
@@ -83,31 +91,14 @@ func (l *labeller) together(members []member, report func(notation.Span, string)
 		}
 	}
 	members = kept
-	joined := make([]bool, len(members))
-	if len(members) >= 2 {
-		for _, ring := range g.smallRings() {
-			var on []int
-			for i, m := range members {
-				for _, r := range ring {
-					if r == m.atom {
-						on = append(on, i)
-						break
-					}
-				}
-			}
-			if len(on) < 2 {
-				continue
-			}
-			for _, i := range on {
-				joined[i] = true
-			}
-		}
-	}
+	joined := l.joinMembers(members)
 	for i, m := range members {
 		switch {
 		case !joined[i] && m.marked:
 			l.alone(m)
+		case !joined[i] && m.relay:
 		case !joined[i]:
+			l.unjoined = append(l.unjoined, m.atom)
 		case m.marked && m.bond < 0:
 			l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{m.atom}, Centre: m.atom, Bond: -1,
 				Ranked: m.lb.ranked, Decisions: m.lb.decisions, Marks: []notation.Span{m.tetra.span}})
@@ -121,7 +112,11 @@ func (l *labeller) together(members []member, report func(notation.Span, string)
 			}
 			l.unitAtoms[m.atom] = true
 			l.res.Units = append(l.res.Units, l.unspecifiedCentre(m.atom))
-			report(g.mol.Atoms[m.atom].Span, "stereocentre (together with another ring atom) without a configuration")
+			if m.relay {
+				report(g.mol.Atoms[m.atom].Span, "spiro atom stereogenic together with ring atoms on both sides, without a configuration")
+			} else {
+				report(g.mol.Atoms[m.atom].Span, "stereocentre (together with another ring atom) without a configuration")
+			}
 		default:
 			if l.unitBonds[m.bond] {
 				continue
@@ -131,6 +126,137 @@ func (l *labeller) together(members []member, report func(notation.Span, string)
 			report(g.mol.Bonds[m.bond].Span, "stereogenic double bond (together with a ring atom) without a configuration")
 		}
 	}
+}
+
+// joinMembers says which members are stereogenic together: those that
+// share a ring system with another non-relay member, directly or
+// through spiro atoms (relays) that link their ring systems. A ring
+// system here is a set of rings sharing bonds; the two rings of a spiro
+// atom are two systems.
+func (l *labeller) joinMembers(members []member) []bool {
+	joined := make([]bool, len(members))
+	if len(members) < 2 {
+		return joined
+	}
+	block := l.ringBlocks()
+	// groups of ring systems, merged through the relays
+	parent := map[int]int{}
+	var find func(int) int
+	find = func(x int) int {
+		p, ok := parent[x]
+		if !ok || p == x {
+			return x
+		}
+		r := find(p)
+		parent[x] = r
+		return r
+	}
+	blocksOf := func(a int) []int {
+		var out []int
+		for _, e := range l.g.adj[a] {
+			if b := block[e.bond]; b >= 0 && !slices.Contains(out, b) {
+				out = append(out, b)
+			}
+		}
+		return out
+	}
+	for _, m := range members {
+		if m.relay {
+			if bs := blocksOf(m.atom); len(bs) == 2 {
+				parent[find(bs[0])] = find(bs[1])
+			}
+		}
+	}
+	count := map[int]int{}
+	for _, m := range members {
+		if !m.relay {
+			for _, b := range blocksOf(m.atom) {
+				count[find(b)]++
+			}
+		}
+	}
+	for i, m := range members {
+		for _, b := range blocksOf(m.atom) {
+			if count[find(b)] >= 2 {
+				joined[i] = true
+			}
+		}
+	}
+	return joined
+}
+
+// ringBlocks numbers, per bond, the ring system the bond lies in (-1
+// off rings): the smallest rings through each bond, merged where they
+// share a bond.
+func (l *labeller) ringBlocks() []int {
+	if l.blocks != nil {
+		return l.blocks
+	}
+	g := l.g
+	nb := len(g.mol.Bonds)
+	parent := make([]int, nb)
+	for i := range parent {
+		parent[i] = i
+	}
+	var find func(int) int
+	find = func(x int) int {
+		for parent[x] != x {
+			parent[x] = parent[parent[x]]
+			x = parent[x]
+		}
+		return x
+	}
+	for _, ring := range g.smallRings() {
+		first := -1
+		for i := range ring {
+			bi := g.mol.BondBetween(ring[i], ring[(i+1)%len(ring)])
+			if bi < 0 {
+				continue
+			}
+			if first < 0 {
+				first = bi
+				continue
+			}
+			parent[find(bi)] = find(first)
+		}
+	}
+	out := make([]int, nb)
+	for bi := range out {
+		out[bi] = -1
+		if g.ringBond[bi] {
+			out[bi] = find(bi)
+		}
+	}
+	l.blocks = out
+	return out
+}
+
+// spiroRelay reports whether atom a is a spiro atom whose four ring
+// ligands form two pairs of constitutionally equal branches, each pair
+// in one of its two ring systems.
+func (l *labeller) spiroRelay(a int) bool {
+	g := l.g
+	if len(g.adj[a]) != 4 || g.hyd[a] != 0 || ringDegree(g, a) != 4 || g.doubleBonds(a) > 0 {
+		return false
+	}
+	block := l.ringBlocks()
+	adj := g.adj[a]
+	for i, e := range adj {
+		// the partner in e's ring system must be its equal
+		partners := 0
+		for j, f := range adj {
+			if i != j && block[f.bond] == block[e.bond] {
+				partners++
+				if l.classes.of(f.to) != l.classes.of(e.to) {
+					return false
+				}
+			}
+		}
+		if partners != 1 {
+			return false
+		}
+	}
+	return true
 }
 
 // alone reports the marks of a member that found no partner.

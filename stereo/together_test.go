@@ -3,6 +3,7 @@ package stereo
 import (
 	"fmt"
 	"math/rand/v2"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -46,6 +47,26 @@ func TestStereogenicTogether(t *testing.T) {
 		// (R) branches are the same, the (R) and (S) ones mirror images)
 		{"double bond between R and S", "C[C@@H](O)C(=CC)[C@@H](O)C", 2, map[notation.Code]int{CodeUndefined: 1}, "worked by hand"},
 		{"double bond between R and R", "C[C@@H](O)C(=CC)[C@H](O)C", 2, map[notation.Code]int{}, "worked by hand"},
+		// spiro[3.3]heptane-2,6-dicarboxylic acid (Fecht's acid) is
+		// axially chiral (common practice); RDKit 2022.09's
+		// FindPotentialStereo flags the same three atoms unmarked. Its
+		// two ring carbons are written relative to their ring
+		// neighbours, so the spiro atom needs a mark too
+		{"Fecht's acid unmarked", "OC(=O)C1CC2(C1)CC(C2)C(=O)O", 0, map[notation.Code]int{CodeUndefined: 3}, "common practice; RDKit FindPotentialStereo"},
+		{"Fecht's acid, spiro atom open", "OC(=O)[C@H]1CC2(C1)C[C@@H](C2)C(=O)O", 0, map[notation.Code]int{CodeUndefined: 1}, "worked by hand"},
+		{"Fecht's acid marked", "OC(=O)[C@H]1C[C@]2(C1)C[C@@H](C2)C(=O)O", 3, map[notation.Code]int{}, "worked by hand"},
+		{"3,9-dimethylspiro[5.5]undecane", "CC1CCC2(CC1)CCC(C)CC2", 0, map[notation.Code]int{CodeUndefined: 3}, "RDKit FindPotentialStereo"},
+		// one substituent only: no partner across the spiro atom
+		{"spiro[3.3]heptane-2-carboxylic acid", "OC(=O)C1CC2(C1)CCC2", 0, map[notation.Code]int{}, "common practice"},
+		// 2,6-dimethyladamantane: the two CHMe carbons share the cage but
+		// no smallest ring (worked by hand; RDKit flags them too, and the
+		// bridgeheads, whose configuration the cage fixes)
+		{"2,6-dimethyladamantane", "CC1C2CC3CC1CC(C2)C3C", 0, map[notation.Code]int{CodeUndefined: 2}, "worked by hand"},
+		// 3-methyl-cis-bicyclo[3.3.0]octane: exo or endo, fixed against
+		// the marked bridgeheads; in the trans-fused isomer the two
+		// branches of C3 are related by a twofold axis (worked by hand)
+		{"bicyclo[3.3.0]octane, cis", "CC1C[C@H]2CCC[C@H]2C1", 2, map[notation.Code]int{CodeUndefined: 1}, "worked by hand"},
+		{"bicyclo[3.3.0]octane, trans", "CC1C[C@H]2CCC[C@@H]2C1", 2, map[notation.Code]int{}, "worked by hand"},
 	}
 	for _, c := range cases {
 		a := Analyze(notation.Read(c.smiles))
@@ -85,6 +106,8 @@ func TestPerceptionInvariance(t *testing.T) {
 		"c1ccc2c(c1)C[C@@H]1C3c4ccccc4C(c4ccccc43)[C@H]1C2", "O[C@H]1C[C@H]2C[C@H](O)[C@@H]1CC2",
 		"CC1=CC2=C(C=C1)N3CC4=C(C=CC(=C4)C)N(C2)C3", "CC1=CC2=C(C=C1)[N@]3CC4=C(C=CC(=C4)C)[N@@](C2)C3",
 		"[C@H]12CC[C@@H]1CC2", "[C@H]12CCC[C@@H]1CCC2", "O=C(/C=C/c1ccccc1Cl)/C=C/c1ccccc1Cl",
+		"OC(=O)C1CC2(C1)CC(C2)C(=O)O", "OC(=O)[C@H]1CC2(C1)C[C@@H](C2)C(=O)O", "OC(=O)[C@H]1C[C@]2(C1)C[C@@H](C2)C(=O)O",
+		"CC1C2CC3CC1CC(C2)C3C", "CC1C[C@H]2CCC[C@H]2C1", "CC1C[C@H]2CCC[C@@H]2C1",
 	}
 	describe := func(a *Analysis, order []int) string {
 		var parts []string
@@ -125,6 +148,49 @@ func TestPerceptionInvariance(t *testing.T) {
 				t.Errorf("%s gives %s; its writing %s gives %s", s, want, w.Text, got)
 				break
 			}
+		}
+	}
+}
+
+// TestSpiroMarksTogether checks the three marks of Fecht's acid as one
+// unit: it has two stereoisomers, so turning two of the marks gives the
+// same compound and turning one gives its mirror image (worked by hand
+// from the renaming that swaps the two branches of one ring).
+func TestSpiroMarksTogether(t *testing.T) {
+	base := "OC(=O)[C@H]1C[C@]2(C1)C[C@@H](C2)C(=O)O"
+	same := []string{
+		"OC(=O)[C@@H]1C[C@@]2(C1)C[C@@H](C2)C(=O)O",
+		"OC(=O)[C@@H]1C[C@]2(C1)C[C@H](C2)C(=O)O",
+		"OC(=O)[C@H]1C[C@@]2(C1)C[C@H](C2)C(=O)O",
+	}
+	mirrors := []string{
+		"OC(=O)[C@@H]1C[C@]2(C1)C[C@@H](C2)C(=O)O",
+		"OC(=O)[C@H]1C[C@@]2(C1)C[C@@H](C2)C(=O)O",
+		"OC(=O)[C@H]1C[C@]2(C1)C[C@H](C2)C(=O)O",
+	}
+	labels := func(s string) []Descriptor {
+		var out []Descriptor
+		for _, u := range Analyze(notation.Read(s)).Units {
+			out = append(out, u.Descriptor)
+		}
+		return out
+	}
+	want := labels(base)
+	if len(want) != 3 {
+		t.Fatalf("%s: %d units, want 3", base, len(want))
+	}
+	for _, s := range same {
+		if got := labels(s); !slices.Equal(got, want) {
+			t.Errorf("%s: %v, want the labels of %s, %v", s, got, base, want)
+		}
+	}
+	var mirrored []Descriptor
+	for _, d := range want {
+		mirrored = append(mirrored, d.Mirror())
+	}
+	for _, s := range mirrors {
+		if got := labels(s); !slices.Equal(got, mirrored) {
+			t.Errorf("%s: %v, want the mirror labels %v", s, got, mirrored)
 		}
 	}
 }

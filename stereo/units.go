@@ -23,10 +23,10 @@ func (l *labeller) labelAll() {
 			lb.tie, lb.desc = false, DescUndetermined
 		}
 		if lb.tie {
-			if l.ringPaired(a) {
+			if relay := l.spiroRelay(a); relay || l.ringPaired(a) {
 				// may be stereogenic together with another ring atom:
 				// decided once every candidate is known (together.go)
-				l.halfMarked = append(l.halfMarked, member{atom: a, bond: -1, marked: true, tetra: t, lb: lb})
+				l.halfMarked = append(l.halfMarked, member{atom: a, bond: -1, marked: true, relay: relay, tetra: t, lb: lb})
 				continue
 			}
 			l.warn(t.span, CodeIneffectiveCenter, "mark on an atom that is not a stereocentre: two of its ligands are the same")

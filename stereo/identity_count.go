@@ -59,7 +59,8 @@ func Stereoisomers(m *notation.Molecule) StereoisomerCount {
 
 // potentialUnits finds the units that could be stereogenic: tetrahedral
 // centres whose ligands differ by constitution, or tie in a way that
-// stereo elsewhere could break; double bonds outside small rings with two
+// stereo elsewhere or a tie-break could resolve (a ring centre, a spiro
+// centre, identity_spiro.go); double bonds outside small rings with two
 // different substituents at each end, or tied ones (an exocyclic bond
 // opposite a ring centre, a bond between branches that differ only in
 // configuration); allenes likewise. Configurations

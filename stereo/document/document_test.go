@@ -225,3 +225,18 @@ func TestHoverReaction(t *testing.T) {
 		t.Errorf("hover:\n%s", md)
 	}
 }
+
+// TestHoverHalfMarked: in 1,4-dimethylcyclohexane with one ring carbon
+// marked (cis and trans exist; common practice), the hover on the
+// marked carbon says its mark waits for its partner.
+func TestHoverHalfMarked(t *testing.T) {
+	text := "C[C@H]1CCC(C)CC1\n"
+	res := analyze(t, "x.smi", text)
+	md, _, ok := res.Hover(strings.Index(text, "@"))
+	if !ok {
+		t.Fatalf("no hover on the mark")
+	}
+	if !strings.Contains(md, "only together with the configuration of another unit") {
+		t.Errorf("hover does not say the mark waits for a partner:\n%s", md)
+	}
+}

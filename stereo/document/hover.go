@@ -172,6 +172,9 @@ func writeUnit(b *strings.Builder, rec *Record, u *stereo.Unit) {
 		fmt.Fprintf(b, "**(%s)** %s", u.Descriptor, kindName(u.Kind))
 	case u.Descriptor == stereo.DescUndetermined:
 		fmt.Fprintf(b, "**undetermined** %s (the ranking gave up before telling the ligands apart)", kindName(u.Kind))
+	case !u.Specified && len(u.Marks) > 0:
+		// a member of units stereogenic together whose partner is unmarked
+		fmt.Fprintf(b, "**unspecified** %s: its mark means something only together with the configuration of another unit, which is not marked", kindName(u.Kind))
 	case !u.Specified:
 		fmt.Fprintf(b, "**unspecified** %s: the notation leaves this configuration open", kindName(u.Kind))
 	default:

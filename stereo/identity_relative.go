@@ -42,13 +42,23 @@ func (c *canonState) relateRingPairs(rank []int) bool {
 		}
 	}
 	slices.Sort(roots)
-	added := false
+	var pairs [][]int
+	var members []int
 	for _, r := range roots {
-		pair := bySystem[r]
-		if len(pair) != 2 || !c.onOneRing(pair[0], pair[1]) {
-			continue
+		if pair := bySystem[r]; len(pair) == 2 && c.onOneRing(pair[0], pair[1]) {
+			pairs = append(pairs, pair)
+			members = append(members, pair...)
 		}
-		p0, p1 := c.trialParities(rank, pair[0], pair[1])
+	}
+	if len(pairs) == 0 {
+		return false
+	}
+	// one trial order serves every pair: each product is the same on
+	// any order
+	p := c.trialParities(rank, members)
+	added := false
+	for _, pair := range pairs {
+		p0, p1 := p[pair[0]], p[pair[1]]
 		if p0 == 0 || p1 == 0 {
 			continue
 		}
@@ -85,19 +95,22 @@ func (c *canonState) onOneRing(i, j int) bool {
 }
 
 // trialParities breaks ties, each time moving the first atom of the
-// lowest tied class ahead, until both units have a parity, and returns
-// the two (0 when the order became total first).
-func (c *canonState) trialParities(rank []int, i, j int) (int, int) {
+// lowest tied class ahead, until every unit listed has a parity, and
+// returns the parity of each unit by index (0 for units that had none
+// when the order became total).
+func (c *canonState) trialParities(rank []int, list []int) map[int]int {
+	out := map[int]int{}
 	for step := 0; step <= len(c.atoms); step++ {
-		pi, pj := c.parity(&c.units[i], rank), c.parity(&c.units[j], rank)
-		if pi != 0 && pj != 0 {
-			return pi, pj
+		done := true
+		for _, i := range list {
+			out[i] = c.parity(&c.units[i], rank)
+			done = done && out[i] != 0
 		}
-		if c.classes(rank) == len(c.atoms) {
+		if done || c.classes(rank) == len(c.atoms) {
 			break
 		}
 		low, members := c.lowestTie(rank)
 		rank = c.moveAhead(rank, low, members[0])
 	}
-	return 0, 0
+	return out
 }

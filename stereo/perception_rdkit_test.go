@@ -559,6 +559,74 @@ var perceptionRules = []perceptionRule{
 	},
 }
 
+// markOutcomes names what became of each mark written in a marked row:
+// whether RDKit keeps it (by both perceptions, one or neither) beside
+// whether we specify a unit with it or which diagnostics we give on it,
+// so that our ineffective- and impossible-mark diagnostics can be read
+// against RDKit's clean-up.
+func (p *perceived) markOutcomes() []string {
+	var out []string
+	outcome := func(what, name string, spans []notation.Span) {
+		rd := "RDKit drops it"
+		switch inNew, inOld := slices.Contains(p.row.atoms, name) || slices.Contains(p.row.bonds, name),
+			slices.Contains(p.row.legacyAtoms, name) || slices.Contains(p.row.legacyBonds, name); {
+		case inNew && inOld:
+			rd = "RDKit keeps it"
+		case inNew:
+			rd = "only RDKit's new perception keeps it"
+		case inOld:
+			rd = "only RDKit's legacy perception keeps it"
+		}
+		var ours []string
+		if p.units[name] {
+			ours = append(ours, "we specify a unit")
+		}
+		for _, e := range p.a.Diagnostics {
+			for _, sp := range spans {
+				if e.Span == sp || slices.ContainsFunc(e.Related, func(r notation.Related) bool { return r.Span == sp }) {
+					ours = append(ours, string(e.Code))
+					break
+				}
+			}
+		}
+		if len(ours) == 0 {
+			ours = []string{"we say nothing"}
+		}
+		slices.Sort(ours)
+		out = append(out, fmt.Sprintf("%s: %s; %s", what, rd, strings.Join(slices.Compact(ours), ", ")))
+	}
+	for a := range p.m.Atoms {
+		if ch := p.m.Atoms[a].Chirality; ch.Class != notation.ChiralNone {
+			outcome("mark on an atom", strconv.Itoa(a), []notation.Span{ch.Span})
+		}
+	}
+	for bi := range p.m.Bonds {
+		b := &p.m.Bonds[bi]
+		if b.Order != notation.OrderDouble {
+			continue
+		}
+		var spans []notation.Span
+		ends := 0
+		for _, e := range []int{b.Begin, b.End} {
+			marked := false
+			_, bs := p.neighbours(e)
+			for _, oi := range bs {
+				if o := &p.m.Bonds[oi]; oi != bi && (o.Dir != notation.DirNone || o.CloseDir != notation.DirNone) {
+					marked = true
+					spans = append(spans, o.Span, o.CloseSpan)
+				}
+			}
+			if marked {
+				ends++
+			}
+		}
+		if ends == 2 {
+			outcome("marks on a double bond", bondName(b.Begin, b.End), spans)
+		}
+	}
+	return out
+}
+
 // perceptionTally counts one comparison.
 type perceptionTally struct {
 	both, ours, rdkit int
@@ -600,6 +668,7 @@ func TestRDKitPerception(t *testing.T) {
 	used := make([]int, len(perceptionRules))
 	var unexplained, suspects []string
 	otherGeometry := 0
+	outcomes := map[string]int{}
 	for i := range rows {
 		r := &rows[i]
 		if len(r.classes) == 0 {
@@ -623,6 +692,11 @@ func TestRDKitPerception(t *testing.T) {
 				continue
 			}
 			unexplained = append(unexplained, fmt.Sprintf("%s %s: RDKit unit %s  %s", r.set, r.id, o, r.smiles))
+		}
+		if r.set == markedSet {
+			for _, o := range p.markOutcomes() {
+				outcomes[o]++
+			}
 		}
 		for _, bond := range []bool{false, true} {
 			kind := r.set + " centres"
@@ -701,6 +775,14 @@ func TestRDKitPerception(t *testing.T) {
 		t.Logf("%s, against %s: %v; against the legacy perception: %v", kind, what, tally[kind], legacy[kind])
 	}
 	t.Logf("RDKit's possible square-planar, trigonal-bipyramidal and octahedral centres (atoms with 4 to 6 ligands), which we do not perceive unmarked: %d", otherGeometry)
+	var keys []string
+	for k := range outcomes {
+		keys = append(keys, k)
+	}
+	slices.Sort(keys)
+	for _, k := range keys {
+		t.Logf("%4d %s", outcomes[k], k)
+	}
 	for k, rule := range perceptionRules {
 		t.Logf("rule %q (%s, only %s): %d", rule.name, rule.set, rule.side, used[k])
 	}

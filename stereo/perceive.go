@@ -441,7 +441,7 @@ func bondEnd(g *graph, a, b int) (doubleBondEnd, bool) {
 	}
 	switch end.n {
 	case 1:
-		return end, g.hyd[a] == 1 || (g.hyd[a] == 0 && g.z[a] == notation.ElemN)
+		return end, g.hyd[a] == 1 || (g.hyd[a] == 0 && pnictogen(g.z[a]))
 	case 2:
 		return end, true
 	}
@@ -563,4 +563,12 @@ func classOrder(g *graph, a int, e edge) int {
 		return 5
 	}
 	return e.order
+}
+
+// pnictogen reports the elements whose double-bonded, two-coordinate
+// atoms keep a lone pair as their second ligand: the nitrogen of an
+// imine or azo group, and its heavier kin in phosphaalkenes, diphosphenes
+// and diarsenes (common practice).
+func pnictogen(z int) bool {
+	return z == notation.ElemN || z == notation.ElemP || z == notation.ElemAs || z == 51 // antimony
 }

@@ -145,3 +145,49 @@ func hasCode(a *Analysis, code notation.Code) bool {
 	}
 	return false
 }
+
+// TestMarksAgreeWithPerception checks perception against itself over the
+// fixture: every unit found in an isomer with its marks removed must be
+// found, labelled or open, in the marked isomer (unless its marks are
+// impossible, the documented bridgehead cases above), and every unit
+// found only with the marks must owe its existence to them: its ranking
+// needed the rules that read configurations (3 to 5).
+func TestMarksAgreeWithPerception(t *testing.T) {
+	strip := func(s string) string {
+		return strings.Map(func(r rune) rune {
+			if r == '@' || r == '/' || r == '\\' {
+				return -1
+			}
+			return r
+		}, s)
+	}
+	key := func(u Unit) string { return fmt.Sprint(u.Kind, u.Atoms) }
+	rows := readRDKitCIP(t)
+	lost, gained := 0, 0
+	for _, r := range rows {
+		marked := Analyze(notation.Read(r.smiles))
+		if hasCode(marked, CodeImpossibleCenter) {
+			continue
+		}
+		plain := Analyze(notation.Read(strip(r.smiles)))
+		inPlain := map[string]bool{}
+		for _, u := range plain.Units {
+			inPlain[key(u)] = true
+		}
+		inMarked := map[string]bool{}
+		for _, u := range marked.Units {
+			inMarked[key(u)] = true
+			if !inPlain[key(u)] && !decidedByDescriptors(u.Decisions) {
+				gained++
+				t.Errorf("%s: unit %s only with the marks, and no configuration decided its ranking", r.smiles, key(u))
+			}
+		}
+		for k := range inPlain {
+			if !inMarked[k] {
+				lost++
+				t.Errorf("%s: unit %s found without the marks, lost with them: %v", r.smiles, k, marked.Diagnostics)
+			}
+		}
+	}
+	t.Logf("%d rows: %d units lost with the marks, %d gained without a configuration deciding", len(rows), lost, gained)
+}

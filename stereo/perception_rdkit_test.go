@@ -788,6 +788,24 @@ func (rep *perceptionReport) log(t *testing.T) {
 	}
 }
 
+// checkUndefinedDiagnostics: with no marks written, every unit we find
+// is unspecified and carries one stereo-undefined diagnostic, and no
+// other stereo diagnostic can arise (there is no mark to judge).
+func checkUndefinedDiagnostics(t *testing.T, p *perceived) {
+	undefined, other := 0, 0
+	for _, e := range p.a.Diagnostics {
+		if e.Code == CodeUndefined {
+			undefined++
+		} else {
+			other++
+		}
+	}
+	if undefined != len(p.a.Units) || other != 0 || len(p.units) != len(p.a.Units) {
+		t.Errorf("unmarked %s: %d units (%d unspecified), %d stereo-undefined and %d other diagnostics: %s",
+			p.row.id, len(p.a.Units), len(p.units), undefined, other, p.row.smiles)
+	}
+}
+
 // TestRDKitPerception compares which atoms and bonds are stereogenic
 // (unmarked set) and which marks mean something (marked set) with RDKit,
 // and fails on any difference that no rule explains.
@@ -799,6 +817,9 @@ func TestRDKitPerception(t *testing.T) {
 		if len(p.row.classes) != len(p.m.Atoms) {
 			t.Errorf("%s %s: fixture has %d classes, we read %d atoms from %s", p.row.set, p.row.id, len(p.row.classes), len(p.m.Atoms), p.row.smiles)
 			continue
+		}
+		if p.row.set == unmarkedSet {
+			checkUndefinedDiagnostics(t, p)
 		}
 		rep.otherGeometries(p)
 		if p.row.set == markedSet {

@@ -83,7 +83,7 @@ type perceived struct {
 func newPerceived(r *perceptionRow) *perceived {
 	m := notation.Read(r.smiles)
 	p := &perceived{row: r, m: m, a: Analyze(m), rings: notation.FindRings(m), units: map[string]bool{}}
-	for _, name := range p.unitNames(r.set == "marked") {
+	for _, name := range p.unitNames(r.set == markedSet) {
 		p.units[name] = true
 	}
 	return p
@@ -260,7 +260,7 @@ func (p *perceived) hasCodeAt(code notation.Code, sp notation.Span) bool {
 	return false
 }
 
-// Who reports a difference.
+// The side a difference is found on, and the fixture's two sets.
 const (
 	onlyOurs    = "ours"
 	onlyRDKit   = "rdkit"
@@ -275,8 +275,8 @@ type perceptionRule struct {
 	set, side string
 	bond      bool
 	// oursWrong marks a class we believe is a fault of our perception,
-	// kept here so that the rest of the comparison stays sharp; the
-	// report to the labeller's owner names these.
+	// kept here so that the rest of the comparison stays sharp; the test
+	// logs each case as "believed ours to fix".
 	oursWrong bool
 	match     func(p *perceived, atoms []int) bool
 }

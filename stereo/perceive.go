@@ -39,10 +39,21 @@ func (l *labeller) perceiveUnmarked() {
 			// centre (the middle carbon of a trisubstituted glutaric
 			// acid whose ends are unlike); pseudoCentre has added it
 			report(g.mol.Atoms[a].Span, "stereocentre (made so by the configurations around it) without a configuration")
+		case l.spiroAxial(a):
+			// a spiro atom whose two rings each hold two different
+			// ligands is a stereocentre even when the rings are alike
+			// (spiro[4.4]nonane-1,6-dione, VS288 of the suite)
+			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a))
+			report(g.mol.Atoms[a].Span, "stereocentre without a configuration")
 		case pairInRing:
 			paired = append(paired, a)
 		case l.spiroRelay(a):
 			relays = append(relays, a)
+		case l.ringTied(a, class) && l.chiralArrangement(a):
+			// equal ring ligands arranged without a mirror plane through
+			// the atom: the proposed Rule 6 tells them apart (VS281,
+			// VS283 of the suite)
+			report(g.mol.Atoms[a].Span, "stereocentre (its equal ring ligands are arranged chirally) without a configuration")
 		}
 	}
 	// units stereogenic together: two paired atoms or exocyclic double
@@ -78,16 +89,34 @@ func (l *labeller) perceiveUnmarked() {
 			continue
 		}
 		ends, inner, ok := g.alleneEnds(a)
-		if !ok || !terminalDistinct(g, ends[0], inner[0], class) || !terminalDistinct(g, ends[1], inner[1], class) {
+		if !ok {
+			continue
+		}
+		if !terminalDistinct(g, ends[0], inner[0], class) || !terminalDistinct(g, ends[1], inner[1], class) {
+			// equal ring ligands at an end may still be arranged
+			// chirally: an allene inside a bicycle (VS287 of the suite)
+			if l.ringTied(ends[0], class) || l.ringTied(ends[1], class) {
+				if l.chiralAllene(a, ends) {
+					report(g.mol.Atoms[a].Span, "stereogenic allene (its equal ring ligands are arranged chirally) without a configuration")
+				}
+			}
 			continue
 		}
 		l.unitAtoms[a] = true
 		l.res.Units = append(l.res.Units, Unit{Kind: KindAllene, Atoms: []int{ends[0], ends[1]}, Centre: a, Bond: -1})
 		report(g.mol.Atoms[a].Span, "stereogenic allene without a configuration")
 	}
+	l.perceiveCumulenes(class, report)
 	for bi := range g.mol.Bonds {
 		b := &g.mol.Bonds[bi]
-		if l.unitBonds[bi] || bondOrder(b) != 2 || b.Order == notation.OrderAromatic || g.mancudeZ[b.Begin] > 0 && g.mancudeZ[b.End] > 0 {
+		if l.unitBonds[bi] || bondOrder(b) != 2 || b.Order == notation.OrderAromatic {
+			continue
+		}
+		if g.mancudeZ[b.Begin] > 0 && g.mancudeZ[b.End] > 0 && (l.inSmallRing(b.Begin) || l.inSmallRing(b.End)) {
+			// a Kekulé bond of an aromatic ring system (a porphyrin
+			// written with '=' included); only a mancude bond whose atoms
+			// lie on no ring smaller than 8 can be cis or trans (the
+			// bridges of a cyclophanediene, VS155 of the suite)
 			continue
 		}
 		if g.cumulated(b.Begin) || g.cumulated(b.End) {
@@ -117,6 +146,60 @@ func (l *labeller) perceiveUnmarked() {
 	}
 }
 
+// perceiveCumulenes reports the unmarked cumulenes with an odd number of
+// double bonds (three or more) whose terminal atoms each carry two
+// different ligands: they are cis/trans units like a double bond
+// (hexa-2,3,4-triene; common practice). The chain is walked as
+// readBonds walks it, so that a unit has the same atoms marked or not.
+func (l *labeller) perceiveCumulenes(class *lazyClasses, report func(notation.Span, string)) {
+	g := l.g
+	var seen []bool
+	for bi := range g.mol.Bonds {
+		b := &g.mol.Bonds[bi]
+		if bondOrder(b) != 2 || b.Order == notation.OrderAromatic || !(g.cumulated(b.Begin) || g.cumulated(b.End)) {
+			continue
+		}
+		if seen == nil {
+			seen = make([]bool, len(g.mol.Bonds))
+		}
+		if seen[bi] {
+			continue
+		}
+		t0, i0, n0 := g.cumulene(b.End, b.Begin)
+		t1, i1, n1 := g.cumulene(b.Begin, b.End)
+		l.markChain(t0, i0, seen)
+		count := n0 + n1 - 1
+		if count%2 == 0 || count < 3 || t0 == t1 {
+			continue
+		}
+		mid := l.middleBond(t0, i0, count)
+		if mid < 0 || l.unitBonds[mid] || !terminalDistinct(g, t0, i0, class) || !terminalDistinct(g, t1, i1, class) {
+			continue
+		}
+		l.unitBonds[mid] = true
+		u := Unit{Kind: KindDoubleBond, Atoms: []int{t0, t1}, Centre: -1, Bond: mid}
+		restore := l.explaining()
+		lb := l.doubleBond(&bondConfig{bond: mid, ends: [2]int{t0, t1}, inner: [2]int{i0, i1}, refs: [2]int{-2, -2}})
+		restore()
+		if !lb.capped {
+			u.Ranked, u.Decisions = lb.ranked, lb.decisions
+		}
+		l.res.Units = append(l.res.Units, u)
+		report(g.mol.Bonds[mid].Span, "stereogenic cumulene without a configuration")
+	}
+}
+
+// inSmallRing reports whether atom a lies on a ring of fewer than 8
+// atoms.
+func (l *labeller) inSmallRing(a int) bool {
+	for _, e := range l.g.adj[a] {
+		if s := l.g.ringSize(e.bond); s > 0 && s < 8 {
+			return true
+		}
+	}
+	return false
+}
+
 // unspecifiedCentre is the unit of an unmarked stereocentre, with its
 // ligands ranked (a ranking needs no configuration of the centre itself,
 // and the explanation is as useful before a mark is written).
@@ -131,6 +214,59 @@ func (l *labeller) unspecifiedCentre(a int) Unit {
 		u.Ranked, u.Decisions = lb.ranked, lb.decisions
 	}
 	return u
+}
+
+// ringTied reports whether every ligand of a that ties with another (by
+// symmetry class) lies on a ring bond, and some do: the only ties Rule 6
+// can split.
+func (l *labeller) ringTied(a int, class *lazyClasses) bool {
+	g := l.g
+	tied := false
+	for i, e := range g.adj[a] {
+		for j, f := range g.adj[a] {
+			if i != j && class.of(e.to) == class.of(f.to) {
+				if !g.ringBond[e.bond] {
+					return false
+				}
+				tied = true
+			}
+		}
+	}
+	return tied
+}
+
+// chiralArrangement labels an unmarked atom as if it were marked, with
+// the Rule 6 trials a mark gets, and reports whether a label comes out:
+// then its tied ligands are told apart by how they are arranged, and the
+// atom is a stereocentre. The atom's unit is added when it is.
+func (l *labeller) chiralArrangement(a int) bool {
+	defer l.explaining()()
+	t := l.unmarkedConfig(a)
+	lb := l.tetrahedral(t)
+	if lb.tie || lb.capped || !lb.desc.Labelled() {
+		return false
+	}
+	l.unitAtoms[a] = true
+	l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1,
+		Ranked: lb.ranked, Decisions: lb.decisions})
+	return true
+}
+
+// chiralAllene is chiralArrangement for the centre of an allene.
+func (l *labeller) chiralAllene(a int, ends [2]int) bool {
+	c := l.g.readAllene(a, notation.Chirality{Class: notation.ChiralAL, Num: 1})
+	if c == nil || len(c.ligands) != 4 {
+		return false
+	}
+	defer l.explaining()()
+	lb := l.allene(c)
+	if lb.tie || lb.capped || !lb.desc.Labelled() {
+		return false
+	}
+	l.unitAtoms[a] = true
+	l.res.Units = append(l.res.Units, Unit{Kind: KindAllene, Atoms: []int{ends[0], ends[1]}, Centre: a, Bond: -1,
+		Ranked: lb.ranked, Decisions: lb.decisions})
+	return true
 }
 
 // unmarkedConfig is the configuration an unmarked centre is ranked
@@ -343,7 +479,9 @@ func tetrahedralCapable(g *graph, a int) bool {
 	case notation.ElemP, notation.ElemAs:
 		return deg == 4 || (deg == 3 && at.Charge == 0 && g.valence(a) == 3)
 	case notation.ElemS, notation.ElemSe:
-		return deg == 3 && hasLonePair(at, g.valence(a))
+		// a sulfinyl-type centre with its lone pair, or a sulfonyl-type
+		// one with four different ligands (O=S(=S)(Ph)OMe, VS130)
+		return deg == 3 && hasLonePair(at, g.valence(a)) || deg == 4 && at.Charge == 0
 	}
 	return false
 }

@@ -122,7 +122,9 @@ func (l *labeller) together(members []member, report func(notation.Span, string)
 				continue
 			}
 			l.unitBonds[m.bond] = true
-			l.res.Units = append(l.res.Units, l.unspecifiedBond(m.atom, m.other, m.bond))
+			// the atoms in bond order, as a marked bond gives them
+			b := &g.mol.Bonds[m.bond]
+			l.res.Units = append(l.res.Units, l.unspecifiedBond(b.Begin, b.End, m.bond))
 			report(g.mol.Bonds[m.bond].Span, "stereogenic double bond (together with a ring atom) without a configuration")
 		}
 	}
@@ -248,6 +250,34 @@ func (l *labeller) spiroRelay(a int) bool {
 			if i != j && block[f.bond] == block[e.bond] {
 				partners++
 				if l.classes.of(f.to) != l.classes.of(e.to) {
+					return false
+				}
+			}
+		}
+		if partners != 1 {
+			return false
+		}
+	}
+	return true
+}
+
+// spiroAxial reports whether atom a is a spiro atom whose two ring
+// systems each hold two ligands of different classes: then the four
+// ligands are arranged like those of an allene, and the atom is
+// stereogenic whatever symmetry relates one ring to the other.
+func (l *labeller) spiroAxial(a int) bool {
+	g := l.g
+	if len(g.adj[a]) != 4 || g.hyd[a] != 0 || ringDegree(g, a) != 4 || g.doubleBonds(a) > 0 {
+		return false
+	}
+	block := l.ringBlocks()
+	adj := g.adj[a]
+	for i, e := range adj {
+		partners := 0
+		for j, f := range adj {
+			if i != j && block[f.bond] == block[e.bond] {
+				partners++
+				if l.classes.of(f.to) == l.classes.of(e.to) {
 					return false
 				}
 			}

@@ -317,8 +317,10 @@ func (l *labeller) checkCages() {
 func (l *labeller) cageFixed(x int) bool {
 	g := l.g
 	// the classes are asked only once a bicycle is found: most ring
-	// fusions are no bicycle, and their molecules may need no classes
-	if g.degree(x) != 4 || ringDegree(g, x) < 3 {
+	// fusions are no bicycle, and their molecules may need no classes.
+	// A nitrogen's lone pair is its fourth ligand (the nitrogens of
+	// 1,4-diazabicyclo[2.2.1]heptane are fixed like norbornane's CH)
+	if ringDegree(g, x) < 3 || g.degree(x) != 4 && !(g.degree(x) == 3 && hasLonePair(&g.mol.Atoms[x], g.valence(x))) {
 		return false
 	}
 	for _, bc := range l.bicycles() {
@@ -341,6 +343,20 @@ func (l *labeller) cageFixed(x int) bool {
 					return true
 				}
 			}
+		}
+	}
+	return false
+}
+
+// bridgedHead reports whether atom a is a bridgehead of a small bridged
+// bicycle (every bridge at least one atom): such an atom cannot turn
+// inside out, which holds a nitrogen's configuration (quinuclidine,
+// Tröger's base). A ring-fusion atom of a fused bicycle does not count:
+// the nitrogen of indolizidine inverts, and with it the ring fusion.
+func (l *labeller) bridgedHead(a int) bool {
+	for _, bc := range l.bicycles() {
+		if (bc.heads[0] == a || bc.heads[1] == a) && len(bc.paths[2]) > 0 {
+			return true
 		}
 	}
 	return false

@@ -88,3 +88,46 @@ func TestExchangingOxygens(t *testing.T) {
 		}
 	}
 }
+
+// TestExchangingAndInvertingCentres checks centres that give up a
+// proton, or turn inside out, faster than a configuration can be kept.
+func TestExchangingAndInvertingCentres(t *testing.T) {
+	cases := []struct {
+		name, smiles string
+		want         map[notation.Code]int
+		source       string
+	}{
+		// a proton on nitrogen or sulfur exchanges, and the free amine
+		// or sulfide inverts (common practice); a quaternary ammonium
+		// centre holds (the hand facts)
+		{"ammonium with H, unmarked", "C[NH+](CC)CCC", map[notation.Code]int{}, "common practice"},
+		{"ammonium with H, marked", "C[N@@H+](CC)CCC", map[notation.Code]int{CodeInvertingNitrogen: 1}, "common practice"},
+		{"sulfonium with H, unmarked", "C[SH+]CC", map[notation.Code]int{}, "common practice"},
+		{"sulfonium with H, marked", "C[S@H+]CC", map[notation.Code]int{CodeIneffectiveCenter: 1}, "common practice"},
+		// the ring-fusion nitrogen of indolizidine inverts (cis- and
+		// trans-fused forms interconvert; common practice), so its mark
+		// is flagged and the ring-fusion carbon is the only centre
+		{"indolizidine", "C1CC[N@]2CCCC2C1", map[notation.Code]int{CodeInvertingNitrogen: 1, CodeUndefined: 1}, "common practice"},
+		// the nitrogens of 1,4-diazabicyclo[2.2.1]heptane are fixed by
+		// the cage, as norbornane's bridgehead carbons are
+		{"diazabicycloheptane", "C1N2CCN1CC2", map[notation.Code]int{}, "common practice"},
+		// a bridgehead nitrogen of a small bridged bicycle holds
+		// (quinuclidine-like; 2-methylquinuclidine's nitrogen is no
+		// centre, its C2 is)
+		{"2-methylquinuclidine", "CC1CC2CCN1CC2", map[notation.Code]int{CodeUndefined: 1}, "common practice"},
+	}
+	for _, c := range cases {
+		a := Analyze(notation.Read(c.smiles))
+		got := map[notation.Code]int{}
+		for _, e := range a.Diagnostics {
+			got[e.Code]++
+		}
+		ok := len(got) == len(c.want)
+		for code, n := range c.want {
+			ok = ok && got[code] == n
+		}
+		if !ok {
+			t.Errorf("%s (%s): %s gives %v, want %v", c.name, c.source, c.smiles, got, c.want)
+		}
+	}
+}

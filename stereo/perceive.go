@@ -454,12 +454,7 @@ func (l *labeller) heldNitrogen(a int) bool {
 		g.valence(a) != 3 || ringDegree(g, a) != 3 {
 		return false
 	}
-	for _, bc := range l.bicycles() {
-		if bc.heads[0] == a || bc.heads[1] == a {
-			return true
-		}
-	}
-	return false
+	return l.bridgedHead(a)
 }
 
 // tetrahedralCapable reports whether an atom can be a tetrahedral centre
@@ -475,13 +470,15 @@ func tetrahedralCapable(g *graph, a int) bool {
 	case notation.ElemC, notation.ElemSi, notation.ElemGe, notation.ElemB:
 		return deg == 4 && g.doubleBonds(a) == 0
 	case notation.ElemN:
-		return deg == 4 && at.Charge == 1
+		// an ammonium ion with a hydrogen loses it and inverts: only a
+		// quaternary one holds its configuration (common practice)
+		return deg == 4 && at.Charge == 1 && g.hyd[a] == 0
 	case notation.ElemP, notation.ElemAs:
 		return deg == 4 || (deg == 3 && at.Charge == 0 && g.valence(a) == 3)
 	case notation.ElemS, notation.ElemSe:
 		// a sulfinyl-type centre with its lone pair, or a sulfonyl-type
 		// one with four different ligands (O=S(=S)(Ph)OMe, VS130)
-		return deg == 3 && hasLonePair(at, g.valence(a)) || deg == 4 && at.Charge == 0
+		return deg == 3 && hasLonePair(at, g.valence(a)) && !(at.Charge == 1 && g.hyd[a] > 0) || deg == 4 && at.Charge == 0
 	}
 	return false
 }

@@ -365,11 +365,9 @@ var perceptionRules = []perceptionRule{
 		// of one cage (the quaternary nitrogen of an N-allyl
 		// hexaminium, on a threefold axis) are never split at all.
 		// FindPotentialStereo flags such atoms as possible (counting,
-		// from memory, only whether an equal ligand holds a unit). In
-		// the hexaminium both RDKit and we also flag the three other
-		// nitrogens as units; the cage fixes them (as it fixes the
-		// bridgeheads of norbornane, which we leave out), so that is a
-		// fault both share and no difference this test can see.
+		// from memory, only whether an equal ligand holds a unit). The
+		// three other nitrogens of the hexaminium are fixed by the cage
+		// (the rule "bridgehead fixed by its cage" below).
 		name: "centre with three or more equal ligands", set: unmarkedSet, side: onlyRDKit,
 		match: func(p *perceived, atoms []int) bool {
 			a := atoms[0]
@@ -391,6 +389,40 @@ var perceptionRules = []perceptionRule{
 				}
 			}
 			return true
+		},
+	},
+	{
+		// A bridgehead of a small bridged bicycle (bridges of up to three
+		// atoms) two of whose bridges are equal and hold no unit: the
+		// renaming that swaps the two bridges reverses both bridgeheads,
+		// and one alone cannot be reversed without putting its
+		// substituent (or lone pair) inside the cage, so the bridgehead
+		// has no configuration of its own (norbornane has no
+		// stereoisomers; the nitrogens of 1,4-diazabicyclo[2.2.1]heptane
+		// or of a hexaminium cage likewise; common practice).
+		// FindPotentialStereo flags such atoms as possible.
+		name: "bridgehead fixed by its cage", set: unmarkedSet, side: onlyRDKit,
+		match: func(p *perceived, atoms []int) bool {
+			a := atoms[0]
+			g := newGraph(p.m)
+			for y := range p.m.Atoms {
+				paths, ok := g.bridgePaths(a, y)
+				if y == a || !ok {
+					continue
+				}
+				for i := 0; i < 3; i++ {
+					for j := i + 1; j < 3; j++ {
+						x1, x2 := paths[i][0], paths[j][0]
+						if p.row.classes[x1] != p.row.classes[x2] {
+							continue
+						}
+						if p.unitsOn(p.branch(x1, a)) == 0 || p.unitsOn(p.branch(x2, a)) == 0 {
+							return true
+						}
+					}
+				}
+			}
+			return false
 		},
 	},
 	{
@@ -476,18 +508,6 @@ var perceptionRules = []perceptionRule{
 			return false
 		},
 	},
-	{
-		// [SH+] bound to a metal (a thiocyanate written as HS+ on Mn):
-		// three ligands and a lone pair, so our test for S takes it as a
-		// centre; a proton on sulfur exchanges quickly, as on an
-		// ammonium nitrogen, so it is no stereocentre (common practice).
-		// We believe this is ours to fix.
-		name: "three-coordinate sulfur carrying a hydrogen", set: unmarkedSet, side: onlyOurs, oursWrong: true,
-		match: func(p *perceived, atoms []int) bool {
-			at := &p.m.Atoms[atoms[0]]
-			return (at.Number == notation.ElemS || at.Number == notation.ElemSe) && at.HydrogenCount() == 1 && p.m.Degree(atoms[0]) == 2
-		},
-	},
 
 	// The marked set: our specified units against the marks RDKit
 	// keeps, by both its perceptions.
@@ -499,30 +519,6 @@ var perceptionRules = []perceptionRule{
 		match: func(p *perceived, atoms []int) bool {
 			at := &p.m.Atoms[atoms[0]]
 			return at.Number == notation.ElemN && p.hasCodeAt(CodeInvertingNitrogen, at.Chirality.Span)
-		},
-	},
-	{
-		// A three-coordinate nitrogen with all three bonds in rings (the
-		// two nitrogens of brucine): we hold its configuration as fixed
-		// by the rings and keep the mark without a word; RDKit drops it,
-		// as for every such nitrogen. We believe this is ours to fix: the
-		// same nitrogens unmarked are no units of ours, and a ring-fusion
-		// nitrogen of a fused bicycle inverts (cis- and trans-
-		// indolizidine interconvert; common practice) while an amide
-		// nitrogen is planar, so such a mark deserves a warning.
-		name: "mark on a nitrogen with three ring bonds", set: markedSet, side: onlyOurs, oursWrong: true,
-		match: func(p *perceived, atoms []int) bool {
-			a := atoms[0]
-			if p.m.Atoms[a].Number != notation.ElemN || p.m.Degree(a) != 3 {
-				return false
-			}
-			_, bs := p.neighbours(a)
-			for _, bi := range bs {
-				if !p.rings.BondInRing(bi) {
-					return false
-				}
-			}
-			return true
 		},
 	},
 	{

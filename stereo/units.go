@@ -14,6 +14,10 @@ func (l *labeller) labelAll() {
 	for _, a := range sortedKeys(l.cfg.tetra) {
 		t := l.cfg.tetra[a]
 		l.unitAtoms[a] = true
+		if exchangingProton(l.g, a) {
+			l.warn(t.span, CodeIneffectiveCenter, "mark on a sulfonium or selenonium centre with a hydrogen, which it gives up and takes back, so it is not a stereocentre")
+			continue
+		}
 		if exchangingOxygens(l.g, a) {
 			l.warn(t.span, CodeIneffectiveCenter, "mark on an atom whose two terminal chalcogens (=O and -OH or -O⁻) exchange a proton or charge, so it is not a stereocentre")
 			continue
@@ -35,8 +39,11 @@ func (l *labeller) labelAll() {
 		if lb.capped {
 			l.warn(t.span, CodeUndetermined, "configuration too deep to label within %d digraph nodes", l.nodeCap)
 		}
-		if l.invertingNitrogen(a) {
+		switch {
+		case l.invertingNitrogen(a):
 			l.warn(t.span, CodeInvertingNitrogen, "this nitrogen inverts quickly at room temperature, so its mark does not hold")
+		case protonatedAmine(l.g, a):
+			l.warn(t.span, CodeInvertingNitrogen, "this ammonium nitrogen gives up its proton and inverts quickly, so its mark does not hold")
 		}
 		l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1,
 			Specified: true, Descriptor: lb.desc, Ranked: lb.ranked, Decisions: lb.decisions, Marks: []notation.Span{t.span}})
@@ -225,25 +232,38 @@ func (l *labeller) transInRing(c *bondConfig) bool {
 	return trans
 }
 
+// protonatedAmine reports an ammonium nitrogen with a hydrogen: the
+// proton exchanges with the solvent and the free amine inverts, so the
+// configuration does not hold (common practice; a quaternary ammonium
+// centre does hold it).
+func protonatedAmine(g *graph, a int) bool {
+	at := &g.mol.Atoms[a]
+	return at.Number == notation.ElemN && at.Charge == 1 && g.hyd[a] > 0 && g.degree(a) == 4
+}
+
+// exchangingProton reports a three-coordinate sulfonium or selenonium
+// centre carrying a hydrogen, which exchanges like an ammonium proton.
+func exchangingProton(g *graph, a int) bool {
+	at := &g.mol.Atoms[a]
+	return (at.Number == notation.ElemS || at.Number == notation.ElemSe) && at.Charge == 1 && g.hyd[a] > 0 && g.degree(a) == 3
+}
+
 // invertingNitrogen reports a marked neutral three-coordinate nitrogen
-// that is not held in place by a three-membered ring, a bridgehead or
-// a positive charge.
+// that is not held in place by a three-membered ring or the bridgehead
+// position of a small bridged bicycle; a ring-fusion nitrogen
+// (indolizidine, quinolizidine) inverts, and with it the ring fusion.
 func (l *labeller) invertingNitrogen(a int) bool {
 	g := l.g
 	at := &g.mol.Atoms[a]
 	if at.Number != notation.ElemN || at.Charge != 0 || g.degree(a) != 3 {
 		return false
 	}
-	ringBonds := 0
 	for _, e := range g.adj[a] {
-		if g.ringBond[e.bond] {
-			ringBonds++
-			if g.ringSize(e.bond) == 3 {
-				return false
-			}
+		if g.ringBond[e.bond] && g.ringSize(e.bond) == 3 {
+			return false
 		}
 	}
-	return ringBonds < 3
+	return !l.bridgedHead(a)
 }
 
 // exchangingOxygens reports whether a phosphorus, arsenic, sulfur,

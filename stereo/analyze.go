@@ -181,8 +181,8 @@ func (l *labeller) readCentres() {
 				slot := min(at.HydrogenSlot(), len(ligs))
 				ligs = slices.Insert(ligs, slot, implicitLigand)
 			}
-			l.cfg.tetra[a] = &tetraConfig{centre: a, ligands: ligs, winding: ch.Num,
-				lonePair: count == 3, span: sp}
+			l.cfg.addTetra(&tetraConfig{centre: a, ligands: ligs, winding: ch.Num,
+				lonePair: count == 3, span: sp})
 		case notation.ChiralSP, notation.ChiralTB, notation.ChiralOH:
 			kind, need := KindSquarePlanar, 4
 			if ch.Class == notation.ChiralTB {

@@ -300,7 +300,7 @@ func bridgeWinding(t *tetraConfig, bridges [3][2]int, side int) (bool, bool) {
 // checkCages reports the marks on bridgeheads fixed by their cage and
 // drops them, so that no other unit reads a configuration from them.
 func (l *labeller) checkCages() {
-	for _, a := range sortedKeys(l.cfg.tetra) {
+	for _, a := range l.cfg.tetraAtoms() {
 		if !l.cageFixed(a) {
 			continue
 		}

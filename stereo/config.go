@@ -63,7 +63,11 @@ type higherConfig struct {
 
 // configs gathers every configuration read from the marks.
 type configs struct {
-	tetra  map[int]*tetraConfig
+	// tetraOrder holds the atoms of tetra in ascending order, as
+	// readCentres adds them (entries deleted from tetra stay here and
+	// are skipped by tetraAtoms)
+	tetraOrder []int
+	tetra      map[int]*tetraConfig
 	bonds  map[int]*bondConfig // by the bond index of each double bond of the unit
 	allene map[int]*alleneConfig
 	higher map[int]*higherConfig
@@ -81,10 +85,30 @@ const keepConfigs = 256
 
 // reset empties c for another molecule, keeping small maps.
 func (c *configs) reset() {
+	c.tetraOrder = c.tetraOrder[:0]
 	c.tetra = emptied(c.tetra)
 	c.bonds = emptied(c.bonds)
 	c.allene = emptied(c.allene)
 	c.higher = emptied(c.higher)
+}
+
+// addTetra records a tetrahedral configuration; atoms come in ascending
+// order.
+func (c *configs) addTetra(t *tetraConfig) {
+	c.tetra[t.centre] = t
+	c.tetraOrder = append(c.tetraOrder, t.centre)
+}
+
+// tetraAtoms returns the atoms with a tetrahedral configuration, in
+// ascending order, without sorting the map's keys.
+func (c *configs) tetraAtoms() []int {
+	out := make([]int, 0, len(c.tetra))
+	for _, a := range c.tetraOrder {
+		if _, ok := c.tetra[a]; ok {
+			out = append(out, a)
+		}
+	}
+	return out
 }
 
 func emptied[V any](m map[int]V) map[int]V {

@@ -230,7 +230,13 @@ func (d *digraph) compareSpheres(root, a, af, b, bf nodeID, r Rule) (int, int) {
 	defer func() { bufs[0], bufs[1], bufs[2], bufs[3] = qa, qb, na, nb }()
 	for sphere := d.sphereOf(root, a); len(qa) > 0; sphere++ {
 		for i := range qa {
-			va, vb := d.valueOf(value, root, qa[i].n), d.valueOf(value, root, qb[i].n)
+			var va, vb float64
+			if r == Rule1a {
+				// the rule read in place: most walks are Rule 1a walks
+				va, vb = d.atomicNumber(qa[i].n), d.atomicNumber(qb[i].n)
+			} else {
+				va, vb = d.valueOf(value, root, qa[i].n), d.valueOf(value, root, qb[i].n)
+			}
 			if va != vb {
 				if va > vb {
 					return 1, sphere
@@ -328,6 +334,14 @@ func stepAt(ks []nodeID, j int, from nodeID) step {
 		return step{ks[j], from}
 	}
 	return step{noNode, from}
+}
+
+// atomicNumber is rule1aValue with phantom atoms (noNode) at zero.
+func (d *digraph) atomicNumber(n nodeID) float64 {
+	if n == noNode {
+		return 0
+	}
+	return d.nodes[n].z
 }
 
 func (d *digraph) valueOf(value nodeRule, root, n nodeID) float64 {

@@ -11,7 +11,7 @@ import (
 func (l *labeller) labelAll() {
 	// room for every marked unit, grown once
 	l.res.Units = slices.Grow(l.res.Units, len(l.cfg.tetra)+len(l.cfg.bonds)+len(l.cfg.allene)+len(l.cfg.higher)+len(l.oneSided))
-	for _, a := range sortedKeys(l.cfg.tetra) {
+	for _, a := range l.cfg.tetraAtoms() {
 		t := l.cfg.tetra[a]
 		l.unitAtoms[a] = true
 		if exchangingProton(l.g, a) {
@@ -298,6 +298,9 @@ func exchangingOxygens(g *graph, a int) bool {
 }
 
 func sortedKeys[V any](m map[int]V) []int {
+	if len(m) == 0 {
+		return nil
+	}
 	ks := make([]int, 0, len(m))
 	for k := range m {
 		ks = append(ks, k)

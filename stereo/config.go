@@ -68,9 +68,9 @@ type configs struct {
 	// are skipped by tetraAtoms)
 	tetraOrder []int
 	tetra      map[int]*tetraConfig
-	bonds  map[int]*bondConfig // by the bond index of each double bond of the unit
-	allene map[int]*alleneConfig
-	higher map[int]*higherConfig
+	bonds      map[int]*bondConfig // by the bond index of each double bond of the unit
+	allene     map[int]*alleneConfig
+	higher     map[int]*higherConfig
 }
 
 func newConfigs() *configs {

@@ -136,29 +136,18 @@ func (g *keyGraph) findRingSystems() {
 	rings := notation.FindRings(m)
 	g.rings = rings
 	g.ring = make([]bool, len(m.Bonds))
-	parent := make([]int, g.n)
-	for i := range parent {
-		parent[i] = i
-	}
-	var find func(int) int
-	find = func(x int) int {
-		for parent[x] != x {
-			parent[x] = parent[parent[x]]
-			x = parent[x]
-		}
-		return x
-	}
+	sets := newDisjointSets(g.n)
 	for bi := range m.Bonds {
 		if rings.BondInRing(bi) {
 			g.ring[bi] = true
-			parent[find(m.Bonds[bi].Begin)] = find(m.Bonds[bi].End)
+			sets.union(m.Bonds[bi].Begin, m.Bonds[bi].End)
 		}
 	}
 	g.system = make([]int, g.n)
 	for a := range g.system {
 		g.system[a] = -1
 		if rings.AtomInRing(a) {
-			g.system[a] = find(a)
+			g.system[a] = sets.find(a)
 		}
 	}
 }

@@ -141,18 +141,9 @@ func (l *labeller) joinMembers(members []member) []bool {
 		return joined
 	}
 	block := l.ringBlocks()
-	// groups of ring systems, merged through the relays
-	parent := map[int]int{}
-	var find func(int) int
-	find = func(x int) int {
-		p, ok := parent[x]
-		if !ok || p == x {
-			return x
-		}
-		r := find(p)
-		parent[x] = r
-		return r
-	}
+	// groups of ring systems (named by a bond of each), merged through
+	// the relays
+	sets := newDisjointSets(len(block))
 	blocksOf := func(a int) []int {
 		var out []int
 		for _, e := range l.g.adj[a] {
@@ -165,7 +156,7 @@ func (l *labeller) joinMembers(members []member) []bool {
 	for _, m := range members {
 		if m.relay {
 			if bs := blocksOf(m.atom); len(bs) == 2 {
-				parent[find(bs[0])] = find(bs[1])
+				sets.union(bs[0], bs[1])
 			}
 		}
 	}
@@ -173,13 +164,13 @@ func (l *labeller) joinMembers(members []member) []bool {
 	for _, m := range members {
 		if !m.relay {
 			for _, b := range blocksOf(m.atom) {
-				count[find(b)]++
+				count[sets.find(b)]++
 			}
 		}
 	}
 	for i, m := range members {
 		for _, b := range blocksOf(m.atom) {
-			if count[find(b)] >= 2 {
+			if count[sets.find(b)] >= 2 {
 				joined[i] = true
 			}
 		}
@@ -196,18 +187,7 @@ func (l *labeller) ringBlocks() []int {
 	}
 	g := l.g
 	nb := len(g.mol.Bonds)
-	parent := make([]int, nb)
-	for i := range parent {
-		parent[i] = i
-	}
-	var find func(int) int
-	find = func(x int) int {
-		for parent[x] != x {
-			parent[x] = parent[parent[x]]
-			x = parent[x]
-		}
-		return x
-	}
+	sets := newDisjointSets(nb)
 	for _, ring := range g.smallRings() {
 		first := -1
 		for i := range ring {
@@ -219,14 +199,14 @@ func (l *labeller) ringBlocks() []int {
 				first = bi
 				continue
 			}
-			parent[find(bi)] = find(first)
+			sets.union(bi, first)
 		}
 	}
 	out := make([]int, nb)
 	for bi := range out {
 		out[bi] = -1
 		if g.ringBond[bi] {
-			out[bi] = find(bi)
+			out[bi] = sets.find(bi)
 		}
 	}
 	l.blocks = out
@@ -237,28 +217,8 @@ func (l *labeller) ringBlocks() []int {
 // ligands form two pairs of constitutionally equal branches, each pair
 // in one of its two ring systems.
 func (l *labeller) spiroRelay(a int) bool {
-	g := l.g
-	if len(g.adj[a]) != 4 || g.hyd[a] != 0 || ringDegree(g, a) != 4 || g.doubleBonds(a) > 0 {
-		return false
-	}
-	block := l.ringBlocks()
-	adj := g.adj[a]
-	for i, e := range adj {
-		// the partner in e's ring system must be its equal
-		partners := 0
-		for j, f := range adj {
-			if i != j && block[f.bond] == block[e.bond] {
-				partners++
-				if l.classes.of(f.to) != l.classes.of(e.to) {
-					return false
-				}
-			}
-		}
-		if partners != 1 {
-			return false
-		}
-	}
-	return true
+	equal, ok := l.spiroSides(a)
+	return ok && equal == 2
 }
 
 // spiroAxial reports whether atom a is a spiro atom whose two ring
@@ -266,9 +226,17 @@ func (l *labeller) spiroRelay(a int) bool {
 // ligands are arranged like those of an allene, and the atom is
 // stereogenic whatever symmetry relates one ring to the other.
 func (l *labeller) spiroAxial(a int) bool {
+	equal, ok := l.spiroSides(a)
+	return ok && equal == 0
+}
+
+// spiroSides reports whether atom a is a spiro atom, four ring ligands
+// two in each of two ring systems, and in how many of the two systems
+// its two ligands are constitutionally equal.
+func (l *labeller) spiroSides(a int) (equal int, ok bool) {
 	g := l.g
 	if len(g.adj[a]) != 4 || g.hyd[a] != 0 || ringDegree(g, a) != 4 || g.doubleBonds(a) > 0 {
-		return false
+		return 0, false
 	}
 	block := l.ringBlocks()
 	adj := g.adj[a]
@@ -277,16 +245,16 @@ func (l *labeller) spiroAxial(a int) bool {
 		for j, f := range adj {
 			if i != j && block[f.bond] == block[e.bond] {
 				partners++
-				if l.classes.of(f.to) == l.classes.of(e.to) {
-					return false
+				if j > i && l.classes.of(f.to) == l.classes.of(e.to) {
+					equal++
 				}
 			}
 		}
 		if partners != 1 {
-			return false
+			return 0, false
 		}
 	}
-	return true
+	return equal, true
 }
 
 // alone reports the marks of a member that found no partner.

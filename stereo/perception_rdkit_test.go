@@ -1,10 +1,8 @@
 package stereo
 
 import (
-	"bufio"
 	"fmt"
 	"maps"
-	"os"
 	"path/filepath"
 	"slices"
 	"strconv"
@@ -33,22 +31,10 @@ type perceptionRow struct {
 }
 
 func readPerception(t testing.TB) []perceptionRow {
-	f, err := os.Open(rdkitPerceptionPath)
-	if err != nil {
-		t.Skipf("RDKit perception fixture not found at %s (made by testdata/rdkit/gen_perception.py): %v", rdkitPerceptionPath, err)
-	}
-	defer f.Close()
 	var rows []perceptionRow
-	sc := bufio.NewScanner(f)
-	sc.Buffer(make([]byte, 1<<20), 1<<20)
-	for sc.Scan() {
-		line := sc.Text()
-		if strings.HasPrefix(line, "#") || line == "" {
-			continue
-		}
-		c := strings.Split(line, "\t")
+	for _, c := range readFixture(t, rdkitPerceptionPath, "RDKit perception fixture") {
 		if len(c) != 9 {
-			t.Fatalf("perception fixture: %d columns, want 9: %q", len(c), line)
+			t.Fatalf("perception fixture: %d columns, want 9: %q", len(c), strings.Join(c, "\t"))
 		}
 		r := perceptionRow{set: c[0], id: c[1], smiles: c[2],
 			atoms: strings.Fields(c[3]), bonds: strings.Fields(c[4]),
@@ -62,10 +48,22 @@ func readPerception(t testing.TB) []perceptionRow {
 		}
 		rows = append(rows, r)
 	}
-	if err := sc.Err(); err != nil {
-		t.Fatal(err)
-	}
 	return rows
+}
+
+// acyclicPairUnits reports whether atom a has exactly one pair of equal
+// ligands (by RDKit's classes), both off rings, and how many of our
+// units lie on the branch of each.
+func (p *perceived) acyclicPairUnits(a int) ([2]int, bool) {
+	var units [2]int
+	groups, ring := p.equalGroups(a, -1)
+	if len(groups) != 1 || len(groups[0]) != 2 || ring[0][0] || ring[0][1] {
+		return units, false
+	}
+	for i, x := range groups[0] {
+		units[i] = p.unitsOn(p.branch(x, a))
+	}
+	return units, true
 }
 
 // perceived is one fixture molecule as the rules see it: our reading and
@@ -343,17 +341,8 @@ var perceptionRules = []perceptionRule{
 		// that whether it is a unit at all is not known.
 		name: "centre between equal branches that hold stereo units", set: unmarkedSet, side: onlyRDKit,
 		match: func(p *perceived, atoms []int) bool {
-			a := atoms[0]
-			groups, ring := p.equalGroups(a, -1)
-			if len(groups) != 1 || len(groups[0]) != 2 || ring[0][0] || ring[0][1] {
-				return false
-			}
-			for _, x := range groups[0] {
-				if p.unitsOn(p.branch(x, a)) == 0 {
-					return false
-				}
-			}
-			return true
+			units, ok := p.acyclicPairUnits(atoms[0])
+			return ok && units[0] > 0 && units[1] > 0
 		},
 	},
 	{
@@ -544,17 +533,8 @@ var perceptionRules = []perceptionRule{
 		// the mark (its legacy one drops it, as we do).
 		name: "mark between equal branches that hold only ineffective marks", set: markedSet, side: onlyRDKit,
 		match: func(p *perceived, atoms []int) bool {
-			a := atoms[0]
-			groups, ring := p.equalGroups(a, -1)
-			if len(groups) != 1 || len(groups[0]) != 2 || ring[0][0] || ring[0][1] {
-				return false
-			}
-			for _, x := range groups[0] {
-				if p.unitsOn(p.branch(x, a)) != 0 {
-					return false
-				}
-			}
-			return p.hasCodeAt(CodeIneffectiveCenter, p.m.Atoms[a].Chirality.Span)
+			units, ok := p.acyclicPairUnits(atoms[0])
+			return ok && units[0] == 0 && units[1] == 0
 		},
 	},
 	{

@@ -26,20 +26,8 @@ type rdkitRow struct {
 }
 
 func readRDKitCIP(t testing.TB) []rdkitRow {
-	f, err := os.Open(rdkitCIPPath)
-	if err != nil {
-		t.Skipf("RDKit CIP fixture not found at %s: %v", rdkitCIPPath, err)
-	}
-	defer f.Close()
 	var rows []rdkitRow
-	sc := bufio.NewScanner(f)
-	sc.Buffer(make([]byte, 1<<20), 1<<20)
-	for sc.Scan() {
-		line := sc.Text()
-		if strings.HasPrefix(line, "#") || line == "" {
-			continue
-		}
-		cols := strings.Split(line, "\t")
+	for _, cols := range readFixture(t, rdkitCIPPath, "RDKit CIP fixture") {
 		if len(cols) < 4 {
 			continue
 		}
@@ -51,6 +39,31 @@ func readRDKitCIP(t testing.TB) []rdkitRow {
 		rows = append(rows, r)
 	}
 	return rows
+}
+
+// readFixture returns the tab-separated columns of the data lines of a
+// fixture made by testdata/rdkit (lines starting with '#' are its
+// header), skipping the test with a message when the file is absent.
+func readFixture(t testing.TB, path, what string) [][]string {
+	f, err := os.Open(path)
+	if err != nil {
+		t.Skipf("%s not found at %s (made by testdata/rdkit): %v", what, path, err)
+	}
+	defer f.Close()
+	var out [][]string
+	sc := bufio.NewScanner(f)
+	sc.Buffer(make([]byte, 1<<20), 1<<20)
+	for sc.Scan() {
+		line := sc.Text()
+		if strings.HasPrefix(line, "#") || line == "" {
+			continue
+		}
+		out = append(out, strings.Split(line, "\t"))
+	}
+	if err := sc.Err(); err != nil {
+		t.Fatal(err)
+	}
+	return out
 }
 
 // TestRDKitCIP reports agreement with RDKit's labeller, row by row.

@@ -383,7 +383,58 @@ func (l *labeller) configuredRingPair(a int) bool {
 			}
 		}
 	}
-	return n == 1
+	return n == 1 && l.splittableRing(a)
+}
+
+// splittableRing reports whether configurations could tell apart the
+// two equal ring branches of a: a configured unit lies in a's ring
+// system itself (the marked bridgeheads of a fused bicycle), or
+// configured side chains hang from two different atoms of it (2,6-
+// substituents of unlike configuration). A configuration reached through
+// one atom only (a chiral N-substituent of a 4-methylpiperidine) sits
+// on the symmetry of the two branches and cannot split them.
+func (l *labeller) splittableRing(a int) bool {
+	g := l.g
+	block := l.ringBlocks()
+	mine := -1
+	for _, e := range g.adj[a] {
+		if block[e.bond] >= 0 {
+			mine = block[e.bond]
+		}
+	}
+	if mine < 0 {
+		return false
+	}
+	inBlock := func(x int) bool {
+		for _, e := range g.adj[x] {
+			if block[e.bond] == mine {
+				return true
+			}
+		}
+		return false
+	}
+	attachments := 0
+	for x := 0; x < g.n; x++ {
+		if !inBlock(x) {
+			continue
+		}
+		if _, ok := l.cfg.tetra[x]; ok && x != a {
+			return true
+		}
+		for _, e := range g.adj[x] {
+			if _, ok := l.cfg.bonds[e.bond]; ok && block[e.bond] == mine {
+				return true
+			}
+		}
+		// a configured side chain hanging from x
+		for _, e := range g.adj[x] {
+			if block[e.bond] != mine && !inBlock(e.to) && l.configuredNear(e.to, x, 6) {
+				attachments++
+				break
+			}
+		}
+	}
+	return attachments >= 2
 }
 
 // configuredNear reports whether an atom with a written configuration

@@ -61,6 +61,39 @@ func (l *labeller) checkBridgeheads() {
 	}
 }
 
+// bridgeable is the cheap test before bridgePaths: three ring
+// neighbours of x must lie within maxSmallBridge bonds of y by paths
+// that avoid x (one search from y instead of three).
+func (l *labeller) bridgeable(x, y int) bool {
+	g := l.g
+	sc := g.bfsMarks()
+	sc.stamp++
+	seen := sc.stamp
+	sc.mark[y], sc.depth[y] = seen, 0
+	sc.mark[x] = seen // never entered
+	queue := append(sc.queue[:0], y)
+	for head := 0; head < len(queue); head++ {
+		u := queue[head]
+		if sc.depth[u] >= maxSmallBridge {
+			continue
+		}
+		for _, e := range g.adj[u] {
+			if sc.mark[e.to] != seen {
+				sc.mark[e.to], sc.depth[e.to] = seen, sc.depth[u]+1
+				queue = append(queue, e.to)
+			}
+		}
+	}
+	sc.queue = queue[:0]
+	n := 0
+	for _, e := range g.adj[x] {
+		if g.ringBond[e.bond] && e.to != y && sc.mark[e.to] == seen {
+			n++
+		}
+	}
+	return n >= 3
+}
+
 // bicycle is a small bridged or fused bicycle: its two bridgeheads and
 // its three bridges, each from the atom next to heads[0] to the one next
 // to heads[1]; in a fused bicycle the third bridge is the bond between
@@ -101,11 +134,25 @@ func (l *labeller) bicycles() []bicycle {
 			if y <= x || !head(y) {
 				continue
 			}
+			if bi := g.mol.BondBetween(x, y); bi >= 0 {
+				// a fused bicycle small enough (perimeter at most
+				// maxFusedPerimeter) has a ring of at most 4 atoms
+				// through the shared bond: two rings of size r1 <= r2
+				// have r1+r2-2 atoms round the outside
+				if s := g.ringSize(bi); s == 0 || 2*s-2 > maxFusedPerimeter {
+					continue
+				}
+				if rings, ok := g.fusedPaths(x, y); ok {
+					// the bond between the heads is the third bridge, of no atoms
+					l.bicycleList = append(l.bicycleList, bicycle{heads: [2]int{x, y}, paths: [3][]int{rings[0], rings[1], nil}})
+				}
+				continue
+			}
+			if !l.bridgeable(x, y) {
+				continue
+			}
 			if paths, ok := g.bridgePaths(x, y); ok {
 				l.bicycleList = append(l.bicycleList, bicycle{heads: [2]int{x, y}, paths: paths})
-			} else if rings, ok := g.fusedPaths(x, y); ok {
-				// the bond between the heads is the third bridge, of no atoms
-				l.bicycleList = append(l.bicycleList, bicycle{heads: [2]int{x, y}, paths: [3][]int{rings[0], rings[1], nil}})
 			}
 		}
 	}

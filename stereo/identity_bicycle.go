@@ -21,9 +21,11 @@ type bicyclePair struct {
 // bridgeheads of a small bicycle: every bridge a chain of ring atoms
 // with two ring bonds each; bridged systems (every bridge at least one
 // atom) count as small up to rings of eight atoms, fused ones (a direct
-// bond between the bridgeheads) up to seven, since trans-fused
-// bicyclo[3.3.0]octane and bicyclo[4.2.0]octane exist while
-// trans-bicyclo[4.1.0]heptane does not (common practice).
+// bond between the bridgeheads) up to six round the perimeter: no
+// trans-fused bicyclo[2.2.0]hexane or bicyclo[3.1.0]hexane is known,
+// while trans-bicyclo[3.3.0]octane and bicyclo[4.2.0]octane exist and the
+// strained seven-atom ones are left possible (common practice; the same
+// line as maxFusedPerimeter in bridgehead.go).
 func smallBicycles(g *keyGraph, units []keyUnit) []bicyclePair {
 	g.findRingSystems()
 	m := g.mol
@@ -107,7 +109,7 @@ func smallBicycle(lengths []int) bool {
 		}
 	}
 	if fused {
-		return largest <= 7
+		return largest <= maxFusedPerimeter
 	}
 	return largest <= 8
 }

@@ -31,29 +31,21 @@ func BenchmarkFindList(b *testing.B) {
 // module of the negative corpus and the Python marker file, repeated to
 // about 1 MB.
 func BenchmarkFindPython(b *testing.B) {
-	var unit []byte
-	for _, p := range []string{"negatives/service.py", "markers/python.py"} {
-		s, err := os.ReadFile(filepath.Join("testdata", p))
-		if err != nil {
-			b.Fatal(err)
-		}
-		unit = append(unit, s...)
-	}
-	src := bytes.Repeat(unit, 1<<20/len(unit)+1)
-	b.SetBytes(int64(len(src)))
-	b.ReportAllocs()
-	b.ResetTimer()
-	for i := 0; i < b.N; i++ {
-		FindKind(KindPython, src, Config{})
-	}
+	benchmarkFindFiles(b, KindPython, "negatives/service.py", "markers/python.py")
 }
 
 // BenchmarkFindJava measures a large Java file: the ordinary class of the
 // negative corpus and the Java marker file (text blocks included),
 // repeated to about 1 MB.
 func BenchmarkFindJava(b *testing.B) {
+	benchmarkFindFiles(b, KindJava, "negatives/Stock.java", "markers/java.java")
+}
+
+// benchmarkFindFiles times the finder on the given testdata files joined
+// and repeated to about 1 MB, read as one host kind.
+func benchmarkFindFiles(b *testing.B, kind Kind, files ...string) {
 	var unit []byte
-	for _, p := range []string{"negatives/Stock.java", "markers/java.java"} {
+	for _, p := range files {
 		s, err := os.ReadFile(filepath.Join("testdata", p))
 		if err != nil {
 			b.Fatal(err)
@@ -65,6 +57,6 @@ func BenchmarkFindJava(b *testing.B) {
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		FindKind(KindJava, src, Config{})
+		FindKind(kind, src, Config{})
 	}
 }

@@ -45,8 +45,11 @@ func (l *labeller) ringPaired(a int) bool {
 // ligands, and returns the ring atom and the other end.
 func (l *labeller) exoPaired(bi int) (ring, other int, ok bool) {
 	g := l.g
+	if bi < 0 || bi >= len(g.mol.Bonds) {
+		return 0, 0, false
+	}
 	b := &g.mol.Bonds[bi]
-	if bi < 0 || bi >= len(g.mol.Bonds) || g.ringBond[bi] || bondOrder(b) != 2 || b.Order == notation.OrderAromatic {
+	if g.ringBond[bi] || bondOrder(b) != 2 || b.Order == notation.OrderAromatic {
 		return 0, 0, false
 	}
 	for _, ends := range [2][2]int{{b.Begin, b.End}, {b.End, b.Begin}} {
@@ -77,7 +80,8 @@ func (l *labeller) exoPaired(bi int) (ring, other int, ok bool) {
 	return 0, 0, false
 }
 
-// together joins the members on common rings and reports them: unmarked
+// together joins the members that share a ring system (joinMembers) and
+// reports them: unmarked
 // members as undefined, marked ones as units whose configuration is
 // still open. Members left without a partner get the diagnostics a mark
 // that decides nothing gets.

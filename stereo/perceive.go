@@ -79,8 +79,18 @@ func (l *labeller) perceiveUnmarked() {
 	// 3-position of a cis-fused bicyclo[3.3.0]octane whose bridgeheads
 	// are marked: exo or endo)
 	for _, a := range l.unjoined {
-		if l.anyMarks && !l.unitAtoms[a] && l.configuredRingPair(a) && l.pseudoCentre(a) {
+		switch {
+		case l.unitAtoms[a]:
+		case l.anyMarks && l.configuredRingPair(a) && l.pseudoCentre(a):
 			report(g.mol.Atoms[a].Span, "stereocentre (made so by the configurations around it) without a configuration")
+		case l.openPairInBlock(a):
+			// the same split can come from stereocentres of the ring
+			// system that are themselves unmarked: the 3-position of
+			// tropine against its bridgeheads (tropine and
+			// pseudotropine; common practice)
+			l.unitAtoms[a] = true
+			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a))
+			report(g.mol.Atoms[a].Span, "stereocentre (together with the stereocentres of its ring system) without a configuration")
 		}
 	}
 	// allenes and even cumulenes: two different ligands at each end
@@ -435,6 +445,40 @@ func (l *labeller) splittableRing(a int) bool {
 		}
 	}
 	return attachments >= 2
+}
+
+// openPairInBlock reports whether the ring system of a ring-paired atom
+// holds two or more other tetrahedral units, at least one of them left
+// unmarked: a pair of stereocentres placed symmetrically about a can
+// tell its two ring branches apart, and with one of them open, so is a
+// (one unit alone sits on the symmetry and cannot).
+func (l *labeller) openPairInBlock(a int) bool {
+	g := l.g
+	block := l.ringBlocks()
+	mine := -1
+	for _, e := range g.adj[a] {
+		if block[e.bond] >= 0 {
+			mine = block[e.bond]
+		}
+	}
+	if mine < 0 {
+		return false
+	}
+	units, open := 0, false
+	for i := range l.res.Units {
+		u := &l.res.Units[i]
+		if u.Kind != KindTetrahedral || u.Centre == a {
+			continue
+		}
+		for _, e := range g.adj[u.Centre] {
+			if block[e.bond] == mine {
+				units++
+				open = open || !u.Specified
+				break
+			}
+		}
+	}
+	return units >= 2 && open
 }
 
 // configuredNear reports whether an atom with a written configuration

@@ -194,3 +194,33 @@ func TestSpiroMarksTogether(t *testing.T) {
 		}
 	}
 }
+
+// TestOpenRingSystemPartners checks a ring-paired atom whose two ring
+// branches are told apart by a pair of stereocentres of its ring system
+// that are themselves unmarked.
+func TestOpenRingSystemPartners(t *testing.T) {
+	cases := []struct {
+		name, smiles string
+		undefined    int
+		source       string
+	}{
+		// tropine and pseudotropine are the two C3 epimers (common
+		// practice): unmarked, C3 is reported with both bridgeheads
+		{"tropine unmarked", "CN1C2CCC1CC(O)C2", 3, "common practice"},
+		// with one stereocentre only in the ring, it sits on the
+		// symmetry of the two branches (4-methylpiperidine N-substituted)
+		{"4-methylpiperidine", "CC1CCN(C(C)CC)CC1", 1, "worked by hand"},
+	}
+	for _, c := range cases {
+		a := Analyze(notation.Read(c.smiles))
+		n := 0
+		for _, e := range a.Diagnostics {
+			if e.Code == CodeUndefined {
+				n++
+			}
+		}
+		if n != c.undefined {
+			t.Errorf("%s (%s): %s gives %d undefined units, want %d: %v", c.name, c.source, c.smiles, n, c.undefined, a.Diagnostics)
+		}
+	}
+}

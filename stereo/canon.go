@@ -82,6 +82,12 @@ type canonState struct {
 	// (identity_relative.go)
 	ringRoot []int
 	related  []int
+	// relation is, per unit of such a pair, the product of the two
+	// parities (cis-like or trans-like), 0 for other units: the pair is
+	// serialised by it, which no tie-breaking changes, so the search
+	// need not try both orders of each ring (a chain of k rings would
+	// otherwise take 2^k orders)
+	relation []int
 }
 
 // canonResult is the outcome: the order (position -> atom), the rank of
@@ -527,6 +533,9 @@ func (c *canonState) ringCandidate(u *keyUnit, rank []int) (int, bool) {
 // pending reports whether some kept unit has no parity on these ranks.
 func (c *canonState) pending(rank []int) bool {
 	for i := range c.units {
+		if c.relation != nil && c.relation[i] != 0 {
+			continue // serialised by its relation, known already
+		}
 		if c.keep != nil && c.keep[i] && c.parity(&c.units[i], rank) == 0 {
 			return true
 		}
@@ -642,6 +651,11 @@ func (c *canonState) leaf(rank []int) canonResult {
 			u := &c.units[i]
 			p := c.parity(u, rank)
 			res.parities[i] = p
+			if c.relation != nil && c.relation[i] != 0 {
+				// a unit of a related ring pair: its own parity hangs
+				// on a broken tie, its relation does not
+				p = 2 * c.relation[i]
+			}
 			us = append(us, unitCode(u, rank, p))
 		}
 		slices.SortFunc(us, func(x, y [4]int) int { return compareInts(x[:], y[:]) })

@@ -65,10 +65,14 @@ func (c *canonState) relateRingPairs(rank []int) bool {
 		if c.related == nil {
 			c.related = make([]int, c.g.n)
 		}
+		if c.relation == nil {
+			c.relation = make([]int, len(c.units))
+		}
 		for _, k := range pair {
 			for _, a := range unitMarkAtoms(&c.units[k]) {
 				c.related[a] += relatedCode * (2 + p0*p1)
 			}
+			c.relation[k] = p0 * p1
 		}
 		added = true
 	}

@@ -406,23 +406,11 @@ func (l *labeller) configuredRingPair(a int) bool {
 func (l *labeller) splittableRing(a int) bool {
 	g := l.g
 	block := l.ringBlocks()
-	mine := -1
-	for _, e := range g.adj[a] {
-		if block[e.bond] >= 0 {
-			mine = block[e.bond]
-		}
-	}
+	mine := l.blockOf(a)
 	if mine < 0 {
 		return false
 	}
-	inBlock := func(x int) bool {
-		for _, e := range g.adj[x] {
-			if block[e.bond] == mine {
-				return true
-			}
-		}
-		return false
-	}
+	inBlock := func(x int) bool { return l.inBlock(x, mine) }
 	attachments := 0
 	for x := 0; x < g.n; x++ {
 		if !inBlock(x) {
@@ -447,20 +435,36 @@ func (l *labeller) splittableRing(a int) bool {
 	return attachments >= 2
 }
 
+// blockOf returns the ring system (ringBlocks) of a ring atom, -1 for an
+// atom on no ring.
+func (l *labeller) blockOf(a int) int {
+	block := l.ringBlocks()
+	for _, e := range l.g.adj[a] {
+		if block[e.bond] >= 0 {
+			return block[e.bond]
+		}
+	}
+	return -1
+}
+
+// inBlock reports whether atom x has a bond in ring system b.
+func (l *labeller) inBlock(x, b int) bool {
+	block := l.ringBlocks()
+	for _, e := range l.g.adj[x] {
+		if block[e.bond] == b {
+			return true
+		}
+	}
+	return false
+}
+
 // openPairInBlock reports whether the ring system of a ring-paired atom
 // holds two or more other tetrahedral units, at least one of them left
 // unmarked: a pair of stereocentres placed symmetrically about a can
 // tell its two ring branches apart, and with one of them open, so is a
 // (one unit alone sits on the symmetry and cannot).
 func (l *labeller) openPairInBlock(a int) bool {
-	g := l.g
-	block := l.ringBlocks()
-	mine := -1
-	for _, e := range g.adj[a] {
-		if block[e.bond] >= 0 {
-			mine = block[e.bond]
-		}
-	}
+	mine := l.blockOf(a)
 	if mine < 0 {
 		return false
 	}
@@ -470,12 +474,9 @@ func (l *labeller) openPairInBlock(a int) bool {
 		if u.Kind != KindTetrahedral || u.Centre == a {
 			continue
 		}
-		for _, e := range g.adj[u.Centre] {
-			if block[e.bond] == mine {
-				units++
-				open = open || !u.Specified
-				break
-			}
+		if l.inBlock(u.Centre, mine) {
+			units++
+			open = open || !u.Specified
 		}
 	}
 	return units >= 2 && open

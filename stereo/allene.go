@@ -58,7 +58,7 @@ func (l *labeller) alleneWith(ds [2]*digraph, c *alleneConfig, ref int) (label, 
 		for i, n := range r.order {
 			rank := 2*e + i + 1
 			a := d.ligandAtom(n)
-			if a == implicitLigand {
+			if a == ImplicitNeighbour {
 				hRank[e] = rank
 			} else {
 				rankOf[[2]int{e, a}] = rank
@@ -82,7 +82,7 @@ func (l *labeller) alleneWith(ds [2]*digraph, c *alleneConfig, ref int) (label, 
 	}
 	ranks := make([]int, 4)
 	for i, a := range c.ligands {
-		if a == implicitLigand {
+		if a == ImplicitNeighbour {
 			ranks[i] = hRank[c.ligEnd[i]]
 		} else {
 			ranks[i] = rankOf[[2]int{c.ligEnd[i], a}]

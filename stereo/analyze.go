@@ -179,7 +179,7 @@ func (l *labeller) readCentres() {
 				// the lone pair takes the slot an implicit hydrogen would
 				// (OpenSMILES 1.0, 3.9.1)
 				slot := min(at.HydrogenSlot(), len(ligs))
-				ligs = slices.Insert(ligs, slot, implicitLigand)
+				ligs = slices.Insert(ligs, slot, ImplicitNeighbour)
 			}
 			l.cfg.addTetra(&tetraConfig{centre: a, ligands: ligs, winding: ch.Num,
 				lonePair: count == 3, span: sp})

@@ -4,6 +4,7 @@ import (
 	"slices"
 
 	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
 )
 
 // In/out bridgeheads. In a small bridged bicycle the substituents of the
@@ -13,9 +14,8 @@ import (
 // bicyclo[2.2.2]octane along its axis). Marks that make both turn the same
 // way put one substituent inside the cage, which only bicycles with long
 // bridges can take (in/out isomers; common practice). Bridges of at most
-// maxSmallBridge atoms count as small.
+// ringgeom.MaxSmallBridge atoms count as small.
 
-const maxSmallBridge = 3
 
 func (l *labeller) checkBridgeheads() {
 	// two marked atoms with three ring bonds each, or nothing to check
@@ -62,7 +62,7 @@ func (l *labeller) checkBridgeheads() {
 }
 
 // bridgeable is the cheap test before bridgePaths: three ring
-// neighbours of x must lie within maxSmallBridge bonds of y by paths
+// neighbours of x must lie within ringgeom.MaxSmallBridge bonds of y by paths
 // that avoid x (one search from y instead of three).
 func (l *labeller) bridgeable(x, y int) bool {
 	g := l.g
@@ -74,7 +74,7 @@ func (l *labeller) bridgeable(x, y int) bool {
 	queue := append(sc.queue[:0], y)
 	for head := 0; head < len(queue); head++ {
 		u := queue[head]
-		if sc.depth[u] >= maxSmallBridge {
+		if sc.depth[u] >= ringgeom.MaxSmallBridge {
 			continue
 		}
 		for _, e := range g.adj[u] {
@@ -136,10 +136,10 @@ func (l *labeller) bicycles() []bicycle {
 			}
 			if bi := g.mol.BondBetween(x, y); bi >= 0 {
 				// a fused bicycle small enough (perimeter at most
-				// maxFusedPerimeter) has a ring of at most 4 atoms
+				// ringgeom.MaxFusedPerimeter) has a ring of at most 4 atoms
 				// through the shared bond: two rings of size r1 <= r2
 				// have r1+r2-2 atoms round the outside
-				if s := g.ringSize(bi); s == 0 || 2*s-2 > maxFusedPerimeter {
+				if s := g.ringSize(bi); s == 0 || 2*s-2 > ringgeom.MaxFusedPerimeter {
 					continue
 				}
 				if rings, ok := g.fusedPaths(x, y); ok {
@@ -160,7 +160,7 @@ func (l *labeller) bicycles() []bicycle {
 }
 
 // bridges finds three vertex-disjoint paths between atoms a and b, each
-// with one to maxSmallBridge atoms, and returns for each path its first
+// with one to ringgeom.MaxSmallBridge atoms, and returns for each path its first
 // atom at a and at b.
 func (g *graph) bridges(a, b int) ([3][2]int, bool) {
 	var out [3][2]int
@@ -190,7 +190,7 @@ func (g *graph) bridgePaths(a, b int) ([3][]int, bool) {
 		if !g.ringBond[e.bond] || used.mark[e.to] == blocked {
 			continue
 		}
-		path := g.shortPath(e.to, b, used, blocked, maxSmallBridge)
+		path := g.shortPath(e.to, b, used, blocked, ringgeom.MaxSmallBridge)
 		if path == nil {
 			continue
 		}
@@ -206,19 +206,10 @@ func (g *graph) bridgePaths(a, b int) ([3][]int, bool) {
 	return out, n == 3
 }
 
-// maxFusedPerimeter is the largest fused bicycle (two rings sharing a
-// bond) that is reported as unable to be trans-fused, counted in atoms
-// round its perimeter: bicyclo[2.2.0]hexane, bicyclo[3.1.0]hexane and
-// the smaller ones have no trans-fused form (common practice), while
-// trans-bicyclo[3.3.0]octane and trans-bicyclo[4.2.0]octane exist. The
-// seven-atom cases (bicyclo[3.2.0]heptane, bicyclo[4.1.0]heptane) are
-// highly strained when trans; they are left alone rather than called
-// impossible, since an error there would be worse than silence.
-const maxFusedPerimeter = 6
 
 // fusedPaths finds the two rings of a small fused bicycle around the bond
 // a-b: two vertex-disjoint paths from a to b besides the bond itself,
-// with at most maxFusedPerimeter atoms round the outside.
+// with at most ringgeom.MaxFusedPerimeter atoms round the outside.
 func (g *graph) fusedPaths(a, b int) ([2][]int, bool) {
 	var out [2][]int
 	if len(g.adj[a]) < 3 || len(g.adj[b]) < 3 || g.mol.BondBetween(a, b) < 0 {
@@ -233,7 +224,7 @@ func (g *graph) fusedPaths(a, b int) ([2][]int, bool) {
 		if !g.ringBond[e.bond] || used.mark[e.to] == blocked {
 			continue
 		}
-		path := g.shortPath(e.to, b, used, blocked, maxFusedPerimeter-3)
+		path := g.shortPath(e.to, b, used, blocked, ringgeom.MaxFusedPerimeter-3)
 		if path == nil {
 			continue
 		}
@@ -247,7 +238,7 @@ func (g *graph) fusedPaths(a, b int) ([2][]int, bool) {
 		n++
 		atoms += len(path)
 	}
-	return out, n == 2 && atoms <= maxFusedPerimeter
+	return out, n == 2 && atoms <= ringgeom.MaxFusedPerimeter
 }
 
 // bfsScratch is the state of the small searches of this file, kept in
@@ -420,7 +411,7 @@ func ringDegree(g *graph, a int) (n int) {
 }
 
 // partnerHeads lists the atoms with three or more ring bonds that lie
-// within maxSmallBridge+1 ring bonds of x: the bridgeheads a small
+// within ringgeom.MaxSmallBridge+1 ring bonds of x: the bridgeheads a small
 // bicycle could pair with x.
 func (l *labeller) partnerHeads(x int) []int {
 	g := l.g
@@ -435,7 +426,7 @@ func (l *labeller) partnerHeads(x int) []int {
 		if u != x && ringDegree(g, u) >= 3 {
 			out = append(out, u)
 		}
-		if sc.depth[u] > maxSmallBridge {
+		if sc.depth[u] > ringgeom.MaxSmallBridge {
 			continue
 		}
 		for _, e := range g.adj[u] {

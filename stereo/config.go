@@ -1,18 +1,14 @@
 package stereo
 
 import (
-	"slices"
 	"sort"
 
 	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
 )
 
 // The configuration as written: each mark read over the neighbour order
 // OpenSMILES defines, before any question of whether it means anything.
-
-// implicitLigand stands for an implicit or bracket hydrogen, or a lone
-// pair, in a ligand list.
-const implicitLigand = -1
 
 // tetraConfig is a tetrahedral mark: the ligands in stereo order and the
 // winding seen from the first (1 anticlockwise '@', 2 clockwise '@@').
@@ -121,22 +117,7 @@ func emptied[V any](m map[int]V) map[int]V {
 
 // stereoLigands lists the ligands of atom a in stereo order, with the
 // bracket hydrogen at its slot.
-func stereoLigands(m *notation.Molecule, a int) []int {
-	at := &m.Atoms[a]
-	h := at.HydrogenCount()
-	// one allocation, with room for a lone pair a caller may insert
-	out := make([]int, 0, len(at.Bonds)+h+1)
-	for _, bi := range at.Bonds {
-		out = append(out, m.Bonds[bi].Other(a))
-	}
-	if h > 0 {
-		slot := min(at.HydrogenSlot(), len(out))
-		for range h {
-			out = slices.Insert(out, slot, implicitLigand)
-		}
-	}
-	return out
-}
+func stereoLigands(m *notation.Molecule, a int) []int { return ringgeom.Ligands(m, a, false, false) }
 
 // cumulene follows a chain of cumulated double bonds from atom a through
 // neighbour b (a=b). It returns the terminal atom reached, the chain atom
@@ -208,7 +189,7 @@ func (g *graph) substituents(t, inner int) (atoms []int, keys []float64) {
 		keys = append(keys, key)
 	}
 	for h := 0; h < g.hyd[t]; h++ {
-		atoms = append(atoms, implicitLigand)
+		atoms = append(atoms, ImplicitNeighbour)
 		keys = append(keys, float64(m.Atoms[t].Span.Start)+0.25)
 	}
 	return atoms, keys

@@ -1,6 +1,9 @@
 package stereo
 
-import "stereoline/notation"
+import (
+	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
+)
 
 // Family is the D/L descriptor of the Fischer convention, which
 // biochemists use for alpha-amino acids and monosaccharides beside the CIP
@@ -272,7 +275,7 @@ func clockwiseFromHydrogen(m *notation.Molecule, c, x, y, z int) (bool, bool) {
 
 // ImplicitNeighbour stands for the implicit hydrogen or lone pair in a
 // neighbour order.
-const ImplicitNeighbour = -1
+const ImplicitNeighbour = ringgeom.Implicit
 
 // NeighbourOrder returns the four ligands of a tetrahedral centre in the
 // order its mark refers to (OpenSMILES 3.7): the preceding atom, the

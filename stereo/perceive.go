@@ -286,7 +286,7 @@ func (l *labeller) chiralAllene(a int, ends [2]int) bool {
 func (l *labeller) unmarkedConfig(a int) *tetraConfig {
 	ligs := stereoLigands(l.g.mol, a)
 	if len(ligs) == 3 {
-		ligs = append(ligs, implicitLigand)
+		ligs = append(ligs, ImplicitNeighbour)
 	}
 	return &tetraConfig{centre: a, ligands: ligs, winding: 1, lonePair: len(l.g.mol.Atoms[a].Bonds) == 3 && l.g.hyd[a] == 0}
 }

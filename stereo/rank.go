@@ -70,11 +70,11 @@ func (d *digraph) rankLigands(root nodeID, ligs []nodeID) ranking {
 	return r
 }
 
-// ligandAtom is the atom a ligand node stands for, or implicitLigand.
+// ligandAtom is the atom a ligand node stands for, or ImplicitNeighbour.
 func (d *digraph) ligandAtom(n nodeID) int {
 	x := &d.nodes[n]
 	if x.kind == nodeHydrogen || x.kind == nodeLonePair {
-		return implicitLigand
+		return ImplicitNeighbour
 	}
 	return x.atom
 }

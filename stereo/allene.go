@@ -4,7 +4,7 @@ package stereo
 // tetrahedral centres labelled M/P (m/p). The two substituents of each
 // terminal atom are ranked against each other; the pair of one end is
 // then taken as ranks 1 and 2 and the other as 3 and 4, and the written
-// winding gives R or S for that extended tetrahedron, which is M or P
+// hand gives R or S for that extended tetrahedron, which is M or P
 // (aR is M, aS is P; P-93.5.7, common practice).
 
 func (l *labeller) allene(c *alleneConfig) label {
@@ -93,7 +93,7 @@ func (l *labeller) alleneWith(ds [2]*digraph, c *alleneConfig, ref int) (label, 
 		}
 	}
 	out.desc = DescM
-	if tetrahedralDescriptor(ranks, c.winding) == DescS {
+	if tetrahedralDescriptor(ranks, c.hand) == DescS {
 		out.desc = DescP
 	}
 	if isPseudo {

@@ -181,7 +181,7 @@ func (l *labeller) readCentres() {
 				slot := min(at.HydrogenSlot(), len(ligs))
 				ligs = slices.Insert(ligs, slot, ImplicitNeighbour)
 			}
-			l.cfg.addTetra(&tetraConfig{centre: a, ligands: ligs, winding: ch.Num,
+			l.cfg.addTetra(&tetraConfig{centre: a, ligands: ligs, hand: markHand(ch),
 				lonePair: count == 3, span: sp})
 		case notation.ChiralSP, notation.ChiralTB, notation.ChiralOH:
 			kind, need := KindSquarePlanar, 4

@@ -13,6 +13,12 @@ type nodeID int32
 
 const noNode nodeID = -1
 
+// unitRoot is the root of the digraph: the node of the unit being
+// labelled (for a double bond or allene, of one terminal atom). A
+// comparison or ranking rooted at another node works in an auxiliary
+// view of the tree, re-rooted at that node (auxiliary.go).
+const unitRoot nodeID = 0
+
 // nodeKind says what a node stands for.
 type nodeKind uint8
 

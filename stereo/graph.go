@@ -1,6 +1,9 @@
 package stereo
 
-import "stereoline/notation"
+import (
+	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
+)
 
 // graph is the stereo engine's read-only view of a molecule: neighbours in
 // stereo order with their bond orders, hydrogen counts, ring membership
@@ -28,6 +31,9 @@ type graph struct {
 	// scratch space of the ring searches
 	prev, dist, touched, queue []int
 	ringStore                  []int // the rings found, one after another
+
+	// geom is the view the ring and bicycle searches read (bridgehead.go)
+	geom *ringgeom.Graph
 
 	store graphStore // storage reused by the next build
 
@@ -114,6 +120,8 @@ func (g *graph) build(m *notation.Molecule) {
 	}
 	g.findRings()
 	g.findMancude()
+	g.geom = &g.store.geom
+	g.geom.Reset(m, g.ringBond)
 }
 
 // graphStore is the storage of a graph kept for the next build.
@@ -130,7 +138,8 @@ type graphStore struct {
 	marks, unitAtoms []bool
 	// symmetry classes (perceive.go)
 	class, classNext, classSort []uint64
-	bfs                         bfsScratch // its stamps keep growing across builds, so old marks never match
+	// the ring and bicycle searches, with their scratch space
+	geom ringgeom.Graph
 }
 
 // sized returns (*buf)[:n], zeroed, growing *buf when it is too small.

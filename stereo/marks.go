@@ -1,6 +1,9 @@
 package stereo
 
-import "stereoline/notation"
+import (
+	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
+)
 
 // readBonds reads the '/' and '\' marks around every double bond and odd
 // cumulene, reporting one-sided and contradictory marks.
@@ -55,7 +58,10 @@ func (l *labeller) readBonds() {
 		}
 		switch {
 		case marked[0] && marked[1]:
-			c.trans = sides[0] != sides[1]
+			c.hand = ringgeom.Cis
+			if sides[0] != sides[1] {
+				c.hand = ringgeom.Trans
+			}
 			l.cfg.bonds[bi] = c
 			if mid != bi {
 				l.cfg.bonds[mid] = c

@@ -1,6 +1,9 @@
 package stereo
 
-import "stereoline/notation"
+import (
+	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
+)
 
 // perceiveUnmarked finds stereogenic units that carry no mark and
 // reports them as undefined. Constitutional symmetry classes decide:
@@ -281,14 +284,14 @@ func (l *labeller) chiralAllene(a int, ends [2]int) bool {
 
 // unmarkedConfig is the configuration an unmarked centre is ranked
 // under: its ligands in stereo order, the implicit ligand a hydrogen or,
-// with three atoms and no hydrogen, a lone pair; the winding is
+// with three atoms and no hydrogen, a lone pair; the hand is
 // arbitrary, as no label is read from it.
 func (l *labeller) unmarkedConfig(a int) *tetraConfig {
 	ligs := stereoLigands(l.g.mol, a)
 	if len(ligs) == 3 {
 		ligs = append(ligs, ImplicitNeighbour)
 	}
-	return &tetraConfig{centre: a, ligands: ligs, winding: 1, lonePair: len(l.g.mol.Atoms[a].Bonds) == 3 && l.g.hyd[a] == 0}
+	return &tetraConfig{centre: a, ligands: ligs, hand: ringgeom.Anticlockwise, lonePair: len(l.g.mol.Atoms[a].Bonds) == 3 && l.g.hyd[a] == 0}
 }
 
 // explainCap bounds the digraphs that rank the ligands of unmarked
@@ -547,7 +550,7 @@ func (l *labeller) heldNitrogen(a int) bool {
 	g := l.g
 	at := &g.mol.Atoms[a]
 	if at.Number != notation.ElemN || at.Charge != 0 || at.Aromatic || len(g.adj[a]) != 3 || g.hyd[a] != 0 ||
-		g.valence(a) != 3 || ringDegree(g, a) != 3 {
+		g.valence(a) != 3 || g.geom.RingDegree(a) != 3 {
 		return false
 	}
 	return l.bridgedHead(a)

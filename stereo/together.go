@@ -240,7 +240,7 @@ func (l *labeller) spiroAxial(a int) bool {
 // its two ligands are constitutionally equal.
 func (l *labeller) spiroSides(a int) (equal int, ok bool) {
 	g := l.g
-	if len(g.adj[a]) != 4 || g.hyd[a] != 0 || ringDegree(g, a) != 4 || g.doubleBonds(a) > 0 {
+	if len(g.adj[a]) != 4 || g.hyd[a] != 0 || g.geom.RingDegree(a) != 4 || g.doubleBonds(a) > 0 {
 		return 0, false
 	}
 	block := l.ringBlocks()

@@ -5,6 +5,7 @@ import (
 	"sort"
 
 	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
 )
 
 // labelAll labels every unit that carries a configuration.
@@ -217,7 +218,7 @@ func (l *labeller) transInRing(c *bondConfig) bool {
 	for _, a := range ring {
 		in[a] = true
 	}
-	trans := c.trans
+	hand := c.hand
 	for e := 0; e < 2; e++ {
 		rn := -1
 		for _, ed := range l.g.adj[c.ends[e]] {
@@ -226,10 +227,10 @@ func (l *labeller) transInRing(c *bondConfig) bool {
 			}
 		}
 		if rn != c.refs[e] {
-			trans = !trans
+			hand = hand.Reversed()
 		}
 	}
-	return trans
+	return hand == ringgeom.Trans
 }
 
 // protonatedAmine reports an ammonium nitrogen with a hydrogen: the

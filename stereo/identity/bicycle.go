@@ -40,15 +40,7 @@ func smallBicycles(g *keyGraph, units []keyUnit) []bicyclePair {
 			at[units[i].centre] = i
 		}
 	}
-	ringDegree := func(a int) int {
-		n := 0
-		for _, bi := range m.Atoms[a].Bonds {
-			if g.ring[bi] {
-				n++
-			}
-		}
-		return n
-	}
+	ringDegree := g.geom.RingDegree
 	var out []bicyclePair
 	for x, ux := range at {
 		if ringDegree(x) != 3 {
@@ -159,9 +151,9 @@ func outwardOrder(g *keyGraph, a int, bridges []int) ([]int, bool) {
 	return append([]int{out}, bridges...), true
 }
 
-// handIn returns the handedness of a tetrahedral unit with its ligands
-// taken in the given order: +1 when that order reads as '@'.
-func handIn(u *keyUnit, order []int) (int, bool) {
+// handIn returns the hand of a tetrahedral unit with its ligands taken
+// in the given order: Anticlockwise when that order reads as '@'.
+func handIn(u *keyUnit, order []int) (ringgeom.Hand, bool) {
 	pos := make([]int, len(u.ligands))
 	used := make([]bool, len(order))
 	for i, x := range u.ligands {
@@ -173,17 +165,14 @@ func handIn(u *keyUnit, order []int) (int, bool) {
 			}
 		}
 		if pos[i] < 0 {
-			return 0, false
+			return ringgeom.NoHand, false
 		}
 	}
-	odd, ok := permutationParity(pos)
-	if !ok {
-		return 0, false
+	p, distinct := ringgeom.PermutationParity(pos)
+	if !distinct {
+		return ringgeom.NoHand, false
 	}
-	if odd {
-		return -u.hand, true
-	}
-	return u.hand, true
+	return u.hand.Permuted(p), true
 }
 
 // feasible reports whether every coupled pair of bridgeheads has its two

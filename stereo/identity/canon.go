@@ -4,6 +4,7 @@ import (
 	"encoding/binary"
 	"slices"
 	"stereoline/stereo"
+	"stereoline/stereo/internal/ringgeom"
 )
 
 // The canonical form behind the identity key. It is built in four steps.
@@ -246,12 +247,12 @@ func (c *canonState) stereoRefine(rank []int) []int {
 				continue
 			}
 			p := c.parity(&c.units[i], rank)
-			if p == 0 {
+			if p == ringgeom.NoHand {
 				continue
 			}
 			any = true
 			u := &c.units[i]
-			code := 2 + p // 1 or 3, never 0
+			code := 2 + int(p) // 1 or 3, never 0
 			switch u.kind {
 			case keyTetrahedral:
 				extra[u.centre] += code
@@ -296,37 +297,34 @@ func ligandRank(rank []int, x int) int {
 	return rank[x]
 }
 
-// parity expresses a unit on the ranks: +1 or -1, or 0 when ligands tie.
-func (c *canonState) parity(u *keyUnit, rank []int) int {
+// parity expresses a unit on the ranks: its hand read in rank order, or
+// NoHand when ligands tie.
+func (c *canonState) parity(u *keyUnit, rank []int) ringgeom.Hand {
 	switch u.kind {
 	case keyTetrahedral:
 		r := make([]int, len(u.ligands))
 		for i, x := range u.ligands {
 			r[i] = ligandRank(rank, x)
 		}
-		odd, ok := permutationParity(r)
-		if !ok {
-			return 0
+		p, distinct := ringgeom.PermutationParity(r)
+		if !distinct {
+			return ringgeom.NoHand
 		}
-		if odd {
-			return -u.hand
-		}
-		return u.hand
+		return u.hand.Permuted(p)
 	case keyDoubleBond:
-		trans := u.hand == 1
+		// the written hand relates the refs; each end whose highest
+		// ranked substituent is not its ref reverses it
+		hand := u.hand
 		for e := 0; e < 2; e++ {
 			top, ok := c.topSubstituent(u.ends[e], u.ends[1-e], rank)
 			if !ok {
-				return 0
+				return ringgeom.NoHand
 			}
 			if top != u.refs[e] {
-				trans = !trans
+				hand = hand.Reversed()
 			}
 		}
-		if trans {
-			return 1
-		}
-		return -1
+		return hand
 	case keyAllene:
 		// position of each ligand in (end 0 higher, end 0 lower, end 1
 		// higher, end 1 lower); which end comes first does not matter,
@@ -340,11 +338,11 @@ func (c *canonState) parity(u *keyUnit, rank []int) int {
 				}
 			}
 			if len(idx) != 2 {
-				return 0
+				return ringgeom.NoHand
 			}
 			r0, r1 := ligandRank(rank, u.ligands[idx[0]]), ligandRank(rank, u.ligands[idx[1]])
 			if r0 == r1 {
-				return 0
+				return ringgeom.NoHand
 			}
 			hi, lo := idx[0], idx[1]
 			if r1 > r0 {
@@ -352,13 +350,10 @@ func (c *canonState) parity(u *keyUnit, rank []int) int {
 			}
 			pos[hi], pos[lo] = 2*e, 2*e+1
 		}
-		odd, _ := permutationParity(pos)
-		if odd {
-			return -u.hand
-		}
-		return u.hand
+		p, _ := ringgeom.PermutationParity(pos)
+		return u.hand.Permuted(p)
 	}
-	return 0
+	return ringgeom.NoHand
 }
 
 // topSubstituent returns the highest ranked substituent of double-bond
@@ -384,23 +379,6 @@ func (c *canonState) topSubstituent(t, partner int, rank []int) (int, bool) {
 	return best, !tie
 }
 
-// permutationParity reports whether sorting xs takes an odd number of
-// exchanges, and false when two entries are equal.
-func permutationParity(xs []int) (odd, ok bool) {
-	n := 0
-	for i := range xs {
-		for j := i + 1; j < len(xs); j++ {
-			switch {
-			case xs[i] == xs[j]:
-				return false, false
-			case xs[i] > xs[j]:
-				n++
-			}
-		}
-	}
-	return n%2 == 1, true
-}
-
 // chooseUnits decides which units belong in the key, on the ranks after
 // stereo refinement and before any tie is broken. A ring unit is kept
 // when its ring system holds another one, ring systems joined by a
@@ -412,7 +390,7 @@ func (c *canonState) chooseUnits(rank []int) {
 	var spiros []int    // spiro centres between two symmetric rings
 	for i := range c.units {
 		u := &c.units[i]
-		if c.parity(u, rank) != 0 {
+		if c.parity(u, rank) != ringgeom.NoHand {
 			c.keep[i] = true
 			continue
 		}
@@ -537,7 +515,7 @@ func (c *canonState) pending(rank []int) bool {
 		if c.relation != nil && c.relation[i] != 0 {
 			continue // serialised by its relation, known already
 		}
-		if c.keep != nil && c.keep[i] && c.parity(&c.units[i], rank) == 0 {
+		if c.keep != nil && c.keep[i] && c.parity(&c.units[i], rank) == ringgeom.NoHand {
 			return true
 		}
 	}
@@ -650,7 +628,7 @@ func (c *canonState) leaf(rank []int) canonResult {
 				continue
 			}
 			u := &c.units[i]
-			p := c.parity(u, rank)
+			p := int(c.parity(u, rank))
 			res.parities[i] = p
 			if c.relation != nil && c.relation[i] != 0 {
 				// a unit of a related ring pair: its own parity hangs

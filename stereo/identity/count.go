@@ -3,6 +3,7 @@ package identity
 import (
 	"stereoline/notation"
 	"stereoline/stereo"
+	"stereoline/stereo/internal/ringgeom"
 )
 
 // Counting the stereoisomers a constitution allows. Each potential unit
@@ -47,9 +48,10 @@ func Stereoisomers(m *notation.Molecule) StereoisomerCount {
 	pairs := smallBicycles(g, units)
 	for mask := 0; mask < 1<<n; mask++ {
 		for i := range units {
-			units[i].hand = 1
+			// one sense or the other (Trans or Cis for a double bond)
+			units[i].hand = ringgeom.Anticlockwise
 			if mask&(1<<i) != 0 {
-				units[i].hand = -1
+				units[i].hand = ringgeom.Clockwise
 			}
 		}
 		if !feasible(units, pairs) {
@@ -79,11 +81,11 @@ func potentialUnits(g *keyGraph) []keyUnit {
 			continue
 		}
 		if ends, inner, ok := g.alleneEnds(a); ok {
-			u := keyUnit{kind: keyAllene, centre: a, ends: ends, hand: 1, bond: -1}
-			u.ligands, u.ligEnd = g.alleneLigands(ends, inner)
+			u := keyUnit{kind: keyAllene, centre: a, ends: ends, hand: ringgeom.Anticlockwise, bond: -1}
+			u.ligands, u.ligEnd = ringgeom.AlleneLigands(g.mol, ends, inner, true)
 			switch {
 			case len(u.ligands) != 4:
-			case cs.parity(&u, rank) != 0:
+			case cs.parity(&u, rank) != ringgeom.NoHand:
 				definite = append(definite, u)
 			case oneEndTied(&u, rank):
 				// an allene off a ring, stereogenic together with a
@@ -96,13 +98,13 @@ func potentialUnits(g *keyGraph) []keyUnit {
 		if !ok {
 			continue
 		}
-		u := keyUnit{kind: keyTetrahedral, centre: a, hand: 1, bond: -1, ligands: g.stereoOrder(a, count == 3)}
+		u := keyUnit{kind: keyTetrahedral, centre: a, hand: ringgeom.Anticlockwise, bond: -1, ligands: g.stereoOrder(a, count == 3)}
 		alone, spiro := false, false
-		if cs.parity(&u, rank) == 0 {
+		if cs.parity(&u, rank) == ringgeom.NoHand {
 			alone, spiro = g.spiroShape(a, u.ligands, rank)
 		}
 		switch {
-		case cs.parity(&u, rank) != 0, spiro && alone:
+		case cs.parity(&u, rank) != ringgeom.NoHand, spiro && alone:
 			definite = append(definite, u)
 		case spiro, oneTiedPair(u.ligands, rank):
 			tied = append(tied, u)
@@ -115,12 +117,12 @@ func potentialUnits(g *keyGraph) []keyUnit {
 		}
 		// an odd cumulene counts once, at its middle bond, between its
 		// terminal atoms (as readDoubleBond reads its marks)
-		t0, c0 := g.walkCumulene(b.End, b.Begin)
-		t1, c1 := g.walkCumulene(b.Begin, b.End)
+		t0, _, c0 := ringgeom.Cumulene(m, g.cumulated, b.End, b.Begin)
+		t1, _, c1 := ringgeom.Cumulene(m, g.cumulated, b.Begin, b.End)
 		if c0 != c1 || t0 == t1 {
 			continue
 		}
-		u := keyUnit{kind: keyDoubleBond, centre: -1, ends: [2]int{t0, t1}, bond: bi, hand: 1}
+		u := keyUnit{kind: keyDoubleBond, centre: -1, ends: [2]int{t0, t1}, bond: bi, hand: ringgeom.Trans}
 		ok := true
 		for e := 0; e < 2 && ok; e++ {
 			t := u.ends[e]
@@ -135,8 +137,7 @@ func potentialUnits(g *keyGraph) []keyUnit {
 		}
 		// a lone hydrogen or lone pair at both ends of a C=C is fine; two
 		// substituents at one end must differ
-		cs2 := cs.parity(&u, rank)
-		if cs2 != 0 {
+		if cs.parity(&u, rank) != ringgeom.NoHand {
 			definite = append(definite, u)
 		} else {
 			tied = append(tied, u)

@@ -6,6 +6,7 @@ import (
 
 	"stereoline/notation"
 	"stereoline/stereo"
+	"stereoline/stereo/internal/ringgeom"
 )
 
 // Chirality says whether a structure, as its marks describe it, differs
@@ -48,9 +49,9 @@ type Identity struct {
 
 // identityUnit is one kept unit in constitution-canonical terms.
 type identityUnit struct {
-	code   [4]int // kind, positions, parity on the constitution order
-	atoms  []int  // molecule atoms: the centre, or the two ends
-	hand   int    // parity on the constitution order
+	code   [4]int        // kind, positions, parity on the constitution order
+	atoms  []int         // molecule atoms: the centre, or the two ends
+	hand   ringgeom.Hand // parity on the constitution order
 	kind   unitKind
 	chiral bool // a tetrahedral or allene unit (changes in a mirror)
 }
@@ -107,11 +108,11 @@ func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 		if !st.keep[i] {
 			continue
 		}
-		if u.kind == keyTetrahedral && st.parity(u, base) != 0 {
+		if u.kind == keyTetrahedral && st.parity(u, base) != ringgeom.NoHand {
 			centres++
 		}
 		p := st.parity(u, con.rank)
-		id.units = append(id.units, identityUnit{code: unitCode(u, con.rank, p), atoms: unitAtoms(u), hand: p, kind: u.kind,
+		id.units = append(id.units, identityUnit{code: unitCode(u, con.rank, int(p)), atoms: unitAtoms(u), hand: p, kind: u.kind,
 			chiral: u.kind != keyDoubleBond})
 	}
 	switch {
@@ -137,7 +138,7 @@ func mirrorUnits(units []keyUnit) []keyUnit {
 	copy(out, units)
 	for i := range out {
 		if out[i].kind != keyDoubleBond {
-			out[i].hand = -out[i].hand
+			out[i].hand = out[i].hand.Reversed()
 		}
 	}
 	return out
@@ -180,8 +181,8 @@ func Configurations(m *notation.Molecule) map[UnitID]int {
 		if u.kind == keyDoubleBond {
 			id.At = u.bond
 		}
-		if p := c.parity(u, rank); p != 0 {
-			out[id] = p
+		if p := c.parity(u, rank); p != ringgeom.NoHand {
+			out[id] = int(p)
 		}
 	}
 	return out

@@ -38,7 +38,7 @@ type keyUnit struct {
 	refs    [2]int
 	ligands []int
 	ligEnd  []int
-	hand    int
+	hand    ringgeom.Hand
 	bond    int // the double bond, -1 otherwise
 }
 
@@ -62,6 +62,9 @@ type keyGraph struct {
 	system []int  // per atom: ring system id, -1 outside rings
 	rings  *notation.Rings
 	arom   []bool // per atom: aromatic, as written or as found in a Kekulé ring
+	// geom is the view the ring and bicycle searches read, set by
+	// findRingSystems
+	geom ringgeom.Graph
 }
 
 func bondClass(b *notation.Bond) int {
@@ -135,6 +138,7 @@ func (g *keyGraph) findRingSystems() {
 			g.system[a] = sets.Find(a)
 		}
 	}
+	g.geom.Reset(m, g.ring)
 }
 
 // ligandOf maps a neighbour atom to the ligand the key sees: folded
@@ -175,13 +179,15 @@ func (g *keyGraph) readUnits() {
 		if ch.Class != notation.ChiralTH && ch.Class != notation.ChiralAL {
 			continue
 		}
-		hand := 1
-		if ch.Num == 2 {
-			hand = -1
+		// a number the reader rejected (@TH3, read as 0 and reported as
+		// an error) is taken as '@'
+		hand := ringgeom.MarkHand(ch.Num)
+		if hand == ringgeom.NoHand {
+			hand = ringgeom.Anticlockwise
 		}
 		if ends, inner, ok := g.alleneEnds(a); ok && (ch.Short || ch.Class == notation.ChiralAL) {
 			u := keyUnit{kind: keyAllene, centre: a, ends: ends, hand: hand, bond: -1}
-			u.ligands, u.ligEnd = g.alleneLigands(ends, inner)
+			u.ligands, u.ligEnd = ringgeom.AlleneLigands(g.mol, ends, inner, true)
 			if len(u.ligands) == 4 {
 				g.units = append(g.units, u)
 			}
@@ -237,17 +243,10 @@ func (g *keyGraph) dropFixedUnits() {
 // three-membered ring or at a bridgehead (all three bonds in rings).
 func (g *keyGraph) heldNitrogen(a int) bool {
 	g.findRingSystems()
-	m := g.mol
 	if g.rings.AtomSize[a] == 3 {
 		return true
 	}
-	ringBonds := 0
-	for _, bi := range m.Atoms[a].Bonds {
-		if g.rings.BondInRing(bi) {
-			ringBonds++
-		}
-	}
-	return ringBonds == 3
+	return g.geom.RingDegree(a) == 3
 }
 
 // substituents lists the neighbours of double-bond end t other than
@@ -274,8 +273,8 @@ func (g *keyGraph) readDoubleBond(bi int) (keyUnit, bool) {
 	}
 	// an odd cumulene is read at its middle bond, between its terminal
 	// atoms; a plain double bond is a cumulene of one
-	t0, c0 := g.walkCumulene(b.End, b.Begin)
-	t1, c1 := g.walkCumulene(b.Begin, b.End)
+	t0, _, c0 := ringgeom.Cumulene(m, g.cumulated, b.End, b.Begin)
+	t1, _, c1 := ringgeom.Cumulene(m, g.cumulated, b.Begin, b.End)
 	if c0 != c1 || t0 == t1 {
 		return keyUnit{}, false
 	}
@@ -311,104 +310,21 @@ func (g *keyGraph) readDoubleBond(bi int) (keyUnit, bool) {
 			return keyUnit{}, false
 		}
 	}
-	u.hand = -1
+	u.hand = ringgeom.Cis
 	if side[0] != side[1] {
-		u.hand = 1
+		u.hand = ringgeom.Trans
 	}
 	return u, true
-}
-
-// walkCumulene follows cumulated atoms from `from` through `to` and
-// returns the first atom that is not cumulated and the double bonds
-// passed on the way.
-func (g *keyGraph) walkCumulene(from, to int) (terminal, count int) {
-	prev, cur := from, to
-	for g.cumulated(cur) && count <= g.n {
-		next := g.adj[cur][0].to
-		if next == prev {
-			next = g.adj[cur][1].to
-		}
-		prev, cur = cur, next
-		count++
-	}
-	return cur, count
 }
 
 // alleneEnds returns the terminal atoms of the even cumulene centred on
 // c, and the chain atom next to each.
 func (g *keyGraph) alleneEnds(c int) (ends, inner [2]int, ok bool) {
-	if !g.cumulated(c) {
-		return ends, inner, false
-	}
-	var count [2]int
-	for e := 0; e < 2; e++ {
-		prev, cur := c, g.adj[c][e].to
-		count[e] = 1
-		for g.cumulated(cur) && count[e] <= g.n {
-			next := -1
-			for _, x := range g.adj[cur] {
-				if x.to != prev {
-					next = x.to
-				}
-			}
-			prev, cur = cur, next
-			count[e]++
-		}
-		ends[e], inner[e] = cur, prev
-	}
-	if count[0] != count[1] || ends[0] == ends[1] {
-		return ends, inner, false
-	}
-	return ends, inner, true
+	return ringgeom.AlleneEnds(g.mol, g.cumulated, c)
 }
 
 // cumulated reports whether a has exactly two neighbours, both through
 // double bonds, and no hydrogens.
 func (g *keyGraph) cumulated(a int) bool {
 	return len(g.adj[a]) == 2 && g.hydro[a] == 0 && g.adj[a][0].class == 2 && g.adj[a][1].class == 2
-}
-
-// alleneLigands lists the substituents of the two terminal atoms in the
-// order OpenSMILES reads an extended tetrahedral mark: by position in the
-// text, a hydrogen standing at its terminal atom's position.
-func (g *keyGraph) alleneLigands(ends, inner [2]int) (ligs, ligEnd []int) {
-	type lig struct {
-		atom, end int
-		key       float64
-	}
-	m := g.mol
-	var ls []lig
-	for e := 0; e < 2; e++ {
-		t := ends[e]
-		for _, x := range g.adj[t] {
-			if x.to == inner[e] {
-				continue
-			}
-			// an ordinary neighbour stands where it is written, a ring
-			// closure at its digit on t
-			key := float64(m.Atoms[x.to].Span.Start)
-			if bi := m.BondBetween(t, x.to); bi >= 0 && m.Bonds[bi].Ring {
-				b := &m.Bonds[bi]
-				if b.Begin == t {
-					key = float64(b.Span.Start) + 0.5
-				} else {
-					key = float64(b.CloseSpan.Start) + 0.5
-				}
-			}
-			ls = append(ls, lig{x.to, e, key})
-		}
-		for h := 0; h < g.hydro[t]; h++ {
-			ls = append(ls, lig{stereo.ImplicitNeighbour, e, float64(m.Atoms[t].Span.Start) + 0.25})
-		}
-	}
-	for i := 1; i < len(ls); i++ {
-		for j := i; j > 0 && ls[j].key < ls[j-1].key; j-- {
-			ls[j], ls[j-1] = ls[j-1], ls[j]
-		}
-	}
-	for _, l := range ls {
-		ligs = append(ligs, l.atom)
-		ligEnd = append(ligEnd, l.end)
-	}
-	return ligs, ligEnd
 }

@@ -107,7 +107,7 @@ func (c *canonState) trialParities(rank []int, list []int) map[int]int {
 	for step := 0; step <= len(c.atoms); step++ {
 		done := true
 		for _, i := range list {
-			out[i] = c.parity(&c.units[i], rank)
+			out[i] = int(c.parity(&c.units[i], rank))
 			done = done && out[i] != 0
 		}
 		if done || c.classes(rank) == len(c.atoms) {

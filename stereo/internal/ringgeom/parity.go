@@ -57,12 +57,17 @@ const (
 )
 
 // MarkHand returns the hand of a chirality mark's number as OpenSMILES
-// writes it: 1 ('@', @TH1, @AL1) is Anticlockwise, 2 ('@@') Clockwise.
+// writes it: 1 ('@', @TH1, @AL1) is Anticlockwise, 2 ('@@', @TH2, @AL2)
+// Clockwise. Any other number (the reader gives 0 to a number it
+// rejects, as in @TH3, and reports it) has NoHand: the caller decides.
 func MarkHand(num int) Hand {
-	if num == 2 {
+	switch num {
+	case 1:
+		return Anticlockwise
+	case 2:
 		return Clockwise
 	}
-	return Anticlockwise
+	return NoHand
 }
 
 // Reversed returns the opposite sense.

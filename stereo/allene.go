@@ -32,7 +32,7 @@ func (l *labeller) alleneWith(ds [2]*digraph, c *alleneConfig, ref int) (label, 
 		d := ds[e]
 		r := l.rootRanking(d, ref, func(d *digraph) []nodeID {
 			var ligs []nodeID
-			for _, k := range d.ligandsOf(0, noNode) {
+			for _, k := range d.ligandsOf(unitRoot, noNode) {
 				if d.nodes[k].atom != c.inner[e] {
 					ligs = append(ligs, k)
 				}

@@ -111,7 +111,7 @@ type labeller struct {
 	spare         []*digraph   // storage of digraphs already used, for reuse (digraph_reuse.go)
 	classes       *lazyClasses // constitutional symmetry classes, computed on first use
 	halfMarked    []member     // marked units that may be stereogenic together (together.go)
-	effective     map[int]bool // by bond: marks that configure a labelled double bond
+	effective     markUse // by bond: marks that configure a labelled double bond
 	bicycleList   []bicycle    // small bicycles, found on first use (bridgehead.go)
 	bicyclesFound bool
 	blocks        []int // by bond: ring system, found on first use (together.go)

@@ -31,7 +31,7 @@ func (d *digraph) auxFor(root, n nodeID) Descriptor {
 		x = d.computeAux(n)
 		d.aux[n] = auxEntry{state: auxKnown, desc: x}
 	}
-	if d.mirror && root == 0 {
+	if d.mirror && root == unitRoot {
 		return mirrorAux(x)
 	}
 	return x

@@ -32,6 +32,18 @@ type bondConfig struct {
 	marks []int // the marked single bonds at both ends
 }
 
+// noReference stands in refs for a bond ranked without marks (for the
+// explanation of an unmarked unit): it matches no ligand, not even an
+// implicit one (ImplicitNeighbour).
+const noReference = -2
+
+// unmarkedBond is the configuration an unmarked double bond (or odd
+// cumulene, bond its middle bond) is ranked under; its hand is
+// arbitrary, as no label is read from it.
+func unmarkedBond(bond int, ends, inner [2]int) *bondConfig {
+	return &bondConfig{bond: bond, ends: ends, inner: inner, refs: [2]int{noReference, noReference}, hand: ringgeom.Cis}
+}
+
 // alleneConfig is an extended tetrahedral mark on the centre of an even
 // cumulene: the four substituents of the terminal atoms in OpenSMILES
 // order, which end each belongs to, and the hand.

@@ -72,8 +72,10 @@ type digraph struct {
 	sortTables [][numRules]int32
 	sorts      []nodeID
 	kidBuf     []nodeID
-	// auxRef holds the Rule 6 reference of an auxiliary ranking under
-	// way, by its root; such rankings bypass the memo at Rule 6
+	// auxRef holds, by the root of an auxiliary view, the Rule 6
+	// reference of that view's ranking while one is under way
+	// (auxWithReference tries each tied ligand in turn); Rule 6
+	// comparisons in such a view bypass the memos (bypassMemo)
 	auxRef map[nodeID]int
 	aux    []auxEntry // by node, grown on demand (auxiliary.go)
 	cfg    *configs

@@ -374,17 +374,13 @@ func (g *graph) cyclicBonds(cyclic []bool) {
 }
 
 // ringKey names a ring by a 64-bit hash of its set of atoms: the sum
-// of a mixed value of each atom (the splitmix64 finaliser, common
-// practice), which does not depend on the order the search found them
-// in, so no sorted copy is needed. Two different rings would need a
-// 64-bit collision to share a key.
+// of a mixed value of each atom (ringgeom.Mix64), which does not depend
+// on the order the search found them in, so no sorted copy is needed.
+// Two different rings would need a 64-bit collision to share a key.
 func ringKey(ring []int) uint64 {
 	h := uint64(len(ring))
 	for _, v := range ring {
-		x := uint64(v) + 0x9e3779b97f4a7c15
-		x = (x ^ x>>30) * 0xbf58476d1ce4e5b9
-		x = (x ^ x>>27) * 0x94d049bb133111eb
-		h += x ^ x>>31
+		h += ringgeom.Mix64(uint64(v))
 	}
 	return h
 }

@@ -30,7 +30,8 @@ func (l *labeller) readBonds() {
 			continue // even cumulene: an axial unit, read from its centre mark
 		}
 		mid := l.middleBond(t0, i0, count)
-		c := &bondConfig{bond: mid, ends: [2]int{t0, t1}, inner: [2]int{i0, i1}}
+		// Cis until both ends are found marked (a one-sided bond keeps it)
+		c := &bondConfig{bond: mid, ends: [2]int{t0, t1}, inner: [2]int{i0, i1}, hand: ringgeom.Cis}
 		marked := [2]bool{}
 		ok := true
 		var sides [2]notation.Direction

@@ -109,7 +109,7 @@ func (l *labeller) rootRanking(d *digraph, ref int, pick func(d *digraph) []node
 		return r
 	}
 	d.mirror = true
-	mr := d.rankLigands(0, ligs)
+	mr := d.rankLigands(unitRoot, ligs)
 	d.mirror = false
 	if mr.tie || d.capped || len(mr.order) != len(r.order) {
 		return r
@@ -131,7 +131,7 @@ func (l *labeller) rootRanking(d *digraph, ref int, pick func(d *digraph) []node
 func (l *labeller) plainRanking(d *digraph, ref int, pick func(d *digraph) []nodeID) (ranking, []nodeID) {
 	d.refAtom, d.mirror = ref, false
 	ligs := pick(d)
-	r := d.rankLigands(0, ligs)
+	r := d.rankLigands(unitRoot, ligs)
 	r.pseudo = false
 	return r, ligs
 }

@@ -30,7 +30,7 @@ type bicyclePair struct {
 // trans-fused bicyclo[2.2.0]hexane or bicyclo[3.1.0]hexane is known,
 // while trans-bicyclo[3.3.0]octane and bicyclo[4.2.0]octane exist and the
 // strained seven-atom ones are left possible (common practice; the same
-// line as ringgeom.MaxFusedPerimeter in bridgehead.go).
+// line as ringgeom.MaxFusedPerimeter).
 func smallBicycles(g *keyGraph, units []keyUnit) []bicyclePair {
 	g.findRingSystems()
 	m := g.mol
@@ -95,6 +95,12 @@ func smallBicycles(g *keyGraph, units []keyUnit) []bicyclePair {
 	return out
 }
 
+// smallBicycle reports whether a bicycle with bridges of these lengths
+// (inner atoms; 0 for the direct bond of a fused bicycle) is small. A
+// bridged one counts by its largest ring, up to that of a bicycle whose
+// bridges all have ringgeom.MaxSmallBridge atoms (bicyclo[3.3.3]undecane,
+// eight atoms): unlike the labeller's bicycles, one long bridge beside
+// two short ones (bicyclo[4.1.1]octane) counts too.
 func smallBicycle(lengths []int) bool {
 	largest, fused := 0, false
 	for i := range lengths {
@@ -108,7 +114,7 @@ func smallBicycle(lengths []int) bool {
 	if fused {
 		return largest <= ringgeom.MaxFusedPerimeter
 	}
-	return largest <= 8
+	return largest <= 2*ringgeom.MaxSmallBridge+2
 }
 
 // bridgeEnd returns the neighbour of y on the bridge that leaves x

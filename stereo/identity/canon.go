@@ -42,7 +42,7 @@ import (
 //     serialisation wins.
 //
 // Marks that cannot tell compounds apart are dropped before step 1: a
-// double bond in a ring of fewer than eight atoms, a freely inverting
+// double bond in a ring too small for trans (ringgeom.MinTransRing), a freely inverting
 // nitrogen (canon_graph.go), a bridgehead fixed by its cage
 // (identity_cage.go). Square-planar, trigonal-bipyramidal and
 // octahedral marks enter the key as the classes of their ligands on the

@@ -112,7 +112,7 @@ func potentialUnits(g *keyGraph) []keyUnit {
 	}
 	for bi := range m.Bonds {
 		b := &m.Bonds[bi]
-		if b.Order != notation.OrderDouble || g.folded[b.Begin] || g.folded[b.End] || g.arom[b.Begin] && g.arom[b.End] || (rings.BondInRing(bi) && rings.BondSize[bi] < 8) {
+		if b.Order != notation.OrderDouble || g.folded[b.Begin] || g.folded[b.End] || g.arom[b.Begin] && g.arom[b.End] || (rings.BondInRing(bi) && rings.BondSize[bi] < ringgeom.MinTransRing) {
 			continue
 		}
 		// an odd cumulene counts once, at its middle bond, between its

@@ -215,7 +215,7 @@ func (g *keyGraph) readUnits() {
 }
 
 // dropFixedUnits leaves out marks that cannot tell two compounds apart:
-// a double bond in a ring of fewer than eight atoms can only be cis, a
+// a double bond in a ring too small for trans (ringgeom.MinTransRing) can only be cis, a
 // three-coordinate nitrogen inverts quickly unless a small ring or a
 // bridgehead position holds it (common practice; RDKit treats both the
 // same way), and a bridgehead whose cage fixes it (identity_cage.go).
@@ -226,7 +226,7 @@ func (g *keyGraph) dropFixedUnits() {
 		switch {
 		case u.kind == keyDoubleBond && u.bond >= 0:
 			g.findRingSystems()
-			if g.rings.BondInRing(u.bond) && g.rings.BondSize[u.bond] < 8 {
+			if g.rings.BondInRing(u.bond) && g.rings.BondSize[u.bond] < ringgeom.MinTransRing {
 				continue
 			}
 		case u.kind == keyTetrahedral && m.Atoms[u.centre].Number == notation.ElemN && len(g.adj[u.centre])+g.hydro[u.centre] == 3:

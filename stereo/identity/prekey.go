@@ -4,6 +4,7 @@ import (
 	"sync"
 
 	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
 )
 
 // A cheap key of a record's constitution, computed before the identity
@@ -46,7 +47,7 @@ type preKeyScratch struct {
 	nbrs   []int    // neighbours of every vertex, one after another
 	label  []uint64 // current colour of each vertex
 	next   []uint64
-	spread []uint64 // spread(label) of each vertex, for the sums of neighbours
+	spread []uint64 // Scramble(label) of each vertex, for the sums of neighbours
 }
 
 var preKeyScratches = sync.Pool{New: func() any { return new(preKeyScratch) }}
@@ -89,7 +90,7 @@ func ConstitutionPreKey(m *notation.Molecule) uint64 {
 		sc.start[v] = len(sc.nbrs)
 		at := &m.Atoms[a]
 		h := at.HydrogenCount()
-		var hKinds uint64 // isotopes and charges of hydrogen atoms; a folded [H] has neither
+		var hKinds uint64 // isotopes and charges of hydrogen atoms; a folded [H] has neither, and Scramble(0) is 0
 		for _, bi := range at.Bonds {
 			if bi < 0 || bi >= len(m.Bonds) {
 				continue
@@ -99,7 +100,7 @@ func ConstitutionPreKey(m *notation.Molecule) uint64 {
 			case o < 0 || o >= n || o == a:
 			case sc.heavy[o] < 0:
 				h++ // a hydrogen atom counts on its heavy neighbour
-				hKinds += spread(uint64(int64(m.Atoms[o].Isotope))<<8 ^ uint64(int64(m.Atoms[o].Charge)))
+				hKinds += ringgeom.Scramble(uint64(int64(m.Atoms[o].Isotope))<<8 ^ uint64(int64(m.Atoms[o].Charge)))
 			default:
 				sc.nbrs = append(sc.nbrs, sc.heavy[o])
 			}
@@ -114,7 +115,7 @@ func ConstitutionPreKey(m *notation.Molecule) uint64 {
 	key := mix(mix(uint64(vertices), uint64(len(sc.nbrs))), uint64(hydrogens+hAtoms))
 	var sum uint64
 	for _, l := range label {
-		sum += spread(l) // a sum of spread labels is a hash of the multiset
+		sum += ringgeom.Scramble(l) // a sum of scrambled labels is a hash of the multiset
 	}
 	return mix(key, sum)
 }
@@ -133,7 +134,7 @@ func (sc *preKeyScratch) refineColours(vertices int) []uint64 {
 	spreads := grow(sc.spread, vertices)
 	for round := 0; round < min(vertices, preKeyRounds); round++ {
 		for v, l := range label {
-			spreads[v] = spread(l)
+			spreads[v] = ringgeom.Scramble(l)
 		}
 		for v := range label {
 			var around uint64
@@ -148,18 +149,7 @@ func (sc *preKeyScratch) refineColours(vertices int) []uint64 {
 	return label
 }
 
-// spread is the finaliser of SplitMix64 (common practice): it scatters
-// the bits of x so sums of spread values rarely collide.
-func spread(x uint64) uint64 {
-	x ^= x >> 30
-	x *= 0xbf58476d1ce4e5b9
-	x ^= x >> 27
-	x *= 0x94d049bb133111eb
-	x ^= x >> 31
-	return x
-}
-
 // mix combines a hash with one more value, order-sensitively.
 func mix(h, x uint64) uint64 {
-	return spread(h*0x9e3779b97f4a7c15 + x + 1)
+	return ringgeom.Scramble(h*0x9e3779b97f4a7c15 + x + 1)
 }

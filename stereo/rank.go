@@ -2,6 +2,7 @@ package stereo
 
 import (
 	"slices"
+
 	"stereoline/stereo/internal/ringgeom"
 )
 

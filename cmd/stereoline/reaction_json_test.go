@@ -2,10 +2,11 @@ package main
 
 import (
 	"encoding/json"
-	"stereoline/notation"
-	"stereoline/stereo/reaction"
 	"strings"
 	"testing"
+
+	"stereoline/notation"
+	"stereoline/stereo/reaction"
 )
 
 func TestReactionJSON(t *testing.T) {

@@ -3,6 +3,7 @@ package identity
 import (
 	"encoding/binary"
 	"slices"
+
 	"stereoline/stereo"
 	"stereoline/stereo/internal/ringgeom"
 )

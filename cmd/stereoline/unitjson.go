@@ -1,20 +1,29 @@
-package stereo
+package main
 
-import "encoding/json"
+import (
+	"encoding/json"
 
-// unitJSON is the shape `describe --json` prints for one unit. Atom
+	"stereoline/stereo"
+)
+
+// This file implements a second JSON form of the stereo units, with the
+// decisions of each ranking, which no command prints yet: describe
+// prints unitJSON (describe.go). It left package stereo so that output
+// forms live with the commands.
+
+// analysisUnitJSON is the shape of one unit in analysisJSON. Atom
 // numbers are 1-based, as users count them in the notation.
-type unitJSON struct {
+type analysisUnitJSON struct {
 	Kind        string         `json:"kind"`
 	Atoms       []int          `json:"atoms"`
 	Specified   bool           `json:"specified"`
 	CIP         string         `json:"cip,omitempty"`
 	Permutation int            `json:"permutation,omitempty"`
-	Ranked      []ligandJSON   `json:"ranked"`
+	Ranked      []rankedJSON   `json:"ranked"`
 	Decisions   []decisionJSON `json:"decisions,omitempty"`
 }
 
-type ligandJSON struct {
+type rankedJSON struct {
 	Rank     int    `json:"rank"`
 	Atom     int    `json:"atom,omitempty"`     // 1-based; absent for an implicit ligand
 	Implicit string `json:"implicit,omitempty"` // "hydrogen" or "lone-pair"
@@ -28,12 +37,12 @@ type decisionJSON struct {
 	Sphere int    `json:"sphere"`
 }
 
-// MarshalJSON renders the unit as {"kind", "atoms" (1-based),
+// analysisUnit renders a unit as {"kind", "atoms" (1-based),
 // "specified", "cip" (absent when unspecified or undetermined),
 // "ranked", "decisions"}.
-func (u Unit) MarshalJSON() ([]byte, error) {
-	out := unitJSON{Kind: u.Kind.String(), Specified: u.Specified, Permutation: u.Permutation,
-		Atoms: make([]int, len(u.Atoms)), Ranked: []ligandJSON{}}
+func analysisUnit(u *stereo.Unit) analysisUnitJSON {
+	out := analysisUnitJSON{Kind: u.Kind.String(), Specified: u.Specified, Permutation: u.Permutation,
+		Atoms: make([]int, len(u.Atoms)), Ranked: []rankedJSON{}}
 	for i, a := range u.Atoms {
 		out.Atoms[i] = a + 1
 	}
@@ -41,7 +50,7 @@ func (u Unit) MarshalJSON() ([]byte, error) {
 		out.CIP = u.Descriptor.String()
 	}
 	for _, r := range u.Ranked {
-		lj := ligandJSON{Rank: r.Rank}
+		lj := rankedJSON{Rank: r.Rank}
 		switch {
 		case r.Atom >= 0:
 			lj.Atom = r.Atom + 1
@@ -50,7 +59,7 @@ func (u Unit) MarshalJSON() ([]byte, error) {
 		default:
 			lj.Implicit = "hydrogen"
 		}
-		if (u.Kind == KindDoubleBond || u.Kind == KindAllene) && r.End < len(u.Atoms) {
+		if (u.Kind == stereo.KindDoubleBond || u.Kind == stereo.KindAllene) && r.End < len(u.Atoms) {
 			lj.End = u.Atoms[r.End] + 1
 		}
 		out.Ranked = append(out.Ranked, lj)
@@ -58,14 +67,17 @@ func (u Unit) MarshalJSON() ([]byte, error) {
 	for _, d := range u.Decisions {
 		out.Decisions = append(out.Decisions, decisionJSON{Higher: d.Higher, Lower: d.Lower, Rule: d.Rule.String(), Sphere: d.Sphere})
 	}
-	return json.Marshal(out)
+	return out
 }
 
-// UnitsJSON renders the units of an analysis as a JSON array, for the
-// describe command.
-func UnitsJSON(a *Analysis) ([]byte, error) {
+// analysisJSON renders the units of an analysis as a JSON array.
+func analysisJSON(a *stereo.Analysis) ([]byte, error) {
 	if a == nil || len(a.Units) == 0 {
 		return []byte("[]"), nil
 	}
-	return json.Marshal(a.Units)
+	units := make([]analysisUnitJSON, len(a.Units))
+	for i := range a.Units {
+		units[i] = analysisUnit(&a.Units[i])
+	}
+	return json.Marshal(units)
 }

@@ -1,3 +1,5 @@
+// This file implements the labelling of allenes and even cumulenes (M/P).
+
 package stereo
 
 // Allenes and cumulenes with an even number of double bonds: extended

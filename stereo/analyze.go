@@ -1,3 +1,6 @@
+// This file implements Analyze, the entry point of perception and
+// labelling, and the reading of chirality marks.
+
 package stereo
 
 import (

@@ -1,3 +1,6 @@
+// This file implements the auxiliary descriptors that Rules 3 to 5
+// compare.
+
 package stereo
 
 import "stereoline/stereo/internal/ringgeom"

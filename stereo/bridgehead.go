@@ -1,3 +1,7 @@
+// This file implements the checks of small bicycles: in/out and
+// trans-fused bridgeheads, bridgeheads fixed by their cage, bridgehead
+// nitrogens.
+
 package stereo
 
 import (

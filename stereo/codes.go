@@ -1,3 +1,5 @@
+// This file implements the diagnostic codes of the stereo engine.
+
 package stereo
 
 import "stereoline/notation"

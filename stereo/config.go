@@ -1,3 +1,6 @@
+// This file implements the configurations read from the marks, before any
+// question of what they mean.
+
 package stereo
 
 import (

@@ -1,3 +1,5 @@
+// This file implements the hierarchical digraph of P-92.1.4.
+
 package stereo
 
 // The hierarchical digraph of P-92.1.4: a tree of paths that starts at

@@ -1,3 +1,6 @@
+// This file implements the labelling of double bonds and odd cumulenes
+// (E/Z).
+
 package stereo
 
 import "stereoline/stereo/internal/ringgeom"

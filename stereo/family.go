@@ -1,3 +1,6 @@
+// This file implements the D/L descriptors of alpha-amino acids and
+// monosaccharides (Fischer convention).
+
 package stereo
 
 import (
@@ -269,10 +272,6 @@ func clockwiseFromHydrogen(m *notation.Molecule, c, x, y, z int) (bool, bool) {
 	hand := ringgeom.MarkHand(m.Atoms[c].Chirality.Num).Permuted(ringgeom.Parity(sign))
 	return hand == ringgeom.Clockwise, true
 }
-
-// ImplicitNeighbour stands for the implicit hydrogen or lone pair in a
-// neighbour order.
-const ImplicitNeighbour = ringgeom.Implicit
 
 // NeighbourOrder returns the four ligands of a tetrahedral centre in the
 // order its mark refers to (OpenSMILES 3.7): the preceding atom, the

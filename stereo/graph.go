@@ -1,3 +1,6 @@
+// This file implements the labeller's view of a molecule: neighbours in
+// stereo order, rings and mancude ring systems.
+
 package stereo
 
 import (

@@ -1,3 +1,6 @@
+// This file implements the reading of direction marks around double
+// bonds, and the report of stray marks.
+
 package stereo
 
 import (

@@ -1,3 +1,6 @@
+// This file implements the perception of unmarked stereogenic units and
+// the constitutional symmetry classes it decides by.
+
 package stereo
 
 import (

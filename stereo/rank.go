@@ -1,3 +1,6 @@
+// This file implements the ranking of a unit's ligands and the decisions
+// kept with it.
+
 package stereo
 
 import (

@@ -1,3 +1,5 @@
+// This file implements Sequence Rule 6 and the trials of its reference.
+
 package stereo
 
 // Rule 6 (proposed by Hanson et al. 2018): an undifferentiated reference

@@ -1,3 +1,6 @@
+// This file implements the chain of sequence rules and the comparison of
+// digraph branches under it.
+
 package stereo
 
 // A sequence rule compares two branches of a digraph. The chain below

@@ -1,3 +1,5 @@
+// This file implements the labelling of tetrahedral centres (R/S).
+
 package stereo
 
 // Tetrahedral centres: R/S (r/s when pseudoasymmetric) for an atom with

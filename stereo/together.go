@@ -1,3 +1,6 @@
+// This file implements the units stereogenic only together: ring pairs,
+// exocyclic double bonds, spiro relays.
+
 package stereo
 
 import (

@@ -1,3 +1,6 @@
+// This file implements the labelling of every marked unit and the checks
+// of what its marks mean.
+
 package stereo
 
 import (

@@ -1,3 +1,5 @@
+// This file implements the storage kept between Analyze calls.
+
 package stereo
 
 import "sync"

@@ -1,3 +1,6 @@
+// This file implements the aromaticity the key sees: rings written in
+// Kekulé form recognised by the Hückel rule.
+
 package identity
 
 import "stereoline/notation"

@@ -1,3 +1,6 @@
+// This file implements the coupled bridgeheads of small bicycles, for
+// stereoisomer counts.
+
 package identity
 
 import (

@@ -1,3 +1,6 @@
+// This file implements the bridgeheads the key leaves out because their
+// cage fixes them.
+
 package identity
 
 // Bridgeheads fixed by their cage, as the key sees them

@@ -1,3 +1,5 @@
+// This file implements the canonical search behind the identity key.
+
 package identity
 
 import (

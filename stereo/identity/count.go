@@ -1,3 +1,6 @@
+// This file implements the count of the stereoisomers a constitution
+// allows.
+
 package identity
 
 import (

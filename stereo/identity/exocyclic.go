@@ -1,3 +1,6 @@
+// This file implements exocyclic double bonds and allenes stereogenic
+// together with a ring atom.
+
 package identity
 
 import "stereoline/stereo"

@@ -1,3 +1,6 @@
+// This file implements Identify: the identity keys and chirality class of
+// a structure.
+
 package identity
 
 import (

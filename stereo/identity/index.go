@@ -1,12 +1,7 @@
+// This file implements the one-pass index that relates the records of a
+// list.
+
 package identity
-
-import (
-	"fmt"
-	"strconv"
-	"strings"
-
-	"stereoline/notation"
-)
 
 // Index relates each record of a list to the records before it in one
 // pass: the keys of earlier records sit in maps, so adding a record costs
@@ -72,42 +67,3 @@ func (x *Index) Add(id Identity) Match {
 
 // Len returns the number of records added.
 func (x *Index) Len() int { return x.n }
-
-// Codes of the list diagnostics a document reports from Match.
-const (
-	CodeListDuplicate    notation.Code = "list-duplicate"    // the same structure as an earlier record
-	CodeListEnantiomer   notation.Code = "list-enantiomer"   // the mirror image of an earlier record
-	CodeListStereoisomer notation.Code = "list-stereoisomer" // another configuration of an earlier record's constitution
-)
-
-// Diagnostic returns the code, severity and message for a match, with
-// earlierLine the 1-based line of the earlier record; ok is false when
-// the record matches nothing earlier.
-func (m Match) Diagnostic(earlierLine int) (code notation.Code, sev notation.Severity, msg string, ok bool) {
-	switch m.Relation {
-	case Identical:
-		return CodeListDuplicate, notation.SeverityWarning, fmt.Sprintf("the same structure as the record on line %d", earlierLine), true
-	case Enantiomers:
-		return CodeListEnantiomer, notation.SeverityInformation, fmt.Sprintf("the mirror image of the record on line %d", earlierLine), true
-	case Diastereomers, Unspecified:
-		var atoms []string
-		for _, d := range m.Differing {
-			if len(d.Atoms) > 0 {
-				parts := make([]string, len(d.Atoms))
-				for i, a := range d.Atoms {
-					parts[i] = strconv.Itoa(a + 1)
-				}
-				atoms = append(atoms, strings.Join(parts, "-"))
-			}
-		}
-		msg := fmt.Sprintf("a stereoisomer of the record on line %d", earlierLine)
-		if len(atoms) > 0 {
-			msg += ", differing at atom " + strings.Join(atoms, ", ")
-		}
-		if m.Relation == Unspecified {
-			msg += " (one of them leaves a unit unspecified)"
-		}
-		return CodeListStereoisomer, notation.SeverityInformation, msg, true
-	}
-	return "", 0, "", false
-}

@@ -1,3 +1,6 @@
+// This file implements the key graph and the units the key reads from the
+// marks.
+
 package identity
 
 import (

@@ -1,3 +1,6 @@
+// This file implements square-planar, trigonal-bipyramidal and octahedral
+// centres in the key.
+
 package identity
 
 import (

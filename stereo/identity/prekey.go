@@ -1,3 +1,5 @@
+// This file implements the constitution pre-key.
+
 package identity
 
 import (

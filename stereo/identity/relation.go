@@ -1,3 +1,5 @@
+// This file implements Compare: how two structures are related.
+
 package identity
 
 import (

@@ -71,14 +71,4 @@ func TestIndex(t *testing.T) {
 	if x.Len() != len(records) {
 		t.Errorf("Len %d, want %d", x.Len(), len(records))
 	}
-	// the diagnostics a document shows for the matches
-	x = NewIndex()
-	x.Add(Identify(notation.Read("C[C@H](O)[C@@H](Cl)C")))
-	code, sev, msg, ok := x.Add(Identify(notation.Read("C[C@H](O)[C@H](Cl)C"))).Diagnostic(7)
-	if !ok || code != CodeListStereoisomer || sev != notation.SeverityInformation || msg != "a stereoisomer of the record on line 7, differing at atom 4" {
-		t.Errorf("stereoisomer diagnostic %v %v %q", code, sev, msg)
-	}
-	if code, sev, _, _ := x.Add(Identify(notation.Read("C[C@H](O)[C@H](Cl)C"))).Diagnostic(8); code != CodeListDuplicate || sev != notation.SeverityWarning {
-		t.Errorf("duplicate diagnostic %v %v", code, sev)
-	}
 }

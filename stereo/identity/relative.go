@@ -1,3 +1,5 @@
+// This file implements the cis/trans relation between two ring units.
+
 package identity
 
 import "slices"

@@ -1,3 +1,5 @@
+// This file implements spiro centres in the key.
+
 package identity
 
 import "stereoline/stereo"

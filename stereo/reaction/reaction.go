@@ -1,3 +1,6 @@
+// This file implements the check of mapped reactions: atom maps,
+// retention and inversion, lost configurations.
+
 package reaction
 
 import (
@@ -8,17 +11,6 @@ import (
 	"stereoline/stereo"
 	"stereoline/stereo/internal/ringgeom"
 )
-
-// Mapped reactions: atom-map numbers pair the atoms of the reactants with
-// those of the products, so a stereocentre can be followed across the
-// arrow. Whether it keeps or inverts its configuration is judged from
-// geometry: the ligands that persist (bonded to the centre on both sides,
-// recognised by their map numbers) are compared in the written order of
-// each side, with the written winding. A ligand that leaves and one that
-// arrives take the same position (a substitution writes the nucleophile
-// where the leaving group was). The CIP label is not used for this,
-// because it can change with priorities while the arrangement stays; the
-// result says so where the two disagree.
 
 // Codes of the reaction diagnostics.
 const (
@@ -165,7 +157,7 @@ const (
 )
 
 // compareCentres judges retention or inversion at reactant centre r and
-// product centre p from the written neighbour orders and windings.
+// product centre p from the written neighbour orders and hands.
 func compareCentres(m *notation.Molecule, r, p int) (Change, string) {
 	lr, hr, okr := centreLigands(m, r)
 	lp, hp, okp := centreLigands(m, p)
@@ -197,29 +189,31 @@ func compareCentres(m *notation.Molecule, r, p int) (Change, string) {
 	if !ok {
 		return ChangeUndetermined, "the ligands on the two sides do not correspond"
 	}
-	same := (hr == hp) != (parity == ringgeom.Odd)
-	if same {
+	// the reactant's hand read in the product's order of the same tokens
+	if hr.Permuted(parity) == hp {
 		return ChangeRetention, ""
 	}
 	return ChangeInversion, ""
 }
 
 // centreLigands returns the ligands of a marked centre in stereo order
-// and its winding (+1 '@', -1 '@@').
-func centreLigands(m *notation.Molecule, a int) ([]int, int, bool) {
+// and the hand of its mark.
+func centreLigands(m *notation.Molecule, a int) ([]int, ringgeom.Hand, bool) {
 	ch := m.Atoms[a].Chirality
 	if ch.Class != notation.ChiralTH {
-		return nil, 0, false
+		return nil, ringgeom.NoHand, false
 	}
 	count := len(m.Atoms[a].Bonds) + m.Atoms[a].HydrogenCount()
 	ligs := ringgeom.Ligands(m, a, count == 3, true)
 	// folded [H] atoms are hydrogens here too
 	if len(ligs) != 4 {
-		return nil, 0, false
+		return nil, ringgeom.NoHand, false
 	}
-	hand := 1
-	if ch.Num == 2 {
-		hand = -1
+	// a number the reader rejected (@TH3, read as 0 and reported as an
+	// error) is taken as '@'
+	hand := ringgeom.MarkHand(ch.Num)
+	if hand == ringgeom.NoHand {
+		hand = ringgeom.Anticlockwise
 	}
 	return ligs, hand, true
 }

@@ -1,3 +1,7 @@
+// This file implements the rewriting of direction marks: flipping a
+// double bond, marking one, removing marks that say nothing (Clean),
+// completing one-sided bonds.
+
 package transform
 
 import (

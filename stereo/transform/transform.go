@@ -1,3 +1,6 @@
+// This file implements the transforms that name a unit: mirror, invert,
+// flip and set a descriptor.
+
 package transform
 
 import (
@@ -8,14 +11,6 @@ import (
 	"stereoline/stereo"
 	"stereoline/stereo/identity"
 )
-
-// Transforms rewrite stereo marks as text edits: the enantiomer, an
-// epimer, the other isomer of a double bond, a unit set to a descriptor,
-// the marks that mean nothing removed, a one-sided double bond completed.
-// Only mark bytes change, and brackets where a mark is added to or
-// removed from an atom written without them; atom order, ring numbers,
-// spacing and everything around the notation stay byte for byte. Nothing
-// is changed in place: apply the edits with notation.ApplyEdits.
 
 // Codes of the errors the transforms return.
 const (

@@ -1,10 +1,9 @@
+// This file implements the sizes both engines draw their lines at, and
+// the searches for small bicycles and the bridgeheads their cage fixes.
+
 package ringgeom
 
 import "stereoline/notation"
-
-// This file implements the ring sizes both engines draw their lines at,
-// and the searches for small bicycles and the bridgeheads their cage
-// fixes.
 
 // MinTransRing is the smallest ring that holds a trans double bond: in
 // a ring of fewer atoms a double bond can only be cis (trans-cyclooctene

@@ -1,3 +1,6 @@
+// This file implements the walks along cumulated double bonds both
+// engines read allenes and cumulenes with.
+
 package ringgeom
 
 import (
@@ -5,13 +8,6 @@ import (
 
 	"stereoline/notation"
 )
-
-// This file implements the walks along cumulated double bonds both
-// engines read allenes and cumulenes with. Which atoms are cumulated
-// depends on how an engine reads bond orders (the labeller from the
-// Kekulé structure, the key from the written orders), so the walks take
-// that test from the caller: cumulated(a) is true for an inner atom of
-// a cumulene, two neighbours both through double bonds and no hydrogen.
 
 // Cumulene follows a chain of cumulated double bonds from atom a
 // through its neighbour b (a=b). It returns the terminal atom reached,

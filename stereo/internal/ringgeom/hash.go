@@ -1,9 +1,7 @@
-package ringgeom
-
 // This file implements the one 64-bit mixer of the hashed graph
-// invariants: the symmetry classes of perception (stereo/perceive.go),
-// the names of rings (stereo/graph.go) and the constitution pre-key
-// (stereo/identity/prekey.go).
+// invariants.
+
+package ringgeom
 
 // golden is the increment of splitmix64, 2^64 divided by the golden
 // ratio.

@@ -1,3 +1,5 @@
+// This file implements the ligand lists both engines read marks over.
+
 package ringgeom
 
 import (
@@ -5,10 +7,6 @@ import (
 
 	"stereoline/notation"
 )
-
-// This file implements the ligand lists both engines read marks over:
-// a centre's ligands in the order its mark refers to, with the implicit
-// hydrogens, a lone pair and folded [H] atoms in it.
 
 // Implicit stands for an implicit or bracket hydrogen, a folded [H]
 // atom or a lone pair in a ligand list. Package stereo exports it as

@@ -1,7 +1,7 @@
-package ringgeom
-
 // This file implements the one permutation parity and the one typed
 // handedness of the stereo engines.
+
+package ringgeom
 
 // Parity is the parity of a permutation as a sign, Even +1 and Odd -1,
 // so that parities compose by multiplication.

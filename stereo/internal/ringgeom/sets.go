@@ -1,6 +1,7 @@
-package ringgeom
+// This file implements the union-find both engines group ring systems
+// with.
 
-// This file implements the union-find both engines group ring systems with.
+package ringgeom
 
 // DisjointSets is a union-find over 0..n-1 (path halving, no ranks: the
 // sets here are ring systems of one molecule, small and shallow).

@@ -238,7 +238,7 @@ var codeCatalogue = []codeDoc{
 		Help:    "Check that the units named are meant to differ.",
 		Example: codeExample{File: "example.smi", Text: "C/C=C/C A-1\nC/C=C\\C A-2\n", Shown: "C/C=C/C A-1\nC/C=C\\C A-2\n"},
 	},
-	// Atom-mapped reactions (stereo/reaction.go).
+	// Atom-mapped reactions (stereo/reaction).
 	{
 		Code: reaction.CodeMapDuplicate, Origin: originMap,
 		Short:   "An atom-map number used twice on one side of a reaction.",

@@ -24,7 +24,7 @@ type analysis struct {
 	// identifiable is true for a structure that has identity keys (not a
 	// reaction, read without error, not empty). The keys are the
 	// costliest part of an analysis and most records of a list never
-	// need them (prekey.go), so they are computed on first use.
+	// need them (identity.ConstitutionPreKey), so they are computed on first use.
 	identifiable bool
 	preKey       uint64
 	identityOnce sync.Once

@@ -57,7 +57,7 @@ func (r *Result) Relate() *Result {
 // the records of a list, each against the first earlier record it
 // matches. The identity index keeps keys in maps, so a list of 100,000
 // records is related in one pass; only records whose constitution
-// pre-key another record shares get identity keys (prekey.go), since the
+// pre-key another record shares get identity keys (identity.ConstitutionPreKey), since the
 // others can match nothing.
 func (r *Result) relateRecords() {
 	if !relatedKinds[r.Kind] {

@@ -18,7 +18,7 @@ import (
 // Left out: marks Analyze reports as impossible (a substituent inside a
 // small cage; the key still describes what was written), one-sided
 // double bonds (the key reads a bond only when both ends are marked) and
-// polyhedral centres (keyed by canon_polyhedron.go, not as units).
+// polyhedral centres (keyed by polyhedron.go, not as units).
 func TestIdentityUnitsAgreeWithLabeller(t *testing.T) {
 	writings := []string{
 		"C[C@H]1CC/C(=C/C(=O)O)CC1", "C[C@@H]1CC/C(=C\\C(=O)O)CC1", "C[C@H]1CC/C(=N/O)CC1",

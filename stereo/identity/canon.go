@@ -17,7 +17,7 @@ import (
 //     hydrogen count and number of neighbours. Plain [H] atoms are folded
 //     into their neighbour's hydrogen count first, so C and C[H] agree,
 //     and rings written in Kekulé form count as aromatic
-//     (canon_aromatic.go), so C1=CC=CC=C1 and c1ccccc1 agree.
+//     (aromatic.go), so C1=CC=CC=C1 and c1ccccc1 agree.
 //  2. Refinement. Classes are refined until stable (the partition
 //     refinement of Weininger's CANON, common practice): an atom's new
 //     class is its old class followed by the sorted list of
@@ -46,15 +46,15 @@ import (
 //
 // Marks that cannot tell compounds apart are dropped before step 1: a
 // double bond in a ring too small for trans (ringgeom.MinTransRing), a freely inverting
-// nitrogen (canon_graph.go), a bridgehead fixed by its cage
-// (identity_cage.go). Square-planar, trigonal-bipyramidal and
+// nitrogen (keygraph.go), a bridgehead fixed by its cage
+// (cage.go). Square-planar, trigonal-bipyramidal and
 // octahedral marks enter the key as the classes of their ligands on the
-// polyhedron (canon_polyhedron.go).
+// polyhedron (polyhedron.go).
 //
 // A unit that still has no parity after step 3 is not stereogenic and is
 // left out of the key (the mark on the central carbon of propan-2-ol
 // means nothing), unless it is such a ring unit and another one shares
-// its ring system (chooseUnits), or a spiro centre (identity_spiro.go).
+// its ring system (chooseUnits), or a spiro centre (spiro.go).
 // The key is the serialisation of the final order:
 // atoms with their invariants, bonds as pairs of positions, and the kept
 // units with their parities.
@@ -76,7 +76,7 @@ type canonState struct {
 	seen   []bool
 
 	// sym holds the symmetry classes after refinement, before ties are
-	// broken, for the polyhedral centres (canon_polyhedron.go); mirrored
+	// broken, for the polyhedral centres (polyhedron.go); mirrored
 	// reads those centres as in the mirror image.
 	sym      []int
 	mirrored bool
@@ -84,7 +84,7 @@ type canonState struct {
 	// ringRoot is, per ring unit, its ring system (systems joined by a
 	// ring link counting as one); related holds, per atom, the invariant
 	// of a cis/trans relation between two ring units
-	// (identity_relative.go)
+	// (relative.go)
 	ringRoot []int
 	related  []int
 	// relation is, per unit of such a pair, the product of the two
@@ -399,7 +399,7 @@ func (c *canonState) chooseUnits(rank []int) {
 		}
 		if u.kind == keyTetrahedral {
 			// parity after tie-breaking; alone, no partner needed, else
-			// one in each ring (identity_spiro.go)
+			// one in each ring (spiro.go)
 			if alone, ok := c.g.spiroShape(u.centre, u.ligands, rank); ok {
 				if alone {
 					c.keep[i] = true
@@ -475,7 +475,7 @@ func (c *canonState) chooseUnits(rank []int) {
 // ring system. Such a unit is stereogenic together with another one on
 // the same ring system: a tetrahedral centre (1,4-disubstituted
 // cyclohexanes), an exocyclic double bond or allene
-// (identity_exocyclic.go).
+// (exocyclic.go).
 func (c *canonState) ringCandidate(u *keyUnit, rank []int) (int, bool) {
 	switch u.kind {
 	case keyDoubleBond:

@@ -18,9 +18,9 @@ import (
 // its neighbours differ in configuration). Both are handled by
 // enumerating the assignments and counting distinct keys. The two
 // bridgeheads of a small bicycle allow one relative configuration only;
-// assignments that break it are skipped (identity_bicycle.go), and
+// assignments that break it are skipped (bicycle.go), and
 // bridgeheads whose cage fixes them are no units at all
-// (identity_cage.go). Other constraints that need 3D are not seen.
+// (cage.go). Other constraints that need 3D are not seen.
 
 // maxEnumeratedUnits bounds the enumeration at 2^12 keys; past it the
 // count is the upper bound 2^n.
@@ -68,7 +68,7 @@ func Stereoisomers(m *notation.Molecule) StereoisomerCount {
 // potentialUnits finds the units that could be stereogenic: tetrahedral
 // centres whose ligands differ by constitution, or tie in a way that
 // stereo elsewhere or a tie-break could resolve (a ring centre, a spiro
-// centre, identity_spiro.go); double bonds outside small rings with two
+// centre, spiro.go); double bonds outside small rings with two
 // different substituents at each end, or tied ones (an exocyclic bond
 // opposite a ring centre, a bond between branches that differ only in
 // configuration); allenes likewise. Configurations
@@ -92,7 +92,7 @@ func potentialUnits(g *keyGraph) []keyUnit {
 				definite = append(definite, u)
 			case oneEndTied(&u, rank):
 				// an allene off a ring, stereogenic together with a
-				// ring centre opposite (identity_exocyclic.go)
+				// ring centre opposite (exocyclic.go)
 				tied = append(tied, u)
 			}
 			continue

@@ -155,7 +155,7 @@ var identityExceptions = map[string]string{}
 // record as given, two random writings, a Kekulé writing (RDKit's
 // kekuleSmiles) and for some records writings with hydrogens as [H]
 // atoms or in brackets, all one structure; their keys must agree. This
-// checks the aromatic ring recognition of canon_aromatic.go against
+// checks the aromatic ring recognition of aromatic.go against
 // RDKit's aromaticity model on real records. Records RDKit rejects are
 // left out.
 func TestKeyOverKekuleWritings(t *testing.T) {
@@ -204,7 +204,7 @@ func TestKeyOverKekuleWritings(t *testing.T) {
 
 // kekuleExceptions are the records of reader.tsv whose writings get
 // different keys, each examined by hand. All come from RDKit's
-// aromaticity model reaching beyond what canon_aromatic.go recognises
+// aromaticity model reaching beyond what aromatic.go recognises
 // (five- to seven-membered rings, alone or in fused pairs), or from a
 // second representation of one species.
 var kekuleExceptions = map[string]string{

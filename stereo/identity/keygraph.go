@@ -221,7 +221,7 @@ func (g *keyGraph) readUnits() {
 // a double bond in a ring too small for trans (ringgeom.MinTransRing) can only be cis, a
 // three-coordinate nitrogen inverts quickly unless a small ring or a
 // bridgehead position holds it (common practice; RDKit treats both the
-// same way), and a bridgehead whose cage fixes it (identity_cage.go).
+// same way), and a bridgehead whose cage fixes it (cage.go).
 func (g *keyGraph) dropFixedUnits() {
 	m := g.mol
 	keep := g.units[:0]

@@ -766,6 +766,13 @@ func (c *lazyClasses) of(a int) uint64 {
 // no table maps names to numbers; two different classes would need a
 // 64-bit collision to merge. The tables live in the graph's storage,
 // reused by the next analysis.
+//
+// The identity key and the pre-key refine too, to other ends: the key
+// ranks exactly (stereo/identity/canon.go), since it needs an order and
+// not only classes; the pre-key (stereo/identity/prekey.go) leaves bond
+// orders out, since it must never tell apart what the key joins, and
+// runs a fixed number of rounds. The three share the mixer
+// (ringgeom.Mix64 and Scramble), not the refinement.
 func symmetryClasses(g *graph) []uint64 {
 	n := g.n
 	class := sized(&g.store.class, n)

@@ -244,6 +244,11 @@ func (g *keyGraph) dropFixedUnits() {
 
 // heldNitrogen reports whether a three-coordinate nitrogen sits in a
 // three-membered ring or at a bridgehead (all three bonds in rings).
+// The labeller draws the line elsewhere: it holds only the bridgeheads
+// of small bridged bicycles (bridgedHead in stereo/bridgehead.go) and
+// reports the nitrogen of a ring fusion (indolizidine) as inverting,
+// while the key keeps that mark; the two rules are kept apart so that
+// neither the keys nor the diagnostics change.
 func (g *keyGraph) heldNitrogen(a int) bool {
 	g.findRingSystems()
 	if g.rings.AtomSize[a] == 3 {

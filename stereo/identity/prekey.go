@@ -33,7 +33,10 @@ import (
 // hashing an atom's label with the multiset of its neighbours' labels;
 // common practice, the Weisfeiler-Lehman test) separates almost all
 // constitutions that differ, while isomorphic graphs always get the same
-// hash, whatever order the atoms were written in.
+// hash, whatever order the atoms were written in. The labeller's
+// symmetry classes (stereo/perceive.go) refine by bond order and valence
+// as well and stop once the classes stop splitting; neither would do
+// here.
 
 // preKeyRounds bounds the refinement rounds, so a very large molecule
 // costs time linear in its size; a chain longer than this may collide

@@ -1,4 +1,4 @@
-package stereoline_test
+package main
 
 import (
 	"go/build"
@@ -76,26 +76,31 @@ func TestLayers(t *testing.T) {
 }
 
 // modulePackages returns the packages of the module with the imports of
-// their non-test files, found by walking the module from its root (this
-// test's folder) as the go command does: testdata and hidden folders are
-// skipped, and so are folders of other modules.
+// their non-test files, found by walking the module from its root (two
+// folders above this test's) as the go command does: testdata and hidden
+// folders are skipped, and so are folders of other modules.
 func modulePackages(t *testing.T) []*build.Package {
 	var out []*build.Package
-	err := filepath.WalkDir(".", func(path string, d fs.DirEntry, err error) error {
+	root := filepath.Join("..", "..")
+	err := filepath.WalkDir(root, func(full string, d fs.DirEntry, err error) error {
 		if err != nil {
 			return err
 		}
 		if !d.IsDir() {
 			return nil
 		}
+		path, err := filepath.Rel(root, full)
+		if err != nil {
+			return err
+		}
 		name := d.Name()
 		if path != "." && (strings.HasPrefix(name, ".") || strings.HasPrefix(name, "_") || name == "testdata" || name == "node_modules") {
 			return filepath.SkipDir
 		}
-		if _, err := os.Stat(filepath.Join(path, "go.mod")); err == nil && path != "." {
+		if _, err := os.Stat(filepath.Join(full, "go.mod")); err == nil && path != "." {
 			return filepath.SkipDir
 		}
-		p, err := build.Default.ImportDir(path, 0)
+		p, err := build.Default.ImportDir(full, 0)
 		if err != nil {
 			if _, none := err.(*build.NoGoError); none {
 				return nil
@@ -107,7 +112,7 @@ func modulePackages(t *testing.T) []*build.Package {
 			p.ImportPath = module + "/" + filepath.ToSlash(path)
 		}
 		if p.ImportPath == module {
-			return nil // the module root holds this test only
+			return nil // the module root holds no package
 		}
 		out = append(out, p)
 		return nil

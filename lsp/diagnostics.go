@@ -9,7 +9,6 @@ import (
 	"path"
 	"path/filepath"
 	"sort"
-	"strings"
 	"time"
 
 	"go.lsp.dev/protocol"
@@ -258,32 +257,25 @@ type diskFile struct {
 }
 
 // hostFiles lists the files under roots whose names the finder reads,
-// skipping open documents, hidden folders, dependency folders and project
-// configuration files (JSON by name, but settings rather than records).
+// walked as the checker walks folders (find.WalkHosts: hidden entries and
+// dependency folders are skipped, and with them project configuration
+// files, JSON by name but settings rather than records), leaving out
+// open documents and files over the size limit. Unreadable entries are
+// left out.
 func (s *Server) hostFiles(ctx context.Context, snap *snapshot, roots []string, open map[string]bool) []diskFile {
 	cfg := snap.editor.analyzer.Config()
+	host := func(p string) bool { return !open[filepath.Clean(p)] && isHostFile(cfg, filepath.Base(p)) }
 	var out []diskFile
 	for _, root := range roots {
-		filepath.WalkDir(root, func(p string, d fs.DirEntry, err error) error {
-			switch {
-			case ctx.Err() != nil || len(out) >= maxScanFiles:
+		find.WalkHosts(ctx, root, host, func(p string, d fs.DirEntry) error {
+			if len(out) >= maxScanFiles {
 				return fs.SkipAll
-			case err != nil:
-				return nil // an unreadable entry is left out; WalkDir skips an unreadable folder
-			case d.IsDir():
-				name := d.Name()
-				if p != root && (strings.HasPrefix(name, ".") || name == "node_modules" || name == "__pycache__") {
-					return fs.SkipDir
-				}
-				return nil
-			case !d.Type().IsRegular() || open[filepath.Clean(p)] || d.Name() == document.ConfigFileName || !isHostFile(cfg, d.Name()):
-				return nil
 			}
 			if info, err := d.Info(); err == nil && info.Size() <= maxScanFileSize {
 				out = append(out, diskFile{path: p, info: info})
 			}
 			return nil
-		})
+		}, nil)
 	}
 	return out
 }

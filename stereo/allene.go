@@ -1,10 +1,12 @@
+// This file implements the labelling of allenes and even cumulenes (M/P).
+
 package stereo
 
 // Allenes and cumulenes with an even number of double bonds: extended
 // tetrahedral centres labelled M/P (m/p). The two substituents of each
 // terminal atom are ranked against each other; the pair of one end is
 // then taken as ranks 1 and 2 and the other as 3 and 4, and the written
-// winding gives R or S for that extended tetrahedron, which is M or P
+// hand gives R or S for that extended tetrahedron, which is M or P
 // (aR is M, aS is P; P-93.5.7, common practice).
 
 func (l *labeller) allene(c *alleneConfig) label {
@@ -32,7 +34,7 @@ func (l *labeller) alleneWith(ds [2]*digraph, c *alleneConfig, ref int) (label, 
 		d := ds[e]
 		r := l.rootRanking(d, ref, func(d *digraph) []nodeID {
 			var ligs []nodeID
-			for _, k := range d.ligandsOf(0, noNode) {
+			for _, k := range d.ligandsOf(unitRoot, noNode) {
 				if d.nodes[k].atom != c.inner[e] {
 					ligs = append(ligs, k)
 				}
@@ -58,7 +60,7 @@ func (l *labeller) alleneWith(ds [2]*digraph, c *alleneConfig, ref int) (label, 
 		for i, n := range r.order {
 			rank := 2*e + i + 1
 			a := d.ligandAtom(n)
-			if a == implicitLigand {
+			if a == ImplicitNeighbour {
 				hRank[e] = rank
 			} else {
 				rankOf[[2]int{e, a}] = rank
@@ -82,7 +84,7 @@ func (l *labeller) alleneWith(ds [2]*digraph, c *alleneConfig, ref int) (label, 
 	}
 	ranks := make([]int, 4)
 	for i, a := range c.ligands {
-		if a == implicitLigand {
+		if a == ImplicitNeighbour {
 			ranks[i] = hRank[c.ligEnd[i]]
 		} else {
 			ranks[i] = rankOf[[2]int{c.ligEnd[i], a}]
@@ -93,7 +95,7 @@ func (l *labeller) alleneWith(ds [2]*digraph, c *alleneConfig, ref int) (label, 
 		}
 	}
 	out.desc = DescM
-	if tetrahedralDescriptor(ranks, c.winding) == DescS {
+	if tetrahedralDescriptor(ranks, c.hand) == DescS {
 		out.desc = DescP
 	}
 	if isPseudo {

@@ -1,3 +1,6 @@
+// This file implements Analyze, the entry point of perception and
+// labelling, and the reading of chirality marks.
+
 package stereo
 
 import (
@@ -96,26 +99,46 @@ func unitKey(u *Unit) int {
 	return k
 }
 
-// labeller holds the state of one Analyze call.
+// labeller holds the state of one Analyze call. AnalyzeWith runs its
+// phases in order: reading the marks (readCentres, readBonds), checking
+// them against the geometry (checkBridgeheads, checkRingClosures,
+// checkCages), labelling the marked units (labelAll), perceiving the
+// unmarked ones (perceiveUnmarked) and reporting stray marks. The fields
+// are grouped by the phase that sets them.
 type labeller struct {
-	g       *graph
-	cfg     *configs
+	// Set up by AnalyzeWith; read by every phase.
+	g   *graph    // the molecule's view, storage from the workspace
+	res *Analysis // the result being built: units and diagnostics
+	// cfg holds the configurations read from the marks; the checks
+	// drop the ones they report as impossible or meaningless
+	cfg *configs
+	// nodeCap bounds each digraph made now: the caller's cap, lowered
+	// to explainCap while withExplainCap ranks an unmarked unit
 	nodeCap int
-	res     *Analysis
+	spare   []*digraph   // storage of digraphs already used, for reuse (digraph_reuse.go)
+	classes *lazyClasses // constitutional symmetry classes, computed on first use (perceive.go)
 
-	usedBondMarks []bool // by bond: single bonds whose marks belong to some double bond
-	unitAtoms     []bool // by atom: centres already reported as units or diagnostics
-	unitBonds     []bool // by bond
-	anyMarks      bool
-	oneSided      []*bondConfig
-	spare         []*digraph   // storage of digraphs already used, for reuse (digraph_reuse.go)
-	classes       *lazyClasses // constitutional symmetry classes, computed on first use
-	halfMarked    []member     // marked units that may be stereogenic together (together.go)
-	effective     map[int]bool // by bond: marks that configure a labelled double bond
-	bicycleList   []bicycle    // small bicycles, found on first use (bridgehead.go)
+	// Set while reading the marks (readCentres, readBonds).
+	anyMarks      bool          // some atom or bond is marked: unmarked units are then information, not hints
+	usedBondMarks []bool        // by bond: single bonds whose marks sit next to some double bond
+	oneSided      []*bondConfig // double bonds marked at one end only
+	// unitAtoms and unitBonds say, by atom and by bond, what is already
+	// reported as a unit or a diagnostic; every later phase adds to them
+	// and perception skips what they hold
+	unitAtoms []bool
+	unitBonds []bool
+
+	// Found on first use by the checks and perception (bridgehead.go).
+	bicycleList   []bicycle // small bicycles
 	bicyclesFound bool
-	blocks        []int // by bond: ring system, found on first use (together.go)
-	unjoined      []int // ring-paired atoms that found no partner (together.go)
+
+	// Set while labelling the marked units (labelAll, units.go).
+	effective  markUse  // by bond: marks that configure a labelled double bond
+	halfMarked []member // marked units that may be stereogenic together (together.go)
+
+	// Set while perceiving the unmarked units (perceive.go, together.go).
+	blocks   []int // by bond: ring system, found on first use
+	unjoined []int // ring-paired atoms that found no partner
 }
 
 func (l *labeller) warn(sp notation.Span, code notation.Code, format string, args ...any) *notation.Error {
@@ -179,9 +202,9 @@ func (l *labeller) readCentres() {
 				// the lone pair takes the slot an implicit hydrogen would
 				// (OpenSMILES 1.0, 3.9.1)
 				slot := min(at.HydrogenSlot(), len(ligs))
-				ligs = slices.Insert(ligs, slot, implicitLigand)
+				ligs = slices.Insert(ligs, slot, ImplicitNeighbour)
 			}
-			l.cfg.addTetra(&tetraConfig{centre: a, ligands: ligs, winding: ch.Num,
+			l.cfg.addTetra(&tetraConfig{centre: a, ligands: ligs, hand: markHand(ch),
 				lonePair: count == 3, span: sp})
 		case notation.ChiralSP, notation.ChiralTB, notation.ChiralOH:
 			kind, need := KindSquarePlanar, 4

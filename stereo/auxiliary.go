@@ -1,4 +1,9 @@
+// This file implements the auxiliary descriptors that Rules 3 to 5
+// compare.
+
 package stereo
+
+import "stereoline/stereo/internal/ringgeom"
 
 // Auxiliary descriptors (P-92.1.3.4 with the 2018 guide): the
 // stereodescriptors Rules 3 to 5 compare are assigned inside the digraph,
@@ -29,7 +34,7 @@ func (d *digraph) auxFor(root, n nodeID) Descriptor {
 		x = d.computeAux(n)
 		d.aux[n] = auxEntry{state: auxKnown, desc: x}
 	}
-	if d.mirror && root == 0 {
+	if d.mirror && root == unitRoot {
 		return mirrorAux(x)
 	}
 	return x
@@ -160,7 +165,7 @@ func (d *digraph) descriptorFromRanking(r ranking, t *tetraConfig) (Descriptor, 
 			return DescNone, false
 		}
 	}
-	return tetrahedralDescriptor(ranks, t.winding), true
+	return tetrahedralDescriptor(ranks, t.hand), true
 }
 
 // auxDoubleBond labels the double bond between node x and its tree
@@ -172,14 +177,21 @@ func (d *digraph) auxDoubleBond(x, y nodeID, c *bondConfig) Descriptor {
 		return DescNone
 	}
 	ax := d.nodes[x].atom
-	trans := c.trans
-	if ax == c.ends[0] {
-		trans = trans != (hx != c.refs[0]) != (hy != c.refs[1])
-	} else {
-		trans = trans != (hx != c.refs[1]) != (hy != c.refs[0])
+	// the written hand relates the refs; each end whose top ligand is
+	// not its ref reverses it
+	refX, refY := c.refs[0], c.refs[1]
+	if ax != c.ends[0] {
+		refX, refY = refY, refX
+	}
+	hand := c.hand
+	if hx != refX {
+		hand = hand.Reversed()
+	}
+	if hy != refY {
+		hand = hand.Reversed()
 	}
 	x2 := DescZ
-	if trans {
+	if hand == ringgeom.Trans {
 		x2 = DescE
 	}
 	if px != py {
@@ -259,7 +271,7 @@ func (d *digraph) auxAllene(n nodeID, c *alleneConfig) Descriptor {
 		}
 	}
 	x := DescM
-	if tetrahedralDescriptor(ranks, c.winding) == DescS {
+	if tetrahedralDescriptor(ranks, c.hand) == DescS {
 		x = DescP
 	}
 	if isPseudo {

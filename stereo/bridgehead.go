@@ -1,9 +1,14 @@
+// This file implements the checks of small bicycles: in/out and
+// trans-fused bridgeheads, bridgeheads fixed by their cage, bridgehead
+// nitrogens.
+
 package stereo
 
 import (
 	"slices"
 
 	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
 )
 
 // In/out bridgeheads. In a small bridged bicycle the substituents of the
@@ -13,15 +18,13 @@ import (
 // bicyclo[2.2.2]octane along its axis). Marks that make both turn the same
 // way put one substituent inside the cage, which only bicycles with long
 // bridges can take (in/out isomers; common practice). Bridges of at most
-// maxSmallBridge atoms count as small.
-
-const maxSmallBridge = 3
+// ringgeom.MaxSmallBridge atoms count as small.
 
 func (l *labeller) checkBridgeheads() {
 	// two marked atoms with three ring bonds each, or nothing to check
 	heads := 0
 	for a := range l.cfg.tetra {
-		if ringDegree(l.g, a) >= 3 {
+		if l.g.geom.RingDegree(a) >= 3 {
 			heads++
 		}
 	}
@@ -44,9 +47,9 @@ func (l *labeller) checkBridgeheads() {
 			}
 			bridges[i] = [2]int{p[0], p[len(p)-1]}
 		}
-		wa, oka := bridgeWinding(ta, bridges, 0)
-		wb, okb := bridgeWinding(tb, bridges, 1)
-		if !oka || !okb || wa != wb {
+		ha := bridgeHand(ta, bridges, 0)
+		hb := bridgeHand(tb, bridges, 1)
+		if ha == ringgeom.NoHand || hb == ringgeom.NoHand || ha != hb {
 			continue
 		}
 		msg := "these marks put a substituent of a bridgehead inside a small bicycle"
@@ -59,39 +62,6 @@ func (l *labeller) checkBridgeheads() {
 		delete(l.cfg.tetra, b)
 		l.unitAtoms[a], l.unitAtoms[b] = true, true
 	}
-}
-
-// bridgeable is the cheap test before bridgePaths: three ring
-// neighbours of x must lie within maxSmallBridge bonds of y by paths
-// that avoid x (one search from y instead of three).
-func (l *labeller) bridgeable(x, y int) bool {
-	g := l.g
-	sc := g.bfsMarks()
-	sc.stamp++
-	seen := sc.stamp
-	sc.mark[y], sc.depth[y] = seen, 0
-	sc.mark[x] = seen // never entered
-	queue := append(sc.queue[:0], y)
-	for head := 0; head < len(queue); head++ {
-		u := queue[head]
-		if sc.depth[u] >= maxSmallBridge {
-			continue
-		}
-		for _, e := range g.adj[u] {
-			if sc.mark[e.to] != seen {
-				sc.mark[e.to], sc.depth[e.to] = seen, sc.depth[u]+1
-				queue = append(queue, e.to)
-			}
-		}
-	}
-	sc.queue = queue[:0]
-	n := 0
-	for _, e := range g.adj[x] {
-		if g.ringBond[e.bond] && e.to != y && sc.mark[e.to] == seen {
-			n++
-		}
-	}
-	return n >= 3
 }
 
 // bicycle is a small bridged or fused bicycle: its two bridgeheads and
@@ -118,7 +88,7 @@ func (l *labeller) bicycles() []bicycle {
 	// atoms with three ring bonds, are left out at once
 	head := func(a int) bool {
 		at := &g.mol.Atoms[a]
-		if at.Aromatic || g.doubleBonds(a) > 0 || ringDegree(g, a) < 3 {
+		if at.Aromatic || g.doubleBonds(a) > 0 || g.geom.RingDegree(a) < 3 {
 			return false
 		}
 		d := g.degree(a)
@@ -128,7 +98,7 @@ func (l *labeller) bicycles() []bicycle {
 		if !head(x) {
 			continue
 		}
-		near := l.partnerHeads(x)
+		near := g.geom.PartnerHeads(x)
 		slices.Sort(near)
 		for _, y := range near {
 			if y <= x || !head(y) {
@@ -136,22 +106,22 @@ func (l *labeller) bicycles() []bicycle {
 			}
 			if bi := g.mol.BondBetween(x, y); bi >= 0 {
 				// a fused bicycle small enough (perimeter at most
-				// maxFusedPerimeter) has a ring of at most 4 atoms
+				// MaxFusedPerimeter) has a ring of at most 4 atoms
 				// through the shared bond: two rings of size r1 <= r2
 				// have r1+r2-2 atoms round the outside
-				if s := g.ringSize(bi); s == 0 || 2*s-2 > maxFusedPerimeter {
+				if s := g.ringSize(bi); s == 0 || 2*s-2 > ringgeom.MaxFusedPerimeter {
 					continue
 				}
-				if rings, ok := g.fusedPaths(x, y); ok {
+				if rings, ok := g.geom.FusedPaths(x, y); ok {
 					// the bond between the heads is the third bridge, of no atoms
 					l.bicycleList = append(l.bicycleList, bicycle{heads: [2]int{x, y}, paths: [3][]int{rings[0], rings[1], nil}})
 				}
 				continue
 			}
-			if !l.bridgeable(x, y) {
+			if !g.geom.Bridgeable(x, y) {
 				continue
 			}
-			if paths, ok := g.bridgePaths(x, y); ok {
+			if paths, ok := g.geom.BridgePaths(x, y); ok {
 				l.bicycleList = append(l.bicycleList, bicycle{heads: [2]int{x, y}, paths: paths})
 			}
 		}
@@ -159,151 +129,17 @@ func (l *labeller) bicycles() []bicycle {
 	return l.bicycleList
 }
 
-// bridges finds three vertex-disjoint paths between atoms a and b, each
-// with one to maxSmallBridge atoms, and returns for each path its first
-// atom at a and at b.
-func (g *graph) bridges(a, b int) ([3][2]int, bool) {
-	var out [3][2]int
-	paths, ok := g.bridgePaths(a, b)
-	if !ok {
-		return out, false
-	}
-	for i, p := range paths {
-		out[i] = [2]int{p[0], p[len(p)-1]}
-	}
-	return out, true
-}
+// bridgePaths finds the three bridges between bridgeheads a and b
+// (ringgeom.Graph.BridgePaths).
+func (g *graph) bridgePaths(a, b int) ([3][]int, bool) { return g.geom.BridgePaths(a, b) }
 
-// bridgePaths is bridges with the whole paths: the atoms of each bridge
-// from the one next to a to the one next to b.
-func (g *graph) bridgePaths(a, b int) ([3][]int, bool) {
-	var out [3][]int
-	if len(g.adj[a]) < 3 || len(g.adj[b]) < 3 || g.mol.BondBetween(a, b) >= 0 {
-		return out, false
-	}
-	used := g.bfsMarks()
-	used.stamp++
-	blocked := used.stamp
-	used.mark[a], used.mark[b] = blocked, blocked
-	n := 0
-	for _, e := range g.adj[a] {
-		if !g.ringBond[e.bond] || used.mark[e.to] == blocked {
-			continue
-		}
-		path := g.shortPath(e.to, b, used, blocked, maxSmallBridge)
-		if path == nil {
-			continue
-		}
-		if n == 3 {
-			return out, false
-		}
-		for _, x := range path {
-			used.mark[x] = blocked
-		}
-		out[n] = path
-		n++
-	}
-	return out, n == 3
-}
-
-// maxFusedPerimeter is the largest fused bicycle (two rings sharing a
-// bond) that is reported as unable to be trans-fused, counted in atoms
-// round its perimeter: bicyclo[2.2.0]hexane, bicyclo[3.1.0]hexane and
-// the smaller ones have no trans-fused form (common practice), while
-// trans-bicyclo[3.3.0]octane and trans-bicyclo[4.2.0]octane exist. The
-// seven-atom cases (bicyclo[3.2.0]heptane, bicyclo[4.1.0]heptane) are
-// highly strained when trans; they are left alone rather than called
-// impossible, since an error there would be worse than silence.
-const maxFusedPerimeter = 6
-
-// fusedPaths finds the two rings of a small fused bicycle around the bond
-// a-b: two vertex-disjoint paths from a to b besides the bond itself,
-// with at most maxFusedPerimeter atoms round the outside.
-func (g *graph) fusedPaths(a, b int) ([2][]int, bool) {
-	var out [2][]int
-	if len(g.adj[a]) < 3 || len(g.adj[b]) < 3 || g.mol.BondBetween(a, b) < 0 {
-		return out, false
-	}
-	used := g.bfsMarks()
-	used.stamp++
-	blocked := used.stamp
-	used.mark[a], used.mark[b] = blocked, blocked
-	n, atoms := 0, 2
-	for _, e := range g.adj[a] {
-		if !g.ringBond[e.bond] || used.mark[e.to] == blocked {
-			continue
-		}
-		path := g.shortPath(e.to, b, used, blocked, maxFusedPerimeter-3)
-		if path == nil {
-			continue
-		}
-		if n == 2 {
-			return out, false // a third path: more than a bicycle
-		}
-		for _, x := range path {
-			used.mark[x] = blocked
-		}
-		out[n] = path
-		n++
-		atoms += len(path)
-	}
-	return out, n == 2 && atoms <= maxFusedPerimeter
-}
-
-// bfsScratch is the state of the small searches of this file, kept in
-// the graph: mark holds, per atom, the stamp of the search that last
-// touched it, so no table is cleared between searches.
-type bfsScratch struct {
-	mark, prev, depth []int
-	stamp             int
-	queue             []int
-}
-
-func (g *graph) bfsMarks() *bfsScratch {
-	if sc := &g.store.bfs; len(sc.mark) < g.n {
-		*sc = bfsScratch{mark: make([]int, g.n), prev: make([]int, g.n), depth: make([]int, g.n), stamp: sc.stamp}
-	}
-	return &g.store.bfs
-}
-
-// shortPath returns the atoms of a shortest path from s to a neighbour
-// of t (t excluded) avoiding the atoms whose mark is blocked, with at
-// most limit atoms.
-func (g *graph) shortPath(s, t int, sc *bfsScratch, blocked, limit int) []int {
-	sc.stamp++
-	seen := sc.stamp
-	sc.mark[s], sc.prev[s], sc.depth[s] = seen, -1, 1
-	queue := append(sc.queue[:0], s)
-	defer func() { sc.queue = queue[:0] }()
-	for head := 0; head < len(queue); head++ {
-		u := queue[head]
-		if g.mol.BondBetween(u, t) >= 0 {
-			path := make([]int, sc.depth[u])
-			for x, i := u, sc.depth[u]-1; x != -1; x, i = sc.prev[x], i-1 {
-				path[i] = x
-			}
-			return path
-		}
-		if sc.depth[u] >= limit {
-			continue
-		}
-		for _, e := range g.adj[u] {
-			if m := sc.mark[e.to]; m == seen || m == blocked || e.to == t {
-				continue
-			}
-			sc.mark[e.to], sc.prev[e.to], sc.depth[e.to] = seen, u, sc.depth[u]+1
-			queue = append(queue, e.to)
-		}
-	}
-	return nil
-}
-
-// bridgeWinding returns the handedness of a bridgehead: the parity of
-// its written ligand order against (substituent, bridge 1, 2, 3),
-// combined with the written winding.
-func bridgeWinding(t *tetraConfig, bridges [3][2]int, side int) (bool, bool) {
+// bridgeHand returns the hand of a bridgehead's written mark read over
+// (substituent, bridge 1, 2, 3), with side picking each bridge's atom
+// next to this bridgehead; NoHand when the ligands are not one
+// substituent and the three bridges.
+func bridgeHand(t *tetraConfig, bridges [3][2]int, side int) ringgeom.Hand {
 	if len(t.ligands) != 4 {
-		return false, false
+		return ringgeom.NoHand
 	}
 	want := make([]int, 0, 4)
 	for _, br := range bridges {
@@ -320,7 +156,7 @@ func bridgeWinding(t *tetraConfig, bridges [3][2]int, side int) (bool, bool) {
 		}
 		if pos < 0 {
 			if exo >= 0 {
-				return false, false
+				return ringgeom.NoHand
 			}
 			exo = i
 			pos = 0
@@ -328,21 +164,15 @@ func bridgeWinding(t *tetraConfig, bridges [3][2]int, side int) (bool, bool) {
 		order[i] = pos
 	}
 	if exo < 0 {
-		return false, false
+		return ringgeom.NoHand
 	}
-	return (inversions(order)%2 == 0) == (t.winding == 1), true
+	parity, _ := ringgeom.PermutationParity(order)
+	return t.hand.Permuted(parity)
 }
 
-// Bridgeheads fixed by their cage. When two bridges of a small bicycle
-// are constitutionally equal and neither carries a configuration, the
-// renaming that swaps them maps the molecule onto itself and reverses
-// the written configuration of both bridgeheads. Reversing one alone
-// would put its substituent inside the cage. So a mark at such a
-// bridgehead says nothing, and leaving it out leaves nothing open:
-// norbornane has no stereoisomers, and the bridgeheads of a
-// 9,10-dihydro-9,10-ethanoanthracene are fixed once the ethano bridge is
-// configured (common practice). Camphor's bridgeheads are untouched:
-// their bridges all differ.
+// Bridgeheads fixed by their cage (ringgeom.Graph.CageFixed): a mark at
+// such a bridgehead says nothing, and leaving it out leaves nothing
+// open. The identity key drops the same marks from its units.
 
 // checkCages reports the marks on bridgeheads fixed by their cage and
 // drops them, so that no other unit reads a configuration from them.
@@ -367,29 +197,37 @@ func (l *labeller) cageFixed(x int) bool {
 	// fusions are no bicycle, and their molecules may need no classes.
 	// A nitrogen's lone pair is its fourth ligand (the nitrogens of
 	// 1,4-diazabicyclo[2.2.1]heptane are fixed like norbornane's CH)
-	if ringDegree(g, x) < 3 || g.degree(x) != 4 && !(g.degree(x) == 3 && hasLonePair(&g.mol.Atoms[x], g.valence(x))) {
+	if g.geom.RingDegree(x) < 3 || g.degree(x) != 4 && !(g.degree(x) == 3 && hasLonePair(&g.mol.Atoms[x], g.valence(x))) {
 		return false
 	}
+	same := func(a, b int) bool { return l.classes.of(a) == l.classes.of(b) }
 	for _, bc := range l.bicycles() {
 		if bc.heads[0] != x && bc.heads[1] != x {
 			continue
 		}
-		paths, y := bc.paths, bc.heads[1]
+		y := bc.heads[1]
 		if y == x {
 			y = bc.heads[0]
 		}
-		for i := 0; i < 3; i++ {
-			for j := i + 1; j < 3; j++ {
-				pi, pj := paths[i], paths[j]
-				if len(pi) == 0 || len(pi) != len(pj) || l.classes.of(pi[0]) != l.classes.of(pj[0]) ||
-					l.classes.of(pi[len(pi)-1]) != l.classes.of(pj[len(pj)-1]) {
-					continue
-				}
-				third := paths[3-i-j]
-				if !l.configuredBeside(x, y, third, pi) && !l.configuredBeside(x, y, third, pj) {
-					return true
-				}
-			}
+		if g.geom.CageFixed(x, y, bc.paths, same, l.configuredAtom) {
+			return true
+		}
+	}
+	return false
+}
+
+// configuredAtom reports whether atom a carries a written configuration:
+// a tetrahedral or allene mark, or a configured double bond.
+func (l *labeller) configuredAtom(a int) bool {
+	if _, ok := l.cfg.tetra[a]; ok {
+		return true
+	}
+	if _, ok := l.cfg.allene[a]; ok {
+		return true
+	}
+	for _, e := range l.g.adj[a] {
+		if _, ok := l.cfg.bonds[e.bond]; ok {
+			return true
 		}
 	}
 	return false
@@ -404,89 +242,6 @@ func (l *labeller) bridgedHead(a int) bool {
 	for _, bc := range l.bicycles() {
 		if (bc.heads[0] == a || bc.heads[1] == a) && len(bc.paths[2]) > 0 {
 			return true
-		}
-	}
-	return false
-}
-
-// ringDegree counts the ring bonds of a.
-func ringDegree(g *graph, a int) (n int) {
-	for _, e := range g.adj[a] {
-		if g.ringBond[e.bond] {
-			n++
-		}
-	}
-	return n
-}
-
-// partnerHeads lists the atoms with three or more ring bonds that lie
-// within maxSmallBridge+1 ring bonds of x: the bridgeheads a small
-// bicycle could pair with x.
-func (l *labeller) partnerHeads(x int) []int {
-	g := l.g
-	sc := g.bfsMarks()
-	sc.stamp++
-	seen := sc.stamp
-	sc.mark[x], sc.depth[x] = seen, 0
-	queue := append(sc.queue[:0], x)
-	var out []int
-	for head := 0; head < len(queue); head++ {
-		u := queue[head]
-		if u != x && ringDegree(g, u) >= 3 {
-			out = append(out, u)
-		}
-		if sc.depth[u] > maxSmallBridge {
-			continue
-		}
-		for _, e := range g.adj[u] {
-			if g.ringBond[e.bond] && sc.mark[e.to] != seen {
-				sc.mark[e.to], sc.depth[e.to] = seen, sc.depth[u]+1
-				queue = append(queue, e.to)
-			}
-		}
-	}
-	sc.queue = queue[:0]
-	return out
-}
-
-// configuredBeside reports whether a configuration lies on the bridge
-// path or on anything attached to it, searching from the bridge without
-// passing the bridgeheads x and y or the atoms of the other bridge
-// given; a search that runs round into other bridges counts them too,
-// which can only keep a mark.
-func (l *labeller) configuredBeside(x, y int, other, path []int) bool {
-	g := l.g
-	sc := g.bfsMarks()
-	sc.stamp++
-	seen := sc.stamp
-	sc.mark[x], sc.mark[y] = seen, seen
-	for _, a := range other {
-		sc.mark[a] = seen
-	}
-	queue := sc.queue[:0]
-	for _, a := range path {
-		if sc.mark[a] != seen {
-			sc.mark[a] = seen
-			queue = append(queue, a)
-		}
-	}
-	defer func() { sc.queue = queue[:0] }()
-	for head := 0; head < len(queue); head++ {
-		u := queue[head]
-		if _, ok := l.cfg.tetra[u]; ok {
-			return true
-		}
-		if _, ok := l.cfg.allene[u]; ok {
-			return true
-		}
-		for _, e := range g.adj[u] {
-			if _, ok := l.cfg.bonds[e.bond]; ok {
-				return true
-			}
-			if sc.mark[e.to] != seen {
-				sc.mark[e.to] = seen
-				queue = append(queue, e.to)
-			}
 		}
 	}
 	return false

@@ -1,3 +1,5 @@
+// This file implements the diagnostic codes of the stereo engine.
+
 package stereo
 
 import "stereoline/notation"
@@ -10,7 +12,7 @@ const (
 	CodeOneSidedBond      notation.Code = "stereo-one-sided-bond"     // only one end of a double bond is marked
 	CodeIneffectiveBond   notation.Code = "stereo-ineffective-bond"   // direction marks that specify nothing
 	CodeConflictingMarks  notation.Code = "stereo-conflicting-marks"  // direction marks that contradict each other
-	CodeStrainedRing      notation.Code = "stereo-strained-ring"      // a trans double bond in a ring of fewer than 8 atoms
+	CodeStrainedRing      notation.Code = "stereo-strained-ring"      // a trans double bond in a ring too small to hold one (ringgeom.MinTransRing)
 	CodeInvertingNitrogen notation.Code = "stereo-inverting-nitrogen" // a mark on a nitrogen that inverts quickly
 	CodeUndefined         notation.Code = "stereo-undefined"          // a stereogenic unit left unmarked
 	CodeUndetermined      notation.Code = "stereo-undetermined"       // the labeller hit its node cap

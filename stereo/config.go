@@ -1,53 +1,62 @@
+// This file implements the configurations read from the marks, before any
+// question of what they mean.
+
 package stereo
 
 import (
-	"slices"
-	"sort"
-
 	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
 )
 
 // The configuration as written: each mark read over the neighbour order
 // OpenSMILES defines, before any question of whether it means anything.
 
-// implicitLigand stands for an implicit or bracket hydrogen, or a lone
-// pair, in a ligand list.
-const implicitLigand = -1
-
 // tetraConfig is a tetrahedral mark: the ligands in stereo order and the
-// winding seen from the first (1 anticlockwise '@', 2 clockwise '@@').
+// hand seen from the first ('@' anticlockwise, '@@' clockwise).
 type tetraConfig struct {
 	centre   int
 	ligands  []int
-	winding  int
+	hand     ringgeom.Hand
 	lonePair bool // the implicit ligand is a lone pair, not a hydrogen
 	span     notation.Span
 }
 
 // bondConfig is a cis/trans configuration on a double bond or an odd
 // cumulene, between the terminal atoms ends[0] and ends[1]: refs are one
-// substituent at each end and trans says whether they lie on opposite
-// sides.
+// substituent at each end (noReference when none is chosen) and hand
+// says whether they lie on opposite sides (Trans) or one side (Cis).
 type bondConfig struct {
 	bond  int    // the (middle) double bond
 	ends  [2]int // terminal atoms
 	inner [2]int // the chain atom bonded to each terminal
 	refs  [2]int
-	trans bool
+	hand  ringgeom.Hand
 	spans []notation.Span
 	marks []int // the marked single bonds at both ends
 }
 
+// noReference stands in refs for a bond ranked without marks (for the
+// explanation of an unmarked unit): it matches no ligand, not even an
+// implicit one (ImplicitNeighbour).
+const noReference = -2
+
+// unmarkedBond is the configuration an unmarked double bond (or odd
+// cumulene, bond its middle bond) is ranked under; its hand is
+// arbitrary, as no label is read from it.
+func unmarkedBond(bond int, ends, inner [2]int) *bondConfig {
+	return &bondConfig{bond: bond, ends: ends, inner: inner, refs: [2]int{noReference, noReference}, hand: ringgeom.Cis}
+}
+
 // alleneConfig is an extended tetrahedral mark on the centre of an even
 // cumulene: the four substituents of the terminal atoms in OpenSMILES
-// order, which end each belongs to, and the winding.
+// order, which end each belongs to, and the hand.
 type alleneConfig struct {
 	centre  int
 	ends    [2]int
 	inner   [2]int
 	ligands []int
 	ligEnd  []int
-	winding int
+	hand    ringgeom.Hand
 	span    notation.Span
 }
 
@@ -121,47 +130,17 @@ func emptied[V any](m map[int]V) map[int]V {
 
 // stereoLigands lists the ligands of atom a in stereo order, with the
 // bracket hydrogen at its slot.
-func stereoLigands(m *notation.Molecule, a int) []int {
-	at := &m.Atoms[a]
-	h := at.HydrogenCount()
-	// one allocation, with room for a lone pair a caller may insert
-	out := make([]int, 0, len(at.Bonds)+h+1)
-	for _, bi := range at.Bonds {
-		out = append(out, m.Bonds[bi].Other(a))
-	}
-	if h > 0 {
-		slot := min(at.HydrogenSlot(), len(out))
-		for range h {
-			out = slices.Insert(out, slot, implicitLigand)
-		}
-	}
-	return out
-}
+func stereoLigands(m *notation.Molecule, a int) []int { return ringgeom.Ligands(m, a, false, false) }
 
 // cumulene follows a chain of cumulated double bonds from atom a through
 // neighbour b (a=b). It returns the terminal atom reached, the chain atom
 // next to it, and the number of double bonds walked.
 func (g *graph) cumulene(a, b int) (terminal, inner, count int) {
-	prev, cur := a, b
-	count = 1
-	for g.cumulated(cur) && count < g.n {
-		next := -1
-		for _, e := range g.adj[cur] {
-			if e.to != prev && e.order == 2 {
-				next = e.to
-			}
-		}
-		if next < 0 {
-			break
-		}
-		prev, cur = cur, next
-		count++
-	}
-	return cur, prev, count
+	return ringgeom.Cumulene(g.mol, g.cumulated, a, b)
 }
 
 // cumulated reports whether a is an inner atom of a cumulene: exactly two
-// neighbours, both through double bonds.
+// neighbours, both through double bonds of the Kekulé structure.
 func (g *graph) cumulated(a int) bool {
 	if len(g.adj[a]) != 2 || g.hyd[a] != 0 {
 		return false
@@ -172,46 +151,7 @@ func (g *graph) cumulated(a int) bool {
 // alleneEnds returns the terminal atoms of the even cumulene centred on
 // c, or ok false when c is no such centre.
 func (g *graph) alleneEnds(c int) (ends, inner [2]int, ok bool) {
-	if !g.cumulated(c) {
-		return ends, inner, false
-	}
-	t0, i0, n0 := g.cumulene(c, g.adj[c][0].to)
-	t1, i1, n1 := g.cumulene(c, g.adj[c][1].to)
-	if n0 != n1 || t0 == t1 {
-		return ends, inner, false
-	}
-	return [2]int{t0, t1}, [2]int{i0, i1}, true
-}
-
-// substituents lists the neighbours of terminal t other than the chain
-// atom, plus its implicit hydrogens, each with the text offset where the
-// notation names it as seen from t: a chain or branch neighbour at its
-// own position, a ring-closure neighbour at the digit written on t, a
-// hydrogen inside t's brackets. Sorting the four substituents of an
-// allene by these offsets gives the OpenSMILES neighbour order.
-func (g *graph) substituents(t, inner int) (atoms []int, keys []float64) {
-	m := g.mol
-	for _, e := range g.adj[t] {
-		if e.to == inner {
-			continue
-		}
-		b := &m.Bonds[e.bond]
-		key := float64(m.Atoms[e.to].Span.Start)
-		if b.Ring {
-			if b.Begin == t {
-				key = float64(b.Span.Start) + 0.5
-			} else {
-				key = float64(b.CloseSpan.Start) + 0.5
-			}
-		}
-		atoms = append(atoms, e.to)
-		keys = append(keys, key)
-	}
-	for h := 0; h < g.hyd[t]; h++ {
-		atoms = append(atoms, implicitLigand)
-		keys = append(keys, float64(m.Atoms[t].Span.Start)+0.25)
-	}
-	return atoms, keys
+	return ringgeom.AlleneEnds(g.mol, g.cumulated, c)
 }
 
 // readAllene builds the extended tetrahedral configuration at c.
@@ -220,23 +160,8 @@ func (g *graph) readAllene(c int, ch notation.Chirality) *alleneConfig {
 	if !ok {
 		return nil
 	}
-	cfg := &alleneConfig{centre: c, ends: ends, inner: inner, winding: ch.Num, span: ch.Span}
-	type lig struct {
-		atom, end int
-		key       float64
-	}
-	var ls []lig
-	for e := 0; e < 2; e++ {
-		atoms, keys := g.substituents(ends[e], inner[e])
-		for i := range atoms {
-			ls = append(ls, lig{atoms[i], e, keys[i]})
-		}
-	}
-	sort.SliceStable(ls, func(i, j int) bool { return ls[i].key < ls[j].key })
-	for _, l := range ls {
-		cfg.ligands = append(cfg.ligands, l.atom)
-		cfg.ligEnd = append(cfg.ligEnd, l.end)
-	}
+	cfg := &alleneConfig{centre: c, ends: ends, inner: inner, hand: markHand(ch), span: ch.Span}
+	cfg.ligands, cfg.ligEnd = ringgeom.AlleneLigands(g.mol, ends, inner, false)
 	return cfg
 }
 
@@ -257,6 +182,16 @@ func (g *graph) markedSides(t, inner int) (atoms []int, sides []notation.Directi
 		}
 	}
 	return atoms, sides, spans
+}
+
+// markHand is the hand of a tetrahedral or allene mark. A number the
+// reader rejected (@TH3, read as 0 and reported as an error) is taken as
+// '@@', so that the record still gets its units.
+func markHand(ch notation.Chirality) ringgeom.Hand {
+	if h := ringgeom.MarkHand(ch.Num); h != ringgeom.NoHand {
+		return h
+	}
+	return ringgeom.Clockwise
 }
 
 // markSpan is the span of the direction mark(s) on a bond.

@@ -1,3 +1,5 @@
+// This file implements the hierarchical digraph of P-92.1.4.
+
 package stereo
 
 // The hierarchical digraph of P-92.1.4: a tree of paths that starts at
@@ -12,6 +14,12 @@ package stereo
 type nodeID int32
 
 const noNode nodeID = -1
+
+// unitRoot is the root of the digraph: the node of the unit being
+// labelled (for a double bond or allene, of one terminal atom). A
+// comparison or ranking rooted at another node works in an auxiliary
+// view of the tree, re-rooted at that node (auxiliary.go).
+const unitRoot nodeID = 0
 
 // nodeKind says what a node stands for.
 type nodeKind uint8
@@ -66,8 +74,10 @@ type digraph struct {
 	sortTables [][numRules]int32
 	sorts      []nodeID
 	kidBuf     []nodeID
-	// auxRef holds the Rule 6 reference of an auxiliary ranking under
-	// way, by its root; such rankings bypass the memo at Rule 6
+	// auxRef holds, by the root of an auxiliary view, the Rule 6
+	// reference of that view's ranking while one is under way
+	// (auxWithReference tries each tied ligand in turn); Rule 6
+	// comparisons in such a view bypass the memos (bypassMemo)
 	auxRef map[nodeID]int
 	aux    []auxEntry // by node, grown on demand (auxiliary.go)
 	cfg    *configs

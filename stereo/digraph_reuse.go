@@ -1,3 +1,6 @@
+// This file implements the reuse of digraph storage within one Analyze
+// call.
+
 package stereo
 
 // Reusing digraph storage within one Analyze call. Every unit builds its

@@ -1,4 +1,9 @@
+// This file implements the labelling of double bonds and odd cumulenes
+// (E/Z).
+
 package stereo
+
+import "stereoline/stereo/internal/ringgeom"
 
 // Double bonds and cumulenes with an odd number of double bonds: E/Z
 // (e/z when a pseudoasymmetric ranking decided), from the highest ranked
@@ -6,20 +11,26 @@ package stereo
 
 func (l *labeller) doubleBond(c *bondConfig) label {
 	var out label
-	trans := c.trans
+	// the written hand relates the refs; each end whose highest ranked
+	// ligand is not its ref reverses it
+	hand := c.hand
+	// lowercase counts the ends whose ranking needed an enantiomorphic
+	// pair (Rule 5 or 6): one such end makes the label lowercase, two
+	// cancel (reflection swaps both and the label stays uppercase)
+	lowercase := false
 	for e := 0; e < 2; e++ {
 		var nl int
 		d := l.digraph(c.ends[e])
 		r := l.rootRanking(d, -1, func(d *digraph) []nodeID {
 			var ligs []nodeID
-			for _, k := range d.ligandsOf(0, noNode) {
+			for _, k := range d.ligandsOf(unitRoot, noNode) {
 				if d.nodes[k].atom != c.inner[e] {
 					ligs = append(ligs, k)
 				}
 			}
 			if len(ligs) == 1 && l.g.hyd[c.ends[e]] == 0 && len(l.g.adj[c.ends[e]]) == 2 {
 				// =N- : the lone pair is the second ligand
-				ligs = append(ligs, d.lonePair(0))
+				ligs = append(ligs, d.lonePair(unitRoot))
 			}
 			nl = len(ligs)
 			return ligs
@@ -32,13 +43,7 @@ func (l *labeller) doubleBond(c *bondConfig) label {
 			out.tie = true
 		}
 		if r.pseudo {
-			// both ends enantiomorphic: reflection swaps both and the
-			// label stays uppercase
-			if out.desc == DescPseudoE {
-				out.desc = DescNone
-			} else {
-				out.desc = DescPseudoE
-			}
+			lowercase = !lowercase
 		}
 		for i, n := range r.order {
 			out.ranked = append(out.ranked, RankedLigand{Rank: i + 1, Atom: d.ligandAtom(n), End: e, LonePair: d.nodes[n].kind == nodeLonePair})
@@ -48,22 +53,21 @@ func (l *labeller) doubleBond(c *bondConfig) label {
 			out.decisions = append(out.decisions, dc)
 		}
 		if len(r.order) > 0 && d.ligandAtom(r.order[0]) != c.refs[e] {
-			trans = !trans
+			hand = hand.Reversed()
 		}
 		l.release(d)
 	}
-	isPseudo := out.desc == DescPseudoE
-	out.desc = DescNone
 	switch {
 	case out.capped:
 		out.desc = DescUndetermined
 	case out.tie:
-	case trans:
+		out.desc = DescNone
+	case hand == ringgeom.Trans:
 		out.desc = DescE
 	default:
 		out.desc = DescZ
 	}
-	if isPseudo && out.desc.Labelled() {
+	if lowercase && out.desc.Labelled() {
 		out.desc = pseudo(out.desc)
 	}
 	return out

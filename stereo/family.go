@@ -1,6 +1,12 @@
+// This file implements the D/L descriptors of alpha-amino acids and
+// monosaccharides (Fischer convention).
+
 package stereo
 
-import "stereoline/notation"
+import (
+	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
+)
 
 // Family is the D/L descriptor of the Fischer convention, which
 // biochemists use for alpha-amino acids and monosaccharides beside the CIP
@@ -262,17 +268,10 @@ func clockwiseFromHydrogen(m *notation.Molecule, c, x, y, z int) (bool, bool) {
 	if !ok {
 		return false, false
 	}
-	num := m.Atoms[c].Chirality.Num
-	cw := num == 2 // '@@': clockwise seen from the first neighbour
-	if sign < 0 {
-		cw = !cw
-	}
-	return cw, true
+	// the mark's hand seen from the first neighbour, read over want
+	hand := ringgeom.MarkHand(m.Atoms[c].Chirality.Num).Permuted(ringgeom.Parity(sign))
+	return hand == ringgeom.Clockwise, true
 }
-
-// ImplicitNeighbour stands for the implicit hydrogen or lone pair in a
-// neighbour order.
-const ImplicitNeighbour = -1
 
 // NeighbourOrder returns the four ligands of a tetrahedral centre in the
 // order its mark refers to (OpenSMILES 3.7): the preceding atom, the
@@ -302,25 +301,26 @@ func NeighbourOrder(m *notation.Molecule, c int) ([]int, bool) {
 }
 
 // permutationSign returns +1 when want is an even permutation of have,
-// -1 when odd, and ok false when they hold different elements.
+// -1 when odd, and ok false when they hold different elements. Equal
+// elements are matched in the order they stand.
 func permutationSign(have, want []int) (int, bool) {
 	if len(have) != len(want) {
 		return 0, false
 	}
-	p := append([]int(nil), have...)
-	sign := 1
-	for i := range want {
-		j := i
-		for j < len(p) && p[j] != want[i] {
-			j++
+	pos := make([]int, len(want))
+	used := make([]bool, len(have))
+	for i, w := range want {
+		pos[i] = -1
+		for j, h := range have {
+			if !used[j] && h == w {
+				pos[i], used[j] = j, true
+				break
+			}
 		}
-		if j == len(p) {
+		if pos[i] < 0 {
 			return 0, false
 		}
-		if j != i {
-			p[i], p[j] = p[j], p[i]
-			sign = -sign
-		}
 	}
-	return sign, true
+	parity, _ := ringgeom.PermutationParity(pos)
+	return int(parity), true
 }

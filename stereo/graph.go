@@ -1,6 +1,12 @@
+// This file implements the labeller's view of a molecule: neighbours in
+// stereo order, rings and mancude ring systems.
+
 package stereo
 
-import "stereoline/notation"
+import (
+	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
+)
 
 // graph is the stereo engine's read-only view of a molecule: neighbours in
 // stereo order with their bond orders, hydrogen counts, ring membership
@@ -28,6 +34,9 @@ type graph struct {
 	// scratch space of the ring searches
 	prev, dist, touched, queue []int
 	ringStore                  []int // the rings found, one after another
+
+	// geom is the view the ring and bicycle searches read (bridgehead.go)
+	geom *ringgeom.Graph
 
 	store graphStore // storage reused by the next build
 
@@ -114,6 +123,8 @@ func (g *graph) build(m *notation.Molecule) {
 	}
 	g.findRings()
 	g.findMancude()
+	g.geom = &g.store.geom
+	g.geom.Reset(m, g.ringBond)
 }
 
 // graphStore is the storage of a graph kept for the next build.
@@ -130,7 +141,8 @@ type graphStore struct {
 	marks, unitAtoms []bool
 	// symmetry classes (perceive.go)
 	class, classNext, classSort []uint64
-	bfs                         bfsScratch // its stamps keep growing across builds, so old marks never match
+	// the ring and bicycle searches, with their scratch space
+	geom ringgeom.Graph
 }
 
 // sized returns (*buf)[:n], zeroed, growing *buf when it is too small.
@@ -365,17 +377,13 @@ func (g *graph) cyclicBonds(cyclic []bool) {
 }
 
 // ringKey names a ring by a 64-bit hash of its set of atoms: the sum
-// of a mixed value of each atom (the splitmix64 finaliser, common
-// practice), which does not depend on the order the search found them
-// in, so no sorted copy is needed. Two different rings would need a
-// 64-bit collision to share a key.
+// of a mixed value of each atom (ringgeom.Mix64), which does not depend
+// on the order the search found them in, so no sorted copy is needed.
+// Two different rings would need a 64-bit collision to share a key.
 func ringKey(ring []int) uint64 {
 	h := uint64(len(ring))
 	for _, v := range ring {
-		x := uint64(v) + 0x9e3779b97f4a7c15
-		x = (x ^ x>>30) * 0xbf58476d1ce4e5b9
-		x = (x ^ x>>27) * 0x94d049bb133111eb
-		h += x ^ x>>31
+		h += ringgeom.Mix64(uint64(v))
 	}
 	return h
 }

@@ -1,9 +1,9 @@
-// Package stereo finds the stereogenic units of a molecule read by
-// package notation, interprets the stereo marks written on them, labels
-// them by the Cahn-Ingold-Prelog rules (IUPAC 2013 recommendations, P-92,
-// with the 2018 revisions for machine implementation) and reports marks
-// that mean nothing or cannot be true.
+// This file implements the vocabulary of results: descriptors, kinds of
+// unit and the implicit neighbour.
+
 package stereo
+
+import "stereoline/stereo/internal/ringgeom"
 
 // Descriptor is a stereodescriptor: a CIP label, or the absence of one.
 type Descriptor uint8
@@ -74,29 +74,11 @@ func (d Descriptor) Mirror() Descriptor {
 	return d
 }
 
-// Parity is the handedness of an ordered list of ligands: whether an even
-// or odd permutation takes it to a reference order.
-type Parity int8
-
-// Parities. ParityNone means unknown or not applicable.
-const (
-	ParityNone Parity = 0
-	ParityEven Parity = 1
-	ParityOdd  Parity = -1
-)
-
-func (p Parity) String() string {
-	switch p {
-	case ParityEven:
-		return "even"
-	case ParityOdd:
-		return "odd"
-	}
-	return "none"
-}
-
-// Flip returns the opposite parity.
-func (p Parity) Flip() Parity { return -p }
+// ImplicitNeighbour stands for an implicit or bracket hydrogen, or a
+// lone pair, where a list names ligands by atom: RankedLigand.Atom, the
+// neighbour orders of NeighbourOrder, and the ligand lists of every
+// engine below this package.
+const ImplicitNeighbour = ringgeom.Implicit
 
 // Kind is the geometry of a stereogenic unit.
 type Kind uint8

@@ -1,6 +1,12 @@
+// This file implements the reading of direction marks around double
+// bonds, and the report of stray marks.
+
 package stereo
 
-import "stereoline/notation"
+import (
+	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
+)
 
 // readBonds reads the '/' and '\' marks around every double bond and odd
 // cumulene, reporting one-sided and contradictory marks.
@@ -27,7 +33,8 @@ func (l *labeller) readBonds() {
 			continue // even cumulene: an axial unit, read from its centre mark
 		}
 		mid := l.middleBond(t0, i0, count)
-		c := &bondConfig{bond: mid, ends: [2]int{t0, t1}, inner: [2]int{i0, i1}}
+		// Cis until both ends are found marked (a one-sided bond keeps it)
+		c := &bondConfig{bond: mid, ends: [2]int{t0, t1}, inner: [2]int{i0, i1}, hand: ringgeom.Cis}
 		marked := [2]bool{}
 		ok := true
 		var sides [2]notation.Direction
@@ -55,7 +62,10 @@ func (l *labeller) readBonds() {
 		}
 		switch {
 		case marked[0] && marked[1]:
-			c.trans = sides[0] != sides[1]
+			c.hand = ringgeom.Cis
+			if sides[0] != sides[1] {
+				c.hand = ringgeom.Trans
+			}
 			l.cfg.bonds[bi] = c
 			if mid != bi {
 				l.cfg.bonds[mid] = c

@@ -1,3 +1,5 @@
+// This file implements the atomic masses Rule 2 compares.
+
 package stereo
 
 // atomMass returns the mass Rule 2 compares: the exact mass of the

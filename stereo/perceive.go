@@ -1,6 +1,12 @@
+// This file implements the perception of unmarked stereogenic units and
+// the constitutional symmetry classes it decides by.
+
 package stereo
 
-import "stereoline/notation"
+import (
+	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
+)
 
 // perceiveUnmarked finds stereogenic units that carry no mark and
 // reports them as undefined. Constitutional symmetry classes decide:
@@ -28,32 +34,21 @@ func (l *labeller) perceiveUnmarked() {
 		if l.unitAtoms[a] || !tetrahedralCapable(g, a) && !l.heldNitrogen(a) || exchangingOxygens(g, a) {
 			continue
 		}
-		distinct, pairInRing := ligandClasses(g, a, class)
-		switch {
-		case distinct:
+		span := g.mol.Atoms[a].Span
+		switch kind, u := l.classifyUnmarked(a, class); kind {
+		case distinctLigands, spiroAxialCentre:
 			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a))
-			report(g.mol.Atoms[a].Span, "stereocentre without a configuration")
-		case l.anyMarks && l.configuredPair(a, class) && l.pseudoCentre(a):
-			// constitutionally equal ligands told apart by the
-			// configurations written elsewhere: a pseudoasymmetric
-			// centre (the middle carbon of a trisubstituted glutaric
-			// acid whose ends are unlike); pseudoCentre has added it
-			report(g.mol.Atoms[a].Span, "stereocentre (made so by the configurations around it) without a configuration")
-		case l.spiroAxial(a):
-			// a spiro atom whose two rings each hold two different
-			// ligands is a stereocentre even when the rings are alike
-			// (spiro[4.4]nonane-1,6-dione, VS288 of the suite)
-			l.res.Units = append(l.res.Units, l.unspecifiedCentre(a))
-			report(g.mol.Atoms[a].Span, "stereocentre without a configuration")
-		case pairInRing:
+			report(span, "stereocentre without a configuration")
+		case pseudoCentreByConfiguration:
+			l.addCentre(u)
+			report(span, "stereocentre (made so by the configurations around it) without a configuration")
+		case ringPairMember:
 			paired = append(paired, a)
-		case l.spiroRelay(a):
+		case spiroRelayMember:
 			relays = append(relays, a)
-		case l.ringTied(a, class) && l.chiralArrangement(a):
-			// equal ring ligands arranged without a mirror plane through
-			// the atom: the proposed Rule 6 tells them apart (VS281,
-			// VS283 of the suite)
-			report(g.mol.Atoms[a].Span, "stereocentre (its equal ring ligands are arranged chirally) without a configuration")
+		case chiralRingArrangement:
+			l.addCentre(u)
+			report(span, "stereocentre (its equal ring ligands are arranged chirally) without a configuration")
 		}
 	}
 	// units stereogenic together: two paired atoms or exocyclic double
@@ -79,11 +74,17 @@ func (l *labeller) perceiveUnmarked() {
 	// 3-position of a cis-fused bicyclo[3.3.0]octane whose bridgeheads
 	// are marked: exo or endo)
 	for _, a := range l.unjoined {
-		switch {
-		case l.unitAtoms[a]:
-		case l.anyMarks && l.configuredRingPair(a) && l.pseudoCentre(a):
-			report(g.mol.Atoms[a].Span, "stereocentre (made so by the configurations around it) without a configuration")
-		case l.openPairInBlock(a):
+		if l.unitAtoms[a] {
+			continue
+		}
+		if l.anyMarks && l.configuredRingPair(a) {
+			if u, ok := l.pseudoCentre(a); ok {
+				l.addCentre(u)
+				report(g.mol.Atoms[a].Span, "stereocentre (made so by the configurations around it) without a configuration")
+				continue
+			}
+		}
+		if l.openPairInBlock(a) {
 			// the same split can come from stereocentres of the ring
 			// system that are themselves unmarked: the 3-position of
 			// tropine against its bridgeheads (tropine and
@@ -106,7 +107,8 @@ func (l *labeller) perceiveUnmarked() {
 			// equal ring ligands at an end may still be arranged
 			// chirally: an allene inside a bicycle (VS287 of the suite)
 			if l.ringTied(ends[0], class) || l.ringTied(ends[1], class) {
-				if l.chiralAllene(a, ends) {
+				if u, ok := l.chiralAllene(a, ends); ok {
+					l.addCentre(u)
 					report(g.mol.Atoms[a].Span, "stereogenic allene (its equal ring ligands are arranged chirally) without a configuration")
 				}
 			}
@@ -132,7 +134,7 @@ func (l *labeller) perceiveUnmarked() {
 		if g.cumulated(b.Begin) || g.cumulated(b.End) {
 			continue
 		}
-		if s := g.ringSize(bi); s > 0 && s < 8 {
+		if cisOnlyRing(g.ringSize(bi)) {
 			continue
 		}
 		switch {
@@ -142,10 +144,8 @@ func (l *labeller) perceiveUnmarked() {
 		case l.anyMarks && bondEndsPossible(g, b.Begin, b.End) && l.configuredBondPair(b.Begin, b.End) && l.configuredBondPair(b.End, b.Begin):
 			// an end whose two equal ligands the configurations written
 			// elsewhere tell apart, as for pseudoCentre
-			probe := &bondConfig{bond: bi, ends: [2]int{b.Begin, b.End}, inner: [2]int{b.End, b.Begin}, refs: [2]int{-2, -2}}
-			restore := l.explaining()
-			lb := l.doubleBond(probe)
-			restore()
+			var lb label
+			l.withExplainCap(func() { lb = l.doubleBond(unmarkedBond(bi, [2]int{b.Begin, b.End}, [2]int{b.End, b.Begin})) })
 			if lb.tie || lb.capped {
 				continue
 			}
@@ -154,6 +154,72 @@ func (l *labeller) perceiveUnmarked() {
 			report(b.Span, "stereogenic double bond (made so by the configurations around it) without a configuration")
 		}
 	}
+}
+
+// unmarkedCentre is what an unmarked candidate atom turns out to be.
+// classifyUnmarked tries the kinds in the order below and the first
+// that applies decides, so the order is one of chemical precedence: an
+// atom with four different ligands needs no further test, and the
+// costly ones (ranking by configurations, Rule 6 trials) come last.
+type unmarkedCentre uint8
+
+const (
+	notACentre unmarkedCentre = iota
+	// four ligands of four symmetry classes: a stereocentre
+	distinctLigands
+	// constitutionally equal ligands told apart by the configurations
+	// written elsewhere: a pseudoasymmetric centre (the middle carbon of
+	// a trisubstituted glutaric acid whose ends are unlike)
+	pseudoCentreByConfiguration
+	// a spiro atom whose two rings each hold two different ligands: a
+	// stereocentre even when the rings are alike (spiro[4.4]nonane-
+	// 1,6-dione, VS288 of the suite)
+	spiroAxialCentre
+	// one pair of equal ring branches: stereogenic only together with
+	// another ring atom (together.go)
+	ringPairMember
+	// a spiro atom with a pair of equal branches in each ring: it passes
+	// the relation between ring atoms on either side on (together.go)
+	spiroRelayMember
+	// equal ring ligands arranged without a mirror plane through the
+	// atom: the proposed Rule 6 tells them apart (VS281, VS283 of the
+	// suite)
+	chiralRingArrangement
+)
+
+// classifyUnmarked decides what the unmarked candidate atom a is, and
+// for pseudoCentreByConfiguration and chiralRingArrangement returns its
+// unit, ranked on the way. It adds nothing to the result.
+func (l *labeller) classifyUnmarked(a int, class *lazyClasses) (unmarkedCentre, Unit) {
+	distinct, pairInRing := ligandClasses(l.g, a, class)
+	if distinct {
+		return distinctLigands, Unit{}
+	}
+	if l.anyMarks && l.configuredPair(a, class) {
+		if u, ok := l.pseudoCentre(a); ok {
+			return pseudoCentreByConfiguration, u
+		}
+	}
+	switch {
+	case l.spiroAxial(a):
+		return spiroAxialCentre, Unit{}
+	case pairInRing:
+		return ringPairMember, Unit{}
+	case l.spiroRelay(a):
+		return spiroRelayMember, Unit{}
+	}
+	if l.ringTied(a, class) {
+		if u, ok := l.chiralArrangement(a); ok {
+			return chiralRingArrangement, u
+		}
+	}
+	return notACentre, Unit{}
+}
+
+// addCentre adds the unit of a centre perceived as stereogenic.
+func (l *labeller) addCentre(u Unit) {
+	l.unitAtoms[u.Centre] = true
+	l.res.Units = append(l.res.Units, u)
 }
 
 // perceiveCumulenes reports the unmarked cumulenes with an odd number of
@@ -188,9 +254,8 @@ func (l *labeller) perceiveCumulenes(class *lazyClasses, report func(notation.Sp
 		}
 		l.unitBonds[mid] = true
 		u := Unit{Kind: KindDoubleBond, Atoms: []int{t0, t1}, Centre: -1, Bond: mid}
-		restore := l.explaining()
-		lb := l.doubleBond(&bondConfig{bond: mid, ends: [2]int{t0, t1}, inner: [2]int{i0, i1}, refs: [2]int{-2, -2}})
-		restore()
+		var lb label
+		l.withExplainCap(func() { lb = l.doubleBond(unmarkedBond(mid, [2]int{t0, t1}, [2]int{i0, i1})) })
 		if !lb.capped {
 			u.Ranked, u.Decisions = lb.ranked, lb.decisions
 		}
@@ -199,11 +264,11 @@ func (l *labeller) perceiveCumulenes(class *lazyClasses, report func(notation.Sp
 	}
 }
 
-// inSmallRing reports whether atom a lies on a ring of fewer than 8
-// atoms.
+// inSmallRing reports whether atom a lies on a ring too small to hold a
+// trans double bond (cisOnlyRing).
 func (l *labeller) inSmallRing(a int) bool {
 	for _, e := range l.g.adj[a] {
-		if s := l.g.ringSize(e.bond); s > 0 && s < 8 {
+		if cisOnlyRing(l.g.ringSize(e.bond)) {
 			return true
 		}
 	}
@@ -215,11 +280,13 @@ func (l *labeller) inSmallRing(a int) bool {
 // and the explanation is as useful before a mark is written).
 func (l *labeller) unspecifiedCentre(a int) Unit {
 	u := Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1}
-	defer l.explaining()()
-	d := l.digraph(a)
-	defer l.release(d)
-	// no Rule 6 trials: they decide a label, which an unmarked unit has not
-	lb, _ := l.tetrahedralWith(d, l.unmarkedConfig(a), -1, false)
+	var lb label
+	l.withExplainCap(func() {
+		d := l.digraph(a)
+		defer l.release(d)
+		// no Rule 6 trials: they decide a label, which an unmarked unit has not
+		lb, _ = l.tetrahedralWith(d, l.unmarkedConfig(a), -1, false)
+	})
 	if !lb.capped {
 		u.Ranked, u.Decisions = lb.ranked, lb.decisions
 	}
@@ -248,47 +315,40 @@ func (l *labeller) ringTied(a int, class *lazyClasses) bool {
 // chiralArrangement labels an unmarked atom as if it were marked, with
 // the Rule 6 trials a mark gets, and reports whether a label comes out:
 // then its tied ligands are told apart by how they are arranged, and the
-// atom is a stereocentre. The atom's unit is added when it is.
-func (l *labeller) chiralArrangement(a int) bool {
-	defer l.explaining()()
-	t := l.unmarkedConfig(a)
-	lb := l.tetrahedral(t)
+// atom is a stereocentre, whose unit it returns.
+func (l *labeller) chiralArrangement(a int) (Unit, bool) {
+	var lb label
+	l.withExplainCap(func() { lb = l.tetrahedral(l.unmarkedConfig(a)) })
 	if lb.tie || lb.capped || !lb.desc.Labelled() {
-		return false
+		return Unit{}, false
 	}
-	l.unitAtoms[a] = true
-	l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1,
-		Ranked: lb.ranked, Decisions: lb.decisions})
-	return true
+	return Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1, Ranked: lb.ranked, Decisions: lb.decisions}, true
 }
 
 // chiralAllene is chiralArrangement for the centre of an allene.
-func (l *labeller) chiralAllene(a int, ends [2]int) bool {
+func (l *labeller) chiralAllene(a int, ends [2]int) (Unit, bool) {
 	c := l.g.readAllene(a, notation.Chirality{Class: notation.ChiralAL, Num: 1})
 	if c == nil || len(c.ligands) != 4 {
-		return false
+		return Unit{}, false
 	}
-	defer l.explaining()()
-	lb := l.allene(c)
+	var lb label
+	l.withExplainCap(func() { lb = l.allene(c) })
 	if lb.tie || lb.capped || !lb.desc.Labelled() {
-		return false
+		return Unit{}, false
 	}
-	l.unitAtoms[a] = true
-	l.res.Units = append(l.res.Units, Unit{Kind: KindAllene, Atoms: []int{ends[0], ends[1]}, Centre: a, Bond: -1,
-		Ranked: lb.ranked, Decisions: lb.decisions})
-	return true
+	return Unit{Kind: KindAllene, Atoms: []int{ends[0], ends[1]}, Centre: a, Bond: -1, Ranked: lb.ranked, Decisions: lb.decisions}, true
 }
 
 // unmarkedConfig is the configuration an unmarked centre is ranked
 // under: its ligands in stereo order, the implicit ligand a hydrogen or,
-// with three atoms and no hydrogen, a lone pair; the winding is
+// with three atoms and no hydrogen, a lone pair; the hand is
 // arbitrary, as no label is read from it.
 func (l *labeller) unmarkedConfig(a int) *tetraConfig {
 	ligs := stereoLigands(l.g.mol, a)
 	if len(ligs) == 3 {
-		ligs = append(ligs, implicitLigand)
+		ligs = append(ligs, ImplicitNeighbour)
 	}
-	return &tetraConfig{centre: a, ligands: ligs, winding: 1, lonePair: len(l.g.mol.Atoms[a].Bonds) == 3 && l.g.hyd[a] == 0}
+	return &tetraConfig{centre: a, ligands: ligs, hand: ringgeom.Anticlockwise, lonePair: len(l.g.mol.Atoms[a].Bonds) == 3 && l.g.hyd[a] == 0}
 }
 
 // explainCap bounds the digraphs that rank the ligands of unmarked
@@ -297,19 +357,22 @@ func (l *labeller) unmarkedConfig(a int) *tetraConfig {
 // for each of them.
 const explainCap = 2000
 
-// explaining lowers the node cap until the returned function restores it.
-func (l *labeller) explaining() func() {
+// withExplainCap runs rank with the node cap lowered to explainCap, for
+// rankings that only explain an unmarked unit; the cap is restored when
+// rank returns.
+func (l *labeller) withExplainCap(rank func()) {
 	saved := l.nodeCap
-	l.nodeCap = min(l.nodeCap, explainCap)
-	return func() { l.nodeCap = saved }
+	l.nodeCap = min(saved, explainCap)
+	defer func() { l.nodeCap = saved }()
+	rank()
 }
 
 // unspecifiedBond is the unit of an unmarked stereogenic double bond,
 // with the ligands at each end ranked.
 func (l *labeller) unspecifiedBond(a, b, bi int) Unit {
 	u := Unit{Kind: KindDoubleBond, Atoms: []int{a, b}, Centre: -1, Bond: bi}
-	defer l.explaining()()
-	lb := l.doubleBond(&bondConfig{bond: bi, ends: [2]int{a, b}, inner: [2]int{b, a}, refs: [2]int{-2, -2}})
+	var lb label
+	l.withExplainCap(func() { lb = l.doubleBond(unmarkedBond(bi, [2]int{a, b}, [2]int{b, a})) })
 	if !lb.capped {
 		u.Ranked, u.Decisions = lb.ranked, lb.decisions
 	}
@@ -509,22 +572,20 @@ func (l *labeller) configuredNear(start, avoid, depth int) bool {
 }
 
 // pseudoCentre ranks the ligands of an unmarked atom by the full rule
-// chain, so that the configurations written elsewhere (through their
-// auxiliary descriptors) can split constitutionally equal ligands, and
-// adds the atom's unit, with that ranking as its explanation, when they
-// do. Ring pairs are left to the together test: their split comes from
-// the atom's own partner across the ring.
-func (l *labeller) pseudoCentre(a int) bool {
+// chain, with the full node cap, so that the configurations written
+// elsewhere (through their auxiliary descriptors) can split
+// constitutionally equal ligands, and returns the atom's unit, with that
+// ranking as its explanation, when they do. Ring pairs are left to the
+// together test: their split comes from the atom's own partner across
+// the ring.
+func (l *labeller) pseudoCentre(a int) (Unit, bool) {
 	d := l.digraph(a)
 	defer l.release(d)
 	lb, _ := l.tetrahedralWith(d, l.unmarkedConfig(a), -1, false)
 	if lb.tie || lb.capped || !decidedByDescriptors(lb.decisions) {
-		return false
+		return Unit{}, false
 	}
-	l.unitAtoms[a] = true
-	l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1,
-		Ranked: lb.ranked, Decisions: lb.decisions})
-	return true
+	return Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1, Ranked: lb.ranked, Decisions: lb.decisions}, true
 }
 
 // decidedByDescriptors reports whether a ranking needed the rules that
@@ -547,7 +608,7 @@ func (l *labeller) heldNitrogen(a int) bool {
 	g := l.g
 	at := &g.mol.Atoms[a]
 	if at.Number != notation.ElemN || at.Charge != 0 || at.Aromatic || len(g.adj[a]) != 3 || g.hyd[a] != 0 ||
-		g.valence(a) != 3 || ringDegree(g, a) != 3 {
+		g.valence(a) != 3 || g.geom.RingDegree(a) != 3 {
 		return false
 	}
 	return l.bridgedHead(a)
@@ -705,6 +766,13 @@ func (c *lazyClasses) of(a int) uint64 {
 // no table maps names to numbers; two different classes would need a
 // 64-bit collision to merge. The tables live in the graph's storage,
 // reused by the next analysis.
+//
+// The identity key and the pre-key refine too, to other ends: the key
+// ranks exactly (stereo/identity/canon.go), since it needs an order and
+// not only classes; the pre-key (stereo/identity/prekey.go) leaves bond
+// orders out, since it must never tell apart what the key joins, and
+// runs a fixed number of rounds. The three share the mixer
+// (ringgeom.Mix64 and Scramble), not the refinement.
 func symmetryClasses(g *graph) []uint64 {
 	n := g.n
 	class := sized(&g.store.class, n)
@@ -716,10 +784,10 @@ func symmetryClasses(g *graph) []uint64 {
 	buf := sized(&g.store.classSort, size)
 	for a := 0; a < n; a++ {
 		at := &g.mol.Atoms[a]
-		h := mix64(uint64(at.Number))
-		h = mix64(h ^ uint64(at.Charge+128)<<8)
-		h = mix64(h ^ uint64(at.Isotope)<<16)
-		class[a] = mix64(h ^ uint64(len(g.adj[a]))<<32 ^ uint64(g.hyd[a])<<40 ^ uint64(g.valence(a))<<48)
+		h := ringgeom.Mix64(uint64(at.Number))
+		h = ringgeom.Mix64(h ^ uint64(at.Charge+128)<<8)
+		h = ringgeom.Mix64(h ^ uint64(at.Isotope)<<16)
+		class[a] = ringgeom.Mix64(h ^ uint64(len(g.adj[a]))<<32 ^ uint64(g.hyd[a])<<40 ^ uint64(g.valence(a))<<48)
 	}
 	count := countDistinct(class, buf)
 	for iter := 0; iter < n; iter++ {
@@ -728,9 +796,9 @@ func symmetryClasses(g *graph) []uint64 {
 			// not depend on their order, so none is sorted
 			var sum uint64
 			for _, e := range g.adj[a] {
-				sum += mix64(class[e.to] + uint64(classOrder(g, a, e)))
+				sum += ringgeom.Mix64(class[e.to] + uint64(classOrder(g, a, e)))
 			}
-			next[a] = mix64(class[a]) ^ sum
+			next[a] = ringgeom.Mix64(class[a]) ^ sum
 		}
 		class, next = next, class
 		// each name includes the one before, so classes only split: the
@@ -774,15 +842,6 @@ func countDistinct(xs, buf []uint64) int {
 		}
 	}
 	return n
-}
-
-// mix64 is the splitmix64 finaliser (common practice), a cheap mixing
-// of 64 bits for the hashes above.
-func mix64(x uint64) uint64 {
-	x += 0x9e3779b97f4a7c15
-	x = (x ^ x>>30) * 0xbf58476d1ce4e5b9
-	x = (x ^ x>>27) * 0x94d049bb133111eb
-	return x ^ x>>31
 }
 
 // classOrder is the order of a bond as symmetry classes see it: a bond

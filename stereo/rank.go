@@ -1,6 +1,13 @@
+// This file implements the ranking of a unit's ligands and the decisions
+// kept with it.
+
 package stereo
 
-import "slices"
+import (
+	"slices"
+
+	"stereoline/stereo/internal/ringgeom"
+)
 
 // Ranking the ligands of one stereogenic unit and keeping the reasons.
 
@@ -70,37 +77,25 @@ func (d *digraph) rankLigands(root nodeID, ligs []nodeID) ranking {
 	return r
 }
 
-// ligandAtom is the atom a ligand node stands for, or implicitLigand.
+// ligandAtom is the atom a ligand node stands for, or ImplicitNeighbour.
 func (d *digraph) ligandAtom(n nodeID) int {
 	x := &d.nodes[n]
 	if x.kind == nodeHydrogen || x.kind == nodeLonePair {
-		return implicitLigand
+		return ImplicitNeighbour
 	}
 	return x.atom
 }
 
-// inversions counts the pairs out of order, for permutation parity.
-func inversions(xs []int) int {
-	n := 0
-	for i := range xs {
-		for j := i + 1; j < len(xs); j++ {
-			if xs[i] > xs[j] {
-				n++
-			}
-		}
-	}
-	return n
-}
-
 // tetrahedralDescriptor turns ranks (1..4, in the written ligand order)
-// and the written winding into R or S. '@' means the second to fourth
+// and the written hand into R or S. '@' means the second to fourth
 // ligands turn anticlockwise seen from the first; R means ranks 1, 2, 3
 // turn clockwise seen from the side away from rank 4, that is
 // anticlockwise seen from rank 4. The written order is compared with
-// (4, 1, 2, 3), an odd permutation of (1, 2, 3, 4).
-func tetrahedralDescriptor(ranks []int, winding int) Descriptor {
-	even := (inversions(ranks)+3)%2 == 0
-	if even == (winding == 1) {
+// (4, 1, 2, 3), an odd permutation of (1, 2, 3, 4): the hand read in
+// that order is the hand read in rank order reversed.
+func tetrahedralDescriptor(ranks []int, hand ringgeom.Hand) Descriptor {
+	parity, _ := ringgeom.PermutationParity(ranks)
+	if hand.Permuted(parity).Reversed() == ringgeom.Anticlockwise {
 		return DescR
 	}
 	return DescS
@@ -118,7 +113,7 @@ func (l *labeller) rootRanking(d *digraph, ref int, pick func(d *digraph) []node
 		return r
 	}
 	d.mirror = true
-	mr := d.rankLigands(0, ligs)
+	mr := d.rankLigands(unitRoot, ligs)
 	d.mirror = false
 	if mr.tie || d.capped || len(mr.order) != len(r.order) {
 		return r
@@ -128,7 +123,8 @@ func (l *labeller) rootRanking(d *digraph, ref int, pick func(d *digraph) []node
 		// a handful of ligands: a search beats a map
 		perm[i] = slices.Index(r.order, n)
 	}
-	r.pseudo = inversions(perm)%2 == 1
+	parity, _ := ringgeom.PermutationParity(perm)
+	r.pseudo = parity == ringgeom.Odd
 	return r
 }
 
@@ -139,7 +135,7 @@ func (l *labeller) rootRanking(d *digraph, ref int, pick func(d *digraph) []node
 func (l *labeller) plainRanking(d *digraph, ref int, pick func(d *digraph) []nodeID) (ranking, []nodeID) {
 	d.refAtom, d.mirror = ref, false
 	ligs := pick(d)
-	r := d.rankLigands(0, ligs)
+	r := d.rankLigands(unitRoot, ligs)
 	r.pseudo = false
 	return r, ligs
 }

@@ -1,3 +1,5 @@
+// This file implements Sequence Rule 1a.
+
 package stereo
 
 // Rule 1a: higher atomic number precedes lower. Duplicate atoms carry the

@@ -1,3 +1,5 @@
+// This file implements Sequence Rule 1b.
+
 package stereo
 
 import "math"

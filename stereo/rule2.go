@@ -1,3 +1,5 @@
+// This file implements Sequence Rule 2.
+
 package stereo
 
 // Rule 2: higher atomic mass precedes lower. A written isotope counts

@@ -1,3 +1,5 @@
+// This file implements Sequence Rule 3.
+
 package stereo
 
 // Rule 3: seqCis (Z) precedes seqTrans (E), and a stereogenic double bond

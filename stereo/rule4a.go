@@ -1,3 +1,5 @@
+// This file implements Sequence Rule 4a.
+
 package stereo
 
 // Rule 4a: chiral stereogenic units precede pseudoasymmetric ones, which

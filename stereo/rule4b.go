@@ -1,3 +1,5 @@
+// This file implements Sequence Rule 4b.
+
 package stereo
 
 import "slices"

@@ -1,3 +1,5 @@
+// This file implements Sequence Rule 4c.
+
 package stereo
 
 // Rule 4c: r precedes s (and m precedes p). Auxiliary descriptors.

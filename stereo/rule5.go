@@ -1,3 +1,5 @@
+// This file implements Sequence Rule 5.
+
 package stereo
 
 // Rule 5: R precedes S and M precedes P. Two ligands that differ only

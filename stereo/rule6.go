@@ -1,3 +1,5 @@
+// This file implements Sequence Rule 6 and the trials of its reference.
+
 package stereo
 
 // Rule 6 (proposed by Hanson et al. 2018): an undifferentiated reference
@@ -11,13 +13,9 @@ func rule6Value(d *digraph, root, n nodeID) float64 {
 	x := &d.nodes[n]
 	// the reference belongs to the unit being labelled; an auxiliary
 	// ranking (another root) sees only its own reference
-	ref := d.refAtom
-	if root != 0 {
-		r, ok := d.auxRef[root]
-		if !ok {
-			return 0
-		}
-		ref = r
+	ref, ok := d.referenceOf(root)
+	if !ok {
+		return 0
 	}
 	if ref >= 0 && x.atom == ref && (x.kind == nodeAtom || x.kind == nodeDuplicate) {
 		return 1

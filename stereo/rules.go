@@ -1,3 +1,6 @@
+// This file implements the chain of sequence rules and the comparison of
+// digraph branches under it.
+
 package stereo
 
 // A sequence rule compares two branches of a digraph. The chain below
@@ -125,19 +128,32 @@ func (d *digraph) canSplit(root nodeID, r Rule) bool {
 	case r >= Rule4a && r <= Rule5:
 		return d.otherCentres
 	case r == Rule6:
-		if root == 0 {
-			return d.refAtom >= 0
-		}
-		_, ok := d.auxRef[root]
-		return ok
+		ref, ok := d.referenceOf(root)
+		return ok && ref >= 0
 	}
 	return true
 }
 
-// bypassMemo reports a comparison whose result depends on an auxiliary
-// Rule 6 reference, which the memo keys do not hold.
+// referenceOf returns the Rule 6 reference atom of the view rooted at
+// root: for the unit's own view refAtom (-1 while none is chosen), for
+// an auxiliary view the reference of its ranking under way (auxRef), or
+// ok false when it has none.
+func (d *digraph) referenceOf(root nodeID) (ref int, ok bool) {
+	if root == unitRoot {
+		return d.refAtom, true
+	}
+	ref, ok = d.auxRef[root]
+	return ref, ok
+}
+
+// bypassMemo reports a comparison that must not be memoised. The memos
+// key a comparison by its view: the root, the rule and, for the unit's
+// view, its reference and mirror flag (viewState). An auxiliary view's
+// Rule 6 reference is not in the key, since it changes while
+// auxWithReference tries each tied ligand, so a Rule 6 comparison in a
+// view that has one is computed afresh each time.
 func (d *digraph) bypassMemo(root nodeID, r Rule) bool {
-	if root == 0 || r < Rule6 || len(d.auxRef) == 0 {
+	if root == unitRoot || r < Rule6 || len(d.auxRef) == 0 {
 		return false
 	}
 	_, ok := d.auxRef[root]
@@ -357,7 +373,7 @@ func (d *digraph) sphereOf(root, n nodeID) int {
 	if n == noNode {
 		return 1
 	}
-	if root == 0 {
+	if root == unitRoot {
 		return int(d.nodes[n].depth) // the root's view: depth is the distance
 	}
 	return d.treeDistance(root, n)
@@ -370,7 +386,7 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 		return nil
 	}
 	ref, mirror := d.viewState(root, r)
-	fast := root == 0 && from == d.nodes[n].parent && ref < 0 && !mirror
+	fast := root == unitRoot && from == d.nodes[n].parent && ref < 0 && !mirror
 	if fast {
 		if i := d.nodes[n].sorted; i > 0 && d.sortTables[i-1][r] > 0 {
 			start := int(d.sortTables[i-1][r] - 1)
@@ -382,7 +398,7 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 	packed := packView(n, from, root, r)
 	bypass := d.bypassMemo(root, r)
 	if !fast && !bypass {
-		if root != 0 {
+		if root != unitRoot {
 			if s, ok := d.sortedAux[packed]; ok {
 				return s
 			}
@@ -413,7 +429,7 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 		// and grown sorts meanwhile
 		d.sortTables[d.nodes[n].sorted-1][r] = int32(len(d.sorts) + 1)
 		d.sorts = append(d.sorts, s...)
-	case root != 0:
+	case root != unitRoot:
 		if d.sortedAux == nil {
 			d.sortedAux = map[uint64][]nodeID{}
 		}
@@ -431,7 +447,7 @@ func (d *digraph) sortedNeighbours(root, n, from nodeID, r Rule) []nodeID {
 // r depends on: the Rule 6 reference matters to Rule 6 only, the mirror
 // flag to the descriptor rules only, and neither to auxiliary views.
 func (d *digraph) viewState(root nodeID, r Rule) (ref int, mirror bool) {
-	if root != 0 {
+	if root != unitRoot {
 		return -1, false
 	}
 	if r >= Rule3 {

@@ -1,3 +1,5 @@
+// This file implements the labelling of tetrahedral centres (R/S).
+
 package stereo
 
 // Tetrahedral centres: R/S (r/s when pseudoasymmetric) for an atom with
@@ -33,9 +35,9 @@ func (l *labeller) tetrahedral(t *tetraConfig) label {
 func (l *labeller) tetrahedralWith(d *digraph, t *tetraConfig, ref int, wantLabel bool) (label, []int) {
 	var n3 int
 	pick := func(d *digraph) []nodeID {
-		ligs := d.ligandsOf(0, noNode)
+		ligs := d.ligandsOf(unitRoot, noNode)
 		if t.lonePair && len(ligs) == 3 {
-			ligs = append(ligs, d.lonePair(0))
+			ligs = append(ligs, d.lonePair(unitRoot))
 		}
 		n3 = len(ligs)
 		return ligs

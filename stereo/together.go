@@ -1,9 +1,13 @@
+// This file implements the units stereogenic only together: ring pairs,
+// exocyclic double bonds, spiro relays.
+
 package stereo
 
 import (
 	"slices"
 
 	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
 )
 
 // Units stereogenic only together. A ring atom whose two ring branches
@@ -147,7 +151,7 @@ func (l *labeller) joinMembers(members []member) []bool {
 	block := l.ringBlocks()
 	// groups of ring systems (named by a bond of each), merged through
 	// the relays
-	sets := newDisjointSets(len(block))
+	sets := ringgeom.NewDisjointSets(len(block))
 	blocksOf := func(a int) []int {
 		var out []int
 		for _, e := range l.g.adj[a] {
@@ -160,7 +164,7 @@ func (l *labeller) joinMembers(members []member) []bool {
 	for _, m := range members {
 		if m.relay {
 			if bs := blocksOf(m.atom); len(bs) == 2 {
-				sets.union(bs[0], bs[1])
+				sets.Union(bs[0], bs[1])
 			}
 		}
 	}
@@ -168,13 +172,13 @@ func (l *labeller) joinMembers(members []member) []bool {
 	for _, m := range members {
 		if !m.relay {
 			for _, b := range blocksOf(m.atom) {
-				count[sets.find(b)]++
+				count[sets.Find(b)]++
 			}
 		}
 	}
 	for i, m := range members {
 		for _, b := range blocksOf(m.atom) {
-			if count[sets.find(b)] >= 2 {
+			if count[sets.Find(b)] >= 2 {
 				joined[i] = true
 			}
 		}
@@ -191,7 +195,7 @@ func (l *labeller) ringBlocks() []int {
 	}
 	g := l.g
 	nb := len(g.mol.Bonds)
-	sets := newDisjointSets(nb)
+	sets := ringgeom.NewDisjointSets(nb)
 	for _, ring := range g.smallRings() {
 		first := -1
 		for i := range ring {
@@ -203,14 +207,14 @@ func (l *labeller) ringBlocks() []int {
 				first = bi
 				continue
 			}
-			sets.union(bi, first)
+			sets.Union(bi, first)
 		}
 	}
 	out := make([]int, nb)
 	for bi := range out {
 		out[bi] = -1
 		if g.ringBond[bi] {
-			out[bi] = sets.find(bi)
+			out[bi] = sets.Find(bi)
 		}
 	}
 	l.blocks = out
@@ -239,7 +243,7 @@ func (l *labeller) spiroAxial(a int) bool {
 // its two ligands are constitutionally equal.
 func (l *labeller) spiroSides(a int) (equal int, ok bool) {
 	g := l.g
-	if len(g.adj[a]) != 4 || g.hyd[a] != 0 || ringDegree(g, a) != 4 || g.doubleBonds(a) > 0 {
+	if len(g.adj[a]) != 4 || g.hyd[a] != 0 || g.geom.RingDegree(a) != 4 || g.doubleBonds(a) > 0 {
 		return 0, false
 	}
 	block := l.ringBlocks()

@@ -1,3 +1,6 @@
+// This file implements the labelling of every marked unit and the checks
+// of what its marks mean.
+
 package stereo
 
 import (
@@ -5,12 +8,55 @@ import (
 	"sort"
 
 	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
 )
 
-// labelAll labels every unit that carries a configuration.
+// labelAll labels every unit that carries a configuration: tetrahedral
+// centres, double bonds marked at both ends, double bonds marked at one
+// end, allenes, and the higher classes, in that order.
+//
+// Direction marks need care: the mark on a single bond between two
+// double bonds (C/C=C/C=C/C, or a benzene ring next to a marked chain)
+// serves both, so a double bond that cannot use its marks must not be
+// blamed for them when another one does. Three tables by single bond
+// decide whether a bond's marks are used:
+//   - usedBondMarks (readBonds): the mark sits next to some double bond;
+//     one next to none is reported as stray (reportStrayBondMarks);
+//   - l.effective: the mark configures a double bond that got a label;
+//   - claimed (labelOneSided): the mark may configure a bond that can be
+//     stereogenic: the effective ones, those of bonds that may be
+//     stereogenic together with a ring atom (together.go), and those of
+//     one-sided bonds that could be stereogenic.
 func (l *labeller) labelAll() {
 	// room for every marked unit, grown once
 	l.res.Units = slices.Grow(l.res.Units, len(l.cfg.tetra)+len(l.cfg.bonds)+len(l.cfg.allene)+len(l.cfg.higher)+len(l.oneSided))
+	l.labelCentres()
+	// double bonds before the rest, so that every mark that configures
+	// a labelled bond is known when the others are judged
+	quiet := l.labelBonds()
+	for _, c := range quiet {
+		l.warnQuietBond(c)
+	}
+	l.labelOneSided()
+	l.labelAllenes()
+	l.keepHigherClasses()
+}
+
+// markUse records, by marked single bond, whether its marks do a job.
+type markUse map[int]bool
+
+// all reports whether every mark of a unit does the job.
+func (u markUse) all(marks []int) bool {
+	for _, mb := range marks {
+		if !u[mb] {
+			return false
+		}
+	}
+	return true
+}
+
+// labelCentres labels the tetrahedral marks.
+func (l *labeller) labelCentres() {
 	for _, a := range l.cfg.tetraAtoms() {
 		t := l.cfg.tetra[a]
 		l.unitAtoms[a] = true
@@ -48,13 +94,17 @@ func (l *labeller) labelAll() {
 		l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1,
 			Specified: true, Descriptor: lb.desc, Ranked: lb.ranked, Decisions: lb.decisions, Marks: []notation.Span{t.span}})
 	}
-	// double bonds first, so that a mark shared with a neighbouring
-	// double bond (conjugated chains, a benzene ring next to a marked
-	// chain) is not blamed on the unit that cannot use it
+}
+
+// labelBonds labels the double bonds marked at both ends, records their
+// marks in l.effective, and returns the configured bonds that decide
+// nothing (quiet: in a ring too small for trans, or with two equal
+// ligands at an end), whose marks may yet belong to another unit.
+func (l *labeller) labelBonds() (quiet []*bondConfig) {
+	// a cumulene's configuration is kept under each of its double
+	// bonds: it is labelled once
 	done := map[*bondConfig]bool{}
-	var quiet []*bondConfig // units whose marks may belong to another unit
-	l.effective = map[int]bool{}
-	effective := l.effective
+	l.effective = markUse{}
 	for _, bi := range sortedKeys(l.cfg.bonds) {
 		c := l.cfg.bonds[bi]
 		if done[c] {
@@ -62,7 +112,7 @@ func (l *labeller) labelAll() {
 		}
 		done[c] = true
 		l.unitBonds[c.bond] = true
-		if size := l.ringSize(c); size > 0 && size < 8 {
+		if cisOnlyRing(l.ringSize(c)) {
 			quiet = append(quiet, c)
 			continue
 		}
@@ -79,7 +129,7 @@ func (l *labeller) labelAll() {
 			continue
 		}
 		for _, mb := range c.marks {
-			effective[mb] = true
+			l.effective[mb] = true
 		}
 		if lb.capped {
 			l.warn(c.spans[0], CodeUndetermined, "configuration too deep to label within %d digraph nodes", l.nodeCap)
@@ -87,23 +137,18 @@ func (l *labeller) labelAll() {
 		l.res.Units = append(l.res.Units, Unit{Kind: KindDoubleBond, Atoms: []int{c.ends[0], c.ends[1]}, Centre: -1, Bond: c.bond,
 			Specified: true, Descriptor: lb.desc, Ranked: lb.ranked, Decisions: lb.decisions, Marks: c.spans})
 	}
-	shared := func(c *bondConfig) bool {
-		for _, mb := range c.marks {
-			if !effective[mb] {
-				return false
-			}
-		}
-		return true
-	}
-	for _, c := range quiet {
-		l.warnQuietBond(c)
-	}
-	// A one-sided bond that can be stereogenic claims its marks too, so a
-	// mark between C=O and C=C (an acrylate) is not called ineffective
-	// because of the C=O it also touches.
-	oneSided := make([]label, len(l.oneSided))
-	claimed := map[int]bool{}
-	for mb := range effective {
+	return quiet
+}
+
+// labelOneSided ranks the double bonds marked at one end only. One that
+// can be stereogenic is reported as open and claims its marks, so a mark
+// between C=O and C=C (an acrylate) is not called ineffective because of
+// the C=O it also touches; one that cannot is reported as ineffective
+// unless every one of its marks is claimed by another unit.
+func (l *labeller) labelOneSided() {
+	ranked := make([]label, len(l.oneSided))
+	claimed := markUse{}
+	for mb := range l.effective {
 		claimed[mb] = true
 	}
 	// a bond that may be stereogenic together with a ring atom claims
@@ -117,31 +162,23 @@ func (l *labeller) labelAll() {
 	}
 	for k, c := range l.oneSided {
 		probe := *c
-		oneSided[k] = l.doubleBond(&probe)
-		if !oneSided[k].tie && !(l.ringSize(c) > 0 && l.ringSize(c) < 8) {
+		ranked[k] = l.doubleBond(&probe)
+		if !ranked[k].tie && !cisOnlyRing(l.ringSize(c)) {
 			for _, mb := range c.marks {
 				claimed[mb] = true
 			}
 		}
 	}
-	allClaimed := func(c *bondConfig) bool {
-		for _, mb := range c.marks {
-			if !claimed[mb] {
-				return false
-			}
-		}
-		return true
-	}
 	for k, c := range l.oneSided {
 		l.unitBonds[c.bond] = true
-		lb := oneSided[k]
-		if lb.tie || (l.ringSize(c) > 0 && l.ringSize(c) < 8) {
-			if !allClaimed(c) {
+		lb := ranked[k]
+		if lb.tie || cisOnlyRing(l.ringSize(c)) {
+			if !claimed.all(c.marks) {
 				l.warn(c.spans[0], CodeIneffectiveBond, "marks on a double bond that is not stereogenic")
 			}
 			continue
 		}
-		if shared(c) {
+		if l.effective.all(c.marks) {
 			// the mark configures a neighbouring double bond too (a
 			// conjugated chain, C/C=C/C=CC): this one is still open, and
 			// is reported on its own bond, not on the mark it shares
@@ -153,6 +190,10 @@ func (l *labeller) labelAll() {
 		l.res.Units = append(l.res.Units, Unit{Kind: KindDoubleBond, Atoms: []int{c.ends[0], c.ends[1]}, Centre: -1, Bond: c.bond,
 			Ranked: lb.ranked, Marks: c.spans})
 	}
+}
+
+// labelAllenes labels the extended tetrahedral marks.
+func (l *labeller) labelAllenes() {
 	for _, a := range sortedKeys(l.cfg.allene) {
 		c := l.cfg.allene[a]
 		l.unitAtoms[a] = true
@@ -170,11 +211,16 @@ func (l *labeller) labelAll() {
 		l.res.Units = append(l.res.Units, Unit{Kind: KindAllene, Atoms: []int{c.ends[0], c.ends[1]}, Centre: a, Bond: -1,
 			Specified: true, Descriptor: lb.desc, Ranked: lb.ranked, Decisions: lb.decisions, Marks: []notation.Span{c.span}})
 	}
+}
+
+// keepHigherClasses reports the square-planar, trigonal-bipyramidal and
+// octahedral marks as units. There is no CIP ranking for them: the
+// engine keeps the mark and its permutation number, which the
+// notation's neighbour order interprets.
+func (l *labeller) keepHigherClasses() {
 	for _, a := range sortedKeys(l.cfg.higher) {
 		c := l.cfg.higher[a]
 		l.unitAtoms[a] = true
-		// no CIP ranking: the engine keeps the mark and its permutation
-		// number, which the notation's neighbour order interprets
 		l.res.Units = append(l.res.Units, Unit{Kind: c.kind, Atoms: []int{a}, Centre: a, Bond: -1, Specified: true,
 			Permutation: c.number, Marks: []notation.Span{c.span}})
 	}
@@ -185,20 +231,14 @@ func (l *labeller) labelAll() {
 // one end with two equal ligands; marks that serve another double bond
 // are left alone.
 func (l *labeller) warnQuietBond(c *bondConfig) {
-	shared := true
-	for _, mb := range c.marks {
-		if !l.effective[mb] {
-			shared = false
-		}
-	}
-	if shared {
+	if l.effective.all(c.marks) {
 		return
 	}
 	size := l.ringSize(c)
 	switch {
-	case size > 0 && size < 8 && l.g.mancudeZ[c.ends[0]] == 0 && l.transInRing(c):
-		l.fail(c.spans[0], CodeStrainedRing, "trans double bond in a ring of %d atoms; the smallest ring that holds one has 8", size)
-	case size > 0 && size < 8:
+	case cisOnlyRing(size) && l.g.mancudeZ[c.ends[0]] == 0 && l.transInRing(c):
+		l.fail(c.spans[0], CodeStrainedRing, "trans double bond in a ring of %d atoms; the smallest ring that holds one has %d", size, ringgeom.MinTransRing)
+	case cisOnlyRing(size):
 		l.warn(c.spans[0], CodeIneffectiveBond, "a double bond in a ring of %d atoms can only be cis; the marks add nothing", size)
 	default:
 		l.warn(c.spans[0], CodeIneffectiveBond, "marks on a double bond that is not stereogenic: one end carries two equal ligands")
@@ -209,6 +249,10 @@ func (l *labeller) warnQuietBond(c *bondConfig) {
 // bond, 0 when it is acyclic. Cumulenes count their middle bond.
 func (l *labeller) ringSize(c *bondConfig) int { return l.g.ringSize(c.bond) }
 
+// cisOnlyRing reports whether a ring of size atoms (0 for no ring) is too
+// small to hold a trans double bond (ringgeom.MinTransRing).
+func cisOnlyRing(size int) bool { return size > 0 && size < ringgeom.MinTransRing }
+
 // transInRing reports whether the ring continues on opposite sides of the
 // double bond: the ring neighbours of the two ends are trans.
 func (l *labeller) transInRing(c *bondConfig) bool {
@@ -217,7 +261,7 @@ func (l *labeller) transInRing(c *bondConfig) bool {
 	for _, a := range ring {
 		in[a] = true
 	}
-	trans := c.trans
+	hand := c.hand
 	for e := 0; e < 2; e++ {
 		rn := -1
 		for _, ed := range l.g.adj[c.ends[e]] {
@@ -226,10 +270,10 @@ func (l *labeller) transInRing(c *bondConfig) bool {
 			}
 		}
 		if rn != c.refs[e] {
-			trans = !trans
+			hand = hand.Reversed()
 		}
 	}
-	return trans
+	return hand == ringgeom.Trans
 }
 
 // protonatedAmine reports an ammonium nitrogen with a hydrogen: the

@@ -1,3 +1,5 @@
+// This file implements the storage kept between Analyze calls.
+
 package stereo
 
 import "sync"
@@ -30,6 +32,7 @@ func takeWorkspace() *workspace { return workspaces.Get().(*workspace) }
 // what must not outlive it: the molecule and any oversized digraph.
 func (w *workspace) giveBack(l *labeller) {
 	w.g.mol = nil
+	w.g.store.geom.Release()
 	// filtered in place: kept digraphs move down over dropped ones
 	kept := l.spare[:0]
 	for _, d := range l.spare {

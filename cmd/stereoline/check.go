@@ -15,8 +15,9 @@ import (
 const checkUsage = `usage: stereoline check [options] [PATH...]
 
 Checks the stereo marks of the notation found in files and folders (folders
-are searched recursively; hidden entries, binary files and files larger than
---max-size are skipped) and prints one line per finding. A PATH of "-" reads
+are searched recursively; hidden entries, node_modules and __pycache__
+folders, binary files and files larger than --max-size are skipped) and
+prints one line per finding. A PATH of "-" reads
 standard input; --stdin-name then names it (the name picks the host kind and
 is the path printed). With no PATH the current folder is checked.
 

@@ -5,6 +5,8 @@ import (
 	"stereoline/notation/find"
 	"stereoline/stereo"
 	"stereoline/stereo/document"
+	"stereoline/stereo/reaction"
+	"stereoline/stereo/transform"
 )
 
 // codeDoc documents one diagnostic code: what the SARIF rules and the
@@ -236,23 +238,23 @@ var codeCatalogue = []codeDoc{
 		Help:    "Check that the units named are meant to differ.",
 		Example: codeExample{File: "example.smi", Text: "C/C=C/C A-1\nC/C=C\\C A-2\n", Shown: "C/C=C/C A-1\nC/C=C\\C A-2\n"},
 	},
-	// Atom-mapped reactions (stereo/reaction.go).
+	// Atom-mapped reactions (stereo/reaction).
 	{
-		Code: stereo.CodeMapDuplicate, Origin: originMap,
+		Code: reaction.CodeMapDuplicate, Origin: originMap,
 		Short:   "An atom-map number used twice on one side of a reaction.",
 		Full:    "Each atom-map number pairs one reactant atom with one product atom. Used twice on one side, the pairing is ambiguous and the stereo of the atoms involved cannot be followed across the arrow.",
 		Help:    "Give each mapped atom its own number on each side.",
 		Example: codeExample{File: "example.rsmi", Text: "[CH3:1][OH:2]>>[CH3:1][OH:1]\n"},
 	},
 	{
-		Code: stereo.CodeMapUnpaired, Origin: originMap,
+		Code: reaction.CodeMapUnpaired, Origin: originMap,
 		Short:   "A product atom whose map number no reactant atom carries.",
 		Full:    "The product atom claims to come from a reactant atom that does not exist, so its origin, and what happened to its configuration, cannot be followed.",
 		Help:    "Fix the number, or remove it if the atom is not mapped.",
 		Example: codeExample{File: "example.rsmi", Text: "[CH3:1][OH:2]>>[CH3:1][OH:3]\n"},
 	},
 	{
-		Code: stereo.CodeStereoLost, Origin: originMap,
+		Code: reaction.CodeStereoLost, Origin: originMap,
 		Short:   "A mapped unit specified in the reactants is unspecified in the products.",
 		Full:    "The reactant side fixes the configuration of a mapped stereocentre or double bond, the product side leaves it open. Either the reaction destroys the configuration (then say so) or a mark was dropped when the product was written.",
 		Help:    "Add the mark to the product, or remove it from the reactant if the configuration is really lost.",
@@ -290,28 +292,28 @@ var codeCatalogue = []codeDoc{
 		Example: codeExample{File: "example.smi", Text: "CC=CC\n", NotShown: "returned by a rewrite, not by a check"},
 	},
 	{
-		Code: stereo.CodeNoUnit, Origin: originRewrite,
+		Code: transform.CodeNoUnit, Origin: originRewrite,
 		Short:   "The atom or bond named is no stereogenic unit.",
 		Full:    "A rewrite was asked to invert, flip or set a unit at an atom that has no configuration to change.",
 		Help:    "Name the atom of a stereocentre or an end of a stereogenic double bond (atom numbers as in describe).",
 		Example: codeExample{File: "example.smi", Text: "CCO\n", NotShown: "returned by a rewrite asked to invert atom 1 of ethanol, not by a check"},
 	},
 	{
-		Code: stereo.CodeNotSpecified, Origin: originRewrite,
+		Code: transform.CodeNotSpecified, Origin: originRewrite,
 		Short:   "The unit has no configuration to invert or flip.",
 		Full:    "Inverting or flipping needs a configuration to start from; this unit is unmarked.",
 		Help:    "Set the unit to a descriptor instead.",
 		Example: codeExample{File: "example.smi", Text: "CC(O)CC\n", NotShown: "returned by a rewrite asked to invert an unmarked centre, not by a check"},
 	},
 	{
-		Code: stereo.CodeBadDescriptor, Origin: originRewrite,
+		Code: transform.CodeBadDescriptor, Origin: originRewrite,
 		Short:   "The descriptor does not fit the unit.",
 		Full:    "A tetrahedral centre takes R or S, a double bond E or Z, an allene M or P; a pseudoasymmetric centre takes only r or s, which setting cannot choose.",
 		Help:    "Ask for a descriptor of the unit's kind.",
 		Example: codeExample{File: "example.smi", Text: "C[C@H](O)CC\n", NotShown: "returned by a rewrite asked to set a stereocentre to E, not by a check"},
 	},
 	{
-		Code: stereo.CodeNotVerified, Origin: originRewrite,
+		Code: transform.CodeNotVerified, Origin: originRewrite,
 		Short:   "The rewritten text does not read as intended.",
 		Full:    "After a rewrite the result is read and labelled again; this time the label or the structure did not come out as asked, so the rewrite is refused rather than written.",
 		Help:    "Make the change by hand and check it with describe.",

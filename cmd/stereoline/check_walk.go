@@ -2,13 +2,13 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"errors"
 	"fmt"
 	"io"
 	"io/fs"
 	"os"
 	"path/filepath"
-	"strings"
 
 	"stereoline/notation/find"
 )
@@ -27,9 +27,11 @@ type checkFile struct {
 const binaryProbe = 8000
 
 // collect expands the command-line paths into files, in a stable order:
-// paths in the order given, folders walked in lexical order. Hidden files
-// and folders (a name starting with a dot) are skipped inside folders, but
-// a hidden path named on the command line is checked.
+// paths in the order given, folders walked in lexical order by the
+// finder's walk (find.WalkHosts, which the language server's workspace
+// diagnostics share): hidden files and folders and dependency folders are
+// skipped inside folders, but a path named on the command line is
+// checked whatever its name.
 func (r *checkRun) collect() []checkFile {
 	var files []checkFile
 	seen := map[string]bool{}
@@ -62,29 +64,10 @@ func (r *checkRun) collect() []checkFile {
 			add(checkFile{path: filepath.ToSlash(p), osPath: p, explicit: true})
 			continue
 		}
-		err = filepath.WalkDir(p, func(path string, d fs.DirEntry, err error) error {
-			if err != nil {
-				r.pathError(path, err)
-				if d != nil && d.IsDir() {
-					return fs.SkipDir
-				}
-				return nil
-			}
-			if path != p && strings.HasPrefix(d.Name(), ".") {
-				if d.IsDir() {
-					return fs.SkipDir
-				}
-				return nil
-			}
-			if d.IsDir() || !d.Type().IsRegular() {
-				return nil
-			}
-			if !r.hostKnown(path) {
-				return nil
-			}
+		err = find.WalkHosts(context.Background(), p, r.hostKnown, func(path string, d fs.DirEntry) error {
 			add(checkFile{path: filepath.ToSlash(path), osPath: path})
 			return nil
-		})
+		}, r.pathError)
 		if err != nil {
 			r.pathError(p, err)
 		}

@@ -7,6 +7,7 @@ import (
 
 	"stereoline/notation"
 	"stereoline/stereo"
+	"stereoline/stereo/identity"
 )
 
 // compareJSON is what 'compare --json' prints.
@@ -55,7 +56,7 @@ func compare(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			}
 		}
 	}
-	c := stereo.Compare(a, b)
+	c := identity.Compare(a, b)
 	anA, anB := stereo.Analyze(a), stereo.Analyze(b)
 	out := compareJSON{Relation: c.Relation.String(), Differing: []differenceJSON{}}
 	for _, d := range c.Differing {

@@ -11,6 +11,7 @@ import (
 
 	"stereoline/notation"
 	"stereoline/stereo"
+	"stereoline/stereo/reaction"
 )
 
 // describe implements 'stereoline describe'.
@@ -56,16 +57,16 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 // fields are added at the end; consumers must ignore fields they do not
 // know.
 type recordJSON struct {
-	Input       string               `json:"input"`
-	Name        string               `json:"name"`
-	Atoms       []atomJSON           `json:"atoms"`
-	Bonds       []bondJSON           `json:"bonds"`
-	Formula     string               `json:"formula"`
-	Mass        float64              `json:"averageMass"`
-	Mono        float64              `json:"monoisotopicMass"`
-	Diagnostics []diagnosticJSON     `json:"diagnostics"`
-	Stereo      []unitJSON           `json:"stereo"`
-	Reaction    *stereo.ReactionJSON `json:"reaction,omitempty"`
+	Input       string           `json:"input"`
+	Name        string           `json:"name"`
+	Atoms       []atomJSON       `json:"atoms"`
+	Bonds       []bondJSON       `json:"bonds"`
+	Formula     string           `json:"formula"`
+	Mass        float64          `json:"averageMass"`
+	Mono        float64          `json:"monoisotopicMass"`
+	Diagnostics []diagnosticJSON `json:"diagnostics"`
+	Stereo      []unitJSON       `json:"stereo"`
+	Reaction    *reactionJSON    `json:"reaction,omitempty"`
 }
 
 // unitJSON is one perceived stereogenic unit. Atom numbers are 1-based.
@@ -120,6 +121,33 @@ type diagnosticJSON struct {
 	Span     [2]int `json:"span"`
 }
 
+// reactionJSON is the form `describe --json` prints as "reaction".
+type reactionJSON struct {
+	Centres []reactionCentreJSON `json:"centers"`
+}
+
+// reactionCentreJSON is one centre in reactionJSON. Atoms are 1-based as
+// elsewhere in the command line's output.
+type reactionCentreJSON struct {
+	Map           int    `json:"map"`
+	Change        string `json:"change"`
+	ReactantAtom  int    `json:"reactant_atom"`
+	ProductAtom   int    `json:"product_atom"`
+	ReactantLabel string `json:"reactant_label,omitempty"`
+	ProductLabel  string `json:"product_label,omitempty"`
+	Note          string `json:"note,omitempty"`
+}
+
+// reactionToJSON returns a reaction's result in the form describe prints.
+func reactionToJSON(r *reaction.Result) reactionJSON {
+	out := reactionJSON{Centres: []reactionCentreJSON{}}
+	for _, c := range r.Centres {
+		out.Centres = append(out.Centres, reactionCentreJSON{Map: c.Map, Change: c.Change.String(), ReactantAtom: c.Reactant + 1,
+			ProductAtom: c.Product + 1, ReactantLabel: c.ReactantLabel.String(), ProductLabel: c.ProductLabel.String(), Note: c.Note})
+	}
+	return out
+}
+
 func spanJSON(s notation.Span) [2]int { return [2]int{s.Start, s.End} }
 
 func describeRecord(rec notation.Record) recordJSON {
@@ -165,8 +193,8 @@ func describeRecord(rec notation.Record) recordJSON {
 	an := stereo.Analyze(m)
 	diags := append(append(notation.ErrorList{}, m.Errors...), an.Diagnostics...)
 	if m.Reaction {
-		rr := stereo.AnalyzeReactionWith(m, an)
-		j := rr.JSON()
+		rr := reaction.AnalyzeWith(m, an)
+		j := reactionToJSON(rr)
 		d.Reaction = &j
 		diags = append(diags, rr.Diagnostics...)
 	}

@@ -46,7 +46,7 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	case "check":
 		return check(args[1:], stdin, stdout, stderr)
 	case "transform":
-		return transform(args[1:], stdin, stdout, stderr)
+		return transformCommand(args[1:], stdin, stdout, stderr)
 	case "compare":
 		return compare(args[1:], stdin, stdout, stderr)
 	case "serve":

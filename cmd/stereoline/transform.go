@@ -10,15 +10,16 @@ import (
 
 	"stereoline/notation"
 	"stereoline/stereo"
+	"stereoline/stereo/transform"
 )
 
-// transform implements 'stereoline transform': it rewrites the stereo
+// transformCommand implements 'stereoline transform': it rewrites the stereo
 // marks of every record and prints the records, one per line, with
 // everything but the rewritten marks kept byte for byte. Lines that hold
 // no record (blank, or starting with '#') are copied. A record the
 // transform does not apply to is printed unchanged and reported on
 // standard error.
-func transform(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+func transformCommand(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	fs := flag.NewFlagSet("transform", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	mirror := fs.Bool("mirror", false, "write the mirror image (the enantiomer)")
@@ -73,21 +74,21 @@ func transform(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 }
 
 // transformFunc is one transform applied to a molecule.
-type transformFunc func(m *notation.Molecule) (stereo.Transform, error)
+type transformFunc func(m *notation.Molecule) (transform.Transform, error)
 
 // transformOp turns the flags into a transform; atom numbers arrive
 // 1-based and go to the stereo package 0-based.
 func transformOp(mirror bool, invert int, flip, set string, clean bool) (transformFunc, error) {
 	switch {
 	case mirror:
-		return stereo.Mirror, nil
+		return transform.Mirror, nil
 	case clean:
-		return stereo.Clean, nil
+		return transform.Clean, nil
 	case invert != 0:
 		if invert < 1 {
 			return nil, fmt.Errorf("--invert wants an atom number from 1")
 		}
-		return func(m *notation.Molecule) (stereo.Transform, error) { return stereo.Invert(m, invert-1) }, nil
+		return func(m *notation.Molecule) (transform.Transform, error) { return transform.Invert(m, invert-1) }, nil
 	case flip != "":
 		i, j, ok := strings.Cut(flip, "-")
 		a, err1 := strconv.Atoi(i)
@@ -95,7 +96,7 @@ func transformOp(mirror bool, invert int, flip, set string, clean bool) (transfo
 		if !ok || err1 != nil || err2 != nil || a < 1 || b < 1 {
 			return nil, fmt.Errorf("--flip wants two atom numbers, as in 3-4, not %q", flip)
 		}
-		return func(m *notation.Molecule) (stereo.Transform, error) { return stereo.Flip(m, a-1, b-1) }, nil
+		return func(m *notation.Molecule) (transform.Transform, error) { return transform.Flip(m, a-1, b-1) }, nil
 	case set != "":
 		n, d, ok := strings.Cut(set, "=")
 		a, err := strconv.Atoi(n)
@@ -103,7 +104,7 @@ func transformOp(mirror bool, invert int, flip, set string, clean bool) (transfo
 		if !ok || err != nil || a < 1 || !okd {
 			return nil, fmt.Errorf("--set wants N=DESCRIPTOR with R, S, E, Z, M or P, as in 2=R, not %q", set)
 		}
-		return func(m *notation.Molecule) (stereo.Transform, error) { return stereo.SetDescriptor(m, a-1, desc) }, nil
+		return func(m *notation.Molecule) (transform.Transform, error) { return transform.SetDescriptor(m, a-1, desc) }, nil
 	}
 	return nil, fmt.Errorf("no transform given")
 }

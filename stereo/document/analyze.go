@@ -10,6 +10,8 @@ import (
 	"stereoline/notation"
 	"stereoline/notation/find"
 	"stereoline/stereo"
+	"stereoline/stereo/identity"
+	"stereoline/stereo/reaction"
 )
 
 // Source is the value of Diagnostic.Source for every finding.
@@ -60,8 +62,8 @@ type Record struct {
 	// it (those whose constitution pre-key another record shares) and
 	// nil otherwise; Identify gives it for any record. Reaction is nil
 	// unless the record is a reaction.
-	Identity *stereo.Identity
-	Reaction *stereo.ReactionResult
+	Identity *identity.Identity
+	Reaction *reaction.Result
 
 	an *analysis // the cached analysis the record was filled from
 }
@@ -69,7 +71,7 @@ type Record struct {
 // Identify returns the record's identity keys, computing them on first
 // use; nil for reactions and for records that do not read without error.
 // It is safe for concurrent use.
-func (rec *Record) Identify() *stereo.Identity {
+func (rec *Record) Identify() *identity.Identity {
 	if rec.Identity != nil || rec.an == nil {
 		return rec.Identity
 	}

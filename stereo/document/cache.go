@@ -5,6 +5,8 @@ import (
 
 	"stereoline/notation"
 	"stereoline/stereo"
+	"stereoline/stereo/identity"
+	"stereoline/stereo/reaction"
 )
 
 // cacheLimit bounds the entries of one cache generation. When a
@@ -17,16 +19,16 @@ const cacheLimit = 250_000
 type analysis struct {
 	mol      *notation.Molecule
 	stereo   *stereo.Analysis
-	reaction *stereo.ReactionResult // nil unless the record is a reaction
+	reaction *reaction.Result // nil unless the record is a reaction
 
 	// identifiable is true for a structure that has identity keys (not a
 	// reaction, read without error, not empty). The keys are the
 	// costliest part of an analysis and most records of a list never
-	// need them (prekey.go), so they are computed on first use.
+	// need them (identity.ConstitutionPreKey), so they are computed on first use.
 	identifiable bool
 	preKey       uint64
 	identityOnce sync.Once
-	identity     *stereo.Identity
+	identity     *identity.Identity
 }
 
 // analyse runs the engine on one notation text.
@@ -35,22 +37,22 @@ func analyse(text string) *analysis {
 	a := &analysis{mol: m, stereo: stereo.Analyze(m)}
 	switch {
 	case m.Reaction:
-		a.reaction = stereo.AnalyzeReactionWith(m, a.stereo)
+		a.reaction = reaction.AnalyzeWith(m, a.stereo)
 	case !m.Errors.HasErrors() && len(m.Atoms) > 0:
 		a.identifiable = true
-		a.preKey = constitutionPreKey(m)
+		a.preKey = identity.ConstitutionPreKey(m)
 	}
 	return a
 }
 
 // identify returns the identity keys, computing them once; nil when the
 // record has none.
-func (a *analysis) identify() *stereo.Identity {
+func (a *analysis) identify() *identity.Identity {
 	if !a.identifiable {
 		return nil
 	}
 	a.identityOnce.Do(func() {
-		id := stereo.Identify(a.mol)
+		id := identity.Identify(a.mol)
 		a.identity = &id
 	})
 	return a.identity

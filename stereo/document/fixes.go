@@ -3,6 +3,7 @@ package document
 import (
 	"stereoline/notation"
 	"stereoline/stereo"
+	"stereoline/stereo/transform"
 )
 
 // fixesFor returns the quick fixes of a stereo finding on record i: the
@@ -56,7 +57,7 @@ func (r *Result) fixesFor(i int, e *notation.Error) []Fix {
 // mark sits at span, leaving other one-sided bonds of the record alone.
 func partnerMark(rec *Record, span notation.Span) []notation.Edit {
 	m := rec.Mol
-	t, err := stereo.CompleteOneSided(m)
+	t, err := transform.CompleteOneSided(m)
 	if err != nil {
 		return nil
 	}

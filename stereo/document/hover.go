@@ -6,6 +6,7 @@ import (
 
 	"stereoline/notation"
 	"stereoline/stereo"
+	"stereoline/stereo/identity"
 )
 
 // Caution is the sentence every hover ends with: labels come from the
@@ -284,7 +285,7 @@ func writeRecord(b *strings.Builder, rec *Record) {
 	}
 	if id := rec.Identify(); id != nil {
 		fmt.Fprintf(b, "; %s", id.Chirality)
-		if n := stereo.Stereoisomers(m); n.Exact {
+		if n := identity.Stereoisomers(m); n.Exact {
 			fmt.Fprintf(b, "; %d stereoisomer(s) for this constitution", n.Count)
 		} else {
 			fmt.Fprintf(b, "; at most %d stereoisomers for this constitution", n.Count)

@@ -8,6 +8,7 @@ import (
 	"stereoline/notation"
 	"stereoline/notation/find"
 	"stereoline/stereo"
+	"stereoline/stereo/identity"
 )
 
 // Codes of the relations between the records of one list.
@@ -56,14 +57,14 @@ func (r *Result) Relate() *Result {
 // the records of a list, each against the first earlier record it
 // matches. The identity index keeps keys in maps, so a list of 100,000
 // records is related in one pass; only records whose constitution
-// pre-key another record shares get identity keys (prekey.go), since the
+// pre-key another record shares get identity keys (identity.ConstitutionPreKey), since the
 // others can match nothing.
 func (r *Result) relateRecords() {
 	if !relatedKinds[r.Kind] {
 		return
 	}
 	r.identifyColliding()
-	idx := stereo.NewIndex()
+	idx := identity.NewIndex()
 	var order []int // index position -> record
 	for i := range r.Records {
 		rec := &r.Records[i]
@@ -81,16 +82,16 @@ func (r *Result) relateRecords() {
 		d := Diagnostic{Span: rec.Occ.Span, Record: i,
 			Related: []Related{{Span: earlier.Occ.Span, Message: "the earlier record"}}}
 		switch m.Relation {
-		case stereo.Identical:
+		case identity.Identical:
 			d.Code, d.Severity = CodeListDuplicate, notation.SeverityWarning
 			d.Message = "the same structure as " + where
-		case stereo.Enantiomers:
+		case identity.Enantiomers:
 			d.Code, d.Severity = CodeListEnantiomer, notation.SeverityInformation
 			d.Message = "the mirror image of " + where
-		case stereo.Diastereomers, stereo.Unspecified:
+		case identity.Diastereomers, identity.Unspecified:
 			d.Code, d.Severity = CodeListStereoisomer, notation.SeverityInformation
 			d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differingUnits(rec.Mol, m.Differing))
-			if m.Relation == stereo.Unspecified {
+			if m.Relation == identity.Unspecified {
 				d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differingUnits(rec.Mol, m.Differing))
 			}
 		default:
@@ -146,7 +147,7 @@ func (r *Result) lineOf(off int) int {
 }
 
 // differingUnits names the units in which two stereoisomers differ.
-func differingUnits(m *notation.Molecule, diffs []stereo.UnitDifference) string {
+func differingUnits(m *notation.Molecule, diffs []identity.UnitDifference) string {
 	if len(diffs) == 0 {
 		return "the configurations differ"
 	}

@@ -5,6 +5,8 @@ import (
 
 	"stereoline/notation"
 	"stereoline/stereo"
+	"stereoline/stereo/identity"
+	"stereoline/stereo/transform"
 )
 
 // rewrites returns the stereo rewrites for span: the mirror image of
@@ -40,7 +42,7 @@ func (r *Result) mirror(recs []int) (Action, bool) {
 		if rec.Mol.Errors.HasErrors() {
 			continue
 		}
-		t, err := stereo.Mirror(rec.Mol)
+		t, err := transform.Mirror(rec.Mol)
 		if err != nil || len(t.Edits) == 0 {
 			continue
 		}
@@ -52,7 +54,7 @@ func (r *Result) mirror(recs []int) (Action, bool) {
 	title := "Mirror: write the enantiomer"
 	if len(recs) > 1 {
 		title = fmt.Sprintf("Mirror %d records: write their enantiomers", len(recs))
-	} else if id := r.Records[recs[0]].Identify(); id != nil && id.Chirality != stereo.Chiral {
+	} else if id := r.Records[recs[0]].Identify(); id != nil && id.Chirality != identity.Chiral {
 		title = fmt.Sprintf("Mirror (the structure is %s: the mirror image is the same compound)", id.Chirality)
 	}
 	return Action{Title: title, Kind: KindMirror, Edits: edits, Diagnostic: -1}, true
@@ -74,7 +76,7 @@ func (r *Result) unitRewrites(i int, span notation.Span) []Action {
 		return nil
 	}
 	var out []Action
-	add := func(kind, title string, t stereo.Transform, err error) {
+	add := func(kind, title string, t transform.Transform, err error) {
 		if err != nil || len(t.Edits) == 0 {
 			return
 		}
@@ -87,10 +89,10 @@ func (r *Result) unitRewrites(i int, span notation.Span) []Action {
 	}
 	if u.Specified {
 		if u.Kind == stereo.KindDoubleBond {
-			t, err := stereo.Flip(m, u.Atoms[0], u.Atoms[1])
+			t, err := transform.Flip(m, u.Atoms[0], u.Atoms[1])
 			add(KindFlip, fmt.Sprintf("Flip %s (%s to %s)", name, u.Descriptor, otherOf(u.Descriptor)), t, err)
 		} else if u.Kind == stereo.KindTetrahedral || u.Kind == stereo.KindAllene {
-			t, err := stereo.Invert(m, first)
+			t, err := transform.Invert(m, first)
 			add(KindInvert, fmt.Sprintf("Invert %s (%s to %s)", name, u.Descriptor, otherOf(u.Descriptor)), t, err)
 		}
 	}
@@ -98,7 +100,7 @@ func (r *Result) unitRewrites(i int, span notation.Span) []Action {
 		if u.Specified && u.Descriptor == d {
 			continue
 		}
-		t, err := stereo.SetDescriptor(m, first, d)
+		t, err := transform.SetDescriptor(m, first, d)
 		add(KindSet, fmt.Sprintf("Set %s to %s", name, d), t, err)
 	}
 	return out

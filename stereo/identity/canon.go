@@ -1,0 +1,676 @@
+// This file implements the canonical search behind the identity key.
+
+package identity
+
+import (
+	"encoding/binary"
+	"slices"
+
+	"stereoline/stereo"
+	"stereoline/stereo/internal/ringgeom"
+)
+
+// The canonical form behind the identity key. It is built in four steps.
+//
+//  1. Invariants. Every atom starts with a class from what it is on its
+//     own: reaction role, atomic number, isotope, charge, aromaticity,
+//     hydrogen count and number of neighbours. Plain [H] atoms are folded
+//     into their neighbour's hydrogen count first, so C and C[H] agree,
+//     and rings written in Kekulé form count as aromatic
+//     (aromatic.go), so C1=CC=CC=C1 and c1ccccc1 agree.
+//  2. Refinement. Classes are refined until stable (the partition
+//     refinement of Weininger's CANON, common practice): an atom's new
+//     class is its old class followed by the sorted list of
+//     (neighbour class, bond order) pairs. Old order is kept, so a
+//     refinement only splits classes.
+//  3. Stereo. Each marked unit is expressed on the ranks: a tetrahedral
+//     centre as the handedness of its ligands taken in rank order (+1
+//     when, seen from the lowest ranked ligand, the other three in
+//     ascending rank turn anticlockwise), a double bond as whether the
+//     highest ranked substituents of its two ends are trans, an allene
+//     as the handedness of its four substituents taken end by end, the
+//     higher ranked of each end first. A unit whose ligands tie has no
+//     parity yet. The parities join the atom invariants and the ranks are
+//     refined again; this repeats until nothing changes, so ligands that
+//     differ only by configuration (the two branches at a
+//     pseudoasymmetric centre) are told apart.
+//  4. Tie-breaking. While a class holds several atoms (symmetry), the
+//     lowest such class is split by moving one of its atoms ahead, and
+//     steps 2 and 3 run again. Atoms that tie after refinement are
+//     symmetry-equivalent in all but rare graphs, so which one moves
+//     does not change the result, except for ring units whose parity
+//     exists only relative to the broken tie (cis/trans-1,4-disubstituted
+//     rings, an exocyclic double bond with a ring centre opposite):
+//     then every atom of the class is tried, and the smallest
+//     serialisation wins.
+//
+// Marks that cannot tell compounds apart are dropped before step 1: a
+// double bond in a ring too small for trans (ringgeom.MinTransRing), a freely inverting
+// nitrogen (keygraph.go), a bridgehead fixed by its cage
+// (cage.go). Square-planar, trigonal-bipyramidal and
+// octahedral marks enter the key as the classes of their ligands on the
+// polyhedron (polyhedron.go).
+//
+// A unit that still has no parity after step 3 is not stereogenic and is
+// left out of the key (the mark on the central carbon of propan-2-ol
+// means nothing), unless it is such a ring unit and another one shares
+// its ring system (chooseUnits), or a spiro centre (spiro.go).
+// The key is the serialisation of the final order:
+// atoms with their invariants, bonds as pairs of positions, and the kept
+// units with their parities.
+
+// canonLeafBudget bounds the tie-breaking orders tried for ring units;
+// past it the first choice is taken, and a very symmetric structure with
+// ring stereo may get a key that depends on the writing.
+const canonLeafBudget = 1024
+
+// canonState is one canonicalisation of a key graph.
+type canonState struct {
+	g      *keyGraph
+	units  []keyUnit
+	stereo bool
+	keep   []bool // per unit: part of the key
+	ring   []bool // per unit: kept as a ring unit, parity only after tie-breaking
+	leaves int
+	atoms  []int // the atoms in the order, folded hydrogens left out
+	seen   []bool
+
+	// sym holds the symmetry classes after refinement, before ties are
+	// broken, for the polyhedral centres (polyhedron.go); mirrored
+	// reads those centres as in the mirror image.
+	sym      []int
+	mirrored bool
+
+	// ringRoot is, per ring unit, its ring system (systems joined by a
+	// ring link counting as one); related holds, per atom, the invariant
+	// of a cis/trans relation between two ring units
+	// (relative.go)
+	ringRoot []int
+	related  []int
+	// relation is, per unit of such a pair, the product of the two
+	// parities (cis-like or trans-like), 0 for other units: the pair is
+	// serialised by it, which no tie-breaking changes, so the search
+	// need not try both orders of each ring (a chain of k rings would
+	// otherwise take 2^k orders)
+	relation []int
+}
+
+// canonResult is the outcome: the order (position -> atom), the rank of
+// every atom (folded hydrogens -1), the serialisation and the parity of
+// every unit on the final ranks (0 when not kept).
+type canonResult struct {
+	order    []int
+	rank     []int
+	text     string
+	parities []int
+}
+
+func newCanonState(g *keyGraph, units []keyUnit, stereo bool) *canonState {
+	c := &canonState{g: g, units: units, stereo: stereo}
+	for a := 0; a < g.n; a++ {
+		if !g.folded[a] {
+			c.atoms = append(c.atoms, a)
+		}
+	}
+	return c
+}
+
+// run computes the canonical form.
+func (c *canonState) run() canonResult {
+	rank := c.initialRanks()
+	rank = c.refine(rank)
+	if c.stereo {
+		rank = c.stereoRefine(rank)
+		c.chooseUnits(rank)
+		if c.relateRingPairs(rank) {
+			rank = c.stereoRefine(rank)
+			c.chooseUnits(rank)
+		}
+		c.sym = slices.Clone(rank)
+	}
+	return c.search(rank)
+}
+
+// atomInvariant is the class of an atom on its own.
+func (c *canonState) atomInvariant(a int) [7]int {
+	at := &c.g.mol.Atoms[a]
+	arom := 0
+	if c.g.arom[a] {
+		arom = 1
+	}
+	return [7]int{int(at.Role), at.Number, at.Isotope, at.Charge, arom, c.g.hydro[a], len(c.g.adj[a])}
+}
+
+func (c *canonState) initialRanks() []int {
+	rank := make([]int, c.g.n)
+	for i := range rank {
+		rank[i] = -1
+	}
+	inv := make([][7]int, c.g.n)
+	for _, a := range c.atoms {
+		inv[a] = c.atomInvariant(a)
+	}
+	sorted := slices.Clone(c.atoms)
+	slices.SortStableFunc(sorted, func(x, y int) int { return compareInts(inv[x][:], inv[y][:]) })
+	r := 0
+	for i, a := range sorted {
+		if i > 0 && inv[a] != inv[sorted[i-1]] {
+			r = i
+		}
+		rank[a] = r
+	}
+	return rank
+}
+
+func compareInts(a, b []int) int {
+	for i := 0; i < len(a) && i < len(b); i++ {
+		if a[i] != b[i] {
+			if a[i] < b[i] {
+				return -1
+			}
+			return 1
+		}
+	}
+	return len(a) - len(b)
+}
+
+// classes counts the distinct ranks. Ranks are positions below the
+// number of atoms of the graph, so a flag per position suffices.
+func (c *canonState) classes(rank []int) int {
+	if cap(c.seen) < c.g.n {
+		c.seen = make([]bool, c.g.n)
+	}
+	seen := c.seen[:c.g.n]
+	clear(seen)
+	n := 0
+	for _, a := range c.atoms {
+		if r := rank[a]; r >= 0 && r < len(seen) && !seen[r] {
+			seen[r] = true
+			n++
+		}
+	}
+	return n
+}
+
+// refine splits classes by the classes of the neighbours until stable.
+// Ranks are positions: an atom's rank is the number of atoms in lower
+// classes, so the ranks of one class are equal and the order is total
+// once every class holds one atom.
+func (c *canonState) refine(rank []int) []int {
+	g := c.g
+	sig := make([][]int, g.n)
+	n := c.classes(rank)
+	for iter := 0; iter <= len(c.atoms); iter++ {
+		for _, a := range c.atoms {
+			s := append(sig[a][:0], rank[a])
+			for _, e := range g.adj[a] {
+				s = append(s, rank[e.to]*8+e.class)
+			}
+			slices.Sort(s[1:])
+			sig[a] = s
+		}
+		next := c.rankBy(func(x, y int) int { return compareInts(sig[x], sig[y]) })
+		m := c.classes(next)
+		rank = next
+		if m == n {
+			break
+		}
+		n = m
+	}
+	return rank
+}
+
+// rankBy ranks the atoms by a comparison: equal atoms share the position
+// of the first of them.
+func (c *canonState) rankBy(cmp func(x, y int) int) []int {
+	sorted := slices.Clone(c.atoms)
+	slices.SortStableFunc(sorted, cmp)
+	rank := make([]int, c.g.n)
+	for i := range rank {
+		rank[i] = -1
+	}
+	r := 0
+	for i, a := range sorted {
+		if i > 0 && cmp(a, sorted[i-1]) != 0 {
+			r = i
+		}
+		rank[a] = r
+	}
+	return rank
+}
+
+// stereoRefine adds the unit parities to the invariants and refines
+// again, until the parities stop changing the ranks.
+func (c *canonState) stereoRefine(rank []int) []int {
+	for iter := 0; iter <= len(c.units)+1; iter++ {
+		extra := make([]int, c.g.n)
+		any := false
+		for i := range c.units {
+			if c.keep != nil && !c.keep[i] {
+				continue
+			}
+			p := c.parity(&c.units[i], rank)
+			if p == ringgeom.NoHand {
+				continue
+			}
+			any = true
+			u := &c.units[i]
+			code := 2 + int(p) // 1 or 3, never 0
+			switch u.kind {
+			case keyTetrahedral:
+				extra[u.centre] += code
+			case keyAllene:
+				extra[u.centre] += 4 * code
+			case keyDoubleBond:
+				extra[u.ends[0]] += 16 * code
+				extra[u.ends[1]] += 16 * code
+			}
+		}
+		if c.related != nil {
+			any = true
+			for a, code := range c.related {
+				extra[a] += code
+			}
+		}
+		if !any {
+			return rank
+		}
+		before := c.classes(rank)
+		next := c.rankBy(func(x, y int) int {
+			if rank[x] != rank[y] {
+				return rank[x] - rank[y]
+			}
+			return extra[x] - extra[y]
+		})
+		next = c.refine(next)
+		if c.classes(next) == before {
+			return rank
+		}
+		rank = next
+	}
+	return rank
+}
+
+// ligandRank is the rank of a ligand; hydrogens and lone pairs rank
+// below every atom.
+func ligandRank(rank []int, x int) int {
+	if x == stereo.ImplicitNeighbour {
+		return -1
+	}
+	return rank[x]
+}
+
+// parity expresses a unit on the ranks: its hand read in rank order, or
+// NoHand when ligands tie.
+func (c *canonState) parity(u *keyUnit, rank []int) ringgeom.Hand {
+	switch u.kind {
+	case keyTetrahedral:
+		r := make([]int, len(u.ligands))
+		for i, x := range u.ligands {
+			r[i] = ligandRank(rank, x)
+		}
+		p, distinct := ringgeom.PermutationParity(r)
+		if !distinct {
+			return ringgeom.NoHand
+		}
+		return u.hand.Permuted(p)
+	case keyDoubleBond:
+		// the written hand relates the refs; each end whose highest
+		// ranked substituent is not its ref reverses it
+		hand := u.hand
+		for e := 0; e < 2; e++ {
+			top, ok := c.topSubstituent(u.ends[e], u.ends[1-e], rank)
+			if !ok {
+				return ringgeom.NoHand
+			}
+			if top != u.refs[e] {
+				hand = hand.Reversed()
+			}
+		}
+		return hand
+	case keyAllene:
+		// position of each ligand in (end 0 higher, end 0 lower, end 1
+		// higher, end 1 lower); which end comes first does not matter,
+		// since exchanging the two pairs is an even permutation
+		pos := make([]int, 4)
+		for e := 0; e < 2; e++ {
+			var idx []int
+			for i := range u.ligands {
+				if u.ligEnd[i] == e {
+					idx = append(idx, i)
+				}
+			}
+			if len(idx) != 2 {
+				return ringgeom.NoHand
+			}
+			r0, r1 := ligandRank(rank, u.ligands[idx[0]]), ligandRank(rank, u.ligands[idx[1]])
+			if r0 == r1 {
+				return ringgeom.NoHand
+			}
+			hi, lo := idx[0], idx[1]
+			if r1 > r0 {
+				hi, lo = lo, hi
+			}
+			pos[hi], pos[lo] = 2*e, 2*e+1
+		}
+		p, _ := ringgeom.PermutationParity(pos)
+		return u.hand.Permuted(p)
+	}
+	return ringgeom.NoHand
+}
+
+// topSubstituent returns the highest ranked substituent of double-bond
+// end t (stereo.ImplicitNeighbour for a lone hydrogen), or false when two tie.
+func (c *canonState) topSubstituent(t, partner int, rank []int) (int, bool) {
+	subs := c.g.substituents(t, partner)
+	for h := 0; h < c.g.hydro[t]; h++ {
+		subs = append(subs, stereo.ImplicitNeighbour)
+	}
+	if len(subs) == 0 {
+		return 0, false
+	}
+	best, tie := subs[0], false
+	for _, x := range subs[1:] {
+		rx, rb := ligandRank(rank, x), ligandRank(rank, best)
+		switch {
+		case rx > rb:
+			best, tie = x, false
+		case rx == rb:
+			tie = true
+		}
+	}
+	return best, !tie
+}
+
+// chooseUnits decides which units belong in the key, on the ranks after
+// stereo refinement and before any tie is broken. A ring unit is kept
+// when its ring system holds another one, ring systems joined by a
+// double bond between them (ringLink) counting as one.
+func (c *canonState) chooseUnits(rank []int) {
+	c.keep = make([]bool, len(c.units))
+	c.ring = make([]bool, len(c.units))
+	var system [][2]int // per unit: its ring systems, when a ring unit
+	var spiros []int    // spiro centres between two symmetric rings
+	for i := range c.units {
+		u := &c.units[i]
+		if c.parity(u, rank) != ringgeom.NoHand {
+			c.keep[i] = true
+			continue
+		}
+		if u.kind == keyTetrahedral {
+			// parity after tie-breaking; alone, no partner needed, else
+			// one in each ring (spiro.go)
+			if alone, ok := c.g.spiroShape(u.centre, u.ligands, rank); ok {
+				if alone {
+					c.keep[i] = true
+				} else {
+					spiros = append(spiros, i)
+				}
+				continue
+			}
+		}
+		s, ok := c.ringCandidate(u, rank)
+		pair := [2]int{s, -1}
+		if !ok {
+			pair[0], pair[1], ok = c.ringLink(u, rank)
+		}
+		if ok {
+			if system == nil {
+				system = make([][2]int, len(c.units))
+			}
+			c.ring[i], system[i] = true, pair
+		}
+	}
+	c.ringRoot = nil
+	if system == nil {
+		return
+	}
+	parent := map[int]int{}
+	var root func(int) int
+	root = func(s int) int {
+		p, ok := parent[s]
+		if !ok || p == s {
+			return s
+		}
+		r := root(p)
+		parent[s] = r
+		return r
+	}
+	for i := range c.units {
+		if c.ring[i] && system[i][1] >= 0 {
+			parent[root(system[i][0])] = root(system[i][1])
+		}
+	}
+	perSystem := map[int]int{}
+	for i := range c.units {
+		if c.ring[i] && system[i][1] < 0 {
+			perSystem[root(system[i][0])]++
+		}
+	}
+	for i := range c.units {
+		if c.ring[i] {
+			if perSystem[root(system[i][0])] >= 2 {
+				c.keep[i] = true
+			} else {
+				c.ring[i] = false
+			}
+		}
+	}
+	c.keepSpiros(spiros)
+	c.ringRoot = make([]int, len(c.units))
+	for i := range c.units {
+		switch {
+		case !c.ring[i]:
+			c.ringRoot[i] = -1
+		case slices.Contains(spiros, i):
+			c.ringRoot[i] = root(c.g.system[c.units[i].centre])
+		default:
+			c.ringRoot[i] = root(system[i][0])
+		}
+	}
+}
+
+// ringCandidate reports whether a unit ties only because two of its
+// ligands are the two ring branches of a symmetric ring, and returns the
+// ring system. Such a unit is stereogenic together with another one on
+// the same ring system: a tetrahedral centre (1,4-disubstituted
+// cyclohexanes), an exocyclic double bond or allene
+// (exocyclic.go).
+func (c *canonState) ringCandidate(u *keyUnit, rank []int) (int, bool) {
+	switch u.kind {
+	case keyDoubleBond:
+		return c.exocyclicCandidate(u, rank)
+	case keyAllene:
+		return c.exocyclicAllene(u, rank)
+	}
+	if u.kind != keyTetrahedral {
+		return 0, false
+	}
+	c.g.findRingSystems()
+	if c.g.system[u.centre] < 0 {
+		return 0, false
+	}
+	m := c.g.mol
+	var tied []int
+	for i, x := range u.ligands {
+		for j := i + 1; j < len(u.ligands); j++ {
+			y := u.ligands[j]
+			if ligandRank(rank, x) == ligandRank(rank, y) {
+				tied = append(tied, x, y)
+			}
+		}
+	}
+	if len(tied) != 2 || tied[0] == stereo.ImplicitNeighbour {
+		return 0, false
+	}
+	for _, x := range tied {
+		bi := m.BondBetween(u.centre, x)
+		if bi < 0 || !c.g.ring[bi] {
+			return 0, false
+		}
+	}
+	return c.g.system[u.centre], true
+}
+
+// pending reports whether some kept unit has no parity on these ranks.
+func (c *canonState) pending(rank []int) bool {
+	for i := range c.units {
+		if c.relation != nil && c.relation[i] != 0 {
+			continue // serialised by its relation, known already
+		}
+		if c.keep != nil && c.keep[i] && c.parity(&c.units[i], rank) == ringgeom.NoHand {
+			return true
+		}
+	}
+	return false
+}
+
+// search breaks ties until the order is total and returns the smallest
+// serialisation over the choices it tries.
+func (c *canonState) search(rank []int) canonResult {
+	if c.classes(rank) == len(c.atoms) {
+		c.leaves++
+		return c.leaf(rank)
+	}
+	low, members := c.lowestTie(rank)
+	if !c.stereo || c.leaves >= canonLeafBudget || !c.pending(rank) {
+		members = members[:1]
+	}
+	var best canonResult
+	for i, a := range members {
+		r := c.search(c.moveAhead(rank, low, a))
+		if i == 0 || r.text < best.text {
+			best = r
+		}
+	}
+	return best
+}
+
+// lowestTie returns the lowest rank held by more than one atom and its
+// atoms.
+func (c *canonState) lowestTie(rank []int) (int, []int) {
+	count := map[int]int{}
+	for _, a := range c.atoms {
+		count[rank[a]]++
+	}
+	low := -1
+	var members []int
+	for _, a := range c.atoms {
+		r := rank[a]
+		if count[r] > 1 && (low < 0 || r < low) {
+			low = r
+		}
+	}
+	for _, a := range c.atoms {
+		if rank[a] == low {
+			members = append(members, a)
+		}
+	}
+	return low, members
+}
+
+// moveAhead breaks the tie of class low by moving atom a ahead of the
+// rest of its class, and refines.
+func (c *canonState) moveAhead(rank []int, low, a int) []int {
+	next := make([]int, len(rank))
+	for _, x := range c.atoms {
+		next[x] = 2 * rank[x]
+		if rank[x] == low && x != a {
+			next[x]++
+		}
+	}
+	for x := range next {
+		if c.g.folded[x] {
+			next[x] = -1
+		}
+	}
+	next = c.rankBy(func(x, y int) int { return next[x] - next[y] })
+	next = c.refine(next)
+	if c.stereo {
+		next = c.stereoRefine(next)
+	}
+	return next
+}
+
+// leaf serialises a total order.
+func (c *canonState) leaf(rank []int) canonResult {
+	g := c.g
+	order := make([]int, len(c.atoms))
+	for _, a := range c.atoms {
+		order[rank[a]] = a
+	}
+	var buf []byte
+	put := func(v int) { buf = binary.AppendVarint(buf, int64(v)) }
+	put(len(order))
+	for _, a := range order {
+		inv := c.atomInvariant(a)
+		for _, v := range inv {
+			put(v)
+		}
+	}
+	var bonds [][3]int
+	for _, a := range order {
+		for _, e := range g.adj[a] {
+			if rank[a] < rank[e.to] {
+				bonds = append(bonds, [3]int{rank[a], rank[e.to], e.class})
+			}
+		}
+	}
+	slices.SortFunc(bonds, func(x, y [3]int) int { return compareInts(x[:], y[:]) })
+	put(len(bonds))
+	for _, b := range bonds {
+		put(b[0])
+		put(b[1])
+		put(b[2])
+	}
+	res := canonResult{order: order, rank: rank, parities: make([]int, len(c.units))}
+	if c.stereo {
+		var us [][4]int
+		for i := range c.units {
+			if !c.keep[i] {
+				continue
+			}
+			u := &c.units[i]
+			p := int(c.parity(u, rank))
+			res.parities[i] = p
+			if c.relation != nil && c.relation[i] != 0 {
+				// a unit of a related ring pair: its own parity hangs
+				// on a broken tie, its relation does not
+				p = 2 * c.relation[i]
+			}
+			us = append(us, unitCode(u, rank, p))
+		}
+		slices.SortFunc(us, func(x, y [4]int) int { return compareInts(x[:], y[:]) })
+		put(len(us))
+		for _, u := range us {
+			for _, v := range u {
+				put(v)
+			}
+		}
+		if poly := polyhedronCodes(g.mol, rank, c.sym, g.folded, c.mirrored); len(poly) > 0 {
+			put(len(poly))
+			for _, code := range poly {
+				put(len(code))
+				for _, v := range code {
+					put(v)
+				}
+			}
+		}
+	}
+	res.text = string(buf)
+	return res
+}
+
+// unitCode is a unit in canonical terms: kind, the positions of its
+// atoms (lower first) and its parity.
+func unitCode(u *keyUnit, rank []int, p int) [4]int {
+	switch u.kind {
+	case keyDoubleBond:
+		a, b := rank[u.ends[0]], rank[u.ends[1]]
+		if a > b {
+			a, b = b, a
+		}
+		return [4]int{int(u.kind), a, b, p}
+	}
+	return [4]int{int(u.kind), rank[u.centre], -1, p}
+}

@@ -1,0 +1,192 @@
+// This file implements Identify: the identity keys and chirality class of
+// a structure.
+
+package identity
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+
+	"stereoline/notation"
+	"stereoline/stereo"
+	"stereoline/stereo/internal/ringgeom"
+)
+
+// Chirality says whether a structure, as its marks describe it, differs
+// from its mirror image.
+type Chirality uint8
+
+// Chirality classes. A meso structure is achiral although it has
+// specified stereocentres (centres with four constitutionally different
+// ligands), which then cancel each other.
+const (
+	Achiral Chirality = iota
+	Chiral
+	Meso
+)
+
+func (c Chirality) String() string {
+	switch c {
+	case Chiral:
+		return "chiral"
+	case Meso:
+		return "meso"
+	}
+	return "achiral"
+}
+
+// Identity is what Identify learns about one structure.
+type Identity struct {
+	// Key is the same for every writing of one structure and differs
+	// between structures, stereoisomers included; a meso form and its
+	// mirror image share it. MirrorKey is the Key of the mirror image.
+	// ConstitutionKey ignores every stereo mark.
+	Key, MirrorKey, ConstitutionKey string
+	Chirality                       Chirality
+
+	// units are the units in the key, each with its parity expressed on
+	// the constitution-only canonical order, for naming the units in
+	// which two stereoisomers differ.
+	units []identityUnit
+}
+
+// identityUnit is one kept unit in constitution-canonical terms.
+type identityUnit struct {
+	code   [4]int        // kind, positions, parity on the constitution order
+	atoms  []int         // molecule atoms: the centre, or the two ends
+	hand   ringgeom.Hand // parity on the constitution order
+	kind   unitKind
+	chiral bool // a tetrahedral or allene unit (changes in a mirror)
+}
+
+// digest turns a serialisation into a short printable key.
+func digest(s string) string {
+	sum := sha256.Sum256([]byte(s))
+	return hex.EncodeToString(sum[:16])
+}
+
+// Identify computes the keys and the chirality class of m.
+func Identify(m *notation.Molecule) Identity {
+	if m == nil || len(m.Atoms) == 0 {
+		return Identity{} // no structure: no key, related to nothing
+	}
+	g := newKeyGraph(m)
+	return identifyGraph(g, g.units)
+}
+
+// identifyGraph computes an Identity from a key graph and a set of unit
+// configurations (the marks, their mirror image, or an enumerated
+// assignment).
+func identifyGraph(g *keyGraph, units []keyUnit) Identity {
+	con := newCanonState(g, units, false).run()
+	poly, polyChiral := hasPolyhedra(g.mol)
+	if len(units) == 0 && !poly {
+		// no marks: the stereo serialisation is the constitution's with
+		// an empty unit list (a zero varint), and the mirror is the same
+		k := digest(con.text + "\x00")
+		return Identity{Key: k, MirrorKey: k, ConstitutionKey: digest(con.text)}
+	}
+	st := newCanonState(g, units, true)
+	res := st.run()
+	id := Identity{Key: digest(res.text), MirrorKey: digest(res.text), ConstitutionKey: digest(con.text)}
+	needMirror := polyChiral
+	for i := range units {
+		if st.keep[i] && units[i].kind != keyDoubleBond {
+			// only tetrahedral and allene units change in a mirror
+			needMirror = true
+		}
+	}
+	if needMirror {
+		ms := newCanonState(g, mirrorUnits(units), true)
+		ms.mirrored = true
+		id.MirrorKey = digest(ms.run().text)
+	}
+	centres := 0
+	// a specified chirality centre: a tetrahedral unit whose ligands
+	// already differ by constitution
+	conRank := newCanonState(g, units, false)
+	base := conRank.refine(conRank.initialRanks())
+	for i := range units {
+		u := &units[i]
+		if !st.keep[i] {
+			continue
+		}
+		if u.kind == keyTetrahedral && st.parity(u, base) != ringgeom.NoHand {
+			centres++
+		}
+		p := st.parity(u, con.rank)
+		id.units = append(id.units, identityUnit{code: unitCode(u, con.rank, int(p)), atoms: unitAtoms(u), hand: p, kind: u.kind,
+			chiral: u.kind != keyDoubleBond})
+	}
+	switch {
+	case id.Key != id.MirrorKey:
+		id.Chirality = Chiral
+	case centres > 0:
+		id.Chirality = Meso
+	}
+	return id
+}
+
+func unitAtoms(u *keyUnit) []int {
+	if u.kind == keyDoubleBond {
+		return []int{u.ends[0], u.ends[1]}
+	}
+	return []int{u.centre}
+}
+
+// mirrorUnits returns the configurations of the mirror image: every
+// tetrahedral and allene handedness reversed, double bonds kept.
+func mirrorUnits(units []keyUnit) []keyUnit {
+	out := make([]keyUnit, len(units))
+	copy(out, units)
+	for i := range out {
+		if out[i].kind != keyDoubleBond {
+			out[i].hand = out[i].hand.Reversed()
+		}
+	}
+	return out
+}
+
+// ConstitutionKey returns the key of m without stereo; it is cheaper than
+// Identify when only the constitution matters.
+func ConstitutionKey(m *notation.Molecule) string {
+	if m == nil {
+		return ""
+	}
+	g := newKeyGraph(m)
+	return digest(newCanonState(g, nil, false).run().text)
+}
+
+// UnitID names a marked unit of a molecule: its kind and its centre
+// (tetrahedral, allene) or, for a double bond, its bond. Atom and bond
+// indices survive every transform, since transforms keep the atom order.
+type UnitID struct {
+	Kind stereo.Kind
+	At   int
+}
+
+// Configurations reads every unit the marks of m configure and gives its
+// configuration on the atom order itself (atom indices standing for
+// ranks): +1 or -1, the unit's parity. Two texts with the same atoms in
+// the same order configure a unit alike exactly when they give it the
+// same value; units whose ligands tie on that order are left out.
+func Configurations(m *notation.Molecule) map[UnitID]int {
+	g := newKeyGraph(m)
+	rank := make([]int, g.n)
+	for i := range rank {
+		rank[i] = i
+	}
+	c := newCanonState(g, g.units, true)
+	out := map[UnitID]int{}
+	for i := range g.units {
+		u := &g.units[i]
+		id := UnitID{Kind: u.kind.public(), At: u.centre}
+		if u.kind == keyDoubleBond {
+			id.At = u.bond
+		}
+		if p := c.parity(u, rank); p != ringgeom.NoHand {
+			out[id] = int(p)
+		}
+	}
+	return out
+}

@@ -1,0 +1,160 @@
+// This file implements the constitution pre-key.
+
+package identity
+
+import (
+	"sync"
+
+	"stereoline/notation"
+	"stereoline/stereo/internal/ringgeom"
+)
+
+// A cheap key of a record's constitution, computed before the identity
+// keys. Two records can be duplicates, mirror images or stereoisomers of
+// each other only if they have the same constitution, so a record whose
+// pre-key no other record of the list shares needs no identity key: the
+// expensive canonical ordering runs only for the records whose pre-keys
+// collide. The pre-key must therefore never tell apart two writings that
+// the identity key takes for one constitution; it may take different
+// constitutions for one (a collision costs only an identity key).
+//
+// It is built from what the identity key's atom invariants already
+// distinguish (canon.go: atomic number, isotope, charge, hydrogen
+// count, neighbours), and deliberately from nothing the key normalises:
+//   - bond orders are left out, since a Kekulé ring and its aromatic
+//     writing are one constitution to the key;
+//   - hydrogen atoms are not vertices: each is counted on the heavy atom
+//     it is bonded to, so C[H] and [CH4]-style writings agree whether or
+//     not the key folds that [H] (its isotope and charge, which a folded
+//     [H] lacks, count too);
+//   - atom classes (":1") are left out, as the key ignores them.
+//
+// On the heavy-atom graph so labelled, colour refinement (repeatedly
+// hashing an atom's label with the multiset of its neighbours' labels;
+// common practice, the Weisfeiler-Lehman test) separates almost all
+// constitutions that differ, while isomorphic graphs always get the same
+// hash, whatever order the atoms were written in. The labeller's
+// symmetry classes (stereo/perceive.go) refine by bond order and valence
+// as well and stop once the classes stop splitting; neither would do
+// here.
+
+// preKeyRounds bounds the refinement rounds, so a very large molecule
+// costs time linear in its size; a chain longer than this may collide
+// with a rearranged one, which is allowed.
+const preKeyRounds = 32
+
+// preKeyScratch is the working memory of one pre-key, reused between
+// records: a list of 100,000 records would otherwise allocate it 100,000
+// times.
+type preKeyScratch struct {
+	heavy  []int    // atom -> heavy vertex, -1 for hydrogen atoms
+	start  []int    // vertex -> first of its neighbours in nbrs (one more entry than vertices)
+	nbrs   []int    // neighbours of every vertex, one after another
+	label  []uint64 // current colour of each vertex
+	next   []uint64
+	spread []uint64 // Scramble(label) of each vertex, for the sums of neighbours
+}
+
+var preKeyScratches = sync.Pool{New: func() any { return new(preKeyScratch) }}
+
+// grow returns xs with length n, reusing its memory when it can.
+func grow[T any](xs []T, n int) []T {
+	if cap(xs) < n {
+		return make([]T, n)
+	}
+	return xs[:n]
+}
+
+// ConstitutionPreKey returns the pre-key of a molecule that read without
+// error.
+func ConstitutionPreKey(m *notation.Molecule) uint64 {
+	sc := preKeyScratches.Get().(*preKeyScratch)
+	defer preKeyScratches.Put(sc)
+	n := len(m.Atoms)
+	sc.heavy = grow(sc.heavy, n)
+	hydrogens, hAtoms, vertices := 0, 0, 0
+	for a := range m.Atoms {
+		at := &m.Atoms[a]
+		hydrogens += at.HydrogenCount()
+		if at.Number == 1 {
+			hAtoms++
+			sc.heavy[a] = -1
+			continue
+		}
+		sc.heavy[a] = vertices
+		vertices++
+	}
+	sc.label = grow(sc.label, vertices)
+	sc.start = grow(sc.start, vertices+1)
+	sc.nbrs = sc.nbrs[:0]
+	for a := range m.Atoms {
+		v := sc.heavy[a]
+		if v < 0 {
+			continue
+		}
+		sc.start[v] = len(sc.nbrs)
+		at := &m.Atoms[a]
+		h := at.HydrogenCount()
+		var hKinds uint64 // isotopes and charges of hydrogen atoms; a folded [H] has neither, and Scramble(0) is 0
+		for _, bi := range at.Bonds {
+			if bi < 0 || bi >= len(m.Bonds) {
+				continue
+			}
+			o := m.Bonds[bi].Other(a)
+			switch {
+			case o < 0 || o >= n || o == a:
+			case sc.heavy[o] < 0:
+				h++ // a hydrogen atom counts on its heavy neighbour
+				hKinds += ringgeom.Scramble(uint64(int64(m.Atoms[o].Isotope))<<8 ^ uint64(int64(m.Atoms[o].Charge)))
+			default:
+				sc.nbrs = append(sc.nbrs, sc.heavy[o])
+			}
+		}
+		degree := len(sc.nbrs) - sc.start[v]
+		sc.label[v] = mix(mix(mix(mix(uint64(at.Number), uint64(int64(at.Isotope))), uint64(int64(at.Charge))), uint64(h)), uint64(degree)) + hKinds
+	}
+	sc.start[vertices] = len(sc.nbrs)
+	label := sc.refineColours(vertices)
+	// Hydrogens counted on atoms and written as atoms together: the key
+	// folds some [H] atoms into counts, so neither number alone is fixed.
+	key := mix(mix(uint64(vertices), uint64(len(sc.nbrs))), uint64(hydrogens+hAtoms))
+	var sum uint64
+	for _, l := range label {
+		sum += ringgeom.Scramble(l) // a sum of scrambled labels is a hash of the multiset
+	}
+	return mix(key, sum)
+}
+
+// refineColours runs colour refinement for as many rounds as there are
+// atoms, up to preKeyRounds. It does not stop when the colours stop
+// splitting: two molecules can each reach distinct colours for every atom
+// after one round and still differ further away (a chain segment written
+// the other way round), and only the deeper rounds see that. After as
+// many rounds as the longest path, one atom's label stands for the whole
+// graph around it, so trees (most molecules' skeletons) never collide
+// but by hashing.
+func (sc *preKeyScratch) refineColours(vertices int) []uint64 {
+	label := sc.label
+	next := grow(sc.next, vertices)
+	spreads := grow(sc.spread, vertices)
+	for round := 0; round < min(vertices, preKeyRounds); round++ {
+		for v, l := range label {
+			spreads[v] = ringgeom.Scramble(l)
+		}
+		for v := range label {
+			var around uint64
+			for _, w := range sc.nbrs[sc.start[v]:sc.start[v+1]] {
+				around += spreads[w]
+			}
+			next[v] = mix(label[v], around)
+		}
+		label, next = next, label
+	}
+	sc.label, sc.next, sc.spread = label, next, spreads
+	return label
+}
+
+// mix combines a hash with one more value, order-sensitively.
+func mix(h, x uint64) uint64 {
+	return ringgeom.Scramble(h*0x9e3779b97f4a7c15 + x + 1)
+}

@@ -21,6 +21,10 @@ type Molecule struct {
 
 	// Components counts the dot-separated parts (over all roles).
 	Components int
+
+	// Extension is the CXSMILES extension block written after the
+	// notation ("C[C@H](O)CC |&1:1|"), nil when there is none.
+	Extension *Extension
 }
 
 // Role is the part of a reaction an atom was written in.

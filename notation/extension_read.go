@@ -1,0 +1,786 @@
+package notation
+
+import (
+	"strconv"
+	"strings"
+)
+
+// This file implements reading of the CXSMILES extension block: finding
+// where it ends (RecordEnd, used by the finder to split a line into
+// record and title) and reading its fields with their spans.
+//
+// The block is "|" field "," field ... "|". Some fields hold commas of
+// their own (o1:1,3 lists atoms; Sg:n:1,2:n:ht lists atoms of a repeat
+// unit), so a comma ends a field only when a new field starts after it: a
+// tag followed by ':' ("o2:", "Sg:", "atomProp:"), '$' (atom labels), '('
+// (coordinates), the flag "r", or another comma. Atom labels are skipped
+// whole when the end of the block is searched, since RDKit 2022.09.3
+// reads a label holding '|' (CC |$a|b;$| is read with the label "a|b").
+//
+// Leniency follows RDKit 2022.09.3 where it reads a block without
+// complaint and the meaning is clear: empty fields (it writes
+// "o1:1,3,,SgD:..." itself), a group tag without a number ("o:1"), fewer
+// labels or coordinates than atoms. Fields no library documents are
+// kept, never an error.
+
+// RecordEnd finds the end of the record at the start of line. The
+// notation runs to the first blank (space, tab, carriage return or line
+// feed; OpenSMILES 4.5: the string is terminated by whitespace). A
+// CXSMILES extension block written after blanks belongs to the record:
+// end is then just past its closing '|', or the end of the line (without
+// trailing blanks) when the block is never closed, so that the reader
+// reports extension-unclosed instead of taking the block for a title. With
+// no block, end equals notationEnd. The title, if any, follows end after
+// blanks: "C[C@H](O)CC |&1:1| racemate" gives the record
+// "C[C@H](O)CC |&1:1|" and the title "racemate", as RDKit 2022.09.3 reads
+// it (a title may follow the block without a blank, too).
+func RecordEnd[T ~string | ~[]byte](line T) (notationEnd, end int) {
+	n := 0
+	for n < len(line) && !isRecordBlank(line[n]) {
+		n++
+	}
+	if n == 0 {
+		return 0, 0
+	}
+	open := n
+	for open < len(line) && (line[open] == ' ' || line[open] == '\t') {
+		open++
+	}
+	if open >= len(line) || line[open] != '|' {
+		return n, n
+	}
+	if close := blockEnd(line, open); close > 0 {
+		return n, close
+	}
+	e := open + 1
+	for e < len(line) && line[e] != '\n' && line[e] != '\r' {
+		e++
+	}
+	for e > open+1 && (line[e-1] == ' ' || line[e-1] == '\t') {
+		e--
+	}
+	return n, e
+}
+
+func isRecordBlank(c byte) bool { return c == ' ' || c == '\t' || c == '\r' || c == '\n' }
+
+// blockEnd returns the offset just past the '|' that closes the block
+// opened at text[open], or -1 when the line ends first. A '$' that starts
+// a field opens an atom label list, skipped to its closing '$'; when there
+// is no closing '$' on the line, the '$' is an ordinary byte (the field is
+// then malformed, and the first '|' closes the block). Each byte is looked
+// at a bounded number of times: a failed search for '$' means there is no
+// '$' further on, so none is searched for again.
+func blockEnd[T ~string | ~[]byte](text T, open int) int {
+	fieldStart := true
+	noDollar := false
+	for i := open + 1; i < len(text); i++ {
+		switch c := text[i]; {
+		case c == '\n' || c == '\r':
+			return -1
+		case c == '|':
+			return i + 1
+		case c == '$' && fieldStart && !noDollar:
+			j := i + 1
+			for j < len(text) && text[j] != '$' && text[j] != '\n' && text[j] != '\r' {
+				j++
+			}
+			if j < len(text) && text[j] == '$' {
+				i = j
+			} else {
+				noDollar = true
+			}
+			fieldStart = false
+		case c == ',':
+			fieldStart = true
+		default:
+			fieldStart = false
+		}
+	}
+	return -1
+}
+
+// blockReader reads the fields of one extension block.
+type blockReader struct {
+	r    *reader // for bounded error reporting
+	text string
+	end  int // end of the fields: the closing '|', or the end of the text
+	// quiet is set for a block that is never closed: its fields are read
+	// as well as they can be, but only the missing '|' is reported.
+	quiet bool
+
+	atoms, bonds, components int
+	ext                      *Extension
+
+	// owner and ownerSpan hold, per atom, the group that listed it first
+	// and where; allocated at the first group.
+	owner     []int32
+	ownerSpan []Span
+}
+
+// readExtension reads the block of text that starts with the whitespace
+// at sep and the '|' at open, after the notation has been read into m.
+func (r *reader) readExtension(text string, sep, open int) {
+	m := r.mol
+	ext := &Extension{Separator: Span{sep, open}}
+	close := blockEnd(text, open)
+	end := close - 1
+	if close < 0 {
+		close, end = len(text), len(text)
+		r.errorf(Span{open, len(text)}, CodeExtensionUnclosed, "expected '|' to close the extension block, found end of text")
+	} else {
+		ext.Closed = true
+	}
+	ext.Span = Span{open, close}
+	m.Extension = ext
+	b := &blockReader{r: r, text: text, end: end, quiet: !ext.Closed,
+		atoms: len(m.Atoms), bonds: len(m.Bonds), components: m.Components, ext: ext}
+	b.fields(open + 1)
+	b.reportKept()
+	if close < len(text) {
+		r.errorf(Span{close, len(text)}, CodeSyntax, "expected the end of the record after the extension block, found %s", describeAt(text, close))
+	}
+}
+
+// errorf reports a problem in the block; in a block that is never closed
+// only the missing '|' is reported, and a detached Error is returned.
+func (b *blockReader) errorf(span Span, code Code, format string, args ...any) *Error {
+	if b.quiet {
+		return &Error{}
+	}
+	return b.r.errorf(span, code, format, args...)
+}
+
+// fields reads the fields from p to the end of the block.
+func (b *blockReader) fields(p int) {
+	for p < b.end {
+		if b.text[p] == ',' {
+			p++ // an empty field
+			continue
+		}
+		p = b.field(p)
+		if p < b.end && b.text[p] == ',' {
+			p++
+		}
+	}
+}
+
+// field reads one field starting at p and returns where it ends (at the
+// comma before the next field, or the end of the block).
+func (b *blockReader) field(p int) int {
+	f := Field{Group: -1, Tag: Span{p, p}}
+	var end int
+	switch c := b.text[p]; {
+	case c == '(':
+		f.Kind, f.Tag = FieldCoordinates, Span{p, p + 1}
+		end = b.coordinates(&f, p+1)
+	case c == '$':
+		end = b.labels(&f, p)
+	default:
+		tagEnd := b.tagEnd(p)
+		tag := b.text[p:tagEnd]
+		f.Tag = Span{p, tagEnd}
+		if tag == "r" && (tagEnd >= b.end || b.text[tagEnd] == ',') {
+			f.Kind = FieldRelative
+			end = tagEnd
+			break
+		}
+		if tagEnd == p || tagEnd >= b.end || b.text[tagEnd] != ':' {
+			f.Kind = FieldUnknown
+			end = b.fieldEnd(p)
+			break
+		}
+		end = b.tagged(&f, tag, tagEnd+1)
+	}
+	f.Span = Span{p, end}
+	b.ext.Fields = append(b.ext.Fields, f)
+	if f.Group >= 0 {
+		b.ext.Groups[f.Group].Field = len(b.ext.Fields) - 1
+	}
+	return end
+}
+
+// tagEnd returns the end of the tag at p: a letter, '_', '^', '&' or '@',
+// then letters, digits, '_' and '@'.
+func (b *blockReader) tagEnd(p int) int {
+	if p >= b.end {
+		return p
+	}
+	c := b.text[p]
+	if !(isLetter(c) || c == '_' || c == '^' || c == '&' || c == '@') {
+		return p
+	}
+	q := p + 1
+	for q < b.end && (isLetter(b.text[q]) || isDigit(b.text[q]) || b.text[q] == '_' || b.text[q] == '@') {
+		q++
+	}
+	return q
+}
+
+func isLetter(c byte) bool { return c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z' }
+
+// startsField reports whether a field starts at p (just after a comma).
+func (b *blockReader) startsField(p int) bool {
+	if p >= b.end {
+		return true
+	}
+	switch b.text[p] {
+	case ',', '$', '(':
+		return true
+	case 'r':
+		if p+1 >= b.end || b.text[p+1] == ',' {
+			return true
+		}
+	}
+	q := b.tagEnd(p)
+	return q > p && q < b.end && b.text[q] == ':'
+}
+
+// fieldEnd returns the end of a field that runs from p: the first comma
+// after which a field starts, or the end of the block.
+func (b *blockReader) fieldEnd(p int) int {
+	for q := p; q < b.end; q++ {
+		if b.text[q] == ',' && b.startsField(q+1) {
+			return q
+		}
+	}
+	return b.end
+}
+
+// malformed reports a field that does not follow its syntax from
+// position at to the field's end, and returns that end.
+func (b *blockReader) malformed(at int, format string, args ...any) int {
+	end := b.fieldEnd(at)
+	span := Span{at, end}
+	if span.Len() == 0 {
+		span = Span{at, min(at+1, len(b.text))}
+		if at >= b.end {
+			span = Span{at, at}
+		}
+	}
+	b.errorf(span, CodeExtensionField, format, args...)
+	return end
+}
+
+// foundAt describes the byte at p inside the block for messages.
+func (b *blockReader) foundAt(p int) string {
+	if p >= b.end {
+		if b.ext.Closed {
+			return "'|'"
+		}
+		return "end of text"
+	}
+	return describeAt(b.text, p)
+}
+
+// itemSpec describes the items of a list field: how many numbers an item
+// has (separated by '.' or ':'), and what each number refers to.
+type itemSpec struct {
+	min, max int                    // numbers per item; max 0 is unbounded
+	ref      func(i, n int) RefKind // what number i of an item of n refers to; 0 is a plain value
+	star     bool                   // a plain value may be '*' (ring-bond counts)
+}
+
+var (
+	atomList      = itemSpec{min: 1, max: 1, ref: func(int, int) RefKind { return RefAtom }}
+	bondList      = itemSpec{min: 1, max: 1, ref: func(int, int) RefKind { return RefBond }}
+	atomBondPairs = itemSpec{min: 2, max: 2, ref: func(i, _ int) RefKind {
+		if i == 0 {
+			return RefAtom
+		}
+		return RefBond
+	}}
+	// hydrogen bonds: atom.bond pairs as coordinate bonds are written, or
+	// bare bond indices; the syntax is not documented beyond its tag.
+	hydrogenBonds = itemSpec{min: 1, max: 2, ref: func(i, n int) RefKind {
+		if n == 2 && i == 0 {
+			return RefAtom
+		}
+		return RefBond
+	}}
+	atomCounts = itemSpec{min: 2, max: 2, star: true, ref: func(i, _ int) RefKind {
+		if i == 0 {
+			return RefAtom
+		}
+		return 0
+	}}
+	// link nodes: atom:min.max, and the two outer atoms when the node has
+	// more than two neighbours.
+	linkNodes = itemSpec{min: 3, max: 5, ref: func(i, _ int) RefKind {
+		if i == 1 || i == 2 {
+			return 0
+		}
+		return RefAtom
+	}}
+	multicentre    = itemSpec{min: 2, ref: func(int, int) RefKind { return RefAtom }}
+	fragmentGroups = itemSpec{min: 1, ref: func(int, int) RefKind { return RefComponent }}
+	sgroupTree     = itemSpec{min: 2, ref: func(int, int) RefKind { return 0 }}
+)
+
+// listFields maps tags to the list fields read with an itemSpec.
+var listFields = map[string]struct {
+	kind FieldKind
+	spec itemSpec
+}{
+	"c":   {FieldCisRing, bondList},
+	"t":   {FieldTransRing, bondList},
+	"ctu": {FieldUnspecifiedRing, bondList},
+	"wU":  {FieldWedgeUp, atomBondPairs},
+	"wD":  {FieldWedgeDown, atomBondPairs},
+	"w":   {FieldWavy, atomBondPairs},
+	"C":   {FieldCoordinateBonds, atomBondPairs},
+	"H":   {FieldHydrogenBonds, hydrogenBonds},
+	"Z":   {FieldZeroBonds, bondList},
+	"LN":  {FieldLinkNodes, linkNodes},
+	"m":   {FieldMulticentre, multicentre},
+	"f":   {FieldFragmentGroups, fragmentGroups},
+	"lp":  {FieldLonePairs, atomCounts},
+	"LP":  {FieldLonePairs, atomCounts},
+	"rb":  {FieldRingBondCounts, atomCounts},
+	"s":   {FieldSubstitution, atomCounts},
+	"u":   {FieldUnsaturation, atomList},
+	"@":   {FieldLocalParity, atomList},
+	"@@":  {FieldLocalParity, atomList},
+	"SgH": {FieldSgroupHierarchy, sgroupTree},
+}
+
+// tagged reads a field with a tag and ':'; body is the offset after ':'.
+func (b *blockReader) tagged(f *Field, tag string, body int) int {
+	if kind, num, ok := groupTag(tag); ok {
+		return b.group(f, kind, num, body)
+	}
+	if len(tag) == 2 && tag[0] == '^' {
+		f.Kind = FieldRadicals
+		if tag[1] < '1' || tag[1] > '7' {
+			return b.malformed(f.Tag.Start, "expected a radical kind from ^1 to ^7, found '%s'", tag)
+		}
+		return b.items(f, body, atomList, tag)
+	}
+	if lf, ok := listFields[tag]; ok {
+		f.Kind = lf.kind
+		return b.items(f, body, lf.spec, tag)
+	}
+	switch tag {
+	case "atomProp":
+		f.Kind = FieldAtomProps
+		return b.atomProps(f, body)
+	case "Sg":
+		f.Kind = FieldPolymerSgroup
+		return b.sgroup(f, body, true)
+	case "SgD":
+		f.Kind = FieldDataSgroup
+		return b.sgroup(f, body, false)
+	}
+	f.Kind = FieldUnknown
+	return b.fieldEnd(body)
+}
+
+// groupTag recognises the tags of stereo groups: "a", and "o" or "&"
+// with an optional number (RDKit 2022.09.3 reads "o:1" as a group).
+func groupTag(tag string) (kind GroupKind, num int, ok bool) {
+	switch {
+	case tag == "a":
+		return GroupAbsolute, 0, true
+	case tag == "" || tag[0] != 'o' && tag[0] != '&':
+		return 0, 0, false
+	}
+	digits := tag[1:]
+	for i := 0; i < len(digits); i++ {
+		if !isDigit(digits[i]) {
+			return 0, 0, false
+		}
+	}
+	kind = GroupOr
+	if tag[0] == '&' {
+		kind = GroupAnd
+	}
+	if len(digits) > 9 {
+		return kind, -1, true
+	}
+	num, _ = strconv.Atoi(digits)
+	if digits == "" {
+		num = 0
+	}
+	return kind, num, true
+}
+
+// group reads a stereo group: its atom list, checked against the record
+// and against the groups before it.
+func (b *blockReader) group(f *Field, kind GroupKind, num, body int) int {
+	f.Kind = FieldStereoGroup
+	tag := b.text[f.Tag.Start:f.Tag.End]
+	if num < 0 {
+		return b.malformed(f.Tag.Start, "expected a group number of at most 9 digits, found '%s'", tag)
+	}
+	end := b.items(f, body, atomList, tag)
+	g := StereoGroup{Kind: kind, Number: num, Field: -1}
+	gi := len(b.ext.Groups)
+	for _, ref := range f.Refs {
+		if ref.Index < 0 || ref.Index >= b.atoms {
+			continue // reported by items
+		}
+		if b.owner == nil {
+			b.owner = make([]int32, b.atoms)
+			b.ownerSpan = make([]Span, b.atoms)
+			for i := range b.owner {
+				b.owner[i] = -1
+			}
+		}
+		if prev := b.owner[ref.Index]; prev >= 0 {
+			var e *Error
+			if int(prev) == gi {
+				e = b.errorf(ref.Span, CodeGroupOverlap, "expected each atom once in a stereo group, found index %d twice in %s", ref.Index, tag)
+			} else {
+				e = b.errorf(ref.Span, CodeGroupOverlap, "expected each atom in at most one stereo group, found index %d in %s and in %s", ref.Index, b.ext.Groups[prev].Label(), tag)
+			}
+			e.Related = append(e.Related, Related{Span: b.ownerSpan[ref.Index], Msg: "listed first here"})
+			continue
+		}
+		b.owner[ref.Index] = int32(gi)
+		b.ownerSpan[ref.Index] = ref.Span
+		g.Atoms = append(g.Atoms, ref.Index)
+		g.AtomSpans = append(g.AtomSpans, ref.Span)
+	}
+	b.ext.Groups = append(b.ext.Groups, g)
+	f.Group = gi
+	return end
+}
+
+// items reads a comma-separated list of items from p, each item one or
+// more numbers separated by '.' or ':', and returns the end of the field.
+// The list ends at a comma after which a new field starts, or at the end
+// of the block.
+func (b *blockReader) items(f *Field, p int, spec itemSpec, tag string) int {
+	if p >= b.end || b.text[p] == ',' && b.startsField(p+1) {
+		b.errorf(Span{f.Tag.Start, p}, CodeExtensionField, "expected a number after '%s:', found %s", tag, b.foundAt(p))
+		return p
+	}
+	var nums []Span // the numbers of one item, reused
+	for {
+		nums = nums[:0]
+		for {
+			q := p
+			if spec.star && q < b.end && b.text[q] == '*' {
+				q++
+			} else {
+				for q < b.end && isDigit(b.text[q]) {
+					q++
+				}
+			}
+			if q == p {
+				return b.malformed(p, "expected a number in '%s:', found %s", tag, b.foundAt(p))
+			}
+			nums = append(nums, Span{p, q})
+			p = q
+			if p+1 < b.end && (b.text[p] == '.' || b.text[p] == ':') && (isDigit(b.text[p+1]) || spec.star && b.text[p+1] == '*') {
+				p++
+				continue
+			}
+			break
+		}
+		if n := len(nums); n < spec.min || spec.max > 0 && n > spec.max {
+			want := strconv.Itoa(spec.min)
+			switch {
+			case spec.max == 0:
+				want = "at least " + want
+			case spec.max != spec.min:
+				want = "from " + want + " to " + strconv.Itoa(spec.max)
+			}
+			return b.malformed(nums[0].Start, "expected %s numbers in each item of '%s:', found %d", want, tag, n)
+		}
+		for i, span := range nums {
+			if kind := spec.ref(i, len(nums)); kind != 0 {
+				b.ref(f, kind, span, true)
+			}
+		}
+		switch {
+		case p >= b.end:
+			return p
+		case b.text[p] != ',':
+			return b.malformed(p, "expected ',' or the end of '%s:', found %s", tag, b.foundAt(p))
+		case b.startsField(p + 1):
+			return p
+		}
+		p++
+	}
+}
+
+// ref records a number that refers to an atom, bond or component, and
+// checks it against the record.
+func (b *blockReader) ref(f *Field, kind RefKind, span Span, check bool) {
+	digits := b.text[span.Start:span.End]
+	idx := -1
+	if len(digits) <= 9 {
+		idx, _ = strconv.Atoi(digits)
+	}
+	f.Refs = append(f.Refs, Ref{Kind: kind, Index: idx, Span: span})
+	var limit int
+	var what string
+	switch kind {
+	case RefAtom:
+		limit, what = b.atoms, "atom"
+	case RefBond:
+		limit, what = b.bonds, "bond"
+	default:
+		limit, what = b.components, "component"
+	}
+	if !check || idx >= 0 && idx < limit {
+		return
+	}
+	shown := "'" + digits + "'"
+	if len(digits) > 12 {
+		shown = "a number of " + strconv.Itoa(len(digits)) + " digits"
+	}
+	b.errorf(span, CodeExtensionIndex, "expected %s index below %d (the record has %d %ss), found %s", article(what), limit, limit, what, shown)
+}
+
+func article(w string) string {
+	if w == "atom" {
+		return "an atom"
+	}
+	return "a " + w
+}
+
+// coordinates reads "(x,y,z;x,y,z;...)": one entry per atom, each up to
+// three numbers separated by commas, any of which may be empty (RDKit
+// 2022.09.3 writes "1.5,1.29904," for a zero z).
+func (b *blockReader) coordinates(f *Field, p int) int {
+	start := p
+	for {
+		q := p
+		for q < b.end && b.text[q] != ';' && b.text[q] != ')' {
+			q++
+		}
+		if q >= b.end {
+			return b.malformed(start-1, "expected ')' to close the coordinates, found %s", b.foundAt(q))
+		}
+		if bad := badCoordinate(b.text[p:q]); bad >= 0 {
+			return b.malformed(p+bad, "expected coordinates as up to three numbers separated by ',', found %s", b.foundAt(p+bad))
+		}
+		f.Entries = append(f.Entries, Span{p, q})
+		p = q + 1
+		if b.text[q] == ')' {
+			break
+		}
+	}
+	b.checkEntries(f, "coordinates")
+	if p < b.end && b.text[p] != ',' {
+		return b.malformed(p, "expected ',' or '|' after the coordinates, found %s", b.foundAt(p))
+	}
+	return p
+}
+
+// badCoordinate returns the offset of the first byte of an entry that is
+// not part of up to three optional decimal numbers separated by commas,
+// or -1.
+func badCoordinate(s string) int {
+	parts := 0
+	i := 0
+	for {
+		parts++
+		if parts > 3 {
+			return i - 1
+		}
+		j := i
+		for j < len(s) && s[j] != ',' {
+			j++
+		}
+		if s[i:j] != "" {
+			if _, err := strconv.ParseFloat(s[i:j], 64); err != nil || strings.ContainsAny(s[i:j], "xXpP_") || strings.EqualFold(strings.TrimLeft(s[i:j], "+-"), "inf") || strings.EqualFold(strings.TrimLeft(s[i:j], "+-"), "infinity") || strings.EqualFold(s[i:j], "nan") {
+				return i
+			}
+		}
+		if j >= len(s) {
+			return -1
+		}
+		i = j + 1
+	}
+}
+
+// labels reads atom labels "$l;l;...$" or atom values "$_AV:v;v;...$".
+func (b *blockReader) labels(f *Field, p int) int {
+	f.Kind = FieldAtomLabels
+	body := p + 1
+	f.Tag = Span{p, p + 1}
+	if strings.HasPrefix(b.text[body:b.end], "_AV:") {
+		f.Kind = FieldAtomValues
+		f.Tag = Span{p, p + 4}
+		body = p + 5
+	}
+	close := strings.IndexByte(b.text[body:b.end], '$')
+	if close < 0 {
+		return b.malformed(p, "expected '$' to close the atom %s, found %s", strings.TrimPrefix(f.Kind.String(), "atom "), b.foundAt(b.end))
+	}
+	close += body
+	for q := body; ; {
+		k := strings.IndexByte(b.text[q:close], ';')
+		if k < 0 {
+			f.Entries = append(f.Entries, Span{q, close})
+			break
+		}
+		f.Entries = append(f.Entries, Span{q, q + k})
+		q += k + 1
+	}
+	b.checkEntries(f, f.Kind.String())
+	p = close + 1
+	if p < b.end && b.text[p] != ',' {
+		return b.malformed(p, "expected ',' or '|' after the %s, found %s", f.Kind, b.foundAt(p))
+	}
+	return p
+}
+
+// checkEntries reports per-atom entries beyond the last atom. Empty
+// entries there are harmless and accepted.
+func (b *blockReader) checkEntries(f *Field, what string) {
+	for i := b.atoms; i < len(f.Entries); i++ {
+		if e := f.Entries[i]; e.Len() > 0 {
+			b.errorf(e, CodeExtensionIndex, "expected %s for at most %d atoms (the record has %d), found one for atom index %d", what, b.atoms, b.atoms, i)
+			return
+		}
+	}
+}
+
+// atomProps reads "atomProp:atom.name.value:atom.name.value...", as
+// RDKit 2022.09.3 writes atom properties (a '.' inside a name or value
+// escaped as "&#46;").
+func (b *blockReader) atomProps(f *Field, p int) int {
+	end := b.fieldEnd(p)
+	for q := p; q < end; {
+		d := q
+		for d < end && isDigit(b.text[d]) {
+			d++
+		}
+		if d == q || d >= end || b.text[d] != '.' {
+			b.malformed(d, "expected an atom index and '.' in 'atomProp:', found %s", b.foundAt(d))
+			return end
+		}
+		b.ref(f, RefAtom, Span{q, d}, true)
+		// the entry runs to the next ':' that starts another entry
+		next := end
+		for k := d + 1; k < end; k++ {
+			if b.text[k] == ':' && startsAtomProp(b.text[k+1:end]) {
+				next = k
+				break
+			}
+		}
+		if next == end {
+			break
+		}
+		q = next + 1
+	}
+	return end
+}
+
+// startsAtomProp reports whether s starts with digits and '.'.
+func startsAtomProp(s string) bool {
+	i := 0
+	for i < len(s) && isDigit(s[i]) {
+		i++
+	}
+	return i > 0 && i < len(s) && s[i] == '.'
+}
+
+// sgroup reads "Sg:type:atoms:..." (polymer) or "SgD:atoms:..." (data).
+// The atom list is comma-separated; of the rest only the bond lists of a
+// polymer S-group (its fifth and sixth parts, head and tail crossing
+// bonds) refer to the record.
+func (b *blockReader) sgroup(f *Field, p int, polymer bool) int {
+	end := b.fieldEnd(p)
+	tag := b.text[f.Tag.Start:f.Tag.End]
+	q := p
+	if polymer {
+		for q < end && b.text[q] != ':' {
+			q++
+		}
+		if q == p || q >= end {
+			return b.malformed(p, "expected an S-group type and ':' in '%s:', found %s", tag, b.foundAt(q))
+		}
+		q++
+	}
+	// atoms
+	for {
+		d := q
+		for d < end && isDigit(b.text[d]) {
+			d++
+		}
+		if d == q {
+			return b.malformed(q, "expected an atom index in '%s:', found %s", tag, b.foundAt(q))
+		}
+		b.ref(f, RefAtom, Span{q, d}, true)
+		q = d
+		if q < end && b.text[q] == ',' {
+			q++
+			continue
+		}
+		break
+	}
+	if q < end && b.text[q] != ':' {
+		return b.malformed(q, "expected ',' or ':' after the atoms of '%s:', found %s", tag, b.foundAt(q))
+	}
+	if !polymer {
+		return end
+	}
+	// subscript and connectivity, then parts that RDKit 2022.09.3 writes
+	// empty ("Sg:n:1,2:n:ht:::"); numbers there (crossing bonds, in some
+	// writers) are kept as bond references, unchecked, so that the field
+	// is not renumbered blindly when atoms move.
+	part := 0
+	for q < end {
+		q++ // ':'
+		part++
+		s := q
+		for q < end && b.text[q] != ':' {
+			q++
+		}
+		if part < 3 {
+			continue
+		}
+		for k := s; k < q; {
+			d := k
+			for d < q && isDigit(b.text[d]) {
+				d++
+			}
+			if d > k {
+				b.ref(f, RefBond, Span{k, d}, false)
+			}
+			k = d + 1
+		}
+	}
+	return end
+}
+
+// reportKept adds the information that some fields are kept as written
+// without being interpreted, naming their kinds once each.
+func (b *blockReader) reportKept() {
+	var names []string
+	seen := map[string]bool{}
+	for i := range b.ext.Fields {
+		f := &b.ext.Fields[i]
+		if f.Kind.Interpreted() {
+			continue
+		}
+		name := f.Kind.String()
+		if f.Kind == FieldUnknown {
+			t := b.text[f.Tag.Start:f.Tag.End]
+			if t == "" {
+				t = b.text[f.Span.Start:min(f.Span.End, f.Span.Start+12)]
+			}
+			name = "unknown field '" + t + "'"
+		}
+		if seen[name] {
+			continue
+		}
+		seen[name] = true
+		names = append(names, name)
+	}
+	if len(names) == 0 || b.quiet {
+		return
+	}
+	const most = 8
+	list := strings.Join(names[:min(len(names), most)], ", ")
+	if len(names) > most {
+		list += " and " + strconv.Itoa(len(names)-most) + " more"
+	}
+	e := b.r.errorf(b.ext.Span, CodeExtensionKept, "extension block kept as written, not interpreted: %s", list)
+	e.Severity = SeverityInformation
+}

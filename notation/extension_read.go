@@ -1,6 +1,7 @@
 package notation
 
 import (
+	"slices"
 	"strconv"
 	"strings"
 )
@@ -112,6 +113,9 @@ type blockReader struct {
 	atoms, bonds, components int
 	ext                      *Extension
 
+	// discard receives what is said about errors not reported.
+	discard Error
+
 	// owner and ownerSpan hold, per atom, the group that listed it first
 	// and where; allocated at the first group.
 	owner     []int32
@@ -145,8 +149,8 @@ func (r *reader) readExtension(text string, sep, open int) {
 // errorf reports a problem in the block; in a block that is never closed
 // only the missing '|' is reported, and a detached Error is returned.
 func (b *blockReader) errorf(span Span, code Code, format string, args ...any) *Error {
-	if b.quiet {
-		return &Error{}
+	if b.quiet || b.r.dropped {
+		return &b.discard
 	}
 	return b.r.errorf(span, code, format, args...)
 }
@@ -410,7 +414,7 @@ func (b *blockReader) group(f *Field, kind GroupKind, num, body int) int {
 	f.Kind = FieldStereoGroup
 	tag := b.text[f.Tag.Start:f.Tag.End]
 	if num < 0 {
-		return b.malformed(f.Tag.Start, "expected a group number of at most 9 digits, found '%s'", tag)
+		return b.malformed(f.Tag.Start, "expected a group number of at most 9 digits, found %d digits", len(tag)-1)
 	}
 	end := b.items(f, body, atomList, tag)
 	g := StereoGroup{Kind: kind, Number: num, Field: -1}
@@ -433,7 +437,9 @@ func (b *blockReader) group(f *Field, kind GroupKind, num, body int) int {
 			} else {
 				e = b.errorf(ref.Span, CodeGroupOverlap, "expected each atom in at most one stereo group, found index %d in %s and in %s", ref.Index, b.ext.Groups[prev].Label(), tag)
 			}
-			e.Related = append(e.Related, Related{Span: b.ownerSpan[ref.Index], Msg: "listed first here"})
+			if e != &b.discard {
+				e.Related = append(e.Related, Related{Span: b.ownerSpan[ref.Index], Msg: "listed first here"})
+			}
 			continue
 		}
 		b.owner[ref.Index] = int32(gi)
@@ -543,58 +549,114 @@ func article(w string) string {
 
 // coordinates reads "(x,y,z;x,y,z;...)": one entry per atom, each up to
 // three numbers separated by commas, any of which may be empty (RDKit
-// 2022.09.3 writes "1.5,1.29904," for a zero z).
+// 2022.09.3 writes "1.5,1.29904," for a zero z). p is after '('.
 func (b *blockReader) coordinates(f *Field, p int) int {
-	start := p
-	for {
-		q := p
-		for q < b.end && b.text[q] != ';' && b.text[q] != ')' {
-			q++
+	close := strings.IndexByte(b.text[p:b.end], ')')
+	if close < 0 {
+		b.errorf(Span{p - 1, b.end}, CodeExtensionField, "expected ')' to close the coordinates, found %s", b.foundAt(b.end))
+		return b.end
+	}
+	close += p
+	reported := false
+	for q := p; ; {
+		k := strings.IndexByte(b.text[q:close], ';')
+		e := close
+		if k >= 0 {
+			e = q + k
 		}
-		if q >= b.end {
-			return b.malformed(start-1, "expected ')' to close the coordinates, found %s", b.foundAt(q))
+		f.Entries = append(f.Entries, Span{q, e})
+		if bad := badCoordinate(b.text[q:e]); bad.Len() > 0 && !reported {
+			reported = true
+			bad = bad.Shift(q)
+			if bad.Start > q && b.text[bad.Start] == ',' {
+				b.errorf(bad, CodeExtensionField, "expected at most three coordinates for an atom, found more")
+			} else {
+				b.errorf(bad, CodeExtensionField, "expected a coordinate (a decimal number), found %s", shownToken(b.text[bad.Start:bad.End]))
+			}
 		}
-		if bad := badCoordinate(b.text[p:q]); bad >= 0 {
-			return b.malformed(p+bad, "expected coordinates as up to three numbers separated by ',', found %s", b.foundAt(p+bad))
-		}
-		f.Entries = append(f.Entries, Span{p, q})
-		p = q + 1
-		if b.text[q] == ')' {
+		if k < 0 {
 			break
 		}
+		q = e + 1
 	}
 	b.checkEntries(f, "coordinates")
+	p = close + 1
 	if p < b.end && b.text[p] != ',' {
 		return b.malformed(p, "expected ',' or '|' after the coordinates, found %s", b.foundAt(p))
 	}
 	return p
 }
 
-// badCoordinate returns the offset of the first byte of an entry that is
-// not part of up to three optional decimal numbers separated by commas,
-// or -1.
-func badCoordinate(s string) int {
-	parts := 0
-	i := 0
-	for {
-		parts++
-		if parts > 3 {
-			return i - 1
-		}
+// badCoordinate returns the span (in s) of the first part of an entry
+// that is not a decimal number, or of the fourth and later parts; empty
+// when the entry is up to three optional numbers separated by commas.
+func badCoordinate(s string) Span {
+	for i, parts := 0, 1; ; parts++ {
 		j := i
 		for j < len(s) && s[j] != ',' {
 			j++
 		}
-		if s[i:j] != "" {
-			if _, err := strconv.ParseFloat(s[i:j], 64); err != nil || strings.ContainsAny(s[i:j], "xXpP_") || strings.EqualFold(strings.TrimLeft(s[i:j], "+-"), "inf") || strings.EqualFold(strings.TrimLeft(s[i:j], "+-"), "infinity") || strings.EqualFold(s[i:j], "nan") {
-				return i
-			}
+		if parts > 3 {
+			return Span{i - 1, len(s)}
+		}
+		if !decimal(s[i:j]) {
+			return Span{i, j}
 		}
 		if j >= len(s) {
-			return -1
+			return Span{}
 		}
 		i = j + 1
 	}
+}
+
+// shownToken quotes a short printable token for a message, or describes
+// its first character.
+func shownToken(s string) string {
+	if len(s) > 16 {
+		return describeAt(s, 0) + " and more"
+	}
+	for i := 0; i < len(s); i++ {
+		if s[i] <= ' ' || s[i] > '~' || s[i] == '\'' {
+			return describeAt(s, i) + " in '" + strings.ToValidUTF8(s[:i], "") + "...'"
+		}
+	}
+	return "'" + s + "'"
+}
+
+// decimal reports whether s is empty or a decimal number: an optional
+// sign, digits with an optional fraction, an optional exponent.
+func decimal(s string) bool {
+	i := 0
+	if i < len(s) && (s[i] == '+' || s[i] == '-') {
+		i++
+	}
+	digits := 0
+	for i < len(s) && isDigit(s[i]) {
+		i, digits = i+1, digits+1
+	}
+	if i < len(s) && s[i] == '.' {
+		i++
+		for i < len(s) && isDigit(s[i]) {
+			i, digits = i+1, digits+1
+		}
+	}
+	if digits == 0 {
+		return s == ""
+	}
+	if i < len(s) && (s[i] == 'e' || s[i] == 'E') {
+		i++
+		if i < len(s) && (s[i] == '+' || s[i] == '-') {
+			i++
+		}
+		exp := i
+		for i < len(s) && isDigit(s[i]) {
+			i++
+		}
+		if i == exp {
+			return false
+		}
+	}
+	return i == len(s)
 }
 
 // labels reads atom labels "$l;l;...$" or atom values "$_AV:v;v;...$".
@@ -752,28 +814,38 @@ func (b *blockReader) sgroup(f *Field, p int, polymer bool) int {
 // reportKept adds the information that some fields are kept as written
 // without being interpreted, naming their kinds once each.
 func (b *blockReader) reportKept() {
+	if b.quiet {
+		return
+	}
 	var names []string
-	seen := map[string]bool{}
+	var known [64]bool
+	unknown := map[string]bool{}
 	for i := range b.ext.Fields {
 		f := &b.ext.Fields[i]
 		if f.Kind.Interpreted() {
 			continue
 		}
 		name := f.Kind.String()
-		if f.Kind == FieldUnknown {
-			t := b.text[f.Tag.Start:f.Tag.End]
-			if t == "" {
-				t = b.text[f.Span.Start:min(f.Span.End, f.Span.Start+12)]
+		if t := b.text[f.Tag.Start:f.Tag.End]; f.Kind == FieldUnknown && t != "" {
+			if unknown[t] {
+				continue
+			}
+			unknown[t] = true
+			// a tag is letters, digits and '_', '^', '&', '@': safe to
+			// quote, and shortened
+			if len(t) > 16 {
+				t = t[:16] + "..."
 			}
 			name = "unknown field '" + t + "'"
+		} else {
+			if known[f.Kind] || slices.Contains(names, name) {
+				continue
+			}
+			known[f.Kind] = true
 		}
-		if seen[name] {
-			continue
-		}
-		seen[name] = true
 		names = append(names, name)
 	}
-	if len(names) == 0 || b.quiet {
+	if len(names) == 0 {
 		return
 	}
 	const most = 8

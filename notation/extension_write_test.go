@@ -83,7 +83,9 @@ func TestGroupEdits(t *testing.T) {
 		want string
 	}{
 		{"a group in a new block", diol, func(m *Molecule) ([]Edit, error) { return AddStereoGroup(m, GroupOr, 1, []int{3, 1}) }, diol + " |o1:1,3|"},
-		{"a group at the end of the block", diol + " |a:1|", func(m *Molecule) ([]Edit, error) { return AddStereoGroup(m, GroupAnd, FreeGroupNumber(m, GroupAnd), []int{3}) }, diol + " |a:1,&1:3|"},
+		{"a group at the end of the block", diol + " |a:1|", func(m *Molecule) ([]Edit, error) {
+			return AddStereoGroup(m, GroupAnd, FreeGroupNumber(m, GroupAnd), []int{3})
+		}, diol + " |a:1,&1:3|"},
 		{"after an empty field, no second comma", diol + " |a:1,|", func(m *Molecule) ([]Edit, error) { return AddStereoGroup(m, GroupOr, 2, []int{3}) }, diol + " |a:1,o2:3|"},
 		{"the only group: the block goes", diol + " |&1:1,3|", func(m *Molecule) ([]Edit, error) { return RemoveStereoGroup(m, 0) }, diol},
 		{"the first of two", diol + " |a:1,&1:3|", func(m *Molecule) ([]Edit, error) { return RemoveStereoGroup(m, 0) }, diol + " |&1:3|"},

@@ -2,10 +2,12 @@ package notation
 
 import (
 	"bufio"
+	"fmt"
 	"math/rand/v2"
 	"os"
 	"path/filepath"
 	"slices"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -96,10 +98,22 @@ func boolInt(b bool) int {
 // was run), and that the block round-trips: written back unchanged when
 // the writing keeps the atom order, and renumbered, with the same
 // meaning, when a random writing moves the atoms.
+//
+// With STEREOLINE_REWRITES=FILE set, it also writes each row's random
+// writing to FILE (row line, variant, source, writing, order), for
+// testdata/rdkit/check_rewrites.py to read with RDKit.
 func TestRDKitGroups(t *testing.T) {
 	rows := readGroupsFixture(t)
 	var agreeRDKit, agreeJS, ranJS, verbatim, rewritten int
 	rng := rand.New(rand.NewPCG(16, 2022))
+	var dump *os.File
+	if path := os.Getenv("STEREOLINE_REWRITES"); path != "" {
+		var err error
+		if dump, err = os.Create(path); err != nil {
+			t.Fatal(err)
+		}
+		defer dump.Close()
+	}
 	for _, row := range rows {
 		m := Read(row.cxsmiles)
 		if m.Errors.HasErrors() {
@@ -151,6 +165,13 @@ func TestRDKitGroups(t *testing.T) {
 		w = Write(m, opt)
 		rewritten++
 		checkRenumbered(t, row.cxsmiles, m, w)
+		if dump != nil {
+			order := make([]string, len(w.Order))
+			for i, a := range w.Order {
+				order[i] = strconv.Itoa(a)
+			}
+			fmt.Fprintf(dump, "%d\t%s\t%s\t%s\t%s\n", row.line, row.variant, row.cxsmiles, w.Text, strings.Join(order, ","))
+		}
 	}
 	t.Logf("%d rows: groups agree with RDKit 2022.09.3 on %d, with @rdkit/rdkit on %d of %d; %d blocks copied verbatim, %d rewritten from random starts",
 		len(rows), agreeRDKit, agreeJS, ranJS, verbatim, rewritten)

@@ -325,6 +325,7 @@ func (r *reader) bondSymbol() {
 	}
 	if r.prev < 0 {
 		r.errorf(Span{r.pos, r.pos + 1}, CodeSyntax, "expected an atom before bond '%c'", r.text[r.pos])
+		r.openDot = 0 // this error says what is missing after a '.'
 		r.pos++
 		return
 	}

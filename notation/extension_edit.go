@@ -41,9 +41,8 @@ func FreeGroupNumber(m *Molecule, kind GroupKind) int {
 // ascending order: "a:1,3", "o<number>:1,3" or "&<number>:1,3". The group
 // goes at the end of m's block, or into a new block " |...|" after the
 // notation when m has none. An atom already in a group, an index outside
-// the record, a number already used by a group of the kind (readers would
-// take the two for one group or two) and a block that is never closed are
-// errors.
+// the record, a tag already used ("a" included: readers would take the
+// two for one group or two) and a block that is never closed are errors.
 func AddStereoGroup(m *Molecule, kind GroupKind, number int, atoms []int) ([]Edit, error) {
 	if kind != GroupAbsolute && kind != GroupOr && kind != GroupAnd {
 		return nil, editError(Span{}, CodeEditUnsupported, "no such stereo group kind")
@@ -81,11 +80,11 @@ func AddStereoGroup(m *Molecule, kind GroupKind, number int, atoms []int) ([]Edi
 	if !ext.Closed {
 		return nil, editError(ext.Span, CodeEditUnsupported, "the extension block is not closed")
 	}
-	if kind != GroupAbsolute {
-		for _, h := range ext.Groups {
-			if h.Kind == kind && h.Number == number {
-				return nil, editError(ext.Fields[h.Field].Span, CodeEditUnsupported, "stereo group "+g.Label()+" already exists")
-			}
+	for _, h := range ext.Groups {
+		if h.Kind == kind && h.Number == g.Number && h.Field >= 0 {
+			// Two fields with one tag are one group to some readers and
+			// two to others (RDKit 2022.09.3); an absolute group is one.
+			return nil, editError(ext.Fields[h.Field].Span, CodeEditUnsupported, "stereo group "+g.Label()+" already exists; add the atoms to it")
 		}
 	}
 	at := ext.Span.End - 1 // the closing '|'
@@ -126,6 +125,30 @@ func removeFieldSpan(m *Molecule, f *Field) Span {
 		s.Start--
 	}
 	return s
+}
+
+// SetGroupKind returns the edit that retags group gi as a group of the
+// kind with number (ignored for GroupAbsolute): "o1:1,3" becomes "&1:1,3"
+// (the racemate of what was one enantiomer, unknown which) or "a:1,3".
+// Only the tag changes. A tag another group already has is an error.
+func SetGroupKind(m *Molecule, gi int, kind GroupKind, number int) ([]Edit, error) {
+	f, err := groupField(m, gi)
+	if err != nil {
+		return nil, err
+	}
+	if kind != GroupAbsolute && kind != GroupOr && kind != GroupAnd || kind != GroupAbsolute && number < 0 {
+		return nil, editError(f.Tag, CodeEditUnsupported, "no such stereo group kind or number")
+	}
+	g := StereoGroup{Kind: kind, Number: number}
+	if kind == GroupAbsolute {
+		g.Number = 0
+	}
+	for hi, h := range m.Extension.Groups {
+		if hi != gi && h.Kind == g.Kind && h.Number == g.Number {
+			return nil, editError(f.Tag, CodeEditUnsupported, "stereo group "+g.Label()+" already exists")
+		}
+	}
+	return []Edit{{Span: f.Tag, New: g.Label()}}, nil
 }
 
 // AddGroupAtom returns the edit that adds atom to group gi: before the

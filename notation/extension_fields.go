@@ -19,6 +19,19 @@ type itemSpec struct {
 	star     bool                   // a plain value may be '*' (ring-bond counts)
 }
 
+// count says how many numbers an item has, for messages.
+func (spec itemSpec) count() string {
+	switch {
+	case spec.max == 0:
+		return "at least " + strconv.Itoa(spec.min) + " numbers"
+	case spec.max != spec.min:
+		return "from " + strconv.Itoa(spec.min) + " to " + strconv.Itoa(spec.max) + " numbers"
+	case spec.min == 1:
+		return "one number"
+	}
+	return strconv.Itoa(spec.min) + " numbers"
+}
+
 var (
 	atomList      = itemSpec{min: 1, max: 1, ref: func(int, int) RefKind { return RefAtom }}
 	bondList      = itemSpec{min: 1, max: 1, ref: func(int, int) RefKind { return RefBond }}
@@ -219,14 +232,7 @@ func (b *blockReader) items(f *Field, p int, spec itemSpec, tag string) int {
 			break
 		}
 		if n := len(nums); n < spec.min || spec.max > 0 && n > spec.max {
-			want := strconv.Itoa(spec.min)
-			switch {
-			case spec.max == 0:
-				want = "at least " + want
-			case spec.max != spec.min:
-				want = "from " + want + " to " + strconv.Itoa(spec.max)
-			}
-			return b.malformed(nums[0].Start, "expected %s numbers in each item of '%s:', found %d", want, tag, n)
+			return b.malformed(nums[0].Start, "expected %s in each item of '%s:', found %d", spec.count(), tag, n)
 		}
 		for i, span := range nums {
 			if kind := spec.ref(i, len(nums)); kind != 0 {

@@ -102,7 +102,9 @@ func (rn *renumbering) field(f *Field, sameText bool) (string, bool) {
 	text := rn.m.Text
 	switch f.Kind {
 	case FieldStereoGroup:
-		if f.Group < 0 {
+		// a group is written with the atoms read: indices beyond the
+		// record and repeats (reported by the reader) are left out
+		if f.Group < 0 || len(rn.m.Extension.Groups[f.Group].Atoms) == 0 {
 			return "", false
 		}
 		return rn.group(f), true

@@ -36,6 +36,7 @@ func TestExtensionWriteBack(t *testing.T) {
 		{"incomplete coordinates dropped when atoms move", "CCO |(0,0,;1,0,)|", 2, "OCC", []int{0}},
 		{"flags kept", "C[C@H](O)CC |o1:1,r|", 4, "CC[C@H](C)O |o1:2,r|", nil},
 		{"a block never closed is written closed", "CC(C)O |a:1", 3, "OC(C)C |a:1|", nil},
+		{"a group with no atom in the record is left out", "CC(C)O |o1:7,a:1,1|", 3, "OC(C)C |a:1|", []int{0}},
 	}
 	for _, tt := range tests {
 		m := Read(tt.have)
@@ -91,6 +92,8 @@ func TestGroupEdits(t *testing.T) {
 		{"the first of two", diol + " |a:1,&1:3|", func(m *Molecule) ([]Edit, error) { return RemoveStereoGroup(m, 0) }, diol + " |&1:3|"},
 		{"the last of two", diol + " |a:1,&1:3|", func(m *Molecule) ([]Edit, error) { return RemoveStereoGroup(m, 1) }, diol + " |a:1|"},
 		{"between other fields", diol + " |(0,0,;1,0,;1,1,;2,0,;2,-1,;3,0,),o1:1,3,$;a;;;;$|", func(m *Molecule) ([]Edit, error) { return RemoveStereoGroup(m, 0) }, diol + " |(0,0,;1,0,;1,1,;2,0,;2,-1,;3,0,),$;a;;;;$|"},
+		{"an or-group made racemic", diol + " |o1:1,3|", func(m *Molecule) ([]Edit, error) { return SetGroupKind(m, 0, GroupAnd, 1) }, diol + " |&1:1,3|"},
+		{"an and-group made absolute", diol + " |&2:1,3|", func(m *Molecule) ([]Edit, error) { return SetGroupKind(m, 0, GroupAbsolute, 0) }, diol + " |a:1,3|"},
 		{"an atom in order", diol + " |o1:3|", func(m *Molecule) ([]Edit, error) { return AddGroupAtom(m, 0, 1) }, diol + " |o1:1,3|"},
 		{"an atom at the end", diol + " |o1:1|", func(m *Molecule) ([]Edit, error) { return AddGroupAtom(m, 0, 3) }, diol + " |o1:1,3|"},
 		{"the first atom of two", diol + " |o1:1,3|", func(m *Molecule) ([]Edit, error) { return RemoveGroupAtom(m, 0, 1) }, diol + " |o1:3|"},
@@ -128,10 +131,12 @@ func TestGroupEditErrors(t *testing.T) {
 	}{
 		{"atom already in a group", second(AddStereoGroup(m, GroupAnd, 1, []int{1}))},
 		{"number in use", second(AddStereoGroup(m, GroupOr, 1, []int{3}))},
+		{"a second absolute group", second(AddStereoGroup(Read("CC(C)C(C)C |a:1|"), GroupAbsolute, 0, []int{3}))},
 		{"atom outside the record", second(AddStereoGroup(m, GroupOr, 2, []int{6}))},
 		{"no atoms", second(AddStereoGroup(m, GroupOr, 2, nil))},
 		{"atom listed twice", second(AddStereoGroup(m, GroupOr, 2, []int{3, 3}))},
 		{"no such group", second(RemoveStereoGroup(m, 1))},
+		{"retag to a tag in use", second(SetGroupKind(Read("CC(C)C(C)C |o1:1,&1:3|"), 0, GroupAnd, 1))},
 		{"atom not in the group", second(RemoveGroupAtom(m, 0, 3))},
 		{"atom in another group", second(AddGroupAtom(Read("CC(C)C(C)C |o1:1,&1:3|"), 0, 3))},
 		{"block never closed", second(AddStereoGroup(Read("CC(C)C(C)C |o1:1"), GroupAnd, 1, []int{3}))},

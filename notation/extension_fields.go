@@ -184,7 +184,7 @@ func (b *blockReader) group(f *Field, kind GroupKind, num, body int) int {
 			} else {
 				e = b.errorf(ref.Span, CodeGroupOverlap, "expected each atom in at most one stereo group, found index %d in %s and in %s", ref.Index, b.ext.Groups[prev].Label(), tag)
 			}
-			if e != &b.discard {
+			if e != nil {
 				e.Related = append(e.Related, Related{Span: b.ownerSpan[ref.Index], Msg: "listed first here"})
 			}
 			continue

@@ -104,18 +104,17 @@ func blockEnd[T ~string | ~[]byte](text T, open int) int {
 
 // blockReader reads the fields of one extension block.
 type blockReader struct {
-	r    *reader // for bounded error reporting
+	m    *Molecule
 	text string
 	end  int // end of the fields: the closing '|', or the end of the text
 	// quiet is set for a block that is never closed: its fields are read
 	// as well as they can be, but only the missing '|' is reported.
 	quiet bool
+	// dropped is set once the error list is full (see maxErrors).
+	dropped bool
 
 	atoms, bonds, components int
 	ext                      *Extension
-
-	// discard receives what is said about errors not reported.
-	discard Error
 
 	// owner and ownerSpan hold, per atom, the group that listed it first
 	// and where; allocated at the first group.
@@ -123,37 +122,49 @@ type blockReader struct {
 	ownerSpan []Span
 }
 
-// readExtension reads the block of text that starts with the whitespace
-// at sep and the '|' at open, after the notation has been read into m.
-func (r *reader) readExtension(text string, sep, open int) {
-	m := r.mol
+// readExtension reads the block of m.Text that starts with the
+// whitespace at sep and the '|' at open, after the notation has been
+// read into m; dropped says whether the reader has filled the error list.
+// (A function of the molecule, not of the reader, so that the reader
+// stays on the stack.)
+func readExtension(m *Molecule, dropped bool, sep, open int) {
+	text := m.Text
 	ext := &Extension{Separator: Span{sep, open}}
+	m.Extension = ext
+	b := &blockReader{m: m, text: text, dropped: dropped,
+		atoms: len(m.Atoms), bonds: len(m.Bonds), components: m.Components, ext: ext}
 	close := blockEnd(text, open)
-	end := close - 1
+	b.end = close - 1
 	if close < 0 {
-		close, end = len(text), len(text)
-		r.errorf(Span{open, len(text)}, CodeExtensionUnclosed, "expected '|' to close the extension block, found end of text")
+		close, b.end = len(text), len(text)
+		b.errorf(Span{open, len(text)}, CodeExtensionUnclosed, "expected '|' to close the extension block, found end of text")
+		b.quiet = true
 	} else {
 		ext.Closed = true
 	}
 	ext.Span = Span{open, close}
-	m.Extension = ext
-	b := &blockReader{r: r, text: text, end: end, quiet: !ext.Closed,
-		atoms: len(m.Atoms), bonds: len(m.Bonds), components: m.Components, ext: ext}
 	b.fields(open + 1)
 	b.reportKept()
 	if close < len(text) {
-		r.errorf(Span{close, len(text)}, CodeSyntax, "expected the end of the record after the extension block, found %s", describeAt(text, close))
+		b.quiet = false
+		b.errorf(Span{close, len(text)}, CodeSyntax, "expected the end of the record after the extension block, found %s", describeAt(text, close))
 	}
 }
 
-// errorf reports a problem in the block; in a block that is never closed
-// only the missing '|' is reported, and a detached Error is returned.
+// errorf reports a problem in the block and returns its entry, or nil
+// when it is not reported: in a block that is never closed only the
+// missing '|' is, and past the bound on errors (maxErrors) none is; the
+// first one past it says so, as the reader does.
 func (b *blockReader) errorf(span Span, code Code, format string, args ...any) *Error {
-	if b.quiet || b.r.dropped {
-		return &b.discard
+	if b.quiet || b.dropped {
+		return nil
 	}
-	return b.r.errorf(span, code, format, args...)
+	if len(b.m.Errors) >= maxErrors {
+		b.dropped = true
+		b.m.Errors.Add(span, CodeSyntax, "too many errors; the rest of the record is not reported")
+		return nil
+	}
+	return b.m.Errors.Add(span, code, format, args...)
 }
 
 // fields reads the fields from p to the end of the block.
@@ -320,6 +331,7 @@ func (b *blockReader) reportKept() {
 	if len(names) > most {
 		list += " and " + strconv.Itoa(len(names)-most) + " more"
 	}
-	e := b.r.errorf(b.ext.Span, CodeExtensionKept, "extension block kept as written, not interpreted: %s", list)
-	e.Severity = SeverityInformation
+	if e := b.errorf(b.ext.Span, CodeExtensionKept, "extension block kept as written, not interpreted: %s", list); e != nil {
+		e.Severity = SeverityInformation
+	}
 }

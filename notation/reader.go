@@ -41,7 +41,7 @@ func Read(text string) *Molecule {
 		for text[open] != '|' {
 			open++
 		}
-		r.readExtension(text, notationEnd, open)
+		readExtension(r.mol, r.dropped, notationEnd, open)
 	}
 	r.mol.Errors.Sort()
 	if len(r.mol.Errors) > maxErrors+1 {

@@ -9,7 +9,7 @@ package notation
 // A Molecule is built once by Read and not changed afterwards; code that
 // derives new facts returns them in values of its own.
 type Molecule struct {
-	Text   string // the notation the spans refer to
+	Text   string // the record the spans refer to: the notation and its extension block, if any
 	Atoms  []Atom
 	Bonds  []Bond
 	Errors ErrorList

@@ -25,6 +25,13 @@ const (
 	CodeEmpty            Code = "empty"               // a record or component with no atoms
 	CodeReaction         Code = "reaction"            // a malformed reaction arrow structure
 	CodeEncoding         Code = "encoding"            // bytes that are not valid UTF-8 or are control characters
+
+	// Codes of the CXSMILES extension block (extension_read.go).
+	CodeExtensionUnclosed Code = "extension-unclosed" // an extension block without its closing '|'
+	CodeExtensionField    Code = "extension-field"    // a field of the block that does not follow its syntax
+	CodeExtensionIndex    Code = "extension-index"    // an atom, bond or component index beyond the record
+	CodeGroupOverlap      Code = "group-overlap"      // an atom listed in two stereo groups, or twice in one
+	CodeExtensionKept     Code = "extension-kept"     // fields kept as written but not interpreted (information)
 )
 
 // Severity orders diagnostics from most to least urgent. The zero value is

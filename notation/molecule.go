@@ -9,7 +9,7 @@ package notation
 // A Molecule is built once by Read and not changed afterwards; code that
 // derives new facts returns them in values of its own.
 type Molecule struct {
-	Text   string // the notation the spans refer to
+	Text   string // the record the spans refer to: the notation and its extension block, if any
 	Atoms  []Atom
 	Bonds  []Bond
 	Errors ErrorList
@@ -21,6 +21,10 @@ type Molecule struct {
 
 	// Components counts the dot-separated parts (over all roles).
 	Components int
+
+	// Extension is the CXSMILES extension block written after the
+	// notation ("C[C@H](O)CC |&1:1|"), nil when there is none.
+	Extension *Extension
 }
 
 // Role is the part of a reaction an atom was written in.

@@ -18,13 +18,31 @@ const maxErrors = 200
 // The reader is a single loop over the bytes with an explicit branch
 // stack, so nesting depth costs heap, not Go stack, and the work is linear
 // in the length of the text.
+//
+// A CXSMILES extension block after the notation and whitespace
+// ("C[C@H](O)CC |&1:1|") is read into m.Extension (extension_read.go);
+// its atom indices count the atoms of the whole record in the order they
+// are written. Text without a block is read as before, blanks included
+// (they are errors).
 func Read(text string) *Molecule {
-	r := &reader{text: text, mol: &Molecule{Text: text}, prev: -1, rings: map[int]*openRing{}}
-	atoms, rings := countTokens(text)
+	notationEnd, end := RecordEnd(text)
+	src := text
+	if end > notationEnd {
+		src = text[:notationEnd]
+	}
+	r := &reader{text: src, mol: &Molecule{Text: text}, prev: -1, rings: map[int]*openRing{}}
+	atoms, rings := countTokens(src)
 	r.mol.Atoms = make([]Atom, 0, atoms)
 	r.mol.Bonds = make([]Bond, 0, atoms+rings)
 	r.read()
 	finish(r.mol)
+	if end > notationEnd {
+		open := notationEnd
+		for text[open] != '|' {
+			open++
+		}
+		readExtension(r.mol, r.dropped, notationEnd, open)
+	}
 	r.mol.Errors.Sort()
 	if len(r.mol.Errors) > maxErrors+1 {
 		r.mol.Errors = r.mol.Errors[:maxErrors+1]
@@ -64,6 +82,11 @@ type reader struct {
 
 	afterBranch bool // a branch was just closed: ring digits may not follow
 
+	// openDot is the offset plus one of a '.' that no atom has followed yet,
+	// 0 when there is none: a component left empty at the end of the
+	// record, of a reaction role or of a branch.
+	openDot int
+
 	// pairs holds the bonded atom pairs once a ring closure joins two
 	// atoms with many bonds each; nil until then (see bonded).
 	pairs map[uint64]struct{}
@@ -96,11 +119,14 @@ func (r *reader) errorf(span Span, code Code, format string, args ...any) *Error
 }
 
 // found describes the byte at pos for messages: "'x'" or "end of text".
-func (r *reader) found(pos int) string {
-	if pos >= len(r.text) {
+func (r *reader) found(pos int) string { return describeAt(r.text, pos) }
+
+// describeAt describes the character at pos of text for messages.
+func describeAt(text string, pos int) string {
+	if pos >= len(text) {
 		return "end of text"
 	}
-	c, _ := utf8.DecodeRuneInString(r.text[pos:])
+	c, _ := utf8.DecodeRuneInString(text[pos:])
 	return quoteRune(c)
 }
 
@@ -234,6 +260,7 @@ func (r *reader) atom(idx int) {
 	r.bond = 0
 	r.prev = idx
 	r.afterBranch = false
+	r.openDot = 0
 }
 
 func (r *reader) bondSpan(next int) Span {
@@ -298,6 +325,7 @@ func (r *reader) bondSymbol() {
 	}
 	if r.prev < 0 {
 		r.errorf(Span{r.pos, r.pos + 1}, CodeSyntax, "expected an atom before bond '%c'", r.text[r.pos])
+		r.openDot = 0 // this error says what is missing after a '.'
 		r.pos++
 		return
 	}
@@ -332,6 +360,7 @@ func (r *reader) openBranch() {
 
 func (r *reader) closeBranch() {
 	span := Span{r.pos, r.pos + 1}
+	r.emptyAfterDot(r.pos)
 	r.pos++
 	r.pendingBondError()
 	if len(r.stack) == 0 {
@@ -349,9 +378,26 @@ func (r *reader) dot() {
 	r.pos++
 	r.pendingBondError()
 	if r.prev < 0 && len(r.stack) == 0 {
+		// a dot at the start of a part or after another dot: the
+		// component before it is empty, reported once here
+		r.openDot = 0
 		r.errorf(span, CodeEmpty, "expected an atom before '.'")
+	} else {
+		r.openDot = span.Start + 1
 	}
 	r.prev = -1
+}
+
+// emptyAfterDot reports a '.' that nothing but the end of a part, a ')'
+// or another '.' followed (OpenSMILES 3.7: a dot separates two
+// components, each with atoms). The caller is at offset at.
+func (r *reader) emptyAfterDot(at int) {
+	if r.openDot == 0 {
+		return
+	}
+	d := r.openDot - 1
+	r.openDot = 0
+	r.errorf(Span{d, d + 1}, CodeEmpty, "expected an atom after '.', found %s", r.found(at))
 }
 
 func (r *reader) arrow() {
@@ -375,6 +421,7 @@ func (r *reader) arrow() {
 // reaction part.
 func (r *reader) endPart(at int) {
 	r.pendingBondError()
+	r.emptyAfterDot(at)
 	for i := len(r.stack) - 1; i >= 0; i-- {
 		b := r.stack[i]
 		r.errorf(Span{b.pos, b.pos + 1}, CodeSyntax, "expected ')' to close this branch, found %s", r.found(at))

@@ -15,6 +15,7 @@ func (r *reader) ringBond() {
 	if r.prev < 0 {
 		r.errorf(span, CodeSyntax, "expected an atom before ring-closure number %s", r.text[span.Start:span.End])
 		r.bond = 0
+		r.openDot = 0 // this error says what is missing after a '.'
 		return
 	}
 	if r.afterBranch {

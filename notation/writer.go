@@ -41,6 +41,12 @@ type Written struct {
 	// Dropped lists bonds that could not be written: bonds joining atoms
 	// of different reaction roles.
 	Dropped []int
+	// DroppedFields lists the fields of the molecule's extension block
+	// (indices into m.Extension.Fields) left out of Text because the new
+	// writing moves what they refer to and they cannot be renumbered:
+	// fields that count bonds, unknown fields, fields with indices
+	// beyond the record, incomplete coordinates (see writeExtension).
+	DroppedFields []int
 }
 
 // Write serialises m as OpenSMILES. Atoms are written without brackets
@@ -50,7 +56,9 @@ type Written struct {
 // tetrahedral or allene centre turns '@' into '@@'), and bond direction
 // marks are written as seen in the direction the bond is written, so
 // both kinds of stereo keep their meaning. A reaction keeps its
-// reactant>agent>product layout.
+// reactant>agent>product layout. A CXSMILES extension block is written
+// after the notation, renumbered for the new order of the atoms, or
+// copied as written when the order is unchanged (see writeExtension).
 //
 // Write takes time linear in the size of the molecule (times the number
 // of ring closures open at once, for choosing free numbers) and does not
@@ -76,6 +84,11 @@ func Write(m *Molecule, opt WriteOptions) Written {
 		}
 	}
 	w.out.Text = w.fixAllenes(w.sb.String())
+	if m.Extension != nil {
+		block, dropped := writeExtension(m, w.out.Text, w.out.Order)
+		w.out.Text += block
+		w.out.DroppedFields = dropped
+	}
 	sort.Ints(w.out.Unadjusted)
 	sort.Ints(w.out.Dropped)
 	return w.out

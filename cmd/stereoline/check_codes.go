@@ -151,6 +151,44 @@ var codeCatalogue = []codeDoc{
 		Help:    "Delete the invisible character, or fix the escape in the host file (see host-escape).",
 		Example: codeExample{File: "example.smi", Text: "C\x01C\n", Shown: "C<U+0001>C (a control character between the two atoms)"},
 	},
+	// The reader's CXSMILES extension block (notation/extension_read.go);
+	// the field syntax as the RDKit documentation gives it and RDKit
+	// 2022.09.3 reads it.
+	{
+		Code: notation.CodeExtensionUnclosed, Origin: originReader,
+		Short:   "An extension block without its closing '|'.",
+		Full:    "A CXSMILES extension block (stereo groups, coordinates, labels) starts with '|' after the notation and a blank, and ends with '|'. Without the closing bar nobody can tell where the block ends and the title begins, so the block reaches to the end of the line; the general-purpose libraries reject such a record.",
+		Help:    "Add the closing '|' after the last field, before the title.",
+		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)CC |&1:1 LRK-BB-001\n"},
+	},
+	{
+		Code: notation.CodeExtensionField, Origin: originReader,
+		Short:   "A field of the extension block that does not follow its syntax.",
+		Full:    "A field of a known kind (a stereo group, coordinates, atom labels, radicals, link nodes, S-groups, ...) holds something its syntax does not allow: a ';' between atom indices, a letter among coordinates, a missing ')'. What follows the fault in that field is not read; a library may read less or reject the record.",
+		Help:    "Write the field as the extension syntax asks: atom indices separated by ',', coordinates as x,y,z triples separated by ';'.",
+		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)[C@@H](C)Cl |o1:1;3|\n"},
+	},
+	{
+		Code: notation.CodeExtensionIndex, Origin: originReader,
+		Short:   "An atom, bond or component index beyond the record.",
+		Full:    "Indices in the extension block count the atoms (bonds, components) of the whole record from 0, over every component and every part of a reaction, in the order they are written. This index names an atom the record does not have, often because the block was copied from another writing of the structure or the record was shortened.",
+		Help:    "Renumber the index to the atom meant (the first atom is 0), or remove it.",
+		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)CC |&1:5|\n"},
+	},
+	{
+		Code: notation.CodeGroupOverlap, Origin: originReader,
+		Short:   "An atom in two stereo groups, or twice in one.",
+		Full:    "Each marked centre belongs to at most one stereo group (absolute a, or o1, o2, ..., and &1, &2, ...): the group says how its configuration is known. An atom listed in two groups has two contradicting meanings; the libraries read such blocks differently.",
+		Help:    "Keep the atom in the one group that describes what is known, and remove it from the other.",
+		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)[C@@H](C)Cl |o1:1,3,&1:3|\n"},
+	},
+	{
+		Code: notation.CodeExtensionKept, Origin: originReader,
+		Short:   "Fields of the extension block that are kept but not interpreted.",
+		Full:    "Stereoline reads the stereo groups of an extension block; every other field (coordinates, atom labels and values, radicals, ring double-bond configurations, wedge hints, S-groups, link nodes, ...) is read for its extent, kept as written and renumbered when a rewrite moves atoms, but has no effect on labels or checks. This information says which fields those are.",
+		Help:    "Nothing to do; it says what the checks do not take into account.",
+		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)CC |(0,0,;1,0,;1,1,;2,0,;3,0,),&1:1|\n"},
+	},
 	// The stereo engine (stereo/codes.go).
 	{
 		Code: stereo.CodeIneffectiveCenter, Origin: originStereo,

@@ -26,7 +26,9 @@
 //
 //   - Lists (.smi .smiles .rsmi .cxsmi .cxsmiles .ism .can): one record a
 //     line, the title after the first blank, '#' lines and blank lines
-//     skipped.
+//     skipped; a CXSMILES extension block after the notation ("|...|")
+//     belongs to the record and the title follows it
+//     (notation.RecordEnd).
 //   - Tables (.csv .tsv): cells of columns whose header names structures
 //     (see findTable), with RFC 4180 quoting.
 //   - Source code (Python, JavaScript and TypeScript, Go, R, Julia, Rust,

@@ -34,12 +34,18 @@ var fileSuffixes = []string{
 }
 
 // plausible reports whether s could be a record at all: not empty, only
-// notation bytes, not a file name or URL. Text taken because a name says
-// so must still pass this, so that smiles = "" or smiles = "see table"
-// are not reported as broken notation.
+// notation bytes (before an extension block), not a file name or URL.
+// Text taken because a name says so must still pass this, so that
+// smiles = "" or smiles = "see table" are not reported as broken
+// notation.
 func plausible(s string) bool {
 	if s == "" || len(s) > 1<<16 {
 		return false
+	}
+	// A record may end in a CXSMILES extension block; the notation
+	// before it must look like a record.
+	if n, end := notation.RecordEnd(s); end == len(s) && end > n {
+		s = s[:n]
 	}
 	for i := 0; i < len(s); i++ {
 		if !notationByte[s[i]] {

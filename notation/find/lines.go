@@ -3,6 +3,8 @@ package find
 import (
 	"bytes"
 	"sort"
+
+	"stereoline/notation"
 )
 
 // lineTable holds the offsets where lines start, for pragmas that work
@@ -25,17 +27,12 @@ func (t lineTable) line(off int) int {
 }
 
 // splitRecord splits one line of a record list into the record and its
-// title: the record runs to the first blank (space or tab), the title is
-// the rest, trimmed. A CXSMILES extension ("|...|" right after the
-// blank) belongs to neither and is skipped. Results are offsets into line.
+// title: the record runs to the first blank (space, tab or carriage
+// return), or, when a CXSMILES extension block ("|...|") follows after
+// blanks, to the end of the block (notation.RecordEnd decides); the title
+// is the rest, trimmed. Results are offsets into line.
 func splitRecord(line []byte) (recEnd, titleStart, titleEnd int) {
-	recEnd = len(line)
-	for i, c := range line {
-		if c == ' ' || c == '\t' || c == '\r' {
-			recEnd = i
-			break
-		}
-	}
+	_, recEnd = notation.RecordEnd(line)
 	titleEnd = len(line)
 	for titleEnd > recEnd && isBlank(line[titleEnd-1]) {
 		titleEnd--
@@ -43,17 +40,6 @@ func splitRecord(line []byte) (recEnd, titleStart, titleEnd int) {
 	titleStart = recEnd
 	for titleStart < titleEnd && isBlank(line[titleStart]) {
 		titleStart++
-	}
-	if titleStart < titleEnd && line[titleStart] == '|' {
-		for k := titleStart + 1; k < titleEnd; k++ {
-			if line[k] == '|' {
-				titleStart = k + 1
-				for titleStart < titleEnd && isBlank(line[titleStart]) {
-					titleStart++
-				}
-				break
-			}
-		}
 	}
 	return recEnd, titleStart, titleEnd
 }

@@ -13,6 +13,7 @@ mol = Chem.MolFromSmiles("C[C@H](N)O", sanitize=False)  # want «C[C@H](N)O»
 mol = load(smiles="F/C=C\\F")  # want «F/C=C\\F» text «F/C=C\F»
 row["smiles"] = "OCC"  # want «OCC»
 rxn = "CC=O.N>>CC=N"  # want «CC=O.N>>CC=N»
+racemate_smiles = "C[C@H](O)CC |&1:1|"  # want «C[C@H](O)CC |&1:1|»
 smiles_col = "SMILES"
 smiles_file = "input.smi"
 reaction_name = "Suzuki coupling"

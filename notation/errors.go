@@ -25,6 +25,10 @@ const (
 	CodeEmpty            Code = "empty"               // a record or component with no atoms
 	CodeReaction         Code = "reaction"            // a malformed reaction arrow structure
 	CodeEncoding         Code = "encoding"            // bytes that are not valid UTF-8 or are control characters
+	// CodeRingAfterBranch is a warning: ring-closure digits written after
+	// a branch, outside the OpenSMILES grammar (branched_atom ::= atom
+	// ringbond* branch*) but accepted by widely used readers.
+	CodeRingAfterBranch Code = "ring-after-branch"
 )
 
 // Severity orders diagnostics from most to least urgent. The zero value is

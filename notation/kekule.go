@@ -49,7 +49,7 @@ func kekulize(m *Molecule, inRing []bool) []bool {
 		}
 		if !ringed {
 			if a.Number != 0 {
-				m.Errors.Add(a.Span, CodeKekulize, "expected an aromatic atom to be in an aromatic ring, found %s outside any", a.Symbol)
+				m.Errors.Add(a.Span, CodeKekulize, "expected an aromatic atom to be in an aromatic ring, found %s %s", a.Symbol, ringPlace(a, inRing))
 			}
 			continue
 		}
@@ -70,6 +70,18 @@ func kekulize(m *Molecule, inRing []bool) []bool {
 	}
 	match.report()
 	return pi
+}
+
+// ringPlace says where an aromatic atom without aromatic ring bonds sits,
+// for the kekulize message: in a ring whose bonds to it are not aromatic
+// (c1CCCCC1, c1-c-c-c-c-c1), or in no ring at all.
+func ringPlace(a *Atom, inRing []bool) string {
+	for _, bi := range a.Bonds {
+		if inRing[bi] {
+			return "in a ring without aromatic bonds to it"
+		}
+	}
+	return "outside any ring"
 }
 
 // needsDoubleBond decides whether aromatic atom i takes a double bond in

@@ -149,6 +149,13 @@ var codeCatalogue = []codeDoc{
 		Help:    "Delete the invisible character, or fix the escape in the host file (see host-escape).",
 		Example: codeExample{File: "example.smi", Text: "C\x01C\n", Shown: "C<U+0001>C (a control character between the two atoms)"},
 	},
+	{
+		Code: notation.CodeRingAfterBranch, Origin: originReader,
+		Short:   "Ring-closure digits written after a branch (a warning).",
+		Full:    "OpenSMILES writes an atom's ring-closure digits right after the atom, before its branches (branched_atom ::= atom ringbond* branch*). Widely used readers also accept a digit after a branch and bond it to the atom the branch hangs from, in the order written; Stereoline reads it the same way, so the structure is the one those readers see. Other readers may reject the record.",
+		Help:    "Move the digit before the branch: c12ccccc1NC=CC2=O instead of c12ccccc1NC=CC(=O)2. Where a stereo mark sits on that atom, moving the digit changes the neighbour order, so rewrite the mark too, or let a writer produce the record.",
+		Example: codeExample{File: "example.smi", Text: "c12ccccc1NC=CC(=O)2\n"},
+	},
 	// The stereo engine (stereo/codes.go).
 	{
 		Code: stereo.CodeIneffectiveCenter, Origin: originStereo,

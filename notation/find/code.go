@@ -3,7 +3,6 @@ package find
 import (
 	"bytes"
 	"sort"
-	"strconv"
 	"strings"
 
 	"stereoline/notation"
@@ -138,13 +137,14 @@ type codeFinder struct {
 	nm   namer
 	prag *pragmas
 	out  []Occurrence
-	// groups[i] is the group of out[i] (see group), for the pass that
-	// makes the literals of one group agree on their dialect.
-	groups []groupMark
 	frames int // frames opened, for their ids
 	// inner: the finder reads the code of doctest lines inside a
 	// docstring, and does not look for docstrings again.
 	inner bool
+	doctests int // doctests read, to keep their groups apart
+	// keys interns the group keys, so that an occurrence carries a
+	// small number rather than the key.
+	keys map[groupKey]int32
 	// pending are literals of a group that were not taken but read as
 	// query patterns: taken after all if their group turns out to hold
 	// query patterns (agree).
@@ -161,7 +161,7 @@ type pendingLiteral struct {
 
 // groupMark ties an occurrence to the literals it must agree with.
 type groupMark struct {
-	key       string
+	key       int32 // an interned groupKey (codeFinder.intern); 0 for none
 	byContent bool // SMARTS by its content
 	firm      bool // its place fixes the dialect (MolFromSmiles(...))
 }
@@ -362,21 +362,45 @@ func (cf *codeFinder) open(toks []token, i int, parent *frame) frame {
 	return nf
 }
 
-// group returns the key of the literals a literal in frame f must agree
-// with: the same argument of every call of one function
-// (AcidBasePair(name, acid, base) throughout a file), the same position
-// in the tuples of one collection ({34: ('[CH2]=*', 0), ...}), or the
-// elements of one list; "" at the top level.
-func group(f *frame, frames int) string {
+// groupKey names the literals a literal must agree with: the same
+// argument of every call of one function (AcidBasePair(name, acid,
+// base) throughout a file), the same position in the tuples of one
+// collection ({34: ('[CH2]=*', 0), ...}), or the elements of one list.
+// The zero key is no group (the top level).
+type groupKey struct {
+	kind   byte // 'c' call argument, 't' tuple position, 'l' list
+	callee string
+	id     int
+	arg    int
+}
+
+// intern returns the number of a group key, 0 for no group.
+func (cf *codeFinder) intern(k groupKey) int32 {
+	if k == (groupKey{}) {
+		return 0
+	}
+	if cf.keys == nil {
+		cf.keys = map[groupKey]int32{}
+	}
+	n, ok := cf.keys[k]
+	if !ok {
+		n = int32(len(cf.keys) + 1)
+		cf.keys[k] = n
+	}
+	return n
+}
+
+// group returns the group key of a literal in frame f.
+func group(f *frame) groupKey {
 	switch {
 	case f.callee != "":
-		return "c:" + f.callee + ":" + strconv.Itoa(f.arg)
+		return groupKey{kind: 'c', callee: f.callee, arg: f.arg}
 	case f.nested:
-		return "t:" + strconv.Itoa(f.parent) + ":" + strconv.Itoa(f.arg)
+		return groupKey{kind: 't', id: f.parent, arg: f.arg}
 	case f.collection:
-		return "l:" + strconv.Itoa(f.id)
+		return groupKey{kind: 'l', id: f.id}
 	}
-	return ""
+	return groupKey{}
 }
 
 // agree makes the literals of each group agree: when one of them is a
@@ -384,17 +408,19 @@ func group(f *frame, frames int) string {
 // are query patterns too (and taken, if nothing else took them), except
 // where their place fixes the dialect. Occurrences stay in host order.
 func (cf *codeFinder) agree() {
-	query := map[string]bool{}
-	for i, g := range cf.groups {
-		if g.key != "" && g.byContent && cf.out[i].Dialect == DialectSMARTS {
+	query := map[int32]bool{}
+	for i := range cf.out {
+		g := &cf.out[i].group
+		if g.key != 0 && g.byContent && cf.out[i].Dialect == DialectSMARTS {
 			query[g.key] = true
 		}
 	}
 	if len(query) == 0 {
 		return
 	}
-	for i, g := range cf.groups {
+	for i := range cf.out {
 		o := &cf.out[i]
+		g := &o.group
 		if query[g.key] && !g.firm && o.Dialect == DialectSMILES && readsAsQuery(o.Text) {
 			o.Dialect = DialectSMARTS
 		}
@@ -408,17 +434,7 @@ func (cf *codeFinder) agree() {
 		}
 	}
 	if added {
-		idx := make([]int, len(cf.out))
-		for i := range idx {
-			idx[i] = i
-		}
-		sort.SliceStable(idx, func(a, b int) bool { return cf.out[idx[a]].Span.Start < cf.out[idx[b]].Span.Start })
-		out := make([]Occurrence, len(idx))
-		groups := make([]groupMark, len(idx))
-		for k, i := range idx {
-			out[k], groups[k] = cf.out[i], cf.groups[i]
-		}
-		cf.out, cf.groups = out, groups
+		sort.SliceStable(cf.out, func(a, b int) bool { return cf.out[a].Span.Start < cf.out[b].Span.Start })
 	}
 }
 
@@ -456,7 +472,7 @@ func (cf *codeFinder) literal(t token, f *frame) {
 	if cf.prag.forced(t.span.Start) {
 		w, reason = wants{smiles: firmly}, ReasonPragma
 	}
-	mark := groupMark{key: group(f, cf.frames), firm: w.smiles == firmly || w.smarts == firmly}
+	mark := groupMark{key: cf.intern(group(f)), firm: w.smiles == firmly || w.smarts == firmly}
 	if !w.named() && !noGuess {
 		w.guess = true
 	}
@@ -468,7 +484,7 @@ func (cf *codeFinder) literal(t token, f *frame) {
 		cf.doctest(lit)
 		return
 	}
-	pend := mark.key != "" && !w.named() && !noGuess
+	pend := mark.key != 0 && !w.named() && !noGuess && mayKeep(cf.src, lit)
 	if !w.named() && (!w.guess || !mayGuess(cf.src, lit)) && !pend {
 		return
 	}
@@ -507,9 +523,39 @@ func (cf *codeFinder) literal(t token, f *frame) {
 	}
 }
 
+// mayKeep is the quick test on the host bytes of a literal of a group,
+// before it is decoded, for keep: one piece of notation bytes with
+// something a word does not have (a bracket, bond, digit or wildcard).
+// Most literals of lists and calls (names, messages, keys) fail here.
+func mayKeep(src []byte, lit *literal) bool {
+	if len(lit.pieces) != 1 {
+		return false
+	}
+	c := lit.pieces[0].content
+	if c.Len() < 2 || c.Len() > 4096 {
+		return false
+	}
+	shaped := false
+	for _, b := range src[c.Start:c.End] {
+		if !notationByte[b] {
+			return false
+		}
+		if !(b >= 'a' && b <= 'z' || b >= 'A' && b <= 'Z') {
+			shaped = true
+		}
+	}
+	return shaped
+}
+
 // keep holds a literal nothing took for agree, when it could be a query
 // pattern of its group.
 func (cf *codeFinder) keep(lit *literal, d *decoded, m offsetMap, text string, mark groupMark) {
+	// Not taken as notation, a query pattern of a group has a bracket
+	// atom, an aromatic atom, a wildcard or a bond query ('c[SH]',
+	// '[CH2]=*'); anything else is not worth reading.
+	if !strings.ContainsAny(text, "[*~@cnos") {
+		return
+	}
 	if len(lit.pieces) == 1 && plausible(text) && len(d.issues) == 0 && readsAsQuery(text) {
 		cf.pending = append(cf.pending, pendingLiteral{lit: lit, d: d, m: m, mark: mark})
 	}
@@ -555,11 +601,40 @@ func (cf *codeFinder) records(lit *literal, d *decoded, m *offsetMap, text strin
 	if lit.margin != "" {
 		lines = stripMargin(d.text, lit.margin)
 	}
-	v := detectLayout(lines, 0, layoutSpec{}, cf.nm, cf.cfg)
-	lay := v.layout
-	if v.none {
-		return
+	// The common layout first (notation, then a title); the layout is
+	// read from the content only when it leaves most lines without a
+	// record, which keeps the cost of the usual block at one reading of
+	// each record.
+	recs, lines0 := cf.layoutRecords(lines, text, defaultLayout, w, reason)
+	if len(recs)*2 < lines0 {
+		v := detectLayout(lines, 0, layoutSpec{}, cf.nm, cf.cfg)
+		if v.none {
+			return
+		}
+		if v.layout != defaultLayout {
+			recs, _ = cf.layoutRecords(lines, text, v.layout, w, reason)
+		}
 	}
+	for _, r := range recs {
+		if !cf.prag.allowed(m.host(r.from)) {
+			continue
+		}
+		mk := mark
+		mk.byContent = r.byContent
+		cf.emit(lit, d, m, r.from, r.to, r.title, reason, r.dialect, mk)
+	}
+}
+
+// litRecord is a record found in a multi-line literal.
+type litRecord struct {
+	found
+	title string
+}
+
+// layoutRecords reads the lines of a literal by a layout, each record
+// decided as a weakly named text; lines counts the lines that are not
+// blank or comments.
+func (cf *codeFinder) layoutRecords(lines []byte, text string, lay Layout, w wants, reason Reason) (out []litRecord, n int) {
 	first := true
 	var fields []fieldSpan
 	for start := 0; start < len(lines); {
@@ -572,6 +647,7 @@ func (cf *codeFinder) records(lit *literal, d *decoded, m *offsetMap, text strin
 		if len(line) == 0 || line[0] == '\r' || isComment(line) {
 			continue
 		}
+		n++
 		if first {
 			first = false
 			if lay.Header {
@@ -580,14 +656,11 @@ func (cf *codeFinder) records(lit *literal, d *decoded, m *offsetMap, text strin
 		}
 		var o Occurrence
 		var ok bool
-		fields, o, ok = layoutRecord(string(lines), lines, ls, ls+len(line), lay, fields)
+		fields, ok = layoutRecord(&o, string(lines), lines, ls, ls+len(line), lay, fields)
 		if !ok {
 			continue
 		}
 		from, to := o.Span.Start, o.Span.End
-		if !cf.prag.allowed(m.host(from)) {
-			continue
-		}
 		title := o.Title
 		if strings.IndexByte(title, holeByte) >= 0 {
 			// A title with a replacement field is not known before the
@@ -601,10 +674,10 @@ func (cf *codeFinder) records(lit *literal, d *decoded, m *offsetMap, text strin
 		if len(rs) != 1 {
 			continue
 		}
-		mk := mark
-		mk.byContent = rs[0].byContent
-		cf.emit(lit, d, m, from, to, title, reason, rs[0].dialect, mk)
+		rs[0].from, rs[0].to = from, to
+		out = append(out, litRecord{found: rs[0], title: title})
 	}
+	return out, n
 }
 
 // stripMargin blanks out the trimMargin() prefix of each line (Kotlin),
@@ -677,8 +750,8 @@ func (cf *codeFinder) emit(lit *literal, d *decoded, m *offsetMap, from, to int,
 		}
 		o.addDiag(e, fixes)
 	}
+	o.group = mark
 	cf.out = append(cf.out, o)
-	cf.groups = append(cf.groups, mark)
 }
 
 // encoder returns how text inserted into a piece must be written: with

@@ -69,8 +69,27 @@ func decide(text string, w wants) []found {
 	if !w.named() && !w.guess {
 		return nil
 	}
-	parts := splitParts(text)
-	if len(parts) > 1 {
+	if strings.IndexAny(text, ",; \t") >= 0 {
+		if parts := splitParts(text); len(parts) > 1 {
+			if out, ok := decideParts(text, parts, w); ok {
+				return out
+			}
+			if w.smiles < firmly && w.smarts < firmly {
+				return nil
+			}
+		}
+	}
+	d, by, ok := decideOne(text, w, false)
+	if !ok {
+		return nil
+	}
+	return []found{{from: 0, to: len(text), dialect: d, byContent: by}}
+}
+
+// decideParts decides about a text holding separators: ok when it
+// splits into parts that are each a record.
+func decideParts(text string, parts [][2]int, w wants) ([]found, bool) {
+	{
 		out := make([]found, 0, len(parts))
 		for _, p := range parts {
 			d, by, ok := decideOne(text[p[0]:p[1]], w, true)
@@ -81,17 +100,10 @@ func decide(text string, w wants) []found {
 			out = append(out, found{from: p[0], to: p[1], dialect: d, byContent: by})
 		}
 		if out != nil {
-			return out
-		}
-		if w.smiles < firmly && w.smarts < firmly {
-			return nil
+			return out, true
 		}
 	}
-	d, by, ok := decideOne(text, w, false)
-	if !ok {
-		return nil
-	}
-	return []found{{from: 0, to: len(text), dialect: d, byContent: by}}
+	return nil, false
 }
 
 // splitParts returns the byte ranges of the parts of text between
@@ -144,6 +156,10 @@ func separates(text string, i int) bool {
 // decideOne says what one record is. part says the record is one of
 // several in its text, which must each be notation on their own.
 func decideOne(s string, w wants, part bool) (d Dialect, byContent, ok bool) {
+	if !w.named() && !maybeQuery(s) {
+		// The common case of a literal nobody names.
+		return DialectSMILES, false, w.guess && unmistakable(s)
+	}
 	if !plausible(s) {
 		return 0, false, false
 	}
@@ -215,7 +231,7 @@ func readsAsNotation(s string) bool {
 // names at least one element (a wildcard alone, "*", is a glob rather
 // than a pattern).
 func readsAsQuery(s string) bool {
-	return hasElementAtom(s) && len(smarts.Read(s).Errors) == 0
+	return hasElementAtom(s) && smarts.Valid(s)
 }
 
 // hasElementAtom reports whether s holds an element: an organic-subset
@@ -239,7 +255,7 @@ func guessableQuery(s string) bool {
 	if len(s) < 3 || !hasElementAtom(s) || !strongQuery(s) {
 		return false
 	}
-	return len(smarts.Read(s).Errors) == 0
+	return smarts.Valid(s)
 }
 
 // strongQuery reports primitives that regular expressions and globs do
@@ -338,7 +354,7 @@ func queryBracket(inner string) bool {
 	if strings.ContainsAny(inner, ";&,!$#") {
 		return true
 	}
-	return len(smarts.Read("["+inner+"]").Errors) == 0
+	return smarts.Valid("[" + inner + "]")
 }
 
 // smilesBracket reports whether the inside of a bracket atom follows the

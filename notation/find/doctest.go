@@ -42,18 +42,18 @@ func (cf *codeFinder) doctest(lit *literal) {
 		encode = doubleBackslashes
 	}
 	lift(inner.out, m, encode)
-	cf.frames++
-	prefix := "d" + itoaSmall(cf.frames) + ":"
-	for i, o := range inner.out {
+	// The groups of the doctest code are its own: their numbers are
+	// moved past those of the file.
+	cf.doctests++
+	base := int32(cf.doctests) << 20
+	for _, o := range inner.out {
 		if !cf.prag.allowed(o.Span.Start) {
 			continue
 		}
-		g := inner.groups[i]
-		if g.key != "" {
-			g.key = prefix + g.key
+		if o.group.key != 0 {
+			o.group.key += base
 		}
 		cf.out = append(cf.out, o)
-		cf.groups = append(cf.groups, g)
 	}
 }
 
@@ -89,17 +89,3 @@ func doctestCode(text []byte) []byte {
 	return code
 }
 
-// itoaSmall writes a non-negative int.
-func itoaSmall(n int) string {
-	if n == 0 {
-		return "0"
-	}
-	var b [20]byte
-	i := len(b)
-	for n > 0 {
-		i--
-		b[i] = byte('0' + n%10)
-		n /= 10
-	}
-	return string(b[i:])
-}

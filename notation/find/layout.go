@@ -324,7 +324,7 @@ func pick(fields []fieldSpan, pos int) (fieldSpan, bool) {
 
 // sampleLines is how many lines the layout is read from: enough to see a
 // pattern, few enough that a 100,000-line list pays nothing noticeable.
-const sampleLines = 40
+const sampleLines = 24
 
 // candidate is one (separator, field) reading of the sample lines.
 type candidate struct {
@@ -345,6 +345,9 @@ type layoutVerdict struct {
 	// none: hardly a line of a long enough sample has a field that reads
 	// as notation; the text is no record list (prose, another format).
 	none bool
+	// queries: a sample line's notation field is a query pattern by its
+	// content, so every record's content is looked at.
+	queries bool
 }
 
 // detectLayout reads the layout of text from its first data lines.
@@ -357,8 +360,27 @@ func detectLayout(text []byte, from int, fixed layoutSpec, nm namer, cfg *Config
 	// The first line may be a header, which costs it one line of the
 	// score.
 	scored := lines
+	if !fixed.fieldSet && !fixed.sepSet && singleFields(text, scored) {
+		// One field a line: nothing to choose between.
+		v := layoutVerdict{layout: fixed.apply(defaultLayout), score: 1}
+		for _, l := range scored {
+			v.queries = v.queries || queryContent(string(text[l.start:l.end]))
+		}
+		return v
+	}
 	var cands []candidate
 	var buf []fieldSpan
+	// Candidates of different separators often pick the same bytes; each
+	// field is read once.
+	memo := map[fieldSpan]bool{}
+	reads := func(f fieldSpan) bool {
+		v, ok := memo[f]
+		if !ok {
+			v = fieldReads(text[f.start:f.end])
+			memo[f] = v
+		}
+		return v
+	}
 	for _, sep := range separators(text, scored, fixed) {
 		maxFields := 0
 		per := make([][]fieldSpan, len(scored))
@@ -387,7 +409,7 @@ func detectLayout(text []byte, from int, fixed layoutSpec, nm namer, cfg *Config
 					continue
 				}
 				c.spans[k] = f
-				if fieldReads(text[f.start:f.end]) {
+				if reads(f) {
 					hits++
 					c.reads[k] = true
 				}
@@ -398,7 +420,24 @@ func detectLayout(text []byte, from int, fixed layoutSpec, nm namer, cfg *Config
 	}
 	v := choose(cands, fixed)
 	v.layout.Header = header(text, lines, v.layout, v.score, fixed, nm, cfg)
+	for _, l := range scored {
+		if f, ok := pick(splitFields(text, l.start, l.end, v.layout.Sep, buf[:0]), v.layout.Field); ok && queryContent(string(text[f.start:f.end])) {
+			v.queries = true
+			break
+		}
+	}
 	return v
+}
+
+// singleFields reports whether no sample line has a blank, tab, comma or
+// semicolon after its first character.
+func singleFields(text []byte, lines []listLine) bool {
+	for _, l := range lines {
+		if bytes.IndexAny(text[l.start:l.end], " \t,;") >= 0 {
+			return false
+		}
+	}
+	return true
 }
 
 // separators returns the separators worth trying: the fixed one, or
@@ -430,12 +469,21 @@ func fieldReads(b []byte) bool {
 	if len(b) == 0 || len(b) > 4096 {
 		return false
 	}
+	// The quick tests of plausible on the bytes, before a string is made.
+	if c := b[0] | 0x20; !(c >= 'a' && c <= 'z' || b[0] == '[' || b[0] == '*' || b[0] == '>') {
+		return false
+	}
+	for _, c := range b {
+		if !notationByte[c] {
+			return false
+		}
+	}
 	s := string(b)
 	if !plausible(s) {
 		return false
 	}
 	if queryContent(s) {
-		return hasElementAtom(s) && len(smarts.Read(s).Errors) == 0
+		return hasElementAtom(s) && smarts.Valid(s)
 	}
 	if !organicShape(s) {
 		return false

@@ -24,9 +24,11 @@ const CodeListLayout notation.Code = "host-list-layout"
 // is read as a table, every such column.
 //
 // This is the hot path for files of 100,000 records: the layout is read
-// from the first lines only, and the common layout (notation first,
-// title after a blank) costs one pass with no per-line allocation beyond
-// the occurrence's strings.
+// from the first lines only, the common layout (notation first, title
+// after a blank) costs one pass with no per-line allocation, and the
+// content of each record is looked at for query primitives only when
+// the first lines hold query patterns (a list of structures is not
+// searched for them record by record).
 func findList(src []byte, cfg *Config) []Occurrence {
 	prag := newPragmas(src)
 	fixed, bad := listSpec(src, cfg)
@@ -44,6 +46,7 @@ func findList(src []byte, cfg *Config) []Occurrence {
 	text := string(src)
 	out := make([]Occurrence, 0, bytes.Count(src, []byte{'\n'})+1)
 	first := true
+	queries := 0
 	var fields []fieldSpan
 	for start := skipBOM(src); start < len(src); {
 		line, next := nextLine(src, start)
@@ -69,25 +72,44 @@ func findList(src []byte, cfg *Config) []Occurrence {
 		if !prag.allowed(lineStart) {
 			continue
 		}
-		var o Occurrence
-		var ok bool
 		if lay.Sep == ' ' && lay.Field == 0 && lay.Title == TitleRest {
-			o, ok = plainRecord(text, line, lineStart)
-		} else {
-			fields, o, ok = layoutRecord(text, src, lineStart, lineStart+len(line), lay, fields)
-		}
-		if !ok {
+			// The common layout, written out so that the occurrence is
+			// built once.
+			recEnd, ts, te := splitRecord(line)
+			if recEnd == 0 {
+				continue
+			}
+			o := Occurrence{
+				Text:      text[lineStart : lineStart+recEnd],
+				Span:      notation.Span{Start: lineStart, End: lineStart + recEnd},
+				Kind:      KindList,
+				Construct: ConstructListRecord,
+				Reason:    ReasonPlace,
+				Dialect:   lay.Dialect,
+				m:         identityMap(lineStart, recEnd),
+			}
+			if te > ts {
+				o.Title = text[lineStart+ts : lineStart+te]
+			}
+			if !lay.DialectSet && v.queries && maybeQuery(o.Text) && queryContent(o.Text) {
+				o.Dialect = DialectSMARTS
+				queries++
+			}
+			out = append(out, o)
 			continue
 		}
-		o.Kind, o.Construct, o.Reason = KindList, ConstructListRecord, ReasonPlace
-		if lay.DialectSet {
-			o.Dialect = lay.Dialect
-		} else if queryContent(o.Text) {
+		o := Occurrence{Kind: KindList, Construct: ConstructListRecord, Reason: ReasonPlace, Dialect: lay.Dialect}
+		var ok bool
+		if fields, ok = layoutRecord(&o, text, src, lineStart, lineStart+len(line), lay, fields); !ok {
+			continue
+		}
+		if !lay.DialectSet && v.queries && maybeQuery(o.Text) && queryContent(o.Text) {
 			o.Dialect = DialectSMARTS
+			queries++
 		}
 		out = append(out, o)
 	}
-	if !lay.DialectSet {
+	if !lay.DialectSet && queries > 0 {
 		queryList(out)
 	}
 	switch {
@@ -104,45 +126,44 @@ func layoutNote(span notation.Span, msg string) *notation.Error {
 	return &notation.Error{Span: span, Code: CodeListLayout, Severity: notation.SeverityInformation, Msg: msg}
 }
 
-// plainRecord reads a line of the common layout: the record up to the
-// first blank, the title after it (splitRecord).
-func plainRecord(text string, line []byte, lineStart int) (Occurrence, bool) {
-	recEnd, ts, te := splitRecord(line)
-	if recEnd == 0 {
-		return Occurrence{}, false
+// maybeQuery is the quick test before queryContent: a query pattern has
+// a bracket or one of ~ ! @ , ; & > *, and most records of a list of
+// structures have none but brackets.
+func maybeQuery(s string) bool {
+	for i := 0; i < len(s); i++ {
+		if queryByte[s[i]] {
+			return true
+		}
 	}
-	o := Occurrence{
-		Text: text[lineStart : lineStart+recEnd],
-		Span: notation.Span{Start: lineStart, End: lineStart + recEnd},
-		m:    identityMap(lineStart, recEnd),
-	}
-	if te > ts {
-		o.Title = text[lineStart+ts : lineStart+te]
-	}
-	return o, true
+	return false
 }
 
+var queryByte = func() (t [256]bool) {
+	for _, c := range "[~!@,;&>*" {
+		t[c] = true
+	}
+	return t
+}()
+
 // layoutRecord reads the notation field and title of the line
-// src[start:end] by a layout.
-func layoutRecord(text string, src []byte, start, end int, lay Layout, buf []fieldSpan) ([]fieldSpan, Occurrence, bool) {
+// src[start:end] by a layout into o.
+func layoutRecord(o *Occurrence, text string, src []byte, start, end int, lay Layout, buf []fieldSpan) ([]fieldSpan, bool) {
 	for end > start && isBlank(src[end-1]) {
 		end--
 	}
 	fields := splitFields(src, start, end, lay.Sep, buf[:0])
 	f, ok := pick(fields, lay.Field)
 	if !ok || f.end <= f.start {
-		return fields, Occurrence{}, false
+		return fields, false
 	}
 	if f.quoted && bytes.IndexByte(src[f.start:f.end], '"') >= 0 {
-		return fields, Occurrence{}, false // a doubled quote: no record holds one
+		return fields, false // a doubled quote: no record holds one
 	}
-	o := Occurrence{
-		Text: text[f.start:f.end],
-		Span: notation.Span{Start: f.start, End: f.end},
-		m:    identityMap(f.start, f.end-f.start),
-	}
+	o.Text = text[f.start:f.end]
+	o.Span = notation.Span{Start: f.start, End: f.end}
+	o.m = identityMap(f.start, f.end-f.start)
 	o.Title = layoutTitle(text, src, fields, f, lay, end)
-	return fields, o, true
+	return fields, true
 }
 
 // layoutTitle returns the title a layout puts beside the notation field
@@ -242,7 +263,7 @@ func queryList(out []Occurrence) {
 		return
 	}
 	for i := range out {
-		if out[i].Dialect == DialectSMILES && len(smarts.Read(out[i].Text).Errors) == 0 {
+		if out[i].Dialect == DialectSMILES && smarts.Valid(out[i].Text) {
 			out[i].Dialect = DialectSMARTS
 		}
 	}

@@ -125,6 +125,9 @@ type Occurrence struct {
 	Fixes       [][]Fix
 
 	m offsetMap
+	// group ties a string literal to the literals it must agree with
+	// (code.go, agree).
+	group groupMark
 	// encode writes notation text as the host must hold it (a backslash
 	// doubled inside an escaping string literal); nil writes it verbatim.
 	encode func(string) string

@@ -126,7 +126,7 @@ func tableByContent(src []byte, from int, sep byte, nm namer, cfg *Config) []Occ
 		}
 		var o Occurrence
 		var ok bool
-		fields, o, ok = layoutRecord(text, src, ls, ls+len(line), v.layout, fields)
+		fields, ok = layoutRecord(&o, text, src, ls, ls+len(line), v.layout, fields)
 		if !ok || placeholders[strings.ToLower(o.Text)] {
 			continue
 		}

@@ -29,7 +29,7 @@ func (r *reader) expr(kind exprKind, a *Atom, st *chainState) bool {
 	start := r.pos
 	needTerm := true
 	lastOp := -1
-	for r.pos < r.end {
+	for r.pos < r.end && !r.failed {
 		c := r.text[r.pos]
 		switch {
 		case c == '!':

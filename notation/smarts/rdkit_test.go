@@ -85,3 +85,30 @@ func TestRDKitSMARTS(t *testing.T) {
 	t.Logf("%d shipped patterns (%d accepted by RDKit), %d variants: %d agree, %d differ, %d documented divergences",
 		given, givenOK, variants, agree, differ, len(used))
 }
+
+// TestValidAgreesWithRead checks that the quick test agrees with Read on
+// every pattern of the fixture.
+func TestValidAgreesWithRead(t *testing.T) {
+	f, err := os.Open(smartsFixture)
+	if err != nil {
+		t.Fatalf("open fixture: %v", err)
+	}
+	defer f.Close()
+	sc := bufio.NewScanner(f)
+	sc.Buffer(make([]byte, 1<<20), 1<<20)
+	n := 0
+	for sc.Scan() {
+		line := sc.Text()
+		if line == "" || strings.HasPrefix(line, "#") {
+			continue
+		}
+		pat := strings.Split(line, "\t")[2]
+		if got, want := Valid(pat), len(Read(pat).Errors) == 0; got != want {
+			t.Errorf("Valid(%q) = %v, Read says %v", pat, got, want)
+		}
+		n++
+	}
+	if n < 1000 {
+		t.Fatalf("only %d patterns", n)
+	}
+}

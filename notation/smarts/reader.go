@@ -27,6 +27,16 @@ func Read(text string) *Pattern {
 	return r.p
 }
 
+// Valid reports whether text reads as a pattern without any error, as
+// len(Read(text).Errors) == 0 does, but stops at the first error and
+// builds no messages: the finder asks it of many strings that are not
+// patterns.
+func Valid(text string) bool {
+	r := &reader{text: text, p: &Pattern{Text: text}, quick: true}
+	r.read()
+	return !r.failed
+}
+
 // reader is the state of one Read.
 type reader struct {
 	text    string
@@ -36,9 +46,16 @@ type reader struct {
 	depth   int // nesting of recursive patterns
 	role    notation.Role
 	dropped bool
+	// quick: stop at the first error without recording it (Valid);
+	// failed says there was one.
+	quick, failed bool
 }
 
 func (r *reader) errorf(span notation.Span, code notation.Code, format string, args ...any) {
+	if r.quick {
+		r.failed = true
+		return
+	}
 	if len(r.p.Errors) >= maxErrors {
 		if !r.dropped {
 			r.dropped = true
@@ -165,7 +182,7 @@ func (r *reader) chain(dst *Pattern, part bool) {
 	st := &chainState{dst: dst, prev: -1, part: part}
 	st.noBond()
 	start := r.pos
-	for r.pos < r.end {
+	for r.pos < r.end && !r.failed {
 		c := r.text[r.pos]
 		switch {
 		case c == '[':

@@ -131,16 +131,16 @@ func merge(a, b wants) wants {
 
 // codeFinder applies the rules to one source text.
 type codeFinder struct {
-	src  []byte
-	lang *codeLang
-	cfg  *Config
-	nm   namer
-	prag *pragmas
-	out  []Occurrence
+	src    []byte
+	lang   *codeLang
+	cfg    *Config
+	nm     namer
+	prag   *pragmas
+	out    []Occurrence
 	frames int // frames opened, for their ids
 	// inner: the finder reads the code of doctest lines inside a
 	// docstring, and does not look for docstrings again.
-	inner bool
+	inner    bool
 	doctests int // doctests read, to keep their groups apart
 	// keys interns the group keys, so that an occurrence carries a
 	// small number rather than the key.
@@ -162,8 +162,8 @@ type pendingLiteral struct {
 // groupMark ties an occurrence to the literals it must agree with.
 type groupMark struct {
 	key       int32 // an interned groupKey (codeFinder.intern); 0 for none
-	byContent bool // SMARTS by its content
-	firm      bool // its place fixes the dialect (MolFromSmiles(...))
+	byContent bool  // SMARTS by its content
+	firm      bool  // its place fixes the dialect (MolFromSmiles(...))
 }
 
 // findCode finds notation in source code.

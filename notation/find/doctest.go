@@ -88,4 +88,3 @@ func doctestCode(text []byte) []byte {
 	}
 	return code
 }
-

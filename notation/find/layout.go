@@ -192,9 +192,9 @@ func defaultTitle(sep byte, field int) int {
 type listLine struct{ start, end int }
 
 // isComment reports whether a line (leading blanks skipped) is a comment
-// of a list: '#' (which no record starts with) or '//'.
+// of a list: '#', ';' (which no record starts with) or '//'.
 func isComment(line []byte) bool {
-	return len(line) > 0 && line[0] == '#' || len(line) > 1 && line[0] == '/' && line[1] == '/'
+	return len(line) > 0 && (line[0] == '#' || line[0] == ';') || len(line) > 1 && line[0] == '/' && line[1] == '/'
 }
 
 // dataLines returns up to max lines of text that are neither blank nor
@@ -348,6 +348,9 @@ type layoutVerdict struct {
 	// queries: a sample line's notation field is a query pattern by its
 	// content, so every record's content is looked at.
 	queries bool
+	// lenient: the layout is a guess on little evidence; only the lines
+	// whose field reads as notation are records.
+	lenient bool
 }
 
 // detectLayout reads the layout of text from its first data lines.
@@ -537,7 +540,9 @@ func choose(cands []candidate, fixed layoutSpec) layoutVerdict {
 		return layoutVerdict{layout: chosen, score: b.score}
 	case b.score >= 0.5 && second <= b.score/3:
 		return layoutVerdict{layout: chosen, score: b.score}
-	case b.score >= 0.3 && d <= 0.05 && second <= b.score/3:
+	case first >= 0 && !sameColumn(b, cands[first]) && b.score >= 0.3 && d <= 0.05 && second <= b.score/3:
+		// A field that reads on a good share of the lines where the
+		// first field never does (a column of partly broken records).
 		return layoutVerdict{layout: chosen, score: b.score}
 	}
 	if second > b.score/3 && b.score >= 0.5 {
@@ -556,8 +561,25 @@ func choose(cands []candidate, fixed layoutSpec) layoutVerdict {
 		// Hardly any line has a field that reads: not a record list.
 		return layoutVerdict{layout: def, none: true}
 	}
-	why := fmt.Sprintf("field %s reads as notation on only %d%% of the lines; the first field is read", b.name(), int(b.score*100+0.5))
-	return layoutVerdict{layout: def, ambiguous: why, score: d}
+	// Few lines read, in whichever field: a file that is mostly
+	// something else. The best field is read on the lines where it
+	// reads, and nowhere else, so that the rest is not reported as
+	// broken notation.
+	l := fixed.apply(Layout{Sep: b.sep, Field: b.pos, Title: defaultTitle(b.sep, b.pos)})
+	why := fmt.Sprintf("field %s reads as notation on only %d%% of the lines, so only those lines are read", b.name(), int(b.score*100+0.5))
+	return layoutVerdict{layout: l, ambiguous: why, score: b.score, lenient: true}
+}
+
+// sameColumn reports whether two candidates pick the same bytes on most
+// sample lines (a field first split by tabs or by blanks).
+func sameColumn(a, b candidate) bool {
+	same := 0
+	for k := range a.spans {
+		if a.spans[k] == b.spans[k] {
+			same++
+		}
+	}
+	return same*2 > len(a.spans)
 }
 
 // earliest returns the candidate reading well (at least half as often as

@@ -72,7 +72,7 @@ func findList(src []byte, cfg *Config) []Occurrence {
 		if !prag.allowed(lineStart) {
 			continue
 		}
-		if lay.Sep == ' ' && lay.Field == 0 && lay.Title == TitleRest {
+		if lay.Sep == ' ' && lay.Field == 0 && lay.Title == TitleRest && !v.lenient {
 			// The common layout, written out so that the occurrence is
 			// built once.
 			recEnd, ts, te := splitRecord(line)
@@ -101,6 +101,9 @@ func findList(src []byte, cfg *Config) []Occurrence {
 		o := Occurrence{Kind: KindList, Construct: ConstructListRecord, Reason: ReasonPlace, Dialect: lay.Dialect}
 		var ok bool
 		if fields, ok = layoutRecord(&o, text, src, lineStart, lineStart+len(line), lay, fields); !ok {
+			continue
+		}
+		if v.lenient && !fieldReads(src[o.Span.Start:o.Span.End]) {
 			continue
 		}
 		if !lay.DialectSet && v.queries && maybeQuery(o.Text) && queryContent(o.Text) {

@@ -325,8 +325,10 @@ func (r *reader) openBranch(st *chainState) {
 	}
 	defer func() { st.opened = true }()
 	if st.prev < 0 {
-		if st.part && !st.component && st.bond.Start < 0 {
-			// A component-level group "(C.C)" of a reaction part.
+		if !st.component && st.bond.Start < 0 && r.depth == 0 {
+			// A component-level group "(C.C)" (Daylight SMARTS theory
+			// manual, "Component-level grouping"), in a reaction part
+			// or a pattern of its own.
 			st.stack = append(st.stack, branch{atom: -1, pos: start, atoms: st.atoms})
 			return
 		}

@@ -43,6 +43,7 @@ func TestReadValid(t *testing.T) {
 		{"reaction queries", "[C:1]=!@[C:2]>>[C:1]*.*[C:2]", 6, 3},
 		{"reaction queries, component grouping", "([C:1].[C:2])>>[C:1][C:2]", 4, 1},
 		{"reaction queries, empty agents", "C>>", 1, 0},
+		{"component-level grouping (not read by RDKit 2022.09 outside reactions)", "([-1,-2,-3]).([+1,+2,+3])", 2, 0},
 		{"RDKit extension: ranges", "[D{2-3}]", 1, 0},
 		{"RDKit extension: hybridization", "[^2;C]", 1, 0},
 		{"RDKit extension: dative bond", "[N]<-[Cu]", 2, 1},

@@ -21,7 +21,7 @@ var rdkitDivergences = map[string]string{
 	// FragmentDescriptors.csv line 61 without its opening quote.
 	// Functional_Group_Hierarchy.txt line 22 with a dot inserted.
 	"[$(S-!@c)](=O)(=O).(Cl)": "component-level grouping, (Cl) as a component of its own, is SMARTS by the Daylight SMARTS theory manual; RDKit 2022.09 reads it only in reactions, Open Babel's data files use it in patterns (SMARTS_InteLigand.txt, Salt)",
-	`F or I or Cl or Br"`: "RDKit reads a pattern up to the first blank and drops the rest, as its SMILES reader drops a title; the finder splits records from titles before reading, so a blank that reaches Read is inside the pattern and an error",
+	`F or I or Cl or Br"`:     "RDKit reads a pattern up to the first blank and drops the rest, as its SMILES reader drops a title; the finder splits records from titles before reading, so a blank that reaches Read is inside the pattern and an error",
 }
 
 // TestRDKitSMARTS reads every pattern of the fixture and compares

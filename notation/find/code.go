@@ -153,10 +153,11 @@ type codeFinder struct {
 
 // pendingLiteral is a literal kept for agree.
 type pendingLiteral struct {
-	lit  *literal
-	d    *decoded
-	m    offsetMap
-	mark groupMark
+	lit      *literal
+	d        *decoded
+	m        offsetMap
+	from, to int
+	mark     groupMark
 }
 
 // groupMark ties an occurrence to the literals it must agree with.
@@ -429,7 +430,7 @@ func (cf *codeFinder) agree() {
 	for _, p := range cf.pending {
 		if query[p.mark.key] {
 			m := p.m
-			cf.emit(p.lit, p.d, &m, 0, len(p.d.text), "", ReasonGuess, DialectSMARTS, p.mark)
+			cf.emit(p.lit, p.d, &m, p.from, p.to, "", ReasonGuess, DialectSMARTS, p.mark)
 			added = true
 		}
 	}
@@ -480,18 +481,18 @@ func (cf *codeFinder) literal(t token, f *frame) {
 		cf.templateLiteral(lit, w, reason, mark)
 		return
 	}
-	if !w.named() && cf.lang.kind == KindPython && !cf.inner && docTests(cf.src, lit) {
+	if !w.named() && !noGuess && cf.lang.kind == KindPython && !cf.inner && docString(cf.src, lit) {
 		cf.doctest(lit)
 		return
 	}
-	pend := mark.key != 0 && !w.named() && !noGuess && mayKeep(cf.src, lit)
+	pend := mark.key != 0 && !noGuess && mayKeep(cf.src, lit)
 	if !w.named() && (!w.guess || !mayGuess(cf.src, lit)) && !pend {
 		return
 	}
 	d := &decoded{}
 	m := cf.decode(lit, d)
 	text := string(d.text)
-	if pend && (!w.guess || !mayGuess(cf.src, lit)) {
+	if pend && !w.named() && (!w.guess || !mayGuess(cf.src, lit)) {
 		cf.keep(lit, d, m, text, mark)
 		return
 	}
@@ -553,11 +554,21 @@ func (cf *codeFinder) keep(lit *literal, d *decoded, m offsetMap, text string, m
 	// Not taken as notation, a query pattern of a group has a bracket
 	// atom, an aromatic atom, a wildcard or a bond query ('c[SH]',
 	// '[CH2]=*'); anything else is not worth reading.
-	if !strings.ContainsAny(text, "[*~@cnos") {
+	if !strings.ContainsAny(text, "[*~@cnos") || len(lit.pieces) != 1 || len(d.issues) > 0 {
 		return
 	}
-	if len(lit.pieces) == 1 && plausible(text) && len(d.issues) == 0 && readsAsQuery(text) {
-		cf.pending = append(cf.pending, pendingLiteral{lit: lit, d: d, m: m, mark: mark})
+	parts := [][2]int{{0, len(text)}}
+	if strings.ContainsAny(text, ",; ") {
+		// "[o:1],[s:1]": patterns one by one.
+		parts = splitParts(text)
+	}
+	for _, p := range parts {
+		if s := text[p[0]:p[1]]; !plausible(s) || !readsAsQuery(s) {
+			return
+		}
+	}
+	for _, p := range parts {
+		cf.pending = append(cf.pending, pendingLiteral{lit: lit, d: d, m: m, from: p[0], to: p[1], mark: mark})
 	}
 }
 

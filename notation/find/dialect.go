@@ -69,6 +69,22 @@ func decide(text string, w wants) []found {
 	if !w.named() && !w.guess {
 		return nil
 	}
+	if n := len(text); n > 0 && (isBlank(text[0]) || isBlank(text[n-1])) {
+		// Blanks around a record ("[C;H2] ") are no part of it.
+		from, to := 0, n
+		for from < to && isBlank(text[from]) {
+			from++
+		}
+		for to > from && isBlank(text[to-1]) {
+			to--
+		}
+		out := decide(text[from:to], w)
+		for i := range out {
+			out[i].from += from
+			out[i].to += from
+		}
+		return out
+	}
 	if strings.IndexAny(text, ",; \t") >= 0 {
 		if parts := splitParts(text); len(parts) > 1 {
 			if out, ok := decideParts(text, parts, w); ok {
@@ -237,10 +253,18 @@ func readsAsQuery(s string) bool {
 // hasElementAtom reports whether s holds an element: an organic-subset
 // letter outside brackets or an element or atomic number inside.
 func hasElementAtom(s string) bool {
+	depth := 0
 	for i := 0; i < len(s); i++ {
-		switch s[i] {
-		case 'B', 'C', 'N', 'O', 'P', 'S', 'F', 'I', 'b', 'c', 'n', 'o', 'p', 's', '#':
+		switch c := s[i]; {
+		case c == '[':
+			depth++
+		case c == ']':
+			depth--
+		case c == 'B', c == 'C', c == 'N', c == 'O', c == 'P', c == 'S', c == 'F', c == 'I',
+			c == 'b', c == 'c', c == 'n', c == 'o', c == 'p', c == 's', c == '#':
 			return true
+		case depth > 0 && c >= 'A' && c <= 'Z':
+			return true // an element in brackets: [H], [Li], [Se]
 		}
 	}
 	return false

@@ -1,6 +1,9 @@
 package find
 
-import "bytes"
+import (
+	"bytes"
+	"sort"
+)
 
 // Doctests (the Python standard library's doctest module): lines of a
 // docstring that start, after blanks, with the prompt ">>> " hold code,
@@ -8,15 +11,16 @@ import "bytes"
 // is Python like any other: Chem.MolFromSmiles('CCO') there names its
 // argument as it would in the module.
 
-// docTests reports whether a literal may hold doctest lines.
-func docTests(src []byte, lit *literal) bool {
-	for k := range lit.pieces {
-		c := lit.pieces[k].content
-		if bytes.Contains(src[c.Start:c.End], []byte(">>>")) {
-			return true
-		}
+// docString reports whether an unnamed literal is worth reading as a
+// docstring: one triple-quoted piece with doctest lines or a run of
+// notation bytes with a mark, digit or bracket in it (evidenceRun), the
+// only kind of token its prose could hold unmistakable notation in.
+func docString(src []byte, lit *literal) bool {
+	if len(lit.pieces) != 1 || len(lit.pieces[0].quote) != 3 || lit.pieces[0].template {
+		return false
 	}
-	return false
+	c := src[lit.pieces[0].content.Start:lit.pieces[0].content.End]
+	return bytes.Contains(c, []byte(">>>")) || evidenceRun(c)
 }
 
 // doctest reads the code of the doctest lines of a literal: the literal
@@ -25,9 +29,16 @@ func docTests(src []byte, lit *literal) bool {
 // result is searched as Python code, and what is found is lifted through
 // the literal's map to the file.
 func (cf *codeFinder) doctest(lit *literal) {
+	n0 := len(cf.out)
+	defer func() {
+		// Prose and code were searched apart: host order again.
+		added := cf.out[n0:]
+		sort.SliceStable(added, func(i, j int) bool { return added[i].Span.Start < added[j].Span.Start })
+	}()
 	d := &decoded{}
 	m := cf.decode(lit, d)
 	code := doctestCode(d.text)
+	cf.prose(lit, d, &m, code)
 	if code == nil {
 		return
 	}
@@ -54,6 +65,38 @@ func (cf *codeFinder) doctest(lit *literal) {
 			o.group.key += base
 		}
 		cf.out = append(cf.out, o)
+	}
+}
+
+// prose takes the unmistakable notation of the lines of a docstring that
+// are no doctest code (its prose, and the expected output of doctests,
+// where results are often notation), token by token as templates are
+// read: a token is a run of text between blanks, with a trailing '.',
+// ',', ';' or ':' of the sentence dropped.
+func (cf *codeFinder) prose(lit *literal, d *decoded, m *offsetMap, code []byte) {
+	text := d.text
+	for start := 0; start < len(text); {
+		for start < len(text) && isTokenBlank(text[start]) {
+			start++
+		}
+		end := start
+		for end < len(text) && !isTokenBlank(text[end]) {
+			end++
+		}
+		tok := end
+		for tok > start && (text[tok-1] == '.' || text[tok-1] == ',' || text[tok-1] == ';' || text[tok-1] == ':') {
+			tok--
+		}
+		if tok > start && (code == nil || code[start] == ' ') && cf.prag.allowed(m.host(start)) {
+			s := string(text[start:tok])
+			switch {
+			case unmistakable(s):
+				cf.emit(lit, d, m, start, tok, "", ReasonGuess, DialectSMILES, groupMark{})
+			case queryContent(s) && guessableQuery(s):
+				cf.emit(lit, d, m, start, tok, "", ReasonGuess, DialectSMARTS, groupMark{})
+			}
+		}
+		start = end
 	}
 }
 

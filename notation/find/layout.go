@@ -351,6 +351,9 @@ type layoutVerdict struct {
 	// lenient: the layout is a guess on little evidence; only the lines
 	// whose field reads as notation are records.
 	lenient bool
+	// fragments: a good share of the sample records read only as
+	// patterns (fragmentPattern); such records are patterns.
+	fragments bool
 }
 
 // detectLayout reads the layout of text from its first data lines.
@@ -423,12 +426,23 @@ func detectLayout(text []byte, from int, fixed layoutSpec, nm namer, cfg *Config
 	}
 	v := choose(cands, fixed)
 	v.layout.Header = header(text, lines, v.layout, v.score, fixed, nm, cfg)
+	patterns := 0
 	for _, l := range scored {
-		if f, ok := pick(splitFields(text, l.start, l.end, v.layout.Sep, buf[:0]), v.layout.Field); ok && queryContent(string(text[f.start:f.end])) {
+		f, ok := pick(splitFields(text, l.start, l.end, v.layout.Sep, buf[:0]), v.layout.Field)
+		if !ok {
+			continue
+		}
+		s := string(text[f.start:f.end])
+		if queryContent(s) {
 			v.queries = true
-			break
+		}
+		if !v.queries && fragmentPattern(s) && !(organicShape(s) && readsAsNotation(s)) {
+			patterns++
 		}
 	}
+	// A list where one record in ten reads only as a pattern is a list of
+	// patterns: its records are looked at one by one.
+	v.fragments = patterns*10 >= len(scored) && patterns > 0
 	return v
 }
 
@@ -488,10 +502,18 @@ func fieldReads(b []byte) bool {
 	if queryContent(s) {
 		return hasElementAtom(s) && smarts.Valid(s)
 	}
-	if !organicShape(s) {
-		return false
+	if organicShape(s) && readsAsNotation(s) {
+		return true
 	}
-	return readsAsNotation(s)
+	return fragmentPattern(s)
+}
+
+// fragmentPattern reports a record that reads as a pattern but not as
+// notation: a fragment with aromatic atoms outside a ring or odd
+// hydrogen counts (BrCc(c)c, C(C=O)[nH2]), as torsion and fragment
+// libraries write them. Letters alone (SP3-SP3) do not count.
+func fragmentPattern(s string) bool {
+	return strings.ContainsAny(s, "[cnops") && hasElementAtom(s) && smarts.Valid(s)
 }
 
 // choose picks the reading. The notation field is the one that reads as

@@ -91,7 +91,7 @@ func findList(src []byte, cfg *Config) []Occurrence {
 			if te > ts {
 				o.Title = text[lineStart+ts : lineStart+te]
 			}
-			if !lay.DialectSet && v.queries && maybeQuery(o.Text) && queryContent(o.Text) {
+			if !lay.DialectSet && recordIsPattern(o.Text, v) {
 				o.Dialect = DialectSMARTS
 				queries++
 			}
@@ -106,7 +106,7 @@ func findList(src []byte, cfg *Config) []Occurrence {
 		if v.lenient && !fieldReads(src[o.Span.Start:o.Span.End]) {
 			continue
 		}
-		if !lay.DialectSet && v.queries && maybeQuery(o.Text) && queryContent(o.Text) {
+		if !lay.DialectSet && recordIsPattern(o.Text, v) {
 			o.Dialect = DialectSMARTS
 			queries++
 		}
@@ -127,6 +127,17 @@ func findList(src []byte, cfg *Config) []Occurrence {
 
 func layoutNote(span notation.Span, msg string) *notation.Error {
 	return &notation.Error{Span: span, Code: CodeListLayout, Severity: notation.SeverityInformation, Msg: msg}
+}
+
+// recordIsPattern says whether a list record is a query pattern by its
+// content: query primitives, looked for only when the first lines hold
+// patterns, or, in a list of fragments, a record that reads as a
+// pattern and not as notation.
+func recordIsPattern(s string, v layoutVerdict) bool {
+	if v.queries && maybeQuery(s) && queryContent(s) {
+		return true
+	}
+	return v.fragments && fragmentPattern(s) && !readsAsNotation(s)
 }
 
 // maybeQuery is the quick test before queryContent: a query pattern has
@@ -197,10 +208,16 @@ func layoutTitle(text string, src []byte, fields []fieldSpan, f fieldSpan, lay L
 			next++
 		}
 		_, ts, te := splitRecord(src[f.start:end])
+		rest := trim(next, end)
 		if lay.Sep == ' ' && !f.quoted {
-			return text[f.start+ts : f.start+te]
+			rest = text[f.start+ts : f.start+te]
 		}
-		return trim(next, end)
+		if rest == "" && k > 0 {
+			// Nothing after the record: the name before it
+			// ("Primary_carbon: [CX4H3][#6]").
+			return trim(fields[0].start, fields[k-1].end)
+		}
+		return rest
 	case TitleBefore:
 		if k <= 0 {
 			return ""

@@ -72,8 +72,8 @@ var aboutWords = map[string]bool{
 // queryWords name query notation, SMARTS: a value so named is a query
 // pattern (MolFromSmarts("[#6]"), patt_smarts = "..."); qmol is the
 // query molecule constructor of RDKit's JavaScript build, get_qmol (from
-// memory).
-var queryWords = map[string]bool{"smarts": true, "smirks": true, "smart": true, "qmol": true}
+// memory); sma and smas abbreviate SMARTS as smi and smis do SMILES.
+var queryWords = map[string]bool{"smarts": true, "smirks": true, "smart": true, "qmol": true, "sma": true, "smas": true}
 
 // patternWords name what is often, not always, a query pattern: a text
 // so named is taken as SMARTS when it reads as one (common practice in
@@ -102,7 +102,7 @@ func mentions(name string) bool {
 		}
 		w := name[i:min(i+8, len(name))]
 		if hasFold(w, "smi") || hasFold(w, "rxn") || hasFold(w, "reaction") || hasFold(w, "ism") ||
-			hasFold(w, "smarts") || hasFold(w, "smirks") || hasFold(w, "smart") || hasFold(w, "patt") ||
+			hasFold(w, "sma") || hasFold(w, "smirks") || hasFold(w, "patt") ||
 			hasFold(w, "quer") || hasFold(w, "qmol") || hasFold(w, "templ") || hasFold(w, "tmpl") ||
 			hasFold(w, "rule") || hasFold(w, "filter") {
 			return true

@@ -24,6 +24,7 @@ import fixturelib
 
 VALENCE = "OpenSMILES 3.1.5 organic subset valence"
 RING = "OpenSMILES 2 grammar, ring bond after a branch"
+AROMATIC = "OpenSMILES 3.5 aromaticity, direction mark between aromatic atoms"
 
 # (section, record, what it is). Molecules are real; the nitro and
 # N-oxide writings are common practice.
@@ -52,6 +53,9 @@ RECORDS = [
     (RING, "N[C@@](F)1CCOC1", "3-fluoro-oxolan-3-amine, digit after a branch"),
     (RING, "N[C@@]1(F)CCOC1", "the same digit before the branch"),
     (RING, "C[C@@H](O)1.[C@H]1(N)F", "two stereocentres joined by a ring digit"),
+    (AROMATIC, "c1ccc/cc1", "a direction mark on a bond between aromatic atoms"),
+    (AROMATIC, "c1cc/cc/c1", "direction marks on two bonds of an aromatic ring"),
+    (AROMATIC, "O=C1C=CC(=C/c2ccccc2)/c2ccccc12", "a direction mark from a ring double bond into an aromatic ring"),
 ]
 
 COLUMNS = [

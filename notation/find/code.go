@@ -142,9 +142,12 @@ type codeFinder struct {
 	// docstring, and does not look for docstrings again.
 	inner    bool
 	doctests int // doctests read, to keep their groups apart
+	rs []found // reused by decideInto
 	// keys interns the group keys, so that an occurrence carries a
-	// small number rather than the key.
-	keys map[groupKey]int32
+	// small number rather than the key; curKey is the key of the literal
+	// being decided (groupMark.key currentGroup until interned).
+	keys   map[groupKey]int32
+	curKey groupKey
 	// pending are literals of a group that were not taken but read as
 	// query patterns: taken after all if their group turns out to hold
 	// query patterns (agree).
@@ -375,6 +378,19 @@ type groupKey struct {
 	arg    int
 }
 
+// currentGroup stands in a groupMark for the group of the literal being
+// decided, before it is interned.
+const currentGroup = -1
+
+// resolve interns the group of a mark that stands for the current
+// literal's.
+func (cf *codeFinder) resolve(m groupMark) groupMark {
+	if m.key == currentGroup {
+		m.key = cf.intern(cf.curKey)
+	}
+	return m
+}
+
 // intern returns the number of a group key, 0 for no group.
 func (cf *codeFinder) intern(k groupKey) int32 {
 	if k == (groupKey{}) {
@@ -473,7 +489,12 @@ func (cf *codeFinder) literal(t token, f *frame) {
 	if cf.prag.forced(t.span.Start) {
 		w, reason = wants{smiles: firmly}, ReasonPragma
 	}
-	mark := groupMark{key: cf.intern(group(f)), firm: w.smiles == firmly || w.smarts == firmly}
+	// The group is interned only when the literal yields something.
+	cf.curKey = group(f)
+	mark := groupMark{firm: w.smiles == firmly || w.smarts == firmly}
+	if cf.curKey != (groupKey{}) {
+		mark.key = currentGroup
+	}
 	if !w.named() && !noGuess {
 		w.guess = true
 	}
@@ -513,7 +534,8 @@ func (cf *codeFinder) literal(t token, f *frame) {
 	if !w.named() {
 		reason = ReasonGuess
 	}
-	rs := decide(text, w)
+	rs := decideInto(cf.rs[:0], text, w)
+	cf.rs = rs
 	for _, r := range rs {
 		mk := mark
 		mk.byContent = r.byContent
@@ -567,8 +589,10 @@ func (cf *codeFinder) keep(lit *literal, d *decoded, m offsetMap, text string, m
 			return
 		}
 	}
+	kept := new(decoded)
+	*kept = *d
 	for _, p := range parts {
-		cf.pending = append(cf.pending, pendingLiteral{lit: lit, d: d, m: m, from: p[0], to: p[1], mark: mark})
+		cf.pending = append(cf.pending, pendingLiteral{lit: lit, d: kept, m: m, from: p[0], to: p[1], mark: cf.resolve(mark)})
 	}
 }
 
@@ -647,6 +671,7 @@ type litRecord struct {
 // blank or comments.
 func (cf *codeFinder) layoutRecords(lines []byte, text string, lay Layout, w wants, reason Reason) (out []litRecord, n int) {
 	first := true
+	linesText := string(lines)
 	var fields []fieldSpan
 	for start := 0; start < len(lines); {
 		line, next := nextLine(lines, start)
@@ -667,7 +692,7 @@ func (cf *codeFinder) layoutRecords(lines []byte, text string, lay Layout, w wan
 		}
 		var o Occurrence
 		var ok bool
-		fields, ok = layoutRecord(&o, string(lines), lines, ls, ls+len(line), lay, fields)
+		fields, ok = layoutRecord(&o, linesText, lines, ls, ls+len(line), lay, fields)
 		if !ok {
 			continue
 		}
@@ -761,7 +786,7 @@ func (cf *codeFinder) emit(lit *literal, d *decoded, m *offsetMap, from, to int,
 		}
 		o.addDiag(e, fixes)
 	}
-	o.group = mark
+	o.group = cf.resolve(mark)
 	cf.out = append(cf.out, o)
 }
 

@@ -65,9 +65,13 @@ type found struct {
 // where commas and semicolons are SMARTS operators) is split only when
 // every part is a record on its own; a firmly placed text that does not
 // split is taken whole, as its constructor will read it.
-func decide(text string, w wants) []found {
+func decide(text string, w wants) []found { return decideInto(nil, text, w) }
+
+// decideInto is decide appending to buf, so that a caller deciding about
+// many texts reuses one slice.
+func decideInto(buf []found, text string, w wants) []found {
 	if !w.named() && !w.guess {
-		return nil
+		return buf
 	}
 	if n := len(text); n > 0 && (isBlank(text[0]) || isBlank(text[n-1])) {
 		// Blanks around a record ("[C;H2] ") are no part of it.
@@ -78,8 +82,9 @@ func decide(text string, w wants) []found {
 		for to > from && isBlank(text[to-1]) {
 			to--
 		}
-		out := decide(text[from:to], w)
-		for i := range out {
+		n0 := len(buf)
+		out := decideInto(buf, text[from:to], w)
+		for i := n0; i < len(out); i++ {
 			out[i].from += from
 			out[i].to += from
 		}
@@ -88,18 +93,18 @@ func decide(text string, w wants) []found {
 	if strings.IndexAny(text, ",; \t") >= 0 {
 		if parts := splitParts(text); len(parts) > 1 {
 			if out, ok := decideParts(text, parts, w); ok {
-				return out
+				return append(buf, out...)
 			}
 			if w.smiles < firmly && w.smarts < firmly {
-				return nil
+				return buf
 			}
 		}
 	}
 	d, by, ok := decideOne(text, w, false)
 	if !ok {
-		return nil
+		return buf
 	}
-	return []found{{from: 0, to: len(text), dialect: d, byContent: by}}
+	return append(buf, found{from: 0, to: len(text), dialect: d, byContent: by})
 }
 
 // decideParts decides about a text holding separators: ok when it

@@ -278,7 +278,7 @@ var codeCatalogue = []codeDoc{
 	{
 		Code: find.CodeListLayout, Origin: originFinder,
 		Short:   "The layout of a record list was not clear (information).",
-		Full:    "A record list may hold the notation in any field: first or last, after an index, between tabs, commas or semicolons, under a header. Stereoline reads the layout of each list from its content: the field that reads as notation while the others do not. When two fields read as notation (two structure columns, or names that spell structures), or none clearly does, it reads the first field, as the specification does, and says so once for the file, at its first record. The code also reports a layout pragma it could not read.",
+		Full:    "A record list may hold the notation in any field: first or last, after an index, between tabs, commas or semicolons, under a header. Stereoline reads the layout of each list from its content: the field that reads as notation while the others do not. When two fields read as notation (a pattern column beside an example column, or names that spell structures) it reads the earlier one; when a field reads as notation on only some lines it reads those lines only; either way it says so once for the file, at its first record. The code also reports a layout pragma it could not read.",
 		Help:    "Fix the layout with a comment line such as '# stereoline: layout field=2 sep=tab header' in the file, or with the layouts setting of .stereoline.json for a file pattern.",
 		Example: codeExample{File: "example.smi", Text: "CCO CCN\nCCC CCCl\nCO CN\n"},
 	},

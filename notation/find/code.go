@@ -141,8 +141,8 @@ type codeFinder struct {
 	// inner: the finder reads the code of doctest lines inside a
 	// docstring, and does not look for docstrings again.
 	inner    bool
-	doctests int // doctests read, to keep their groups apart
-	rs []found // reused by decideInto
+	doctests int     // doctests read, to keep their groups apart
+	rs       []found // reused by decideInto
 	// keys interns the group keys, so that an occurrence carries a
 	// small number rather than the key; curKey is the key of the literal
 	// being decided (groupMark.key currentGroup until interned).

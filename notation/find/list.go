@@ -167,6 +167,16 @@ func layoutRecord(o *Occurrence, text string, src []byte, start, end int, lay La
 	}
 	fields := splitFields(src, start, end, lay.Sep, buf[:0])
 	f, ok := pick(fields, lay.Field)
+	if ok && f.end <= f.start && lay.Field >= 0 {
+		// An empty field where tabs align the columns ("-X\t\t*-[#9]"):
+		// the next field that is not empty.
+		for k := lay.Field + 1; k < len(fields); k++ {
+			if fields[k].end > fields[k].start {
+				f = fields[k]
+				break
+			}
+		}
+	}
 	if !ok || f.end <= f.start {
 		return fields, false
 	}

@@ -97,6 +97,10 @@ func TestCodeRules(t *testing.T) {
 		// Doctest lines of a docstring are code.
 		{KindPython, "def f():\n    \"\"\"Reads.\n\n    >>> m = Chem.MolFromSmiles('CC(=O)O')\n    >>> smiles = ['CCO',\n    ...           'c1ccccc1']\n    3\n    \"\"\"\n", []string{"CC(=O)O", "CCO", "c1ccccc1"}},
 		{KindList, "\ufeffF/C=C/F trans\r\nCCO\r\n\r\n", []string{"F/C=C/F", "CCO"}},
+		// Tabs aligning columns leave empty fields (FunctionalGroups.txt
+		// of rdkit-data writes its lines so).
+		{KindList, "-NC(=O)CH3\t*-[N;D2]-[C;D3](=O)-[C;D1;H3]\tmethyl amide\n-X\t\t*-[#9,#17,#35,#53]\thalogens\n-C#N\t*-[C;D2]#[N;D1]\tcyano\n",
+			[]string{"q:*-[N;D2]-[C;D3](=O)-[C;D1;H3]", "q:*-[#9,#17,#35,#53]", "q:*-[C;D2]#[N;D1]"}},
 		{KindCSV, "\ufeffSMILES;Name\r\nCCO;ethanol\r\n", []string{"CCO"}},
 		{KindTSV, "name\tsmiles\tnote\nethanol\tCCO\tx\n", []string{"CCO"}},
 	}

@@ -142,9 +142,10 @@ func TestBadInitializationOptions(t *testing.T) {
 	}
 }
 
-// The finder's settings reach it through the server: a configured CSV
-// column is read although its header names no structure, and detection
-// "names" stops the guessing that finds unnamed inline code in Markdown.
+// The finder's settings reach it through the server: a CSV column whose
+// header names no structure is read by its content, or because it is
+// configured, and detection "names" stops the guessing by content, in
+// tables as in the unnamed inline code of Markdown.
 func TestFinderSettings(t *testing.T) {
 	csv := "id,compound\r\n1,C[C@H](C)C\r\n"
 	md := "Marked `C[C@H](C)C` by mistake.\n"
@@ -153,8 +154,8 @@ func TestFinderSettings(t *testing.T) {
 		settings map[string]any
 		csv, md  int // diagnostics expected
 	}{
-		{"defaults", map[string]any{}, 0, 1},
-		{"a configured column", map[string]any{"columns": []string{"compound"}}, 1, 1},
+		{"defaults", map[string]any{}, 1, 1},
+		{"a configured column", map[string]any{"columns": []string{"compound"}, "detection": "names"}, 1, 0},
 		{"names only", map[string]any{"detection": "names"}, 0, 0},
 	}
 	for _, tt := range tests {

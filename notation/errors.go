@@ -32,6 +32,10 @@ const (
 	CodeExtensionIndex    Code = "extension-index"    // an atom, bond or component index beyond the record
 	CodeGroupOverlap      Code = "group-overlap"      // an atom listed in two stereo groups, or twice in one
 	CodeExtensionKept     Code = "extension-kept"     // fields kept as written but not interpreted (information)
+	// CodeRingAfterBranch is a warning: ring-closure digits written after
+	// a branch, outside the OpenSMILES grammar (branched_atom ::= atom
+	// ringbond* branch*) but accepted by widely used readers.
+	CodeRingAfterBranch Code = "ring-after-branch"
 )
 
 // Severity orders diagnostics from most to least urgent. The zero value is

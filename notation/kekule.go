@@ -28,35 +28,26 @@ func kekulize(m *Molecule, inRing []bool) []bool {
 	if !any {
 		return pi
 	}
-	// Which aromatic bonds belong to the aromatic system.
-	arom := make([]bool, len(m.Bonds))
-	for bi := range m.Bonds {
-		b := &m.Bonds[bi]
-		if b.Order == OrderAromatic && m.Atoms[b.Begin].Aromatic && m.Atoms[b.End].Aromatic && inRing[bi] {
-			arom[bi] = true
+	// Which aromatic bonds belong to the aromatic system: aromatic bonds
+	// between aromatic ring atoms. A direction mark between two aromatic
+	// ring atoms ("c/c", which writers put on the ring bonds next to an
+	// exocyclic double bond) is read as a single bond, as OpenSMILES
+	// says; when that leaves the ring without a Kekule structure, it is
+	// taken as the aromatic bond it stands in, as RDKit 2022.09 reads it
+	// (aromatic, with its direction).
+	arom := aromaticBonds(m, inRing, false)
+	pi, unringed, match := kekuleAttempt(m, arom)
+	if (len(unringed) > 0 || match.unmatched()) && hasMarkedAromaticBond(m, inRing) {
+		arom2 := aromaticBonds(m, inRing, true)
+		pi2, unringed2, match2 := kekuleAttempt(m, arom2)
+		if len(unringed2) < len(unringed) || !match2.unmatched() {
+			arom, pi, unringed, match = arom2, pi2, unringed2, match2
 		}
 	}
-	for i := range m.Atoms {
+	for _, i := range unringed {
 		a := &m.Atoms[i]
-		if !a.Aromatic {
-			continue
-		}
-		ringed := false
-		for _, bi := range a.Bonds {
-			if arom[bi] {
-				ringed = true
-			}
-		}
-		if !ringed {
-			if a.Number != 0 {
-				m.Errors.Add(a.Span, CodeKekulize, "expected an aromatic atom to be in an aromatic ring, found %s outside any", a.Symbol)
-			}
-			continue
-		}
-		pi[i] = needsDoubleBond(m, i)
+		m.Errors.Add(a.Span, CodeKekulize, "expected an aromatic atom to be in an aromatic ring, found %s %s", a.Symbol, ringPlace(a, inRing))
 	}
-	match := newMatcher(m, pi, arom)
-	match.run()
 	for bi := range m.Bonds {
 		if arom[bi] {
 			m.Bonds[bi].Kekule = 1
@@ -70,6 +61,88 @@ func kekulize(m *Molecule, inRing []bool) []bool {
 	}
 	match.report()
 	return pi
+}
+
+// aromaticBonds marks the bonds of the aromatic system; marked, when
+// set, adds the direction-marked single bonds between aromatic ring
+// atoms.
+func aromaticBonds(m *Molecule, inRing []bool, marked bool) []bool {
+	arom := make([]bool, len(m.Bonds))
+	for bi := range m.Bonds {
+		b := &m.Bonds[bi]
+		if !m.Atoms[b.Begin].Aromatic || !m.Atoms[b.End].Aromatic || !inRing[bi] {
+			continue
+		}
+		if b.Order == OrderAromatic || marked && b.Order == OrderSingle && (b.Dir != DirNone || b.CloseDir != DirNone) {
+			arom[bi] = true
+		}
+	}
+	return arom
+}
+
+// hasMarkedAromaticBond reports a direction mark between two aromatic
+// ring atoms.
+func hasMarkedAromaticBond(m *Molecule, inRing []bool) bool {
+	for bi := range m.Bonds {
+		b := &m.Bonds[bi]
+		if inRing[bi] && b.Order == OrderSingle && (b.Dir != DirNone || b.CloseDir != DirNone) &&
+			m.Atoms[b.Begin].Aromatic && m.Atoms[b.End].Aromatic {
+			return true
+		}
+	}
+	return false
+}
+
+// kekuleAttempt decides which aromatic atoms need a double bond over
+// the aromatic bonds arom and matches them; unringed lists the aromatic
+// atoms (other than '*') with no aromatic bond at all.
+func kekuleAttempt(m *Molecule, arom []bool) (pi []bool, unringed []int, match *matcher) {
+	pi = make([]bool, len(m.Atoms))
+	for i := range m.Atoms {
+		a := &m.Atoms[i]
+		if !a.Aromatic {
+			continue
+		}
+		ringed := false
+		for _, bi := range a.Bonds {
+			if arom[bi] {
+				ringed = true
+			}
+		}
+		if !ringed {
+			if a.Number != 0 {
+				unringed = append(unringed, i)
+			}
+			continue
+		}
+		pi[i] = needsDoubleBond(m, i)
+	}
+	match = newMatcher(m, pi, arom)
+	match.run()
+	return pi, unringed, match
+}
+
+// unmatched reports whether an atom other than '*' was left without its
+// double bond.
+func (x *matcher) unmatched() bool {
+	for v, w := range x.mate {
+		if w < 0 && x.m.Atoms[x.atoms[v]].Number != 0 {
+			return true
+		}
+	}
+	return false
+}
+
+// ringPlace says where an aromatic atom without aromatic ring bonds sits,
+// for the kekulize message: in a ring whose bonds to it are not aromatic
+// (c1CCCCC1, c1-c-c-c-c-c1), or in no ring at all.
+func ringPlace(a *Atom, inRing []bool) string {
+	for _, bi := range a.Bonds {
+		if inRing[bi] {
+			return "in a ring without aromatic bonds to it"
+		}
+	}
+	return "outside any ring"
 }
 
 // needsDoubleBond decides whether aromatic atom i takes a double bond in

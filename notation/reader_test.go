@@ -134,7 +134,10 @@ func TestReadErrors(t *testing.T) {
 		{"OpenSMILES 3.9 chirality class out of range", "F[C«@TH3»](Cl)(Br)I", CodeBadChirality},
 		{"OpenSMILES 3.9 chirality class out of range", "F[Po«@SP4»](Cl)(Br)I", CodeBadChirality},
 		{"valence, common practice", "«C»(C)(C)(C)(C)C", CodeValence},
-		{"valence of neutral nitrogen, common practice", "C«N»(=O)=O", CodeValence},
+		{"valence of a neutral bracket nitrogen, common practice", "C«[N]»(=O)=O", CodeValence},
+		{"OpenSMILES 3.1.5 nitrogen above its highest normal valence", "C«N»(=O)(=O)=O", CodeValence},
+		{"OpenSMILES 2 grammar: ring digit after a branch", "c12ccccc1NC=CC(=O)«2»", CodeRingAfterBranch},
+		{"OpenSMILES 3.5 aromatic atom in a ring of single bonds", "«c»1CCCCC1", CodeKekulize},
 		{"valence of fluorine, common practice", "C«F»C", CodeValence},
 		{"OpenSMILES grammar: branch before any atom", "«(»C)C", CodeSyntax},
 		{"OpenSMILES grammar: close without open", "CC«)»C", CodeSyntax},
@@ -370,6 +373,30 @@ func TestKekulizeFusedSystems(t *testing.T) {
 			if doubles != 1 {
 				t.Errorf("%s: atom %d has %d double bonds", s, i+1, doubles)
 			}
+		}
+	}
+}
+
+// TestKekulizeMessagePlace checks that the message for an aromatic atom
+// without aromatic ring bonds says where the atom is: a ring of single
+// bonds is a ring, a chain is none.
+func TestKekulizeMessagePlace(t *testing.T) {
+	tests := []struct{ have, want string }{
+		{"c1CCCCC1", "in a ring"},
+		{"c1-c-c-c-c-c1", "in a ring"},
+		{"Cc", "outside any ring"},
+		{"[n:1]([c:2])[c:3]", "outside any ring"},
+	}
+	for _, tt := range tests {
+		m := Read(tt.have)
+		found := false
+		for _, e := range m.Errors {
+			if e.Code == CodeKekulize && strings.Contains(e.Msg, tt.want) {
+				found = true
+			}
+		}
+		if !found {
+			t.Errorf("Read(%q): want a kekulize message saying %q, got %v", tt.have, tt.want, m.Errors)
 		}
 	}
 }

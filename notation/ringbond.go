@@ -19,7 +19,14 @@ func (r *reader) ringBond() {
 		return
 	}
 	if r.afterBranch {
-		r.errorf(span, CodeSyntax, "expected ring-closure numbers right after the atom, found %s after a branch", r.text[span.Start:span.End])
+		// OpenSMILES puts ring bonds before branches (branched_atom ::=
+		// atom ringbond* branch*), but widely used readers accept them
+		// after one and bond them to the atom the branch hangs from, in
+		// the order written; so does this reader (RDKit 2022.09.3 reads
+		// F[C@H](Cl)1.Br1 as F[C@H](Cl)Br). The structure is what those
+		// readers make of it, so this is a warning, not an error.
+		e := r.errorf(span, CodeRingAfterBranch, "expected ring-closure numbers right after the atom, found %s after a branch (outside the OpenSMILES grammar; read as widely used readers do, as a ring bond of the atom before the branch)", r.text[span.Start:span.End])
+		e.Severity = SeverityWarning
 	}
 	sym := r.bond
 	symSpan := Span{start, start}

@@ -106,10 +106,18 @@ func implicitHydrogens(m *Molecule, pi []bool) {
 }
 
 // checkValences reports atoms with more bonds than their element allows.
+// An atom of the organic subset may also take the highest normal valence
+// of OpenSMILES ("Reading SMILES", section 3.1.5, Organic Subset: N 3 or
+// 5, P 3 or 5, S 2, 4 or 6), so the nitro group written CN(=O)=O and the
+// N-oxide O=n1ccccc1 read without error; a bracket atom is held to
+// AllowedValences alone, as the specification leaves it to the toolkit.
 func checkValences(m *Molecule) {
 	for i := range m.Atoms {
 		a := &m.Atoms[i]
 		vals := AllowedValences(a.Number, a.Charge)
+		if ov := organicValences[a.Number]; !a.Bracket && len(ov) > 0 && (len(vals) == 0 || ov[len(ov)-1] > vals[len(vals)-1]) {
+			vals = ov
+		}
 		if len(vals) == 0 {
 			continue
 		}

@@ -3,6 +3,7 @@ package main
 import (
 	"stereoline/notation"
 	"stereoline/notation/find"
+	"stereoline/notation/smarts"
 	"stereoline/stereo"
 	"stereoline/stereo/document"
 	"stereoline/stereo/reaction"
@@ -53,6 +54,7 @@ const (
 	originRewrite = "rewrite"
 	originList    = "list"
 	originMap     = "reaction"
+	originQuery   = "query"
 )
 
 // codeCatalogue lists every diagnostic code, grouped by origin, in the
@@ -189,6 +191,13 @@ var codeCatalogue = []codeDoc{
 		Help:    "Nothing to do; it says what the checks do not take into account.",
 		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)CC |(0,0,;1,0,;1,1,;2,0,;3,0,),&1:1|\n"},
 	},
+	{
+		Code: notation.CodeRingAfterBranch, Origin: originReader,
+		Short:   "Ring-closure digits written after a branch (a warning).",
+		Full:    "OpenSMILES writes an atom's ring-closure digits right after the atom, before its branches (branched_atom ::= atom ringbond* branch*). Widely used readers also accept a digit after a branch and bond it to the atom the branch hangs from, in the order written; Stereoline reads it the same way, so the structure is the one those readers see. Other readers may reject the record.",
+		Help:    "Move the digit before the branch: c12ccccc1NC=CC2=O instead of c12ccccc1NC=CC(=O)2. Where a stereo mark sits on that atom, moving the digit changes the neighbour order, so rewrite the mark too, or let a writer produce the record.",
+		Example: codeExample{File: "example.smi", Text: "c12ccccc1NC=CC(=O)2\n"},
+	},
 	// The stereo engine (stereo/codes.go).
 	{
 		Code: stereo.CodeIneffectiveCenter, Origin: originStereo,
@@ -305,6 +314,50 @@ var codeCatalogue = []codeDoc{
 		Full:    "In a Python, JavaScript or other string literal, a backslash starts an escape: '\\1' is the control character U+0001 (an octal escape), not a direction mark and a ring digit. The program reads different notation from what the file shows.",
 		Help:    "Write a raw string (r\"...\" in Python) or double the backslash.",
 		Example: codeExample{File: "example.py", Text: "smiles = \"F/C=C\\1CCCCC1\"\n"},
+	},
+	{
+		Code: find.CodeListLayout, Origin: originFinder,
+		Short:   "The layout of a record list was not clear (information).",
+		Full:    "A record list may hold the notation in any field: first or last, after an index, between tabs, commas or semicolons, under a header. Stereoline reads the layout of each list from its content: the field that reads as notation while the others do not. When two fields read as notation (a pattern column beside an example column, or names that spell structures) it reads the earlier one; when a field reads as notation on only some lines it reads those lines only; either way it says so once for the file, at its first record. The code also reports a layout pragma it could not read.",
+		Help:    "Fix the layout with a comment line such as '# stereoline: layout field=2 sep=tab header' in the file, or with the layouts setting of .stereoline.json for a file pattern.",
+		Example: codeExample{File: "example.smi", Text: "CCO CCN\nCCC CCCl\nCO CN\n"},
+	},
+	// The SMARTS reader (notation/smarts/codes.go): query patterns are
+	// checked for their grammar only.
+	{
+		Code: smarts.CodeSyntax, Origin: originQuery,
+		Short:   "A character the SMARTS grammar does not allow here.",
+		Full:    "The query pattern does not follow the SMARTS grammar at this point: an operator with nothing after it, an unclosed bracket, branch or recursive pattern, a map number that is not last in its bracket. General-purpose libraries reject such a pattern, so the filter or template that holds it does nothing.",
+		Help:    "Correct the pattern at the marked character; a trailing ',' or ';' or a missing ']' is the usual cause.",
+		Example: codeExample{File: "example.py", Text: "patt = Chem.MolFromSmarts(\"[C;]\")\n"},
+	},
+	{
+		Code: smarts.CodeUnclosedRing, Origin: originQuery,
+		Short:   "A ring-closure digit of a pattern that is never closed.",
+		Full:    "A ring-closure number in a query pattern opens a ring bond that a later atom must close; this one has no partner, so the pattern is rejected by general-purpose libraries.",
+		Help:    "Add the closing digit, or remove the digit if there is no ring.",
+		Example: codeExample{File: "example.py", Text: "patt = Chem.MolFromSmarts(\"[#6]1CC\")\n"},
+	},
+	{
+		Code: smarts.CodeRingBond, Origin: originQuery,
+		Short:   "A ring closure of a pattern back to the same atom or to a neighbour.",
+		Full:    "A ring-closure digit in a query pattern joins two atoms that are already bonded, or an atom to itself; general-purpose libraries reject the pattern.",
+		Help:    "Check the ring digits; one of them probably belongs to another atom.",
+		Example: codeExample{File: "example.py", Text: "patt = Chem.MolFromSmarts(\"C12CC12\")\n"},
+	},
+	{
+		Code: smarts.CodeUnknownElement, Origin: originQuery,
+		Short:   "A letter in an atom expression that is no element or primitive.",
+		Full:    "Inside the brackets of a query pattern every letter must start an element symbol or a primitive (D, H, h, R, r, v, X, x, a, A and the like); this one starts neither.",
+		Help:    "Check the spelling of the element; lowercase symbols are the aromatic forms.",
+		Example: codeExample{File: "example.py", Text: "patt = Chem.MolFromSmarts(\"[Xy]\")\n"},
+	},
+	{
+		Code: smarts.CodeReaction, Origin: originQuery,
+		Short:   "A reaction pattern with one '>' or more than two.",
+		Full:    "A reaction query pattern has reactants, agents and products separated by two '>' (often '>>'); with one or three the parts cannot be told apart.",
+		Help:    "Write '>>' between reactants and products.",
+		Example: codeExample{File: "example.py", Text: "rxn = AllChem.ReactionFromSmarts(\"[C:1]=[O:2]>[C:1][O:2]\")\n"},
 	},
 	// The rewriting functions (notation/edit.go): returned by rewrites,
 	// never by a check.

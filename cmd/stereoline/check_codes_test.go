@@ -176,6 +176,7 @@ func catalogueMarkdown() string {
 		{originList, "Records of one list"},
 		{originMap, "Atom-mapped reactions"},
 		{originFinder, "Notation inside host files"},
+		{originQuery, "Query patterns (SMARTS)"},
 		{originRewrite, "Rewrites (returned by rewriting commands, never by `check`)"},
 	}
 	for _, o := range origins {

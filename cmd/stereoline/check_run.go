@@ -126,7 +126,7 @@ func (r *checkRun) analyzeFile(f checkFile) (rep fileReport) {
 		return rep
 	}
 	res := lc.analyzer.Analyze(f.path, "", data)
-	rep.Records = len(res.Records)
+	rep.Records = len(res.Records) + len(res.Queries)
 	rep.Findings = r.findings(f, res)
 	return rep
 }

@@ -20,14 +20,15 @@ var layers = []struct {
 	packages []string
 }{
 	{0, []string{"notation"}},
-	{1, []string{"notation/find"}},
-	{2, []string{"stereo/internal/ringgeom"}},
-	{3, []string{"stereo"}},
-	{4, []string{"stereo/identity"}},
-	{5, []string{"stereo/transform", "stereo/reaction"}},
-	{6, []string{"stereo/document"}},
-	{7, []string{"lsp"}},
-	{8, []string{"cmd/stereoline"}},
+	{1, []string{"notation/smarts"}},
+	{2, []string{"notation/find"}},
+	{3, []string{"stereo/internal/ringgeom"}},
+	{4, []string{"stereo"}},
+	{5, []string{"stereo/identity"}},
+	{6, []string{"stereo/transform", "stereo/reaction"}},
+	{7, []string{"stereo/document"}},
+	{8, []string{"lsp"}},
+	{9, []string{"cmd/stereoline"}},
 }
 
 // protocolPrefixes are the import paths of the LSP and JSON-RPC

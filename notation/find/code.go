@@ -30,7 +30,7 @@ var keywords = map[string]bool{
 	"if": true, "elif": true, "while": true, "for": true, "return": true, "in": true,
 	"not": true, "and": true, "or": true, "switch": true, "case": true, "catch": true,
 	"typeof": true, "yield": true, "await": true, "else": true, "assert": true, "when": true,
-	"match": true, "with": true, "lambda": true, "print": false,
+	"match": true, "with": true, "lambda": true, "print": false, "of": true,
 }
 
 // passThrough are constructors and collection methods whose arguments are
@@ -47,42 +47,127 @@ var passThrough = map[string]bool{
 // frame is the state of one bracket level while the rules walk tokens.
 type frame struct {
 	open byte // '(', '[', '{' or 0 at the top level
-	// base: strings directly at this level are notation unless an
-	// operator says otherwise (the arguments of MolFromSmiles(...), the
-	// elements of a list assigned to smiles).
-	base bool
+	// id numbers the frame; parent is its parent's id. callee is the
+	// function whose arguments the frame holds ("" for a collection),
+	// arg the index of the current argument or element. They key the
+	// groups of literals that must agree (see group).
+	id, parent int
+	callee     string
+	arg        int
+	collection bool // a list, tuple, set or dict literal
+	nested     bool // a collection directly inside another collection
+	// base: what strings directly at this level are unless an operator
+	// says otherwise (the arguments of MolFromSmiles(...), the elements
+	// of a list assigned to smiles).
+	base wants
 	// subscript: a '[' indexing a value; a notation-named key inside
 	// (row["smiles"]) names the target.
 	subscript bool
-	// seg: the current segment (since the last operator, comma or
-	// statement end) mentioned a notation name.
-	seg bool
-	// val: 1 inside the value after an operator whose left side named
-	// notation, 2 after an operator whose left side did not (a keyword
-	// argument sanitize=...), 3 after one whose left side named something
-	// about the notation (smiles_file =, reaction_smarts =), whose value
-	// is not even guessed; 0 otherwise.
-	val int
-	// other: the current segment named something about the notation.
-	other bool
+	// seg: what the names of the current segment (since the last
+	// operator, comma or statement end) say; segAbout: a name in it was
+	// about the notation (smiles_file, reaction_name).
+	seg      wants
+	segAbout bool
+	// val: valNamed inside the value after an operator whose left side
+	// named notation (valWants says what), valOther after one whose
+	// left side did not (a keyword argument sanitize=...), valAbout
+	// after one whose left side named something about the notation
+	// (smiles_file =), whose value is not even guessed; valNone
+	// otherwise.
+	val      int
+	valWants wants
 	// noGuess: strings directly at this level are never guessed (the
-	// arguments of MolFromSmarts(...)).
+	// arguments of read_smiles_file(...)).
 	noGuess bool
 	// about: the key just read is about the notation ("name"), so the
 	// value after ':' is not notation even inside a notation collection.
 	about bool
+	// forHead: between "for" and "in" (or "of", or ':' in Java): the
+	// names of the loop variable say what the iterated values are.
+	forHead bool
 }
 
-func (f *frame) taken() bool { return f.val == 1 || f.val == 0 && f.base }
+const (
+	valNone = iota
+	valNamed
+	valOther
+	valAbout
+)
+
+// wants says what strings directly at this level are.
+func (f *frame) wants() wants {
+	switch f.val {
+	case valNamed:
+		return f.valWants
+	case valNone:
+		return f.base
+	}
+	return wants{}
+}
+
+// noGuessHere reports whether strings directly at this level may not be
+// guessed.
+func (f *frame) noGuessHere() bool { return f.val == valAbout || f.val == valNone && f.noGuess }
+
+// assign applies an assignment or comparison operator: the value after
+// it is what the names before it say.
+func (f *frame) assign() {
+	switch {
+	case f.seg.named():
+		f.val, f.valWants = valNamed, f.seg
+	case f.val == valNamed:
+	case f.segAbout:
+		f.val = valAbout
+	default:
+		f.val = valOther
+	}
+	f.seg, f.segAbout = wants{}, false
+}
+
+// merge returns the stronger of two contexts, field by field.
+func merge(a, b wants) wants {
+	return wants{smiles: max(a.smiles, b.smiles), smarts: max(a.smarts, b.smarts), guess: a.guess || b.guess}
+}
 
 // codeFinder applies the rules to one source text.
 type codeFinder struct {
-	src  []byte
-	lang *codeLang
-	cfg  *Config
-	nm   namer
-	prag *pragmas
-	out  []Occurrence
+	src    []byte
+	lang   *codeLang
+	cfg    *Config
+	nm     namer
+	prag   *pragmas
+	out    []Occurrence
+	frames int // frames opened, for their ids
+	// inner: the finder reads the code of doctest lines inside a
+	// docstring, and does not look for docstrings again.
+	inner    bool
+	doctests int     // doctests read, to keep their groups apart
+	rs       []found // reused by decideInto
+	// keys interns the group keys, so that an occurrence carries a
+	// small number rather than the key; curKey is the key of the literal
+	// being decided (groupMark.key currentGroup until interned).
+	keys   map[groupKey]int32
+	curKey groupKey
+	// pending are literals of a group that were not taken but read as
+	// query patterns: taken after all if their group turns out to hold
+	// query patterns (agree).
+	pending []pendingLiteral
+}
+
+// pendingLiteral is a literal kept for agree.
+type pendingLiteral struct {
+	lit      *literal
+	d        *decoded
+	m        offsetMap
+	from, to int
+	mark     groupMark
+}
+
+// groupMark ties an occurrence to the literals it must agree with.
+type groupMark struct {
+	key       int32 // an interned groupKey (codeFinder.intern); 0 for none
+	byContent bool  // SMARTS by its content
+	firm      bool  // its place fixes the dialect (MolFromSmiles(...))
 }
 
 // findCode finds notation in source code.
@@ -90,20 +175,35 @@ type codeFinder struct {
 // A string literal is taken when
 //   - it is assigned or compared to a name mentioning the notation
 //     (smiles = "...", self.rxn := "...", row["smiles"] = "...",
-//     smiles: str = "..."), also inside list, tuple, set and dict
-//     literals so assigned (dict values, not keys);
+//     smiles: str = "...", for smi in ["..."], smi in ("...")), also
+//     inside list, tuple, set and dict literals so assigned (dict
+//     values, not keys);
 //   - it is an argument of a function whose name mentions it
 //     (MolFromSmiles("...")) or the value of such a keyword argument
 //     (f(smiles="...")) or such a key ({"smiles": "..."}, {smiles: "..."});
-//   - nothing names it but it is unmistakably notation (see unmistakable);
+//   - nothing names it but it is unmistakably notation (see unmistakable)
+//     or a query pattern (see guessableQuery);
 //   - a "stereoline: notation" pragma is on its line.
 //
+// Query patterns (SMARTS) are taken the same way, named by smarts,
+// pattern, query, template, rule or filter, passed to a SMARTS
+// constructor (MolFromSmarts, ReactionFromSmarts, SmartsPattern.create,
+// ...) or recognised by their content, and carry DialectSMARTS. A text
+// holding several records separated by commas, semicolons or blanks is
+// split when each part is a record; a word or label under a mere name is
+// not taken (see decide). Literals of one list, or at one argument of
+// one function, that are partly query patterns by their content are all
+// query patterns where they read as such (see agree).
+//
 // Named literals must still look like records (see plausible): a literal
-// with several lines is a list, one record a line.
+// with several lines is a record list, laid out as list files are.
+// Doctest lines of Python docstrings (">>> ...", "... ...") are read as
+// the code they are.
 func findCode(src []byte, lang *codeLang, cfg *Config) []Occurrence {
 	cf := &codeFinder{src: src, lang: lang, cfg: cfg, nm: newNamer(cfg), prag: newPragmas(src)}
 	toks := lang.lex(src, cf.prag)
 	cf.walk(toks)
+	cf.agree()
 	return cf.out
 }
 
@@ -115,15 +215,27 @@ func (cf *codeFinder) walk(toks []token) {
 		switch t.kind {
 		case tIdent:
 			name := cf.textS(t)
-			if cf.nm.value(name) {
-				f.seg = true
-			} else if cf.nm.other(name) {
-				f.other = true
+			switch {
+			case name == "for":
+				f.forHead = true
+				continue
+			case name == "in" || name == "of" && f.forHead:
+				// for smi in [...], for (const smi of [...]), and the
+				// membership test smi in ("CCO", "CCN").
+				f.assign()
+				f.forHead = false
+				continue
+			}
+			w, about := cf.nm.classify(name)
+			if w.named() {
+				f.seg = merge(f.seg, w)
+			} else if about {
+				f.segAbout = true
 			}
 		case tNumber:
 		case tNewline:
 			if f.open == 0 || f.open == '{' && cf.lang.braceBlocks {
-				f.seg, f.val, f.about, f.other = false, 0, false, false
+				f.seg, f.val, f.about, f.segAbout, f.forHead = wants{}, valNone, false, false, false
 			}
 		case tString:
 			next := nextToken(toks, i)
@@ -134,48 +246,53 @@ func (cf *codeFinder) walk(toks []token) {
 			if key {
 				if !t.lit.skip && !t.lit.hasHoles() {
 					k := cf.keyText(t)
-					f.seg = cf.nm.value(k)
-					f.about = !f.seg && aboutKey(k)
-					f.other = cf.nm.other(k)
+					w, about := cf.nm.classify(k)
+					f.seg = w
+					f.about = !w.named() && aboutKey(k)
+					f.segAbout = about
 				}
 				continue
 			}
-			cf.literal(t, f.taken(), f.val == 3 || f.val == 0 && f.noGuess)
+			if cf.concatenated(toks, i, next) && bytes.IndexByte(cf.text(t), '\n') < 0 {
+				// "..." + x: a piece of a string built when the program
+				// runs, like a template's fixed text around a field.
+				// Joined blocks of whole lines stay record lists.
+				continue
+			}
+			cf.literal(t, f)
 		case tPunct:
 			p := cf.text(t)
 			switch string(p) {
 			case "=", ":=", "==", "<-", "+=":
-				switch {
-				case f.seg || f.val == 1:
-					f.val = 1
-				case f.other:
-					f.val = 3
-				default:
-					f.val = 2
-				}
-				f.seg, f.other = false, false
+				f.assign()
 			case ":":
 				switch {
-				case f.seg:
-					f.val = 1
-				case f.other:
-					f.val = 3
+				case f.seg.named():
+					f.val, f.valWants = valNamed, f.seg
+				case f.segAbout:
+					f.val = valAbout
 				case f.about:
-					f.val = 2
-				case f.val != 1:
-					f.val = 0
+					f.val = valOther
+				case f.val != valNamed:
+					f.val = valNone
 				}
-				f.seg, f.about, f.other = false, false, false
+				if f.forHead {
+					// for (String smi : List.of(...)) in Java.
+					f.forHead = false
+				}
+				f.seg, f.about, f.segAbout = wants{}, false, false
 			case ",", ";":
-				f.seg, f.val, f.about, f.other = false, 0, false, false
+				f.seg, f.val, f.about, f.segAbout = wants{}, valNone, false, false
+				f.arg++
 			case "(", "[", "{":
 				frames = append(frames, cf.open(toks, i, f))
 			case ")", "]", "}":
 				if len(frames) > 1 {
 					closed := frames[len(frames)-1]
 					frames = frames[:len(frames)-1]
-					if closed.subscript && closed.seg {
-						frames[len(frames)-1].seg = true
+					if closed.subscript && closed.seg.named() {
+						parent := &frames[len(frames)-1]
+						parent.seg = merge(parent.seg, closed.seg)
 					}
 				}
 			}
@@ -183,10 +300,27 @@ func (cf *codeFinder) walk(toks []token) {
 	}
 }
 
+// concatenated reports whether the string token at i is joined to
+// something else by a '+' (before it, or after it with next the token
+// after it).
+func (cf *codeFinder) concatenated(toks []token, i, next int) bool {
+	if next >= 0 && cf.is(toks[next], "+") {
+		return true
+	}
+	for j := i - 1; j >= 0; j-- {
+		if toks[j].kind != tNewline {
+			return cf.is(toks[j], "+")
+		}
+	}
+	return false
+}
+
 // open returns the frame a bracket opens.
 func (cf *codeFinder) open(toks []token, i int, parent *frame) frame {
 	c := cf.text(toks[i])[0]
-	nf := frame{open: c, base: parent.taken()}
+	cf.frames++
+	nf := frame{open: c, id: cf.frames, parent: parent.id, base: parent.wants(), noGuess: parent.noGuessHere(), collection: true}
+	nf.nested = parent.collection
 	prev := i - 1
 	if prev < 0 {
 		return nf
@@ -194,21 +328,133 @@ func (cf *codeFinder) open(toks []token, i int, parent *frame) frame {
 	pt := toks[prev]
 	switch c {
 	case '(':
-		if pt.kind == tIdent && !keywords[cf.textS(pt)] {
-			name := cf.textS(pt)
-			nf.base = cf.nm.call(name) || passThrough[name] && (parent.taken() || parent.seg)
-			nf.noGuess = !nf.base && cf.nm.other(name)
+		if pt.kind != tIdent {
+			break
 		}
+		name := cf.textS(pt)
+		if name == "for" {
+			nf.forHead, nf.base, nf.collection = true, wants{}, false
+			break
+		}
+		if keywords[name] {
+			break
+		}
+		receiver := ""
+		if prev >= 2 && cf.is(toks[prev-1], ".") && toks[prev-2].kind == tIdent {
+			receiver = cf.textS(toks[prev-2])
+		}
+		w, about := cf.nm.call(name, receiver)
+		nf.callee, nf.collection, nf.nested = name, false, false
+		switch {
+		case w.named():
+			nf.base = w
+		case passThrough[name]:
+			// smiles = list("CCO"), smiles_list.append("CCO"): what the
+			// receiver or the target holds.
+			nf.base = merge(parent.wants(), parent.seg)
+			nf.callee = ""
+			nf.collection = true
+		default:
+			nf.base = wants{}
+		}
+		nf.noGuess = about
 	case '[':
 		if pt.kind == tIdent && !keywords[cf.textS(pt)] || pt.kind == tString || cf.is(pt, ")") || cf.is(pt, "]") {
-			nf.subscript, nf.base = true, false
+			nf.subscript, nf.base, nf.collection, nf.nested = true, wants{}, false, false
 		}
 	}
 	return nf
 }
 
-// nextToken returns the index of the token after i, skipping newlines,
-// or -1.
+// groupKey names the literals a literal must agree with: the same
+// argument of every call of one function (AcidBasePair(name, acid,
+// base) throughout a file), the same position in the tuples of one
+// collection ({34: ('[CH2]=*', 0), ...}), or the elements of one list.
+// The zero key is no group (the top level).
+type groupKey struct {
+	kind   byte // 'c' call argument, 't' tuple position, 'l' list
+	callee string
+	id     int
+	arg    int
+}
+
+// currentGroup stands in a groupMark for the group of the literal being
+// decided, before it is interned.
+const currentGroup = -1
+
+// resolve interns the group of a mark that stands for the current
+// literal's.
+func (cf *codeFinder) resolve(m groupMark) groupMark {
+	if m.key == currentGroup {
+		m.key = cf.intern(cf.curKey)
+	}
+	return m
+}
+
+// intern returns the number of a group key, 0 for no group.
+func (cf *codeFinder) intern(k groupKey) int32 {
+	if k == (groupKey{}) {
+		return 0
+	}
+	if cf.keys == nil {
+		cf.keys = map[groupKey]int32{}
+	}
+	n, ok := cf.keys[k]
+	if !ok {
+		n = int32(len(cf.keys) + 1)
+		cf.keys[k] = n
+	}
+	return n
+}
+
+// group returns the group key of a literal in frame f.
+func group(f *frame) groupKey {
+	switch {
+	case f.callee != "":
+		return groupKey{kind: 'c', callee: f.callee, arg: f.arg}
+	case f.nested:
+		return groupKey{kind: 't', id: f.parent, arg: f.arg}
+	case f.collection:
+		return groupKey{kind: 'l', id: f.id}
+	}
+	return groupKey{}
+}
+
+// agree makes the literals of each group agree: when one of them is a
+// query pattern by its content, the others that read as query patterns
+// are query patterns too (and taken, if nothing else took them), except
+// where their place fixes the dialect. Occurrences stay in host order.
+func (cf *codeFinder) agree() {
+	query := map[int32]bool{}
+	for i := range cf.out {
+		g := &cf.out[i].group
+		if g.key != 0 && g.byContent && cf.out[i].Dialect == DialectSMARTS {
+			query[g.key] = true
+		}
+	}
+	if len(query) == 0 {
+		return
+	}
+	for i := range cf.out {
+		o := &cf.out[i]
+		g := &o.group
+		if query[g.key] && !g.firm && o.Dialect == DialectSMILES && readsAsQuery(o.Text) {
+			o.Dialect = DialectSMARTS
+		}
+	}
+	added := false
+	for _, p := range cf.pending {
+		if query[p.mark.key] {
+			m := p.m
+			cf.emit(p.lit, p.d, &m, p.from, p.to, "", ReasonGuess, DialectSMARTS, p.mark)
+			added = true
+		}
+	}
+	if added {
+		sort.SliceStable(cf.out, func(a, b int) bool { return cf.out[a].Span.Start < cf.out[b].Span.Start })
+	}
+}
+
 func nextToken(toks []token, i int) int {
 	for j := i + 1; j < len(toks); j++ {
 		if toks[j].kind != tNewline {
@@ -230,40 +476,123 @@ func (cf *codeFinder) keyText(t token) string {
 	return string(cf.src[pc.content.Start:pc.content.End])
 }
 
-// literal decides about one string literal and records what it yields.
-func (cf *codeFinder) literal(t token, named, noGuess bool) {
+// literal decides about one string literal in frame f and records what
+// it yields.
+func (cf *codeFinder) literal(t token, f *frame) {
 	lit := t.lit
 	if lit.skip || !cf.prag.allowed(t.span.Start) {
 		return
 	}
+	w := f.wants()
+	noGuess := f.noGuessHere() || cf.cfg.NoGuess
 	reason := ReasonName
 	if cf.prag.forced(t.span.Start) {
-		named, reason = true, ReasonPragma
+		w, reason = wants{smiles: firmly}, ReasonPragma
+	}
+	// The group is interned only when the literal yields something.
+	cf.curKey = group(f)
+	mark := groupMark{firm: w.smiles == firmly || w.smarts == firmly}
+	if cf.curKey != (groupKey{}) {
+		mark.key = currentGroup
+	}
+	if !w.named() && !noGuess {
+		w.guess = true
 	}
 	if lit.template() {
-		cf.templateLiteral(lit, named, reason, noGuess)
+		cf.templateLiteral(lit, w, reason, mark)
 		return
 	}
-	if !named && (noGuess || cf.cfg.NoGuess || !mayGuess(cf.src, lit)) {
+	if !w.named() && !noGuess && cf.lang.kind == KindPython && !cf.inner && docString(cf.src, lit) {
+		cf.doctest(lit)
+		return
+	}
+	pend := mark.key != 0 && !noGuess && mayKeep(cf.src, lit)
+	if !w.named() && (!w.guess || !mayGuess(cf.src, lit)) && !pend {
 		return
 	}
 	d := &decoded{}
 	m := cf.decode(lit, d)
 	text := string(d.text)
-	if named {
-		if strings.IndexByte(text, '\n') >= 0 {
-			cf.records(lit, d, &m, text, reason)
-			return
-		}
-		// One line is one record without a title: prose such as
-		// "see table 2" in a smiles variable is not a record.
-		if reason == ReasonPragma && text != "" || plausible(text) {
-			cf.emit(lit, d, &m, 0, len(text), "", reason)
+	if pend && !w.named() && (!w.guess || !mayGuess(cf.src, lit)) {
+		cf.keep(lit, d, m, text, mark)
+		return
+	}
+	if w.named() && strings.IndexByte(text, '\n') >= 0 {
+		cf.records(lit, d, &m, text, w, reason, mark)
+		return
+	}
+	if reason == ReasonPragma {
+		if text != "" {
+			dia := DialectSMILES
+			if queryContent(text) {
+				dia = DialectSMARTS
+			}
+			cf.emit(lit, d, &m, 0, len(text), "", reason, dia, mark)
 		}
 		return
 	}
-	if unmistakable(text) {
-		cf.emit(lit, d, &m, 0, len(text), "", ReasonGuess)
+	if !w.named() {
+		reason = ReasonGuess
+	}
+	rs := decideInto(cf.rs[:0], text, w)
+	cf.rs = rs
+	for _, r := range rs {
+		mk := mark
+		mk.byContent = r.byContent
+		cf.emit(lit, d, &m, r.from, r.to, "", reason, r.dialect, mk)
+	}
+	if len(rs) == 0 && pend {
+		cf.keep(lit, d, m, text, mark)
+	}
+}
+
+// mayKeep is the quick test on the host bytes of a literal of a group,
+// before it is decoded, for keep: one piece of notation bytes with
+// something a word does not have (a bracket, bond, digit or wildcard).
+// Most literals of lists and calls (names, messages, keys) fail here.
+func mayKeep(src []byte, lit *literal) bool {
+	if len(lit.pieces) != 1 {
+		return false
+	}
+	c := lit.pieces[0].content
+	if c.Len() < 2 || c.Len() > 4096 {
+		return false
+	}
+	shaped := false
+	for _, b := range src[c.Start:c.End] {
+		if !notationByte[b] {
+			return false
+		}
+		if !(b >= 'a' && b <= 'z' || b >= 'A' && b <= 'Z') {
+			shaped = true
+		}
+	}
+	return shaped
+}
+
+// keep holds a literal nothing took for agree, when it could be a query
+// pattern of its group.
+func (cf *codeFinder) keep(lit *literal, d *decoded, m offsetMap, text string, mark groupMark) {
+	// Not taken as notation, a query pattern of a group has a bracket
+	// atom, an aromatic atom, a wildcard or a bond query ('c[SH]',
+	// '[CH2]=*'); anything else is not worth reading.
+	if !strings.ContainsAny(text, "[*~@cnos") || len(lit.pieces) != 1 || len(d.issues) > 0 {
+		return
+	}
+	parts := [][2]int{{0, len(text)}}
+	if strings.ContainsAny(text, ",; ") {
+		// "[o:1],[s:1]": patterns one by one.
+		parts = splitParts(text)
+	}
+	for _, p := range parts {
+		if s := text[p[0]:p[1]]; !plausible(s) || !readsAsQuery(s) {
+			return
+		}
+	}
+	kept := new(decoded)
+	*kept = *d
+	for _, p := range parts {
+		cf.pending = append(cf.pending, pendingLiteral{lit: lit, d: kept, m: m, from: p[0], to: p[1], mark: cf.resolve(mark)})
 	}
 }
 
@@ -295,40 +624,127 @@ func mayGuess(src []byte, lit *literal) bool {
 	return true
 }
 
-// records takes a named multi-line literal as a record list.
-func (cf *codeFinder) records(lit *literal, d *decoded, m *offsetMap, text string, reason Reason) {
-	for start := 0; start < len(text); {
-		end := strings.IndexByte(text[start:], '\n')
-		if end < 0 {
-			end = len(text)
-		} else {
-			end += start
+// records takes a named multi-line literal as a record list, laid out
+// as a list file would be (layout.go), each record a word-checked record
+// of a weak place: a molfile or reaction file held in the string
+// (V2000, V3000, M  END, $RXN) is no list at all.
+func (cf *codeFinder) records(lit *literal, d *decoded, m *offsetMap, text string, w wants, reason Reason, mark groupMark) {
+	if molfileLike(d.text) {
+		return
+	}
+	lines := d.text
+	if lit.margin != "" {
+		lines = stripMargin(d.text, lit.margin)
+	}
+	// The common layout first (notation, then a title); the layout is
+	// read from the content only when it leaves most lines without a
+	// record, which keeps the cost of the usual block at one reading of
+	// each record.
+	recs, lines0 := cf.layoutRecords(lines, text, defaultLayout, w, reason)
+	if len(recs)*2 < lines0 {
+		v := detectLayout(lines, 0, layoutSpec{}, cf.nm, cf.cfg)
+		if v.none {
+			return
 		}
-		line := d.text[start:end]
-		trimmed := bytes.TrimLeft(line, " \t")
-		if lit.margin != "" && bytes.HasPrefix(trimmed, []byte(lit.margin)) {
-			trimmed = trimmed[len(lit.margin):]
+		if v.layout != defaultLayout {
+			recs, _ = cf.layoutRecords(lines, text, v.layout, w, reason)
 		}
-		lead := len(line) - len(trimmed)
-		if len(trimmed) > 0 && trimmed[0] != '#' {
-			recEnd, ts, te := splitRecord(trimmed)
-			rs := start + lead
-			if plausible(text[rs:rs+recEnd]) && cf.prag.allowed(m.host(rs)) {
-				title := trimmed[ts:te]
-				if bytes.IndexByte(title, holeByte) >= 0 {
-					// A title with a replacement field is not known
-					// before the program runs.
-					title = nil
-				}
-				cf.emit(lit, d, m, rs, rs+recEnd, string(title), reason)
-			}
+	}
+	for _, r := range recs {
+		if !cf.prag.allowed(m.host(r.from)) {
+			continue
 		}
-		start = end + 1
+		mk := mark
+		mk.byContent = r.byContent
+		cf.emit(lit, d, m, r.from, r.to, r.title, reason, r.dialect, mk)
 	}
 }
 
+// litRecord is a record found in a multi-line literal.
+type litRecord struct {
+	found
+	title string
+}
+
+// layoutRecords reads the lines of a literal by a layout, each record
+// decided as a weakly named text; lines counts the lines that are not
+// blank or comments.
+func (cf *codeFinder) layoutRecords(lines []byte, text string, lay Layout, w wants, reason Reason) (out []litRecord, n int) {
+	first := true
+	linesText := string(lines)
+	var fields []fieldSpan
+	for start := 0; start < len(lines); {
+		line, next := nextLine(lines, start)
+		ls := start
+		start = next
+		for len(line) > 0 && (line[0] == ' ' || line[0] == '\t') {
+			line, ls = line[1:], ls+1
+		}
+		if len(line) == 0 || line[0] == '\r' || isComment(line) {
+			continue
+		}
+		n++
+		if first {
+			first = false
+			if lay.Header {
+				continue
+			}
+		}
+		var o Occurrence
+		var ok bool
+		fields, ok = layoutRecord(&o, linesText, lines, ls, ls+len(line), lay, fields)
+		if !ok {
+			continue
+		}
+		from, to := o.Span.Start, o.Span.End
+		title := o.Title
+		if strings.IndexByte(title, holeByte) >= 0 {
+			// A title with a replacement field is not known before the
+			// program runs.
+			title = ""
+		}
+		rs := decide(text[from:to], wants{smiles: max(w.smiles, weakly), smarts: w.smarts})
+		if reason == ReasonPragma && len(rs) == 0 && plausible(text[from:to]) {
+			rs = []found{{from: 0, to: to - from}}
+		}
+		if len(rs) != 1 {
+			continue
+		}
+		rs[0].from, rs[0].to = from, to
+		out = append(out, litRecord{found: rs[0], title: title})
+	}
+	return out, n
+}
+
+// stripMargin blanks out the trimMargin() prefix of each line (Kotlin),
+// keeping offsets.
+func stripMargin(text []byte, margin string) []byte {
+	out := append([]byte(nil), text...)
+	for start := 0; start < len(out); {
+		line, next := nextLine(out, start)
+		k := 0
+		for k < len(line) && (line[k] == ' ' || line[k] == '\t') {
+			k++
+		}
+		if bytes.HasPrefix(line[k:], []byte(margin)) {
+			for j := 0; j < len(margin); j++ {
+				out[start+k+j] = ' '
+			}
+		}
+		start = next
+	}
+	return out
+}
+
+// molfileLike reports whether a text is a molfile, SD record or reaction
+// file rather than a list of records.
+func molfileLike(b []byte) bool {
+	return bytes.Contains(b, []byte("V2000")) || bytes.Contains(b, []byte("V3000")) ||
+		bytes.Contains(b, []byte("M  END")) || bytes.HasPrefix(bytes.TrimLeft(b, " \t\r\n"), []byte("$RXN"))
+}
+
 // emit records the notation bytes [from, to) of a decoded literal.
-func (cf *codeFinder) emit(lit *literal, d *decoded, m *offsetMap, from, to int, title string, reason Reason) {
+func (cf *codeFinder) emit(lit *literal, d *decoded, m *offsetMap, from, to int, title string, reason Reason, dialect Dialect, mark groupMark) {
 	sub := *m
 	if from != 0 || to != m.length() {
 		sub = m.slice(from, to)
@@ -339,6 +755,7 @@ func (cf *codeFinder) emit(lit *literal, d *decoded, m *offsetMap, from, to int,
 		Kind:      cf.lang.kind,
 		Construct: ConstructStringLiteral,
 		Reason:    reason,
+		Dialect:   dialect,
 		m:         sub,
 	}
 	o.Span = notation.Span{Start: sub.hostStart(), End: sub.hostEnd()}
@@ -369,6 +786,7 @@ func (cf *codeFinder) emit(lit *literal, d *decoded, m *offsetMap, from, to int,
 		}
 		o.addDiag(e, fixes)
 	}
+	o.group = cf.resolve(mark)
 	cf.out = append(cf.out, o)
 }
 

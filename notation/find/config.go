@@ -20,6 +20,10 @@ type Config struct {
 	// without a name saying so; only context decides then.
 	NoGuess bool
 
+	// Layout is a layout specification (ParseLayout) for a record list,
+	// from the layouts setting; a layout pragma in the file wins over it.
+	Layout string
+
 	// Language is the language of a notebook's code cells when the
 	// notebook's metadata does not name one ("python" when empty).
 	Language string

@@ -25,12 +25,17 @@
 // # What is found
 //
 //   - Lists (.smi .smiles .rsmi .cxsmi .cxsmiles .ism .can): one record a
-//     line, the title after the first blank, '#' lines and blank lines
-//     skipped; a CXSMILES extension block after the notation ("|...|")
-//     belongs to the record and the title follows it
-//     (notation.RecordEnd).
+//     line, laid out as the file's content shows (layout.go): the field
+//     that reads as notation while the others do not (first, last, after
+//     an index), blanks, tabs, commas or semicolons between fields, a
+//     header line, '#', '//' and ';' comment lines; a "stereoline:
+//     layout" pragma line or Config.Layout fixes the layout; an unclear
+//     layout is said once, on the first record (CodeListLayout). A CXSMILES
+//     extension block after the notation ("|...|") belongs to the
+//     record and the title follows it (notation.RecordEnd).
 //   - Tables (.csv .tsv): cells of columns whose header names structures
-//     (see findTable), with RFC 4180 quoting.
+//     (see findTable), with RFC 4180 quoting; a table whose header names
+//     none is read by its content like a list (tableByContent).
 //   - Source code (Python, JavaScript and TypeScript, Go, R, Julia, Rust,
 //     Java, Kotlin): string literals by the rules of findCode — named by
 //     a variable, key, argument or function, or unmistakably notation.
@@ -45,6 +50,18 @@
 //     unmistakable values anywhere.
 //   - Notebooks (.ipynb): code cells in the notebook's language, markdown
 //     cells as Markdown, through the JSON escapes of the cell source.
+//
+// Every occurrence carries a Dialect: notation (SMILES and reaction
+// SMILES) or a query pattern (SMARTS and reaction SMARTS), which is read
+// with notation/smarts and never checked as notation. A text is a
+// pattern by its place (a SMARTS constructor, a name saying smarts or,
+// when it reads as one, pattern, query, template, rule or filter) or by
+// its content (query primitives), and the literals of one list or one
+// argument of one function agree (dialect.go, code.go). A string holding
+// several records separated by commas, semicolons or blanks is split
+// when each part is one; a word or label under a mere name is not
+// notation (decide). The code of doctest lines, and unmistakable tokens
+// of docstrings' prose, are read too (doctest.go).
 //
 // Python's adjacent literals ("F/C=C" "/F") are joined into one
 // occurrence, as Python joins them; its map is piecewise, and host
@@ -86,6 +103,8 @@
 // "stereoline: skip", "stereoline: skip-next" or "stereoline: notation"
 // switches detection off and on from its line, skips its line or the
 // next one, or makes every literal on its line notation. See pragma.go.
+// In a list, a comment line "stereoline: layout ..." fixes the layout
+// (ParseLayout).
 //
 // # Guarantees
 //

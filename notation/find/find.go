@@ -24,7 +24,7 @@ func Find(name string, content []byte, cfg Config) []Occurrence {
 func FindKind(kind Kind, content []byte, cfg Config) []Occurrence {
 	switch kind {
 	case KindList:
-		return findList(content)
+		return findList(content, &cfg)
 	case KindCSV:
 		return findTable(content, ',', &cfg)
 	case KindTSV:

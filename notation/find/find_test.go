@@ -80,36 +80,77 @@ func TestKindFor(t *testing.T) {
 	}
 }
 
+// TestNames checks what names say: value is the reading of a variable,
+// key or argument name, call that of a function name (with the name of
+// what it is called on), each as "smiles", "smarts", "both", "about" or
+// "" with "!" for a firm place. The constructor names are those of the
+// general-purpose libraries' documentation: RDKit (MolFromSmiles,
+// MolFromSmarts, ReactionFromSmarts), the CDK (SmartsPattern.create,
+// SMARTSQueryTool), Open Babel's pybel (Smarts), Indigo (loadSmarts,
+// loadQueryMolecule) and RDKit's JavaScript build (get_qmol, from
+// memory).
 func TestNames(t *testing.T) {
 	nm := newNamer(&Config{})
+	say := func(w wants, about bool) string {
+		s := ""
+		switch {
+		case about:
+			return "about"
+		case w.smiles > 0 && w.smarts > 0:
+			s = "both"
+		case w.smiles > 0:
+			s = "smiles"
+		case w.smarts > 0:
+			s = "smarts"
+		}
+		if w.smiles == firmly || w.smarts == firmly {
+			s += "!"
+		}
+		return s
+	}
 	tests := []struct {
-		name        string
-		value, call bool
+		name, receiver string
+		value, call    string
 	}{
-		{"smiles", true, true},
-		{"SMILES_LIST", true, true},
-		{"MolFromSmiles", true, true},
-		{"reactantSmiles", true, true},
-		{"rxn", true, true},
-		{"reaction", true, true},
-		{"canonicalsmiles", true, true},
-		{"smi", true, true},
-		{"smiles_col", false, false},
-		{"smiles_file", false, false},
-		{"reaction_name", false, true},
-		{"is_valid_smiles", true, true},
-		{"read_smiles_file", false, false},
-		{"semicolon", false, false},
-		{"transmission", false, false},
-		{"smith", false, false},
-		{"name", false, false},
+		{"smiles", "", "smiles", "smiles!"},
+		{"SMILES_LIST", "", "smiles", "smiles!"},
+		{"MolFromSmiles", "Chem", "smiles", "smiles!"},
+		{"reactantSmiles", "", "smiles", "smiles!"},
+		{"rxn", "", "smiles", "smiles"},
+		{"reaction", "", "smiles", "smiles"},
+		{"HeteroAtomReaction", "", "smiles", "smiles"},
+		{"canonicalsmiles", "", "smiles", "smiles!"},
+		{"smi", "", "smiles", "smiles!"},
+		{"smiles_col", "", "about", "about"},
+		{"smiles_file", "", "about", "about"},
+		{"reaction_name", "", "about", "smiles"},
+		{"is_valid_smiles", "", "smiles", "smiles!"},
+		{"read_smiles_file", "", "about", "about"},
+		{"MolFromSmarts", "Chem", "smarts", "smarts!"},
+		{"ReactionFromSmarts", "AllChem", "smarts", "smarts!"},
+		{"reaction_smarts", "", "smarts", "smarts!"},
+		{"AcceptorSmarts", "", "smarts", "smarts!"},
+		{"create", "SmartsPattern", "", "smarts!"},
+		{"SMARTSQueryTool", "", "smarts", "smarts!"},
+		{"Smarts", "pybel", "smarts", "smarts!"},
+		{"loadSmarts", "indigo", "smarts", "smarts!"},
+		{"loadQueryMolecule", "indigo", "smarts", "both"},
+		{"get_qmol", "RDKit", "smarts", "smarts!"},
+		{"patterns", "", "smarts", ""},
+		{"reaction_rules", "", "both", "smiles"},
+		{"smarts_col", "", "about", "about"},
+		{"append", "smarts_list", "", ""},
+		{"semicolon", "", "", ""},
+		{"transmission", "", "", ""},
+		{"smith", "", "", ""},
+		{"name", "", "", ""},
 	}
 	for _, tt := range tests {
-		if got := nm.value(tt.name); got != tt.value {
-			t.Errorf("value(%q) = %v, want %v (parts %v)", tt.name, got, tt.value, nameParts(tt.name))
+		if got := say(nm.classify(tt.name)); got != tt.value {
+			t.Errorf("classify(%q) = %q, want %q (parts %v)", tt.name, got, tt.value, nameParts(tt.name))
 		}
-		if got := nm.call(tt.name); got != tt.call {
-			t.Errorf("call(%q) = %v, want %v", tt.name, got, tt.call)
+		if got := say(nm.call(tt.name, tt.receiver)); got != tt.call {
+			t.Errorf("call(%q, %q) = %q, want %q", tt.name, tt.receiver, got, tt.call)
 		}
 	}
 	extra := newNamer(&Config{Names: []string{"Structure"}})
@@ -260,11 +301,16 @@ func TestNotebookHostBytes(t *testing.T) {
 }
 
 func TestConfig(t *testing.T) {
-	src := []byte("id,mol,note\n1,F/C=C/F,x\n")
+	// A column of letters alone is not taken by its content (see
+	// tableByContent); named in the configuration, it is.
+	src := []byte("id,mol,note\n1,FC,x\n2,CCO,y\n")
 	if n := len(FindKind(KindCSV, src, Config{})); n != 0 {
 		t.Errorf("column mol taken without configuration: %d", n)
 	}
-	if n := len(FindKind(KindCSV, src, Config{Columns: []string{"MOL"}})); n != 1 {
+	if n := len(FindKind(KindCSV, []byte("id,mol,note\n1,F/C=C/F,x\n2,C1CCCCC1,y\n"), Config{})); n != 2 {
+		t.Errorf("column mol read by its content: %d occurrences, want 2", n)
+	}
+	if n := len(FindKind(KindCSV, src, Config{Columns: []string{"MOL"}})); n != 2 {
 		t.Errorf("configured column: %d occurrences, want 1", n)
 	}
 	code := []byte(`x = "C1CCCCC1"` + "\n" + `structure = "CCO"` + "\n")

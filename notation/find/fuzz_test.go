@@ -14,7 +14,7 @@ import (
 // inverse map landing at or before the byte it came from, diagnostics
 // and fixes inside the content.
 func FuzzFind(f *testing.F) {
-	for _, dir := range []string{"markers", "negatives"} {
+	for _, dir := range []string{"markers", "negatives", "corpus"} {
 		files, _ := filepath.Glob(filepath.Join("testdata", dir, "*"))
 		for _, path := range files {
 			if strings.HasSuffix(path, ".want") {

@@ -234,7 +234,7 @@ func jsonEscape(s string) string {
 // unmistakably notation. Keys themselves are never notation.
 func findJSON(src []byte, cfg *Config) []Occurrence {
 	jf := &jsonFinder{src: src, cfg: cfg, nm: newNamer(cfg)}
-	jf.walk(parseJSON(src), false, false)
+	jf.walk(parseJSON(src), wants{}, false)
 	return jf.out
 }
 
@@ -245,23 +245,28 @@ type jsonFinder struct {
 	out []Occurrence
 }
 
-// walk visits a value; named says a key above names the notation, other
-// that one names something about it ("smiles_file"), whose values are
-// not guessed.
-func (jf *jsonFinder) walk(v jsonValue, named, other bool) {
+// walk visits a value; w says what a key above names (notation, a
+// query pattern), other that one names something about it
+// ("smiles_file"), whose values are not guessed.
+func (jf *jsonFinder) walk(v jsonValue, w wants, other bool) {
 	switch v.kind {
 	case 'o':
 		for k := range v.vals {
 			key := jf.keyText(v.keys[k])
-			jf.walk(v.vals[k], jf.nm.value(key) || named && !aboutKey(key), other || jf.nm.other(key))
+			kw, about := jf.nm.classify(key)
+			child := kw
+			if !kw.named() && !aboutKey(key) {
+				child = w
+			}
+			jf.walk(v.vals[k], child, other || about)
 		}
 	case 'a':
 		for _, e := range v.vals {
-			jf.walk(e, named, other)
+			jf.walk(e, w, other)
 		}
 	case 's':
-		if named || !other {
-			jf.str(v, named)
+		if w.named() || !other {
+			jf.str(v, w)
 		}
 	}
 }
@@ -283,33 +288,46 @@ func aboutKey(key string) bool {
 	return false
 }
 
-func (jf *jsonFinder) str(v jsonValue, named bool) {
+func (jf *jsonFinder) str(v jsonValue, w wants) {
+	named := w.named()
 	if !named && jf.cfg.NoGuess {
 		return
 	}
+	w.guess = !named
 	var d decoded
 	cs := v.content(jf.src)
 	decodeJSON(jf.src, cs, false, &d)
 	text := string(d.text)
-	if named && !plausible(text) || !named && !unmistakable(text) {
+	rs := decide(text, w)
+	if len(rs) == 0 {
 		return
 	}
 	m := d.b.done(cs.Start)
-	o := Occurrence{
-		Text:      text,
-		Span:      notation.Span{Start: m.hostStart(), End: m.hostEnd()},
-		Kind:      KindJSON,
-		Construct: ConstructJSONValue,
-		Reason:    ReasonName,
-		m:         m,
-		encode:    jsonEscape,
+	for _, r := range rs {
+		sub := m
+		if r.from != 0 || r.to != len(text) {
+			sub = m.slice(r.from, r.to)
+		}
+		o := Occurrence{
+			Text:      text[r.from:r.to],
+			Span:      notation.Span{Start: sub.hostStart(), End: sub.hostEnd()},
+			Kind:      KindJSON,
+			Construct: ConstructJSONValue,
+			Reason:    ReasonName,
+			Dialect:   r.dialect,
+			m:         sub,
+			encode:    jsonEscape,
+		}
+		if !named {
+			o.Reason = ReasonGuess
+		}
+		for _, is := range d.issues {
+			if is.span.Start < o.Span.Start || is.span.Start >= o.Span.End {
+				continue
+			}
+			e := &notation.Error{Span: is.span, Code: CodeHostEscape, Severity: is.sev, Msg: is.msg}
+			o.addDiag(e, []Fix{{Title: "double the backslashes", Span: v.span, NewText: `"` + jsonEscape(text) + `"`}})
+		}
+		jf.out = append(jf.out, o)
 	}
-	if !named {
-		o.Reason = ReasonGuess
-	}
-	for _, is := range d.issues {
-		e := &notation.Error{Span: is.span, Code: CodeHostEscape, Severity: is.sev, Msg: is.msg}
-		o.addDiag(e, []Fix{{Title: "double the backslashes", Span: v.span, NewText: `"` + jsonEscape(text) + `"`}})
-	}
-	jf.out = append(jf.out, o)
 }

@@ -27,6 +27,10 @@ import (
 //	error «...»    a host-escape error at these host bytes (inside the occurrence)
 //	warning «...»  the same with severity warning
 //	fix «...»      the replacement text of one of that diagnostic's fixes
+//	dialect «smarts» the occurrence is a query pattern (smiles: notation,
+//	               the default)
+//	note «...»     the occurrence carries the list-layout information
+//	               (CodeListLayout) and its message contains this text
 //
 // want-next puts the expectation on the next line (for list records and
 // fenced lines, where a trailing comment would be read as a title);
@@ -41,11 +45,13 @@ import (
 // the full list.
 
 type wantOcc struct {
-	span  notation.Span
-	text  string
-	title *string
-	diags []wantDiag
-	line  int
+	span    notation.Span
+	text    string
+	title   *string
+	diags   []wantDiag
+	line    int
+	dialect Dialect
+	note    string
 }
 
 type wantDiag struct {
@@ -170,6 +176,17 @@ func parseMarker(t *testing.T, path string, src []byte, from, to int, args [][2]
 				sev = notation.SeverityWarning
 			}
 			w.diags = append(w.diags, wantDiag{span: notation.Span{Start: at + k, End: at + k + len(val)}, sev: sev})
+		case "dialect":
+			switch val {
+			case "smarts":
+				w.dialect = DialectSMARTS
+			case "smiles":
+				w.dialect = DialectSMILES
+			default:
+				t.Fatalf("%s:%d: dialect «%s»: expected smarts or smiles", path, line, val)
+			}
+		case "note":
+			w.note = val
 		case "fix":
 			if len(w.diags) == 0 {
 				t.Fatalf("%s:%d: fix before any error or warning", path, line)
@@ -229,12 +246,24 @@ func checkOccurrences(t *testing.T, path string, src []byte, got []Occurrence, w
 		if w.title != nil && o.Title != *w.title {
 			t.Errorf("%s:%d: title %q, want %q", path, w.line, o.Title, *w.title)
 		}
-		if len(o.Diagnostics) != len(w.diags) {
-			t.Errorf("%s:%d: %d host diagnostics %v, want %d", path, w.line, len(o.Diagnostics), o.Diagnostics, len(w.diags))
+		if o.Dialect != w.dialect {
+			t.Errorf("%s:%d: %q read as %s, want %s", path, w.line, o.Text, o.Dialect, w.dialect)
+		}
+		diags, fixes := o.Diagnostics, o.Fixes
+		if len(diags) > 0 && diags[0].Code == CodeListLayout {
+			if w.note == "" || !strings.Contains(diags[0].Msg, w.note) || diags[0].Severity != notation.SeverityInformation {
+				t.Errorf("%s:%d: layout note %q, want one containing %q", path, w.line, diags[0].Msg, w.note)
+			}
+			diags, fixes = diags[1:], fixes[1:]
+		} else if w.note != "" {
+			t.Errorf("%s:%d: no layout note, want one containing %q", path, w.line, w.note)
+		}
+		if len(diags) != len(w.diags) {
+			t.Errorf("%s:%d: %d host diagnostics %v, want %d", path, w.line, len(diags), diags, len(w.diags))
 			continue
 		}
 		for k, d := range w.diags {
-			e := o.Diagnostics[k]
+			e := diags[k]
 			if e.Span != d.span || e.Severity != d.sev || e.Code != CodeHostEscape {
 				t.Errorf("%s:%d: diagnostic %v %s %s, want %v %s", path, w.line, e.Span, e.Severity, e.Code, d.span, d.sev)
 			}
@@ -243,11 +272,11 @@ func checkOccurrences(t *testing.T, path string, src []byte, got []Occurrence, w
 			}
 			for _, f := range d.fixes {
 				found := false
-				for _, g := range o.Fixes[k] {
+				for _, g := range fixes[k] {
 					found = found || g.NewText == f
 				}
 				if !found {
-					t.Errorf("%s:%d: no fix %q among %v", path, w.line, f, o.Fixes[k])
+					t.Errorf("%s:%d: no fix %q among %v", path, w.line, f, fixes[k])
 				}
 			}
 		}

@@ -62,41 +62,49 @@ var aboutWords = map[string]bool{
 	"types": true, "kind": true, "count": true, "num": true, "len": true, "length": true,
 	"size": true, "idx": true, "index": true, "id": true, "ids": true, "label": true,
 	"labels": true, "prefix": true, "suffix": true, "ext": true, "extension": true, "sep": true,
-	"separator": true, "delimiter": true, "encoding": true, "version": true, "pattern": true,
-	"regex": true, "template": true, "mode": true, "option": true, "options": true,
+	"separator": true, "delimiter": true, "encoding": true, "version": true,
+	"regex": true, "mode": true, "option": true, "options": true,
 	"flag": true, "flags": true, "attr": true, "tag": true, "sheet": true, "table": true,
 	"title": true, "description": true, "desc": true, "comment": true, "note": true,
 	"error": true, "message": true, "msg": true, "status": true, "time": true, "date": true,
-	// Query notation is another language: its operators are errors to
-	// a reader of SMILES (reaction_smarts, MolFromSmarts).
-	"smarts": true, "smirks": true, "smart": true, "query": true,
 }
 
-// queryWords name query notation, a language of its own: a value or
-// argument so named is never taken, not even by guessing
-// (MolFromSmarts("[#6]"), patt_smarts = "...").
-var queryWords = map[string]bool{"smarts": true, "smirks": true, "smart": true}
+// queryWords name query notation, SMARTS: a value so named is a query
+// pattern (MolFromSmarts("[#6]"), patt_smarts = "..."); qmol is the
+// query molecule constructor of RDKit's JavaScript build, get_qmol (from
+// memory); sma and smas abbreviate SMARTS as smi and smis do SMILES.
+var queryWords = map[string]bool{"smarts": true, "smirks": true, "smart": true, "qmol": true, "sma": true, "smas": true}
+
+// patternWords name what is often, not always, a query pattern: a text
+// so named is taken as SMARTS when it reads as one (common practice in
+// filter catalogues and reaction rule sets).
+var patternWords = map[string]bool{
+	"pattern": true, "patterns": true, "patt": true, "patts": true, "query": true,
+	"queries": true, "template": true, "templates": true, "tmpl": true, "rule": true,
+	"rules": true, "filter": true, "filters": true,
+}
 
 // pathWords are the subset of aboutWords that, in a function name, say
 // its arguments are files rather than notation: read_smiles_file(p).
 var pathWords = map[string]bool{
 	"file": true, "files": true, "filename": true, "path": true, "dir": true, "url": true,
 	"column": true, "col": true, "folder": true,
-	"smarts": true, "smirks": true, "smart": true, "query": true,
 }
 
 // mentions is a quick test, without allocation, that name contains one
-// of the notation words at all (case-insensitively): most names do not,
-// and splitting them into parts would be wasted work.
+// of the notation or query words at all (case-insensitively): most names
+// do not, and splitting them into parts would be wasted work.
 func mentions(name string) bool {
 	for i := 0; i+3 <= len(name); i++ {
 		c := name[i] | 0x20
-		if c != 's' && c != 'r' && c != 'i' {
+		if c != 's' && c != 'r' && c != 'i' && c != 'p' && c != 'q' && c != 't' && c != 'f' {
 			continue
 		}
 		w := name[i:min(i+8, len(name))]
 		if hasFold(w, "smi") || hasFold(w, "rxn") || hasFold(w, "reaction") || hasFold(w, "ism") ||
-			hasFold(w, "smarts") || hasFold(w, "smirks") {
+			hasFold(w, "sma") || hasFold(w, "smirks") || hasFold(w, "patt") ||
+			hasFold(w, "quer") || hasFold(w, "qmol") || hasFold(w, "templ") || hasFold(w, "tmpl") ||
+			hasFold(w, "rule") || hasFold(w, "filter") {
 			return true
 		}
 	}
@@ -136,43 +144,95 @@ func (n namer) word(p string) bool {
 }
 
 // value reports whether a variable, key or argument name says that the
-// value assigned to it is notation.
-func (n namer) value(name string) bool { return n.match(name, aboutWords) }
-
-// call reports whether a function name says that its string arguments
-// are notation.
-func (n namer) call(name string) bool { return n.match(name, pathWords) }
-
-// other reports whether a name mentions the notation but says its value
-// is something else about it (smiles_file, reaction_smarts): such a value
-// is not even guessed.
-func (n namer) other(name string) bool {
-	if len(name) < 3 || len(name) > 200 || n.extra == nil && !mentions(name) {
-		return false
-	}
-	word, stop := false, false
-	for _, p := range nameParts(name) {
-		if queryWords[p] {
-			return true
-		}
-		word = word || n.word(p)
-		stop = stop || aboutWords[p]
-	}
-	return word && stop
+// value assigned to it is notation (SMILES).
+func (n namer) value(name string) bool {
+	w, about := n.classify(name)
+	return !about && w.smiles > 0
 }
 
-func (n namer) match(name string, stop map[string]bool) bool {
+// classify says what a variable, key or argument name says about the
+// value assigned to it: SMILES (smiles, rxn, reaction), a query pattern
+// (smarts, and weakly pattern, query, template, rule, filter), or,
+// with about true, something about the notation that is not notation
+// (smiles_file, reaction_name, smarts_col), whose value is not even
+// guessed. Every name context is weak: a word or label under it is not
+// taken (see decide).
+func (n namer) classify(name string) (w wants, about bool) {
 	if len(name) < 3 || len(name) > 200 || n.extra == nil && !mentions(name) {
-		return false
+		return wants{}, false
 	}
-	found := false
+	var notationWord, query, pattern, aboutWord bool
 	for _, p := range nameParts(name) {
-		if stop[p] {
-			return false
-		}
-		if n.word(p) {
-			found = true
+		notationWord = notationWord || n.word(p)
+		query = query || queryWords[p]
+		pattern = pattern || patternWords[p]
+		aboutWord = aboutWord || aboutWords[p]
+	}
+	if aboutWord && (notationWord || query || pattern) {
+		return wants{}, true
+	}
+	if query || pattern {
+		w.smarts = weakly
+	}
+	if notationWord && !query {
+		w.smiles = weakly
+	}
+	return w, false
+}
+
+// call says what a function name, and the name of the value it is called
+// on, say about the string arguments: a constructor of SMILES
+// (MolFromSmiles, ReactionFromSmiles, parseSmiles) or SMARTS
+// (MolFromSmarts, ReactionFromSmarts, loadSmarts, SmartsPattern.create,
+// new SMARTSQueryTool, get_qmol) makes them firmly so; a name that
+// mentions reactions only weakly (HeteroAtomReaction(...)); a name
+// about files (read_smiles_file) says they are not notation (about).
+// receiver counts only when it looks like a class or module (it starts
+// with a capital letter: SmartsPattern.create, Smarts.parse).
+func (n namer) call(name, receiver string) (w wants, about bool) {
+	if len(name) < 3 || len(name) > 200 {
+		return wants{}, false
+	}
+	if receiver != "" && receiver[0] >= 'A' && receiver[0] <= 'Z' && mentions(receiver) {
+		for _, p := range nameParts(receiver) {
+			if queryWords[p] {
+				return wants{smarts: firmly}, false
+			}
 		}
 	}
-	return found
+	if n.extra == nil && !mentions(name) {
+		return wants{}, false
+	}
+	var smiles, reaction, query, queryMol, mol, path bool
+	for _, p := range nameParts(name) {
+		switch {
+		case pathWords[p]:
+			path = true
+		case queryWords[p]:
+			query = true
+		case p == "query" || p == "queries":
+			queryMol = true
+		case n.word(p) && (strings.Contains(p, "smi") || n.extra[p]):
+			smiles = true
+		case n.word(p):
+			reaction = true
+		case p == "mol" || p == "molecule" || p == "molecules":
+			mol = true
+		}
+	}
+	switch {
+	case path:
+		return wants{}, smiles || reaction || query
+	case query:
+		return wants{smarts: firmly}, false
+	case smiles:
+		return wants{smiles: firmly}, false
+	case queryMol && (reaction || mol):
+		// loadQueryMolecule, loadQueryReaction: a query, written in
+		// SMARTS or SMILES.
+		return wants{smarts: weakly, smiles: weakly}, false
+	case reaction:
+		return wants{smiles: weakly}, false
+	}
+	return wants{}, false
 }

@@ -105,17 +105,29 @@ type Occurrence struct {
 	// Reason says why the text was taken.
 	Reason Reason
 
+	// Dialect says what the text is written in: notation (SMILES and
+	// reaction SMILES, the zero value) or a query pattern (SMARTS and
+	// reaction SMARTS), which is read with notation/smarts and never
+	// checked as notation. It comes from the place (MolFromSmarts(...),
+	// a name saying smarts or pattern) or from the content (query
+	// primitives such as ;, &, !, ~, $( or #6 in brackets).
+	Dialect Dialect
+
 	// Cell is the 1-based index of the notebook cell holding the text,
 	// 0 outside notebooks.
 	Cell int
 
-	// Diagnostics are host problems, with spans in host offsets, all with
-	// code CodeHostEscape. Fixes[i] are the suggested fixes of
-	// Diagnostics[i] (possibly none).
+	// Diagnostics are host problems, with spans in host offsets: escapes
+	// the host eats (CodeHostEscape) and, on the first record of a list
+	// whose layout was unclear, CodeListLayout. Fixes[i] are the
+	// suggested fixes of Diagnostics[i] (possibly none).
 	Diagnostics notation.ErrorList
 	Fixes       [][]Fix
 
 	m offsetMap
+	// group ties a string literal to the literals it must agree with
+	// (code.go, agree).
+	group groupMark
 	// encode writes notation text as the host must hold it (a backslash
 	// doubled inside an escaping string literal); nil writes it verbatim.
 	encode func(string) string

@@ -6,7 +6,8 @@ import (
 )
 
 // TestCodeRules is a table of small sources and the notation texts the
-// rules must take from them, in order. Molecules are OpenSMILES examples;
+// rules must take from them, in order; "q:" marks a query pattern
+// (DialectSMARTS). Molecules are OpenSMILES examples;
 // the language syntax is each language's reference.
 func TestCodeRules(t *testing.T) {
 	tests := []struct {
@@ -30,11 +31,11 @@ func TestCodeRules(t *testing.T) {
 		{KindPython, `parse_smiles("CCO", sanitize="CO")`, []string{"CCO"}},
 		{KindPython, `print("F/C=C/F")`, []string{"F/C=C/F"}},
 		{KindPython, `print("CO")`, nil},
-		{KindPython, `rxn = AllChem.ReactionFromSmarts("[C:1](=[O:2])-[OD1].[N!H0:3]>>[C:1](=[O:2])[N:3]")`, nil},
-		{KindPython, `reaction_smarts = "[C:1]=[O:2]>>[C:1][O:2]"`, nil},
-		{KindPython, `patt = Chem.MolFromSmarts("[#6]-[#8]")`, nil},
-		{KindPython, `rxn = AllChem.ReactionFromSmarts("[C:1]=[C:2]>>[C:1][C:2]")`, nil},
-		{KindPython, `patt_smarts = "[C:1]=[C:2]"`, nil},
+		{KindPython, `rxn = AllChem.ReactionFromSmarts("[C:1](=[O:2])-[OD1].[N!H0:3]>>[C:1](=[O:2])[N:3]")`, []string{"q:[C:1](=[O:2])-[OD1].[N!H0:3]>>[C:1](=[O:2])[N:3]"}},
+		{KindPython, `reaction_smarts = "[C:1]=[O:2]>>[C:1][O:2]"`, []string{"q:[C:1]=[O:2]>>[C:1][O:2]"}},
+		{KindPython, `patt = Chem.MolFromSmarts("[#6]-[#8]")`, []string{"q:[#6]-[#8]"}},
+		{KindPython, `rxn = AllChem.ReactionFromSmarts("[C:1]=[C:2]>>[C:1][C:2]")`, []string{"q:[C:1]=[C:2]>>[C:1][C:2]"}},
+		{KindPython, `patt_smarts = "[C:1]=[C:2]"`, []string{"q:[C:1]=[C:2]"}},
 		{KindPython, `reaction = AllChem.ReactionFromSmiles("C=CC>>CCC")`, []string{"C=CC>>CCC"}},
 		{KindPython, `inchi = "InChI=1S/C2H6O/c1-2-3/h3H,2H2,1H3"`, nil},
 		{KindPython, `smiles = f"{a}CC"`, nil},
@@ -51,16 +52,66 @@ func TestCodeRules(t *testing.T) {
 		{KindRust, `let v = vec!["CCO"]; let smiles = vec!["CCN"];`, []string{"CCN"}},
 		{KindKotlin, `val smiles = mutableListOf("CCO")`, []string{"CCO"}},
 		{KindGo, "var smiles = `CCO\r\nCCN`", []string{"CCO", "CCN"}},
-		{KindYAML, "query_smarts: C1CCCCC1\nother: C1CCCCC1\n", []string{"C1CCCCC1"}},
-		{KindJSON, `{"query_smarts": "C1CCCCC1", "other": "C1CCCCC1"}`, []string{"C1CCCCC1"}},
+		{KindYAML, "query_smarts: C1CCCCC1\nother: C1CCCCC1\n", []string{"q:C1CCCCC1", "C1CCCCC1"}},
+		{KindJSON, `{"query_smarts": "C1CCCCC1", "other": "C1CCCCC1"}`, []string{"q:C1CCCCC1", "C1CCCCC1"}},
+		{KindJSON, `{"smarts_col": "SMARTS", "patterns": ["[#6;R]", "[CX3]=[OX1]"]}`, []string{"q:[#6;R]", "q:[CX3]=[OX1]"}},
+		// SMARTS by context: constructors of Python, JavaScript, Java and
+		// Kotlin libraries (RDKit, the CDK, pybel, Indigo, RDKit's
+		// JavaScript build), names that say smarts, and lists so named.
+		{KindPython, `acc = [Chem.MolFromSmarts(s) for s in ("[oH0;X2]", "[OH1;X2;v2]")]`, []string{"q:[oH0;X2]", "q:[OH1;X2;v2]"}},
+		{KindPython, "StructuralAlertSmarts = [\n  '*1[O,S,N]*1',\n  '[CH1](=O)',\n  'I',\n]", []string{"q:*1[O,S,N]*1", "q:[CH1](=O)", "q:I"}},
+		{KindPython, `p = pybel.Smarts("[#6]=O")`, []string{"q:[#6]=O"}},
+		{KindJavaScript, `const q = RDKit.get_qmol("[#7;H2]");`, []string{"q:[#7;H2]"}},
+		{KindJava, `SmartsPattern ptrn = SmartsPattern.create("[NX3;H2]c");`, []string{"q:[NX3;H2]c"}},
+		{KindJava, `SMARTSQueryTool sqt = new SMARTSQueryTool("c1ccccc1", builder);`, []string{"q:c1ccccc1"}},
+		{KindKotlin, `val q = SmartsPattern.create("[OX2H][CX3]=[OX1]")`, []string{"q:[OX2H][CX3]=[OX1]"}},
+		{KindJava, `IndigoObject q = indigo.loadSmarts("[#6]-[#7]");`, []string{"q:[#6]-[#7]"}},
+		// SMARTS by content, whatever the name.
+		{KindPython, `reactionDefs = ("[#7;+0;D2,D3:1]!@C(!@=O)!@[#7;+0;D2,D3:2]>>*[#7:1].[#7:2]*",)`, []string{"q:[#7;+0;D2,D3:1]!@C(!@=O)!@[#7;+0;D2,D3:2]>>*[#7:1].[#7:2]*"}},
+		{KindPython, `rxn = "[C:1]=!@[C:2]>>[C:1]*.*[C:2]"`, []string{"q:[C:1]=!@[C:2]>>[C:1]*.*[C:2]"}},
+		{KindPython, `salts = ["[Cl,Br,I]", "[Li,Na,K,Ca,Mg]"]`, []string{"q:[Cl,Br,I]", "q:[Li,Na,K,Ca,Mg]"}},
+		{KindPython, `x = "[c;x2;D2;r5:1]([n;x2;r5:2])[n;x2;r5:3]"`, []string{"q:[c;x2;D2;r5:1]([n;x2;r5:2])[n;x2;r5:3]"}},
+		{KindPython, `regex = "[a-z]"`, nil},
+		{KindPython, `glob_pattern = "*"`, nil},
+		// One argument of one function agrees over the file.
+		{KindPython, "P('a', 'c[SH]', 'c[S-]')\nP('b', '[!O]S(=O)(=O)[OH]', '[!O]S(=O)(=O)[O-]')", []string{"q:c[SH]", "q:c[S-]", "q:[!O]S(=O)(=O)[OH]", "q:[!O]S(=O)(=O)[O-]"}},
+		// Several records in one string, split when each part is one.
+		{KindPython, `rxn_examples = "c1nc[nH]c1,c1ncn([*])c1"`, []string{"c1nc[nH]c1", "c1ncn([*])c1"}},
+		{KindPython, `smiles = "CCO CCN"`, []string{"CCO", "CCN"}},
+		{KindPython, `smiles = "CC(=O)O acetic acid"`, nil},
+		{KindPython, `x = "c1ccccc1;C1CCCCC1"`, []string{"c1ccccc1", "C1CCCCC1"}},
+		// Words and labels under a mere name are not notation; in a
+		// constructor they are.
+		{KindPython, `SMILES = 'smiles'`, nil},
+		{KindPython, `smiles = "WATER"`, nil},
+		{KindPython, `reaction = "R1a"`, nil},
+		{KindPython, `smiles = "CCO"`, []string{"CCO"}},
+		{KindPython, `m = Chem.MolFromSmiles("WATER")`, []string{"WATER"}},
+		{KindPython, `m = Chem.MolFromSmiles("O")`, []string{"O"}},
+		{KindPython, "rxn_block = '''$RXN\n\n  RDKit\n\n  1  1\nM  END\n'''", nil},
+		// for-loops over literals bound to notation names.
+		{KindPython, "for smi in ['CCO', 'c1ccccc1']:\n    pass", []string{"CCO", "c1ccccc1"}},
+		{KindPython, "for name in ['CCO']:\n    pass", nil},
+		{KindJavaScript, `for (const smi of ["CCO", "CCN"]) {}`, []string{"CCO", "CCN"}},
+		{KindPython, `if smi in ("CCO", "CCN"): pass`, []string{"CCO", "CCN"}},
+		// Doctest lines of a docstring are code.
+		{KindPython, "def f():\n    \"\"\"Reads.\n\n    >>> m = Chem.MolFromSmiles('CC(=O)O')\n    >>> smiles = ['CCO',\n    ...           'c1ccccc1']\n    3\n    \"\"\"\n", []string{"CC(=O)O", "CCO", "c1ccccc1"}},
 		{KindList, "\ufeffF/C=C/F trans\r\nCCO\r\n\r\n", []string{"F/C=C/F", "CCO"}},
+		// Tabs aligning columns leave empty fields (FunctionalGroups.txt
+		// of rdkit-data writes its lines so).
+		{KindList, "-NC(=O)CH3\t*-[N;D2]-[C;D3](=O)-[C;D1;H3]\tmethyl amide\n-X\t\t*-[#9,#17,#35,#53]\thalogens\n-C#N\t*-[C;D2]#[N;D1]\tcyano\n",
+			[]string{"q:*-[N;D2]-[C;D3](=O)-[C;D1;H3]", "q:*-[#9,#17,#35,#53]", "q:*-[C;D2]#[N;D1]"}},
 		{KindCSV, "\ufeffSMILES;Name\r\nCCO;ethanol\r\n", []string{"CCO"}},
 		{KindTSV, "name\tsmiles\tnote\nethanol\tCCO\tx\n", []string{"CCO"}},
 	}
 	for _, tt := range tests {
 		var got []string
 		for _, o := range FindKind(tt.kind, []byte(tt.src), Config{}) {
-			got = append(got, o.Text)
+			if o.Dialect == DialectSMARTS {
+				got = append(got, "q:"+o.Text)
+			} else {
+				got = append(got, o.Text)
+			}
 		}
 		if !reflect.DeepEqual(got, tt.want) {
 			t.Errorf("%s %q: got %q, want %q", tt.kind, tt.src, got, tt.want)

@@ -18,6 +18,12 @@ import (
 // practice). The title of a record is its cell in the first name, title
 // or id column.
 func findTable(src []byte, sep byte, cfg *Config) []Occurrence {
+	return findTableFrom(src, skipBOM(src), sep, cfg)
+}
+
+// findTableFrom is findTable for a table whose header line starts at
+// from (after comment lines of a list, say).
+func findTableFrom(src []byte, from int, sep byte, cfg *Config) []Occurrence {
 	if sep == ',' {
 		first := src
 		if k := bytes.IndexByte(src, '\n'); k >= 0 {
@@ -35,16 +41,24 @@ func findTable(src []byte, sep byte, cfg *Config) []Occurrence {
 		header   = true
 	)
 	var rec []tableCell
-	for i := skipBOM(src); i < len(src); {
+	for i := from; i < len(src); {
 		rec, i = readRecord(src, i, sep, rec[:0])
 		if header {
 			header = false
+			named := false
 			for k, c := range rec {
 				h := strings.TrimSpace(string(c.text))
 				columns = append(columns, nm.column(h, cfg.Columns))
+				named = named || columns[k]
 				if p := titlePriority(h); p > 0 && (titleCol < 0 || p < titlePriority(strings.TrimSpace(string(rec[titleCol].text)))) {
 					titleCol = k
 				}
+			}
+			if !named {
+				if cfg.NoGuess {
+					return nil
+				}
+				return tableByContent(src, from, sep, nm, cfg)
 			}
 			continue
 		}
@@ -60,11 +74,88 @@ func findTable(src []byte, sep byte, cfg *Config) []Occurrence {
 				if sep == '\t' {
 					o.Kind = KindTSV
 				}
+				if queryContent(o.Text) {
+					o.Dialect = DialectSMARTS
+				}
 				out = append(out, o)
 			}
 		}
 	}
+	queryList(out)
 	return out
+}
+
+// tableByContent reads a table whose header names no structure column
+// (or that has no header: a comment line first, or records from the
+// first line) by its content, as record lists are read: the column that
+// reads as notation while the others do not. A table is held to more
+// than a list, as its columns are mostly other data: the column must
+// read on most lines, the layout must be clear, and at least a third of
+// the cells that read must show structure beyond letters (a ring digit,
+// a bond, a branch, a bracket), so that a column of codes or words that
+// happen to spell atoms stays silent. With detection by names only
+// (Config.NoGuess) it is not done.
+func tableByContent(src []byte, from int, sep byte, nm namer, cfg *Config) []Occurrence {
+	v := detectLayout(src, from, layoutSpec{sep: sep, sepSet: true}, nm, cfg)
+	if v.ambiguous != "" || v.score < 0.5 || !structured(src, from, v.layout) {
+		return nil
+	}
+	kind := KindCSV
+	if sep == '\t' {
+		kind = KindTSV
+	}
+	text := string(src)
+	var out []Occurrence
+	var fields []fieldSpan
+	first := true
+	for start := from; start < len(src); {
+		line, next := nextLine(src, start)
+		ls := start
+		start = next
+		for len(line) > 0 && (line[0] == ' ' || line[0] == '\t' && sep != '\t') {
+			line, ls = line[1:], ls+1
+		}
+		if len(bytes.TrimSpace(line)) == 0 || isComment(line) {
+			continue
+		}
+		if first {
+			first = false
+			if v.layout.Header {
+				continue
+			}
+		}
+		var o Occurrence
+		var ok bool
+		fields, ok = layoutRecord(&o, text, src, ls, ls+len(line), v.layout, fields)
+		if !ok || placeholders[strings.ToLower(o.Text)] {
+			continue
+		}
+		o.Kind, o.Construct, o.Reason = kind, ConstructTableCell, ReasonPlace
+		if queryContent(o.Text) {
+			o.Dialect = DialectSMARTS
+		}
+		out = append(out, o)
+	}
+	queryList(out)
+	return out
+}
+
+// structured reports whether at least a third of the sample cells of the
+// layout's notation field that read as notation show structure beyond
+// letters.
+func structured(src []byte, from int, l Layout) bool {
+	reads, shaped := 0, 0
+	for _, ln := range dataLines(src, from, sampleLines) {
+		f, ok := pick(splitFields(src, ln.start, ln.end, l.Sep, nil), l.Field)
+		if !ok || !fieldReads(src[f.start:f.end]) {
+			continue
+		}
+		reads++
+		if bytes.ContainsAny(src[f.start:f.end], "0123456789()[]=#/\\@.") {
+			shaped++
+		}
+	}
+	return reads > 0 && shaped*3 >= reads
 }
 
 // tableCell is one field: its text as the table means it and the map

@@ -24,10 +24,10 @@ import "strings"
 //     (or, under a "stereoline: notation" pragma, each token).
 
 // templateLiteral decides about a template literal (see above).
-func (cf *codeFinder) templateLiteral(lit *literal, named bool, reason Reason, noGuess bool) {
-	guess := !noGuess && !cf.cfg.NoGuess
+func (cf *codeFinder) templateLiteral(lit *literal, w wants, reason Reason, mark groupMark) {
+	named := w.named()
 	forced := reason == ReasonPragma
-	if !named && (!guess || !mayGuessTemplate(cf.src, lit)) {
+	if !named && (!w.guess || !mayGuessTemplate(cf.src, lit)) {
 		return
 	}
 	d := &decoded{}
@@ -39,16 +39,23 @@ func (cf *codeFinder) templateLiteral(lit *literal, named bool, reason Reason, n
 	if named {
 		switch {
 		case strings.IndexByte(text, '\n') >= 0:
-			cf.records(lit, d, &m, text, reason)
+			cf.records(lit, d, &m, text, w, reason, mark)
 			return
 		case strings.IndexByte(text, holeByte) < 0:
-			if forced && text != "" || plausible(text) {
-				cf.emit(lit, d, &m, 0, len(text), "", reason)
+			if forced && text != "" {
+				cf.emit(lit, d, &m, 0, len(text), "", reason, dialectOf(text), mark)
+				return
+			}
+			for _, r := range decide(text, w) {
+				mk := mark
+				mk.byContent = r.byContent
+				cf.emit(lit, d, &m, r.from, r.to, "", reason, r.dialect, mk)
 			}
 			return
 		}
 		// One line with fields: its tokens, as if unnamed.
 	}
+	guess := w.guess || named
 	for start := 0; start < len(text); {
 		for start < len(text) && isTokenBlank(text[start]) {
 			start++
@@ -58,17 +65,31 @@ func (cf *codeFinder) templateLiteral(lit *literal, named bool, reason Reason, n
 			end++
 		}
 		tok := text[start:end]
-		ok := tok != "" && strings.IndexByte(tok, holeByte) < 0 &&
-			(forced || guess && unmistakable(tok))
-		if ok && cf.prag.allowed(m.host(start)) {
-			why := ReasonGuess
-			if forced {
-				why = ReasonPragma
-			}
-			cf.emit(lit, d, &m, start, end, "", why)
+		if tok == "" || strings.IndexByte(tok, holeByte) >= 0 || !cf.prag.allowed(m.host(start)) {
+			start = end
+			continue
+		}
+		switch {
+		case forced:
+			cf.emit(lit, d, &m, start, end, "", ReasonPragma, dialectOf(tok), mark)
+		case guess && unmistakable(tok):
+			cf.emit(lit, d, &m, start, end, "", ReasonGuess, DialectSMILES, mark)
+		case guess && queryContent(tok) && guessableQuery(tok):
+			mk := mark
+			mk.byContent = true
+			cf.emit(lit, d, &m, start, end, "", ReasonGuess, DialectSMARTS, mk)
 		}
 		start = end
 	}
+}
+
+// dialectOf is the dialect a text forced by a pragma is read in: a query
+// pattern when its content says so.
+func dialectOf(text string) Dialect {
+	if queryContent(text) {
+		return DialectSMARTS
+	}
+	return DialectSMILES
 }
 
 func isTokenBlank(c byte) bool { return c == ' ' || c == '\t' || c == '\r' || c == '\n' }

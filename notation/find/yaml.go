@@ -38,14 +38,14 @@ type yamlFinder struct {
 
 type yamlLevel struct {
 	indent int
-	named  bool
+	w      wants
 }
 
 func (yf *yamlFinder) run() {
 	src := yf.src
 	var stack []yamlLevel
 	block := -1 // indent of the key owning a block scalar being skipped
-	blockNamed := false
+	var blockW wants
 	for start := 0; start < len(src); {
 		line, next := nextLine(src, start)
 		ls := start
@@ -57,7 +57,7 @@ func (yf *yamlFinder) run() {
 		rest := bytes.TrimRight(line, " \t\r")
 		if block >= 0 {
 			if indent > block || len(bytes.TrimSpace(line)) == 0 {
-				if blockNamed && indent < len(rest) && rest[indent] != '#' {
+				if blockW.named() && indent < len(rest) && rest[indent] != '#' {
 					yf.record(rest[indent:], ls+indent)
 				}
 				continue
@@ -75,7 +75,10 @@ func (yf *yamlFinder) run() {
 		for len(stack) > 0 && stack[len(stack)-1].indent >= indent {
 			stack = stack[:len(stack)-1]
 		}
-		named := len(stack) > 0 && stack[len(stack)-1].named
+		var w wants
+		if len(stack) > 0 {
+			w = stack[len(stack)-1].w
+		}
 		at := ls + indent
 		// Sequence items: "- value" or "- key: value".
 		for len(body) > 0 && body[0] == '-' && (len(body) == 1 || body[1] == ' ') {
@@ -83,7 +86,7 @@ func (yf *yamlFinder) run() {
 			for k < len(body) && body[k] == ' ' {
 				k++
 			}
-			stack = append(stack, yamlLevel{indent: indent, named: named})
+			stack = append(stack, yamlLevel{indent: indent, w: w})
 			indent += k
 			body, at = body[k:], at+k
 		}
@@ -92,22 +95,25 @@ func (yf *yamlFinder) run() {
 		}
 		key, valueAt, ok := yamlKey(body)
 		if !ok {
-			yf.scalar(body, at, named)
+			yf.scalar(body, at, w)
 			continue
 		}
-		keyNamed := yf.nm.value(key) || named && !aboutKey(key)
-		if !keyNamed && yf.nm.other(key) {
-			// smiles_file: in.smi, reaction_smarts: ...: not even guessed.
+		keyW, about := yf.nm.classify(key)
+		if !keyW.named() && !aboutKey(key) {
+			keyW = w
+		}
+		if !keyW.named() && about {
+			// smiles_file: in.smi, smarts_col: ...: not even guessed.
 			continue
 		}
 		value := body[valueAt:]
 		switch {
 		case len(value) == 0:
-			stack = append(stack, yamlLevel{indent: indent, named: keyNamed})
+			stack = append(stack, yamlLevel{indent: indent, w: keyW})
 		case value[0] == '|' || value[0] == '>':
-			block, blockNamed = indent, keyNamed
+			block, blockW = indent, keyW
 		default:
-			yf.scalar(value, at+valueAt, keyNamed)
+			yf.scalar(value, at+valueAt, keyW)
 		}
 	}
 }
@@ -169,7 +175,7 @@ func skipSpaces(b []byte, i int) int {
 }
 
 // scalar handles a value: a flow sequence, or one scalar.
-func (yf *yamlFinder) scalar(v []byte, at int, named bool) {
+func (yf *yamlFinder) scalar(v []byte, at int, w wants) {
 	if len(v) > 1 && v[0] == '[' && v[len(v)-1] == ']' {
 		inner := v[1 : len(v)-1]
 		for i := 0; i < len(inner); {
@@ -187,16 +193,17 @@ func (yf *yamlFinder) scalar(v []byte, at int, named bool) {
 			j = min(j, len(inner))
 			item := inner[i:j]
 			lead := len(item) - len(bytes.TrimLeft(item, " "))
-			yf.one(bytes.TrimSpace(item), at+1+i+lead, named)
+			yf.one(bytes.TrimSpace(item), at+1+i+lead, w)
 			i = j + 1
 		}
 		return
 	}
-	yf.one(v, at, named)
+	yf.one(v, at, w)
 }
 
 // one handles a single scalar at host offset at.
-func (yf *yamlFinder) one(v []byte, at int, named bool) {
+func (yf *yamlFinder) one(v []byte, at int, w wants) {
+	named := w.named()
 	if len(v) == 0 || !yf.prag.allowed(at) || !named && yf.cfg.NoGuess {
 		return
 	}
@@ -236,14 +243,20 @@ func (yf *yamlFinder) one(v []byte, at int, named bool) {
 	}
 	text := string(d.text)
 	reason := ReasonName
+	dialect := DialectSMILES
 	switch {
 	case yf.prag.forced(at):
-		reason = ReasonPragma
-	case named && plausible(text):
-	case !named && unmistakable(text):
-		reason = ReasonGuess
+		reason, dialect = ReasonPragma, dialectOf(text)
 	default:
-		return
+		w.guess = !named
+		rs := decide(text, w)
+		if len(rs) != 1 || rs[0].to-rs[0].from != len(text) {
+			return
+		}
+		dialect = rs[0].dialect
+		if !named {
+			reason = ReasonGuess
+		}
 	}
 	start := at
 	if quote != 0 {
@@ -256,6 +269,7 @@ func (yf *yamlFinder) one(v []byte, at int, named bool) {
 		Kind:      KindYAML,
 		Construct: ConstructYAMLValue,
 		Reason:    reason,
+		Dialect:   dialect,
 		m:         m,
 	}
 	if quote == '"' {

@@ -45,6 +45,9 @@ type Result struct {
 	Content []byte
 	Kind    find.Kind
 	Records []Record
+	// Queries are the query patterns (SMARTS) of the document, read by
+	// their own reader and never checked as notation (query.go).
+	Queries []Query
 	// Diagnostics are sorted by host position.
 	Diagnostics []Diagnostic
 
@@ -162,7 +165,8 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	cfg := a.cfg
 	kind := a.kindOf(name, languageID)
 	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
-	occs := find.FindKind(kind, content, cfg.findConfig())
+	occs := find.FindKind(kind, content, cfg.findConfig(name))
+	occs = res.splitQueries(occs)
 	res.Records = make([]Record, len(occs))
 	fill := func(i int) {
 		an := a.cache.get(occs[i].Text)
@@ -172,6 +176,7 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	for i := range res.Records {
 		res.recordDiagnostics(i)
 	}
+	res.queryDiagnostics()
 	res.sortDiagnostics()
 	return res
 }
@@ -291,29 +296,41 @@ func (r *Result) RecordAt(off int) int {
 	return -1
 }
 
-// Symbol is an outline entry: one record of a list file.
+// Symbol is an outline entry: one record or query pattern.
 type Symbol struct {
 	Name string
 	Span notation.Span
+	// Query is true for a query pattern (SMARTS).
+	Query bool
 }
 
-// Symbols returns an outline entry per record of a list or table: its
-// title, or the start of its notation. Source code has an outline of its
-// own, so it gets none.
+// Symbols returns an outline entry per record and query pattern of the
+// document, in host order: its title, or the start of its text. In a
+// list or table that is the whole outline; in source code, Markdown,
+// JSON, YAML and notebooks the entries are the notation found there,
+// which editors that merge the outlines of several servers show beside
+// the language's own symbols.
 func (r *Result) Symbols() []Symbol {
-	if r.Kind != find.KindList && r.Kind != find.KindCSV && r.Kind != find.KindTSV {
-		return nil
-	}
-	out := make([]Symbol, 0, len(r.Records))
+	out := make([]Symbol, 0, len(r.Records)+len(r.Queries))
 	for _, rec := range r.Records {
-		name := rec.Occ.Title
-		if name == "" {
-			name = rec.Occ.Text
-			if len(name) > 40 {
-				name = name[:40] + "…"
-			}
-		}
-		out = append(out, Symbol{Name: name, Span: rec.Occ.Span})
+		out = append(out, Symbol{Name: symbolName(rec.Occ), Span: rec.Occ.Span})
 	}
+	for _, q := range r.Queries {
+		out = append(out, Symbol{Name: symbolName(q.Occ), Span: q.Occ.Span, Query: true})
+	}
+	sort.SliceStable(out, func(i, j int) bool { return out[i].Span.Start < out[j].Span.Start })
 	return out
+}
+
+// symbolName names an occurrence in the outline: its title, or the
+// start of its text.
+func symbolName(o *find.Occurrence) string {
+	if o.Title != "" {
+		return o.Title
+	}
+	name := o.Text
+	if len(name) > 40 {
+		name = name[:40] + "…"
+	}
+	return name
 }

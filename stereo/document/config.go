@@ -10,7 +10,9 @@ import (
 	"encoding/json"
 	"fmt"
 	"maps"
+	"path"
 	"slices"
+	"strings"
 
 	"stereoline/notation"
 	"stereoline/notation/find"
@@ -37,6 +39,11 @@ type Config struct {
 	// Files maps extra file patterns (path.Match syntax on the base name)
 	// to a host kind: "smi", "csv", "tsv", "python", "markdown", ...
 	Files map[string]string `json:"files,omitempty"`
+	// Layouts maps file patterns (path.Match syntax on the base name) to
+	// the layout of those record lists, in the syntax of
+	// find.ParseLayout ("field=2 sep=tab header"); a "stereoline:
+	// layout" pragma in a file wins over it.
+	Layouts map[string]string `json:"layouts,omitempty"`
 }
 
 // DefaultConfig returns the configuration used when nothing is set.
@@ -58,6 +65,14 @@ func (c *Config) Validate() error {
 	case "", "normal", "names":
 	default:
 		return fmt.Errorf("detection: expected normal or names, found %q", c.Detection)
+	}
+	for pat, spec := range c.Layouts {
+		if _, err := path.Match(pat, ""); err != nil {
+			return fmt.Errorf("layouts: pattern %q: %v", pat, err)
+		}
+		if _, err := find.ParseLayout(spec); err != nil {
+			return fmt.Errorf("layouts: %v", err)
+		}
 	}
 	return nil
 }
@@ -95,8 +110,19 @@ func (c *Config) severityFor(code notation.Code, s notation.Severity) (notation.
 	return s, true
 }
 
-func (c *Config) findConfig() find.Config {
-	return find.Config{Columns: c.Columns, Names: c.Names, NoGuess: c.Detection == "names"}
+// findConfig is the finder's configuration for a file of this name: the
+// layout of the first layouts pattern (in sorted order) matching its base
+// name.
+func (c *Config) findConfig(name string) find.Config {
+	fc := find.Config{Columns: c.Columns, Names: c.Names, NoGuess: c.Detection == "names"}
+	base := path.Base(strings.ReplaceAll(name, "\\", "/"))
+	for _, pat := range slices.Sorted(maps.Keys(c.Layouts)) {
+		if ok, _ := path.Match(pat, base); ok {
+			fc.Layout = c.Layouts[pat]
+			break
+		}
+	}
+	return fc
 }
 
 // clone returns a copy of c that shares no map or slice with it, so that
@@ -105,6 +131,7 @@ func (c *Config) clone() Config {
 	n := *c
 	n.Severity = maps.Clone(c.Severity)
 	n.Files = maps.Clone(c.Files)
+	n.Layouts = maps.Clone(c.Layouts)
 	n.Columns = slices.Clone(c.Columns)
 	n.Names = slices.Clone(c.Names)
 	return n

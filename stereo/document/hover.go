@@ -19,6 +19,10 @@ const Caution = "_Descriptors are computed from the notation as written. Critica
 func (r *Result) Hover(off int) (string, notation.Span, bool) {
 	ri := r.RecordAt(off)
 	if ri < 0 {
+		if q := r.queryAt(off); q != nil {
+			text, span := q.hover(off)
+			return text + "\n\n" + Caution, span, true
+		}
 		return "", notation.Span{}, false
 	}
 	rec := &r.Records[ri]

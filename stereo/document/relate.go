@@ -39,6 +39,7 @@ func (r *Result) Relate() *Result {
 		Content:     r.Content,
 		Kind:        r.Kind,
 		Records:     append([]Record(nil), r.Records...),
+		Queries:     r.Queries,
 		Diagnostics: append([]Diagnostic(nil), r.Diagnostics...),
 		cfg:         r.cfg,
 		related:     true,

@@ -30,7 +30,7 @@ that RDKit does not read back to the molecule it was written from
 
 Usage: /usr/bin/python3 testdata/rdkit/gen_groups.py [first_5K.smi] [out.tsv]
 Environment: RDKIT_JS_DIR, the folder whose node_modules holds
-@rdkit/rdkit (default /work/coord/npm); without it the js column is "-".
+@rdkit/rdkit (default ~/.cache/stereoline-npm); without it the js column is "-".
 """
 
 import json
@@ -50,7 +50,7 @@ SEED = 20316
 FROM_CIP = 400  # isomers taken from cip_labels.tsv
 FROM_NCI = 250  # fresh NCI records
 REACTIONS = 120
-JS_DIR = os.environ.get("RDKIT_JS_DIR", "/work/coord/npm")
+JS_DIR = os.environ.get("RDKIT_JS_DIR", os.path.expanduser("~/.cache/stereoline-npm"))
 
 KINDS = {
     Chem.StereoGroupType.STEREO_ABSOLUTE: "abs",

@@ -1,0 +1,133 @@
+package find
+
+import (
+	"bytes"
+	"sort"
+)
+
+// Doctests (the Python standard library's doctest module): lines of a
+// docstring that start, after blanks, with the prompt ">>> " hold code,
+// and lines starting with "... " right after them continue it. That code
+// is Python like any other: Chem.MolFromSmiles('CCO') there names its
+// argument as it would in the module.
+
+// docString reports whether an unnamed literal is worth reading as a
+// docstring: one triple-quoted piece with doctest lines or a run of
+// notation bytes with a mark, digit or bracket in it (evidenceRun), the
+// only kind of token its prose could hold unmistakable notation in.
+func docString(src []byte, lit *literal) bool {
+	if len(lit.pieces) != 1 || len(lit.pieces[0].quote) != 3 || lit.pieces[0].template {
+		return false
+	}
+	c := src[lit.pieces[0].content.Start:lit.pieces[0].content.End]
+	return bytes.Contains(c, []byte(">>>")) || evidenceRun(c)
+}
+
+// doctest reads the code of the doctest lines of a literal: the literal
+// is decoded as Python decodes it, everything but the code after the
+// prompts is blanked out (offsets kept, so positions carry over), the
+// result is searched as Python code, and what is found is lifted through
+// the literal's map to the file.
+func (cf *codeFinder) doctest(lit *literal) {
+	n0 := len(cf.out)
+	defer func() {
+		// Prose and code were searched apart: host order again.
+		added := cf.out[n0:]
+		sort.SliceStable(added, func(i, j int) bool { return added[i].Span.Start < added[j].Span.Start })
+	}()
+	d := &decoded{}
+	m := cf.decode(lit, d)
+	code := doctestCode(d.text)
+	cf.prose(lit, d, &m, code)
+	if code == nil {
+		return
+	}
+	inner := &codeFinder{src: code, lang: cf.lang, cfg: cf.cfg, nm: cf.nm, prag: newPragmas(code), inner: true}
+	inner.walk(cf.lang.lex(code, inner.prag))
+	inner.agree()
+	if len(inner.out) == 0 {
+		return
+	}
+	var encode func(string) string
+	if !lit.pieces[0].raw {
+		encode = doubleBackslashes
+	}
+	lift(inner.out, m, encode)
+	// The groups of the doctest code are its own: their numbers are
+	// moved past those of the file.
+	cf.doctests++
+	base := int32(cf.doctests) << 20
+	for _, o := range inner.out {
+		if !cf.prag.allowed(o.Span.Start) {
+			continue
+		}
+		if o.group.key != 0 {
+			o.group.key += base
+		}
+		cf.out = append(cf.out, o)
+	}
+}
+
+// prose takes the unmistakable notation of the lines of a docstring that
+// are no doctest code (its prose, and the expected output of doctests,
+// where results are often notation), token by token as templates are
+// read: a token is a run of text between blanks, with a trailing '.',
+// ',', ';' or ':' of the sentence dropped.
+func (cf *codeFinder) prose(lit *literal, d *decoded, m *offsetMap, code []byte) {
+	text := d.text
+	for start := 0; start < len(text); {
+		for start < len(text) && isTokenBlank(text[start]) {
+			start++
+		}
+		end := start
+		for end < len(text) && !isTokenBlank(text[end]) {
+			end++
+		}
+		tok := end
+		for tok > start && (text[tok-1] == '.' || text[tok-1] == ',' || text[tok-1] == ';' || text[tok-1] == ':') {
+			tok--
+		}
+		if tok > start && (code == nil || code[start] == ' ') && cf.prag.allowed(m.host(start)) {
+			s := string(text[start:tok])
+			switch {
+			case unmistakable(s):
+				cf.emit(lit, d, m, start, tok, "", ReasonGuess, DialectSMILES, groupMark{})
+			case queryContent(s) && guessableQuery(s):
+				cf.emit(lit, d, m, start, tok, "", ReasonGuess, DialectSMARTS, groupMark{})
+			}
+		}
+		start = end
+	}
+}
+
+// doctestCode returns text with everything but the code of its doctest
+// lines blanked out (line breaks kept), or nil when it has none.
+func doctestCode(text []byte) []byte {
+	code := bytes.Repeat([]byte{' '}, len(text))
+	found, inCode := false, false
+	for start := 0; start < len(text); {
+		line, next := nextLine(text, start)
+		if next <= len(text) && next > 0 && text[next-1] == '\n' {
+			code[next-1] = '\n'
+		}
+		k := 0
+		for k < len(line) && (line[k] == ' ' || line[k] == '\t') {
+			k++
+		}
+		rest := line[k:]
+		switch {
+		case bytes.HasPrefix(rest, []byte(">>> ")) || bytes.Equal(bytes.TrimRight(rest, "\r"), []byte(">>>")):
+			found, inCode = true, true
+			copy(code[start+k+3:start+len(line)], line[k+3:])
+		case inCode && (bytes.HasPrefix(rest, []byte("... ")) || bytes.Equal(bytes.TrimRight(rest, "\r"), []byte("..."))):
+			copy(code[start+k+3:start+len(line)], line[k+3:])
+		default:
+			inCode = false
+		}
+		start = next
+	}
+	if !found {
+		return nil
+	}
+	return code
+}

@@ -23,6 +23,17 @@ func mix(h, v uint64) uint64 {
 
 // canonicalRanks returns a rank per atom, 0 first, all distinct.
 func canonicalRanks(m *notation.Molecule, ringAtom []bool, an *stereo.Analysis) []int {
+	return ranks(m, ringAtom, an, true)
+}
+
+// symmetryClasses returns the refined classes of the constitution alone
+// (no labels, no tie breaking): atoms a symmetry of the graph may
+// exchange share a class.
+func symmetryClasses(m *notation.Molecule, ringAtom []bool) []int {
+	return ranks(m, ringAtom, nil, false)
+}
+
+func ranks(m *notation.Molecule, ringAtom []bool, an *stereo.Analysis, distinct bool) []int {
 	n := len(m.Atoms)
 	desc := make([]uint64, n)
 	if an != nil {
@@ -53,6 +64,9 @@ func canonicalRanks(m *notation.Molecule, ringAtom []bool, an *stereo.Analysis) 
 		inv[i] = mix(h, desc[i])
 	}
 	cls := denseRanks(inv)
+	if !distinct {
+		return refine(m, cls)
+	}
 	limit := n
 	if n > 300 {
 		limit = 0 // large records: ties broken by position at once

@@ -87,6 +87,9 @@ type Atom struct {
 	Charge    int
 	Isotope   int
 	HSide     HSide
+	// Condensed marks a label that stands for a group (a Fischer
+	// projection's "CH2OH"): drawn as written, digits as subscripts.
+	Condensed bool
 	Mark      Mark
 	Role      notation.Role
 }

@@ -110,6 +110,14 @@ func labelAtom(d *Drawing, i int, nb []int) {
 		a.HSide = HRight
 		return
 	}
+	if len(dirs) == 1 {
+		// a terminal atom writes its hydrogens across, away from its bond
+		a.HSide = HRight
+		if math.Cos(dirs[0]) > 0.3 {
+			a.HSide = HLeft
+		}
+		return
+	}
 	start, w := largestGap(dirs)
 	t := start + w/2
 	c, s := math.Cos(t), math.Sin(t)

@@ -50,6 +50,13 @@ type layout struct {
 	arrows    []Arrow
 	pluses    []Plus
 	notes     []Note
+
+	// a Fischer molfile's fixed atoms (fischer.go): positions, the
+	// centres whose bonds they style, the styles and hydrogens
+	pins     map[int]Point
+	pinned   map[int]bool
+	pinStyle map[int]bondStyle
+	pinH     []addedH
 }
 
 type ringSystem struct {
@@ -102,12 +109,25 @@ func (l *layout) run() {
 	l.findComponents()
 	l.findSystems()
 	for _, c := range l.comps {
+		if l.pinComponent(c) {
+			l.keepDoubleBonds(c)
+			continue
+		}
 		l.layoutComponent(c)
 		l.keepDoubleBonds(c)
 		l.tidy(c)
 		l.orient(c)
 	}
-	l.arrange()
+	if l.pins == nil {
+		l.arrange()
+	}
+	for bi, st := range l.pinStyle {
+		l.style[bi] = st
+	}
+	for _, h := range l.pinH {
+		l.hydrogens = append(l.hydrogens, h)
+		l.hStyle = append(l.hStyle, bondStyle{style: StyleWedge, narrow: h.centre})
+	}
 	l.drawStereo()
 }
 
@@ -289,6 +309,47 @@ func (l *layout) layoutComponent(c []int) {
 	for k := 0; k < len(queue); k++ {
 		queue = l.expand(queue[k], queue)
 	}
+}
+
+// pinComponent places a component that holds pinned atoms: those at
+// their places, ring systems through them attached, the rest grown
+// around them. It reports false when c holds no pinned atom.
+func (l *layout) pinComponent(c []int) bool {
+	var queue []int
+	for _, a := range c {
+		if p, ok := l.pins[a]; ok {
+			l.pos[a] = p
+			l.placed[a] = true
+			queue = append(queue, a)
+		}
+	}
+	if len(queue) == 0 {
+		return false
+	}
+	attached := map[int]bool{}
+	for _, a := range slices.Clone(queue) {
+		s := l.sysOf[a]
+		if s < 0 || attached[s] {
+			continue
+		}
+		attached[s] = true
+		from := -1
+		for _, y := range l.nbr[a] {
+			if l.pinned[y] {
+				from = y
+			}
+		}
+		if from < 0 {
+			continue
+		}
+		l.attachSystem(s, a, from)
+		queue = append(queue, l.systems[s].atoms...)
+	}
+	l.heights(c, queue)
+	for k := 0; k < len(queue); k++ {
+		queue = l.expand(queue[k], queue)
+	}
+	return true
 }
 
 // chainEnd returns an end of a longest path of an acyclic component
@@ -534,6 +595,17 @@ func (l *layout) keepDoubleBonds(c []int) {
 			set = other
 		} else if other := l.sideOf(e0, w.Inner[0]); other != nil && !slices.Contains(other, e1) && len(other) < len(set) {
 			set = other
+		}
+		if l.pins != nil {
+			moved := false
+			for _, x := range set {
+				if _, ok := l.pins[x]; ok {
+					moved = true
+				}
+			}
+			if moved {
+				continue
+			}
 		}
 		a, b := l.pos[e0], l.pos[e1]
 		for _, x := range set {

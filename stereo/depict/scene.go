@@ -338,7 +338,41 @@ func (sc *scene) atomLabel(d *Drawing, i int, px func(Point) Point) {
 	case MarkWarning:
 		col = colWarn
 	}
-	if a.Label != "" {
+	if a.Label != "" && a.Condensed {
+		var rs []run
+		for _, r := range a.Label {
+			shift := 0
+			if r >= '0' && r <= '9' {
+				shift = -1
+			}
+			if n := len(rs); n > 0 && rs[n-1].shift == shift {
+				rs[n-1].s += string(r)
+			} else {
+				rs = append(rs, run{s: string(r), shift: shift})
+			}
+		}
+		anchor := 0
+		q := base
+		// side groups read outwards from the cross
+		for _, b := range d.Bonds {
+			o := -1
+			if b.A == i {
+				o = b.B
+			} else if b.B == i {
+				o = b.A
+			}
+			if o < 0 {
+				continue
+			}
+			switch dx := a.P.X - d.Atoms[o].P.X; {
+			case dx > 0.5:
+				anchor, q = -1, base.sub(Point{textWidth(a.Label[:1], atomFont) / 2, 0})
+			case dx < -0.5:
+				anchor, q = 1, base.add(Point{textWidth(a.Label[len(a.Label)-1:], atomFont) / 2, 0})
+			}
+		}
+		sc.prims = append(sc.prims, textPrim(q, rs, atomFont, anchor, col))
+	} else if a.Label != "" {
 		sym := a.Symbol
 		symW := textWidth(sym, atomFont)
 		var h []run

@@ -41,7 +41,7 @@ func (l *layout) drawStereo() {
 	var tetra []int
 	for i := range units {
 		u := &units[i]
-		if u.Specified && u.Kind == stereo.KindTetrahedral && u.Centre >= 0 {
+		if u.Specified && u.Kind == stereo.KindTetrahedral && u.Centre >= 0 && !l.pinned[u.Centre] {
 			tetra = append(tetra, u.Centre)
 		}
 	}
@@ -184,9 +184,35 @@ func (l *layout) addHydrogen(c int) {
 	for _, y := range l.nbr[c] {
 		dirs = append(dirs, l.pos[y].sub(l.pos[c]).angle())
 	}
+	// the middle of the widest gap, or of another wide one when an atom
+	// or an earlier hydrogen sits there
 	start, w := largestGap(dirs)
-	t := start + w/2
-	l.hydrogens = append(l.hydrogens, addedH{centre: c, p: l.pos[c].add(polar(0.75, t))})
+	best, bestClear := start+w/2, -1.0
+	for k := 0; k < 24; k++ {
+		t := 2 * math.Pi * float64(k) / 24
+		minGap := math.Pi
+		for _, d := range dirs {
+			minGap = min(minGap, angleDiff(t, d))
+		}
+		if minGap < 0.9 {
+			continue
+		}
+		p := l.pos[c].add(polar(0.75, t))
+		clear := math.Inf(1)
+		for _, x := range l.comps[l.compOf[c]] {
+			if x != c {
+				clear = min(clear, p.dist(l.pos[x]))
+			}
+		}
+		for _, h := range l.hydrogens {
+			clear = min(clear, p.dist(h.p))
+		}
+		score := min(clear, 1.2) + 0.2*minGap
+		if score > bestClear {
+			best, bestClear = t, score
+		}
+	}
+	l.hydrogens = append(l.hydrogens, addedH{centre: c, p: l.pos[c].add(polar(0.75, best))})
 	l.hStyle = append(l.hStyle, bondStyle{style: StyleSingle, narrow: -1})
 }
 
@@ -261,97 +287,92 @@ func (l *layout) setStyle(c, x int, st Style) {
 
 // wedgeAllene gives allene centre a a wedge and hash at one end, so that
 // end's substituents stand across the paper while the other end's lie in
-// it.
+// it. A hydrogen of the standing end is drawn, so both bonds show.
 func (l *layout) wedgeAllene(a int) {
 	w, ok := stereo.ReadAllene(l.m, a)
 	if !ok {
 		return
 	}
-	want := w.Clockwise
 	for _, e := range []int{1, 0} {
 		end := w.Ends[e]
 		var subs []int
+		usable := true
 		for _, y := range l.nbr[end] {
 			if y == w.Inner[e] {
 				continue
 			}
 			bi := l.m.BondBetween(end, y)
 			if bi < 0 || kekule(&l.m.Bonds[bi]) != 1 || l.styled(bi) {
-				subs = nil
-				break
+				usable = false
 			}
 			subs = append(subs, y)
 		}
-		if len(subs) == 0 {
+		if !usable || len(subs) == 0 {
 			continue
 		}
 		axis := l.pos[end].sub(l.pos[w.Inner[e]]).unit()
-		pos3 := func(x int, upFirst bool) [3]float64 {
-			// substituents of the standing end: along the axis and up or
-			// down; of the other end: in the paper
-			onEnd := -1
-			for i, s := range subs {
-				if s == x {
-					onEnd = i
-				}
-			}
-			if x == stereo.ImplicitNeighbour {
-				return [3]float64{}
-			}
-			if onEnd < 0 {
-				v := l.pos[x].sub(l.pos[a])
-				return [3]float64{v.X, v.Y, 0}
-			}
-			v := l.pos[x].sub(l.pos[end])
-			along := v.dot(axis)
-			across := math.Abs(v.cross(axis))
-			z := across
-			if (onEnd == 0) != upFirst {
-				z = -z
-			}
-			p := l.pos[end].sub(l.pos[a]).add(axis.scale(along))
-			return [3]float64{p.X, p.Y, z}
+		hAt := -1
+		if len(subs) == 1 && l.m.Atoms[end].HydrogenCount() == 1 {
+			p := l.pos[subs[0]].reflect(l.pos[end], l.pos[end].add(axis))
+			l.hydrogens = append(l.hydrogens, addedH{centre: end, p: p})
+			l.hStyle = append(l.hStyle, bondStyle{style: StyleSingle, narrow: -1})
+			hAt = l.n + len(l.hydrogens) - 1
+			subs = append(subs, hAt)
 		}
-		vol := func(upFirst bool) float64 {
-			var pts [4][3]float64
-			for i, x := range w.Ligands {
-				if x != stereo.ImplicitNeighbour {
-					pts[i] = pos3(x, upFirst)
+		drawn := func(x int) Point {
+			if x >= l.n {
+				return l.hydrogens[x-l.n].p
+			}
+			return l.pos[x]
+		}
+		// positions in space: the standing end's substituents along the
+		// axis and up (the first) or down; the other end's in the paper
+		pos3 := func(x int) [3]float64 {
+			if i := slices.Index(subs, x); i >= 0 {
+				v := drawn(x).sub(l.pos[end])
+				z := math.Abs(v.cross(axis))
+				if i == 1 {
+					z = -z
+				}
+				p := l.pos[end].sub(l.pos[a]).add(axis.scale(v.dot(axis)))
+				return [3]float64{p.X, p.Y, z}
+			}
+			v := drawn(x).sub(l.pos[a])
+			return [3]float64{v.X, v.Y, 0}
+		}
+		var pts [4][3]float64
+		for i, x := range w.Ligands {
+			if x == stereo.ImplicitNeighbour {
+				t := w.Ends[w.LigandEnd[i]]
+				if t == end && hAt >= 0 {
+					x = hAt
+				} else {
+					// the other end's hydrogen: its drawn mate mirrored
+					// across the axis in the paper
+					mate := -1
+					for j, y := range w.Ligands {
+						if j != i && y != stereo.ImplicitNeighbour && w.LigandEnd[j] == w.LigandEnd[i] {
+							mate = y
+						}
+					}
+					if mate < 0 {
+						return
+					}
+					r := l.pos[mate].reflect(l.pos[t], l.pos[a]).sub(l.pos[a])
+					pts[i] = [3]float64{r.X, r.Y, 0}
 					continue
 				}
-				// a hydrogen: opposite the drawn substituent of its end
-				t := w.Ends[w.LigandEnd[i]]
-				var mate int = -1
-				for j, y := range w.Ligands {
-					if j != i && y != stereo.ImplicitNeighbour && w.LigandEnd[j] == w.LigandEnd[i] {
-						mate = y
-					}
-				}
-				if mate < 0 {
-					return 0
-				}
-				q := pos3(mate, upFirst)
-				base := l.pos[t].sub(l.pos[a])
-				if t == end {
-					pts[i] = [3]float64{q[0], q[1], -q[2]}
-				} else {
-					// mirrored across the axis in the paper
-					mp := Point{q[0], q[1]}.sub(base)
-					ax := l.pos[t].sub(l.pos[a]).unit()
-					mp = ax.scale(2 * mp.dot(ax)).sub(mp)
-					r := base.add(mp)
-					pts[i] = [3]float64{r.X, r.Y, 0}
-				}
 			}
-			return orient(pts)
+			pts[i] = pos3(x)
 		}
-		v := vol(true)
+		v := orient(pts)
 		if math.Abs(v) < 1e-6 {
-			continue
+			return
 		}
-		upFirst := (v > 0) == want
+		// with the first substituent up the volume is v; '@@' wants it
+		// positive
 		first, second := StyleWedge, StyleHash
-		if !upFirst {
+		if (v > 0) != w.Clockwise {
 			first, second = StyleHash, StyleWedge
 		}
 		l.setStyle(end, subs[0], first)

@@ -4,17 +4,20 @@ import "math"
 
 // This file implements the plane geometry the layout uses.
 
-func (p Point) add(q Point) Point       { return Point{p.X + q.X, p.Y + q.Y} }
-func (p Point) sub(q Point) Point       { return Point{p.X - q.X, p.Y - q.Y} }
-func (p Point) scale(f float64) Point   { return Point{p.X * f, p.Y * f} }
-func (p Point) dot(q Point) float64     { return p.X*q.X + p.Y*q.Y }
-func (p Point) cross(q Point) float64   { return p.X*q.Y - p.Y*q.X }
-func (p Point) norm() float64           { return math.Hypot(p.X, p.Y) }
-func (p Point) dist(q Point) float64    { return math.Hypot(p.X-q.X, p.Y-q.Y) }
-func (p Point) angle() float64          { return math.Atan2(p.Y, p.X) }
-func (p Point) perp() Point             { return Point{-p.Y, p.X} }
-func polar(r, theta float64) Point      { return Point{r * math.Cos(theta), r * math.Sin(theta)} }
-func (p Point) rotate(t float64) Point  { s, c := math.Sincos(t); return Point{p.X*c - p.Y*s, p.X*s + p.Y*c} }
+func (p Point) add(q Point) Point     { return Point{p.X + q.X, p.Y + q.Y} }
+func (p Point) sub(q Point) Point     { return Point{p.X - q.X, p.Y - q.Y} }
+func (p Point) scale(f float64) Point { return Point{p.X * f, p.Y * f} }
+func (p Point) dot(q Point) float64   { return p.X*q.X + p.Y*q.Y }
+func (p Point) cross(q Point) float64 { return p.X*q.Y - p.Y*q.X }
+func (p Point) norm() float64         { return math.Hypot(p.X, p.Y) }
+func (p Point) dist(q Point) float64  { return math.Hypot(p.X-q.X, p.Y-q.Y) }
+func (p Point) angle() float64        { return math.Atan2(p.Y, p.X) }
+func (p Point) perp() Point           { return Point{-p.Y, p.X} }
+func polar(r, theta float64) Point    { return Point{r * math.Cos(theta), r * math.Sin(theta)} }
+func (p Point) rotate(t float64) Point {
+	s, c := math.Sincos(t)
+	return Point{p.X*c - p.Y*s, p.X*s + p.Y*c}
+}
 func (p Point) around(c Point, t float64) Point { return p.sub(c).rotate(t).add(c) }
 
 func (p Point) unit() Point {

@@ -37,11 +37,11 @@ var lightRGBA = [...]color.NRGBA{
 }
 
 var fonts struct {
-	once                     sync.Once
-	regular, bold, boldItal  *opentype.Font
-	err                      error
-	faces                    map[faceKey]font.Face
-	mu                       sync.Mutex
+	once                    sync.Once
+	regular, bold, boldItal *opentype.Font
+	err                     error
+	faces                   map[faceKey]font.Face
+	mu                      sync.Mutex
 }
 
 type faceKey struct {

@@ -62,7 +62,9 @@ func WriteSVG(w io.Writer, d *Drawing) error {
 
 func esc(s string) string { return html.EscapeString(s) }
 
-func f1(x float64) string { return strings.TrimSuffix(strings.TrimRight(fmt.Sprintf("%.1f", x), "0"), ".") }
+func f1(x float64) string {
+	return strings.TrimSuffix(strings.TrimRight(fmt.Sprintf("%.1f", x), "0"), ".")
+}
 
 func writePrim(b *strings.Builder, p *prim) {
 	cls := classOf[p.col]

@@ -58,7 +58,7 @@ func ranks(m *notation.Molecule, ringAtom []bool, an *stereo.Analysis, distinct 
 		}
 		order := 0
 		for _, bi := range a.Bonds {
-			order += 1 << (4 * kekule(&m.Bonds[bi]))
+			order += 1 << (4 * bondClass(&m.Bonds[bi]))
 		}
 		h = mix(h, uint64(order))
 		inv[i] = mix(h, desc[i])
@@ -128,6 +128,15 @@ func kekule(b *notation.Bond) int {
 	return 1
 }
 
+// bondClass is the bond order canonical choices see: aromatic bonds
+// alike whatever Kekulé structure the writing led to.
+func bondClass(b *notation.Bond) int {
+	if b.Order == notation.OrderAromatic {
+		return 5
+	}
+	return kekule(b)
+}
+
 // refine splits classes by the classes of the neighbours until the count
 // stops growing.
 func refine(m *notation.Molecule, cls []int) []int {
@@ -140,7 +149,7 @@ func refine(m *notation.Molecule, cls []int) []int {
 			buf = buf[:0]
 			for _, bi := range m.Atoms[i].Bonds {
 				b := &m.Bonds[bi]
-				buf = append(buf, uint64(cls[b.Other(i)])<<3|uint64(kekule(b)))
+				buf = append(buf, uint64(cls[b.Other(i)])<<3|uint64(bondClass(b)))
 			}
 			slices.Sort(buf)
 			h := uint64(cls[i]) << 32

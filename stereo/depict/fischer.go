@@ -22,8 +22,8 @@ import (
 // P-103 of the same recommendations, from memory).
 //
 // Views are made for open chains with two or more consecutive specified
-// stereocentres on carbon and for alpha-amino acids with a specified
-// alpha carbon.
+// stereocentres on carbon, for alpha-amino acids with a specified alpha
+// carbon and for monosaccharides with one stereocentre (glyceraldehyde).
 
 // FischerRow is one stereocentre of the projection: the atom and the
 // ligands drawn to its left and right (0-based atoms; -1 for an implicit
@@ -94,24 +94,28 @@ func FischerOf(m *notation.Molecule, an *stereo.Analysis) (f *Fischer, reason st
 			f.Top, f.Bottom = f.Bottom, f.Top
 		}
 	} else {
+		chain = nil
 		for _, fl := range stereo.Families(m) {
-			if fl.Kind != stereo.FamilyAminoAcid || !isCentre[fl.Atom] {
+			if !isCentre[fl.Atom] {
 				continue
 			}
 			c := fl.Atom
 			top, bottom := -1, -1
 			for _, y := range neighbours(m, c) {
 				switch {
-				case m.Atoms[y].Number == notation.ElemN && !m.Atoms[y].Aromatic:
-				case top < 0 && isCarboxyl(m, y):
+				case fl.Kind == stereo.FamilyAminoAcid && m.Atoms[y].Number == notation.ElemN && !m.Atoms[y].Aromatic:
+				case fl.Kind == stereo.FamilyAminoAcid && top < 0 && isCarboxyl(m, y):
 					top = y
+				case fl.Kind == stereo.FamilySugar && m.Atoms[y].Number == notation.ElemO:
+				case fl.Kind == stereo.FamilySugar && m.Atoms[y].Number == notation.ElemC && oxidation(m, y) >= 2 && top < 0:
+					top = y // a one-centre sugar: glyceraldehyde, its aldehyde on top
 				default:
 					bottom = y
 				}
 			}
 			if top >= 0 && bottom >= 0 {
 				chain = []int{c}
-				f.Top, f.Bottom, f.AminoAcid = top, bottom, true
+				f.Top, f.Bottom, f.AminoAcid = top, bottom, fl.Kind == stereo.FamilyAminoAcid
 				break
 			}
 		}

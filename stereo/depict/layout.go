@@ -106,6 +106,9 @@ func (l *layout) run() {
 		l.linear[i] = l.isLinear(i)
 	}
 	l.readStereo()
+	slices.SortFunc(l.fixed, func(a, b stereo.WrittenBond) int {
+		return min(l.rank[a.Ends[0]], l.rank[a.Ends[1]]) - min(l.rank[b.Ends[0]], l.rank[b.Ends[1]])
+	})
 	l.findComponents()
 	l.findSystems()
 	for _, c := range l.comps {
@@ -286,7 +289,8 @@ func (l *layout) layoutComponent(c []int) {
 	bestSys := -1
 	for _, a := range c {
 		if s := l.sysOf[a]; s >= 0 {
-			if bestSys < 0 || len(l.systems[s].atoms) > len(l.systems[bestSys].atoms) {
+			if bestSys < 0 || len(l.systems[s].atoms) > len(l.systems[bestSys].atoms) ||
+				len(l.systems[s].atoms) == len(l.systems[bestSys].atoms) && l.rank[l.systems[s].atoms[0]] < l.rank[l.systems[bestSys].atoms[0]] {
 				bestSys = s
 			}
 		}
@@ -586,14 +590,13 @@ func (l *layout) keepDoubleBonds(c []int) {
 		if s0 == 0 || s1 == 0 || (s0 != s1) == w.Trans {
 			continue
 		}
-		set := l.sideOf(e1, w.Inner[1])
-		if set == nil || slices.Contains(set, e0) {
-			other := l.sideOf(e0, w.Inner[0])
-			if other == nil || slices.Contains(other, e1) {
-				continue // both ends in one ring: left to the ring layout
-			}
-			set = other
-		} else if other := l.sideOf(e0, w.Inner[0]); other != nil && !slices.Contains(other, e1) && len(other) < len(set) {
+		// mirror the smaller side; of equal sides, the one without the
+		// canonically first atom
+		set, other := l.sideOf(e1, w.Inner[1]), l.sideOf(e0, w.Inner[0])
+		if slices.Contains(set, e0) || slices.Contains(other, e1) {
+			continue // both ends in one ring: left to the ring layout
+		}
+		if len(other) < len(set) || (len(other) == len(set) && l.minRank(other) > l.minRank(set)) {
 			set = other
 		}
 		if l.pins != nil {
@@ -612,6 +615,14 @@ func (l *layout) keepDoubleBonds(c []int) {
 			l.pos[x] = l.pos[x].reflect(a, b)
 		}
 	}
+}
+
+func (l *layout) minRank(set []int) int {
+	k := l.n
+	for _, x := range set {
+		k = min(k, l.rank[x])
+	}
+	return k
 }
 
 // sideOf returns the atoms reachable from a without passing through

@@ -19,21 +19,38 @@ func (l *layout) bendTrans(cycle []int, pos []Point) {
 	if n < 8 {
 		return
 	}
-	flip := make([]bool, n) // edge i (cycle[i]→cycle[i+1]) is ring-trans
-	count := 0
+	// turn[i] is the turn at vertex i, between edges i-1 and i: equal
+	// everywhere, none at the inner atoms of a cumulene or alkyne,
+	// opposite at the two ends of a ring-trans unit
+	fixedTurn := make([]bool, n)
+	turn := make([]float64, n)
+	free := n
+	for i, a := range cycle {
+		if l.linear[a] {
+			fixedTurn[i] = true
+			free--
+		}
+	}
+	var transEnds [][2]int
 	for _, w := range l.fixed {
 		i0 := slices.Index(cycle, w.Ends[0])
 		i1 := slices.Index(cycle, w.Ends[1])
 		if i0 < 0 || i1 < 0 {
 			continue
 		}
-		var e int
-		switch {
-		case (i0+1)%n == i1:
-			e = i0
-		case (i1+1)%n == i0:
-			e = i1
-		default:
+		// the ends must be joined along the cycle through linear atoms
+		lo, hi := i0, i1
+		if (i1-i0+n)%n > (i0-i1+n)%n {
+			lo, hi = i1, i0
+		}
+		ok := true
+		for k := (lo + 1) % n; k != hi; k = (k + 1) % n {
+			if !fixedTurn[k] {
+				ok = false
+				break
+			}
+		}
+		if !ok {
 			continue
 		}
 		trans := w.Trans
@@ -43,23 +60,23 @@ func (l *layout) bendTrans(cycle []int, pos []Point) {
 		if !slices.Contains(cycle, w.Refs[1]) {
 			trans = !trans
 		}
-		if trans {
-			flip[e] = true
-			count++
+		if trans && !fixedTurn[lo] && !fixedTurn[hi] {
+			transEnds = append(transEnds, [2]int{lo, hi})
+			fixedTurn[lo], fixedTurn[hi] = true, true
+			free -= 2
 		}
 	}
-	if count == 0 || n-2*count < 3 {
+	if len(transEnds) == 0 || free < 3 {
 		return
 	}
-	turn := make([]float64, n) // turn at vertex i, between edges i-1 and i
-	base := 2 * math.Pi / float64(n-2*count)
+	base := 2 * math.Pi / float64(free)
 	for i := range turn {
-		turn[i] = base
-	}
-	for e := range flip {
-		if flip[e] {
-			turn[e], turn[(e+1)%n] = base, -base
+		if !fixedTurn[i] {
+			turn[i] = base
 		}
+	}
+	for _, e := range transEnds {
+		turn[e[0]], turn[e[1]] = base, -base
 	}
 	pts := make([]Point, n)
 	// walk: edge i leaves vertex i in the direction of the turns at 1..i

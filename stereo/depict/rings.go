@@ -22,8 +22,8 @@ func (l *layout) layoutSystem(s int) []Point {
 	sys := &l.systems[s]
 	pos := make([]Point, l.n)
 	done := make([]bool, l.n)
-	rings := sys.rings
-	first := l.firstRing(sys)
+	rings := l.cycles(sys)
+	first := l.firstRing(rings)
 	l.polygon(first, pos, done)
 	placedRing := make([]bool, len(rings))
 	for step := 0; step < len(rings); step++ {
@@ -76,14 +76,80 @@ func (l *layout) ringKey(r notation.Ring) int {
 	return k
 }
 
-// firstRing chooses the ring placed first, with its atoms in cycle order.
-func (l *layout) firstRing(sys *ringSystem) []int {
-	rings := sys.rings
-	best := 0
-	score := func(i int) (int, int) {
+// cycles returns the rings of a system to place: its smallest rings
+// and, where two of them share a path of three or more atoms (bridged
+// systems), the cycle around both, so the choice does not hang on which
+// smallest set the ring search found.
+func (l *layout) cycles(sys *ringSystem) []notation.Ring {
+	rings := slices.Clone(sys.rings)
+	if len(rings) > 12 {
+		return rings
+	}
+	for i := range sys.rings {
+		for j := i + 1; j < len(sys.rings); j++ {
+			if sharedCount(sys.rings[i], sys.rings[j]) < 3 {
+				continue
+			}
+			if c := ringSum(sys.rings[i], sys.rings[j]); c != nil {
+				dup := false
+				for _, r := range rings {
+					if sameCycle(r.Atoms, c) {
+						dup = true
+					}
+				}
+				if !dup {
+					rings = append(rings, notation.Ring{Atoms: c})
+				}
+			}
+		}
+	}
+	return rings
+}
+
+func sameCycle(a, b []int) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for _, x := range a {
+		if !slices.Contains(b, x) {
+			return false
+		}
+	}
+	return true
+}
+
+// ringOrder compares two rings canonically by their sorted ranks.
+func (l *layout) ringOrder(a, b notation.Ring) int {
+	ra := make([]int, len(a.Atoms))
+	for i, x := range a.Atoms {
+		ra[i] = l.rank[x]
+	}
+	rb := make([]int, len(b.Atoms))
+	for i, x := range b.Atoms {
+		rb[i] = l.rank[x]
+	}
+	slices.Sort(ra)
+	slices.Sort(rb)
+	return slices.Compare(ra, rb)
+}
+
+// firstRing chooses the ring placed first, with its atoms in cycle
+// order: the largest ring of a macrocycle; for bridged systems the
+// largest cycle (the perimeter, which draws the bridges inside); else
+// the ring of most fusions.
+func (l *layout) firstRing(rings []notation.Ring) []int {
+	bridged := false
+	for i := range rings {
+		for j := i + 1; j < len(rings); j++ {
+			if sharedCount(rings[i], rings[j]) >= 3 {
+				bridged = true
+			}
+		}
+	}
+	score := func(i int) int {
 		r := rings[i]
-		if r.Size() >= 8 {
-			return 1000 + r.Size(), -l.ringKey(r)
+		if r.Size() >= 8 || bridged {
+			return 1000 + r.Size()
 		}
 		fused := 0
 		for j, q := range rings {
@@ -91,28 +157,15 @@ func (l *layout) firstRing(sys *ringSystem) []int {
 				fused++
 			}
 		}
-		return fused*10 + r.Size(), -l.ringKey(r)
+		return fused*10 + r.Size()
 	}
+	best := 0
 	for i := range rings {
-		a1, b1 := score(i)
-		a0, b0 := score(best)
-		if a1 > a0 || (a1 == a0 && b1 > b0) {
+		if d := score(i) - score(best); d > 0 || (d == 0 && l.ringOrder(rings[i], rings[best]) < 0) {
 			best = i
 		}
 	}
 	cycle := rings[best].Atoms
-	// bridged systems: start from the perimeter of two rings sharing a
-	// path of three or more atoms, which draws the bridge inside
-	for i := range rings {
-		for j := i + 1; j < len(rings); j++ {
-			if sharedCount(rings[i], rings[j]) < 3 {
-				continue
-			}
-			if c := ringSum(rings[i], rings[j]); len(c) > len(cycle) && len(c) <= 2*len(rings[best].Atoms)+2 {
-				cycle = c
-			}
-		}
-	}
 	// start at the canonically first atom, towards its first neighbour
 	start := 0
 	for i, a := range cycle {
@@ -237,7 +290,11 @@ func (l *layout) spiro(r notation.Ring, pos []Point, done []bool) {
 	centre := pos[s].add(away.scale(rad))
 	base := pos[s].sub(centre).angle()
 	best, bestPen := []Point(nil), math.Inf(1)
-	for _, dir := range []float64{1, -1} {
+	dirs := []float64{1, -1}
+	if l.rank[r.Atoms[(k+1)%n]] > l.rank[r.Atoms[(k+n-1)%n]] {
+		dirs = []float64{-1, 1} // of two mirror images, the canonical one first
+	}
+	for _, dir := range dirs {
 		cand := make([]Point, n)
 		for i := 0; i < n; i++ {
 			cand[(k+i)%n] = centre.add(polar(rad, base+dir*2*math.Pi*float64(i)/float64(n)))
@@ -277,7 +334,11 @@ func penalty(cand []Point, atoms []int, pos []Point, done []bool) float64 {
 func (l *layout) fillRuns(r notation.Ring, pos []Point, done []bool) {
 	n := len(r.Atoms)
 	at := func(i int) int { return r.Atoms[((i%n)+n)%n] }
-	// start at a placed atom followed by an unplaced one
+	type span struct {
+		a, b int
+		run  []int
+	}
+	var spans []span
 	for i := 0; i < n; i++ {
 		if !done[at(i)] || done[at(i+1)] {
 			continue
@@ -288,7 +349,18 @@ func (l *layout) fillRuns(r notation.Ring, pos []Point, done []bool) {
 			run = append(run, at(j))
 			j++
 		}
-		l.arc(at(i), at(j), run, pos, done)
+		sp := span{at(i), at(j), run}
+		// read from the canonically first end, so the side chosen does
+		// not depend on the direction the ring was found in
+		if l.rank[sp.a] > l.rank[sp.b] {
+			sp.a, sp.b = sp.b, sp.a
+			slices.Reverse(sp.run)
+		}
+		spans = append(spans, sp)
+	}
+	slices.SortFunc(spans, func(x, y span) int { return l.minRank(x.run) - l.minRank(y.run) })
+	for _, sp := range spans {
+		l.arc(sp.a, sp.b, sp.run, pos, done)
 	}
 }
 
@@ -310,10 +382,21 @@ func (l *layout) arc(a, b int, run []int, pos []Point, done []bool) {
 		}
 	}
 	centroid = centroid.scale(1 / float64(max(cnt, 1)))
+	// arcs of unit chords on either side, and bows across (bridges the
+	// arcs would lay over ring atoms already placed)
+	var cands [][]Point
 	for _, sgn := range []float64{1, -1} {
-		cand := arcPoints(pa, pb, len(run), d, segs, sgn)
+		cands = append(cands, arcPoints(pa, pb, len(run), d, segs, sgn))
+	}
+	for _, h := range []float64{0.3, 0.55, 0.85} {
+		for _, sgn := range []float64{1, -1} {
+			cands = append(cands, bowPoints(pa, pb, len(run), h*sgn))
+		}
+	}
+	for _, cand := range cands {
 		pen := 0.0
-		for _, p := range cand {
+		prev := pa
+		for i, p := range cand {
 			for x := range pos {
 				if done[x] {
 					if dd := p.dist(pos[x]); dd < 0.9 {
@@ -321,7 +404,17 @@ func (l *layout) arc(a, b int, run []int, pos []Point, done []bool) {
 					}
 				}
 			}
+			for _, q := range cand[:i] {
+				if dd := p.dist(q); dd < 0.6 {
+					pen += (0.6 - dd) * (0.6 - dd)
+				}
+			}
+			c := p.dist(prev)
+			pen += 0.5 * (c - 1) * (c - 1)
+			prev = p
 		}
+		c := pb.dist(prev)
+		pen += 0.5 * (c - 1) * (c - 1)
 		far := 0.0
 		for _, p := range cand {
 			far += p.dist(centroid)
@@ -377,6 +470,18 @@ func arcPoints(pa, pb Point, k int, d, segs, sgn float64) []Point {
 	}
 	for i := 0; i < k; i++ {
 		out[i] = centre.add(polar(rad, start+dir*2*phi*float64(i+1)))
+	}
+	return out
+}
+
+// bowPoints returns k points from a to b (exclusive) evenly along the
+// chord, bowed sideways by h at the middle.
+func bowPoints(pa, pb Point, k int, h float64) []Point {
+	out := make([]Point, k)
+	left := pb.sub(pa).unit().perp()
+	for i := 0; i < k; i++ {
+		t := float64(i+1) / float64(k+1)
+		out[i] = pa.add(pb.sub(pa).scale(t)).add(left.scale(h * math.Sin(math.Pi*t)))
 	}
 	return out
 }

@@ -102,7 +102,7 @@ func (l *layout) improve(c []int, bonds [][2]int, i, j int, stretch bool) bool {
 		// outside it
 		set := l.sideOf(v, u)
 		pivot, axis := u, v
-		if other := l.sideOf(u, v); len(other) < len(set) {
+		if other := l.sideOf(u, v); len(other) < len(set) || (len(other) == len(set) && l.minRank(other) > l.minRank(set)) {
 			set, pivot, axis = other, v, u
 		}
 		var cands []move

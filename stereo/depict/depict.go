@@ -179,6 +179,11 @@ func Draw(m *notation.Molecule, opt Options) (d *Drawing) {
 			d = fallbackDrawing(m, opt, fmt.Sprintf("internal error in the layout (%v); simplified layout, stereo not drawn", r))
 		}
 	}()
+	return drawUnguarded(m, opt)
+}
+
+// drawUnguarded is Draw without the recovery, for the fuzz target.
+func drawUnguarded(m *notation.Molecule, opt Options) (d *Drawing) {
 	if len(m.Atoms) > MaxAtoms {
 		return fallbackDrawing(m, opt, fmt.Sprintf("simplified layout: %d atoms, more than the %d the full layout draws; stereo is not drawn", len(m.Atoms), MaxAtoms))
 	}

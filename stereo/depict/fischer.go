@@ -522,7 +522,7 @@ func (f *Fischer) Drawing(opt Options) *Drawing {
 		rt := add(num(r.Right), condensed(m, r.Right, r.Centre), Point{1.3, y})
 		d.Bonds = append(d.Bonds, Bond{A: l, B: c, Order: 1, Narrow: -1}, Bond{A: c, B: rt, Order: 1, Narrow: -1})
 		if s, ok := descOf[r.Centre]; ok {
-			d.Descriptors = append(d.Descriptors, Descriptor{Text: s, P: Point{0.38, y + 0.32}, Unit: stereo.KindTetrahedral})
+			d.Descriptors = append(d.Descriptors, Descriptor{Text: s, P: Point{0.5, y + 0.4}, Unit: stereo.KindTetrahedral})
 		}
 		prev = c
 	}

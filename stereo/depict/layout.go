@@ -494,7 +494,7 @@ func (l *layout) directions(a int, done []int, dirs []float64, k int) []float64 
 		}
 		return out
 	}
-	start, width := largestGap(dirs)
+	start, width := l.openGap(a, dirs)
 	for i := 0; i < k; i++ {
 		out = append(out, start+width*float64(i+1)/float64(k+1))
 	}
@@ -504,6 +504,34 @@ func (l *layout) directions(a int, done []int, dirs []float64, k int) []float64 
 		out[0], out[1] = mid-math.Pi/3, mid+math.Pi/3
 	}
 	return out
+}
+
+// openGap returns the widest angular gap between the bonds at a; of
+// gaps within 15 degrees of the widest, the one whose middle has most
+// room (the outside of a bridge rather than its inside).
+func (l *layout) openGap(a int, dirs []float64) (start, width float64) {
+	s := make([]float64, len(dirs))
+	for i, d := range dirs {
+		s[i] = normAngle(d)
+	}
+	sortFloats(s)
+	_, widest := largestGap(dirs)
+	bestRoom := -1.0
+	for i := range s {
+		next := s[0] + 2*math.Pi
+		if i+1 < len(s) {
+			next = s[i+1]
+		}
+		g := next - s[i]
+		if g < widest-15*math.Pi/180 {
+			continue
+		}
+		room := l.clearance(a, s[i]+g/2)
+		if room > bestRoom+1e-9 {
+			start, width, bestRoom = s[i], g, room
+		}
+	}
+	return start, width
 }
 
 // linearPair reports a bond from a to p that makes a straight chain: a

@@ -85,7 +85,7 @@ type Server struct {
 	mu        sync.Mutex
 	state     state
 	caps      clientCapabilities
-	drawings  drawingFolder // files the drawing command wrote (drawing.go)
+	drawings  drawingFolder   // files the drawing command wrote (drawing.go)
 	baseCfg   document.Config // defaults with initializationOptions applied
 	snap      *snapshot
 	changed   chan struct{} // closed and replaced at every new snapshot

@@ -22,6 +22,11 @@ import (
 // rasterised with golang.org/x/image/vector (anti-aliased polygon
 // filling) and its text set in the Go fonts with golang.org/x/image's
 // OpenType reader, in the light palette at twice the SVG's pixel size.
+// golang.org/x/image is kept by the Go team beside the standard library;
+// it brings an anti-aliased rasteriser, an OpenType reader and fonts
+// whose licence lets them ship inside the binary, none of which the
+// standard library has, so the PNG is painted from our own drawing model
+// with no SVG renderer and no system fonts.
 
 const pngScale = 2.0
 

@@ -155,6 +155,10 @@ func meaningErrors(m *notation.Molecule, an *stereo.Analysis, d *Drawing) []stri
 			if math.Abs(v) < 0.05 || (v > 0) != want {
 				errs = append(errs, fmt.Sprintf("centre %d reads %+.2f, written %s", u.Centre+1, v, map[bool]string{true: "@@", false: "@"}[want]))
 			}
+		case stereo.KindAllene:
+			if e := mf.alleneError(m, u.Centre); e != "" {
+				errs = append(errs, e)
+			}
 		case stereo.KindDoubleBond:
 			w, ok := stereo.WrittenDoubleBond(m, u)
 			if !ok {
@@ -169,7 +173,92 @@ func meaningErrors(m *notation.Molecule, an *stereo.Analysis, d *Drawing) []stri
 			}
 		}
 	}
+	// every wedge and hash starts at a stereocentre or an allene's end
+	ends := map[int]bool{}
+	for i := range an.Units {
+		u := &an.Units[i]
+		if !u.Specified {
+			continue
+		}
+		switch u.Kind {
+		case stereo.KindTetrahedral:
+			ends[u.Centre] = true
+		case stereo.KindAllene:
+			for _, a := range u.Atoms {
+				ends[a] = true
+			}
+		}
+	}
+	for _, b := range mf.bonds {
+		if (b.flag == 1 || b.flag == 6) && !ends[b.a] {
+			errs = append(errs, fmt.Sprintf("wedge or hash %d-%d starts at no specified unit", b.a+1, b.b+1))
+		}
+	}
 	return errs
+}
+
+// alleneError reads the allene centred on c: the substituents of one end
+// stand across the paper by their wedge flags, the other end's lie in
+// it; a hydrogen not drawn is its mate mirrored across the axis.
+func (mf *molfile) alleneError(m *notation.Molecule, c int) string {
+	w, ok := stereo.ReadAllene(m, c)
+	if !ok {
+		return ""
+	}
+	at := func(i int) [3]float64 { return [3]float64{mf.atoms[i].x, mf.atoms[i].y, 0} }
+	z := map[int]float64{}
+	drawnH := map[int]int{} // end -> added hydrogen
+	for _, b := range mf.bonds {
+		if b.flag == 1 {
+			z[b.b] = 1
+		} else if b.flag == 6 {
+			z[b.b] = -1
+		}
+		for _, e := range w.Ends {
+			if b.a == e && b.b >= len(m.Atoms) {
+				drawnH[e] = b.b
+			}
+		}
+	}
+	var pts [4][3]float64
+	for i, x := range w.Ligands {
+		end := w.Ends[w.LigandEnd[i]]
+		if x == stereo.ImplicitNeighbour {
+			if h, ok := drawnH[end]; ok {
+				x = h
+			} else {
+				// the mate mirrored across the axis, in the paper
+				mate := -1
+				for j, y := range w.Ligands {
+					if j != i && y != stereo.ImplicitNeighbour && w.LigandEnd[j] == w.LigandEnd[i] {
+						mate = y
+					}
+				}
+				if mate < 0 {
+					return ""
+				}
+				p := Point{mf.atoms[mate].x, mf.atoms[mate].y}.reflect(Point{mf.atoms[end].x, mf.atoms[end].y}, Point{mf.atoms[c].x, mf.atoms[c].y})
+				pts[i] = [3]float64{p.X, p.Y, 0}
+				continue
+			}
+		}
+		p := at(x)
+		if zz := z[x]; zz != 0 {
+			// standing across the paper: along the axis, up or down by
+			// its distance from the axis
+			e, cc := Point{mf.atoms[end].x, mf.atoms[end].y}, Point{mf.atoms[c].x, mf.atoms[c].y}
+			axis := e.sub(cc).unit()
+			v := Point{p[0], p[1]}.sub(e)
+			q := e.add(axis.scale(v.dot(axis)))
+			p = [3]float64{q.X, q.Y, zz * math.Abs(v.cross(axis))}
+		}
+		pts[i] = p
+	}
+	v := orient(pts)
+	if math.Abs(v) < 1e-6 || (v > 0) != w.Clockwise {
+		return fmt.Sprintf("allene %d reads %+.2f, written %s", c+1, v, map[bool]string{true: "@@", false: "@"}[w.Clockwise])
+	}
+	return ""
 }
 
 // fixtureStrings returns the distinct strings of the stereo fixtures:

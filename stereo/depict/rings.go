@@ -42,7 +42,7 @@ func (l *layout) layoutSystem(s int) []Point {
 				placedRing[ri] = true
 				continue
 			}
-			if shared > bestShared || (shared == bestShared && shared > 0 && l.ringKey(r) < l.ringKey(rings[best])) {
+			if shared > bestShared || (shared == bestShared && shared > 0 && l.ringOrder(r, rings[best]) < 0) {
 				best, bestShared = ri, shared
 			}
 		}

@@ -53,6 +53,8 @@ type layout struct {
 
 	// a Fischer molfile's fixed atoms (fischer.go): positions, the
 	// centres whose bonds they style, the styles and hydrogens
+	moved []int32 // scratch of tidy.go's gain
+
 	pins     map[int]Point
 	pinned   map[int]bool
 	pinStyle map[int]bondStyle

@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"html"
 	"io"
+	"math"
+	"strconv"
 	"strings"
 )
 
@@ -62,16 +64,22 @@ func WriteSVG(w io.Writer, d *Drawing) error {
 
 func esc(s string) string { return html.EscapeString(s) }
 
+// f1 writes a coordinate with one decimal, without a trailing ".0".
 func f1(x float64) string {
-	return strings.TrimSuffix(strings.TrimRight(fmt.Sprintf("%.1f", x), "0"), ".")
+	s := strconv.FormatFloat(math.Round(x*10)/10, 'f', 1, 64)
+	s = strings.TrimSuffix(s, ".0")
+	if s == "-0" {
+		return "0"
+	}
+	return s
 }
 
 func writePrim(b *strings.Builder, p *prim) {
 	cls := classOf[p.col]
 	switch p.kind {
 	case pLine:
-		fmt.Fprintf(b, `<line class="%s" x1="%s" y1="%s" x2="%s" y2="%s" stroke-width="%s" stroke-linecap="round"/>`+"\n",
-			cls, f1(p.pts[0].X), f1(p.pts[0].Y), f1(p.pts[1].X), f1(p.pts[1].Y), f1(p.w))
+		b.WriteString(`<line class="` + cls + `" x1="` + f1(p.pts[0].X) + `" y1="` + f1(p.pts[0].Y) + `" x2="` + f1(p.pts[1].X) +
+			`" y2="` + f1(p.pts[1].Y) + `" stroke-width="` + f1(p.w) + `" stroke-linecap="round"/>` + "\n")
 	case pPoly:
 		fmt.Fprintf(b, `<polygon class="%s" stroke-width="0.6" stroke-linejoin="round" points="%s"/>`+"\n", cls, points(p.pts))
 	case pPath:

@@ -160,13 +160,22 @@ func (l *layout) shifted(set []int, d Point) move {
 // set and the rest, and crossings between bonds that touch the set and
 // bonds that do not. Distances within the set do not change.
 func (l *layout) gain(c []int, bonds [][2]int, mv *move) float64 {
-	in := make(map[int]Point, len(mv.set))
-	for k, x := range mv.set {
-		in[x] = mv.to[k]
+	// moved[a] is 1 + a's index in the move, 0 for atoms that stay
+	if len(l.moved) != l.n {
+		l.moved = make([]int32, l.n)
 	}
+	moved := l.moved
+	for k, x := range mv.set {
+		moved[x] = int32(k + 1)
+	}
+	defer func() {
+		for _, x := range mv.set {
+			moved[x] = 0
+		}
+	}()
 	at := func(a int) Point {
-		if p, ok := in[a]; ok {
-			return p
+		if k := moved[a]; k > 0 {
+			return mv.to[k-1]
 		}
 		return l.pos[a]
 	}
@@ -177,34 +186,40 @@ func (l *layout) gain(c []int, bonds [][2]int, mv *move) float64 {
 		return 10 * (clashDist - d) * (clashDist - d) / (clashDist * clashDist)
 	}
 	g := 0.0
-	for _, x := range mv.set {
+	for k, x := range mv.set {
 		for _, y := range c {
-			if _, moved := in[y]; moved {
+			if moved[y] > 0 {
 				continue
 			}
-			g += pen(l.pos[x].dist(l.pos[y])) - pen(in[x].dist(l.pos[y]))
+			g += pen(l.pos[x].dist(l.pos[y])) - pen(mv.to[k].dist(l.pos[y]))
 		}
+	}
+	// bonds with a moved end can change their crossings; among the
+	// others nothing changes
+	var touching, still [][2]int
+	for _, p := range bonds {
+		if moved[p[0]] > 0 || moved[p[1]] > 0 {
+			touching = append(touching, p)
+		} else {
+			still = append(still, p)
+		}
+	}
+	cross := func(get func(int) Point, p, q [2]int) bool {
+		if p[0] == q[0] || p[0] == q[1] || p[1] == q[0] || p[1] == q[1] {
+			return false
+		}
+		return segmentsCross(get(p[0]), get(p[1]), get(q[0]), get(q[1]))
 	}
 	crossings := func(get func(int) Point) int {
 		n := 0
-		for x := range bonds {
-			p := bonds[x]
-			_, p0 := in[p[0]]
-			_, p1 := in[p[1]]
-			if !p0 && !p1 {
-				continue
+		for i, p := range touching {
+			for _, q := range touching[i+1:] {
+				if cross(get, p, q) {
+					n++
+				}
 			}
-			for y := range bonds {
-				q := bonds[y]
-				_, q0 := in[q[0]]
-				_, q1 := in[q[1]]
-				if (q0 || q1) && y <= x {
-					continue
-				}
-				if p[0] == q[0] || p[0] == q[1] || p[1] == q[0] || p[1] == q[1] {
-					continue
-				}
-				if segmentsCross(get(p[0]), get(p[1]), get(q[0]), get(q[1])) {
+			for _, q := range still {
+				if cross(get, p, q) {
 					n++
 				}
 			}

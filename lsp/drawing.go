@@ -40,7 +40,7 @@ func (s *Server) hoverDrawing(res *document.Result, off int) string {
 		return ""
 	}
 	rec := &res.Records[ri]
-	if rec.Mol == nil {
+	if rec.Mol == nil || len(rec.Mol.Atoms) > maxHoverAtoms {
 		return ""
 	}
 	opt := depict.Options{Analysis: rec.Stereo}
@@ -53,6 +53,10 @@ func (s *Server) hoverDrawing(res *document.Result, off int) string {
 	}
 	return out
 }
+
+// maxHoverAtoms is the largest record drawn in a hover, which must
+// answer at once; the drawing command draws any record.
+const maxHoverAtoms = 300
 
 // svgImage is a markdown image of the drawing as an SVG data URI.
 func svgImage(alt string, d *depict.Drawing) string {

@@ -201,6 +201,20 @@ func (l *layout) placeDescriptors(d *Drawing) {
 	var taken []Point
 	for _, a := range d.Atoms {
 		taken = append(taken, a.P)
+		if a.Label != "" {
+			// a label covers more than its atom's point: its hydrogens
+			// too, on their side
+			switch a.HSide {
+			case HLeft:
+				taken = append(taken, a.P.add(Point{-0.35, 0}))
+			case HRight:
+				taken = append(taken, a.P.add(Point{0.35, 0}))
+			case HAbove:
+				taken = append(taken, a.P.add(Point{0, 0.4}))
+			case HBelow:
+				taken = append(taken, a.P.add(Point{0, -0.4}))
+			}
+		}
 	}
 	for _, b := range d.Bonds {
 		taken = append(taken, d.Atoms[b.A].P.add(d.Atoms[b.B].P).scale(0.5))

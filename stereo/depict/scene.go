@@ -406,22 +406,45 @@ func (sc *scene) atomLabel(d *Drawing, i int, px func(Point) Point) {
 		}
 	}
 	if d.Numbers && !a.Added {
-		// beside the atom, away from its bonds
-		var dirs []float64
-		for _, b := range d.Bonds {
-			if b.A == i {
-				dirs = append(dirs, d.Atoms[b.B].P.sub(a.P).angle())
-			} else if b.B == i {
-				dirs = append(dirs, d.Atoms[b.A].P.sub(a.P).angle())
-			}
-		}
-		start, w := largestGap(dirs)
-		t := start + w/2 + 0.35
-		r := 0.3
-		if a.Label != "" {
-			r = 0.5
-		}
-		q := px(a.P.add(polar(r, t))).add(Point{0, 3})
+		q := px(numberPlace(d, i)).add(Point{0, 3})
 		sc.prims = append(sc.prims, textPrim(q, []run{{s: itoa(a.N)}}, 8, 0, colMuted))
 	}
+}
+
+// numberPlace puts atom i's number where it is farthest from other
+// atoms, labels, bond middles and descriptors.
+func numberPlace(d *Drawing, i int) Point {
+	a := &d.Atoms[i]
+	r := 0.32
+	if a.Label != "" {
+		r = 0.55
+	}
+	best, bestScore := a.P.add(Point{r, r}), -1.0
+	for k := 0; k < 16; k++ {
+		p := a.P.add(polar(r, math.Pi/4+2*math.Pi*float64(k)/16))
+		score := math.Inf(1)
+		for j := range d.Atoms {
+			b := &d.Atoms[j]
+			dist := p.dist(b.P)
+			if b.Label != "" {
+				// a label is wide: keep off its line of text
+				dx := math.Max(0, math.Abs(p.X-b.P.X)-textWidth(b.Label, atomFont)/bondPx*0.5)
+				dist = math.Hypot(dx, p.Y-b.P.Y) - 0.1
+			}
+			if j == i && b.Label == "" {
+				continue
+			}
+			score = min(score, dist)
+		}
+		for _, b := range d.Bonds {
+			score = min(score, p.dist(d.Atoms[b.A].P.add(d.Atoms[b.B].P).scale(0.5)))
+		}
+		for _, x := range d.Descriptors {
+			score = min(score, p.dist(x.P))
+		}
+		if score > bestScore+1e-9 {
+			best, bestScore = p, score
+		}
+	}
+	return best
 }

@@ -94,27 +94,26 @@ func TestFischerFamilies(t *testing.T) {
 	cases := []struct {
 		name, smiles string
 		family       stereo.Family
-		rows         int
+		cip          string // CIP labels of the rows from top to bottom, from memory
 		meso         bool
 	}{
-		// D-glucose, open chain: OH right, left, right, right (C2-C5)
-		{"D-glucose", "O=C[C@H](O)[C@@H](O)[C@H](O)[C@H](O)CO", stereo.FamilyD, 4, false},
-		// D-fructose, open chain: C3 OH left, C4 and C5 right
-		{"D-fructose", "OCC(=O)[C@@H](O)[C@H](O)[C@H](O)CO", stereo.FamilyD, 3, false},
-		// L-threose: C2 OH right, C3 OH left
-		{"L-threose", "O=C[C@H](O)[C@@H](O)CO", stereo.FamilyL, 2, false},
-		// D-erythrose: C2 and C3 OH right
-		{"D-erythrose", "O=C[C@H](O)[C@H](O)CO", stereo.FamilyD, 2, false},
+		// D-glucose (2R,3S,4R,5R), open chain: OH right, left, right, right
+		{"D-glucose", "O=C[C@H](O)[C@@H](O)[C@H](O)[C@H](O)CO", stereo.FamilyD, "RSRR", false},
+		// D-fructose (3S,4R,5R): C3 OH left, C4 and C5 right
+		{"D-fructose", "OCC(=O)[C@@H](O)[C@H](O)[C@H](O)CO", stereo.FamilyD, "SRR", false},
+		// L-threose (2R,3S): C2 OH right, C3 OH left
+		{"L-threose", "O=C[C@H](O)[C@@H](O)CO", stereo.FamilyL, "RS", false},
+		// D-erythrose (2R,3R): C2 and C3 OH right
+		{"D-erythrose", "O=C[C@H](O)[C@H](O)CO", stereo.FamilyD, "RR", false},
 		// L-serine (S) and L-cysteine (R): the amino group on the left
-		{"L-serine", "N[C@@H](CO)C(=O)O", stereo.FamilyL, 1, false},
-		{"L-cysteine", "N[C@@H](CS)C(=O)O", stereo.FamilyL, 1, false},
-		// D-glyceraldehyde, one centre: OH right
-		{"D-glyceraldehyde", "O=C[C@H](O)CO", stereo.FamilyD, 1, false},
-		// meso-tartaric acid (2R,3S; the labels checked with describe):
-		// both OH on one side
-		{"meso-tartaric acid", "OC(=O)[C@H](O)[C@H](O)C(=O)O", stereo.FamilyNone, 2, true},
-		// (2R,3R)-tartaric acid is chiral: no mirror plane
-		{"L-tartaric acid", "OC(=O)[C@H](O)[C@@H](O)C(=O)O", stereo.FamilyL, 2, false},
+		{"L-serine", "N[C@@H](CO)C(=O)O", stereo.FamilyL, "S", false},
+		{"L-cysteine", "N[C@@H](CS)C(=O)O", stereo.FamilyL, "R", false},
+		// D-glyceraldehyde (R), one centre: OH right
+		{"D-glyceraldehyde", "O=C[C@H](O)CO", stereo.FamilyD, "R", false},
+		// meso-tartaric acid (2R,3S): both OH on one side
+		{"meso-tartaric acid", "OC(=O)[C@H](O)[C@H](O)C(=O)O", stereo.FamilyNone, "RS", true},
+		// (2R,3R)-tartaric acid, L by the lowest centre: no mirror plane
+		{"L-tartaric acid", "OC(=O)[C@H](O)[C@@H](O)C(=O)O", stereo.FamilyL, "RR", false},
 	}
 	for _, c := range cases {
 		m := notation.Read(c.smiles)
@@ -124,8 +123,18 @@ func TestFischerFamilies(t *testing.T) {
 			t.Errorf("%s: no Fischer view: %s", c.name, reason)
 			continue
 		}
-		if len(f.Rows) != c.rows || f.Meso != c.meso {
-			t.Errorf("%s: %d rows, meso %v; want %d, %v", c.name, len(f.Rows), f.Meso, c.rows, c.meso)
+		// the rows' CIP labels identify the compound independently of
+		// the notation written above
+		labels := map[int]string{}
+		for _, u := range an.Units {
+			labels[u.Centre] = u.Descriptor.String()
+		}
+		cip := ""
+		for _, r := range f.Rows {
+			cip += labels[r.Centre]
+		}
+		if cip != c.cip || f.Meso != c.meso {
+			t.Errorf("%s: rows labelled %s, meso %v; want %s, %v", c.name, cip, f.Meso, c.cip, c.meso)
 		}
 		got := f.Family
 		if f.Meso {

@@ -133,6 +133,9 @@ func TestFischerFamilies(t *testing.T) {
 		for _, r := range f.Rows {
 			cip += labels[r.Centre]
 		}
+		if c.meso && len(cip) == 2 && cip == string([]byte{c.cip[1], c.cip[0]}) {
+			cip = c.cip // a meso chain reads the same turned upside down
+		}
 		if cip != c.cip || f.Meso != c.meso {
 			t.Errorf("%s: rows labelled %s, meso %v; want %s, %v", c.name, cip, f.Meso, c.cip, c.meso)
 		}

@@ -782,8 +782,14 @@ func (l *layout) bounds(c []int) (lo, hi Point) {
 	hi = Point{math.Inf(-1), math.Inf(-1)}
 	for _, a := range c {
 		p := l.pos[a]
-		lo = Point{min(lo.X, p.X), min(lo.Y, p.Y)}
-		hi = Point{max(hi.X, p.X), max(hi.Y, p.Y)}
+		// an atom written out (a heteroatom, a charged or lone atom)
+		// takes the room of its label
+		pad := 0.0
+		if at := &l.m.Atoms[a]; at.Number != notation.ElemC || at.Charge != 0 || len(l.nbr[a]) == 0 {
+			pad = 0.45
+		}
+		lo = Point{min(lo.X, p.X-pad), min(lo.Y, p.Y)}
+		hi = Point{max(hi.X, p.X+pad), max(hi.Y, p.Y)}
 	}
 	if len(c) == 0 {
 		return Point{}, Point{}

@@ -29,7 +29,13 @@ type drawingJSON struct {
 	Bonds []bondJSON `json:"bonds"`
 }
 
-func round3(x float64) float64 { return math.Round(x*1000) / 1000 }
+func round3(x float64) float64 {
+	r := math.Round(x*1000) / 1000
+	if r == 0 {
+		return 0 // not -0
+	}
+	return r
+}
 
 // MarshalJSON renders the drawing in the shape above. An atom's label is
 // the text drawn at it, "" for a plain carbon of the skeleton.

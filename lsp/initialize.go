@@ -70,6 +70,8 @@ func capabilities(enc PositionEncoding) serverCapabilities {
 				Save: &protocol.SaveOptions{},
 			},
 			HoverProvider:          true,
+			CodeLensProvider:       &protocol.CodeLensOptions{},
+			ExecuteCommandProvider: &protocol.ExecuteCommandOptions{Commands: []string{commandShowDrawing}},
 			CodeActionProvider:     &protocol.CodeActionOptions{CodeActionKinds: kinds, ResolveProvider: true},
 			DocumentSymbolProvider: true,
 			// The folders decide which project files apply and which

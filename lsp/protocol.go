@@ -50,6 +50,11 @@ type initializeParams struct {
 type clientCapabilities struct {
 	General struct {
 		PositionEncodings []string `json:"positionEncodings"`
+		// Markdown names the client's markdown renderer (LSP 3.16);
+		// a client that declares one renders images in hovers.
+		Markdown *struct {
+			Parser string `json:"parser"`
+		} `json:"markdown"`
 	} `json:"general"`
 	Workspace struct {
 		Configuration bool `json:"configuration"`
@@ -68,6 +73,9 @@ type clientCapabilities struct {
 	} `json:"workspace"`
 	Window struct {
 		WorkDoneProgress bool `json:"workDoneProgress"`
+		ShowDocument     *struct {
+			Support bool `json:"support"`
+		} `json:"showDocument"`
 	} `json:"window"`
 	TextDocument struct {
 		CodeAction struct {

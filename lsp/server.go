@@ -85,6 +85,7 @@ type Server struct {
 	mu        sync.Mutex
 	state     state
 	caps      clientCapabilities
+	drawings  drawingFolder   // files the drawing command wrote (drawing.go)
 	baseCfg   document.Config // defaults with initializationOptions applied
 	snap      *snapshot
 	changed   chan struct{} // closed and replaced at every new snapshot
@@ -154,6 +155,7 @@ func serve(ctx context.Context, stream io.ReadWriteCloser, log *zap.Logger, opts
 	}
 	s.stop()
 	s.conn.Close()
+	s.drawings.clean()
 	return status
 }
 
@@ -211,6 +213,8 @@ func newServer(ctx context.Context, log *zap.Logger, opts Options) *Server {
 		"textDocument/documentSymbol": s.documentSymbols,
 		methodDocumentDiagnostic:      s.documentDiagnostic,
 		methodWorkspaceDiagnostic:     s.workspaceDiagnostic,
+		"textDocument/codeLens":       s.codeLenses,
+		"workspace/executeCommand":    s.executeCommand,
 	}
 	s.notifications = map[string]notificationFunc{
 		"initialized":                         s.initialized,

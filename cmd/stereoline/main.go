@@ -1,7 +1,7 @@
 // Command stereoline checks and explains the stereo marks of SMILES and
 // reaction SMILES found in files: describe reads records and explains
 // them, check reports problems for CI, transform rewrites marks, compare
-// relates two structures and serve runs the language server.
+// relates two structures, draw draws them and serve runs the language server.
 package main
 
 import (
@@ -17,6 +17,8 @@ commands:
   check [options] [PATH...]     report problems in files and folders (text, JSON Lines, SARIF) for CI
   transform OPERATION [FILE...] rewrite stereo marks: --mirror, --invert N, --flip I-J, --set N=R|S|E|Z|M|P, --clean
   compare A B [--json]          relate two structures: identical, enantiomers, diastereomers, ...
+  draw [--svg|--png|--json|--molfile] [--fischer] [--numbers] [FILE...]
+                                draw each record: structure diagram or Fischer projection
   serve [--stdio] [--log FILE]  run the language server on standard input and output
   help                          show this text
 
@@ -49,6 +51,8 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 		return transformCommand(args[1:], stdin, stdout, stderr)
 	case "compare":
 		return compare(args[1:], stdin, stdout, stderr)
+	case "draw":
+		return draw(args[1:], stdin, stdout, stderr)
 	case "serve":
 		return serve(args[1:], stdin, stdout, stderr)
 	case "help", "-h", "--help":

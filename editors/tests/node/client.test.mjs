@@ -34,6 +34,8 @@ import {
   CodeActionRequest,
   CodeActionResolveRequest,
   HoverRequest,
+  CodeLensRequest,
+  ExecuteCommandRequest,
   DocumentSymbolRequest,
   DidOpenNotebookDocumentNotification,
   DidChangeNotebookDocumentNotification,
@@ -83,15 +85,54 @@ function capabilities(encodings) {
   };
 }
 
+// withImages adds what an editor that renders markdown images and opens
+// documents for the server declares: its markdown parser (LSP 3.16
+// general.markdown) and window/showDocument support.
+function withImages(caps) {
+  return {
+    ...caps,
+    general: { ...caps.general, markdown: { parser: "marked", version: "1.1.0" } },
+    window: { showDocument: { support: true } },
+  };
+}
+
+// wellFormed checks that text is well-formed XML as far as an SVG needs
+// (XML 1.0: elements nest and close, attribute values are quoted, '&'
+// starts an entity or character reference) and returns the root
+// element's name and the character data.
+function wellFormed(text) {
+  const token = /<!--[\s\S]*?-->|<\?[\s\S]*?\?>|<\/([A-Za-z][\w:.-]*)\s*>|<([A-Za-z][\w:.-]*)((?:\s+[\w:.-]+\s*=\s*(?:"[^"<]*"|'[^'<]*'))*)\s*(\/?)>|[^<]+/gy;
+  const stack = [];
+  let root = null;
+  let chars = "";
+  let pos = 0;
+  for (let m; pos < text.length && (m = token.exec(text)); pos = token.lastIndex) {
+    if (m[1]) {
+      assert.equal(stack.pop(), m[1], `closing </${m[1]}> at ${pos}`);
+    } else if (m[2]) {
+      if (root === null) root = m[2];
+      else assert.ok(stack.length > 0, `second root element <${m[2]}>`);
+      if (!m[4]) stack.push(m[2]);
+    } else if (!m[0].startsWith("<")) {
+      assert.ok(!/&(?!(?:amp|lt|gt|quot|apos|#\d+|#x[0-9a-fA-F]+);)/.test(m[0]), `bare '&' at ${pos}`);
+      if (stack.length > 0) chars += m[0];
+      else assert.ok(/^\s*$/.test(m[0]), `text outside the root at ${pos}`);
+    }
+  }
+  assert.equal(pos, text.length, `not XML at offset ${pos}: ${text.slice(pos, pos + 40)}`);
+  assert.equal(stack.length, 0, `unclosed <${stack.at(-1)}>`);
+  return { root, chars };
+}
+
 // start spawns the server and runs initialize/initialized. settings is
 // what the client answers for the "stereoline" section.
-async function start({ encodings, settings = {}, initializationOptions } = {}) {
+async function start({ encodings, settings = {}, initializationOptions, images = false } = {}) {
   const proc = spawn(bin, ["serve"], { stdio: ["pipe", "pipe", "pipe"] });
   let stderr = "";
   proc.stderr.on("data", (d) => (stderr += d));
   const exited = new Promise((resolve) => proc.on("exit", (code, signal) => resolve({ code, signal })));
   const conn = createProtocolConnection(new StreamMessageReader(proc.stdout), new StreamMessageWriter(proc.stdin));
-  const s = { proc, conn, exited, settings, pushed: new Map(), stderr: () => stderr };
+  const s = { proc, conn, exited, settings, pushed: new Map(), shown: [], stderr: () => stderr };
   conn.onRequest(ConfigurationRequest.type, (p) => p.items.map((it) => (it.section === "stereoline" ? s.settings : null)));
   conn.onRequest(RegistrationRequest.type, () => null);
   conn.onRequest(WorkDoneProgressCreateRequest.type, () => null);
@@ -101,6 +142,10 @@ async function start({ encodings, settings = {}, initializationOptions } = {}) {
   for (const method of ["workspace/inlayHint/refresh", "workspace/diagnostic/refresh"]) {
     conn.onRequest(method, () => null);
   }
+  conn.onRequest("window/showDocument", (p) => {
+    s.shown.push(p.uri);
+    return { success: true };
+  });
   conn.onNotification(PublishDiagnosticsNotification.type, (p) => s.pushed.set(p.uri, p));
   conn.onNotification("window/logMessage", () => {});
   conn.onNotification("window/showMessage", () => {});
@@ -111,7 +156,7 @@ async function start({ encodings, settings = {}, initializationOptions } = {}) {
       clientInfo: { name: "stereoline-node-test" },
       rootUri: pathToFileURL(fixtures).href,
       workspaceFolders: [{ uri: pathToFileURL(fixtures).href, name: "fixtures" }],
-      capabilities: capabilities(encodings),
+      capabilities: images ? withImages(capabilities(encodings)) : capabilities(encodings),
       initializationOptions,
     }),
     10000,
@@ -361,6 +406,37 @@ test("code action: a quick fix, resolved, and hover", async () => {
     const at = py.text.indexOf("@@");
     const hv = await s.request(HoverRequest.type, { textDocument: { uri: py.uri }, position: positionOf(py.text, at, s.encoding) });
     assert.match(typeof hv.contents === "string" ? hv.contents : hv.contents.value, /\(R\)/);
+  } finally {
+    assert.deepEqual(await s.stop(), { code: 0, signal: null });
+  }
+});
+
+test("hover drawing and the drawing command", async () => {
+  const s = await start({ encodings: ["utf-16"], images: true });
+  try {
+    const smi = fixture("sample.smi");
+    await s.open(smi, "smi");
+    // (R)-lactic acid, C[C@@H](O)C(=O)O (IUPAC 2013 P-92, worked by hand).
+    const at = smi.text.indexOf("@@");
+    const hv = await s.request(HoverRequest.type, { textDocument: { uri: smi.uri }, position: positionOf(smi.text, at, s.encoding) });
+    const md = hv.contents.value;
+    assert.match(md, /\(R\)/);
+    const img = /!\[[^\]]*\]\(data:image\/svg\+xml;base64,([A-Za-z0-9+/=]+)\)/.exec(md);
+    assert.ok(img, "no SVG data URI in the hover of a client that renders markdown");
+    const svg = wellFormed(Buffer.from(img[1], "base64").toString("utf8"));
+    assert.equal(svg.root, "svg");
+    assert.match(svg.chars, /analytical confirmation/);
+    assert.match(svg.chars, /\bR\b/, "the descriptor is not text in the SVG");
+    // a code lens per record; its command opens the drawing
+    const lenses = await s.request(CodeLensRequest.type, { textDocument: { uri: smi.uri } });
+    assert.ok(lenses.length >= 4, `${lenses.length} code lenses`);
+    const paths = await s.request(ExecuteCommandRequest.type, lenses[0].command);
+    assert.equal(s.shown.length, paths.length, "window/showDocument not sent for every file");
+    for (const uri of s.shown) {
+      const file = wellFormed(readFileSync(fileURLToPath(uri), "utf8"));
+      assert.equal(file.root, "svg");
+      assert.match(file.chars, /lactate-demo/);
+    }
   } finally {
     assert.deepEqual(await s.stop(), { code: 0, signal: null });
   }

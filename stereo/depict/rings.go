@@ -1,0 +1,487 @@
+package depict
+
+import (
+	"math"
+	"slices"
+
+	"stereoline/notation"
+)
+
+// This file implements the layout of one ring system in coordinates of
+// its own: the first ring (the largest ring for macrocycles, the ring of
+// most fusions otherwise, or for bridged systems the perimeter of two
+// rings that share a path) as a regular polygon, then ring by ring the
+// ring with most atoms already placed: a spiro ring as a polygon on the
+// free side of its shared atom, the unplaced runs of any other ring as
+// arcs of equal chords between the placed atoms that bound them, on the
+// side that overlaps least.
+
+// layoutSystem returns positions indexed by atom for the atoms of
+// system s.
+func (l *layout) layoutSystem(s int) []Point {
+	sys := &l.systems[s]
+	pos := make([]Point, l.n)
+	done := make([]bool, l.n)
+	rings := l.cycles(sys)
+	first := l.firstRing(rings)
+	l.polygon(first, pos, done)
+	placedRing := make([]bool, len(rings))
+	for step := 0; step < len(rings); step++ {
+		best, bestShared := -1, 0
+		for ri, r := range rings {
+			if placedRing[ri] {
+				continue
+			}
+			shared := 0
+			for _, a := range r.Atoms {
+				if done[a] {
+					shared++
+				}
+			}
+			if shared == len(r.Atoms) {
+				placedRing[ri] = true
+				continue
+			}
+			if shared > bestShared || (shared == bestShared && shared > 0 && l.ringOrder(r, rings[best]) < 0) {
+				best, bestShared = ri, shared
+			}
+		}
+		if best < 0 {
+			break
+		}
+		placedRing[best] = true
+		r := rings[best]
+		if bestShared == 1 {
+			l.spiro(r, pos, done)
+		} else {
+			l.fillRuns(r, pos, done)
+		}
+	}
+	// atoms no ring placed (an approximate ring search): on a circle
+	for i, a := range sys.atoms {
+		if !done[a] {
+			pos[a] = polar(3+float64(i)*0.1, float64(i))
+			done[a] = true
+		}
+	}
+	return pos
+}
+
+// ringKey orders rings canonically: by the ranks of their atoms.
+func (l *layout) ringKey(r notation.Ring) int {
+	k := l.n
+	for _, a := range r.Atoms {
+		k = min(k, l.rank[a])
+	}
+	return k
+}
+
+// cycles returns the rings of a system to place: its smallest rings
+// and, where two of them share a path of three or more atoms (bridged
+// systems), the cycle around both, so the choice does not hang on which
+// smallest set the ring search found.
+func (l *layout) cycles(sys *ringSystem) []notation.Ring {
+	rings := slices.Clone(sys.rings)
+	if len(rings) > 12 {
+		return rings
+	}
+	for i := range sys.rings {
+		for j := i + 1; j < len(sys.rings); j++ {
+			if sharedCount(sys.rings[i], sys.rings[j]) < 3 {
+				continue
+			}
+			if c := ringSum(sys.rings[i], sys.rings[j]); c != nil {
+				dup := false
+				for _, r := range rings {
+					if sameCycle(r.Atoms, c) {
+						dup = true
+					}
+				}
+				if !dup {
+					rings = append(rings, notation.Ring{Atoms: c})
+				}
+			}
+		}
+	}
+	return rings
+}
+
+func sameCycle(a, b []int) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for _, x := range a {
+		if !slices.Contains(b, x) {
+			return false
+		}
+	}
+	return true
+}
+
+// ringOrder compares two rings canonically by their sorted ranks.
+func (l *layout) ringOrder(a, b notation.Ring) int {
+	ra := make([]int, len(a.Atoms))
+	for i, x := range a.Atoms {
+		ra[i] = l.rank[x]
+	}
+	rb := make([]int, len(b.Atoms))
+	for i, x := range b.Atoms {
+		rb[i] = l.rank[x]
+	}
+	slices.Sort(ra)
+	slices.Sort(rb)
+	return slices.Compare(ra, rb)
+}
+
+// firstRing chooses the ring placed first, with its atoms in cycle
+// order: the largest ring of a macrocycle; for bridged systems the
+// largest cycle (the perimeter, which draws the bridges inside); else
+// the ring of most fusions.
+func (l *layout) firstRing(rings []notation.Ring) []int {
+	bridged := false
+	for i := range rings {
+		for j := i + 1; j < len(rings); j++ {
+			if sharedCount(rings[i], rings[j]) >= 3 {
+				bridged = true
+			}
+		}
+	}
+	score := func(i int) int {
+		r := rings[i]
+		if r.Size() >= 8 || bridged {
+			return 1000 + r.Size()
+		}
+		fused := 0
+		for j, q := range rings {
+			if j != i && sharedCount(r, q) >= 2 {
+				fused++
+			}
+		}
+		return fused*10 + r.Size()
+	}
+	best := 0
+	for i := range rings {
+		if d := score(i) - score(best); d > 0 || (d == 0 && l.ringOrder(rings[i], rings[best]) < 0) {
+			best = i
+		}
+	}
+	cycle := rings[best].Atoms
+	// start at the canonically first atom, towards its first neighbour
+	start := 0
+	for i, a := range cycle {
+		if l.rank[a] < l.rank[cycle[start]] {
+			start = i
+		}
+	}
+	n := len(cycle)
+	out := make([]int, 0, n)
+	fwd := l.rank[cycle[(start+1)%n]] < l.rank[cycle[(start+n-1)%n]]
+	for i := 0; i < n; i++ {
+		if fwd {
+			out = append(out, cycle[(start+i)%n])
+		} else {
+			out = append(out, cycle[(start-i+n)%n])
+		}
+	}
+	return out
+}
+
+func sharedCount(a, b notation.Ring) int {
+	k := 0
+	for _, x := range a.Atoms {
+		if slices.Contains(b.Atoms, x) {
+			k++
+		}
+	}
+	return k
+}
+
+// ringSum returns the cycle formed by the bonds of exactly one of two
+// rings, or nil when those bonds do not form one simple cycle.
+func ringSum(a, b notation.Ring) []int {
+	count := map[int]int{}
+	ends := map[int][2]int{}
+	for _, r := range []notation.Ring{a, b} {
+		for i, bi := range r.Bonds {
+			count[bi]++
+			ends[bi] = [2]int{r.Atoms[i], r.Atoms[(i+1)%len(r.Atoms)]}
+		}
+	}
+	adj := map[int][]int{}
+	edges := 0
+	for bi, c := range count {
+		if c != 1 {
+			continue
+		}
+		e := ends[bi]
+		adj[e[0]] = append(adj[e[0]], e[1])
+		adj[e[1]] = append(adj[e[1]], e[0])
+		edges++
+	}
+	if edges == 0 {
+		return nil
+	}
+	start := -1
+	for x, ys := range adj {
+		if len(ys) != 2 {
+			return nil
+		}
+		if start < 0 || x < start {
+			start = x
+		}
+	}
+	cycle := []int{start}
+	prev, cur := -1, start
+	for {
+		ys := adj[cur]
+		next := ys[0]
+		if next == prev || (prev == -1 && ys[1] < ys[0]) {
+			next = ys[1]
+		}
+		if next == start {
+			break
+		}
+		if len(cycle) > edges {
+			return nil
+		}
+		cycle = append(cycle, next)
+		prev, cur = cur, next
+	}
+	if len(cycle) != edges {
+		return nil
+	}
+	return cycle
+}
+
+// polygon places a cycle as a regular polygon centred at the origin, its
+// first atom at the top.
+func (l *layout) polygon(cycle []int, pos []Point, done []bool) {
+	n := len(cycle)
+	r := 1 / (2 * math.Sin(math.Pi/float64(n)))
+	for i, a := range cycle {
+		pos[a] = polar(r, math.Pi/2+2*math.Pi*float64(i)/float64(n))
+		done[a] = true
+	}
+	l.bendTrans(cycle, pos)
+}
+
+// spiro places ring r, which shares one placed atom, as a polygon on the
+// free side of that atom.
+func (l *layout) spiro(r notation.Ring, pos []Point, done []bool) {
+	n := len(r.Atoms)
+	k := 0
+	for i, a := range r.Atoms {
+		if done[a] {
+			k = i
+		}
+	}
+	s := r.Atoms[k]
+	var away Point
+	for _, y := range l.nbr[s] {
+		if done[y] {
+			away = away.add(pos[s].sub(pos[y]).unit())
+		}
+	}
+	if away.norm() < 1e-6 {
+		away = Point{1, 0}
+	}
+	away = away.unit()
+	rad := 1 / (2 * math.Sin(math.Pi/float64(n)))
+	centre := pos[s].add(away.scale(rad))
+	base := pos[s].sub(centre).angle()
+	best, bestPen := []Point(nil), math.Inf(1)
+	dirs := []float64{1, -1}
+	if l.rank[r.Atoms[(k+1)%n]] > l.rank[r.Atoms[(k+n-1)%n]] {
+		dirs = []float64{-1, 1} // of two mirror images, the canonical one first
+	}
+	for _, dir := range dirs {
+		cand := make([]Point, n)
+		for i := 0; i < n; i++ {
+			cand[(k+i)%n] = centre.add(polar(rad, base+dir*2*math.Pi*float64(i)/float64(n)))
+		}
+		if pen := penalty(cand, r.Atoms, pos, done); pen < bestPen-1e-9 {
+			best, bestPen = cand, pen
+		}
+	}
+	for i, a := range r.Atoms {
+		if !done[a] {
+			pos[a] = best[i]
+			done[a] = true
+		}
+	}
+}
+
+// penalty measures how close new points come to placed atoms.
+func penalty(cand []Point, atoms []int, pos []Point, done []bool) float64 {
+	pen := 0.0
+	for i, p := range cand {
+		if done[atoms[i]] {
+			continue
+		}
+		for a := range pos {
+			if done[a] {
+				if d := p.dist(pos[a]); d < 0.9 {
+					pen += (0.9 - d) * (0.9 - d)
+				}
+			}
+		}
+	}
+	return pen
+}
+
+// fillRuns places each run of unplaced atoms of ring r on an arc between
+// the placed atoms on either side of it.
+func (l *layout) fillRuns(r notation.Ring, pos []Point, done []bool) {
+	n := len(r.Atoms)
+	at := func(i int) int { return r.Atoms[((i%n)+n)%n] }
+	type span struct {
+		a, b int
+		run  []int
+	}
+	var spans []span
+	for i := 0; i < n; i++ {
+		if !done[at(i)] || done[at(i+1)] {
+			continue
+		}
+		var run []int
+		j := i + 1
+		for !done[at(j)] && len(run) < n {
+			run = append(run, at(j))
+			j++
+		}
+		sp := span{at(i), at(j), run}
+		// read from the canonically first end, so the side chosen does
+		// not depend on the direction the ring was found in
+		if l.rank[sp.a] > l.rank[sp.b] {
+			sp.a, sp.b = sp.b, sp.a
+			slices.Reverse(sp.run)
+		}
+		spans = append(spans, sp)
+	}
+	slices.SortFunc(spans, func(x, y span) int { return l.minRank(x.run) - l.minRank(y.run) })
+	for _, sp := range spans {
+		l.arc(sp.a, sp.b, sp.run, pos, done)
+	}
+}
+
+// arc places run between a and b on a circular arc of equal chords,
+// choosing the side that overlaps least (then the side away from the
+// placed atoms).
+func (l *layout) arc(a, b int, run []int, pos []Point, done []bool) {
+	pa, pb := pos[a], pos[b]
+	segs := float64(len(run) + 1)
+	d := pa.dist(pb)
+	var best []Point
+	bestPen, bestFar := math.Inf(1), 0.0
+	var centroid Point
+	cnt := 0
+	for x := range pos {
+		if done[x] {
+			centroid = centroid.add(pos[x])
+			cnt++
+		}
+	}
+	centroid = centroid.scale(1 / float64(max(cnt, 1)))
+	// arcs of unit chords on either side, and bows across (bridges the
+	// arcs would lay over ring atoms already placed)
+	var cands [][]Point
+	for _, sgn := range []float64{1, -1} {
+		cands = append(cands, arcPoints(pa, pb, len(run), d, segs, sgn))
+	}
+	for _, h := range []float64{0.3, 0.55, 0.85} {
+		for _, sgn := range []float64{1, -1} {
+			cands = append(cands, bowPoints(pa, pb, len(run), h*sgn))
+		}
+	}
+	for _, cand := range cands {
+		pen := 0.0
+		prev := pa
+		for i, p := range cand {
+			for x := range pos {
+				if done[x] {
+					if dd := p.dist(pos[x]); dd < 0.9 {
+						pen += (0.9 - dd) * (0.9 - dd)
+					}
+				}
+			}
+			for _, q := range cand[:i] {
+				if dd := p.dist(q); dd < 0.6 {
+					pen += (0.6 - dd) * (0.6 - dd)
+				}
+			}
+			c := p.dist(prev)
+			pen += 0.5 * (c - 1) * (c - 1)
+			prev = p
+		}
+		c := pb.dist(prev)
+		pen += 0.5 * (c - 1) * (c - 1)
+		far := 0.0
+		for _, p := range cand {
+			far += p.dist(centroid)
+		}
+		if pen < bestPen-1e-6 || (math.Abs(pen-bestPen) <= 1e-6 && far > bestFar) {
+			best, bestPen, bestFar = cand, pen, far
+		}
+	}
+	for i, x := range run {
+		pos[x] = best[i]
+		done[x] = true
+	}
+}
+
+// arcPoints returns k points from a to b (exclusive) on an arc bulging to
+// the left (sgn +1) or right of a→b, with k+1 chords of length 1; when the
+// ends are too far apart for that, on a flat arc with longer chords.
+func arcPoints(pa, pb Point, k int, d, segs, sgn float64) []Point {
+	out := make([]Point, k)
+	u := pb.sub(pa).unit()
+	left := u.perp().scale(sgn)
+	if d >= segs*0.97 || d < 1e-9 {
+		// a bridge across: a shallow bow, chords stretched a little
+		bow := 0.3 * math.Sqrt(float64(k))
+		for i := 0; i < k; i++ {
+			t := float64(i+1) / segs
+			h := bow * math.Sin(math.Pi*t)
+			out[i] = pa.add(pb.sub(pa).scale(t)).add(left.scale(h))
+		}
+		return out
+	}
+	// solve sin(s·phi)/sin(phi) = d for the half-angle phi of one chord
+	lo, hi := 1e-9, math.Pi/segs
+	for it := 0; it < 60; it++ {
+		mid := (lo + hi) / 2
+		if math.Sin(segs*mid)/math.Sin(mid) > d {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	phi := (lo + hi) / 2
+	rad := 1 / (2 * math.Sin(phi))
+	theta := 2 * segs * phi // central angle from a to b through the arc
+	mid := pa.add(pb).scale(0.5)
+	// the centre lies opposite the bulge for arcs under half a circle
+	centre := mid.sub(left.scale(rad * math.Cos(theta/2)))
+	start := pa.sub(centre).angle()
+	// turn from a towards the bulge side
+	dir := -1.0
+	if sgn < 0 {
+		dir = 1
+	}
+	for i := 0; i < k; i++ {
+		out[i] = centre.add(polar(rad, start+dir*2*phi*float64(i+1)))
+	}
+	return out
+}
+
+// bowPoints returns k points from a to b (exclusive) evenly along the
+// chord, bowed sideways by h at the middle.
+func bowPoints(pa, pb Point, k int, h float64) []Point {
+	out := make([]Point, k)
+	left := pb.sub(pa).unit().perp()
+	for i := 0; i < k; i++ {
+		t := float64(i+1) / float64(k+1)
+		out[i] = pa.add(pb.sub(pa).scale(t)).add(left.scale(h * math.Sin(math.Pi*t)))
+	}
+	return out
+}

@@ -304,6 +304,12 @@ def find(lay):
             else:
                 names.append("explicit-hydrogen-middle")
         found["a%d" % i] = names
+    for a in atoms:
+        # outside the grammar wherever it stands, marked atom or not
+        if any(d.after_branch for d in a.digits):
+            names = found.setdefault("a%d" % a.index, [])
+            if "ring-digit-after-branch" not in names:
+                names.append("ring-digit-after-branch")
     for b in lay.bonds:
         if b.order != 2:
             continue

@@ -52,10 +52,12 @@ SURVEY_RANDOM = 1  # writer.py writings with random options per NCI isomer
 
 
 class Writing:
-    def __init__(self, sid, wid, writer, smiles, intended=None, readings=None):
+    def __init__(self, sid, wid, writer, smiles, intended=None, rules=None):
         self.sid, self.wid, self.writer, self.smiles = sid, wid, writer, smiles
         self.intended = intended  # configuration key dict, writing numbering
-        self.writer_rules = readings  # the rules the writer wrote under, or None
+        self.writer_rules = rules  # the rules the writer wrote under, or None
+        self.found = {}
+        self.classes = {}
 
 
 def rdkit_writer_rules():
@@ -91,7 +93,7 @@ def rdkit_intended(smiles):
 
 
 def amap_of(smiles):
-    from layout import Layout
+    """Each atom of the writing keeps its number; plain [H] atoms become H."""
     lay = Layout(smiles)
     return [readers.H if a.is_hydrogen else a.index for a in lay.atoms]
 

@@ -3,9 +3,11 @@
 Every reader returns a Reading: whether it accepted the string, its canonical
 isomeric SMILES, the CIP labels of the molecule it read (atoms numbered in
 string order, as the CIP validation suite numbers them) and its
-configuration: every tetrahedral centre and double bond it keeps, written in
-the atom numbers of the structure the writing came from, in one form that
-does not depend on the reader (see configuration_key).
+configuration: every tetrahedral centre and double bond it keeps, in the
+writing's own atom numbers and in one form that does not depend on the
+reader (centre_key, bond_key). amap maps each atom of a writing to its
+number in the key, H for a plain hydrogen atom, so that an [H] atom counts
+as an implicit hydrogen does.
 
 - RDKit 2022.09.3, Debian's python3-rdkit (run with /usr/bin/python3):
   configuration from Chem.FindPotentialStereo, labels from
@@ -64,19 +66,19 @@ def parity(seq):
     return sign
 
 
-def centre_key(base_neighbours, anticlockwise):
-    """The configuration of a centre in base numbering.
+def centre_key(neighbours, anticlockwise):
+    """The configuration of a centre.
 
-    base_neighbours lists the neighbours (base atom numbers, H for the
+    neighbours lists the neighbours (atom numbers, H for the
     hydrogen or lone pair) in the order the reader's chirality refers to,
     looking from the first: anticlockwise is True when the other three run
     anticlockwise (SMILES '@'). The key says the same for the neighbours in
     increasing order with H first: '@' or '@@'; None when the list has no
     four distinct entries.
     """
-    if len(base_neighbours) != 4 or len(set(base_neighbours)) != 4:
+    if len(neighbours) != 4 or len(set(neighbours)) != 4:
         return None
-    s = parity(base_neighbours) * (1 if anticlockwise else -1)
+    s = parity(neighbours) * (1 if anticlockwise else -1)
     return "@" if s > 0 else "@@"
 
 
@@ -309,7 +311,7 @@ def openbabel_read(smiles, amap):
 
 def label_with_config(mol, amap, config):
     """rdCIPLabeler labels of RDKit's molecule of a writing once its
-    configuration is replaced by config (base numbering): how another
+    configuration is replaced by config (writing numbering): how another
     reader's configuration is labelled."""
     mol = Chem.RWMol(mol)
     inv = {}

@@ -25,7 +25,7 @@ var layers = []struct {
 	{3, []string{"stereo/internal/ringgeom"}},
 	{4, []string{"stereo"}},
 	{5, []string{"stereo/identity"}},
-	{6, []string{"stereo/transform", "stereo/reaction", "stereo/depict"}},
+	{6, []string{"stereo/transform", "stereo/reaction", "stereo/depict", "stereo/readings"}},
 	{7, []string{"stereo/document"}},
 	{8, []string{"lsp"}},
 	{9, []string{"cmd/stereoline"}},

@@ -16,4 +16,10 @@ const (
 	CodeInvertingNitrogen notation.Code = "stereo-inverting-nitrogen" // a mark on a nitrogen that inverts quickly
 	CodeUndefined         notation.Code = "stereo-undefined"          // a stereogenic unit left unmarked
 	CodeUndetermined      notation.Code = "stereo-undetermined"       // the labeller hit its node cap
+
+	// Stereo groups of the extension block (groups.go).
+	CodeGroupIneffectiveMember notation.Code = "stereo-group-ineffective-member" // a listed atom that is no marked chiral centre
+	CodeGroupOneCenter         notation.Code = "stereo-group-one-center"         // an or or and group of one centre: its mark's direction means nothing
+	CodeGroupAcrossComponents  notation.Code = "stereo-group-across-components"  // an or or and group over separate components
+	CodeGroupRepeatedTag       notation.Code = "stereo-group-repeated-tag"       // two fields with one or or and tag
 )

@@ -12,13 +12,19 @@ package identity
 type Index struct {
 	byKey          map[string]int // first record with each key
 	byConstitution map[string]int // first record with each constitution
-	units          [][]identityUnit
-	n              int
+	// Records with stereo groups (groups.go): the first that stands for
+	// a set holding each stereoisomer, and the first with each set.
+	byMember map[string]int
+	byUnion  map[string]int
+	units    [][]identityUnit
+	sets     []*groupSet
+	kinds    []SetKind
+	n        int
 }
 
 // NewIndex returns an empty index.
 func NewIndex() *Index {
-	return &Index{byKey: map[string]int{}, byConstitution: map[string]int{}}
+	return &Index{byKey: map[string]int{}, byConstitution: map[string]int{}, byMember: map[string]int{}, byUnion: map[string]int{}}
 }
 
 // Match is what Add finds for a new record.
@@ -35,15 +41,23 @@ type Match struct {
 	// earlier record; Atoms are the new record's, OtherAtoms the earlier
 	// one's.
 	Differing []UnitDifference
+	// Single and Pair are those of Comparison for the relations of
+	// stereo groups: Single is 0 when the new record is the one
+	// stereoisomer, 1 when the earlier one is.
+	Single int
+	Pair   bool
 }
 
 // Add records id as the next record and relates it to the first earlier
-// record it matches: a duplicate before a mirror image before a
-// stereoisomer. The record gets the index Len() had before the call.
+// record it matches: a duplicate before a mirror image before a relation
+// of stereo groups (the earliest record) before a stereoisomer. The
+// record gets the index Len() had before the call.
 func (x *Index) Add(id Identity) Match {
 	i := x.n
 	x.n++
 	x.units = append(x.units, id.units)
+	x.sets = append(x.sets, id.set)
+	x.kinds = append(x.kinds, id.Set)
 	m := Match{Relation: Different, Earlier: -1}
 	if id.Key == "" {
 		return m
@@ -52,6 +66,8 @@ func (x *Index) Add(id Identity) Match {
 		m = Match{Relation: Identical, Earlier: j}
 	} else if j, ok := x.byKey[id.MirrorKey]; ok {
 		m = Match{Relation: Enantiomers, Earlier: j}
+	} else if sm, ok := x.setMatch(&id); ok {
+		m = sm
 	} else if j, ok := x.byConstitution[id.ConstitutionKey]; ok {
 		c := compareIdentities(id, Identity{Key: "\x00", MirrorKey: "\x00", ConstitutionKey: id.ConstitutionKey, units: x.units[j]}, nil)
 		m = Match{Relation: c.Relation, Earlier: j, Differing: c.Differing}
@@ -62,7 +78,46 @@ func (x *Index) Add(id Identity) Match {
 	if _, ok := x.byConstitution[id.ConstitutionKey]; !ok {
 		x.byConstitution[id.ConstitutionKey] = i
 	}
+	if id.set != nil {
+		for _, k := range id.set.members {
+			if _, ok := x.byMember[k]; !ok {
+				x.byMember[k] = i
+			}
+		}
+		if _, ok := x.byUnion[id.set.union]; !ok {
+			x.byUnion[id.set.union] = i
+		}
+	}
 	return m
+}
+
+// setMatch finds the earliest earlier record that id is related to by
+// stereo groups: a set holding id's one stereoisomer, one stereoisomer
+// of id's set, or the same stereoisomers said another way.
+func (x *Index) setMatch(id *Identity) (Match, bool) {
+	best := Match{Earlier: -1}
+	consider := func(j int, rel Relation, single int, pair bool) {
+		if best.Earlier < 0 || j < best.Earlier {
+			best = Match{Relation: rel, Earlier: j, Single: single, Pair: pair}
+		}
+	}
+	if id.set == nil {
+		if id.Set == OneStereoisomer {
+			if j, ok := x.byMember[id.Key]; ok {
+				consider(j, memberRelation(x.kinds[j]), 0, x.sets[j].pair)
+			}
+		}
+	} else {
+		for _, k := range id.set.members {
+			if j, ok := x.byKey[k]; ok && x.kinds[j] == OneStereoisomer {
+				consider(j, memberRelation(id.Set), 1, id.set.pair)
+			}
+		}
+		if j, ok := x.byUnion[id.set.union]; ok {
+			consider(j, RelativeAndMixture, 0, id.set.pair)
+		}
+	}
+	return best, best.Earlier >= 0
 }
 
 // Len returns the number of records added.

@@ -101,9 +101,9 @@ func (r *Result) relateRecords() {
 			d.Code, d.Message = setRelationMessage(m, rec, earlier, where)
 		case identity.Diastereomers, identity.Unspecified:
 			d.Code, d.Severity = CodeListStereoisomer, notation.SeverityInformation
-			d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differingUnits(rec.Mol, m.Differing))
+			d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differingUnits(rec.Mol, earlier.Mol, m.Differing))
 			if m.Relation == identity.Unspecified {
-				d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differingUnits(rec.Mol, m.Differing))
+				d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differingUnits(rec.Mol, earlier.Mol, m.Differing))
 			}
 		default:
 			continue
@@ -254,7 +254,7 @@ func (r *Result) lineOf(off int) int {
 }
 
 // differingUnits names the units in which two stereoisomers differ.
-func differingUnits(m *notation.Molecule, diffs []identity.UnitDifference) string {
+func differingUnits(m, earlier *notation.Molecule, diffs []identity.UnitDifference) string {
 	if len(diffs) == 0 {
 		return "the configurations differ"
 	}
@@ -264,6 +264,12 @@ func differingUnits(m *notation.Molecule, diffs []identity.UnitDifference) strin
 		for _, a := range d.Atoms {
 			names = append(names, AtomName(m, a))
 		}
+		if len(d.Atoms) == 0 {
+			// unmarked here: the unit is named by the earlier record's atoms
+			for _, a := range d.OtherAtoms {
+				names = append(names, AtomName(earlier, a))
+			}
+		}
 		sep := ""
 		if d.Kind == stereo.KindDoubleBond {
 			sep = "="
@@ -271,7 +277,7 @@ func differingUnits(m *notation.Molecule, diffs []identity.UnitDifference) strin
 		name := strings.Join(names, sep)
 		switch {
 		case !d.Specified[0]:
-			name += " (unmarked here)"
+			name += " there (unmarked here)"
 		case !d.Specified[1]:
 			name += " (unmarked there)"
 		}

@@ -282,9 +282,13 @@ func (gr *groupReader) invertedLabels(g *Group) map[int]Descriptor {
 		return nil
 	}
 	an := AnalyzeWith(notation.Read(text), Options{NodeCap: gr.l.nodeCap, skipGroups: true})
+	member := make(map[int]bool, len(g.Atoms))
+	for _, a := range g.Atoms {
+		member[a] = true
+	}
 	out := map[int]Descriptor{}
 	for i := range an.Units {
-		if u := &an.Units[i]; chiralUnit(u) && slices.Contains(g.Atoms, u.Centre) {
+		if u := &an.Units[i]; chiralUnit(u) && member[u.Centre] {
 			out[u.Centre] = u.Descriptor
 		}
 	}

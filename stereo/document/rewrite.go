@@ -2,7 +2,6 @@ package document
 
 import (
 	"fmt"
-	"slices"
 	"strings"
 
 	"stereoline/notation"
@@ -198,9 +197,13 @@ func transformedLabels(m *notation.Molecule, t transform.Transform, atoms []int)
 		return ""
 	}
 	an := stereo.Analyze(notation.Read(text))
+	want := make(map[int]bool, len(atoms))
+	for _, a := range atoms {
+		want[a] = true
+	}
 	var parts []string
 	for _, u := range an.Units {
-		if u.Centre >= 0 && u.Kind != stereo.KindDoubleBond && slices.Contains(atoms, u.Centre) && u.Descriptor.Labelled() {
+		if u.Centre >= 0 && u.Kind != stereo.KindDoubleBond && want[u.Centre] && u.Descriptor.Labelled() {
 			parts = append(parts, fmt.Sprintf("%d%s", u.Centre+1, u.Descriptor))
 		}
 	}

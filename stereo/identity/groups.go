@@ -151,16 +151,22 @@ func keyGroupsOf(m *notation.Molecule, units []keyUnit) (groups [][]int, and []b
 const CodeGroupAddsNothing notation.Code = "stereo-group-adds-nothing" // an or or and group whose inversion is the structure as written
 
 // maxGroupChecks bounds the groups GroupFindings checks, each costing
-// one identity key.
-const maxGroupChecks = 64
+// one identity key; maxFindingAtoms bounds the records it checks, since
+// the key of a very large record is costly and GroupFindings runs for
+// every record with groups, not only those a list relates.
+const (
+	maxGroupChecks  = 64
+	maxFindingAtoms = 400
+)
 
-// GroupFindings reports the or and and groups of m that add nothing:
+// GroupFindings reports the or and and groups of m that add nothing
+// (records of up to maxFindingAtoms atoms):
 // inverting every member of the group gives the structure as written (a
 // meso compound whose centres the group holds, or centres that are not
 // chiral together), so the record stands for that one structure whatever
 // the group says. The span is the group's field.
 func GroupFindings(m *notation.Molecule) notation.ErrorList {
-	if m == nil || m.Extension == nil || len(m.Atoms) == 0 {
+	if m == nil || m.Extension == nil || len(m.Atoms) == 0 || len(m.Atoms) > maxFindingAtoms {
 		return nil
 	}
 	g := newKeyGraph(m)

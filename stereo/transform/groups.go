@@ -8,6 +8,7 @@ import (
 	"fmt"
 	"slices"
 	"sort"
+	"strconv"
 	"strings"
 
 	"stereoline/notation"
@@ -120,9 +121,10 @@ func normaliseFrame(labels map[int]stereo.Descriptor, atoms []int) {
 func relativeLabels(an *stereo.Analysis, atoms []int) (map[int]stereo.Descriptor, string) {
 	out := map[int]stereo.Descriptor{}
 	desc := ""
+	want := atomSet(atoms)
 	for i := range an.Units {
 		u := &an.Units[i]
-		if u.Centre >= 0 && slices.Contains(atoms, u.Centre) && u.Specified {
+		if u.Centre >= 0 && want[u.Centre] && u.Specified {
 			out[u.Centre] = u.Relative
 			if desc == "" && u.Group >= 0 {
 				desc = an.GroupDescriptor(u.Group)
@@ -167,6 +169,9 @@ func MakeAbsolute(m *notation.Molecule, gi, atom int, d stereo.Descriptor) (Tran
 	if sg.Kind == notation.GroupAbsolute {
 		return Transform{}, transformError(groupSpan(m, gi), CodeNoGroup, "stereo group %s is absolute already", sg.Label())
 	}
+	if !m.Extension.Closed {
+		return Transform{}, transformError(m.Extension.Span, notation.CodeEditUnsupported, "the extension block is not closed")
+	}
 	an := stereo.Analyze(m)
 	var members []int // chiral centres of the group
 	for i := range an.Units {
@@ -174,11 +179,12 @@ func MakeAbsolute(m *notation.Molecule, gi, atom int, d stereo.Descriptor) (Tran
 			members = append(members, u.Centre)
 		}
 	}
+	isMember := atomSet(members)
 	var t Transform
 	if atom >= 0 {
 		var u *stereo.Unit
 		for i := range an.Units {
-			if an.Units[i].Centre == atom && slices.Contains(members, atom) {
+			if an.Units[i].Centre == atom && isMember[atom] {
 				u = &an.Units[i]
 			}
 		}
@@ -198,31 +204,22 @@ func MakeAbsolute(m *notation.Molecule, gi, atom int, d stereo.Descriptor) (Tran
 			}
 		}
 	}
-	block, err := blockSteps(m, func(cur *notation.Molecule) ([]notation.Edit, bool, error) {
-		abs := -1
-		if cur.Extension != nil {
-			for i := range cur.Extension.Groups {
-				if cur.Extension.Groups[i].Kind == notation.GroupAbsolute {
-					abs = i
-				}
-			}
+	abs := -1
+	for i := range m.Extension.Groups {
+		if m.Extension.Groups[i].Kind == notation.GroupAbsolute && i != gi {
+			abs = i
 		}
-		if k := sameGroup(cur, m, gi); k >= 0 {
-			if abs < 0 {
-				e, err := notation.SetGroupKind(cur, k, notation.GroupAbsolute, 0)
-				return e, true, err
-			}
-			e, err := notation.RemoveStereoGroup(cur, k)
-			return e, false, err
-		}
-		if abs >= 0 {
-			if a := firstMissing(cur, abs, sg.Atoms); a >= 0 {
-				e, err := notation.AddGroupAtom(cur, abs, a)
-				return e, false, err
-			}
-		}
-		return nil, true, nil
-	})
+	}
+	var block []notation.Edit
+	var err error
+	if abs < 0 {
+		block, err = notation.SetGroupKind(m, gi, notation.GroupAbsolute, 0)
+	} else {
+		// the atoms join the absolute group, in ascending order
+		joined := append(append([]int(nil), m.Extension.Groups[abs].Atoms...), sg.Atoms...)
+		sort.Ints(joined)
+		block, err = rebuildBlock(m, map[int][]int{gi: nil, abs: slices.Compact(joined)}, nil)
+	}
 	if err != nil {
 		return Transform{}, err
 	}
@@ -234,7 +231,7 @@ func MakeAbsolute(m *notation.Molecule, gi, atom int, d stereo.Descriptor) (Tran
 	an2 := stereo.Analyze(after)
 	for i := range an2.Units {
 		u := &an2.Units[i]
-		if !slices.Contains(members, u.Centre) || u.Kind == stereo.KindDoubleBond {
+		if !isMember[u.Centre] || u.Kind == stereo.KindDoubleBond {
 			continue
 		}
 		if u.GroupKind != notation.GroupAbsolute || atom == u.Centre && u.Descriptor != d {
@@ -278,6 +275,9 @@ func MarkGroup(m *notation.Molecule, atoms []int, kind notation.GroupKind) (Tran
 			return Transform{}, transformError(atomSpan(m, a), CodeNoUnit, "atom %d is not a marked stereocentre", a+1)
 		}
 	}
+	if m.Extension != nil && !m.Extension.Closed {
+		return Transform{}, transformError(m.Extension.Span, notation.CodeEditUnsupported, "the extension block is not closed")
+	}
 	word := map[notation.GroupKind]string{notation.GroupOr: "relative", notation.GroupAnd: "racemic"}[kind]
 	// exactly the centres of one group: retag it
 	if m.Extension != nil {
@@ -296,17 +296,27 @@ func MarkGroup(m *notation.Molecule, atoms []int, kind notation.GroupKind) (Tran
 		}
 	}
 	number := notation.FreeGroupNumber(m, kind)
-	edits, err := blockSteps(m, func(cur *notation.Molecule) ([]notation.Edit, bool, error) {
-		groups := cur.AtomGroups()
+	change := map[int][]int{}
+	if m.Extension != nil {
+		taken := map[int]bool{}
 		for _, a := range atoms {
-			if gi := groups[a]; gi >= 0 {
-				e, err := notation.RemoveGroupAtom(cur, gi, a)
-				return e, false, err
+			taken[a] = true
+		}
+		for gi := range m.Extension.Groups {
+			g := &m.Extension.Groups[gi]
+			var rest []int
+			for _, a := range g.Atoms {
+				if !taken[a] {
+					rest = append(rest, a)
+				}
+			}
+			if len(rest) < len(g.Atoms) {
+				change[gi] = rest
 			}
 		}
-		e, err := notation.AddStereoGroup(cur, kind, number, atoms)
-		return e, true, err
-	})
+	}
+	g := notation.StereoGroup{Kind: kind, Number: number}
+	edits, err := rebuildBlock(m, change, []string{g.Label() + ":" + joinAtoms(atoms)})
 	if err != nil {
 		return Transform{}, err
 	}
@@ -321,9 +331,10 @@ func verifyMarked(m *notation.Molecule, edits []notation.Edit, atoms []int, kind
 		return Transform{}, err
 	}
 	before, an := stereo.Analyze(m), stereo.Analyze(after)
+	was, is := centredUnits(before), centredUnits(an)
 	group := -2
 	for _, a := range atoms {
-		u, v := unitCentredOn(before, a), unitCentredOn(an, a)
+		u, v := was[a], is[a]
 		if u == nil || v == nil || v.GroupKind != kind || u.Descriptor != v.Descriptor || group != -2 && v.Group != group {
 			return Transform{}, transformError(atomSpan(m, a), CodeNotVerified, "marking the centres as %s does not read back as asked", word)
 		}
@@ -392,31 +403,48 @@ func SplitGroup(m *notation.Molecule, gi int) (Transform, error) {
 	return Transform{Edits: e}, nil
 }
 
-// blockSteps runs step on the record until it says it is done, reading
-// the text again after each step, and returns the whole change as one
-// minimal edit of the text (the bytes from the first to the last that
-// differ). Steps edit the extension block only, so the edit lies inside
-// it, or inserts or removes it after the notation.
-func blockSteps(m *notation.Molecule, step func(cur *notation.Molecule) ([]notation.Edit, bool, error)) ([]notation.Edit, error) {
-	cur := m
-	text := m.Text
-	for i := 0; ; i++ {
-		if i > len(m.Atoms)+8 {
-			return nil, transformError(notation.Span{}, CodeNotVerified, "the stereo groups could not be rewritten")
+// rebuildBlock returns the minimal edit that rewrites m's extension
+// block with the atoms of the stereo groups in change (by index in
+// m.Extension.Groups; an empty list drops the group's field) and the
+// fields in extra added at its end; every other field keeps its bytes.
+// Without a block, one is added after the notation; a block left with no
+// field is removed with the blank before it. The block is built in one
+// pass, so a group of thousands of atoms costs no more than its text.
+func rebuildBlock(m *notation.Molecule, change map[int][]int, extra []string) ([]notation.Edit, error) {
+	ext := m.Extension
+	var fields []string
+	sep, start, end := " ", m.NotationEnd(), m.NotationEnd()
+	if ext != nil {
+		if !ext.Closed {
+			return nil, transformError(ext.Span, notation.CodeEditUnsupported, "the extension block is not closed")
 		}
-		e, done, err := step(cur)
-		if err != nil {
-			return nil, err
+		sep = m.Text[ext.Separator.Start:ext.Separator.End]
+		start, end = ext.Separator.Start, ext.Span.End
+		for fi := range ext.Fields {
+			f := &ext.Fields[fi]
+			atoms, changed := change[f.Group]
+			switch {
+			case f.Group < 0 || !changed:
+				fields = append(fields, m.Text[f.Span.Start:f.Span.End])
+			case len(atoms) > 0:
+				fields = append(fields, m.Text[f.Tag.Start:f.Tag.End]+":"+joinAtoms(atoms))
+			}
 		}
-		if text, err = notation.ApplyEdits(text, e); err != nil {
-			return nil, err
-		}
-		if done {
-			break
-		}
-		cur = notation.Read(text)
 	}
-	return diffEdit(m.Text, text), nil
+	fields = append(fields, extra...)
+	block := ""
+	if len(fields) > 0 {
+		block = sep + "|" + strings.Join(fields, ",") + "|"
+	}
+	return diffEdit(m.Text, m.Text[:start]+block+m.Text[end:]), nil
+}
+
+func joinAtoms(atoms []int) string {
+	parts := make([]string, len(atoms))
+	for i, a := range atoms {
+		parts[i] = strconv.Itoa(a)
+	}
+	return strings.Join(parts, ",")
 }
 
 // diffEdit returns the one edit that turns old into new: the bytes
@@ -436,32 +464,6 @@ func diffEdit(old, new string) []notation.Edit {
 	return []notation.Edit{{Span: notation.Span{Start: p, End: len(old) - s}, New: new[p : len(new)-s]}}
 }
 
-// sameGroup returns the index in cur's block of the group that is group
-// gi of m's block (the same tag and first atom), or -1.
-func sameGroup(cur, m *notation.Molecule, gi int) int {
-	g := &m.Extension.Groups[gi]
-	if cur.Extension == nil {
-		return -1
-	}
-	for i := range cur.Extension.Groups {
-		h := &cur.Extension.Groups[i]
-		if h.Kind == g.Kind && h.Number == g.Number && len(h.Atoms) > 0 && len(g.Atoms) > 0 && h.Atoms[0] == g.Atoms[0] {
-			return i
-		}
-	}
-	return -1
-}
-
-// firstMissing returns the first of atoms not listed in group gi, or -1.
-func firstMissing(m *notation.Molecule, gi int, atoms []int) int {
-	for _, a := range atoms {
-		if !slices.Contains(m.Extension.Groups[gi].Atoms, a) {
-			return a
-		}
-	}
-	return -1
-}
-
 // groupCentres returns the centres the engine reads in block group gi, in
 // ascending order.
 func groupCentres(an *stereo.Analysis, gi int) []int {
@@ -475,21 +477,33 @@ func groupCentres(an *stereo.Analysis, gi int) []int {
 	return out
 }
 
-func unitCentredOn(an *stereo.Analysis, a int) *stereo.Unit {
+// centredUnits returns the units of an analysis with a centre (not
+// double bonds), by centre.
+func centredUnits(an *stereo.Analysis) map[int]*stereo.Unit {
+	out := make(map[int]*stereo.Unit, len(an.Units))
 	for i := range an.Units {
-		if u := &an.Units[i]; u.Centre == a && u.Kind != stereo.KindDoubleBond {
-			return u
+		if u := &an.Units[i]; u.Centre >= 0 && u.Kind != stereo.KindDoubleBond {
+			out[u.Centre] = u
 		}
 	}
-	return nil
+	return out
+}
+
+func atomSet(atoms []int) map[int]bool {
+	out := make(map[int]bool, len(atoms))
+	for _, a := range atoms {
+		out[a] = true
+	}
+	return out
 }
 
 // absoluteLabels writes the labels of the units centred on atoms:
 // "(2R,4S)".
 func absoluteLabels(an *stereo.Analysis, atoms []int) string {
 	var parts []string
+	units := centredUnits(an)
 	for _, a := range atoms {
-		if u := unitCentredOn(an, a); u != nil && u.Descriptor.Labelled() {
+		if u := units[a]; u != nil && u.Descriptor.Labelled() {
 			parts = append(parts, fmt.Sprintf("%d%s", a+1, u.Descriptor))
 		}
 	}

@@ -203,3 +203,35 @@ func TestLargeGroupIsLinear(t *testing.T) {
 		t.Errorf("%d findings (summary %v), want %d and a summary of the rest", count, summary, maxGroupFindings+1)
 	}
 }
+
+// BenchmarkAnalyzeLargeGroup: an or group over n marked centres adds a
+// pass over its members to the analysis: compare the grouped and plain
+// ns/op at each size.
+func BenchmarkAnalyzeLargeGroup(b *testing.B) {
+	for _, n := range []int{250, 500, 1000} {
+		var chain, atoms strings.Builder
+		for i := 0; i < n; i++ {
+			mark := "@"
+			if i%3 == 0 {
+				mark = "@@"
+			}
+			fmt.Fprintf(&chain, "C[C%sH](O)", mark)
+			if i > 0 {
+				atoms.WriteString(",")
+			}
+			fmt.Fprint(&atoms, 3*i+1)
+		}
+		plain := notation.Read(chain.String() + "C")
+		grouped := notation.Read(chain.String() + "C |o1:" + atoms.String() + "|")
+		b.Run(fmt.Sprintf("grouped/%d", n), func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				Analyze(grouped)
+			}
+		})
+		b.Run(fmt.Sprintf("plain/%d", n), func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				Analyze(plain)
+			}
+		})
+	}
+}

@@ -30,7 +30,7 @@ compared with RDKit's first) and canonicalises each with get_smiles().
 
 Usage: /usr/bin/python3 testdata/rdkit/gen_group_sets.py [out.tsv]
 Environment: RDKIT_JS_DIR, the folder whose node_modules holds
-@rdkit/rdkit (default /work/coord/npm, then ~/.cache/stereoline-npm);
+@rdkit/rdkit (default ~/.cache/stereoline-npm);
 without it the js columns are "-".
 """
 
@@ -48,7 +48,7 @@ import gen_groups
 SEED = 20417
 CONSTITUTIONS = 220  # sampled from cip_labels.tsv
 RANDOM_RECORDS = 6  # random records per constitution, besides the five on purpose
-JS_DIRS = [d for d in (os.environ.get("RDKIT_JS_DIR"), "/work/coord/npm", os.path.expanduser("~/.cache/stereoline-npm")) if d]
+JS_DIRS = [d for d in (os.environ.get("RDKIT_JS_DIR"), os.path.expanduser("~/.cache/stereoline-npm")) if d]
 
 COLUMNS = [
     ("set", "the NCI identifier of the constitution (cip_labels.tsv group); records of one set share a constitution"),

@@ -16,15 +16,21 @@ type Index struct {
 	// a set holding each stereoisomer, and the first with each set.
 	byMember map[string]int
 	byUnion  map[string]int
+	grouped  map[int]groupedRecord // the records with sets, by index
 	units    [][]identityUnit
-	sets     []*groupSet
-	kinds    []SetKind
 	n        int
+}
+
+// groupedRecord is what the index keeps of a record with a set.
+type groupedRecord struct {
+	kind SetKind
+	pair bool
 }
 
 // NewIndex returns an empty index.
 func NewIndex() *Index {
-	return &Index{byKey: map[string]int{}, byConstitution: map[string]int{}, byMember: map[string]int{}, byUnion: map[string]int{}}
+	return &Index{byKey: map[string]int{}, byConstitution: map[string]int{}, byMember: map[string]int{}, byUnion: map[string]int{},
+		grouped: map[int]groupedRecord{}}
 }
 
 // Match is what Add finds for a new record.
@@ -56,8 +62,6 @@ func (x *Index) Add(id Identity) Match {
 	i := x.n
 	x.n++
 	x.units = append(x.units, id.units)
-	x.sets = append(x.sets, id.set)
-	x.kinds = append(x.kinds, id.Set)
 	m := Match{Relation: Different, Earlier: -1}
 	if id.Key == "" {
 		return m
@@ -79,6 +83,7 @@ func (x *Index) Add(id Identity) Match {
 		x.byConstitution[id.ConstitutionKey] = i
 	}
 	if id.set != nil {
+		x.grouped[i] = groupedRecord{kind: id.Set, pair: id.set.pair}
 		for _, k := range id.set.members {
 			if _, ok := x.byMember[k]; !ok {
 				x.byMember[k] = i
@@ -95,6 +100,9 @@ func (x *Index) Add(id Identity) Match {
 // stereo groups: a set holding id's one stereoisomer, one stereoisomer
 // of id's set, or the same stereoisomers said another way.
 func (x *Index) setMatch(id *Identity) (Match, bool) {
+	if id.set == nil && len(x.grouped) == 0 {
+		return Match{}, false // no sets in the list: the common case costs nothing
+	}
 	best := Match{Earlier: -1}
 	consider := func(j int, rel Relation, single int, pair bool) {
 		if best.Earlier < 0 || j < best.Earlier {
@@ -104,13 +112,15 @@ func (x *Index) setMatch(id *Identity) (Match, bool) {
 	if id.set == nil {
 		if id.Set == OneStereoisomer {
 			if j, ok := x.byMember[id.Key]; ok {
-				consider(j, memberRelation(x.kinds[j]), 0, x.sets[j].pair)
+				consider(j, memberRelation(x.grouped[j].kind), 0, x.grouped[j].pair)
 			}
 		}
 	} else {
 		for _, k := range id.set.members {
-			if j, ok := x.byKey[k]; ok && x.kinds[j] == OneStereoisomer {
-				consider(j, memberRelation(id.Set), 1, id.set.pair)
+			if j, ok := x.byKey[k]; ok {
+				if _, grouped := x.grouped[j]; !grouped {
+					consider(j, memberRelation(id.Set), 1, id.set.pair)
+				}
 			}
 		}
 		if j, ok := x.byUnion[id.set.union]; ok {

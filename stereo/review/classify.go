@@ -163,14 +163,14 @@ func compareStructures(om, nm *notation.Molecule, oan, nan *stereo.Analysis, oOf
 		}
 		out.units = append(out.units, u)
 	}
-	// the centres configured on the new side that the change left alone
-	for _, su := range nan.Units {
-		if su.Specified && su.Kind == stereo.KindTetrahedral && su.Centre >= nOff && su.Centre < nOff+len(nm.Atoms) && !changed[su.Centre] {
-			out.other++
-		}
-	}
+	out.other = centresBesides(nan, nOff, len(nm.Atoms), changed)
 	sortUnits(out.units)
 	if c.Relation == identity.Diastereomers || c.Relation == identity.Unspecified {
+		if inverted > 0 && (added > 0 || removed > 0) || inverted >= 2 {
+			if s, ok := simplest(om, nm, oan, nan, oOff, nOff, role, inverted, bonds, added, removed); ok {
+				return s
+			}
+		}
 		switch {
 		case inverted == 0 && bonds == 0 && removed > 0:
 			out.class = StereoRemoved
@@ -187,6 +187,18 @@ func compareStructures(om, nm *notation.Molecule, oan, nan *stereo.Analysis, oOf
 		}
 	}
 	return out
+}
+
+// centresBesides counts the tetrahedral centres the new side configures
+// (atoms off to off+n of the record) that are not in changed.
+func centresBesides(an *stereo.Analysis, off, n int, changed map[int]bool) int {
+	count := 0
+	for _, su := range an.Units {
+		if su.Specified && su.Kind == stereo.KindTetrahedral && su.Centre >= off && su.Centre < off+n && !changed[su.Centre] {
+			count++
+		}
+	}
+	return count
 }
 
 // sortUnits orders units by their first atom in the new record, those

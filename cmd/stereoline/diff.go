@@ -57,6 +57,7 @@ const diffMaxSize = 10_000_000
 type diffFile struct {
 	path     string // as printed
 	osPath   string // the working-tree file ("" when it is gone)
+	oldName  string // the old version's file name when it is another file
 	old, new []byte // nil: absent on that side
 	skipped  string // why it is not reviewed
 	report   *review.Report
@@ -241,7 +242,7 @@ func directPair(opts diffOptions) (bool, error) {
 // directFiles reads two files for a direct comparison; the new one's
 // path is printed.
 func directFiles(oldPath, newPath string) (*diffFile, error) {
-	f := &diffFile{path: filepath.ToSlash(newPath), osPath: newPath}
+	f := &diffFile{path: filepath.ToSlash(newPath), osPath: newPath, oldName: filepath.ToSlash(oldPath)}
 	var err error
 	if f.old, f.skipped, err = readLimited(oldPath); err != nil {
 		return nil, err
@@ -488,6 +489,9 @@ func reviewFile(run *checkRun, f *diffFile, opts diffOptions) {
 		run.configError(lc)
 		return
 	}
-	name := filepath.ToSlash(f.osPath)
-	f.report = review.Review(lc.analyzer, review.Version{Name: name, Content: f.old}, review.Version{Name: name, Content: f.new}, review.Options{Key: opts.key})
+	name, oldName := filepath.ToSlash(f.osPath), f.oldName
+	if oldName == "" {
+		oldName = name
+	}
+	f.report = review.Review(lc.analyzer, review.Version{Name: oldName, Content: f.old}, review.Version{Name: name, Content: f.new}, review.Options{Key: opts.key})
 }

@@ -456,22 +456,37 @@ func unionSorted(a, b []string) []string {
 // reviewAll reviews the files whose two versions differ, several at a
 // time; a file that is the same on both sides is not read further.
 func reviewAll(run *checkRun, files []*diffFile, opts diffOptions) {
+	eachOnAllCores(len(files), func(i int) { reviewFile(run, files[i], opts) })
+}
+
+// eachOnAllCores calls f(0) ... f(n-1) on all cores; a panic in f is
+// raised again in the caller, so the command's recovery reports it.
+func eachOnAllCores(n int, f func(int)) {
 	var next atomic.Int64
 	var wg sync.WaitGroup
-	for w := 0; w < min(runtime.GOMAXPROCS(0), max(len(files), 1)); w++ {
+	var failed atomic.Value
+	for w := 0; w < min(runtime.GOMAXPROCS(0), max(n, 1)); w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			defer func() {
+				if r := recover(); r != nil {
+					failed.CompareAndSwap(nil, fmt.Sprint(r))
+				}
+			}()
 			for {
 				i := int(next.Add(1) - 1)
-				if i >= len(files) {
+				if i >= n {
 					return
 				}
-				reviewFile(run, files[i], opts)
+				f(i)
 			}
 		}()
 	}
 	wg.Wait()
+	if r := failed.Load(); r != nil {
+		panic(r)
+	}
 }
 
 func reviewFile(run *checkRun, f *diffFile, opts diffOptions) {

@@ -86,32 +86,55 @@ func writeDiffHTML(w *bufio.Writer, files []*diffFile, base string) error {
 		fmt.Fprintf(w, "<noscript><p>This page shows the first %d records; the others need JavaScript (the page loads nothing). The JSON Lines form (--format json) lists every record.</p></noscript>\n", pageSize)
 	}
 	w.WriteString("</header>\n<main>\n")
-	n := 0
+	// Each record's markup is made on all cores (the drawings are most
+	// of the work), then written in order.
+	type item struct {
+		f    *diffFile
+		ps   placers
+		p    *review.Pair
+		html []byte
+	}
+	var items []item
 	for _, f := range files {
 		if f.report == nil || len(f.report.Pairs) == 0 {
 			continue
 		}
-		fmt.Fprintf(w, "<section class=\"rv-file\">\n<h2>%s</h2>\n", esc(f.path))
 		ps := placersOf(f.report)
 		for i := range f.report.Pairs {
-			n++
-			p := &f.report.Pairs[i]
-			if n <= pageSize {
-				writeRecordHTML(w, f.path, p, ps, base, n)
-				continue
-			}
-			var b bytes.Buffer
-			bw := bufio.NewWriter(&b)
-			writeRecordHTML(bw, f.path, p, ps, base, n)
-			bw.Flush()
-			// The markup holds no "</script": text and attributes are
-			// escaped, and drawings write no script.
-			fmt.Fprintf(w, "<script type=\"text/x-stereoline-record\" class=\"rv-lazy\" data-class=\"%s\" data-find=\"%s\">", p.Class, html.EscapeString(findText(f.path, p)))
-			w.Write(b.Bytes())
-			w.WriteString("</script>\n")
+			items = append(items, item{f: f, ps: ps, p: &f.report.Pairs[i]})
 		}
+	}
+	eachOnAllCores(len(items), func(k int) {
+		it := &items[k]
+		var b bytes.Buffer
+		bw := bufio.NewWriter(&b)
+		writeRecordHTML(bw, it.f.path, it.p, it.ps, base, k+1)
+		bw.Flush()
+		it.html = b.Bytes()
+	})
+	var section *diffFile
+	for k, it := range items {
+		if it.f != section {
+			if section != nil {
+				w.WriteString("</section>\n")
+			}
+			section = it.f
+			fmt.Fprintf(w, "<section class=\"rv-file\">\n<h2>%s</h2>\n", esc(it.f.path))
+		}
+		if k < pageSize {
+			w.Write(it.html)
+			continue
+		}
+		// The markup holds no "</script": text and attributes are
+		// escaped, and drawings write no script.
+		fmt.Fprintf(w, "<script type=\"text/x-stereoline-record\" class=\"rv-lazy\" data-class=\"%s\" data-find=\"%s\">", it.p.Class, html.EscapeString(findText(it.f.path, it.p)))
+		w.Write(it.html)
+		w.WriteString("</script>\n")
+	}
+	if section != nil {
 		w.WriteString("</section>\n")
 	}
+	n := len(items)
 	if n == 0 {
 		w.WriteString("<p>No record changed.</p>\n")
 	}

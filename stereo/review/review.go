@@ -1,7 +1,11 @@
 package review
 
 import (
+	"fmt"
+	"runtime"
 	"sort"
+	"sync"
+	"sync/atomic"
 
 	"stereoline/notation"
 	"stereoline/notation/find"
@@ -134,13 +138,25 @@ func Review(a *document.Analyzer, old, new Version, opt Options) *Report {
 			rep.Unchanged++
 		default:
 			or, nr := record(oldRes, oldAt, oldKeys, o), record(newRes, newAt, newKeys, n)
-			pr := pairOf(&side{or.Record, oldRes}, &side{nr.Record, newRes})
-			pr.Old, pr.New = or, nr
-			pr.Findings = findingChanges(oldDiags[or.Index], newDiags[nr.Index])
-			explain(&pr)
-			out = append(out, placed{pr, n, -1})
+			out = append(out, placed{Pair{Old: or, New: nr}, n, -1})
 		}
 	}
+	// Classify the changed pairs on all cores: the identity keys are the
+	// costliest part of a review.
+	var changed []int
+	for i := range out {
+		if out[i].pair.Old != nil && out[i].pair.New != nil {
+			changed = append(changed, i)
+		}
+	}
+	parallel(len(changed), func(k int) {
+		pr := &out[changed[k]].pair
+		or, nr := pr.Old, pr.New
+		*pr = pairOf(&side{or.Record, oldRes}, &side{nr.Record, newRes})
+		pr.Old, pr.New = or, nr
+		pr.Findings = findingChanges(oldDiags[or.Index], newDiags[nr.Index])
+		explain(pr)
+	})
 	lastNew := -1
 	for o, n := range p.oldTo {
 		if n >= 0 {
@@ -173,6 +189,44 @@ func Review(a *document.Analyzer, old, new Version, opt Options) *Report {
 		rep.Pairs[i] = out[i].pair
 	}
 	return rep
+}
+
+// parallel calls f(0) ... f(n-1) on all cores, a few at a time. A panic
+// in f is raised again in the caller, where the request boundary
+// recovers it.
+func parallel(n int, f func(int)) {
+	workers := min(runtime.GOMAXPROCS(0), n)
+	if workers < 2 {
+		for i := 0; i < n; i++ {
+			f(i)
+		}
+		return
+	}
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	var failed atomic.Value
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			defer func() {
+				if r := recover(); r != nil {
+					failed.CompareAndSwap(nil, fmt.Sprint(r))
+				}
+			}()
+			for {
+				i := int(next.Add(1) - 1)
+				if i >= n {
+					return
+				}
+				f(i)
+			}
+		}()
+	}
+	wg.Wait()
+	if r := failed.Load(); r != nil {
+		panic(r)
+	}
 }
 
 // pairOf classifies a pair of records whose text differs.

@@ -134,7 +134,8 @@ func (s *Server) changes(snap *snapshot, f *fileVersion, res *document.Result) (
 	if rep != nil {
 		return rep, rev
 	}
-	rep = review.Review(a.config.analyzer, review.Version{Name: f.Name, Content: b.content}, review.Version{Name: f.Name, Content: res.Content}, review.Options{})
+	rep = review.Review(a.config.analyzer, review.Version{Name: f.Name, LanguageID: f.LanguageID, Content: b.content},
+		review.Version{Name: f.Name, LanguageID: f.LanguageID, Content: res.Content}, review.Options{})
 	s.changeCache.mu.Lock()
 	if s.changeCache.reviews == nil || len(s.changeCache.reviews) >= maxReviews {
 		s.changeCache.reviews = map[reviewKey]*review.Report{}

@@ -19,6 +19,9 @@ import (
 type Version struct {
 	Name    string
 	Content []byte
+	// LanguageID, if not empty, picks the host kind instead of the name,
+	// as an editor's language id does.
+	LanguageID string
 }
 
 // Options tune Review; the zero value is the default.
@@ -241,7 +244,7 @@ func occurrences(a *document.Analyzer, v Version) (find.Kind, []find.Occurrence)
 	if v.Content == nil {
 		return find.KindUnknown, nil
 	}
-	return a.Occurrences(v.Name, "", v.Content)
+	return a.Occurrences(v.Name, v.LanguageID, v.Content)
 }
 
 // readList returns the records of one side to read: those not paired

@@ -44,6 +44,10 @@ type Config struct {
 	// find.ParseLayout ("field=2 sep=tab header"); a "stereoline:
 	// layout" pragma in a file wins over it.
 	Layouts map[string]string `json:"layouts,omitempty"`
+	// ReviewBase is the git revision the language server compares each
+	// record with, to say what an edited record now means ("epimer at
+	// C3 vs HEAD"); empty means HEAD, "off" turns the comparison off.
+	ReviewBase string `json:"reviewBase,omitempty"`
 }
 
 // DefaultConfig returns the configuration used when nothing is set.
@@ -65,6 +69,9 @@ func (c *Config) Validate() error {
 	case "", "normal", "names":
 	default:
 		return fmt.Errorf("detection: expected normal or names, found %q", c.Detection)
+	}
+	if strings.HasPrefix(c.ReviewBase, "-") || strings.ContainsAny(c.ReviewBase, " \t\n") {
+		return fmt.Errorf("reviewBase: expected a git revision or off, found %q", c.ReviewBase)
 	}
 	for pat, spec := range c.Layouts {
 		if _, err := path.Match(pat, ""); err != nil {

@@ -107,8 +107,18 @@ type writer struct {
 
 	parent   []int   // bond to the parent atom, -1 at a root
 	children [][]int // tree bonds to children, in writing order
+	ringBond []int   // bonds left out of the tree, in the order found
 	opens    [][]int // ring bonds opened at the atom
 	closes   [][]int // ring bonds closed at the atom
+	// lonePair marks the atoms whose mark counts a lone pair (a
+	// tetrahedral mark, three neighbours, no hydrogen); required marks
+	// their bonds, which the tree takes whenever it can (see buildTree),
+	// and joined is the disjoint-set forest of the bonds taken or
+	// required so far
+	lonePair []bool
+	required []bool
+	joined   []int
+	preorder []int // position of each atom in the part being written, made on first use
 	rings    [][]int // ring bonds in the order their digits were written
 	digit    []int   // ring-closure number of each ring bond
 	free     []bool  // free[d] when number d is not in use
@@ -142,6 +152,67 @@ func (w *writer) init() {
 		w.position[i] = -1
 		w.partOf[i] = -1
 	}
+	w.requireLonePairBonds()
+}
+
+// requireLonePairBonds marks the atoms whose mark counts a lone pair and
+// their bonds. Where the lone pair stands is read differently by
+// general-purpose readers when such a centre starts its part or carries
+// ring-closure digits (notation.Reading): the writer starts no part at
+// one (roots) and writes all its bonds as chain and branch bonds, taking
+// them into the spanning tree first, so that what it writes means the
+// same under every reading. Bonds of two such centres that would close a
+// cycle cannot all be tree bonds; those are left to the search, and their
+// marks are written for the molecule's reading.
+func (w *writer) requireLonePairBonds() {
+	n := len(w.m.Atoms)
+	w.joined = make([]int, n)
+	for i := range w.joined {
+		w.joined[i] = i
+	}
+	w.lonePair = make([]bool, n)
+	w.required = make([]bool, len(w.m.Bonds))
+	for a := range w.m.Atoms {
+		w.lonePair[a] = w.m.Atoms[a].Chirality.Class != ChiralNone && w.geometry(a) == ChiralTH && w.lonePairCentre(a)
+		if !w.lonePair[a] {
+			continue
+		}
+		for _, b := range w.m.Atoms[a].Bonds {
+			bd := &w.m.Bonds[b]
+			if w.required[b] || bd.Begin == bd.End || w.m.Reaction && w.m.Atoms[bd.Begin].Role != w.m.Atoms[bd.End].Role {
+				continue
+			}
+			if w.join(bd.Begin, bd.End) {
+				w.required[b] = true
+			}
+		}
+	}
+}
+
+// lonePairCentre reports whether a tetrahedral mark on atom a counts a
+// lone pair: three neighbours and no hydrogen.
+func (w *writer) lonePairCentre(a int) bool {
+	at := &w.m.Atoms[a]
+	return len(at.Bonds) == 3 && at.HydrogenCount() == 0
+}
+
+// find and join are the disjoint-set forest over atoms; join reports
+// whether a and b were apart.
+func (w *writer) find(a int) int {
+	for w.joined[a] != a {
+		w.joined[a] = w.joined[w.joined[a]]
+		a = w.joined[a]
+	}
+	return a
+}
+
+func (w *writer) join(a, b int) bool {
+	ra, rb := w.find(a), w.find(b)
+	if ra == rb {
+		return false
+	}
+	w.joined[ra] = rb
+	return true
 }
 
 // writtenAromatic decides the case of an atom. In Kekulé form an atom
@@ -181,9 +252,54 @@ func (w *writer) roots(role Role) []int {
 		case w.opt.Random != nil:
 			root = part[w.opt.Random.IntN(len(part))]
 		}
-		roots = append(roots, root)
+		roots = append(roots, w.awayFromLonePair(root, part))
 	}
 	return roots
+}
+
+// awayFromLonePair returns root, or, when root is a centre whose mark
+// counts a lone pair, the nearest atom of its part that is none (a
+// neighbour, the lowest-numbered or a random one): a part that starts at
+// such a centre is read differently by general-purpose readers.
+func (w *writer) awayFromLonePair(root int, part []int) int {
+	if !w.lonePair[root] {
+		return root
+	}
+	seen := map[int]bool{root: true}
+	for layer := []int{root}; len(layer) > 0; {
+		var next []int
+		for _, x := range layer {
+			for _, b := range w.m.Atoms[x].Bonds {
+				y := w.m.Bonds[b].Other(x)
+				if !seen[y] && w.partOf[y] == w.partOf[root] {
+					seen[y] = true
+					next = append(next, y)
+				}
+			}
+		}
+		var free []int
+		for _, y := range next {
+			if !w.lonePair[y] {
+				free = append(free, y)
+			}
+		}
+		if len(free) > 0 {
+			if w.opt.Random != nil {
+				return free[w.opt.Random.IntN(len(free))]
+			}
+			return slicesMin(free)
+		}
+		layer = next
+	}
+	return root
+}
+
+func slicesMin(s []int) int {
+	m := s[0]
+	for _, v := range s[1:] {
+		m = min(m, v)
+	}
+	return m
 }
 
 func containsInt(s []int, v int) bool {
@@ -223,6 +339,7 @@ func (w *writer) part(a, id int) []int {
 // emits the text.
 func (w *writer) component(root int) {
 	w.buildTree(root)
+	w.placeRingBonds(root)
 	w.emitTree(root)
 }
 
@@ -247,6 +364,13 @@ func (w *writer) neighbourBonds(a int) []int {
 	return bonds
 }
 
+// buildTree grows the spanning tree of root's part by a depth-first
+// search. A bond to an atom not yet reached joins the tree, unless the
+// atom is already tied to this one by required bonds (those of centres
+// whose mark counts a lone pair, requireLonePairBonds) not yet taken:
+// the atom is then reached through them, and this bond becomes a ring
+// closure. Without required bonds this is the plain search, whose ring
+// closures all lead back to an atom on the stack.
 func (w *writer) buildTree(root int) {
 	type frame struct {
 		atom  int
@@ -256,6 +380,7 @@ func (w *writer) buildTree(root int) {
 	role := w.m.Atoms[root].Role
 	w.seen[root] = true
 	w.parent[root] = -1
+	w.ringBond = w.ringBond[:0]
 	stack := []frame{{root, w.neighbourBonds(root), 0}}
 	for len(stack) > 0 {
 		f := &stack[len(stack)-1]
@@ -275,17 +400,46 @@ func (w *writer) buildTree(root int) {
 			w.out.Dropped = append(w.out.Dropped, b)
 			continue
 		}
-		if !w.seen[v] {
+		if !w.seen[v] && (w.required[b] || w.join(u, v)) {
 			w.seen[v] = true
 			w.parent[v] = b
 			w.children[u] = append(w.children[u], b)
 			stack = append(stack, frame{v, w.neighbourBonds(v), 0})
 			continue
 		}
-		// v was reached before and this bond is unused, so v is an
-		// ancestor of u still on the stack: the ring opens at v.
-		w.opens[v] = append(w.opens[v], b)
-		w.closes[u] = append(w.closes[u], b)
+		w.ringBond = append(w.ringBond, b)
+	}
+}
+
+// placeRingBonds puts each ring closure of root's part at its two ends:
+// it opens at the end written first (in the order emitTree writes the
+// tree) and closes at the other.
+func (w *writer) placeRingBonds(root int) {
+	if len(w.ringBond) == 0 {
+		return
+	}
+	if w.preorder == nil {
+		w.preorder = make([]int, len(w.m.Atoms))
+	}
+	order, n := w.preorder, 0
+	stack := []int{root}
+	for len(stack) > 0 {
+		a := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		order[a] = n
+		n++
+		kids := w.children[a]
+		for i := len(kids) - 1; i >= 0; i-- {
+			stack = append(stack, w.m.Bonds[kids[i]].Other(a))
+		}
+	}
+	for _, b := range w.ringBond {
+		x, y := w.m.Bonds[b].Begin, w.m.Bonds[b].End
+		if order[y] < order[x] {
+			x, y = y, x
+		}
+		w.opens[x] = append(w.opens[x], b)
+		w.closes[y] = append(w.closes[y], b)
 	}
 }
 
@@ -405,7 +559,7 @@ func (w *writer) bondSymbol(b, from int) string {
 		}
 		return ":"
 	}
-	if d := bd.DirFrom(from); d != DirNone {
+	if d := w.m.BondDir(b, from); d != DirNone {
 		return d.String()
 	}
 	if bothAromatic {
@@ -598,8 +752,9 @@ func (w *writer) newChirality(a int) Chirality {
 }
 
 // readOrder is the neighbour order the mark was written against: the
-// atom's bonds as read, with the implicit hydrogen (or, for a
-// tetrahedral centre, the lone pair) in its slot.
+// atom's bonds as read, with the implicit hydrogen in its slot, or, for
+// a tetrahedral centre without one, the lone pair where the molecule's
+// reading puts it.
 func (w *writer) readOrder(a int, g ChiralClass) []int {
 	at := &w.m.Atoms[a]
 	var order []int
@@ -607,14 +762,20 @@ func (w *writer) readOrder(a int, g ChiralClass) []int {
 		order = append(order, w.m.Bonds[b].Other(a))
 	}
 	if implicitMember(g, len(order), at.BracketH) {
-		order = insertAt(order, at.HydrogenSlot(), implicitSlot)
+		slot := at.HydrogenSlot()
+		if g == ChiralTH && w.lonePairCentre(a) {
+			slot = w.m.LonePairSlot(a)
+		}
+		order = insertAt(order, slot, implicitSlot)
 	}
 	return order
 }
 
 // writtenOrder is the neighbour order in the new text: the parent, the
 // implicit slot, ring closures in the order their numbers were written,
-// then branches and the chain.
+// then branches and the chain. A lone pair stands where the molecule's
+// reading puts it; the tree is built so that every reading puts it in
+// the same place where it can (requireLonePairBonds).
 func (w *writer) writtenOrder(a int, g ChiralClass) []int {
 	var order []int
 	hasPrev := w.parent[a] >= 0
@@ -631,6 +792,13 @@ func (w *writer) writtenOrder(a int, g ChiralClass) []int {
 		slot := 0
 		if hasPrev {
 			slot = 1
+		}
+		if g == ChiralTH && w.lonePairCentre(a) {
+			single := true
+			for _, b := range w.m.Atoms[a].Bonds {
+				single = single && w.m.Bonds[b].Order == OrderSingle
+			}
+			slot = min(LonePairPlace(w.m.Reading.LonePair, hasPrev, len(w.rings[a]), single), len(order))
 		}
 		order = insertAt(order, slot, implicitSlot)
 	}

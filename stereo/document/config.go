@@ -44,6 +44,47 @@ type Config struct {
 	// find.ParseLayout ("field=2 sep=tab header"); a "stereoline:
 	// layout" pragma in a file wins over it.
 	Layouts map[string]string `json:"layouts,omitempty"`
+	// Reading chooses how the marks general-purpose readers read
+	// differently are read (notation.Reading); empty fields are the
+	// defaults.
+	Reading ReadingConfig `json:"reading,omitzero"`
+}
+
+// ReadingConfig is the reading setting: each field the name of a rule of
+// notation.Reading, or empty for the default.
+type ReadingConfig struct {
+	// LonePair is "last" (the default) or "hydrogen-slot".
+	LonePair string `json:"lonePair,omitempty"`
+	// RingMarks is "closing" (the default) or "dropped".
+	RingMarks string `json:"ringMarks,omitempty"`
+}
+
+// notation returns the reading the setting names; names Validate
+// rejects read as the default.
+func (r ReadingConfig) notation() notation.Reading {
+	var out notation.Reading
+	if v, ok := notation.ParseLonePairRule(r.LonePair); ok {
+		out.LonePair = v
+	}
+	if v, ok := notation.ParseRingMarkRule(r.RingMarks); ok {
+		out.RingMarks = v
+	}
+	return out
+}
+
+// NotationReading returns the reading of the marks the configuration
+// chooses.
+func (c *Config) NotationReading() notation.Reading { return c.Reading.notation() }
+
+// validate reports a rule name that is not one.
+func (r ReadingConfig) validate() error {
+	if _, ok := notation.ParseLonePairRule(r.LonePair); !ok && r.LonePair != "" {
+		return fmt.Errorf("reading.lonePair: expected %s or %s, found %q", notation.LonePairLast, notation.LonePairHydrogenSlot, r.LonePair)
+	}
+	if _, ok := notation.ParseRingMarkRule(r.RingMarks); !ok && r.RingMarks != "" {
+		return fmt.Errorf("reading.ringMarks: expected %s or %s, found %q", notation.RingMarksClosing, notation.RingMarksDropped, r.RingMarks)
+	}
+	return nil
 }
 
 // DefaultConfig returns the configuration used when nothing is set.
@@ -65,6 +106,9 @@ func (c *Config) Validate() error {
 	case "", "normal", "names":
 	default:
 		return fmt.Errorf("detection: expected normal or names, found %q", c.Detection)
+	}
+	if err := c.Reading.validate(); err != nil {
+		return err
 	}
 	for pat, spec := range c.Layouts {
 		if _, err := path.Match(pat, ""); err != nil {

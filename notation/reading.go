@@ -158,7 +158,9 @@ func LonePairPlace(r LonePairRule, hasPrev bool, ringDigits int, allSingle bool)
 // LonePairSlot returns the position of the lone pair in the neighbour
 // order of atom a, a tetrahedral centre with three neighbours and no
 // hydrogen, under the molecule's reading.
-func (m *Molecule) LonePairSlot(a int) int {
+func (m *Molecule) LonePairSlot(a int) int { return m.lonePairSlot(a, m.Reading.LonePair) }
+
+func (m *Molecule) lonePairSlot(a int, r LonePairRule) int {
 	at := &m.Atoms[a]
 	digits, single := 0, true
 	for _, bi := range at.Bonds {
@@ -170,15 +172,14 @@ func (m *Molecule) LonePairSlot(a int) int {
 			single = false
 		}
 	}
-	return min(LonePairPlace(m.Reading.LonePair, at.HasPrev, digits, single), len(at.Bonds))
+	return min(LonePairPlace(r, at.HasPrev, digits, single), len(at.Bonds))
 }
 
 // LonePairOpen reports whether the place of the lone pair of atom a (a
 // tetrahedral centre with three neighbours and no hydrogen) depends on
 // the reading: the rules put it at positions of opposite parity.
 func (m *Molecule) LonePairOpen(a int) bool {
-	return (m.WithReading(Reading{LonePair: LonePairLast}).LonePairSlot(a)-
-		m.WithReading(Reading{LonePair: LonePairHydrogenSlot}).LonePairSlot(a))%2 != 0
+	return (m.lonePairSlot(a, LonePairLast)-m.lonePairSlot(a, LonePairHydrogenSlot))%2 != 0
 }
 
 // RingMarksContradict reports whether ring-closure bond b carries a

@@ -47,6 +47,9 @@ type Written struct {
 	// fields that count bonds, unknown fields, fields with indices
 	// beyond the record, incomplete coordinates (see writeExtension).
 	DroppedFields []int
+
+	lonePairs    int  // the centres of m whose mark counts a lone pair
+	lonePairOpen bool // one of them is written where the readings disagree
 }
 
 // Write serialises m as OpenSMILES. Atoms are written without brackets
@@ -64,7 +67,56 @@ type Written struct {
 // of ring closures open at once, for choosing free numbers) and does not
 // recurse, so a long chain cannot exhaust the stack.
 func Write(m *Molecule, opt WriteOptions) Written {
-	w := &writer{m: m, opt: opt}
+	out := write(m, opt, -1)
+	if !out.lonePairOpen {
+		return out
+	}
+	// Some centre whose mark counts a lone pair is left open: its bonds
+	// and those of other such centres close a ring (the triazinane ring
+	// of a hexamethylenetetramine cage), so one of them is a ring
+	// closure. A centre is read alike by every reading also when it
+	// starts its part and carries one such digit (or any odd number, on
+	// a centre of single bonds): try each atom as the start and each
+	// order of taking the centres' bonds, and keep the first writing
+	// that leaves no centre open.
+	for attempt := 0; attempt < min(len(m.Atoms)*out.lonePairs, maxLonePairAttempts); attempt++ {
+		if alt := write(m, opt, attempt); !alt.lonePairOpen {
+			return alt
+		}
+	}
+	return out
+}
+
+// maxLonePairAttempts bounds the writings Write tries for a molecule
+// whose lone-pair centres close a ring among themselves.
+const maxLonePairAttempts = 64
+
+// lonePairOpen reports whether the writing leaves a centre whose mark
+// counts a lone pair at a place the lone-pair rules put at positions of
+// opposite parity (Molecule.LonePairOpen, for the text written).
+func (w *writer) lonePairOpen() bool {
+	for a, lp := range w.lonePair {
+		if !lp {
+			continue
+		}
+		single := true
+		for _, b := range w.m.Atoms[a].Bonds {
+			single = single && w.m.Bonds[b].Order == OrderSingle
+		}
+		hasPrev, digits := w.parent[a] >= 0, len(w.rings[a])
+		if (LonePairPlace(LonePairLast, hasPrev, digits, single)-LonePairPlace(LonePairHydrogenSlot, hasPrev, digits, single))%2 != 0 {
+			return true
+		}
+	}
+	return false
+}
+
+// write is one writing of m; attempt < 0 is the plain one, and attempt k
+// starts every part that holds a lone-pair centre at its (k mod n)-th
+// atom (n its atom count) and takes the centres' bonds into the tree
+// starting from the (k div n)-th centre.
+func write(m *Molecule, opt WriteOptions, attempt int) Written {
+	w := &writer{m: m, opt: opt, attempt: attempt}
 	w.init()
 	groups := []Role{RoleNone}
 	if m.Reaction {
@@ -84,6 +136,12 @@ func Write(m *Molecule, opt WriteOptions) Written {
 		}
 	}
 	w.out.Text = w.fixAllenes(w.sb.String())
+	w.out.lonePairOpen = w.lonePairOpen()
+	for _, lp := range w.lonePair {
+		if lp {
+			w.out.lonePairs++
+		}
+	}
 	if m.Extension != nil {
 		block, dropped := writeExtension(m, w.out.Text, w.out.Order)
 		w.out.Text += block
@@ -96,10 +154,11 @@ func Write(m *Molecule, opt WriteOptions) Written {
 
 // writer is the state of one Write call.
 type writer struct {
-	m   *Molecule
-	opt WriteOptions
-	sb  strings.Builder
-	out Written
+	m       *Molecule
+	opt     WriteOptions
+	attempt int // see write
+	sb      strings.Builder
+	out     Written
 
 	aromatic []bool // atom written in lowercase
 	seen     []bool // atom placed in the depth-first tree
@@ -118,7 +177,7 @@ type writer struct {
 	lonePair []bool
 	required []bool
 	joined   []int
-	preorder []int // position of each atom in the part being written, made on first use
+	preorder []int   // position of each atom in the part being written, made on first use
 	rings    [][]int // ring bonds in the order their digits were written
 	digit    []int   // ring-closure number of each ring bond
 	free     []bool  // free[d] when number d is not in use
@@ -163,20 +222,34 @@ func (w *writer) init() {
 // them into the spanning tree first, so that what it writes means the
 // same under every reading. Bonds of two such centres that would close a
 // cycle cannot all be tree bonds; those are left to the search, and their
-// marks are written for the molecule's reading.
+// marks are written for the molecule's reading. A molecule without such
+// centres (most) allocates nothing here, and its tree is the plain
+// depth-first one.
 func (w *writer) requireLonePairBonds() {
 	n := len(w.m.Atoms)
+	var centres []int
+	for a := range w.m.Atoms {
+		if w.m.Atoms[a].Chirality.Class != ChiralNone && w.lonePairCentre(a) && w.geometry(a) == ChiralTH {
+			centres = append(centres, a)
+		}
+	}
+	if len(centres) == 0 {
+		return
+	}
 	w.joined = make([]int, n)
 	for i := range w.joined {
 		w.joined[i] = i
 	}
 	w.lonePair = make([]bool, n)
 	w.required = make([]bool, len(w.m.Bonds))
-	for a := range w.m.Atoms {
-		w.lonePair[a] = w.m.Atoms[a].Chirality.Class != ChiralNone && w.geometry(a) == ChiralTH && w.lonePairCentre(a)
-		if !w.lonePair[a] {
-			continue
-		}
+	for _, a := range centres {
+		w.lonePair[a] = true
+	}
+	if w.attempt > 0 && len(centres) > 0 {
+		k := (w.attempt / max(n, 1)) % len(centres)
+		centres = append(centres[k:], centres[:k]...)
+	}
+	for _, a := range centres {
 		for _, b := range w.m.Atoms[a].Bonds {
 			bd := &w.m.Bonds[b]
 			if w.required[b] || bd.Begin == bd.End || w.m.Reaction && w.m.Atoms[bd.Begin].Role != w.m.Atoms[bd.End].Role {
@@ -252,7 +325,12 @@ func (w *writer) roots(role Role) []int {
 		case w.opt.Random != nil:
 			root = part[w.opt.Random.IntN(len(part))]
 		}
-		roots = append(roots, w.awayFromLonePair(root, part))
+		if w.attempt >= 0 && w.partHasLonePair(part) {
+			root = part[w.attempt%len(part)]
+		} else {
+			root = w.awayFromLonePair(root, part)
+		}
+		roots = append(roots, root)
 	}
 	return roots
 }
@@ -262,7 +340,7 @@ func (w *writer) roots(role Role) []int {
 // neighbour, the lowest-numbered or a random one): a part that starts at
 // such a centre is read differently by general-purpose readers.
 func (w *writer) awayFromLonePair(root int, part []int) int {
-	if !w.lonePair[root] {
+	if w.lonePair == nil || !w.lonePair[root] {
 		return root
 	}
 	seen := map[int]bool{root: true}
@@ -292,6 +370,18 @@ func (w *writer) awayFromLonePair(root int, part []int) int {
 		layer = next
 	}
 	return root
+}
+
+func (w *writer) partHasLonePair(part []int) bool {
+	if w.lonePair == nil {
+		return false
+	}
+	for _, a := range part {
+		if w.lonePair[a] {
+			return true
+		}
+	}
+	return false
 }
 
 func slicesMin(s []int) int {
@@ -400,20 +490,29 @@ func (w *writer) buildTree(root int) {
 			w.out.Dropped = append(w.out.Dropped, b)
 			continue
 		}
-		if !w.seen[v] && (w.required[b] || w.join(u, v)) {
+		if !w.seen[v] && (w.required == nil || w.required[b] || w.join(u, v)) {
 			w.seen[v] = true
 			w.parent[v] = b
 			w.children[u] = append(w.children[u], b)
 			stack = append(stack, frame{v, w.neighbourBonds(v), 0})
 			continue
 		}
+		if w.required == nil {
+			// the plain search: v was reached before and this bond is
+			// unused, so v is an ancestor of u still on the stack, and
+			// the ring opens at v
+			w.opens[v] = append(w.opens[v], b)
+			w.closes[u] = append(w.closes[u], b)
+			continue
+		}
 		w.ringBond = append(w.ringBond, b)
 	}
 }
 
-// placeRingBonds puts each ring closure of root's part at its two ends:
-// it opens at the end written first (in the order emitTree writes the
-// tree) and closes at the other.
+// placeRingBonds puts each ring closure of root's part that buildTree
+// left to it (those of a tree with required bonds, which may join two
+// branches) at its two ends: it opens at the end written first (in the
+// order emitTree writes the tree) and closes at the other.
 func (w *writer) placeRingBonds(root int) {
 	if len(w.ringBond) == 0 {
 		return

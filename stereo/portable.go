@@ -53,14 +53,16 @@ func OpenMarks(m *notation.Molecule) []OpenMark {
 		if ch.Class != notation.ChiralTH && ch.Class != notation.ChiralAL {
 			continue
 		}
-		if g == nil {
-			g = markGraph(m)
-		}
-		if _, _, ok := g.alleneEnds(a); ok {
-			if ch.Short || ch.Class == notation.ChiralAL {
-				out = append(out, OpenMark{Kind: OpenAllene, Atom: a, Bond: -1})
+		if twoDoubleBonds(m, a) {
+			if g == nil {
+				g = markGraph(m)
 			}
-			continue
+			if _, _, ok := g.alleneEnds(a); ok {
+				if ch.Short || ch.Class == notation.ChiralAL {
+					out = append(out, OpenMark{Kind: OpenAllene, Atom: a, Bond: -1})
+				}
+				continue
+			}
 		}
 		if ch.Class == notation.ChiralTH && (ch.Num == 1 || ch.Num == 2) && len(at.Bonds) == 3 && at.HydrogenCount() == 0 && m.LonePairOpen(a) {
 			out = append(out, OpenMark{Kind: OpenLonePair, Atom: a, Bond: -1})
@@ -72,6 +74,14 @@ func OpenMarks(m *notation.Molecule) []OpenMark {
 		}
 	}
 	return out
+}
+
+// twoDoubleBonds reports whether atom a has two bonds, both double: the
+// only atoms that may be the centre of an allene (checked before the
+// graph that says so is built).
+func twoDoubleBonds(m *notation.Molecule, a int) bool {
+	bonds := m.Atoms[a].Bonds
+	return len(bonds) == 2 && m.Bonds[bonds[0]].Order == notation.OrderDouble && m.Bonds[bonds[1]].Order == notation.OrderDouble
 }
 
 // reportOpenMarks adds a stereo-reader-dependent finding for each open

@@ -17,7 +17,7 @@ import "fmt"
 // read under; every engine that reads its marks (labels, identity keys,
 // transforms, the writer) asks it through LonePairSlot and BondDir.
 type Reading struct {
-	LonePair LonePairRule
+	LonePair  LonePairRule
 	RingMarks RingMarkRule
 }
 

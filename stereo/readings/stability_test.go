@@ -9,6 +9,9 @@ import (
 	"sort"
 	"strings"
 	"testing"
+
+	"stereoline/notation"
+	"stereoline/stereo/identity"
 )
 
 // The reference library's writings of the stereo fixtures: every string
@@ -115,6 +118,21 @@ func TestLabelsAcrossRDKitWritingsOfFixtures(t *testing.T) {
 	changed, total := count(settingRDKit, true)
 	t.Logf("%d structures with two or more RDKit writings (%d from cip_labels.tsv, %d from identity.tsv, %d from the survey); labels change with the writing in %d under the default setting",
 		total, nCIP, nIdentity, nSurvey, changed)
+	// the identity keys read the marks as the labeller does: one key for
+	// all the writings of a structure
+	keyChanged := 0
+	for _, k := range keys {
+		ws := writings[k]
+		ref := identity.Identify(notation.Read(ws[0])).Key
+		for _, w := range ws[1:] {
+			if identity.Identify(notation.Read(w)).Key != ref {
+				keyChanged++
+				t.Errorf("%s: %s and %s get different identity keys under the default setting", k, ws[0], w)
+				break
+			}
+		}
+	}
+	t.Logf("identity keys change with the writing in %d structures under the default setting", keyChanged)
 	other, _ := count(settingOpenBabel, false)
 	t.Logf("under the setting %q they would change in %d", settingOpenBabel, other)
 }

@@ -530,7 +530,10 @@ func FuzzWriteRoundTrip(f *testing.F) {
 	for _, s := range []string{"CCO", "c1ccccc1", "F/C=C/F", "[C@@H](F)(Cl)Br", "C1CC[C@]12CCC2", "CC>>C",
 		// allenes: hydrogens on the ends, a ring closure on an end, and
 		// ends bonded to each other (each is the other's substituent)
-		"CC=[C@]=CC", "FC1=[C@]=CCCCCC1", "BC1=[C@]=C1"} {
+		"CC=[C@]=CC", "FC1=[C@]=CCCCCC1", "BC1=[C@]=C1",
+		// lone-pair centres: first, with ring digits, closing a ring
+		// among themselves (TestWriteAvoidsOpenLonePairs)
+		"[S@](=O)(C)c1ccccc1", "C[N@]1CC1C", "C1[N@@]2C[N@@]3C[N@]1C[N@H+](C2)C3", "C[N@]1[N@](C)[N@@]1C"} {
 		f.Add(s, uint64(1), false)
 	}
 	f.Fuzz(func(t *testing.T, s string, seed uint64, kekule bool) {

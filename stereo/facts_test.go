@@ -210,3 +210,32 @@ func TestUnspecifiedRanked(t *testing.T) {
 		t.Errorf("unit %+v, ranked atoms %v, want [2 3 0 -1] unspecified", u, got)
 	}
 }
+
+// TestWrittenHydrogen: a hydrogen written as an atom ([H]) is the same
+// ligand as an implicit one, so an atom carrying one of each is no
+// stereocentre (common practice; RDKit 2022.09.3's FindPotentialStereo
+// reports none on these records either), while a [H] that is the only
+// hydrogen leaves a stereocentre as it is.
+func TestWrittenHydrogen(t *testing.T) {
+	cases := []struct {
+		smiles    string
+		undefined int // stereo-undefined diagnostics expected
+	}{
+		{"CC(=O)C([H])C", 0},
+		{"CC(F)[H]", 0},
+		{"[H]C([H])(C)O", 0},
+		{"[H]C(F)(Cl)Br", 1},
+		{"CC([2H])O", 1}, // deuterium differs from hydrogen
+	}
+	for _, c := range cases {
+		got := 0
+		for _, e := range Analyze(notation.Read(c.smiles)).Diagnostics {
+			if e.Code == CodeUndefined {
+				got++
+			}
+		}
+		if got != c.undefined {
+			t.Errorf("%s: %d stereo-undefined diagnostics, want %d", c.smiles, got, c.undefined)
+		}
+	}
+}

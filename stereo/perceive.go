@@ -648,6 +648,12 @@ func ligandClasses(g *graph, a int, class *lazyClasses) (distinct, pairInRing bo
 	ringPair := false
 	adj := g.adj[a]
 	for i, e := range adj {
+		if g.hyd[a] > 0 && ringgeom.PlainHydrogen(g.mol, e.to) {
+			// a hydrogen written as an atom is the same ligand as an
+			// implicit one (CC(=O)C([H])C has two hydrogens on C4)
+			pairs++
+			continue
+		}
 		k := class.of(e.to)
 		for _, prev := range adj[:i] {
 			if class.of(prev.to) == k {

@@ -44,6 +44,10 @@ type Config struct {
 	// find.ParseLayout ("field=2 sep=tab header"); a "stereoline:
 	// layout" pragma in a file wins over it.
 	Layouts map[string]string `json:"layouts,omitempty"`
+	// ReviewBase is the git revision the language server compares each
+	// record with, to say what an edited record now means ("epimer at
+	// C3 vs HEAD"); empty means HEAD, "off" turns the comparison off.
+	ReviewBase string `json:"reviewBase,omitempty"`
 	// Reading chooses how the marks general-purpose readers read
 	// differently are read (notation.Reading); empty fields are the
 	// defaults.
@@ -109,6 +113,9 @@ func (c *Config) Validate() error {
 	}
 	if err := c.Reading.validate(); err != nil {
 		return err
+	}
+	if strings.HasPrefix(c.ReviewBase, "-") || strings.ContainsAny(c.ReviewBase, " \t\n") {
+		return fmt.Errorf("reviewBase: expected a git revision or off, found %q", c.ReviewBase)
 	}
 	for pat, spec := range c.Layouts {
 		if _, err := path.Match(pat, ""); err != nil {

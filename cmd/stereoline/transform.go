@@ -27,30 +27,41 @@ func transformCommand(args []string, stdin io.Reader, stdout, stderr io.Writer) 
 	flip := fs.String("flip", "", "flip the double bond between atoms `I-J`")
 	set := fs.String("set", "", "set the unit at atom N to a descriptor: `N=R`, S, E, Z, M or P")
 	clean := fs.Bool("clean", false, "remove marks that specify nothing")
+	portable := fs.Bool("portable", false, "rewrite marks general-purpose readers read differently so that every reader surveyed reads the record alike, with the meaning it has under the reading chosen")
 	absolute := fs.String("absolute", "", "make the stereo group `G` absolute (o1, &2), as written, or G:N=D for the enantiomer in which atom N has descriptor D")
 	relative := fs.String("relative", "", "put the centres at atoms `N,N,...` (or all) into one new or group: relative configuration")
 	racemic := fs.String("racemic", "", "put the centres at atoms `N,N,...` (or all) into one new and group: racemic")
+	var rf readingFlags
+	rf.add(fs)
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: stereoline transform --mirror | --invert N | --flip I-J | --set N=DESCRIPTOR | --clean |\n       --absolute G[:N=D] | --relative N,...|all | --racemic N,...|all [FILE...]\n\nRewrites the stereo marks and stereo groups of each record read from the\nfiles, or from standard input when none is named, and prints the records.\nInside an or or and stereo group, --invert and --set act on the group's\nrelative configuration (descriptors in the group's frame, R* or S*).")
+		fmt.Fprintln(stderr, "usage: stereoline transform --mirror | --invert N | --flip I-J | --set N=DESCRIPTOR | --clean |\n       --portable [--lone-pair RULE] [--ring-marks RULE] |\n       --absolute G[:N=D] | --relative N,...|all | --racemic N,...|all [FILE...]\n\nRewrites the stereo marks and stereo groups of each record read from the\nfiles, or from standard input when none is named, and prints the records.\nInside an or or and stereo group, --invert and --set act on the group's\nrelative configuration (descriptors in the group's frame, R* or S*).")
 		fs.PrintDefaults()
 	}
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
 	ops := 0
-	for _, on := range []bool{*mirror, *invert != 0, *flip != "", *set != "", *clean, *absolute != "", *relative != "", *racemic != ""} {
+	for _, on := range []bool{*mirror, *invert != 0, *flip != "", *set != "", *clean, *portable, *absolute != "", *relative != "", *racemic != ""} {
 		if on {
 			ops++
 		}
 	}
 	if ops != 1 {
-		fmt.Fprintln(stderr, "stereoline transform: give exactly one of --mirror, --invert, --flip, --set, --clean, --absolute, --relative, --racemic")
+		fmt.Fprintln(stderr, "stereoline transform: give exactly one of --mirror, --invert, --flip, --set, --clean, --portable, --absolute, --relative, --racemic")
 		return 2
 	}
 	op, err := transformOp(*mirror, *invert, *flip, *set, *clean)
-	if ops == 1 && (*absolute != "" || *relative != "" || *racemic != "") {
+	if *portable {
+		op, err = transform.Portable, nil
+	}
+	if *absolute != "" || *relative != "" || *racemic != "" {
 		op, err = groupOp(*absolute, *relative, *racemic)
 	}
+	if err != nil {
+		fmt.Fprintf(stderr, "stereoline transform: %v\n", err)
+		return 2
+	}
+	reading, err := rf.reading()
 	if err != nil {
 		fmt.Fprintf(stderr, "stereoline transform: %v\n", err)
 		return 2
@@ -63,7 +74,7 @@ func transformCommand(args []string, stdin io.Reader, stdout, stderr io.Writer) 
 			fmt.Fprintln(out, text)
 			return
 		}
-		newText, notes, err := transformLine(text, op)
+		newText, notes, err := transformLine(text, op, reading)
 		for _, n := range notes {
 			fmt.Fprintf(stderr, "%s:%d: %s\n", name, line, n)
 		}
@@ -177,9 +188,9 @@ func parseDescriptor(s string) (stereo.Descriptor, bool) {
 
 // transformLine applies op to the record on one line and returns the
 // line with only the notation's edited bytes changed.
-func transformLine(line string, op transformFunc) (string, []string, error) {
+func transformLine(line string, op transformFunc, reading notation.Reading) (string, []string, error) {
 	rec := notation.SplitRecord(line)
-	m := notation.Read(rec.Notation)
+	m := notation.ReadWith(rec.Notation, reading)
 	t, err := op(m)
 	if err != nil {
 		return line, nil, err

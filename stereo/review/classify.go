@@ -293,7 +293,7 @@ func splitRoles(m *notation.Molecule) (map[notation.Role]rolePart, bool) {
 	}
 	out := map[notation.Role]rolePart{}
 	for _, r := range roles {
-		part := notation.Read(texts[r])
+		part := notation.ReadWith(texts[r], m.Reading)
 		first, count := -1, 0
 		for a := range m.Atoms {
 			if m.Atoms[a].Role == r {

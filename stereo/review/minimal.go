@@ -65,7 +65,7 @@ func rewritten(m *notation.Molecule, centres []markedCentre, invert bool) *notat
 		}
 		text = text[:s.Start] + repl + text[s.End:]
 	}
-	return notation.Read(text)
+	return notation.ReadWith(text, m.Reading)
 }
 
 // sameCompound reports whether two structures have one identity key.

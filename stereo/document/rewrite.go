@@ -196,7 +196,7 @@ func transformedLabels(m *notation.Molecule, t transform.Transform, atoms []int)
 	if err != nil {
 		return ""
 	}
-	an := stereo.Analyze(notation.Read(text))
+	an := stereo.Analyze(notation.ReadWith(text, m.Reading))
 	want := make(map[int]bool, len(atoms))
 	for _, a := range atoms {
 		want[a] = true

@@ -89,7 +89,7 @@ func invertInGroup(m *notation.Molecule, an *stereo.Analysis, u *stereo.Unit, g 
 	if err != nil {
 		return Transform{}, err
 	}
-	after := stereo.Analyze(notation.Read(text))
+	after := stereo.Analyze(notation.ReadWith(text, m.Reading))
 	got, desc := relativeLabels(after, g.Atoms)
 	for a, d := range want {
 		if got[a] != d {
@@ -515,7 +515,7 @@ func readAfter(m *notation.Molecule, edits []notation.Edit) (*notation.Molecule,
 	if err != nil {
 		return nil, err
 	}
-	return notation.Read(text), nil
+	return notation.ReadWith(text, m.Reading), nil
 }
 
 func groupSpan(m *notation.Molecule, gi int) notation.Span {

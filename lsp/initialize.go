@@ -60,6 +60,7 @@ func chooseEncoding(offered []string) PositionEncoding {
 func capabilities(enc PositionEncoding) serverCapabilities {
 	kinds := []protocol.CodeActionKind{
 		document.KindQuickFix, document.KindMirror, document.KindInvert, document.KindFlip, document.KindSet,
+		document.KindAbsolute, document.KindRelative, document.KindRacemic,
 	}
 	return serverCapabilities{
 		ServerCapabilities: protocol.ServerCapabilities{

@@ -34,12 +34,27 @@ type Unit struct {
 	Decisions []Decision
 	// Marks are the spans of the marks that specify the unit.
 	Marks []notation.Span
+
+	// Group is the index in Analysis.Groups of the stereo group of the
+	// extension block that holds the unit, -1 when none does. GroupKind
+	// says how the configuration of a specified chiral unit (a
+	// tetrahedral centre or an allene) is known: GroupAbsolute in no
+	// group or in an absolute one, as the libraries read it, GroupOr
+	// (relative) or GroupAnd (racemic); it is 0 for other units.
+	// Relative is the descriptor in the frame of the unit's or or and
+	// group (groups.go); Descriptor elsewhere.
+	Group     int
+	GroupKind notation.GroupKind
+	Relative  Descriptor
 }
 
 // Analysis is the result of Analyze. It is a value of its own: nothing in
 // the molecule is changed.
 type Analysis struct {
-	Units       []Unit
+	Units []Unit
+	// Groups are the stereo groups of the extension block as the engine
+	// reads them (groups.go).
+	Groups      []Group
 	Diagnostics notation.ErrorList
 }
 
@@ -50,6 +65,10 @@ type Options struct {
 	// noOpenMarks leaves out the report of marks read differently by
 	// other readers: set for the second analysis that report runs
 	noOpenMarks bool
+
+	// skipGroups leaves the stereo groups unread: the labels of a group
+	// inverted are computed by analysing the inverted record so.
+	skipGroups bool
 }
 
 // Analyze finds the stereogenic units of m, labels them and reports the
@@ -92,6 +111,7 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 		reportOpenMarks(m, res, opt)
 	}
 	slices.SortStableFunc(res.Units, func(a, b Unit) int { return unitKey(&a) - unitKey(&b) })
+	l.readGroups(opt.skipGroups)
 	res.Diagnostics.Sort()
 	return res
 }

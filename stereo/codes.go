@@ -17,4 +17,10 @@ const (
 	CodeUndefined         notation.Code = "stereo-undefined"          // a stereogenic unit left unmarked
 	CodeUndetermined      notation.Code = "stereo-undetermined"       // the labeller hit its node cap
 	CodeReaderDependent   notation.Code = "stereo-reader-dependent"   // a mark general-purpose readers read differently (portable.go)
+
+	// Stereo groups of the extension block (groups.go).
+	CodeGroupIneffectiveMember notation.Code = "stereo-group-ineffective-member" // a listed atom that is no marked chiral centre
+	CodeGroupOneCenter         notation.Code = "stereo-group-one-center"         // an or or and group of one centre: its mark's direction means nothing
+	CodeGroupAcrossComponents  notation.Code = "stereo-group-across-components"  // an or or and group over separate components
+	CodeGroupRepeatedTag       notation.Code = "stereo-group-repeated-tag"       // two fields with one or or and tag
 )

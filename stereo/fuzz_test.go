@@ -15,6 +15,7 @@ func FuzzAnalyze(f *testing.F) {
 		"N[C@@H](C)C(=O)O", `F/C(\Cl)=C/Br`, "ClC=[C@]=CCl", "C[C@SP1H]C", "C1CCC/C=C/1",
 		"[C@@H]12[C@H]3[C@H]4[C@@H]1[C@@H]5[C@H]4[C@H]3[C@H]25", "C/C=C/1\\CC[C@H](C)CC1",
 		"O[C@H]1CC[C@H](CC1)O", "C[S@@](=O)c1ccccc1", "[C@]=1=C2CCCCCCC1CCCCCC2", "C/1=C/CCCCCC\\1",
+		"C[C@H](O)[C@H](O)[C@@H](O)C |o1:1,3,5|", "C/C=C/[C@H](O)C |&1:1,3,o1:2|", "C[C@H](O)CC>>C[C@H](N)CC |o1:1,6|",
 	} {
 		f.Add(s)
 	}

@@ -94,6 +94,7 @@ func reportOpenMarks(m *notation.Molecule, res *Analysis, opt Options) {
 		return
 	}
 	opt.noOpenMarks = true
+	opt.skipGroups = true // only the units are compared
 	var otherLonePair, otherRingMarks *Analysis
 	for _, o := range open {
 		switch o.Kind {

@@ -6,6 +6,7 @@ import (
 	"stereoline/notation/smarts"
 	"stereoline/stereo"
 	"stereoline/stereo/document"
+	"stereoline/stereo/identity"
 	"stereoline/stereo/reaction"
 	"stereoline/stereo/transform"
 )
@@ -270,6 +271,43 @@ var codeCatalogue = []codeDoc{
 		Help:    "Rewrite the record with the quick fix or 'stereoline transform --portable': it starts the record at a neighbour of the centre and writes no ring-closure digit on it, or keeps one mark of the ring closure, so that every reader surveyed reads the meaning the record has under the reading setting. Set the reading (reading.lonePair, reading.ringMarks) to the one of the program that wrote the record.",
 		Example: codeExample{File: "example.smi", Text: "[S@](=O)(C)c1ccccc1 LRK-BB-021\n"},
 	},
+	// Stereo groups of the extension block (stereo/groups.go,
+	// stereo/identity/groups.go).
+	{
+		Code: stereo.CodeGroupIneffectiveMember, Origin: originStereo,
+		Short:   "A stereo group lists an atom it can say nothing about.",
+		Full:    "A stereo group (a:, o<n>:, &<n>: in the CXSMILES extension block) says how the configuration of its centres is known: absolute, one of two mirror-image forms (or), or their mixture (and). It can only speak of tetrahedral centres and allenes whose marks fix a configuration. This atom carries no mark, is not a stereocentre, is an end of a double bond (whose E/Z a mirror image keeps), or carries a square-planar, trigonal-bipyramidal or octahedral mark, which is read as absolute. General-purpose libraries drop such members silently.",
+		Help:    "Remove the atom from the group, or mark the centre that was meant (atom indices in the block count from 0).",
+		Example: codeExample{File: "example.cxsmi", Text: "CC(O)CC |o1:1|\n"},
+	},
+	{
+		Code: stereo.CodeGroupOneCenter, Origin: originStereo,
+		Short:   "An or or and stereo group that holds one centre (a hint).",
+		Full:    "With one centre an or group means one configuration, unknown which (for the record's only stereocentre: one enantiomer, unknown which), and an and group both configurations mixed (the racemate). The direction of that centre's mark then means nothing: C[C@H](O)CC |&1:1| and C[C@@H](O)CC |&1:1| are one racemate.",
+		Help:    "Nothing to do if that is meant; the hint says what the group states in plain words.",
+		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)CC |&1:1|\n"},
+	},
+	{
+		Code: stereo.CodeGroupAcrossComponents, Origin: originStereo,
+		Short:   "An or or and stereo group ties centres of separate components.",
+		Full:    "The centres of one group invert together, as general-purpose libraries read them. Over separate components (a salt, a mixture written as one record) that states a relative configuration between separate molecules, which only one salt or complex taken as a whole can have; usually each component's configuration is known on its own, and each needs a group of its own.",
+		Help:    "Give each component its own group (the quick fix numbers them), unless one diastereomeric salt of unknown absolute configuration is meant.",
+		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)CC.C[C@H](N)CC |o1:1,6|\n"},
+	},
+	{
+		Code: stereo.CodeGroupRepeatedTag, Origin: originStereo,
+		Short:   "Two fields of the extension block with one or or and tag.",
+		Full:    "Two fields tagged o1 (or &1) are two groups to RDKit 2022.09.3, each inverting on its own, and one group to a reader that merges them; the record then stands for different sets of stereoisomers in different programs. Stereoline reads two groups, as RDKit does.",
+		Help:    "Number the second group on its own (the quick fix does), or join the two fields into one group if the centres invert together.",
+		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)[C@@H](C)Cl |o1:1,o1:3|\n"},
+	},
+	{
+		Code: identity.CodeGroupAddsNothing, Origin: originStereo,
+		Short:   "An or or and stereo group whose mirror image is the structure itself.",
+		Full:    "Inverting every centre of the group gives the same structure: the centres make a meso form (cis-cyclohexane-1,2-diol), or they are not chiral together. One enantiomer, unknown which, or the racemate of such a structure is the structure itself, so the group adds nothing and the record is the one compound its marks write.",
+		Help:    "Remove the group (the quick fix does), or check the marks if another diastereomer was meant.",
+		Example: codeExample{File: "example.cxsmi", Text: "O[C@H]1CCCC[C@H]1O |o1:1,6|\n"},
+	},
 	// Relations between the records of one list (stereo/document).
 	{
 		Code: document.CodeListDuplicate, Origin: originList,
@@ -291,6 +329,27 @@ var codeCatalogue = []codeDoc{
 		Full:    "The record has the same constitution as an earlier one but a different configuration at the units named, or leaves some of them unmarked: a diastereomer, an E/Z isomer, or a less specified writing of the same compound.",
 		Help:    "Check that the units named are meant to differ.",
 		Example: codeExample{File: "example.smi", Text: "C/C=C/C A-1\nC/C=C\\C A-2\n", Shown: "C/C=C/C A-1\nC/C=C\\C A-2\n"},
+	},
+	{
+		Code: document.CodeListAbsoluteOfRelative, Origin: originList,
+		Short:   "One stereoisomer of the relative configuration an earlier record gives (or the other way round).",
+		Full:    "One record gives an absolute configuration, the other the same relative configuration only (an or stereo group: one enantiomer, unknown which). The absolute record is one of the compounds the relative one may be; listed together, they may be one compound registered twice, before and after its absolute configuration was known.",
+		Help:    "Keep both if both are meant; otherwise keep the record that says what is known.",
+		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)[C@@H](C)Cl |o1:1,3| A-1\nC[C@H](O)[C@@H](C)Cl A-2\n"},
+	},
+	{
+		Code: document.CodeListAbsoluteOfMixture, Origin: originList,
+		Short:   "One stereoisomer of a mixture an earlier record gives: a racemate and one of its enantiomers.",
+		Full:    "One record is a mixture (an and stereo group: the racemate, when its two forms are enantiomers), the other one of the stereoisomers in it. A racemate listed beside one of its enantiomers is common and often meant; the message names which enantiomer.",
+		Help:    "Keep both if both are meant; check the marks if the record was meant to be the other enantiomer.",
+		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)CC |&1:1| A-1\nC[C@@H](O)CC A-2\n"},
+	},
+	{
+		Code: document.CodeListRelativeAndMixture, Origin: originList,
+		Short:   "The same stereoisomers as an earlier record, as one of them rather than their mixture.",
+		Full:    "Both records stand for the same stereoisomers: one says the compound is one of them, unknown which (an or group), the other that it is their mixture (an and group). The first is one enantiomer of the second when the two forms are enantiomers.",
+		Help:    "Check which was meant: a resolved compound of unknown absolute configuration, or the racemate.",
+		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)CC |o1:1| A-1\nC[C@H](O)CC |&1:1| A-2\n"},
 	},
 	// Atom-mapped reactions (stereo/reaction).
 	{
@@ -409,6 +468,13 @@ var codeCatalogue = []codeDoc{
 		Full:    "A tetrahedral centre takes R or S, a double bond E or Z, an allene M or P; a pseudoasymmetric centre takes only r or s, which setting cannot choose.",
 		Help:    "Ask for a descriptor of the unit's kind.",
 		Example: codeExample{File: "example.smi", Text: "C[C@H](O)CC\n", NotShown: "returned by a rewrite asked to set a stereocentre to E, not by a check"},
+	},
+	{
+		Code: transform.CodeNoGroup, Origin: originRewrite,
+		Short:   "The stereo group named is not in the record, or cannot be rewritten so.",
+		Full:    "A rewrite of stereo groups (make a group absolute, split a group) names a group the record's extension block does not hold, one that is absolute already, or one that lies in one component.",
+		Help:    "Name a group as the block writes it (o1, &2); describe lists them.",
+		Example: codeExample{File: "example.cxsmi", Text: "C[C@H](O)CC\n", NotShown: "returned by a rewrite asked to make group o1 of a record without groups absolute, not by a check"},
 	},
 	{
 		Code: transform.CodeNotVerified, Origin: originRewrite,

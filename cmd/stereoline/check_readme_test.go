@@ -89,8 +89,8 @@ func TestREADMEQuickStart(t *testing.T) {
 			t.Errorf("finding outside examples/: %q", l)
 		}
 	}
-	if !strings.Contains(stderr.String(), "5 files") {
-		t.Errorf("summary should count the five demo files: %s", stderr.String())
+	if !strings.Contains(stderr.String(), "6 files") {
+		t.Errorf("summary should count the six demo files: %s", stderr.String())
 	}
 
 	cmd = exec.Command("go", "test", "-count=1", "-run", "^TestCheckExitStatus$", "./cmd/stereoline/")

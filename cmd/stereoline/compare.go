@@ -7,6 +7,7 @@ import (
 
 	"stereoline/notation"
 	"stereoline/stereo"
+	"stereoline/stereo/document"
 	"stereoline/stereo/identity"
 )
 
@@ -14,6 +15,9 @@ import (
 type compareJSON struct {
 	Relation  string           `json:"relation"`
 	Differing []differenceJSON `json:"differing"`
+	// Description says the relation in words where stereo groups make
+	// a record stand for several stereoisomers.
+	Description string `json:"description,omitempty"`
 }
 
 // differenceJSON is one unit in which the two structures differ. Atoms
@@ -37,7 +41,7 @@ func compare(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		case "--json", "-json":
 			asJSON = true
 		case "-h", "--help", "-help":
-			fmt.Fprintln(stdout, "usage: stereoline compare A B [--json]\n\nSays whether two structures are identical, enantiomers, diastereomers\n(naming the units that differ), constitutional isomers or different.")
+			fmt.Fprintln(stdout, "usage: stereoline compare A B [--json]\n\nSays whether two structures are identical, enantiomers, diastereomers\n(naming the units that differ), constitutional isomers or different.\nWith CXSMILES stereo groups a record stands for a set of stereoisomers,\nand three more relations say how the sets meet: absolute-of-relative,\nabsolute-of-mixture, relative-and-mixture.")
 			return 0
 		default:
 			rest = append(rest, a)
@@ -58,7 +62,7 @@ func compare(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	}
 	c := identity.Compare(a, b)
 	anA, anB := stereo.Analyze(a), stereo.Analyze(b)
-	out := compareJSON{Relation: c.Relation.String(), Differing: []differenceJSON{}}
+	out := compareJSON{Relation: c.Relation.String(), Differing: []differenceJSON{}, Description: describeRelation(c, a, b, anA, anB)}
 	for _, d := range c.Differing {
 		out.Differing = append(out.Differing, differenceJSON{Kind: d.Kind.String(), AtomsA: oneBased(d.Atoms), AtomsB: oneBased(d.OtherAtoms),
 			A: labelOf(anA, d.Atoms), B: labelOf(anB, d.OtherAtoms)})
@@ -73,10 +77,64 @@ func compare(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		return 0
 	}
 	fmt.Fprintln(stdout, out.Relation)
+	if out.Description != "" {
+		fmt.Fprintf(stdout, "  %s\n", out.Description)
+	}
 	for _, d := range out.Differing {
 		fmt.Fprintf(stdout, "  %s at %s: %s in A, %s in B\n", d.Kind, atomList(d.AtomsA, d.AtomsB), orUnspecified(d.A), orUnspecified(d.B))
 	}
 	return 0
+}
+
+// describeRelation says in words how two records are related when
+// stereo groups make one of them stand for several stereoisomers; "" for
+// other pairs.
+func describeRelation(c identity.Comparison, a, b *notation.Molecule, anA, anB *stereo.Analysis) string {
+	ia, ib := identity.Identify(a), identity.Identify(b)
+	name := func(id identity.Identity) string {
+		switch {
+		case id.Set == identity.Mixture && id.Pair():
+			return "the racemate"
+		case id.Set == identity.Mixture:
+			return "a mixture of stereoisomers"
+		case id.Set == identity.OneOf && id.Pair():
+			return "one enantiomer, unknown which"
+		case id.Set == identity.OneOf:
+			return "one of several stereoisomers, unknown which"
+		case id.Set == identity.OneOfMixtures:
+			return "one of several mixtures, unknown which"
+		}
+		return "one stereoisomer"
+	}
+	switch c.Relation {
+	case identity.Identical:
+		if ia.Set != identity.OneStereoisomer {
+			return fmt.Sprintf("both stand for the same %d stereoisomers, as %s", ia.Isomers(), name(ia))
+		}
+	case identity.AbsoluteOfRelative, identity.AbsoluteOfMixture:
+		single, set, an, anSet := "A", "B", anA, anB
+		setID := ib
+		if c.Single == 1 {
+			single, set, an, anSet, setID = "B", "A", anB, anA, ia
+		}
+		rel := ""
+		for gi := range anSet.Groups {
+			if d := anSet.GroupDescriptor(gi); d != "" && anSet.Groups[gi].Kind != notation.GroupAbsolute {
+				rel += ", " + d
+			}
+		}
+		labels := document.AbsoluteLabels(an)
+		if c.Relation == identity.AbsoluteOfMixture && c.Pair {
+			return fmt.Sprintf("%s is the %s enantiomer of the racemate %s%s", single, labels, set, rel)
+		}
+		if c.Pair {
+			return fmt.Sprintf("%s is %s with the same relative configuration as %s%s: %s gives the absolute configuration, %s only the relative one", single, labels, set, rel, single, set)
+		}
+		return fmt.Sprintf("%s, %s, is one of the stereoisomers of %s, which stands for %s", single, labels, set, name(setID))
+	case identity.RelativeAndMixture:
+		return fmt.Sprintf("the same stereoisomers: A stands for %s, B for %s", name(ia), name(ib))
+	}
+	return ""
 }
 
 func oneBased(xs []int) []int {

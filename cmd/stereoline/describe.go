@@ -11,6 +11,7 @@ import (
 
 	"stereoline/notation"
 	"stereoline/stereo"
+	"stereoline/stereo/identity"
 	"stereoline/stereo/reaction"
 )
 
@@ -74,6 +75,33 @@ type recordJSON struct {
 	Diagnostics []diagnosticJSON `json:"diagnostics"`
 	Stereo      []unitJSON       `json:"stereo"`
 	Reaction    *reactionJSON    `json:"reaction,omitempty"`
+	// Groups are the stereo groups of the extension block as written
+	// (atoms 1-based, those the block lists within the record); nil
+	// without a block. Configuration says how the specified chiral
+	// units are known: absolute, relative, racemic or a mix.
+	Groups        []groupJSON `json:"groups,omitempty"`
+	Configuration string      `json:"configuration,omitempty"`
+}
+
+// groupJSON is one stereo group of the extension block. Descriptor is the
+// group's relative or racemic descriptor ("rel-(2R,4S)", "rac-(2R,4S)")
+// over the centres the engine reads in it, Starred its other form
+// ("(2R*,4S*)", "(2RS,4SR)"); both empty when no member is labelled.
+type groupJSON struct {
+	Kind       string `json:"kind"`
+	Number     int    `json:"number"`
+	Atoms      []int  `json:"atoms"`
+	Descriptor string `json:"descriptor,omitempty"`
+	Starred    string `json:"starred,omitempty"`
+}
+
+// unitGroupJSON is the group of one unit: its kind (absolute for a
+// specified chiral unit in no group), number (0 for absolute) and
+// descriptor in the group's frame (R*, SR).
+type unitGroupJSON struct {
+	Kind   string `json:"kind"`
+	Number int    `json:"number"`
+	CIP    string `json:"cip,omitempty"`
 }
 
 // unitJSON is one perceived stereogenic unit. Atom numbers are 1-based.
@@ -83,6 +111,8 @@ type unitJSON struct {
 	Specified bool         `json:"specified"`
 	CIP       string       `json:"cip,omitempty"`
 	Ranked    []ligandJSON `json:"ranked"`
+	// Group is set for specified tetrahedral centres and allenes.
+	Group *unitGroupJSON `json:"group,omitempty"`
 }
 
 // ligandJSON is a ranked ligand: the atom it begins at (null for an
@@ -199,6 +229,9 @@ func describeRecord(rec notation.Record, reading notation.Reading) recordJSON {
 	d.Mono = round(f.MonoisotopicMass, 6)
 	an := stereo.Analyze(m)
 	diags := append(append(notation.ErrorList{}, m.Errors...), an.Diagnostics...)
+	if !m.Reaction && !m.Errors.HasErrors() {
+		diags = append(diags, identity.GroupFindings(m)...)
+	}
 	if m.Reaction {
 		rr := reaction.AnalyzeWith(m, an)
 		j := reactionToJSON(rr)
@@ -211,9 +244,46 @@ func describeRecord(rec notation.Record, reading notation.Reading) recordJSON {
 	}
 	d.Stereo = []unitJSON{}
 	for i := range an.Units {
-		d.Stereo = append(d.Stereo, unitToJSON(&an.Units[i]))
+		uj := unitToJSON(&an.Units[i])
+		if u := &an.Units[i]; u.GroupKind != 0 {
+			g := &unitGroupJSON{Kind: u.GroupKind.String(), CIP: u.GroupLabel()}
+			if u.Group >= 0 {
+				g.Number = an.Groups[u.Group].Number
+			}
+			uj.Group = g
+		}
+		d.Stereo = append(d.Stereo, uj)
 	}
+	d.Groups = groupsToJSON(m, an)
+	d.Configuration = an.Configuration()
 	return d
+}
+
+// groupsToJSON returns the stereo groups of the block with the
+// descriptors the engine gives them.
+func groupsToJSON(m *notation.Molecule, an *stereo.Analysis) []groupJSON {
+	if m.Extension == nil {
+		return nil
+	}
+	out := []groupJSON{}
+	for bi := range m.Extension.Groups {
+		sg := &m.Extension.Groups[bi]
+		g := groupJSON{Kind: sg.Kind.String(), Number: sg.Number, Atoms: []int{}}
+		for _, a := range sg.Atoms {
+			g.Atoms = append(g.Atoms, a+1)
+		}
+		var desc, starred []string
+		for gi := range an.Groups {
+			if an.Groups[gi].Block == bi {
+				if s := an.GroupDescriptor(gi); s != "" {
+					desc, starred = append(desc, s), append(starred, an.GroupStarred(gi))
+				}
+			}
+		}
+		g.Descriptor, g.Starred = strings.Join(desc, " "), strings.Join(starred, " ")
+		out = append(out, g)
+	}
+	return out
 }
 
 func unitToJSON(u *stereo.Unit) unitJSON {
@@ -279,7 +349,24 @@ func writeTable(w io.Writer, d recordJSON) {
 				label = "undetermined"
 			}
 		}
+		if g := u.Group; g != nil && g.Kind != "absolute" {
+			label += fmt.Sprintf(" (%s in stereo group %s%d)", g.CIP, map[string]string{"or": "o", "and": "&"}[g.Kind], g.Number)
+		}
 		fmt.Fprintf(w, "  %s %v: %s\n", u.Kind, u.Atoms, label)
+	}
+	for _, g := range d.Groups {
+		tag := map[string]string{"absolute": "a", "or": "o", "and": "&"}[g.Kind]
+		if g.Kind != "absolute" {
+			tag += fmt.Sprint(g.Number)
+		}
+		line := fmt.Sprintf("  stereo group %s %v", tag, g.Atoms)
+		if g.Descriptor != "" {
+			line += fmt.Sprintf(": %s, %s", g.Descriptor, g.Starred)
+		}
+		fmt.Fprintln(w, line)
+	}
+	if d.Configuration != "" && len(d.Groups) > 0 {
+		fmt.Fprintf(w, "  configuration: %s\n", d.Configuration)
 	}
 	for _, e := range d.Diagnostics {
 		fmt.Fprintf(w, "  %s: %s [%s] at bytes %d-%d\n", e.Severity, e.Message, e.Code, e.Span[0], e.Span[1])

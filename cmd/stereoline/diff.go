@@ -29,8 +29,9 @@ check --changed-since. With no PATH the current folder is reviewed. Two
 files of which at least one git does not track (or that lie outside any
 repository) are compared with each other directly.
 
-Classes: rewritten, stereo-added, stereo-removed, bond-flipped, epimer,
-diastereomer, enantiomer, constitution-changed, unreadable, added, removed.
+Classes: rewritten, stereo-added, stereo-removed, groups-changed,
+bond-flipped, epimer, diastereomer, enantiomer, constitution-changed,
+unreadable, added, removed.
 Records whose text did not change are not listed.
 
 Exit status: 0 when no record is in a class named by --fail-on (by default

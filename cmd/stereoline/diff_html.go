@@ -32,6 +32,7 @@ var classNotes = map[review.Class]string{
 	review.Rewritten:           "the same compound and configuration, written differently",
 	review.StereoAdded:         "marks now fix units that were open",
 	review.StereoRemoved:       "units that were fixed are now open",
+	review.GroupsChanged:       "the same stereoisomers, now absolute, relative or racemic otherwise",
 	review.BondFlipped:         "double bonds changed E/Z, nothing else",
 	review.Epimer:              "one stereocentre inverted, the others kept",
 	review.Diastereomer:        "several units changed, not into the mirror image",
@@ -354,7 +355,7 @@ main{padding:0 24px 40px}
 .rv-summary th,.rv-summary td{padding:3px 10px;border-bottom:1px solid var(--line);text-align:left}
 .rv-num{text-align:right!important;font-variant-numeric:tabular-nums}
 .rv-badge{display:inline-block;padding:0 7px;border-radius:9px;font-size:12px;font-weight:600;color:#fff;background:#6a6d73;white-space:nowrap}
-.rv-rewritten{background:#5b7a5b}.rv-stereo-added{background:#3f7f9f}.rv-stereo-removed{background:#9a6200}
+.rv-rewritten{background:#5b7a5b}.rv-stereo-added{background:#3f7f9f}.rv-stereo-removed{background:#9a6200}.rv-groups-changed{background:#5a6f9a}
 .rv-bond-flipped{background:#8a4fb0}.rv-epimer{background:#c05621}.rv-diastereomer{background:#b7410e}
 .rv-enantiomer{background:#c22a2a}.rv-constitution-changed{background:#7a1f5c}.rv-unreadable{background:#444}
 .rv-added{background:#2f7d3c}.rv-removed{background:#6a6d73}

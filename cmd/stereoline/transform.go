@@ -28,28 +28,34 @@ func transformCommand(args []string, stdin io.Reader, stdout, stderr io.Writer) 
 	set := fs.String("set", "", "set the unit at atom N to a descriptor: `N=R`, S, E, Z, M or P")
 	clean := fs.Bool("clean", false, "remove marks that specify nothing")
 	portable := fs.Bool("portable", false, "rewrite marks general-purpose readers read differently so that every reader surveyed reads the record alike, with the meaning it has under the reading chosen")
+	absolute := fs.String("absolute", "", "make the stereo group `G` absolute (o1, &2), as written, or G:N=D for the enantiomer in which atom N has descriptor D")
+	relative := fs.String("relative", "", "put the centres at atoms `N,N,...` (or all) into one new or group: relative configuration")
+	racemic := fs.String("racemic", "", "put the centres at atoms `N,N,...` (or all) into one new and group: racemic")
 	var rf readingFlags
 	rf.add(fs)
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: stereoline transform --mirror | --invert N | --flip I-J | --set N=DESCRIPTOR | --clean | --portable [--lone-pair RULE] [--ring-marks RULE] [FILE...]\n\nRewrites the stereo marks of each record read from the files, or from\nstandard input when none is named, and prints the records.")
+		fmt.Fprintln(stderr, "usage: stereoline transform --mirror | --invert N | --flip I-J | --set N=DESCRIPTOR | --clean |\n       --portable [--lone-pair RULE] [--ring-marks RULE] |\n       --absolute G[:N=D] | --relative N,...|all | --racemic N,...|all [FILE...]\n\nRewrites the stereo marks and stereo groups of each record read from the\nfiles, or from standard input when none is named, and prints the records.\nInside an or or and stereo group, --invert and --set act on the group's\nrelative configuration (descriptors in the group's frame, R* or S*).")
 		fs.PrintDefaults()
 	}
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
 	ops := 0
-	for _, on := range []bool{*mirror, *invert != 0, *flip != "", *set != "", *clean, *portable} {
+	for _, on := range []bool{*mirror, *invert != 0, *flip != "", *set != "", *clean, *portable, *absolute != "", *relative != "", *racemic != ""} {
 		if on {
 			ops++
 		}
 	}
 	if ops != 1 {
-		fmt.Fprintln(stderr, "stereoline transform: give exactly one of --mirror, --invert, --flip, --set, --clean, --portable")
+		fmt.Fprintln(stderr, "stereoline transform: give exactly one of --mirror, --invert, --flip, --set, --clean, --portable, --absolute, --relative, --racemic")
 		return 2
 	}
 	op, err := transformOp(*mirror, *invert, *flip, *set, *clean)
 	if *portable {
 		op, err = transform.Portable, nil
+	}
+	if *absolute != "" || *relative != "" || *racemic != "" {
+		op, err = groupOp(*absolute, *relative, *racemic)
 	}
 	if err != nil {
 		fmt.Fprintf(stderr, "stereoline transform: %v\n", err)
@@ -116,6 +122,48 @@ func transformOp(mirror bool, invert int, flip, set string, clean bool) (transfo
 			return nil, fmt.Errorf("--set wants N=DESCRIPTOR with R, S, E, Z, M or P, as in 2=R, not %q", set)
 		}
 		return func(m *notation.Molecule) (transform.Transform, error) { return transform.SetDescriptor(m, a-1, desc) }, nil
+	}
+	return nil, fmt.Errorf("no transform given")
+}
+
+// groupOp turns the stereo-group flags into a transform.
+func groupOp(absolute, relative, racemic string) (transformFunc, error) {
+	switch {
+	case absolute != "":
+		tag, choice, chosen := strings.Cut(absolute, ":")
+		atom, desc := -1, stereo.DescNone
+		if chosen {
+			n, d, ok := strings.Cut(choice, "=")
+			a, err := strconv.Atoi(n)
+			dd, okd := parseDescriptor(d)
+			if !ok || err != nil || a < 1 || !okd {
+				return nil, fmt.Errorf("--absolute wants GROUP or GROUP:N=D, as in o1 or o1:2=R, not %q", absolute)
+			}
+			atom, desc = a-1, dd
+		}
+		return func(m *notation.Molecule) (transform.Transform, error) {
+			gi := transform.FindGroup(m, tag)
+			if gi < 0 {
+				return transform.Transform{}, fmt.Errorf("no stereo group %s in the record", tag)
+			}
+			return transform.MakeAbsolute(m, gi, atom, desc)
+		}, nil
+	case relative != "", racemic != "":
+		kind, list, flag := notation.GroupOr, relative, "--relative"
+		if racemic != "" {
+			kind, list, flag = notation.GroupAnd, racemic, "--racemic"
+		}
+		var atoms []int
+		if list != "all" {
+			for _, f := range strings.Split(list, ",") {
+				a, err := strconv.Atoi(strings.TrimSpace(f))
+				if err != nil || a < 1 {
+					return nil, fmt.Errorf("%s wants atom numbers from 1, as in 2,4, or all, not %q", flag, list)
+				}
+				atoms = append(atoms, a-1)
+			}
+		}
+		return func(m *notation.Molecule) (transform.Transform, error) { return transform.MarkGroup(m, atoms, kind) }, nil
 	}
 	return nil, fmt.Errorf("no transform given")
 }

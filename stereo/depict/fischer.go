@@ -511,6 +511,9 @@ func (f *Fischer) Drawing(opt Options) *Drawing {
 		u := &f.an.Units[i]
 		if u.Specified && u.Kind == stereo.KindTetrahedral && u.Descriptor.Labelled() {
 			descOf[u.Centre] = u.Descriptor.String()
+			if l := u.GroupLabel(); l != "" {
+				descOf[u.Centre] = l
+			}
 		}
 	}
 	for i, r := range f.Rows {

@@ -252,6 +252,10 @@ func (l *layout) placeDescriptors(d *Drawing) {
 			}
 		}
 		taken = append(taken, best)
-		d.Descriptors = append(d.Descriptors, Descriptor{Text: u.Descriptor.String(), P: best, Unit: u.Kind})
+		text := u.Descriptor.String()
+		if l := u.GroupLabel(); l != "" {
+			text = l // R* or RS in an or or and stereo group
+		}
+		d.Descriptors = append(d.Descriptors, Descriptor{Text: text, P: best, Unit: u.Kind})
 	}
 }

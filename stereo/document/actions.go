@@ -10,6 +10,11 @@ const (
 	KindInvert   = "refactor.rewrite.stereo.invert"
 	KindFlip     = "refactor.rewrite.stereo.flip"
 	KindSet      = "refactor.rewrite.stereo.set"
+	// Rewrites of stereo groups: a group made absolute, centres put
+	// into an or group (relative) or an and group (racemic).
+	KindAbsolute = "refactor.rewrite.stereo.absolute"
+	KindRelative = "refactor.rewrite.stereo.relative"
+	KindRacemic  = "refactor.rewrite.stereo.racemic"
 )
 
 // Action is a code action: a titled set of host edits.

@@ -273,6 +273,13 @@ func (r *Result) recordDiagnostics(i int) {
 		d.Fixes = r.fixesFor(i, e)
 		r.add(d)
 	}
+	if rec.an != nil {
+		for _, e := range rec.an.groupFindings {
+			d := mapped(e)
+			d.Fixes = r.fixesFor(i, e)
+			r.add(d)
+		}
+	}
 	if rec.Reaction != nil {
 		for _, e := range rec.Reaction.Diagnostics {
 			r.add(mapped(e))

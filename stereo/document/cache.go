@@ -20,6 +20,9 @@ type analysis struct {
 	mol      *notation.Molecule
 	stereo   *stereo.Analysis
 	reaction *reaction.Result // nil unless the record is a reaction
+	// groupFindings are the or and and groups that add nothing
+	// (identity.GroupFindings), for records with stereo groups.
+	groupFindings notation.ErrorList
 
 	// identifiable is true for a structure that has identity keys (not a
 	// reaction, read without error, not empty). The keys are the
@@ -41,6 +44,9 @@ func analyse(text string, r notation.Reading) *analysis {
 	case !m.Errors.HasErrors() && len(m.Atoms) > 0:
 		a.identifiable = true
 		a.preKey = identity.ConstitutionPreKey(m)
+		if len(a.stereo.Groups) > 0 {
+			a.groupFindings = identity.GroupFindings(m)
+		}
 	}
 	return a
 }

@@ -1,8 +1,11 @@
 package document
 
 import (
+	"fmt"
+
 	"stereoline/notation"
 	"stereoline/stereo"
+	"stereoline/stereo/identity"
 	"stereoline/stereo/transform"
 )
 
@@ -55,11 +58,69 @@ func (r *Result) fixesFor(i int, e *notation.Error) []Fix {
 			edits = t.Edits
 		}
 		title = "rewrite the record so that every reader surveyed reads it alike"
+	case stereo.CodeGroupIneffectiveMember, stereo.CodeGroupAcrossComponents, stereo.CodeGroupRepeatedTag, identity.CodeGroupAddsNothing:
+		edits, title = groupFix(m, e)
 	}
 	if len(edits) == 0 {
 		return nil
 	}
 	return []Fix{{Title: title, Edits: r.hostEdits(i, edits)}}
+}
+
+// groupFix returns the quick fix of a finding about a stereo group: the
+// member removed from its group, the group split by component, a
+// repeated tag renumbered as RDKit reads it, or the group that adds
+// nothing removed. Each is a minimal edit of the extension block.
+func groupFix(m *notation.Molecule, e *notation.Error) ([]notation.Edit, string) {
+	ext := m.Extension
+	if ext == nil {
+		return nil, ""
+	}
+	for gi := range ext.Groups {
+		sg := &ext.Groups[gi]
+		if sg.Field < 0 || sg.Field >= len(ext.Fields) {
+			continue
+		}
+		f := &ext.Fields[sg.Field]
+		switch e.Code {
+		case stereo.CodeGroupIneffectiveMember:
+			for k, s := range sg.AtomSpans {
+				if s == e.Span {
+					ed, err := notation.RemoveGroupAtom(m, gi, sg.Atoms[k])
+					if err != nil {
+						return nil, ""
+					}
+					return ed, fmt.Sprintf("remove atom %d from stereo group %s", sg.Atoms[k]+1, sg.Label())
+				}
+			}
+		case stereo.CodeGroupAcrossComponents:
+			if f.Span == e.Span {
+				t, err := transform.SplitGroup(m, gi)
+				if err != nil {
+					return nil, ""
+				}
+				return t.Edits, fmt.Sprintf("give each component its own group in place of %s", sg.Label())
+			}
+		case stereo.CodeGroupRepeatedTag:
+			if f.Tag == e.Span {
+				n := notation.FreeGroupNumber(m, sg.Kind)
+				ed, err := notation.SetGroupKind(m, gi, sg.Kind, n)
+				if err != nil {
+					return nil, ""
+				}
+				return ed, fmt.Sprintf("number this group %s%d, as RDKit reads it (a group of its own)", sg.Kind.Prefix(), n)
+			}
+		case identity.CodeGroupAddsNothing:
+			if f.Span == e.Span {
+				ed, err := notation.RemoveStereoGroup(m, gi)
+				if err != nil {
+					return nil, ""
+				}
+				return ed, fmt.Sprintf("remove stereo group %s, which adds nothing", sg.Label())
+			}
+		}
+	}
+	return nil, ""
 }
 
 // partnerMark returns the edits that complete the one double bond whose

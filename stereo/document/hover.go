@@ -43,6 +43,9 @@ func (r *Result) Hover(off int) (string, notation.Span, bool) {
 		}
 		span = rec.Occ.HostSpan(s)
 		writeBond(&b, rec, bi)
+	} else if gi, s := groupFieldAt(rec.Mol, n); gi >= 0 {
+		span = rec.Occ.HostSpan(s)
+		writeGroup(&b, rec, gi)
 	}
 	writeRecord(&b, rec)
 	b.WriteString("\n\n" + Caution)
@@ -186,6 +189,7 @@ func writeUnit(b *strings.Builder, rec *Record, u *stereo.Unit) {
 		fmt.Fprintf(b, "%s", kindName(u.Kind))
 	}
 	b.WriteString("\n")
+	writeUnitGroup(b, rec, u)
 	if len(u.Ranked) > 0 {
 		b.WriteString("\nCIP priority: ")
 		pair := u.Kind != stereo.KindTetrahedral && len(u.Atoms) == 2
@@ -291,6 +295,16 @@ func writeRecord(b *strings.Builder, rec *Record) {
 	if len(labels) > 0 {
 		fmt.Fprintf(b, "; %s", strings.Join(labels, " "))
 	}
+	if c := rec.Stereo.Configuration(); c != "" {
+		fmt.Fprintf(b, "; configuration %s", c)
+		for gi, g := range rec.Stereo.Groups {
+			if g.Kind != notation.GroupAbsolute {
+				if d := rec.Stereo.GroupDescriptor(gi); d != "" {
+					fmt.Fprintf(b, " (%s: %s)", g.Label(), d)
+				}
+			}
+		}
+	}
 	if id := rec.Identify(); id != nil {
 		fmt.Fprintf(b, "; %s", id.Chirality)
 		if n := identity.Stereoisomers(m); n.Exact {
@@ -302,13 +316,86 @@ func writeRecord(b *strings.Builder, rec *Record) {
 	b.WriteString("\n")
 }
 
-// unitLabel writes a unit as "2S" or "3E" (the first atom's number).
+// unitLabel writes a unit as "2S" or "3E" (the first atom's number), or
+// in its group's frame: "2R*", "2RS".
 func unitLabel(m *notation.Molecule, u *stereo.Unit) string {
 	a := u.Centre
 	if a < 0 && len(u.Atoms) > 0 {
 		a = u.Atoms[0]
 	}
+	if l := u.GroupLabel(); l != "" {
+		return fmt.Sprintf("%d%s", a+1, l)
+	}
 	return fmt.Sprintf("%d%s", a+1, u.Descriptor)
+}
+
+// groupFieldAt returns the index in the extension block of the stereo
+// group whose field holds notation offset n, and the field's span.
+func groupFieldAt(m *notation.Molecule, n int) (int, notation.Span) {
+	ext := m.Extension
+	if ext == nil || !ext.Span.Contains(n) {
+		return -1, notation.Span{}
+	}
+	for gi := range ext.Groups {
+		if f := ext.Groups[gi].Field; f >= 0 && f < len(ext.Fields) && ext.Fields[f].Span.Contains(n) {
+			return gi, ext.Fields[f].Span
+		}
+	}
+	return -1, notation.Span{}
+}
+
+// groupMeaning says in words what a group of the kind states.
+func groupMeaning(k notation.GroupKind) string {
+	switch k {
+	case notation.GroupOr:
+		return "relative configuration: the compound is as written or with every centre of the group inverted, and which one is not known"
+	case notation.GroupAnd:
+		return "racemic: a mixture of the compound as written and with every centre of the group inverted"
+	}
+	return "absolute configuration: the centres are as written"
+}
+
+// writeGroup explains the stereo group gi of the record's block.
+func writeGroup(b *strings.Builder, rec *Record, gi int) {
+	m, an := rec.Mol, rec.Stereo
+	sg := &m.Extension.Groups[gi]
+	fmt.Fprintf(b, "**stereo group %s**: %s\n", sg.Label(), groupMeaning(sg.Kind))
+	for k := range an.Groups {
+		g := &an.Groups[k]
+		if g.Block != gi {
+			continue
+		}
+		var names []string
+		for _, a := range g.Atoms {
+			names = append(names, AtomName(m, a))
+		}
+		fmt.Fprintf(b, "\nCentres: %s", strings.Join(names, ", "))
+		if d := an.GroupDescriptor(k); d != "" {
+			fmt.Fprintf(b, "; **%s**", d)
+			if g.Kind != notation.GroupAbsolute {
+				fmt.Fprintf(b, ", also written %s", an.GroupStarred(k))
+			}
+		}
+		b.WriteString("\n")
+	}
+}
+
+// writeUnitGroup says how the unit's configuration is known: its group
+// and its descriptor in the group's frame.
+func writeUnitGroup(b *strings.Builder, rec *Record, u *stereo.Unit) {
+	an := rec.Stereo
+	if u.Group < 0 || u.GroupKind == notation.GroupAbsolute && len(an.Groups) == 0 {
+		return
+	}
+	g := &an.Groups[u.Group]
+	switch g.Kind {
+	case notation.GroupOr:
+		fmt.Fprintf(b, "\nIn stereo group %s: **%s**, relative configuration %s (the lowest-numbered centre of the group is cited as R)\n", g.Label(), u.GroupLabel(), an.GroupDescriptor(u.Group))
+	case notation.GroupAnd:
+		fmt.Fprintf(b, "\nIn stereo group %s: **%s**, racemic %s\n", g.Label(), u.GroupLabel(), an.GroupDescriptor(u.Group))
+	default:
+		fmt.Fprintf(b, "\nIn stereo group %s: absolute\n", g.Label())
+	}
 }
 
 var elementNames = map[int]string{

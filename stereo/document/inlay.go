@@ -38,7 +38,12 @@ func (r *Result) InlayLabels() []Label {
 			default:
 				continue
 			}
-			out = append(out, Label{Offset: rec.Occ.HostSpan(after).End, Text: u.Descriptor.String()})
+			text := u.Descriptor.String()
+			if l := u.GroupLabel(); l != "" {
+				// R* or RS in an or or and group
+				text = l
+			}
+			out = append(out, Label{Offset: rec.Occ.HostSpan(after).End, Text: text})
 		}
 	}
 	return out

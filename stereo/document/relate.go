@@ -16,6 +16,13 @@ const (
 	CodeListDuplicate    notation.Code = "list-duplicate"    // the same structure as an earlier record
 	CodeListEnantiomer   notation.Code = "list-enantiomer"   // the mirror image of an earlier record
 	CodeListStereoisomer notation.Code = "list-stereoisomer" // another configuration of an earlier record's constitution
+
+	// Relations that stereo groups make (identity.AbsoluteOfRelative and
+	// its kin): one record stands for one stereoisomer, the other for a
+	// set that holds it, or both for the same set said another way.
+	CodeListAbsoluteOfRelative notation.Code = "list-absolute-of-relative" // one absolute stereoisomer of the other's relative configuration
+	CodeListAbsoluteOfMixture  notation.Code = "list-absolute-of-mixture"  // one stereoisomer of the other's mixture: the enantiomer of a racemate
+	CodeListRelativeAndMixture notation.Code = "list-relative-and-mixture" // the same stereoisomers, one of them (relative) and their mixture (racemic)
 )
 
 // relatedKinds are the hosts whose records form a list of compounds. In
@@ -85,21 +92,120 @@ func (r *Result) relateRecords() {
 		switch m.Relation {
 		case identity.Identical:
 			d.Code, d.Severity = CodeListDuplicate, notation.SeverityWarning
-			d.Message = "the same structure as " + where
+			d.Message = "the same " + setName(rec.Identity) + " as " + where
 		case identity.Enantiomers:
 			d.Code, d.Severity = CodeListEnantiomer, notation.SeverityInformation
 			d.Message = "the mirror image of " + where
+		case identity.AbsoluteOfRelative, identity.AbsoluteOfMixture, identity.RelativeAndMixture:
+			d.Severity = notation.SeverityInformation
+			d.Code, d.Message = setRelationMessage(m, rec, earlier, where)
 		case identity.Diastereomers, identity.Unspecified:
 			d.Code, d.Severity = CodeListStereoisomer, notation.SeverityInformation
-			d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differingUnits(rec.Mol, m.Differing))
+			d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differingUnits(rec.Mol, earlier.Mol, m.Differing))
 			if m.Relation == identity.Unspecified {
-				d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differingUnits(rec.Mol, m.Differing))
+				d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differingUnits(rec.Mol, earlier.Mol, m.Differing))
 			}
 		default:
 			continue
 		}
 		r.add(d)
 	}
+}
+
+// setName names what a record stands for: "structure" for one
+// stereoisomer, "racemate", "relative configuration" and so on for the
+// sets stereo groups make.
+func setName(id *identity.Identity) string {
+	switch {
+	case id == nil || id.Set == identity.OneStereoisomer:
+		return "structure"
+	case id.Set == identity.Mixture && id.Pair():
+		return "racemate"
+	case id.Set == identity.Mixture:
+		return "mixture of stereoisomers"
+	case id.Set == identity.OneOf && id.Pair():
+		return "relative configuration"
+	case id.Set == identity.OneOf:
+		return "set of possible stereoisomers"
+	}
+	return "set of possible mixtures"
+}
+
+// AbsoluteLabels writes the labels of the specified chiral units of an
+// analysis as a descriptor: "(2S,4R)"; "" when there are none.
+func AbsoluteLabels(an *stereo.Analysis) string {
+	var parts []string
+	for _, u := range an.Units {
+		if u.Specified && u.Centre >= 0 && u.Kind != stereo.KindDoubleBond && u.Descriptor.Labelled() {
+			parts = append(parts, fmt.Sprintf("%d%s", u.Centre+1, u.Descriptor))
+		}
+	}
+	if len(parts) == 0 {
+		return ""
+	}
+	return "(" + strings.Join(parts, ",") + ")"
+}
+
+// setRelationMessage says in words how a record (rec) and an earlier one
+// are related by their stereo groups, and gives the code.
+func setRelationMessage(m identity.Match, rec, earlier *Record, where string) (notation.Code, string) {
+	single, other := rec, earlier
+	if m.Single == 1 {
+		single, other = earlier, rec
+	}
+	labels := AbsoluteLabels(single.Stereo)
+	if labels == "" {
+		labels = "as written"
+	}
+	switch m.Relation {
+	case identity.AbsoluteOfMixture:
+		switch {
+		case m.Single == 0 && m.Pair:
+			return CodeListAbsoluteOfMixture, fmt.Sprintf("the %s enantiomer of the racemate in %s", labels, where)
+		case m.Single == 0:
+			return CodeListAbsoluteOfMixture, fmt.Sprintf("one of the stereoisomers mixed in %s: %s", where, labels)
+		case m.Pair:
+			return CodeListAbsoluteOfMixture, fmt.Sprintf("the racemate of the %s enantiomer in %s", labels, where)
+		}
+		return CodeListAbsoluteOfMixture, fmt.Sprintf("a mixture that holds the stereoisomer in %s, %s", where, labels)
+	case identity.AbsoluteOfRelative:
+		rel := relativeOf(other.Stereo)
+		switch {
+		case m.Single == 0 && m.Pair:
+			return CodeListAbsoluteOfRelative, fmt.Sprintf("the same relative configuration as %s%s, with the absolute configuration %s", where, rel, labels)
+		case m.Single == 0:
+			return CodeListAbsoluteOfRelative, fmt.Sprintf("one of the stereoisomers %s may be: %s", where, labels)
+		case m.Pair:
+			return CodeListAbsoluteOfRelative, fmt.Sprintf("the same relative configuration as %s, %s, without its absolute configuration%s", where, labels, rel)
+		}
+		return CodeListAbsoluteOfRelative, fmt.Sprintf("may be the stereoisomer in %s, %s, or another", where, labels)
+	}
+	// the same stereoisomers said as one of them and as their mixture
+	here, there := setName(rec.Identity), setName(earlier.Identity)
+	if m.Pair && rec.Identity != nil && rec.Identity.Set == identity.OneOf {
+		return CodeListRelativeAndMixture, fmt.Sprintf("one enantiomer, unknown which, of the racemate in %s: the same relative configuration%s", where, relativeOf(rec.Stereo))
+	}
+	if m.Pair && rec.Identity != nil && rec.Identity.Set == identity.Mixture {
+		return CodeListRelativeAndMixture, fmt.Sprintf("the racemate of the relative configuration in %s (there one enantiomer, unknown which)%s", where, relativeOf(rec.Stereo))
+	}
+	return CodeListRelativeAndMixture, fmt.Sprintf("the same stereoisomers as %s, said another way: here a %s, there a %s", where, here, there)
+}
+
+// relativeOf writes the relative descriptors of an analysis's or and and
+// groups: " (rel-(2R,4S))"; "" when there are none.
+func relativeOf(an *stereo.Analysis) string {
+	var parts []string
+	for gi := range an.Groups {
+		if an.Groups[gi].Kind != notation.GroupAbsolute {
+			if d := an.GroupDescriptor(gi); d != "" {
+				parts = append(parts, d)
+			}
+		}
+	}
+	if len(parts) == 0 {
+		return ""
+	}
+	return " (" + strings.Join(parts, ", ") + ")"
 }
 
 // identifyColliding sets the Identity of every record whose pre-key
@@ -148,7 +254,7 @@ func (r *Result) lineOf(off int) int {
 }
 
 // differingUnits names the units in which two stereoisomers differ.
-func differingUnits(m *notation.Molecule, diffs []identity.UnitDifference) string {
+func differingUnits(m, earlier *notation.Molecule, diffs []identity.UnitDifference) string {
 	if len(diffs) == 0 {
 		return "the configurations differ"
 	}
@@ -158,6 +264,12 @@ func differingUnits(m *notation.Molecule, diffs []identity.UnitDifference) strin
 		for _, a := range d.Atoms {
 			names = append(names, AtomName(m, a))
 		}
+		if len(d.Atoms) == 0 {
+			// unmarked here: the unit is named by the earlier record's atoms
+			for _, a := range d.OtherAtoms {
+				names = append(names, AtomName(earlier, a))
+			}
+		}
 		sep := ""
 		if d.Kind == stereo.KindDoubleBond {
 			sep = "="
@@ -165,7 +277,7 @@ func differingUnits(m *notation.Molecule, diffs []identity.UnitDifference) strin
 		name := strings.Join(names, sep)
 		switch {
 		case !d.Specified[0]:
-			name += " (unmarked here)"
+			name += " there (unmarked here)"
 		case !d.Specified[1]:
 			name += " (unmarked there)"
 		}

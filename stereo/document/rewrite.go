@@ -2,6 +2,7 @@ package document
 
 import (
 	"fmt"
+	"strings"
 
 	"stereoline/notation"
 	"stereoline/stereo"
@@ -71,10 +72,6 @@ func (r *Result) unitRewrites(i int, span notation.Span) []Action {
 		return nil
 	}
 	m := rec.Mol
-	u := unitAt(rec, n)
-	if u == nil {
-		return nil
-	}
 	var out []Action
 	add := func(kind, title string, t transform.Transform, err error) {
 		if err != nil || len(t.Edits) == 0 {
@@ -82,10 +79,34 @@ func (r *Result) unitRewrites(i int, span notation.Span) []Action {
 		}
 		out = append(out, Action{Title: title, Kind: kind, Edits: r.hostEdits(i, t.Edits), Diagnostic: -1})
 	}
+	u := unitAt(rec, n)
+	if u == nil {
+		if gi, _ := groupFieldAt(m, n); gi >= 0 {
+			r.groupRewrites(i, gi, add)
+		}
+		return out
+	}
 	name := unitName(m, u)
 	first := u.Centre
 	if first < 0 {
 		first = u.Atoms[0]
+	}
+	if u.Group >= 0 && u.GroupKind != notation.GroupAbsolute {
+		g := &rec.Stereo.Groups[u.Group]
+		t, err := transform.Invert(m, first)
+		add(KindInvert, fmt.Sprintf("Invert %s within stereo group %s (%s to %s)", name, g.Label(), u.GroupLabel(), starredMirror(u)), t, err)
+		for _, d := range choices(u.Kind) {
+			if d == u.Relative {
+				continue
+			}
+			t, err := transform.SetDescriptor(m, first, d)
+			add(KindSet, fmt.Sprintf("Set %s to %s in stereo group %s", name, starred(d, u.GroupKind), g.Label()), t, err)
+		}
+		r.groupRewrites(i, g.Block, add)
+		return out
+	}
+	if u.Specified && u.Group < 0 && u.GroupKind == notation.GroupAbsolute {
+		r.markRewrites(i, add)
 	}
 	if u.Specified {
 		if u.Kind == stereo.KindDoubleBond {
@@ -105,6 +126,99 @@ func (r *Result) unitRewrites(i int, span notation.Span) []Action {
 	}
 	return out
 }
+
+// groupRewrites offers to make the or or and group gi of record i's
+// block absolute, as written or as its mirror image, and to mark its
+// centres the other way (relative for racemic, racemic for relative).
+func (r *Result) groupRewrites(i, gi int, add func(kind, title string, t transform.Transform, err error)) {
+	rec := &r.Records[i]
+	m, an := rec.Mol, rec.Stereo
+	sg := &m.Extension.Groups[gi]
+	if sg.Kind == notation.GroupAbsolute {
+		return
+	}
+	var first *stereo.Unit
+	var atoms []int
+	for k := range an.Groups {
+		if an.Groups[k].Block != gi {
+			continue
+		}
+		for _, ui := range an.Groups[k].Units {
+			u := &an.Units[ui]
+			atoms = append(atoms, u.Centre)
+			if first == nil && u.Descriptor.Labelled() && !u.Descriptor.Pseudo() {
+				first = u
+			}
+		}
+	}
+	t, err := transform.MakeAbsolute(m, gi, -1, stereo.DescNone)
+	add(KindAbsolute, fmt.Sprintf("Make stereo group %s absolute as written: %s", sg.Label(), transformedLabels(m, t, atoms)), t, err)
+	if first != nil {
+		t, err := transform.MakeAbsolute(m, gi, first.Centre, first.Descriptor.Mirror())
+		add(KindAbsolute, fmt.Sprintf("Make stereo group %s absolute as its mirror image: %s", sg.Label(), transformedLabels(m, t, atoms)), t, err)
+	}
+	other, word, kind := notation.GroupAnd, "racemic", KindRacemic
+	if sg.Kind == notation.GroupAnd {
+		other, word, kind = notation.GroupOr, "relative (one enantiomer, unknown which)", KindRelative
+	}
+	t, err = transform.MarkGroup(m, atoms, other)
+	add(kind, fmt.Sprintf("Mark stereo group %s as %s", sg.Label(), word), t, err)
+}
+
+// markRewrites offers to put every absolute chiral centre of record i
+// into one or group (relative) or one and group (racemic).
+func (r *Result) markRewrites(i int, add func(kind, title string, t transform.Transform, err error)) {
+	rec := &r.Records[i]
+	var atoms []int
+	for _, u := range rec.Stereo.Units {
+		if u.GroupKind == notation.GroupAbsolute && u.Group < 0 {
+			atoms = append(atoms, u.Centre)
+		}
+	}
+	if len(atoms) == 0 {
+		return
+	}
+	names := make([]string, len(atoms))
+	for k, a := range atoms {
+		names[k] = AtomName(rec.Mol, a)
+	}
+	list := strings.Join(names, ", ")
+	t, err := transform.MarkGroup(rec.Mol, atoms, notation.GroupOr)
+	add(KindRelative, fmt.Sprintf("Mark %s as relative configuration (an or group)", list), t, err)
+	t, err = transform.MarkGroup(rec.Mol, atoms, notation.GroupAnd)
+	add(KindRacemic, fmt.Sprintf("Mark %s as racemic (an and group)", list), t, err)
+}
+
+// transformedLabels writes the labels of the centres at atoms after a
+// rewrite: "(2R,4S)"; "" when the rewrite failed.
+func transformedLabels(m *notation.Molecule, t transform.Transform, atoms []int) string {
+	text, err := notation.ApplyEdits(m.Text, t.Edits)
+	if err != nil {
+		return ""
+	}
+	an := stereo.Analyze(notation.ReadWith(text, m.Reading))
+	want := make(map[int]bool, len(atoms))
+	for _, a := range atoms {
+		want[a] = true
+	}
+	var parts []string
+	for _, u := range an.Units {
+		if u.Centre >= 0 && u.Kind != stereo.KindDoubleBond && want[u.Centre] && u.Descriptor.Labelled() {
+			parts = append(parts, fmt.Sprintf("%d%s", u.Centre+1, u.Descriptor))
+		}
+	}
+	return "(" + strings.Join(parts, ",") + ")"
+}
+
+// starred writes a descriptor in a group's frame: R* in an or group, RS
+// in an and group.
+func starred(d stereo.Descriptor, k notation.GroupKind) string {
+	u := stereo.Unit{Relative: d, GroupKind: k}
+	return u.GroupLabel()
+}
+
+// starredMirror is the unit's label in its group's frame, inverted.
+func starredMirror(u *stereo.Unit) string { return starred(u.Relative.Mirror(), u.GroupKind) }
 
 // unitAt returns the unit whose atom, double bond or mark holds notation
 // offset n.

@@ -41,8 +41,18 @@ type Identity struct {
 	// between structures, stereoisomers included; a meso form and its
 	// mirror image share it. MirrorKey is the Key of the mirror image.
 	// ConstitutionKey ignores every stereo mark.
+	//
+	// A record with or and and stereo groups stands for a set of
+	// stereoisomers (groups.go): its Key is then the same for every record
+	// that stands for the same set in the same way, and MirrorKey is the
+	// Key of the mirror-image set (the same for a racemate). Chirality is
+	// always that of the structure as written.
 	Key, MirrorKey, ConstitutionKey string
 	Chirality                       Chirality
+	// Set says what the record stands for: one stereoisomer, or, by its
+	// groups, one of several or a mixture.
+	Set SetKind
+	set *groupSet // the stereoisomers, when Set is not OneStereoisomer
 
 	// units are the units in the key, each with its parity expressed on
 	// the constitution-only canonical order, for naming the units in
@@ -71,7 +81,11 @@ func Identify(m *notation.Molecule) Identity {
 		return Identity{} // no structure: no key, related to nothing
 	}
 	g := newKeyGraph(m)
-	return identifyGraph(g, g.units)
+	id := identifyGraph(g, g.units)
+	if groups, and := keyGroups(m, g.units); len(groups) > 0 {
+		id = identifyGroups(g, groups, and, id)
+	}
+	return id
 }
 
 // identifyGraph computes an Identity from a key graph and a set of unit

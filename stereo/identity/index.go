@@ -12,13 +12,25 @@ package identity
 type Index struct {
 	byKey          map[string]int // first record with each key
 	byConstitution map[string]int // first record with each constitution
-	units          [][]identityUnit
-	n              int
+	// Records with stereo groups (groups.go): the first that stands for
+	// a set holding each stereoisomer, and the first with each set.
+	byMember map[string]int
+	byUnion  map[string]int
+	grouped  map[int]groupedRecord // the records with sets, by index
+	units    [][]identityUnit
+	n        int
+}
+
+// groupedRecord is what the index keeps of a record with a set.
+type groupedRecord struct {
+	kind SetKind
+	pair bool
 }
 
 // NewIndex returns an empty index.
 func NewIndex() *Index {
-	return &Index{byKey: map[string]int{}, byConstitution: map[string]int{}}
+	return &Index{byKey: map[string]int{}, byConstitution: map[string]int{}, byMember: map[string]int{}, byUnion: map[string]int{},
+		grouped: map[int]groupedRecord{}}
 }
 
 // Match is what Add finds for a new record.
@@ -35,11 +47,17 @@ type Match struct {
 	// earlier record; Atoms are the new record's, OtherAtoms the earlier
 	// one's.
 	Differing []UnitDifference
+	// Single and Pair are those of Comparison for the relations of
+	// stereo groups: Single is 0 when the new record is the one
+	// stereoisomer, 1 when the earlier one is.
+	Single int
+	Pair   bool
 }
 
 // Add records id as the next record and relates it to the first earlier
-// record it matches: a duplicate before a mirror image before a
-// stereoisomer. The record gets the index Len() had before the call.
+// record it matches: a duplicate before a mirror image before a relation
+// of stereo groups (the earliest record) before a stereoisomer. The
+// record gets the index Len() had before the call.
 func (x *Index) Add(id Identity) Match {
 	i := x.n
 	x.n++
@@ -52,6 +70,8 @@ func (x *Index) Add(id Identity) Match {
 		m = Match{Relation: Identical, Earlier: j}
 	} else if j, ok := x.byKey[id.MirrorKey]; ok {
 		m = Match{Relation: Enantiomers, Earlier: j}
+	} else if sm, ok := x.setMatch(&id); ok {
+		m = sm
 	} else if j, ok := x.byConstitution[id.ConstitutionKey]; ok {
 		c := compareIdentities(id, Identity{Key: "\x00", MirrorKey: "\x00", ConstitutionKey: id.ConstitutionKey, units: x.units[j]}, nil)
 		m = Match{Relation: c.Relation, Earlier: j, Differing: c.Differing}
@@ -62,7 +82,52 @@ func (x *Index) Add(id Identity) Match {
 	if _, ok := x.byConstitution[id.ConstitutionKey]; !ok {
 		x.byConstitution[id.ConstitutionKey] = i
 	}
+	if id.set != nil {
+		x.grouped[i] = groupedRecord{kind: id.Set, pair: id.set.pair}
+		for _, k := range id.set.members {
+			if _, ok := x.byMember[k]; !ok {
+				x.byMember[k] = i
+			}
+		}
+		if _, ok := x.byUnion[id.set.union]; !ok {
+			x.byUnion[id.set.union] = i
+		}
+	}
 	return m
+}
+
+// setMatch finds the earliest earlier record that id is related to by
+// stereo groups: a set holding id's one stereoisomer, one stereoisomer
+// of id's set, or the same stereoisomers said another way.
+func (x *Index) setMatch(id *Identity) (Match, bool) {
+	if id.set == nil && len(x.grouped) == 0 {
+		return Match{}, false // no sets in the list: the common case costs nothing
+	}
+	best := Match{Earlier: -1}
+	consider := func(j int, rel Relation, single int, pair bool) {
+		if best.Earlier < 0 || j < best.Earlier {
+			best = Match{Relation: rel, Earlier: j, Single: single, Pair: pair}
+		}
+	}
+	if id.set == nil {
+		if id.Set == OneStereoisomer {
+			if j, ok := x.byMember[id.Key]; ok {
+				consider(j, memberRelation(x.grouped[j].kind), 0, x.grouped[j].pair)
+			}
+		}
+	} else {
+		for _, k := range id.set.members {
+			if j, ok := x.byKey[k]; ok {
+				if _, grouped := x.grouped[j]; !grouped {
+					consider(j, memberRelation(id.Set), 1, id.set.pair)
+				}
+			}
+		}
+		if j, ok := x.byUnion[id.set.union]; ok {
+			consider(j, RelativeAndMixture, 0, id.set.pair)
+		}
+	}
+	return best, best.Earlier >= 0
 }
 
 // Len returns the number of records added.

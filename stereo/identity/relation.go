@@ -15,16 +15,30 @@ type Relation uint8
 // Relations, from closest to farthest. Unspecified is a pair with the
 // same constitution whose configurations differ only where one of them
 // leaves a unit unmarked: they may be the same compound.
+//
+// Three relations come from stereo groups (groups.go), between a record
+// that stands for one stereoisomer and one that stands for several, or
+// two that stand for the same several in different ways:
+// AbsoluteOfRelative (the one stereoisomer is one the other, relative
+// record may be: the same relative configuration, one absolute and one
+// relative), AbsoluteOfMixture (it is one of the stereoisomers the other
+// mixes: the enantiomer of a racemate), RelativeAndMixture (the same
+// stereoisomers, one record saying one of them, unknown which, the other
+// their mixture).
 const (
 	Identical Relation = iota
 	Enantiomers
+	AbsoluteOfRelative
+	AbsoluteOfMixture
+	RelativeAndMixture
 	Diastereomers
 	Unspecified
 	ConstitutionalIsomers
 	Different
 )
 
-var relationNames = [...]string{"identical", "enantiomers", "diastereomers", "unspecified", "constitutional-isomers", "different"}
+var relationNames = [...]string{"identical", "enantiomers", "absolute-of-relative", "absolute-of-mixture", "relative-and-mixture",
+	"diastereomers", "unspecified", "constitutional-isomers", "different"}
 
 func (r Relation) String() string {
 	if int(r) < len(relationNames) {
@@ -49,6 +63,13 @@ type UnitDifference struct {
 type Comparison struct {
 	Relation  Relation
 	Differing []UnitDifference
+	// Single says, for AbsoluteOfRelative and AbsoluteOfMixture, which
+	// structure is the one stereoisomer: 0 the first, 1 the second. Pair
+	// says that the other stands for two enantiomers (a racemate, or
+	// one enantiomer with the relative configuration written), for
+	// those two and RelativeAndMixture.
+	Single int
+	Pair   bool
 }
 
 // Compare relates two structures: the same, mirror images, stereoisomers
@@ -75,6 +96,9 @@ func compareIdentities(a, b Identity, sameFormula func() bool) Comparison {
 	case a.Key == b.MirrorKey:
 		return Comparison{Relation: Enantiomers}
 	}
+	if c, ok := setRelation(&a, &b); ok {
+		return c
+	}
 	diff := unitDifferences(a.units, b.units)
 	rel := Diastereomers
 	if len(diff) > 0 {
@@ -87,6 +111,29 @@ func compareIdentities(a, b Identity, sameFormula func() bool) Comparison {
 		}
 	}
 	return Comparison{Relation: rel, Differing: diff}
+}
+
+// setRelation relates two identities of one constitution by the sets of
+// stereoisomers their stereo groups make them stand for.
+func setRelation(a, b *Identity) (Comparison, bool) {
+	switch {
+	case a.Set == OneStereoisomer && b.set != nil && b.set.contains(a.Key):
+		return Comparison{Relation: memberRelation(b.Set), Single: 0, Pair: b.set.pair}, true
+	case b.Set == OneStereoisomer && a.set != nil && a.set.contains(b.Key):
+		return Comparison{Relation: memberRelation(a.Set), Single: 1, Pair: a.set.pair}, true
+	case a.set != nil && b.set != nil && a.set.union == b.set.union:
+		return Comparison{Relation: RelativeAndMixture, Pair: a.set.pair}, true
+	}
+	return Comparison{}, false
+}
+
+// memberRelation is the relation of one stereoisomer to a set of kind k
+// that holds it.
+func memberRelation(k SetKind) Relation {
+	if k == OneOf {
+		return AbsoluteOfRelative
+	}
+	return AbsoluteOfMixture
 }
 
 // unitDifferences lines up the units of two structures of one

@@ -17,6 +17,10 @@ const (
 	StereoAdded
 	// StereoRemoved: units the earlier version fixed are now open.
 	StereoRemoved
+	// GroupsChanged: the same stereoisomers said otherwise by CXSMILES
+	// stereo groups: an absolute record now one of a relative or racemic
+	// set (or the reverse), a relative one now racemic (or the reverse).
+	GroupsChanged
 	// BondFlipped: the configuration of double bonds changed (E/Z), and
 	// nothing else.
 	BondFlipped
@@ -41,6 +45,7 @@ var classNames = [...]string{
 	Rewritten:           "rewritten",
 	StereoAdded:         "stereo-added",
 	StereoRemoved:       "stereo-removed",
+	GroupsChanged:       "groups-changed",
 	BondFlipped:         "bond-flipped",
 	Epimer:              "epimer",
 	Diastereomer:        "diastereomer",

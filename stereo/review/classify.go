@@ -129,6 +129,11 @@ func compareStructures(om, nm *notation.Molecule, oan, nan *stereo.Analysis, oOf
 		return out
 	case identity.Enantiomers:
 		out.class = Enantiomer
+	case identity.AbsoluteOfRelative, identity.AbsoluteOfMixture, identity.RelativeAndMixture:
+		// the stereo groups say otherwise what is known of the same
+		// stereoisomers; the explanation's note names the groups
+		out.class = GroupsChanged
+		return out
 	}
 	inverted, bonds, added, removed := 0, 0, 0, 0
 	changed := map[int]bool{} // new centres that changed

@@ -63,6 +63,8 @@ func unitsSentence(p *Pair, class Class, role notation.Role, other int, oldFormu
 	switch class {
 	case Rewritten:
 		return "the same compound with the same configuration, written differently"
+	case GroupsChanged:
+		return "the same stereoisomers, but the stereo groups now say otherwise what is known of them (absolute, relative or racemic)"
 	case ConstitutionChanged:
 		switch {
 		case oldFormula == "" || formula == "":

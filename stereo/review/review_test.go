@@ -98,8 +98,26 @@ func TestClassNames(t *testing.T) {
 		}
 		seen[s] = true
 	}
-	if len(seen) != 11 {
+	if len(seen) != 12 {
 		t.Errorf("%d classes", len(seen))
+	}
+}
+
+// TestGroupChanges: records with CXSMILES stereo groups. A racemate
+// written from the other enantiomer is the same racemate; an absolute
+// record made racemic, or a relative one made absolute, is the same
+// stereoisomers said otherwise (stereo/identity/groups.go).
+func TestGroupChanges(t *testing.T) {
+	got := pairsOf(t, "blocks.cxsmi",
+		"C[C@H](O)CC |&1:1| A\nC[C@@H](O)CC B\nC[C@H](O)[C@@H](C)Cl |o1:1,3| C\n",
+		"C[C@@H](O)CC |&1:1| A\nC[C@@H](O)CC |&1:1| B\nC[C@H](O)[C@@H](C)Cl C\n")
+	want := []string{
+		"rewritten C[C@H](O)CC |&1:1|->C[C@@H](O)CC |&1:1|",
+		"groups-changed C[C@@H](O)CC->C[C@@H](O)CC |&1:1|",
+		"groups-changed C[C@H](O)[C@@H](C)Cl |o1:1,3|->C[C@H](O)[C@@H](C)Cl",
+	}
+	if strings.Join(got, "\n") != strings.Join(want, "\n") {
+		t.Errorf("got %q\nwant %q", got, want)
 	}
 }
 

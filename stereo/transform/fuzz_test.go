@@ -17,7 +17,9 @@ func FuzzIdentityAndTransforms(f *testing.F) {
 	for _, s := range []string{"N[C@@H](C)C(=O)O", "F/C=C/F", "C/C=C/C=C/C", "CC=[C@]=CC", "C[C@H]1CC[C@@H](C)CC1",
 		"[CH3:1][C@@H:2]([Br:3])[CH2:4][CH3:5].[OH-:6]>>[CH3:1][C@H:2]([OH:6])[CH2:4][CH3:5].[Br-:3]", "c1ccccc1", "C1=CC=CC=C1",
 		"F/C=C/1.Cl1", "[C@@]", "C(/F)=C/=C", "[H][C@@]([H])(F)Cl", "S[As@TB1](F)(Cl)(Br)N", "C1CC/C=C/CC1",
-		"[S@](=O)(C)c1ccccc1", "C/1=C/CCCCCCCC/1", "C[N@]1[N@](C)[N@@]1C", "C1[N@@]2C[N@@]3C[N@]1C[N@H+](C2)C3"} {
+		"[S@](=O)(C)c1ccccc1", "C/1=C/CCCCCCCC/1", "C[N@]1[N@](C)[N@@]1C", "C1[N@@]2C[N@@]3C[N@]1C[N@H+](C2)C3",
+		"C[C@H](O)[C@@H](C)Cl |o1:1,3|", "C[C@H](O)CC |&1:1,a:3|", "C[C@H](O)CC.C[C@H](N)CC |o1:1,6,&1:3|",
+		"O[C@H]1CCCC[C@H]1O |o1:1,6|", "C[C@H](O)[C@@H](C)Cl |o1:1,o1:3,$;;;x$|"} {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
@@ -65,6 +67,30 @@ func FuzzIdentityAndTransforms(f *testing.F) {
 		}
 		Clean(m)
 		CompleteOneSided(m)
+		// the rewrites of stereo groups
+		identity.GroupFindings(m)
+		var groupOps []func() (Transform, error)
+		if m.Extension != nil {
+			for gi := range m.Extension.Groups {
+				if gi >= 4 {
+					break
+				}
+				groupOps = append(groupOps,
+					func() (Transform, error) { return MakeAbsolute(m, gi, -1, stereo.DescNone) },
+					func() (Transform, error) { return MakeAbsolute(m, gi, 1, stereo.DescR) },
+					func() (Transform, error) { return SplitGroup(m, gi) })
+			}
+		}
+		groupOps = append(groupOps,
+			func() (Transform, error) { return MarkGroup(m, nil, notation.GroupOr) },
+			func() (Transform, error) { return MarkGroup(m, []int{1}, notation.GroupAnd) })
+		for _, fn := range groupOps {
+			if tr, err := fn(); err == nil {
+				if _, err := notation.ApplyEdits(s, tr.Edits); err != nil {
+					t.Fatalf("group edits on %q do not apply: %v", s, err)
+				}
+			}
+		}
 		// the portable rewrite, under every reading: when it is made,
 		// it reads under every reading as the record under its own
 		// (Portable checks that itself and refuses otherwise)

@@ -38,15 +38,28 @@ func transformError(sp notation.Span, code notation.Code, format string, args ..
 // and the opposite winding (notation.MirrorPermutation), square-planar
 // marks (a planar arrangement is its own mirror image) and double bonds
 // kept.
+//
+// Marks in or and and stereo groups are left alone: such a group stands
+// for both configurations of its centres already, so the mirror image of
+// the record inverts only the absolute ones, and a record whose every
+// chiral mark sits in such groups is its own mirror image (said in a
+// note, with no edits).
 func Mirror(m *notation.Molecule) (Transform, error) {
 	var t Transform
 	if m == nil {
 		return t, nil
 	}
+	grouped := groupedMarks(m)
+	kept, inverted := 0, 0
 	for a := range m.Atoms {
 		ch := m.Atoms[a].Chirality
 		switch ch.Class {
 		case notation.ChiralTH, notation.ChiralAL:
+			if grouped[a] {
+				kept++
+				continue
+			}
+			inverted++
 			e, err := notation.InvertChirality(m, a)
 			if err != nil {
 				return Transform{}, err
@@ -63,7 +76,15 @@ func Mirror(m *notation.Molecule) (Transform, error) {
 				return Transform{}, err
 			}
 			t.Edits = append(t.Edits, e...)
+			inverted++
 		}
+	}
+	if kept > 0 {
+		if inverted == 0 {
+			t.Notes = append(t.Notes, "every stereocentre sits in an or or and stereo group, which stands for both mirror images already: the mirror image is the same record")
+			return t, nil
+		}
+		t.Notes = append(t.Notes, "the centres of or and and stereo groups keep their marks: each group stands for both of their configurations already")
 	}
 	switch id := identity.Identify(m); id.Chirality {
 	case identity.Meso:
@@ -116,6 +137,9 @@ func Invert(m *notation.Molecule, a int) (Transform, error) {
 	}
 	if u.Kind != stereo.KindTetrahedral && u.Kind != stereo.KindAllene {
 		return Transform{}, transformError(atomSpan(m, a), CodeNoUnit, "atom %d: a %s mark cannot be inverted", a+1, u.Kind)
+	}
+	if g := groupOf(an, u); g != nil && g.Kind != notation.GroupAbsolute {
+		return invertInGroup(m, an, u, g)
 	}
 	e, err := notation.InvertChirality(m, u.Centre)
 	if err != nil {
@@ -190,6 +214,9 @@ func SetDescriptor(m *notation.Molecule, a int, d stereo.Descriptor) (Transform,
 	want := map[stereo.Kind][2]stereo.Descriptor{stereo.KindTetrahedral: {stereo.DescR, stereo.DescS}, stereo.KindAllene: {stereo.DescM, stereo.DescP}, stereo.KindDoubleBond: {stereo.DescE, stereo.DescZ}}[u.Kind]
 	if d != want[0] && d != want[1] || want[0] == stereo.DescNone {
 		return Transform{}, transformError(atomSpan(m, a), CodeBadDescriptor, "a %s unit takes %s or %s, not %s", u.Kind, want[0], want[1], d)
+	}
+	if g := groupOf(an, u); g != nil && g.Kind != notation.GroupAbsolute && u.Specified && u.Descriptor.Labelled() && !u.Descriptor.Pseudo() {
+		return setInGroup(m, an, u, g, d)
 	}
 	if u.Specified {
 		switch {

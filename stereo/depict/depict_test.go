@@ -22,13 +22,7 @@ var update = flag.Bool("update", false, "rewrite golden files")
 // knownMisdrawn are fixture molecules whose drawing does not yet show
 // their written stereo, with the reason. An entry that starts to pass
 // fails the test, so the list only shrinks.
-var knownMisdrawn = map[string]string{
-	// VS293: a bridged macrocycle (three Z double bonds in a 12-ring
-	// system spanned by a one-atom bridge); the ring layout places the
-	// bridge first and draws the macrocycle's bonds as arcs, which cannot
-	// bend at a double bond.
-	`C\1C/C/2=C/CC/C/3=C/CC/C(=C1)/C[C@@H](C2)C3`: "double bonds of a bridged macrocycle drawn as arcs",
-}
+var knownMisdrawn = map[string]string{}
 
 // TestDrawingMeaning draws every molecule of the stereo fixtures and
 // reads the molfile back with the wedge convention (read_test.go): each

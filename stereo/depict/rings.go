@@ -17,14 +17,36 @@ import (
 // side that overlaps least.
 
 // layoutSystem returns positions indexed by atom for the atoms of
-// system s.
+// system s. Bridged systems are drawn around a perimeter (bridged.go);
+// so is a system whose ring-by-ring drawing has crossing bonds, when
+// that scores better.
 func (l *layout) layoutSystem(s int) []Point {
 	sys := &l.systems[s]
+	if isBridged(sys.rings) {
+		if pos, ok := l.layoutCage(s); ok {
+			return pos
+		}
+	}
 	pos := make([]Point, l.n)
 	done := make([]bool, l.n)
 	rings := l.cycles(sys)
 	first := l.firstRing(rings)
 	l.polygon(first, pos, done)
+	l.fillRings(rings, pos, done)
+	l.placeLeftovers(sys, pos, done)
+	if l.peripheral(sys) && l.systemFlawed(sys, pos) {
+		if alt, ok := l.layoutCage(s); ok && l.systemScore(sys, alt) < l.systemScore(sys, pos) {
+			return alt
+		}
+	}
+	return pos
+}
+
+// fillRings places, ring by ring, the rings with atoms not yet done:
+// each time the ring with most atoms done, a spiro ring as a polygon on
+// the free side of its shared atom, the unplaced runs of any other ring
+// as arcs.
+func (l *layout) fillRings(rings []notation.Ring, pos []Point, done []bool) {
 	placedRing := make([]bool, len(rings))
 	for step := 0; step < len(rings); step++ {
 		best, bestShared := -1, 0
@@ -57,14 +79,64 @@ func (l *layout) layoutSystem(s int) []Point {
 			l.fillRuns(r, pos, done)
 		}
 	}
-	// atoms no ring placed (an approximate ring search): on a circle
+}
+
+// placeLeftovers puts atoms no ring placed (an approximate ring search)
+// on a circle.
+func (l *layout) placeLeftovers(sys *ringSystem, pos []Point, done []bool) {
 	for i, a := range sys.atoms {
 		if !done[a] {
 			pos[a] = polar(3+float64(i)*0.1, float64(i))
 			done[a] = true
 		}
 	}
-	return pos
+}
+
+// peripheral reports a system with an atom in three or more of its
+// smallest rings (a cage such as cubane, or a peri-fused system).
+func (l *layout) peripheral(sys *ringSystem) bool {
+	if len(sys.atoms) > maxCageAtoms {
+		return false
+	}
+	count := map[int]int{}
+	for _, r := range sys.rings {
+		for _, a := range r.Atoms {
+			count[a]++
+			if count[a] >= 3 {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// systemFlawed reports two bonds of the system that cross or an atom
+// that sits on a bond.
+func (l *layout) systemFlawed(sys *ringSystem, pos []Point) bool {
+	var bonds [][2]int
+	for _, a := range sys.atoms {
+		for _, y := range l.nbr[a] {
+			if a < y && l.sysOf[y] == l.sysOf[a] {
+				bonds = append(bonds, [2]int{a, y})
+			}
+		}
+	}
+	for i, p := range bonds {
+		for _, q := range bonds[i+1:] {
+			if p[0] == q[0] || p[0] == q[1] || p[1] == q[0] || p[1] == q[1] {
+				continue
+			}
+			if segmentsCross(pos[p[0]], pos[p[1]], pos[q[0]], pos[q[1]]) {
+				return true
+			}
+		}
+		for _, a := range sys.atoms {
+			if a != p[0] && a != p[1] && segmentDist(pos[a], pos[p[0]], pos[p[1]]) < 0.35 {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // ringKey orders rings canonically: by the ranks of their atoms.

@@ -452,7 +452,7 @@ func (l *layout) layoutCage(s int) ([]Point, bool) {
 	var best []Point
 	bestScore := math.Inf(1)
 	for k, p := range cands {
-		if k == maxCageCandidates {
+		if k == maxCageCandidates || bestScore < tidyScore {
 			break
 		}
 		pos := l.drawCage(s, c, p, rings)
@@ -463,11 +463,28 @@ func (l *layout) layoutCage(s int) ([]Point, bool) {
 	// the fused drawing relaxed: polygons ring by ring from the ring of
 	// most fusions, the bridges as arcs; it wins for systems that are
 	// mostly fused (morphinan)
-	pos := l.drawFusedRelaxed(s, rings)
-	if sc := l.systemScore(sys, pos); sc < bestScore-1e-9 {
-		best = pos
+	if bestScore >= tidyScore && hasFusion(rings) {
+		pos := l.drawFusedRelaxed(s, rings)
+		if sc := l.systemScore(sys, pos); sc < bestScore-1e-9 {
+			best = pos
+		}
 	}
 	return best, true
+}
+
+// tidyScore is a system score with nothing to gain by trying on.
+const tidyScore = 0.5
+
+// hasFusion reports two rings that share exactly one bond.
+func hasFusion(rings []notation.Ring) bool {
+	for i := range rings {
+		for j := i + 1; j < len(rings); j++ {
+			if sharedCount(rings[i], rings[j]) == 2 {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // drawFusedRelaxed draws a system ring by ring as if it were fused, from
@@ -552,19 +569,15 @@ func (l *layout) drawCage(s int, c *cage, p perimeter, rings []notation.Ring) []
 			break
 		}
 	}
-	core := make([]int, 0, len(cyc)+len(p.inner))
-	core = append(core, cyc...)
 	innerAtoms := make([]int, 0, len(p.inner))
 	for _, x := range p.inner {
 		a := c.atoms[x]
-		core = append(core, a)
 		innerAtoms = append(innerAtoms, a)
 		done[a] = true
 	}
-	slices.SortFunc(core, func(a, b int) int { return l.rank[a] - l.rank[b] })
-	l.relax(core, innerAtoms, pos)
 	l.fillRings(rings, pos, done)
 	l.placeLeftovers(sys, pos, done)
+	l.relax(sys.atoms, innerAtoms, pos)
 	return pos
 }
 
@@ -603,7 +616,7 @@ func (l *layout) systemScore(sys *ringSystem, pos []Point) float64 {
 	var bonds [][2]int
 	for _, a := range atoms {
 		for _, y := range l.nbr[a] {
-			if in[y] && a < y {
+			if in[y] && l.rank[a] < l.rank[y] {
 				bonds = append(bonds, [2]int{a, y})
 			}
 		}

@@ -143,6 +143,9 @@ func (r *relaxer) run() {
 		}
 		copy(r.pos, next)
 		if e1 := r.energy(false); e1 < e-1e-9 && r.crossings() <= cross && r.sidesKept() {
+			if e-e1 < 1e-4*e+1e-7 {
+				break // no more to gain
+			}
 			e = r.energy(true)
 			eta = min(eta*1.3, 1)
 			continue
@@ -194,10 +197,11 @@ func (r *relaxer) energy(grad bool) float64 {
 	e := 0.0
 	for _, p := range r.pairs {
 		v := r.pos[p.i].sub(r.pos[p.j])
-		d := v.norm()
-		if !p.bond && d >= p.target {
+		d2 := v.X*v.X + v.Y*v.Y
+		if !p.bond && d2 >= p.target*p.target {
 			continue
 		}
+		d := math.Sqrt(d2)
 		if d < 1e-9 {
 			v, d = Point{1e-3, 0}, 1e-3
 		}
@@ -213,16 +217,19 @@ func (r *relaxer) energy(grad bool) float64 {
 		pa, pb := r.pos[b[0]], r.pos[b[1]]
 		ab := pb.sub(pa)
 		n := max(ab.dot(ab), 1e-12)
+		lo := Point{min(pa.X, pb.X) - bondGap, min(pa.Y, pb.Y) - bondGap}
+		hi := Point{max(pa.X, pb.X) + bondGap, max(pa.Y, pb.Y) + bondGap}
 		for k, p := range r.pos {
-			if k == b[0] || k == b[1] {
+			if p.X < lo.X || p.X > hi.X || p.Y < lo.Y || p.Y > hi.Y || k == b[0] || k == b[1] {
 				continue
 			}
 			t := min(1, max(0, p.sub(pa).dot(ab)/n))
 			v := p.sub(pa.add(ab.scale(t)))
-			d := v.norm()
-			if d >= bondGap || d < 1e-9 {
+			d2 := v.X*v.X + v.Y*v.Y
+			if d2 >= bondGap*bondGap || d2 < 1e-18 {
 				continue
 			}
+			d := math.Sqrt(d2)
 			e += 2 * (bondGap - d) * (bondGap - d)
 			if grad {
 				g := v.scale(-4 * (bondGap - d) / d)

@@ -74,7 +74,7 @@ func (l *layout) fillRings(rings []notation.Ring, pos []Point, done []bool) {
 		placedRing[best] = true
 		r := rings[best]
 		if bestShared == 1 {
-			l.spiro(r, pos, done)
+			l.spiro(r, rings, pos, done)
 		} else {
 			l.fillRuns(r, pos, done)
 		}
@@ -337,9 +337,11 @@ func (l *layout) polygon(cycle []int, pos []Point, done []bool) {
 	l.bendTrans(cycle, pos)
 }
 
-// spiro places ring r, which shares one placed atom, as a polygon on the
-// free side of that atom.
-func (l *layout) spiro(r notation.Ring, pos []Point, done []bool) {
+// spiro places ring r, which shares one placed atom, as a polygon on
+// the free side of that atom. Where three or more rings of the system
+// meet at the atom (a metal with its chelate rings), the rings stand
+// evenly around it, a turn divided by their number apart.
+func (l *layout) spiro(r notation.Ring, rings []notation.Ring, pos []Point, done []bool) {
 	n := len(r.Atoms)
 	k := 0
 	for i, a := range r.Atoms {
@@ -358,6 +360,9 @@ func (l *layout) spiro(r notation.Ring, pos []Point, done []bool) {
 		away = Point{1, 0}
 	}
 	away = away.unit()
+	if dirs := l.spiroDirections(s, rings, pos, done); len(dirs) > 0 {
+		away = polar(1, l.freeSpiroDirection(s, dirs, pos, done))
+	}
 	rad := 1 / (2 * math.Sin(math.Pi/float64(n)))
 	centre := pos[s].add(away.scale(rad))
 	base := pos[s].sub(centre).angle()
@@ -381,6 +386,74 @@ func (l *layout) spiro(r notation.Ring, pos []Point, done []bool) {
 			done[a] = true
 		}
 	}
+}
+
+// spiroDirections returns, for an atom where three or more rings of
+// the system meet, the directions a ring's centre may take from it:
+// evenly spread from the first ring placed there, less those taken.
+func (l *layout) spiroDirections(s int, rings []notation.Ring, pos []Point, done []bool) []float64 {
+	total := 0
+	var taken []float64
+	first := -1
+	for ri, q := range rings {
+		if !slices.Contains(q.Atoms, s) {
+			continue
+		}
+		total++
+		all := true
+		var c Point
+		for _, a := range q.Atoms {
+			all = all && done[a]
+			c = c.add(pos[a])
+		}
+		if !all {
+			continue
+		}
+		d := c.scale(1 / float64(len(q.Atoms))).sub(pos[s]).angle()
+		taken = append(taken, d)
+		if first < 0 || l.ringOrder(q, rings[first]) < 0 {
+			first = ri
+			taken[0], taken[len(taken)-1] = taken[len(taken)-1], taken[0]
+		}
+	}
+	if total < 3 || len(taken) == 0 {
+		return nil
+	}
+	var out []float64
+	for i := 1; i < total; i++ {
+		d := taken[0] + 2*math.Pi*float64(i)/float64(total)
+		free := true
+		for _, t := range taken {
+			if angleDiff(d, t) < 0.5 {
+				free = false
+			}
+		}
+		if free {
+			out = append(out, d)
+		}
+	}
+	return out
+}
+
+// freeSpiroDirection picks, of the directions, the one whose ring
+// would come least close to atoms placed.
+func (l *layout) freeSpiroDirection(s int, dirs []float64, pos []Point, done []bool) float64 {
+	best, bestPen := dirs[0], math.Inf(1)
+	for _, d := range dirs {
+		p := pos[s].add(polar(1.2, d))
+		pen := 0.0
+		for a := range pos {
+			if done[a] && a != s {
+				if dd := p.dist(pos[a]); dd < 1.5 {
+					pen += 1.5 - dd
+				}
+			}
+		}
+		if pen < bestPen-1e-9 {
+			best, bestPen = d, pen
+		}
+	}
+	return best
 }
 
 // penalty measures how close new points come to placed atoms.

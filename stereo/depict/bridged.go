@@ -462,8 +462,9 @@ func (l *layout) layoutCage(s int) ([]Point, bool) {
 	}
 	// the fused drawing relaxed: polygons ring by ring from the ring of
 	// most fusions, the bridges as arcs; it wins for systems that are
-	// mostly fused (morphinan)
-	if bestScore >= tidyScore && hasFusion(rings) {
+	// mostly fused (morphinan) and for large rings that share a short
+	// bridge, which it draws as two rings side by side
+	if bestScore >= tidyScore && (hasFusion(rings) || bestScore > 10) {
 		pos := l.drawFusedRelaxed(s, rings)
 		if sc := l.systemScore(sys, pos); sc < bestScore-1e-9 {
 			best = pos
@@ -575,10 +576,89 @@ func (l *layout) drawCage(s int, c *cage, p perimeter, rings []notation.Ring) []
 		innerAtoms = append(innerAtoms, a)
 		done[a] = true
 	}
+	l.bowChains(c, p.inner, pos)
 	l.fillRings(rings, pos, done)
 	l.placeLeftovers(sys, pos, done)
 	l.relax(sys.atoms, innerAtoms, pos)
 	return pos
+}
+
+// bowChains bends each chain of inner atoms (atoms of two bonds in a
+// row), which the mean of neighbours lays on a straight line, into a bow
+// to one side, so every atom shows as a corner and a bridge of two or
+// more atoms reads as one arc, on the side with more room (of equal
+// sides, the left of the line from the chain's canonically first end).
+func (l *layout) bowChains(c *cage, inner []int, pos []Point) {
+	isInner := make([]bool, len(c.atoms))
+	for _, x := range inner {
+		isInner[x] = true
+	}
+	chainAtom := func(x int) bool { return isInner[x] && len(c.adj[x]) == 2 && !l.linear[c.atoms[x]] }
+	seen := make([]bool, len(c.atoms))
+	for _, x := range inner {
+		if seen[x] || !chainAtom(x) {
+			continue
+		}
+		// walk to both ends of the chain through x
+		chain := []int{x}
+		seen[x] = true
+		var ends [2]int
+		for side, next := range c.adj[x] {
+			prev, cur := x, next
+			for chainAtom(cur) && !seen[cur] {
+				seen[cur] = true
+				if side == 0 {
+					chain = append([]int{cur}, chain...)
+				} else {
+					chain = append(chain, cur)
+				}
+				nxt := c.adj[cur][0]
+				if nxt == prev {
+					nxt = c.adj[cur][1]
+				}
+				prev, cur = cur, nxt
+			}
+			ends[side] = cur
+		}
+		if ends[0] == ends[1] {
+			continue
+		}
+		if l.rank[c.atoms[ends[0]]] > l.rank[c.atoms[ends[1]]] {
+			ends[0], ends[1] = ends[1], ends[0]
+			slices.Reverse(chain)
+		}
+		pa, pb := pos[c.atoms[ends[0]]], pos[c.atoms[ends[1]]]
+		left := pb.sub(pa).unit().perp()
+		k := len(chain)
+		bowed := func(sgn float64) []Point {
+			out := make([]Point, k)
+			for i, y := range chain {
+				t := float64(i+1) / float64(k+1)
+				out[i] = pos[c.atoms[y]].add(left.scale(sgn * bendHeight * math.Sin(math.Pi*t)))
+			}
+			return out
+		}
+		// the side with more room
+		room := func(pts []Point) float64 {
+			r := math.Inf(1)
+			for z := range c.atoms {
+				if z == ends[0] || z == ends[1] || slices.Contains(chain, z) {
+					continue
+				}
+				for _, q := range pts {
+					r = min(r, q.dist(pos[c.atoms[z]]))
+				}
+			}
+			return r
+		}
+		pts := bowed(1)
+		if right := bowed(-1); room(right) > room(pts)+1e-6 {
+			pts = right
+		}
+		for i, y := range chain {
+			pos[c.atoms[y]] = pts[i]
+		}
+	}
 }
 
 // canonicalCycle rotates and turns a cycle so it starts at its

@@ -17,6 +17,7 @@ const (
 	apart      = 0.85 // the room kept between atoms three or more bonds apart
 	bondGap    = 0.5  // the room kept between an atom and a bond it is not on
 	bendHeight = 0.35 // an inner corner's height over its neighbours' middle: about 140 degrees
+	bendWeight = 4
 	relaxSteps = 150
 )
 
@@ -252,9 +253,9 @@ func (r *relaxer) energy(grad bool) float64 {
 			// neighbours
 			v, h = r.pos[t[2]].sub(r.pos[t[1]]).perp().unit().scale(1e-6), 1e-6
 		}
-		e += (bendHeight - h) * (bendHeight - h)
+		e += bendWeight * (bendHeight - h) * (bendHeight - h)
 		if grad {
-			g := v.scale(-2 * (bendHeight - h) / h)
+			g := v.scale(-2 * bendWeight * (bendHeight - h) / h)
 			r.grad[t[0]] = r.grad[t[0]].add(g)
 			r.grad[t[1]] = r.grad[t[1]].sub(g.scale(0.5))
 			r.grad[t[2]] = r.grad[t[2]].sub(g.scale(0.5))

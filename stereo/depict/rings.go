@@ -560,6 +560,7 @@ func (l *layout) arc(a, b int, run []int, pos []Point, done []bool) {
 		}
 		c := pb.dist(prev)
 		pen += 0.5 * (c - 1) * (c - 1)
+		pen += 100 * float64(l.arcBreaksDoubleBonds(run, cand, pos, done))
 		far := 0.0
 		for _, p := range cand {
 			far += p.dist(centroid)
@@ -572,6 +573,42 @@ func (l *layout) arc(a, b int, run []int, pos []Point, done []bool) {
 		pos[x] = best[i]
 		done[x] = true
 	}
+}
+
+// arcBreaksDoubleBonds counts the written double bonds that placing run
+// at cand would draw the other way (or straight), among those whose ends
+// and references are then all placed.
+func (l *layout) arcBreaksDoubleBonds(run []int, cand []Point, pos []Point, done []bool) int {
+	if len(l.fixed) == 0 {
+		return 0
+	}
+	at := func(a int) (Point, bool) {
+		for i, x := range run {
+			if x == a {
+				return cand[i], true
+			}
+		}
+		return pos[a], done[a]
+	}
+	bad := 0
+	for _, w := range l.fixed {
+		var p [4]Point
+		ok, touched := true, false
+		for k, a := range []int{w.Ends[0], w.Ends[1], w.Refs[0], w.Refs[1]} {
+			q, placed := at(a)
+			ok = ok && placed
+			touched = touched || slices.Contains(run, a)
+			p[k] = q
+		}
+		if !ok || !touched {
+			continue
+		}
+		s0, s1 := side(p[2], p[0], p[1]), side(p[3], p[0], p[1])
+		if s0 == 0 || s1 == 0 || (s0 != s1) != w.Trans {
+			bad++
+		}
+	}
+	return bad
 }
 
 // arcPoints returns k points from a to b (exclusive) on an arc bulging to

@@ -4,6 +4,7 @@ import (
 	"math"
 	"math/bits"
 	"slices"
+	"time"
 
 	"stereoline/notation"
 )
@@ -452,7 +453,7 @@ func (l *layout) layoutCage(s int) ([]Point, bool) {
 	var best []Point
 	bestScore := math.Inf(1)
 	for k, p := range cands {
-		if k == maxCageCandidates || bestScore < tidyScore {
+		if k == maxCageCandidates || bestScore < tidyScore || k > 0 && time.Now().After(l.deadline) {
 			break
 		}
 		pos := l.drawCage(s, c, p, rings)
@@ -464,7 +465,7 @@ func (l *layout) layoutCage(s int) ([]Point, bool) {
 	// most fusions, the bridges as arcs; it wins for systems that are
 	// mostly fused (morphinan) and for large rings that share a short
 	// bridge, which it draws as two rings side by side
-	if bestScore >= tidyScore && (hasFusion(rings) || bestScore > 10) {
+	if bestScore >= tidyScore && (hasFusion(rings) || bestScore > 10) && !time.Now().After(l.deadline) {
 		pos := l.drawFusedRelaxed(s, rings)
 		if sc := l.systemScore(sys, pos); sc < bestScore-1e-9 {
 			best = pos

@@ -1,6 +1,9 @@
 package depict
 
-import "math"
+import (
+	"math"
+	"time"
+)
 
 // This file implements the relaxation of a bridged system's drawing
 // towards bonds of unit length: all atoms step together down the
@@ -22,15 +25,16 @@ const (
 )
 
 type relaxer struct {
-	atoms []int // molecule atoms, canonical order
-	loc   map[int]int
-	nbr   [][]int
-	bonds [][2]int
-	pairs []relaxPair
-	fixed [][5]int // local e0, e1, r0, r1 and the side product drawn
-	bend  [][3]int // inner corners (atoms of two bonds) and their neighbours
-	pos   []Point
-	grad  []Point
+	deadline time.Time
+	atoms    []int // molecule atoms, canonical order
+	loc      map[int]int
+	nbr      [][]int
+	bonds    [][2]int
+	pairs    []relaxPair
+	fixed    [][5]int // local e0, e1, r0, r1 and the side product drawn
+	bend     [][3]int // inner corners (atoms of two bonds) and their neighbours
+	pos      []Point
+	grad     []Point
 }
 
 // relaxPair is a pair of atoms with the distance the energy wants: a
@@ -45,7 +49,7 @@ type relaxPair struct {
 // of inner with two bonds, no linear atoms, are kept bent so that each
 // shows as a corner.
 func (l *layout) relax(set []int, inner []int, pos []Point) {
-	r := &relaxer{atoms: set, loc: make(map[int]int, len(set)),
+	r := &relaxer{deadline: l.deadline, atoms: set, loc: make(map[int]int, len(set)),
 		pos: make([]Point, len(set)), grad: make([]Point, len(set))}
 	for i, a := range set {
 		r.loc[a] = i
@@ -129,6 +133,9 @@ func (r *relaxer) run() {
 	next := make([]Point, len(r.pos))
 	old := make([]Point, len(r.pos))
 	for it := 0; it < relaxSteps && eta > 1e-3; it++ {
+		if it%16 == 15 && time.Now().After(r.deadline) {
+			break
+		}
 		copy(old, r.pos)
 		moved := 0.0
 		for i, g := range r.grad {

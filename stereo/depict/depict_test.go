@@ -311,7 +311,7 @@ func TestWritingsSamePicture(t *testing.T) {
 	for _, key := range order[:min(limit, len(order))] {
 		var first pictureSignature
 		for k, s := range byMol[key] {
-			sig := signatureOf(Draw(notation.Read(s), Options{}))
+			sig := signatureOf(Draw(notation.Read(s), Options{Budget: unhurried}))
 			if k == 0 {
 				first = sig
 				continue

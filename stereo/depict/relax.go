@@ -21,7 +21,7 @@ const (
 	bondGap    = 0.5  // the room kept between an atom and a bond it is not on
 	bendHeight = 0.35 // an inner corner's height over its neighbours' middle: about 140 degrees
 	bendWeight = 4
-	relaxSteps = 150
+	relaxSteps = 400
 )
 
 type relaxer struct {
@@ -151,7 +151,7 @@ func (r *relaxer) run() {
 		}
 		copy(r.pos, next)
 		if e1 := r.energy(false); e1 < e-1e-9 && r.crossings() <= cross && r.sidesKept() {
-			if e-e1 < 1e-4*e+1e-7 {
+			if e-e1 < 1e-5*e+1e-7 {
 				break // no more to gain
 			}
 			e = r.energy(true)

@@ -164,9 +164,14 @@ func TestQuickFixesResolveTheirFinding(t *testing.T) {
 	docs := []struct{ uri, lang, text string }{
 		{"file:///work/rings.py", "python", pyEscape},
 		{"file:///work/fixes.smi", "", "C[C@H](C)C isobutane, marked\nF/C=CF one end\nN[C@@H](C)C(=O)O L-alanine\n"},
+		// marks the surveyed readers read differently (testdata/survey):
+		// the portable rewrite, written through the string's escapes
+		// (the ring mark becomes '\\1' in a Python string)
+		{"file:///work/portable.py", "python", "sulfoxide = \"[S@](=O)(C)c1ccccc1\"\nring_smiles = \"C/1=C/CCCCCCCC/1\"\n"},
 	}
 	c := start(t, clientSetup{})
 	fixed := map[string]int{}
+	fixedCode := map[any]int{}
 	for _, doc := range docs {
 		u, text := doc.uri, doc.text
 		c.open(u, doc.lang, 1, text)
@@ -199,6 +204,7 @@ func TestQuickFixesResolveTheirFinding(t *testing.T) {
 					}
 				}
 				fixed[doc.lang]++
+				fixedCode[d.Code]++
 			}
 		}
 	}
@@ -206,6 +212,9 @@ func TestQuickFixesResolveTheirFinding(t *testing.T) {
 	// (The Python Language Reference, "String and Bytes literals").
 	if fixed["python"] < 2 {
 		t.Errorf("%d fixes for the host escape, want the raw string and the doubled backslash", fixed["python"])
+	}
+	if fixedCode["stereo-reader-dependent"] < 2 {
+		t.Errorf("%d portable rewrites resolved their finding, want the sulfoxide and the ring closure", fixedCode["stereo-reader-dependent"])
 	}
 	if fixed[""] == 0 {
 		t.Log("the engine offers no quick fix for stereo findings yet")

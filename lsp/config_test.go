@@ -40,6 +40,32 @@ func TestInitializationOptions(t *testing.T) {
 	}
 }
 
+// TestReadingSetting: the reading setting from the editor chooses how a
+// lone-pair centre written first is read (testdata/survey): methyl
+// phenyl sulfoxide written from its sulfur is (S) with the lone pair in
+// the hydrogen's slot, as Open Babel reads it, and (R) by default, as
+// RDKit 2022.09.3 reads it; the finding says so.
+func TestReadingSetting(t *testing.T) {
+	for _, c := range []struct {
+		opts map[string]any
+		want string
+	}{
+		{map[string]any{}, "read as (R) here"},
+		{map[string]any{"reading": map[string]any{"lonePair": "hydrogen-slot"}}, "read as (S) here"},
+	} {
+		cl := start(t, clientSetup{initOpts: map[string]any{"stereoline": c.opts}})
+		const u = "file:///work/sulfoxide.smi"
+		cl.open(u, "", 1, "[S@](=O)(C)c1ccccc1 LRK-BB-021\n")
+		found := false
+		for _, d := range cl.diagnostics(u, 1) {
+			found = found || d.Code == "stereo-reader-dependent" && strings.HasPrefix(d.Message, c.want)
+		}
+		if !found {
+			t.Errorf("settings %v: no stereo-reader-dependent finding starting %q", c.opts, c.want)
+		}
+	}
+}
+
 func TestWorkspaceConfiguration(t *testing.T) {
 	c := start(t, clientSetup{
 		caps: map[string]any{"workspace": map[string]any{

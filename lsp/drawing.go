@@ -138,6 +138,7 @@ func (s *Server) codeLenses(ctx context.Context, snap *snapshot, params json.Raw
 			Arguments: []any{string(p.TextDocument.URI), sp.Start},
 		}})
 	}
+	lenses = append(lenses, s.changeLenses(snap, f, res)...)
 	return lenses, nil
 }
 
@@ -150,6 +151,9 @@ func (s *Server) executeCommand(ctx context.Context, snap *snapshot, params json
 	}
 	if err := decode(params, &p); err != nil {
 		return nil, err
+	}
+	if p.Command == commandShowChange {
+		return s.showChange(ctx, snap, p.Arguments)
 	}
 	var uri string
 	var off int

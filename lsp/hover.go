@@ -26,6 +26,7 @@ func (s *Server) hover(ctx context.Context, snap *snapshot, params json.RawMessa
 	if !ok {
 		return nil, nil
 	}
+	md += s.hoverChange(snap, f, res, off)
 	md += s.hoverDrawing(res, off)
 	rng, err := f.mapper.SpanToRange(span)
 	if err != nil {

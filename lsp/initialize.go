@@ -71,7 +71,7 @@ func capabilities(enc PositionEncoding) serverCapabilities {
 			},
 			HoverProvider:          true,
 			CodeLensProvider:       &protocol.CodeLensOptions{},
-			ExecuteCommandProvider: &protocol.ExecuteCommandOptions{Commands: []string{commandShowDrawing}},
+			ExecuteCommandProvider: &protocol.ExecuteCommandOptions{Commands: []string{commandShowDrawing, commandShowChange}},
 			CodeActionProvider:     &protocol.CodeActionOptions{CodeActionKinds: kinds, ResolveProvider: true},
 			DocumentSymbolProvider: true,
 			// The folders decide which project files apply and which

@@ -82,17 +82,18 @@ type Server struct {
 	requests      map[string]requestFunc
 	notifications map[string]notificationFunc
 
-	mu        sync.Mutex
-	state     state
-	caps      clientCapabilities
-	drawings  drawingFolder   // files the drawing command wrote (drawing.go)
-	baseCfg   document.Config // defaults with initializationOptions applied
-	snap      *snapshot
-	changed   chan struct{} // closed and replaced at every new snapshot
-	notebooks map[string][]string
-	running   map[jsonrpc2.ID]context.CancelFunc
-	status    int
-	exited    chan struct{}
+	mu          sync.Mutex
+	state       state
+	caps        clientCapabilities
+	drawings    drawingFolder   // files the drawing command wrote (drawing.go)
+	changeCache changeCache     // base versions and reviews of the change lens (review.go)
+	baseCfg     document.Config // defaults with initializationOptions applied
+	snap        *snapshot
+	changed     chan struct{} // closed and replaced at every new snapshot
+	notebooks   map[string][]string
+	running     map[jsonrpc2.ID]context.CancelFunc
+	status      int
+	exited      chan struct{}
 
 	work     *worker
 	projects projectConfigs

@@ -190,7 +190,7 @@ func TestBondDirectionEdits(t *testing.T) {
 			if r.Errors.HasErrors() || len(r.Bonds) != len(m.Bonds) {
 				t.Fatalf("edited text %q does not read: %v", got, r.Errors)
 			}
-			if d := r.Bonds[tt.bond].DirFrom(tt.from); d != tt.dir {
+			if d := r.BondDir(tt.bond, tt.from); d != tt.dir {
 				t.Errorf("bond reads %q from atom %d, want %q", d, tt.from, tt.dir)
 			}
 			if r.Bonds[tt.bond].Order != m.Bonds[tt.bond].Order {

@@ -25,6 +25,10 @@ type Molecule struct {
 	// Extension is the CXSMILES extension block written after the
 	// notation ("C[C@H](O)CC |&1:1|"), nil when there is none.
 	Extension *Extension
+
+	// Reading is how the marks OpenSMILES leaves open are read
+	// (reading.go): set by ReadWith, the default for Read.
+	Reading Reading
 }
 
 // Role is the part of a reaction an atom was written in.
@@ -238,21 +242,6 @@ func (b *Bond) Other(a int) int {
 		return b.End
 	}
 	return b.Begin
-}
-
-// DirFrom returns the direction of the bond read from atom a towards the
-// other end, combining the marks at both ends of a ring closure (the
-// opening mark wins when both are present; conflicting marks are reported
-// by the stereo engine).
-func (b *Bond) DirFrom(a int) Direction {
-	d := b.Dir
-	if d == DirNone && b.Ring {
-		d = b.CloseDir.Reverse()
-	}
-	if a == b.Begin {
-		return d
-	}
-	return d.Reverse()
 }
 
 // Neighbour returns the i-th neighbour atom of atom a in stereo order,

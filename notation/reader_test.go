@@ -249,12 +249,13 @@ func TestChiralityAndDirections(t *testing.T) {
 		t.Fatal(m.Errors)
 	}
 	var ring *Bond
+	ri := -1
 	for i := range m.Bonds {
 		if m.Bonds[i].Ring {
-			ring = &m.Bonds[i]
+			ring, ri = &m.Bonds[i], i
 		}
 	}
-	if ring == nil || ring.Dir != DirUp || ring.CloseDir != DirDown || ring.DirFrom(ring.Begin) != DirUp {
+	if ring == nil || ring.Dir != DirUp || ring.CloseDir != DirDown || m.BondDir(ri, ring.Begin) != DirUp {
 		t.Errorf("ring closure bond = %+v", ring)
 	}
 }

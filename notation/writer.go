@@ -47,6 +47,9 @@ type Written struct {
 	// fields that count bonds, unknown fields, fields with indices
 	// beyond the record, incomplete coordinates (see writeExtension).
 	DroppedFields []int
+
+	lonePairs    int  // the centres of m whose mark counts a lone pair
+	lonePairOpen bool // one of them is written where the readings disagree
 }
 
 // Write serialises m as OpenSMILES. Atoms are written without brackets
@@ -64,7 +67,56 @@ type Written struct {
 // of ring closures open at once, for choosing free numbers) and does not
 // recurse, so a long chain cannot exhaust the stack.
 func Write(m *Molecule, opt WriteOptions) Written {
-	w := &writer{m: m, opt: opt}
+	out := write(m, opt, -1)
+	if !out.lonePairOpen {
+		return out
+	}
+	// Some centre whose mark counts a lone pair is left open: its bonds
+	// and those of other such centres close a ring (the triazinane ring
+	// of a hexamethylenetetramine cage), so one of them is a ring
+	// closure. A centre is read alike by every reading also when it
+	// starts its part and carries one such digit (or any odd number, on
+	// a centre of single bonds): try each atom as the start and each
+	// order of taking the centres' bonds, and keep the first writing
+	// that leaves no centre open.
+	for attempt := 0; attempt < min(len(m.Atoms)*out.lonePairs, maxLonePairAttempts); attempt++ {
+		if alt := write(m, opt, attempt); !alt.lonePairOpen {
+			return alt
+		}
+	}
+	return out
+}
+
+// maxLonePairAttempts bounds the writings Write tries for a molecule
+// whose lone-pair centres close a ring among themselves.
+const maxLonePairAttempts = 64
+
+// lonePairOpen reports whether the writing leaves a centre whose mark
+// counts a lone pair at a place the lone-pair rules put at positions of
+// opposite parity (Molecule.LonePairOpen, for the text written).
+func (w *writer) lonePairOpen() bool {
+	for a, lp := range w.lonePair {
+		if !lp {
+			continue
+		}
+		single := true
+		for _, b := range w.m.Atoms[a].Bonds {
+			single = single && w.m.Bonds[b].Order == OrderSingle
+		}
+		hasPrev, digits := w.parent[a] >= 0, len(w.rings[a])
+		if (LonePairPlace(LonePairLast, hasPrev, digits, single)-LonePairPlace(LonePairHydrogenSlot, hasPrev, digits, single))%2 != 0 {
+			return true
+		}
+	}
+	return false
+}
+
+// write is one writing of m; attempt < 0 is the plain one, and attempt k
+// starts every part that holds a lone-pair centre at its (k mod n)-th
+// atom (n its atom count) and takes the centres' bonds into the tree
+// starting from the (k div n)-th centre.
+func write(m *Molecule, opt WriteOptions, attempt int) Written {
+	w := &writer{m: m, opt: opt, attempt: attempt}
 	w.init()
 	groups := []Role{RoleNone}
 	if m.Reaction {
@@ -84,6 +136,12 @@ func Write(m *Molecule, opt WriteOptions) Written {
 		}
 	}
 	w.out.Text = w.fixAllenes(w.sb.String())
+	w.out.lonePairOpen = w.lonePairOpen()
+	for _, lp := range w.lonePair {
+		if lp {
+			w.out.lonePairs++
+		}
+	}
 	if m.Extension != nil {
 		block, dropped := writeExtension(m, w.out.Text, w.out.Order)
 		w.out.Text += block
@@ -96,10 +154,11 @@ func Write(m *Molecule, opt WriteOptions) Written {
 
 // writer is the state of one Write call.
 type writer struct {
-	m   *Molecule
-	opt WriteOptions
-	sb  strings.Builder
-	out Written
+	m       *Molecule
+	opt     WriteOptions
+	attempt int // see write
+	sb      strings.Builder
+	out     Written
 
 	aromatic []bool // atom written in lowercase
 	seen     []bool // atom placed in the depth-first tree
@@ -107,8 +166,18 @@ type writer struct {
 
 	parent   []int   // bond to the parent atom, -1 at a root
 	children [][]int // tree bonds to children, in writing order
+	ringBond []int   // bonds left out of the tree, in the order found
 	opens    [][]int // ring bonds opened at the atom
 	closes   [][]int // ring bonds closed at the atom
+	// lonePair marks the atoms whose mark counts a lone pair (a
+	// tetrahedral mark, three neighbours, no hydrogen); required marks
+	// their bonds, which the tree takes whenever it can (see buildTree),
+	// and joined is the disjoint-set forest of the bonds taken or
+	// required so far
+	lonePair []bool
+	required []bool
+	joined   []int
+	preorder []int   // position of each atom in the part being written, made on first use
 	rings    [][]int // ring bonds in the order their digits were written
 	digit    []int   // ring-closure number of each ring bond
 	free     []bool  // free[d] when number d is not in use
@@ -142,6 +211,81 @@ func (w *writer) init() {
 		w.position[i] = -1
 		w.partOf[i] = -1
 	}
+	w.requireLonePairBonds()
+}
+
+// requireLonePairBonds marks the atoms whose mark counts a lone pair and
+// their bonds. Where the lone pair stands is read differently by
+// general-purpose readers when such a centre starts its part or carries
+// ring-closure digits (notation.Reading): the writer starts no part at
+// one (roots) and writes all its bonds as chain and branch bonds, taking
+// them into the spanning tree first, so that what it writes means the
+// same under every reading. Bonds of two such centres that would close a
+// cycle cannot all be tree bonds; those are left to the search, and their
+// marks are written for the molecule's reading. A molecule without such
+// centres (most) allocates nothing here, and its tree is the plain
+// depth-first one.
+func (w *writer) requireLonePairBonds() {
+	n := len(w.m.Atoms)
+	var centres []int
+	for a := range w.m.Atoms {
+		if w.m.Atoms[a].Chirality.Class != ChiralNone && w.lonePairCentre(a) && w.geometry(a) == ChiralTH {
+			centres = append(centres, a)
+		}
+	}
+	if len(centres) == 0 {
+		return
+	}
+	w.joined = make([]int, n)
+	for i := range w.joined {
+		w.joined[i] = i
+	}
+	w.lonePair = make([]bool, n)
+	w.required = make([]bool, len(w.m.Bonds))
+	for _, a := range centres {
+		w.lonePair[a] = true
+	}
+	if w.attempt > 0 && len(centres) > 0 {
+		k := (w.attempt / max(n, 1)) % len(centres)
+		centres = append(centres[k:], centres[:k]...)
+	}
+	for _, a := range centres {
+		for _, b := range w.m.Atoms[a].Bonds {
+			bd := &w.m.Bonds[b]
+			if w.required[b] || bd.Begin == bd.End || w.m.Reaction && w.m.Atoms[bd.Begin].Role != w.m.Atoms[bd.End].Role {
+				continue
+			}
+			if w.join(bd.Begin, bd.End) {
+				w.required[b] = true
+			}
+		}
+	}
+}
+
+// lonePairCentre reports whether a tetrahedral mark on atom a counts a
+// lone pair: three neighbours and no hydrogen.
+func (w *writer) lonePairCentre(a int) bool {
+	at := &w.m.Atoms[a]
+	return len(at.Bonds) == 3 && at.HydrogenCount() == 0
+}
+
+// find and join are the disjoint-set forest over atoms; join reports
+// whether a and b were apart.
+func (w *writer) find(a int) int {
+	for w.joined[a] != a {
+		w.joined[a] = w.joined[w.joined[a]]
+		a = w.joined[a]
+	}
+	return a
+}
+
+func (w *writer) join(a, b int) bool {
+	ra, rb := w.find(a), w.find(b)
+	if ra == rb {
+		return false
+	}
+	w.joined[ra] = rb
+	return true
 }
 
 // writtenAromatic decides the case of an atom. In Kekulé form an atom
@@ -181,9 +325,71 @@ func (w *writer) roots(role Role) []int {
 		case w.opt.Random != nil:
 			root = part[w.opt.Random.IntN(len(part))]
 		}
+		if w.attempt >= 0 && w.partHasLonePair(part) {
+			root = part[w.attempt%len(part)]
+		} else {
+			root = w.awayFromLonePair(root, part)
+		}
 		roots = append(roots, root)
 	}
 	return roots
+}
+
+// awayFromLonePair returns root, or, when root is a centre whose mark
+// counts a lone pair, the nearest atom of its part that is none (a
+// neighbour, the lowest-numbered or a random one): a part that starts at
+// such a centre is read differently by general-purpose readers.
+func (w *writer) awayFromLonePair(root int, part []int) int {
+	if w.lonePair == nil || !w.lonePair[root] {
+		return root
+	}
+	seen := map[int]bool{root: true}
+	for layer := []int{root}; len(layer) > 0; {
+		var next []int
+		for _, x := range layer {
+			for _, b := range w.m.Atoms[x].Bonds {
+				y := w.m.Bonds[b].Other(x)
+				if !seen[y] && w.partOf[y] == w.partOf[root] {
+					seen[y] = true
+					next = append(next, y)
+				}
+			}
+		}
+		var free []int
+		for _, y := range next {
+			if !w.lonePair[y] {
+				free = append(free, y)
+			}
+		}
+		if len(free) > 0 {
+			if w.opt.Random != nil {
+				return free[w.opt.Random.IntN(len(free))]
+			}
+			return slicesMin(free)
+		}
+		layer = next
+	}
+	return root
+}
+
+func (w *writer) partHasLonePair(part []int) bool {
+	if w.lonePair == nil {
+		return false
+	}
+	for _, a := range part {
+		if w.lonePair[a] {
+			return true
+		}
+	}
+	return false
+}
+
+func slicesMin(s []int) int {
+	m := s[0]
+	for _, v := range s[1:] {
+		m = min(m, v)
+	}
+	return m
 }
 
 func containsInt(s []int, v int) bool {
@@ -223,6 +429,7 @@ func (w *writer) part(a, id int) []int {
 // emits the text.
 func (w *writer) component(root int) {
 	w.buildTree(root)
+	w.placeRingBonds(root)
 	w.emitTree(root)
 }
 
@@ -247,6 +454,13 @@ func (w *writer) neighbourBonds(a int) []int {
 	return bonds
 }
 
+// buildTree grows the spanning tree of root's part by a depth-first
+// search. A bond to an atom not yet reached joins the tree, unless the
+// atom is already tied to this one by required bonds (those of centres
+// whose mark counts a lone pair, requireLonePairBonds) not yet taken:
+// the atom is then reached through them, and this bond becomes a ring
+// closure. Without required bonds this is the plain search, whose ring
+// closures all lead back to an atom on the stack.
 func (w *writer) buildTree(root int) {
 	type frame struct {
 		atom  int
@@ -256,6 +470,7 @@ func (w *writer) buildTree(root int) {
 	role := w.m.Atoms[root].Role
 	w.seen[root] = true
 	w.parent[root] = -1
+	w.ringBond = w.ringBond[:0]
 	stack := []frame{{root, w.neighbourBonds(root), 0}}
 	for len(stack) > 0 {
 		f := &stack[len(stack)-1]
@@ -275,17 +490,55 @@ func (w *writer) buildTree(root int) {
 			w.out.Dropped = append(w.out.Dropped, b)
 			continue
 		}
-		if !w.seen[v] {
+		if !w.seen[v] && (w.required == nil || w.required[b] || w.join(u, v)) {
 			w.seen[v] = true
 			w.parent[v] = b
 			w.children[u] = append(w.children[u], b)
 			stack = append(stack, frame{v, w.neighbourBonds(v), 0})
 			continue
 		}
-		// v was reached before and this bond is unused, so v is an
-		// ancestor of u still on the stack: the ring opens at v.
-		w.opens[v] = append(w.opens[v], b)
-		w.closes[u] = append(w.closes[u], b)
+		if w.required == nil {
+			// the plain search: v was reached before and this bond is
+			// unused, so v is an ancestor of u still on the stack, and
+			// the ring opens at v
+			w.opens[v] = append(w.opens[v], b)
+			w.closes[u] = append(w.closes[u], b)
+			continue
+		}
+		w.ringBond = append(w.ringBond, b)
+	}
+}
+
+// placeRingBonds puts each ring closure of root's part that buildTree
+// left to it (those of a tree with required bonds, which may join two
+// branches) at its two ends: it opens at the end written first (in the
+// order emitTree writes the tree) and closes at the other.
+func (w *writer) placeRingBonds(root int) {
+	if len(w.ringBond) == 0 {
+		return
+	}
+	if w.preorder == nil {
+		w.preorder = make([]int, len(w.m.Atoms))
+	}
+	order, n := w.preorder, 0
+	stack := []int{root}
+	for len(stack) > 0 {
+		a := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		order[a] = n
+		n++
+		kids := w.children[a]
+		for i := len(kids) - 1; i >= 0; i-- {
+			stack = append(stack, w.m.Bonds[kids[i]].Other(a))
+		}
+	}
+	for _, b := range w.ringBond {
+		x, y := w.m.Bonds[b].Begin, w.m.Bonds[b].End
+		if order[y] < order[x] {
+			x, y = y, x
+		}
+		w.opens[x] = append(w.opens[x], b)
+		w.closes[y] = append(w.closes[y], b)
 	}
 }
 
@@ -405,7 +658,7 @@ func (w *writer) bondSymbol(b, from int) string {
 		}
 		return ":"
 	}
-	if d := bd.DirFrom(from); d != DirNone {
+	if d := w.m.BondDir(b, from); d != DirNone {
 		return d.String()
 	}
 	if bothAromatic {
@@ -598,8 +851,9 @@ func (w *writer) newChirality(a int) Chirality {
 }
 
 // readOrder is the neighbour order the mark was written against: the
-// atom's bonds as read, with the implicit hydrogen (or, for a
-// tetrahedral centre, the lone pair) in its slot.
+// atom's bonds as read, with the implicit hydrogen in its slot, or, for
+// a tetrahedral centre without one, the lone pair where the molecule's
+// reading puts it.
 func (w *writer) readOrder(a int, g ChiralClass) []int {
 	at := &w.m.Atoms[a]
 	var order []int
@@ -607,14 +861,20 @@ func (w *writer) readOrder(a int, g ChiralClass) []int {
 		order = append(order, w.m.Bonds[b].Other(a))
 	}
 	if implicitMember(g, len(order), at.BracketH) {
-		order = insertAt(order, at.HydrogenSlot(), implicitSlot)
+		slot := at.HydrogenSlot()
+		if g == ChiralTH && w.lonePairCentre(a) {
+			slot = w.m.LonePairSlot(a)
+		}
+		order = insertAt(order, slot, implicitSlot)
 	}
 	return order
 }
 
 // writtenOrder is the neighbour order in the new text: the parent, the
 // implicit slot, ring closures in the order their numbers were written,
-// then branches and the chain.
+// then branches and the chain. A lone pair stands where the molecule's
+// reading puts it; the tree is built so that every reading puts it in
+// the same place where it can (requireLonePairBonds).
 func (w *writer) writtenOrder(a int, g ChiralClass) []int {
 	var order []int
 	hasPrev := w.parent[a] >= 0
@@ -631,6 +891,13 @@ func (w *writer) writtenOrder(a int, g ChiralClass) []int {
 		slot := 0
 		if hasPrev {
 			slot = 1
+		}
+		if g == ChiralTH && w.lonePairCentre(a) {
+			single := true
+			for _, b := range w.m.Atoms[a].Bonds {
+				single = single && w.m.Bonds[b].Order == OrderSingle
+			}
+			slot = min(LonePairPlace(w.m.Reading.LonePair, hasPrev, len(w.rings[a]), single), len(order))
 		}
 		order = insertAt(order, slot, implicitSlot)
 	}

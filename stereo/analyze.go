@@ -47,6 +47,9 @@ type Analysis struct {
 type Options struct {
 	// NodeCap bounds the nodes of each digraph; 0 means the default.
 	NodeCap int
+	// noOpenMarks leaves out the report of marks read differently by
+	// other readers: set for the second analysis that report runs
+	noOpenMarks bool
 }
 
 // Analyze finds the stereogenic units of m, labels them and reports the
@@ -81,11 +84,13 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 	l.readCentres()
 	l.checkBridgeheads()
 	l.readBonds()
-	l.checkRingClosures()
 	l.checkCages()
 	l.labelAll()
 	l.perceiveUnmarked()
 	l.reportStrayBondMarks()
+	if !opt.noOpenMarks {
+		reportOpenMarks(m, res, opt)
+	}
 	slices.SortStableFunc(res.Units, func(a, b Unit) int { return unitKey(&a) - unitKey(&b) })
 	res.Diagnostics.Sort()
 	return res
@@ -101,8 +106,7 @@ func unitKey(u *Unit) int {
 
 // labeller holds the state of one Analyze call. AnalyzeWith runs its
 // phases in order: reading the marks (readCentres, readBonds), checking
-// them against the geometry (checkBridgeheads, checkRingClosures,
-// checkCages), labelling the marked units (labelAll), perceiving the
+// them against the geometry (checkBridgeheads, checkCages), labelling the marked units (labelAll), perceiving the
 // unmarked ones (perceiveUnmarked) and reporting stray marks. The fields
 // are grouped by the phase that sets them.
 type labeller struct {
@@ -199,10 +203,10 @@ func (l *labeller) readCentres() {
 			}
 			ligs := stereoLigands(m, a)
 			if count == 3 {
-				// the lone pair takes the slot an implicit hydrogen would
-				// (OpenSMILES 1.0, 3.9.1)
-				slot := min(at.HydrogenSlot(), len(ligs))
-				ligs = slices.Insert(ligs, slot, ImplicitNeighbour)
+				// the lone pair stands where the molecule's reading puts
+				// it (notation.Reading; OpenSMILES 3.8.2 places only a
+				// hydrogen)
+				ligs = slices.Insert(ligs, m.LonePairSlot(a), ImplicitNeighbour)
 			}
 			l.cfg.addTetra(&tetraConfig{centre: a, ligands: ligs, hand: markHand(ch),
 				lonePair: count == 3, span: sp})

@@ -16,4 +16,5 @@ const (
 	CodeInvertingNitrogen notation.Code = "stereo-inverting-nitrogen" // a mark on a nitrogen that inverts quickly
 	CodeUndefined         notation.Code = "stereo-undefined"          // a stereogenic unit left unmarked
 	CodeUndetermined      notation.Code = "stereo-undetermined"       // the labeller hit its node cap
+	CodeReaderDependent   notation.Code = "stereo-reader-dependent"   // a mark general-purpose readers read differently (portable.go)
 )

@@ -167,18 +167,18 @@ func (g *graph) readAllene(c int, ch notation.Chirality) *alleneConfig {
 
 // markedSides returns, for terminal t of a cis/trans unit, the marked
 // substituents and the side of each: the direction of the bond read from
-// the substituent towards t.
+// the substituent towards t, under the molecule's reading (a ring
+// closure whose two marks contradict each other may count for nothing).
 func (g *graph) markedSides(t, inner int) (atoms []int, sides []notation.Direction, spans []notation.Span) {
 	m := g.mol
 	for _, e := range g.adj[t] {
 		if e.to == inner || e.order != 1 {
 			continue
 		}
-		b := &m.Bonds[e.bond]
-		if d := b.DirFrom(e.to); d != notation.DirNone {
+		if d := m.BondDir(e.bond, e.to); d != notation.DirNone {
 			atoms = append(atoms, e.to)
 			sides = append(sides, d)
-			spans = append(spans, markSpan(b))
+			spans = append(spans, m.MarkSpan(e.bond))
 		}
 	}
 	return atoms, sides, spans
@@ -192,12 +192,4 @@ func markHand(ch notation.Chirality) ringgeom.Hand {
 		return h
 	}
 	return ringgeom.Clockwise
-}
-
-// markSpan is the span of the direction mark(s) on a bond.
-func markSpan(b *notation.Bond) notation.Span {
-	if b.Dir == notation.DirNone && b.Ring && b.CloseDir != notation.DirNone {
-		return b.CloseSpan
-	}
-	return b.Span
 }

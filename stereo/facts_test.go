@@ -32,10 +32,12 @@ func TestHandCheckedFacts(t *testing.T) {
 		// (R), worked by hand
 		{"sulfoxide", "C[S@@](=O)c1ccccc1", "2R", "worked by hand"},
 		{"sulfoxide mirror", "C[S@](=O)c1ccccc1", "2S", "worked by hand"},
-		// the same centre written from the sulfur: the lone pair is
-		// then the first ligand; [S@@](C)(=O)c1ccccc1 reads Me, O, Ph
-		// clockwise from the lone pair, anticlockwise from the back: (S)
-		{"sulfoxide written first", "[S@@](C)(=O)c1ccccc1", "1S", "worked by hand"},
+		// the same centre written from the sulfur: where the lone pair
+		// stands is left open by OpenSMILES (notation.Reading). By
+		// default it is the last ligand, as RDKit reads it, and RDKit
+		// 2022.09.3's rdCIPLabeler labels the string (R); the
+		// hydrogen-slot reading is checked below
+		{"sulfoxide written first", "[S@@](C)(=O)c1ccccc1", "1R", "RDKit 2022.09.3"},
 		// quaternary ammonium: phenyl > propyl > ethyl > methyl (Rule 1a
 		// at the first and second spheres), written in the order 4 3 2 1
 		// with '@@': (R), worked by hand
@@ -54,6 +56,18 @@ func TestHandCheckedFacts(t *testing.T) {
 	for _, c := range cases {
 		if got := labelsOf(t, c.smiles); got != c.want {
 			t.Errorf("%s (%s): %s gives %q, want %q", c.name, c.source, c.smiles, got, c.want)
+		}
+	}
+	// with the lone pair in the hydrogen's slot it is the first ligand:
+	// [S@@](C)(=O)c1ccccc1 reads Me, O, Ph clockwise from the lone
+	// pair, anticlockwise from the back: (S), worked by hand
+	slot := notation.Reading{LonePair: notation.LonePairHydrogenSlot}
+	for _, c := range []struct{ smiles, want string }{
+		{"[S@@](C)(=O)c1ccccc1", "1S"},
+		{"C[S@@](=O)c1ccccc1", "2R"}, // after its preceding atom: the readings agree
+	} {
+		if got := strings.Join(labelSet(Analyze(notation.ReadWith(c.smiles, slot))), " "); got != c.want {
+			t.Errorf("%s read with %s gives %q, want %q (worked by hand)", c.smiles, slot, got, c.want)
 		}
 	}
 }
@@ -85,8 +99,14 @@ func TestDiagnostics(t *testing.T) {
 		// both substituents of one end on the same side (the issue's example)
 		{`F/C(\Cl)=C/Br`, CodeConflictingMarks, notation.SeverityError, ""},
 		// a ring-closure bond marked '/' at both digits: read from its
-		// two ends these say opposite things (OpenSMILES 1.0, 3.8.4)
-		{"F/C=C/1CCCCCCC/1", CodeConflictingMarks, notation.SeverityError, "/1"},
+		// two ends these say opposite things (OpenSMILES 3.8.3); by
+		// default the closing digit decides (RDKit), which the finding
+		// points at
+		{"C/1=C/CCCCCCCC/1", CodeReaderDependent, notation.SeverityWarning, "/1"},
+		// a lone-pair centre written first (testdata/survey)
+		{"[S@](=O)(C)c1ccccc1", CodeReaderDependent, notation.SeverityWarning, "@"},
+		// '@' on an allene: dropped by every library surveyed
+		{"CC=[C@]=CC", CodeReaderDependent, notation.SeverityInformation, "@"},
 		// trans-cyclohexene: common practice, trans-cyclooctene is the smallest isolable
 		{`C1CCC/C=C/1`, CodeStrainedRing, notation.SeverityError, ""},
 		// a plain tertiary amine inverts (common practice)

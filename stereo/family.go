@@ -275,8 +275,9 @@ func clockwiseFromHydrogen(m *notation.Molecule, c, x, y, z int) (bool, bool) {
 
 // NeighbourOrder returns the four ligands of a tetrahedral centre in the
 // order its mark refers to (OpenSMILES 3.7): the preceding atom, the
-// implicit hydrogen or lone pair, ring closures, then branches and chain.
-// ok is false when the atom has no TH mark or not four ligands.
+// implicit hydrogen, ring closures, then branches and chain; a lone pair
+// stands where the molecule's reading puts it. ok is false when the atom
+// has no TH mark or not four ligands.
 func NeighbourOrder(m *notation.Molecule, c int) ([]int, bool) {
 	a := &m.Atoms[c]
 	if a.Chirality.Class != notation.ChiralTH || (a.Chirality.Num != 1 && a.Chirality.Num != 2) {
@@ -287,9 +288,13 @@ func NeighbourOrder(m *notation.Molecule, c int) ([]int, bool) {
 	if n+implicit != 4 && !(n == 3 && implicit == 0) {
 		return nil, false
 	}
+	slot := a.HydrogenSlot()
+	if implicit == 0 {
+		slot = m.LonePairSlot(c)
+	}
 	order := make([]int, 0, 4)
 	for i := 0; i < n; i++ {
-		if i == a.HydrogenSlot() && n < 4 {
+		if i == slot && n < 4 {
 			order = append(order, ImplicitNeighbour)
 		}
 		order = append(order, m.Neighbour(c, i))

@@ -40,6 +40,14 @@ func (l *labeller) readBonds() {
 		var sides [2]notation.Direction
 		for e := 0; e < 2; e++ {
 			atoms, ss, spans := g.markedSides(c.ends[e], c.inner[e])
+			for _, ed := range g.adj[c.ends[e]] {
+				// a ring closure whose two marks contradict each other
+				// sits next to this bond even where the reading drops
+				// it (reported by reportOpenMarks, not as stray)
+				if ed.to != c.inner[e] && m.Bonds[ed.bond].RingMarksContradict() {
+					l.usedBondMarks[ed.bond] = true
+				}
+			}
 			for _, x := range atoms {
 				mb := m.BondBetween(x, c.ends[e])
 				l.usedBondMarks[mb] = true
@@ -135,33 +143,15 @@ func (l *labeller) middleBond(t, inner, count int) int {
 	return g.mol.BondBetween(prev, cur)
 }
 
-// checkRingClosures reports ring-closure bonds marked differently at
-// their two digits.
-func (l *labeller) checkRingClosures() {
-	for bi := range l.g.mol.Bonds {
-		b := &l.g.mol.Bonds[bi]
-		if b.Ring && b.Dir != notation.DirNone && b.CloseDir != notation.DirNone && b.CloseDir != b.Dir.Reverse() {
-			err := l.fail(b.CloseSpan, CodeConflictingMarks, "ring closure marked %s here but %s at its opening digit", b.CloseDir, b.Dir)
-			err.Related = append(err.Related, notation.Related{Span: b.Span, Msg: "the opening digit"})
-			for k, c := range l.cfg.bonds {
-				for e := 0; e < 2; e++ {
-					if l.g.mol.BondBetween(c.ends[e], c.refs[e]) == bi {
-						delete(l.cfg.bonds, k)
-					}
-				}
-			}
-		}
-	}
-}
-
 // reportStrayBondMarks warns about direction marks next to no double
 // bond at all.
 func (l *labeller) reportStrayBondMarks() {
-	for bi := range l.g.mol.Bonds {
-		b := &l.g.mol.Bonds[bi]
+	m := l.g.mol
+	for bi := range m.Bonds {
+		b := &m.Bonds[bi]
 		if (b.Dir == notation.DirNone && b.CloseDir == notation.DirNone) || l.usedBondMarks[bi] {
 			continue
 		}
-		l.warn(markSpan(b), CodeIneffectiveBond, "direction mark next to no double bond")
+		l.warn(m.MarkSpan(bi), CodeIneffectiveBond, "direction mark next to no double bond")
 	}
 }

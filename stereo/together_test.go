@@ -123,6 +123,11 @@ func TestPerceptionInvariance(t *testing.T) {
 			parts = append(parts, fmt.Sprintf("%s:%s:%v:%s", u.Kind, strings.Join(atoms, ","), u.Specified, u.Descriptor))
 		}
 		for _, e := range a.Diagnostics {
+			if e.Code == CodeReaderDependent {
+				// a finding on the writing itself: the writer avoids the
+				// constructs readers read differently
+				continue
+			}
 			parts = append(parts, string(e.Code))
 		}
 		sort.Strings(parts)

@@ -10,6 +10,7 @@ import (
 	"strings"
 
 	"stereoline/notation"
+	"stereoline/stereo/document"
 )
 
 const checkUsage = `usage: stereoline check [options] [PATH...]
@@ -37,6 +38,7 @@ type checkOptions struct {
 	maxSize      int64
 	jobs         int
 	paths        []string
+	reading      readingFlags // on top of each file's configuration
 }
 
 // check implements 'stereoline check'.
@@ -99,6 +101,7 @@ func parseCheckArgs(args []string, stderr io.Writer) (checkOptions, int) {
 	fs.StringVar(&opts.stdinName, "stdin-name", "", "file `name` for standard input (picks the host kind; printed as its path)")
 	maxSize := fs.String("max-size", "10MB", "skip files larger than this (bytes, or with a kB, MB or GB suffix)")
 	fs.IntVar(&opts.jobs, "jobs", runtime.GOMAXPROCS(0), "number of files analysed at the same time")
+	opts.reading.add(fs)
 	fs.Usage = func() {
 		fmt.Fprint(stderr, checkUsage)
 		fs.PrintDefaults()
@@ -148,6 +151,9 @@ func parseCheckArgs(args []string, stderr io.Writer) (checkOptions, int) {
 	opts.maxSize = n
 	if opts.jobs < 1 {
 		return usageErr("--jobs: expected a positive number, found %d", opts.jobs)
+	}
+	if _, err := opts.reading.config(document.ReadingConfig{}); err != nil {
+		return usageErr("%v", err)
 	}
 	if len(opts.paths) == 0 {
 		opts.paths = []string{"."}

@@ -230,7 +230,7 @@ var codeCatalogue = []codeDoc{
 	{
 		Code: stereo.CodeConflictingMarks, Origin: originStereo,
 		Short:   "Direction marks that contradict each other.",
-		Full:    "Two marks on the same end of a double bond put both substituents on the same side, or a ring closure is marked differently at its two digits. No configuration satisfies them.",
+		Full:    "Two marks on the same end of a double bond put both substituents on the same side. No configuration satisfies them. (The same mark on both digits of one ring closure is read by the reading setting and reported as stereo-reader-dependent.)",
 		Help:    "Keep one mark per end, or make the marks agree: F/C(/Cl)=C/Br puts F and Cl on opposite sides.",
 		Example: codeExample{File: "example.smi", Text: "F/C(\\Cl)=C/Br\n"},
 	},
@@ -262,6 +262,13 @@ var codeCatalogue = []codeDoc{
 		Help:  "Check this centre with another tool or by hand; the mark itself may be fine.",
 		Example: codeExample{File: "example.smi", Text: "C[C@H](CCCCCCCCCCCO)CCCCCCCCCCCN\n",
 			NotShown: "needs a molecule large enough to reach the node cap; this one only shows the shape of such a centre, two branches that differ far from it"},
+	},
+	{
+		Code: stereo.CodeReaderDependent, Origin: originStereo,
+		Short:   "A stereo mark that general-purpose readers read differently.",
+		Full:    "OpenSMILES does not say where the lone pair of a stereocentre without hydrogen (a sulfoxide, sulfinamide, phosphine, selenoxide, sulfonium ion, aziridine or bridgehead nitrogen) stands in its neighbour order. RDKit 2022.09.3 and @rdkit/rdkit 2026.09.1 put it last and, on a centre with only single bonds, turn the reading once more for each ring-closure digit on the centre; Open Babel 3.1.1 puts it where a hydrogen would stand. The two readings give opposite configurations when the centre starts its record or dot-separated part, or carries an odd number of ring-closure digits and only single bonds, but not both. The same direction mark on both digits of one ring closure contradicts itself when each is read from its own atom: the RDKit releases let the closing digit decide, Open Babel drops the pair. The message says what the mark means under the reading setting and under the other. '@' on an allene, which OpenSMILES defines and every library surveyed drops, is reported with severity information.",
+		Help:    "Rewrite the record with the quick fix or 'stereoline transform --portable': it starts the record at a neighbour of the centre and writes no ring-closure digit on it, or keeps one mark of the ring closure, so that every reader surveyed reads the meaning the record has under the reading setting. Set the reading (reading.lonePair, reading.ringMarks) to the one of the program that wrote the record.",
+		Example: codeExample{File: "example.smi", Text: "[S@](=O)(C)c1ccccc1 LRK-BB-021\n"},
 	},
 	// Relations between the records of one list (stereo/document).
 	{

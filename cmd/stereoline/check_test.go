@@ -254,3 +254,44 @@ func TestCheckSameAsEditor(t *testing.T) {
 		}
 	}
 }
+
+// TestCheckReadingSetting: the reading setting of .stereoline.json and
+// the --lone-pair and --ring-marks options choose how a mark that the
+// surveyed readers read differently is read (testdata/survey): methyl
+// phenyl sulfoxide written from its sulfur is (R) as RDKit 2022.09.3
+// reads it (the default) and (S) with the lone pair in the hydrogen's
+// slot, as Open Babel reads it; the finding says both. An option wins
+// over the file; a misspelt value is a usage or configuration error.
+func TestCheckReadingSetting(t *testing.T) {
+	const rec = "[S@](=O)(C)c1ccccc1 LRK-BB-021\n"
+	dir := writeFiles(t, map[string]string{
+		"plain/list.smi":            rec,
+		"slot/list.smi":             rec,
+		"slot/" + configFileName:    `{"reading": {"lonePair": "hydrogen-slot"}}`,
+		"bad/list.smi":              rec,
+		"bad/" + configFileName:     `{"reading": {"lonePair": "first"}}`,
+		"unknown/list.smi":          rec,
+		"unknown/" + configFileName: `{"reading": {"lonePairs": "last"}}`,
+	})
+	const rdkitFirst = "read as (R) here and by RDKit 2022.09.3 and @rdkit/rdkit 2026.09.1; as (S) by Open Babel 3.1.1"
+	const slotFirst = "read as (S) here and by Open Babel 3.1.1; as (R) by RDKit 2022.09.3 and @rdkit/rdkit 2026.09.1"
+	for _, c := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{filepath.Join(dir, "plain")}, rdkitFirst},
+		{[]string{filepath.Join(dir, "slot")}, slotFirst},
+		{[]string{"--lone-pair", "hydrogen-slot", filepath.Join(dir, "plain")}, slotFirst},
+		{[]string{"--lone-pair", "last", filepath.Join(dir, "slot")}, rdkitFirst},
+	} {
+		stdout, stderr, status := runCheck(t, "", c.args...)
+		if status != 0 || !strings.Contains(stdout, "list.smi:1:3: warning: "+c.want) || !strings.Contains(stdout, "[stereo-reader-dependent]") {
+			t.Errorf("check %v: status %d, output %q (%s); want a warning %q", c.args, status, stdout, stderr, c.want)
+		}
+	}
+	for _, args := range [][]string{{filepath.Join(dir, "bad")}, {filepath.Join(dir, "unknown")}, {"--ring-marks", "opening", filepath.Join(dir, "plain")}} {
+		if _, stderr, status := runCheck(t, "", args...); status != 2 {
+			t.Errorf("check %v: status %d (stderr %q), want 2", args, status, stderr)
+		}
+	}
+}

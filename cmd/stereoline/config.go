@@ -84,8 +84,12 @@ func (r *checkRun) loadConfigLocked(path string) *loadedConfig {
 			lc.err = fmt.Errorf("%s: %v", filepath.ToSlash(path), lc.err)
 		}
 	}
-	// Analyzers of different configurations share one cache: analyses do
-	// not depend on the configuration, only what is reported does.
+	// --lone-pair and --ring-marks win over the file (checked when the
+	// options were read)
+	lc.cfg.Reading, _ = r.opts.reading.config(lc.cfg.Reading)
+	// Analyzers of different configurations share one cache, keyed by
+	// the reading setting, the one part of the configuration analyses
+	// depend on.
 	if r.baseAnalyzer == nil {
 		r.baseAnalyzer = document.NewAnalyzer(lc.cfg)
 		lc.analyzer = r.baseAnalyzer

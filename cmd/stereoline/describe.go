@@ -19,11 +19,18 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	fs := flag.NewFlagSet("describe", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	asJSON := fs.Bool("json", false, "print one JSON object per record, one per line")
+	var rf readingFlags
+	rf.add(fs)
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: stereoline describe [--json] [FILE...]\n\nReads records (one notation per line, a title may follow after whitespace)\nfrom the files, or from standard input when none is named.")
+		fmt.Fprintln(stderr, "usage: stereoline describe [--json] [--lone-pair RULE] [--ring-marks RULE] [FILE...]\n\nReads records (one notation per line, a title may follow after whitespace)\nfrom the files, or from standard input when none is named.")
 		fs.PrintDefaults()
 	}
 	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	reading, err := rf.reading()
+	if err != nil {
+		fmt.Fprintf(stderr, "stereoline describe: %v\n", err)
 		return 2
 	}
 	out := bufio.NewWriter(stdout)
@@ -33,7 +40,7 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		if trimmed := strings.TrimSpace(line); trimmed == "" || strings.HasPrefix(trimmed, "#") {
 			return
 		}
-		d := describeRecord(notation.SplitRecord(line))
+		d := describeRecord(notation.SplitRecord(line), reading)
 		if !*asJSON {
 			writeTable(out, d)
 			return
@@ -150,8 +157,8 @@ func reactionToJSON(r *reaction.Result) reactionJSON {
 
 func spanJSON(s notation.Span) [2]int { return [2]int{s.Start, s.End} }
 
-func describeRecord(rec notation.Record) recordJSON {
-	m := notation.Read(rec.Notation)
+func describeRecord(rec notation.Record, reading notation.Reading) recordJSON {
+	m := notation.ReadWith(rec.Notation, reading)
 	d := recordJSON{Input: rec.Notation, Name: rec.Title,
 		Atoms: []atomJSON{}, Bonds: []bondJSON{}, Diagnostics: []diagnosticJSON{}}
 	for i := range m.Atoms {

@@ -54,3 +54,36 @@ func TestDescribeJSON(t *testing.T) {
 		t.Errorf("broken record diagnostics = %v", diags)
 	}
 }
+
+// TestDescribeReading: --lone-pair chooses the reading of a lone-pair
+// centre written first (testdata/survey): methyl phenyl sulfoxide
+// written from its sulfur is (R) as RDKit 2022.09.3 labels it (the
+// default) and (S) with the lone pair in the hydrogen's slot.
+func TestDescribeReading(t *testing.T) {
+	for _, c := range []struct {
+		args []string
+		want string
+	}{
+		{nil, "R"},
+		{[]string{"--lone-pair", "hydrogen-slot"}, "S"},
+		{[]string{"--lone-pair", "last"}, "R"},
+	} {
+		var out, errb bytes.Buffer
+		args := append([]string{"describe", "--json"}, c.args...)
+		if status := run(args, strings.NewReader("[S@](=O)(C)c1ccccc1\n"), &out, &errb); status != 0 {
+			t.Fatalf("%v: status %d: %s", args, status, errb.String())
+		}
+		var r struct {
+			Stereo []struct {
+				CIP string `json:"cip"`
+			} `json:"stereo"`
+		}
+		if err := json.Unmarshal(out.Bytes(), &r); err != nil || len(r.Stereo) != 1 || r.Stereo[0].CIP != c.want {
+			t.Errorf("%v: %s (%v), want one unit labelled %s", args, out.String(), err, c.want)
+		}
+	}
+	var out, errb bytes.Buffer
+	if status := run([]string{"describe", "--lone-pair", "first"}, strings.NewReader("CCO\n"), &out, &errb); status != 2 {
+		t.Errorf("a bad --lone-pair: status %d, want 2", status)
+	}
+}

@@ -8,7 +8,8 @@ import (
 )
 
 // eachLine calls fn for every line of the named files, or of standard
-// input ("<stdin>") when none is named, with the 1-based line number. A
+// input ("<stdin>") when none is named or a name is "-", with the 1-based
+// line number. A
 // file that cannot be opened or read is reported on stderr and makes the
 // status 2; otherwise the status is 0. Lines may be up to 64 MiB long.
 func eachLine(names []string, stdin io.Reader, stderr io.Writer, fn func(name string, line int, text string)) int {
@@ -29,6 +30,13 @@ func eachLine(names []string, stdin io.Reader, stderr io.Writer, fn func(name st
 	}
 	status := 0
 	for _, name := range names {
+		if name == "-" {
+			if err := scan("<stdin>", stdin); err != nil {
+				fmt.Fprintf(stderr, "stereoline: standard input: %v\n", err)
+				status = 2
+			}
+			continue
+		}
 		f, err := os.Open(name)
 		if err != nil {
 			fmt.Fprintf(stderr, "stereoline: %v\n", err)

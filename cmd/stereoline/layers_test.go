@@ -27,8 +27,9 @@ var layers = []struct {
 	{5, []string{"stereo/identity"}},
 	{6, []string{"stereo/transform", "stereo/reaction", "stereo/depict", "stereo/readings"}},
 	{7, []string{"stereo/document"}},
-	{8, []string{"lsp"}},
-	{9, []string{"cmd/stereoline"}},
+	{8, []string{"stereo/review"}},
+	{9, []string{"lsp"}},
+	{10, []string{"cmd/stereoline"}},
 }
 
 // protocolPrefixes are the import paths of the LSP and JSON-RPC

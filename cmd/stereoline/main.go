@@ -1,7 +1,8 @@
 // Command stereoline checks and explains the stereo marks of SMILES and
 // reaction SMILES found in files: describe reads records and explains
 // them, check reports problems for CI, transform rewrites marks, compare
-// relates two structures, draw draws them and serve runs the language server.
+// relates two structures, diff reviews a change record by record, draw
+// draws them and serve runs the language server.
 package main
 
 import (
@@ -17,6 +18,7 @@ commands:
   check [options] [PATH...]     report problems in files and folders (text, JSON Lines, SARIF) for CI
   transform OPERATION [FILE...] rewrite stereo marks: --mirror, --invert N, --flip I-J, --set N=R|S|E|Z|M|P, --clean
   compare A B [--json]          relate two structures: identical, enantiomers, diastereomers, ...
+  diff [options] [PATH...]       what each edited record now means against a git revision (text, JSON Lines, HTML)
   draw [--svg|--png|--json|--molfile] [--fischer] [--numbers] [FILE...]
                                 draw each record: structure diagram or Fischer projection
   serve [--stdio] [--log FILE]  run the language server on standard input and output
@@ -51,6 +53,8 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 		return transformCommand(args[1:], stdin, stdout, stderr)
 	case "compare":
 		return compare(args[1:], stdin, stdout, stderr)
+	case "diff":
+		return diff(args[1:], stdin, stdout, stderr)
 	case "draw":
 		return draw(args[1:], stdin, stdout, stderr)
 	case "serve":

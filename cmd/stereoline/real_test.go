@@ -34,6 +34,13 @@ type realCorpus struct {
 	version string
 	root    string // a glob; the first match is read
 	files   map[string]string
+	// reading is the reading setting of the program that wrote the
+	// corpus's records, as its user would set it (README, reading):
+	// Open Babel writes its data files with the lone pair in the
+	// hydrogen's slot, and its cage fragments (quinuclidines, the
+	// hexamethylenetetramine family) read with the default would put
+	// bridgehead lone pairs inside their cages
+	reading document.ReadingConfig
 }
 
 var realCorpora = []realCorpus{
@@ -45,7 +52,7 @@ var realCorpora = []realCorpus{
 	{name: "openbabel-data", pkg: "openbabel", version: "3.1.1+dfsg-9+b3", root: "/usr/share/openbabel/3.*", files: map[string]string{
 		"SMARTS_InteLigand.txt": "smi", "patterns.txt": "smi", "superatom.txt": "smi", "torsion.txt": "smi",
 		"rigid-fragments-index.txt": "smi",
-	}},
+	}, reading: document.ReadingConfig{LonePair: "hydrogen-slot", RingMarks: "dropped"}},
 }
 
 // realFindings lists the findings of severity error and warning on the
@@ -132,6 +139,7 @@ func TestRealCorpus(t *testing.T) {
 		root := roots[0]
 		cfg := document.DefaultConfig()
 		cfg.Files = c.files
+		cfg.Reading = c.reading
 		a := document.NewAnalyzer(cfg)
 		var files, occurrences int
 		severities := map[notation.Severity]int{}

@@ -27,24 +27,35 @@ func transformCommand(args []string, stdin io.Reader, stdout, stderr io.Writer) 
 	flip := fs.String("flip", "", "flip the double bond between atoms `I-J`")
 	set := fs.String("set", "", "set the unit at atom N to a descriptor: `N=R`, S, E, Z, M or P")
 	clean := fs.Bool("clean", false, "remove marks that specify nothing")
+	portable := fs.Bool("portable", false, "rewrite marks general-purpose readers read differently so that every reader surveyed reads the record alike, with the meaning it has under the reading chosen")
+	var rf readingFlags
+	rf.add(fs)
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: stereoline transform --mirror | --invert N | --flip I-J | --set N=DESCRIPTOR | --clean [FILE...]\n\nRewrites the stereo marks of each record read from the files, or from\nstandard input when none is named, and prints the records.")
+		fmt.Fprintln(stderr, "usage: stereoline transform --mirror | --invert N | --flip I-J | --set N=DESCRIPTOR | --clean | --portable [--lone-pair RULE] [--ring-marks RULE] [FILE...]\n\nRewrites the stereo marks of each record read from the files, or from\nstandard input when none is named, and prints the records.")
 		fs.PrintDefaults()
 	}
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
 	ops := 0
-	for _, on := range []bool{*mirror, *invert != 0, *flip != "", *set != "", *clean} {
+	for _, on := range []bool{*mirror, *invert != 0, *flip != "", *set != "", *clean, *portable} {
 		if on {
 			ops++
 		}
 	}
 	if ops != 1 {
-		fmt.Fprintln(stderr, "stereoline transform: give exactly one of --mirror, --invert, --flip, --set, --clean")
+		fmt.Fprintln(stderr, "stereoline transform: give exactly one of --mirror, --invert, --flip, --set, --clean, --portable")
 		return 2
 	}
 	op, err := transformOp(*mirror, *invert, *flip, *set, *clean)
+	if *portable {
+		op, err = transform.Portable, nil
+	}
+	if err != nil {
+		fmt.Fprintf(stderr, "stereoline transform: %v\n", err)
+		return 2
+	}
+	reading, err := rf.reading()
 	if err != nil {
 		fmt.Fprintf(stderr, "stereoline transform: %v\n", err)
 		return 2
@@ -57,7 +68,7 @@ func transformCommand(args []string, stdin io.Reader, stdout, stderr io.Writer) 
 			fmt.Fprintln(out, text)
 			return
 		}
-		newText, notes, err := transformLine(text, op)
+		newText, notes, err := transformLine(text, op, reading)
 		for _, n := range notes {
 			fmt.Fprintf(stderr, "%s:%d: %s\n", name, line, n)
 		}
@@ -129,9 +140,9 @@ func parseDescriptor(s string) (stereo.Descriptor, bool) {
 
 // transformLine applies op to the record on one line and returns the
 // line with only the notation's edited bytes changed.
-func transformLine(line string, op transformFunc) (string, []string, error) {
+func transformLine(line string, op transformFunc, reading notation.Reading) (string, []string, error) {
 	rec := notation.SplitRecord(line)
-	m := notation.Read(rec.Notation)
+	m := notation.ReadWith(rec.Notation, reading)
 	t, err := op(m)
 	if err != nil {
 		return line, nil, err

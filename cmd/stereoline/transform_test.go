@@ -25,6 +25,14 @@ func TestTransformCommand(t *testing.T) {
 		{[]string{"--invert", "2"}, "CCO ethanol\n", "CCO ethanol\n", 1},
 		{[]string{"--mirror", "--clean"}, "CCO\n", "", 2},
 		{[]string{"--set", "2=X"}, "CCO\n", "", 2},
+		// a sulfoxide written from its sulfur (testdata/survey): by
+		// default read as RDKit reads it, with --lone-pair hydrogen-slot
+		// as Open Babel does; the portable writing keeps that meaning for
+		// every reader
+		{[]string{"--portable"}, "[S@](=O)(C)c1ccccc1 LRK-BB-021\n", "O=[S@](C)c1ccccc1 LRK-BB-021\n", 0},
+		{[]string{"--portable", "--lone-pair", "hydrogen-slot"}, "[S@](=O)(C)c1ccccc1 LRK-BB-021\n", "O=[S@@](C)c1ccccc1 LRK-BB-021\n", 0},
+		{[]string{"--portable", "--ring-marks", "dropped"}, "C/1=C/CCCCCCCC/1\n", "C1=C/CCCCCCCC1\n", 0},
+		{[]string{"--portable", "--lone-pair", "first"}, "CCO\n", "", 2},
 	}
 	for _, tc := range tests {
 		var out, errOut bytes.Buffer

@@ -54,6 +54,10 @@ const (
 	MarkNone Mark = iota
 	MarkWarning
 	MarkError
+	// MarkChange is set by callers, never by Draw: the atoms and bonds
+	// of a unit a change of the record touched (the review page of
+	// 'stereoline diff'), in a colour of their own.
+	MarkChange
 )
 
 // HSide is where an atom label writes its hydrogens.

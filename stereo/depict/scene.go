@@ -22,6 +22,7 @@ const (
 	colMuted
 	colErrFill
 	colWarnFill
+	colChangeFill
 )
 
 type primKind uint8
@@ -231,8 +232,11 @@ func buildScene(d *Drawing) *scene {
 }
 
 func fillOf(m Mark) colour {
-	if m == MarkError {
+	switch m {
+	case MarkError:
 		return colErrFill
+	case MarkChange:
+		return colChangeFill
 	}
 	return colWarnFill
 }

@@ -24,27 +24,65 @@ var palette = [...][2]string{
 	colMuted:    {"#6a6d73", "#9da2a8"},
 	colErrFill:  {"rgba(214,48,48,0.22)", "rgba(255,110,100,0.30)"},
 	colWarnFill: {"rgba(230,160,20,0.28)", "rgba(242,184,75,0.30)"},
+	// a blue the warning and error fills do not come near
+	colChangeFill: {"rgba(40,110,230,0.32)", "rgba(110,170,255,0.40)"},
 }
 
-var classOf = [...]string{colFg: "f", colBg: "g", colDesc: "d", colErr: "e", colWarn: "w", colMuted: "m", colErrFill: "ef", colWarnFill: "wf"}
+var classOf = [...]string{colFg: "f", colBg: "g", colDesc: "d", colErr: "e", colWarn: "w", colMuted: "m", colErrFill: "ef", colWarnFill: "wf", colChangeFill: "cf"}
 
 // WriteSVG writes the drawing as a standalone SVG document.
-func WriteSVG(w io.Writer, d *Drawing) error {
+func WriteSVG(w io.Writer, d *Drawing) error { return writeSVG(w, d, "t", true) }
+
+// WriteSVGFragment writes the drawing as an <svg> element for a page that
+// holds many drawings: without a style sheet of its own (the page
+// carries SVGStyle once) and with id as the id of its title, which must
+// be unique in the page.
+func WriteSVGFragment(w io.Writer, d *Drawing, id string) error { return writeSVG(w, d, id, false) }
+
+// SVGStyle returns the style sheet of the drawings' colours, light and
+// dark, for a page that holds fragments written by WriteSVGFragment.
+func SVGStyle() string { return styleSheet(func(colour) bool { return true }) }
+
+func writeSVG(w io.Writer, d *Drawing, id string, standalone bool) error {
 	sc := buildScene(d)
 	var b strings.Builder
-	fmt.Fprintf(&b, `<svg xmlns="http://www.w3.org/2000/svg" width="%g" height="%g" viewBox="0 0 %g %g" role="img" aria-labelledby="t">`+"\n",
-		sc.w, sc.h, sc.w, sc.h)
+	fmt.Fprintf(&b, `<svg xmlns="http://www.w3.org/2000/svg" width="%g" height="%g" viewBox="0 0 %g %g" role="img" aria-labelledby="%s">`+"\n",
+		sc.w, sc.h, sc.w, sc.h, esc(id))
 	title := sc.title
 	if title == "" {
 		title = sc.desc
 	}
-	fmt.Fprintf(&b, "<title id=\"t\">%s</title>\n<desc>%s</desc>\n", esc(title), esc(describeUnits(d)))
+	fmt.Fprintf(&b, "<title id=\"%s\">%s</title>\n<desc>%s</desc>\n", esc(id), esc(title), esc(describeUnits(d)))
+	if standalone {
+		// the change fill only where a drawing uses it, so drawings
+		// without it stay as they were
+		used := map[colour]bool{}
+		for _, p := range sc.prims {
+			used[p.col] = true
+		}
+		b.WriteString(styleSheet(func(c colour) bool { return c != colChangeFill || used[c] }))
+	}
+	fmt.Fprintf(&b, `<rect class="g" x="0" y="0" width="%g" height="%g" rx="6"/>`+"\n", sc.w, sc.h)
+	for _, p := range sc.prims {
+		writePrim(&b, &p)
+	}
+	b.WriteString("</svg>\n")
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+// styleSheet writes the <style> element of the colours keep accepts.
+func styleSheet(keep func(colour) bool) string {
+	var b strings.Builder
 	b.WriteString("<style>\n")
 	for _, scheme := range []int{0, 1} {
 		if scheme == 1 {
 			b.WriteString("@media (prefers-color-scheme: dark) {\n")
 		}
 		for c, v := range palette {
+			if !keep(colour(c)) {
+				continue
+			}
 			cls := classOf[c]
 			fmt.Fprintf(&b, ".%s{fill:%s;stroke:%s}\n", cls, v[scheme], v[scheme])
 		}
@@ -53,13 +91,7 @@ func WriteSVG(w io.Writer, d *Drawing) error {
 		}
 	}
 	b.WriteString("text{stroke:none;font-family:'Go',Helvetica,Arial,sans-serif}\n.l{fill:none}\n</style>\n")
-	fmt.Fprintf(&b, `<rect class="g" x="0" y="0" width="%g" height="%g" rx="6"/>`+"\n", sc.w, sc.h)
-	for _, p := range sc.prims {
-		writePrim(&b, &p)
-	}
-	b.WriteString("</svg>\n")
-	_, err := io.WriteString(w, b.String())
-	return err
+	return b.String()
 }
 
 func esc(s string) string { return html.EscapeString(s) }

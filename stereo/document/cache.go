@@ -31,9 +31,9 @@ type analysis struct {
 	identity     *identity.Identity
 }
 
-// analyse runs the engine on one notation text.
-func analyse(text string) *analysis {
-	m := notation.Read(text)
+// analyse runs the engine on one notation text, read under reading r.
+func analyse(text string, r notation.Reading) *analysis {
+	m := notation.ReadWith(text, r)
 	a := &analysis{mol: m, stereo: stereo.Analyze(m)}
 	switch {
 	case m.Reaction:
@@ -58,36 +58,46 @@ func (a *analysis) identify() *identity.Identity {
 	return a.identity
 }
 
-// cache holds analyses keyed by notation text. Repeated records and an
-// edit of one line of a large list re-analyse only what changed.
+// cache holds analyses keyed by notation text and reading. Repeated
+// records and an edit of one line of a large list re-analyse only what
+// changed.
 type cache struct {
 	mu       sync.Mutex
-	cur, old map[string]*analysis
+	cur, old map[cacheKey]*analysis
+}
+
+// cacheKey is what an analysis depends on: the text and the reading of
+// the marks OpenSMILES leaves open.
+type cacheKey struct {
+	text    string
+	reading notation.Reading
 }
 
 func newCache() *cache {
-	return &cache{cur: map[string]*analysis{}, old: map[string]*analysis{}}
+	return &cache{cur: map[cacheKey]*analysis{}, old: map[cacheKey]*analysis{}}
 }
 
-// get returns the analysis of text, computing it outside the lock.
-func (c *cache) get(text string) *analysis {
+// get returns the analysis of text under reading r, computing it
+// outside the lock.
+func (c *cache) get(text string, r notation.Reading) *analysis {
+	k := cacheKey{text, r}
 	c.mu.Lock()
-	if a, ok := c.cur[text]; ok {
+	if a, ok := c.cur[k]; ok {
 		c.mu.Unlock()
 		return a
 	}
-	if a, ok := c.old[text]; ok {
-		c.cur[text] = a
+	if a, ok := c.old[k]; ok {
+		c.cur[k] = a
 		c.mu.Unlock()
 		return a
 	}
 	c.mu.Unlock()
-	a := analyse(text)
+	a := analyse(text, r)
 	c.mu.Lock()
 	if len(c.cur) >= cacheLimit {
-		c.old, c.cur = c.cur, map[string]*analysis{}
+		c.old, c.cur = c.cur, map[cacheKey]*analysis{}
 	}
-	c.cur[text] = a
+	c.cur[k] = a
 	c.mu.Unlock()
 	return a
 }

@@ -48,6 +48,51 @@ type Config struct {
 	// find.ParseLayout ("field=2 sep=tab header"); a "stereoline:
 	// layout" pragma in a file wins over it.
 	Layouts map[string]string `json:"layouts,omitempty"`
+	// ReviewBase is the git revision the language server compares each
+	// record with, to say what an edited record now means ("epimer at
+	// C3 vs HEAD"); empty means HEAD, "off" turns the comparison off.
+	ReviewBase string `json:"reviewBase,omitempty"`
+	// Reading chooses how the marks general-purpose readers read
+	// differently are read (notation.Reading); empty fields are the
+	// defaults.
+	Reading ReadingConfig `json:"reading,omitzero"`
+}
+
+// ReadingConfig is the reading setting: each field the name of a rule of
+// notation.Reading, or empty for the default.
+type ReadingConfig struct {
+	// LonePair is "last" (the default) or "hydrogen-slot".
+	LonePair string `json:"lonePair,omitempty"`
+	// RingMarks is "closing" (the default) or "dropped".
+	RingMarks string `json:"ringMarks,omitempty"`
+}
+
+// notation returns the reading the setting names; names Validate
+// rejects read as the default.
+func (r ReadingConfig) notation() notation.Reading {
+	var out notation.Reading
+	if v, ok := notation.ParseLonePairRule(r.LonePair); ok {
+		out.LonePair = v
+	}
+	if v, ok := notation.ParseRingMarkRule(r.RingMarks); ok {
+		out.RingMarks = v
+	}
+	return out
+}
+
+// NotationReading returns the reading of the marks the configuration
+// chooses.
+func (c *Config) NotationReading() notation.Reading { return c.Reading.notation() }
+
+// validate reports a rule name that is not one.
+func (r ReadingConfig) validate() error {
+	if _, ok := notation.ParseLonePairRule(r.LonePair); !ok && r.LonePair != "" {
+		return fmt.Errorf("reading.lonePair: expected %s or %s, found %q", notation.LonePairLast, notation.LonePairHydrogenSlot, r.LonePair)
+	}
+	if _, ok := notation.ParseRingMarkRule(r.RingMarks); !ok && r.RingMarks != "" {
+		return fmt.Errorf("reading.ringMarks: expected %s or %s, found %q", notation.RingMarksClosing, notation.RingMarksDropped, r.RingMarks)
+	}
+	return nil
 }
 
 // DefaultConfig returns the configuration used when nothing is set.
@@ -74,6 +119,12 @@ func (c *Config) Validate() error {
 	case "", LensLists, LensEverywhere, LensOff:
 	default:
 		return fmt.Errorf("drawingLens: expected %s, %s or %s, found %q", LensLists, LensEverywhere, LensOff, c.DrawingLens)
+	}
+	if err := c.Reading.validate(); err != nil {
+		return err
+	}
+	if strings.HasPrefix(c.ReviewBase, "-") || strings.ContainsAny(c.ReviewBase, " \t\n") {
+		return fmt.Errorf("reviewBase: expected a git revision or off, found %q", c.ReviewBase)
 	}
 	for pat, spec := range c.Layouts {
 		if _, err := path.Match(pat, ""); err != nil {

@@ -7,8 +7,10 @@ import (
 )
 
 // fixesFor returns the quick fixes of a stereo finding on record i: the
-// ineffective or inverting mark removed, or the partner mark of a
-// one-sided double bond added. Every fix is a minimal edit of the marks.
+// ineffective or inverting mark removed, the partner mark of a one-sided
+// double bond added, or a mark readers read differently rewritten
+// portably. Every fix but the last is a minimal edit of the marks; the
+// portable rewrite of a lone-pair centre writes the record again.
 func (r *Result) fixesFor(i int, e *notation.Error) []Fix {
 	rec := &r.Records[i]
 	m := rec.Mol
@@ -46,6 +48,13 @@ func (r *Result) fixesFor(i int, e *notation.Error) []Fix {
 	case stereo.CodeOneSidedBond:
 		edits = partnerMark(rec, e.Span)
 		title = "add the partner mark (puts the marked neighbours trans: check it)"
+	case stereo.CodeReaderDependent:
+		// the whole record, once, whichever of its open marks the
+		// finding is on: the rewrite settles them all
+		if t, err := transform.Portable(m); err == nil {
+			edits = t.Edits
+		}
+		title = "rewrite the record so that every reader surveyed reads it alike"
 	}
 	if len(edits) == 0 {
 		return nil

@@ -232,8 +232,12 @@ func markReading(m *notation.Molecule, u *stereo.Unit) string {
 	if a.HydrogenCount() == 0 {
 		implicit = "the lone pair"
 	}
+	slot := a.HydrogenSlot()
+	if a.HydrogenCount() == 0 && len(a.Bonds) == 3 {
+		slot = m.LonePairSlot(u.Centre)
+	}
 	for i := range a.Bonds {
-		if i == a.HydrogenSlot() && (a.HydrogenCount() > 0 || len(a.Bonds) == 3) {
+		if i == slot && (a.HydrogenCount() > 0 || len(a.Bonds) == 3) {
 			names = append(names, implicit)
 		}
 		names = append(names, AtomName(m, m.Neighbour(u.Centre, i)))

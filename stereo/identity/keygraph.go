@@ -299,7 +299,7 @@ func (g *keyGraph) readDoubleBond(bi int) (keyUnit, bool) {
 			if x == partner || bondClass(&m.Bonds[bj]) == 2 || bondClass(&m.Bonds[bj]) == 3 {
 				continue
 			}
-			d := m.Bonds[bj].DirFrom(x)
+			d := m.BondDir(bj, x)
 			if d == notation.DirNone {
 				continue
 			}

@@ -8,7 +8,12 @@
 // centre written first, a lone-pair centre carrying ring-closure digits,
 // the same direction mark on both digits of a ring closure, '@' on an
 // allene, ring digits written after a branch) and, for each, which
-// reading every library uses. The tests hold a table over (construct,
-// library) saying whether Stereoline's reading equals the library's, and
-// check every writing of the survey against it.
+// reading every library uses. The reader setting (notation.Reading)
+// chooses the reading of the open ones. The tests hold a table over
+// (construct, library, setting) saying whether Stereoline's reading equals
+// the library's, check every writing of the survey against it, check that
+// each setting reads as the libraries it is named for, check the portable
+// rewrites against the libraries' reading of them (testdata/survey/
+// portable.tsv), and check that labels never change across the writings
+// RDKit made of the stereo fixtures under the default setting.
 package readings

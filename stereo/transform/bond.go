@@ -49,7 +49,7 @@ func flipped(m *notation.Molecule, u *stereo.Unit, edits []notation.Edit) bool {
 	}
 	k := unitID{stereo.KindDoubleBond, u.Bond}
 	if before := configurations(m); before[k] != 0 {
-		return configurations(notation.Read(text))[k] == -before[k]
+		return configurations(notation.ReadWith(text, m.Reading))[k] == -before[k]
 	}
 	got, ok := labelAfter(m, edits, u)
 	switch u.Descriptor {
@@ -318,7 +318,7 @@ func CompleteOneSided(m *notation.Molecule) (Transform, error) {
 		}
 		t0, t1 := u.Atoms[have], u.Atoms[1-have]
 		ref := marked[have][0]
-		side := m.Bonds[ref].DirFrom(m.Bonds[ref].Other(t0))
+		side := m.BondDir(ref, m.Bonds[ref].Other(t0))
 		bi := plainSubstituentBond(m, t1)
 		if bi < 0 {
 			continue

@@ -16,7 +16,8 @@ import (
 func FuzzIdentityAndTransforms(f *testing.F) {
 	for _, s := range []string{"N[C@@H](C)C(=O)O", "F/C=C/F", "C/C=C/C=C/C", "CC=[C@]=CC", "C[C@H]1CC[C@@H](C)CC1",
 		"[CH3:1][C@@H:2]([Br:3])[CH2:4][CH3:5].[OH-:6]>>[CH3:1][C@H:2]([OH:6])[CH2:4][CH3:5].[Br-:3]", "c1ccccc1", "C1=CC=CC=C1",
-		"F/C=C/1.Cl1", "[C@@]", "C(/F)=C/=C", "[H][C@@]([H])(F)Cl", "S[As@TB1](F)(Cl)(Br)N", "C1CC/C=C/CC1"} {
+		"F/C=C/1.Cl1", "[C@@]", "C(/F)=C/=C", "[H][C@@]([H])(F)Cl", "S[As@TB1](F)(Cl)(Br)N", "C1CC/C=C/CC1",
+		"[S@](=O)(C)c1ccccc1", "C/1=C/CCCCCCCC/1", "C[N@]1[N@](C)[N@@]1C", "C1[N@@]2C[N@@]3C[N@]1C[N@H+](C2)C3"} {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
@@ -64,5 +65,16 @@ func FuzzIdentityAndTransforms(f *testing.F) {
 		}
 		Clean(m)
 		CompleteOneSided(m)
+		// the portable rewrite, under every reading: when it is made,
+		// it reads under every reading as the record under its own
+		// (Portable checks that itself and refuses otherwise)
+		for _, r := range notation.Readings() {
+			mr := notation.ReadWith(s, r)
+			if tr, err := Portable(mr); err == nil {
+				if _, err := notation.ApplyEdits(s, tr.Edits); err != nil {
+					t.Fatalf("portable edits on %q do not apply: %v", s, err)
+				}
+			}
+		}
 	})
 }

@@ -145,7 +145,7 @@ func newImpossibility(m *notation.Molecule, an *stereo.Analysis, edits []notatio
 		}
 		return n
 	}
-	after := stereo.Analyze(notation.Read(text))
+	after := stereo.Analyze(notation.ReadWith(text, m.Reading))
 	if count(after) <= count(an) {
 		return "", false
 	}
@@ -255,7 +255,7 @@ func labelAfter(m *notation.Molecule, edits []notation.Edit, u *stereo.Unit) (st
 	if err != nil {
 		return stereo.DescNone, false
 	}
-	an := stereo.Analyze(notation.Read(text))
+	an := stereo.Analyze(notation.ReadWith(text, m.Reading))
 	for i := range an.Units {
 		v := &an.Units[i]
 		if v.Kind == u.Kind && sameAtoms(v.Atoms, u.Atoms) && v.Specified {

@@ -33,6 +33,10 @@ function settings(): Record<string, unknown> {
     columns: c.get("columns", []),
     names: c.get("names", []),
     files: c.get("files", {}),
+    reading: {
+      lonePair: c.get("reading.lonePair", "last"),
+      ringMarks: c.get("reading.ringMarks", "closing"),
+    },
   };
 }
 

@@ -297,6 +297,7 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
       columns: [],
       names: [],
       files: {},
+      reading: { lonePair: "last", ringMarks: "closing" },
     });
     // The server asks for the "stereoline" section (workspace/configuration);
     // the client answers from the same settings.

@@ -32,24 +32,28 @@ func PlainHydrogen(m *notation.Molecule, a int) bool {
 
 // Ligands lists the ligands of atom a in stereo order (the neighbour
 // order of notation.Atom.Bonds, OpenSMILES 1.0, 3.9.1), with its
-// hydrogens, and a lone pair when lonePair, as Implicit at the hydrogen
-// slot (notation.Atom.HydrogenSlot). With fold, plain [H] atoms
-// (PlainHydrogen) are listed as Implicit where they stand. The list has
-// room for one more ligand, so a caller may insert a lone pair without
-// another allocation.
+// hydrogens as Implicit at the hydrogen slot (notation.Atom.HydrogenSlot)
+// and, when lonePair, a lone pair as Implicit where the molecule's
+// reading puts it (notation.Molecule.LonePairSlot). With fold, plain [H]
+// atoms (PlainHydrogen) are listed as Implicit where they stand. The list
+// has room for one more ligand, so a caller may insert a lone pair
+// without another allocation.
 func Ligands(m *notation.Molecule, a int, lonePair, fold bool) []int {
 	at := &m.Atoms[a]
 	extra := at.HydrogenCount()
-	if lonePair {
-		extra++
-	}
-	out := make([]int, 0, len(at.Bonds)+extra+1)
+	out := make([]int, 0, len(at.Bonds)+extra+2)
 	for _, bi := range at.Bonds {
 		x := m.Bonds[bi].Other(a)
 		if fold && PlainHydrogen(m, x) {
 			x = Implicit
 		}
 		out = append(out, x)
+	}
+	if lonePair && extra == 0 && len(at.Bonds) == 3 {
+		return slices.Insert(out, m.LonePairSlot(a), Implicit)
+	}
+	if lonePair {
+		extra++
 	}
 	if extra > 0 {
 		slot := min(at.HydrogenSlot(), len(out))

@@ -264,8 +264,8 @@ func TestAllenes(t *testing.T) {
 
 // TestLigands: the stereo order puts implicit hydrogens at the hydrogen
 // slot, after the preceding atom (OpenSMILES 3.9.1), and a lone pair
-// where a hydrogen would stand; folded [H] atoms count as hydrogens
-// where they are written.
+// where the molecule's reading puts it; folded [H] atoms count as
+// hydrogens where they are written.
 func TestLigands(t *testing.T) {
 	tests := []struct {
 		smiles         string
@@ -275,7 +275,11 @@ func TestLigands(t *testing.T) {
 	}{
 		{"N[C@@H](C)C(=O)O", 1, false, false, []int{0, Implicit, 2, 3}},
 		{"[C@@H](N)(C)C(=O)O", 0, false, false, []int{Implicit, 1, 2, 3}},
-		{"C[S@](=O)CC", 1, true, false, []int{0, Implicit, 2, 3}},
+		// by default the lone pair stands last, as RDKit reads it
+		// (notation.Reading); a ring digit on a centre with only
+		// single bonds puts it before the last neighbour
+		{"C[S@](=O)CC", 1, true, false, []int{0, 2, 3, Implicit}},
+		{"C[N@]1CC1C", 1, true, false, []int{0, 3, Implicit, 2}},
 		{"[H][C@](F)(Cl)Br", 1, false, false, []int{0, 2, 3, 4}},
 		{"[H][C@](F)(Cl)Br", 1, false, true, []int{Implicit, 2, 3, 4}},
 		{"[2H][C@](F)(Cl)Br", 1, false, true, []int{0, 2, 3, 4}}, // an isotope is no plain hydrogen
@@ -284,6 +288,22 @@ func TestLigands(t *testing.T) {
 		m := notation.Read(tt.smiles)
 		if got := Ligands(m, tt.atom, tt.lonePair, tt.fold); !slices.Equal(got, tt.want) {
 			t.Errorf("%s: ligands of %d = %v, want %v", tt.smiles, tt.atom, got, tt.want)
+		}
+	}
+	// read with the lone pair in the hydrogen's slot (OpenSMILES 3.8.2
+	// for a hydrogen, Open Babel for a lone pair)
+	slot := notation.Reading{LonePair: notation.LonePairHydrogenSlot}
+	for _, tt := range []struct {
+		smiles string
+		atom   int
+		want   []int
+	}{
+		{"C[S@](=O)CC", 1, []int{0, Implicit, 2, 3}},
+		{"[S@](=O)(C)CC", 0, []int{Implicit, 1, 2, 3}},
+		{"C[N@]1CC1C", 1, []int{0, Implicit, 3, 2}},
+	} {
+		if got := Ligands(notation.ReadWith(tt.smiles, slot), tt.atom, true, false); !slices.Equal(got, tt.want) {
+			t.Errorf("%s read with %s: ligands of %d = %v, want %v", tt.smiles, slot, tt.atom, got, tt.want)
 		}
 	}
 }

@@ -239,6 +239,7 @@ function frames(buf) {
     if (!m) break;
     const start = sep + 4;
     const end = start + Number(m[1]);
+    if (end > buf.length) break; // a frame still being written
     out.push(JSON.parse(buf.slice(start, end).toString("utf8")));
     i = end;
   }

@@ -111,8 +111,9 @@ func (f *drawingFolder) clean() {
 	}
 }
 
-// codeLenses answers textDocument/codeLens: one lens per record that
-// runs commandShowDrawing on it.
+// codeLenses answers textDocument/codeLens: a lens that runs
+// commandShowDrawing on each record the drawingLens setting names (by
+// default the records of lists and tables).
 func (s *Server) codeLenses(ctx context.Context, snap *snapshot, params json.RawMessage) (any, error) {
 	var p protocol.CodeLensParams
 	if err := decode(params, &p); err != nil {
@@ -123,8 +124,8 @@ func (s *Server) codeLenses(ctx context.Context, snap *snapshot, params json.Raw
 		return []protocol.CodeLens{}, err
 	}
 	lenses := []protocol.CodeLens{}
-	for i := range res.Records {
-		if i == maxLenses {
+	for k, i := range res.DrawingLenses() {
+		if k == maxLenses {
 			break
 		}
 		sp := res.Records[i].Occ.Span

@@ -119,3 +119,28 @@ func TestDrawingCommand(t *testing.T) {
 		t.Errorf("drawing folder still there after exit: %v", err)
 	}
 }
+
+// TestDrawingLensSetting: strings in source code get no drawing lens by
+// default (a lens over every literal is noise); the drawingLens setting
+// gives them one.
+func TestDrawingLensSetting(t *testing.T) {
+	const u = "file:///work/build_pool.py"
+	text := "alanine_smiles = \"N[C@@H](C)C(=O)O\"\nbutene_smiles = \"C/C=C/C\"\n"
+	for _, c := range []struct {
+		initOpts any
+		want     int
+	}{
+		{nil, 0},
+		{map[string]any{"drawingLens": "everywhere"}, 2},
+		{map[string]any{"stereoline": map[string]any{"drawingLens": "off"}}, 0},
+	} {
+		cl := start(t, clientSetup{initOpts: c.initOpts})
+		cl.open(u, "python", 1, text)
+		var lenses []json.RawMessage
+		cl.mustCall("textDocument/codeLens", map[string]any{"textDocument": textDoc(u)}, &lenses)
+		if len(lenses) != c.want {
+			t.Errorf("settings %v: %d lenses, want %d", c.initOpts, len(lenses), c.want)
+		}
+		cl.stop()
+	}
+}

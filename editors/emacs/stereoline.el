@@ -40,7 +40,8 @@ For example (smiles-mode python-mode csv-mode markdown-mode)."
 (defcustom stereoline-settings '(:inlayHints t)
   "The server's settings as a plist, the \"stereoline\" section.
 Keys: :severity (a plist of code to \"error\", \"warning\",
-\"information\", \"hint\" or \"off\"), :inlayHints, :detection
+\"information\", \"hint\" or \"off\"), :inlayHints, :drawingLens
+\(\"lists\", \"everywhere\" or \"off\"), :detection
 \(\"normal\" or \"names\"), :columns, :names (vectors of strings),
 :files (a plist of pattern to host kind).  Sent as
 initializationOptions and as the answer to workspace/configuration."

@@ -120,3 +120,13 @@ func orient(p [4][3]float64) float64 {
 	}
 	return a[0]*(b[1]*c[2]-b[2]*c[1]) - a[1]*(b[0]*c[2]-b[2]*c[0]) + a[2]*(b[0]*c[1]-b[1]*c[0])
 }
+
+// segmentDist is the distance from p to the segment ab.
+func segmentDist(p, a, b Point) float64 {
+	ab := b.sub(a)
+	t := 0.0
+	if n := ab.dot(ab); n > 1e-12 {
+		t = min(1, max(0, p.sub(a).dot(ab)/n))
+	}
+	return p.dist(a.add(ab.scale(t)))
+}

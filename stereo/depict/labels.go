@@ -2,6 +2,7 @@ package depict
 
 import (
 	"math"
+	"slices"
 	"strings"
 
 	"stereoline/notation"
@@ -26,12 +27,13 @@ func (l *layout) drawing(opt Options) *Drawing {
 		d.Atoms = append(d.Atoms, Atom{N: l.n + k + 1, Added: true, Element: notation.ElemH, Symbol: "H",
 			P: h.p, Role: m.Atoms[h.centre].Role})
 	}
+	orders := l.canonicalKekule()
 	for bi := range m.Bonds {
 		b := &m.Bonds[bi]
 		if b.Begin < 0 || b.End < 0 || b.Begin >= l.n || b.End >= l.n {
 			continue
 		}
-		db := Bond{A: b.Begin, B: b.End, Order: kekule(b), Narrow: -1, Ring: l.ringBond[bi]}
+		db := Bond{A: b.Begin, B: b.End, Order: orders[bi], Narrow: -1, Ring: l.ringBond[bi]}
 		switch {
 		case b.Order == notation.OrderAromatic:
 			db.Style = StyleAromatic
@@ -157,20 +159,26 @@ func (l *layout) doubleSide(d *Drawing, b *Bond, nb [][]int) {
 	}
 	pa, pb := d.Atoms[b.A].P, d.Atoms[b.B].P
 	if b.Ring && b.A < l.n && b.B < l.n {
-		for _, r := range l.rings.SSSR {
-			in := 0
+		// inside the smallest ring through the bond, of equal rings the
+		// canonically first
+		var in *notation.Ring
+		for k := range l.rings.SSSR {
+			r := &l.rings.SSSR[k]
+			if !slices.Contains(r.Atoms, b.A) || !slices.Contains(r.Atoms, b.B) {
+				continue
+			}
+			if in == nil || r.Size() < in.Size() || r.Size() == in.Size() && l.ringOrder(*r, *in) < 0 {
+				in = r
+			}
+		}
+		if in != nil {
 			var c Point
-			for _, x := range r.Atoms {
+			for _, x := range in.Atoms {
 				c = c.add(l.pos[x])
-				if x == b.A || x == b.B {
-					in++
-				}
 			}
-			if in == 2 {
-				c = c.scale(1 / float64(len(r.Atoms)))
-				b.Side = side(c, pa, pb)
-				return
-			}
+			c = c.scale(1 / float64(len(in.Atoms)))
+			b.Side = side(c, pa, pb)
+			return
 		}
 	}
 	if len(nb[b.A]) == 1 || len(nb[b.B]) == 1 {
@@ -219,8 +227,9 @@ func (l *layout) placeDescriptors(d *Drawing) {
 	for _, b := range d.Bonds {
 		taken = append(taken, d.Atoms[b.A].P.add(d.Atoms[b.B].P).scale(0.5))
 	}
-	for i := range l.an.Units {
-		u := &l.an.Units[i]
+	// in canonical order, so each label finds the same room whatever
+	// the order of the text
+	for _, u := range l.canonicalUnits() {
 		if !u.Specified || !u.Descriptor.Labelled() {
 			continue
 		}
@@ -258,4 +267,34 @@ func (l *layout) placeDescriptors(d *Drawing) {
 		}
 		d.Descriptors = append(d.Descriptors, Descriptor{Text: text, P: best, Unit: u.Kind})
 	}
+}
+
+// canonicalUnits returns the analysis's units in canonical order: by the
+// first rank among their atoms, then by kind, then by the other atoms.
+func (l *layout) canonicalUnits() []*stereo.Unit {
+	units := make([]*stereo.Unit, 0, len(l.an.Units))
+	for i := range l.an.Units {
+		units = append(units, &l.an.Units[i])
+	}
+	key := func(u *stereo.Unit) []int {
+		var k []int
+		for _, a := range u.Atoms {
+			if a >= 0 && a < l.n {
+				k = append(k, l.rank[a])
+			}
+		}
+		slices.Sort(k)
+		return k
+	}
+	slices.SortStableFunc(units, func(a, b *stereo.Unit) int {
+		ka, kb := key(a), key(b)
+		if len(ka) > 0 && len(kb) > 0 && ka[0] != kb[0] {
+			return ka[0] - kb[0]
+		}
+		if a.Kind != b.Kind {
+			return int(a.Kind) - int(b.Kind)
+		}
+		return slices.Compare(ka, kb)
+	})
+	return units
 }

@@ -10,7 +10,8 @@ import (
 // written trans bond needs its two ends to turn opposite ways. The ring
 // is walked with equal turns everywhere except at the ends of such bonds,
 // which turn by the same amount in opposite directions; the small
-// closing error is spread over the ring.
+// closing error is spread over the ring, and the ring relaxed towards
+// equal bonds.
 
 // bendTrans re-shapes the polygon of cycle in pos when one of its bonds
 // carries a written trans configuration between its ring neighbours.
@@ -96,4 +97,7 @@ func (l *layout) bendTrans(cycle []int, pos []Point) {
 	for i, a := range cycle {
 		pos[a] = pts[i].sub(c)
 	}
+	// the closing error spread over the ring leaves bonds of unequal
+	// length; even them out, keeping every bond's side
+	l.relax(cycle, nil, pos)
 }

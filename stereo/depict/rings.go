@@ -17,14 +17,36 @@ import (
 // side that overlaps least.
 
 // layoutSystem returns positions indexed by atom for the atoms of
-// system s.
+// system s. Bridged systems are drawn around a perimeter (bridged.go);
+// so is a system whose ring-by-ring drawing has crossing bonds, when
+// that scores better.
 func (l *layout) layoutSystem(s int) []Point {
 	sys := &l.systems[s]
+	if isBridged(sys.rings) {
+		if pos, ok := l.layoutCage(s); ok {
+			return pos
+		}
+	}
 	pos := make([]Point, l.n)
 	done := make([]bool, l.n)
 	rings := l.cycles(sys)
 	first := l.firstRing(rings)
 	l.polygon(first, pos, done)
+	l.fillRings(rings, pos, done)
+	l.placeLeftovers(sys, pos, done)
+	if l.peripheral(sys) && l.systemFlawed(sys, pos) {
+		if alt, ok := l.layoutCage(s); ok && l.systemScore(sys, alt) < l.systemScore(sys, pos) {
+			return alt
+		}
+	}
+	return pos
+}
+
+// fillRings places, ring by ring, the rings with atoms not yet done:
+// each time the ring with most atoms done, a spiro ring as a polygon on
+// the free side of its shared atom, the unplaced runs of any other ring
+// as arcs.
+func (l *layout) fillRings(rings []notation.Ring, pos []Point, done []bool) {
 	placedRing := make([]bool, len(rings))
 	for step := 0; step < len(rings); step++ {
 		best, bestShared := -1, 0
@@ -52,19 +74,69 @@ func (l *layout) layoutSystem(s int) []Point {
 		placedRing[best] = true
 		r := rings[best]
 		if bestShared == 1 {
-			l.spiro(r, pos, done)
+			l.spiro(r, rings, pos, done)
 		} else {
 			l.fillRuns(r, pos, done)
 		}
 	}
-	// atoms no ring placed (an approximate ring search): on a circle
+}
+
+// placeLeftovers puts atoms no ring placed (an approximate ring search)
+// on a circle.
+func (l *layout) placeLeftovers(sys *ringSystem, pos []Point, done []bool) {
 	for i, a := range sys.atoms {
 		if !done[a] {
 			pos[a] = polar(3+float64(i)*0.1, float64(i))
 			done[a] = true
 		}
 	}
-	return pos
+}
+
+// peripheral reports a system with an atom in three or more of its
+// smallest rings (a cage such as cubane, or a peri-fused system).
+func (l *layout) peripheral(sys *ringSystem) bool {
+	if len(sys.atoms) > maxCageAtoms {
+		return false
+	}
+	count := map[int]int{}
+	for _, r := range sys.rings {
+		for _, a := range r.Atoms {
+			count[a]++
+			if count[a] >= 3 {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// systemFlawed reports two bonds of the system that cross or an atom
+// that sits on a bond.
+func (l *layout) systemFlawed(sys *ringSystem, pos []Point) bool {
+	var bonds [][2]int
+	for _, a := range sys.atoms {
+		for _, y := range l.nbr[a] {
+			if a < y && l.sysOf[y] == l.sysOf[a] {
+				bonds = append(bonds, [2]int{a, y})
+			}
+		}
+	}
+	for i, p := range bonds {
+		for _, q := range bonds[i+1:] {
+			if p[0] == q[0] || p[0] == q[1] || p[1] == q[0] || p[1] == q[1] {
+				continue
+			}
+			if segmentsCross(pos[p[0]], pos[p[1]], pos[q[0]], pos[q[1]]) {
+				return true
+			}
+		}
+		for _, a := range sys.atoms {
+			if a != p[0] && a != p[1] && segmentDist(pos[a], pos[p[0]], pos[p[1]]) < 0.35 {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // ringKey orders rings canonically: by the ranks of their atoms.
@@ -265,9 +337,11 @@ func (l *layout) polygon(cycle []int, pos []Point, done []bool) {
 	l.bendTrans(cycle, pos)
 }
 
-// spiro places ring r, which shares one placed atom, as a polygon on the
-// free side of that atom.
-func (l *layout) spiro(r notation.Ring, pos []Point, done []bool) {
+// spiro places ring r, which shares one placed atom, as a polygon on
+// the free side of that atom. Where three or more rings of the system
+// meet at the atom (a metal with its chelate rings), the rings stand
+// evenly around it, a turn divided by their number apart.
+func (l *layout) spiro(r notation.Ring, rings []notation.Ring, pos []Point, done []bool) {
 	n := len(r.Atoms)
 	k := 0
 	for i, a := range r.Atoms {
@@ -286,6 +360,9 @@ func (l *layout) spiro(r notation.Ring, pos []Point, done []bool) {
 		away = Point{1, 0}
 	}
 	away = away.unit()
+	if dirs := l.spiroDirections(s, rings, pos, done); len(dirs) > 0 {
+		away = polar(1, l.freeSpiroDirection(s, dirs, pos, done))
+	}
 	rad := 1 / (2 * math.Sin(math.Pi/float64(n)))
 	centre := pos[s].add(away.scale(rad))
 	base := pos[s].sub(centre).angle()
@@ -309,6 +386,74 @@ func (l *layout) spiro(r notation.Ring, pos []Point, done []bool) {
 			done[a] = true
 		}
 	}
+}
+
+// spiroDirections returns, for an atom where three or more rings of
+// the system meet, the directions a ring's centre may take from it:
+// evenly spread from the first ring placed there, less those taken.
+func (l *layout) spiroDirections(s int, rings []notation.Ring, pos []Point, done []bool) []float64 {
+	total := 0
+	var taken []float64
+	first := -1
+	for ri, q := range rings {
+		if !slices.Contains(q.Atoms, s) {
+			continue
+		}
+		total++
+		all := true
+		var c Point
+		for _, a := range q.Atoms {
+			all = all && done[a]
+			c = c.add(pos[a])
+		}
+		if !all {
+			continue
+		}
+		d := c.scale(1 / float64(len(q.Atoms))).sub(pos[s]).angle()
+		taken = append(taken, d)
+		if first < 0 || l.ringOrder(q, rings[first]) < 0 {
+			first = ri
+			taken[0], taken[len(taken)-1] = taken[len(taken)-1], taken[0]
+		}
+	}
+	if total < 3 || len(taken) == 0 {
+		return nil
+	}
+	var out []float64
+	for i := 1; i < total; i++ {
+		d := taken[0] + 2*math.Pi*float64(i)/float64(total)
+		free := true
+		for _, t := range taken {
+			if angleDiff(d, t) < 0.5 {
+				free = false
+			}
+		}
+		if free {
+			out = append(out, d)
+		}
+	}
+	return out
+}
+
+// freeSpiroDirection picks, of the directions, the one whose ring
+// would come least close to atoms placed.
+func (l *layout) freeSpiroDirection(s int, dirs []float64, pos []Point, done []bool) float64 {
+	best, bestPen := dirs[0], math.Inf(1)
+	for _, d := range dirs {
+		p := pos[s].add(polar(1.2, d))
+		pen := 0.0
+		for a := range pos {
+			if done[a] && a != s {
+				if dd := p.dist(pos[a]); dd < 1.5 {
+					pen += 1.5 - dd
+				}
+			}
+		}
+		if pen < bestPen-1e-9 {
+			best, bestPen = d, pen
+		}
+	}
+	return best
 }
 
 // penalty measures how close new points come to placed atoms.
@@ -415,6 +560,7 @@ func (l *layout) arc(a, b int, run []int, pos []Point, done []bool) {
 		}
 		c := pb.dist(prev)
 		pen += 0.5 * (c - 1) * (c - 1)
+		pen += 100 * float64(l.arcBreaksDoubleBonds(run, cand, pos, done))
 		far := 0.0
 		for _, p := range cand {
 			far += p.dist(centroid)
@@ -427,6 +573,42 @@ func (l *layout) arc(a, b int, run []int, pos []Point, done []bool) {
 		pos[x] = best[i]
 		done[x] = true
 	}
+}
+
+// arcBreaksDoubleBonds counts the written double bonds that placing run
+// at cand would draw the other way (or straight), among those whose ends
+// and references are then all placed.
+func (l *layout) arcBreaksDoubleBonds(run []int, cand []Point, pos []Point, done []bool) int {
+	if len(l.fixed) == 0 {
+		return 0
+	}
+	at := func(a int) (Point, bool) {
+		for i, x := range run {
+			if x == a {
+				return cand[i], true
+			}
+		}
+		return pos[a], done[a]
+	}
+	bad := 0
+	for _, w := range l.fixed {
+		var p [4]Point
+		ok, touched := true, false
+		for k, a := range []int{w.Ends[0], w.Ends[1], w.Refs[0], w.Refs[1]} {
+			q, placed := at(a)
+			ok = ok && placed
+			touched = touched || slices.Contains(run, a)
+			p[k] = q
+		}
+		if !ok || !touched {
+			continue
+		}
+		s0, s1 := side(p[2], p[0], p[1]), side(p[3], p[0], p[1])
+		if s0 == 0 || s1 == 0 || (s0 != s1) != w.Trans {
+			bad++
+		}
+	}
+	return bad
 }
 
 // arcPoints returns k points from a to b (exclusive) on an arc bulging to

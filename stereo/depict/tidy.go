@@ -48,7 +48,7 @@ func (l *layout) compBonds(c []int) [][2]int {
 	var out [][2]int
 	for _, a := range c {
 		for _, y := range l.nbr[a] {
-			if a < y {
+			if l.rank[a] < l.rank[y] {
 				out = append(out, [2]int{a, y})
 			}
 		}

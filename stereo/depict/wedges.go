@@ -63,14 +63,13 @@ func (l *layout) drawStereo() {
 	for _, c := range tetra {
 		l.wedgeCentre(c, centre)
 	}
-	for i := range units {
-		u := &units[i]
+	ordered := l.canonicalUnits()
+	for _, u := range ordered {
 		if u.Specified && u.Kind == stereo.KindAllene && u.Centre >= 0 {
 			l.wedgeAllene(u.Centre)
 		}
 	}
-	for i := range units {
-		u := &units[i]
+	for _, u := range ordered {
 		if u.Specified {
 			continue
 		}

@@ -27,6 +27,10 @@ type Config struct {
 	Severity map[string]string `json:"severity,omitempty"`
 	// InlayHints turns the inline descriptors on or off.
 	InlayHints bool `json:"inlayHints"`
+	// DrawingLens says which records get the editor's drawing code lens
+	// (lens.go): "lists" (records of lists and tables, the default),
+	// "everywhere" or "off".
+	DrawingLens string `json:"drawingLens,omitempty"`
 	// Detection is how eagerly string literals are taken as notation:
 	// "normal" (names, places and unmistakable literals) or "names"
 	// (only where a name or place says so).
@@ -110,6 +114,11 @@ func (c *Config) Validate() error {
 	case "", "normal", "names":
 	default:
 		return fmt.Errorf("detection: expected normal or names, found %q", c.Detection)
+	}
+	switch c.DrawingLens {
+	case "", LensLists, LensEverywhere, LensOff:
+	default:
+		return fmt.Errorf("drawingLens: expected %s, %s or %s, found %q", LensLists, LensEverywhere, LensOff, c.DrawingLens)
 	}
 	if err := c.Reading.validate(); err != nil {
 		return err

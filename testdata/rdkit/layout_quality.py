@@ -12,8 +12,12 @@ and counts a layout as tidy when
   3. no two bonds cross (applied to every molecule; a graph that is not
      planar cannot meet it, and both layouts are judged alike).
 
-Usage: /usr/bin/python3 testdata/rdkit/layout_quality.py [--limit N] [--list]
+Usage: /usr/bin/python3 testdata/rdkit/layout_quality.py [--limit N] [--list] [--write]
 --list prints the molecules each layout fails, with the failed criteria.
+--write also writes layout_quality.tsv beside this script: RDKit's verdict
+for every molecule, which stereo/depict's TestLayoutQuality compares our
+layouts with (suite molecules by their identifier only: the test reads
+their notation from the suite through its relative path).
 """
 
 import json
@@ -73,10 +77,21 @@ def judge(xy, bonds):
     return failed
 
 
+COLUMNS = [
+    ("source", "cip_labels (testdata/rdkit/cip_labels.tsv, its distinct strings) or suite "
+     "(the CIP validation suite, ../shared/reference/cip-validation-suite/compounds.smi)"),
+    ("name", "group:isomer for cip_labels rows, the VS identifier for the suite"),
+    ("smiles", "the string laid out; '-' for suite rows, whose notation the test reads from the suite"),
+    ("rdkit_failed", "the criteria RDKit's Compute2DCoords layout fails, comma separated "
+     "(length, close, cross), or '-' when it is tidy"),
+]
+
+
 def main():
     args = sys.argv[1:]
     limit = int(args[args.index("--limit") + 1]) if "--limit" in args else None
     listing = "--list" in args
+    rows = []
     mols = list(gen_depict.molecules())
     if limit:
         mols = mols[:limit]
@@ -99,6 +114,8 @@ def main():
         conf = mol.GetConformer()
         rd_xy = {i: (conf.GetAtomPosition(i).x, conf.GetAtomPosition(i).y) for i in range(n)}
         total += 1
+        rows.append((source, name, smi if source != "suite" else "-",
+                     ",".join(sorted(judge(rd_xy, bonds))) or "-"))
         for who, xy in (("ours", our_xy), ("rdkit", rd_xy)):
             failed = judge(xy, bonds)
             for f in failed:
@@ -107,11 +124,22 @@ def main():
                 stats[who]["tidy"] += 1
             elif listing and who == "ours":
                 print("untidy", source, name, smi, " ".join(sorted(failed)), sep="\t")
-    print("molecules: %d (cip_labels distinct strings and the CIP validation suite)" % total)
+    lines = ["molecules: %d (cip_labels distinct strings and the CIP validation suite)" % total]
     for who in ("ours", "rdkit"):
         s = stats[who]
-        print("%-6s tidy %d (%.1f%%); bond length off by >10%%: %d; atoms closer than half a bond: %d; crossing bonds: %d"
-              % (who, s["tidy"], 100.0 * s["tidy"] / max(total, 1), s["length"], s["close"], s["cross"]))
+        lines.append("%-6s tidy %d (%.1f%%); bond length off by >10%%: %d; atoms closer than half a bond: %d; crossing bonds: %d"
+                     % (who, s["tidy"], 100.0 * s["tidy"] / max(total, 1), s["length"], s["close"], s["cross"]))
+    print("\n".join(lines))
+    if "--write" in args:
+        with open(os.path.join(fixturelib.HERE, "layout_quality.tsv"), "w") as out:
+            fixturelib.header(
+                out, "layout_quality.tsv: RDKit's Compute2DCoords layouts judged tidy or not",
+                "testdata/rdkit/cip_labels.tsv (distinct strings) and ../shared/reference/cip-validation-suite/compounds.smi, "
+                "read with removeHs=False; tidy: every bond within 10% of the median bond, no two atoms closer than half "
+                "of it, no two bonds crossing",
+                COLUMNS, notes=["when written: " + lines[1].replace("ours  ", "ours (this tree)"), lines[2]])
+            for r in rows:
+                out.write("\t".join(r) + "\n")
 
 
 if __name__ == "__main__":

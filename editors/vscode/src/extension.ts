@@ -28,6 +28,7 @@ function settings(): Record<string, unknown> {
   return {
     severity: c.get("severity", {}),
     inlayHints: c.get("inlayHints", true),
+    drawingLens: c.get("drawingLens", "lists"),
     detection: c.get("detection", "normal"),
     columns: c.get("columns", []),
     names: c.get("names", []),

@@ -239,6 +239,7 @@ function frames(buf) {
     if (!m) break;
     const start = sep + 4;
     const end = start + Number(m[1]);
+    if (end > buf.length) break; // a frame still being written
     out.push(JSON.parse(buf.slice(start, end).toString("utf8")));
     i = end;
   }
@@ -270,7 +271,7 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
     `#!/bin/sh\n[ "$1" = serve ] || exit 2\ntee "${sent}" | { "${bin}" serve 2>/dev/null; echo $? > "${status}"; } | tee "${received}"\n`,
     { mode: 0o755 },
   );
-  const settings = { path: wrapper, inlayHints: false, detection: "names", severity: { "stereo-undefined": "off" } };
+  const settings = { path: wrapper, inlayHints: false, drawingLens: "everywhere", detection: "names", severity: { "stereo-undefined": "off" } };
   const record = { output: [], errors: [], commands: [], providers: [] };
   const fake = fakeVscode(settings, record);
   const load = Module._load;
@@ -292,6 +293,7 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
     assert.deepEqual(init.params.initializationOptions, {
       severity: { "stereo-undefined": "off" },
       inlayHints: false,
+      drawingLens: "everywhere",
       detection: "names",
       columns: [],
       names: [],
@@ -312,6 +314,7 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
     const answer = frames(fs.readFileSync(sent)).find((m) => m.id === asked.id && m.result);
     assert.equal(answer.result[0].detection, "names");
     assert.equal(answer.result[0].inlayHints, false);
+    assert.equal(answer.result[0].drawingLens, "everywhere");
     // Documents of the languages the extension selects reach the server
     // (didOpen); others do not.
     const fixtures = path.join(__dirname, "..", "..", "tests", "fixtures");

@@ -21,8 +21,8 @@ M.defaults = {
   filetypes = { "smiles", "python", "csv", "tsv", "markdown" },
   -- Files or directories that mark a project root, searched upwards.
   root_markers = { ".git", "pyproject.toml", "setup.py" },
-  -- The server's settings: severity, inlayHints, detection, columns,
-  -- names, files.
+  -- The server's settings: severity, inlayHints, drawingLens, detection,
+  -- columns, names, files.
   settings = {},
   -- Called as on_attach(client, bufnr) after a buffer is attached.
   on_attach = nil,

@@ -159,11 +159,27 @@ func (d *digraph) kids(n nodeID) []nodeID {
 }
 
 // onPath returns the node on the path from the root to n (n included)
-// that stands for atom a, or noNode.
-func (d *digraph) onPath(n nodeID, a int) nodeID {
+// that stands for atom a, reached from n's atom by bond, or noNode. The
+// part of the path from that node to n closes a cycle with the bond, so
+// it lies in the bond's block: the walk up stops at the first bond
+// outside it, which keeps the search short on long chains (a bridge
+// closes no cycle and is not searched at all).
+func (d *digraph) onPath(n nodeID, a int, bond int) nodeID {
+	g := d.g
+	if x := &d.nodes[n]; x.kind == nodeAtom && x.atom == a {
+		return n // a bond from an atom to itself
+	}
+	if !g.ringBond[bond] {
+		return noNode
+	}
+	blk := g.block[bond]
 	for ; n != noNode; n = d.nodes[n].parent {
-		if d.nodes[n].kind == nodeAtom && d.nodes[n].atom == a {
+		x := &d.nodes[n]
+		if x.kind == nodeAtom && x.atom == a {
 			return n
+		}
+		if x.bond < 0 || g.block[x.bond] != blk {
+			return noNode
 		}
 	}
 	return noNode
@@ -204,7 +220,7 @@ func (d *digraph) expand(n nodeID) {
 			}
 			continue
 		}
-		if anc := d.onPath(n, e.to); anc != noNode {
+		if anc := d.onPath(n, e.to, e.bond); anc != noNode {
 			// a ring closure back to an atom already on the path
 			for i := 0; i < e.cip; i++ {
 				z, mass := float64(g.z[e.to]), g.mass[e.to]

@@ -21,6 +21,11 @@ type graph struct {
 	mass []float64 // mass used by Rule 2
 
 	ringBond []bool // bond lies on a ring
+	// block numbers, per bond, the biconnected component (block) of the
+	// graph the bond lies in; a bridge is a block of its own. A cycle
+	// lies in one block, which lets the digraph look for ring closures
+	// only along the part of a path inside the closing bond's block.
+	block    []int32
 	ringAtom []bool
 	mancudeZ []float64 // for an atom of a mancude ring system, the atomic number of its duplicate
 	mancudeM []float64 // and the mass of that duplicate, averaged the same way
@@ -136,6 +141,8 @@ type graphStore struct {
 	bools   []bool
 	scratch []int
 	frames  []dfsFrame
+	blocks  []int32
+	edgeSt  []int32
 	rings   []int
 	// the labeller's flags by bond and by atom (marks.go, analyze.go)
 	marks, unitAtoms []bool
@@ -323,12 +330,17 @@ func (g *graph) smallRings() [][]int {
 // dfsFrame is one atom on the stack of the bridge search.
 type dfsFrame struct{ v, viaBond, next int }
 
-// cyclicBonds marks the bonds that lie on some cycle: every bond that is
-// not a bridge of the graph (depth-first search with low links, written
-// with an explicit stack so that long chains cannot exhaust it).
+// cyclicBonds marks the bonds that lie on some cycle, every bond that is
+// not a bridge of the graph, and numbers the blocks of the graph in
+// g.block (depth-first search with low links and a stack of bonds,
+// written with an explicit stack so that long chains cannot exhaust it).
 func (g *graph) cyclicBonds(cyclic []bool) {
 	for i := range cyclic {
 		cyclic[i] = true
+	}
+	g.block = grown(&g.store.blocks, len(cyclic))
+	for i := range g.block {
+		g.block[i] = -1
 	}
 	scratch := sized(&g.store.scratch, 2*g.n)
 	order, low := scratch[:g.n], scratch[g.n:]
@@ -336,8 +348,9 @@ func (g *graph) cyclicBonds(cyclic []bool) {
 		order[i] = -1
 	}
 	stack := g.store.frames[:0]
-	defer func() { g.store.frames = stack[:0] }()
-	counter := 0
+	bonds := g.store.edgeSt[:0]
+	defer func() { g.store.frames, g.store.edgeSt = stack[:0], bonds[:0] }()
+	counter, blocks := 0, int32(0)
 	for s := 0; s < g.n; s++ {
 		if order[s] >= 0 {
 			continue
@@ -356,9 +369,15 @@ func (g *graph) cyclicBonds(cyclic []bool) {
 				if order[e.to] < 0 {
 					order[e.to], low[e.to] = counter, counter
 					counter++
+					bonds = append(bonds, int32(e.bond))
 					stack = append(stack, dfsFrame{e.to, e.bond, 0})
-				} else if order[e.to] < low[f.v] {
-					low[f.v] = order[e.to]
+				} else if order[e.to] < order[f.v] {
+					// a bond back up the tree, met from its lower end
+					// only (from the upper end it is already stacked)
+					bonds = append(bonds, int32(e.bond))
+					if order[e.to] < low[f.v] {
+						low[f.v] = order[e.to]
+					}
 				}
 				continue
 			}
@@ -370,6 +389,19 @@ func (g *graph) cyclicBonds(cyclic []bool) {
 				}
 				if low[f.v] > order[p.v] && f.viaBond >= 0 {
 					cyclic[f.viaBond] = false
+				}
+				if low[f.v] >= order[p.v] {
+					// p separates the bonds stacked since f.viaBond
+					// from the rest: they make one block
+					for len(bonds) > 0 {
+						b := bonds[len(bonds)-1]
+						bonds = bonds[:len(bonds)-1]
+						g.block[b] = blocks
+						if int(b) == f.viaBond {
+							break
+						}
+					}
+					blocks++
 				}
 			}
 		}

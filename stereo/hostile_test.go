@@ -131,3 +131,122 @@ func TestNodeCap(t *testing.T) {
 		}
 	}
 }
+
+// The hostile records of issue 13, built at any size. The same records
+// are written to files by testdata/hostile/gen.py for the whole-pipeline
+// measurements of testdata/hostile/run.sh.
+
+// chainMarks writes a chain of n marked centres, [C@H](F) repeated.
+func chainMarks(n int) string { return strings.Repeat("[C@H](F)", n) }
+
+// smallRings writes a chain of n three-membered rings.
+func smallRings(n int) string { return strings.Repeat("C%10CC%10", n) }
+
+// fusedLadder writes n fused six-membered rings: a top row t0..tn and a
+// bottom row b0..bn joined by rungs t_i-b_i, one CH2 between
+// neighbouring fusion atoms of each row, written as one path (the top
+// row, then the bottom row back) with the rungs as ring closures. When
+// marked, every fusion atom but the four at the ends (CH2 groups) is
+// marked, the hands alternating.
+func fusedLadder(n int, marked bool) string {
+	if n >= 90 {
+		panic("fusedLadder: one ring number per rung, at most 89")
+	}
+	fusion := func(i int, hand bool) string {
+		switch {
+		case !marked || i == 0 || i == n:
+			return "C"
+		case hand:
+			return "[C@H]"
+		}
+		return "[C@@H]"
+	}
+	var b strings.Builder
+	for i := 0; i <= n; i++ {
+		b.WriteString(fusion(i, i%2 == 0))
+		if i < n {
+			fmt.Fprintf(&b, "%%%dC", 10+i)
+		}
+	}
+	for i := n; i >= 0; i-- {
+		b.WriteString(fusion(i, i%2 == 1))
+		if i < n {
+			fmt.Fprintf(&b, "%%%d", 10+i)
+		}
+		if i > 0 {
+			b.WriteString("C")
+		}
+	}
+	return b.String()
+}
+
+// sheet writes a saturated honeycomb of rows×cols carbons with every
+// atom marked: a brick wall, atom (r, c) bonded to its row neighbours
+// and to (r+1, c) when r+c is even. Rows are chains joined by '.', the
+// bonds between rows ring closures (at most cols open at a time).
+func sheet(rows, cols int) string {
+	var free []int
+	for n := 99; n >= 10; n-- {
+		free = append(free, n)
+	}
+	down := map[[2]int]int{}
+	var b strings.Builder
+	for r := 0; r < rows; r++ {
+		if r > 0 {
+			b.WriteByte('.')
+		}
+		for c := 0; c < cols; c++ {
+			if (r*cols+c)%3 != 0 {
+				b.WriteString("[C@H]")
+			} else {
+				b.WriteString("[C@@H]")
+			}
+			if n, ok := down[[2]int{r - 1, c}]; ok {
+				delete(down, [2]int{r - 1, c})
+				fmt.Fprintf(&b, "%%%d", n)
+				free = append(free, n)
+			}
+			if r+1 < rows && (r+c)%2 == 0 {
+				n := free[len(free)-1]
+				free = free[:len(free)-1]
+				down[[2]int{r, c}] = n
+				fmt.Fprintf(&b, "%%%d", n)
+			}
+		}
+	}
+	return b.String()
+}
+
+// hostileRecords are the records of issue 13 at the sizes it names.
+var hostileRecords = []struct {
+	name   string
+	smiles func() string
+}{
+	{"chain-marks-2000", func() string { return chainMarks(2000) }},
+	{"chain-marks-4000", func() string { return chainMarks(4000) }},
+	{"chain-marks-8000", func() string { return chainMarks(8000) }},
+	{"chain-marks-50000", func() string { return chainMarks(50000) }},
+	{"small-rings-8000", func() string { return smallRings(8000) }},
+	{"small-rings-20000", func() string { return smallRings(20000) }},
+	{"fused-ladder-20", func() string { return fusedLadder(20, true) }},
+	{"fused-ladder-40", func() string { return fusedLadder(40, true) }},
+	{"fused-ladder-80", func() string { return fusedLadder(80, true) }},
+	{"sheet-30x30", func() string { return sheet(30, 30) }},
+	{"chain-1000000", func() string { return strings.Repeat("C", 1000000) }},
+	{"nested-100000", func() string {
+		return strings.Repeat("C(", 100000) + "C" + strings.Repeat(")", 100000)
+	}},
+}
+
+// BenchmarkHostileRecords reads and analyses each hostile record of
+// issue 13 (GOMAXPROCS=1 for the figures in the issue's report).
+func BenchmarkHostileRecords(b *testing.B) {
+	for _, c := range hostileRecords {
+		text := c.smiles()
+		b.Run(c.name, func(b *testing.B) {
+			for b.Loop() {
+				Analyze(notation.Read(text))
+			}
+		})
+	}
+}

@@ -5,6 +5,7 @@ package stereo
 
 import (
 	"slices"
+	"time"
 
 	"stereoline/notation"
 )
@@ -60,8 +61,15 @@ type Analysis struct {
 
 // Options tune Analyze; the zero value is the default.
 type Options struct {
-	// NodeCap bounds the nodes of each digraph; 0 means the default.
+	// NodeCap bounds the nodes of each digraph; 0 means DefaultNodeCap.
 	NodeCap int
+	// Budget is the time the call may take; 0 means DefaultBudget and a
+	// negative budget none. A record that needs more comes back with the
+	// units left unlabelled reported under CodeBudget.
+	Budget time.Duration
+	// deadline, when set, replaces Budget: the analyses a call runs
+	// inside itself (portable.go, groups.go) share their caller's
+	deadline time.Time
 	// noOpenMarks leaves out the report of marks read differently by
 	// other readers: set for the second analysis that report runs
 	noOpenMarks bool
@@ -84,7 +92,7 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 	ws := takeWorkspace()
 	ws.g.build(m)
 	ws.cfg.reset()
-	l := &labeller{g: &ws.g, cfg: &ws.cfg, nodeCap: opt.NodeCap, res: res, spare: ws.spare}
+	l := &labeller{g: &ws.g, cfg: &ws.cfg, nodeCap: opt.NodeCap, res: res, spare: ws.spare, budget: newBudget(opt)}
 	l.classes = &lazyClasses{g: l.g}
 	defer func() {
 		// an internal error must not reach the user; the analysis so far
@@ -100,13 +108,17 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 	if l.nodeCap <= 0 {
 		l.nodeCap = defaultNodeCap
 	}
+	opt.deadline = l.budget.deadline
 	l.readCentres()
 	l.checkBridgeheads()
 	l.readBonds()
 	l.checkCages()
 	l.labelAll()
-	l.perceiveUnmarked()
+	if !l.budget.check() {
+		l.perceiveUnmarked()
+	}
 	l.reportStrayBondMarks()
+	l.reportBudget()
 	if !opt.noOpenMarks {
 		reportOpenMarks(m, res, opt)
 	}
@@ -140,6 +152,10 @@ type labeller struct {
 	// to explainCap while withExplainCap ranks an unmarked unit
 	nodeCap int
 	spare   []*digraph   // storage of digraphs already used, for reuse (digraph_reuse.go)
+	budget  *budget      // the call's time budget (budget.go)
+	// overBudget are the marked units left undetermined because the
+	// budget was spent, in the order met; reportBudget reports them
+	overBudget []notation.Span
 	classes *lazyClasses // constitutional symmetry classes, computed on first use (perceive.go)
 
 	// Set while reading the marks (readCentres, readBonds).

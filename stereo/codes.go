@@ -16,6 +16,7 @@ const (
 	CodeInvertingNitrogen notation.Code = "stereo-inverting-nitrogen" // a mark on a nitrogen that inverts quickly
 	CodeUndefined         notation.Code = "stereo-undefined"          // a stereogenic unit left unmarked
 	CodeUndetermined      notation.Code = "stereo-undetermined"       // the labeller hit its node cap
+	CodeBudget            notation.Code = "stereo-over-budget"        // the record's analysis took longer than its time budget
 	CodeReaderDependent   notation.Code = "stereo-reader-dependent"   // a mark general-purpose readers read differently (portable.go)
 
 	// Stereo groups of the extension block (groups.go).

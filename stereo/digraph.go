@@ -60,6 +60,7 @@ type digraph struct {
 	nodes  []node
 	limit  int
 	capped bool
+	budget *budget // the analysis's time budget; spent ends growth like the cap
 
 	compared   map[[2]uint64][2]int32
 	sortedAux  map[uint64][]nodeID // children in rule order, auxiliary views
@@ -111,11 +112,11 @@ const defaultNodeCap = 200000
 // them.
 const maxNodeCap = 1<<20 - 2
 
-func newDigraph(g *graph, cfg *configs, rootAtom int, limit int) *digraph {
+func newDigraph(g *graph, cfg *configs, rootAtom int, limit int, b *budget) *digraph {
 	limit = min(limit, maxNodeCap)
 	// the maps are made on first use: most digraphs decide at the first
 	// spheres and never need them
-	d := &digraph{g: g, limit: limit, cfg: cfg, refAtom: -1}
+	d := &digraph{g: g, limit: limit, cfg: cfg, refAtom: -1, budget: b}
 	d.nodes = make([]node, 0, 16)
 	d.addRoot(rootAtom)
 	return d
@@ -136,7 +137,7 @@ func (d *digraph) addRoot(rootAtom int) {
 }
 
 func (d *digraph) add(n node) nodeID {
-	if len(d.nodes) >= d.limit {
+	if len(d.nodes) >= d.limit || d.budget.tick() {
 		d.capped = true
 		return noNode
 	}

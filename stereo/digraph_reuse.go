@@ -20,12 +20,12 @@ const keepMemo = 4096
 func (l *labeller) digraph(rootAtom int) *digraph {
 	n := len(l.spare)
 	if n == 0 {
-		return newDigraph(l.g, l.cfg, rootAtom, l.nodeCap)
+		return newDigraph(l.g, l.cfg, rootAtom, l.nodeCap, l.budget)
 	}
 	d := l.spare[n-1]
 	l.spare = l.spare[:n-1]
 	*d = digraph{
-		g: l.g, cfg: l.cfg, limit: min(l.nodeCap, maxNodeCap), refAtom: -1,
+		g: l.g, cfg: l.cfg, limit: min(l.nodeCap, maxNodeCap), refAtom: -1, budget: l.budget,
 		nodes:      d.nodes[:0],
 		arena:      d.arena[:0],
 		sortTables: d.sortTables[:0],

@@ -147,7 +147,9 @@ type graphStore struct {
 	// the labeller's flags by bond and by atom (marks.go, analyze.go)
 	marks, unitAtoms []bool
 	// symmetry classes (perceive.go)
-	class, classNext, classSort []uint64
+	class, classNext []uint64
+	classInts        []int32
+	classNextChanged []int32
 	// the ring and bicycle searches, with their scratch space
 	geom ringgeom.Graph
 }

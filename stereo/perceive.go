@@ -4,6 +4,9 @@
 package stereo
 
 import (
+	"cmp"
+	"slices"
+
 	"stereoline/notation"
 	"stereoline/stereo/internal/ringgeom"
 )
@@ -31,6 +34,9 @@ func (l *labeller) perceiveUnmarked() {
 	var paired []int // candidate atoms with one pair of equal ring branches
 	var relays []int // spiro atoms with two pairs (together.go)
 	for a := 0; a < g.n; a++ {
+		if l.budget.tick() {
+			return // reportBudget says so
+		}
 		if l.unitAtoms[a] || !tetrahedralCapable(g, a) && !l.heldNitrogen(a) || exchangingOxygens(g, a) {
 			continue
 		}
@@ -767,11 +773,21 @@ func (c *lazyClasses) of(a int) uint64 {
 
 // symmetryClasses partitions the atoms by constitution: atoms start in
 // classes of equal element, charge, isotope, degree, hydrogens and
-// valence and are split by the classes of their neighbours until nothing
-// changes. A class is named by a 64-bit hash of what tells it apart, so
-// no table maps names to numbers; two different classes would need a
-// 64-bit collision to merge. The tables live in the graph's storage,
-// reused by the next analysis.
+// valence and are split by the classes of their neighbours (and the
+// orders of the bonds to them) until nothing changes: the coarsest
+// partition that every class's neighbours agree on. A class is named by
+// a number, equal for the atoms of one class. The tables live in the
+// graph's storage, reused by the next analysis.
+//
+// Rounds split classes as the neighbours' classes of the round before
+// tell them apart, but a round looks only at the atoms next to an atom
+// whose class changed in the round before: an atom none of whose
+// neighbours moved keeps the signature it had, which the other atoms
+// left in its class share. When a class splits, its largest part keeps
+// the name and only the others count as changed, so an atom changes
+// class at most log n times and a long chain, which needs a round per
+// atom from its ends to its middle, costs near-linear time instead of
+// n rounds over n atoms.
 //
 // The identity key and the pre-key refine too, to other ends: the key
 // ranks exactly (stereo/identity/canon.go), since it needs an order and
@@ -781,73 +797,139 @@ func (c *lazyClasses) of(a int) uint64 {
 // (ringgeom.Mix64 and Scramble), not the refinement.
 func symmetryClasses(g *graph) []uint64 {
 	n := g.n
-	class := sized(&g.store.class, n)
-	next := sized(&g.store.classNext, n)
-	size := 4
-	for size < 2*n {
-		size *= 2
-	}
-	buf := sized(&g.store.classSort, size)
+	class := sized(&g.store.class, n) // the result: class numbers
+	sig := sized(&g.store.classNext, n)
+	ints := sized(&g.store.classInts, 8*n)
+	elems, pos, id, stamp := ints[:n:n], ints[n:2*n:2*n], ints[2*n:3*n:3*n], ints[3*n:4*n:4*n]
+	cellStart, cellEnd := ints[4*n:5*n:5*n], ints[5*n:6*n:6*n]
+	touched, changed := ints[6*n:6*n], ints[7*n:7*n]
+	next := g.store.classNextChanged[:0]
+	// the first classes: atoms sorted by the hash of their own invariants
 	for a := 0; a < n; a++ {
 		at := &g.mol.Atoms[a]
 		h := ringgeom.Mix64(uint64(at.Number))
 		h = ringgeom.Mix64(h ^ uint64(at.Charge+128)<<8)
 		h = ringgeom.Mix64(h ^ uint64(at.Isotope)<<16)
-		class[a] = ringgeom.Mix64(h ^ uint64(len(g.adj[a]))<<32 ^ uint64(g.hyd[a])<<40 ^ uint64(g.valence(a))<<48)
+		sig[a] = ringgeom.Mix64(h ^ uint64(len(g.adj[a]))<<32 ^ uint64(g.hyd[a])<<40 ^ uint64(g.valence(a))<<48)
+		elems[a] = int32(a)
 	}
-	count := countDistinct(class, buf)
-	for iter := 0; iter < n; iter++ {
-		for a := 0; a < n; a++ {
-			// the neighbours enter as a sum of mixed values, which does
-			// not depend on their order, so none is sorted
+	slices.SortFunc(elems, func(x, y int32) int { return cmp.Compare(sig[x], sig[y]) })
+	cells := int32(0)
+	for i, a := range elems {
+		if i == 0 || sig[a] != sig[elems[i-1]] {
+			cellStart[cells] = int32(i)
+			cells++
+		}
+		cellEnd[cells-1] = int32(i + 1)
+		id[a], pos[a] = cells-1, int32(i)
+		stamp[a] = -1
+	}
+	changed = append(changed, elems...)
+	for round := int32(0); len(changed) > 0; round++ {
+		touched = touched[:0]
+		for _, a := range changed {
+			for _, e := range g.adj[a] {
+				if stamp[e.to] != round {
+					stamp[e.to] = round
+					touched = append(touched, int32(e.to))
+				}
+			}
+		}
+		// signatures over the classes as they stand, before any moves:
+		// the neighbours enter as a sum of mixed values, which does not
+		// depend on their order
+		for _, a := range touched {
 			var sum uint64
 			for _, e := range g.adj[a] {
-				sum += ringgeom.Mix64(class[e.to] + uint64(classOrder(g, a, e)))
+				sum += ringgeom.Mix64(uint64(id[e.to])<<3 | uint64(classOrder(g, int(a), e)))
 			}
-			next[a] = ringgeom.Mix64(class[a]) ^ sum
+			sig[a] = sum
 		}
-		class, next = next, class
-		// each name includes the one before, so classes only split: the
-		// same count means nothing changed
-		c := countDistinct(class, buf)
-		if c == count {
-			break
+		slices.SortFunc(touched, func(x, y int32) int {
+			if c := cmp.Compare(id[x], id[y]); c != 0 {
+				return c
+			}
+			return cmp.Compare(sig[x], sig[y])
+		})
+		next = next[:0]
+		for i := 0; i < len(touched); {
+			c := id[touched[i]]
+			j := i + 1
+			for j < len(touched) && id[touched[j]] == c {
+				j++
+			}
+			run := touched[i:j]
+			i = j
+			next = splitCell(c, run, sig, elems, pos, id, cellStart, cellEnd, &cells, next)
 		}
-		count = c
+		changed = append(changed[:0], next...)
 	}
-	// the two tables swap roles: keep both for the next analysis
-	g.store.class, g.store.classNext = class, next
+	g.store.classNextChanged = next[:0]
+	for a := 0; a < n; a++ {
+		class[a] = uint64(id[a])
+	}
 	return class
 }
 
-// countDistinct counts the distinct values of xs with an open-addressing
-// set in buf (cleared here), whose length is a power of two at least
-// twice len(xs). Zero marks an empty slot; a zero value is counted apart.
-func countDistinct(xs, buf []uint64) int {
-	clear(buf)
-	mask := uint64(len(buf) - 1)
-	n, zero := 0, false
-	for _, x := range xs {
-		if x == 0 {
-			if !zero {
-				zero = true
-				n++
-			}
-			continue
+// splitCell splits class c by the signatures of its atoms in run (sorted
+// by signature; the class's other atoms keep theirs, which they share).
+// The largest part keeps the number c; the atoms of the others get new
+// numbers and are appended to changed.
+func splitCell(c int32, run []int32, sig []uint64, elems, pos, id, cellStart, cellEnd []int32, cells *int32, changed []int32) []int32 {
+	start, end := cellStart[c], cellEnd[c]
+	k := int32(len(run))
+	if k == end-start && sig[run[0]] == sig[run[k-1]] {
+		return changed // every atom moved alike: no split
+	}
+	// the touched atoms to the end of the class's window, in
+	// signature order, by swaps: O(len(run)), not O(class size)
+	boundary := end
+	for _, a := range run {
+		boundary--
+		b := elems[boundary]
+		pa := pos[a]
+		elems[pa], elems[boundary] = b, a
+		pos[b], pos[a] = pa, boundary
+	}
+	for j, a := range run {
+		elems[end-k+int32(j)] = a
+		pos[a] = end - k + int32(j)
+	}
+	// the parts: the untouched atoms [start, end-k), then runs of equal
+	// signature; the largest keeps c
+	type part struct{ from, to int32 }
+	var parts []part
+	if end-k > start {
+		parts = append(parts, part{start, end - k})
+	}
+	for j := int32(0); j < k; {
+		l := j + 1
+		for l < k && sig[run[l]] == sig[run[j]] {
+			l++
 		}
-		// the values are hashes already: their low bits index the table
-		for i := x & mask; ; i = (i + 1) & mask {
-			if buf[i] == x {
-				break
-			}
-			if buf[i] == 0 {
-				buf[i] = x
-				n++
-				break
-			}
+		parts = append(parts, part{end - k + j, end - k + l})
+		j = l
+	}
+	largest := 0
+	for p := range parts {
+		if parts[p].to-parts[p].from > parts[largest].to-parts[largest].from {
+			largest = p
 		}
 	}
-	return n
+	for p, pt := range parts {
+		if p == largest {
+			cellStart[c], cellEnd[c] = pt.from, pt.to
+			continue
+		}
+		nc := *cells
+		*cells++
+		cellStart[nc], cellEnd[nc] = pt.from, pt.to
+		for x := pt.from; x < pt.to; x++ {
+			id[elems[x]] = nc
+			changed = append(changed, elems[x])
+		}
+	}
+	return changed
 }
 
 // classOrder is the order of a bond as symmetry classes see it: a bond

@@ -107,6 +107,9 @@ func reportOpenMarks(m *notation.Molecule, res *Analysis, opt Options) {
 			if hasCodeAt(res, CodeInvertingNitrogen, m.Atoms[o.Atom].Span) {
 				continue // the mark describes no separable compound under any reading
 			}
+			if countCode(res, CodeBudget)+countCode(otherLonePair, CodeBudget) > 0 {
+				continue // one of the two was cut short: they cannot be compared
+			}
 			here, there := centreState(m, res, otherLonePair, o.Atom), centreState(m, otherLonePair, res, o.Atom)
 			if here == there {
 				continue
@@ -121,7 +124,9 @@ func reportOpenMarks(m *notation.Molecule, res *Analysis, opt Options) {
 				r.RingMarks = r.RingMarks.Other()
 				otherRingMarks = AnalyzeWith(m.WithReading(r), opt)
 			}
-			reportRingMarks(m, res, otherRingMarks, o.Bond)
+			if countCode(res, CodeBudget)+countCode(otherRingMarks, CodeBudget) == 0 {
+				reportRingMarks(m, res, otherRingMarks, o.Bond)
+			}
 		case OpenAllene:
 			u := unitAtCentre(res, o.Atom)
 			if u == nil || !u.Specified || !u.Descriptor.Labelled() {

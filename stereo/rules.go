@@ -245,6 +245,12 @@ func (d *digraph) compareSpheres(root, a, af, b, bf nodeID, r Rule) (int, int) {
 	qb = append(qb, step{b, bf})
 	defer func() { bufs[0], bufs[1], bufs[2], bufs[3] = qa, qb, na, nb }()
 	for sphere := d.sphereOf(root, a); len(qa) > 0; sphere++ {
+		if d.budget.tick() {
+			// a walk over nodes grown before adds none: the budget is
+			// asked here too
+			d.capped = true
+			return 0, sphere
+		}
 		for i := range qa {
 			var va, vb float64
 			if r == Rule1a {

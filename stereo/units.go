@@ -68,7 +68,19 @@ func (l *labeller) labelCentres() {
 			l.warn(t.span, CodeIneffectiveCenter, "mark on an atom whose two terminal chalcogens (=O and -OH or -O⁻) exchange a proton or charge, so it is not a stereocentre")
 			continue
 		}
+		if l.skipOverBudget(t.span) {
+			l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1,
+				Specified: true, Descriptor: DescUndetermined, Marks: []notation.Span{t.span}})
+			continue
+		}
 		lb := l.tetrahedral(t)
+		if lb.capped && l.budget.spent {
+			// cut short by the budget, not the cap: reported as such
+			l.overBudget = append(l.overBudget, t.span)
+			l.res.Units = append(l.res.Units, Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1,
+				Specified: true, Descriptor: DescUndetermined, Marks: []notation.Span{t.span}})
+			continue
+		}
 		if lb.capped {
 			lb.tie, lb.desc = false, DescUndetermined
 		}
@@ -116,7 +128,18 @@ func (l *labeller) labelBonds() (quiet []*bondConfig) {
 			quiet = append(quiet, c)
 			continue
 		}
+		if l.skipOverBudget(c.spans[0]) {
+			l.res.Units = append(l.res.Units, Unit{Kind: KindDoubleBond, Atoms: []int{c.ends[0], c.ends[1]}, Centre: -1, Bond: c.bond,
+				Specified: true, Descriptor: DescUndetermined, Marks: c.spans})
+			continue
+		}
 		lb := l.doubleBond(c)
+		if lb.capped && l.budget.spent {
+			l.overBudget = append(l.overBudget, c.spans[0])
+			l.res.Units = append(l.res.Units, Unit{Kind: KindDoubleBond, Atoms: []int{c.ends[0], c.ends[1]}, Centre: -1, Bond: c.bond,
+				Specified: true, Descriptor: DescUndetermined, Marks: c.spans})
+			continue
+		}
 		if lb.capped {
 			lb.tie, lb.desc = false, DescUndetermined
 		}
@@ -160,7 +183,12 @@ func (l *labeller) labelOneSided() {
 			}
 		}
 	}
+	skipped := make([]bool, len(l.oneSided))
 	for k, c := range l.oneSided {
+		if l.skipOverBudget(c.spans[0]) {
+			skipped[k] = true
+			continue
+		}
 		probe := *c
 		ranked[k] = l.doubleBond(&probe)
 		if !ranked[k].tie && !cisOnlyRing(l.ringSize(c)) {
@@ -171,6 +199,9 @@ func (l *labeller) labelOneSided() {
 	}
 	for k, c := range l.oneSided {
 		l.unitBonds[c.bond] = true
+		if skipped[k] {
+			continue
+		}
 		lb := ranked[k]
 		if lb.tie || cisOnlyRing(l.ringSize(c)) {
 			if !claimed.all(c.marks) {
@@ -197,7 +228,18 @@ func (l *labeller) labelAllenes() {
 	for _, a := range sortedKeys(l.cfg.allene) {
 		c := l.cfg.allene[a]
 		l.unitAtoms[a] = true
+		if l.skipOverBudget(c.span) {
+			l.res.Units = append(l.res.Units, Unit{Kind: KindAllene, Atoms: []int{c.ends[0], c.ends[1]}, Centre: a, Bond: -1,
+				Specified: true, Descriptor: DescUndetermined, Marks: []notation.Span{c.span}})
+			continue
+		}
 		lb := l.allene(c)
+		if lb.capped && l.budget.spent {
+			l.overBudget = append(l.overBudget, c.span)
+			l.res.Units = append(l.res.Units, Unit{Kind: KindAllene, Atoms: []int{c.ends[0], c.ends[1]}, Centre: a, Bond: -1,
+				Specified: true, Descriptor: DescUndetermined, Marks: []notation.Span{c.span}})
+			continue
+		}
 		if lb.capped {
 			lb.tie, lb.desc = false, DescUndetermined
 		}

@@ -37,7 +37,7 @@ func (w *workspace) giveBack(l *labeller) {
 	kept := l.spare[:0]
 	for _, d := range l.spare {
 		if cap(d.nodes) <= keepNodes && cap(d.arena) <= 4*keepNodes {
-			d.g, d.cfg = nil, nil
+			d.g, d.cfg, d.budget = nil, nil, nil
 			kept = append(kept, d)
 		}
 	}

@@ -151,12 +151,12 @@ type labeller struct {
 	// nodeCap bounds each digraph made now: the caller's cap, lowered
 	// to explainCap while withExplainCap ranks an unmarked unit
 	nodeCap int
-	spare   []*digraph   // storage of digraphs already used, for reuse (digraph_reuse.go)
-	budget  *budget      // the call's time budget (budget.go)
+	spare   []*digraph // storage of digraphs already used, for reuse (digraph_reuse.go)
+	budget  *budget    // the call's time budget (budget.go)
 	// overBudget are the marked units left undetermined because the
 	// budget was spent, in the order met; reportBudget reports them
 	overBudget []notation.Span
-	classes *lazyClasses // constitutional symmetry classes, computed on first use (perceive.go)
+	classes    *lazyClasses // constitutional symmetry classes, computed on first use (perceive.go)
 
 	// Set while reading the marks (readCentres, readBonds).
 	anyMarks      bool          // some atom or bond is marked: unmarked units are then information, not hints

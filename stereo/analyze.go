@@ -67,6 +67,9 @@ type Options struct {
 	// negative budget none. A record that needs more comes back with the
 	// units left unlabelled reported under CodeBudget.
 	Budget time.Duration
+	// Start is when the budget started, when the caller spent some of it
+	// before the call (reading the record); zero means the call's start.
+	Start time.Time
 	// deadline, when set, replaces Budget: the analyses a call runs
 	// inside itself (portable.go, groups.go) share their caller's
 	deadline time.Time

@@ -78,7 +78,11 @@ func newBudget(opt Options) *budget {
 	if limit == 0 {
 		limit = DefaultBudget
 	}
-	return &budget{deadline: time.Now().Add(limit), limit: limit}
+	start := opt.Start
+	if start.IsZero() {
+		start = time.Now()
+	}
+	return &budget{deadline: start.Add(limit), limit: limit}
 }
 
 // skipOverBudget reports whether the budget is spent before a marked

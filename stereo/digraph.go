@@ -112,6 +112,10 @@ const defaultNodeCap = 200000
 // them.
 const maxNodeCap = 1<<20 - 2
 
+// MaxNodeCap is the largest node cap Options.NodeCap takes; a larger one
+// is lowered to it.
+const MaxNodeCap = maxNodeCap
+
 func newDigraph(g *graph, cfg *configs, rootAtom int, limit int, b *budget) *digraph {
 	limit = min(limit, maxNodeCap)
 	// the maps are made on first use: most digraphs decide at the first

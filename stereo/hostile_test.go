@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"strings"
 	"testing"
+	"time"
 
 	"stereoline/notation"
 )
@@ -248,5 +249,147 @@ func BenchmarkHostileRecords(b *testing.B) {
 				Analyze(notation.Read(text))
 			}
 		})
+	}
+}
+
+// TestHostileRecords analyses each hostile record of issue 13 under the
+// default limits and checks the answer: every marked unit comes back
+// (labelled, or undetermined with a finding that says why), and the
+// findings stay few.
+func TestHostileRecords(t *testing.T) {
+	for _, c := range hostileRecords {
+		if testing.Short() && strings.HasSuffix(c.name, "000") {
+			continue
+		}
+		t.Run(c.name, func(t *testing.T) {
+			text := c.smiles()
+			m := notation.Read(text)
+			a := Analyze(m)
+			marks := 0
+			for i := range m.Atoms {
+				if m.Atoms[i].Chirality.Class != notation.ChiralNone {
+					marks++
+				}
+			}
+			labelled, undetermined := 0, 0
+			for _, u := range a.Units {
+				switch {
+				case u.Descriptor == DescUndetermined:
+					undetermined++
+				case u.Specified && u.Descriptor.Labelled():
+					labelled++
+				}
+			}
+			codes := map[notation.Code]int{}
+			for _, e := range a.Diagnostics {
+				codes[e.Code]++
+				if strings.HasPrefix(e.Msg, "internal error") {
+					t.Fatalf("%v", e)
+				}
+			}
+			if undetermined > 0 && codes[CodeBudget] == 0 && codes[CodeUndetermined] == 0 {
+				t.Errorf("%d units undetermined without a finding", undetermined)
+			}
+			if codes[CodeBudget] > 1 {
+				t.Errorf("%d budget findings, want at most one", codes[CodeBudget])
+			}
+			// a marked centre is labelled, left undetermined, or reported
+			// as no centre (impossible or ineffective marks)
+			if got := labelled + undetermined + codes[CodeImpossibleCenter] + codes[CodeIneffectiveCenter]; got < marks {
+				t.Errorf("%d marks but %d labelled, %d undetermined, %v", marks, labelled, undetermined, codes)
+			}
+			t.Logf("%d atoms, %d marks: %d labelled, %d undetermined; findings %v", len(m.Atoms), marks, labelled, undetermined, codes)
+		})
+	}
+}
+
+// TestBudgetKeepsDecidedLabels labels a chain of marked centres without
+// a budget and again with a budget too short for all of them: every
+// centre labelled within the budget has the label the unlimited run
+// gives, the rest are undetermined, and one finding on the first of
+// them says so, listing the others as related places.
+func TestBudgetKeepsDecidedLabels(t *testing.T) {
+	m := notation.Read(chainMarks(400))
+	full := AnalyzeWith(m, Options{Budget: -1})
+	want := map[int]Descriptor{}
+	for _, u := range full.Units {
+		if !u.Descriptor.Labelled() {
+			t.Fatalf("unlimited: centre %d left %v", u.Centre, u.Descriptor)
+		}
+		want[u.Centre] = u.Descriptor
+	}
+	for _, e := range full.Diagnostics {
+		if e.Code == CodeBudget {
+			t.Fatalf("unlimited: %v", e)
+		}
+	}
+	for _, budget := range []time.Duration{time.Nanosecond, 2 * time.Millisecond} {
+		a := AnalyzeWith(m, Options{Budget: budget})
+		var first notation.Span
+		skipped := 0
+		for _, u := range a.Units {
+			switch u.Descriptor {
+			case DescUndetermined:
+				if skipped == 0 {
+					first = u.Marks[0]
+				}
+				skipped++
+			case want[u.Centre]:
+			default:
+				t.Errorf("budget %v: centre %d labelled %v, unlimited %v", budget, u.Centre, u.Descriptor, want[u.Centre])
+			}
+		}
+		if len(a.Units) != len(full.Units) {
+			t.Errorf("budget %v: %d units, unlimited %d", budget, len(a.Units), len(full.Units))
+		}
+		var found []*notation.Error
+		for _, e := range a.Diagnostics {
+			if e.Code == CodeBudget {
+				found = append(found, e)
+			}
+		}
+		switch {
+		case skipped == 0:
+			t.Logf("budget %v: the machine labelled all centres in time", budget)
+		case len(found) != 1:
+			t.Errorf("budget %v: %d centres skipped, budget findings %v", budget, skipped, found)
+		case found[0].Span != first:
+			t.Errorf("budget %v: finding at %v, first skipped mark at %v", budget, found[0].Span, first)
+		case len(found[0].Related) != min(skipped-1, maxBudgetRelated):
+			t.Errorf("budget %v: %d related places for %d skipped centres", budget, len(found[0].Related), skipped)
+		}
+		if budget == time.Nanosecond && skipped != len(want) {
+			t.Errorf("a spent budget labelled %d centres", len(want)-skipped)
+		}
+	}
+}
+
+// TestBudgetUnmarked spends the budget before perception: a record
+// without marks gets one finding on its first atom.
+func TestBudgetUnmarked(t *testing.T) {
+	m := notation.Read(smallRings(50))
+	a := AnalyzeWith(m, Options{Budget: time.Nanosecond})
+	var found []*notation.Error
+	for _, e := range a.Diagnostics {
+		if e.Code == CodeBudget {
+			found = append(found, e)
+		}
+		if e.Code == CodeUndefined {
+			t.Errorf("perception ran after the budget: %v", e)
+		}
+	}
+	if len(found) != 1 || found[0].Span != m.Atoms[0].Span {
+		t.Errorf("budget findings %v, want one on the first atom %v", found, m.Atoms[0].Span)
+	}
+	// with the default budget the ring centres are found: two on each
+	// ring but the end rings, whose two CH2 groups are equal
+	undefined := 0
+	for _, e := range Analyze(m).Diagnostics {
+		if e.Code == CodeUndefined {
+			undefined++
+		}
+	}
+	if undefined != 2*(50-2) {
+		t.Errorf("%d unmarked centres reported, want %d", undefined, 2*(50-2))
 	}
 }

@@ -39,6 +39,7 @@ type checkOptions struct {
 	jobs         int
 	paths        []string
 	reading      readingFlags // on top of each file's configuration
+	limits       limitFlags   // likewise
 }
 
 // check implements 'stereoline check'.
@@ -102,6 +103,7 @@ func parseCheckArgs(args []string, stderr io.Writer) (checkOptions, int) {
 	maxSize := fs.String("max-size", "10MB", "skip files larger than this (bytes, or with a kB, MB or GB suffix)")
 	fs.IntVar(&opts.jobs, "jobs", runtime.GOMAXPROCS(0), "number of files analysed at the same time")
 	opts.reading.add(fs)
+	opts.limits.add(fs)
 	fs.Usage = func() {
 		fmt.Fprint(stderr, checkUsage)
 		fs.PrintDefaults()
@@ -153,6 +155,9 @@ func parseCheckArgs(args []string, stderr io.Writer) (checkOptions, int) {
 		return usageErr("--jobs: expected a positive number, found %d", opts.jobs)
 	}
 	if _, err := opts.reading.config(document.ReadingConfig{}); err != nil {
+		return usageErr("%v", err)
+	}
+	if _, err := opts.limits.config(document.LimitsConfig{}); err != nil {
 		return usageErr("%v", err)
 	}
 	if len(opts.paths) == 0 {

@@ -259,10 +259,18 @@ var codeCatalogue = []codeDoc{
 	{
 		Code: stereo.CodeUndetermined, Origin: originStereo,
 		Short: "The labeller hit its limit before ranking the ligands.",
-		Full:  "Ranking by the Cahn-Ingold-Prelog rules explores the molecule outwards from the stereocentre; for very large or highly symmetric structures the exploration is cut off at a node cap so that the check stays fast, and the descriptor is left open.",
+		Full:  "Ranking by the Cahn-Ingold-Prelog rules explores the molecule outwards from the stereocentre; for very large or highly symmetric structures the exploration is cut off at a node cap (the limits.digraphNodes setting or --digraph-nodes, 200,000 nodes by default) so that the check stays fast, and the descriptor is left open.",
 		Help:  "Check this centre with another tool or by hand; the mark itself may be fine.",
 		Example: codeExample{File: "example.smi", Text: "C[C@H](CCCCCCCCCCCO)CCCCCCCCCCCN\n",
 			NotShown: "needs a molecule large enough to reach the node cap; this one only shows the shape of such a centre, two branches that differ far from it"},
+	},
+	{
+		Code: stereo.CodeBudget, Origin: originStereo,
+		Short: "The record took longer than its time budget.",
+		Full:  "Each record may take a limited time to read and analyse (the limits.recordTime setting or --record-time, one second by default), so that a pathological record (thousands of marked centres on a chain, large fused ring systems marked everywhere) cannot hold up a check or an editor. When the budget is spent the analysis stops: the marked units not yet labelled are left undetermined and listed as related places (the first twenty), and unmarked stereogenic units are not all looked for. The finding stands on the first mark left undetermined, or on the first atom when only the search for unmarked units was cut short.",
+		Help:  "Raise limits.recordTime for this file if the record is meant to be checked in full; otherwise the record can stay as it is.",
+		Example: codeExample{File: "example.smi", Text: "[C@H](F)[C@H](F)[C@H](F)[C@H](F)\n",
+			NotShown: "needs a record that takes longer than the budget, such as this unit repeated 50,000 times"},
 	},
 	{
 		Code: stereo.CodeReaderDependent, Origin: originStereo,

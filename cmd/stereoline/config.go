@@ -87,6 +87,8 @@ func (r *checkRun) loadConfigLocked(path string) *loadedConfig {
 	// --lone-pair and --ring-marks win over the file (checked when the
 	// options were read)
 	lc.cfg.Reading, _ = r.opts.reading.config(lc.cfg.Reading)
+	// so do --record-time and --digraph-nodes
+	lc.cfg.Limits, _ = r.opts.limits.config(lc.cfg.Limits)
 	// Analyzers of different configurations share one cache, keyed by
 	// the reading setting, the one part of the configuration analyses
 	// depend on.

@@ -30,8 +30,8 @@ func NewAnalyzer(cfg Config) *Analyzer {
 }
 
 // WithConfig returns an analyzer with another configuration that shares
-// this one's cache (analyses depend only on the reading setting, which
-// keys the cache; what is reported depends on the rest).
+// this one's cache (analyses depend only on the reading and limits
+// settings, which key the cache; what is reported depends on the rest).
 func (a *Analyzer) WithConfig(cfg Config) *Analyzer {
 	return &Analyzer{cfg: cfg, cache: a.cache}
 }
@@ -169,7 +169,7 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	occs = res.splitQueries(occs)
 	res.Records = make([]Record, len(occs))
 	fill := func(i int) {
-		an := a.cache.get(occs[i].Text, cfg.Reading.notation())
+		an := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
 		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
 	}
 	parallel(len(occs), fill)

@@ -2,6 +2,7 @@ package document
 
 import (
 	"sync"
+	"time"
 
 	"stereoline/notation"
 	"stereoline/stereo"
@@ -34,10 +35,13 @@ type analysis struct {
 	identity     *identity.Identity
 }
 
-// analyse runs the engine on one notation text, read under reading r.
-func analyse(text string, r notation.Reading) *analysis {
+// analyse runs the engine on one notation text, read under reading r,
+// within the limits lim: the time budget counts the reading too.
+func analyse(text string, r notation.Reading, lim limits) *analysis {
+	start := time.Now()
 	m := notation.ReadWith(text, r)
-	a := &analysis{mol: m, stereo: stereo.Analyze(m)}
+	opt := stereo.Options{NodeCap: lim.nodeCap, Budget: lim.budget, Start: start}
+	a := &analysis{mol: m, stereo: stereo.AnalyzeWith(m, opt)}
 	switch {
 	case m.Reaction:
 		a.reaction = reaction.AnalyzeWith(m, a.stereo)
@@ -72,11 +76,12 @@ type cache struct {
 	cur, old map[cacheKey]*analysis
 }
 
-// cacheKey is what an analysis depends on: the text and the reading of
-// the marks OpenSMILES leaves open.
+// cacheKey is what an analysis depends on: the text, the reading of
+// the marks OpenSMILES leaves open and the limits.
 type cacheKey struct {
 	text    string
 	reading notation.Reading
+	limits  limits
 }
 
 func newCache() *cache {
@@ -85,8 +90,8 @@ func newCache() *cache {
 
 // get returns the analysis of text under reading r, computing it
 // outside the lock.
-func (c *cache) get(text string, r notation.Reading) *analysis {
-	k := cacheKey{text, r}
+func (c *cache) get(text string, r notation.Reading, lim limits) *analysis {
+	k := cacheKey{text, r, lim}
 	c.mu.Lock()
 	if a, ok := c.cur[k]; ok {
 		c.mu.Unlock()
@@ -98,7 +103,7 @@ func (c *cache) get(text string, r notation.Reading) *analysis {
 		return a
 	}
 	c.mu.Unlock()
-	a := analyse(text, r)
+	a := analyse(text, r, lim)
 	c.mu.Lock()
 	if len(c.cur) >= cacheLimit {
 		c.old, c.cur = c.cur, map[cacheKey]*analysis{}

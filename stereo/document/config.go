@@ -13,9 +13,11 @@ import (
 	"path"
 	"slices"
 	"strings"
+	"time"
 
 	"stereoline/notation"
 	"stereoline/notation/find"
+	"stereoline/stereo"
 )
 
 // Config is the configuration shared by the checker's configuration file
@@ -56,6 +58,72 @@ type Config struct {
 	// differently are read (notation.Reading); empty fields are the
 	// defaults.
 	Reading ReadingConfig `json:"reading,omitzero"`
+	// Limits bound the work spent on one record; empty fields are the
+	// defaults.
+	Limits LimitsConfig `json:"limits,omitzero"`
+}
+
+// LimitsConfig is the limits setting.
+type LimitsConfig struct {
+	// RecordTime is the time one record's reading and analysis may take
+	// (a Go duration: "1s", "250ms"), "off" for no limit; empty means
+	// stereo.DefaultBudget. A record that needs more is reported under
+	// stereo-over-budget, its remaining units left undetermined.
+	RecordTime string `json:"recordTime,omitempty"`
+	// DigraphNodes bounds the hierarchical digraph the CIP ranking grows
+	// for one unit; 0 means stereo.DefaultNodeCap. A unit that needs more
+	// is reported under stereo-undetermined.
+	DigraphNodes int `json:"digraphNodes,omitempty"`
+}
+
+// MaxDigraphNodes is the largest digraph node cap the engine takes.
+const MaxDigraphNodes = stereo.MaxNodeCap
+
+// limits are the analysis limits a LimitsConfig names, part of what an
+// analysis depends on (the cache keys by them).
+type limits struct {
+	budget  time.Duration // negative: none
+	nodeCap int
+}
+
+// limits returns the limits the setting names; values Validate rejects
+// read as the defaults.
+func (l LimitsConfig) limits() limits {
+	out := limits{budget: stereo.DefaultBudget, nodeCap: stereo.DefaultNodeCap}
+	if d, ok := ParseRecordTime(l.RecordTime); ok {
+		out.budget = d
+	}
+	if l.DigraphNodes > 0 && l.DigraphNodes <= MaxDigraphNodes {
+		out.nodeCap = l.DigraphNodes
+	}
+	return out
+}
+
+// ParseRecordTime reads the recordTime limit: a positive Go duration, or
+// "off" (returned as -1) for none; empty is the default.
+func ParseRecordTime(s string) (time.Duration, bool) {
+	switch s {
+	case "":
+		return stereo.DefaultBudget, true
+	case "off":
+		return -1, true
+	}
+	d, err := time.ParseDuration(s)
+	if err != nil || d <= 0 {
+		return 0, false
+	}
+	return d, true
+}
+
+// validate reports a limit that is not one.
+func (l LimitsConfig) validate() error {
+	if _, ok := ParseRecordTime(l.RecordTime); !ok {
+		return fmt.Errorf("limits.recordTime: expected a positive duration such as 1s or 500ms, or off, found %q", l.RecordTime)
+	}
+	if l.DigraphNodes < 0 || l.DigraphNodes > MaxDigraphNodes {
+		return fmt.Errorf("limits.digraphNodes: expected a number from 1 to %d, found %d", MaxDigraphNodes, l.DigraphNodes)
+	}
+	return nil
 }
 
 // ReadingConfig is the reading setting: each field the name of a rule of
@@ -121,6 +189,9 @@ func (c *Config) Validate() error {
 		return fmt.Errorf("drawingLens: expected %s, %s or %s, found %q", LensLists, LensEverywhere, LensOff, c.DrawingLens)
 	}
 	if err := c.Reading.validate(); err != nil {
+		return err
+	}
+	if err := c.Limits.validate(); err != nil {
 		return err
 	}
 	if strings.HasPrefix(c.ReviewBase, "-") || strings.ContainsAny(c.ReviewBase, " \t\n") {

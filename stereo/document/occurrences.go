@@ -28,7 +28,7 @@ func (a *Analyzer) AnalyzeOccurrences(name string, kind find.Kind, content []byt
 	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
 	res.Records = make([]Record, len(occs))
 	parallel(len(occs), func(i int) {
-		an := a.cache.get(occs[i].Text, cfg.Reading.notation())
+		an := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
 		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
 	})
 	for i := range res.Records {

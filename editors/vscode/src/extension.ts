@@ -37,6 +37,10 @@ function settings(): Record<string, unknown> {
       lonePair: c.get("reading.lonePair", "last"),
       ringMarks: c.get("reading.ringMarks", "closing"),
     },
+    limits: {
+      recordTime: c.get("limits.recordTime", "1s"),
+      digraphNodes: c.get("limits.digraphNodes", 200000),
+    },
   };
 }
 

@@ -63,9 +63,10 @@ type Analysis struct {
 type Options struct {
 	// NodeCap bounds the nodes of each digraph; 0 means DefaultNodeCap.
 	NodeCap int
-	// Budget is the time the call may take; 0 means DefaultBudget and a
-	// negative budget none. A record that needs more comes back with the
-	// units left unlabelled reported under CodeBudget.
+	// Budget is the time the call may take; 0 or less means no limit
+	// (the engine passes its limits setting, DefaultBudget by default).
+	// A record that needs more comes back with the units left unlabelled
+	// reported under CodeBudget.
 	Budget time.Duration
 	// Start is when the budget started, when the caller spent some of it
 	// before the call (reading the record); zero means the call's start.

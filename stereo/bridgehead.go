@@ -246,3 +246,80 @@ func (l *labeller) bridgedHead(a int) bool {
 	}
 	return false
 }
+
+// mirroredBridgehead reports whether the unmarked atom a is a bridgehead
+// of a small bicycle that a mirror plane maps onto its partner: the two
+// heads are constitutionally equal, unmarked, and every bridge reads
+// the same from either head, with no configuration written on it and
+// no atom that could hold one (bicyclo[3.2.1]octane, tropane,
+// bicyclo[3.1.0]hexane). A bridge atom with two different ligands off
+// the bicycle (the 3-position of tropine and pseudotropine, exo or endo)
+// is stereogenic together with the heads (together.go) and leaves them
+// as they were. The cage fixes
+// the heads relative to each other, and the one arrangement it allows
+// is its own mirror image, so the heads are not open stereocentres
+// although each has four different ligands: the bicycle has a single
+// stereoisomer (RDKit 2022.09.3 enumerates one, stereo/perception_rdkit_test.go).
+func (l *labeller) mirroredBridgehead(a int) bool {
+	g := l.g
+	if g.geom.RingDegree(a) < 3 {
+		return false
+	}
+	for _, bc := range l.bicycles() {
+		if bc.heads[0] != a && bc.heads[1] != a {
+			continue
+		}
+		x, y := bc.heads[0], bc.heads[1]
+		if l.classes.of(x) != l.classes.of(y) || l.configuredAtom(x) || l.configuredAtom(y) {
+			continue
+		}
+		mirrored := true
+		for _, p := range bc.paths {
+			for i := range p {
+				if l.classes.of(p[i]) != l.classes.of(p[len(p)-1-i]) || l.configuredAtom(p[i]) || !l.plainBridgeAtom(p[i], bc) {
+					mirrored = false
+				}
+			}
+		}
+		if mirrored {
+			return true
+		}
+	}
+	return false
+}
+
+// plainBridgeAtom reports whether bridge atom p of bicycle bc can hold
+// no configuration of its own: its ligands off the bicycle are at most
+// one, or two equal ones (two hydrogens, two like substituents), and
+// none of them is in a ring.
+func (l *labeller) plainBridgeAtom(p int, bc bicycle) bool {
+	g := l.g
+	inBicycle := func(x int) bool {
+		if x == bc.heads[0] || x == bc.heads[1] {
+			return true
+		}
+		for _, q := range bc.paths {
+			if slices.Contains(q, x) {
+				return true
+			}
+		}
+		return false
+	}
+	var off []int
+	for _, e := range g.adj[p] {
+		if inBicycle(e.to) {
+			continue
+		}
+		if g.ringBond[e.bond] {
+			return false
+		}
+		off = append(off, e.to)
+	}
+	switch len(off) + g.hyd[p] {
+	case 0, 1:
+		return true
+	case 2:
+		return g.hyd[p] == 2 || len(off) == 2 && l.classes.of(off[0]) == l.classes.of(off[1])
+	}
+	return false
+}

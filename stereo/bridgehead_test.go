@@ -53,6 +53,25 @@ func TestCageFixedBridgeheads(t *testing.T) {
 		// hydroxyls that face each other into hydroxyls that face the
 		// ethano bridge). Only the number of labelled centres is checked.
 		{"octanediol", "O[C@H]1C[C@H]2C[C@H](O)[C@@H]1CC2", "4 labels", 0, 0, "worked by hand"},
+		// small bicycles whose bridges each read the same from either
+		// bridgehead: each bridgehead has four different ligands, but
+		// the cage fixes one arrangement, its own mirror image, so the
+		// unmarked record is fully defined. RDKit 2022.09.3
+		// (EnumerateStereoisomers with tryEmbedding, unique) gives one
+		// stereoisomer for each; for 1-methylbicyclo[3.2.1]octane, whose
+		// bridgeheads differ, two (enantiomers), and for
+		// bicyclo[4.3.1]decane, large enough for in/out, three.
+		{"bicyclo[3.2.1]octane", "C1CC2CCC(C1)C2", "", 0, 0, "RDKit 2022.09.3 enumeration"},
+		{"8-oxabicyclo[3.2.1]octane", "C1CC2CCC(C1)O2", "", 0, 0, "RDKit 2022.09.3 enumeration"},
+		{"tropane", "C1CC2CCC(C1)N2C", "", 0, 0, "RDKit 2022.09.3 enumeration"},
+		{"bicyclo[3.1.0]hexane", "C1CC2CC2C1", "", 0, 0, "RDKit 2022.09.3 enumeration"},
+		{"1,5-dimethylbicyclo[3.2.1]octane", "C1CC2(C)CCC(C1)(C)C2", "", 0, 0, "RDKit 2022.09.3 enumeration"},
+		{"1-methylbicyclo[3.2.1]octane", "C1CC2(C)CCC(C1)C2", "", 0, 2, "RDKit 2022.09.3 enumeration"},
+		{"bicyclo[4.3.1]decane", "C1CCC2CCCC(C1)C2", "", 0, 2, "RDKit 2022.09.3 enumeration"},
+		// a substituted bridge atom is exo or endo (tropine and
+		// pseudotropine, common practice): it stays stereogenic together
+		// with the bridgeheads, which are reported as before
+		{"tropine skeleton", "OC1CC2CCC(C1)N2C", "", 0, 3, "common practice"},
 	}
 	for _, c := range cases {
 		a := Analyze(notation.Read(c.smiles))

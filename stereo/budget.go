@@ -9,9 +9,12 @@ import (
 	"stereoline/notation"
 )
 
-// DefaultBudget is the time one Analyze call may take when the caller
-// sets none: the engine answers an editor and a checker record by
-// record, and a record that takes longer is reported, not waited for.
+// DefaultBudget is the time one record may take by default in the engine
+// (stereo/document's limits setting): it answers an editor and a checker
+// record by record, and a record that takes longer is reported, not
+// waited for. Analyze itself sets no budget unless asked (Options.Budget):
+// its callers below the engine (tests, rewrites checked by labelling)
+// want the labels whatever they cost, bounded by the node cap alone.
 const DefaultBudget = time.Second
 
 // DefaultNodeCap is the node cap of every digraph when the caller sets
@@ -71,13 +74,10 @@ func newBudget(opt Options) *budget {
 	switch {
 	case !opt.deadline.IsZero():
 		return &budget{deadline: opt.deadline, limit: opt.Budget}
-	case opt.Budget < 0:
+	case opt.Budget <= 0:
 		return &budget{}
 	}
 	limit := opt.Budget
-	if limit == 0 {
-		limit = DefaultBudget
-	}
 	start := opt.Start
 	if start.IsZero() {
 		start = time.Now()

@@ -240,20 +240,21 @@ var hostileRecords = []struct {
 }
 
 // BenchmarkHostileRecords reads and analyses each hostile record of
-// issue 13 (GOMAXPROCS=1 for the figures in the issue's report).
+// issue 13 under the engine's default budget (GOMAXPROCS=1 for the
+// figures in the issue's report).
 func BenchmarkHostileRecords(b *testing.B) {
 	for _, c := range hostileRecords {
 		text := c.smiles()
 		b.Run(c.name, func(b *testing.B) {
 			for b.Loop() {
-				Analyze(notation.Read(text))
+				AnalyzeWith(notation.Read(text), Options{Budget: DefaultBudget})
 			}
 		})
 	}
 }
 
 // TestHostileRecords analyses each hostile record of issue 13 under the
-// default limits and checks the answer: every marked unit comes back
+// engine's default limits and checks the answer: every marked unit comes back
 // (labelled, or undetermined with a finding that says why), and the
 // findings stay few.
 func TestHostileRecords(t *testing.T) {
@@ -264,7 +265,7 @@ func TestHostileRecords(t *testing.T) {
 		t.Run(c.name, func(t *testing.T) {
 			text := c.smiles()
 			m := notation.Read(text)
-			a := Analyze(m)
+			a := AnalyzeWith(m, Options{Budget: DefaultBudget})
 			marks := 0
 			for i := range m.Atoms {
 				if m.Atoms[i].Chirality.Class != notation.ChiralNone {
@@ -381,7 +382,7 @@ func TestBudgetUnmarked(t *testing.T) {
 	if len(found) != 1 || found[0].Span != m.Atoms[0].Span {
 		t.Errorf("budget findings %v, want one on the first atom %v", found, m.Atoms[0].Span)
 	}
-	// with the default budget the ring centres are found: two on each
+	// without a budget the ring centres are found: two on each
 	// ring but the end rings, whose two CH2 groups are equal
 	undefined := 0
 	for _, e := range Analyze(m).Diagnostics {

@@ -199,6 +199,9 @@ const (
 func (l *labeller) classifyUnmarked(a int, class *lazyClasses) (unmarkedCentre, Unit) {
 	distinct, pairInRing := ligandClasses(l.g, a, class)
 	if distinct {
+		if l.mirroredBridgehead(a) {
+			return notACentre, Unit{}
+		}
 		return distinctLigands, Unit{}
 	}
 	if l.anyMarks && l.configuredPair(a, class) {

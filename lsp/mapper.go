@@ -2,6 +2,7 @@ package lsp
 
 import (
 	"fmt"
+	"slices"
 	"sort"
 	"unicode/utf8"
 
@@ -32,7 +33,12 @@ const (
 type Mapper struct {
 	content    []byte
 	lineStarts []int // offset of the first byte of each line; lineStarts[0] == 0
-	encoding   PositionEncoding
+	// wide lists, in order, the lines holding a byte outside ASCII: on
+	// the other lines a character is a byte in every encoding, so a
+	// position on a long line (a record of a million atoms, with
+	// thousands of findings) costs no count from the line's start
+	wide     []int
+	encoding PositionEncoding
 }
 
 // NewMapper builds the line table of content for the given encoding. An
@@ -42,18 +48,23 @@ func NewMapper(content []byte, enc PositionEncoding) *Mapper {
 		enc = EncodingUTF16
 	}
 	starts := make([]int, 1, 1+len(content)/32)
+	var wide []int
 	for i := 0; i < len(content); i++ {
-		switch content[i] {
-		case '\n':
+		switch c := content[i]; {
+		case c == '\n':
 			starts = append(starts, i+1)
-		case '\r':
+		case c == '\r':
 			if i+1 < len(content) && content[i+1] == '\n' {
 				i++
 			}
 			starts = append(starts, i+1)
+		case c >= utf8.RuneSelf:
+			if line := len(starts) - 1; len(wide) == 0 || wide[len(wide)-1] != line {
+				wide = append(wide, line)
+			}
 		}
 	}
-	return &Mapper{content: content, lineStarts: starts, encoding: enc}
+	return &Mapper{content: content, lineStarts: starts, wide: wide, encoding: enc}
 }
 
 // Content returns the text the mapper was built for.
@@ -90,6 +101,9 @@ func (m *Mapper) OffsetToPosition(off int) (protocol.Position, error) {
 	start := m.lineStarts[line]
 	if end := m.lineEnd(line); off > end {
 		off = end
+	}
+	if _, found := slices.BinarySearch(m.wide, line); !found {
+		return protocol.Position{Line: uint32(line), Character: uint32(off - start)}, nil
 	}
 	return protocol.Position{Line: uint32(line), Character: uint32(m.units(m.content[start:off]))}, nil
 }

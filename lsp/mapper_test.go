@@ -67,6 +67,45 @@ func TestMapperAgreesWithUTF16(t *testing.T) {
 	}
 }
 
+// TestMapperMixedLines checks a text whose lines are ASCII and not, in
+// every encoding, against the same Go conversions: the mapper takes a
+// short cut on ASCII lines, which must give the same answers.
+func TestMapperMixedLines(t *testing.T) {
+	text := "C[C@H](O)CC\r\nαβ 😀 F/C=C/F\n" + strings.Repeat("C%10CC%10", 50) + "\rO日本\n\n"
+	for _, enc := range []PositionEncoding{EncodingUTF8, EncodingUTF16, EncodingUTF32} {
+		m := NewMapper([]byte(text), enc)
+		line, start := 0, 0
+		for off := 0; off <= len(text); off++ {
+			if off > 0 && (text[off-1] == '\n' || text[off-1] == '\r' && (off == len(text) || text[off] != '\n')) {
+				line, start = line+1, off
+			}
+			if !utf8.RuneStart(byteAt(text, off)) || off > 0 && text[off-1] == '\r' && off < len(text) && text[off] == '\n' {
+				continue // inside a character or a CRLF pair: mapped to its start
+			}
+			prefix := text[start:off]
+			want := len(prefix)
+			switch enc {
+			case EncodingUTF16:
+				want = len(utf16.Encode([]rune(prefix)))
+			case EncodingUTF32:
+				want = utf8.RuneCountInString(prefix)
+			}
+			got, err := m.OffsetToPosition(off)
+			if err != nil || int(got.Line) != line || int(got.Character) != want {
+				t.Fatalf("%s offset %d: got %v (%v), want %d:%d", enc, off, got, err, line, want)
+			}
+		}
+	}
+}
+
+// byteAt is text[off], or an ASCII byte at the end of the text.
+func byteAt(text string, off int) byte {
+	if off >= len(text) {
+		return 'x'
+	}
+	return text[off]
+}
+
 func TestMapperClamps(t *testing.T) {
 	text := "ab😀\r\ncd\n"
 	m := NewMapper([]byte(text), EncodingUTF16)

@@ -12,6 +12,7 @@ func BenchmarkHostileDocument(b *testing.B) {
 	for _, c := range []struct{ name, text string }{
 		{"chain-1000000", strings.Repeat("C", 1000000)},
 		{"chain-marks-50000", strings.Repeat("[C@H](F)", 50000)},
+		{"small-rings-8000", strings.Repeat("C%10CC%10", 8000)},
 	} {
 		content := []byte(c.text + "\n")
 		b.Run(c.name, func(b *testing.B) {

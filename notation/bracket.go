@@ -46,6 +46,9 @@ func (r *reader) bracketAtom() int {
 }
 
 func (r *reader) appendAtom(a Atom) int {
+	if a.Bonds == nil {
+		a.Bonds = r.bondList()
+	}
 	r.mol.Atoms = append(r.mol.Atoms, a)
 	return len(r.mol.Atoms) - 1
 }

@@ -90,6 +90,27 @@ type reader struct {
 	// pairs holds the bonded atom pairs once a ring closure joins two
 	// atoms with many bonds each; nil until then (see bonded).
 	pairs map[uint64]struct{}
+
+	// slots is the storage the atoms' bond lists start in, bondSlots
+	// entries each, carved from one array sized by countTokens: a
+	// million-atom record then makes one allocation for its bond lists
+	// instead of two per atom. A list that outgrows its window moves
+	// out on its own (the windows are capped).
+	slots []int
+}
+
+// bondSlots is the room each atom's bond list starts with: four bonds,
+// which most atoms do not outgrow.
+const bondSlots = 4
+
+// bondList returns an empty bond list with room for bondSlots bonds.
+func (r *reader) bondList() []int {
+	if len(r.slots) < bondSlots {
+		r.slots = make([]int, bondSlots*max(16, cap(r.mol.Atoms)-len(r.mol.Atoms)))
+	}
+	s := r.slots[:0:bondSlots]
+	r.slots = r.slots[bondSlots:]
+	return s
 }
 
 // branch is an open '(' with the atom it hangs from.
@@ -449,7 +470,7 @@ func isOrganicStart(c byte) bool {
 func (r *reader) organicAtom() int {
 	start := r.pos
 	c := r.text[r.pos]
-	sym := string(c)
+	sym := r.text[r.pos : r.pos+1] // a window of the text: no allocation per atom
 	if c == 'C' && r.pos+1 < len(r.text) && r.text[r.pos+1] == 'l' {
 		sym = "Cl"
 	} else if c == 'B' && r.pos+1 < len(r.text) && r.text[r.pos+1] == 'r' {
@@ -477,6 +498,7 @@ func (r *reader) organicAtom() int {
 	} else {
 		a.Number, _ = ElementNumber(sym)
 	}
+	a.Bonds = r.bondList()
 	r.mol.Atoms = append(r.mol.Atoms, a)
 	return len(r.mol.Atoms) - 1
 }

@@ -227,7 +227,9 @@ func describeRecord(rec notation.Record, reading notation.Reading) recordJSON {
 	d.Formula = f.String()
 	d.Mass = round(f.AverageMass, 4)
 	d.Mono = round(f.MonoisotopicMass, 6)
-	an := stereo.Analyze(m)
+	// the engine's default record budget, as check has it: a hostile
+	// record is described with its units left undetermined, not waited for
+	an := stereo.AnalyzeWith(m, stereo.Options{Budget: stereo.DefaultBudget})
 	diags := append(append(notation.ErrorList{}, m.Errors...), an.Diagnostics...)
 	if !m.Reaction && !m.Errors.HasErrors() {
 		diags = append(diags, identity.GroupFindings(m)...)

@@ -112,7 +112,7 @@ func drawRecord(rec notation.Record, ext string, fischer, numbers bool) ([]byte,
 	opt := depict.Options{Title: rec.Title, Numbers: numbers}
 	var an *stereo.Analysis
 	if len(m.Atoms) <= depict.MaxAtoms {
-		an = stereo.Analyze(m)
+		an = stereo.AnalyzeWith(m, stereo.Options{Budget: stereo.DefaultBudget})
 		opt.Analysis = an
 		if m.Reaction {
 			opt.Diagnostics = reaction.AnalyzeWith(m, an).Diagnostics

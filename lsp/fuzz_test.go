@@ -265,9 +265,14 @@ func (s *fuzzSession) run(data []byte) {
 		case 5:
 			s.notify("textDocument/didClose", map[string]any{"textDocument": textDoc(s.uri())})
 		case 6:
-			// A body that is not JSON-RPC, framed correctly. A brace
-			// first keeps it from being a message by chance.
-			s.frame("}" + s.chunk())
+			// A body that is not JSON-RPC, framed correctly: empty,
+			// or with a closing brace first, which keeps it from being
+			// a message by chance.
+			if c := s.chunk(); c == "" {
+				s.frame("") // Content-Length: 0
+			} else {
+				s.frame("}" + c)
+			}
 		case 7:
 			// A request whose parameters have the wrong shape.
 			methods := []string{"textDocument/hover", "textDocument/codeAction", methodInlayHint, methodCodeActionResolve,

@@ -216,3 +216,18 @@ func TestFloodOfChanges(t *testing.T) {
 		}
 	}
 }
+
+// A request whose method is the empty string is a request all the same
+// (JSON-RPC 2.0): it answers MethodNotFound once, and is not taken for a
+// response. The hand-written client of FuzzServer counts the answers.
+func TestEmptyMethodRequest(t *testing.T) {
+	s := newFuzzSession(t)
+	s.mu.Lock()
+	s.sent[`"empty"`] = "unknown"
+	s.sent["77"] = "unknown"
+	s.mu.Unlock()
+	s.frame(`{"jsonrpc":"2.0","id":"empty","method":""}`)
+	s.frame(`{"jsonrpc":"2.0","id":77,"method":"","params":{"x":1}}`)
+	s.frame(`{"jsonrpc":"2.0","id":78,"result":null}`) // an answer to nothing: dropped
+	s.finish()
+}

@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"bytes"
 	"context"
+	"encoding/json"
 	"fmt"
 	"io"
 	"strconv"
@@ -74,5 +75,32 @@ func (s frameStream) Read(ctx context.Context) (jsonrpc2.Message, int64, error) 
 		return nil, total, fmt.Errorf("read full of data: %w", err)
 	}
 	msg, err := jsonrpc2.DecodeMessage(data.Bytes())
+	if resp, ok := msg.(*jsonrpc2.Response); ok {
+		msg = emptyMethodCall(resp, data.Bytes())
+	}
 	return msg, total, err
+}
+
+// emptyMethodCall turns back into a request what jsonrpc2 takes for a
+// response: a message with an id and a method member that is the empty
+// string. It is a request for a method the server does not have, and
+// gets its MethodNotFound answer (JSON-RPC 2.0) instead of being dropped
+// as the answer to a call nobody made.
+func emptyMethodCall(resp *jsonrpc2.Response, data []byte) jsonrpc2.Message {
+	var probe struct {
+		Method *string          `json:"method"`
+		Params *json.RawMessage `json:"params"`
+	}
+	if json.Unmarshal(data, &probe) != nil || probe.Method == nil {
+		return resp
+	}
+	var params any
+	if probe.Params != nil {
+		params = *probe.Params
+	}
+	call, err := jsonrpc2.NewCall(resp.ID(), "", params)
+	if err != nil {
+		return resp
+	}
+	return call
 }

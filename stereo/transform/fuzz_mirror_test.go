@@ -1,6 +1,7 @@
 package transform
 
 import (
+	"regexp"
 	"strings"
 	"testing"
 
@@ -67,7 +68,10 @@ func FuzzMirror(f *testing.F) {
 		if err != nil {
 			t.Fatalf("mirror edits of %q do not apply: %v", once, err)
 		}
-		if back != s {
+		// The text comes back as written, but for a permutation number
+		// written with a leading zero ("@OH07"), which the rewrite
+		// writes without: 07 becomes 17 becomes 7, the same mark.
+		if back != s && (noLeadingZero(back) != noLeadingZero(s) || identity.Identify(notation.ReadWith(back, r)).Key != id.Key) {
 			t.Fatalf("mirror twice of %q gave %q (through %q)", s, back, once)
 		}
 		for a := 0; a < len(m.Atoms) && a < 6; a++ {
@@ -97,3 +101,9 @@ func FuzzMirror(f *testing.F) {
 		}
 	})
 }
+
+// leadingZero matches a permutation number written with a leading zero.
+var leadingZero = regexp.MustCompile(`(@(?:TH|AL|SP|TB|OH))0([0-9])`)
+
+// noLeadingZero writes every permutation number without a leading zero.
+func noLeadingZero(s string) string { return leadingZero.ReplaceAllString(s, "$1$2") }

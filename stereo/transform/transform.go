@@ -6,7 +6,6 @@ package transform
 import (
 	"fmt"
 	"strconv"
-	"strings"
 
 	"stereoline/notation"
 	"stereoline/stereo"
@@ -72,7 +71,7 @@ func Mirror(m *notation.Molecule) (Transform, error) {
 				t.Notes = append(t.Notes, fmt.Sprintf("atom %d: the mark's permutation number is out of range; left as written", a+1))
 				continue
 			}
-			e, err := mirrorNumber(m, a, n)
+			e, err := notation.SetChirality(m, a, "@"+ch.Class.String()+strconv.Itoa(n))
 			if err != nil {
 				return Transform{}, err
 			}
@@ -94,19 +93,6 @@ func Mirror(m *notation.Molecule) (Transform, error) {
 		t.Notes = append(t.Notes, "the structure is achiral: its mirror image is the same compound")
 	}
 	return t, nil
-}
-
-// mirrorNumber rewrites the permutation number of atom a's mark to n. A
-// number written with a leading zero ("@OH01", which OpenSMILES's two
-// digits allow) keeps its width, so that mirroring twice gives back the
-// text as written.
-func mirrorNumber(m *notation.Molecule, a, n int) ([]notation.Edit, error) {
-	ch := m.Atoms[a].Chirality
-	written := m.Text[ch.Span.Start:ch.Span.End]
-	if digits := strings.TrimLeft(written, "@ABCDEFGHIJKLMNOPQRSTUVWXYZ"); len(digits) == 2 && digits[0] == '0' {
-		return []notation.Edit{{Span: notation.Span{Start: ch.Span.End - 2, End: ch.Span.End}, New: fmt.Sprintf("%02d", n)}}, nil
-	}
-	return notation.SetChirality(m, a, "@"+ch.Class.String()+strconv.Itoa(n))
 }
 
 // unitAt finds the unit atom a belongs to: the centre of a tetrahedral or

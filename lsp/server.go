@@ -132,7 +132,7 @@ func serve(ctx context.Context, stream io.ReadWriteCloser, log *zap.Logger, opts
 	if hook != nil {
 		hook(s)
 	}
-	s.conn = jsonrpc2.NewConn(tolerantStream{jsonrpc2.NewStream(stream), log})
+	s.conn = jsonrpc2.NewConn(tolerantStream{newFrameStream(stream), log})
 	s.conn.Go(s.ctx, s.handle)
 	go s.work.run(s.ctx)
 

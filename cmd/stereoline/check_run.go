@@ -102,28 +102,9 @@ func (r *checkRun) analyzeFile(f checkFile) (rep fileReport) {
 			r.pathError(f.path, fmt.Errorf("internal error: %v", p))
 		}
 	}()
-	data, err := r.readCheckFile(f)
-	if err != nil {
-		var skip errSkipped
-		if errors.As(err, &skip) {
-			rep.Skipped = skip.reason
-			if f.explicit {
-				r.mu.Lock()
-				fmt.Fprintf(r.stderr, "stereoline: %s: skipped: %s\n", f.path, skip.reason)
-				r.mu.Unlock()
-			}
-			return rep
-		}
-		r.pathError(f.path, err)
-		return rep
-	}
-	cfgPath := f.osPath
-	if f.stdin {
-		cfgPath = filepath.FromSlash(f.path)
-	}
-	lc := r.loadedFor(cfgPath)
-	if lc.err != nil {
-		r.configError(lc)
+	data, lc, skipped, ok := r.readForAnalysis(f)
+	if !ok {
+		rep.Skipped = skipped
 		return rep
 	}
 	// The findings stream out of the engine a chunk of records at a time;
@@ -150,6 +131,41 @@ func (r *checkRun) analyzeFile(f checkFile) (rep fileReport) {
 	})
 	rep.Findings = r.findings(f, data, diags)
 	return rep
+}
+
+// readForAnalysis reads a file under the size limit of its configuration
+// (--max-size wins over the maxFileSize setting) and returns it with the
+// configuration; ok is false when the file is not to be analysed: a
+// failure, reported, or a skip (skipped says why).
+func (r *checkRun) readForAnalysis(f checkFile) (data []byte, lc *loadedConfig, skipped string, ok bool) {
+	cfgPath := f.osPath
+	if f.stdin {
+		cfgPath = filepath.FromSlash(f.path)
+	}
+	lc = r.loadedFor(cfgPath)
+	if lc.err != nil {
+		r.configError(lc)
+		return nil, nil, "", false
+	}
+	limit := r.opts.maxSize
+	if limit == 0 {
+		limit = lc.maxSize
+	}
+	data, err := r.readCheckFile(f, limit)
+	if err != nil {
+		var skip errSkipped
+		if errors.As(err, &skip) {
+			if f.explicit || skip.reason != "binary file" {
+				r.mu.Lock()
+				fmt.Fprintf(r.stderr, "stereoline: %s: skipped: %s\n", f.path, skip.reason)
+				r.mu.Unlock()
+			}
+			return nil, lc, skip.reason, false
+		}
+		r.pathError(f.path, err)
+		return nil, lc, "", false
+	}
+	return data, lc, "", true
 }
 
 // configError reports a bad configuration file once.

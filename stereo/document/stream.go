@@ -31,14 +31,34 @@ func IsRelation(c notation.Code) bool {
 	return false
 }
 
-// StreamRecord is what Stream tells its caller of each record once its
-// findings are made: the occurrence, the analysis (valid only during the
-// call) and its identity keys when the relations computed them.
-type StreamRecord struct {
-	Index    int
-	Occ      *find.Occurrence
-	Record   *Record
-	Identity *identity.Identity
+// StreamRecords finds and reads the records of a document a chunk at a
+// time, bypassing the cache, and calls each with every record in order
+// (query patterns are not records); the record's analysis is valid only
+// during the call. With identify, the records' identity keys are computed
+// beforehand on all cores (Record.Identity; nil for records without
+// keys). It returns the number of records.
+func (a *Analyzer) StreamRecords(name, languageID string, content []byte, identify bool, each func(i int, rec *Record)) int {
+	cfg := a.cfg
+	kind := a.kindOf(name, languageID)
+	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
+	occs := res.splitQueries(find.FindKind(kind, content, cfg.findConfig(name)))
+	reading := cfg.Reading.notation()
+	recs := make([]Record, min(streamChunk, len(occs)))
+	for start := 0; start < len(occs); start += streamChunk {
+		end := min(start+streamChunk, len(occs))
+		parallel(end-start, func(k int) {
+			an := analyse(occs[start+k].Text, reading)
+			recs[k] = Record{Occ: &occs[start+k], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
+			if identify {
+				recs[k].Identity = an.identify()
+			}
+		})
+		for k := range end - start {
+			each(start+k, &recs[k])
+		}
+		clear(recs)
+	}
+	return len(occs)
 }
 
 // Stream finds the findings Analyze finds, without keeping what it does

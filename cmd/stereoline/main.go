@@ -32,16 +32,20 @@ Run 'stereoline <command> -h' for the options of a command.
 
 func main() {
 	if len(os.Args) > 1 && (os.Args[1] == "check" || os.Args[1] == "keys") && os.Getenv("GOMEMLIMIT") == "" {
-		// The commands that scan many files keep only findings and keys;
-		// a soft limit makes the collector return the rest of a chunk's
-		// analyses before the heap doubles (GOMEMLIMIT overrides it).
+		// The commands that scan many files keep only findings and keys,
+		// and most of what they allocate dies with its chunk of records:
+		// the collector runs seldom (GOGC 400) under a soft limit that
+		// keeps the heap well below 500 MB (GOMEMLIMIT overrides it).
 		debug.SetMemoryLimit(scanMemoryLimit)
+		if os.Getenv("GOGC") == "" {
+			debug.SetGCPercent(400)
+		}
 	}
 	os.Exit(run(os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
 }
 
 // scanMemoryLimit is the soft memory limit of check and keys.
-const scanMemoryLimit = 256 << 20
+const scanMemoryLimit = 320 << 20
 
 // run is main without the process: it returns the exit status, so tests
 // can drive every command in-process.

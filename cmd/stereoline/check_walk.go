@@ -112,6 +112,10 @@ func (r *checkRun) readCheckFile(f checkFile, limit int64) ([]byte, error) {
 			return nil, err
 		}
 		defer fh.Close()
+		// A regular file over the limit is told by its size, unread.
+		if st, err := fh.Stat(); err == nil && st.Mode().IsRegular() && st.Size() > limit {
+			return nil, errTooLarge(limit)
+		}
 		src = fh
 	}
 	// Read one byte past the limit to tell "at the limit" from "over".
@@ -125,9 +129,14 @@ func (r *checkRun) readCheckFile(f checkFile, limit int64) ([]byte, error) {
 		return nil, err
 	}
 	if int64(len(data)) > limit {
-		return nil, errSkipped{fmt.Sprintf("larger than the largest file scanned, %d bytes (--max-size, or the maxFileSize setting)", limit)}
+		return nil, errTooLarge(limit)
 	}
 	return data, nil
+}
+
+// errTooLarge is the skip of a file over the largest file scanned.
+func errTooLarge(limit int64) errSkipped {
+	return errSkipped{fmt.Sprintf("larger than the largest file scanned, %d bytes (--max-size, or the maxFileSize setting)", limit)}
 }
 
 // pathError reports a path that cannot be read, naming it, and marks the

@@ -3,7 +3,10 @@ package main
 import (
 	"bufio"
 	"bytes"
+	"compress/gzip"
 	"encoding/json"
+	"image"
+	"image/png"
 	"os"
 	"path/filepath"
 	"strings"
@@ -130,5 +133,43 @@ func TestKeysSkipsAndLimits(t *testing.T) {
 	write(".stereoline.json", `{"maxFileSize": "lots"}`)
 	if _, stderr, status := runKeys(t, "", big); status != 2 || !strings.Contains(stderr, "maxFileSize") {
 		t.Errorf("a bad maxFileSize: status %d, %q", status, stderr)
+	}
+}
+
+// TestCheckSkipsBinaryFormats: a gzip stream and a PNG image (written by
+// the standard library's encoders, to their published formats) and a
+// copy of an executable named as lists are skipped as binary with a
+// note, not read as a stream of false errors.
+func TestCheckSkipsBinaryFormats(t *testing.T) {
+	dir := t.TempDir()
+	var gz bytes.Buffer
+	zw := gzip.NewWriter(&gz)
+	zw.Write([]byte(strings.Repeat("C[C@H](O)CC\n", 1000)))
+	zw.Close()
+	var pic bytes.Buffer
+	img := image.NewGray(image.Rect(0, 0, 64, 64))
+	if err := png.Encode(&pic, img); err != nil {
+		t.Fatal(err)
+	}
+	files := map[string][]byte{"list.smi.gz.smi": gz.Bytes(), "image.smi": pic.Bytes()}
+	if b, err := os.ReadFile("/usr/bin/ls"); err == nil {
+		files["program.smi"] = b
+	}
+	var paths []string
+	for name, b := range files {
+		p := filepath.Join(dir, name)
+		if err := os.WriteFile(p, b, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		paths = append(paths, p)
+	}
+	stdout, stderr, status := runCheck(t, "", paths...)
+	if status != 0 || stdout != "" {
+		t.Errorf("status %d, findings %q; want 0 and none", status, stdout)
+	}
+	for name := range files {
+		if !strings.Contains(stderr, name+": skipped: binary file") {
+			t.Errorf("no note for %s: %s", name, stderr)
+		}
 	}
 }

@@ -57,7 +57,7 @@ func check(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		}
 	}
 	reports := run.analyzeAll(files)
-	out := bufio.NewWriter(stdout)
+	out := bufio.NewWriterSize(stdout, outputBuffer)
 	var err error
 	switch opts.format {
 	case "json":

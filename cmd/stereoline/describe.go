@@ -34,7 +34,7 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "stereoline describe: %v\n", err)
 		return 2
 	}
-	out := bufio.NewWriter(stdout)
+	out := bufio.NewWriterSize(stdout, outputBuffer)
 	defer out.Flush()
 	failed := false
 	// describe keeps nothing from one record to the next: a collection

@@ -105,7 +105,7 @@ func keys(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	// The files are found, read and limited as check does it.
 	run := newCheckRun(checkOptions{stdinName: o.stdinName, maxSize: o.maxSize, paths: o.paths,
 		reading: o.reading, configFile: o.config, jobs: runtime.GOMAXPROCS(0)}, stdin, stderr)
-	out := bufio.NewWriter(stdout)
+	out := bufio.NewWriterSize(stdout, outputBuffer)
 	w := keysWriter{out: out, tsv: o.format == "tsv"}
 	if w.tsv {
 		out.WriteString(strings.Join(keysColumns, "\t") + "\n")

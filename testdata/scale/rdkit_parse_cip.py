@@ -3,7 +3,7 @@
 list with Debian's python3-rdkit (Chem.MolFromSmiles) and label it with its
 CIP labeller (rdCIPLabeler.AssignCIPLabels), one core, printing only the
 count of records read. Compare with `stereoline describe --json` and
-`stereoline check` on the same file (README, "Speed").
+`stereoline check` on the same file (DEVELOPERS.md, "Running things").
 
 usage: rdkit_parse_cip.py LIST.smi
 """

@@ -6,8 +6,6 @@ import (
 	"fmt"
 	"io"
 	"runtime"
-	"strconv"
-	"strings"
 
 	"stereoline/notation"
 	"stereoline/stereo/document"
@@ -35,7 +33,7 @@ type checkOptions struct {
 	changedSince string
 	configFile   string
 	stdinName    string
-	maxSize      int64
+	maxSize      int64 // 0: the maxFileSize setting of each file
 	jobs         int
 	paths        []string
 	reading      readingFlags // on top of each file's configuration
@@ -60,7 +58,7 @@ func check(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		}
 	}
 	reports := run.analyzeAll(files)
-	out := bufio.NewWriter(stdout)
+	out := bufio.NewWriterSize(stdout, outputBuffer)
 	var err error
 	switch opts.format {
 	case "json":
@@ -100,7 +98,7 @@ func parseCheckArgs(args []string, stderr io.Writer) (checkOptions, int) {
 	fs.StringVar(&opts.changedSince, "changed-since", "", "report only findings on lines changed since this git revision")
 	fs.StringVar(&opts.configFile, "config", "", "configuration `file` to use instead of the "+configFileName+" found next to the checked files")
 	fs.StringVar(&opts.stdinName, "stdin-name", "", "file `name` for standard input (picks the host kind; printed as its path)")
-	maxSize := fs.String("max-size", "10MB", "skip files larger than this (bytes, or with a kB, MB or GB suffix)")
+	maxSize := fs.String("max-size", "", "skip files larger than this (bytes, or with a kB, MB or GB suffix); default: the maxFileSize setting, else "+defaultMaxSize)
 	fs.IntVar(&opts.jobs, "jobs", runtime.GOMAXPROCS(0), "number of files analysed at the same time")
 	opts.reading.add(fs)
 	opts.limits.add(fs)
@@ -146,11 +144,13 @@ func parseCheckArgs(args []string, stderr io.Writer) (checkOptions, int) {
 	default:
 		return usageErr("--fail-on: expected error, warning or information, found %q", *failOn)
 	}
-	n, err := parseSize(*maxSize)
-	if err != nil {
-		return usageErr("--max-size: %v", err)
+	if *maxSize != "" {
+		n, err := parseSize(*maxSize)
+		if err != nil {
+			return usageErr("--max-size: %v", err)
+		}
+		opts.maxSize = n
 	}
-	opts.maxSize = n
 	if opts.jobs < 1 {
 		return usageErr("--jobs: expected a positive number, found %d", opts.jobs)
 	}
@@ -180,21 +180,8 @@ func parseCheckArgs(args []string, stderr io.Writer) (checkOptions, int) {
 
 // parseSize reads a byte count with an optional decimal suffix (kB, MB,
 // GB; K, M and G are accepted too, case-insensitively).
-func parseSize(s string) (int64, error) {
-	t := strings.ToLower(strings.TrimSpace(s))
-	mult := int64(1)
-	for _, u := range []struct {
-		suffix string
-		mult   int64
-	}{{"gb", 1e9}, {"mb", 1e6}, {"kb", 1e3}, {"g", 1e9}, {"m", 1e6}, {"k", 1e3}, {"b", 1}} {
-		if strings.HasSuffix(t, u.suffix) {
-			t, mult = strings.TrimSpace(strings.TrimSuffix(t, u.suffix)), u.mult
-			break
-		}
-	}
-	n, err := strconv.ParseInt(t, 10, 64)
-	if err != nil || n <= 0 || n > (1<<62)/mult {
-		return 0, fmt.Errorf("expected a positive size such as 500kB or 10MB, found %q", s)
-	}
-	return n * mult, nil
-}
+func parseSize(s string) (int64, error) { return document.ParseSize(s) }
+
+// defaultMaxSize is the largest file scanned when neither --max-size nor
+// the maxFileSize setting says otherwise.
+const defaultMaxSize = document.DefaultMaxFileSize

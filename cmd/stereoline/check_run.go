@@ -6,6 +6,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"sort"
 	"sync"
 	"sync/atomic"
 	"time"
@@ -101,34 +102,70 @@ func (r *checkRun) analyzeFile(f checkFile) (rep fileReport) {
 			r.pathError(f.path, fmt.Errorf("internal error: %v", p))
 		}
 	}()
-	data, err := r.readCheckFile(f)
-	if err != nil {
-		var skip errSkipped
-		if errors.As(err, &skip) {
-			rep.Skipped = skip.reason
-			if f.explicit {
-				r.mu.Lock()
-				fmt.Fprintf(r.stderr, "stereoline: %s: skipped: %s\n", f.path, skip.reason)
-				r.mu.Unlock()
-			}
-			return rep
-		}
-		r.pathError(f.path, err)
+	data, lc, skipped, ok := r.readForAnalysis(f)
+	if !ok {
+		rep.Skipped = skipped
 		return rep
 	}
+	// The findings stream out of the engine a chunk of records at a time;
+	// only they are kept, converted to positions, so memory grows with
+	// the findings rather than with the analyses of a long list.
+	var diags []document.Diagnostic
+	rep.Records = lc.analyzer.Stream(f.path, "", data, func(ds []document.Diagnostic) {
+		for _, d := range ds {
+			d.Fixes, d.Related = nil, nil
+			diags = append(diags, d)
+		}
+	})
+	// The order of Analyze: by host span, relations after the other
+	// findings at the same span.
+	sort.SliceStable(diags, func(i, j int) bool {
+		x, y := diags[i], diags[j]
+		if x.Span.Start != y.Span.Start {
+			return x.Span.Start < y.Span.Start
+		}
+		if x.Span.End != y.Span.End {
+			return x.Span.End < y.Span.End
+		}
+		return !document.IsRelation(x.Code) && document.IsRelation(y.Code)
+	})
+	rep.Findings = r.findings(f, data, diags)
+	return rep
+}
+
+// readForAnalysis reads a file under the size limit of its configuration
+// (--max-size wins over the maxFileSize setting) and returns it with the
+// configuration; ok is false when the file is not to be analysed: a
+// failure, reported, or a skip (skipped says why).
+func (r *checkRun) readForAnalysis(f checkFile) (data []byte, lc *loadedConfig, skipped string, ok bool) {
 	cfgPath := f.osPath
 	if f.stdin {
 		cfgPath = filepath.FromSlash(f.path)
 	}
-	lc := r.loadedFor(cfgPath)
+	lc = r.loadedFor(cfgPath)
 	if lc.err != nil {
 		r.configError(lc)
-		return rep
+		return nil, nil, "", false
 	}
-	res := lc.analyzer.Analyze(f.path, "", data)
-	rep.Records = len(res.Records) + len(res.Queries)
-	rep.Findings = r.findings(f, res)
-	return rep
+	limit := r.opts.maxSize
+	if limit == 0 {
+		limit = lc.maxSize
+	}
+	data, err := r.readCheckFile(f, limit)
+	if err != nil {
+		var skip errSkipped
+		if errors.As(err, &skip) {
+			if f.explicit || skip.reason != "binary file" {
+				r.mu.Lock()
+				fmt.Fprintf(r.stderr, "stereoline: %s: skipped: %s\n", f.path, skip.reason)
+				r.mu.Unlock()
+			}
+			return nil, lc, skip.reason, false
+		}
+		r.pathError(f.path, err)
+		return nil, lc, "", false
+	}
+	return data, lc, "", true
 }
 
 // configError reports a bad configuration file once.
@@ -144,18 +181,18 @@ func (r *checkRun) configError(lc *loadedConfig) {
 
 // findings converts the engine's diagnostics (host byte offsets) to the
 // positions of the output formats, keeping only changed lines when asked.
-func (r *checkRun) findings(f checkFile, res *document.Result) []finding {
-	if len(res.Diagnostics) == 0 {
+func (r *checkRun) findings(f checkFile, content []byte, diags []document.Diagnostic) []finding {
+	if len(diags) == 0 {
 		return nil
 	}
 	// The language server's mapper is the one place that turns byte
 	// offsets into lines and characters, so check and the editor agree;
 	// text and SARIF columns count code points (its UTF-32 encoding),
 	// JSON Lines count UTF-16 units as LSP does.
-	m16 := lsp.NewMapper(res.Content, lsp.EncodingUTF16)
-	m32 := lsp.NewMapper(res.Content, lsp.EncodingUTF32)
+	m16 := lsp.NewMapper(content, lsp.EncodingUTF16)
+	m32 := lsp.NewMapper(content, lsp.EncodingUTF32)
 	pos := func(off int) position {
-		off = max(0, min(off, len(res.Content)))
+		off = max(0, min(off, len(content)))
 		p16, err16 := m16.OffsetToPosition(off)
 		p32, err32 := m32.OffsetToPosition(off)
 		if err16 != nil || err32 != nil {
@@ -167,8 +204,8 @@ func (r *checkRun) findings(f checkFile, res *document.Result) []finding {
 	if r.changes != nil {
 		changed = r.changes.forFile(f)
 	}
-	out := make([]finding, 0, len(res.Diagnostics))
-	for _, d := range res.Diagnostics {
+	out := make([]finding, 0, len(diags))
+	for _, d := range diags {
 		fd := finding{Start: pos(d.Span.Start), End: pos(d.Span.End), Severity: d.Severity, Code: d.Code, Message: d.Message}
 		if r.changes != nil && !changed.touches(fd.Start, fd.End) {
 			continue

@@ -141,7 +141,7 @@ func TestCheckSkips(t *testing.T) {
 	// A file named on the command line is checked even if hidden, and a
 	// skipped one is reported by name.
 	_, stderr, _ = runCheck(t, "", "--max-size", "1kB", filepath.Join(dir, "big.smi"))
-	if !strings.Contains(stderr, "big.smi: skipped: larger than --max-size") {
+	if !strings.Contains(stderr, "big.smi: skipped: larger than the largest file scanned") {
 		t.Errorf("stderr should say why big.smi was skipped: %s", stderr)
 	}
 	stdout, _, _ = runCheck(t, "", filepath.Join(dir, ".git", "hidden.smi"))

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bufio"
 	"bytes"
 	"context"
 	"errors"
@@ -101,7 +102,7 @@ func (e errSkipped) Error() string { return e.reason }
 
 // readCheckFile reads a file, refusing files over the size limit and
 // binary files (a NUL byte near the start).
-func (r *checkRun) readCheckFile(f checkFile) ([]byte, error) {
+func (r *checkRun) readCheckFile(f checkFile, limit int64) ([]byte, error) {
 	var src io.Reader
 	if f.stdin {
 		src = r.stdin
@@ -111,20 +112,31 @@ func (r *checkRun) readCheckFile(f checkFile) ([]byte, error) {
 			return nil, err
 		}
 		defer fh.Close()
+		// A regular file over the limit is told by its size, unread.
+		if st, err := fh.Stat(); err == nil && st.Mode().IsRegular() && st.Size() > limit {
+			return nil, errTooLarge(limit)
+		}
 		src = fh
 	}
 	// Read one byte past the limit to tell "at the limit" from "over".
-	data, err := io.ReadAll(io.LimitReader(src, r.opts.maxSize+1))
+	// A binary file is told by its start, before the rest is read.
+	br := bufio.NewReaderSize(src, binaryProbe)
+	if head, _ := br.Peek(binaryProbe); bytes.IndexByte(head, 0) >= 0 {
+		return nil, errSkipped{"binary file"}
+	}
+	data, err := io.ReadAll(io.LimitReader(br, limit+1))
 	if err != nil {
 		return nil, err
 	}
-	if int64(len(data)) > r.opts.maxSize {
-		return nil, errSkipped{fmt.Sprintf("larger than --max-size (%d bytes)", r.opts.maxSize)}
-	}
-	if bytes.IndexByte(data[:min(len(data), binaryProbe)], 0) >= 0 {
-		return nil, errSkipped{"binary file"}
+	if int64(len(data)) > limit {
+		return nil, errTooLarge(limit)
 	}
 	return data, nil
+}
+
+// errTooLarge is the skip of a file over the largest file scanned.
+func errTooLarge(limit int64) errSkipped {
+	return errSkipped{fmt.Sprintf("larger than the largest file scanned, %d bytes (--max-size, or the maxFileSize setting)", limit)}
 }
 
 // pathError reports a path that cannot be read, naming it, and marks the

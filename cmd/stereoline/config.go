@@ -19,6 +19,7 @@ type loadedConfig struct {
 	path     string // empty for the built-in defaults
 	cfg      document.Config
 	analyzer *document.Analyzer
+	maxSize  int64 // the maxFileSize setting, in bytes
 	err      error
 }
 
@@ -83,6 +84,10 @@ func (r *checkRun) loadConfigLocked(path string) *loadedConfig {
 		if lc.err != nil {
 			lc.err = fmt.Errorf("%s: %v", filepath.ToSlash(path), lc.err)
 		}
+	}
+	lc.maxSize, _ = document.ParseSize(document.DefaultMaxFileSize)
+	if lc.cfg.MaxFileSize != "" && lc.err == nil {
+		lc.maxSize, lc.err = document.ParseSize(lc.cfg.MaxFileSize) // checked by Validate
 	}
 	// --lone-pair and --ring-marks win over the file (checked when the
 	// options were read)

@@ -2,10 +2,10 @@ package main
 
 import (
 	"bufio"
-	"encoding/json"
 	"flag"
 	"fmt"
 	"io"
+	"runtime/debug"
 	"strings"
 	"text/tabwriter"
 
@@ -34,9 +34,13 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "stereoline describe: %v\n", err)
 		return 2
 	}
-	out := bufio.NewWriter(stdout)
+	out := bufio.NewWriterSize(stdout, outputBuffer)
 	defer out.Flush()
 	failed := false
+	// describe keeps nothing from one record to the next: a collection
+	// less often costs less than the little memory it would return.
+	defer debug.SetGCPercent(debug.SetGCPercent(400))
+	var buf []byte
 	status := eachLine(fs.Args(), stdin, stderr, func(name string, n int, line string) {
 		if trimmed := strings.TrimSpace(line); trimmed == "" || strings.HasPrefix(trimmed, "#") {
 			return
@@ -46,14 +50,15 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			writeTable(out, d)
 			return
 		}
-		b, err := json.Marshal(d)
+		var err error
+		buf, err = appendRecordJSON(buf[:0], &d)
 		if err != nil {
 			fmt.Fprintf(stderr, "%s:%d: %v\n", name, n, err)
 			failed = true
 			return
 		}
-		out.Write(b)
-		out.WriteByte('\n')
+		buf = append(buf, '\n')
+		out.Write(buf)
 	})
 	if failed && status == 0 {
 		status = 1
@@ -190,7 +195,7 @@ func spanJSON(s notation.Span) [2]int { return [2]int{s.Start, s.End} }
 func describeRecord(rec notation.Record, reading notation.Reading) recordJSON {
 	m := notation.ReadWith(rec.Notation, reading)
 	d := recordJSON{Input: rec.Notation, Name: rec.Title,
-		Atoms: []atomJSON{}, Bonds: []bondJSON{}, Diagnostics: []diagnosticJSON{}}
+		Atoms: make([]atomJSON, 0, len(m.Atoms)), Bonds: make([]bondJSON, 0, len(m.Bonds)), Diagnostics: []diagnosticJSON{}}
 	for i := range m.Atoms {
 		a := &m.Atoms[i]
 		aj := atomJSON{N: i + 1, Symbol: a.Symbol, Charge: a.Charge, Hydrogens: a.HydrogenCount(),

@@ -52,3 +52,7 @@ func eachLine(names []string, stdin io.Reader, stderr io.Writer, fn func(name st
 	}
 	return status
 }
+
+// outputBuffer is the buffer of the commands that print a line or more
+// per record: large writes mean few system calls on a long list.
+const outputBuffer = 256 << 10

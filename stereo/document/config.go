@@ -12,6 +12,7 @@ import (
 	"maps"
 	"path"
 	"slices"
+	"strconv"
 	"strings"
 	"time"
 
@@ -61,6 +62,12 @@ type Config struct {
 	// Limits bound the work spent on one record; empty fields are the
 	// defaults.
 	Limits LimitsConfig `json:"limits,omitzero"`
+	// MaxFileSize is the largest file the command line scans (check,
+	// keys): a byte count with an optional kB, MB or GB suffix
+	// (ParseSize); empty means DefaultMaxFileSize. Larger files are
+	// skipped with a note, so a stray dump cannot take the memory of a
+	// CI job.
+	MaxFileSize string `json:"maxFileSize,omitempty"`
 }
 
 // LimitsConfig is the limits setting.
@@ -124,6 +131,31 @@ func (l LimitsConfig) validate() error {
 		return fmt.Errorf("limits.digraphNodes: expected a number from 1 to %d, found %d", MaxDigraphNodes, l.DigraphNodes)
 	}
 	return nil
+}
+
+// DefaultMaxFileSize is the largest file scanned when MaxFileSize is
+// not set.
+const DefaultMaxFileSize = "10MB"
+
+// ParseSize reads a byte count with an optional decimal suffix (kB, MB,
+// GB; K, M and G are accepted too, case-insensitively).
+func ParseSize(s string) (int64, error) {
+	t := strings.ToLower(strings.TrimSpace(s))
+	mult := int64(1)
+	for _, u := range []struct {
+		suffix string
+		mult   int64
+	}{{"gb", 1e9}, {"mb", 1e6}, {"kb", 1e3}, {"g", 1e9}, {"m", 1e6}, {"k", 1e3}, {"b", 1}} {
+		if strings.HasSuffix(t, u.suffix) {
+			t, mult = strings.TrimSpace(strings.TrimSuffix(t, u.suffix)), u.mult
+			break
+		}
+	}
+	n, err := strconv.ParseInt(t, 10, 64)
+	if err != nil || n <= 0 || n > (1<<62)/mult {
+		return 0, fmt.Errorf("expected a positive size such as 500kB or 10MB, found %q", s)
+	}
+	return n * mult, nil
 }
 
 // ReadingConfig is the reading setting: each field the name of a rule of
@@ -193,6 +225,11 @@ func (c *Config) Validate() error {
 	}
 	if err := c.Limits.validate(); err != nil {
 		return err
+	}
+	if c.MaxFileSize != "" {
+		if _, err := ParseSize(c.MaxFileSize); err != nil {
+			return fmt.Errorf("maxFileSize: %v", err)
+		}
 	}
 	if strings.HasPrefix(c.ReviewBase, "-") || strings.ContainsAny(c.ReviewBase, " \t\n") {
 		return fmt.Errorf("reviewBase: expected a git revision or off, found %q", c.ReviewBase)

@@ -85,31 +85,38 @@ func (r *Result) relateRecords() {
 			continue
 		}
 		j := order[m.Earlier]
-		earlier := &r.Records[j]
-		where := r.describeRecord(j)
-		d := Diagnostic{Span: rec.Occ.Span, Record: i,
-			Related: []Related{{Span: earlier.Occ.Span, Message: "the earlier record"}}}
-		switch m.Relation {
-		case identity.Identical:
-			d.Code, d.Severity = CodeListDuplicate, notation.SeverityWarning
-			d.Message = "the same " + setName(rec.Identity) + " as " + where
-		case identity.Enantiomers:
-			d.Code, d.Severity = CodeListEnantiomer, notation.SeverityInformation
-			d.Message = "the mirror image of " + where
-		case identity.AbsoluteOfRelative, identity.AbsoluteOfMixture, identity.RelativeAndMixture:
-			d.Severity = notation.SeverityInformation
-			d.Code, d.Message = setRelationMessage(m, rec, earlier, where)
-		case identity.Diastereomers, identity.Unspecified:
-			d.Code, d.Severity = CodeListStereoisomer, notation.SeverityInformation
-			d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differingUnits(rec.Mol, earlier.Mol, m.Differing))
-			if m.Relation == identity.Unspecified {
-				d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differingUnits(rec.Mol, earlier.Mol, m.Differing))
-			}
-		default:
-			continue
+		if d, ok := relationDiagnostic(m, i, rec, &r.Records[j], r.describeRecord(j)); ok {
+			r.add(d)
 		}
-		r.add(d)
 	}
+}
+
+// relationDiagnostic is the finding that record i (rec) is related to an
+// earlier record as m says; where names the earlier record. ok is false
+// for relations that are not reported.
+func relationDiagnostic(m identity.Match, i int, rec, earlier *Record, where string) (d Diagnostic, ok bool) {
+	d = Diagnostic{Span: rec.Occ.Span, Record: i,
+		Related: []Related{{Span: earlier.Occ.Span, Message: "the earlier record"}}}
+	switch m.Relation {
+	case identity.Identical:
+		d.Code, d.Severity = CodeListDuplicate, notation.SeverityWarning
+		d.Message = "the same " + setName(rec.Identity) + " as " + where
+	case identity.Enantiomers:
+		d.Code, d.Severity = CodeListEnantiomer, notation.SeverityInformation
+		d.Message = "the mirror image of " + where
+	case identity.AbsoluteOfRelative, identity.AbsoluteOfMixture, identity.RelativeAndMixture:
+		d.Severity = notation.SeverityInformation
+		d.Code, d.Message = setRelationMessage(m, rec, earlier, where)
+	case identity.Diastereomers, identity.Unspecified:
+		d.Code, d.Severity = CodeListStereoisomer, notation.SeverityInformation
+		d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differingUnits(rec.Mol, earlier.Mol, m.Differing))
+		if m.Relation == identity.Unspecified {
+			d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differingUnits(rec.Mol, earlier.Mol, m.Differing))
+		}
+	default:
+		return d, false
+	}
+	return d, true
 }
 
 // setName names what a record stands for: "structure" for one
@@ -230,11 +237,13 @@ func (r *Result) identifyColliding() {
 }
 
 // describeRecord names a record for messages: "line 12 (LRK-BB-003)".
-func (r *Result) describeRecord(i int) string {
-	rec := &r.Records[i]
-	s := fmt.Sprintf("line %d", r.lineOf(rec.Occ.Span.Start)+1)
-	if rec.Occ.Title != "" {
-		s += " (" + rec.Occ.Title + ")"
+func (r *Result) describeRecord(i int) string { return r.describeOcc(r.Records[i].Occ) }
+
+// describeOcc is describeRecord for an occurrence.
+func (r *Result) describeOcc(o *find.Occurrence) string {
+	s := fmt.Sprintf("line %d", r.lineOf(o.Span.Start)+1)
+	if o.Title != "" {
+		s += " (" + o.Title + ")"
 	}
 	return s
 }

@@ -73,7 +73,9 @@ type canonState struct {
 	ring   []bool // per unit: kept as a ring unit, parity only after tie-breaking
 	leaves int
 	atoms  []int // the atoms in the order, folded hydrogens left out
-	seen   []bool
+	// sortBuf is rankBy's scratch space for the atoms in order.
+	sortBuf []int
+	seen    []bool
 
 	// sym holds the symmetry classes after refinement, before ties are
 	// broken, for the polyhedral centres (polyhedron.go); mirrored
@@ -198,7 +200,18 @@ func (c *canonState) classes(rank []int) int {
 // once every class holds one atom.
 func (c *canonState) refine(rank []int) []int {
 	g := c.g
+	// Each atom's signature has a fixed length, its rank and one entry a
+	// neighbour: one backing array holds them all.
 	sig := make([][]int, g.n)
+	total := 0
+	for _, a := range c.atoms {
+		total += 1 + len(g.adj[a])
+	}
+	backing := make([]int, total)
+	for _, a := range c.atoms {
+		k := 1 + len(g.adj[a])
+		sig[a], backing = backing[:0:k], backing[k:]
+	}
 	n := c.classes(rank)
 	for iter := 0; iter <= len(c.atoms); iter++ {
 		for _, a := range c.atoms {
@@ -223,7 +236,8 @@ func (c *canonState) refine(rank []int) []int {
 // rankBy ranks the atoms by a comparison: equal atoms share the position
 // of the first of them.
 func (c *canonState) rankBy(cmp func(x, y int) int) []int {
-	sorted := slices.Clone(c.atoms)
+	sorted := append(c.sortBuf[:0], c.atoms...)
+	c.sortBuf = sorted
 	slices.SortStableFunc(sorted, cmp)
 	rank := make([]int, c.g.n)
 	for i := range rank {

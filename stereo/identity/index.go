@@ -61,7 +61,14 @@ type Match struct {
 func (x *Index) Add(id Identity) Match {
 	i := x.n
 	x.n++
-	x.units = append(x.units, id.units)
+	// Only the first record of a constitution is ever compared unit by
+	// unit (below), so only its units are kept: a long list of
+	// stereoisomers costs a slice header per record, not its units.
+	if _, seen := x.byConstitution[id.ConstitutionKey]; seen && id.Key != "" {
+		x.units = append(x.units, nil)
+	} else {
+		x.units = append(x.units, id.units)
+	}
 	m := Match{Relation: Different, Earlier: -1}
 	if id.Key == "" {
 		return m

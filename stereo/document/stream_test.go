@@ -1,0 +1,69 @@
+package document
+
+import (
+	"os"
+	"path/filepath"
+	"reflect"
+	"sort"
+	"testing"
+)
+
+// TestStreamMatchesAnalyze checks that the streamed findings, sorted as
+// Stream's contract says, are Analyze's, on the demo files and the
+// finder's corpus, with chunks small enough that relations cross them.
+// The expected side is the engine's own whole-document analysis.
+func TestStreamMatchesAnalyze(t *testing.T) {
+	var files []string
+	for _, dir := range []string{"../../examples", "../../notation/find/testdata/corpus", "../../lsp/testdata/markers"} {
+		ents, err := os.ReadDir(dir)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, e := range ents {
+			if !e.IsDir() {
+				files = append(files, filepath.Join(dir, e.Name()))
+			}
+		}
+	}
+	defer func(n int) { streamChunk = n }(streamChunk)
+	relations := 0
+	for _, chunk := range []int{1, 3, 2048} {
+		streamChunk = chunk
+		for _, f := range files {
+			data, err := os.ReadFile(f)
+			if err != nil {
+				t.Fatal(err)
+			}
+			a := NewAnalyzer(DefaultConfig())
+			want := a.Analyze(f, "", data)
+			var got []Diagnostic
+			n := NewAnalyzer(DefaultConfig()).Stream(f, "", data, func(ds []Diagnostic) { got = append(got, ds...) })
+			sort.SliceStable(got, func(i, j int) bool {
+				x, y := got[i], got[j]
+				if x.Span != y.Span {
+					return x.Span.Start < y.Span.Start || x.Span.Start == y.Span.Start && x.Span.End < y.Span.End
+				}
+				return !IsRelation(x.Code) && IsRelation(y.Code)
+			})
+			if n != len(want.Records)+len(want.Queries) {
+				t.Errorf("%s: Stream counted %d records, Analyze %d", f, n, len(want.Records)+len(want.Queries))
+			}
+			if len(got) != len(want.Diagnostics) {
+				t.Errorf("chunk %d, %s: %d findings streamed, Analyze has %d", chunk, f, len(got), len(want.Diagnostics))
+				continue
+			}
+			for i := range got {
+				if IsRelation(got[i].Code) {
+					relations++
+				}
+				if !reflect.DeepEqual(got[i], want.Diagnostics[i]) {
+					t.Errorf("chunk %d, %s: finding %d\n got %+v\nwant %+v", chunk, f, i, got[i], want.Diagnostics[i])
+					break
+				}
+			}
+		}
+	}
+	if relations == 0 {
+		t.Error("no relations among the files: the test relates nothing")
+	}
+}

@@ -424,4 +424,3 @@ func fail(err error) {
 	fmt.Fprintln(os.Stderr, "scaleclient:", err)
 	os.Exit(1)
 }
-

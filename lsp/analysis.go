@@ -42,6 +42,9 @@ type analysis struct {
 	done   chan struct{}
 	result *document.Result
 	err    error
+	// tooLarge is set when the document is larger than the
+	// maxDocumentSize setting: its result is empty.
+	tooLarge bool
 }
 
 func newAnalysis(f *fileVersion, c configured) *analysis {
@@ -85,6 +88,15 @@ func (a *analysis) run(log *zap.Logger) {
 		}
 	}()
 	start := time.Now()
+	cfg := a.config.analyzer.Config()
+	if content := a.file.content(); len(content) > cfg.DocumentLimit() {
+		a.prev.Store(nil)
+		a.tooLarge = true
+		a.result = a.config.analyzer.Analyze(a.file.Name, a.file.LanguageID, nil)
+		a.records = a.result
+		closeRecords()
+		return
+	}
 	if prev := a.previousResult(); prev != nil {
 		a.result = a.config.analyzer.Reanalyze(prev, a.file.Name, a.file.LanguageID, a.file.content())
 		a.records = a.result
@@ -284,6 +296,14 @@ func (w *worker) publish(ctx context.Context, uri string) {
 	first, err := a.getRecords(ctx, s.log)
 	if err != nil {
 		return
+	}
+	if a.tooLarge {
+		name := f.Name
+		if name == "" {
+			name = f.URI
+		}
+		s.showWarning(fmt.Sprintf("stereoline: %s is %d bytes, more than the maxDocumentSize setting (%d): it is not analysed",
+			path.Base(name), len(f.content()), a.config.analyzer.Config().DocumentLimit()))
 	}
 	w.mu.Lock()
 	shown := w.sent[uri]

@@ -377,4 +377,3 @@ func symbolName(o *find.Occurrence) string {
 	}
 	return name
 }
-

@@ -86,7 +86,6 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 		next.Records[i] = rec
 		next.own[i] = moveDiagnostics(prev.own[i1+k], delta, i)
 	}
-	next.lines = lineStarts(content)
 	next.relateAgain(prev, i0, i1, dn, delta, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
 	next.assemble()
 	return next
@@ -97,11 +96,19 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 // starts (or the ends of the texts), and the texts agree before from and
 // after the ends.
 func changedLines(old, new []byte) (from, oldTo, newTo int) {
+	// Blocks first, then bytes: the texts are megabytes long.
+	const block = 4096
 	p := 0
+	for p+block <= min(len(old), len(new)) && bytes.Equal(old[p:p+block], new[p:p+block]) {
+		p += block
+	}
 	for p < len(old) && p < len(new) && old[p] == new[p] {
 		p++
 	}
 	s := 0
+	for s+block <= min(len(old), len(new))-p && bytes.Equal(old[len(old)-s-block:len(old)-s], new[len(new)-s-block:len(new)-s]) {
+		s += block
+	}
 	for s < len(old)-p && s < len(new)-p && old[len(old)-1-s] == new[len(new)-1-s] {
 		s++
 	}

@@ -279,12 +279,7 @@ func (r *Result) describeRecord(i int) string {
 // starts built once per result.
 func (r *Result) lineOf(off int) int {
 	if r.lines == nil {
-		r.lines = []int{0}
-		for i, c := range r.Content {
-			if c == '\n' {
-				r.lines = append(r.lines, i+1)
-			}
-		}
+		r.lines = lineStarts(r.Content)
 	}
 	return sort.SearchInts(r.lines, off+1) - 1
 }

@@ -73,6 +73,7 @@ func main() {
 	doc := newDocument(string(text))
 	fmt.Printf("list: %s, %d lines, %d bytes\n", *list, len(doc.lines), len(text))
 
+	cpu0 := c.cpu()
 	begun := time.Now()
 	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{
 		"uri": uri, "languageId": "smiles", "version": 1, "text": string(text)}})
@@ -83,8 +84,8 @@ func main() {
 	if first.relations == 0 {
 		full = c.waitPublication(1, true)
 	}
-	fmt.Printf("with relations:       %8.0f ms  (%d diagnostics, %d relations)\n",
-		ms(full.at.Sub(begun)), full.count, full.relations)
+	fmt.Printf("with relations:       %8.0f ms  (%d diagnostics, %d relations); server CPU %.0f ms\n",
+		ms(full.at.Sub(begun)), full.count, full.relations, ms(c.cpu()-cpu0))
 	rss(c, "after open")
 
 	rng := rand.New(rand.NewSource(1))
@@ -98,9 +99,9 @@ func main() {
 		{"insert a line", (*document).insertEdit},
 		{"delete a line", (*document).deleteEdit},
 	}
-	fmt.Printf("%-16s %8s %8s   (median of %d; debounce %v)\n", "edit", "total", "net", *rounds, *debounce)
+	fmt.Printf("%-16s %8s %8s %8s   (median of %d; debounce %v; server CPU time per edit)\n", "edit", "total", "net", "cpu", *rounds, *debounce)
 	for _, k := range kinds {
-		var times []time.Duration
+		var times, cpus []time.Duration
 		var last publication
 		for r := 0; r < *rounds; r++ {
 			e, ok := k.make(doc, rng)
@@ -108,6 +109,7 @@ func main() {
 				break
 			}
 			version++
+			cpu := c.cpu()
 			sent := time.Now()
 			c.notify("textDocument/didChange", map[string]any{
 				"textDocument":   map[string]any{"uri": uri, "version": version},
@@ -116,9 +118,10 @@ func main() {
 			doc.apply(e)
 			last = c.waitPublication(version, false)
 			times = append(times, last.at.Sub(sent))
+			cpus = append(cpus, c.cpu()-cpu)
 		}
 		med := median(times)
-		fmt.Printf("%-16s %8.1f %8.1f ms  (%d diagnostics, %d relations)\n", k.name, ms(med), ms(med-*debounce), last.count, last.relations)
+		fmt.Printf("%-16s %8.1f %8.1f %8.1f ms  (%d diagnostics, %d relations)\n", k.name, ms(med), ms(med-*debounce), ms(median(cpus)), last.count, last.relations)
 	}
 
 	var lat []time.Duration
@@ -298,6 +301,20 @@ func (c *client) waitPublication(version int32, relations bool) publication {
 			fail(fmt.Errorf("no publication of version %d", version))
 		}
 	}
+}
+
+// cpu returns the user and system time the server has used so far
+// (/proc/<pid>/stat, in clock ticks of 10 ms).
+func (c *client) cpu() time.Duration {
+	stat, err := os.ReadFile(fmt.Sprintf("/proc/%d/stat", c.cmd.Process.Pid))
+	if err != nil {
+		return 0
+	}
+	s := string(stat)
+	fields := strings.Fields(s[strings.LastIndexByte(s, ')')+2:])
+	utime, _ := strconv.Atoi(fields[11])
+	stime, _ := strconv.Atoi(fields[12])
+	return time.Duration(utime+stime) * 10 * time.Millisecond
 }
 
 // rss prints the server's current and peak resident memory.

@@ -387,7 +387,7 @@ func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 	w.mu.Lock()
 	w.sent[f.URI] = true
 	w.mu.Unlock()
-	s.notify("textDocument/publishDiagnostics", params)
+	s.notifyJSON("textDocument/publishDiagnostics", params)
 	return true
 }
 

@@ -178,7 +178,7 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	fill := func(i int) {
 		an := a.cache.get(occs[i].Text, cfg.Reading.notation())
 		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
-		res.own[i] = res.recordDiagnostics(i)
+		res.own[i] = res.recordFindings(i)
 	}
 	parallel(len(occs), fill)
 	n := 0
@@ -267,11 +267,11 @@ func (r *Result) configured(d Diagnostic) (_ Diagnostic, on bool) {
 	return d, true
 }
 
-// recordDiagnostics maps the host, reader and stereo findings of one
+// recordFindings maps the host, reader and stereo findings of one
 // record to host offsets, sorted by position as sortDiagnostics sorts
 // the whole document's. It reads only record i, so records are done in
 // parallel.
-func (r *Result) recordDiagnostics(i int) []Diagnostic {
+func (r *Result) recordFindings(i int) []Diagnostic {
 	var out []Diagnostic
 	add := func(d Diagnostic) {
 		if d, on := r.configured(d); on {

@@ -68,7 +68,7 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 		i := i0 + k
 		an := a.cache.get(occs[k].Text, cfg.Reading.notation())
 		next.Records[i] = Record{Occ: &occs[k], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
-		next.own[i] = next.recordDiagnostics(i)
+		next.own[i] = next.recordFindings(i)
 	})
 	moved := prev.Records[i1:]
 	var shifted []find.Occurrence

@@ -27,6 +27,12 @@ import (
 type analysis struct {
 	file   *fileVersion
 	config configured
+	// prev is the analysis of the version this one was edited from,
+	// under the same configuration, or nil: when its result (or that of
+	// an earlier version in the chain) is ready, the engine reads again
+	// only what the edits touched. It is dropped once the analysis
+	// starts, so versions do not hold on to each other.
+	prev atomic.Pointer[analysis]
 
 	once sync.Once
 
@@ -36,6 +42,9 @@ type analysis struct {
 	done   chan struct{}
 	result *document.Result
 	err    error
+	// tooLarge is set when the document is larger than the
+	// maxDocumentSize setting: its result is empty.
+	tooLarge bool
 }
 
 func newAnalysis(f *fileVersion, c configured) *analysis {
@@ -79,12 +88,40 @@ func (a *analysis) run(log *zap.Logger) {
 		}
 	}()
 	start := time.Now()
+	cfg := a.config.analyzer.Config()
+	if content := a.file.content(); len(content) > cfg.DocumentLimit() {
+		a.prev.Store(nil)
+		a.tooLarge = true
+		a.result = a.config.analyzer.Analyze(a.file.Name, a.file.LanguageID, nil)
+		a.records = a.result
+		closeRecords()
+		return
+	}
+	if prev := a.previousResult(); prev != nil {
+		a.result = a.config.analyzer.Reanalyze(prev, a.file.Name, a.file.LanguageID, a.file.content())
+		a.records = a.result
+		closeRecords()
+		log.Debug("analysed again", zap.String("uri", a.file.URI), zap.Int32("version", a.file.Version),
+			zap.Int("records", len(a.result.Records)), zap.Duration("took", time.Since(start)))
+		return
+	}
 	a.records = a.config.analyzer.AnalyzeRecords(a.file.Name, a.file.LanguageID, a.file.content())
 	closeRecords()
 	recorded := time.Since(start)
 	a.result = a.records.Relate()
 	log.Debug("analysed", zap.String("uri", a.file.URI), zap.Int32("version", a.file.Version),
 		zap.Int("records", len(a.result.Records)), zap.Duration("records took", recorded), zap.Duration("took", time.Since(start)))
+}
+
+// previousResult returns the result of the nearest earlier version
+// whose analysis is done, or nil, and drops the chain.
+func (a *analysis) previousResult() *document.Result {
+	for p := a.prev.Swap(nil); p != nil; p = p.prev.Load() {
+		if p.finished() {
+			return p.result
+		}
+	}
+	return nil
 }
 
 // getRecords returns the first stage, starting the analysis if nobody
@@ -260,6 +297,14 @@ func (w *worker) publish(ctx context.Context, uri string) {
 	if err != nil {
 		return
 	}
+	if a.tooLarge {
+		name := f.Name
+		if name == "" {
+			name = f.URI
+		}
+		s.showWarning(fmt.Sprintf("stereoline: %s is %d bytes, more than the maxDocumentSize setting (%d): it is not analysed",
+			path.Base(name), len(f.content()), a.config.analyzer.Config().DocumentLimit()))
+	}
 	w.mu.Lock()
 	shown := w.sent[uri]
 	w.mu.Unlock()
@@ -328,7 +373,8 @@ func (w *worker) await(ctx context.Context, uri string, a *analysis) bool {
 // replace newer findings on the client. It reports whether it sent.
 func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 	s := w.s
-	diags, err := s.toDiagnostics(f, res)
+	version := f.Version
+	params, err := diagnosticsJSON(f, res, &version)
 	if err != nil {
 		s.log.Error("internal error", zap.String("uri", f.URI), zap.Error(fmt.Errorf("diagnostics: %w", err)))
 		return false
@@ -338,11 +384,10 @@ func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 	if cur := s.current(); cur.analyses[f.URI] != a {
 		return false
 	}
-	version := f.Version
 	w.mu.Lock()
 	w.sent[f.URI] = true
 	w.mu.Unlock()
-	s.notify("textDocument/publishDiagnostics", publishDiagnosticsParams{URI: f.URI, Version: &version, Diagnostics: diags})
+	s.notifyJSON("textDocument/publishDiagnostics", params)
 	return true
 }
 

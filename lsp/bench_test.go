@@ -2,6 +2,7 @@ package lsp
 
 import (
 	"fmt"
+	"os"
 	"strings"
 	"testing"
 	"time"
@@ -106,6 +107,50 @@ func BenchmarkEditDiagnostics(b *testing.B) {
 			c.change(u, v, edit(line, 3, line, 4, ""))
 		} else {
 			c.change(u, v, edit(line, 3, line, 3, "@"))
+		}
+		c.diagnostics(u, v)
+	}
+}
+
+// BenchmarkScaleEdit measures a one-line edit (a mark toggled) of the
+// list STEREOLINE_SCALE_LIST names (testdata/scale/make_list.py) to its
+// new diagnostics, relations included; it skips without the variable.
+// The debounce is 1 ms here. lsp/testdata/scaleclient measures the same
+// through a real process.
+func BenchmarkScaleEdit(b *testing.B) {
+	name := os.Getenv("STEREOLINE_SCALE_LIST")
+	if name == "" {
+		b.Skip("STEREOLINE_SCALE_LIST is not set")
+	}
+	text, err := os.ReadFile(name)
+	if err != nil {
+		b.Skip(err)
+	}
+	lines := strings.Split(string(text), "\n")
+	line := len(lines) / 2
+	for ; line < len(lines) && !strings.Contains(lines[line], "@"); line++ {
+	}
+	col := strings.Index(lines[line], "@")
+	const u = "file:///bench/scale.smi"
+	c := start(b, clientSetup{debounce: time.Millisecond, limit: 5 * time.Minute})
+	c.open(u, "", 1, string(text))
+	c.until("the relations", func() bool {
+		for _, p := range c.diags {
+			for _, d := range p.Diagnostics {
+				if strings.HasPrefix(fmt.Sprint(d.Code), "list-") {
+					return true
+				}
+			}
+		}
+		return false
+	})
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		v := int32(i + 2)
+		if i%2 == 0 {
+			c.change(u, v, edit(line, col, line, col, "@"))
+		} else {
+			c.change(u, v, edit(line, col, line, col+1, ""))
 		}
 		c.diagnostics(u, v)
 	}

@@ -115,6 +115,16 @@ func (m *Mapper) units(b []byte) int {
 	if m.encoding == EncodingUTF8 {
 		return len(b)
 	}
+	ascii := true
+	for _, c := range b {
+		if c >= utf8.RuneSelf {
+			ascii = false
+			break
+		}
+	}
+	if ascii {
+		return len(b) // one unit a byte in every encoding
+	}
 	n := 0
 	for len(b) > 0 {
 		r, size := utf8.DecodeRune(b)

@@ -47,6 +47,8 @@ type baseVersion struct {
 	content []byte // nil when the file is not in the commit
 	err     error
 	checked time.Time
+	// refreshing is set (under changeCache.mu) while git is asked again.
+	refreshing bool
 }
 
 type reviewKey struct {
@@ -59,15 +61,33 @@ type reviewKey struct {
 // maxReviews bounds the reviews kept; the oldest half goes when full.
 const maxReviews = 64
 
-// base returns the version of a file at a revision.
+// base returns the version of a file at a revision. A version checked
+// longer than baseRecheck ago is returned as it is while git is asked
+// again in the background, so a hover or lens never waits for git once
+// the file's base is known.
 func (c *changeCache) base(path, rev string) *baseVersion {
 	key := path + "\x00" + rev
 	c.mu.Lock()
 	b := c.bases[key]
+	refresh := b != nil && time.Since(b.checked) >= baseRecheck && !b.refreshing
+	if refresh {
+		b.refreshing = true
+	}
 	c.mu.Unlock()
-	if b != nil && time.Since(b.checked) < baseRecheck {
+	if b != nil {
+		if refresh {
+			go c.store(key, c.load(path, rev, b))
+		}
 		return b
 	}
+	next := c.load(path, rev, nil)
+	c.store(key, next)
+	return next
+}
+
+// load reads the version of a file at a revision with git; b is the
+// version read before, whose content is kept when the commit is the same.
+func (c *changeCache) load(path, rev string, b *baseVersion) *baseVersion {
 	next := &baseVersion{checked: time.Now()}
 	repo, err := review.FindRepo(filepath.Dir(path))
 	if err == nil {
@@ -91,13 +111,17 @@ func (c *changeCache) base(path, rev string) *baseVersion {
 		}
 		next.content = blobs[rel].Content
 	}
+	return next
+}
+
+// store keeps a base version.
+func (c *changeCache) store(key string, b *baseVersion) {
 	c.mu.Lock()
 	if c.bases == nil {
 		c.bases = map[string]*baseVersion{}
 	}
-	c.bases[key] = next
+	c.bases[key] = b
 	c.mu.Unlock()
-	return next
 }
 
 // maxLensFile is the largest base version read for the lens (the

@@ -73,6 +73,7 @@ type notificationFunc func(params json.RawMessage) error
 // Server is one language server session on one connection.
 type Server struct {
 	conn jsonrpc2.Conn
+	out  *tolerantStream // the stream under conn, for notifications written as JSON already
 	log  *zap.Logger
 	opts Options
 
@@ -132,7 +133,8 @@ func serve(ctx context.Context, stream io.ReadWriteCloser, log *zap.Logger, opts
 	if hook != nil {
 		hook(s)
 	}
-	s.conn = jsonrpc2.NewConn(tolerantStream{newFrameStream(stream), log})
+	s.out = &tolerantStream{Stream: newFrameStream(stream), log: log, raw: stream}
+	s.conn = jsonrpc2.NewConn(s.out)
 	s.conn.Go(s.ctx, s.handle)
 	go s.work.run(s.ctx)
 
@@ -167,9 +169,40 @@ func serve(ctx context.Context, stream io.ReadWriteCloser, log *zap.Logger, opts
 type tolerantStream struct {
 	jsonrpc2.Stream
 	log *zap.Logger
+	// raw is the stream jsonrpc2.Stream writes to; mu orders the
+	// messages jsonrpc2 writes with those writeNotification writes.
+	raw io.Writer
+	mu  sync.Mutex
 }
 
-func (t tolerantStream) Read(ctx context.Context) (jsonrpc2.Message, int64, error) {
+func (t *tolerantStream) Write(ctx context.Context, msg jsonrpc2.Message) (int64, error) {
+	t.mu.Lock()
+	defer t.mu.Unlock()
+	return t.Stream.Write(ctx, msg)
+}
+
+// writeNotification writes a notification whose params are JSON
+// already, framed as jsonrpc2 frames messages, so that megabytes of
+// diagnostics are not marshalled again twice on their way out.
+func (t *tolerantStream) writeNotification(method string, params []byte) error {
+	head := appendString([]byte(`{"jsonrpc":"2.0","method":`), method)
+	head = append(head, `,"params":`...)
+	t.mu.Lock()
+	defer t.mu.Unlock()
+	if _, err := fmt.Fprintf(t.raw, "Content-Length: %d\r\n\r\n", len(head)+len(params)+1); err != nil {
+		return err
+	}
+	if _, err := t.raw.Write(head); err != nil {
+		return err
+	}
+	if _, err := t.raw.Write(params); err != nil {
+		return err
+	}
+	_, err := t.raw.Write([]byte{'}'})
+	return err
+}
+
+func (t *tolerantStream) Read(ctx context.Context) (jsonrpc2.Message, int64, error) {
 	for {
 		msg, n, err := t.Stream.Read(ctx)
 		if err != nil && isDecodeError(err) {
@@ -395,6 +428,17 @@ func decode(params json.RawMessage, v any) error {
 }
 
 // notify sends a notification to the client, logging a failure.
+// notifyJSON sends a notification whose params are JSON already.
+func (s *Server) notifyJSON(method string, params json.RawMessage) {
+	if s.out == nil {
+		s.notify(method, params)
+		return
+	}
+	if err := s.out.writeNotification(method, params); err != nil {
+		s.log.Info("notification not sent", zap.String("method", method), zap.Error(err))
+	}
+}
+
 func (s *Server) notify(method string, params any) {
 	if err := s.conn.Notify(s.ctx, method, params); err != nil {
 		s.log.Info("notification not sent", zap.String("method", method), zap.Error(err))

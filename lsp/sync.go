@@ -80,7 +80,11 @@ func (s *Server) change(uri string, version int32, changes []contentChange) erro
 		return fmt.Errorf("document changed concurrently: %s", uri)
 	}
 	snap := s.snap.clone()
+	prev := snap.analyses[uri]
 	snap.put(&next, s.configFor(snap, next.path()))
+	if a := snap.analyses[uri]; prev != nil && prev.config.id == a.config.id {
+		a.prev.Store(prev)
+	}
 	s.setSnapshot(snap)
 	s.mu.Unlock()
 	s.work.schedule(uri, s.opts.Debounce)

@@ -163,3 +163,31 @@ func TestAnalysisProgress(t *testing.T) {
 		t.Errorf("progress %+v, want begin and end on one token", p)
 	}
 }
+
+// TestMaxDocumentSize checks the maxDocumentSize setting: a document
+// larger than it gets no findings and a message that names the setting;
+// once an edit brings it under the limit it is analysed.
+func TestMaxDocumentSize(t *testing.T) {
+	c := start(t, clientSetup{initOpts: map[string]any{"stereoline": map[string]any{"maxDocumentSize": 60}}})
+	defer c.stop()
+	const u = "file:///w/limit.smi"
+	// The [C@H] of the first record has two equal methyl groups: an
+	// ineffective mark, which the analysis would report.
+	big := "C[C@H](C)C first\n" + strings.Repeat("CCO filler\n", 10)
+	c.open(u, "", 1, big)
+	if d := c.diagnostics(u, 1); len(d) != 0 {
+		t.Errorf("a document over the limit got %d findings", len(d))
+	}
+	c.until("the message about the limit", func() bool {
+		for _, m := range c.messages {
+			if strings.Contains(m, "maxDocumentSize") {
+				return true
+			}
+		}
+		return false
+	})
+	c.change(u, 2, edit(1, 0, 11, 0, ""))
+	if d := c.diagnostics(u, 2); len(d) == 0 {
+		t.Error("a document under the limit got no findings")
+	}
+}

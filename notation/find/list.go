@@ -43,12 +43,30 @@ func findList(src []byte, cfg *Config) []Occurrence {
 			return occs
 		}
 	}
+	out, queries := listRecords(src, skipBOM(src), v, prag, true, make([]Occurrence, 0, bytes.Count(src, []byte{'\n'})+1))
+	if !lay.DialectSet && queries > 0 {
+		queryList(out)
+	}
+	switch {
+	case len(out) == 0:
+	case bad != "":
+		out[0].addDiag(layoutNote(out[0].Span, bad), nil)
+	case v.ambiguous != "":
+		out[0].addDiag(layoutNote(out[0].Span, "could not tell which field holds the notation: "+v.ambiguous+" (a \"stereoline: layout\" pragma or the layouts setting fixes the layout)"), nil)
+	}
+	return out
+}
+
+// listRecords reads the record lines of src from offset from on by the
+// layout verdict v, appending to out; first says whether the first data
+// line may be a header. It returns the records and how many of them are
+// query patterns by their content.
+func listRecords(src []byte, from int, v layoutVerdict, prag *pragmas, first bool, out []Occurrence) ([]Occurrence, int) {
 	text := string(src)
-	out := make([]Occurrence, 0, bytes.Count(src, []byte{'\n'})+1)
-	first := true
+	lay := v.layout
 	queries := 0
 	var fields []fieldSpan
-	for start := skipBOM(src); start < len(src); {
+	for start := from; start < len(src); {
 		line, next := nextLine(src, start)
 		lineStart := start
 		start = next
@@ -112,17 +130,7 @@ func findList(src []byte, cfg *Config) []Occurrence {
 		}
 		out = append(out, o)
 	}
-	if !lay.DialectSet && queries > 0 {
-		queryList(out)
-	}
-	switch {
-	case len(out) == 0:
-	case bad != "":
-		out[0].addDiag(layoutNote(out[0].Span, bad), nil)
-	case v.ambiguous != "":
-		out[0].addDiag(layoutNote(out[0].Span, "could not tell which field holds the notation: "+v.ambiguous+" (a \"stereoline: layout\" pragma or the layouts setting fixes the layout)"), nil)
-	}
-	return out
+	return out, queries
 }
 
 func layoutNote(span notation.Span, msg string) *notation.Error {

@@ -54,6 +54,12 @@ type Result struct {
 	cfg     *Config
 	lines   []int // line starts, built on first use
 	related bool  // Relate has run
+
+	// own are each record's own findings, sorted by position; rel the
+	// relation of each record of a list to an earlier one (set by
+	// Relate). Reanalyze reuses both for the records an edit left alone.
+	own [][]Diagnostic
+	rel []relation
 }
 
 // Record is one notation occurrence with its analysis.
@@ -168,13 +174,20 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	occs := find.FindKind(kind, content, cfg.findConfig(name))
 	occs = res.splitQueries(occs)
 	res.Records = make([]Record, len(occs))
+	res.own = make([][]Diagnostic, len(occs))
 	fill := func(i int) {
 		an := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
 		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
+		res.own[i] = res.recordFindings(i)
 	}
 	parallel(len(occs), fill)
-	for i := range res.Records {
-		res.recordDiagnostics(i)
+	n := 0
+	for _, own := range res.own {
+		n += len(own)
+	}
+	res.Diagnostics = make([]Diagnostic, 0, n)
+	for _, own := range res.own {
+		res.Diagnostics = append(res.Diagnostics, own...)
 	}
 	res.queryDiagnostics()
 	res.sortDiagnostics()
@@ -183,14 +196,19 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 
 // sortDiagnostics orders the findings by host position, stably, so
 // findings at one place keep the order they were made in.
-func (r *Result) sortDiagnostics() {
-	sort.SliceStable(r.Diagnostics, func(i, j int) bool {
-		x, y := r.Diagnostics[i].Span, r.Diagnostics[j].Span
-		if x.Start != y.Start {
-			return x.Start < y.Start
-		}
-		return x.End < y.End
-	})
+func (r *Result) sortDiagnostics() { sortByPosition(r.Diagnostics) }
+
+// sortByPosition orders findings by host position, stably.
+func sortByPosition(ds []Diagnostic) {
+	sort.SliceStable(ds, func(i, j int) bool { return before(ds[i].Span, ds[j].Span) })
+}
+
+// before is the order of findings: by start, then by end.
+func before(x, y notation.Span) bool {
+	if x.Start != y.Start {
+		return x.Start < y.Start
+	}
+	return x.End < y.End
 }
 
 // parallelMin is the number of records from which analysis is spread
@@ -230,20 +248,36 @@ func parallel(n int, f func(int)) {
 
 // add appends a diagnostic after applying the configured severity.
 func (r *Result) add(d Diagnostic) {
+	if d, on := r.configured(d); on {
+		r.Diagnostics = append(r.Diagnostics, d)
+	}
+}
+
+// configured applies the configured severity to a diagnostic; on is
+// false for a finding the configuration turns off.
+func (r *Result) configured(d Diagnostic) (_ Diagnostic, on bool) {
 	sev, on := r.cfg.severityFor(d.Code, d.Severity)
 	if !on {
-		return
+		return d, false
 	}
 	d.Severity = sev
 	if unnecessary[d.Code] {
 		d.Unnecessary = true
 	}
-	r.Diagnostics = append(r.Diagnostics, d)
+	return d, true
 }
 
-// recordDiagnostics maps the host, reader and stereo findings of one
-// record to host offsets.
-func (r *Result) recordDiagnostics(i int) {
+// recordFindings maps the host, reader and stereo findings of one
+// record to host offsets, sorted by position as sortDiagnostics sorts
+// the whole document's. It reads only record i, so records are done in
+// parallel.
+func (r *Result) recordFindings(i int) []Diagnostic {
+	var out []Diagnostic
+	add := func(d Diagnostic) {
+		if d, on := r.configured(d); on {
+			out = append(out, d)
+		}
+	}
 	rec := &r.Records[i]
 	occ := rec.Occ
 	for j, e := range occ.Diagnostics {
@@ -256,7 +290,7 @@ func (r *Result) recordDiagnostics(i int) {
 				d.Fixes = append(d.Fixes, Fix{Title: f.Title, Edits: []Edit{{Span: f.Span, NewText: f.NewText}}})
 			}
 		}
-		r.add(d)
+		add(d)
 	}
 	mapped := func(e *notation.Error) Diagnostic {
 		d := Diagnostic{Span: occ.HostSpan(e.Span), Code: e.Code, Severity: e.Severity, Message: e.Msg, Record: i}
@@ -266,25 +300,27 @@ func (r *Result) recordDiagnostics(i int) {
 		return d
 	}
 	for _, e := range rec.Mol.Errors {
-		r.add(mapped(e))
+		add(mapped(e))
 	}
 	for _, e := range rec.Stereo.Diagnostics {
 		d := mapped(e)
 		d.Fixes = r.fixesFor(i, e)
-		r.add(d)
+		add(d)
 	}
 	if rec.an != nil {
 		for _, e := range rec.an.groupFindings {
 			d := mapped(e)
 			d.Fixes = r.fixesFor(i, e)
-			r.add(d)
+			add(d)
 		}
 	}
 	if rec.Reaction != nil {
 		for _, e := range rec.Reaction.Diagnostics {
-			r.add(mapped(e))
+			add(mapped(e))
 		}
 	}
+	sortByPosition(out)
+	return out
 }
 
 // RecordAt returns the index of the record whose host span holds offset

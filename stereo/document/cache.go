@@ -33,6 +33,22 @@ type analysis struct {
 	preKey       uint64
 	identityOnce sync.Once
 	identity     *identity.Identity
+	// countOnce guards count, the stereoisomers of the constitution,
+	// which hovers show and which can take long for a symmetric
+	// structure: it is counted once per text.
+	countOnce sync.Once
+	count     identity.StereoisomerCount
+}
+
+// stereoisomersOf returns identity.Stereoisomers of m, counted once per
+// analysis when m is the analysis's molecule (a nil analysis counts
+// every time).
+func (a *analysis) stereoisomersOf(m *notation.Molecule) identity.StereoisomerCount {
+	if a == nil || a.mol != m {
+		return identity.Stereoisomers(m)
+	}
+	a.countOnce.Do(func() { a.count = identity.Stereoisomers(a.mol) })
+	return a.count
 }
 
 // analyse runs the engine on one notation text, read under reading r,

@@ -68,6 +68,11 @@ type Config struct {
 	// skipped with a note, so a stray dump cannot take the memory of a
 	// CI job.
 	MaxFileSize string `json:"maxFileSize,omitempty"`
+	// MaxDocumentSize is the largest document, in bytes, the language
+	// server analyses; 0 means DefaultMaxDocumentSize. A larger document
+	// gets no findings and a message that says why. The checker ignores
+	// it.
+	MaxDocumentSize int `json:"maxDocumentSize,omitempty"`
 }
 
 // LimitsConfig is the limits setting.
@@ -158,6 +163,21 @@ func ParseSize(s string) (int64, error) {
 	return n * mult, nil
 }
 
+// DefaultMaxDocumentSize is the largest document the language server
+// analyses unless the maxDocumentSize setting says otherwise: 32 MiB,
+// about five times a 100,000-record list, whose analysis stays within
+// the server's memory budget.
+const DefaultMaxDocumentSize = 32 << 20
+
+// DocumentLimit returns the largest document the language server
+// analyses under c, in bytes.
+func (c Config) DocumentLimit() int {
+	if c.MaxDocumentSize > 0 {
+		return c.MaxDocumentSize
+	}
+	return DefaultMaxDocumentSize
+}
+
 // ReadingConfig is the reading setting: each field the name of a rule of
 // notation.Reading, or empty for the default.
 type ReadingConfig struct {
@@ -230,6 +250,9 @@ func (c *Config) Validate() error {
 		if _, err := ParseSize(c.MaxFileSize); err != nil {
 			return fmt.Errorf("maxFileSize: %v", err)
 		}
+	}
+	if c.MaxDocumentSize < 0 {
+		return fmt.Errorf("maxDocumentSize: expected a number of bytes, found %d", c.MaxDocumentSize)
 	}
 	if strings.HasPrefix(c.ReviewBase, "-") || strings.ContainsAny(c.ReviewBase, " \t\n") {
 		return fmt.Errorf("reviewBase: expected a git revision or off, found %q", c.ReviewBase)

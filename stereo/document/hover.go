@@ -6,7 +6,6 @@ import (
 
 	"stereoline/notation"
 	"stereoline/stereo"
-	"stereoline/stereo/identity"
 )
 
 // Caution is the sentence every hover ends with: labels come from the
@@ -307,7 +306,8 @@ func writeRecord(b *strings.Builder, rec *Record) {
 	}
 	if id := rec.Identify(); id != nil {
 		fmt.Fprintf(b, "; %s", id.Chirality)
-		if n := identity.Stereoisomers(m); n.Exact {
+		n := rec.an.stereoisomersOf(m)
+		if n.Exact {
 			fmt.Fprintf(b, "; %d stereoisomer(s) for this constitution", n.Count)
 		} else {
 			fmt.Fprintf(b, "; at most %d stereoisomers for this constitution", n.Count)

@@ -27,12 +27,14 @@ func (a *Analyzer) AnalyzeOccurrences(name string, kind find.Kind, content []byt
 	cfg := a.cfg
 	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
 	res.Records = make([]Record, len(occs))
+	res.own = make([][]Diagnostic, len(occs))
 	parallel(len(occs), func(i int) {
 		an := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
 		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
+		res.own[i] = res.recordFindings(i)
 	})
-	for i := range res.Records {
-		res.recordDiagnostics(i)
+	for _, own := range res.own {
+		res.Diagnostics = append(res.Diagnostics, own...)
 	}
 	res.sortDiagnostics()
 	return res

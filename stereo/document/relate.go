@@ -50,6 +50,7 @@ func (r *Result) Relate() *Result {
 		Diagnostics: append([]Diagnostic(nil), r.Diagnostics...),
 		cfg:         r.cfg,
 		related:     true,
+		own:         r.own,
 	}
 	before := len(next.Diagnostics)
 	next.relateRecords()
@@ -72,22 +73,59 @@ func (r *Result) relateRecords() {
 		return
 	}
 	r.identifyColliding()
-	idx := identity.NewIndex()
-	var order []int // index position -> record
+	r.rel = make([]relation, len(r.Records))
+	var members []int
 	for i := range r.Records {
-		rec := &r.Records[i]
-		if rec.Identity == nil {
-			continue
+		if r.Records[i].Identity != nil {
+			members = append(members, i)
 		}
+	}
+	r.relateMembers(members)
+	for i := range r.rel {
+		if r.rel[i].on {
+			r.Diagnostics = append(r.Diagnostics, r.rel[i].d)
+		}
+	}
+}
+
+// relation is the finding that relates a record to an earlier one,
+// kept so that an edit elsewhere re-uses it (Reanalyze).
+type relation struct {
+	on      bool
+	earlier int    // the record it is related to
+	tmpl    string // the message with named where the earlier record is named
+	d       Diagnostic
+}
+
+// named stands for the name of the earlier record in a relation's
+// message template: it moves when lines are inserted before that record.
+const named = "\x00"
+
+// relateMembers relates each of some records (in list order, all with
+// identity keys) to the first earlier one of them it matches, setting
+// r.rel. Records whose pre-keys differ never match, so the records of
+// each pre-key can be related apart.
+func (r *Result) relateMembers(members []int) {
+	idx := identity.NewIndex()
+	for _, i := range members {
+		rec := &r.Records[i]
 		m := idx.Add(*rec.Identity)
-		order = append(order, i)
+		r.rel[i] = relation{}
 		if m.Earlier < 0 {
 			continue
 		}
-		j := order[m.Earlier]
-		if d, ok := relationDiagnostic(m, i, rec, &r.Records[j], r.describeRecord(j)); ok {
-			r.add(d)
+		j := members[m.Earlier]
+		d, ok := relationDiagnostic(m, i, rec, &r.Records[j], named)
+		if !ok {
+			continue
 		}
+		d, on := r.configured(d)
+		if !on {
+			continue
+		}
+		tmpl := d.Message
+		d.Message = strings.ReplaceAll(tmpl, named, r.describeRecord(j))
+		r.rel[i] = relation{on: true, earlier: j, tmpl: tmpl, d: d}
 	}
 }
 
@@ -252,12 +290,7 @@ func (r *Result) describeOcc(o *find.Occurrence) string {
 // starts built once per result.
 func (r *Result) lineOf(off int) int {
 	if r.lines == nil {
-		r.lines = []int{0}
-		for i, c := range r.Content {
-			if c == '\n' {
-				r.lines = append(r.lines, i+1)
-			}
-		}
+		r.lines = lineStarts(r.Content)
 	}
 	return sort.SearchInts(r.lines, off+1) - 1
 }

@@ -91,7 +91,7 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 			chunk.Records[k] = Record{Occ: &occs[start+k], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
 		})
 		for k := range chunk.Records {
-			chunk.recordDiagnostics(k)
+			chunk.Diagnostics = append(chunk.Diagnostics, chunk.recordFindings(k)...)
 		}
 		for k := range chunk.Diagnostics {
 			chunk.Diagnostics[k].Record += start

@@ -1,0 +1,443 @@
+// Command scaleclient drives `stereoline serve` as an editor would on a
+// large record list and reports how long the server takes: the first
+// publication of diagnostics after didOpen (and the one that carries the
+// relations between records), the re-publication after one-line edits of
+// each kind, hover round trips, and the server's peak memory (VmHWM from
+// /proc/<pid>/status).
+//
+// It lives under testdata so `go build ./...` and `go test ./...` leave
+// it alone; run it by path:
+//
+//	go build -o /tmp/stereoline ./cmd/stereoline
+//	go run ./lsp/testdata/scaleclient -bin /tmp/stereoline -list /tmp/big100k.smi
+//
+// Times are measured at the client from sending a message to having read
+// the whole frame of the answer (before decoding it), so they include the
+// server's serialisation and the pipe, not the client's parsing. An
+// edit's time includes the server's debounce (100 ms by default), which
+// is reported beside it and subtracted in the "net" column.
+package main
+
+import (
+	"bufio"
+	"encoding/json"
+	"flag"
+	"fmt"
+	"io"
+	"math/rand"
+	"os"
+	"os/exec"
+	"sort"
+	"strconv"
+	"strings"
+	"sync"
+	"time"
+)
+
+func main() {
+	bin := flag.String("bin", "stereoline", "the `stereoline` binary")
+	list := flag.String("list", "", "the record list to open (.smi)")
+	hovers := flag.Int("hovers", 1000, "hover requests at random records")
+	rounds := flag.Int("rounds", 5, "edits of each kind")
+	debounce := flag.Duration("debounce", 100*time.Millisecond, "the server's debounce, subtracted from edit times")
+	serverLog := flag.String("log", "", "pass --log FILE -v to the server")
+	flag.Parse()
+	if *list == "" {
+		fmt.Fprintln(os.Stderr, "usage: scaleclient -bin BIN -list FILE.smi")
+		os.Exit(2)
+	}
+	text, err := os.ReadFile(*list)
+	if err != nil {
+		fail(err)
+	}
+	args := []string{"serve"}
+	if *serverLog != "" {
+		args = append(args, "--log", *serverLog, "-v")
+	}
+	c := startServer(*bin, args)
+	defer c.cmd.Process.Kill()
+
+	c.call("initialize", map[string]any{
+		"processId": os.Getpid(),
+		"rootUri":   nil,
+		"capabilities": map[string]any{
+			"textDocument": map[string]any{
+				"publishDiagnostics": map[string]any{"relatedInformation": true, "versionSupport": true},
+				"hover":              map[string]any{"contentFormat": []string{"markdown", "plaintext"}},
+			},
+		},
+	})
+	c.notify("initialized", map[string]any{})
+
+	uri := "file:///scale/" + baseName(*list)
+	doc := newDocument(string(text))
+	fmt.Printf("list: %s, %d lines, %d bytes\n", *list, len(doc.lines), len(text))
+
+	cpu0 := c.cpu()
+	begun := time.Now()
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{
+		"uri": uri, "languageId": "smiles", "version": 1, "text": string(text)}})
+	first := c.waitPublication(1, false)
+	fmt.Printf("first publication:    %8.0f ms  (%d diagnostics, %d relations, %.1f MB)\n",
+		ms(first.at.Sub(begun)), first.count, first.relations, float64(first.size)/1e6)
+	full := first
+	if first.relations == 0 {
+		full = c.waitPublication(1, true)
+	}
+	fmt.Printf("with relations:       %8.0f ms  (%d diagnostics, %d relations); server CPU %.0f ms\n",
+		ms(full.at.Sub(begun)), full.count, full.relations, ms(c.cpu()-cpu0))
+	rss(c, "after open")
+
+	rng := rand.New(rand.NewSource(1))
+	version := int32(1)
+	kinds := []struct {
+		name string
+		make func(*document, *rand.Rand) (edit, bool)
+	}{
+		{"change a mark", (*document).markEdit},
+		{"change a title", (*document).titleEdit},
+		{"insert a line", (*document).insertEdit},
+		{"delete a line", (*document).deleteEdit},
+	}
+	fmt.Printf("%-16s %8s %8s %8s   (median of %d; debounce %v; server CPU time per edit)\n", "edit", "total", "net", "cpu", *rounds, *debounce)
+	for _, k := range kinds {
+		var times, cpus []time.Duration
+		var last publication
+		for r := 0; r < *rounds; r++ {
+			e, ok := k.make(doc, rng)
+			if !ok {
+				break
+			}
+			version++
+			cpu := c.cpu()
+			sent := time.Now()
+			c.notify("textDocument/didChange", map[string]any{
+				"textDocument":   map[string]any{"uri": uri, "version": version},
+				"contentChanges": []any{e.change()},
+			})
+			doc.apply(e)
+			last = c.waitPublication(version, false)
+			times = append(times, last.at.Sub(sent))
+			cpus = append(cpus, c.cpu()-cpu)
+		}
+		med := median(times)
+		fmt.Printf("%-16s %8.1f %8.1f %8.1f ms  (%d diagnostics, %d relations)\n", k.name, ms(med), ms(med-*debounce), ms(median(cpus)), last.count, last.relations)
+	}
+
+	var lat []time.Duration
+	for i := 0; i < *hovers; i++ {
+		line := rng.Intn(len(doc.lines))
+		n := len(doc.notation(line))
+		if n == 0 {
+			continue
+		}
+		char := rng.Intn(n)
+		sent := time.Now()
+		c.call("textDocument/hover", map[string]any{
+			"textDocument": map[string]any{"uri": uri},
+			"position":     map[string]any{"line": line, "character": char},
+		})
+		lat = append(lat, time.Since(sent))
+	}
+	sort.Slice(lat, func(i, j int) bool { return lat[i] < lat[j] })
+	if len(lat) > 0 {
+		fmt.Printf("hover (%d):           p50 %.2f ms  p99 %.2f ms  max %.2f ms\n", len(lat),
+			ms(lat[len(lat)/2]), ms(lat[len(lat)*99/100]), ms(lat[len(lat)-1]))
+	}
+	rss(c, "at the end")
+	c.call("shutdown", nil)
+	c.notify("exit", nil)
+	c.cmd.Wait()
+}
+
+// client is the client end of one server process.
+type client struct {
+	cmd  *exec.Cmd
+	in   io.Writer
+	mu   sync.Mutex // orders writes
+	next int
+
+	pending sync.Map // id -> chan json.RawMessage
+	pubs    chan publication
+}
+
+// publication is one publishDiagnostics notification as it arrived.
+type publication struct {
+	at        time.Time
+	version   int32
+	count     int
+	relations int
+	size      int
+}
+
+func startServer(bin string, args []string) *client {
+	cmd := exec.Command(bin, args...)
+	in, err := cmd.StdinPipe()
+	if err != nil {
+		fail(err)
+	}
+	out, err := cmd.StdoutPipe()
+	if err != nil {
+		fail(err)
+	}
+	cmd.Stderr = os.Stderr
+	if err := cmd.Start(); err != nil {
+		fail(err)
+	}
+	c := &client{cmd: cmd, in: in, pubs: make(chan publication, 64)}
+	go c.read(bufio.NewReaderSize(out, 1<<20))
+	return c
+}
+
+func (c *client) write(msg map[string]any) {
+	body, err := json.Marshal(msg)
+	if err != nil {
+		fail(err)
+	}
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	fmt.Fprintf(c.in, "Content-Length: %d\r\n\r\n", len(body))
+	c.in.Write(body)
+}
+
+func (c *client) notify(method string, params any) {
+	c.write(map[string]any{"jsonrpc": "2.0", "method": method, "params": params})
+}
+
+func (c *client) call(method string, params any) json.RawMessage {
+	c.mu.Lock()
+	c.next++
+	id := c.next
+	c.mu.Unlock()
+	ch := make(chan json.RawMessage, 1)
+	c.pending.Store(id, ch)
+	c.write(map[string]any{"jsonrpc": "2.0", "id": id, "method": method, "params": params})
+	select {
+	case r := <-ch:
+		return r
+	case <-time.After(2 * time.Minute):
+		fail(fmt.Errorf("%s: no answer", method))
+	}
+	return nil
+}
+
+// read reads frames, timestamps each as soon as it is whole, answers the
+// server's requests and hands on answers and publications.
+func (c *client) read(r *bufio.Reader) {
+	for {
+		length := -1
+		for {
+			line, err := r.ReadString('\n')
+			if err != nil {
+				close(c.pubs)
+				return
+			}
+			line = strings.TrimSpace(line)
+			if line == "" {
+				break
+			}
+			if v, ok := strings.CutPrefix(line, "Content-Length:"); ok {
+				length, _ = strconv.Atoi(strings.TrimSpace(v))
+			}
+		}
+		body := make([]byte, length)
+		if _, err := io.ReadFull(r, body); err != nil {
+			close(c.pubs)
+			return
+		}
+		at := time.Now()
+		var msg struct {
+			ID     *json.RawMessage `json:"id"`
+			Method string           `json:"method"`
+			Result json.RawMessage  `json:"result"`
+			Params json.RawMessage  `json:"params"`
+		}
+		if err := json.Unmarshal(body, &msg); err != nil {
+			fail(err)
+		}
+		switch {
+		case msg.Method == "textDocument/publishDiagnostics":
+			var p struct {
+				Version     int32 `json:"version"`
+				Diagnostics []struct {
+					Code string `json:"code"`
+				} `json:"diagnostics"`
+			}
+			json.Unmarshal(msg.Params, &p)
+			pub := publication{at: at, version: p.Version, count: len(p.Diagnostics), size: len(body)}
+			for _, d := range p.Diagnostics {
+				if strings.HasPrefix(d.Code, "list-") {
+					pub.relations++
+				}
+			}
+			c.pubs <- pub
+		case msg.Method != "" && msg.ID != nil:
+			// a request from the server (progress tokens, configuration)
+			c.write(map[string]any{"jsonrpc": "2.0", "id": msg.ID, "result": nil})
+		case msg.ID != nil:
+			var id int
+			json.Unmarshal(*msg.ID, &id)
+			if ch, ok := c.pending.LoadAndDelete(id); ok {
+				ch.(chan json.RawMessage) <- msg.Result
+			}
+		}
+	}
+}
+
+// waitPublication waits for a publication of version (with relations if
+// asked), skipping earlier ones.
+func (c *client) waitPublication(version int32, relations bool) publication {
+	timeout := time.After(5 * time.Minute)
+	for {
+		select {
+		case p, ok := <-c.pubs:
+			if !ok {
+				fail(fmt.Errorf("server ended"))
+			}
+			if p.version == version && (!relations || p.relations > 0) {
+				return p
+			}
+		case <-timeout:
+			fail(fmt.Errorf("no publication of version %d", version))
+		}
+	}
+}
+
+// cpu returns the user and system time the server has used so far
+// (/proc/<pid>/stat, in clock ticks of 10 ms).
+func (c *client) cpu() time.Duration {
+	stat, err := os.ReadFile(fmt.Sprintf("/proc/%d/stat", c.cmd.Process.Pid))
+	if err != nil {
+		return 0
+	}
+	s := string(stat)
+	fields := strings.Fields(s[strings.LastIndexByte(s, ')')+2:])
+	utime, _ := strconv.Atoi(fields[11])
+	stime, _ := strconv.Atoi(fields[12])
+	return time.Duration(utime+stime) * 10 * time.Millisecond
+}
+
+// rss prints the server's current and peak resident memory.
+func rss(c *client, when string) {
+	status, err := os.ReadFile(fmt.Sprintf("/proc/%d/status", c.cmd.Process.Pid))
+	if err != nil {
+		fmt.Printf("memory %s: %v\n", when, err)
+		return
+	}
+	var hwm, cur string
+	for _, line := range strings.Split(string(status), "\n") {
+		if v, ok := strings.CutPrefix(line, "VmHWM:"); ok {
+			hwm = strings.TrimSpace(v)
+		}
+		if v, ok := strings.CutPrefix(line, "VmRSS:"); ok {
+			cur = strings.TrimSpace(v)
+		}
+	}
+	fmt.Printf("memory %s: peak RSS (VmHWM) %s, RSS %s\n", when, hwm, cur)
+}
+
+// document is the client's copy of the text, as lines.
+type document struct{ lines []string }
+
+func newDocument(text string) *document {
+	lines := strings.Split(text, "\n")
+	if len(lines) > 0 && lines[len(lines)-1] == "" {
+		lines = lines[:len(lines)-1]
+	}
+	return &document{lines: lines}
+}
+
+// notation returns the first field of a line.
+func (d *document) notation(line int) string {
+	s := d.lines[line]
+	if i := strings.IndexAny(s, " \t"); i >= 0 {
+		return s[:i]
+	}
+	return s
+}
+
+// edit replaces the characters [from, to) of a line range with text.
+type edit struct {
+	line1, char1, line2, char2 int
+	text                       string
+}
+
+func (e edit) change() map[string]any {
+	return map[string]any{
+		"range": map[string]any{
+			"start": map[string]any{"line": e.line1, "character": e.char1},
+			"end":   map[string]any{"line": e.line2, "character": e.char2},
+		},
+		"text": e.text,
+	}
+}
+
+func (d *document) apply(e edit) {
+	joined := strings.Join(d.lines, "\n") + "\n"
+	off := func(line, char int) int {
+		o := 0
+		for i := 0; i < line; i++ {
+			o += len(d.lines[i]) + 1
+		}
+		return o + char
+	}
+	a, b := off(e.line1, e.char1), off(e.line2, e.char2)
+	*d = *newDocument(joined[:a] + e.text + joined[b:])
+}
+
+// markEdit turns one @@ into @ or one @ into @@ on a random line.
+func (d *document) markEdit(rng *rand.Rand) (edit, bool) {
+	for try := 0; try < 10000; try++ {
+		line := rng.Intn(len(d.lines))
+		n := d.notation(line)
+		if i := strings.Index(n, "@@"); i >= 0 {
+			return edit{line, i, line, i + 1, ""}, true
+		}
+		if i := strings.Index(n, "@"); i >= 0 {
+			return edit{line, i, line, i, "@"}, true
+		}
+	}
+	return edit{}, false
+}
+
+// titleEdit appends a character to the title of a random line.
+func (d *document) titleEdit(rng *rand.Rand) (edit, bool) {
+	line := rng.Intn(len(d.lines))
+	return edit{line, len(d.lines[line]), line, len(d.lines[line]), "x"}, true
+}
+
+// insertEdit inserts a copy of a random line with a new title before
+// another random line (a record that duplicates one already there).
+func (d *document) insertEdit(rng *rand.Rand) (edit, bool) {
+	src, at := rng.Intn(len(d.lines)), rng.Intn(len(d.lines))
+	return edit{at, 0, at, 0, d.notation(src) + "\tinserted-" + strconv.Itoa(src) + "\n"}, true
+}
+
+// deleteEdit deletes a random line.
+func (d *document) deleteEdit(rng *rand.Rand) (edit, bool) {
+	line := rng.Intn(len(d.lines) - 1)
+	return edit{line, 0, line + 1, 0, ""}, true
+}
+
+func median(ds []time.Duration) time.Duration {
+	if len(ds) == 0 {
+		return 0
+	}
+	s := append([]time.Duration(nil), ds...)
+	sort.Slice(s, func(i, j int) bool { return s[i] < s[j] })
+	return s[len(s)/2]
+}
+
+func ms(d time.Duration) float64 { return float64(d) / float64(time.Millisecond) }
+
+func baseName(p string) string {
+	if i := strings.LastIndexByte(p, '/'); i >= 0 {
+		return p[i+1:]
+	}
+	return p
+}
+
+func fail(err error) {
+	fmt.Fprintln(os.Stderr, "scaleclient:", err)
+	os.Exit(1)
+}

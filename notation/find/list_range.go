@@ -1,0 +1,100 @@
+package find
+
+import (
+	"bytes"
+
+	"stereoline/notation"
+)
+
+// This file implements the finding of the records of some lines of a
+// list apart from the rest, so that an editor re-reads only the lines an
+// edit touched.
+
+// FindListLines returns the records of the list src on the lines from
+// offset from (a line start) to offset to (a line start or len(src)),
+// exactly as FindKind(KindList, src, cfg) finds them there. ok is false
+// when those lines cannot be read apart from the rest, and the caller
+// must read the whole list: the list carries pragmas, is a table with a
+// header, holds query patterns or fragments, the range reaches into the
+// first lines the layout is read from, or a line of the range is a
+// comment.
+func FindListLines(src []byte, cfg Config, from, to int) (occs []Occurrence, ok bool) {
+	if from < 0 || to > len(src) || from > to || bytes.Contains(src, []byte(pragmaWord)) {
+		return nil, false
+	}
+	sample := dataLines(src, skipBOM(src), sampleLines+1)
+	if len(sample) <= sampleLines || from <= sample[len(sample)-1].end {
+		return nil, false
+	}
+	fixed, _ := listSpec(src, &cfg)
+	v := detectLayout(src, skipBOM(src), fixed, newNamer(&cfg), &cfg)
+	lay := v.layout
+	if v.none || v.queries || v.fragments || lay.Sep != ' ' && lay.Header {
+		return nil, false
+	}
+	part := src[from:to]
+	for start := 0; start < len(part); {
+		line, next := nextLine(part, start)
+		start = next
+		if isComment(bytes.TrimLeft(line, " \t")) {
+			return nil, false
+		}
+	}
+	occs, queries := listRecords(part, 0, v, nil, false, nil)
+	if queries > 0 {
+		return nil, false
+	}
+	for i := range occs {
+		occs[i].Shift(from)
+	}
+	return occs, true
+}
+
+// Shift moves an occurrence by delta host bytes, as when the host text
+// before it grew or shrank by delta: its span, offset map, host findings
+// and fixes.
+func (o *Occurrence) Shift(delta int) {
+	if delta == 0 {
+		return
+	}
+	o.Span = notation.Span{Start: o.Span.Start + delta, End: o.Span.End + delta}
+	if o.m.runs == nil {
+		o.m.base += delta
+	} else {
+		runs := make([]run, len(o.m.runs))
+		for i, r := range o.m.runs {
+			r.h += delta
+			runs[i] = r
+		}
+		o.m.runs = runs
+	}
+	if o.Diagnostics != nil {
+		diags := make(notation.ErrorList, len(o.Diagnostics))
+		for i, e := range o.Diagnostics {
+			c := *e
+			c.Span = shiftSpan(c.Span, delta)
+			if c.Related != nil {
+				c.Related = append([]notation.Related(nil), c.Related...)
+				for k := range c.Related {
+					c.Related[k].Span = shiftSpan(c.Related[k].Span, delta)
+				}
+			}
+			diags[i] = &c
+		}
+		o.Diagnostics = diags
+	}
+	if o.Fixes != nil {
+		fixes := make([][]Fix, len(o.Fixes))
+		for i, fs := range o.Fixes {
+			fixes[i] = append([]Fix(nil), fs...)
+			for k := range fixes[i] {
+				fixes[i][k].Span = shiftSpan(fixes[i][k].Span, delta)
+			}
+		}
+		o.Fixes = fixes
+	}
+}
+
+func shiftSpan(s notation.Span, delta int) notation.Span {
+	return notation.Span{Start: s.Start + delta, End: s.End + delta}
+}

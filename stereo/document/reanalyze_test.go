@@ -1,0 +1,176 @@
+package document
+
+import (
+	"fmt"
+	"math/rand"
+	"reflect"
+	"strings"
+	"testing"
+)
+
+// editList writes n records of a list with many relations: structures
+// with several marks (from memory: alanine, threonine, a 1,2-diol, a
+// tartaric acid, a disubstituted alkene, glucose) with each mark written
+// @, @@ or left out at random, so duplicates, mirror images and
+// stereoisomers abound, and a few records that do not read. Invented for
+// the test: what is checked is that an edit gives the same findings as a
+// fresh analysis, not the chemistry.
+func editList(rng *rand.Rand, n int) []string {
+	lines := make([]string, n)
+	for i := range lines {
+		lines[i] = editRecord(rng, i)
+	}
+	return lines
+}
+
+var editTemplates = []string{
+	"N[C*H](C)C(=O)O",
+	"N[C*H]([C*H](O)C)C(=O)O",
+	"O[C*H](C)[C*H](O)CC",
+	"OC(=O)[C*H](O)[C*H](O)C(=O)O",
+	"F/C=C/C[C*H](Cl)Br",
+	"OC[C*H]1O[C*H](O)[C*H](O)[C*H](O)[C*H]1O",
+	"C[C*H](F)CC[C*H](F)C",
+	"C1CC1[C*H](N)O",
+	"C1CC(C",
+}
+
+func editRecord(rng *rand.Rand, i int) string {
+	t := editTemplates[rng.Intn(len(editTemplates))]
+	var b strings.Builder
+	for _, c := range t {
+		if c == '*' {
+			b.WriteString([]string{"@", "@@", ""}[rng.Intn(3)])
+			continue
+		}
+		b.WriteRune(c)
+	}
+	if t == "F/C=C/C[C*H](Cl)Br" && rng.Intn(2) == 0 {
+		s := strings.Replace(b.String(), "F/C=C/", "F/C=C\\", 1)
+		b.Reset()
+		b.WriteString(s)
+	}
+	return fmt.Sprintf("%s\tREC-%d", b.String(), i)
+}
+
+// TestReanalyzeEqualsAnalyze applies random edit sequences to a list of
+// 2,000 records and checks after each edit that the result of
+// Reanalyze, which reads again only what the edit touched, has the same
+// records and the same findings, relations included, as a fresh analysis
+// of the edited text.
+func TestReanalyzeEqualsAnalyze(t *testing.T) {
+	n := 2000
+	steps := 60
+	if testing.Short() {
+		n, steps = 500, 20
+	}
+	rng := rand.New(rand.NewSource(20261202))
+	a := NewAnalyzer(DefaultConfig())
+	lines := editList(rng, n)
+	text := strings.Join(lines, "\n") + "\n"
+	prev := a.Analyze("edit.smi", "", []byte(text))
+	incremental := 0
+	for step := 0; step < steps; step++ {
+		what := randomEdit(rng, &lines)
+		text = strings.Join(lines, "\n") + "\n"
+		if rng.Intn(10) == 0 {
+			text = strings.TrimSuffix(text, "\n")
+		}
+		next := a.reanalyzeList(prev, "edit.smi", "", []byte(text))
+		if next != nil {
+			incremental++
+		} else {
+			next = a.Analyze("edit.smi", "", []byte(text))
+		}
+		want := a.Analyze("edit.smi", "", []byte(text))
+		compareResults(t, fmt.Sprintf("step %d (%s)", step, what), next, want)
+		if t.Failed() {
+			return
+		}
+		prev = next
+	}
+	if incremental < steps/2 {
+		t.Errorf("only %d of %d edits were analysed incrementally", incremental, steps)
+	}
+}
+
+// randomEdit edits the lines of a list as a user might and says how.
+func randomEdit(rng *rand.Rand, lines *[]string) string {
+	ls := *lines
+	i := rng.Intn(len(ls))
+	switch k := rng.Intn(20); {
+	case k < 5:
+		// change a mark
+		s := ls[i]
+		if j := strings.Index(s, "@@"); j >= 0 {
+			ls[i] = s[:j] + s[j+1:]
+		} else if j := strings.Index(s, "@"); j >= 0 {
+			ls[i] = s[:j] + "@@" + s[j+1:]
+		} else {
+			ls[i] = strings.Replace(s, "[CH]", "[C@H]", 1)
+		}
+		return fmt.Sprintf("mark of line %d", i)
+	case k < 8:
+		ls[i] += "x"
+		return fmt.Sprintf("title of line %d", i)
+	case k < 11:
+		rec := editRecord(rng, 10000+i)
+		if rng.Intn(2) == 0 {
+			rec = strings.SplitN(ls[rng.Intn(len(ls))], "\t", 2)[0] + "\tcopy"
+		}
+		*lines = append(ls[:i], append([]string{rec}, ls[i:]...)...)
+		return fmt.Sprintf("insert before line %d", i)
+	case k < 14:
+		*lines = append(ls[:i], ls[i+1:]...)
+		return fmt.Sprintf("delete line %d", i)
+	case k < 16:
+		// replace several lines by others
+		j := min(len(ls), i+1+rng.Intn(5))
+		var repl []string
+		for c := rng.Intn(6); c > 0; c-- {
+			repl = append(repl, editRecord(rng, 20000+c))
+		}
+		*lines = append(ls[:i:i], append(repl, ls[j:]...)...)
+		return fmt.Sprintf("replace lines %d to %d by %d", i, j, len(repl))
+	case k < 17:
+		// the first lines, from which the layout is read
+		ls[rng.Intn(min(len(ls), 10))] += "y"
+		return "a title among the first lines"
+	case k < 18:
+		*lines = append(ls[:i], append([]string{"# a comment"}, ls[i:]...)...)
+		return fmt.Sprintf("comment before line %d", i)
+	case k < 19:
+		ls[i] = ""
+		return fmt.Sprintf("empty line %d", i)
+	}
+	// swap two lines: their relations turn around
+	j := rng.Intn(len(ls))
+	ls[i], ls[j] = ls[j], ls[i]
+	return fmt.Sprintf("swap lines %d and %d", i, j)
+}
+
+// compareResults fails t when two results differ in their records or
+// findings.
+func compareResults(t *testing.T, what string, got, want *Result) {
+	t.Helper()
+	if len(got.Records) != len(want.Records) {
+		t.Errorf("%s: %d records, want %d", what, len(got.Records), len(want.Records))
+		return
+	}
+	for i := range got.Records {
+		g, w := &got.Records[i], &want.Records[i]
+		if !reflect.DeepEqual(*g.Occ, *w.Occ) || (g.Identity == nil) != (w.Identity == nil) {
+			t.Errorf("%s: record %d: %q at %v (identity %t), want %q at %v (identity %t)", what, i, g.Occ.Text, g.Occ.Span, g.Identity != nil, w.Occ.Text, w.Occ.Span, w.Identity != nil)
+			return
+		}
+	}
+	if len(got.Diagnostics) != len(want.Diagnostics) {
+		t.Errorf("%s: %d findings, want %d", what, len(got.Diagnostics), len(want.Diagnostics))
+	}
+	for i := range min(len(got.Diagnostics), len(want.Diagnostics)) {
+		if !reflect.DeepEqual(got.Diagnostics[i], want.Diagnostics[i]) {
+			t.Errorf("%s: finding %d:\n got %+v\nwant %+v", what, i, got.Diagnostics[i], want.Diagnostics[i])
+			return
+		}
+	}
+}

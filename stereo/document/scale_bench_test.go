@@ -1,0 +1,57 @@
+package document
+
+import (
+	"bytes"
+	"os"
+	"testing"
+)
+
+// scaleList reads the list STEREOLINE_SCALE_LIST names (made by
+// testdata/scale/make_list.py), or skips.
+func scaleList(b *testing.B) []byte {
+	name := os.Getenv("STEREOLINE_SCALE_LIST")
+	if name == "" {
+		b.Skip("STEREOLINE_SCALE_LIST is not set (make one with testdata/scale/make_list.py)")
+	}
+	text, err := os.ReadFile(name)
+	if err != nil {
+		b.Skip(err)
+	}
+	return text
+}
+
+// BenchmarkScaleOpen analyses a large list from a cold cache, relations
+// included: what the language server does on didOpen.
+func BenchmarkScaleOpen(b *testing.B) {
+	text := scaleList(b)
+	b.SetBytes(int64(len(text)))
+	for i := 0; i < b.N; i++ {
+		NewAnalyzer(DefaultConfig()).Analyze("big.smi", "", text)
+	}
+}
+
+// BenchmarkScaleEdit analyses a large list again after a one-line edit
+// (a mark of the middle record toggled), relations included, with the
+// cache and the previous result of the open: the language server's edit
+// path.
+func BenchmarkScaleEdit(b *testing.B) {
+	text := scaleList(b)
+	a := NewAnalyzer(DefaultConfig())
+	prev := a.Analyze("big.smi", "", text)
+	versions := [2][]byte{text, toggleMark(text)}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		prev = a.Reanalyze(prev, "big.smi", "", versions[(i+1)%2])
+	}
+}
+
+// toggleMark turns the first @@ after the middle of text into @.
+func toggleMark(text []byte) []byte {
+	mid := len(text) / 2
+	i := bytes.Index(text[mid:], []byte("@@"))
+	if i < 0 {
+		return append(append([]byte(nil), text...), "C\n"...)
+	}
+	i += mid
+	return append(append(append([]byte(nil), text[:i]...), '@'), text[i+2:]...)
+}

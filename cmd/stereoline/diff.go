@@ -49,10 +49,9 @@ type diffOptions struct {
 	key     string
 	failOn  map[review.Class]bool
 	paths   []string
+	maxSize int64 // the largest file reviewed
 }
 
-// diffMaxSize is the largest file reviewed, the checker's default limit.
-const diffMaxSize = 10_000_000
 
 // diffFile is one file to review: its two versions and how to print it.
 type diffFile struct {
@@ -70,7 +69,7 @@ func diff(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	if status >= 0 {
 		return status
 	}
-	run := newCheckRun(checkOptions{maxSize: diffMaxSize, jobs: runtime.GOMAXPROCS(0)}, stdin, stderr)
+	run := newCheckRun(checkOptions{maxSize: opts.maxSize, jobs: runtime.GOMAXPROCS(0)}, stdin, stderr)
 	var files []*diffFile
 	baseName := opts.base
 	direct, err := directPair(opts)
@@ -79,7 +78,7 @@ func diff(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "stereoline diff: %v\n", err)
 		return 2
 	case direct:
-		f, err := directFiles(opts.paths[0], opts.paths[1])
+		f, err := directFiles(opts.paths[0], opts.paths[1], opts.maxSize)
 		if err != nil {
 			fmt.Fprintf(stderr, "stereoline diff: %v\n", err)
 			return 2
@@ -138,6 +137,7 @@ func parseDiffArgs(args []string, stderr io.Writer) (diffOptions, int) {
 	fs.StringVar(&opts.format, "format", "text", "output format: text, json (JSON Lines) or html (one self-contained page)")
 	fs.StringVar(&opts.base, "base", "HEAD", "git `revision` to compare the working tree with")
 	fs.StringVar(&opts.key, "key", "", "what identifies a record: a table `column` (header or 1-based number), a 1-based field of a list line, or a member of the objects of a JSON array")
+	maxSize := fs.String("max-size", defaultMaxSize, "skip files larger than this (bytes, or with a kB, MB or GB suffix)")
 	failOn := fs.String("fail-on", "", "exit 1 when a record is in one of these `classes` (comma-separated)")
 	fs.Usage = func() {
 		fmt.Fprint(stderr, diffUsage)
@@ -183,6 +183,11 @@ func parseDiffArgs(args []string, stderr io.Writer) (diffOptions, int) {
 	if opts.base == "" {
 		return usageErr("--base: expected a revision")
 	}
+	n, err := parseSize(*maxSize)
+	if err != nil {
+		return usageErr("--max-size: %v", err)
+	}
+	opts.maxSize = n
 	for _, name := range strings.Split(*failOn, ",") {
 		name = strings.TrimSpace(name)
 		if name == "" {
@@ -242,14 +247,14 @@ func directPair(opts diffOptions) (bool, error) {
 
 // directFiles reads two files for a direct comparison; the new one's
 // path is printed.
-func directFiles(oldPath, newPath string) (*diffFile, error) {
+func directFiles(oldPath, newPath string, limit int64) (*diffFile, error) {
 	f := &diffFile{path: filepath.ToSlash(newPath), osPath: newPath, oldName: filepath.ToSlash(oldPath)}
 	var err error
-	if f.old, f.skipped, err = readLimited(oldPath); err != nil {
+	if f.old, f.skipped, err = readLimited(oldPath, limit); err != nil {
 		return nil, err
 	}
 	if f.skipped == "" {
-		if f.new, f.skipped, err = readLimited(newPath); err != nil {
+		if f.new, f.skipped, err = readLimited(newPath, limit); err != nil {
 			return nil, err
 		}
 	}
@@ -258,7 +263,7 @@ func directFiles(oldPath, newPath string) (*diffFile, error) {
 
 // readLimited reads a working-tree file; skipped says why it is not
 // reviewed (too large, binary). A file that does not exist gives nil.
-func readLimited(path string) ([]byte, string, error) {
+func readLimited(path string, limit int64) ([]byte, string, error) {
 	fh, err := os.Open(path)
 	if err != nil {
 		if errors.Is(err, fs.ErrNotExist) {
@@ -267,14 +272,14 @@ func readLimited(path string) ([]byte, string, error) {
 		return nil, "", err
 	}
 	defer fh.Close()
-	data, err := io.ReadAll(io.LimitReader(fh, diffMaxSize+1))
+	data, err := io.ReadAll(io.LimitReader(fh, limit+1))
 	if err != nil {
 		return nil, "", fmt.Errorf("%s: %v", path, err)
 	}
 	if data == nil {
 		data = []byte{}
 	}
-	if why := skipReason(data, int64(len(data))); why != "" {
+	if why := skipReason(data, int64(len(data)), limit); why != "" {
 		return nil, why, nil
 	}
 	return data, "", nil
@@ -282,9 +287,9 @@ func readLimited(path string) ([]byte, string, error) {
 
 // skipReason says why content is not reviewed: too large, or binary (a
 // NUL byte near the start, as git decides).
-func skipReason(data []byte, size int64) string {
-	if size > diffMaxSize {
-		return fmt.Sprintf("larger than %d bytes", diffMaxSize)
+func skipReason(data []byte, size, limit int64) string {
+	if size > limit {
+		return fmt.Sprintf("larger than %d bytes (--max-size)", limit)
 	}
 	if bytes.IndexByte(data[:min(len(data), binaryProbe)], 0) >= 0 {
 		return "binary file"
@@ -376,14 +381,14 @@ func gitFiles(run *checkRun, opts diffOptions) ([]*diffFile, error) {
 		}
 	}
 	for _, rs := range order {
-		blobs, large, err := rs.repo.Read(rs.commit, rs.rels, diffMaxSize)
+		blobs, large, err := rs.repo.Read(rs.commit, rs.rels, opts.maxSize)
 		if err != nil {
 			return nil, err
 		}
 		for i, f := range rs.files {
 			rel := rs.rels[i]
 			if size, ok := large[rel]; ok {
-				f.skipped = skipReason(nil, size)
+				f.skipped = skipReason(nil, size, opts.maxSize)
 				continue
 			}
 			if b := blobs[rel]; !b.Missing {
@@ -391,12 +396,12 @@ func gitFiles(run *checkRun, opts diffOptions) ([]*diffFile, error) {
 				if f.old == nil {
 					f.old = []byte{}
 				}
-				if why := skipReason(f.old, int64(len(f.old))); why != "" {
+				if why := skipReason(f.old, int64(len(f.old)), opts.maxSize); why != "" {
 					f.skipped, f.old = why, nil
 					continue
 				}
 			}
-			f.new, f.skipped, err = readLimited(f.osPath)
+			f.new, f.skipped, err = readLimited(f.osPath, opts.maxSize)
 			if err != nil {
 				run.pathError(f.path, err)
 			}

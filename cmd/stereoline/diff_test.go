@@ -306,6 +306,22 @@ func TestDiffDirect(t *testing.T) {
 	}
 }
 
+// TestDiffMaxSize: --max-size sets the largest file reviewed; a smaller
+// limit than the file skips it with a note.
+func TestDiffMaxSize(t *testing.T) {
+	dir := t.TempDir()
+	writeFile(t, dir, "old.smi", "N[C@@H](C)C(=O)O LRK-BB-001\n")
+	writeFile(t, dir, "new.smi", "N[C@H](C)C(=O)O LRK-BB-001\n")
+	stdout, stderr, status := runDiff(t, "--max-size", "20", filepath.Join(dir, "old.smi"), filepath.Join(dir, "new.smi"))
+	if got := relLines(stdout, dir); len(got) != 0 || status != 0 || !strings.Contains(stderr, "larger than 20 bytes") {
+		t.Errorf("got %q (status %d, stderr %s), want the file skipped", got, status, stderr)
+	}
+	_, stderr, status = runDiff(t, "--max-size", "lots", filepath.Join(dir, "old.smi"), filepath.Join(dir, "new.smi"))
+	if status != 2 || !strings.Contains(stderr, "--max-size") {
+		t.Errorf("a bad size: status %d, stderr %q", status, stderr)
+	}
+}
+
 // TestDiffHTML: the page holds every record, the first page as markup
 // (each changed record with its two drawings inline), the rest as text
 // the page's script turns into markup; the record count is in the

@@ -52,7 +52,6 @@ type diffOptions struct {
 	maxSize int64 // the largest file reviewed
 }
 
-
 // diffFile is one file to review: its two versions and how to print it.
 type diffFile struct {
 	path     string // as printed

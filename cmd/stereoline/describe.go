@@ -70,22 +70,11 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 // fields are added at the end; consumers must ignore fields they do not
 // know.
 type recordJSON struct {
-	Input       string           `json:"input"`
-	Name        string           `json:"name"`
-	Atoms       []atomJSON       `json:"atoms"`
-	Bonds       []bondJSON       `json:"bonds"`
-	Formula     string           `json:"formula"`
-	Mass        float64          `json:"averageMass"`
-	Mono        float64          `json:"monoisotopicMass"`
-	Diagnostics []diagnosticJSON `json:"diagnostics"`
-	Stereo      []unitJSON       `json:"stereo"`
-	Reaction    *reactionJSON    `json:"reaction,omitempty"`
-	// Groups are the stereo groups of the extension block as written
-	// (atoms 1-based, those the block lists within the record); nil
-	// without a block. Configuration says how the specified chiral
-	// units are known: absolute, relative, racemic or a mix.
-	Groups        []groupJSON `json:"groups,omitempty"`
-	Configuration string      `json:"configuration,omitempty"`
+	Input string     `json:"input"`
+	Name  string     `json:"name"`
+	Atoms []atomJSON `json:"atoms"`
+	Bonds []bondJSON `json:"bonds"`
+	recordTailJSON
 }
 
 // groupJSON is one stereo group of the extension block. Descriptor is the
@@ -195,7 +184,8 @@ func spanJSON(s notation.Span) [2]int { return [2]int{s.Start, s.End} }
 func describeRecord(rec notation.Record, reading notation.Reading) recordJSON {
 	m := notation.ReadWith(rec.Notation, reading)
 	d := recordJSON{Input: rec.Notation, Name: rec.Title,
-		Atoms: make([]atomJSON, 0, len(m.Atoms)), Bonds: make([]bondJSON, 0, len(m.Bonds)), Diagnostics: []diagnosticJSON{}}
+		Atoms: make([]atomJSON, 0, len(m.Atoms)), Bonds: make([]bondJSON, 0, len(m.Bonds))}
+	d.Diagnostics = []diagnosticJSON{}
 	for i := range m.Atoms {
 		a := &m.Atoms[i]
 		aj := atomJSON{N: i + 1, Symbol: a.Symbol, Charge: a.Charge, Hydrogens: a.HydrogenCount(),

@@ -10,17 +10,21 @@ import (
 // the record by encoding/json. The bytes are those json.Marshal writes
 // (TestDescribeJSONMatchesMarshal).
 
-// recordTailJSON is recordJSON after its bonds, in the same order with
-// the same tags.
+// recordTailJSON is recordJSON after its bonds, embedded there, so
+// encoding/json writes its fields in this order after the bonds.
 type recordTailJSON struct {
-	Formula       string           `json:"formula"`
-	Mass          float64          `json:"averageMass"`
-	Mono          float64          `json:"monoisotopicMass"`
-	Diagnostics   []diagnosticJSON `json:"diagnostics"`
-	Stereo        []unitJSON       `json:"stereo"`
-	Reaction      *reactionJSON    `json:"reaction,omitempty"`
-	Groups        []groupJSON      `json:"groups,omitempty"`
-	Configuration string           `json:"configuration,omitempty"`
+	Formula     string           `json:"formula"`
+	Mass        float64          `json:"averageMass"`
+	Mono        float64          `json:"monoisotopicMass"`
+	Diagnostics []diagnosticJSON `json:"diagnostics"`
+	Stereo      []unitJSON       `json:"stereo"`
+	Reaction    *reactionJSON    `json:"reaction,omitempty"`
+	// Groups are the stereo groups of the extension block as written
+	// (atoms 1-based, those the block lists within the record); nil
+	// without a block. Configuration says how the specified chiral
+	// units are known: absolute, relative, racemic or a mix.
+	Groups        []groupJSON `json:"groups,omitempty"`
+	Configuration string      `json:"configuration,omitempty"`
 }
 
 // appendRecordJSON appends d as json.Marshal writes it.
@@ -58,8 +62,7 @@ func appendRecordJSON(b []byte, d *recordJSON) ([]byte, error) {
 		}
 		b = append(b, ']')
 	}
-	tail, err := json.Marshal(recordTailJSON{Formula: d.Formula, Mass: d.Mass, Mono: d.Mono, Diagnostics: d.Diagnostics,
-		Stereo: d.Stereo, Reaction: d.Reaction, Groups: d.Groups, Configuration: d.Configuration})
+	tail, err := json.Marshal(d.recordTailJSON)
 	if err != nil {
 		return b, err
 	}

@@ -299,6 +299,7 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
       names: [],
       files: {},
       reading: { lonePair: "last", ringMarks: "closing" },
+      limits: { recordTime: "1s", digraphNodes: 200000 },
     });
     // The server asks for the "stereoline" section (workspace/configuration);
     // the client answers from the same settings.

@@ -278,8 +278,10 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
   Module._load = function (request, ...rest) {
     return request === "vscode" ? fake : load.call(this, request, ...rest);
   };
+  let ext;
+  let stopped = false;
   try {
-    const ext = require(bundle);
+    ext = require(bundle);
     const context = { subscriptions: [], extensionPath: path.join(__dirname, ".."), extensionUri: Uri.file(path.join(__dirname, "..")) };
     await ext.activate(context);
     assert.deepEqual(record.errors, [], "activation reported an error");
@@ -333,12 +335,16 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
     assert.ok(await wait(() => didOpen().length >= open.length, 5000), `didOpen: ${JSON.stringify(didOpen())}`);
     await new Promise((r) => setTimeout(r, 200));
     assert.deepEqual(didOpen().map((m) => m.params.textDocument.languageId).sort(), ["csv", "python", "smiles"]);
+    stopped = true;
     await ext.deactivate();
     assert.ok(await wait(() => fs.existsSync(status), 5000), "the server did not exit after deactivate");
     assert.equal(fs.readFileSync(status, "utf8").trim(), "0", "server exit status");
     const methods = frames(fs.readFileSync(sent)).map((m) => m.method);
     assert.ok(methods.includes("shutdown") && methods.indexOf("exit") > methods.indexOf("shutdown"), `sent: ${methods}`);
   } finally {
+    // A failed assertion before deactivate would leave the server
+    // running and the test runner waiting for it.
+    if (ext && !stopped) await ext.deactivate().catch(() => {});
     Module._load = load;
     fs.rmSync(dir, { recursive: true, force: true });
   }

@@ -168,7 +168,7 @@ func TestAnalysisProgress(t *testing.T) {
 // larger than it gets no findings and a message that names the setting;
 // once an edit brings it under the limit it is analysed.
 func TestMaxDocumentSize(t *testing.T) {
-	c := start(t, clientSetup{initOpts: map[string]any{"stereoline": map[string]any{"maxDocumentSize": 60}}})
+	c := start(t, clientSetup{initOpts: map[string]any{"stereoline": map[string]any{"maxDocumentSize": "60"}}})
 	defer c.stop()
 	const u = "file:///w/limit.smi"
 	// The [C@H] of the first record has two equal methyl groups: an

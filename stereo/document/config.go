@@ -10,6 +10,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"maps"
+	"math"
 	"path"
 	"slices"
 	"strconv"
@@ -68,11 +69,11 @@ type Config struct {
 	// skipped with a note, so a stray dump cannot take the memory of a
 	// CI job.
 	MaxFileSize string `json:"maxFileSize,omitempty"`
-	// MaxDocumentSize is the largest document, in bytes, the language
-	// server analyses; 0 means DefaultMaxDocumentSize. A larger document
-	// gets no findings and a message that says why. The checker ignores
-	// it.
-	MaxDocumentSize int `json:"maxDocumentSize,omitempty"`
+	// MaxDocumentSize is the largest document the language server
+	// analyses, written as MaxFileSize is (ParseSize); empty means
+	// DefaultMaxDocumentSize. A larger document gets no findings and a
+	// message that says why. The checker ignores it.
+	MaxDocumentSize string `json:"maxDocumentSize,omitempty"`
 }
 
 // LimitsConfig is the limits setting.
@@ -164,18 +165,23 @@ func ParseSize(s string) (int64, error) {
 }
 
 // DefaultMaxDocumentSize is the largest document the language server
-// analyses unless the maxDocumentSize setting says otherwise: 32 MiB,
-// about five times a 100,000-record list, whose analysis stays within
-// the server's memory budget.
-const DefaultMaxDocumentSize = 32 << 20
+// analyses unless the maxDocumentSize setting says otherwise: about five
+// times a 100,000-record list, whose analysis stays within the server's
+// memory budget.
+const DefaultMaxDocumentSize = "32MB"
 
 // DocumentLimit returns the largest document the language server
 // analyses under c, in bytes.
 func (c Config) DocumentLimit() int {
-	if c.MaxDocumentSize > 0 {
-		return c.MaxDocumentSize
+	size := c.MaxDocumentSize
+	if size == "" {
+		size = DefaultMaxDocumentSize
 	}
-	return DefaultMaxDocumentSize
+	n, err := ParseSize(size)
+	if err != nil { // rejected by Validate
+		n, _ = ParseSize(DefaultMaxDocumentSize)
+	}
+	return int(min(n, math.MaxInt))
 }
 
 // ReadingConfig is the reading setting: each field the name of a rule of
@@ -251,8 +257,10 @@ func (c *Config) Validate() error {
 			return fmt.Errorf("maxFileSize: %v", err)
 		}
 	}
-	if c.MaxDocumentSize < 0 {
-		return fmt.Errorf("maxDocumentSize: expected a number of bytes, found %d", c.MaxDocumentSize)
+	if c.MaxDocumentSize != "" {
+		if _, err := ParseSize(c.MaxDocumentSize); err != nil {
+			return fmt.Errorf("maxDocumentSize: %v", err)
+		}
 	}
 	if strings.HasPrefix(c.ReviewBase, "-") || strings.ContainsAny(c.ReviewBase, " \t\n") {
 		return fmt.Errorf("reviewBase: expected a git revision or off, found %q", c.ReviewBase)

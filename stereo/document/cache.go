@@ -2,7 +2,6 @@ package document
 
 import (
 	"sync"
-	"time"
 
 	"stereoline/notation"
 	"stereoline/stereo"
@@ -57,7 +56,8 @@ func analyse(text string, r notation.Reading, lim limits) *analysis {
 	if n := notation.CountAtoms(text); n > lim.atoms {
 		return oversized(text, n, lim.atoms)
 	}
-	start := time.Now()
+	start, done := stereo.StartBudget()
+	defer done()
 	m := notation.ReadWith(text, r)
 	opt := stereo.Options{NodeCap: lim.nodeCap, Budget: lim.budget, Start: start}
 	a := &analysis{mol: m, stereo: stereo.AnalyzeWith(m, opt)}

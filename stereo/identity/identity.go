@@ -92,7 +92,8 @@ func Identify(m *notation.Molecule) Identity {
 // configurations (the marks, their mirror image, or an enumerated
 // assignment).
 func identifyGraph(g *keyGraph, units []keyUnit) Identity {
-	con := newCanonState(g, units, false).run()
+	base := g.baseRanks()
+	con := newCanonState(g, units, false).runFrom(base)
 	poly, polyChiral := hasPolyhedra(g.mol)
 	if len(units) == 0 && !poly {
 		// no marks: the stereo serialisation is the constitution's with
@@ -101,7 +102,7 @@ func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 		return Identity{Key: k, MirrorKey: k, ConstitutionKey: digest(con.text)}
 	}
 	st := newCanonState(g, units, true)
-	res := st.run()
+	res := st.runFrom(base)
 	id := Identity{Key: digest(res.text), MirrorKey: digest(res.text), ConstitutionKey: digest(con.text)}
 	needMirror := polyChiral
 	for i := range units {
@@ -113,13 +114,11 @@ func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 	if needMirror {
 		ms := newCanonState(g, mirrorUnits(units), true)
 		ms.mirrored = true
-		id.MirrorKey = digest(ms.run().text)
+		id.MirrorKey = digest(ms.runFrom(base).text)
 	}
 	centres := 0
 	// a specified chirality centre: a tetrahedral unit whose ligands
 	// already differ by constitution
-	conRank := newCanonState(g, units, false)
-	base := conRank.refine(conRank.initialRanks())
 	for i := range units {
 		u := &units[i]
 		if !st.keep[i] {

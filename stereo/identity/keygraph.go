@@ -68,6 +68,8 @@ type keyGraph struct {
 	// geom is the view the ring and bicycle searches read, set by
 	// findRingSystems
 	geom ringgeom.Graph
+	sc   *refineScratch // canon.go, on first use
+	base []int          // baseRanks, on first use
 }
 
 func bondClass(b *notation.Bond) int {

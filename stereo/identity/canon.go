@@ -72,7 +72,7 @@ type canonState struct {
 	keep   []bool // per unit: part of the key
 	ring   []bool // per unit: kept as a ring unit, parity only after tie-breaking
 	leaves int
-	atoms  []int // the atoms in the order, folded hydrogens left out
+	atoms  []int // the atoms in the order, folded hydrogens left out (the graph's, shared)
 	seen   []bool
 
 	// sym holds the symmetry classes after refinement, before ties are
@@ -95,24 +95,25 @@ type canonState struct {
 	relation []int
 }
 
-// canonResult is the outcome: the order (position -> atom), the rank of
-// every atom (folded hydrogens -1), the serialisation and the parity of
-// every unit on the final ranks (0 when not kept).
+// canonResult is the outcome: the rank of every atom (folded hydrogens
+// -1), the serialisation and the parity of every unit on the final ranks
+// (0 when not kept).
 type canonResult struct {
-	order    []int
 	rank     []int
 	text     string
 	parities []int
 }
 
 func newCanonState(g *keyGraph, units []keyUnit, stereo bool) *canonState {
-	c := &canonState{g: g, units: units, stereo: stereo}
-	for a := 0; a < g.n; a++ {
-		if !g.folded[a] {
-			c.atoms = append(c.atoms, a)
+	if g.atoms == nil {
+		g.atoms = make([]int, 0, g.n)
+		for a := 0; a < g.n; a++ {
+			if !g.folded[a] {
+				g.atoms = append(g.atoms, a)
+			}
 		}
 	}
-	return c
+	return &canonState{g: g, units: units, stereo: stereo, atoms: g.atoms}
 }
 
 // run computes the canonical form.
@@ -285,10 +286,14 @@ func (c *canonState) fresh(rank []int) []int {
 // splitBy refines ranks by one more invariant, key, compared after the
 // rank: each atom's new rank is the number of atoms lower by (rank,
 // key), computed class by class.
+//
+// The ranks are in scratch space, valid until the next splitBy: the
+// callers refine them at once.
 func (c *canonState) splitBy(rank []int, key func(a int) int) []int {
 	sc := c.g.scratch()
 	order := sc.byRank(c.atoms, rank)
-	next := c.fresh(rank)
+	next := grow(sc.split, c.g.n)
+	sc.split = next
 	for i := 0; i < len(order); {
 		j := i + 1
 		for j < len(order) && rank[order[j]] == rank[order[i]] {
@@ -318,6 +323,11 @@ type refineScratch struct {
 	codes        []int // neighbour codes of every atom, atom a's at codes[off[a]:off[a+1]]
 	off          []int
 	rankA, rankB []int
+	split        []int // splitBy's ranks, read once by refine
+	// leaf's serialisation, copied into the result's text
+	leafOrder []int
+	buf       []byte
+	bonds     [][3]int
 }
 
 // scratch returns the graph's ranking scratch space.
@@ -714,11 +724,13 @@ func (c *canonState) moveAhead(rank []int, low, a int) []int {
 // leaf serialises a total order.
 func (c *canonState) leaf(rank []int) canonResult {
 	g := c.g
-	order := make([]int, len(c.atoms))
+	sc := g.scratch()
+	order := grow(sc.leafOrder, len(c.atoms))
+	sc.leafOrder = order
 	for _, a := range c.atoms {
 		order[rank[a]] = a
 	}
-	var buf []byte
+	buf := sc.buf[:0]
 	put := func(v int) { buf = binary.AppendVarint(buf, int64(v)) }
 	put(len(order))
 	for _, a := range order {
@@ -727,7 +739,7 @@ func (c *canonState) leaf(rank []int) canonResult {
 			put(v)
 		}
 	}
-	var bonds [][3]int
+	bonds := sc.bonds[:0]
 	for _, a := range order {
 		for _, e := range g.adj[a] {
 			if rank[a] < rank[e.to] {
@@ -735,6 +747,7 @@ func (c *canonState) leaf(rank []int) canonResult {
 			}
 		}
 	}
+	sc.bonds = bonds
 	slices.SortFunc(bonds, func(x, y [3]int) int { return compareInts(x[:], y[:]) })
 	put(len(bonds))
 	for _, b := range bonds {
@@ -742,7 +755,7 @@ func (c *canonState) leaf(rank []int) canonResult {
 		put(b[1])
 		put(b[2])
 	}
-	res := canonResult{order: order, rank: rank, parities: make([]int, len(c.units))}
+	res := canonResult{rank: rank, parities: make([]int, len(c.units))}
 	if c.stereo {
 		var us [][4]int
 		for i := range c.units {
@@ -777,6 +790,7 @@ func (c *canonState) leaf(rank []int) canonResult {
 		}
 	}
 	res.text = string(buf)
+	sc.buf = buf
 	return res
 }
 

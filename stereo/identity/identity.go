@@ -103,7 +103,8 @@ func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 	}
 	st := newCanonState(g, units, true)
 	res := st.runFrom(base)
-	id := Identity{Key: digest(res.text), MirrorKey: digest(res.text), ConstitutionKey: digest(con.text)}
+	key := digest(res.text)
+	id := Identity{Key: key, MirrorKey: key, ConstitutionKey: digest(con.text)}
 	needMirror := polyChiral
 	for i := range units {
 		if st.keep[i] && units[i].kind != keyDoubleBond {

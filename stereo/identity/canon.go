@@ -739,16 +739,25 @@ func (c *canonState) leaf(rank []int) canonResult {
 			put(v)
 		}
 	}
+	// the bonds sorted by (lower position, higher position, class): the
+	// order lists the lower ends ascending, so only each atom's own
+	// bonds need sorting
 	bonds := sc.bonds[:0]
 	for _, a := range order {
+		first := len(bonds)
 		for _, e := range g.adj[a] {
 			if rank[a] < rank[e.to] {
 				bonds = append(bonds, [3]int{rank[a], rank[e.to], e.class})
 			}
 		}
+		own := bonds[first:]
+		for i := 1; i < len(own); i++ {
+			for j := i; j > 0 && compareInts(own[j][:], own[j-1][:]) < 0; j-- {
+				own[j], own[j-1] = own[j-1], own[j]
+			}
+		}
 	}
 	sc.bonds = bonds
-	slices.SortFunc(bonds, func(x, y [3]int) int { return compareInts(x[:], y[:]) })
 	put(len(bonds))
 	for _, b := range bonds {
 		put(b[0])

@@ -30,10 +30,7 @@ func Read(text string) *Molecule {
 	if end > notationEnd {
 		src = text[:notationEnd]
 	}
-	r := &reader{text: src, mol: &Molecule{Text: text}, prev: -1, rings: map[int]*openRing{}}
-	atoms, rings := countTokens(src)
-	r.mol.Atoms = make([]Atom, 0, atoms)
-	r.mol.Bonds = make([]Bond, 0, atoms+rings)
+	r := newReader(src, text)
 	r.read()
 	finish(r.mol)
 	if end > notationEnd {
@@ -48,6 +45,34 @@ func Read(text string) *Molecule {
 		r.mol.Errors = r.mol.Errors[:maxErrors+1]
 	}
 	return r.mol
+}
+
+// newReader starts reading src, the notation of record text.
+func newReader(src, text string) *reader {
+	r := &reader{text: src, mol: &Molecule{Text: text}, prev: -1, rings: map[int]*openRing{}}
+	atoms, rings := countTokens(src)
+	r.mol.Atoms = make([]Atom, 0, atoms)
+	r.mol.Bonds = make([]Bond, 0, atoms+rings)
+	return r
+}
+
+// Reads reports whether text reads without an error (warnings allowed)
+// and with at least one atom, as Read's result would say, at less cost
+// for text that does not read: once the text itself gave an error, what
+// Read does after it (Kekulé structure, hydrogens, valences) is skipped.
+// That work only adds errors, at most three for each atom, so the error
+// stays in the list as long as the list cannot reach maxErrors; a record
+// with an extension block is read whole.
+func Reads(text string) bool {
+	if notationEnd, end := RecordEnd(text); end == notationEnd {
+		r := newReader(text, text)
+		r.read()
+		if r.mol.Errors.HasErrors() && len(r.mol.Errors)+3*len(r.mol.Atoms) <= maxErrors {
+			return false
+		}
+	}
+	m := Read(text)
+	return !m.Errors.HasErrors() && len(m.Atoms) > 0
 }
 
 // countTokens bounds the number of atoms (capital letters, aromatic

@@ -80,6 +80,9 @@ type canonState struct {
 	// reads those centres as in the mirror image.
 	sym      []int
 	mirrored bool
+	// stereoSplit is set once unit parities have told atoms apart
+	// (stereoRefine changed the ranks), at any point of the run
+	stereoSplit bool
 
 	// ringRoot is, per ring unit, its ring system (systems joined by a
 	// ring link counting as one); related holds, per atom, the invariant
@@ -146,6 +149,32 @@ func (g *keyGraph) baseRanks() []int {
 		g.base = c.refine(c.initialRanks())
 	}
 	return g.base
+}
+
+// mirrorLeaf returns the serialisation of the mirror image (the units
+// of m, every tetrahedral and allene hand reversed) when it follows from
+// this finished run without a run of its own, and false otherwise.
+//
+// It does when the parities never told atoms apart, no ring unit or
+// ring relation is kept and the search reached one leaf. The parities
+// enter the ranks only through stereoRefine, whose invariant per atom
+// the mirror changes by a one-to-one map (a tetrahedral code 1 <-> 3, an
+// allene code 4 <-> 12, double bonds kept), so atoms tie in the mirror
+// exactly where they tie here: the mirror's run makes the same ranks,
+// keeps the same units (which asks only whether a parity exists) and
+// ends at the same leaf, where only the parities and the polyhedra are
+// written differently.
+func (c *canonState) mirrorLeaf(m *canonState, res canonResult) (string, bool) {
+	if !c.stereo || c.stereoSplit || c.related != nil || c.leaves != 1 || c.keep == nil {
+		return "", false
+	}
+	for i := range c.units {
+		if c.ring[i] {
+			return "", false
+		}
+	}
+	m.keep, m.ring, m.sym = c.keep, c.ring, c.sym
+	return m.leaf(res.rank).text, true
 }
 
 // atomInvariant is the class of an atom on its own.
@@ -413,6 +442,7 @@ func (c *canonState) stereoRefine(rank []int) []int {
 		if c.classes(next) == before {
 			return rank
 		}
+		c.stereoSplit = true
 		rank = next
 	}
 	return rank

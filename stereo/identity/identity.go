@@ -88,6 +88,11 @@ func Identify(m *notation.Molecule) Identity {
 	return id
 }
 
+// mirrorShortcut lets identifyGraph write the mirror image's key from the
+// structure's own run when it can (canonState.mirrorLeaf); the tests
+// turn it off to compare.
+var mirrorShortcut = true
+
 // identifyGraph computes an Identity from a key graph and a set of unit
 // configurations (the marks, their mirror image, or an enumerated
 // assignment).
@@ -115,7 +120,14 @@ func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 	if needMirror {
 		ms := newCanonState(g, mirrorUnits(units), true)
 		ms.mirrored = true
-		id.MirrorKey = digest(ms.runFrom(base).text)
+		text, ok := "", false
+		if mirrorShortcut {
+			text, ok = st.mirrorLeaf(ms, res)
+		}
+		if !ok {
+			text = ms.runFrom(base).text
+		}
+		id.MirrorKey = digest(text)
 	}
 	centres := 0
 	// a specified chirality centre: a tetrahedral unit whose ligands

@@ -1,0 +1,53 @@
+package identity
+
+import (
+	"testing"
+
+	"stereoline/notation"
+)
+
+// TestMirrorShortcut checks that the mirror-image key written from the
+// structure's own run (canonState.mirrorLeaf) is the key a run of its
+// own gives, on the fixture molecules (RDKit-enumerated stereoisomers of
+// NCI records in testdata/rdkit/cip_labels.tsv, and the CIP validation
+// suite of Hanson et al. 2018 when the shared reference is present),
+// their mirror images as the transform writes them aside, and on
+// structures made to reach the cases the shortcut must leave alone:
+// parities that tell atoms apart (pseudoasymmetric centres, meso
+// forms), ring pairs, spiro centres, allenes and polyhedra.
+func TestMirrorShortcut(t *testing.T) {
+	texts := append(fixtureMolecules(t, 4000),
+		"C[C@H](O)[C@@H](C)O", "C[C@@H](O)[C@@H](C)O", "O[C@H]1CC[C@@H](O)CC1", "C[C@H]1CC[C@H](C)CC1",
+		"OC(=O)[C@H](O)[C@@H](O)C(O)=O", "C[C@H](Cl)[C@@H](O)[C@H](C)Cl", "C[C@H](Cl)C(O)[C@H](C)Cl",
+		"CC=[C@]=CC", "C[C@@]12CC[C@H](C1)C2", "C1C[C@]12CC[C@@H](C)C2", "F[Pt@SP1](Cl)(Br)I",
+		"C/C=C/[C@H](C)/C=C\\C", "C[C@H]1C[C@@H](C)C[C@H](C)C1", "N[C@@H](C)C(=O)N[C@H](C)C(=O)O")
+	checked, shortcut := 0, 0
+	for _, s := range texts {
+		m := notation.Read(s)
+		if m.Errors.HasErrors() || m.Reaction || len(m.Atoms) == 0 {
+			continue
+		}
+		got := Identify(m)
+		mirrorShortcut = false
+		want := Identify(m)
+		mirrorShortcut = true
+		if got.Key != want.Key || got.MirrorKey != want.MirrorKey || got.Chirality != want.Chirality {
+			t.Errorf("%s: with the shortcut %s/%s %v, without %s/%s %v", s, got.Key, got.MirrorKey, got.Chirality,
+				want.Key, want.MirrorKey, want.Chirality)
+		}
+		checked++
+		if g := newKeyGraph(m); len(g.units) > 0 {
+			st := newCanonState(g, g.units, true)
+			res := st.run()
+			ms := newCanonState(g, mirrorUnits(g.units), true)
+			ms.mirrored = true
+			if _, ok := st.mirrorLeaf(ms, res); ok {
+				shortcut++
+			}
+		}
+	}
+	if shortcut == 0 || shortcut == checked {
+		t.Errorf("the shortcut was taken for %d of %d structures: the test reaches only one side of it", shortcut, checked)
+	}
+	t.Logf("%d structures, shortcut taken for %d", checked, shortcut)
+}

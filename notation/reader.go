@@ -66,6 +66,7 @@ func newReader(src, text string) *reader {
 func Reads(text string) bool {
 	if notationEnd, end := RecordEnd(text); end == notationEnd {
 		r := newReader(text, text)
+		r.quiet = true
 		r.read()
 		if r.mol.Errors.HasErrors() && len(r.mol.Errors)+3*len(r.mol.Atoms) <= maxErrors {
 			return false
@@ -106,6 +107,10 @@ type reader struct {
 	dropped bool // errors were dropped past maxErrors
 
 	afterBranch bool // a branch was just closed: ring digits may not follow
+
+	// quiet leaves the messages of errors unwritten (Reads, which only
+	// asks whether there is one).
+	quiet bool
 
 	// openDot is the offset plus one of a '.' that no atom has followed yet,
 	// 0 when there is none: a component left empty at the end of the
@@ -160,6 +165,11 @@ func (r *reader) errorf(span Span, code Code, format string, args ...any) *Error
 			r.mol.Errors.Add(span, CodeSyntax, "too many errors; the rest of the record is not reported")
 		}
 		return &Error{}
+	}
+	if r.quiet {
+		e := &Error{Span: span, Code: code, Severity: SeverityError}
+		r.mol.Errors = append(r.mol.Errors, e)
+		return e
 	}
 	return r.mol.Errors.Add(span, code, format, args...)
 }

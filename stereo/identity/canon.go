@@ -165,16 +165,28 @@ func (g *keyGraph) baseRanks() []int {
 // ends at the same leaf, where only the parities and the polyhedra are
 // written differently.
 func (c *canonState) mirrorLeaf(m *canonState, res canonResult) (string, bool) {
-	if !c.stereo || c.stereoSplit || c.related != nil || c.leaves != 1 || c.keep == nil {
+	if !c.plain() {
 		return "", false
-	}
-	for i := range c.units {
-		if c.ring[i] {
-			return "", false
-		}
 	}
 	m.keep, m.ring, m.sym = c.keep, c.ring, c.sym
 	return m.leaf(res.rank).text, true
+}
+
+// plain reports whether a finished stereo run took the path its
+// constitution alone sets: the parities never told atoms apart, no ring
+// unit or ring relation is kept, and the search reached one leaf, so it
+// moved the first atom of the lowest tie ahead each time, as a run
+// without stereo does (mirrorLeaf, identifyGraph).
+func (c *canonState) plain() bool {
+	if !c.stereo || c.stereoSplit || c.related != nil || c.leaves != 1 || c.keep == nil {
+		return false
+	}
+	for i := range c.units {
+		if c.ring[i] {
+			return false
+		}
+	}
+	return true
 }
 
 // atomInvariant is the class of an atom on its own.

@@ -88,9 +88,9 @@ func Identify(m *notation.Molecule) Identity {
 	return id
 }
 
-// mirrorShortcut lets identifyGraph write the mirror image's key from the
-// structure's own run when it can (canonState.mirrorLeaf); the tests
-// turn it off to compare.
+// mirrorShortcut lets identifyGraph write the mirror image's key and the
+// constitution's serialisation from the structure's own run when it can
+// (canonState.mirrorLeaf and plain); the tests turn it off to compare.
 var mirrorShortcut = true
 
 // identifyGraph computes an Identity from a key graph and a set of unit
@@ -98,16 +98,24 @@ var mirrorShortcut = true
 // assignment).
 func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 	base := g.baseRanks()
-	con := newCanonState(g, units, false).runFrom(base)
 	poly, polyChiral := hasPolyhedra(g.mol)
 	if len(units) == 0 && !poly {
 		// no marks: the stereo serialisation is the constitution's with
 		// an empty unit list (a zero varint), and the mirror is the same
+		con := newCanonState(g, units, false).runFrom(base)
 		k := digest(con.text + "\x00")
 		return Identity{Key: k, MirrorKey: k, ConstitutionKey: digest(con.text)}
 	}
 	st := newCanonState(g, units, true)
 	res := st.runFrom(base)
+	cs := newCanonState(g, units, false)
+	var con canonResult
+	if mirrorShortcut && st.plain() {
+		// the constitution's run breaks the same ties in the same order
+		con = cs.leaf(res.rank)
+	} else {
+		con = cs.runFrom(base)
+	}
 	key := digest(res.text)
 	id := Identity{Key: key, MirrorKey: key, ConstitutionKey: digest(con.text)}
 	needMirror := polyChiral

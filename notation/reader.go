@@ -2,6 +2,7 @@ package notation
 
 import (
 	"fmt"
+	"sync"
 	"unicode/utf8"
 )
 
@@ -65,15 +66,46 @@ func newReader(src, text string) *reader {
 // with an extension block is read whole.
 func Reads(text string) bool {
 	if notationEnd, end := RecordEnd(text); end == notationEnd {
-		r := newReader(text, text)
-		r.quiet = true
+		r := quietReader(text)
 		r.read()
-		if r.mol.Errors.HasErrors() && len(r.mol.Errors)+3*len(r.mol.Atoms) <= maxErrors {
+		failed := r.mol.Errors.HasErrors() && len(r.mol.Errors)+3*len(r.mol.Atoms) <= maxErrors
+		if cap(r.mol.Atoms) <= quietKeep {
+			quietReaders.Put(r)
+		}
+		if failed {
 			return false
 		}
 	}
 	m := Read(text)
 	return !m.Errors.HasErrors() && len(m.Atoms) > 0
+}
+
+// quietReaders keeps the readers of Reads, whose molecules never leave
+// it, for the next call: the finder asks it of every title of a list.
+// A reader whose molecule grew past quietKeep atoms is not kept.
+var quietReaders = sync.Pool{New: func() any { return &reader{mol: &Molecule{}, rings: map[int]*openRing{}} }}
+
+const quietKeep = 4096
+
+// quietReader returns a reader of Reads for text, from the pool, its
+// state as newReader leaves it.
+func quietReader(text string) *reader {
+	r := quietReaders.Get().(*reader)
+	m := r.mol
+	atoms, rings := countTokens(text)
+	as, bs := m.Atoms[:0], m.Bonds[:0]
+	if cap(as) < atoms {
+		as = make([]Atom, 0, atoms)
+	}
+	if cap(bs) < atoms+rings {
+		bs = make([]Bond, 0, atoms+rings)
+	}
+	*m = Molecule{Text: text, Atoms: as, Bonds: bs, Errors: m.Errors[:0]}
+	rs := r.rings
+	clear(rs)
+	*r = reader{text: text, mol: m, prev: -1, rings: rs, stack: r.stack[:0], quiet: true,
+		slots: r.slotsAll, slotsAll: r.slotsAll}
+	return r
 }
 
 // countTokens bounds the number of atoms (capital letters, aromatic
@@ -109,8 +141,10 @@ type reader struct {
 	afterBranch bool // a branch was just closed: ring digits may not follow
 
 	// quiet leaves the messages of errors unwritten (Reads, which only
-	// asks whether there is one).
-	quiet bool
+	// asks whether there is one); slotsAll is then the whole of the last
+	// slots array, which the next Reads starts again from.
+	quiet    bool
+	slotsAll []int
 
 	// openDot is the offset plus one of a '.' that no atom has followed yet,
 	// 0 when there is none: a component left empty at the end of the
@@ -137,6 +171,9 @@ const bondSlots = 4
 func (r *reader) bondList() []int {
 	if len(r.slots) < bondSlots {
 		r.slots = make([]int, bondSlots*max(16, cap(r.mol.Atoms)-len(r.mol.Atoms)))
+		if r.quiet {
+			r.slotsAll = r.slots
+		}
 	}
 	s := r.slots[:0:bondSlots]
 	r.slots = r.slots[bondSlots:]

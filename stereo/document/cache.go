@@ -54,6 +54,9 @@ func (a *analysis) stereoisomersOf(m *notation.Molecule) identity.StereoisomerCo
 // analyse runs the engine on one notation text, read under reading r,
 // within the limits lim: the time budget counts the reading too.
 func analyse(text string, r notation.Reading, lim limits) *analysis {
+	if n := notation.CountAtoms(text); n > lim.atoms {
+		return oversized(text, n, lim.atoms)
+	}
 	start := time.Now()
 	m := notation.ReadWith(text, r)
 	opt := stereo.Options{NodeCap: lim.nodeCap, Budget: lim.budget, Start: start}
@@ -69,6 +72,19 @@ func analyse(text string, r notation.Reading, lim limits) *analysis {
 		}
 	}
 	return a
+}
+
+// oversized is the analysis of a record with more atoms than the
+// recordAtoms limit: it is not read, and its one finding says why. The
+// molecule holds the text only, so requests on the record (hover, a
+// drawing) find no atoms and say nothing about them.
+func oversized(text string, atoms, limit int) *analysis {
+	end := min(len(text), 1)
+	st := &stereo.Analysis{}
+	e := st.Diagnostics.Add(notation.Span{Start: 0, End: end}, stereo.CodeBudget,
+		"the record has %d atoms, more than the %d one record may have (limits.recordAtoms): it was not read or analysed", atoms, limit)
+	e.Severity = notation.SeverityWarning
+	return &analysis{mol: &notation.Molecule{Text: text}, stereo: st}
 }
 
 // identify returns the identity keys, computing them once; nil when the

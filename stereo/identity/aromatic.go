@@ -42,13 +42,18 @@ func (g *keyGraph) aromaticity() (atoms, bonds []bool) {
 	if !anyKekule && !hasAromatic {
 		return atoms, bonds
 	}
+	if !anyKekule {
+		// only which bonds lie on a ring matters: no smallest rings
+		inRing := g.ringBonds()
+		for bi := range m.Bonds {
+			bonds[bi] = m.Bonds[bi].Order == notation.OrderAromatic && inRing[bi]
+		}
+		return atoms, bonds
+	}
 	g.findRingSystems()
 	for bi := range m.Bonds {
 		b := &m.Bonds[bi]
 		bonds[bi] = b.Order == notation.OrderAromatic && g.rings.BondInRing(bi)
-	}
-	if !anyKekule {
-		return atoms, bonds
 	}
 	done := make([]bool, len(g.rings.SSSR))
 	for changed := true; changed; {
@@ -201,4 +206,96 @@ func (g *keyGraph) piElectrons(a int, inRing map[int]bool, aromaticBond []bool) 
 		return 2, len(at.Bonds)+g.hydro[a] == 2
 	}
 	return 0, false
+}
+
+// cyclicBonds marks the bonds that lie on a ring, as
+// notation.FindRings's BondInRing says: every bond that is no bridge of
+// the graph (Tarjan's low links, with an explicit stack), bonds with an
+// end out of range or joining an atom to itself left out, two bonds
+// between one pair of atoms forming a ring.
+func cyclicBonds(m *notation.Molecule) []bool {
+	n := len(m.Atoms)
+	usable := func(b *notation.Bond) bool {
+		return b.Begin >= 0 && b.Begin < n && b.End >= 0 && b.End < n && b.Begin != b.End
+	}
+	start := make([]int, n+1)
+	for i := range m.Bonds {
+		if b := &m.Bonds[i]; usable(b) {
+			start[b.Begin+1]++
+			start[b.End+1]++
+		}
+	}
+	for a := 0; a < n; a++ {
+		start[a+1] += start[a]
+	}
+	type arc struct{ bond, to int }
+	arcs := make([]arc, start[n])
+	fill := make([]int, n)
+	copy(fill, start[:n])
+	for i := range m.Bonds {
+		if b := &m.Bonds[i]; usable(b) {
+			arcs[fill[b.Begin]] = arc{i, b.End}
+			fill[b.Begin]++
+			arcs[fill[b.End]] = arc{i, b.Begin}
+			fill[b.End]++
+		}
+	}
+	inRing := make([]bool, len(m.Bonds))
+	disc, low := fill, make([]int, n) // fill is spent: it holds the discovery times now
+	for i := range disc {
+		disc[i] = -1
+	}
+	type frame struct{ atom, via, next int }
+	var stack []frame
+	clock := 0
+	for root := 0; root < n; root++ {
+		if disc[root] >= 0 {
+			continue
+		}
+		disc[root], low[root] = clock, clock
+		clock++
+		stack = append(stack[:0], frame{root, -1, start[root]})
+		for len(stack) > 0 {
+			f := &stack[len(stack)-1]
+			if f.next < start[f.atom+1] {
+				e := arcs[f.next]
+				f.next++
+				if e.bond == f.via {
+					continue
+				}
+				if disc[e.to] < 0 {
+					disc[e.to], low[e.to] = clock, clock
+					clock++
+					stack = append(stack, frame{e.to, e.bond, start[e.to]})
+					continue
+				}
+				inRing[e.bond] = true // a bond back up the tree closes a ring
+				low[f.atom] = min(low[f.atom], disc[e.to])
+				continue
+			}
+			done := *f
+			stack = stack[:len(stack)-1]
+			if len(stack) > 0 {
+				p := stack[len(stack)-1].atom
+				low[p] = min(low[p], low[done.atom])
+				if low[done.atom] <= disc[p] {
+					inRing[done.via] = true
+				}
+			}
+		}
+	}
+	return inRing
+}
+
+// ringBonds returns which bonds lie on a ring (the ring field once
+// findRingSystems ran, else cyclicBonds, kept): the searches that need
+// no smallest rings ask it.
+func (g *keyGraph) ringBonds() []bool {
+	if g.ring != nil {
+		return g.ring
+	}
+	if g.cyclic == nil {
+		g.cyclic = cyclicBonds(g.mol)
+	}
+	return g.cyclic
 }

@@ -71,6 +71,8 @@ type keyGraph struct {
 	sc    *refineScratch // canon.go, on first use
 	base  []int          // baseRanks, on first use
 	atoms []int          // the atoms not folded, on first use
+	// cyclic is ringBonds's answer before findRingSystems ran
+	cyclic []bool
 }
 
 func bondClass(b *notation.Bond) int {

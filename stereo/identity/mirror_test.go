@@ -52,3 +52,29 @@ func TestMirrorShortcut(t *testing.T) {
 	}
 	t.Logf("%d structures, shortcut taken for %d", checked, shortcut)
 }
+
+// TestCyclicBonds checks cyclicBonds against notation.FindRings's
+// BondInRing on the fixture molecules (as TestMirrorShortcut) and on
+// graphs with two bonds between one pair of atoms, rings joined by
+// bridges and several components.
+func TestCyclicBonds(t *testing.T) {
+	texts := append(fixtureMolecules(t, 4000), "C1CC1CC1CC1", "C12CC1CC2", "c1ccccc1-c1ccccc1.C1CCC1", "C1.C1", "CC", "C",
+		"C1CC2CCC1CC2", "C1CC11CC1", "[C]1=[C]1")
+	rings := 0
+	for _, s := range texts {
+		m := notation.Read(s)
+		want := notation.FindRings(m)
+		got := cyclicBonds(m)
+		for bi := range m.Bonds {
+			if got[bi] != want.BondInRing(bi) {
+				t.Errorf("%s: bond %d on a ring %v, FindRings says %v", s, bi, got[bi], want.BondInRing(bi))
+			}
+			if got[bi] {
+				rings++
+			}
+		}
+	}
+	if rings == 0 {
+		t.Error("no ring bond met: the test reaches one side only")
+	}
+}

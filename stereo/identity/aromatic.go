@@ -42,19 +42,15 @@ func (g *keyGraph) aromaticity() (atoms, bonds []bool) {
 	if !anyKekule && !hasAromatic {
 		return atoms, bonds
 	}
-	if !anyKekule {
+	inRing := g.ringBonds()
+	for bi := range m.Bonds {
+		bonds[bi] = m.Bonds[bi].Order == notation.OrderAromatic && inRing[bi]
+	}
+	if !anyKekule || shortcuts && !g.kekuleRingPossible(bonds) {
 		// only which bonds lie on a ring matters: no smallest rings
-		inRing := g.ringBonds()
-		for bi := range m.Bonds {
-			bonds[bi] = m.Bonds[bi].Order == notation.OrderAromatic && inRing[bi]
-		}
 		return atoms, bonds
 	}
 	g.findRingSystems()
-	for bi := range m.Bonds {
-		b := &m.Bonds[bi]
-		bonds[bi] = b.Order == notation.OrderAromatic && g.rings.BondInRing(bi)
-	}
 	done := make([]bool, len(g.rings.SSSR))
 	for changed := true; changed; {
 		changed = false
@@ -214,9 +210,15 @@ func (g *keyGraph) piElectrons(a int, inRing map[int]bool, aromaticBond []bool) 
 // end out of range or joining an atom to itself left out, two bonds
 // between one pair of atoms forming a ring.
 func cyclicBonds(m *notation.Molecule) []bool {
+	return cyclicBondsWhere(m, nil)
+}
+
+// cyclicBondsWhere is cyclicBonds on the graph of the bonds keep accepts
+// (nil: every bond).
+func cyclicBondsWhere(m *notation.Molecule, keep func(*notation.Bond) bool) []bool {
 	n := len(m.Atoms)
 	usable := func(b *notation.Bond) bool {
-		return b.Begin >= 0 && b.Begin < n && b.End >= 0 && b.End < n && b.Begin != b.End
+		return b.Begin >= 0 && b.Begin < n && b.End >= 0 && b.End < n && b.Begin != b.End && (keep == nil || keep(b))
 	}
 	start := make([]int, n+1)
 	for i := range m.Bonds {
@@ -285,6 +287,44 @@ func cyclicBonds(m *notation.Molecule) []bool {
 		}
 	}
 	return inRing
+}
+
+// kekuleRingPossible reports whether the Hückel tests of aromaticity
+// could change anything: whether some ring holds only atoms that can
+// give π electrons (piElectrons, taken generously: an aromatic atom, one
+// double bond, a neutral N, O, S or Se) and a non-aromatic atom or bond.
+// A ring that passes marks its atoms and bonds aromatic, which changes
+// nothing when they are already; the rings of the atoms that can give
+// electrons are the cycles of the graph those atoms span.
+func (g *keyGraph) kekuleRingPossible(aromaticBond []bool) bool {
+	m := g.mol
+	able := make([]bool, g.n)
+	for a := range m.Atoms {
+		at := &m.Atoms[a]
+		doubles := 0
+		for _, bi := range at.Bonds {
+			if bi >= 0 && bi < len(m.Bonds) && m.Bonds[bi].Order == notation.OrderDouble {
+				doubles++
+			}
+		}
+		switch {
+		case at.Aromatic, doubles == 1:
+			able[a] = true
+		case doubles > 1 || at.Charge != 0:
+		default:
+			switch at.Number {
+			case notation.ElemN, notation.ElemO, notation.ElemS, notation.ElemSe:
+				able[a] = true
+			}
+		}
+	}
+	cyc := cyclicBondsWhere(m, func(b *notation.Bond) bool { return able[b.Begin] && able[b.End] })
+	for bi, on := range cyc {
+		if b := &m.Bonds[bi]; on && (!aromaticBond[bi] || !m.Atoms[b.Begin].Aromatic || !m.Atoms[b.End].Aromatic) {
+			return true
+		}
+	}
+	return false
 }
 
 // ringBonds returns which bonds lie on a ring (the ring field once

@@ -88,10 +88,12 @@ func Identify(m *notation.Molecule) Identity {
 	return id
 }
 
-// mirrorShortcut lets identifyGraph write the mirror image's key and the
-// constitution's serialisation from the structure's own run when it can
-// (canonState.mirrorLeaf and plain); the tests turn it off to compare.
-var mirrorShortcut = true
+// shortcuts lets the key take the cheaper ways that give the same
+// result: the mirror image's key and the constitution's serialisation
+// from the structure's own run (canonState.mirrorLeaf and plain), and
+// no smallest rings for aromaticity where no ring can change it
+// (kekuleRingPossible); the tests turn it off to compare.
+var shortcuts = true
 
 // identifyGraph computes an Identity from a key graph and a set of unit
 // configurations (the marks, their mirror image, or an enumerated
@@ -110,7 +112,7 @@ func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 	res := st.runFrom(base)
 	cs := newCanonState(g, units, false)
 	var con canonResult
-	if mirrorShortcut && st.plain() {
+	if shortcuts && st.plain() {
 		// the constitution's run breaks the same ties in the same order
 		con = cs.leaf(res.rank)
 	} else {
@@ -129,7 +131,7 @@ func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 		ms := newCanonState(g, mirrorUnits(units), true)
 		ms.mirrored = true
 		text, ok := "", false
-		if mirrorShortcut {
+		if shortcuts {
 			text, ok = st.mirrorLeaf(ms, res)
 		}
 		if !ok {

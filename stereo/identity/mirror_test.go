@@ -18,7 +18,8 @@ import (
 // parities that tell atoms apart (pseudoasymmetric centres, meso
 // forms), ring pairs, spiro centres, allenes and polyhedra.
 func TestMirrorShortcut(t *testing.T) {
-	texts := append(fixtureMolecules(t, 4000),
+	texts := append(fixtureMolecules(t, 4000), kekuleCases...)
+	texts = append(texts,
 		"C[C@H](O)[C@@H](C)O", "C[C@@H](O)[C@@H](C)O", "O[C@H]1CC[C@@H](O)CC1", "C[C@H]1CC[C@H](C)CC1",
 		"OC(=O)[C@H](O)[C@@H](O)C(O)=O", "C[C@H](Cl)[C@@H](O)[C@H](C)Cl", "C[C@H](Cl)C(O)[C@H](C)Cl",
 		"CC=[C@]=CC", "C[C@@]12CC[C@H](C1)C2", "C1C[C@]12CC[C@@H](C)C2", "F[Pt@SP1](Cl)(Br)I",
@@ -29,10 +30,13 @@ func TestMirrorShortcut(t *testing.T) {
 		if m.Errors.HasErrors() || m.Reaction || len(m.Atoms) == 0 {
 			continue
 		}
-		got := Identify(m)
-		mirrorShortcut = false
-		want := Identify(m)
-		mirrorShortcut = true
+		got, g := Identify(m), newKeyGraph(m)
+		shortcuts = false
+		want, wg := Identify(m), newKeyGraph(m)
+		shortcuts = true
+		if !reflect.DeepEqual(g.arom, wg.arom) || !reflect.DeepEqual(g.adj, wg.adj) {
+			t.Errorf("%s: aromatic atoms %v and edges %v with the shortcuts, %v and %v without", s, g.arom, g.adj, wg.arom, wg.adj)
+		}
 		if !reflect.DeepEqual(got, want) {
 			t.Errorf("%s: with the shortcuts %+v, without %+v", s, got, want)
 		}
@@ -51,6 +55,16 @@ func TestMirrorShortcut(t *testing.T) {
 		t.Errorf("the shortcut was taken for %d of %d structures: the test reaches only one side of it", shortcut, checked)
 	}
 	t.Logf("%d structures, shortcut taken for %d", checked, shortcut)
+}
+
+// kekuleCases are rings written in Kekulé form next to rings written
+// aromatic, for the aromaticity shortcut (kekuleRingPossible): pyridone,
+// cyanuric acid, furan, pyrrole, thiophene, a quinone, a fused pair that
+// passes only together (indolizine), charged and cumulated atoms.
+var kekuleCases = []string{
+	"O=C1C=CC=CN1", "O=C1NC(=O)NC(=O)N1", "C1=COC=C1", "C1=CNC=C1", "C1=CSC=C1", "O=C1C=CC(=O)C=C1",
+	"C1=CC2=CC=CN2C=C1", "c1ccccc1C1=CC=CC=C1", "C[N+]1=CC=CC=C1", "C1=C=CC=C1", "c1ccc2c(c1)C=CC=C2",
+	"O=c1cccc[nH]1", "C1=CC=CC=CC=C1", "OC1=CC=C(C=C1)C(=O)O", "C1CC=CC1", "C[Se]1C=CC=C1",
 }
 
 // TestCyclicBonds checks cyclicBonds against notation.FindRings's

@@ -34,6 +34,12 @@ type Instant struct {
 	at  time.Duration // processor time of the thread, or wall time since wallEpoch
 	cpu bool          // at is processor time
 	set bool
+	// wall is the wall time since wallEpoch read with a processor-time
+	// Instant, moved with it by after: a thread cannot use more processor
+	// time than the wall time that passes, so while the wall clock (read
+	// without a system call) is short of wall, the processor time is
+	// short of at and passed need not ask the system.
+	wall time.Duration
 }
 
 // wallEpoch is where wall-clock Instants count from.
@@ -42,16 +48,27 @@ var wallEpoch = time.Now()
 // now reads the clock the budget counts.
 func now() Instant {
 	if d, ok := threadCPU(); ok {
-		return Instant{at: d, cpu: true, set: true}
+		return Instant{at: d, cpu: true, set: true, wall: time.Since(wallEpoch)}
 	}
 	return Instant{at: time.Since(wallEpoch), set: true}
 }
 
 // after returns the Instant d later.
-func (t Instant) after(d time.Duration) Instant { t.at += d; return t }
+func (t Instant) after(d time.Duration) Instant { t.at += d; t.wall += d; return t }
 
-// passed reports whether the clock has passed t.
+// wallMargin is how far short of a processor-time Instant's wall time
+// the wall clock must be for passed to answer without reading the
+// thread's clock: it covers the moment between the two readings of now
+// and the grain of the two clocks.
+const wallMargin = time.Millisecond
+
+// passed reports whether the clock has passed t. A processor-time
+// Instant is read on the thread it was started on (StartBudget wires the
+// goroutine to it).
 func (t Instant) passed() bool {
+	if t.cpu && time.Since(wallEpoch)+wallMargin < t.wall {
+		return false
+	}
 	n := now()
 	if n.cpu != t.cpu {
 		// the thread's clock became unreadable: count the budget spent

@@ -41,11 +41,12 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	// less often costs less than the little memory it would return.
 	defer debug.SetGCPercent(debug.SetGCPercent(400))
 	var buf []byte
+	var d recordJSON
 	status := eachLine(fs.Args(), stdin, stderr, func(name string, n int, line string) {
 		if trimmed := strings.TrimSpace(line); trimmed == "" || strings.HasPrefix(trimmed, "#") {
 			return
 		}
-		d := describeRecord(notation.SplitRecord(line), reading)
+		describeRecordInto(&d, notation.SplitRecord(line), reading)
 		if !*asJSON {
 			writeTable(out, d)
 			return
@@ -182,10 +183,19 @@ func reactionToJSON(r *reaction.Result) reactionJSON {
 func spanJSON(s notation.Span) [2]int { return [2]int{s.Start, s.End} }
 
 func describeRecord(rec notation.Record, reading notation.Reading) recordJSON {
+	var d recordJSON
+	describeRecordInto(&d, rec, reading)
+	return d
+}
+
+// describeRecordInto is describeRecord writing into d, whose atom, bond,
+// diagnostic and unit slices it reuses: describe prints a record and
+// forgets it, so one recordJSON serves the whole list.
+func describeRecordInto(d *recordJSON, rec notation.Record, reading notation.Reading) {
 	m := notation.ReadWith(rec.Notation, reading)
-	d := recordJSON{Input: rec.Notation, Name: rec.Title,
-		Atoms: make([]atomJSON, 0, len(m.Atoms)), Bonds: make([]bondJSON, 0, len(m.Bonds))}
-	d.Diagnostics = []diagnosticJSON{}
+	*d = recordJSON{Input: rec.Notation, Name: rec.Title,
+		Atoms: reuse(d.Atoms, len(m.Atoms)), Bonds: reuse(d.Bonds, len(m.Bonds)),
+		recordTailJSON: recordTailJSON{Diagnostics: reuse(d.Diagnostics, 0), Stereo: reuse(d.Stereo, 0)}}
 	for i := range m.Atoms {
 		a := &m.Atoms[i]
 		aj := atomJSON{N: i + 1, Symbol: a.Symbol, Charge: a.Charge, Hydrogens: a.HydrogenCount(),
@@ -239,7 +249,6 @@ func describeRecord(rec notation.Record, reading notation.Reading) recordJSON {
 	for _, e := range diags {
 		d.Diagnostics = append(d.Diagnostics, diagnosticJSON{Code: string(e.Code), Severity: e.Severity.String(), Message: e.Msg, Span: spanJSON(e.Span)})
 	}
-	d.Stereo = []unitJSON{}
 	for i := range an.Units {
 		uj := unitToJSON(&an.Units[i])
 		if u := &an.Units[i]; u.GroupKind != 0 {
@@ -253,7 +262,15 @@ func describeRecord(rec notation.Record, reading notation.Reading) recordJSON {
 	}
 	d.Groups = groupsToJSON(m, an)
 	d.Configuration = an.Configuration()
-	return d
+}
+
+// reuse returns s emptied, with room for n elements, never nil (an empty
+// list is printed [], not null).
+func reuse[T any](s []T, n int) []T {
+	if s == nil || cap(s) < n {
+		return make([]T, 0, n)
+	}
+	return s[:0]
 }
 
 // groupsToJSON returns the stereo groups of the block with the

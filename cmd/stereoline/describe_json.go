@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/json"
+	"math"
 	"strconv"
 )
 
@@ -62,12 +63,156 @@ func appendRecordJSON(b []byte, d *recordJSON) ([]byte, error) {
 		}
 		b = append(b, ']')
 	}
-	tail, err := json.Marshal(d.recordTailJSON)
+	return appendTailJSON(b, &d.recordTailJSON)
+}
+
+// appendTailJSON appends the fields of t after a comma as json.Marshal
+// writes them: the formula, masses, diagnostics and units by hand, the
+// reaction and the stereo groups, which few records have, by
+// encoding/json.
+func appendTailJSON(b []byte, t *recordTailJSON) ([]byte, error) {
+	b = append(b, `,"formula":`...)
+	b = appendJSONString(b, t.Formula)
+	b = append(b, `,"averageMass":`...)
+	b, err := appendFloatJSON(b, t.Mass)
 	if err != nil {
 		return b, err
 	}
+	b = append(b, `,"monoisotopicMass":`...)
+	if b, err = appendFloatJSON(b, t.Mono); err != nil {
+		return b, err
+	}
+	b = append(b, `,"diagnostics":`...)
+	if t.Diagnostics == nil {
+		b = append(b, "null"...)
+	} else {
+		b = append(b, '[')
+		for i := range t.Diagnostics {
+			if i > 0 {
+				b = append(b, ',')
+			}
+			e := &t.Diagnostics[i]
+			b = append(b, `{"code":`...)
+			b = appendJSONString(b, e.Code)
+			b = append(b, `,"severity":`...)
+			b = appendJSONString(b, e.Severity)
+			b = append(b, `,"message":`...)
+			b = appendJSONString(b, e.Message)
+			b = append(b, `,"span":`...)
+			b = appendPairJSON(b, e.Span)
+			b = append(b, '}')
+		}
+		b = append(b, ']')
+	}
+	b = append(b, `,"stereo":`...)
+	if t.Stereo == nil {
+		b = append(b, "null"...)
+	} else {
+		b = append(b, '[')
+		for i := range t.Stereo {
+			if i > 0 {
+				b = append(b, ',')
+			}
+			b = appendUnitJSON(b, &t.Stereo[i])
+		}
+		b = append(b, ']')
+	}
+	if t.Reaction == nil && t.Groups == nil && t.Configuration == "" {
+		return append(b, '}'), nil
+	}
+	rest, err := json.Marshal(struct {
+		Reaction      *reactionJSON `json:"reaction,omitempty"`
+		Groups        []groupJSON   `json:"groups,omitempty"`
+		Configuration string        `json:"configuration,omitempty"`
+	}{t.Reaction, t.Groups, t.Configuration})
+	if err != nil {
+		return b, err
+	}
+	if len(rest) == 2 { // {}: every field empty
+		return append(b, '}'), nil
+	}
 	b = append(b, ',')
-	return append(b, tail[1:]...), nil
+	return append(b, rest[1:]...), nil
+}
+
+func appendUnitJSON(b []byte, u *unitJSON) []byte {
+	b = append(b, `{"kind":`...)
+	b = appendJSONString(b, u.Kind)
+	b = append(b, `,"atoms":`...)
+	b = appendIntsJSON(b, u.Atoms)
+	b = append(b, `,"specified":`...)
+	b = strconv.AppendBool(b, u.Specified)
+	if u.CIP != "" {
+		b = append(b, `,"cip":`...)
+		b = appendJSONString(b, u.CIP)
+	}
+	b = append(b, `,"ranked":`...)
+	if u.Ranked == nil {
+		b = append(b, "null"...)
+	} else {
+		b = append(b, '[')
+		for i := range u.Ranked {
+			if i > 0 {
+				b = append(b, ',')
+			}
+			l := &u.Ranked[i]
+			b = append(b, `{"rank":`...)
+			b = strconv.AppendInt(b, int64(l.Rank), 10)
+			b = append(b, `,"atom":`...)
+			if l.Atom == nil {
+				b = append(b, "null"...)
+			} else {
+				b = strconv.AppendInt(b, int64(*l.Atom), 10)
+			}
+			if l.Implicit != "" {
+				b = append(b, `,"implicit":`...)
+				b = appendJSONString(b, l.Implicit)
+			}
+			if l.On != 0 {
+				b = append(b, `,"on":`...)
+				b = strconv.AppendInt(b, int64(l.On), 10)
+			}
+			b = append(b, '}')
+		}
+		b = append(b, ']')
+	}
+	if g := u.Group; g != nil {
+		b = append(b, `,"group":{"kind":`...)
+		b = appendJSONString(b, g.Kind)
+		b = append(b, `,"number":`...)
+		b = strconv.AppendInt(b, int64(g.Number), 10)
+		if g.CIP != "" {
+			b = append(b, `,"cip":`...)
+			b = appendJSONString(b, g.CIP)
+		}
+		b = append(b, '}')
+	}
+	return append(b, '}')
+}
+
+func appendIntsJSON(b []byte, s []int) []byte {
+	if s == nil {
+		return append(b, "null"...)
+	}
+	b = append(b, '[')
+	for i, v := range s {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = strconv.AppendInt(b, int64(v), 10)
+	}
+	return append(b, ']')
+}
+
+// appendFloatJSON appends f as encoding/json writes a float64: the
+// shortest decimal form, in exponent form (which goes through
+// encoding/json) only below 1e-6 or from 1e21 on.
+func appendFloatJSON(b []byte, f float64) ([]byte, error) {
+	if a := math.Abs(f); a != 0 && (a < 1e-6 || a >= 1e21) || math.IsNaN(f) || math.IsInf(f, 0) {
+		v, err := json.Marshal(f)
+		return append(b, v...), err
+	}
+	return strconv.AppendFloat(b, f, 'f', -1, 64), nil
 }
 
 func appendAtomJSON(b []byte, a *atomJSON) []byte {

@@ -51,3 +51,18 @@ func TestDescribeJSONMatchesMarshal(t *testing.T) {
 		}
 	}
 }
+
+// TestFloatJSONMatchesMarshal checks the float writer of the record's
+// masses against encoding/json on both sides of its exponent bounds.
+func TestFloatJSONMatchesMarshal(t *testing.T) {
+	for _, f := range []float64{0, 1, -0.5, 12.0107, 180.1574, 1e-6, 9.99e-7, 1e-7, -3e-9, 1e20, 999999999999999999999, 1e21, 2.5e300} {
+		want, err := json.Marshal(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		got, err := appendFloatJSON(nil, f)
+		if err != nil || !bytes.Equal(got, want) {
+			t.Errorf("%g: got %s (%v), want %s", f, got, err, want)
+		}
+	}
+}

@@ -31,7 +31,12 @@ func Read(text string) *Molecule {
 	if end > notationEnd {
 		src = text[:notationEnd]
 	}
-	r := newReader(src, text)
+	return readWhole(newReader(src, text), text, notationEnd, end)
+}
+
+// readWhole reads the record text with r, a reader of its notation
+// (text[:notationEnd]), and returns the molecule.
+func readWhole(r *reader, text string, notationEnd, end int) *Molecule {
 	r.read()
 	finish(r.mol)
 	if end > notationEnd {
@@ -91,8 +96,46 @@ const quietKeep = 4096
 // state as newReader leaves it.
 func quietReader(text string) *reader {
 	r := quietReaders.Get().(*reader)
+	reuseReader(r, text, text, true)
+	return r
+}
+
+// A Rereader reads records one after another into the same storage: the
+// molecule its Read returns, and everything in it, is valid until the
+// next call, which overwrites it. It is for callers done with a record
+// before they read the next (describe prints a record and forgets it),
+// and spares them the allocation of every record's atoms, bonds and bond
+// lists. The zero Rereader is ready to use; it is not safe for
+// concurrent use.
+type Rereader struct{ r *reader }
+
+// ReadWith is the package's ReadWith into the Rereader's storage.
+func (rr *Rereader) ReadWith(text string, reading Reading) *Molecule {
+	notationEnd, end := RecordEnd(text)
+	src := text
+	if end > notationEnd {
+		src = text[:notationEnd]
+	}
+	r := rr.r
+	if r == nil || cap(r.mol.Atoms) > quietKeep {
+		// the first record, or storage grown past quietKeep atoms by a
+		// large one, which is not kept
+		r = newReader(src, text)
+		rr.r = r
+	} else {
+		reuseReader(r, src, text, false)
+	}
+	m := readWhole(r, text, notationEnd, end)
+	m.Reading = reading
+	return m
+}
+
+// reuseReader resets r, with its molecule's storage, to read src, the
+// notation of record text, as newReader leaves a reader (quiet for
+// Reads).
+func reuseReader(r *reader, src, text string, quiet bool) {
 	m := r.mol
-	atoms, rings := countTokens(text)
+	atoms, rings := countTokens(src)
 	as, bs := m.Atoms[:0], m.Bonds[:0]
 	if cap(as) < atoms {
 		as = make([]Atom, 0, atoms)
@@ -103,9 +146,8 @@ func quietReader(text string) *reader {
 	*m = Molecule{Text: text, Atoms: as, Bonds: bs, Errors: m.Errors[:0]}
 	rs := r.rings
 	clear(rs)
-	*r = reader{text: text, mol: m, prev: -1, rings: rs, stack: r.stack[:0], quiet: true,
+	*r = reader{text: src, mol: m, prev: -1, rings: rs, stack: r.stack[:0], quiet: quiet,
 		slots: r.slotsAll, slotsAll: r.slotsAll}
-	return r
 }
 
 // countTokens bounds the number of atoms (capital letters, aromatic
@@ -168,8 +210,9 @@ type reader struct {
 	afterBranch bool // a branch was just closed: ring digits may not follow
 
 	// quiet leaves the messages of errors unwritten (Reads, which only
-	// asks whether there is one); slotsAll is then the whole of the last
-	// slots array, which the next Reads starts again from.
+	// asks whether there is one). slotsAll is the whole of the last slots
+	// array, which the next record of a reused reader (Reads, Rereader)
+	// starts again from.
 	quiet    bool
 	slotsAll []int
 
@@ -198,9 +241,7 @@ const bondSlots = 4
 func (r *reader) bondList() []int {
 	if len(r.slots) < bondSlots {
 		r.slots = make([]int, bondSlots*max(16, cap(r.mol.Atoms)-len(r.mol.Atoms)))
-		if r.quiet {
-			r.slotsAll = r.slots
-		}
+		r.slotsAll = r.slots // where a reused reader starts again
 	}
 	s := r.slots[:0:bondSlots]
 	r.slots = r.slots[bondSlots:]

@@ -3,6 +3,7 @@ package notation
 import (
 	"os"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
 )
@@ -36,6 +37,45 @@ func TestReadsAgreesWithRead(t *testing.T) {
 		want := !m.Errors.HasErrors() && len(m.Atoms) > 0
 		if got := Reads(s); got != want {
 			t.Errorf("Reads(%.60q) = %v, Read says %v", s, got, want)
+		}
+	}
+}
+
+// TestRereaderAgreesWithRead reads the texts of TestReadsAgreesWithRead
+// and the RDKit reader fixture (testdata/rdkit/reader.tsv, RDKit
+// 2022.09.3) one after another with one Rereader, small records after
+// large ones and the other way round, and checks each molecule against
+// Read's of the same text: reused storage must leave nothing of the
+// record before. Errors compare by content (an empty list may be nil or
+// not).
+func TestRereaderAgreesWithRead(t *testing.T) {
+	texts := []string{
+		"C[C@H](O)CC |&1:1|", "C", "F[C@H](Cl)1.Br1", strings.Repeat("C(C)(C)(C)(C)", 70), "c1ccccc1",
+		"[CH3:1][C@H:2](Cl)Br>>[CH3:1][C@@H:2](Br)Cl", "C1CC", "F/C=C/C1CC[C@]2(CC1)OCC2 |&1:7|",
+		strings.Repeat("[", 400), "", "CN(=O)=O", strings.Repeat("c", 300), "C |$;$|", "c1cccc1",
+		strings.Repeat("C", 5000), "C=C",
+	}
+	path := filepath.Join("..", "testdata", "rdkit", "reader.tsv")
+	if data, err := os.ReadFile(path); err == nil {
+		for line := range strings.Lines(string(data)) {
+			if !strings.HasPrefix(line, "#") {
+				texts = append(texts, strings.Split(strings.TrimRight(line, "\n"), "\t")...)
+			}
+		}
+	} else {
+		t.Logf("fixture %s absent: %v; the texts above only", path, err)
+	}
+	var rr Rereader
+	for _, r := range []Reading{{}, {LonePair: LonePairHydrogenSlot}} {
+		for _, s := range texts {
+			want := ReadWith(s, r)
+			got := rr.ReadWith(s, r)
+			if len(got.Errors) == 0 && len(want.Errors) == 0 {
+				got.Errors, want.Errors = nil, nil
+			}
+			if !reflect.DeepEqual(got, want) {
+				t.Errorf("Rereader.ReadWith(%.60q) differs from ReadWith", s)
+			}
 		}
 	}
 }

@@ -42,11 +42,12 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	defer debug.SetGCPercent(debug.SetGCPercent(400))
 	var buf []byte
 	var d recordJSON
+	var rr notation.Rereader
 	status := eachLine(fs.Args(), stdin, stderr, func(name string, n int, line string) {
 		if trimmed := strings.TrimSpace(line); trimmed == "" || strings.HasPrefix(trimmed, "#") {
 			return
 		}
-		describeRecordInto(&d, notation.SplitRecord(line), reading)
+		describeRecordInto(&d, &rr, notation.SplitRecord(line), reading)
 		if !*asJSON {
 			writeTable(out, d)
 			return
@@ -184,15 +185,16 @@ func spanJSON(s notation.Span) [2]int { return [2]int{s.Start, s.End} }
 
 func describeRecord(rec notation.Record, reading notation.Reading) recordJSON {
 	var d recordJSON
-	describeRecordInto(&d, rec, reading)
+	describeRecordInto(&d, new(notation.Rereader), rec, reading)
 	return d
 }
 
 // describeRecordInto is describeRecord writing into d, whose atom, bond,
 // diagnostic and unit slices it reuses: describe prints a record and
-// forgets it, so one recordJSON serves the whole list.
-func describeRecordInto(d *recordJSON, rec notation.Record, reading notation.Reading) {
-	m := notation.ReadWith(rec.Notation, reading)
+// forgets it, so one recordJSON, and one reader's storage (rr), serve
+// the whole list.
+func describeRecordInto(d *recordJSON, rr *notation.Rereader, rec notation.Record, reading notation.Reading) {
+	m := rr.ReadWith(rec.Notation, reading)
 	*d = recordJSON{Input: rec.Notation, Name: rec.Title,
 		Atoms: reuse(d.Atoms, len(m.Atoms)), Bonds: reuse(d.Bonds, len(m.Bonds)),
 		recordTailJSON: recordTailJSON{Diagnostics: reuse(d.Diagnostics, 0), Stereo: reuse(d.Stereo, 0)}}

@@ -5,7 +5,6 @@ import (
 	"flag"
 	"fmt"
 	"io"
-	"runtime/debug"
 	"strings"
 	"text/tabwriter"
 
@@ -37,9 +36,11 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	out := bufio.NewWriterSize(stdout, outputBuffer)
 	defer out.Flush()
 	failed := false
-	// describe keeps nothing from one record to the next: a collection
-	// less often costs less than the little memory it would return.
-	defer debug.SetGCPercent(debug.SetGCPercent(400))
+	// The collector keeps its default pace: a record's storage is reused
+	// for the next (describeRecordInto), so little is collected, and a
+	// heap four times larger cost more in fresh pages than the rarer
+	// collections saved (a 6,000-record list timed as a whole process:
+	// processor time 0.87 of it at the default).
 	var buf []byte
 	var d recordJSON
 	var rr notation.Rereader

@@ -3,7 +3,11 @@
 
 package identity
 
-import "stereoline/notation"
+import (
+	"sync"
+
+	"stereoline/notation"
+)
 
 // Aromatic rings for the key. Benzene may be written c1ccccc1 or
 // C1=CC=CC=C1, and the reader keeps what was written; the key must not
@@ -220,7 +224,10 @@ func cyclicBondsWhere(m *notation.Molecule, keep func(*notation.Bond) bool) []bo
 	usable := func(b *notation.Bond) bool {
 		return b.Begin >= 0 && b.Begin < n && b.End >= 0 && b.End < n && b.Begin != b.End && (keep == nil || keep(b))
 	}
-	start := make([]int, n+1)
+	sc := cyclicScratches.Get().(*cyclicScratch)
+	defer sc.put()
+	start := grow(sc.start, n+1)
+	clear(start)
 	for i := range m.Bonds {
 		if b := &m.Bonds[i]; usable(b) {
 			start[b.Begin+1]++
@@ -230,25 +237,23 @@ func cyclicBondsWhere(m *notation.Molecule, keep func(*notation.Bond) bool) []bo
 	for a := 0; a < n; a++ {
 		start[a+1] += start[a]
 	}
-	type arc struct{ bond, to int }
-	arcs := make([]arc, start[n])
-	fill := make([]int, n)
+	arcs := grow(sc.arcs, start[n])
+	fill := grow(sc.fill, n)
 	copy(fill, start[:n])
 	for i := range m.Bonds {
 		if b := &m.Bonds[i]; usable(b) {
-			arcs[fill[b.Begin]] = arc{i, b.End}
+			arcs[fill[b.Begin]] = cyclicArc{i, b.End}
 			fill[b.Begin]++
-			arcs[fill[b.End]] = arc{i, b.Begin}
+			arcs[fill[b.End]] = cyclicArc{i, b.Begin}
 			fill[b.End]++
 		}
 	}
 	inRing := make([]bool, len(m.Bonds))
-	disc, low := fill, make([]int, n) // fill is spent: it holds the discovery times now
+	disc, low := fill, grow(sc.low, n) // fill is spent: it holds the discovery times now
 	for i := range disc {
 		disc[i] = -1
 	}
-	type frame struct{ atom, via, next int }
-	var stack []frame
+	stack := sc.stack[:0]
 	clock := 0
 	for root := 0; root < n; root++ {
 		if disc[root] >= 0 {
@@ -256,7 +261,7 @@ func cyclicBondsWhere(m *notation.Molecule, keep func(*notation.Bond) bool) []bo
 		}
 		disc[root], low[root] = clock, clock
 		clock++
-		stack = append(stack[:0], frame{root, -1, start[root]})
+		stack = append(stack[:0], cyclicFrame{root, -1, start[root]})
 		for len(stack) > 0 {
 			f := &stack[len(stack)-1]
 			if f.next < start[f.atom+1] {
@@ -268,7 +273,7 @@ func cyclicBondsWhere(m *notation.Molecule, keep func(*notation.Bond) bool) []bo
 				if disc[e.to] < 0 {
 					disc[e.to], low[e.to] = clock, clock
 					clock++
-					stack = append(stack, frame{e.to, e.bond, start[e.to]})
+					stack = append(stack, cyclicFrame{e.to, e.bond, start[e.to]})
 					continue
 				}
 				inRing[e.bond] = true // a bond back up the tree closes a ring
@@ -286,8 +291,33 @@ func cyclicBondsWhere(m *notation.Molecule, keep func(*notation.Bond) bool) []bo
 			}
 		}
 	}
+	sc.start, sc.arcs, sc.fill, sc.low, sc.stack = start, arcs, fill, low, stack
 	return inRing
 }
+
+// cyclicScratch is the working storage of cyclicBondsWhere, kept between
+// calls: the keys of every record of a list ask for the ring bonds.
+type cyclicScratch struct {
+	start, fill, low []int
+	arcs             []cyclicArc
+	stack            []cyclicFrame
+}
+
+type cyclicArc struct{ bond, to int }
+
+type cyclicFrame struct{ atom, via, next int }
+
+var cyclicScratches = sync.Pool{New: func() any { return new(cyclicScratch) }}
+
+// put gives sc back to the pool unless a large record grew it past
+// cyclicKeep atoms, which the pool does not keep.
+func (sc *cyclicScratch) put() {
+	if cap(sc.start) <= cyclicKeep && cap(sc.arcs) <= 4*cyclicKeep {
+		cyclicScratches.Put(sc)
+	}
+}
+
+const cyclicKeep = 4096
 
 // kekuleRingPossible reports whether the Hückel tests of aromaticity
 // could change anything: whether some ring holds only atoms that can

@@ -5,6 +5,7 @@ package identity
 import (
 	"encoding/binary"
 	"slices"
+	"sync"
 
 	"stereoline/stereo"
 	"stereoline/stereo/internal/ringgeom"
@@ -374,15 +375,37 @@ type refineScratch struct {
 // scratch returns the graph's ranking scratch space.
 func (g *keyGraph) scratch() *refineScratch {
 	if g.sc == nil {
-		sc := &refineScratch{off: make([]int, g.n+1)}
+		sc := refineScratches.Get().(*refineScratch)
+		sc.off = grow(sc.off, g.n+1)
+		sc.off[0] = 0
 		for a := 0; a < g.n; a++ {
 			sc.off[a+1] = sc.off[a] + len(g.adj[a])
 		}
-		sc.codes = make([]int, sc.off[g.n])
+		sc.codes = grow(sc.codes, sc.off[g.n])
 		g.sc = sc
 	}
 	return g.sc
 }
+
+// refineScratches keeps ranking scratch space between key graphs: a
+// caller done with a graph and all it computed gives it back
+// (releaseScratch). Every user of the space sizes it for its graph
+// before use (grow), as the canonical states of one graph already do.
+var refineScratches = sync.Pool{New: func() any { return new(refineScratch) }}
+
+// releaseScratch gives the graph's ranking scratch space back to the
+// pool, unless a large graph grew it past refineKeep atoms. The graph
+// must not be used after: the canonical results hold no scratch space
+// (their ranks are fresh copies, their texts strings).
+func (g *keyGraph) releaseScratch() {
+	sc := g.sc
+	g.sc = nil
+	if sc != nil && cap(sc.off) <= refineKeep+1 && cap(sc.codes) <= 8*refineKeep {
+		refineScratches.Put(sc)
+	}
+}
+
+const refineKeep = 4096
 
 // byRank returns the atoms sorted by rank (in atom order within a rank),
 // in the scratch space.

@@ -85,6 +85,7 @@ func Identify(m *notation.Molecule) Identity {
 	if groups, and := keyGroups(m, g.units); len(groups) > 0 {
 		id = identifyGroups(g, groups, and, id)
 	}
+	g.releaseScratch()
 	return id
 }
 

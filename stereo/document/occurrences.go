@@ -29,9 +29,9 @@ func (a *Analyzer) AnalyzeOccurrences(name string, kind find.Kind, content []byt
 	res.Records = make([]Record, len(occs))
 	res.own = make([][]Diagnostic, len(occs))
 	parallel(len(occs), func(i int) {
-		an := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
-		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
-		res.own[i] = res.recordFindings(i)
+		an, f := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
+		res.Records[i] = Record{Occ: &occs[i], an: an}
+		res.own[i] = res.recordFindings(i, f)
 	})
 	for _, own := range res.own {
 		res.Diagnostics = append(res.Diagnostics, own...)

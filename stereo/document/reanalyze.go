@@ -66,9 +66,9 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	copy(next.own, prev.own[:i0])
 	parallel(len(occs), func(k int) {
 		i := i0 + k
-		an := a.cache.get(occs[k].Text, cfg.Reading.notation(), cfg.Limits.limits())
-		next.Records[i] = Record{Occ: &occs[k], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
-		next.own[i] = next.recordFindings(i)
+		an, f := a.cache.get(occs[k].Text, cfg.Reading.notation(), cfg.Limits.limits())
+		next.Records[i] = Record{Occ: &occs[k], an: an}
+		next.own[i] = next.recordFindings(i, f)
 	})
 	moved := prev.Records[i1:]
 	var shifted []find.Occurrence
@@ -226,10 +226,7 @@ func (r *Result) relateAgain(prev *Result, i0, i1, dn, delta int, linesMoved boo
 			r.Records[members[0]].Identity = nil
 			continue
 		}
-		for _, i := range members {
-			r.Records[i].Identity = r.Records[i].an.identify()
-		}
-		r.relateMembers(members)
+		r.relateGroup(members)
 	}
 }
 

@@ -374,7 +374,7 @@ func (w *worker) await(ctx context.Context, uri string, a *analysis) bool {
 func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 	s := w.s
 	version := f.Version
-	params, err := diagnosticsJSON(f, res, &version)
+	params, err := diagnosticsParts(f, res, &version)
 	if err != nil {
 		s.log.Error("internal error", zap.String("uri", f.URI), zap.Error(fmt.Errorf("diagnostics: %w", err)))
 		return false
@@ -387,7 +387,7 @@ func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 	w.mu.Lock()
 	w.sent[f.URI] = true
 	w.mu.Unlock()
-	s.notifyJSON("textDocument/publishDiagnostics", params)
+	s.notifyJSONParts("textDocument/publishDiagnostics", params)
 	return true
 }
 

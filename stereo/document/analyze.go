@@ -59,7 +59,7 @@ type Result struct {
 	// relation of each record of a list to an earlier one (set by
 	// Relate). Reanalyze reuses both for the records an edit left alone.
 	own [][]Diagnostic
-	rel []relation
+	rel []*relation
 }
 
 // Record is one notation occurrence with its analysis. A record keeps

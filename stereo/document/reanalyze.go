@@ -61,7 +61,7 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	next := &Result{Name: name, Content: content, Kind: prev.Kind, cfg: &cfg, related: true}
 	next.Records = make([]Record, n)
 	next.own = make([][]Diagnostic, n)
-	next.rel = make([]relation, n)
+	next.rel = make([]*relation, n)
 	copy(next.Records, prev.Records[:i0])
 	copy(next.own, prev.own[:i0])
 	parallel(len(occs), func(k int) {
@@ -199,16 +199,19 @@ func (r *Result) relateAgain(prev *Result, i0, i1, dn, delta int, linesMoved boo
 		if i >= i1+dn {
 			old = i - dn
 		}
-		rel := prev.rel[old]
-		if !rel.on {
+		if prev.rel[old] == nil {
 			continue
 		}
-		if rel.earlier >= i1 {
-			rel.earlier += dn
-		}
+		rel := prev.rel[old]
 		moved := i >= i1+dn
-		earlierMoved := rel.earlier >= i1+dn
+		earlierMoved := rel.earlier >= i1
 		if moved || earlierMoved {
+			// A relation is shared between versions: a moved one is a copy.
+			c := *rel
+			rel = &c
+			if rel.earlier >= i1 {
+				rel.earlier += dn
+			}
 			d := moveDiagnostic(rel.d, 0, i)
 			if moved && delta != 0 {
 				d.Span = shift(d.Span, delta)
@@ -243,13 +246,13 @@ func (r *Result) assemble() {
 	n := 0
 	for i := range r.own {
 		n += len(r.own[i])
-		if r.rel[i].on {
+		if r.rel[i] != nil {
 			n++
 		}
 	}
 	out := make([]Diagnostic, 0, n)
 	for i, own := range r.own {
-		if !r.rel[i].on {
+		if r.rel[i] == nil {
 			out = append(out, own...)
 			continue
 		}

@@ -72,14 +72,14 @@ func (r *Result) relateRecords() {
 	if !relatedKinds[r.Kind] {
 		return
 	}
-	r.rel = make([]relation, len(r.Records))
+	r.rel = make([]*relation, len(r.Records))
 	groups := r.collidingGroups()
 	if r.lines == nil {
 		r.lines = lineStarts(r.Content) // before the groups are related in parallel
 	}
 	parallel(len(groups), func(g int) { r.relateGroup(groups[g]) })
 	for i := range r.rel {
-		if r.rel[i].on {
+		if r.rel[i] != nil {
 			r.Diagnostics = append(r.Diagnostics, r.rel[i].d)
 		}
 	}
@@ -127,9 +127,9 @@ func (r *Result) relateGroup(members []int) {
 }
 
 // relation is the finding that relates a record to an earlier one,
-// kept so that an edit elsewhere re-uses it (Reanalyze).
+// kept so that an edit elsewhere re-uses it (Reanalyze). It is not
+// changed once made: versions of a list share it.
 type relation struct {
-	on      bool
 	earlier int    // the record it is related to
 	tmpl    string // the message with named where the earlier record is named
 	d       Diagnostic
@@ -155,7 +155,7 @@ func (r *Result) relateMembers(members []int, mols []*notation.Molecule) {
 	for k, i := range members {
 		rec := &r.Records[i]
 		m := idx.Add(*rec.Identity)
-		r.rel[i] = relation{}
+		r.rel[i] = nil
 		if m.Earlier < 0 {
 			continue
 		}
@@ -172,7 +172,7 @@ func (r *Result) relateMembers(members []int, mols []*notation.Molecule) {
 		}
 		tmpl := d.Message
 		d.Message = strings.ReplaceAll(tmpl, named, r.describeRecord(j))
-		r.rel[i] = relation{on: true, earlier: j, tmpl: tmpl, d: d}
+		r.rel[i] = &relation{earlier: j, tmpl: tmpl, d: d}
 	}
 }
 

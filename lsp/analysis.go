@@ -388,6 +388,7 @@ func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 	w.sent[f.URI] = true
 	w.mu.Unlock()
 	s.notifyJSONParts("textDocument/publishDiagnostics", params)
+	releaseParts(params) // written
 	return true
 }
 

@@ -28,7 +28,33 @@ func diagnosticsJSON(f *fileVersion, res *document.Result, version *int32) (json
 	if err != nil {
 		return nil, err
 	}
+	defer releaseParts(parts)
 	return bytes.Join(parts, nil), nil
+}
+
+// partBuffers keeps the buffers of the parts of publications for the
+// next: a large list is published again on every edit, and buffers of
+// megabytes allocated afresh each time are garbage the collector must
+// clear and the runtime must fault in again.
+var partBuffers sync.Pool
+
+// partBuffer returns an empty buffer for a part, reused when one is kept.
+func partBuffer(size int) []byte {
+	if p, ok := partBuffers.Get().(*[]byte); ok && cap(*p) >= size/2 {
+		return (*p)[:0]
+	}
+	return make([]byte, 0, size)
+}
+
+// releaseParts gives the buffers of written parts back for reuse; the
+// parts must not be used after.
+func releaseParts(parts [][]byte) {
+	for _, p := range parts[1 : len(parts)-1] {
+		if cap(p) >= 64<<10 {
+			p := p[:0]
+			partBuffers.Put(&p)
+		}
+	}
 }
 
 // publishChunk is how many findings one part of the JSON holds; the parts
@@ -65,7 +91,7 @@ func diagnosticsParts(f *fileVersion, res *document.Result, version *int32) ([][
 					return
 				}
 				from, to := k*publishChunk, min((k+1)*publishChunk, len(ds))
-				b := make([]byte, 0, (to-from)*400)
+				b := partBuffer((to - from) * 400)
 				c := cursor{m: f.mapper}
 				for i := from; i < to; i++ {
 					if i > 0 {

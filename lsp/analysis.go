@@ -181,8 +181,8 @@ type worker struct {
 	// last published (documents with many findings only), so an edit
 	// does not write again what it did not change.
 	json map[string]*jsonCache
-	wake     chan struct{}
-	pub      sync.Mutex // orders the check that a version is current with its publication
+	wake chan struct{}
+	pub  sync.Mutex // orders the check that a version is current with its publication
 }
 
 func newWorker(s *Server) *worker {

@@ -167,7 +167,7 @@ func appendDiagnostic(b []byte, m *cursor, uri []byte, d *document.Diagnostic, f
 			b = append(b, uri...)
 			b = append(b, `,"range":`...)
 			if fw != nil && !fw.inside(rel.Span) {
-				fw.holes = append(fw.holes, hole{at: len(b), rng: true, diag: fw.diag, rel: k})
+				b = fw.rangeHole(b, k)
 			} else {
 				r, err := m.spanToRange(rel.Span)
 				if err != nil {
@@ -198,7 +198,7 @@ func (fw *fragWriter) appendRange(b []byte, r protocol.Range) []byte {
 
 func (fw *fragWriter) appendPosition(b []byte, p protocol.Position) []byte {
 	b = append(b, `{"line":`...)
-	fw.holes = append(fw.holes, hole{at: len(b), line: int(p.Line) - fw.base})
+	b = fw.lineHole(b, int(p.Line))
 	b = append(b, `,"character":`...)
 	b = strconv.AppendUint(b, uint64(p.Character), 10)
 	return append(b, '}')

@@ -154,6 +154,15 @@ func TestAppendString(t *testing.T) {
 // written afresh, and that the cache reused most records' JSON. The
 // records are invented for the test.
 func TestCachedPublicationsAlike(t *testing.T) {
+	t.Run("holes", func(t *testing.T) { testCachedPublications(t) })
+	// with holes of one value, records with several findings are
+	// written without the cache, beside those written through it
+	defer func(max int) { holeMax = max }(holeMax)
+	holeMax = 0
+	t.Run("few holes", func(t *testing.T) { testCachedPublications(t) })
+}
+
+func testCachedPublications(t *testing.T) {
 	rng := rand.New(rand.NewSource(11))
 	templates := []string{"N[C@@H](C)C(=O)O", "N[C@H](C)C(=O)O", "C[C@H](F)Cl", "C[C@@H](F)Cl", "C1CC(", "F/C=C/F", "C[C@H]1CC[C@@H](C)CC1", "OC[C@H]1OC(O)[C@H](O)[C@@H](O)[C@@H]1O"}
 	breaks := []string{"\n", "\r\n", "\n"}

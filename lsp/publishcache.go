@@ -9,6 +9,7 @@ package lsp
 // again only for the records whose text or findings changed.
 
 import (
+	"bytes"
 	"strconv"
 
 	"stereoline/notation"
@@ -26,41 +27,71 @@ type jsonCache struct {
 }
 
 // fragment is the JSON of the findings of one record (a run of
-// consecutive findings with the same Record), with holes.
+// consecutive findings with the same Record), with holes: a zero byte
+// (which JSON as written here never holds: control characters are
+// escaped) followed by 'L' and the line relative to the record's first
+// line, or by 'R' and the finding and related place whose range goes
+// there (a related place outside the record).
 type fragment struct {
 	key string
-	// diags are the findings it was written for, their spans relative
-	// to the start of the record's first line; related places outside
-	// the record have the span outside.
-	diags []document.Diagnostic
+	// finds are the findings it was written for, their spans relative
+	// to the start of the record's first line.
+	finds []finding
 	json  []byte
-	holes []hole
 }
 
-// outside marks a related place outside the record in fragment.diags.
-var outside = notation.Span{Start: -1, End: -1}
-
-// hole is a place in a fragment's JSON where a number or range goes: the
-// record's first line plus line, or, for a range hole, the range of
-// related place rel of finding diag of the run.
-type hole struct {
-	at        int
-	line      int
-	rng       bool
-	diag, rel int
+// finding is what the JSON of a finding depends on but its line
+// numbers, compactly.
+type finding struct {
+	code        notation.Code
+	message     string
+	start, end  int
+	severity    notation.Severity
+	unnecessary bool
+	related     []relatedPlace
 }
+
+// relatedPlace is a related place relative to the record's first line,
+// start -1 for a place outside the record.
+type relatedPlace struct {
+	message    string
+	start, end int
+}
+
+// holeMax is the largest number a hole holds in its byte (a variable
+// for the tests).
+var holeMax = 250
 
 // fragWriter records the holes while a fragment is written.
 type fragWriter struct {
-	base  int           // the record's first line
-	rec   notation.Span // the record's host span
-	diag  int           // the finding being written, in the run
-	holes []hole
+	base int           // the record's first line
+	rec  notation.Span // the record's host span
+	diag int           // the finding being written, in the run
+	// tooFar is set when a number does not fit a hole's byte: the run
+	// is then written without the cache.
+	tooFar bool
 }
 
 // inside reports whether a related place lies in the record.
 func (fw *fragWriter) inside(s notation.Span) bool {
 	return s.Start >= fw.rec.Start && s.End <= fw.rec.End
+}
+
+// rangeHole writes the hole of the range of related place rel.
+func (fw *fragWriter) rangeHole(b []byte, rel int) []byte {
+	if fw.diag > holeMax || rel > holeMax {
+		fw.tooFar = true
+	}
+	return append(b, 0, 'R', byte(fw.diag), byte(rel))
+}
+
+// lineHole writes the hole of a line number.
+func (fw *fragWriter) lineHole(b []byte, line int) []byte {
+	d := line - fw.base
+	if d < 0 || d > holeMax {
+		fw.tooFar = true
+	}
+	return append(b, 0, 'L', byte(d))
 }
 
 // cacheUse is what one part of a publication did with the cache: the
@@ -172,7 +203,20 @@ func (c *jsonCache) appendRuns(b []byte, m *Mapper, res *document.Result, uri []
 					return b, err
 				}
 			}
-			fr = &fragment{key: string(key), diags: relative(run, start, rec), json: js, holes: fw.holes}
+			if fw.tooFar {
+				// a record of many lines or findings: written as it is
+				for k := range run {
+					if k > 0 {
+						b = append(b, ',')
+					}
+					if b, err = appendDiagnostic(b, &sub, uri, &run[k], nil); err != nil {
+						return b, err
+					}
+				}
+				i = j
+				continue
+			}
+			fr = &fragment{key: string(key), finds: relative(run, start, rec), json: js}
 			use.made = append(use.made, fr)
 		} else {
 			use.used = append(use.used, fr)
@@ -185,24 +229,24 @@ func (c *jsonCache) appendRuns(b []byte, m *Mapper, res *document.Result, uri []
 	return b, nil
 }
 
-// relative returns a run's findings with their spans relative to start,
-// related places outside the record marked outside.
-func relative(run []document.Diagnostic, start int, rec notation.Span) []document.Diagnostic {
-	out := make([]document.Diagnostic, len(run))
-	for k, d := range run {
-		d.Span = notation.Span{Start: d.Span.Start - start, End: d.Span.End - start}
+// relative returns what the JSON of a run's findings depends on, spans
+// relative to start.
+func relative(run []document.Diagnostic, start int, rec notation.Span) []finding {
+	out := make([]finding, len(run))
+	for k := range run {
+		d := &run[k]
+		f := finding{code: d.Code, message: d.Message, start: d.Span.Start - start, end: d.Span.End - start,
+			severity: d.Severity, unnecessary: d.Unnecessary}
 		if len(d.Related) > 0 {
-			rel := make([]document.Related, len(d.Related))
+			f.related = make([]relatedPlace, len(d.Related))
 			for r, x := range d.Related {
-				rel[r] = document.Related{Span: outside, Message: x.Message}
+				f.related[r] = relatedPlace{message: x.Message, start: -1, end: -1}
 				if x.Span.Start >= rec.Start && x.Span.End <= rec.End {
-					rel[r].Span = notation.Span{Start: x.Span.Start - start, End: x.Span.End - start}
+					f.related[r].start, f.related[r].end = x.Span.Start-start, x.Span.End-start
 				}
 			}
-			d.Related = rel
 		}
-		d.Fixes, d.Record = nil, 0
-		out[k] = d
+		out[k] = f
 	}
 	return out
 }
@@ -210,26 +254,26 @@ func relative(run []document.Diagnostic, start int, rec notation.Span) []documen
 // matches reports whether the fragment was written for these findings
 // (spans relative to start) of a record at rec.
 func (fr *fragment) matches(run []document.Diagnostic, start int, rec notation.Span) bool {
-	if len(run) != len(fr.diags) {
+	if len(run) != len(fr.finds) {
 		return false
 	}
 	for k := range run {
-		d, s := &run[k], &fr.diags[k]
-		if d.Code != s.Code || d.Severity != s.Severity || d.Unnecessary != s.Unnecessary ||
-			d.Span.Start-start != s.Span.Start || d.Span.End-start != s.Span.End ||
-			d.Message != s.Message || len(d.Related) != len(s.Related) {
+		d, f := &run[k], &fr.finds[k]
+		if d.Code != f.code || d.Severity != f.severity || d.Unnecessary != f.unnecessary ||
+			d.Span.Start-start != f.start || d.Span.End-start != f.end ||
+			d.Message != f.message || len(d.Related) != len(f.related) {
 			return false
 		}
 		for r := range d.Related {
-			x, y := &d.Related[r], &s.Related[r]
-			if x.Message != y.Message {
+			x, y := &d.Related[r], &f.related[r]
+			if x.Message != y.message {
 				return false
 			}
 			if x.Span.Start >= rec.Start && x.Span.End <= rec.End {
-				if x.Span.Start-start != y.Span.Start || x.Span.End-start != y.Span.End {
+				if x.Span.Start-start != y.start || x.Span.End-start != y.end {
 					return false
 				}
-			} else if y.Span != outside {
+			} else if y.start != -1 {
 				return false
 			}
 		}
@@ -241,19 +285,23 @@ func (fr *fragment) matches(run []document.Diagnostic, start int, rec notation.S
 // holes filled: line numbers, and the ranges of the related places
 // outside the record.
 func (fr *fragment) write(b []byte, line int, run []document.Diagnostic, m *Mapper) ([]byte, error) {
-	prev := 0
-	for _, h := range fr.holes {
-		b = append(b, fr.json[prev:h.at]...)
-		prev = h.at
-		if !h.rng {
-			b = strconv.AppendInt(b, int64(line+h.line), 10)
+	js := fr.json
+	for {
+		k := bytes.IndexByte(js, 0)
+		if k < 0 {
+			return append(b, js...), nil
+		}
+		b = append(b, js[:k]...)
+		if js[k+1] == 'L' {
+			b = strconv.AppendInt(b, int64(line+int(js[k+2])), 10)
+			js = js[k+3:]
 			continue
 		}
-		r, err := m.SpanToRange(run[h.diag].Related[h.rel].Span)
+		r, err := m.SpanToRange(run[js[k+2]].Related[js[k+3]].Span)
 		if err != nil {
 			return b, err
 		}
 		b = appendRange(b, r)
+		js = js[k+4:]
 	}
-	return append(b, fr.json[prev:]...), nil
 }

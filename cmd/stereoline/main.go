@@ -52,7 +52,7 @@ func main() {
 const scanMemoryLimit = 320 << 20
 
 // serveMemoryLimit is the soft memory limit of the language server.
-const serveMemoryLimit = 400 << 20
+const serveMemoryLimit = 450 << 20
 
 // run is main without the process: it returns the exit status, so tests
 // can drive every command in-process.

@@ -60,6 +60,9 @@ type Result struct {
 	// Relate). Reanalyze reuses both for the records an edit left alone.
 	own [][]Diagnostic
 	rel []*relation
+	// occArrays counts the arrays the records' occurrences lie in
+	// (Reanalyze).
+	occArrays int
 }
 
 // Record is one notation occurrence with its analysis. A record keeps

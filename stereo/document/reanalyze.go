@@ -86,9 +86,33 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 		next.Records[i] = rec
 		next.own[i] = moveDiagnostics(prev.own[i1+k], delta, i)
 	}
+	next.occArrays = prev.occArrays + 1
+	if delta != 0 {
+		next.occArrays++
+	}
+	if next.occArrays > maxOccArrays {
+		next.compactOccurrences()
+	}
 	next.relateAgain(prev, i0, i1, dn, delta, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
 	next.assemble()
 	return next
+}
+
+// maxOccArrays bounds the arrays of occurrences the records of a list
+// point into after edits. Each edit moves the records after it into an
+// array of its own while the records before it keep pointing into older
+// arrays, which stay whole in memory; past the bound the occurrences are
+// copied into one array again.
+const maxOccArrays = 3
+
+// compactOccurrences copies the occurrences of r's records into one array.
+func (r *Result) compactOccurrences() {
+	occs := make([]find.Occurrence, len(r.Records))
+	for i := range r.Records {
+		occs[i] = *r.Records[i].Occ
+		r.Records[i].Occ = &occs[i]
+	}
+	r.occArrays = 1
 }
 
 // changedLines returns the lines where two versions of a text differ:

@@ -19,6 +19,9 @@ func FuzzRead(f *testing.F) {
 	f.Fuzz(func(t *testing.T, s string) {
 		m := Read(s)
 		checkMolecule(t, s, m)
+		if !m.Errors.HasErrors() && CountAtoms(s) != len(m.Atoms) {
+			t.Fatalf("%q: CountAtoms says %d atoms, Read finds %d", s, CountAtoms(s), len(m.Atoms))
+		}
 	})
 }
 

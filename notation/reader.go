@@ -65,6 +65,33 @@ func countTokens(text string) (atoms, rings int) {
 	return atoms + 1, rings/2 + 1
 }
 
+// CountAtoms counts the atoms of a record's notation without reading
+// it: the bracket atoms, the organic-subset atoms and '*' outside
+// brackets, up to the extension block. It is exact for a record that
+// reads without error and cheap on any text, so a caller can refuse to
+// read a record too large to analyse in its time (stereo/document's
+// recordAtoms limit).
+func CountAtoms(text string) int {
+	notationEnd, end := RecordEnd(text)
+	if end > notationEnd {
+		text = text[:notationEnd]
+	}
+	n := 0
+	for i := 0; i < len(text); i++ {
+		c := text[i]
+		switch {
+		case c == '[':
+			n++
+			for i+1 < len(text) && text[i+1] != ']' {
+				i++
+			}
+		case isOrganicStart(c):
+			n++
+		}
+	}
+	return n
+}
+
 // reader is the state of one Read.
 type reader struct {
 	text string

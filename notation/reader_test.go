@@ -401,3 +401,33 @@ func TestKekulizeMessagePlace(t *testing.T) {
 		}
 	}
 }
+
+// BenchmarkReadLongChain reads the million-atom chain of the hostile
+// records: the reader's cost per atom, allocation included.
+func BenchmarkReadLongChain(b *testing.B) {
+	text := strings.Repeat("C", 1_000_000)
+	b.ReportAllocs()
+	for b.Loop() {
+		Read(text)
+	}
+}
+
+// TestCountAtoms compares CountAtoms with the atoms Read finds, on the
+// records of the OpenSMILES examples this file reads and on a few with
+// brackets, two-letter symbols, reactions and an extension block.
+func TestCountAtoms(t *testing.T) {
+	for _, text := range []string{
+		"C", "CCl", "BrC(Br)Br", "[nH]1cccc1", "c1ccccc1[N+](=O)[O-]",
+		"[2H][C@@H]([13CH3])Cl", "CC(=O)O>>CC(=O)[O-].[Na+]", "*C*",
+		"C[C@H](O)CC |&1:1|", "F/C=C/[Se]C", "[C@H](F)[C@H](F)",
+		strings.Repeat("C", 1000), strings.Repeat("[C@H](F)", 300),
+	} {
+		m := Read(text)
+		if m.Errors.HasErrors() {
+			t.Fatalf("%q: the test records must read without error: %v", text, m.Errors)
+		}
+		if got := CountAtoms(text); got != len(m.Atoms) {
+			t.Errorf("CountAtoms(%q) = %d, Read finds %d atoms", text, got, len(m.Atoms))
+		}
+	}
+}

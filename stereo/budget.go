@@ -14,8 +14,10 @@ import (
 // record by record, and a record that takes longer is reported, not
 // waited for. Analyze itself sets no budget unless asked (Options.Budget):
 // its callers below the engine (tests, rewrites checked by labelling)
-// want the labels whatever they cost, bounded by the node cap alone.
-const DefaultBudget = time.Second
+// want the labels whatever they cost, bounded by the node cap alone. It
+// is a little under a second so that a record, with its reading, its
+// identity keys and the report around it, is answered within a second.
+const DefaultBudget = 800 * time.Millisecond
 
 // DefaultNodeCap is the node cap of every digraph when the caller sets
 // none.

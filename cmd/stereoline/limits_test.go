@@ -34,6 +34,17 @@ func TestCheckLimits(t *testing.T) {
 	if n := count(out, "stereo-undetermined"); n == 0 || n > 30 || !strings.Contains(out, "within 20 digraph nodes") {
 		t.Errorf("--digraph-nodes 20: %d undetermined: %s", n, out)
 	}
+	// 30 centres and 30 fluorines: a limit of 59 atoms refuses the
+	// record, 60 reads it
+	out, _, _ = runCheck(t, "", "--record-atoms", "59", file)
+	if count(out, "stereo-over-budget") != 1 || count(out, "stereo-impossible-center") != 0 ||
+		!strings.Contains(out, "chain.smi:1:1: warning: the record has 60 atoms, more than the 59 one record may have") {
+		t.Errorf("--record-atoms 59: %s", out)
+	}
+	out, _, _ = runCheck(t, "", "--record-atoms", "60", file)
+	if count(out, "stereo-over-budget") != 0 || count(out, "stereo-impossible-center") == 0 {
+		t.Errorf("--record-atoms 60: %s", out)
+	}
 	// the same through the configuration file; the option wins over it
 	cfg := filepath.Join(dir, ".stereoline.json")
 	if err := os.WriteFile(cfg, []byte(`{"limits": {"recordTime": "1ns"}}`), 0o644); err != nil {
@@ -47,7 +58,7 @@ func TestCheckLimits(t *testing.T) {
 	if count(out, "stereo-over-budget") != 0 {
 		t.Errorf("--record-time off over the file's 1ns: %s", out)
 	}
-	for _, bad := range []string{`{"limits": {"recordTime": "soon"}}`, `{"limits": {"recordTime": "-1s"}}`, `{"limits": {"digraphNodes": -3}}`, `{"limits": {"digraphNodes": 99999999}}`} {
+	for _, bad := range []string{`{"limits": {"recordTime": "soon"}}`, `{"limits": {"recordTime": "-1s"}}`, `{"limits": {"digraphNodes": -3}}`, `{"limits": {"digraphNodes": 99999999}}`, `{"limits": {"recordAtoms": -5}}`} {
 		if err := os.WriteFile(cfg, []byte(bad), 0o644); err != nil {
 			t.Fatal(err)
 		}
@@ -55,7 +66,7 @@ func TestCheckLimits(t *testing.T) {
 			t.Errorf("%s: status %d, stderr %q", bad, status, stderr)
 		}
 	}
-	for _, args := range [][]string{{"--record-time", "0s"}, {"--record-time", "fast"}, {"--digraph-nodes", "-1"}, {"--digraph-nodes", "2000000"}} {
+	for _, args := range [][]string{{"--record-time", "0s"}, {"--record-time", "fast"}, {"--digraph-nodes", "-1"}, {"--digraph-nodes", "2000000"}, {"--record-atoms", "-2"}, {"--record-atoms", "200000000"}} {
 		if _, stderr, status := runCheck(t, "", append(args, file)...); status != 2 || !strings.Contains(stderr, args[0]) {
 			t.Errorf("%v: status %d, stderr %q", args, status, stderr)
 		}

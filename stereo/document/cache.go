@@ -100,8 +100,11 @@ func analyse(text string, r notation.Reading, lim limits) *analysis {
 
 // compute reads and labels the analysis's text.
 func (a *analysis) compute() *fullAnalysis {
-	start := time.Now()
 	lim := a.key.limits
+	if n := notation.CountAtoms(a.key.text); n > lim.atoms {
+		return oversized(a.key.text, n, lim.atoms)
+	}
+	start := time.Now()
 	m := notation.ReadWith(a.key.text, a.key.reading)
 	opt := stereo.Options{NodeCap: lim.nodeCap, Budget: lim.budget, Start: start}
 	f := &fullAnalysis{mol: m, stereo: stereo.AnalyzeWith(m, opt)}
@@ -109,6 +112,20 @@ func (a *analysis) compute() *fullAnalysis {
 		f.reaction = reaction.AnalyzeWith(m, f.stereo)
 	}
 	return f
+}
+
+// oversized is the analysis of a record with more atoms than the
+// recordAtoms limit: it is not read, and its one finding says why. The
+// molecule holds the text only, so requests on the record (hover, a
+// drawing) find no atoms and say nothing about them. Its finding is a
+// budget finding, so the analysis is pinned (never dropped).
+func oversized(text string, atoms, limit int) *fullAnalysis {
+	end := min(len(text), 1)
+	st := &stereo.Analysis{}
+	e := st.Diagnostics.Add(notation.Span{Start: 0, End: end}, stereo.CodeBudget,
+		"the record has %d atoms, more than the %d one record may have (limits.recordAtoms): it was not read or analysed", atoms, limit)
+	e.Severity = notation.SeverityWarning
+	return &fullAnalysis{mol: &notation.Molecule{Text: text}, stereo: st}
 }
 
 // get returns the full analysis: the one kept, or the text read and

@@ -87,7 +87,23 @@ type LimitsConfig struct {
 	// for one unit; 0 means stereo.DefaultNodeCap. A unit that needs more
 	// is reported under stereo-undetermined.
 	DigraphNodes int `json:"digraphNodes,omitempty"`
+	// RecordAtoms is the most atoms a record may have and still be read
+	// and analysed; 0 means DefaultRecordAtoms. A larger record is not
+	// read at all (its atoms are only counted, notation.CountAtoms) and
+	// is reported under stereo-over-budget: reading and ranking a
+	// million-atom record cannot fit the time budget, and its model alone
+	// would take hundreds of megabytes.
+	RecordAtoms int `json:"recordAtoms,omitempty"`
 }
+
+// DefaultRecordAtoms is the recordAtoms limit by default: ten times the
+// largest molecules written in line notation in practice (proteins of a
+// few thousand residues), and small enough that reading and analysing a
+// record that size fits in the default time budget.
+const DefaultRecordAtoms = 200_000
+
+// MaxRecordAtoms is the largest recordAtoms limit the engine takes.
+const MaxRecordAtoms = 100_000_000
 
 // MaxDigraphNodes is the largest digraph node cap the engine takes.
 const MaxDigraphNodes = stereo.MaxNodeCap
@@ -97,12 +113,16 @@ const MaxDigraphNodes = stereo.MaxNodeCap
 type limits struct {
 	budget  time.Duration // negative: none
 	nodeCap int
+	atoms   int
 }
 
 // limits returns the limits the setting names; values Validate rejects
 // read as the defaults.
 func (l LimitsConfig) limits() limits {
-	out := limits{budget: stereo.DefaultBudget, nodeCap: stereo.DefaultNodeCap}
+	out := limits{budget: stereo.DefaultBudget, nodeCap: stereo.DefaultNodeCap, atoms: DefaultRecordAtoms}
+	if l.RecordAtoms > 0 && l.RecordAtoms <= MaxRecordAtoms {
+		out.atoms = l.RecordAtoms
+	}
 	if d, ok := ParseRecordTime(l.RecordTime); ok {
 		out.budget = d
 	}
@@ -135,6 +155,9 @@ func (l LimitsConfig) validate() error {
 	}
 	if l.DigraphNodes < 0 || l.DigraphNodes > MaxDigraphNodes {
 		return fmt.Errorf("limits.digraphNodes: expected a number from 1 to %d, found %d", MaxDigraphNodes, l.DigraphNodes)
+	}
+	if l.RecordAtoms < 0 || l.RecordAtoms > MaxRecordAtoms {
+		return fmt.Errorf("limits.recordAtoms: expected a number from 1 to %d, found %d", MaxRecordAtoms, l.RecordAtoms)
 	}
 	return nil
 }

@@ -29,6 +29,9 @@ func (r *Result) Hover(off int) (string, notation.Span, bool) {
 	if !ok {
 		return "", notation.Span{}, false
 	}
+	if len(rec.Mol().Atoms) == 0 && refused(rec) != "" {
+		return refused(rec) + "\n\n" + Caution, rec.Occ.Span, true
+	}
 	var b strings.Builder
 	span := rec.Occ.Span
 	if a := atomAt(rec.Mol(), n); a >= 0 {
@@ -49,6 +52,22 @@ func (r *Result) Hover(off int) (string, notation.Span, bool) {
 	writeRecord(&b, rec)
 	b.WriteString("\n\n" + Caution)
 	return b.String(), span, true
+}
+
+// refused returns why a record was not read (the recordAtoms limit,
+// oversized in cache.go), or "" for a record that was: a record with no
+// atoms gets a budget finding only when it was refused, since the
+// analysis of an empty molecule returns before its budget starts.
+func refused(rec *Record) string {
+	if rec.Stereo() == nil {
+		return ""
+	}
+	for _, d := range rec.Stereo().Diagnostics {
+		if d.Code == stereo.CodeBudget {
+			return "Not analysed: " + d.Msg + "."
+		}
+	}
+	return ""
 }
 
 // atomAt returns the atom whose token holds notation offset n, or -1.

@@ -38,8 +38,9 @@ function settings(): Record<string, unknown> {
       ringMarks: c.get("reading.ringMarks", "closing"),
     },
     limits: {
-      recordTime: c.get("limits.recordTime", "1s"),
+      recordTime: c.get("limits.recordTime", "800ms"),
       digraphNodes: c.get("limits.digraphNodes", 200000),
+      recordAtoms: c.get("limits.recordAtoms", 200000),
     },
   };
 }

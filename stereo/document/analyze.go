@@ -76,6 +76,17 @@ type Record struct {
 	Identity *identity.Identity
 
 	an *analysis // the cached analysis the record was filled from
+	// full, when set, is the full analysis the record holds on to (the
+	// records of AnalyzeOccurrences, which a review reads all of).
+	full *fullAnalysis
+}
+
+// get returns the record's full analysis.
+func (rec *Record) get() *fullAnalysis {
+	if rec.full != nil {
+		return rec.full
+	}
+	return rec.an.get()
 }
 
 // Mol returns the record's molecule. It is safe for concurrent use; the
@@ -84,7 +95,7 @@ func (rec *Record) Mol() *notation.Molecule {
 	if rec.an == nil {
 		return nil
 	}
-	return rec.an.get().mol
+	return rec.get().mol
 }
 
 // Stereo returns the record's stereo analysis.
@@ -92,7 +103,7 @@ func (rec *Record) Stereo() *stereo.Analysis {
 	if rec.an == nil {
 		return nil
 	}
-	return rec.an.get().stereo
+	return rec.get().stereo
 }
 
 // Reaction returns the record's reaction analysis, nil unless the record
@@ -101,7 +112,7 @@ func (rec *Record) Reaction() *reaction.Result {
 	if rec.an == nil {
 		return nil
 	}
-	return rec.an.get().reaction
+	return rec.get().reaction
 }
 
 // Identify returns the record's identity keys, computing them on first

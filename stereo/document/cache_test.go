@@ -144,3 +144,23 @@ func TestMoleculeReadAgainAlike(t *testing.T) {
 		}
 	}
 }
+
+// TestOccurrencesKeepTheirAnalyses checks that the records of
+// AnalyzeOccurrences (a review reads them all) hold on to their full
+// analyses however few the cache keeps: each is read once.
+func TestOccurrencesKeepTheirAnalyses(t *testing.T) {
+	a := withKept(1)
+	lines := editList(rand.New(rand.NewSource(3)), 50)
+	text := []byte(strings.Join(lines, "\n") + "\n")
+	kind, occs := a.Occurrences("keep.smi", "", text)
+	res := a.AnalyzeOccurrences("keep.smi", kind, text, occs)
+	first := make([]*notation.Molecule, len(res.Records))
+	for i := range res.Records {
+		first[i] = res.Records[i].Mol()
+	}
+	for i := range res.Records {
+		if m := res.Records[i].Mol(); m != first[i] || m == nil {
+			t.Fatalf("record %d (%q) was read again", i, res.Records[i].Occ.Text)
+		}
+	}
+}

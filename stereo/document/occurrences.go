@@ -22,7 +22,9 @@ func (a *Analyzer) Occurrences(name, languageID string, content []byte) (find.Ki
 // AnalyzeOccurrences reads and labels the given occurrences of a document
 // (some or all of what Occurrences returned for it) with the findings
 // about each record on its own, as AnalyzeRecords does: Records[i] is
-// occs[i]. The records are not related to each other.
+// occs[i]. The records are not related to each other. Unlike the
+// records of AnalyzeRecords, they hold on to their molecules and stereo
+// analyses: a review reads them all.
 func (a *Analyzer) AnalyzeOccurrences(name string, kind find.Kind, content []byte, occs []find.Occurrence) *Result {
 	cfg := a.cfg
 	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
@@ -30,7 +32,7 @@ func (a *Analyzer) AnalyzeOccurrences(name string, kind find.Kind, content []byt
 	res.own = make([][]Diagnostic, len(occs))
 	parallel(len(occs), func(i int) {
 		an, f := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
-		res.Records[i] = Record{Occ: &occs[i], an: an}
+		res.Records[i] = Record{Occ: &occs[i], an: an, full: f}
 		res.own[i] = res.recordFindings(i, f)
 	})
 	for _, own := range res.own {

@@ -177,12 +177,8 @@ type worker struct {
 	inflight map[string]bool
 	again    map[string]bool
 	sent     map[string]bool // documents with diagnostics on the client
-	// json keeps, per document, the JSON of the findings of each record
-	// last published (documents with many findings only), so an edit
-	// does not write again what it did not change.
-	json map[string]*jsonCache
-	wake chan struct{}
-	pub  sync.Mutex // orders the check that a version is current with its publication
+	wake     chan struct{}
+	pub      sync.Mutex // orders the check that a version is current with its publication
 }
 
 func newWorker(s *Server) *worker {
@@ -192,7 +188,6 @@ func newWorker(s *Server) *worker {
 		inflight: map[string]bool{},
 		again:    map[string]bool{},
 		sent:     map[string]bool{},
-		json:     map[string]*jsonCache{},
 		wake:     make(chan struct{}, 1),
 	}
 }
@@ -287,7 +282,6 @@ func (w *worker) publish(ctx context.Context, uri string) {
 		w.mu.Lock()
 		had := w.sent[uri]
 		delete(w.sent, uri)
-		delete(w.json, uri)
 		w.mu.Unlock()
 		if had && s.pushesDiagnostics() {
 			s.notify("textDocument/publishDiagnostics", publishDiagnosticsParams{URI: uri, Diagnostics: []protocol.Diagnostic{}})
@@ -380,14 +374,7 @@ func (w *worker) await(ctx context.Context, uri string, a *analysis) bool {
 func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 	s := w.s
 	version := f.Version
-	w.mu.Lock()
-	cache := w.json[f.URI]
-	if cache == nil && len(res.Diagnostics) >= publishChunk {
-		cache = &jsonCache{}
-		w.json[f.URI] = cache
-	}
-	w.mu.Unlock()
-	params, err := diagnosticsParts(f, res, &version, cache)
+	params, err := diagnosticsParts(f, res, &version)
 	if err != nil {
 		s.log.Error("internal error", zap.String("uri", f.URI), zap.Error(fmt.Errorf("diagnostics: %w", err)))
 		return false

@@ -160,9 +160,9 @@ func BenchmarkScaleEdit(b *testing.B) {
 // BenchmarkScaleRepublish measures, inside the server and without the
 // protocol, what one edit of the list STEREOLINE_SCALE_LIST names costs
 // after its debounce: the new line table, the engine's Reanalyze from the
-// previous result and the publishDiagnostics JSON of the new result
-// (through the per-record cache, as the server writes it); a mark is
-// toggled on a line in the middle. It skips without the variable.
+// previous result and the publishDiagnostics JSON of the new result (in
+// parts, as the server writes it); a mark is toggled on a line in the
+// middle. It skips without the variable.
 func BenchmarkScaleRepublish(b *testing.B) {
 	name := os.Getenv("STEREOLINE_SCALE_LIST")
 	if name == "" {
@@ -176,7 +176,6 @@ func BenchmarkScaleRepublish(b *testing.B) {
 	a := document.NewAnalyzer(document.DefaultConfig())
 	prev := a.Analyze("scale.smi", "", text)
 	versions := [2][]byte{text, append(append(append([]byte(nil), text[:mid]...), '@'), text[mid:]...)}
-	cache := &jsonCache{}
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
@@ -184,7 +183,7 @@ func BenchmarkScaleRepublish(b *testing.B) {
 		f := &fileVersion{URI: "file:///bench/scale.smi", Name: "scale.smi", mapper: NewMapper(content, EncodingUTF16)}
 		next := a.Reanalyze(prev, "scale.smi", "", content)
 		v := int32(i)
-		parts, err := diagnosticsParts(f, next, &v, cache)
+		parts, err := diagnosticsParts(f, next, &v)
 		if err != nil {
 			b.Fatal(err)
 		}

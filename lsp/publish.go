@@ -24,7 +24,7 @@ import (
 // for res: the same JSON that marshalling publishDiagnosticsParams with
 // toDiagnostics gives, field for field.
 func diagnosticsJSON(f *fileVersion, res *document.Result, version *int32) (json.RawMessage, error) {
-	parts, err := diagnosticsParts(f, res, version, nil)
+	parts, err := diagnosticsParts(f, res, version)
 	if err != nil {
 		return nil, err
 	}
@@ -64,11 +64,7 @@ const publishChunk = 4096
 // diagnosticsParts is diagnosticsJSON in parts that are to be written one
 // after the other, so the megabytes of a large list are neither written
 // on one core nor copied into one buffer.
-//
-// With a cache, the JSON of each record's findings is taken from the
-// cache when the record and its findings are those of an earlier
-// publication, on whatever line the record now stands.
-func diagnosticsParts(f *fileVersion, res *document.Result, version *int32, cache *jsonCache) ([][]byte, error) {
+func diagnosticsParts(f *fileVersion, res *document.Result, version *int32) ([][]byte, error) {
 	head := make([]byte, 0, 64+len(f.URI))
 	head = append(head, `{"uri":`...)
 	head = appendString(head, f.URI)
@@ -83,10 +79,6 @@ func diagnosticsParts(f *fileVersion, res *document.Result, version *int32, cach
 	parts := make([][]byte, chunks+2)
 	parts[0] = head
 	errs := make([]error, chunks)
-	found := make([]cacheUse, chunks)
-	if cache != nil && !cache.fits(f) {
-		cache.reset(f)
-	}
 	var next atomic.Int64
 	var wg sync.WaitGroup
 	for w := min(runtime.GOMAXPROCS(0), chunks); w > 0; w-- {
@@ -98,19 +90,15 @@ func diagnosticsParts(f *fileVersion, res *document.Result, version *int32, cach
 				if k >= chunks {
 					return
 				}
-				from, to := runStart(ds, k*publishChunk), runStart(ds, (k+1)*publishChunk)
+				from, to := k*publishChunk, min((k+1)*publishChunk, len(ds))
 				b := partBuffer((to - from) * 400)
 				var err error
-				if cache != nil {
-					b, err = cache.appendRuns(b, f.mapper, res, uri, from, to, &found[k])
-				} else {
-					c := cursor{m: f.mapper}
-					for i := from; i < to && err == nil; i++ {
-						if i > 0 {
-							b = append(b, ',')
-						}
-						b, err = appendDiagnostic(b, &c, uri, &ds[i], nil)
+				c := cursor{m: f.mapper}
+				for i := from; i < to && err == nil; i++ {
+					if i > 0 {
+						b = append(b, ',')
 					}
+					b, err = appendDiagnostic(b, &c, uri, &ds[i])
 				}
 				errs[k] = err
 				parts[k+1] = b
@@ -120,14 +108,8 @@ func diagnosticsParts(f *fileVersion, res *document.Result, version *int32, cach
 	wg.Wait()
 	for _, err := range errs {
 		if err != nil {
-			if cache != nil {
-				cache.reset(f)
-			}
 			return nil, err
 		}
-	}
-	if cache != nil {
-		cache.update(found)
 	}
 	parts[chunks+1] = []byte("]}")
 	return parts, nil
@@ -135,15 +117,13 @@ func diagnosticsParts(f *fileVersion, res *document.Result, version *int32, cach
 
 // appendDiagnostic writes one finding as a protocol Diagnostic; uri is
 // the document's URI written as a JSON string.
-// With fw, the line numbers and the ranges of related places outside the
-// record are left as holes fw records.
-func appendDiagnostic(b []byte, m *cursor, uri []byte, d *document.Diagnostic, fw *fragWriter) ([]byte, error) {
+func appendDiagnostic(b []byte, m *cursor, uri []byte, d *document.Diagnostic) ([]byte, error) {
 	rng, err := m.spanToRange(d.Span)
 	if err != nil {
 		return b, fmt.Errorf("%s: %w", d.Code, err)
 	}
 	b = append(b, `{"range":`...)
-	b = fw.appendRange(b, rng)
+	b = appendRange(b, rng)
 	b = append(b, `,"severity":`...)
 	b = strconv.AppendInt(b, int64(toSeverity(d.Severity)), 10)
 	b = append(b, `,"code":`...)
@@ -166,15 +146,11 @@ func appendDiagnostic(b []byte, m *cursor, uri []byte, d *document.Diagnostic, f
 			b = append(b, `{"location":{"uri":`...)
 			b = append(b, uri...)
 			b = append(b, `,"range":`...)
-			if fw != nil && !fw.inside(rel.Span) {
-				b = fw.rangeHole(b, k)
-			} else {
-				r, err := m.spanToRange(rel.Span)
-				if err != nil {
-					return b, fmt.Errorf("%s related: %w", d.Code, err)
-				}
-				b = fw.appendRange(b, r)
+			r, err := m.spanToRange(rel.Span)
+			if err != nil {
+				return b, fmt.Errorf("%s related: %w", d.Code, err)
 			}
+			b = appendRange(b, r)
 			b = append(b, `},"message":`...)
 			b = appendString(b, rel.Message)
 			b = append(b, '}')
@@ -182,26 +158,6 @@ func appendDiagnostic(b []byte, m *cursor, uri []byte, d *document.Diagnostic, f
 		b = append(b, ']')
 	}
 	return append(b, '}'), nil
-}
-
-// appendRange writes a range, its line numbers as holes with fw.
-func (fw *fragWriter) appendRange(b []byte, r protocol.Range) []byte {
-	if fw == nil {
-		return appendRange(b, r)
-	}
-	b = append(b, `{"start":`...)
-	b = fw.appendPosition(b, r.Start)
-	b = append(b, `,"end":`...)
-	b = fw.appendPosition(b, r.End)
-	return append(b, '}')
-}
-
-func (fw *fragWriter) appendPosition(b []byte, p protocol.Position) []byte {
-	b = append(b, `{"line":`...)
-	b = fw.lineHole(b, int(p.Line))
-	b = append(b, `,"character":`...)
-	b = strconv.AppendUint(b, uint64(p.Character), 10)
-	return append(b, '}')
 }
 
 func appendRange(b []byte, r protocol.Range) []byte {

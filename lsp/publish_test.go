@@ -1,9 +1,7 @@
 package lsp
 
 import (
-	"bytes"
 	"encoding/json"
-	"fmt"
 	"math/rand"
 	"reflect"
 	"strconv"
@@ -144,87 +142,5 @@ func TestAppendString(t *testing.T) {
 		if g != w {
 			t.Errorf("%q: %q, want %q", s, g, w)
 		}
-	}
-}
-
-// TestCachedPublicationsAlike edits a list at random (marks changed,
-// titles lengthened, lines inserted, deleted and swapped, line breaks of
-// every kind, titles outside ASCII) and checks that each publication
-// written through the per-record cache is byte for byte the publication
-// written afresh, and that the cache reused most records' JSON. The
-// records are invented for the test.
-func TestCachedPublicationsAlike(t *testing.T) {
-	t.Run("holes", func(t *testing.T) { testCachedPublications(t) })
-	// with holes of one value, records with several findings are
-	// written without the cache, beside those written through it
-	defer func(max int) { holeMax = max }(holeMax)
-	holeMax = 0
-	t.Run("few holes", func(t *testing.T) { testCachedPublications(t) })
-}
-
-func testCachedPublications(t *testing.T) {
-	rng := rand.New(rand.NewSource(11))
-	templates := []string{"N[C@@H](C)C(=O)O", "N[C@H](C)C(=O)O", "C[C@H](F)Cl", "C[C@@H](F)Cl", "C1CC(", "F/C=C/F", "C[C@H]1CC[C@@H](C)CC1", "OC[C@H]1OC(O)[C@H](O)[C@@H](O)[C@@H]1O"}
-	breaks := []string{"\n", "\r\n", "\n"}
-	var lines []string
-	for i := 0; i < 1500; i++ {
-		lines = append(lines, fmt.Sprintf("%s\tr%d%s", templates[rng.Intn(len(templates))], i, []string{"", " α", " 𝛼"}[rng.Intn(3)]))
-	}
-	join := func() string {
-		var b strings.Builder
-		for i, l := range lines {
-			b.WriteString(l)
-			b.WriteString(breaks[i%len(breaks)])
-		}
-		return b.String()
-	}
-	a := document.NewAnalyzer(document.DefaultConfig())
-	cache := &jsonCache{}
-	var prev *document.Result
-	reused := 0
-	for step := 0; step < 30; step++ {
-		if step > 0 {
-			i := rng.Intn(len(lines))
-			switch rng.Intn(5) {
-			case 0:
-				lines[i] = strings.Replace(lines[i], "@@", "@", 1)
-			case 1:
-				lines[i] += "x"
-			case 2:
-				lines = append(lines[:i], append([]string{templates[rng.Intn(len(templates))] + "\tnew"}, lines[i:]...)...)
-			case 3:
-				lines = append(lines[:i], lines[i+1:]...)
-			default:
-				j := rng.Intn(len(lines))
-				lines[i], lines[j] = lines[j], lines[i]
-			}
-		}
-		text := []byte(join())
-		res := a.Reanalyze(prev, "/t/cached.smi", "", text)
-		prev = res
-		f := &fileVersion{URI: "file:///t/cached.smi", Name: "/t/cached.smi", Version: int32(step), mapper: NewMapper(text, EncodingUTF16)}
-		version := f.Version
-		want, err := diagnosticsJSON(f, res, &version)
-		if err != nil {
-			t.Fatal(err)
-		}
-		before := len(cache.frags)
-		parts, err := diagnosticsParts(f, res, &version, cache)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if got := bytes.Join(parts, nil); !bytes.Equal(got, want) {
-			k := 0
-			for k < min(len(got), len(want)) && got[k] == want[k] {
-				k++
-			}
-			t.Fatalf("step %d: the cached publication differs at byte %d:\n got …%s\nwant …%s", step, k, got[max(0, k-80):min(len(got), k+80)], want[max(0, k-80):min(len(want), k+80)])
-		}
-		if step > 0 && len(cache.frags)-before < 20 {
-			reused++
-		}
-	}
-	if reused < 20 {
-		t.Errorf("only %d of 29 edits reused the cache", reused)
 	}
 }

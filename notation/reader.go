@@ -2,6 +2,7 @@ package notation
 
 import (
 	"fmt"
+	"sync"
 	"unicode/utf8"
 )
 
@@ -30,10 +31,7 @@ func Read(text string) *Molecule {
 	if end > notationEnd {
 		src = text[:notationEnd]
 	}
-	r := &reader{text: src, mol: &Molecule{Text: text}, prev: -1, rings: map[int]*openRing{}}
-	atoms, rings := countTokens(src)
-	r.mol.Atoms = make([]Atom, 0, atoms)
-	r.mol.Bonds = make([]Bond, 0, atoms+rings)
+	r := newReader(src, text)
 	r.read()
 	finish(r.mol)
 	if end > notationEnd {
@@ -48,6 +46,66 @@ func Read(text string) *Molecule {
 		r.mol.Errors = r.mol.Errors[:maxErrors+1]
 	}
 	return r.mol
+}
+
+// newReader starts reading src, the notation of record text.
+func newReader(src, text string) *reader {
+	r := &reader{text: src, mol: &Molecule{Text: text}, prev: -1, rings: map[int]*openRing{}}
+	atoms, rings := countTokens(src)
+	r.mol.Atoms = make([]Atom, 0, atoms)
+	r.mol.Bonds = make([]Bond, 0, atoms+rings)
+	return r
+}
+
+// Reads reports whether text reads without an error (warnings allowed)
+// and with at least one atom, as Read's result would say, at less cost
+// for text that does not read: once the text itself gave an error, what
+// Read does after it (Kekulé structure, hydrogens, valences) is skipped.
+// That work only adds errors, at most three for each atom, so the error
+// stays in the list as long as the list cannot reach maxErrors; a record
+// with an extension block is read whole.
+func Reads(text string) bool {
+	if notationEnd, end := RecordEnd(text); end == notationEnd {
+		r := quietReader(text)
+		r.read()
+		failed := r.mol.Errors.HasErrors() && len(r.mol.Errors)+3*len(r.mol.Atoms) <= maxErrors
+		if cap(r.mol.Atoms) <= quietKeep {
+			quietReaders.Put(r)
+		}
+		if failed {
+			return false
+		}
+	}
+	m := Read(text)
+	return !m.Errors.HasErrors() && len(m.Atoms) > 0
+}
+
+// quietReaders keeps the readers of Reads, whose molecules never leave
+// it, for the next call: the finder asks it of every title of a list.
+// A reader whose molecule grew past quietKeep atoms is not kept.
+var quietReaders = sync.Pool{New: func() any { return &reader{mol: &Molecule{}, rings: map[int]*openRing{}} }}
+
+const quietKeep = 4096
+
+// quietReader returns a reader of Reads for text, from the pool, its
+// state as newReader leaves it.
+func quietReader(text string) *reader {
+	r := quietReaders.Get().(*reader)
+	m := r.mol
+	atoms, rings := countTokens(text)
+	as, bs := m.Atoms[:0], m.Bonds[:0]
+	if cap(as) < atoms {
+		as = make([]Atom, 0, atoms)
+	}
+	if cap(bs) < atoms+rings {
+		bs = make([]Bond, 0, atoms+rings)
+	}
+	*m = Molecule{Text: text, Atoms: as, Bonds: bs, Errors: m.Errors[:0]}
+	rs := r.rings
+	clear(rs)
+	*r = reader{text: text, mol: m, prev: -1, rings: rs, stack: r.stack[:0], quiet: true,
+		slots: r.slotsAll, slotsAll: r.slotsAll}
+	return r
 }
 
 // countTokens bounds the number of atoms (capital letters, aromatic
@@ -109,6 +167,12 @@ type reader struct {
 
 	afterBranch bool // a branch was just closed: ring digits may not follow
 
+	// quiet leaves the messages of errors unwritten (Reads, which only
+	// asks whether there is one); slotsAll is then the whole of the last
+	// slots array, which the next Reads starts again from.
+	quiet    bool
+	slotsAll []int
+
 	// openDot is the offset plus one of a '.' that no atom has followed yet,
 	// 0 when there is none: a component left empty at the end of the
 	// record, of a reaction role or of a branch.
@@ -134,6 +198,9 @@ const bondSlots = 4
 func (r *reader) bondList() []int {
 	if len(r.slots) < bondSlots {
 		r.slots = make([]int, bondSlots*max(16, cap(r.mol.Atoms)-len(r.mol.Atoms)))
+		if r.quiet {
+			r.slotsAll = r.slots
+		}
 	}
 	s := r.slots[:0:bondSlots]
 	r.slots = r.slots[bondSlots:]
@@ -162,6 +229,11 @@ func (r *reader) errorf(span Span, code Code, format string, args ...any) *Error
 			r.mol.Errors.Add(span, CodeSyntax, "too many errors; the rest of the record is not reported")
 		}
 		return &Error{}
+	}
+	if r.quiet {
+		e := &Error{Span: span, Code: code, Severity: SeverityError}
+		r.mol.Errors = append(r.mol.Errors, e)
+		return e
 	}
 	return r.mol.Errors.Add(span, code, format, args...)
 }

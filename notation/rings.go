@@ -161,6 +161,9 @@ func (g *ringGraph) blocks() ([][]int, int) {
 	var stack []frame
 	var edgeStack []int
 	var blocks [][]int
+	// the blocks' bonds one after another in one array: each bond is in
+	// at most one block, so it never grows
+	all := make([]int, 0, len(g.m.Bonds))
 	clock, components := 0, 0
 	for root := 0; root < n; root++ {
 		if disc[root] >= 0 {
@@ -203,17 +206,17 @@ func (g *ringGraph) blocks() ([][]int, int) {
 				low[p] = low[done.atom]
 			}
 			if low[done.atom] >= disc[p] {
-				var blk []int
+				first := len(all)
 				for {
 					b := edgeStack[len(edgeStack)-1]
 					edgeStack = edgeStack[:len(edgeStack)-1]
-					blk = append(blk, b)
+					all = append(all, b)
 					g.block[b] = len(blocks)
 					if b == done.parentBond {
 						break
 					}
 				}
-				blocks = append(blocks, blk)
+				blocks = append(blocks, all[first:len(all):len(all)])
 			}
 		}
 	}
@@ -230,6 +233,7 @@ type ringSearch struct {
 	branch []int // child of the root under which each atom hangs (Horton)
 	round  int
 	queue  []int
+	local  []int // position of each bond in its block, for ring masks
 }
 
 // block finds the ring sizes and basis rings of one biconnected block.
@@ -244,7 +248,7 @@ func (s *ringSearch) block(r *Rings, blk []int) {
 		r.SSSR = append(r.SSSR, ring)
 		return
 	}
-	pool := newRingPool()
+	pool := s.newRingPool(blk)
 	for _, b := range blk {
 		ring, ok := s.shortestThrough(b)
 		if !ok {
@@ -413,7 +417,11 @@ func (s *ringSearch) shortestThrough(b int) (Ring, bool) {
 // pathRing turns the search tree path from..to plus the closing bond
 // into a ring.
 func (s *ringSearch) pathRing(from, to, closing int) Ring {
-	var ring Ring
+	size := 1
+	for a := to; a != from; a = s.g.m.Bonds[s.via[a]].Other(a) {
+		size++
+	}
+	ring := Ring{Atoms: make([]int, 0, size), Bonds: make([]int, 0, size)}
 	for a := to; a != from; {
 		b := s.via[a]
 		ring.Atoms = append(ring.Atoms, a)
@@ -464,23 +472,47 @@ func (s *ringSearch) hortonFrom(x int, blk []int, pool *ringPool) {
 		if s.via[y] == b || s.via[z] == b || branch[y] == branch[z] {
 			continue
 		}
-		var ring Ring
-		for a := y; a != x; { // x..y, collected backwards then reversed
-			ring.Atoms = append(ring.Atoms, a)
-			ring.Bonds = append(ring.Bonds, s.via[a])
-			a = g.m.Bonds[s.via[a]].Other(a)
+		if pool.small {
+			// the candidate's bonds as a mask first: most candidates
+			// are rings found before, and need not be built
+			mask := uint64(1) << pool.local[b]
+			for _, end := range [2]int{y, z} {
+				for a := end; a != x; {
+					mask |= 1 << pool.local[s.via[a]]
+					a = g.m.Bonds[s.via[a]].Other(a)
+				}
+			}
+			if _, ok := pool.masks[mask]; ok {
+				continue
+			}
+			pool.masks[mask] = struct{}{}
+			pool.rings = append(pool.rings, s.hortonRing(x, y, z, b))
+			continue
 		}
-		ring.Atoms = append(ring.Atoms, x)
-		reverseInts(ring.Atoms)
-		reverseInts(ring.Bonds)
-		ring.Bonds = append(ring.Bonds, b)
-		for a := z; a != x; {
-			ring.Atoms = append(ring.Atoms, a)
-			ring.Bonds = append(ring.Bonds, s.via[a])
-			a = g.m.Bonds[s.via[a]].Other(a)
-		}
-		pool.add(ring)
+		pool.add(s.hortonRing(x, y, z, b))
 	}
+}
+
+// hortonRing is the candidate of hortonFrom for bond b = y-z: the tree
+// path x..y, the bond, and the tree path z..x.
+func (s *ringSearch) hortonRing(x, y, z, b int) Ring {
+	g := s.g
+	var ring Ring
+	for a := y; a != x; { // x..y, collected backwards then reversed
+		ring.Atoms = append(ring.Atoms, a)
+		ring.Bonds = append(ring.Bonds, s.via[a])
+		a = g.m.Bonds[s.via[a]].Other(a)
+	}
+	ring.Atoms = append(ring.Atoms, x)
+	reverseInts(ring.Atoms)
+	reverseInts(ring.Bonds)
+	ring.Bonds = append(ring.Bonds, b)
+	for a := z; a != x; {
+		ring.Atoms = append(ring.Atoms, a)
+		ring.Bonds = append(ring.Bonds, s.via[a])
+		a = g.m.Bonds[s.via[a]].Other(a)
+	}
+	return ring
 }
 
 func reverseInts(s []int) {
@@ -490,15 +522,42 @@ func reverseInts(s []int) {
 }
 
 // ringPool collects candidate rings without duplicates (two candidates
-// are the same ring when they have the same bonds).
+// are the same ring when they have the same bonds). In a block of at most
+// 64 bonds a ring's bonds are a mask of their positions in the block.
 type ringPool struct {
 	seen  map[string]bool
+	small bool
+	masks map[uint64]struct{}
+	local []int // bond -> position in the block, when small
 	rings []Ring
 }
 
-func newRingPool() *ringPool { return &ringPool{seen: make(map[string]bool)} }
+func (s *ringSearch) newRingPool(blk []int) *ringPool {
+	if len(blk) > 64 {
+		return &ringPool{seen: make(map[string]bool)}
+	}
+	if len(s.local) < len(s.g.m.Bonds) {
+		s.local = make([]int, len(s.g.m.Bonds))
+	}
+	for i, b := range blk {
+		s.local[b] = i
+	}
+	return &ringPool{small: true, masks: make(map[uint64]struct{}), local: s.local}
+}
 
 func (p *ringPool) add(r Ring) {
+	if p.small {
+		var mask uint64
+		for _, b := range r.Bonds {
+			mask |= 1 << p.local[b]
+		}
+		if _, ok := p.masks[mask]; ok {
+			return
+		}
+		p.masks[mask] = struct{}{}
+		p.rings = append(p.rings, r)
+		return
+	}
 	key := ringKey(r)
 	if p.seen[key] {
 		return

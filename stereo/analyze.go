@@ -68,12 +68,13 @@ type Options struct {
 	// A record that needs more comes back with the units left unlabelled
 	// reported under CodeBudget.
 	Budget time.Duration
-	// Start is when the budget started, when the caller spent some of it
-	// before the call (reading the record); zero means the call's start.
-	Start time.Time
+	// Start is when the budget started (StartBudget), when the caller
+	// spent some of it before the call (reading the record); unset means
+	// the call's start.
+	Start Instant
 	// deadline, when set, replaces Budget: the analyses a call runs
 	// inside itself (portable.go, groups.go) share their caller's
-	deadline time.Time
+	deadline Instant
 	// noOpenMarks leaves out the report of marks read differently by
 	// other readers: set for the second analysis that report runs
 	noOpenMarks bool
@@ -96,7 +97,9 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 	ws := takeWorkspace()
 	ws.g.build(m)
 	ws.cfg.reset()
-	l := &labeller{g: &ws.g, cfg: &ws.cfg, nodeCap: opt.NodeCap, res: res, spare: ws.spare, budget: newBudget(opt)}
+	b, unlock := newBudget(opt)
+	defer unlock()
+	l := &labeller{g: &ws.g, cfg: &ws.cfg, nodeCap: opt.NodeCap, res: res, spare: ws.spare, budget: b}
 	l.classes = &lazyClasses{g: l.g}
 	defer func() {
 		// an internal error must not reach the user; the analysis so far

@@ -4,6 +4,7 @@ package stereo
 
 import (
 	"fmt"
+	"runtime"
 	"time"
 
 	"stereoline/notation"
@@ -23,6 +24,53 @@ const DefaultBudget = 800 * time.Millisecond
 // none.
 const DefaultNodeCap = defaultNodeCap
 
+// Instant is a reading of the clock the budget counts: the processor
+// time of the thread that analyses the record where the system gives it
+// (Linux), else the wall clock. Counting processor time keeps the labels
+// of a record the same on a busy machine, where a record waiting for a
+// core would otherwise run out of wall time; it still stops a runaway.
+// The zero Instant is unset.
+type Instant struct {
+	at  time.Duration // processor time of the thread, or wall time since wallEpoch
+	cpu bool          // at is processor time
+	set bool
+}
+
+// wallEpoch is where wall-clock Instants count from.
+var wallEpoch = time.Now()
+
+// now reads the clock the budget counts.
+func now() Instant {
+	if d, ok := threadCPU(); ok {
+		return Instant{at: d, cpu: true, set: true}
+	}
+	return Instant{at: time.Since(wallEpoch), set: true}
+}
+
+// after returns the Instant d later.
+func (t Instant) after(d time.Duration) Instant { t.at += d; return t }
+
+// passed reports whether the clock has passed t.
+func (t Instant) passed() bool {
+	n := now()
+	if n.cpu != t.cpu {
+		// the thread's clock became unreadable: count the budget spent
+		// rather than compare two clocks
+		return true
+	}
+	return n.at > t.at
+}
+
+// StartBudget starts the budget of one record on the calling goroutine,
+// for a caller that spends some of it before Analyze (reading the
+// record; Options.Start). It wires the goroutine to its thread, so that
+// the processor time counted is the record's own, until the returned
+// function is called; call it when the record is done.
+func StartBudget() (Instant, func()) {
+	runtime.LockOSThread()
+	return now(), runtime.UnlockOSThread
+}
+
 // budget is the deadline of one analysis, checked cooperatively: the
 // digraph asks at every node it adds and every sphere it compares, the
 // phases before every unit they label or perceive. Once the deadline has
@@ -31,7 +79,7 @@ const DefaultNodeCap = defaultNodeCap
 // reported undetermined under CodeBudget. Nothing runs on after the
 // call returns: there are no goroutines to abandon.
 type budget struct {
-	deadline time.Time // zero: no deadline
+	deadline Instant // unset: no deadline
 	limit    time.Duration
 	ticks    uint32
 	spent    bool
@@ -50,7 +98,7 @@ func (b *budget) tick() bool {
 	if b.spent {
 		return true
 	}
-	if b.deadline.IsZero() {
+	if !b.deadline.set {
 		return false
 	}
 	b.ticks++
@@ -65,26 +113,26 @@ func (b *budget) check() bool {
 	if b == nil {
 		return false
 	}
-	if !b.spent && !b.deadline.IsZero() && time.Now().After(b.deadline) {
+	if !b.spent && b.deadline.set && b.deadline.passed() {
 		b.spent = true
 	}
 	return b.spent
 }
 
-// newBudget starts the budget of one call.
-func newBudget(opt Options) *budget {
+// newBudget starts the budget of one call. A call that starts its own
+// budget wires its goroutine to its thread until unlock is called.
+func newBudget(opt Options) (b *budget, unlock func()) {
 	switch {
-	case !opt.deadline.IsZero():
-		return &budget{deadline: opt.deadline, limit: opt.Budget}
+	case opt.deadline.set:
+		return &budget{deadline: opt.deadline, limit: opt.Budget}, func() {}
 	case opt.Budget <= 0:
-		return &budget{}
+		return &budget{}, func() {}
 	}
-	limit := opt.Budget
-	start := opt.Start
-	if start.IsZero() {
-		start = time.Now()
+	start, unlock := opt.Start, func() {}
+	if !start.set {
+		start, unlock = StartBudget()
 	}
-	return &budget{deadline: start.Add(limit), limit: limit}
+	return &budget{deadline: start.after(opt.Budget), limit: opt.Budget}, unlock
 }
 
 // skipOverBudget reports whether the budget is spent before a marked

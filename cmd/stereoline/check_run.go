@@ -1,12 +1,13 @@
 package main
 
 import (
+	"cmp"
 	"errors"
 	"fmt"
 	"io"
 	"os"
 	"path/filepath"
-	"sort"
+	"slices"
 	"sync"
 	"sync/atomic"
 	"time"
@@ -107,30 +108,60 @@ func (r *checkRun) analyzeFile(f checkFile) (rep fileReport) {
 		rep.Skipped = skipped
 		return rep
 	}
-	// The findings stream out of the engine a chunk of records at a time;
-	// only they are kept, converted to positions, so memory grows with
-	// the findings rather than with the analyses of a long list.
-	var diags []document.Diagnostic
+	// The findings stream out of the engine a chunk of records at a time
+	// and are converted to positions chunk by chunk: only the compact
+	// findings are kept, so memory grows with them rather than with the
+	// analyses, or the engine's diagnostics, of a long list.
+	conv := r.newConverter(f, data)
 	rep.Records = lc.analyzer.Stream(f.path, "", data, func(ds []document.Diagnostic) {
-		for _, d := range ds {
-			d.Fixes, d.Related = nil, nil
-			diags = append(diags, d)
+		ds = slices.Clone(ds)
+		sortDiagnostics(ds)
+		for i := range ds {
+			conv.add(&ds[i])
 		}
 	})
-	// The order of Analyze: by host span, relations after the other
-	// findings at the same span.
-	sort.SliceStable(diags, func(i, j int) bool {
-		x, y := diags[i], diags[j]
-		if x.Span.Start != y.Span.Start {
-			return x.Span.Start < y.Span.Start
-		}
-		if x.Span.End != y.Span.End {
-			return x.Span.End < y.Span.End
-		}
-		return !document.IsRelation(x.Code) && document.IsRelation(y.Code)
-	})
-	rep.Findings = r.findings(f, data, diags)
+	rep.Findings = conv.done()
 	return rep
+}
+
+// sortDiagnostics puts findings in the order of Analyze: by host span,
+// relations after the other findings at the same span.
+func sortDiagnostics(ds []document.Diagnostic) {
+	slices.SortStableFunc(ds, func(x, y document.Diagnostic) int {
+		if c := cmp.Compare(x.Span.Start, y.Span.Start); c != 0 {
+			return c
+		}
+		if c := cmp.Compare(x.Span.End, y.Span.End); c != 0 {
+			return c
+		}
+		return cmp.Compare(b2i(document.IsRelation(x.Code)), b2i(document.IsRelation(y.Code)))
+	})
+}
+
+// compareFindings is sortDiagnostics's order on converted findings:
+// lines and characters grow with byte offsets, so it is the same order.
+func compareFindings(x, y finding) int {
+	if c := comparePositions(x.Start, y.Start); c != 0 {
+		return c
+	}
+	if c := comparePositions(x.End, y.End); c != 0 {
+		return c
+	}
+	return cmp.Compare(b2i(document.IsRelation(x.Code)), b2i(document.IsRelation(y.Code)))
+}
+
+func comparePositions(a, b position) int {
+	if c := cmp.Compare(a.Line, b.Line); c != 0 {
+		return c
+	}
+	return cmp.Compare(a.Char16, b.Char16)
+}
+
+func b2i(b bool) int {
+	if b {
+		return 1
+	}
+	return 0
 }
 
 // readForAnalysis reads a file under the size limit of its configuration
@@ -179,40 +210,66 @@ func (r *checkRun) configError(lc *loadedConfig) {
 	r.failed = true
 }
 
-// findings converts the engine's diagnostics (host byte offsets) to the
-// positions of the output formats, keeping only changed lines when asked.
-func (r *checkRun) findings(f checkFile, content []byte, diags []document.Diagnostic) []finding {
-	if len(diags) == 0 {
-		return nil
-	}
-	// The language server's mapper is the one place that turns byte
-	// offsets into lines and characters, so check and the editor agree;
-	// text and SARIF columns count code points (its UTF-32 encoding),
-	// JSON Lines count UTF-16 units as LSP does.
-	m16 := lsp.NewMapper(content, lsp.EncodingUTF16)
-	m32 := lsp.NewMapper(content, lsp.EncodingUTF32)
-	pos := func(off int) position {
-		off = max(0, min(off, len(content)))
-		p16, err16 := m16.OffsetToPosition(off)
-		p32, err32 := m32.OffsetToPosition(off)
-		if err16 != nil || err32 != nil {
-			return position{} // unreachable: off is clamped to the text
-		}
-		return position{Line: int(p16.Line), Char16: int(p16.Character), CharCP: int(p32.Character)}
-	}
-	var changed lineSet
+// converter turns the engine's diagnostics (host byte offsets) into the
+// positions of the output formats as they stream in, keeping only
+// changed lines when asked.
+type converter struct {
+	content  []byte
+	m16, m32 *lsp.Mapper // built on the first finding
+	filter   bool
+	changed  lineSet
+	out      []finding
+	sorted   bool // out is in compareFindings order so far
+}
+
+func (r *checkRun) newConverter(f checkFile, content []byte) *converter {
+	c := &converter{content: content, sorted: true}
 	if r.changes != nil {
-		changed = r.changes.forFile(f)
+		c.filter, c.changed = true, r.changes.forFile(f)
 	}
-	out := make([]finding, 0, len(diags))
-	for _, d := range diags {
-		fd := finding{Start: pos(d.Span.Start), End: pos(d.Span.End), Severity: d.Severity, Code: d.Code, Message: d.Message}
-		if r.changes != nil && !changed.touches(fd.Start, fd.End) {
-			continue
-		}
-		out = append(out, fd)
+	return c
+}
+
+// pos converts a byte offset. The language server's mapper is the one
+// place that turns byte offsets into lines and characters, so check and
+// the editor agree; text and SARIF columns count code points (its UTF-32
+// encoding), JSON Lines count UTF-16 units as LSP does.
+func (c *converter) pos(off int) position {
+	if c.m16 == nil {
+		c.m16 = lsp.NewMapper(c.content, lsp.EncodingUTF16)
+		c.m32 = lsp.NewMapper(c.content, lsp.EncodingUTF32)
 	}
-	return out
+	off = max(0, min(off, len(c.content)))
+	p16, err16 := c.m16.OffsetToPosition(off)
+	p32, err32 := c.m32.OffsetToPosition(off)
+	if err16 != nil || err32 != nil {
+		return position{} // unreachable: off is clamped to the text
+	}
+	return position{Line: int(p16.Line), Char16: int(p16.Character), CharCP: int(p32.Character)}
+}
+
+// add converts one diagnostic; the strings are shared, nothing else of
+// it is kept.
+func (c *converter) add(d *document.Diagnostic) {
+	fd := finding{Start: c.pos(d.Span.Start), End: c.pos(d.Span.End), Severity: d.Severity, Code: d.Code, Message: d.Message}
+	if c.filter && !c.changed.touches(fd.Start, fd.End) {
+		return
+	}
+	if n := len(c.out); n > 0 && c.sorted && compareFindings(c.out[n-1], fd) > 0 {
+		c.sorted = false
+	}
+	c.out = append(c.out, fd)
+}
+
+// done returns the findings in sortDiagnostics order. The engine streams
+// them chunk by chunk in host order, so only findings emitted out of
+// order (query patterns, last) need the final sort; a stable sort of
+// chunks each sorted stably is the stable sort of them all.
+func (c *converter) done() []finding {
+	if !c.sorted {
+		slices.SortStableFunc(c.out, compareFindings)
+	}
+	return slices.Clip(c.out)
 }
 
 // startProgress shows "checked N/M files" on stderr while a run takes

@@ -48,8 +48,12 @@ func main() {
 	os.Exit(run(os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
 }
 
-// scanMemoryLimit is the soft memory limit of check and keys.
-const scanMemoryLimit = 320 << 20
+// scanMemoryLimit is the soft memory limit of check and keys: under 500
+// MB with the runtime's own overhead, and far enough above the live heap
+// of a 500,000-record list (about 300 MB of records, keys and findings)
+// that the collector does not run back to back. Below the live heap it
+// would: 320 MB made that list three times slower.
+const scanMemoryLimit = 440 << 20
 
 // serveMemoryLimit is the soft memory limit of the language server.
 const serveMemoryLimit = 450 << 20

@@ -256,8 +256,7 @@ func accidentalWord(s string) bool {
 // readsAsNotation reports whether s reads as SMILES without an error
 // (warnings allowed).
 func readsAsNotation(s string) bool {
-	m := notation.Read(s)
-	return !m.Errors.HasErrors() && len(m.Atoms) > 0
+	return notation.Reads(s)
 }
 
 // readsAsQuery reports whether s reads as SMARTS without an error and

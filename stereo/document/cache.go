@@ -3,7 +3,6 @@ package document
 import (
 	"sync"
 	"sync/atomic"
-	"time"
 
 	"stereoline/notation"
 	"stereoline/stereo"
@@ -104,7 +103,8 @@ func (a *analysis) compute() *fullAnalysis {
 	if n := notation.CountAtoms(a.key.text); n > lim.atoms {
 		return oversized(a.key.text, n, lim.atoms)
 	}
-	start := time.Now()
+	start, done := stereo.StartBudget()
+	defer done()
 	m := notation.ReadWith(a.key.text, a.key.reading)
 	opt := stereo.Options{NodeCap: lim.nodeCap, Budget: lim.budget, Start: start}
 	f := &fullAnalysis{mol: m, stereo: stereo.AnalyzeWith(m, opt)}

@@ -42,14 +42,15 @@ func (g *keyGraph) aromaticity() (atoms, bonds []bool) {
 	if !anyKekule && !hasAromatic {
 		return atoms, bonds
 	}
-	g.findRingSystems()
+	inRing := g.ringBonds()
 	for bi := range m.Bonds {
-		b := &m.Bonds[bi]
-		bonds[bi] = b.Order == notation.OrderAromatic && g.rings.BondInRing(bi)
+		bonds[bi] = m.Bonds[bi].Order == notation.OrderAromatic && inRing[bi]
 	}
-	if !anyKekule {
+	if !anyKekule || shortcuts && !g.kekuleRingPossible(bonds) {
+		// only which bonds lie on a ring matters: no smallest rings
 		return atoms, bonds
 	}
+	g.findRingSystems()
 	done := make([]bool, len(g.rings.SSSR))
 	for changed := true; changed; {
 		changed = false
@@ -201,4 +202,140 @@ func (g *keyGraph) piElectrons(a int, inRing map[int]bool, aromaticBond []bool) 
 		return 2, len(at.Bonds)+g.hydro[a] == 2
 	}
 	return 0, false
+}
+
+// cyclicBonds marks the bonds that lie on a ring, as
+// notation.FindRings's BondInRing says: every bond that is no bridge of
+// the graph (Tarjan's low links, with an explicit stack), bonds with an
+// end out of range or joining an atom to itself left out, two bonds
+// between one pair of atoms forming a ring.
+func cyclicBonds(m *notation.Molecule) []bool {
+	return cyclicBondsWhere(m, nil)
+}
+
+// cyclicBondsWhere is cyclicBonds on the graph of the bonds keep accepts
+// (nil: every bond).
+func cyclicBondsWhere(m *notation.Molecule, keep func(*notation.Bond) bool) []bool {
+	n := len(m.Atoms)
+	usable := func(b *notation.Bond) bool {
+		return b.Begin >= 0 && b.Begin < n && b.End >= 0 && b.End < n && b.Begin != b.End && (keep == nil || keep(b))
+	}
+	start := make([]int, n+1)
+	for i := range m.Bonds {
+		if b := &m.Bonds[i]; usable(b) {
+			start[b.Begin+1]++
+			start[b.End+1]++
+		}
+	}
+	for a := 0; a < n; a++ {
+		start[a+1] += start[a]
+	}
+	type arc struct{ bond, to int }
+	arcs := make([]arc, start[n])
+	fill := make([]int, n)
+	copy(fill, start[:n])
+	for i := range m.Bonds {
+		if b := &m.Bonds[i]; usable(b) {
+			arcs[fill[b.Begin]] = arc{i, b.End}
+			fill[b.Begin]++
+			arcs[fill[b.End]] = arc{i, b.Begin}
+			fill[b.End]++
+		}
+	}
+	inRing := make([]bool, len(m.Bonds))
+	disc, low := fill, make([]int, n) // fill is spent: it holds the discovery times now
+	for i := range disc {
+		disc[i] = -1
+	}
+	type frame struct{ atom, via, next int }
+	var stack []frame
+	clock := 0
+	for root := 0; root < n; root++ {
+		if disc[root] >= 0 {
+			continue
+		}
+		disc[root], low[root] = clock, clock
+		clock++
+		stack = append(stack[:0], frame{root, -1, start[root]})
+		for len(stack) > 0 {
+			f := &stack[len(stack)-1]
+			if f.next < start[f.atom+1] {
+				e := arcs[f.next]
+				f.next++
+				if e.bond == f.via {
+					continue
+				}
+				if disc[e.to] < 0 {
+					disc[e.to], low[e.to] = clock, clock
+					clock++
+					stack = append(stack, frame{e.to, e.bond, start[e.to]})
+					continue
+				}
+				inRing[e.bond] = true // a bond back up the tree closes a ring
+				low[f.atom] = min(low[f.atom], disc[e.to])
+				continue
+			}
+			done := *f
+			stack = stack[:len(stack)-1]
+			if len(stack) > 0 {
+				p := stack[len(stack)-1].atom
+				low[p] = min(low[p], low[done.atom])
+				if low[done.atom] <= disc[p] {
+					inRing[done.via] = true
+				}
+			}
+		}
+	}
+	return inRing
+}
+
+// kekuleRingPossible reports whether the Hückel tests of aromaticity
+// could change anything: whether some ring holds only atoms that can
+// give π electrons (piElectrons, taken generously: an aromatic atom, one
+// double bond, a neutral N, O, S or Se) and a non-aromatic atom or bond.
+// A ring that passes marks its atoms and bonds aromatic, which changes
+// nothing when they are already; the rings of the atoms that can give
+// electrons are the cycles of the graph those atoms span.
+func (g *keyGraph) kekuleRingPossible(aromaticBond []bool) bool {
+	m := g.mol
+	able := make([]bool, g.n)
+	for a := range m.Atoms {
+		at := &m.Atoms[a]
+		doubles := 0
+		for _, bi := range at.Bonds {
+			if bi >= 0 && bi < len(m.Bonds) && m.Bonds[bi].Order == notation.OrderDouble {
+				doubles++
+			}
+		}
+		switch {
+		case at.Aromatic, doubles == 1:
+			able[a] = true
+		case doubles > 1 || at.Charge != 0:
+		default:
+			switch at.Number {
+			case notation.ElemN, notation.ElemO, notation.ElemS, notation.ElemSe:
+				able[a] = true
+			}
+		}
+	}
+	cyc := cyclicBondsWhere(m, func(b *notation.Bond) bool { return able[b.Begin] && able[b.End] })
+	for bi, on := range cyc {
+		if b := &m.Bonds[bi]; on && (!aromaticBond[bi] || !m.Atoms[b.Begin].Aromatic || !m.Atoms[b.End].Aromatic) {
+			return true
+		}
+	}
+	return false
+}
+
+// ringBonds returns which bonds lie on a ring (the ring field once
+// findRingSystems ran, else cyclicBonds, kept): the searches that need
+// no smallest rings ask it.
+func (g *keyGraph) ringBonds() []bool {
+	if g.ring != nil {
+		return g.ring
+	}
+	if g.cyclic == nil {
+		g.cyclic = cyclicBonds(g.mol)
+	}
+	return g.cyclic
 }

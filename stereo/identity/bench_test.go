@@ -1,6 +1,8 @@
 package identity
 
 import (
+	"os"
+	"strings"
 	"testing"
 
 	"stereoline/notation"
@@ -59,6 +61,34 @@ func BenchmarkIndexAdd100k(b *testing.B) {
 		x := NewIndex()
 		for r := 0; r < 100000; r++ {
 			x.Add(ids[r%len(ids)])
+		}
+	}
+}
+
+// BenchmarkIdentifyScale computes the keys of every record of the list
+// STEREOLINE_SCALE_LIST names (testdata/scale/make_list.py; the first
+// field of each line), one op for the whole list, parsing not timed.
+func BenchmarkIdentifyScale(b *testing.B) {
+	name := os.Getenv("STEREOLINE_SCALE_LIST")
+	if name == "" {
+		b.Skip("STEREOLINE_SCALE_LIST is not set (make one with testdata/scale/make_list.py)")
+	}
+	data, err := os.ReadFile(name)
+	if err != nil {
+		b.Fatal(err)
+	}
+	var mols []*notation.Molecule
+	for line := range strings.Lines(string(data)) {
+		if f := strings.Fields(line); len(f) > 0 {
+			if m := notation.Read(f[0]); !m.Errors.HasErrors() && !m.Reaction && len(m.Atoms) > 0 {
+				mols = append(mols, m)
+			}
+		}
+	}
+	b.ResetTimer()
+	for b.Loop() {
+		for _, m := range mols {
+			Identify(m)
 		}
 	}
 }

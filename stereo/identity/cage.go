@@ -29,6 +29,21 @@ func (g *keyGraph) dropCageFixed(units, others []keyUnit, rank []int) []keyUnit 
 	if len(heads) == 0 {
 		return units
 	}
+	// a bridgehead has three ring bonds: without one, no smallest rings
+	// are needed
+	ring, bridged := g.ringBonds(), false
+	for _, i := range heads {
+		n := 0
+		for _, bi := range g.mol.Atoms[units[i].centre].Bonds {
+			if bi >= 0 && bi < len(ring) && ring[bi] {
+				n++
+			}
+		}
+		bridged = bridged || n >= 3
+	}
+	if !bridged {
+		return units
+	}
 	g.findRingSystems()
 	configured := make([]bool, g.n)
 	for _, list := range [2][]keyUnit{units, others} {

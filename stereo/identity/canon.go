@@ -72,16 +72,17 @@ type canonState struct {
 	keep   []bool // per unit: part of the key
 	ring   []bool // per unit: kept as a ring unit, parity only after tie-breaking
 	leaves int
-	atoms  []int // the atoms in the order, folded hydrogens left out
-	// sortBuf is rankBy's scratch space for the atoms in order.
-	sortBuf []int
-	seen    []bool
+	atoms  []int // the atoms in the order, folded hydrogens left out (the graph's, shared)
+	seen   []bool
 
 	// sym holds the symmetry classes after refinement, before ties are
 	// broken, for the polyhedral centres (polyhedron.go); mirrored
 	// reads those centres as in the mirror image.
 	sym      []int
 	mirrored bool
+	// stereoSplit is set once unit parities have told atoms apart
+	// (stereoRefine changed the ranks), at any point of the run
+	stereoSplit bool
 
 	// ringRoot is, per ring unit, its ring system (systems joined by a
 	// ring link counting as one); related holds, per atom, the invariant
@@ -97,30 +98,36 @@ type canonState struct {
 	relation []int
 }
 
-// canonResult is the outcome: the order (position -> atom), the rank of
-// every atom (folded hydrogens -1), the serialisation and the parity of
-// every unit on the final ranks (0 when not kept).
+// canonResult is the outcome: the rank of every atom (folded hydrogens
+// -1), the serialisation and the parity of every unit on the final ranks
+// (0 when not kept).
 type canonResult struct {
-	order    []int
 	rank     []int
 	text     string
 	parities []int
 }
 
 func newCanonState(g *keyGraph, units []keyUnit, stereo bool) *canonState {
-	c := &canonState{g: g, units: units, stereo: stereo}
-	for a := 0; a < g.n; a++ {
-		if !g.folded[a] {
-			c.atoms = append(c.atoms, a)
+	if g.atoms == nil {
+		g.atoms = make([]int, 0, g.n)
+		for a := 0; a < g.n; a++ {
+			if !g.folded[a] {
+				g.atoms = append(g.atoms, a)
+			}
 		}
 	}
-	return c
+	return &canonState{g: g, units: units, stereo: stereo, atoms: g.atoms}
 }
 
 // run computes the canonical form.
 func (c *canonState) run() canonResult {
-	rank := c.initialRanks()
-	rank = c.refine(rank)
+	return c.runFrom(c.g.baseRanks())
+}
+
+// runFrom computes the canonical form from the refined ranks of the
+// atom invariants (refine(initialRanks()), which depend on the graph
+// alone, so that the states of one graph can share them).
+func (c *canonState) runFrom(rank []int) canonResult {
 	if c.stereo {
 		rank = c.stereoRefine(rank)
 		c.chooseUnits(rank)
@@ -131,6 +138,55 @@ func (c *canonState) run() canonResult {
 		c.sym = slices.Clone(rank)
 	}
 	return c.search(rank)
+}
+
+// baseRanks returns the refined ranks of the atom invariants, which
+// every canonical state of the graph starts from; computed once, never
+// modified.
+func (g *keyGraph) baseRanks() []int {
+	if g.base == nil {
+		c := newCanonState(g, nil, false)
+		g.base = c.refine(c.initialRanks())
+	}
+	return g.base
+}
+
+// mirrorLeaf returns the serialisation of the mirror image (the units
+// of m, every tetrahedral and allene hand reversed) when it follows from
+// this finished run without a run of its own, and false otherwise.
+//
+// It does when the parities never told atoms apart, no ring unit or
+// ring relation is kept and the search reached one leaf. The parities
+// enter the ranks only through stereoRefine, whose invariant per atom
+// the mirror changes by a one-to-one map (a tetrahedral code 1 <-> 3, an
+// allene code 4 <-> 12, double bonds kept), so atoms tie in the mirror
+// exactly where they tie here: the mirror's run makes the same ranks,
+// keeps the same units (which asks only whether a parity exists) and
+// ends at the same leaf, where only the parities and the polyhedra are
+// written differently.
+func (c *canonState) mirrorLeaf(m *canonState, res canonResult) (string, bool) {
+	if !c.plain() {
+		return "", false
+	}
+	m.keep, m.ring, m.sym = c.keep, c.ring, c.sym
+	return m.leaf(res.rank).text, true
+}
+
+// plain reports whether a finished stereo run took the path its
+// constitution alone sets: the parities never told atoms apart, no ring
+// unit or ring relation is kept, and the search reached one leaf, so it
+// moved the first atom of the lowest tie ahead each time, as a run
+// without stereo does (mirrorLeaf, identifyGraph).
+func (c *canonState) plain() bool {
+	if !c.stereo || c.stereoSplit || c.related != nil || c.leaves != 1 || c.keep == nil {
+		return false
+	}
+	for i := range c.units {
+		if c.ring[i] {
+			return false
+		}
+	}
+	return true
 }
 
 // atomInvariant is the class of an atom on its own.
@@ -198,59 +254,162 @@ func (c *canonState) classes(rank []int) int {
 // Ranks are positions: an atom's rank is the number of atoms in lower
 // classes, so the ranks of one class are equal and the order is total
 // once every class holds one atom.
+//
+// Each round, an atom's signature is its rank followed by the sorted
+// codes of its neighbours (neighbour rank and bond class), and its new
+// rank is the number of atoms with a smaller signature. Since the rank
+// comes first, only the atoms of one class need comparing: the new rank
+// is where the class starts plus the members ahead of the atom.
 func (c *canonState) refine(rank []int) []int {
 	g := c.g
-	// Each atom's signature has a fixed length, its rank and one entry a
-	// neighbour: one backing array holds them all.
-	sig := make([][]int, g.n)
-	total := 0
-	for _, a := range c.atoms {
-		total += 1 + len(g.adj[a])
-	}
-	backing := make([]int, total)
-	for _, a := range c.atoms {
-		k := 1 + len(g.adj[a])
-		sig[a], backing = backing[:0:k], backing[k:]
-	}
+	sc := g.scratch()
+	order := sc.byRank(c.atoms, rank)
+	cur := rank
+	bufs := [2][]int{grow(sc.rankA, g.n), grow(sc.rankB, g.n)}
+	sc.rankA, sc.rankB = bufs[0], bufs[1]
 	n := c.classes(rank)
+	codes := func(a int) []int { return sc.codes[sc.off[a]:sc.off[a+1]] }
 	for iter := 0; iter <= len(c.atoms); iter++ {
-		for _, a := range c.atoms {
-			s := append(sig[a][:0], rank[a])
-			for _, e := range g.adj[a] {
-				s = append(s, rank[e.to]*8+e.class)
+		next := bufs[iter%2]
+		m := 0
+		for i := 0; i < len(order); {
+			j := i + 1
+			for j < len(order) && cur[order[j]] == cur[order[i]] {
+				j++
 			}
-			slices.Sort(s[1:])
-			sig[a] = s
+			if j == i+1 {
+				next[order[i]] = i
+				m++
+				i = j
+				continue
+			}
+			class := order[i:j]
+			for _, a := range class {
+				s := codes(a)[:0]
+				for _, e := range g.adj[a] {
+					s = append(s, cur[e.to]*8+e.class)
+				}
+				slices.Sort(s)
+			}
+			slices.SortFunc(class, func(x, y int) int { return compareInts(codes(x), codes(y)) })
+			r := i
+			for k, a := range class {
+				if k > 0 && compareInts(codes(a), codes(class[k-1])) != 0 {
+					r = i + k
+					m++
+				}
+				next[a] = r
+			}
+			m++
+			i = j
 		}
-		next := c.rankBy(func(x, y int) int { return compareInts(sig[x], sig[y]) })
-		m := c.classes(next)
-		rank = next
+		cur = next
 		if m == n {
 			break
 		}
 		n = m
 	}
-	return rank
+	return c.fresh(cur)
 }
 
-// rankBy ranks the atoms by a comparison: equal atoms share the position
-// of the first of them.
-func (c *canonState) rankBy(cmp func(x, y int) int) []int {
-	sorted := append(c.sortBuf[:0], c.atoms...)
-	c.sortBuf = sorted
-	slices.SortStableFunc(sorted, cmp)
-	rank := make([]int, c.g.n)
-	for i := range rank {
-		rank[i] = -1
+// fresh copies ranks of the atoms into a new slice, folded hydrogens -1.
+func (c *canonState) fresh(rank []int) []int {
+	out := make([]int, c.g.n)
+	for i := range out {
+		out[i] = -1
 	}
-	r := 0
-	for i, a := range sorted {
-		if i > 0 && cmp(a, sorted[i-1]) != 0 {
-			r = i
+	for _, a := range c.atoms {
+		out[a] = rank[a]
+	}
+	return out
+}
+
+// splitBy refines ranks by one more invariant, key, compared after the
+// rank: each atom's new rank is the number of atoms lower by (rank,
+// key), computed class by class.
+//
+// The ranks are in scratch space, valid until the next splitBy: the
+// callers refine them at once.
+func (c *canonState) splitBy(rank []int, key func(a int) int) []int {
+	sc := c.g.scratch()
+	order := sc.byRank(c.atoms, rank)
+	next := grow(sc.split, c.g.n)
+	sc.split = next
+	for i := 0; i < len(order); {
+		j := i + 1
+		for j < len(order) && rank[order[j]] == rank[order[i]] {
+			j++
 		}
-		rank[a] = r
+		class := order[i:j]
+		if len(class) > 1 {
+			slices.SortFunc(class, func(x, y int) int { return key(x) - key(y) })
+		}
+		r := i
+		for k, a := range class {
+			if k > 0 && key(a) != key(class[k-1]) {
+				r = i + k
+			}
+			next[a] = r
+		}
+		i = j
 	}
-	return rank
+	return next
+}
+
+// refineScratch is the working memory of ranking, shared by the
+// canonical states of one key graph, which run one after another.
+type refineScratch struct {
+	order        []int // the atoms by rank
+	count        []int
+	codes        []int // neighbour codes of every atom, atom a's at codes[off[a]:off[a+1]]
+	off          []int
+	rankA, rankB []int
+	split        []int // splitBy's ranks, read once by refine
+	// leaf's serialisation, copied into the result's text
+	leafOrder []int
+	buf       []byte
+	bonds     [][3]int
+}
+
+// scratch returns the graph's ranking scratch space.
+func (g *keyGraph) scratch() *refineScratch {
+	if g.sc == nil {
+		sc := &refineScratch{off: make([]int, g.n+1)}
+		for a := 0; a < g.n; a++ {
+			sc.off[a+1] = sc.off[a] + len(g.adj[a])
+		}
+		sc.codes = make([]int, sc.off[g.n])
+		g.sc = sc
+	}
+	return g.sc
+}
+
+// byRank returns the atoms sorted by rank (in atom order within a rank),
+// in the scratch space.
+func (sc *refineScratch) byRank(atoms, rank []int) []int {
+	order := grow(sc.order, len(atoms))
+	sc.order = order
+	count := grow(sc.count, len(atoms)+1)
+	sc.count = count
+	clear(count)
+	for _, a := range atoms {
+		r := rank[a]
+		if r < 0 || r >= len(atoms) {
+			// not positions: sort in general
+			copy(order, atoms)
+			slices.SortStableFunc(order, func(x, y int) int { return rank[x] - rank[y] })
+			return order
+		}
+		count[r+1]++
+	}
+	for r := 1; r < len(count); r++ {
+		count[r] += count[r-1]
+	}
+	for _, a := range atoms {
+		order[count[rank[a]]] = a
+		count[rank[a]]++
+	}
+	return order
 }
 
 // stereoRefine adds the unit parities to the invariants and refines
@@ -290,16 +449,12 @@ func (c *canonState) stereoRefine(rank []int) []int {
 			return rank
 		}
 		before := c.classes(rank)
-		next := c.rankBy(func(x, y int) int {
-			if rank[x] != rank[y] {
-				return rank[x] - rank[y]
-			}
-			return extra[x] - extra[y]
-		})
+		next := c.splitBy(rank, func(a int) int { return extra[a] })
 		next = c.refine(next)
 		if c.classes(next) == before {
 			return rank
 		}
+		c.stereoSplit = true
 		rank = next
 	}
 	return rank
@@ -319,9 +474,13 @@ func ligandRank(rank []int, x int) int {
 func (c *canonState) parity(u *keyUnit, rank []int) ringgeom.Hand {
 	switch u.kind {
 	case keyTetrahedral:
-		r := make([]int, len(u.ligands))
-		for i, x := range u.ligands {
-			r[i] = ligandRank(rank, x)
+		var buf [8]int
+		r := buf[:0]
+		if len(u.ligands) > len(buf) {
+			r = make([]int, 0, len(u.ligands))
+		}
+		for _, x := range u.ligands {
+			r = append(r, ligandRank(rank, x))
 		}
 		p, distinct := ringgeom.PermutationParity(r)
 		if !distinct {
@@ -563,18 +722,23 @@ func (c *canonState) search(rank []int) canonResult {
 // lowestTie returns the lowest rank held by more than one atom and its
 // atoms.
 func (c *canonState) lowestTie(rank []int) (int, []int) {
-	count := map[int]int{}
+	sc := c.g.scratch()
+	count := grow(sc.count, c.g.n+1)
+	sc.count = count
+	clear(count)
 	for _, a := range c.atoms {
-		count[rank[a]]++
+		if r := rank[a]; r >= 0 && r < len(count) {
+			count[r]++
+		}
 	}
 	low := -1
-	var members []int
 	for _, a := range c.atoms {
 		r := rank[a]
-		if count[r] > 1 && (low < 0 || r < low) {
+		if r >= 0 && r < len(count) && count[r] > 1 && (low < 0 || r < low) {
 			low = r
 		}
 	}
+	var members []int
 	for _, a := range c.atoms {
 		if rank[a] == low {
 			members = append(members, a)
@@ -586,19 +750,12 @@ func (c *canonState) lowestTie(rank []int) (int, []int) {
 // moveAhead breaks the tie of class low by moving atom a ahead of the
 // rest of its class, and refines.
 func (c *canonState) moveAhead(rank []int, low, a int) []int {
-	next := make([]int, len(rank))
-	for _, x := range c.atoms {
-		next[x] = 2 * rank[x]
+	next := c.splitBy(rank, func(x int) int {
 		if rank[x] == low && x != a {
-			next[x]++
+			return 1
 		}
-	}
-	for x := range next {
-		if c.g.folded[x] {
-			next[x] = -1
-		}
-	}
-	next = c.rankBy(func(x, y int) int { return next[x] - next[y] })
+		return 0
+	})
 	next = c.refine(next)
 	if c.stereo {
 		next = c.stereoRefine(next)
@@ -609,11 +766,13 @@ func (c *canonState) moveAhead(rank []int, low, a int) []int {
 // leaf serialises a total order.
 func (c *canonState) leaf(rank []int) canonResult {
 	g := c.g
-	order := make([]int, len(c.atoms))
+	sc := g.scratch()
+	order := grow(sc.leafOrder, len(c.atoms))
+	sc.leafOrder = order
 	for _, a := range c.atoms {
 		order[rank[a]] = a
 	}
-	var buf []byte
+	buf := sc.buf[:0]
 	put := func(v int) { buf = binary.AppendVarint(buf, int64(v)) }
 	put(len(order))
 	for _, a := range order {
@@ -622,22 +781,32 @@ func (c *canonState) leaf(rank []int) canonResult {
 			put(v)
 		}
 	}
-	var bonds [][3]int
+	// the bonds sorted by (lower position, higher position, class): the
+	// order lists the lower ends ascending, so only each atom's own
+	// bonds need sorting
+	bonds := sc.bonds[:0]
 	for _, a := range order {
+		first := len(bonds)
 		for _, e := range g.adj[a] {
 			if rank[a] < rank[e.to] {
 				bonds = append(bonds, [3]int{rank[a], rank[e.to], e.class})
 			}
 		}
+		own := bonds[first:]
+		for i := 1; i < len(own); i++ {
+			for j := i; j > 0 && compareInts(own[j][:], own[j-1][:]) < 0; j-- {
+				own[j], own[j-1] = own[j-1], own[j]
+			}
+		}
 	}
-	slices.SortFunc(bonds, func(x, y [3]int) int { return compareInts(x[:], y[:]) })
+	sc.bonds = bonds
 	put(len(bonds))
 	for _, b := range bonds {
 		put(b[0])
 		put(b[1])
 		put(b[2])
 	}
-	res := canonResult{order: order, rank: rank, parities: make([]int, len(c.units))}
+	res := canonResult{rank: rank, parities: make([]int, len(c.units))}
 	if c.stereo {
 		var us [][4]int
 		for i := range c.units {
@@ -672,6 +841,7 @@ func (c *canonState) leaf(rank []int) canonResult {
 		}
 	}
 	res.text = string(buf)
+	sc.buf = buf
 	return res
 }
 

@@ -88,21 +88,38 @@ func Identify(m *notation.Molecule) Identity {
 	return id
 }
 
+// shortcuts lets the key take the cheaper ways that give the same
+// result: the mirror image's key and the constitution's serialisation
+// from the structure's own run (canonState.mirrorLeaf and plain), and
+// no smallest rings for aromaticity where no ring can change it
+// (kekuleRingPossible); the tests turn it off to compare.
+var shortcuts = true
+
 // identifyGraph computes an Identity from a key graph and a set of unit
 // configurations (the marks, their mirror image, or an enumerated
 // assignment).
 func identifyGraph(g *keyGraph, units []keyUnit) Identity {
-	con := newCanonState(g, units, false).run()
+	base := g.baseRanks()
 	poly, polyChiral := hasPolyhedra(g.mol)
 	if len(units) == 0 && !poly {
 		// no marks: the stereo serialisation is the constitution's with
 		// an empty unit list (a zero varint), and the mirror is the same
+		con := newCanonState(g, units, false).runFrom(base)
 		k := digest(con.text + "\x00")
 		return Identity{Key: k, MirrorKey: k, ConstitutionKey: digest(con.text)}
 	}
 	st := newCanonState(g, units, true)
-	res := st.run()
-	id := Identity{Key: digest(res.text), MirrorKey: digest(res.text), ConstitutionKey: digest(con.text)}
+	res := st.runFrom(base)
+	cs := newCanonState(g, units, false)
+	var con canonResult
+	if shortcuts && st.plain() {
+		// the constitution's run breaks the same ties in the same order
+		con = cs.leaf(res.rank)
+	} else {
+		con = cs.runFrom(base)
+	}
+	key := digest(res.text)
+	id := Identity{Key: key, MirrorKey: key, ConstitutionKey: digest(con.text)}
 	needMirror := polyChiral
 	for i := range units {
 		if st.keep[i] && units[i].kind != keyDoubleBond {
@@ -113,13 +130,18 @@ func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 	if needMirror {
 		ms := newCanonState(g, mirrorUnits(units), true)
 		ms.mirrored = true
-		id.MirrorKey = digest(ms.run().text)
+		text, ok := "", false
+		if shortcuts {
+			text, ok = st.mirrorLeaf(ms, res)
+		}
+		if !ok {
+			text = ms.runFrom(base).text
+		}
+		id.MirrorKey = digest(text)
 	}
 	centres := 0
 	// a specified chirality centre: a tetrahedral unit whose ligands
 	// already differ by constitution
-	conRank := newCanonState(g, units, false)
-	base := conRank.refine(conRank.initialRanks())
 	for i := range units {
 		u := &units[i]
 		if !st.keep[i] {

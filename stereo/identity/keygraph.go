@@ -67,7 +67,12 @@ type keyGraph struct {
 	arom   []bool // per atom: aromatic, as written or as found in a Kekulé ring
 	// geom is the view the ring and bicycle searches read, set by
 	// findRingSystems
-	geom ringgeom.Graph
+	geom  ringgeom.Graph
+	sc    *refineScratch // canon.go, on first use
+	base  []int          // baseRanks, on first use
+	atoms []int          // the atoms not folded, on first use
+	// cyclic is ringBonds's answer before findRingSystems ran
+	cyclic []bool
 }
 
 func bondClass(b *notation.Bond) int {
@@ -98,9 +103,26 @@ func newKeyGraph(m *notation.Molecule) *keyGraph {
 	}
 	var aromBond []bool
 	g.arom, aromBond = g.aromaticity()
+	usable := func(b *notation.Bond) bool {
+		return b.Begin >= 0 && b.End >= 0 && b.Begin < g.n && b.End < g.n && !g.folded[b.Begin] && !g.folded[b.End]
+	}
+	// every atom's edges in one backing array, in the order of the bonds
+	degree := make([]int, g.n)
+	total := 0
+	for bi := range m.Bonds {
+		if b := &m.Bonds[bi]; usable(b) {
+			degree[b.Begin]++
+			degree[b.End]++
+			total += 2
+		}
+	}
+	backing := make([]keyEdge, total)
+	for a := range g.adj {
+		g.adj[a], backing = backing[:0:degree[a]], backing[degree[a]:]
+	}
 	for bi := range m.Bonds {
 		b := &m.Bonds[bi]
-		if b.Begin < 0 || b.End < 0 || b.Begin >= g.n || b.End >= g.n || g.folded[b.Begin] || g.folded[b.End] {
+		if !usable(b) {
 			continue
 		}
 		c := bondClass(b)

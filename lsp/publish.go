@@ -79,33 +79,39 @@ func diagnosticsParts(f *fileVersion, res *document.Result, version *int32) ([][
 	parts := make([][]byte, chunks+2)
 	parts[0] = head
 	errs := make([]error, chunks)
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for w := min(runtime.GOMAXPROCS(0), chunks); w > 0; w-- {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for {
-				k := int(next.Add(1)) - 1
-				if k >= chunks {
-					return
-				}
-				from, to := k*publishChunk, min((k+1)*publishChunk, len(ds))
-				b := partBuffer((to - from) * 400)
-				var err error
-				c := cursor{m: f.mapper}
-				for i := from; i < to && err == nil; i++ {
-					if i > 0 {
-						b = append(b, ',')
-					}
-					b, err = appendDiagnostic(b, &c, uri, &ds[i])
-				}
-				errs[k] = err
-				parts[k+1] = b
+	write := func(k int) {
+		from, to := k*publishChunk, min((k+1)*publishChunk, len(ds))
+		b := partBuffer((to - from) * 400)
+		var err error
+		c := cursor{m: f.mapper}
+		for i := from; i < to && err == nil; i++ {
+			if i > 0 {
+				b = append(b, ',')
 			}
-		}()
+			b, err = appendDiagnostic(b, &c, uri, &ds[i])
+		}
+		errs[k] = err
+		parts[k+1] = b
 	}
-	wg.Wait()
+	if workers := min(runtime.GOMAXPROCS(0), chunks); workers < 2 {
+		// a small document: written here, at once
+		for k := range chunks {
+			write(k)
+		}
+	} else {
+		var next atomic.Int64
+		var wg sync.WaitGroup
+		for range workers {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				for k := int(next.Add(1)) - 1; k < chunks; k = int(next.Add(1)) - 1 {
+					write(k)
+				}
+			}()
+		}
+		wg.Wait()
+	}
 	for _, err := range errs {
 		if err != nil {
 			return nil, err

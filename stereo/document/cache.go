@@ -56,8 +56,7 @@ func analyse(text string, r notation.Reading, lim limits) *analysis {
 	if n := notation.CountAtoms(text); n > lim.atoms {
 		return oversized(text, n, lim.atoms)
 	}
-	start, done := stereo.StartBudget()
-	defer done()
+	start := stereo.StartBudget()
 	m := notation.ReadWith(text, r)
 	opt := stereo.Options{NodeCap: lim.nodeCap, Budget: lim.budget, Start: start}
 	a := &analysis{mol: m, stereo: stereo.AnalyzeWith(m, opt)}

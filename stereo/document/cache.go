@@ -103,8 +103,7 @@ func (a *analysis) compute() *fullAnalysis {
 	if n := notation.CountAtoms(a.key.text); n > lim.atoms {
 		return oversized(a.key.text, n, lim.atoms)
 	}
-	start, done := stereo.StartBudget()
-	defer done()
+	start := stereo.StartBudget()
 	m := notation.ReadWith(a.key.text, a.key.reading)
 	opt := stereo.Options{NodeCap: lim.nodeCap, Budget: lim.budget, Start: start}
 	f := &fullAnalysis{mol: m, stereo: stereo.AnalyzeWith(m, opt)}

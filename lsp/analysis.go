@@ -279,11 +279,13 @@ func (w *worker) publish(ctx context.Context, uri string) {
 		if _, _, reopened := s.current().lookup(uri); reopened {
 			return
 		}
+		// The clearing is sent whether or not findings were: a document
+		// closed before its first publication may have one in flight,
+		// and an empty list is harmless to a client that has none.
 		w.mu.Lock()
-		had := w.sent[uri]
 		delete(w.sent, uri)
 		w.mu.Unlock()
-		if had && s.pushesDiagnostics() {
+		if s.pushesDiagnostics() {
 			s.notify("textDocument/publishDiagnostics", publishDiagnosticsParams{URI: uri, Diagnostics: []protocol.Diagnostic{}})
 		}
 		return

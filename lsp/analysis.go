@@ -279,11 +279,13 @@ func (w *worker) publish(ctx context.Context, uri string) {
 		if _, _, reopened := s.current().lookup(uri); reopened {
 			return
 		}
+		// The clearing is sent whether or not findings were: a document
+		// closed before its first publication may have one in flight,
+		// and an empty list is harmless to a client that has none.
 		w.mu.Lock()
-		had := w.sent[uri]
 		delete(w.sent, uri)
 		w.mu.Unlock()
-		if had && s.pushesDiagnostics() {
+		if s.pushesDiagnostics() {
 			s.notify("textDocument/publishDiagnostics", publishDiagnosticsParams{URI: uri, Diagnostics: []protocol.Diagnostic{}})
 		}
 		return
@@ -374,7 +376,7 @@ func (w *worker) await(ctx context.Context, uri string, a *analysis) bool {
 func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 	s := w.s
 	version := f.Version
-	params, err := diagnosticsJSON(f, res, &version)
+	params, err := diagnosticsParts(f, res, &version)
 	if err != nil {
 		s.log.Error("internal error", zap.String("uri", f.URI), zap.Error(fmt.Errorf("diagnostics: %w", err)))
 		return false
@@ -387,7 +389,8 @@ func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 	w.mu.Lock()
 	w.sent[f.URI] = true
 	w.mu.Unlock()
-	s.notifyJSON("textDocument/publishDiagnostics", params)
+	s.notifyJSONParts("textDocument/publishDiagnostics", params)
+	releaseParts(params) // written
 	return true
 }
 

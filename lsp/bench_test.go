@@ -1,6 +1,7 @@
 package lsp
 
 import (
+	"bytes"
 	"fmt"
 	"os"
 	"strings"
@@ -153,5 +154,40 @@ func BenchmarkScaleEdit(b *testing.B) {
 			c.change(u, v, edit(line, col, line, col+1, ""))
 		}
 		c.diagnostics(u, v)
+	}
+}
+
+// BenchmarkScaleRepublish measures, inside the server and without the
+// protocol, what one edit of the list STEREOLINE_SCALE_LIST names costs
+// after its debounce: the new line table, the engine's Reanalyze from the
+// previous result and the publishDiagnostics JSON of the new result (in
+// parts, as the server writes it); a mark is toggled on a line in the
+// middle. It skips without the variable.
+func BenchmarkScaleRepublish(b *testing.B) {
+	name := os.Getenv("STEREOLINE_SCALE_LIST")
+	if name == "" {
+		b.Skip("STEREOLINE_SCALE_LIST is not set")
+	}
+	text, err := os.ReadFile(name)
+	if err != nil {
+		b.Skip(err)
+	}
+	mid := bytes.IndexByte(text[len(text)/2:], '@') + len(text)/2
+	a := document.NewAnalyzer(document.DefaultConfig())
+	prev := a.Analyze("scale.smi", "", text)
+	versions := [2][]byte{text, append(append(append([]byte(nil), text[:mid]...), '@'), text[mid:]...)}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		content := versions[(i+1)%2]
+		f := &fileVersion{URI: "file:///bench/scale.smi", Name: "scale.smi", mapper: NewMapper(content, EncodingUTF16)}
+		next := a.Reanalyze(prev, "scale.smi", "", content)
+		v := int32(i)
+		parts, err := diagnosticsParts(f, next, &v)
+		if err != nil {
+			b.Fatal(err)
+		}
+		releaseParts(parts)
+		prev = next
 	}
 }

@@ -40,15 +40,15 @@ func (s *Server) hoverDrawing(res *document.Result, off int) string {
 		return ""
 	}
 	rec := &res.Records[ri]
-	if rec.Mol == nil || len(rec.Mol.Atoms) > maxHoverAtoms {
+	if rec.Mol() == nil || len(rec.Mol().Atoms) > maxHoverAtoms {
 		return ""
 	}
-	opt := depict.Options{Analysis: rec.Stereo}
-	if rec.Reaction != nil {
-		opt.Diagnostics = rec.Reaction.Diagnostics
+	opt := depict.Options{Analysis: rec.Stereo()}
+	if rec.Reaction() != nil {
+		opt.Diagnostics = rec.Reaction().Diagnostics
 	}
-	out := "\n\n" + svgImage("structure diagram", depict.Draw(rec.Mol, opt))
-	if f, _ := depict.FischerOf(rec.Mol, rec.Stereo); f != nil {
+	out := "\n\n" + svgImage("structure diagram", depict.Draw(rec.Mol(), opt))
+	if f, _ := depict.FischerOf(rec.Mol(), rec.Stereo()); f != nil {
 		out += "\n\n" + svgImage("Fischer projection", f.Drawing(depict.Options{}))
 	}
 	return out
@@ -177,12 +177,12 @@ func (s *Server) executeCommand(ctx context.Context, snap *snapshot, params json
 	if title == "" {
 		title = rec.Occ.Text
 	}
-	opt := depict.Options{Analysis: rec.Stereo, Title: title}
-	if rec.Reaction != nil {
-		opt.Diagnostics = rec.Reaction.Diagnostics
+	opt := depict.Options{Analysis: rec.Stereo(), Title: title}
+	if rec.Reaction() != nil {
+		opt.Diagnostics = rec.Reaction().Diagnostics
 	}
-	drawings := []*depict.Drawing{depict.Draw(rec.Mol, opt)}
-	if f, _ := depict.FischerOf(rec.Mol, rec.Stereo); f != nil {
+	drawings := []*depict.Drawing{depict.Draw(rec.Mol(), opt)}
+	if f, _ := depict.FischerOf(rec.Mol(), rec.Stereo()); f != nil {
 		drawings = append(drawings, f.Drawing(depict.Options{Title: title + " (Fischer projection)"}))
 	}
 	s.mu.Lock()

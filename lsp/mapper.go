@@ -98,14 +98,62 @@ func (m *Mapper) OffsetToPosition(off int) (protocol.Position, error) {
 		return protocol.Position{}, fmt.Errorf("offset %d outside the text (length %d)", off, len(m.content))
 	}
 	line := sort.Search(len(m.lineStarts), func(i int) bool { return m.lineStarts[i] > off }) - 1
+	return m.position(line, off), nil
+}
+
+// position returns the position of offset off on line line.
+func (m *Mapper) position(line, off int) protocol.Position {
 	start := m.lineStarts[line]
 	if end := m.lineEnd(line); off > end {
 		off = end
 	}
 	if _, found := slices.BinarySearch(m.wide, line); !found {
-		return protocol.Position{Line: uint32(line), Character: uint32(off - start)}, nil
+		return protocol.Position{Line: uint32(line), Character: uint32(off - start)}
 	}
-	return protocol.Position{Line: uint32(line), Character: uint32(m.units(m.content[start:off]))}, nil
+	return protocol.Position{Line: uint32(line), Character: uint32(m.units(m.content[start:off]))}
+}
+
+// cursor converts offsets to positions as OffsetToPosition does, fast
+// for offsets that come in order or near each other (the findings of a
+// document, sorted by position): it starts from the line of the last
+// offset and searches only when the offset lies beyond the next line.
+type cursor struct {
+	m    *Mapper
+	line int
+}
+
+func (c *cursor) position(off int) (protocol.Position, error) {
+	m := c.m
+	if off < 0 || off > len(m.content) {
+		return m.OffsetToPosition(off)
+	}
+	starts := m.lineStarts
+	l := c.line
+	switch {
+	case starts[l] <= off && (l+1 == len(starts) || off < starts[l+1]):
+	case l+1 < len(starts) && starts[l+1] <= off && (l+2 == len(starts) || off < starts[l+2]):
+		l++
+	default:
+		l = sort.Search(len(starts), func(i int) bool { return starts[i] > off }) - 1
+	}
+	c.line = l
+	return m.position(l, off), nil
+}
+
+// spanToRange is SpanToRange through the cursor.
+func (c *cursor) spanToRange(s notation.Span) (protocol.Range, error) {
+	if s.End < s.Start {
+		return c.m.SpanToRange(s)
+	}
+	start, err := c.position(s.Start)
+	if err != nil {
+		return protocol.Range{}, err
+	}
+	end, err := c.position(s.End)
+	if err != nil {
+		return protocol.Range{}, err
+	}
+	return protocol.Range{Start: start, End: end}, nil
 }
 
 // units counts the characters of b in the mapper's encoding. A trailing

@@ -6,9 +6,13 @@ package lsp
 // protocol structures and marshalled by reflection on every edit.
 
 import (
+	"bytes"
 	"encoding/json"
 	"fmt"
+	"runtime"
 	"strconv"
+	"sync"
+	"sync/atomic"
 	"unicode/utf8"
 
 	"go.lsp.dev/protocol"
@@ -20,32 +24,107 @@ import (
 // for res: the same JSON that marshalling publishDiagnosticsParams with
 // toDiagnostics gives, field for field.
 func diagnosticsJSON(f *fileVersion, res *document.Result, version *int32) (json.RawMessage, error) {
-	b := make([]byte, 0, 64+len(res.Diagnostics)*200)
-	b = append(b, `{"uri":`...)
-	b = appendString(b, f.URI)
-	if version != nil {
-		b = append(b, `,"version":`...)
-		b = strconv.AppendInt(b, int64(*version), 10)
+	parts, err := diagnosticsParts(f, res, version)
+	if err != nil {
+		return nil, err
 	}
-	b = append(b, `,"diagnostics":[`...)
-	uri := appendString(nil, f.URI)
-	for i := range res.Diagnostics {
-		if i > 0 {
-			b = append(b, ',')
+	defer releaseParts(parts)
+	return bytes.Join(parts, nil), nil
+}
+
+// partBuffers keeps the buffers of the parts of publications for the
+// next: a large list is published again on every edit, and buffers of
+// megabytes allocated afresh each time are garbage the collector must
+// clear and the runtime must fault in again.
+var partBuffers sync.Pool
+
+// partBuffer returns an empty buffer for a part, reused when one is kept.
+func partBuffer(size int) []byte {
+	if p, ok := partBuffers.Get().(*[]byte); ok && cap(*p) >= size/2 {
+		return (*p)[:0]
+	}
+	return make([]byte, 0, size)
+}
+
+// releaseParts gives the buffers of written parts back for reuse; the
+// parts must not be used after.
+func releaseParts(parts [][]byte) {
+	for _, p := range parts[1 : len(parts)-1] {
+		if cap(p) >= 64<<10 {
+			p := p[:0]
+			partBuffers.Put(&p)
 		}
+	}
+}
+
+// publishChunk is how many findings one part of the JSON holds; the parts
+// of a large document are written on all cores.
+const publishChunk = 4096
+
+// diagnosticsParts is diagnosticsJSON in parts that are to be written one
+// after the other, so the megabytes of a large list are neither written
+// on one core nor copied into one buffer.
+func diagnosticsParts(f *fileVersion, res *document.Result, version *int32) ([][]byte, error) {
+	head := make([]byte, 0, 64+len(f.URI))
+	head = append(head, `{"uri":`...)
+	head = appendString(head, f.URI)
+	if version != nil {
+		head = append(head, `,"version":`...)
+		head = strconv.AppendInt(head, int64(*version), 10)
+	}
+	head = append(head, `,"diagnostics":[`...)
+	uri := appendString(nil, f.URI)
+	ds := res.Diagnostics
+	chunks := (len(ds) + publishChunk - 1) / publishChunk
+	parts := make([][]byte, chunks+2)
+	parts[0] = head
+	errs := make([]error, chunks)
+	write := func(k int) {
+		from, to := k*publishChunk, min((k+1)*publishChunk, len(ds))
+		b := partBuffer((to - from) * 400)
 		var err error
-		if b, err = appendDiagnostic(b, f.mapper, uri, &res.Diagnostics[i]); err != nil {
+		c := cursor{m: f.mapper}
+		for i := from; i < to && err == nil; i++ {
+			if i > 0 {
+				b = append(b, ',')
+			}
+			b, err = appendDiagnostic(b, &c, uri, &ds[i])
+		}
+		errs[k] = err
+		parts[k+1] = b
+	}
+	if workers := min(runtime.GOMAXPROCS(0), chunks); workers < 2 {
+		// a small document: written here, at once
+		for k := range chunks {
+			write(k)
+		}
+	} else {
+		var next atomic.Int64
+		var wg sync.WaitGroup
+		for range workers {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				for k := int(next.Add(1)) - 1; k < chunks; k = int(next.Add(1)) - 1 {
+					write(k)
+				}
+			}()
+		}
+		wg.Wait()
+	}
+	for _, err := range errs {
+		if err != nil {
 			return nil, err
 		}
 	}
-	b = append(b, "]}"...)
-	return b, nil
+	parts[chunks+1] = []byte("]}")
+	return parts, nil
 }
 
 // appendDiagnostic writes one finding as a protocol Diagnostic; uri is
 // the document's URI written as a JSON string.
-func appendDiagnostic(b []byte, m *Mapper, uri []byte, d *document.Diagnostic) ([]byte, error) {
-	rng, err := m.SpanToRange(d.Span)
+func appendDiagnostic(b []byte, m *cursor, uri []byte, d *document.Diagnostic) ([]byte, error) {
+	rng, err := m.spanToRange(d.Span)
 	if err != nil {
 		return b, fmt.Errorf("%s: %w", d.Code, err)
 	}
@@ -67,16 +146,16 @@ func appendDiagnostic(b []byte, m *Mapper, uri []byte, d *document.Diagnostic) (
 	if len(d.Related) > 0 {
 		b = append(b, `,"relatedInformation":[`...)
 		for k, rel := range d.Related {
-			r, err := m.SpanToRange(rel.Span)
-			if err != nil {
-				return b, fmt.Errorf("%s related: %w", d.Code, err)
-			}
 			if k > 0 {
 				b = append(b, ',')
 			}
 			b = append(b, `{"location":{"uri":`...)
 			b = append(b, uri...)
 			b = append(b, `,"range":`...)
+			r, err := m.spanToRange(rel.Span)
+			if err != nil {
+				return b, fmt.Errorf("%s related: %w", d.Code, err)
+			}
 			b = appendRange(b, r)
 			b = append(b, `},"message":`...)
 			b = appendString(b, rel.Message)
@@ -107,15 +186,21 @@ func appendPosition(b []byte, p protocol.Position) []byte {
 // and backslashes are escaped; text that is not valid UTF-8 goes
 // through encoding/json, which replaces what does not decode.
 func appendString(b []byte, s string) []byte {
-	if !utf8.ValidString(s) {
-		q, _ := json.Marshal(s)
-		return append(b, q...)
-	}
 	const hex = "0123456789abcdef"
+	n := len(b)
 	b = append(b, '"')
-	start := 0
+	start, checked := 0, false
 	for i := 0; i < len(s); i++ {
 		c := s[i]
+		if c >= utf8.RuneSelf {
+			// the rest is checked once, at its first byte outside ASCII
+			if !checked && !utf8.ValidString(s[i:]) {
+				q, _ := json.Marshal(s)
+				return append(b[:n], q...)
+			}
+			checked = true
+			continue
+		}
 		if c >= 0x20 && c != '"' && c != '\\' {
 			continue
 		}

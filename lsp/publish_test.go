@@ -2,7 +2,10 @@ package lsp
 
 import (
 	"encoding/json"
+	"math/rand"
 	"reflect"
+	"strconv"
+	"strings"
 	"testing"
 
 	"stereoline/stereo/document"
@@ -44,6 +47,100 @@ func TestDiagnosticsJSON(t *testing.T) {
 		json.Unmarshal(want, &w)
 		if !reflect.DeepEqual(g, w) {
 			t.Errorf("encoding %v:\n got %s\nwant %s", enc, raw, want)
+		}
+	}
+}
+
+// TestDiagnosticsJSONInParts checks a publication written in several
+// parts on all cores (more findings than publishChunk) against the
+// protocol structures marshalled by encoding/json: line breaks of every
+// kind, titles outside ASCII, relations that point back many lines
+// (records invented for the test).
+func TestDiagnosticsJSONInParts(t *testing.T) {
+	var b strings.Builder
+	breaks := []string{"\n", "\r\n", "\r"}
+	for i := 0; i < 2*publishChunk+100; i++ {
+		switch i % 4 {
+		case 0:
+			b.WriteString("C1CC(\tbroken ")
+		case 1:
+			b.WriteString("N[C@@H](C)C(=O)O\tα ")
+		case 2:
+			b.WriteString("F/C=C/F\t𝛼 ")
+		default:
+			b.WriteString("C[C@H](F)Cl\tx ")
+		}
+		b.WriteString(strconv.Itoa(i))
+		b.WriteString(breaks[i%3])
+	}
+	text := b.String()
+	f := &fileVersion{URI: "file:///t/parts.smi", Name: "/t/parts.smi", Version: 1, mapper: NewMapper([]byte(text), EncodingUTF16)}
+	res := document.NewAnalyzer(document.DefaultConfig()).Analyze(f.Name, "", []byte(text))
+	if len(res.Diagnostics) <= publishChunk+100 {
+		t.Fatalf("%d findings, want more than %d", len(res.Diagnostics), publishChunk+100)
+	}
+	version := f.Version
+	raw, err := diagnosticsJSON(f, res, &version)
+	if err != nil {
+		t.Fatal(err)
+	}
+	diags, err := (&Server{}).toDiagnostics(f, res)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want, _ := json.Marshal(publishDiagnosticsParams{URI: f.URI, Version: &version, Diagnostics: diags})
+	var g, w any
+	if err := json.Unmarshal(raw, &g); err != nil {
+		t.Fatal(err)
+	}
+	json.Unmarshal(want, &w)
+	if !reflect.DeepEqual(g, w) {
+		t.Errorf("the publication in parts differs from the marshalled one")
+	}
+}
+
+// TestCursorPositions checks the cursor against OffsetToPosition at every
+// offset of a text with every kind of line break and wide characters, in
+// order, backwards and at random.
+func TestCursorPositions(t *testing.T) {
+	text := []byte("ab\r\ncd\n\nα𝛼x\rend\r\n\n\xffz")
+	for _, enc := range []PositionEncoding{EncodingUTF16, EncodingUTF8, EncodingUTF32} {
+		m := NewMapper(text, enc)
+		c := cursor{m: m}
+		var offs []int
+		for off := 0; off <= len(text); off++ {
+			offs = append(offs, off)
+		}
+		for off := len(text); off >= 0; off-- {
+			offs = append(offs, off)
+		}
+		rng := rand.New(rand.NewSource(1))
+		for k := 0; k < 200; k++ {
+			offs = append(offs, rng.Intn(len(text)+1))
+		}
+		for _, off := range offs {
+			got, err1 := c.position(off)
+			want, err2 := m.OffsetToPosition(off)
+			if got != want || (err1 == nil) != (err2 == nil) {
+				t.Fatalf("%v: offset %d: %v, want %v", enc, off, got, want)
+			}
+		}
+	}
+}
+
+// TestAppendString checks the hand-written JSON strings against
+// encoding/json: both decode to the same string, for quotes, controls,
+// text outside ASCII and bytes that are not UTF-8.
+func TestAppendString(t *testing.T) {
+	for _, s := range []string{"", "plain", `q"b\`, "tab\tnl\n\x01", "α-alanine", "𝛼 wide", "bad \xff\xfe here", "α then bad \xc3", "\xe2\x82"} {
+		var g, w string
+		if err := json.Unmarshal(appendString(nil, s), &g); err != nil {
+			t.Fatalf("%q: %v", s, err)
+		}
+		q, _ := json.Marshal(s)
+		json.Unmarshal(q, &w)
+		if g != w {
+			t.Errorf("%q: %q, want %q", s, g, w)
 		}
 	}
 }

@@ -19,6 +19,7 @@
 package lsp
 
 import (
+	"bytes"
 	"context"
 	"encoding/json"
 	"errors"
@@ -184,19 +185,25 @@ func (t *tolerantStream) Write(ctx context.Context, msg jsonrpc2.Message) (int64
 // writeNotification writes a notification whose params are JSON
 // already, framed as jsonrpc2 frames messages, so that megabytes of
 // diagnostics are not marshalled again twice on their way out.
-func (t *tolerantStream) writeNotification(method string, params []byte) error {
+func (t *tolerantStream) writeNotification(method string, params ...[]byte) error {
 	head := appendString([]byte(`{"jsonrpc":"2.0","method":`), method)
 	head = append(head, `,"params":`...)
+	n := len(head) + 1
+	for _, p := range params {
+		n += len(p)
+	}
 	t.mu.Lock()
 	defer t.mu.Unlock()
-	if _, err := fmt.Fprintf(t.raw, "Content-Length: %d\r\n\r\n", len(head)+len(params)+1); err != nil {
+	if _, err := fmt.Fprintf(t.raw, "Content-Length: %d\r\n\r\n", n); err != nil {
 		return err
 	}
 	if _, err := t.raw.Write(head); err != nil {
 		return err
 	}
-	if _, err := t.raw.Write(params); err != nil {
-		return err
+	for _, p := range params {
+		if _, err := t.raw.Write(p); err != nil {
+			return err
+		}
 	}
 	_, err := t.raw.Write([]byte{'}'})
 	return err
@@ -435,6 +442,18 @@ func (s *Server) notifyJSON(method string, params json.RawMessage) {
 		return
 	}
 	if err := s.out.writeNotification(method, params); err != nil {
+		s.log.Info("notification not sent", zap.String("method", method), zap.Error(err))
+	}
+}
+
+// notifyJSONParts is notifyJSON with params written in parts, one after
+// the other.
+func (s *Server) notifyJSONParts(method string, params [][]byte) {
+	if s.out == nil {
+		s.notify(method, json.RawMessage(bytes.Join(params, nil)))
+		return
+	}
+	if err := s.out.writeNotification(method, params...); err != nil {
 		s.log.Info("notification not sent", zap.String("method", method), zap.Error(err))
 	}
 }

@@ -72,9 +72,9 @@ type Options struct {
 	// spent some of it before the call (reading the record); unset means
 	// the call's start.
 	Start Instant
-	// deadline, when set, replaces Budget: the analyses a call runs
-	// inside itself (portable.go, groups.go) share their caller's
-	deadline Instant
+	// shared, when set, replaces Budget: the analyses a call runs
+	// inside itself (portable.go, groups.go) share their caller's budget.
+	shared *budget
 	// noOpenMarks leaves out the report of marks read differently by
 	// other readers: set for the second analysis that report runs
 	noOpenMarks bool
@@ -97,8 +97,10 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 	ws := takeWorkspace()
 	ws.g.build(m)
 	ws.cfg.reset()
-	b, unlock := newBudget(opt)
-	defer unlock()
+	b, owned := newBudget(opt)
+	if owned {
+		defer b.release()
+	}
 	l := &labeller{g: &ws.g, cfg: &ws.cfg, nodeCap: opt.NodeCap, res: res, spare: ws.spare, budget: b}
 	l.classes = &lazyClasses{g: l.g}
 	defer func() {
@@ -115,7 +117,7 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 	if l.nodeCap <= 0 {
 		l.nodeCap = defaultNodeCap
 	}
-	opt.deadline = l.budget.deadline
+	opt.shared = l.budget
 	l.readCentres()
 	l.checkBridgeheads()
 	l.readBonds()

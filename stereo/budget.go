@@ -24,80 +24,45 @@ const DefaultBudget = 800 * time.Millisecond
 // none.
 const DefaultNodeCap = defaultNodeCap
 
-// Instant is a reading of the clock the budget counts: the processor
-// time of the thread that analyses the record where the system gives it
-// (Linux), else the wall clock. Counting processor time keeps the labels
-// of a record the same on a busy machine, where a record waiting for a
-// core would otherwise run out of wall time; it still stops a runaway.
-// The zero Instant is unset.
+// Instant is when a budget started (StartBudget); the zero Instant is
+// unset.
 type Instant struct {
-	at  time.Duration // processor time of the thread, or wall time since wallEpoch
-	cpu bool          // at is processor time
-	set bool
-	// wall is the wall time since wallEpoch read with a processor-time
-	// Instant, moved with it by after: a thread cannot use more processor
-	// time than the wall time that passes, so while the wall clock (read
-	// without a system call) is short of wall, the processor time is
-	// short of at and passed need not ask the system.
-	wall time.Duration
+	wall time.Time
+	set  bool
 }
 
-// wallEpoch is where wall-clock Instants count from.
-var wallEpoch = time.Now()
+// StartBudget starts the budget of one record, for a caller that spends
+// some of it before Analyze (reading the record; Options.Start).
+func StartBudget() Instant { return Instant{wall: time.Now(), set: true} }
 
-// now reads the clock the budget counts.
-func now() Instant {
-	if d, ok := threadCPU(); ok {
-		return Instant{at: d, cpu: true, set: true, wall: time.Since(wallEpoch)}
-	}
-	return Instant{at: time.Since(wallEpoch), set: true}
-}
-
-// after returns the Instant d later.
-func (t Instant) after(d time.Duration) Instant { t.at += d; t.wall += d; return t }
-
-// wallMargin is how far short of a processor-time Instant's wall time
-// the wall clock must be for passed to answer without reading the
-// thread's clock: it covers the moment between the two readings of now
-// and the grain of the two clocks.
-const wallMargin = time.Millisecond
-
-// passed reports whether the clock has passed t. A processor-time
-// Instant is read on the thread it was started on (StartBudget wires the
-// goroutine to it).
-func (t Instant) passed() bool {
-	if t.cpu && time.Since(wallEpoch)+wallMargin < t.wall {
-		return false
-	}
-	n := now()
-	if n.cpu != t.cpu {
-		// the thread's clock became unreadable: count the budget spent
-		// rather than compare two clocks
-		return true
-	}
-	return n.at > t.at
-}
-
-// StartBudget starts the budget of one record on the calling goroutine,
-// for a caller that spends some of it before Analyze (reading the
-// record; Options.Start). It wires the goroutine to its thread, so that
-// the processor time counted is the record's own, until the returned
-// function is called; call it when the record is done.
-func StartBudget() (Instant, func()) {
-	runtime.LockOSThread()
-	return now(), runtime.UnlockOSThread
-}
-
-// budget is the deadline of one analysis, checked cooperatively: the
+// budget is the time one record may take, checked cooperatively: the
 // digraph asks at every node it adds and every sphere it compares, the
-// phases before every unit they label or perceive. Once the deadline has
-// passed the digraph adds no more nodes (its comparisons then end as at
-// the node cap) and the phases label nothing more; the units left are
-// reported undetermined under CodeBudget. Nothing runs on after the
-// call returns: there are no goroutines to abandon.
+// phases before every unit they label or perceive. Once it is spent the
+// digraph adds no more nodes (its comparisons then end as at the node
+// cap) and the phases label nothing more; the units left are reported
+// undetermined under CodeBudget. Nothing runs on after the call returns:
+// there are no goroutines to abandon.
+//
+// The first half of the budget is wall time; the rest is the processor
+// time of the thread doing the work, where the system gives it (Linux;
+// budget_clock_linux.go), and at least half the budget. So a record that
+// needs less than half its budget is never cut short, however busy the
+// machine (waiting for a core is not work), and a runaway still stops.
+// Reading a thread's processor time is a system call, about thirty
+// times dearer than the wall clock, so the wall clock is read first: a
+// thread cannot use more processor time than the wall time that passed,
+// so the processor clock is read only once the wall clock is past the
+// point where the budget could be spent. From the switch to processor
+// time on, the goroutine is wired to its thread (release undoes it), so
+// the processor time read is the record's own. Where the system gives no
+// processor time the budget is wall time throughout.
 type budget struct {
-	deadline Instant // unset: no deadline
 	limit    time.Duration
+	deadline time.Time // wall clock: where the budget ends, in wall mode
+	wallNext time.Time // the clocks say nothing new before this
+	cpu      bool      // switched to processor time
+	cpuEnd   time.Duration
+	locked   bool
 	ticks    uint32
 	spent    bool
 }
@@ -115,7 +80,7 @@ func (b *budget) tick() bool {
 	if b.spent {
 		return true
 	}
-	if !b.deadline.set {
+	if b.limit <= 0 {
 		return false
 	}
 	b.ticks++
@@ -125,31 +90,72 @@ func (b *budget) tick() bool {
 	return b.check()
 }
 
-// check looks at the clock and reports whether the budget is spent.
+// check looks at the clocks and reports whether the budget is spent.
 func (b *budget) check() bool {
-	if b == nil {
+	if b == nil || b.spent || b.limit <= 0 {
+		return b != nil && b.spent
+	}
+	wall := time.Now()
+	if wall.Before(b.wallNext) {
 		return false
 	}
-	if !b.spent && b.deadline.set && b.deadline.passed() {
-		b.spent = true
+	if !b.cpu {
+		// half the budget has passed on the wall clock: what is left is
+		// counted in processor time, and is at least half the budget
+		if !b.locked {
+			runtime.LockOSThread()
+			b.locked = true
+		}
+		used, ok := threadCPU()
+		if !ok {
+			b.release()
+			if !wall.Before(b.deadline) {
+				b.spent = true
+			}
+			b.wallNext = b.deadline
+			return b.spent
+		}
+		b.cpu = true
+		b.cpuEnd = used + max(b.deadline.Sub(wall), b.limit/2)
+		b.wallNext = wall.Add(b.cpuEnd - used)
+		// only a budget of a nanosecond, which tests use to spend it at
+		// once, has nothing left here
+		b.spent = used >= b.cpuEnd
+		return b.spent
 	}
-	return b.spent
+	used, ok := threadCPU()
+	if !ok || used >= b.cpuEnd {
+		b.spent = true
+		return true
+	}
+	b.wallNext = wall.Add(b.cpuEnd - used)
+	return false
 }
 
-// newBudget starts the budget of one call. A call that starts its own
-// budget wires its goroutine to its thread until unlock is called.
-func newBudget(opt Options) (b *budget, unlock func()) {
+// release unwires the goroutine from its thread if the budget wired it.
+func (b *budget) release() {
+	if b != nil && b.locked {
+		b.locked = false
+		runtime.UnlockOSThread()
+	}
+}
+
+// newBudget starts the budget of one call, or shares the budget of the
+// call it runs inside (Options.shared). owned says whether this call
+// must release it.
+func newBudget(opt Options) (b *budget, owned bool) {
 	switch {
-	case opt.deadline.set:
-		return &budget{deadline: opt.deadline, limit: opt.Budget}, func() {}
+	case opt.shared != nil:
+		return opt.shared, false
 	case opt.Budget <= 0:
-		return &budget{}, func() {}
+		return &budget{}, true
 	}
-	start, unlock := opt.Start, func() {}
-	if !start.set {
-		start, unlock = StartBudget()
+	start := opt.Start.wall
+	if !opt.Start.set {
+		start = time.Now()
 	}
-	return &budget{deadline: start.after(opt.Budget), limit: opt.Budget}, unlock
+	end := start.Add(opt.Budget)
+	return &budget{limit: opt.Budget, deadline: end, wallNext: start.Add(opt.Budget / 2)}, true
 }
 
 // skipOverBudget reports whether the budget is spent before a marked

@@ -281,7 +281,7 @@ func (gr *groupReader) invertedLabels(g *Group) map[int]Descriptor {
 	if err != nil {
 		return nil
 	}
-	an := AnalyzeWith(notation.ReadWith(text, m.Reading), Options{NodeCap: gr.l.nodeCap, deadline: gr.l.budget.deadline, skipGroups: true, noOpenMarks: true})
+	an := AnalyzeWith(notation.ReadWith(text, m.Reading), Options{NodeCap: gr.l.nodeCap, shared: gr.l.budget, skipGroups: true, noOpenMarks: true})
 	member := make(map[int]bool, len(g.Atoms))
 	for _, a := range g.Atoms {
 		member[a] = true

@@ -241,13 +241,13 @@ func writeSideHTML(w *bufio.Writer, p *review.Pair, newSide bool, caption, id st
 // units marked.
 func drawForReview(r *review.Record, p *review.Pair, newSide bool) *depict.Drawing {
 	opt := depict.Options{}
-	if len(r.Mol.Atoms) <= depict.MaxAtoms {
-		opt.Analysis = r.Stereo
-		if r.Reaction != nil {
-			opt.Diagnostics = r.Reaction.Diagnostics
+	if len(r.Mol().Atoms) <= depict.MaxAtoms {
+		opt.Analysis = r.Stereo()
+		if r.Reaction() != nil {
+			opt.Diagnostics = r.Reaction().Diagnostics
 		}
 	}
-	d := depict.Draw(r.Mol, opt)
+	d := depict.Draw(r.Mol(), opt)
 	atoms := map[int]bool{}
 	var bonds [][2]int
 	for _, u := range p.Units {
@@ -299,9 +299,9 @@ func unitCell(p *review.Pair, u *review.UnitChange) string {
 	var m *notation.Molecule
 	atoms := u.Atoms
 	if atoms != nil {
-		m = p.New.Mol
+		m = p.New.Mol()
 	} else {
-		m, atoms = p.Old.Mol, u.OldAtoms
+		m, atoms = p.Old.Mol(), u.OldAtoms
 	}
 	var names []string
 	for _, a := range atoms {

@@ -154,11 +154,11 @@ func (r *checkRun) keysFile(f checkFile, w *keysWriter) {
 // the stereoisomers, unknown which), "racemic" when they are and groups
 // (a mixture), "mixed" for both; "" for a record without keys.
 func groupKind(rec *document.Record) string {
-	if rec.Identity == nil || rec.Stereo == nil {
+	if rec.Identity == nil || rec.Stereo() == nil {
 		return ""
 	}
 	specified := false
-	for _, u := range rec.Stereo.Units {
+	for _, u := range rec.Stereo().Units {
 		if u.Specified {
 			specified = true
 			break
@@ -168,7 +168,7 @@ func groupKind(rec *document.Record) string {
 		return "none"
 	}
 	var or, and bool
-	for _, g := range rec.Stereo.Groups {
+	for _, g := range rec.Stereo().Groups {
 		switch g.Kind {
 		case notation.GroupOr:
 			or = true

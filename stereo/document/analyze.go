@@ -59,22 +59,60 @@ type Result struct {
 	// relation of each record of a list to an earlier one (set by
 	// Relate). Reanalyze reuses both for the records an edit left alone.
 	own [][]Diagnostic
-	rel []relation
+	rel []*relation
+	// occArrays counts the arrays the records' occurrences lie in
+	// (Reanalyze).
+	occArrays int
 }
 
-// Record is one notation occurrence with its analysis.
+// Record is one notation occurrence with its analysis. A record keeps
+// only compact facts of its analysis; Mol, Stereo and Reaction give the
+// rest, kept for the records used last and read again on demand.
 type Record struct {
-	Occ    *find.Occurrence
-	Mol    *notation.Molecule
-	Stereo *stereo.Analysis
+	Occ *find.Occurrence
 	// Identity is set for the records of a list whose relations needed
 	// it (those whose constitution pre-key another record shares) and
-	// nil otherwise; Identify gives it for any record. Reaction is nil
-	// unless the record is a reaction.
+	// nil otherwise; Identify gives it for any record.
 	Identity *identity.Identity
-	Reaction *reaction.Result
 
 	an *analysis // the cached analysis the record was filled from
+	// full, when set, is the full analysis the record holds on to (the
+	// records of AnalyzeOccurrences, which a review reads all of).
+	full *fullAnalysis
+}
+
+// get returns the record's full analysis.
+func (rec *Record) get() *fullAnalysis {
+	if rec.full != nil {
+		return rec.full
+	}
+	return rec.an.get()
+}
+
+// Mol returns the record's molecule. It is safe for concurrent use; the
+// molecule must not be changed.
+func (rec *Record) Mol() *notation.Molecule {
+	if rec.an == nil {
+		return nil
+	}
+	return rec.get().mol
+}
+
+// Stereo returns the record's stereo analysis.
+func (rec *Record) Stereo() *stereo.Analysis {
+	if rec.an == nil {
+		return nil
+	}
+	return rec.get().stereo
+}
+
+// Reaction returns the record's reaction analysis, nil unless the record
+// is a reaction.
+func (rec *Record) Reaction() *reaction.Result {
+	if rec.an == nil {
+		return nil
+	}
+	return rec.get().reaction
 }
 
 // Identify returns the record's identity keys, computing them on first
@@ -176,9 +214,9 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	res.Records = make([]Record, len(occs))
 	res.own = make([][]Diagnostic, len(occs))
 	fill := func(i int) {
-		an := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
-		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
-		res.own[i] = res.recordFindings(i)
+		an, f := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
+		res.Records[i] = Record{Occ: &occs[i], an: an}
+		res.own[i] = res.recordFindings(i, f)
 	}
 	parallel(len(occs), fill)
 	n := 0
@@ -271,7 +309,7 @@ func (r *Result) configured(d Diagnostic) (_ Diagnostic, on bool) {
 // record to host offsets, sorted by position as sortDiagnostics sorts
 // the whole document's. It reads only record i, so records are done in
 // parallel.
-func (r *Result) recordFindings(i int) []Diagnostic {
+func (r *Result) recordFindings(i int, f *fullAnalysis) []Diagnostic {
 	var out []Diagnostic
 	add := func(d Diagnostic) {
 		if d, on := r.configured(d); on {
@@ -299,23 +337,23 @@ func (r *Result) recordFindings(i int) []Diagnostic {
 		}
 		return d
 	}
-	for _, e := range rec.Mol.Errors {
+	for _, e := range f.mol.Errors {
 		add(mapped(e))
 	}
-	for _, e := range rec.Stereo.Diagnostics {
+	for _, e := range f.stereo.Diagnostics {
 		d := mapped(e)
-		d.Fixes = r.fixesFor(i, e)
+		d.Fixes = r.fixesFor(i, f, e)
 		add(d)
 	}
 	if rec.an != nil {
 		for _, e := range rec.an.groupFindings {
 			d := mapped(e)
-			d.Fixes = r.fixesFor(i, e)
+			d.Fixes = r.fixesFor(i, f, e)
 			add(d)
 		}
 	}
-	if rec.Reaction != nil {
-		for _, e := range rec.Reaction.Diagnostics {
+	if f.reaction != nil {
+		for _, e := range f.reaction.Diagnostics {
 			add(mapped(e))
 		}
 	}

@@ -2,6 +2,7 @@ package document
 
 import (
 	"sync"
+	"sync/atomic"
 
 	"stereoline/notation"
 	"stereoline/stereo"
@@ -14,12 +15,29 @@ import (
 // while the records of the file being edited stay warm.
 const cacheLimit = 250_000
 
+// fullLimit bounds the analyses whose molecule and stereo analysis the
+// cache keeps (the full analyses of the records requests asked about
+// last, and of the records read last). A molecule and its analysis weigh
+// some kilobytes, a list holds 100,000 records, and after the findings
+// are made only a request about one record needs them again.
+const fullLimit = 512
+
 // analysis is what the engine knows of one notation text, independent of
-// where it was found.
+// where it was found: the compact facts every record keeps (the pre-key,
+// the identity keys once computed, the findings about groups), and the
+// full analysis (molecule, stereo analysis, reaction), kept only while it
+// is among the last used (fullLimit) and read again on demand.
 type analysis struct {
-	mol      *notation.Molecule
-	stereo   *stereo.Analysis
-	reaction *reaction.Result // nil unless the record is a reaction
+	key cacheKey
+	// full is the molecule with its analyses, or nil when dropped;
+	// fulls, when not nil, is the list of kept full analyses it is on.
+	// A pinned analysis keeps its full analysis: one over its time
+	// budget, whose analysis read again could come out otherwise.
+	full   atomic.Pointer[fullAnalysis]
+	fulls  *fullList
+	pinned bool
+	mu     sync.Mutex // serialises reading the full analysis again
+
 	// groupFindings are the or and and groups that add nothing
 	// (identity.GroupFindings), for records with stereo groups.
 	groupFindings notation.ErrorList
@@ -39,65 +57,194 @@ type analysis struct {
 	count     identity.StereoisomerCount
 }
 
+// fullAnalysis is the part of an analysis that is dropped and read again.
+type fullAnalysis struct {
+	mol      *notation.Molecule
+	stereo   *stereo.Analysis
+	reaction *reaction.Result // nil unless the record is a reaction
+}
+
 // stereoisomersOf returns identity.Stereoisomers of m, counted once per
-// analysis when m is the analysis's molecule (a nil analysis counts
-// every time).
+// analysis, m being the analysis's molecule (a nil analysis counts every
+// time).
 func (a *analysis) stereoisomersOf(m *notation.Molecule) identity.StereoisomerCount {
-	if a == nil || a.mol != m {
+	if a == nil {
 		return identity.Stereoisomers(m)
 	}
-	a.countOnce.Do(func() { a.count = identity.Stereoisomers(a.mol) })
+	a.countOnce.Do(func() { a.count = identity.Stereoisomers(m) })
 	return a.count
 }
 
 // analyse runs the engine on one notation text, read under reading r,
-// within the limits lim: the time budget counts the reading too.
+// within the limits lim: the time budget counts the reading too. The
+// analysis keeps its full analysis (it is on no list of kept ones).
 func analyse(text string, r notation.Reading, lim limits) *analysis {
-	if n := notation.CountAtoms(text); n > lim.atoms {
-		return oversized(text, n, lim.atoms)
-	}
-	start, done := stereo.StartBudget()
-	defer done()
-	m := notation.ReadWith(text, r)
-	opt := stereo.Options{NodeCap: lim.nodeCap, Budget: lim.budget, Start: start}
-	a := &analysis{mol: m, stereo: stereo.AnalyzeWith(m, opt)}
-	switch {
-	case m.Reaction:
-		a.reaction = reaction.AnalyzeWith(m, a.stereo)
-	case !m.Errors.HasErrors() && len(m.Atoms) > 0:
+	a := &analysis{key: cacheKey{text, r, lim}}
+	f := a.compute()
+	a.full.Store(f)
+	if m := f.mol; !m.Reaction && !m.Errors.HasErrors() && len(m.Atoms) > 0 {
 		a.identifiable = true
 		a.preKey = identity.ConstitutionPreKey(m)
-		if len(a.stereo.Groups) > 0 {
+		if len(f.stereo.Groups) > 0 {
 			a.groupFindings = identity.GroupFindings(m)
+		}
+	}
+	for _, e := range f.stereo.Diagnostics {
+		if e.Code == stereo.CodeBudget {
+			a.pinned = true
 		}
 	}
 	return a
 }
 
+// compute reads and labels the analysis's text.
+func (a *analysis) compute() *fullAnalysis {
+	lim := a.key.limits
+	if n := notation.CountAtoms(a.key.text); n > lim.atoms {
+		return oversized(a.key.text, n, lim.atoms)
+	}
+	start := stereo.StartBudget()
+	m := notation.ReadWith(a.key.text, a.key.reading)
+	opt := stereo.Options{NodeCap: lim.nodeCap, Budget: lim.budget, Start: start}
+	f := &fullAnalysis{mol: m, stereo: stereo.AnalyzeWith(m, opt)}
+	if m.Reaction {
+		f.reaction = reaction.AnalyzeWith(m, f.stereo)
+	}
+	return f
+}
+
 // oversized is the analysis of a record with more atoms than the
 // recordAtoms limit: it is not read, and its one finding says why. The
 // molecule holds the text only, so requests on the record (hover, a
-// drawing) find no atoms and say nothing about them.
-func oversized(text string, atoms, limit int) *analysis {
+// drawing) find no atoms and say nothing about them. Its finding is a
+// budget finding, so the analysis is pinned (never dropped).
+func oversized(text string, atoms, limit int) *fullAnalysis {
 	end := min(len(text), 1)
 	st := &stereo.Analysis{}
 	e := st.Diagnostics.Add(notation.Span{Start: 0, End: end}, stereo.CodeBudget,
 		"the record has %d atoms, more than the %d one record may have (limits.recordAtoms): it was not read or analysed", atoms, limit)
 	e.Severity = notation.SeverityWarning
-	return &analysis{mol: &notation.Molecule{Text: text}, stereo: st}
+	return &fullAnalysis{mol: &notation.Molecule{Text: text}, stereo: st}
+}
+
+// get returns the full analysis: the one kept, or the text read and
+// labelled again (and kept among the last used).
+func (a *analysis) get() *fullAnalysis {
+	if f := a.full.Load(); f != nil {
+		if a.fulls != nil && !a.pinned {
+			a.fulls.touch(a)
+		}
+		return f
+	}
+	a.mu.Lock()
+	defer a.mu.Unlock()
+	if f := a.full.Load(); f != nil {
+		return f
+	}
+	f := a.compute()
+	a.full.Store(f)
+	if a.fulls != nil {
+		a.fulls.add(a)
+	}
+	return f
+}
+
+// molecule returns the molecule: the one kept, or the text read again
+// (not kept) when the full analysis was dropped. Reading alone is cheap
+// next to labelling; the relations of a list read thousands of records
+// this way.
+func (a *analysis) molecule() *notation.Molecule {
+	if f := a.full.Load(); f != nil {
+		return f.mol
+	}
+	return notation.ReadWith(a.key.text, a.key.reading)
 }
 
 // identify returns the identity keys, computing them once; nil when the
 // record has none.
 func (a *analysis) identify() *identity.Identity {
+	id, _ := a.identifyRead()
+	return id
+}
+
+// identifyRead is identify that also returns the molecule it read for
+// computing the keys (nil when it computed nothing).
+func (a *analysis) identifyRead() (id *identity.Identity, m *notation.Molecule) {
 	if !a.identifiable {
-		return nil
+		return nil, nil
 	}
 	a.identityOnce.Do(func() {
-		id := identity.Identify(a.mol)
-		a.identity = &id
+		m = a.molecule()
+		x := identity.Identify(m)
+		a.identity = &x
 	})
-	return a.identity
+	return a.identity, m
+}
+
+// fullList keeps the full analyses of the last fullLimit analyses used,
+// dropping the full analysis of the one used longest ago.
+type fullList struct {
+	mu    sync.Mutex
+	limit int
+	// a ring of the analyses whose full analysis is kept, in the order
+	// they were last used (second-chance: a touched entry is skipped
+	// once when dropping).
+	ring []*analysis
+	used map[*analysis]bool
+	hand int
+}
+
+func newFullList(limit int) *fullList {
+	return &fullList{limit: limit, used: map[*analysis]bool{}}
+}
+
+// add puts an analysis whose full analysis was just set on the list,
+// dropping the full analysis of another when the list is full.
+func (l *fullList) add(a *analysis) {
+	if a.pinned {
+		return
+	}
+	l.mu.Lock()
+	defer l.mu.Unlock()
+	if _, ok := l.used[a]; ok {
+		l.used[a] = true
+		return
+	}
+	if len(l.ring) < l.limit {
+		l.ring = append(l.ring, a)
+		l.used[a] = false
+		return
+	}
+	for {
+		v := l.ring[l.hand]
+		if l.used[v] {
+			l.used[v] = false
+			l.hand = (l.hand + 1) % len(l.ring)
+			continue
+		}
+		delete(l.used, v)
+		v.full.Store(nil)
+		l.ring[l.hand] = a
+		l.used[a] = false
+		l.hand = (l.hand + 1) % len(l.ring)
+		return
+	}
+}
+
+// touch marks an analysis on the list as used.
+func (l *fullList) touch(a *analysis) {
+	l.mu.Lock()
+	if _, ok := l.used[a]; ok {
+		l.used[a] = true
+	}
+	l.mu.Unlock()
+}
+
+// kept returns how many full analyses the list keeps.
+func (l *fullList) kept() int {
+	l.mu.Lock()
+	defer l.mu.Unlock()
+	return len(l.ring)
 }
 
 // cache holds analyses keyed by notation text and reading. Repeated
@@ -106,6 +253,7 @@ func (a *analysis) identify() *identity.Identity {
 type cache struct {
 	mu       sync.Mutex
 	cur, old map[cacheKey]*analysis
+	fulls    *fullList
 }
 
 // cacheKey is what an analysis depends on: the text, the reading of
@@ -117,30 +265,38 @@ type cacheKey struct {
 }
 
 func newCache() *cache {
-	return &cache{cur: map[cacheKey]*analysis{}, old: map[cacheKey]*analysis{}}
+	return &cache{cur: map[cacheKey]*analysis{}, old: map[cacheKey]*analysis{}, fulls: newFullList(fullLimit)}
 }
 
-// get returns the analysis of text under reading r, computing it
-// outside the lock.
-func (c *cache) get(text string, r notation.Reading, lim limits) *analysis {
+// get returns the analysis of text under reading r with its full
+// analysis, computing it outside the lock.
+func (c *cache) get(text string, r notation.Reading, lim limits) (*analysis, *fullAnalysis) {
 	k := cacheKey{text, r, lim}
 	c.mu.Lock()
-	if a, ok := c.cur[k]; ok {
-		c.mu.Unlock()
-		return a
-	}
-	if a, ok := c.old[k]; ok {
-		c.cur[k] = a
-		c.mu.Unlock()
-		return a
+	a, ok := c.cur[k]
+	if !ok {
+		if a, ok = c.old[k]; ok {
+			c.cur[k] = a
+		}
 	}
 	c.mu.Unlock()
-	a := analyse(text, r, lim)
+	if ok {
+		return a, a.get()
+	}
+	a = analyse(text, r, lim)
+	f := a.full.Load()
 	c.mu.Lock()
+	if prev, ok := c.cur[k]; ok {
+		// Another goroutine read the same text meanwhile: keep one.
+		c.mu.Unlock()
+		return prev, prev.get()
+	}
 	if len(c.cur) >= cacheLimit {
 		c.old, c.cur = c.cur, map[cacheKey]*analysis{}
 	}
 	c.cur[k] = a
+	a.fulls = c.fulls
 	c.mu.Unlock()
-	return a
+	c.fulls.add(a)
+	return a, f
 }

@@ -14,9 +14,8 @@ import (
 // double bond added, or a mark readers read differently rewritten
 // portably. Every fix but the last is a minimal edit of the marks; the
 // portable rewrite of a lone-pair centre writes the record again.
-func (r *Result) fixesFor(i int, e *notation.Error) []Fix {
-	rec := &r.Records[i]
-	m := rec.Mol
+func (r *Result) fixesFor(i int, f *fullAnalysis, e *notation.Error) []Fix {
+	m := f.mol
 	var edits []notation.Edit
 	var title string
 	switch e.Code {
@@ -49,7 +48,7 @@ func (r *Result) fixesFor(i int, e *notation.Error) []Fix {
 		}
 		title = "remove the ineffective direction marks"
 	case stereo.CodeOneSidedBond:
-		edits = partnerMark(rec, e.Span)
+		edits = partnerMark(f, e.Span)
 		title = "add the partner mark (puts the marked neighbours trans: check it)"
 	case stereo.CodeReaderDependent:
 		// the whole record, once, whichever of its open marks the
@@ -125,15 +124,15 @@ func groupFix(m *notation.Molecule, e *notation.Error) ([]notation.Edit, string)
 
 // partnerMark returns the edits that complete the one double bond whose
 // mark sits at span, leaving other one-sided bonds of the record alone.
-func partnerMark(rec *Record, span notation.Span) []notation.Edit {
-	m := rec.Mol
+func partnerMark(f *fullAnalysis, span notation.Span) []notation.Edit {
+	m := f.mol
 	t, err := transform.CompleteOneSided(m)
 	if err != nil {
 		return nil
 	}
 	var unit *stereo.Unit
-	for k := range rec.Stereo.Units {
-		u := &rec.Stereo.Units[k]
+	for k := range f.stereo.Units {
+		u := &f.stereo.Units[k]
 		if u.Kind != stereo.KindDoubleBond || u.Specified {
 			continue
 		}

@@ -29,23 +29,23 @@ func (r *Result) Hover(off int) (string, notation.Span, bool) {
 	if !ok {
 		return "", notation.Span{}, false
 	}
-	if len(rec.Mol.Atoms) == 0 && refused(rec) != "" {
+	if len(rec.Mol().Atoms) == 0 && refused(rec) != "" {
 		return refused(rec) + "\n\n" + Caution, rec.Occ.Span, true
 	}
 	var b strings.Builder
 	span := rec.Occ.Span
-	if a := atomAt(rec.Mol, n); a >= 0 {
-		span = rec.Occ.HostSpan(rec.Mol.Atoms[a].Span)
+	if a := atomAt(rec.Mol(), n); a >= 0 {
+		span = rec.Occ.HostSpan(rec.Mol().Atoms[a].Span)
 		writeAtom(&b, rec, a)
-	} else if bi := bondAt(rec.Mol, n); bi >= 0 {
-		bd := &rec.Mol.Bonds[bi]
+	} else if bi := bondAt(rec.Mol(), n); bi >= 0 {
+		bd := &rec.Mol().Bonds[bi]
 		s := bd.Span
 		if bd.Ring && bd.CloseSpan.Contains(n) {
 			s = bd.CloseSpan
 		}
 		span = rec.Occ.HostSpan(s)
 		writeBond(&b, rec, bi)
-	} else if gi, s := groupFieldAt(rec.Mol, n); gi >= 0 {
+	} else if gi, s := groupFieldAt(rec.Mol(), n); gi >= 0 {
 		span = rec.Occ.HostSpan(s)
 		writeGroup(&b, rec, gi)
 	}
@@ -59,10 +59,10 @@ func (r *Result) Hover(off int) (string, notation.Span, bool) {
 // atoms gets a budget finding only when it was refused, since the
 // analysis of an empty molecule returns before its budget starts.
 func refused(rec *Record) string {
-	if rec.Stereo == nil {
+	if rec.Stereo() == nil {
 		return ""
 	}
-	for _, d := range rec.Stereo.Diagnostics {
+	for _, d := range rec.Stereo().Diagnostics {
 		if d.Code == stereo.CodeBudget {
 			return "Not analysed: " + d.Msg + "."
 		}
@@ -137,7 +137,7 @@ func unitOfBond(an *stereo.Analysis, m *notation.Molecule, bi int) *stereo.Unit 
 }
 
 func writeAtom(b *strings.Builder, rec *Record, a int) {
-	m := rec.Mol
+	m := rec.Mol()
 	at := &m.Atoms[a]
 	fmt.Fprintf(b, "**%s** %s", AtomName(m, a), elementName(at.Number))
 	if at.Charge != 0 {
@@ -159,7 +159,7 @@ func writeAtom(b *strings.Builder, rec *Record, a int) {
 	}
 	b.WriteString("\n")
 	writeReactionCentre(b, rec, a)
-	u := unitOfAtom(rec.Stereo, a)
+	u := unitOfAtom(rec.Stereo(), a)
 	if u == nil {
 		return
 	}
@@ -173,7 +173,7 @@ func writeAtom(b *strings.Builder, rec *Record, a int) {
 }
 
 func writeBond(b *strings.Builder, rec *Record, bi int) {
-	m := rec.Mol
+	m := rec.Mol()
 	bd := &m.Bonds[bi]
 	fmt.Fprintf(b, "**%s bond** %s–%s", bd.Order, AtomName(m, bd.Begin), AtomName(m, bd.End))
 	if bd.Ring {
@@ -183,7 +183,7 @@ func writeBond(b *strings.Builder, rec *Record, bi int) {
 		fmt.Fprintf(b, ", direction mark `%s`", d)
 	}
 	b.WriteString("\n")
-	if u := unitOfBond(rec.Stereo, m, bi); u != nil {
+	if u := unitOfBond(rec.Stereo(), m, bi); u != nil {
 		b.WriteString("\n")
 		writeUnit(b, rec, u)
 	}
@@ -192,7 +192,7 @@ func writeBond(b *strings.Builder, rec *Record, bi int) {
 // writeUnit explains one stereogenic unit: its label, the ranked ligands
 // with the rule that decided each step, and how the mark reads.
 func writeUnit(b *strings.Builder, rec *Record, u *stereo.Unit) {
-	m := rec.Mol
+	m := rec.Mol()
 	switch {
 	case u.Descriptor.Labelled():
 		fmt.Fprintf(b, "**(%s)** %s", u.Descriptor, kindName(u.Kind))
@@ -292,16 +292,16 @@ func kindName(k stereo.Kind) string {
 
 // writeRecord summarises the record: formula, masses and stereo.
 func writeRecord(b *strings.Builder, rec *Record) {
-	m := rec.Mol
+	m := rec.Mol()
 	f := notation.MolecularFormula(m)
 	fmt.Fprintf(b, "\n---\n%s, %.2f g/mol (monoisotopic %.4f)", f.String(), f.AverageMass, f.MonoisotopicMass)
 	if rec.Occ.Title != "" {
 		fmt.Fprintf(b, " · %s", rec.Occ.Title)
 	}
 	b.WriteString("\n\n")
-	units, specified := len(rec.Stereo.Units), 0
+	units, specified := len(rec.Stereo().Units), 0
 	var labels []string
-	for _, u := range rec.Stereo.Units {
+	for _, u := range rec.Stereo().Units {
 		if u.Specified {
 			specified++
 		}
@@ -313,11 +313,11 @@ func writeRecord(b *strings.Builder, rec *Record) {
 	if len(labels) > 0 {
 		fmt.Fprintf(b, "; %s", strings.Join(labels, " "))
 	}
-	if c := rec.Stereo.Configuration(); c != "" {
+	if c := rec.Stereo().Configuration(); c != "" {
 		fmt.Fprintf(b, "; configuration %s", c)
-		for gi, g := range rec.Stereo.Groups {
+		for gi, g := range rec.Stereo().Groups {
 			if g.Kind != notation.GroupAbsolute {
-				if d := rec.Stereo.GroupDescriptor(gi); d != "" {
+				if d := rec.Stereo().GroupDescriptor(gi); d != "" {
 					fmt.Fprintf(b, " (%s: %s)", g.Label(), d)
 				}
 			}
@@ -376,7 +376,7 @@ func groupMeaning(k notation.GroupKind) string {
 
 // writeGroup explains the stereo group gi of the record's block.
 func writeGroup(b *strings.Builder, rec *Record, gi int) {
-	m, an := rec.Mol, rec.Stereo
+	m, an := rec.Mol(), rec.Stereo()
 	sg := &m.Extension.Groups[gi]
 	fmt.Fprintf(b, "**stereo group %s**: %s\n", sg.Label(), groupMeaning(sg.Kind))
 	for k := range an.Groups {
@@ -402,7 +402,7 @@ func writeGroup(b *strings.Builder, rec *Record, gi int) {
 // writeUnitGroup says how the unit's configuration is known: its group
 // and its descriptor in the group's frame.
 func writeUnitGroup(b *strings.Builder, rec *Record, u *stereo.Unit) {
-	an := rec.Stereo
+	an := rec.Stereo()
 	if u.Group < 0 || u.GroupKind == notation.GroupAbsolute && len(an.Groups) == 0 {
 		return
 	}
@@ -434,10 +434,10 @@ func elementName(z int) string {
 // writeReactionCentre says what a mapped reaction happens to do to the
 // centre at atom a: retention or inversion by geometry, with the labels.
 func writeReactionCentre(b *strings.Builder, rec *Record, a int) {
-	if rec.Reaction == nil {
+	if rec.Reaction() == nil {
 		return
 	}
-	for _, c := range rec.Reaction.Centres {
+	for _, c := range rec.Reaction().Centres {
 		if c.Reactant != a && c.Product != a {
 			continue
 		}

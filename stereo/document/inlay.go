@@ -20,8 +20,8 @@ func (r *Result) InlayLabels() []Label {
 	}
 	var out []Label
 	for _, rec := range r.Records {
-		m := rec.Mol
-		for _, u := range rec.Stereo.Units {
+		m := rec.Mol()
+		for _, u := range rec.Stereo().Units {
 			if !u.Descriptor.Labelled() {
 				continue
 			}

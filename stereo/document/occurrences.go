@@ -22,16 +22,18 @@ func (a *Analyzer) Occurrences(name, languageID string, content []byte) (find.Ki
 // AnalyzeOccurrences reads and labels the given occurrences of a document
 // (some or all of what Occurrences returned for it) with the findings
 // about each record on its own, as AnalyzeRecords does: Records[i] is
-// occs[i]. The records are not related to each other.
+// occs[i]. The records are not related to each other. Unlike the
+// records of AnalyzeRecords, they hold on to their molecules and stereo
+// analyses: a review reads them all.
 func (a *Analyzer) AnalyzeOccurrences(name string, kind find.Kind, content []byte, occs []find.Occurrence) *Result {
 	cfg := a.cfg
 	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
 	res.Records = make([]Record, len(occs))
 	res.own = make([][]Diagnostic, len(occs))
 	parallel(len(occs), func(i int) {
-		an := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
-		res.Records[i] = Record{Occ: &occs[i], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
-		res.own[i] = res.recordFindings(i)
+		an, f := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
+		res.Records[i] = Record{Occ: &occs[i], an: an, full: f}
+		res.own[i] = res.recordFindings(i, f)
 	})
 	for _, own := range res.own {
 		res.Diagnostics = append(res.Diagnostics, own...)

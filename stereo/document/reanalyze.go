@@ -61,14 +61,14 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	next := &Result{Name: name, Content: content, Kind: prev.Kind, cfg: &cfg, related: true}
 	next.Records = make([]Record, n)
 	next.own = make([][]Diagnostic, n)
-	next.rel = make([]relation, n)
+	next.rel = make([]*relation, n)
 	copy(next.Records, prev.Records[:i0])
 	copy(next.own, prev.own[:i0])
 	parallel(len(occs), func(k int) {
 		i := i0 + k
-		an := a.cache.get(occs[k].Text, cfg.Reading.notation(), cfg.Limits.limits())
-		next.Records[i] = Record{Occ: &occs[k], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
-		next.own[i] = next.recordFindings(i)
+		an, f := a.cache.get(occs[k].Text, cfg.Reading.notation(), cfg.Limits.limits())
+		next.Records[i] = Record{Occ: &occs[k], an: an}
+		next.own[i] = next.recordFindings(i, f)
 	})
 	moved := prev.Records[i1:]
 	var shifted []find.Occurrence
@@ -86,9 +86,33 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 		next.Records[i] = rec
 		next.own[i] = moveDiagnostics(prev.own[i1+k], delta, i)
 	}
+	next.occArrays = prev.occArrays + 1
+	if delta != 0 {
+		next.occArrays++
+	}
+	if next.occArrays > maxOccArrays {
+		next.compactOccurrences()
+	}
 	next.relateAgain(prev, i0, i1, dn, delta, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
 	next.assemble()
 	return next
+}
+
+// maxOccArrays bounds the arrays of occurrences the records of a list
+// point into after edits. Each edit moves the records after it into an
+// array of its own while the records before it keep pointing into older
+// arrays, which stay whole in memory; past the bound the occurrences are
+// copied into one array again.
+const maxOccArrays = 3
+
+// compactOccurrences copies the occurrences of r's records into one array.
+func (r *Result) compactOccurrences() {
+	occs := make([]find.Occurrence, len(r.Records))
+	for i := range r.Records {
+		occs[i] = *r.Records[i].Occ
+		r.Records[i].Occ = &occs[i]
+	}
+	r.occArrays = 1
 }
 
 // changedLines returns the lines where two versions of a text differ:
@@ -199,16 +223,19 @@ func (r *Result) relateAgain(prev *Result, i0, i1, dn, delta int, linesMoved boo
 		if i >= i1+dn {
 			old = i - dn
 		}
-		rel := prev.rel[old]
-		if !rel.on {
+		if prev.rel[old] == nil {
 			continue
 		}
-		if rel.earlier >= i1 {
-			rel.earlier += dn
-		}
+		rel := prev.rel[old]
 		moved := i >= i1+dn
-		earlierMoved := rel.earlier >= i1+dn
+		earlierMoved := rel.earlier >= i1
 		if moved || earlierMoved {
+			// A relation is shared between versions: a moved one is a copy.
+			c := *rel
+			rel = &c
+			if rel.earlier >= i1 {
+				rel.earlier += dn
+			}
 			d := moveDiagnostic(rel.d, 0, i)
 			if moved && delta != 0 {
 				d.Span = shift(d.Span, delta)
@@ -226,10 +253,7 @@ func (r *Result) relateAgain(prev *Result, i0, i1, dn, delta int, linesMoved boo
 			r.Records[members[0]].Identity = nil
 			continue
 		}
-		for _, i := range members {
-			r.Records[i].Identity = r.Records[i].an.identify()
-		}
-		r.relateMembers(members)
+		r.relateGroup(members)
 	}
 }
 
@@ -246,13 +270,13 @@ func (r *Result) assemble() {
 	n := 0
 	for i := range r.own {
 		n += len(r.own[i])
-		if r.rel[i].on {
+		if r.rel[i] != nil {
 			n++
 		}
 	}
 	out := make([]Diagnostic, 0, n)
 	for i, own := range r.own {
-		if !r.rel[i].on {
+		if r.rel[i] == nil {
 			out = append(out, own...)
 			continue
 		}

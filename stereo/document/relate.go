@@ -72,26 +72,64 @@ func (r *Result) relateRecords() {
 	if !relatedKinds[r.Kind] {
 		return
 	}
-	r.identifyColliding()
-	r.rel = make([]relation, len(r.Records))
-	var members []int
-	for i := range r.Records {
-		if r.Records[i].Identity != nil {
-			members = append(members, i)
-		}
+	r.rel = make([]*relation, len(r.Records))
+	groups := r.collidingGroups()
+	if r.lines == nil {
+		r.lines = lineStarts(r.Content) // before the groups are related in parallel
 	}
-	r.relateMembers(members)
+	parallel(len(groups), func(g int) { r.relateGroup(groups[g]) })
 	for i := range r.rel {
-		if r.rel[i].on {
+		if r.rel[i] != nil {
 			r.Diagnostics = append(r.Diagnostics, r.rel[i].d)
 		}
 	}
 }
 
+// collidingGroups returns the records whose constitution pre-key occurs
+// more than once in the list, a group per pre-key, in list order within
+// each group.
+func (r *Result) collidingGroups() [][]int {
+	seen := make(map[uint64]int32, len(r.Records))
+	for i := range r.Records {
+		if an := r.Records[i].an; an != nil && an.identifiable {
+			seen[an.preKey]++
+		}
+	}
+	at := map[uint64]int{}
+	var groups [][]int
+	for i := range r.Records {
+		an := r.Records[i].an
+		if an == nil || !an.identifiable || seen[an.preKey] < 2 {
+			continue
+		}
+		g, ok := at[an.preKey]
+		if !ok {
+			g = len(groups)
+			at[an.preKey] = g
+			groups = append(groups, make([]int, 0, seen[an.preKey]))
+		}
+		groups[g] = append(groups[g], i)
+	}
+	return groups
+}
+
+// relateGroup gives the records of one pre-key (in list order) their
+// identity keys and relates them. Their molecules are read again where
+// their analyses were dropped, and only for as long as the group needs
+// them: for the keys and for naming the units two stereoisomers differ in.
+func (r *Result) relateGroup(members []int) {
+	mols := make([]*notation.Molecule, len(members))
+	for k, i := range members {
+		rec := &r.Records[i]
+		rec.Identity, mols[k] = rec.an.identifyRead()
+	}
+	r.relateMembers(members, mols)
+}
+
 // relation is the finding that relates a record to an earlier one,
-// kept so that an edit elsewhere re-uses it (Reanalyze).
+// kept so that an edit elsewhere re-uses it (Reanalyze). It is not
+// changed once made: versions of a list share it.
 type relation struct {
-	on      bool
 	earlier int    // the record it is related to
 	tmpl    string // the message with named where the earlier record is named
 	d       Diagnostic
@@ -104,18 +142,27 @@ const named = "\x00"
 // relateMembers relates each of some records (in list order, all with
 // identity keys) to the first earlier one of them it matches, setting
 // r.rel. Records whose pre-keys differ never match, so the records of
-// each pre-key can be related apart.
-func (r *Result) relateMembers(members []int) {
+// each pre-key can be related apart. mols[k], when not nil, is the
+// molecule of members[k].
+func (r *Result) relateMembers(members []int, mols []*notation.Molecule) {
 	idx := identity.NewIndex()
-	for _, i := range members {
+	mol := func(k int) *notation.Molecule {
+		if mols[k] == nil {
+			mols[k] = r.Records[members[k]].an.molecule()
+		}
+		return mols[k]
+	}
+	for k, i := range members {
 		rec := &r.Records[i]
 		m := idx.Add(*rec.Identity)
-		r.rel[i] = relation{}
+		r.rel[i] = nil
 		if m.Earlier < 0 {
 			continue
 		}
 		j := members[m.Earlier]
-		d, ok := relationDiagnostic(m, i, rec, &r.Records[j], named)
+		d, ok := relationDiagnostic(m, i, rec, &r.Records[j], func() (*notation.Molecule, *notation.Molecule) {
+			return mol(k), mol(m.Earlier)
+		}, named)
 		if !ok {
 			continue
 		}
@@ -125,14 +172,14 @@ func (r *Result) relateMembers(members []int) {
 		}
 		tmpl := d.Message
 		d.Message = strings.ReplaceAll(tmpl, named, r.describeRecord(j))
-		r.rel[i] = relation{on: true, earlier: j, tmpl: tmpl, d: d}
+		r.rel[i] = &relation{earlier: j, tmpl: tmpl, d: d}
 	}
 }
 
 // relationDiagnostic is the finding that record i (rec) is related to an
-// earlier record as m says; where names the earlier record. ok is false
-// for relations that are not reported.
-func relationDiagnostic(m identity.Match, i int, rec, earlier *Record, where string) (d Diagnostic, ok bool) {
+// earlier record as m says; where names the earlier record, mols gives
+// the molecules of both. ok is false for relations that are not reported.
+func relationDiagnostic(m identity.Match, i int, rec, earlier *Record, mols func() (*notation.Molecule, *notation.Molecule), where string) (d Diagnostic, ok bool) {
 	d = Diagnostic{Span: rec.Occ.Span, Record: i,
 		Related: []Related{{Span: earlier.Occ.Span, Message: "the earlier record"}}}
 	switch m.Relation {
@@ -147,9 +194,10 @@ func relationDiagnostic(m identity.Match, i int, rec, earlier *Record, where str
 		d.Code, d.Message = setRelationMessage(m, rec, earlier, where)
 	case identity.Diastereomers, identity.Unspecified:
 		d.Code, d.Severity = CodeListStereoisomer, notation.SeverityInformation
-		d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differingUnits(rec.Mol, earlier.Mol, m.Differing))
+		here, there := mols()
+		d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differingUnits(here, there, m.Differing))
 		if m.Relation == identity.Unspecified {
-			d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differingUnits(rec.Mol, earlier.Mol, m.Differing))
+			d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differingUnits(here, there, m.Differing))
 		}
 	default:
 		return d, false
@@ -198,7 +246,7 @@ func setRelationMessage(m identity.Match, rec, earlier *Record, where string) (n
 	if m.Single == 1 {
 		single, other = earlier, rec
 	}
-	labels := AbsoluteLabels(single.Stereo)
+	labels := AbsoluteLabels(single.Stereo())
 	if labels == "" {
 		labels = "as written"
 	}
@@ -214,7 +262,7 @@ func setRelationMessage(m identity.Match, rec, earlier *Record, where string) (n
 		}
 		return CodeListAbsoluteOfMixture, fmt.Sprintf("a mixture that holds the stereoisomer in %s, %s", where, labels)
 	case identity.AbsoluteOfRelative:
-		rel := relativeOf(other.Stereo)
+		rel := relativeOf(other.Stereo())
 		switch {
 		case m.Single == 0 && m.Pair:
 			return CodeListAbsoluteOfRelative, fmt.Sprintf("the same relative configuration as %s%s, with the absolute configuration %s", where, rel, labels)
@@ -228,10 +276,10 @@ func setRelationMessage(m identity.Match, rec, earlier *Record, where string) (n
 	// the same stereoisomers said as one of them and as their mixture
 	here, there := setName(rec.Identity), setName(earlier.Identity)
 	if m.Pair && rec.Identity != nil && rec.Identity.Set == identity.OneOf {
-		return CodeListRelativeAndMixture, fmt.Sprintf("one enantiomer, unknown which, of the racemate in %s: the same relative configuration%s", where, relativeOf(rec.Stereo))
+		return CodeListRelativeAndMixture, fmt.Sprintf("one enantiomer, unknown which, of the racemate in %s: the same relative configuration%s", where, relativeOf(rec.Stereo()))
 	}
 	if m.Pair && rec.Identity != nil && rec.Identity.Set == identity.Mixture {
-		return CodeListRelativeAndMixture, fmt.Sprintf("the racemate of the relative configuration in %s (there one enantiomer, unknown which)%s", where, relativeOf(rec.Stereo))
+		return CodeListRelativeAndMixture, fmt.Sprintf("the racemate of the relative configuration in %s (there one enantiomer, unknown which)%s", where, relativeOf(rec.Stereo()))
 	}
 	return CodeListRelativeAndMixture, fmt.Sprintf("the same stereoisomers as %s, said another way: here a %s, there a %s", where, here, there)
 }
@@ -251,27 +299,6 @@ func relativeOf(an *stereo.Analysis) string {
 		return ""
 	}
 	return " (" + strings.Join(parts, ", ") + ")"
-}
-
-// identifyColliding sets the Identity of every record whose pre-key
-// occurs more than once in the list, computing the keys on all cores.
-func (r *Result) identifyColliding() {
-	seen := make(map[uint64]int, len(r.Records))
-	for i := range r.Records {
-		if an := r.Records[i].an; an != nil && an.identifiable {
-			seen[an.preKey]++
-		}
-	}
-	var colliding []int
-	for i := range r.Records {
-		if an := r.Records[i].an; an != nil && an.identifiable && seen[an.preKey] > 1 {
-			colliding = append(colliding, i)
-		}
-	}
-	parallel(len(colliding), func(k int) {
-		rec := &r.Records[colliding[k]]
-		rec.Identity = rec.an.identify()
-	})
 }
 
 // describeRecord names a record for messages: "line 12 (LRK-BB-003)".

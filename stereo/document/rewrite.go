@@ -40,10 +40,10 @@ func (r *Result) mirror(recs []int) (Action, bool) {
 	var edits []Edit
 	for _, i := range recs {
 		rec := &r.Records[i]
-		if rec.Mol.Errors.HasErrors() {
+		if rec.Mol().Errors.HasErrors() {
 			continue
 		}
-		t, err := transform.Mirror(rec.Mol)
+		t, err := transform.Mirror(rec.Mol())
 		if err != nil || len(t.Edits) == 0 {
 			continue
 		}
@@ -64,14 +64,14 @@ func (r *Result) mirror(recs []int) (Action, bool) {
 // unitRewrites offers invert, flip and set for the unit at the cursor.
 func (r *Result) unitRewrites(i int, span notation.Span) []Action {
 	rec := &r.Records[i]
-	if rec.Mol.Errors.HasErrors() {
+	if rec.Mol().Errors.HasErrors() {
 		return nil
 	}
 	n, ok := rec.Occ.NotationOffset(span.Start)
 	if !ok {
 		return nil
 	}
-	m := rec.Mol
+	m := rec.Mol()
 	var out []Action
 	add := func(kind, title string, t transform.Transform, err error) {
 		if err != nil || len(t.Edits) == 0 {
@@ -92,7 +92,7 @@ func (r *Result) unitRewrites(i int, span notation.Span) []Action {
 		first = u.Atoms[0]
 	}
 	if u.Group >= 0 && u.GroupKind != notation.GroupAbsolute {
-		g := &rec.Stereo.Groups[u.Group]
+		g := &rec.Stereo().Groups[u.Group]
 		t, err := transform.Invert(m, first)
 		add(KindInvert, fmt.Sprintf("Invert %s within stereo group %s (%s to %s)", name, g.Label(), u.GroupLabel(), starredMirror(u)), t, err)
 		for _, d := range choices(u.Kind) {
@@ -132,7 +132,7 @@ func (r *Result) unitRewrites(i int, span notation.Span) []Action {
 // centres the other way (relative for racemic, racemic for relative).
 func (r *Result) groupRewrites(i, gi int, add func(kind, title string, t transform.Transform, err error)) {
 	rec := &r.Records[i]
-	m, an := rec.Mol, rec.Stereo
+	m, an := rec.Mol(), rec.Stereo()
 	sg := &m.Extension.Groups[gi]
 	if sg.Kind == notation.GroupAbsolute {
 		return
@@ -170,7 +170,7 @@ func (r *Result) groupRewrites(i, gi int, add func(kind, title string, t transfo
 func (r *Result) markRewrites(i int, add func(kind, title string, t transform.Transform, err error)) {
 	rec := &r.Records[i]
 	var atoms []int
-	for _, u := range rec.Stereo.Units {
+	for _, u := range rec.Stereo().Units {
 		if u.GroupKind == notation.GroupAbsolute && u.Group < 0 {
 			atoms = append(atoms, u.Centre)
 		}
@@ -180,12 +180,12 @@ func (r *Result) markRewrites(i int, add func(kind, title string, t transform.Tr
 	}
 	names := make([]string, len(atoms))
 	for k, a := range atoms {
-		names[k] = AtomName(rec.Mol, a)
+		names[k] = AtomName(rec.Mol(), a)
 	}
 	list := strings.Join(names, ", ")
-	t, err := transform.MarkGroup(rec.Mol, atoms, notation.GroupOr)
+	t, err := transform.MarkGroup(rec.Mol(), atoms, notation.GroupOr)
 	add(KindRelative, fmt.Sprintf("Mark %s as relative configuration (an or group)", list), t, err)
-	t, err = transform.MarkGroup(rec.Mol, atoms, notation.GroupAnd)
+	t, err = transform.MarkGroup(rec.Mol(), atoms, notation.GroupAnd)
 	add(KindRacemic, fmt.Sprintf("Mark %s as racemic (an and group)", list), t, err)
 }
 
@@ -223,20 +223,20 @@ func starredMirror(u *stereo.Unit) string { return starred(u.Relative.Mirror(), 
 // unitAt returns the unit whose atom, double bond or mark holds notation
 // offset n.
 func unitAt(rec *Record, n int) *stereo.Unit {
-	m := rec.Mol
+	m := rec.Mol()
 	if a := atomAt(m, n); a >= 0 {
-		if u := unitOfAtom(rec.Stereo, a); u != nil {
+		if u := unitOfAtom(rec.Stereo(), a); u != nil {
 			return u
 		}
-		for k := range rec.Stereo.Units {
-			u := &rec.Stereo.Units[k]
+		for k := range rec.Stereo().Units {
+			u := &rec.Stereo().Units[k]
 			if u.Kind == stereo.KindDoubleBond && (u.Atoms[0] == a || u.Atoms[1] == a) {
 				return u
 			}
 		}
 	}
 	if bi := bondAt(m, n); bi >= 0 {
-		return unitOfBond(rec.Stereo, m, bi)
+		return unitOfBond(rec.Stereo(), m, bi)
 	}
 	return nil
 }

@@ -48,7 +48,7 @@ func (a *Analyzer) StreamRecords(name, languageID string, content []byte, identi
 		end := min(start+streamChunk, len(occs))
 		parallel(end-start, func(k int) {
 			an := analyse(occs[start+k].Text, reading, cfg.Limits.limits())
-			recs[k] = Record{Occ: &occs[start+k], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
+			recs[k] = Record{Occ: &occs[start+k], an: an}
 			if identify {
 				recs[k].Identity = an.identify()
 			}
@@ -88,10 +88,10 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 			Records: make([]Record, end-start)}
 		parallel(end-start, func(k int) {
 			an := analyse(occs[start+k].Text, reading, cfg.Limits.limits())
-			chunk.Records[k] = Record{Occ: &occs[start+k], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an}
+			chunk.Records[k] = Record{Occ: &occs[start+k], an: an}
 		})
 		for k := range chunk.Records {
-			chunk.Diagnostics = append(chunk.Diagnostics, chunk.recordFindings(k)...)
+			chunk.Diagnostics = append(chunk.Diagnostics, chunk.recordFindings(k, chunk.Records[k].an.get())...)
 		}
 		for k := range chunk.Diagnostics {
 			chunk.Diagnostics[k].Record += start
@@ -172,7 +172,9 @@ func (s *streamRelater) add(c *Result, start, i int, rec *Record) {
 		return
 	}
 	j := s.order[m.Earlier]
-	if d, ok := relationDiagnostic(m, i, rec, s.record(c, start, j), s.whole.describeOcc(&s.occs[j])); ok {
+	earlier := s.record(c, start, j)
+	mols := func() (*notation.Molecule, *notation.Molecule) { return rec.Mol(), earlier.Mol() }
+	if d, ok := relationDiagnostic(m, i, rec, earlier, mols, s.whole.describeOcc(&s.occs[j])); ok {
 		c.add(d)
 	}
 }
@@ -190,7 +192,7 @@ func (s *streamRelater) record(c *Result, start, j int) *Record {
 		clear(s.earlier)
 	}
 	an := analyse(s.occs[j].Text, s.whole.cfg.Reading.notation(), s.whole.cfg.Limits.limits())
-	r := &Record{Occ: &s.occs[j], Mol: an.mol, Stereo: an.stereo, Reaction: an.reaction, an: an, Identity: an.identify()}
+	r := &Record{Occ: &s.occs[j], an: an, Identity: an.identify()}
 	s.earlier[j] = r
 	return r
 }

@@ -76,7 +76,7 @@ func classify(o, n *side) outcome {
 	if r := unreadable(o, n); r != "" {
 		return outcome{class: Unreadable, reason: r}
 	}
-	om, nm := o.rec.Mol, n.rec.Mol
+	om, nm := o.rec.Mol(), n.rec.Mol()
 	if om.Reaction != nm.Reaction {
 		out := outcome{class: ConstitutionChanged}
 		out.formula = [2]string{formulaOf(om), formulaOf(nm)}
@@ -85,7 +85,7 @@ func classify(o, n *side) outcome {
 	if om.Reaction {
 		return classifyReaction(o, n)
 	}
-	return compareStructures(om, nm, o.rec.Stereo, n.rec.Stereo, 0, 0, notation.RoleNone)
+	return compareStructures(om, nm, o.rec.Stereo(), n.rec.Stereo(), 0, 0, notation.RoleNone)
 }
 
 // unreadable says why either side does not read without error, "" when
@@ -99,7 +99,7 @@ func unreadable(o, n *side) string {
 		}
 		return nil
 	}
-	eo, en := first(o.rec.Mol), first(n.rec.Mol)
+	eo, en := first(o.rec.Mol()), first(n.rec.Mol())
 	switch {
 	case eo != nil && en != nil:
 		return fmt.Sprintf("neither version reads: now %s [%s], before %s [%s]", en.Msg, en.Code, eo.Msg, eo.Code)
@@ -108,7 +108,7 @@ func unreadable(o, n *side) string {
 	case eo != nil:
 		return fmt.Sprintf("the old record did not read: %s [%s]; the new one reads", eo.Msg, eo.Code)
 	}
-	if len(n.rec.Mol.Atoms) == 0 || len(o.rec.Mol.Atoms) == 0 {
+	if len(n.rec.Mol().Atoms) == 0 || len(o.rec.Mol().Atoms) == 0 {
 		return "a side holds no atom"
 	}
 	return ""
@@ -315,10 +315,10 @@ func splitRoles(m *notation.Molecule) (map[notation.Role]rolePart, bool) {
 // centres by map number; the record takes the gravest class of its
 // roles.
 func classifyReaction(o, n *side) outcome {
-	op, ok1 := splitRoles(o.rec.Mol)
-	np, ok2 := splitRoles(n.rec.Mol)
+	op, ok1 := splitRoles(o.rec.Mol())
+	np, ok2 := splitRoles(n.rec.Mol())
 	if !ok1 || !ok2 {
-		return compareStructures(o.rec.Mol, n.rec.Mol, o.rec.Stereo, n.rec.Stereo, 0, 0, notation.RoleNone)
+		return compareStructures(o.rec.Mol(), n.rec.Mol(), o.rec.Stereo(), n.rec.Stereo(), 0, 0, notation.RoleNone)
 	}
 	out := outcome{class: Rewritten}
 	for _, r := range roles {
@@ -330,13 +330,13 @@ func classifyReaction(o, n *side) outcome {
 		if len(a.mol.Atoms) == 0 || len(b.mol.Atoms) == 0 {
 			rc = outcome{class: ConstitutionChanged, formula: [2]string{formulaOf(a.mol), formulaOf(b.mol)}}
 		} else {
-			rc = compareStructures(a.mol, b.mol, o.rec.Stereo, n.rec.Stereo, a.offset, b.offset, r)
+			rc = compareStructures(a.mol, b.mol, o.rec.Stereo(), n.rec.Stereo(), a.offset, b.offset, r)
 		}
 		out.roles = append(out.roles, RoleChange{Role: r, Class: rc.class, Other: rc.other, OldFormula: rc.formula[0], Formula: rc.formula[1]})
 		out.units = append(out.units, rc.units...)
 		out.class = max(out.class, rc.class)
 	}
-	out.centres = centreChanges(o.rec.Reaction, n.rec.Reaction)
+	out.centres = centreChanges(o.rec.Reaction(), n.rec.Reaction())
 	return out
 }
 

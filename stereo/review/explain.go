@@ -148,10 +148,10 @@ func label(d stereo.Descriptor) string {
 // one's for a unit the new record leaves open.
 func unitName(p *Pair, u *UnitChange) string {
 	if u.Atoms != nil {
-		return atomsName(p.New.Mol, u.Kind, u.Atoms)
+		return atomsName(p.New.Mol(), u.Kind, u.Atoms)
 	}
-	name := atomsName(p.Old.Mol, u.Kind, u.OldAtoms)
-	if !sameNumbering(p.Old.Mol, p.New.Mol) {
+	name := atomsName(p.Old.Mol(), u.Kind, u.OldAtoms)
+	if !sameNumbering(p.Old.Mol(), p.New.Mol()) {
 		name += " (as numbered before)"
 	}
 	return name
@@ -296,10 +296,10 @@ func summary(p *Pair) string {
 func groupNote(p *Pair) string {
 	var oldNote, newNote string
 	if p.Old != nil {
-		oldNote = groupsOf(p.Old.Mol)
+		oldNote = groupsOf(p.Old.Mol())
 	}
 	if p.New != nil {
-		newNote = groupsOf(p.New.Mol)
+		newNote = groupsOf(p.New.Mol())
 	}
 	switch {
 	case oldNote == "" && newNote == "":

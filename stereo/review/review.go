@@ -289,7 +289,7 @@ func contentKeys(res *document.Result, at, to []int) []uint64 {
 		if k < 0 || to[i] >= 0 {
 			continue
 		}
-		m := res.Records[k].Mol
+		m := res.Records[k].Mol()
 		if m.Errors.HasErrors() || len(m.Atoms) == 0 {
 			continue
 		}

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"runtime/pprof"
 
 	"go.uber.org/zap"
 	"go.uber.org/zap/zapcore"
@@ -51,6 +52,12 @@ func serve(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	enc.EncodeTime = zapcore.ISO8601TimeEncoder
 	log := zap.New(zapcore.NewCore(zapcore.NewJSONEncoder(enc), zapcore.Lock(sink), level))
 	defer log.Sync()
+	if prof := os.Getenv("STEREOLINE_CPUPROFILE"); prof != "" {
+		// a profile of the whole session, for developers (DEVELOPERS.md)
+		if f, err := os.Create(prof); err == nil && pprof.StartCPUProfile(f) == nil {
+			defer func() { pprof.StopCPUProfile(); f.Close() }()
+		}
+	}
 	return lsp.Serve(context.Background(), stdio{stdin, stdout}, log, lsp.Options{})
 }
 

@@ -205,11 +205,14 @@ func (c *canonState) initialRanks() []int {
 	for i := range rank {
 		rank[i] = -1
 	}
-	inv := make([][7]int, c.g.n)
+	sc := c.g.scratch()
+	inv := grow(sc.inv, c.g.n) // only the entries of c.atoms are read
+	sc.inv = inv
 	for _, a := range c.atoms {
 		inv[a] = c.atomInvariant(a)
 	}
-	sorted := slices.Clone(c.atoms)
+	sorted := append(sc.sorted[:0], c.atoms...)
+	sc.sorted = sorted
 	slices.SortStableFunc(sorted, func(x, y int) int { return compareInts(inv[x][:], inv[y][:]) })
 	r := 0
 	for i, a := range sorted {
@@ -366,6 +369,9 @@ type refineScratch struct {
 	off          []int
 	rankA, rankB []int
 	split        []int // splitBy's ranks, read once by refine
+	// initialRanks' invariants and atoms sorted by them
+	inv    [][7]int
+	sorted []int
 	// leaf's serialisation, copied into the result's text
 	leafOrder []int
 	buf       []byte

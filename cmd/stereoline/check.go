@@ -57,16 +57,30 @@ func check(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			return 2
 		}
 	}
-	reports := run.analyzeAll(files)
+	// Text and JSON Lines are written file by file as the reports come
+	// in order, and each report is dropped once written: memory does not
+	// grow with the findings of a whole tree. SARIF is one document,
+	// written at the end.
 	out := bufio.NewWriterSize(stdout, outputBuffer)
-	var err error
-	switch opts.format {
-	case "json":
-		err = writeJSONLines(out, reports)
-	case "sarif":
+	var (
+		sum     checkSummary
+		err     error
+		reports []fileReport
+	)
+	run.analyzeAll(files, func(rep fileReport) {
+		sum.add(rep)
+		switch {
+		case opts.format == "sarif":
+			reports = append(reports, rep)
+		case err != nil:
+		case opts.format == "json":
+			err = writeJSONLines(out, []fileReport{rep})
+		default:
+			err = writeText(out, []fileReport{rep})
+		}
+	})
+	if opts.format == "sarif" && err == nil {
 		err = writeSARIF(out, reports)
-	default:
-		err = writeText(out, reports)
 	}
 	if err == nil {
 		err = out.Flush()
@@ -75,7 +89,6 @@ func check(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "stereoline: writing the report: %v\n", err)
 		return 2
 	}
-	sum := summarize(reports)
 	fmt.Fprintln(stderr, sum.line(opts.changedSince != ""))
 	if run.failed {
 		return 2

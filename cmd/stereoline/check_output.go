@@ -75,22 +75,19 @@ type checkSummary struct {
 	bySeverity              [notation.SeverityHint + 1]int
 }
 
-func summarize(reports []fileReport) checkSummary {
-	var s checkSummary
-	for _, rep := range reports {
-		if rep.Skipped != "" {
-			s.skipped++
-			continue
-		}
-		s.files++
-		s.records += rep.Records
-		for _, f := range rep.Findings {
-			if f.Severity >= 0 && int(f.Severity) < len(s.bySeverity) {
-				s.bySeverity[f.Severity]++
-			}
+// add counts one file's report.
+func (s *checkSummary) add(rep fileReport) {
+	if rep.Skipped != "" {
+		s.skipped++
+		return
+	}
+	s.files++
+	s.records += rep.Records
+	for _, f := range rep.Findings {
+		if f.Severity >= 0 && int(f.Severity) < len(s.bySeverity) {
+			s.bySeverity[f.Severity]++
 		}
 	}
-	return s
 }
 
 // atOrAbove counts findings at least as urgent as level.

@@ -67,13 +67,34 @@ type fileReport struct {
 	Findings []finding
 }
 
-// analyzeAll analyses the files on --jobs workers. Reports come back in
-// the order of files, whatever order the workers finish in, so output is
-// the same on one core and on many.
-func (r *checkRun) analyzeAll(files []checkFile) []fileReport {
-	reports := make([]fileReport, len(files))
+// analyzeAll analyses the files on --jobs workers and hands each report
+// to each in the order of files, whatever order the workers finish in, so
+// output is the same on one core and on many. A report is handed over as
+// soon as it and every report before it are done, so a run keeps only
+// the reports of files finished ahead of a slower one, not all of them.
+// each is called by one goroutine at a time.
+func (r *checkRun) analyzeAll(files []checkFile, each func(fileReport)) {
 	var next, done atomic.Int64
 	stop := r.startProgress(len(files), &done)
+	var (
+		seqMu   sync.Mutex
+		pending = map[int]fileReport{}
+		head    int
+	)
+	finished := func(i int, rep fileReport) {
+		seqMu.Lock()
+		defer seqMu.Unlock()
+		pending[i] = rep
+		for {
+			rep, ok := pending[head]
+			if !ok {
+				return
+			}
+			delete(pending, head)
+			head++
+			each(rep)
+		}
+	}
 	var wg sync.WaitGroup
 	for w := 0; w < min(r.opts.jobs, max(len(files), 1)); w++ {
 		wg.Add(1)
@@ -84,14 +105,13 @@ func (r *checkRun) analyzeAll(files []checkFile) []fileReport {
 				if i >= len(files) {
 					return
 				}
-				reports[i] = r.analyzeFile(files[i])
+				finished(i, r.analyzeFile(files[i]))
 				done.Add(1)
 			}
 		}()
 	}
 	wg.Wait()
 	stop()
-	return reports
 }
 
 // analyzeFile reads and analyses one file. A panic in the engine is

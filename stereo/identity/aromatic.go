@@ -4,8 +4,6 @@
 package identity
 
 import (
-	"sync"
-
 	"stereoline/notation"
 )
 
@@ -208,116 +206,10 @@ func (g *keyGraph) piElectrons(a int, inRing map[int]bool, aromaticBond []bool) 
 	return 0, false
 }
 
-// cyclicBonds marks the bonds that lie on a ring, as
-// notation.FindRings's BondInRing says: every bond that is no bridge of
-// the graph (Tarjan's low links, with an explicit stack), bonds with an
-// end out of range or joining an atom to itself left out, two bonds
-// between one pair of atoms forming a ring.
+// cyclicBonds marks the bonds that lie on a ring (notation.CyclicBonds).
 func cyclicBonds(m *notation.Molecule) []bool {
-	return cyclicBondsWhere(m, nil)
+	return notation.CyclicBonds(m, nil)
 }
-
-// cyclicBondsWhere is cyclicBonds on the graph of the bonds keep accepts
-// (nil: every bond).
-func cyclicBondsWhere(m *notation.Molecule, keep func(*notation.Bond) bool) []bool {
-	n := len(m.Atoms)
-	usable := func(b *notation.Bond) bool {
-		return b.Begin >= 0 && b.Begin < n && b.End >= 0 && b.End < n && b.Begin != b.End && (keep == nil || keep(b))
-	}
-	sc := cyclicScratches.Get().(*cyclicScratch)
-	defer sc.put()
-	start := grow(sc.start, n+1)
-	clear(start)
-	for i := range m.Bonds {
-		if b := &m.Bonds[i]; usable(b) {
-			start[b.Begin+1]++
-			start[b.End+1]++
-		}
-	}
-	for a := 0; a < n; a++ {
-		start[a+1] += start[a]
-	}
-	arcs := grow(sc.arcs, start[n])
-	fill := grow(sc.fill, n)
-	copy(fill, start[:n])
-	for i := range m.Bonds {
-		if b := &m.Bonds[i]; usable(b) {
-			arcs[fill[b.Begin]] = cyclicArc{i, b.End}
-			fill[b.Begin]++
-			arcs[fill[b.End]] = cyclicArc{i, b.Begin}
-			fill[b.End]++
-		}
-	}
-	inRing := make([]bool, len(m.Bonds))
-	disc, low := fill, grow(sc.low, n) // fill is spent: it holds the discovery times now
-	for i := range disc {
-		disc[i] = -1
-	}
-	stack := sc.stack[:0]
-	clock := 0
-	for root := 0; root < n; root++ {
-		if disc[root] >= 0 {
-			continue
-		}
-		disc[root], low[root] = clock, clock
-		clock++
-		stack = append(stack[:0], cyclicFrame{root, -1, start[root]})
-		for len(stack) > 0 {
-			f := &stack[len(stack)-1]
-			if f.next < start[f.atom+1] {
-				e := arcs[f.next]
-				f.next++
-				if e.bond == f.via {
-					continue
-				}
-				if disc[e.to] < 0 {
-					disc[e.to], low[e.to] = clock, clock
-					clock++
-					stack = append(stack, cyclicFrame{e.to, e.bond, start[e.to]})
-					continue
-				}
-				inRing[e.bond] = true // a bond back up the tree closes a ring
-				low[f.atom] = min(low[f.atom], disc[e.to])
-				continue
-			}
-			done := *f
-			stack = stack[:len(stack)-1]
-			if len(stack) > 0 {
-				p := stack[len(stack)-1].atom
-				low[p] = min(low[p], low[done.atom])
-				if low[done.atom] <= disc[p] {
-					inRing[done.via] = true
-				}
-			}
-		}
-	}
-	sc.start, sc.arcs, sc.fill, sc.low, sc.stack = start, arcs, fill, low, stack
-	return inRing
-}
-
-// cyclicScratch is the working storage of cyclicBondsWhere, kept between
-// calls: the keys of every record of a list ask for the ring bonds.
-type cyclicScratch struct {
-	start, fill, low []int
-	arcs             []cyclicArc
-	stack            []cyclicFrame
-}
-
-type cyclicArc struct{ bond, to int }
-
-type cyclicFrame struct{ atom, via, next int }
-
-var cyclicScratches = sync.Pool{New: func() any { return new(cyclicScratch) }}
-
-// put gives sc back to the pool unless a large record grew it past
-// cyclicKeep atoms, which the pool does not keep.
-func (sc *cyclicScratch) put() {
-	if cap(sc.start) <= cyclicKeep && cap(sc.arcs) <= 4*cyclicKeep {
-		cyclicScratches.Put(sc)
-	}
-}
-
-const cyclicKeep = 4096
 
 // kekuleRingPossible reports whether the Hückel tests of aromaticity
 // could change anything: whether some ring holds only atoms that can
@@ -348,7 +240,7 @@ func (g *keyGraph) kekuleRingPossible(aromaticBond []bool) bool {
 			}
 		}
 	}
-	cyc := cyclicBondsWhere(m, func(b *notation.Bond) bool { return able[b.Begin] && able[b.End] })
+	cyc := notation.CyclicBonds(m, func(b *notation.Bond) bool { return able[b.Begin] && able[b.End] })
 	for bi, on := range cyc {
 		if b := &m.Bonds[bi]; on && (!aromaticBond[bi] || !m.Atoms[b.Begin].Aromatic || !m.Atoms[b.End].Aromatic) {
 			return true

@@ -119,14 +119,7 @@ func BenchmarkEditDiagnostics(b *testing.B) {
 // The debounce is 1 ms here. lsp/testdata/scaleclient measures the same
 // through a real process.
 func BenchmarkScaleEdit(b *testing.B) {
-	name := os.Getenv("STEREOLINE_SCALE_LIST")
-	if name == "" {
-		b.Skip("STEREOLINE_SCALE_LIST is not set")
-	}
-	text, err := os.ReadFile(name)
-	if err != nil {
-		b.Skip(err)
-	}
+	text := scaleList(b)
 	lines := strings.Split(string(text), "\n")
 	line := len(lines) / 2
 	for ; line < len(lines) && !strings.Contains(lines[line], "@"); line++ {
@@ -164,14 +157,7 @@ func BenchmarkScaleEdit(b *testing.B) {
 // parts, as the server writes it); a mark is toggled on a line in the
 // middle. It skips without the variable.
 func BenchmarkScaleRepublish(b *testing.B) {
-	name := os.Getenv("STEREOLINE_SCALE_LIST")
-	if name == "" {
-		b.Skip("STEREOLINE_SCALE_LIST is not set")
-	}
-	text, err := os.ReadFile(name)
-	if err != nil {
-		b.Skip(err)
-	}
+	text := scaleList(b)
 	mid := bytes.IndexByte(text[len(text)/2:], '@') + len(text)/2
 	a := document.NewAnalyzer(document.DefaultConfig())
 	prev := a.Analyze("scale.smi", "", text)
@@ -190,4 +176,18 @@ func BenchmarkScaleRepublish(b *testing.B) {
 		releaseParts(parts)
 		prev = next
 	}
+}
+
+// scaleList returns the list STEREOLINE_SCALE_LIST names, skipping the
+// benchmark without it.
+func scaleList(b *testing.B) []byte {
+	name := os.Getenv("STEREOLINE_SCALE_LIST")
+	if name == "" {
+		b.Skip("STEREOLINE_SCALE_LIST is not set")
+	}
+	text, err := os.ReadFile(name)
+	if err != nil {
+		b.Skip(err)
+	}
+	return text
 }

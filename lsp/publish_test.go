@@ -30,22 +30,7 @@ func TestDiagnosticsJSON(t *testing.T) {
 		if len(res.Diagnostics) < 4 {
 			t.Fatalf("%d findings, want at least 4", len(res.Diagnostics))
 		}
-		version := f.Version
-		raw, err := diagnosticsJSON(f, res, &version)
-		if err != nil {
-			t.Fatal(err)
-		}
-		diags, err := (&Server{}).toDiagnostics(f, res)
-		if err != nil {
-			t.Fatal(err)
-		}
-		want, _ := json.Marshal(publishDiagnosticsParams{URI: f.URI, Version: &version, Diagnostics: diags})
-		var g, w any
-		if err := json.Unmarshal(raw, &g); err != nil {
-			t.Fatalf("%s: %v", raw, err)
-		}
-		json.Unmarshal(want, &w)
-		if !reflect.DeepEqual(g, w) {
+		if raw, want, same := publicationAgainstMarshal(t, f, res); !same {
 			t.Errorf("encoding %v:\n got %s\nwant %s", enc, raw, want)
 		}
 	}
@@ -79,6 +64,16 @@ func TestDiagnosticsJSONInParts(t *testing.T) {
 	if len(res.Diagnostics) <= publishChunk+100 {
 		t.Fatalf("%d findings, want more than %d", len(res.Diagnostics), publishChunk+100)
 	}
+	if _, _, same := publicationAgainstMarshal(t, f, res); !same {
+		t.Errorf("the publication in parts differs from the marshalled one")
+	}
+}
+
+// publicationAgainstMarshal writes the publication of res by hand and
+// through the protocol structures with encoding/json, and reports
+// whether the two decode to the same value.
+func publicationAgainstMarshal(t *testing.T, f *fileVersion, res *document.Result) (raw, want []byte, same bool) {
+	t.Helper()
 	version := f.Version
 	raw, err := diagnosticsJSON(f, res, &version)
 	if err != nil {
@@ -88,15 +83,13 @@ func TestDiagnosticsJSONInParts(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	want, _ := json.Marshal(publishDiagnosticsParams{URI: f.URI, Version: &version, Diagnostics: diags})
+	want, _ = json.Marshal(publishDiagnosticsParams{URI: f.URI, Version: &version, Diagnostics: diags})
 	var g, w any
 	if err := json.Unmarshal(raw, &g); err != nil {
-		t.Fatal(err)
+		t.Fatalf("%s: %v", raw, err)
 	}
 	json.Unmarshal(want, &w)
-	if !reflect.DeepEqual(g, w) {
-		t.Errorf("the publication in parts differs from the marshalled one")
-	}
+	return raw, want, reflect.DeepEqual(g, w)
 }
 
 // TestCursorPositions checks the cursor against OffsetToPosition at every

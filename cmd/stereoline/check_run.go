@@ -134,8 +134,7 @@ func (r *checkRun) analyzeFile(f checkFile) (rep fileReport) {
 	// analyses, or the engine's diagnostics, of a long list.
 	conv := r.newConverter(f, data)
 	rep.Records = lc.analyzer.Stream(f.path, "", data, func(ds []document.Diagnostic) {
-		ds = slices.Clone(ds)
-		sortDiagnostics(ds)
+		sortDiagnostics(ds) // the slice is ours (Stream)
 		for i := range ds {
 			conv.add(&ds[i])
 		}

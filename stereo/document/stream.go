@@ -73,7 +73,9 @@ func (a *Analyzer) StreamRecords(name, languageID string, content []byte, identi
 //
 // Sorted stably by host span and then by IsRelation, the emitted
 // findings are Analyze's Diagnostics. The Diagnostics passed to emit
-// carry their Fixes too. It returns the number of records and query patterns.
+// carry their Fixes too; the slice is emit's to keep or reorder, Stream
+// does not touch it again. It returns the number of records and query
+// patterns.
 func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]Diagnostic)) int {
 	cfg := a.cfg
 	kind := a.kindOf(name, languageID)

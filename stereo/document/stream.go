@@ -10,8 +10,12 @@ import (
 )
 
 // streamChunk is how many records Stream analyses before it hands their
-// findings on and drops their analyses (a variable for the tests).
-var streamChunk = 2048
+// findings on and drops their analyses (a variable for the tests). The
+// analyses of a chunk are the live heap, which sets how far the heap
+// grows between collections: 256 records keep both cores busy while
+// the heap stays small (check on 6,000 records at one core: peak RSS 60
+// to 30 MB, CPU time 0.50 to 0.37 s, outputs unchanged, against 2048).
+var streamChunk = 256
 
 // earlierLimit bounds the earlier records Stream keeps re-read for the
 // messages of relations; most relations name the first record of a

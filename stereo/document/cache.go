@@ -79,8 +79,15 @@ func (a *analysis) stereoisomersOf(m *notation.Molecule) identity.StereoisomerCo
 // within the limits lim: the time budget counts the reading too. The
 // analysis keeps its full analysis (it is on no list of kept ones).
 func analyse(text string, r notation.Reading, lim limits) *analysis {
+	return analyseInto(nil, text, r, lim)
+}
+
+// analyseInto is analyse reading the text into rr's storage when rr is
+// not nil (stream.go): the molecule, and so the analysis, is then valid
+// only until rr's next read.
+func analyseInto(rr *notation.Rereader, text string, r notation.Reading, lim limits) *analysis {
 	a := &analysis{key: cacheKey{text, r, lim}}
-	f := a.compute()
+	f := a.computeInto(rr)
 	a.full.Store(f)
 	if m := f.mol; !m.Reaction && !m.Errors.HasErrors() && len(m.Atoms) > 0 {
 		a.identifiable = true
@@ -98,13 +105,21 @@ func analyse(text string, r notation.Reading, lim limits) *analysis {
 }
 
 // compute reads and labels the analysis's text.
-func (a *analysis) compute() *fullAnalysis {
+func (a *analysis) compute() *fullAnalysis { return a.computeInto(nil) }
+
+// computeInto is compute reading into rr's storage when rr is not nil.
+func (a *analysis) computeInto(rr *notation.Rereader) *fullAnalysis {
 	lim := a.key.limits
 	if n := notation.CountAtoms(a.key.text); n > lim.atoms {
 		return oversized(a.key.text, n, lim.atoms)
 	}
 	start := stereo.StartBudget()
-	m := notation.ReadWith(a.key.text, a.key.reading)
+	var m *notation.Molecule
+	if rr != nil {
+		m = rr.ReadWith(a.key.text, a.key.reading)
+	} else {
+		m = notation.ReadWith(a.key.text, a.key.reading)
+	}
 	opt := stereo.Options{NodeCap: lim.nodeCap, Budget: lim.budget, Start: start}
 	f := &fullAnalysis{mol: m, stereo: stereo.AnalyzeWith(m, opt)}
 	if m.Reaction {

@@ -48,10 +48,11 @@ func (a *Analyzer) StreamRecords(name, languageID string, content []byte, identi
 	occs := res.splitQueries(find.FindKind(kind, content, cfg.findConfig(name)))
 	reading := cfg.Reading.notation()
 	recs := make([]Record, min(streamChunk, len(occs)))
+	store := make(chunkStorage, len(recs))
 	for start := 0; start < len(occs); start += streamChunk {
 		end := min(start+streamChunk, len(occs))
 		parallel(end-start, func(k int) {
-			an := analyse(occs[start+k].Text, reading, cfg.Limits.limits())
+			an := analyseInto(&store[k], occs[start+k].Text, reading, cfg.Limits.limits())
 			recs[k] = Record{Occ: &occs[start+k], an: an}
 			if identify {
 				recs[k].Identity = an.identify()
@@ -60,6 +61,7 @@ func (a *Analyzer) StreamRecords(name, languageID string, content []byte, identi
 		for k := range end - start {
 			each(start+k, &recs[k])
 		}
+		store.release(recs)
 		clear(recs)
 	}
 	return len(occs)
@@ -88,12 +90,13 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 	occs = res.splitQueries(occs)
 	rel := newStreamRelater(res, occs, relatedKinds[kind])
 	reading := cfg.Reading.notation()
+	store := make(chunkStorage, min(streamChunk, len(occs)))
 	for start := 0; start < len(occs); start += streamChunk {
 		end := min(start+streamChunk, len(occs))
 		chunk := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg,
 			Records: make([]Record, end-start)}
 		parallel(end-start, func(k int) {
-			an := analyse(occs[start+k].Text, reading, cfg.Limits.limits())
+			an := analyseInto(&store[k], occs[start+k].Text, reading, cfg.Limits.limits())
 			chunk.Records[k] = Record{Occ: &occs[start+k], an: an}
 		})
 		for k := range chunk.Records {
@@ -104,12 +107,41 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 		}
 		rel.chunk(chunk, start)
 		emit(chunk.Diagnostics)
+		store.release(chunk.Records)
 	}
 	res.queryDiagnostics()
 	if len(res.Diagnostics) > 0 {
 		emit(res.Diagnostics)
 	}
 	return len(occs) + len(res.Queries)
+}
+
+// chunkStorage is the reading storage of a chunk's records, one
+// Rereader for each position in the chunk, which the record at that
+// position of the next chunk reads into: a record's molecule is needed
+// only while its chunk is handled (findings, relations; what is kept,
+// the findings and the keys, does not point into it), and a list read
+// this way allocates its atoms, bonds and bond lists about once per
+// position instead of once per record.
+type chunkStorage []notation.Rereader
+
+// keepAtoms bounds the molecules whose storage a position keeps for
+// the next chunk, so a chunk of large records leaves no more than some
+// megabytes behind.
+const keepAtoms = 512
+
+// release is called when the records of a chunk are done with: it
+// drops the storage of positions that read a large molecule.
+func (s chunkStorage) release(recs []Record) {
+	for k := range recs {
+		an := recs[k].an
+		if an == nil {
+			continue
+		}
+		if f := an.full.Load(); f != nil && len(f.mol.Atoms) > keepAtoms {
+			s[k] = notation.Rereader{}
+		}
+	}
 }
 
 // streamRelater relates the records of a list as they stream past, as

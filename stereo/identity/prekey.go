@@ -53,6 +53,7 @@ type preKeyScratch struct {
 	label  []uint64 // current colour of each vertex
 	next   []uint64
 	spread []uint64 // Scramble(label) of each vertex, for the sums of neighbours
+	table  []uint64 // classes's hash table
 }
 
 var preKeyScratches = sync.Pool{New: func() any { return new(preKeyScratch) }}
@@ -125,18 +126,27 @@ func ConstitutionPreKey(m *notation.Molecule) uint64 {
 	return mix(key, sum)
 }
 
-// refineColours runs colour refinement for as many rounds as there are
-// atoms, up to preKeyRounds. It does not stop when the colours stop
-// splitting: two molecules can each reach distinct colours for every atom
-// after one round and still differ further away (a chain segment written
-// the other way round), and only the deeper rounds see that. After as
-// many rounds as the longest path, one atom's label stands for the whole
-// graph around it, so trees (most molecules' skeletons) never collide
-// but by hashing.
+// refineColours runs colour refinement until the colours stop
+// splitting, and then one round more, for at most as many rounds as
+// there are atoms and at most preKeyRounds. Stopping when the colours
+// alone stop splitting would not do: two molecules can each reach
+// distinct colours for every atom after one round and still differ
+// further away (a chain segment written the other way round). The one
+// round more is what tells them apart. Once a round splits no class,
+// each atom's next label says which classes its neighbours are in, how
+// many of each, so the multiset of those labels fixes the class sizes
+// and how the classes are joined: two molecules whose multisets agree
+// then stay alike in every further round (refinement cannot tell them
+// apart, common practice: equitable partitions), and two whose
+// multisets differ already get different keys. The round the colours
+// stop splitting in is the same for every writing of one constitution,
+// so the key still never tells writings apart; it saves most rounds,
+// since most molecules stop splitting within a few rounds.
 func (sc *preKeyScratch) refineColours(vertices int) []uint64 {
 	label := sc.label
 	next := grow(sc.next, vertices)
 	spreads := grow(sc.spread, vertices)
+	classes := sc.classes(label)
 	for round := 0; round < min(vertices, preKeyRounds); round++ {
 		for v, l := range label {
 			spreads[v] = ringgeom.Scramble(l)
@@ -149,9 +159,48 @@ func (sc *preKeyScratch) refineColours(vertices int) []uint64 {
 			next[v] = mix(label[v], around)
 		}
 		label, next = next, label
+		c := sc.classes(label)
+		if c == classes {
+			break // no class split: this round was the one more
+		}
+		classes = c
 	}
 	sc.label, sc.next, sc.spread = label, next, spreads
 	return label
+}
+
+// classes counts the distinct values among labels, in an open-addressing
+// table of the scratch space.
+func (sc *preKeyScratch) classes(labels []uint64) int {
+	size := 16
+	for size < 2*len(labels) {
+		size *= 2
+	}
+	table := grow(sc.table, size)
+	clear(table)
+	sc.table = table
+	mask := uint64(size - 1)
+	n, zero := 0, false
+	for _, l := range labels {
+		if l == 0 { // the empty slot's value, counted aside
+			if !zero {
+				zero = true
+				n++
+			}
+			continue
+		}
+		for i := l & mask; ; i = (i + 1) & mask {
+			if table[i] == l {
+				break
+			}
+			if table[i] == 0 {
+				table[i] = l
+				n++
+				break
+			}
+		}
+	}
+	return n
 }
 
 // mix combines a hash with one more value, order-sensitively.

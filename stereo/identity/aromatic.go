@@ -52,11 +52,11 @@ func (g *keyGraph) aromaticity() (atoms, bonds []bool) {
 		// only which bonds lie on a ring matters: no smallest rings
 		return atoms, bonds
 	}
-	g.findRingSystems()
-	done := make([]bool, len(g.rings.SSSR))
+	rings := g.smallestRings()
+	done := make([]bool, len(rings.SSSR))
 	for changed := true; changed; {
 		changed = false
-		for ri, r := range g.rings.SSSR {
+		for ri, r := range rings.SSSR {
 			if done[ri] || r.Size() < 5 || r.Size() > 7 {
 				continue
 			}
@@ -74,7 +74,7 @@ func (g *keyGraph) aromaticity() (atoms, bonds []bool) {
 	// fused systems whose rings fail one by one but pass together
 	// (indolizine, quinoid dyes): pairs of rings sharing a bond, taken
 	// as one π system
-	rs := g.rings.SSSR
+	rs := rings.SSSR
 	for changed := true; changed; {
 		changed = false
 		for i := range rs {

@@ -61,10 +61,10 @@ type keyGraph struct {
 	hydro  []int // hydrogens on each atom, folded ones included
 	adj    [][]keyEdge
 	units  []keyUnit
-	ring   []bool // per bond: lies on a ring
-	system []int  // per atom: ring system id, -1 outside rings
-	rings  *notation.Rings
-	arom   []bool // per atom: aromatic, as written or as found in a Kekulé ring
+	ring   []bool          // per bond: lies on a ring
+	system []int           // per atom: ring system id, -1 outside rings
+	rings  *notation.Rings // smallestRings, on first use
+	arom   []bool          // per atom: aromatic, as written or as found in a Kekulé ring
 	// geom is the view the ring and bicycle searches read, set by
 	// findRingSystems
 	geom  ringgeom.Graph
@@ -140,30 +140,43 @@ func newKeyGraph(m *notation.Molecule) *keyGraph {
 }
 
 // findRingSystems groups ring atoms joined by ring bonds. It runs on
-// first use: only ring units need it.
+// first use: only ring units need it. Which bonds lie on a ring is all it
+// needs (ringBonds, a bridge search); the smallest rings, a costlier
+// search, are found only when asked for (smallestRings).
 func (g *keyGraph) findRingSystems() {
 	if g.system != nil {
 		return
 	}
 	m := g.mol
-	rings := notation.FindRings(m)
-	g.rings = rings
-	g.ring = make([]bool, len(m.Bonds))
+	ring := g.ringBonds()
+	g.ring = ring
 	sets := ringgeom.NewDisjointSets(g.n)
-	for bi := range m.Bonds {
-		if rings.BondInRing(bi) {
-			g.ring[bi] = true
-			sets.Union(m.Bonds[bi].Begin, m.Bonds[bi].End)
-		}
-	}
 	g.system = make([]int, g.n)
 	for a := range g.system {
 		g.system[a] = -1
-		if rings.AtomInRing(a) {
+	}
+	for bi := range m.Bonds {
+		if ring[bi] {
+			b := &m.Bonds[bi]
+			sets.Union(b.Begin, b.End)
+			g.system[b.Begin], g.system[b.End] = 0, 0 // on a ring: set below
+		}
+	}
+	for a := range g.system {
+		if g.system[a] == 0 {
 			g.system[a] = sets.Find(a)
 		}
 	}
 	g.geom.Reset(m, g.ring)
+}
+
+// smallestRings returns the molecule's rings with their smallest sizes
+// (notation.FindRings), found on first use.
+func (g *keyGraph) smallestRings() *notation.Rings {
+	if g.rings == nil {
+		g.rings = notation.FindRings(g.mol)
+	}
+	return g.rings
 }
 
 // ligandOf maps a neighbour atom to the ligand the key sees: folded
@@ -250,8 +263,7 @@ func (g *keyGraph) dropFixedUnits() {
 	for _, u := range g.units {
 		switch {
 		case u.kind == keyDoubleBond && u.bond >= 0:
-			g.findRingSystems()
-			if g.rings.BondInRing(u.bond) && g.rings.BondSize[u.bond] < ringgeom.MinTransRing {
+			if g.ringBonds()[u.bond] && g.smallestRings().BondSize[u.bond] < ringgeom.MinTransRing {
 				continue
 			}
 		case u.kind == keyTetrahedral && m.Atoms[u.centre].Number == notation.ElemN && len(g.adj[u.centre])+g.hydro[u.centre] == 3:
@@ -273,10 +285,13 @@ func (g *keyGraph) dropFixedUnits() {
 // neither the keys nor the diagnostics change.
 func (g *keyGraph) heldNitrogen(a int) bool {
 	g.findRingSystems()
-	if g.rings.AtomSize[a] == 3 {
+	switch g.geom.RingDegree(a) {
+	case 3:
 		return true
+	case 0:
+		return false // on no ring, so on no three-membered one
 	}
-	return g.geom.RingDegree(a) == 3
+	return g.smallestRings().AtomSize[a] == 3
 }
 
 // substituents lists the neighbours of double-bond end t other than

@@ -85,9 +85,8 @@ func (c *canonState) relateRingPairs(rank []int) bool {
 // of the two units.
 func (c *canonState) onOneRing(i, j int) bool {
 	g := c.g
-	g.findRingSystems()
 	ai, aj := unitMarkAtoms(&c.units[i]), unitMarkAtoms(&c.units[j])
-	for _, ring := range g.rings.SSSR {
+	for _, ring := range g.smallestRings().SSSR {
 		hi, hj := false, false
 		for _, a := range ring.Atoms {
 			hi = hi || slices.Contains(ai, a)

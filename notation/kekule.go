@@ -175,8 +175,7 @@ func needsDoubleBond(m *Molecule, i int) bool {
 // double bond, one connected part at a time.
 type matcher struct {
 	m     *Molecule
-	atoms []int       // local index -> atom index
-	local map[int]int // atom index -> local index
+	atoms []int // local index -> atom index
 	adj   [][]int
 	mate  []int
 	work  int
@@ -195,25 +194,56 @@ type matcher struct {
 }
 
 func newMatcher(m *Molecule, pi []bool, arom []bool) *matcher {
-	x := &matcher{m: m, local: map[int]int{}}
+	x := &matcher{m: m}
+	// local index of each atom (-1 off the graph), and the neighbours of
+	// every vertex in one backing array, in the order of the atoms' bonds
+	local := make([]int, len(m.Atoms))
+	n := 0
+	for i := range m.Atoms {
+		local[i] = -1
+		if pi[i] {
+			local[i] = n
+			n++
+		}
+	}
+	x.atoms = make([]int, 0, n)
 	for i := range m.Atoms {
 		if pi[i] {
-			x.local[i] = len(x.atoms)
 			x.atoms = append(x.atoms, i)
 		}
 	}
-	x.adj = make([][]int, len(x.atoms))
+	neighbour := func(a, bi int) int {
+		if !arom[bi] {
+			return -1
+		}
+		if o := m.Bonds[bi].Other(a); o >= 0 && o < len(local) {
+			return local[o]
+		}
+		return -1
+	}
+	degree := make([]int, n)
+	total := 0
 	for v, a := range x.atoms {
 		for _, bi := range m.Atoms[a].Bonds {
-			if !arom[bi] {
-				continue
+			if neighbour(a, bi) >= 0 {
+				degree[v]++
+				total++
 			}
-			if w, ok := x.local[m.Bonds[bi].Other(a)]; ok {
+		}
+	}
+	backing := make([]int, total)
+	x.adj = make([][]int, n)
+	for v := range x.adj {
+		x.adj[v], backing = backing[:0:degree[v]], backing[degree[v]:]
+	}
+	for v, a := range x.atoms {
+		for _, bi := range m.Atoms[a].Bonds {
+			if w := neighbour(a, bi); w >= 0 {
 				x.adj[v] = append(x.adj[v], w)
 			}
 		}
 	}
-	x.mate = make([]int, len(x.atoms))
+	x.mate = degree // spent: reused for the matching
 	for i := range x.mate {
 		x.mate[i] = -1
 	}

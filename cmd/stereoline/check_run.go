@@ -133,7 +133,7 @@ func (r *checkRun) analyzeFile(f checkFile) (rep fileReport) {
 	// findings are kept, so memory grows with them rather than with the
 	// analyses, or the engine's diagnostics, of a long list.
 	conv := r.newConverter(f, data)
-	rep.Records = lc.analyzer.Stream(f.path, "", data, func(ds []document.Diagnostic) {
+	rep.Records = lc.analyzer.WithoutFixes().Stream(f.path, "", data, func(ds []document.Diagnostic) { // check prints no fixes
 		sortDiagnostics(ds) // the slice is ours (Stream)
 		for i := range ds {
 			conv.add(&ds[i])

@@ -22,11 +22,24 @@ const Source = "stereoline"
 type Analyzer struct {
 	cfg   Config
 	cache *cache
+	// noFixes leaves the quick fixes out of Stream's findings
+	// (WithoutFixes).
+	noFixes bool
 }
 
 // NewAnalyzer returns an analyzer for a configuration.
 func NewAnalyzer(cfg Config) *Analyzer {
 	return &Analyzer{cfg: cfg, cache: newCache()}
+}
+
+// WithoutFixes returns an analyzer, sharing this one's cache, whose
+// Stream hands on the findings without their quick fixes (Fixes nil):
+// for callers that show none, like the command line, since some cost a
+// rewrite of the record (reader-dependent marks).
+func (a *Analyzer) WithoutFixes() *Analyzer {
+	b := *a
+	b.noFixes = true
+	return &b
 }
 
 // WithConfig returns an analyzer with another configuration that shares
@@ -54,6 +67,7 @@ type Result struct {
 	cfg     *Config
 	lines   []int // line starts, built on first use
 	related bool  // Relate has run
+	noFixes bool  // recordFindings leaves the quick fixes out (Analyzer.WithoutFixes)
 
 	// own are each record's own findings, sorted by position; rel the
 	// relation of each record of a list to an earlier one (set by
@@ -323,7 +337,7 @@ func (r *Result) recordFindings(i int, f *fullAnalysis) []Diagnostic {
 		for _, rel := range e.Related {
 			d.Related = append(d.Related, Related{rel.Span, rel.Msg})
 		}
-		if j < len(occ.Fixes) {
+		if j < len(occ.Fixes) && !r.noFixes {
 			for _, f := range occ.Fixes[j] {
 				d.Fixes = append(d.Fixes, Fix{Title: f.Title, Edits: []Edit{{Span: f.Span, NewText: f.NewText}}})
 			}
@@ -342,13 +356,17 @@ func (r *Result) recordFindings(i int, f *fullAnalysis) []Diagnostic {
 	}
 	for _, e := range f.stereo.Diagnostics {
 		d := mapped(e)
-		d.Fixes = r.fixesFor(i, f, e)
+		if !r.noFixes {
+			d.Fixes = r.fixesFor(i, f, e)
+		}
 		add(d)
 	}
 	if rec.an != nil {
 		for _, e := range rec.an.groupFindings {
 			d := mapped(e)
-			d.Fixes = r.fixesFor(i, f, e)
+			if !r.noFixes {
+				d.Fixes = r.fixesFor(i, f, e)
+			}
 			add(d)
 		}
 	}

@@ -79,9 +79,9 @@ func (a *Analyzer) StreamRecords(name, languageID string, content []byte, identi
 //
 // Sorted stably by host span and then by IsRelation, the emitted
 // findings are Analyze's Diagnostics. The Diagnostics passed to emit
-// carry their Fixes too; the slice is emit's to keep or reorder, Stream
-// does not touch it again. It returns the number of records and query
-// patterns.
+// carry their Fixes too (none from an analyzer WithoutFixes); the slice
+// is emit's to keep or reorder, Stream does not touch it again. It
+// returns the number of records and query patterns.
 func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]Diagnostic)) int {
 	cfg := a.cfg
 	kind := a.kindOf(name, languageID)
@@ -94,7 +94,7 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 	for start := 0; start < len(occs); start += streamChunk {
 		end := min(start+streamChunk, len(occs))
 		chunk := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg,
-			Records: make([]Record, end-start)}
+			Records: make([]Record, end-start), noFixes: a.noFixes}
 		parallel(end-start, func(k int) {
 			an := analyseInto(&store[k], occs[start+k].Text, reading, cfg.Limits.limits())
 			chunk.Records[k] = Record{Occ: &occs[start+k], an: an}

@@ -67,3 +67,47 @@ func TestStreamMatchesAnalyze(t *testing.T) {
 		t.Error("no relations among the files: the test relates nothing")
 	}
 }
+
+// TestStreamWithoutFixes: an analyzer WithoutFixes streams the same
+// findings with no quick fixes, on demo files where some findings have
+// fixes (so the comparison can fail).
+func TestStreamWithoutFixes(t *testing.T) {
+	ents, err := os.ReadDir("../../examples")
+	if err != nil {
+		t.Fatal(err)
+	}
+	fixed := 0
+	for _, e := range ents {
+		if e.IsDir() {
+			continue
+		}
+		f := filepath.Join("../../examples", e.Name())
+		data, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var with, without []Diagnostic
+		a := NewAnalyzer(DefaultConfig())
+		a.Stream(f, "", data, func(ds []Diagnostic) { with = append(with, ds...) })
+		a.WithoutFixes().Stream(f, "", data, func(ds []Diagnostic) { without = append(without, ds...) })
+		if len(with) != len(without) {
+			t.Errorf("%s: %d findings with fixes, %d without", f, len(with), len(without))
+			continue
+		}
+		for i := range with {
+			if len(with[i].Fixes) > 0 {
+				fixed++
+			}
+			if without[i].Fixes != nil {
+				t.Errorf("%s: finding %d has fixes from an analyzer without them", f, i)
+			}
+			with[i].Fixes = nil
+			if !reflect.DeepEqual(with[i], without[i]) {
+				t.Errorf("%s: finding %d\n with fixes %+v\n without %+v", f, i, with[i], without[i])
+			}
+		}
+	}
+	if fixed == 0 {
+		t.Error("no finding of the examples has a fix: the test compares nothing")
+	}
+}

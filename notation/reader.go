@@ -55,7 +55,7 @@ func readWhole(r *reader, text string, notationEnd, end int) *Molecule {
 
 // newReader starts reading src, the notation of record text.
 func newReader(src, text string) *reader {
-	r := &reader{text: src, mol: &Molecule{Text: text}, prev: -1, rings: map[int]*openRing{}}
+	r := &reader{text: src, mol: &Molecule{Text: text}, prev: -1, rings: map[int]openRing{}}
 	atoms, rings := countTokens(src)
 	r.mol.Atoms = make([]Atom, 0, atoms)
 	r.mol.Bonds = make([]Bond, 0, atoms+rings)
@@ -88,7 +88,7 @@ func Reads(text string) bool {
 // quietReaders keeps the readers of Reads, whose molecules never leave
 // it, for the next call: the finder asks it of every title of a list.
 // A reader whose molecule grew past quietKeep atoms is not kept.
-var quietReaders = sync.Pool{New: func() any { return &reader{mol: &Molecule{}, rings: map[int]*openRing{}} }}
+var quietReaders = sync.Pool{New: func() any { return &reader{mol: &Molecule{}, rings: map[int]openRing{}} }}
 
 const quietKeep = 4096
 
@@ -137,11 +137,14 @@ func reuseReader(r *reader, src, text string, quiet bool) {
 	m := r.mol
 	atoms, rings := countTokens(src)
 	as, bs := m.Atoms[:0], m.Bonds[:0]
+	// storage that must grow grows by half again, so that a reader
+	// meeting records of varied sizes reallocates a few times, not at
+	// every new largest record
 	if cap(as) < atoms {
-		as = make([]Atom, 0, atoms)
+		as = make([]Atom, 0, atoms+atoms/2)
 	}
 	if cap(bs) < atoms+rings {
-		bs = make([]Bond, 0, atoms+rings)
+		bs = make([]Bond, 0, (atoms+rings)*3/2)
 	}
 	*m = Molecule{Text: text, Atoms: as, Bonds: bs, Errors: m.Errors[:0]}
 	rs := r.rings
@@ -202,7 +205,7 @@ type reader struct {
 	bond    byte     // pending bond symbol, 0 when none
 	bondPos int      // where the pending bond symbol is
 	stack   []branch // open branches
-	rings   map[int]*openRing
+	rings   map[int]openRing
 	role    Role
 	arrows  int
 	dropped bool // errors were dropped past maxErrors

@@ -38,12 +38,12 @@ func (r *reader) ringBond() {
 	open, isOpen := r.rings[num]
 	if !isOpen {
 		a := &r.mol.Atoms[r.prev]
-		r.rings[num] = &openRing{atom: r.prev, slot: len(a.Bonds), symbol: sym, span: span, symSpan: symSpan}
+		r.rings[num] = openRing{atom: r.prev, slot: len(a.Bonds), symbol: sym, span: span, symSpan: symSpan}
 		a.Bonds = append(a.Bonds, -1)
 		return
 	}
 	delete(r.rings, num)
-	r.closeRing(open, sym, span, symSpan)
+	r.closeRing(&open, sym, span, symSpan)
 }
 
 // ringNumber reads the digits of a ring-closure number.

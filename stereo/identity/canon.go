@@ -273,6 +273,14 @@ func (c *canonState) refine(rank []int) []int {
 	sc.rankA, sc.rankB = bufs[0], bufs[1]
 	n := c.classes(rank)
 	codes := func(a int) []int { return sc.codes[sc.off[a]:sc.off[a+1]] }
+	// touched[a] is iter+1 when a neighbour of a changed rank in round
+	// iter: a class none of whose atoms was touched in the last round
+	// has the codes it had then, which were all equal, so it does not
+	// split and is not sorted again (from the second round on, when the
+	// ranks are positions, so an unsplit class keeps its rank)
+	touched := grow(sc.touched, g.n)
+	sc.touched = touched
+	clear(touched)
 	for iter := 0; iter <= len(c.atoms); iter++ {
 		next := bufs[iter%2]
 		m := 0
@@ -288,6 +296,14 @@ func (c *canonState) refine(rank []int) []int {
 				continue
 			}
 			class := order[i:j]
+			if iter > 0 && !touchedIn(class, touched, iter) {
+				for _, a := range class {
+					next[a] = i
+				}
+				m++
+				i = j
+				continue
+			}
 			for _, a := range class {
 				s := codes(a)[:0]
 				for _, e := range g.adj[a] {
@@ -307,13 +323,32 @@ func (c *canonState) refine(rank []int) []int {
 			m++
 			i = j
 		}
-		cur = next
 		if m == n {
+			cur = next
 			break
 		}
+		for _, a := range order {
+			if next[a] != cur[a] {
+				for _, e := range g.adj[a] {
+					touched[e.to] = iter + 1
+				}
+			}
+		}
+		cur = next
 		n = m
 	}
 	return c.fresh(cur)
+}
+
+// touchedIn reports whether an atom of class was touched in round
+// iter-1 (refine).
+func touchedIn(class, touched []int, iter int) bool {
+	for _, a := range class {
+		if touched[a] == iter {
+			return true
+		}
+	}
+	return false
 }
 
 // fresh copies ranks of the atoms into a new slice, folded hydrogens -1.
@@ -369,6 +404,7 @@ type refineScratch struct {
 	off          []int
 	rankA, rankB []int
 	split        []int // splitBy's ranks, read once by refine
+	touched      []int // refine's round in which an atom's neighbour changed rank
 	// initialRanks' invariants and atoms sorted by them
 	inv    [][7]int
 	sorted []int

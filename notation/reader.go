@@ -150,7 +150,7 @@ func reuseReader(r *reader, src, text string, quiet bool) {
 	rs := r.rings
 	clear(rs)
 	*r = reader{text: src, mol: m, prev: -1, rings: rs, stack: r.stack[:0], quiet: quiet,
-		slots: r.slotsAll, slotsAll: r.slotsAll}
+		slots: r.slotsAll, slotsAll: r.slotsAll, quietErrs: r.quietErrs[:0]}
 }
 
 // countTokens bounds the number of atoms (capital letters, aromatic
@@ -218,6 +218,11 @@ type reader struct {
 	// starts again from.
 	quiet    bool
 	slotsAll []int
+	// quietErrs holds the errors of a quiet reader, whose molecule never
+	// leaves it: the next record overwrites them instead of allocating
+	// its own. An append that moves the array leaves the errors listed
+	// so far where they were, each still one error.
+	quietErrs []Error
 
 	// openDot is the offset plus one of a '.' that no atom has followed yet,
 	// 0 when there is none: a component left empty at the end of the
@@ -275,7 +280,8 @@ func (r *reader) errorf(span Span, code Code, format string, args ...any) *Error
 		return &Error{}
 	}
 	if r.quiet {
-		e := &Error{Span: span, Code: code, Severity: SeverityError}
+		r.quietErrs = append(r.quietErrs, Error{Span: span, Code: code, Severity: SeverityError})
+		e := &r.quietErrs[len(r.quietErrs)-1]
 		r.mol.Errors = append(r.mol.Errors, e)
 		return e
 	}

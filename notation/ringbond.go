@@ -175,6 +175,16 @@ func (r *reader) closeOpenRings() {
 	if len(r.rings) == 0 {
 		return
 	}
+	if r.quiet {
+		// Reads only counts the errors of a molecule it then drops: their
+		// order and messages do not matter
+		for _, o := range r.rings {
+			r.errorf(o.span, CodeUnclosedRing, "")
+			r.mol.Atoms[o.atom].Bonds[o.slot] = -1
+		}
+		clear(r.rings)
+		return
+	}
 	nums := make([]int, 0, len(r.rings))
 	for n := range r.rings {
 		nums = append(nums, n)

@@ -137,14 +137,11 @@ func reuseReader(r *reader, src, text string, quiet bool) {
 	m := r.mol
 	atoms, rings := countTokens(src)
 	as, bs := m.Atoms[:0], m.Bonds[:0]
-	// storage that must grow grows by half again, so that a reader
-	// meeting records of varied sizes reallocates a few times, not at
-	// every new largest record
 	if cap(as) < atoms {
-		as = make([]Atom, 0, atoms+atoms/2)
+		as = make([]Atom, 0, atoms)
 	}
 	if cap(bs) < atoms+rings {
-		bs = make([]Bond, 0, (atoms+rings)*3/2)
+		bs = make([]Bond, 0, atoms+rings)
 	}
 	*m = Molecule{Text: text, Atoms: as, Bonds: bs, Errors: m.Errors[:0]}
 	rs := r.rings

@@ -80,12 +80,14 @@ func Identify(m *notation.Molecule) Identity {
 	if m == nil || len(m.Atoms) == 0 {
 		return Identity{} // no structure: no key, related to nothing
 	}
-	g := newKeyGraph(m)
+	st := keyStores.Get().(*keyStore)
+	g := newKeyGraphIn(m, st)
 	id := identifyGraph(g, g.units)
 	if groups, and := keyGroups(m, g.units); len(groups) > 0 {
 		id = identifyGroups(g, groups, and, id)
 	}
 	g.releaseScratch()
+	st.release(g)
 	return id
 }
 

@@ -4,6 +4,8 @@
 package identity
 
 import (
+	"sync"
+
 	"stereoline/notation"
 	"stereoline/stereo"
 	"stereoline/stereo/internal/ringgeom"
@@ -89,11 +91,52 @@ func bondClass(b *notation.Bond) int {
 	return 1
 }
 
-func newKeyGraph(m *notation.Molecule) *keyGraph {
+func newKeyGraph(m *notation.Molecule) *keyGraph { return newKeyGraphIn(m, nil) }
+
+// keyStore is the storage of a key graph's atom tables, edges and units,
+// which Identify takes from a pool and gives back: a list of 100,000
+// records would otherwise allocate it 100,000 times.
+type keyStore struct {
+	folded  []bool
+	hydro   []int
+	adj     [][]keyEdge
+	degree  []int
+	backing []keyEdge
+	units   []keyUnit
+}
+
+var keyStores = sync.Pool{New: func() any { return new(keyStore) }}
+
+// keyStoreKeep bounds the atoms of a graph whose storage goes back to
+// the pool.
+const keyStoreKeep = 4096
+
+// release gives the storage back; nothing computed from the graph may
+// point into it (the results' unit atoms and ranks are their own).
+func (st *keyStore) release(g *keyGraph) {
+	if g.n > keyStoreKeep {
+		return
+	}
+	clear(st.adj) // windows of st.backing
+	clear(g.units[:cap(g.units)])
+	st.units = g.units[:0]
+	keyStores.Put(st)
+}
+
+// newKeyGraphIn is newKeyGraph in st's storage, or in its own when st
+// is nil.
+func newKeyGraphIn(m *notation.Molecule, st *keyStore) *keyGraph {
+	if st == nil {
+		st = &keyStore{}
+	}
 	g := &keyGraph{mol: m, n: len(m.Atoms)}
-	g.folded = make([]bool, g.n)
-	g.hydro = make([]int, g.n)
-	g.adj = make([][]keyEdge, g.n)
+	g.folded = grow(st.folded, g.n)
+	clear(g.folded)
+	g.hydro = grow(st.hydro, g.n)
+	clear(g.hydro)
+	g.adj = grow(st.adj, g.n)
+	st.folded, st.hydro, st.adj = g.folded, g.hydro, g.adj
+	g.units = st.units[:0]
 	for a := range m.Atoms {
 		g.hydro[a] += m.Atoms[a].HydrogenCount()
 		if ringgeom.PlainHydrogen(m, a) {
@@ -107,7 +150,9 @@ func newKeyGraph(m *notation.Molecule) *keyGraph {
 		return b.Begin >= 0 && b.End >= 0 && b.Begin < g.n && b.End < g.n && !g.folded[b.Begin] && !g.folded[b.End]
 	}
 	// every atom's edges in one backing array, in the order of the bonds
-	degree := make([]int, g.n)
+	degree := grow(st.degree, g.n)
+	clear(degree)
+	st.degree = degree
 	total := 0
 	for bi := range m.Bonds {
 		if b := &m.Bonds[bi]; usable(b) {
@@ -116,7 +161,8 @@ func newKeyGraph(m *notation.Molecule) *keyGraph {
 			total += 2
 		}
 	}
-	backing := make([]keyEdge, total)
+	backing := grow(st.backing, total)
+	st.backing = backing
 	for a := range g.adj {
 		g.adj[a], backing = backing[:0:degree[a]], backing[degree[a]:]
 	}

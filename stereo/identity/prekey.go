@@ -47,13 +47,12 @@ const preKeyRounds = 32
 // records: a list of 100,000 records would otherwise allocate it 100,000
 // times.
 type preKeyScratch struct {
-	heavy  []int    // atom -> heavy vertex, -1 for hydrogen atoms
-	start  []int    // vertex -> first of its neighbours in nbrs (one more entry than vertices)
-	nbrs   []int    // neighbours of every vertex, one after another
-	label  []uint64 // current colour of each vertex
-	next   []uint64
-	spread []uint64 // Scramble(label) of each vertex, for the sums of neighbours
-	table  []uint64 // classes's hash table
+	heavy []int    // atom -> heavy vertex, -1 for hydrogen atoms
+	start []int    // vertex -> first of its neighbours in nbrs (one more entry than vertices)
+	nbrs  []int    // neighbours of every vertex, one after another
+	label []uint64 // current colour of each vertex
+	next  []uint64
+	table []uint64 // classes's hash table
 }
 
 var preKeyScratches = sync.Pool{New: func() any { return new(preKeyScratch) }}
@@ -145,16 +144,14 @@ func ConstitutionPreKey(m *notation.Molecule) uint64 {
 func (sc *preKeyScratch) refineColours(vertices int) []uint64 {
 	label := sc.label
 	next := grow(sc.next, vertices)
-	spreads := grow(sc.spread, vertices)
 	classes := sc.classes(label)
 	for round := 0; round < min(vertices, preKeyRounds); round++ {
-		for v, l := range label {
-			spreads[v] = ringgeom.Scramble(l)
-		}
 		for v := range label {
+			// the labels are scrambled already (mix), so their sum is a
+			// hash of the neighbours' multiset as it stands
 			var around uint64
 			for _, w := range sc.nbrs[sc.start[v]:sc.start[v+1]] {
-				around += spreads[w]
+				around += label[w]
 			}
 			next[v] = mix(label[v], around)
 		}
@@ -165,7 +162,7 @@ func (sc *preKeyScratch) refineColours(vertices int) []uint64 {
 		}
 		classes = c
 	}
-	sc.label, sc.next, sc.spread = label, next, spreads
+	sc.label, sc.next = label, next
 	return label
 }
 

@@ -64,7 +64,7 @@ type fileReport struct {
 	Path     string
 	Skipped  string // why the file was not analysed, if it was not
 	Records  int
-	Findings []finding
+	Findings findingList
 }
 
 // analyzeAll analyses the files on --jobs workers and hands each report
@@ -237,8 +237,9 @@ type converter struct {
 	m16, m32 *lsp.Mapper // built on the first finding
 	filter   bool
 	changed  lineSet
-	out      []finding
-	sorted   bool // out is in compareFindings order so far
+	out      findingList
+	last     finding // the last finding added to out
+	sorted   bool    // out is in compareFindings order so far
 }
 
 func (r *checkRun) newConverter(f checkFile, content []byte) *converter {
@@ -274,21 +275,28 @@ func (c *converter) add(d *document.Diagnostic) {
 	if c.filter && !c.changed.touches(fd.Start, fd.End) {
 		return
 	}
-	if n := len(c.out); n > 0 && c.sorted && compareFindings(c.out[n-1], fd) > 0 {
+	if c.out.Len() > 0 && c.sorted && compareFindings(c.last, fd) > 0 {
 		c.sorted = false
 	}
-	c.out = append(c.out, fd)
+	c.out.add(fd)
+	c.last = fd
 }
 
 // done returns the findings in sortDiagnostics order. The engine streams
 // them chunk by chunk in host order, so only findings emitted out of
 // order (query patterns, last) need the final sort; a stable sort of
 // chunks each sorted stably is the stable sort of them all.
-func (c *converter) done() []finding {
+func (c *converter) done() findingList {
 	if !c.sorted {
-		slices.SortStableFunc(c.out, compareFindings)
+		all := slices.Collect(c.out.All())
+		slices.SortStableFunc(all, compareFindings)
+		c.out = findingList{}
+		for _, f := range all {
+			c.out.add(f)
+		}
 	}
-	return slices.Clip(c.out)
+	c.out.done()
+	return c.out
 }
 
 // startProgress shows "checked N/M files" on stderr while a run takes

@@ -67,6 +67,19 @@ func NewMapper(content []byte, enc PositionEncoding) *Mapper {
 	return &Mapper{content: content, lineStarts: starts, wide: wide, encoding: enc}
 }
 
+// WithEncoding returns a mapper of the same text that counts characters
+// in enc (an unknown or empty one meaning UTF-16), sharing the line
+// table: a caller that needs two encodings of a long text builds the
+// table once.
+func (m *Mapper) WithEncoding(enc PositionEncoding) *Mapper {
+	if enc != EncodingUTF8 && enc != EncodingUTF32 {
+		enc = EncodingUTF16
+	}
+	c := *m
+	c.encoding = enc
+	return &c
+}
+
 // Content returns the text the mapper was built for.
 func (m *Mapper) Content() []byte { return m.content }
 

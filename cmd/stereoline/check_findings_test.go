@@ -3,6 +3,8 @@ package main
 import (
 	"fmt"
 	"math/rand/v2"
+	"os"
+	"path/filepath"
 	"slices"
 	"strings"
 	"testing"
@@ -14,6 +16,18 @@ import (
 // went in: large positions, long and repeated messages, more distinct
 // messages than the table holds.
 func TestFindingListRoundTrip(t *testing.T) {
+	for _, spill := range []bool{false, true} {
+		t.Run(fmt.Sprintf("spill=%v", spill), func(t *testing.T) {
+			if spill {
+				defer func(b, s int) { findingBlock, spillAfter = b, s }(findingBlock, spillAfter)
+				findingBlock, spillAfter = 100, 1000
+			}
+			roundTrip(t, spill)
+		})
+	}
+}
+
+func roundTrip(t *testing.T, spill bool) {
 	rng := rand.New(rand.NewPCG(1, 2))
 	codes := []notation.Code{"stereo-undefined", "list-duplicate", "list-stereoisomer"}
 	var want []finding
@@ -38,6 +52,9 @@ func TestFindingListRoundTrip(t *testing.T) {
 		l.add(f)
 	}
 	l.done()
+	if (l.spill != nil) != spill {
+		t.Errorf("written to a file: %v, want %v", l.spill != nil, spill)
+	}
 	if l.Len() != len(want) {
 		t.Fatalf("Len %d, want %d", l.Len(), len(want))
 	}
@@ -50,5 +67,34 @@ func TestFindingListRoundTrip(t *testing.T) {
 	}
 	if len(l.msgs) > maxInterned {
 		t.Errorf("%d messages in the table, at most %d", len(l.msgs), maxInterned)
+	}
+	// Twice: the summary and the report both read the findings.
+	if n := len(slices.Collect(l.All())); n != len(want) || l.Err() != nil {
+		t.Errorf("read again: %d findings (%v), want %d", n, l.Err(), len(want))
+	}
+	l.close()
+	if l.Len() != 0 {
+		t.Errorf("%d findings after close", l.Len())
+	}
+}
+
+// TestCheckGoldenSpilled checks the golden outputs with every file's
+// findings written to a temporary file past the first few.
+func TestCheckGoldenSpilled(t *testing.T) {
+	defer func(b, s int) { findingBlock, spillAfter = b, s }(findingBlock, spillAfter)
+	findingBlock, spillAfter = 64, 64
+	for _, c := range []struct{ golden, format string }{
+		{"text.golden", "text"},
+		{"json.golden", "json"},
+		{"sarif.golden", "sarif"},
+	} {
+		stdout, stderr, _ := runCheck(t, "", "--format", c.format, goldenTree)
+		want, err := os.ReadFile(filepath.Join("testdata", "check", c.golden))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := stdout + "--- stderr\n" + stderr; got != string(want) {
+			t.Errorf("%s: spilled findings differ from %s:\n%s", c.format, c.golden, got)
+		}
 	}
 }

@@ -19,6 +19,9 @@ func writeText(w *bufio.Writer, reports []fileReport) error {
 		for f := range rep.Findings.All() {
 			fmt.Fprintf(w, "%s:%d:%d: %s: %s [%s]\n", rep.Path, f.Start.Line+1, f.Start.CharCP+1, f.Severity, f.Message, f.Code)
 		}
+		if err := rep.Findings.Err(); err != nil {
+			return err
+		}
 	}
 	return nil
 }
@@ -64,6 +67,9 @@ func writeJSONLines(w *bufio.Writer, reports []fileReport) error {
 			if err := enc.Encode(j); err != nil {
 				return err
 			}
+		}
+		if err := rep.Findings.Err(); err != nil {
+			return err
 		}
 	}
 	return nil

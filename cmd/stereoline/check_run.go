@@ -257,7 +257,7 @@ func (r *checkRun) newConverter(f checkFile, content []byte) *converter {
 func (c *converter) pos(off int) position {
 	if c.m16 == nil {
 		c.m16 = lsp.NewMapper(c.content, lsp.EncodingUTF16)
-		c.m32 = lsp.NewMapper(c.content, lsp.EncodingUTF32)
+		c.m32 = c.m16.WithEncoding(lsp.EncodingUTF32) // one line table
 	}
 	off = max(0, min(off, len(c.content)))
 	p16, err16 := c.m16.OffsetToPosition(off)
@@ -289,8 +289,10 @@ func (c *converter) add(d *document.Diagnostic) {
 func (c *converter) done() findingList {
 	if !c.sorted {
 		all := slices.Collect(c.out.All())
+		err := c.out.Err()
+		c.out.close()
 		slices.SortStableFunc(all, compareFindings)
-		c.out = findingList{}
+		c.out = findingList{err: err}
 		for _, f := range all {
 			c.out.add(f)
 		}

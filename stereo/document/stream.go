@@ -4,6 +4,7 @@
 package document
 
 import (
+	"math"
 	"stereoline/notation"
 	"stereoline/notation/find"
 	"stereoline/stereo/identity"
@@ -140,8 +141,9 @@ type streamRelater struct {
 	idx   *identity.Index
 	order []int // index position -> record
 	// seen holds, for each pre-key met, the first record with it while it
-	// is alone (>= 0), or -1 once the records with it are in the index.
-	seen map[uint64]int
+	// is alone (>= 0), or -1 once the records with it are in the index
+	// (int32: a list of a million records has about as many pre-keys).
+	seen map[uint64]int32
 	// refs are the records' occurrences by record, those of the records
 	// that cannot be rebuilt from the content (find.RefOf) in odd.
 	refs    []find.Ref
@@ -151,7 +153,7 @@ type streamRelater struct {
 
 func newStreamRelater(whole *Result, on bool) *streamRelater {
 	return &streamRelater{on: on, whole: whole, idx: identity.NewIndex(),
-		seen: map[uint64]int{}, odd: map[int]*find.Occurrence{}, earlier: map[int]*Record{}}
+		seen: map[uint64]int32{}, odd: map[int]*find.Occurrence{}, earlier: map[int]*Record{}}
 }
 
 // chunk relates the records of a chunk (record k is record start+k of
@@ -174,11 +176,13 @@ func (s *streamRelater) chunk(c *Result, start int) {
 		i := start + k
 		j, ok := s.seen[an.preKey]
 		switch {
-		case !ok:
-			s.seen[an.preKey] = i
+		case !ok && i <= math.MaxInt32:
+			s.seen[an.preKey] = int32(i)
+			continue
+		case !ok: // past two thousand million records: alone forever
 			continue
 		case j >= 0:
-			adds = append(adds, j)
+			adds = append(adds, int(j))
 			s.seen[an.preKey] = -1
 		}
 		adds = append(adds, i)

@@ -1,6 +1,7 @@
 package lsp
 
 import (
+	"bytes"
 	"fmt"
 	"slices"
 	"sort"
@@ -47,7 +48,9 @@ func NewMapper(content []byte, enc PositionEncoding) *Mapper {
 	if enc != EncodingUTF8 && enc != EncodingUTF32 {
 		enc = EncodingUTF16
 	}
-	starts := make([]int, 1, 1+len(content)/32)
+	// The exact number of line breaks (each \r\n counted twice): the
+	// table of a long list is its largest part.
+	starts := make([]int, 1, 1+bytes.Count(content, []byte{'\n'})+bytes.Count(content, []byte{'\r'}))
 	var wide []int
 	for i := 0; i < len(content); i++ {
 		switch c := content[i]; {
@@ -65,6 +68,19 @@ func NewMapper(content []byte, enc PositionEncoding) *Mapper {
 		}
 	}
 	return &Mapper{content: content, lineStarts: starts, wide: wide, encoding: enc}
+}
+
+// WithEncoding returns a mapper of the same text that counts characters
+// in enc (an unknown or empty one meaning UTF-16), sharing the line
+// table: a caller that needs two encodings of a long text builds the
+// table once.
+func (m *Mapper) WithEncoding(enc PositionEncoding) *Mapper {
+	if enc != EncodingUTF8 && enc != EncodingUTF32 {
+		enc = EncodingUTF16
+	}
+	c := *m
+	c.encoding = enc
+	return &c
 }
 
 // Content returns the text the mapper was built for.

@@ -78,9 +78,15 @@ func check(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		default:
 			err = writeText(out, []fileReport{rep})
 		}
+		if opts.format != "sarif" {
+			rep.Findings.close()
+		}
 	})
 	if opts.format == "sarif" && err == nil {
 		err = writeSARIF(out, reports)
+	}
+	for i := range reports {
+		reports[i].Findings.close()
 	}
 	if err == nil {
 		err = out.Flush()

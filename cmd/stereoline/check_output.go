@@ -16,8 +16,11 @@ import (
 // letters in a comment before the notation.
 func writeText(w *bufio.Writer, reports []fileReport) error {
 	for _, rep := range reports {
-		for _, f := range rep.Findings {
+		for f := range rep.Findings.All() {
 			fmt.Fprintf(w, "%s:%d:%d: %s: %s [%s]\n", rep.Path, f.Start.Line+1, f.Start.CharCP+1, f.Severity, f.Message, f.Code)
+		}
+		if err := rep.Findings.Err(); err != nil {
+			return err
 		}
 	}
 	return nil
@@ -50,7 +53,7 @@ func writeJSONLines(w *bufio.Writer, reports []fileReport) error {
 	enc := json.NewEncoder(w)
 	enc.SetEscapeHTML(false)
 	for _, rep := range reports {
-		for _, f := range rep.Findings {
+		for f := range rep.Findings.All() {
 			j := jsonFinding{
 				Path: rep.Path,
 				Range: jsonRange{
@@ -64,6 +67,9 @@ func writeJSONLines(w *bufio.Writer, reports []fileReport) error {
 			if err := enc.Encode(j); err != nil {
 				return err
 			}
+		}
+		if err := rep.Findings.Err(); err != nil {
+			return err
 		}
 	}
 	return nil
@@ -83,7 +89,7 @@ func (s *checkSummary) add(rep fileReport) {
 	}
 	s.files++
 	s.records += rep.Records
-	for _, f := range rep.Findings {
+	for f := range rep.Findings.All() {
 		if f.Severity >= 0 && int(f.Severity) < len(s.bySeverity) {
 			s.bySeverity[f.Severity]++
 		}

@@ -64,7 +64,7 @@ type fileReport struct {
 	Path     string
 	Skipped  string // why the file was not analysed, if it was not
 	Records  int
-	Findings []finding
+	Findings findingList
 }
 
 // analyzeAll analyses the files on --jobs workers and hands each report
@@ -237,8 +237,9 @@ type converter struct {
 	m16, m32 *lsp.Mapper // built on the first finding
 	filter   bool
 	changed  lineSet
-	out      []finding
-	sorted   bool // out is in compareFindings order so far
+	out      findingList
+	last     finding // the last finding added to out
+	sorted   bool    // out is in compareFindings order so far
 }
 
 func (r *checkRun) newConverter(f checkFile, content []byte) *converter {
@@ -256,7 +257,7 @@ func (r *checkRun) newConverter(f checkFile, content []byte) *converter {
 func (c *converter) pos(off int) position {
 	if c.m16 == nil {
 		c.m16 = lsp.NewMapper(c.content, lsp.EncodingUTF16)
-		c.m32 = lsp.NewMapper(c.content, lsp.EncodingUTF32)
+		c.m32 = c.m16.WithEncoding(lsp.EncodingUTF32) // one line table
 	}
 	off = max(0, min(off, len(c.content)))
 	p16, err16 := c.m16.OffsetToPosition(off)
@@ -274,21 +275,30 @@ func (c *converter) add(d *document.Diagnostic) {
 	if c.filter && !c.changed.touches(fd.Start, fd.End) {
 		return
 	}
-	if n := len(c.out); n > 0 && c.sorted && compareFindings(c.out[n-1], fd) > 0 {
+	if c.out.Len() > 0 && c.sorted && compareFindings(c.last, fd) > 0 {
 		c.sorted = false
 	}
-	c.out = append(c.out, fd)
+	c.out.add(fd)
+	c.last = fd
 }
 
 // done returns the findings in sortDiagnostics order. The engine streams
 // them chunk by chunk in host order, so only findings emitted out of
 // order (query patterns, last) need the final sort; a stable sort of
 // chunks each sorted stably is the stable sort of them all.
-func (c *converter) done() []finding {
+func (c *converter) done() findingList {
 	if !c.sorted {
-		slices.SortStableFunc(c.out, compareFindings)
+		all := slices.Collect(c.out.All())
+		err := c.out.Err()
+		c.out.close()
+		slices.SortStableFunc(all, compareFindings)
+		c.out = findingList{err: err}
+		for _, f := range all {
+			c.out.add(f)
+		}
 	}
-	return slices.Clip(c.out)
+	c.out.done()
+	return c.out
 }
 
 // startProgress shows "checked N/M files" on stderr while a run takes

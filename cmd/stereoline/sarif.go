@@ -65,11 +65,11 @@ func writeSARIF(w *bufio.Writer, reports []fileReport) error {
 	}
 	run.WithResults([]*sarif.Result{})
 	for _, rep := range reports {
-		if len(rep.Findings) == 0 {
+		if rep.Findings.Len() == 0 {
 			continue
 		}
 		uri := sarifURI(rep.Path)
-		for _, f := range rep.Findings {
+		for f := range rep.Findings.All() {
 			region := sarif.NewRegion().
 				WithStartLine(f.Start.Line + 1).
 				WithStartColumn(f.Start.CharCP + 1).
@@ -86,6 +86,9 @@ func writeSARIF(w *bufio.Writer, reports []fileReport) error {
 				res.WithRuleIndex(i)
 			}
 			run.AddResult(res)
+		}
+		if err := rep.Findings.Err(); err != nil {
+			return err
 		}
 	}
 	report.AddRun(run)

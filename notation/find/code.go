@@ -671,7 +671,7 @@ type litRecord struct {
 // blank or comments.
 func (cf *codeFinder) layoutRecords(lines []byte, text string, lay Layout, w wants, reason Reason) (out []litRecord, n int) {
 	first := true
-	linesText := string(lines)
+	linesText := wholeText(lines)
 	var fields []fieldSpan
 	for start := 0; start < len(lines); {
 		line, next := nextLine(lines, start)
@@ -692,7 +692,7 @@ func (cf *codeFinder) layoutRecords(lines []byte, text string, lay Layout, w wan
 		}
 		var o Occurrence
 		var ok bool
-		fields, ok = layoutRecord(&o, linesText, lines, ls, ls+len(line), lay, fields)
+		fields, ok = layoutRecord(&o, &linesText, lines, ls, ls+len(line), lay, fields)
 		if !ok {
 			continue
 		}

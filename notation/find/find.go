@@ -44,6 +44,28 @@ func FindKind(kind Kind, content []byte, cfg Config) []Occurrence {
 	return nil
 }
 
+// FindChunks calls each with the occurrences FindKind finds, in order,
+// at most n (n > 0) at a time; the slices are each's to keep. A record
+// list is read as it is handed out, the strings of each chunk copied
+// apart from the rest, so that a caller that keeps only what it needs of
+// each chunk never holds all the occurrences of a long list, nor a copy
+// of the whole of it (Stream in stereo/document). Other hosts, and the
+// lists that must be read whole, are found whole and handed out in
+// slices.
+func FindChunks(kind Kind, content []byte, cfg Config, n int, each func([]Occurrence)) {
+	if kind == KindList && findListChunks(content, &cfg, n, each) {
+		return
+	}
+	chunks(FindKind(kind, content, cfg), n, each)
+}
+
+// chunks hands out occs n at a time.
+func chunks(occs []Occurrence, n int, each func([]Occurrence)) {
+	for start := 0; start < len(occs); start += n {
+		each(occs[start:min(start+n, len(occs)):min(start+n, len(occs))])
+	}
+}
+
 // codeLangs are the programming languages with a lexer.
 var codeLangs = map[Kind]*codeLang{
 	KindPython:     python,

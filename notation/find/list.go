@@ -30,31 +30,77 @@ const CodeListLayout notation.Code = "host-list-layout"
 // the first lines hold query patterns (a list of structures is not
 // searched for them record by record).
 func findList(src []byte, cfg *Config) []Occurrence {
+	sc, note, occs, done := startList(src, cfg, false)
+	if done {
+		return occs
+	}
+	out := sc.next(make([]Occurrence, 0, bytes.Count(src, []byte{'\n'})+1), -1)
+	if !sc.v.layout.DialectSet && sc.queries > 0 {
+		queryList(out)
+	}
+	if len(out) > 0 && note != "" {
+		out[0].addDiag(layoutNote(out[0].Span, note), nil)
+	}
+	return out
+}
+
+// findListChunks is findList a chunk of at most n records at a time, the
+// strings of each chunk copied apart from the rest (streamWindow), so
+// that neither all the records nor a copy of the whole list are held at
+// once. It reports false, having called nothing, for the lists that must
+// be read whole: tables, and lists whose first lines hold query patterns
+// (which records are patterns then depends on all of them, queryList).
+func findListChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) bool {
+	sc, note, occs, done := startList(src, cfg, true)
+	switch {
+	case done:
+		chunks(occs, n, each)
+		return true
+	case !sc.v.layout.DialectSet && (sc.v.queries || sc.v.fragments):
+		return false
+	}
+	for first := true; ; first = false {
+		out := sc.next(make([]Occurrence, 0, n), n)
+		if len(out) == 0 {
+			return true
+		}
+		if first && note != "" {
+			out[0].addDiag(layoutNote(out[0].Span, note), nil)
+		}
+		each(out)
+	}
+}
+
+// startList reads the layout of a list and returns the scanner for its
+// records and the note for its first record; done is true when the list
+// was read otherwise (as a table, occs) or holds nothing.
+func startList(src []byte, cfg *Config, windows bool) (sc *listScanner, note string, occs []Occurrence, done bool) {
 	prag := newPragmas(src)
 	fixed, bad := listSpec(src, cfg)
 	nm := newNamer(cfg)
 	v := detectLayout(src, skipBOM(src), fixed, nm, cfg)
 	lay := v.layout
 	if v.none && fixed.empty() {
-		return nil
+		return nil, "", nil, true
 	}
 	if lay.Sep != ' ' && lay.Header {
 		if occs, ok := listTable(src, lay, nm, cfg); ok {
-			return occs
+			return nil, "", occs, true
 		}
 	}
-	out, queries := listRecords(src, skipBOM(src), v, prag, true, make([]Occurrence, 0, bytes.Count(src, []byte{'\n'})+1))
-	if !lay.DialectSet && queries > 0 {
-		queryList(out)
-	}
 	switch {
-	case len(out) == 0:
 	case bad != "":
-		out[0].addDiag(layoutNote(out[0].Span, bad), nil)
+		note = bad
 	case v.ambiguous != "":
-		out[0].addDiag(layoutNote(out[0].Span, "could not tell which field holds the notation: "+v.ambiguous+" (a \"stereoline: layout\" pragma or the layouts setting fixes the layout)"), nil)
+		note = "could not tell which field holds the notation: " + v.ambiguous + " (a \"stereoline: layout\" pragma or the layouts setting fixes the layout)"
 	}
-	return out
+	sc = &listScanner{src: src, pos: skipBOM(src), v: v, prag: prag, first: true}
+	if windows {
+		sc.text = hostText{src: src, window: streamWindow}
+	} else {
+		sc.text = wholeText(src)
+	}
+	return sc, note, nil, false
 }
 
 // listRecords reads the record lines of src from offset from on by the
@@ -62,14 +108,32 @@ func findList(src []byte, cfg *Config) []Occurrence {
 // line may be a header. It returns the records and how many of them are
 // query patterns by their content.
 func listRecords(src []byte, from int, v layoutVerdict, prag *pragmas, first bool, out []Occurrence) ([]Occurrence, int) {
-	text := string(src)
-	lay := v.layout
-	queries := 0
-	var fields []fieldSpan
-	for start := from; start < len(src); {
-		line, next := nextLine(src, start)
-		lineStart := start
-		start = next
+	sc := listScanner{src: src, pos: from, v: v, prag: prag, first: first, text: wholeText(src)}
+	out = sc.next(out, -1)
+	return out, sc.queries
+}
+
+// listScanner reads the record lines of a list in order, a number of
+// records at a time (next), so that a long list can be streamed.
+type listScanner struct {
+	src     []byte
+	pos     int // where the next line starts
+	v       layoutVerdict
+	prag    *pragmas
+	first   bool // the first data line may be a header
+	text    hostText
+	fields  []fieldSpan
+	queries int // records found query patterns by their content so far
+}
+
+// next appends up to max records (all when max < 0) to out.
+func (sc *listScanner) next(out []Occurrence, max int) []Occurrence {
+	src, v, lay := sc.src, sc.v, sc.v.layout
+	text := &sc.text
+	for n := 0; sc.pos < len(src) && n != max; {
+		line, next := nextLine(src, sc.pos)
+		lineStart := sc.pos
+		sc.pos = next
 		for len(line) > 0 && (line[0] == ' ' || line[0] == '\t') {
 			line = line[1:]
 			lineStart++
@@ -78,18 +142,19 @@ func listRecords(src []byte, from int, v layoutVerdict, prag *pragmas, first boo
 			continue
 		}
 		if isComment(line) {
-			prag.addComment(line, lineStart)
+			sc.prag.addComment(line, lineStart)
 			continue
 		}
-		if first {
-			first = false
+		if sc.first {
+			sc.first = false
 			if lay.Header || lay.Sep == ' ' && lay.Field == 0 && bytes.EqualFold(line[:notationEnd(line, 0, len(line), ' ')], []byte("smiles")) {
 				continue
 			}
 		}
-		if !prag.allowed(lineStart) {
+		if !sc.prag.allowed(lineStart) {
 			continue
 		}
+		text.cover(lineStart, lineStart+len(line))
 		if lay.Sep == ' ' && lay.Field == 0 && lay.Title == TitleRest && !v.lenient {
 			// The common layout, written out so that the occurrence is
 			// built once.
@@ -98,7 +163,7 @@ func listRecords(src []byte, from int, v layoutVerdict, prag *pragmas, first boo
 				continue
 			}
 			o := Occurrence{
-				Text:      text[lineStart : lineStart+recEnd],
+				Text:      text.sub(lineStart, lineStart+recEnd),
 				Span:      notation.Span{Start: lineStart, End: lineStart + recEnd},
 				Kind:      KindList,
 				Construct: ConstructListRecord,
@@ -107,18 +172,19 @@ func listRecords(src []byte, from int, v layoutVerdict, prag *pragmas, first boo
 				m:         identityMap(lineStart, recEnd),
 			}
 			if te > ts {
-				o.Title = text[lineStart+ts : lineStart+te]
+				o.Title = text.sub(lineStart+ts, lineStart+te)
 			}
 			if !lay.DialectSet && recordIsPattern(o.Text, v) {
 				o.Dialect = DialectSMARTS
-				queries++
+				sc.queries++
 			}
 			out = append(out, o)
+			n++
 			continue
 		}
 		o := Occurrence{Kind: KindList, Construct: ConstructListRecord, Reason: ReasonPlace, Dialect: lay.Dialect}
 		var ok bool
-		if fields, ok = layoutRecord(&o, text, src, lineStart, lineStart+len(line), lay, fields); !ok {
+		if sc.fields, ok = layoutRecord(&o, text, src, lineStart, lineStart+len(line), lay, sc.fields); !ok {
 			continue
 		}
 		if v.lenient && !fieldReads(src[o.Span.Start:o.Span.End]) {
@@ -126,12 +192,41 @@ func listRecords(src []byte, from int, v layoutVerdict, prag *pragmas, first boo
 		}
 		if !lay.DialectSet && recordIsPattern(o.Text, v) {
 			o.Dialect = DialectSMARTS
-			queries++
+			sc.queries++
 		}
 		out = append(out, o)
+		n++
 	}
-	return out, queries
+	return out
 }
+
+// hostText hands out the strings of occurrences as pieces of the host
+// bytes: of one copy of the whole content (wholeText), or, when a list is
+// streamed, of copies of windows of it, each shared by the records of a
+// stretch of lines and dropped with them.
+type hostText struct {
+	src    []byte
+	s      string
+	base   int
+	window int // 0: s is the whole content
+}
+
+func wholeText(src []byte) hostText { return hostText{src: src, s: string(src)} }
+
+// streamWindow is the size of the windows a streamed list is copied in.
+const streamWindow = 64 << 10
+
+// cover makes sure the bytes [a, b) are in the current window.
+func (h *hostText) cover(a, b int) {
+	if h.window == 0 || a >= h.base && b <= h.base+len(h.s) {
+		return
+	}
+	h.base = a
+	h.s = string(h.src[a:min(len(h.src), max(b, a+h.window))])
+}
+
+// sub returns the host bytes [a, b) as a string; they must be covered.
+func (h *hostText) sub(a, b int) string { return h.s[a-h.base : b-h.base] }
 
 func layoutNote(span notation.Span, msg string) *notation.Error {
 	return &notation.Error{Span: span, Code: CodeListLayout, Severity: notation.SeverityInformation, Msg: msg}
@@ -169,7 +264,7 @@ var queryByte = func() (t [256]bool) {
 
 // layoutRecord reads the notation field and title of the line
 // src[start:end] by a layout into o.
-func layoutRecord(o *Occurrence, text string, src []byte, start, end int, lay Layout, buf []fieldSpan) ([]fieldSpan, bool) {
+func layoutRecord(o *Occurrence, text *hostText, src []byte, start, end int, lay Layout, buf []fieldSpan) ([]fieldSpan, bool) {
 	for end > start && isBlank(src[end-1]) {
 		end--
 	}
@@ -191,7 +286,7 @@ func layoutRecord(o *Occurrence, text string, src []byte, start, end int, lay La
 	if f.quoted && bytes.IndexByte(src[f.start:f.end], '"') >= 0 {
 		return fields, false // a doubled quote: no record holds one
 	}
-	o.Text = text[f.start:f.end]
+	o.Text = text.sub(f.start, f.end)
 	o.Span = notation.Span{Start: f.start, End: f.end}
 	o.m = identityMap(f.start, f.end-f.start)
 	o.Title = layoutTitle(text, src, fields, f, lay, end)
@@ -201,7 +296,7 @@ func layoutRecord(o *Occurrence, text string, src []byte, start, end int, lay La
 // layoutTitle returns the title a layout puts beside the notation field
 // f: the rest of the line, everything before the field, a given field,
 // or the next field (the one before, for a notation field last).
-func layoutTitle(text string, src []byte, fields []fieldSpan, f fieldSpan, lay Layout, end int) string {
+func layoutTitle(text *hostText, src []byte, fields []fieldSpan, f fieldSpan, lay Layout, end int) string {
 	trim := func(a, b int) string {
 		for a < b && (isBlank(src[a]) || lay.Sep != ' ' && src[a] == lay.Sep) {
 			a++
@@ -209,7 +304,7 @@ func layoutTitle(text string, src []byte, fields []fieldSpan, f fieldSpan, lay L
 		for b > a && (isBlank(src[b-1]) || lay.Sep != ' ' && src[b-1] == lay.Sep) {
 			b--
 		}
-		return text[a:b]
+		return text.sub(a, b)
 	}
 	k := -1
 	for i := range fields {
@@ -228,7 +323,7 @@ func layoutTitle(text string, src []byte, fields []fieldSpan, f fieldSpan, lay L
 		_, ts, te := splitRecord(src[f.start:end])
 		rest := trim(next, end)
 		if lay.Sep == ' ' && !f.quoted {
-			rest = text[f.start+ts : f.start+te]
+			rest = text.sub(f.start+ts, f.start+te)
 		}
 		if rest == "" && k > 0 {
 			// Nothing after the record: the name before it
@@ -245,13 +340,13 @@ func layoutTitle(text string, src []byte, fields []fieldSpan, f fieldSpan, lay L
 		for _, t := range nearest(k, len(fields)) {
 			c := src[fields[t].start:fields[t].end]
 			if len(c) > 0 && !number(c) && !fieldReads(c) {
-				return text[fields[t].start:fields[t].end]
+				return text.sub(fields[t].start, fields[t].end)
 			}
 		}
 		return ""
 	}
 	if t := lay.Title; t >= 0 && t < len(fields) && t != k {
-		return text[fields[t].start:fields[t].end]
+		return text.sub(fields[t].start, fields[t].end)
 	}
 	return ""
 }

@@ -104,7 +104,7 @@ func tableByContent(src []byte, from int, sep byte, nm namer, cfg *Config) []Occ
 	if sep == '\t' {
 		kind = KindTSV
 	}
-	text := string(src)
+	text := wholeText(src)
 	var out []Occurrence
 	var fields []fieldSpan
 	first := true
@@ -126,7 +126,7 @@ func tableByContent(src []byte, from int, sep byte, nm namer, cfg *Config) []Occ
 		}
 		var o Occurrence
 		var ok bool
-		fields, ok = layoutRecord(&o, text, src, ls, ls+len(line), v.layout, fields)
+		fields, ok = layoutRecord(&o, &text, src, ls, ls+len(line), v.layout, fields)
 		if !ok || placeholders[strings.ToLower(o.Text)] {
 			continue
 		}

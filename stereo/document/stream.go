@@ -4,6 +4,7 @@
 package document
 
 import (
+	"math"
 	"stereoline/notation"
 	"stereoline/notation/find"
 	"stereoline/stereo/identity"
@@ -20,7 +21,7 @@ var streamChunk = 256
 // earlierLimit bounds the earlier records Stream keeps re-read for the
 // messages of relations; most relations name the first record of a
 // constitution, which stays warm.
-const earlierLimit = 4096
+const earlierLimit = 512
 
 // IsRelation reports whether a code is one of the relations between the
 // records of a list (relate.go). Analyze orders findings by host span,
@@ -45,26 +46,37 @@ func (a *Analyzer) StreamRecords(name, languageID string, content []byte, identi
 	cfg := a.cfg
 	kind := a.kindOf(name, languageID)
 	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
-	occs := res.splitQueries(find.FindKind(kind, content, cfg.findConfig(name)))
 	reading := cfg.Reading.notation()
-	recs := make([]Record, min(streamChunk, len(occs)))
-	store := make(chunkStorage, len(recs))
-	for start := 0; start < len(occs); start += streamChunk {
-		end := min(start+streamChunk, len(occs))
-		parallel(end-start, func(k int) {
-			an := analyseInto(&store[k], occs[start+k].Text, reading, cfg.Limits.limits())
-			recs[k] = Record{Occ: &occs[start+k], an: an}
+	var store chunkStorage
+	n := 0
+	find.FindChunks(kind, content, cfg.findConfig(name), streamChunk, func(occs []find.Occurrence) {
+		occs = res.splitChunkQueries(occs)
+		store = store.grow(len(occs))
+		recs := make([]Record, len(occs))
+		parallel(len(occs), func(k int) {
+			an := analyseInto(&store[k], occs[k].Text, reading, cfg.Limits.limits())
+			recs[k] = Record{Occ: &occs[k], an: an}
 			if identify {
 				recs[k].Identity = an.identify()
 			}
 		})
-		for k := range end - start {
-			each(start+k, &recs[k])
+		for k := range recs {
+			each(n+k, &recs[k])
 		}
 		store.release(recs)
-		clear(recs)
-	}
-	return len(occs)
+		n += len(occs)
+	})
+	return n
+}
+
+// splitChunkQueries is splitQueries for a chunk of the occurrences of a
+// streamed document: the query patterns are appended to r.Queries, the
+// records returned.
+func (r *Result) splitChunkQueries(occs []find.Occurrence) []find.Occurrence {
+	part := &Result{}
+	occs = part.splitQueries(occs)
+	r.Queries = append(r.Queries, part.Queries...)
+	return occs
 }
 
 // Stream finds the findings Analyze finds, without keeping what it does
@@ -86,18 +98,23 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 	cfg := a.cfg
 	kind := a.kindOf(name, languageID)
 	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
-	occs := find.FindKind(kind, content, cfg.findConfig(name))
-	occs = res.splitQueries(occs)
-	rel := newStreamRelater(res, occs, relatedKinds[kind])
+	rel := newStreamRelater(res, relatedKinds[kind])
 	reading := cfg.Reading.notation()
-	store := make(chunkStorage, min(streamChunk, len(occs)))
-	for start := 0; start < len(occs); start += streamChunk {
-		end := min(start+streamChunk, len(occs))
+	var store chunkStorage
+	start := 0 // the records of earlier chunks
+	// The occurrences come a chunk at a time too (find.FindChunks), so
+	// that those of a long list are not all held.
+	find.FindChunks(kind, content, cfg.findConfig(name), streamChunk, func(occs []find.Occurrence) {
+		occs = res.splitChunkQueries(occs)
+		if len(occs) == 0 {
+			return
+		}
+		store = store.grow(len(occs))
 		chunk := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg,
-			Records: make([]Record, end-start), noFixes: a.noFixes}
-		parallel(end-start, func(k int) {
-			an := analyseInto(&store[k], occs[start+k].Text, reading, cfg.Limits.limits())
-			chunk.Records[k] = Record{Occ: &occs[start+k], an: an}
+			Records: make([]Record, len(occs)), noFixes: a.noFixes}
+		parallel(len(occs), func(k int) {
+			an := analyseInto(&store[k], occs[k].Text, reading, cfg.Limits.limits())
+			chunk.Records[k] = Record{Occ: &occs[k], an: an}
 		})
 		for k := range chunk.Records {
 			chunk.Diagnostics = append(chunk.Diagnostics, chunk.recordFindings(k, chunk.Records[k].an.get())...)
@@ -108,12 +125,13 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 		rel.chunk(chunk, start)
 		emit(chunk.Diagnostics)
 		store.release(chunk.Records)
-	}
+		start += len(occs)
+	})
 	res.queryDiagnostics()
 	if len(res.Diagnostics) > 0 {
 		emit(res.Diagnostics)
 	}
-	return len(occs) + len(res.Queries)
+	return start + len(res.Queries)
 }
 
 // chunkStorage is the reading storage of a chunk's records, one
@@ -129,6 +147,14 @@ type chunkStorage []notation.Rereader
 // the next chunk, so a chunk of large records leaves no more than some
 // megabytes behind.
 const keepAtoms = 512
+
+// grow returns s with room for a chunk of n records.
+func (s chunkStorage) grow(n int) chunkStorage {
+	if n > len(s) {
+		s = append(s, make(chunkStorage, n-len(s))...)
+	}
+	return s
+}
 
 // release is called when the records of a chunk are done with: it
 // drops the storage of positions that read a large molecule.
@@ -148,21 +174,29 @@ func (s chunkStorage) release(recs []Record) {
 // relateRecords does for a whole result: the same index, fed in the same
 // order within each constitution. A record waits, as its pre-key alone,
 // until a second record shares the pre-key; then both get identity keys.
+//
+// Of the occurrences of records gone by it keeps compact references
+// (find.Ref), enough to read a record again for the message of a
+// relation found later.
 type streamRelater struct {
 	on    bool
-	whole *Result // for line numbers
-	occs  []find.Occurrence
+	whole *Result // for line numbers and the content
 	idx   *identity.Index
 	order []int // index position -> record
 	// seen holds, for each pre-key met, the first record with it while it
-	// is alone (>= 0), or -1 once the records with it are in the index.
-	seen    map[uint64]int
+	// is alone (>= 0), or -1 once the records with it are in the index
+	// (int32: a list of a million records has about as many pre-keys).
+	seen map[uint64]int32
+	// refs are the records' occurrences by record, those of the records
+	// that cannot be rebuilt from the content (find.RefOf) in odd.
+	refs    []find.Ref
+	odd     map[int]*find.Occurrence
 	earlier map[int]*Record // earlier records re-read for messages
 }
 
-func newStreamRelater(whole *Result, occs []find.Occurrence, on bool) *streamRelater {
-	return &streamRelater{on: on, whole: whole, occs: occs, idx: identity.NewIndex(),
-		seen: map[uint64]int{}, earlier: map[int]*Record{}}
+func newStreamRelater(whole *Result, on bool) *streamRelater {
+	return &streamRelater{on: on, whole: whole, idx: identity.NewIndex(),
+		seen: map[uint64]int32{}, odd: map[int]*find.Occurrence{}, earlier: map[int]*Record{}}
 }
 
 // chunk relates the records of a chunk (record k is record start+k of
@@ -170,6 +204,9 @@ func newStreamRelater(whole *Result, occs []find.Occurrence, on bool) *streamRel
 func (s *streamRelater) chunk(c *Result, start int) {
 	if !s.on {
 		return
+	}
+	for k := range c.Records {
+		s.keep(start+k, c.Records[k].Occ)
 	}
 	// The records to put into the index, in order: a record whose
 	// pre-key was alone brings the earlier record with it, just before.
@@ -182,11 +219,13 @@ func (s *streamRelater) chunk(c *Result, start int) {
 		i := start + k
 		j, ok := s.seen[an.preKey]
 		switch {
-		case !ok:
-			s.seen[an.preKey] = i
+		case !ok && i <= math.MaxInt32:
+			s.seen[an.preKey] = int32(i)
+			continue
+		case !ok: // past two thousand million records: alone forever
 			continue
 		case j >= 0:
-			adds = append(adds, j)
+			adds = append(adds, int(j))
 			s.seen[an.preKey] = -1
 		}
 		adds = append(adds, i)
@@ -202,6 +241,25 @@ func (s *streamRelater) chunk(c *Result, start int) {
 	}
 }
 
+// keep notes the occurrence of record i (the next record).
+func (s *streamRelater) keep(i int, o *find.Occurrence) {
+	r, ok := find.RefOf(s.whole.Content, o)
+	if !ok {
+		oc := *o
+		s.odd[i] = &oc
+	}
+	s.refs = append(s.refs, r)
+}
+
+// occurrence returns the occurrence of an earlier record.
+func (s *streamRelater) occurrence(j int) *find.Occurrence {
+	if o, ok := s.odd[j]; ok {
+		return o
+	}
+	o := s.refs[j].Occurrence(s.whole.Content)
+	return &o
+}
+
 // add puts a record into the index and returns the relation found.
 func (s *streamRelater) add(c *Result, start, i int, rec *Record) {
 	m := s.idx.Add(*rec.Identity)
@@ -212,7 +270,7 @@ func (s *streamRelater) add(c *Result, start, i int, rec *Record) {
 	j := s.order[m.Earlier]
 	earlier := s.record(c, start, j)
 	mols := func() (*notation.Molecule, *notation.Molecule) { return rec.Mol(), earlier.Mol() }
-	if d, ok := relationDiagnostic(m, i, rec, earlier, mols, s.whole.describeOcc(&s.occs[j])); ok {
+	if d, ok := relationDiagnostic(m, i, rec, earlier, mols, s.whole.describeOcc(earlier.Occ)); ok {
 		c.add(d)
 	}
 }
@@ -229,8 +287,9 @@ func (s *streamRelater) record(c *Result, start, j int) *Record {
 	if len(s.earlier) >= earlierLimit {
 		clear(s.earlier)
 	}
-	an := analyse(s.occs[j].Text, s.whole.cfg.Reading.notation(), s.whole.cfg.Limits.limits())
-	r := &Record{Occ: &s.occs[j], an: an, Identity: an.identify()}
+	o := s.occurrence(j)
+	an := analyse(o.Text, s.whole.cfg.Reading.notation(), s.whole.cfg.Limits.limits())
+	r := &Record{Occ: o, an: an, Identity: an.identify()}
 	s.earlier[j] = r
 	return r
 }

@@ -3,6 +3,11 @@
 
 package identity
 
+import (
+	"crypto/sha256"
+	"encoding/hex"
+)
+
 // Index relates each record of a list to the records before it in one
 // pass: the keys of earlier records sit in maps, so adding a record costs
 // a few lookups whatever the length of the list, and no pair of records
@@ -10,15 +15,42 @@ package identity
 //
 // The zero value is not ready; use NewIndex.
 type Index struct {
-	byKey          map[string]int // first record with each key
-	byConstitution map[string]int // first record with each constitution
+	byKey map[indexKey]int // first record with each key
+	// byConstitution holds the first record with each constitution and
+	// its units: only that record is ever compared unit by unit (Add),
+	// so a long list of stereoisomers keeps no units of the others.
+	byConstitution map[indexKey]firstOfConstitution
 	// Records with stereo groups (groups.go): the first that stands for
 	// a set holding each stereoisomer, and the first with each set.
 	byMember map[string]int
 	byUnion  map[string]int
 	grouped  map[int]groupedRecord // the records with sets, by index
-	units    [][]identityUnit
 	n        int
+}
+
+// indexKey is a key (digest) as the 16 bytes its 32 hexadecimal digits
+// write: the index of a list of a million records holds about as many
+// keys, and a fixed-size map key needs no allocation of its own.
+type indexKey [16]byte
+
+// keyOf returns the index key of a key.
+func keyOf(k string) indexKey {
+	var out indexKey
+	if len(k) == 2*len(out) {
+		if _, err := hex.Decode(out[:], []byte(k)); err == nil {
+			return out
+		}
+	}
+	// Not a digest (none is made otherwise): a digest of it, which
+	// differs from every other key's as digests do.
+	sum := sha256.Sum256([]byte(k))
+	copy(out[:], sum[:])
+	return out
+}
+
+type firstOfConstitution struct {
+	record int
+	units  []identityUnit
 }
 
 // groupedRecord is what the index keeps of a record with a set.
@@ -29,7 +61,7 @@ type groupedRecord struct {
 
 // NewIndex returns an empty index.
 func NewIndex() *Index {
-	return &Index{byKey: map[string]int{}, byConstitution: map[string]int{}, byMember: map[string]int{}, byUnion: map[string]int{},
+	return &Index{byKey: map[indexKey]int{}, byConstitution: map[indexKey]firstOfConstitution{}, byMember: map[string]int{}, byUnion: map[string]int{},
 		grouped: map[int]groupedRecord{}}
 }
 
@@ -61,33 +93,27 @@ type Match struct {
 func (x *Index) Add(id Identity) Match {
 	i := x.n
 	x.n++
-	// Only the first record of a constitution is ever compared unit by
-	// unit (below), so only its units are kept: a long list of
-	// stereoisomers costs a slice header per record, not its units.
-	if _, seen := x.byConstitution[id.ConstitutionKey]; seen && id.Key != "" {
-		x.units = append(x.units, nil)
-	} else {
-		x.units = append(x.units, id.units)
-	}
 	m := Match{Relation: Different, Earlier: -1}
 	if id.Key == "" {
 		return m
 	}
-	if j, ok := x.byKey[id.Key]; ok {
+	key, con := keyOf(id.Key), keyOf(id.ConstitutionKey)
+	first, conSeen := x.byConstitution[con]
+	if j, ok := x.byKey[key]; ok {
 		m = Match{Relation: Identical, Earlier: j}
-	} else if j, ok := x.byKey[id.MirrorKey]; ok {
+	} else if j, ok := x.byKey[keyOf(id.MirrorKey)]; ok {
 		m = Match{Relation: Enantiomers, Earlier: j}
 	} else if sm, ok := x.setMatch(&id); ok {
 		m = sm
-	} else if j, ok := x.byConstitution[id.ConstitutionKey]; ok {
-		c := compareIdentities(id, Identity{Key: "\x00", MirrorKey: "\x00", ConstitutionKey: id.ConstitutionKey, units: x.units[j]}, nil)
-		m = Match{Relation: c.Relation, Earlier: j, Differing: c.Differing}
+	} else if conSeen {
+		c := compareIdentities(id, Identity{Key: "\x00", MirrorKey: "\x00", ConstitutionKey: id.ConstitutionKey, units: first.units}, nil)
+		m = Match{Relation: c.Relation, Earlier: first.record, Differing: c.Differing}
 	}
-	if _, ok := x.byKey[id.Key]; !ok {
-		x.byKey[id.Key] = i
+	if _, ok := x.byKey[key]; !ok {
+		x.byKey[key] = i
 	}
-	if _, ok := x.byConstitution[id.ConstitutionKey]; !ok {
-		x.byConstitution[id.ConstitutionKey] = i
+	if !conSeen {
+		x.byConstitution[con] = firstOfConstitution{record: i, units: id.units}
 	}
 	if id.set != nil {
 		x.grouped[i] = groupedRecord{kind: id.Set, pair: id.set.pair}
@@ -124,7 +150,7 @@ func (x *Index) setMatch(id *Identity) (Match, bool) {
 		}
 	} else {
 		for _, k := range id.set.members {
-			if j, ok := x.byKey[k]; ok {
+			if j, ok := x.byKey[keyOf(k)]; ok {
 				if _, grouped := x.grouped[j]; !grouped {
 					consider(j, memberRelation(id.Set), 1, id.set.pair)
 				}

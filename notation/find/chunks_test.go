@@ -1,0 +1,108 @@
+package find
+
+import (
+	"fmt"
+	"reflect"
+	"strings"
+	"testing"
+)
+
+// chunkCases are hosts FindChunks streams (plain lists, over several
+// copy windows) or must hand out whole (tables, query lists, code).
+func chunkCases() map[string]string {
+	var long strings.Builder
+	long.WriteString("# a generated list\n")
+	for i := range 6000 {
+		// Records from OpenSMILES examples (common practice), titles
+		// with the index so that no two lines are alike.
+		rec := []string{"N[C@@H](C)C(=O)O", "F/C=C/F", "C1CC[C@H](O)CC1", "c1ccccc1O"}[i%4]
+		fmt.Fprintf(&long, "%s item-%d extra words\n", rec, i)
+		if i%997 == 0 {
+			long.WriteString("// stereoline: skip-next\nC[C@H](O)CC skipped\n\n")
+		}
+	}
+	var tabbed strings.Builder
+	for i := range 3000 {
+		fmt.Fprintf(&tabbed, "id%d\tC[C@@H](N)C%s\t%d\n", i, strings.Repeat("C", i%7), i)
+	}
+	return map[string]string{
+		"long.smi":    long.String(),
+		"tabbed.smi":  tabbed.String(),
+		"header.smi":  "smiles name\nC[C@H](O)CC butanol\n\nF/C=C\\F difluoroethene\n",
+		"queries.smi": "[#6][OX2H] alcohol\n[CX3](=O)[OX2H1] acid\nC[C@H](N)C(=O)O alanine\n",
+		"table.csv":   "id,smiles,amount\n1,C[C@H](O)CC,3\n2,F/C=C/F,4\n",
+		"unclear.smi": "CCO CCN\nCCC CCCl\n",
+		"empty.smi":   "",
+		"code.py":     "A = 'C[C@H](O)CC'\nB = 'F/C=C/F'\n",
+	}
+}
+
+// TestFindChunksIsFindKind checks that the chunks, joined, are what
+// FindKind finds, occurrence for occurrence, for several chunk sizes.
+func TestFindChunksIsFindKind(t *testing.T) {
+	for name, src := range chunkCases() {
+		kind := KindForName(name)
+		want := FindKind(kind, []byte(src), Config{})
+		for _, n := range []int{1, 7, 2048, 100000} {
+			var got []Occurrence
+			calls := 0
+			FindChunks(kind, []byte(src), Config{}, n, func(occs []Occurrence) {
+				calls++
+				if len(occs) == 0 || len(occs) > n {
+					t.Errorf("%s n=%d: a chunk of %d occurrences", name, n, len(occs))
+				}
+				got = append(got, occs...)
+			})
+			if len(got) != len(want) {
+				t.Fatalf("%s n=%d: %d occurrences, FindKind %d", name, n, len(got), len(want))
+			}
+			for i := range want {
+				if !reflect.DeepEqual(strip(got[i]), strip(want[i])) {
+					t.Fatalf("%s n=%d: occurrence %d is %+v, FindKind's %+v", name, n, i, got[i], want[i])
+				}
+			}
+			if wantCalls := (len(want) + n - 1) / n; calls != wantCalls {
+				t.Errorf("%s n=%d: %d calls, want %d", name, n, calls, wantCalls)
+			}
+		}
+	}
+}
+
+// strip drops the encoder, a function DeepEqual cannot compare.
+func strip(o Occurrence) Occurrence {
+	if o.encode != nil {
+		o.encode = nil
+		o.Title += " (encoded)"
+	}
+	return o
+}
+
+// TestRefRebuilds checks that a Ref rebuilds the occurrence of a list
+// record, title included, and is refused where escapes make the text
+// differ from the host bytes.
+func TestRefRebuilds(t *testing.T) {
+	for name, src := range chunkCases() {
+		content := []byte(src)
+		for _, o := range FindKind(KindForName(name), content, Config{}) {
+			r, ok := RefOf(content, &o)
+			if !ok {
+				if KindForName(name) == KindList && len(o.Diagnostics) == 0 {
+					t.Errorf("%s: the list record %q at %v has no Ref", name, o.Text, o.Span)
+				}
+				continue
+			}
+			back := r.Occurrence(content)
+			if !reflect.DeepEqual(strip(back), strip(o)) {
+				t.Errorf("%s: rebuilt %+v, was %+v", name, back, o)
+			}
+		}
+	}
+	// A Python literal with an escaped backslash: its text is not its
+	// host bytes.
+	content := []byte(`smiles = "F/C=C\\F"` + "\n")
+	for _, o := range FindKind(KindPython, content, Config{}) {
+		if _, ok := RefOf(content, &o); ok {
+			t.Errorf("RefOf took %q at %v, written with an escape", o.Text, o.Span)
+		}
+	}
+}

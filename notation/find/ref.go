@@ -1,0 +1,74 @@
+package find
+
+import "stereoline/notation"
+
+// This file implements a compact stand-in for an occurrence whose text
+// and title are host bytes as they stand (the records of a list, most
+// cells), for a caller that must come back to many records of a long
+// list after their chunk is gone (the relations of Stream).
+
+// Ref is an occurrence reduced to the offsets of its text and title in
+// the host content, 20 bytes instead of the occurrence's 200 or so.
+type Ref struct {
+	start, end      uint32
+	title, titleEnd uint32
+	kind            Kind
+	construct       Construct
+	reason          Reason
+	dialect         Dialect
+}
+
+// RefOf returns the compact stand-in for o, found in content. ok is false
+// when o cannot be rebuilt from content alone: its text is not its host
+// bytes as they stand (escapes, pieces), it carries host findings, its
+// title is not a piece of its line, or the content is too long for the
+// offsets.
+func RefOf(content []byte, o *Occurrence) (r Ref, ok bool) {
+	s := o.Span
+	if len(content) >= 1<<32-1 || s.Start < 0 || s.End > len(content) || s.Start > s.End ||
+		o.m.runs != nil || o.m.base != s.Start || o.m.size != len(o.Text) ||
+		string(content[s.Start:s.End]) != o.Text ||
+		len(o.Diagnostics) > 0 || o.Cell != 0 || o.group != (groupMark{}) || o.encode != nil {
+		return Ref{}, false
+	}
+	r = Ref{start: uint32(s.Start), end: uint32(s.End), kind: o.Kind, construct: o.Construct, reason: o.Reason, dialect: o.Dialect}
+	if o.Title == "" {
+		return r, true
+	}
+	// The title is on the record's line: after it (the usual place),
+	// else before it. Any piece of the line that reads the same will do.
+	lineStart, lineEnd := s.Start, s.End
+	for lineStart > 0 && content[lineStart-1] != '\n' {
+		lineStart--
+	}
+	for lineEnd < len(content) && content[lineEnd] != '\n' {
+		lineEnd++
+	}
+	n := len(o.Title)
+	for _, span := range [2][2]int{{s.End, lineEnd}, {lineStart, s.Start}} {
+		for p := span[0]; p+n <= span[1]; p++ {
+			if string(content[p:p+n]) == o.Title {
+				r.title, r.titleEnd = uint32(p), uint32(p+n)
+				return r, true
+			}
+		}
+	}
+	return Ref{}, false
+}
+
+// Occurrence rebuilds the occurrence from the content RefOf was given.
+func (r Ref) Occurrence(content []byte) Occurrence {
+	o := Occurrence{
+		Text:      string(content[r.start:r.end]),
+		Span:      notation.Span{Start: int(r.start), End: int(r.end)},
+		Kind:      r.kind,
+		Construct: r.construct,
+		Reason:    r.reason,
+		Dialect:   r.dialect,
+		m:         identityMap(int(r.start), int(r.end-r.start)),
+	}
+	if r.titleEnd > r.title {
+		o.Title = string(content[r.title:r.titleEnd])
+	}
+	return o
+}

@@ -213,10 +213,24 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	occs = res.splitQueries(occs)
 	res.Records = make([]Record, len(occs))
 	res.own = make([][]Diagnostic, len(occs))
+	// The records of a list whose constitution pre-key an earlier one
+	// has (in the order the goroutines take them) get their identity
+	// keys now, from the molecule at hand: Relate, which needs them, then
+	// reads again only the first record of each pre-key.
+	var seen preKeys
+	if relatedKinds[kind] {
+		seen.keys = make(map[uint64]struct{}, len(occs))
+	}
+	reading, lim := cfg.Reading.notation(), cfg.Limits.limits()
 	fill := func(i int) {
-		an, f := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
+		rr := rereaders.Get().(*notation.Rereader)
+		an, f := a.cache.read(occs[i].Text, reading, lim, rr)
 		res.Records[i] = Record{Occ: &occs[i], an: an}
 		res.own[i] = res.recordFindings(i, f)
+		if an.identifiable && seen.again(an.preKey) {
+			an.identifyWith(f.mol)
+		}
+		rereaders.Put(rr)
 	}
 	parallel(len(occs), fill)
 	n := 0
@@ -230,6 +244,26 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	res.queryDiagnostics()
 	res.sortDiagnostics()
 	return res
+}
+
+// preKeys is a set of constitution pre-keys that goroutines add to.
+type preKeys struct {
+	mu   sync.Mutex
+	keys map[uint64]struct{} // nil: the set takes nothing
+}
+
+// again adds k to the set and reports whether it was there before.
+func (s *preKeys) again(k uint64) bool {
+	if s.keys == nil {
+		return false
+	}
+	s.mu.Lock()
+	_, ok := s.keys[k]
+	if !ok {
+		s.keys[k] = struct{}{}
+	}
+	s.mu.Unlock()
+	return ok
 }
 
 // sortDiagnostics orders the findings by host position, stably, so

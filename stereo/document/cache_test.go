@@ -93,8 +93,9 @@ func compareAnswers(t *testing.T, what string, got, want *Result, rng *rand.Rand
 
 // TestFullListBound reads more records than the list keeps, through the
 // cache and through requests, and checks that no more than the limit
-// keep their full analyses, that the others have dropped theirs, and
-// that a dropped analysis read again is kept again.
+// keep their full analyses (the first reading of a list keeps none), that
+// the others have dropped theirs, and that a dropped analysis read again
+// is kept again.
 func TestFullListBound(t *testing.T) {
 	const limit = 8
 	a := withKept(limit)
@@ -114,8 +115,8 @@ func TestFullListBound(t *testing.T) {
 		}
 		return n
 	}
-	if n := kept(); n > limit || n == 0 {
-		t.Fatalf("%d analyses keep their full analysis after reading %d records, want 1 to %d", n, len(res.Records), limit)
+	if n := kept(); n > limit {
+		t.Fatalf("%d analyses keep their full analysis after reading %d records, want at most %d", n, len(res.Records), limit)
 	}
 	for k := 0; k < 200; k++ {
 		rec := &res.Records[rng.Intn(len(res.Records))]

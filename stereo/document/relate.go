@@ -114,16 +114,15 @@ func (r *Result) collidingGroups() [][]int {
 }
 
 // relateGroup gives the records of one pre-key (in list order) their
-// identity keys and relates them. Their molecules are read again where
-// their analyses were dropped, and only for as long as the group needs
-// them: for the keys and for naming the units two stereoisomers differ in.
+// identity keys and relates them. The keys of most were computed as the
+// records were read (AnalyzeRecords); the others' molecules are read
+// again for their keys alone.
 func (r *Result) relateGroup(members []int) {
-	mols := make([]*notation.Molecule, len(members))
-	for k, i := range members {
+	for _, i := range members {
 		rec := &r.Records[i]
-		rec.Identity, mols[k] = rec.an.identifyRead()
+		rec.Identity = rec.an.identify()
 	}
-	r.relateMembers(members, mols)
+	r.relateMembers(members)
 }
 
 // relation is the finding that relates a record to an earlier one,
@@ -142,17 +141,10 @@ const named = "\x00"
 // relateMembers relates each of some records (in list order, all with
 // identity keys) to the first earlier one of them it matches, setting
 // r.rel. Records whose pre-keys differ never match, so the records of
-// each pre-key can be related apart. mols[k], when not nil, is the
-// molecule of members[k].
-func (r *Result) relateMembers(members []int, mols []*notation.Molecule) {
+// each pre-key can be related apart.
+func (r *Result) relateMembers(members []int) {
 	idx := identity.NewIndex()
-	mol := func(k int) *notation.Molecule {
-		if mols[k] == nil {
-			mols[k] = r.Records[members[k]].an.molecule()
-		}
-		return mols[k]
-	}
-	for k, i := range members {
+	for _, i := range members {
 		rec := &r.Records[i]
 		m := idx.Add(*rec.Identity)
 		r.rel[i] = nil
@@ -160,9 +152,7 @@ func (r *Result) relateMembers(members []int, mols []*notation.Molecule) {
 			continue
 		}
 		j := members[m.Earlier]
-		d, ok := relationDiagnostic(m, i, rec, &r.Records[j], func() (*notation.Molecule, *notation.Molecule) {
-			return mol(k), mol(m.Earlier)
-		}, named)
+		d, ok := relationDiagnostic(m, i, rec, &r.Records[j], named)
 		if !ok {
 			continue
 		}
@@ -177,9 +167,9 @@ func (r *Result) relateMembers(members []int, mols []*notation.Molecule) {
 }
 
 // relationDiagnostic is the finding that record i (rec) is related to an
-// earlier record as m says; where names the earlier record, mols gives
-// the molecules of both. ok is false for relations that are not reported.
-func relationDiagnostic(m identity.Match, i int, rec, earlier *Record, mols func() (*notation.Molecule, *notation.Molecule), where string) (d Diagnostic, ok bool) {
+// earlier record as m says; where names the earlier record. Both records
+// have identity keys. ok is false for relations that are not reported.
+func relationDiagnostic(m identity.Match, i int, rec, earlier *Record, where string) (d Diagnostic, ok bool) {
 	d = Diagnostic{Span: rec.Occ.Span, Record: i,
 		Related: []Related{{Span: earlier.Occ.Span, Message: "the earlier record"}}}
 	switch m.Relation {
@@ -194,10 +184,10 @@ func relationDiagnostic(m identity.Match, i int, rec, earlier *Record, mols func
 		d.Code, d.Message = setRelationMessage(m, rec, earlier, where)
 	case identity.Diastereomers, identity.Unspecified:
 		d.Code, d.Severity = CodeListStereoisomer, notation.SeverityInformation
-		here, there := mols()
-		d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differingUnits(here, there, m.Differing))
+		differ := differingUnits(rec.an.atomName, earlier.an.atomName, m.Differing)
+		d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differ)
 		if m.Relation == identity.Unspecified {
-			d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differingUnits(here, there, m.Differing))
+			d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differ)
 		}
 	default:
 		return d, false
@@ -322,8 +312,9 @@ func (r *Result) lineOf(off int) int {
 	return sort.SearchInts(r.lines, off+1) - 1
 }
 
-// differingUnits names the units in which two stereoisomers differ.
-func differingUnits(m, earlier *notation.Molecule, diffs []identity.UnitDifference) string {
+// differingUnits names the units in which two stereoisomers differ; name
+// and earlier name the atoms of each (AtomName).
+func differingUnits(name, earlier func(int) string, diffs []identity.UnitDifference) string {
 	if len(diffs) == 0 {
 		return "the configurations differ"
 	}
@@ -331,12 +322,12 @@ func differingUnits(m, earlier *notation.Molecule, diffs []identity.UnitDifferen
 	for _, d := range diffs {
 		var names []string
 		for _, a := range d.Atoms {
-			names = append(names, AtomName(m, a))
+			names = append(names, name(a))
 		}
 		if len(d.Atoms) == 0 {
 			// unmarked here: the unit is named by the earlier record's atoms
 			for _, a := range d.OtherAtoms {
-				names = append(names, AtomName(earlier, a))
+				names = append(names, earlier(a))
 			}
 		}
 		sep := ""

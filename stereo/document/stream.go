@@ -175,8 +175,7 @@ func (s *streamRelater) add(c *Result, start, i int, rec *Record) {
 	}
 	j := s.order[m.Earlier]
 	earlier := s.record(c, start, j)
-	mols := func() (*notation.Molecule, *notation.Molecule) { return rec.Mol(), earlier.Mol() }
-	if d, ok := relationDiagnostic(m, i, rec, earlier, mols, s.whole.describeOcc(&s.occs[j])); ok {
+	if d, ok := relationDiagnostic(m, i, rec, earlier, s.whole.describeOcc(&s.occs[j])); ok {
 		c.add(d)
 	}
 }

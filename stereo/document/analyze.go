@@ -213,13 +213,13 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	occs = res.splitQueries(occs)
 	res.Records = make([]Record, len(occs))
 	res.own = make([][]Diagnostic, len(occs))
-	// The records of a list whose constitution pre-key an earlier one
-	// has (in the order the goroutines take them) get their identity
-	// keys now, from the molecule at hand: Relate, which needs them, then
-	// reads again only the first record of each pre-key.
+	// The records of a list whose constitution pre-key another has get
+	// their identity keys now, which Relate needs: a record from the
+	// molecule at hand, and the first record with its pre-key (in the
+	// order the goroutines take them) read again when the second comes.
 	var seen preKeys
 	if relatedKinds[kind] {
-		seen.keys = make(map[uint64]struct{}, len(occs))
+		seen.first = make(map[uint64]int32, len(occs))
 	}
 	reading, lim := cfg.Reading.notation(), cfg.Limits.limits()
 	fill := func(i int) {
@@ -227,8 +227,13 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 		an, f := a.cache.read(occs[i].Text, reading, lim, rr)
 		res.Records[i] = Record{Occ: &occs[i], an: an}
 		res.own[i] = res.recordFindings(i, f)
-		if an.identifiable && seen.again(an.preKey) {
-			an.identifyWith(f.mol)
+		if an.identifiable {
+			if j, again := seen.add(an.preKey, i); again {
+				an.identifyWith(f.mol)
+				if j >= 0 {
+					res.Records[j].an.identify()
+				}
+			}
 		}
 		rereaders.Put(rr)
 	}
@@ -246,24 +251,31 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	return res
 }
 
-// preKeys is a set of constitution pre-keys that goroutines add to.
+// preKeys is the set of the constitution pre-keys of a document's
+// records that goroutines add to as they read them.
 type preKeys struct {
-	mu   sync.Mutex
-	keys map[uint64]struct{} // nil: the set takes nothing
+	mu sync.Mutex
+	// first holds, for each pre-key, the record that brought it while it
+	// is alone, or -1 once another has come; nil: the set takes nothing.
+	first map[uint64]int32
 }
 
-// again adds k to the set and reports whether it was there before.
-func (s *preKeys) again(k uint64) bool {
-	if s.keys == nil {
-		return false
+// add adds record i's pre-key k to the set. again says whether the set
+// held k already; if so, first is the record that brought it when i is
+// the second record with k, and -1 after that.
+func (s *preKeys) add(k uint64, i int) (first int, again bool) {
+	if s.first == nil {
+		return -1, false
 	}
 	s.mu.Lock()
-	_, ok := s.keys[k]
+	defer s.mu.Unlock()
+	j, ok := s.first[k]
 	if !ok {
-		s.keys[k] = struct{}{}
+		s.first[k] = int32(i)
+		return -1, false
 	}
-	s.mu.Unlock()
-	return ok
+	s.first[k] = -1
+	return int(j), true
 }
 
 // sortDiagnostics orders the findings by host position, stably, so

@@ -42,29 +42,66 @@ func (r *Result) Relate() *Result {
 		return r
 	}
 	next := &Result{
-		Name:        r.Name,
-		Content:     r.Content,
-		Kind:        r.Kind,
-		Records:     append([]Record(nil), r.Records...),
-		Queries:     r.Queries,
-		Diagnostics: append([]Diagnostic(nil), r.Diagnostics...),
-		cfg:         r.cfg,
-		related:     true,
-		own:         r.own,
+		Name:    r.Name,
+		Content: r.Content,
+		Kind:    r.Kind,
+		Records: append([]Record(nil), r.Records...),
+		Queries: r.Queries,
+		cfg:     r.cfg,
+		related: true,
+		own:     r.own,
 	}
-	before := len(next.Diagnostics)
 	next.relateRecords()
-	if len(next.Diagnostics) > before {
-		// The findings before were sorted; a stable sort keeps them
-		// ahead of relations at the same place, as one pass would.
-		next.sortDiagnostics()
-	}
+	next.Diagnostics = mergeRelations(r.Diagnostics, next.rel)
 	return next
 }
 
-// relateRecords reports duplicates, mirror images and stereoisomers among
+// mergeRelations returns the findings ds (sorted by position) with the
+// relations rel (one per record, nil for most) among them, in the order a
+// stable sort of ds followed by the relations in record order gives:
+// a relation after the findings at its place. The relations of a list's
+// records come in host order, so one merge does it.
+func mergeRelations(ds []Diagnostic, rel []*relation) []Diagnostic {
+	n, ordered := 0, true
+	var last *relation
+	for _, x := range rel {
+		if x != nil {
+			n++
+			if last != nil && before(x.d.Span, last.d.Span) {
+				ordered = false
+			}
+			last = x
+		}
+	}
+	out := make([]Diagnostic, 0, len(ds)+n)
+	if !ordered {
+		// not in host order after all: all of them, sorted
+		out = append(out, ds...)
+		for _, x := range rel {
+			if x != nil {
+				out = append(out, x.d)
+			}
+		}
+		sortByPosition(out)
+		return out
+	}
+	i := 0
+	for _, x := range rel {
+		if x == nil {
+			continue
+		}
+		for i < len(ds) && !before(x.d.Span, ds[i].Span) {
+			out = append(out, ds[i])
+			i++
+		}
+		out = append(out, x.d)
+	}
+	return append(out, ds[i:]...)
+}
+
+// relateRecords finds duplicates, mirror images and stereoisomers among
 // the records of a list, each against the first earlier record it
-// matches. The identity index keeps keys in maps, so a list of 100,000
+// matches (r.rel). The identity index keeps keys in maps, so a list of 100,000
 // records is related in one pass; only records whose constitution
 // pre-key another record shares get identity keys (identity.ConstitutionPreKey), since the
 // others can match nothing.
@@ -78,11 +115,6 @@ func (r *Result) relateRecords() {
 		r.lines = lineStarts(r.Content) // before the groups are related in parallel
 	}
 	parallel(len(groups), func(g int) { r.relateGroup(groups[g]) })
-	for i := range r.rel {
-		if r.rel[i] != nil {
-			r.Diagnostics = append(r.Diagnostics, r.rel[i].d)
-		}
-	}
 }
 
 // collidingGroups returns the records whose constitution pre-key occurs
@@ -114,9 +146,10 @@ func (r *Result) collidingGroups() [][]int {
 }
 
 // relateGroup gives the records of one pre-key (in list order) their
-// identity keys and relates them. The keys of most were computed as the
-// records were read (AnalyzeRecords); the others' molecules are read
-// again for their keys alone.
+// identity keys and relates them. AnalyzeRecords computed the keys as it
+// read the records; for the records an edit brought (Reanalyze) and for
+// analyses whose keys nobody needed before, the molecule is read again
+// for the keys alone.
 func (r *Result) relateGroup(members []int) {
 	for _, i := range members {
 		rec := &r.Records[i]

@@ -85,16 +85,16 @@ func (a *analysis) stereoisomersOf(m *notation.Molecule) identity.StereoisomerCo
 // within the limits lim: the time budget counts the reading too. The
 // analysis keeps its full analysis (it is on no list of kept ones).
 func analyse(text string, r notation.Reading, lim limits) *analysis {
-	a, f := analyseInto(text, r, lim, nil)
+	a, f := analyseUnkept(nil, text, r, lim)
 	a.full.Store(f)
 	return a
 }
 
-// analyseInto is analyse that, with a Rereader, reads the molecule into
+// analyseUnkept is analyse that, with a Rereader, reads the molecule into
 // its storage and does not keep the full analysis: the one returned is
 // valid only until rr reads again. A pinned analysis keeps its full
 // analysis all the same, and rr gives its storage up to it.
-func analyseInto(text string, r notation.Reading, lim limits, rr *notation.Rereader) (*analysis, *fullAnalysis) {
+func analyseUnkept(rr *notation.Rereader, text string, r notation.Reading, lim limits) (*analysis, *fullAnalysis) {
 	a := &analysis{key: cacheKey{text, r, lim}}
 	f := a.computeInto(rr)
 	if m := f.mol; !m.Reaction && !m.Errors.HasErrors() && len(m.Atoms) > 0 {
@@ -391,7 +391,7 @@ func (c *cache) read(text string, r notation.Reading, lim limits, rr *notation.R
 		}
 		return a, a.computeInto(rr)
 	}
-	a, f := analyseInto(text, r, lim, rr)
+	a, f := analyseUnkept(rr, text, r, lim)
 	c.mu.Lock()
 	if prev, ok := c.cur[k]; ok {
 		// Another goroutine read the same text meanwhile: keep one.

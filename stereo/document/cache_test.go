@@ -165,3 +165,38 @@ func TestOccurrencesKeepTheirAnalyses(t *testing.T) {
 		}
 	}
 }
+
+// TestPinnedKeepTheirMolecules reads a list under a budget spent at once,
+// so analyses are pinned (kept whole) while the first reading reads the
+// records into storage it reuses: each pinned analysis must keep a
+// molecule of its own, the one its text reads as, not storage a later
+// record was read into.
+func TestPinnedKeepTheirMolecules(t *testing.T) {
+	cfg := DefaultConfig()
+	cfg.Limits.RecordTime = "1ns"
+	if err := cfg.Validate(); err != nil {
+		t.Fatal(err)
+	}
+	a := NewAnalyzer(cfg)
+	lines := editList(rand.New(rand.NewSource(5)), 120) // fewer than parallelMin: one goroutine
+	res := a.AnalyzeRecords("pinned.smi", "", []byte(strings.Join(lines, "\n")+"\n"))
+	pinned := 0
+	for i := range res.Records {
+		an := res.Records[i].an
+		if an == nil || !an.pinned {
+			continue
+		}
+		pinned++
+		kept := an.full.Load()
+		if kept == nil {
+			t.Fatalf("record %d: pinned without its full analysis", i)
+		}
+		want := notation.ReadWith(an.key.text, an.key.reading)
+		if kept.mol.Text != an.key.text || !reflect.DeepEqual(kept.mol.Atoms, want.Atoms) || !reflect.DeepEqual(kept.mol.Bonds, want.Bonds) {
+			t.Fatalf("record %d (%q): the kept molecule is %q", i, an.key.text, kept.mol.Text)
+		}
+	}
+	if pinned < 2 {
+		t.Fatalf("%d pinned analyses, want several", pinned)
+	}
+}

@@ -282,8 +282,17 @@ func (s *preKeys) add(k uint64, i int) (first int, again bool) {
 // findings at one place keep the order they were made in.
 func (r *Result) sortDiagnostics() { sortByPosition(r.Diagnostics) }
 
-// sortByPosition orders findings by host position, stably.
+// sortByPosition orders findings by host position, stably. Findings
+// made record by record in host order (a list's) are in order already,
+// which one pass finds.
 func sortByPosition(ds []Diagnostic) {
+	sorted := true
+	for k := 1; k < len(ds) && sorted; k++ {
+		sorted = !before(ds[k].Span, ds[k-1].Span)
+	}
+	if sorted {
+		return
+	}
 	sort.SliceStable(ds, func(i, j int) bool { return before(ds[i].Span, ds[j].Span) })
 }
 

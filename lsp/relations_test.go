@@ -61,7 +61,7 @@ func codeCounts[D any](diags []D, code func(D) string, list bool) map[string]int
 // keys of the first record of each constitution, half of this list's.
 func TestRelationsPublishedSecond(t *testing.T) {
 	text := isomerListOf(3000, 2)
-	c := start(t, clientSetup{hook: func(s *Server) { s.relationGrace = 0 }})
+	c := start(t, clientSetup{hook: func(s *Server) { s.relationGrace, s.relationShare = 0, 0 }})
 	const u = "file:///work/isomers.smi"
 	c.open(u, "", 1, text)
 	c.until("two publications", func() bool { return len(c.diags) >= 2 })
@@ -93,11 +93,33 @@ func TestRelationsPublishedSecond(t *testing.T) {
 	}
 }
 
+// Relations that come within the share of the time the records took are
+// published with them, once: the list of TestRelationsPublishedSecond,
+// under a share that waits as long as the records took a thousand
+// times over.
+func TestRelationsSoonPublishedOnce(t *testing.T) {
+	text := isomerListOf(3000, 2)
+	c := start(t, clientSetup{hook: func(s *Server) { s.relationGrace, s.relationShare = 0, 1000 }})
+	const u = "file:///work/isomers.smi"
+	c.open(u, "", 1, text)
+	c.until("a publication", func() bool { return len(c.diags) >= 1 })
+	quiet()
+	pubs := c.published(u)
+	code := func(d protocol.Diagnostic) string { return fmt.Sprint(d.Code) }
+	want := document.NewAnalyzer(document.DefaultConfig()).Analyze("/work/isomers.smi", "", []byte(text)).Diagnostics
+	if len(pubs) != 1 {
+		t.Fatalf("%d publications, want 1", len(pubs))
+	}
+	if got := len(pubs[0].Diagnostics); got != len(want) || len(codeCounts(pubs[0].Diagnostics, code, true)) == 0 {
+		t.Errorf("the publication has %d findings (relations %v), the engine %d", got, codeCounts(pubs[0].Diagnostics, code, true), len(want))
+	}
+}
+
 // An edit made while the relations of the version before are computed
 // wins: nothing of the old version is published after the new one.
 func TestRelationsOfAnOldVersionNotPublished(t *testing.T) {
 	text := isomerListOf(6000, 2)
-	c := start(t, clientSetup{debounce: time.Millisecond, hook: func(s *Server) { s.relationGrace = 0 }})
+	c := start(t, clientSetup{debounce: time.Millisecond, hook: func(s *Server) { s.relationGrace, s.relationShare = 0, 0 }})
 	const u = "file:///work/isomers.smi"
 	c.open(u, "", 1, text)
 	c.diagnostics(u, 1)

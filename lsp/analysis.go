@@ -38,6 +38,7 @@ type analysis struct {
 
 	recordsDone chan struct{} // closed when records is set, or the analysis failed
 	records     *document.Result
+	recordsTook time.Duration // how long the first stage took, set with records
 
 	done   chan struct{}
 	result *document.Result
@@ -106,8 +107,9 @@ func (a *analysis) run(log *zap.Logger) {
 		return
 	}
 	a.records = a.config.analyzer.AnalyzeRecords(a.file.Name, a.file.LanguageID, a.file.content())
-	closeRecords()
 	recorded := time.Since(start)
+	a.recordsTook = recorded
+	closeRecords()
 	a.result = a.records.Relate()
 	log.Debug("analysed", zap.String("uri", a.file.URI), zap.Int32("version", a.file.Version),
 		zap.Int("records", len(a.result.Records)), zap.Duration("records took", recorded), zap.Duration("took", time.Since(start)))
@@ -331,12 +333,13 @@ func (w *worker) publish(ctx context.Context, uri string) {
 }
 
 // finishes reports whether the whole result of a is ready within the
-// relation grace time, so one publication can carry it.
+// relation grace time (and the share of the time its records took), so
+// one publication can carry it.
 func (w *worker) finishes(ctx context.Context, a *analysis) bool {
 	if a.finished() {
 		return true
 	}
-	grace := time.NewTimer(w.s.relationGrace)
+	grace := time.NewTimer(w.s.relationGrace + time.Duration(w.s.relationShare*float64(a.recordsTook)))
 	defer grace.Stop()
 	select {
 	case <-a.done:

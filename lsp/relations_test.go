@@ -18,7 +18,12 @@ import (
 // configurations; common practice) and the relations need identity keys
 // for all of them. Every fiftieth record is isobutane with an
 // ineffective mark, a finding of the record itself.
-func isomerList(n int) string {
+func isomerList(n int) string { return isomerListOf(n, 16) }
+
+// isomerListOf is isomerList with per (1 to 16) configurations of each
+// constitution, one after another. With two, half of the records are the
+// first of their constitution, whose keys only the relations compute.
+func isomerListOf(n, per int) string {
 	var b strings.Builder
 	atoms := [...]string{"C", "O", "N", "S"}
 	marks := [...]string{"@", "@@"}
@@ -27,7 +32,7 @@ func isomerList(n int) string {
 			fmt.Fprintf(&b, "C[C@H](C)C marked %d\n", i)
 			continue
 		}
-		s, k := i%16, i/16
+		s, k := i%per, i/per
 		fmt.Fprintf(&b, "N[C%sH](C)[C%sH](O)[C%sH](F)[C%sH](Cl)C", marks[s&1], marks[s>>1&1], marks[s>>2&1], marks[s>>3&1])
 		for j := 0; j < 6; j++ {
 			b.WriteString(atoms[k%4])
@@ -52,10 +57,11 @@ func codeCounts[D any](diags []D, code func(D) string, list bool) map[string]int
 
 // A list whose relations take longer than the grace time is published
 // twice at one version: its records' own findings first, then everything,
-// which is what the engine gives in one pass.
+// which is what the engine gives in one pass. The relations compute the
+// keys of the first record of each constitution, half of this list's.
 func TestRelationsPublishedSecond(t *testing.T) {
-	text := isomerList(1500)
-	c := start(t, clientSetup{hook: func(s *Server) { s.relationGrace = 0 }})
+	text := isomerListOf(3000, 2)
+	c := start(t, clientSetup{hook: func(s *Server) { s.relationGrace, s.relationShare = 0, 0 }})
 	const u = "file:///work/isomers.smi"
 	c.open(u, "", 1, text)
 	c.until("two publications", func() bool { return len(c.diags) >= 2 })
@@ -87,11 +93,33 @@ func TestRelationsPublishedSecond(t *testing.T) {
 	}
 }
 
+// Relations that come within the share of the time the records took are
+// published with them, once: the list of TestRelationsPublishedSecond,
+// under a share that waits as long as the records took a thousand
+// times over.
+func TestRelationsSoonPublishedOnce(t *testing.T) {
+	text := isomerListOf(3000, 2)
+	c := start(t, clientSetup{hook: func(s *Server) { s.relationGrace, s.relationShare = 0, 1000 }})
+	const u = "file:///work/isomers.smi"
+	c.open(u, "", 1, text)
+	c.until("a publication", func() bool { return len(c.diags) >= 1 })
+	quiet()
+	pubs := c.published(u)
+	code := func(d protocol.Diagnostic) string { return fmt.Sprint(d.Code) }
+	want := document.NewAnalyzer(document.DefaultConfig()).Analyze("/work/isomers.smi", "", []byte(text)).Diagnostics
+	if len(pubs) != 1 {
+		t.Fatalf("%d publications, want 1", len(pubs))
+	}
+	if got := len(pubs[0].Diagnostics); got != len(want) || len(codeCounts(pubs[0].Diagnostics, code, true)) == 0 {
+		t.Errorf("the publication has %d findings (relations %v), the engine %d", got, codeCounts(pubs[0].Diagnostics, code, true), len(want))
+	}
+}
+
 // An edit made while the relations of the version before are computed
 // wins: nothing of the old version is published after the new one.
 func TestRelationsOfAnOldVersionNotPublished(t *testing.T) {
-	text := isomerList(3000)
-	c := start(t, clientSetup{debounce: time.Millisecond, hook: func(s *Server) { s.relationGrace = 0 }})
+	text := isomerListOf(6000, 2)
+	c := start(t, clientSetup{debounce: time.Millisecond, hook: func(s *Server) { s.relationGrace, s.relationShare = 0, 0 }})
 	const u = "file:///work/isomers.smi"
 	c.open(u, "", 1, text)
 	c.diagnostics(u, 1)

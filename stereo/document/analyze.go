@@ -227,10 +227,29 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	occs = res.splitQueries(occs)
 	res.Records = make([]Record, len(occs))
 	res.own = make([][]Diagnostic, len(occs))
+	// The records of a list whose constitution pre-key another has get
+	// their identity keys now, which Relate needs: a record from the
+	// molecule at hand, and the first record with its pre-key (in the
+	// order the goroutines take them) read again when the second comes.
+	var seen preKeys
+	if relatedKinds[kind] {
+		seen.first = make(map[uint64]int32, len(occs))
+	}
+	reading, lim := cfg.Reading.notation(), cfg.Limits.limits()
 	fill := func(i int) {
-		an, f := a.cache.get(occs[i].Text, cfg.Reading.notation(), cfg.Limits.limits())
+		rr := rereaders.Get().(*notation.Rereader)
+		an, f := a.cache.read(occs[i].Text, reading, lim, rr)
 		res.Records[i] = Record{Occ: &occs[i], an: an}
 		res.own[i] = res.recordFindings(i, f)
+		if an.identifiable {
+			if j, again := seen.add(an.preKey, i); again {
+				an.identifyWith(f.mol)
+				if j >= 0 {
+					res.Records[j].an.identify()
+				}
+			}
+		}
+		rereaders.Put(rr)
 	}
 	parallel(len(occs), fill)
 	n := 0
@@ -246,12 +265,48 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	return res
 }
 
+// preKeys is the set of the constitution pre-keys of a document's
+// records that goroutines add to as they read them.
+type preKeys struct {
+	mu sync.Mutex
+	// first holds, for each pre-key, the record that brought it while it
+	// is alone, or -1 once another has come; nil: the set takes nothing.
+	first map[uint64]int32
+}
+
+// add adds record i's pre-key k to the set. again says whether the set
+// held k already; if so, first is the record that brought it when i is
+// the second record with k, and -1 after that.
+func (s *preKeys) add(k uint64, i int) (first int, again bool) {
+	if s.first == nil {
+		return -1, false
+	}
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	j, ok := s.first[k]
+	if !ok {
+		s.first[k] = int32(i)
+		return -1, false
+	}
+	s.first[k] = -1
+	return int(j), true
+}
+
 // sortDiagnostics orders the findings by host position, stably, so
 // findings at one place keep the order they were made in.
 func (r *Result) sortDiagnostics() { sortByPosition(r.Diagnostics) }
 
-// sortByPosition orders findings by host position, stably.
+// sortByPosition orders findings by host position, stably. Findings
+// made record by record in host order (a list's) are in order already,
+// which one pass finds.
 func sortByPosition(ds []Diagnostic) {
+	sorted := true
+	for k := 1; k < len(ds) && sorted; k++ {
+		sorted = !before(ds[k].Span, ds[k-1].Span)
+	}
+	if sorted {
+		return
+	}
 	sort.SliceStable(ds, func(i, j int) bool { return before(ds[i].Span, ds[j].Span) })
 }
 

@@ -1,6 +1,7 @@
 package document
 
 import (
+	"fmt"
 	"sync"
 	"sync/atomic"
 
@@ -50,6 +51,11 @@ type analysis struct {
 	preKey       uint64
 	identityOnce sync.Once
 	identity     *identity.Identity
+	// elements are the atomic numbers of the molecule's atoms, set with
+	// the identity keys: all that naming the units two stereoisomers
+	// differ in takes (atomName), so relating a list reads no molecule
+	// twice for its messages.
+	elements []byte
 	// countOnce guards count, the stereoisomers of the constitution,
 	// which hovers show and which can take long for a symmetric
 	// structure: it is counted once per text.
@@ -83,12 +89,21 @@ func analyse(text string, r notation.Reading, lim limits) *analysis {
 }
 
 // analyseInto is analyse reading the text into rr's storage when rr is
-// not nil (stream.go): the molecule, and so the analysis, is then valid
-// only until rr's next read.
+// not nil (stream.go): the analysis keeps its full analysis, whose
+// molecule is then valid only until rr's next read.
 func analyseInto(rr *notation.Rereader, text string, r notation.Reading, lim limits) *analysis {
+	a, f := analyseUnkept(rr, text, r, lim)
+	a.full.Store(f)
+	return a
+}
+
+// analyseUnkept is analyse that, with a Rereader, reads the molecule into
+// its storage and does not keep the full analysis: the one returned is
+// valid only until rr reads again. A pinned analysis keeps its full
+// analysis all the same, and rr gives its storage up to it.
+func analyseUnkept(rr *notation.Rereader, text string, r notation.Reading, lim limits) (*analysis, *fullAnalysis) {
 	a := &analysis{key: cacheKey{text, r, lim}}
 	f := a.computeInto(rr)
-	a.full.Store(f)
 	if m := f.mol; !m.Reaction && !m.Errors.HasErrors() && len(m.Atoms) > 0 {
 		a.identifiable = true
 		a.preKey = identity.ConstitutionPreKey(m)
@@ -101,13 +116,18 @@ func analyseInto(rr *notation.Rereader, text string, r notation.Reading, lim lim
 			a.pinned = true
 		}
 	}
-	return a
+	if rr != nil && a.pinned {
+		*rr = notation.Rereader{} // the molecule is the analysis's now
+		a.full.Store(f)
+	}
+	return a, f
 }
 
 // compute reads and labels the analysis's text.
 func (a *analysis) compute() *fullAnalysis { return a.computeInto(nil) }
 
-// computeInto is compute reading into rr's storage when rr is not nil.
+// computeInto is compute reading the molecule into rr's storage, when rr
+// is not nil.
 func (a *analysis) computeInto(rr *notation.Rereader) *fullAnalysis {
 	lim := a.key.limits
 	if n := notation.CountAtoms(a.key.text); n > lim.atoms {
@@ -127,6 +147,11 @@ func (a *analysis) computeInto(rr *notation.Rereader) *fullAnalysis {
 	}
 	return f
 }
+
+// rereaders keep the storage of molecules read only for as long as one
+// record is worked on (the first reading of a list, identity keys), one
+// Rereader per goroutine at a time.
+var rereaders = sync.Pool{New: func() any { return new(notation.Rereader) }}
 
 // oversized is the analysis of a record with more atoms than the
 // recordAtoms limit: it is not read, and its one finding says why. The
@@ -176,24 +201,56 @@ func (a *analysis) molecule() *notation.Molecule {
 }
 
 // identify returns the identity keys, computing them once; nil when the
-// record has none.
+// record has none. The molecule is the one kept, or read again for the
+// keys alone.
 func (a *analysis) identify() *identity.Identity {
-	id, _ := a.identifyRead()
-	return id
-}
-
-// identifyRead is identify that also returns the molecule it read for
-// computing the keys (nil when it computed nothing).
-func (a *analysis) identifyRead() (id *identity.Identity, m *notation.Molecule) {
 	if !a.identifiable {
-		return nil, nil
+		return nil
 	}
 	a.identityOnce.Do(func() {
-		m = a.molecule()
-		x := identity.Identify(m)
-		a.identity = &x
+		if f := a.full.Load(); f != nil {
+			a.setIdentity(f.mol)
+			return
+		}
+		rr := rereaders.Get().(*notation.Rereader)
+		a.setIdentity(rr.ReadWith(a.key.text, a.key.reading))
+		rereaders.Put(rr)
 	})
-	return a.identity, m
+	return a.identity
+}
+
+// identifyWith computes the identity keys from m, the analysis's
+// molecule, unless they are known.
+func (a *analysis) identifyWith(m *notation.Molecule) {
+	if a.identifiable {
+		a.identityOnce.Do(func() { a.setIdentity(m) })
+	}
+}
+
+// setIdentity sets the identity keys and the atoms' elements from m.
+func (a *analysis) setIdentity(m *notation.Molecule) {
+	x := identity.Identify(m)
+	a.elements = make([]byte, len(m.Atoms))
+	for i := range m.Atoms {
+		if z := m.Atoms[i].Number; z >= 0 && z < 0xff {
+			a.elements[i] = byte(z)
+		} else {
+			a.elements[i] = 0xff // no element: no symbol, as in AtomName
+		}
+	}
+	a.identity = &x
+}
+
+// atomName is AtomName of atom i of the analysis's molecule, which it
+// reads from the elements kept with the identity keys.
+func (a *analysis) atomName(i int) string {
+	if i < 0 {
+		return "H"
+	}
+	if i >= len(a.elements) {
+		return AtomName(a.molecule(), i)
+	}
+	return notation.ElementSymbol(int(a.elements[i])) + fmt.Sprint(i+1)
 }
 
 // fullList keeps the full analyses of the last fullLimit analyses used,
@@ -313,5 +370,49 @@ func (c *cache) get(text string, r notation.Reading, lim limits) (*analysis, *fu
 	a.fulls = c.fulls
 	c.mu.Unlock()
 	c.fulls.add(a)
+	return a, f
+}
+
+// read is get for reading the records of a document one after another
+// on each goroutine: a missing analysis is computed with its molecule
+// read into rr's storage and its full analysis not kept (unless pinned),
+// and an analysis whose full analysis was dropped is computed again the
+// same way. The full analysis returned is valid only until rr reads
+// again; the cache keeps the compact facts as get does.
+func (c *cache) read(text string, r notation.Reading, lim limits, rr *notation.Rereader) (*analysis, *fullAnalysis) {
+	k := cacheKey{text, r, lim}
+	c.mu.Lock()
+	a, ok := c.cur[k]
+	if !ok {
+		if a, ok = c.old[k]; ok {
+			c.cur[k] = a
+		}
+	}
+	c.mu.Unlock()
+	if ok {
+		if f := a.full.Load(); f != nil {
+			if a.fulls != nil && !a.pinned {
+				a.fulls.touch(a)
+			}
+			return a, f
+		}
+		return a, a.computeInto(rr)
+	}
+	a, f := analyseUnkept(rr, text, r, lim)
+	c.mu.Lock()
+	if prev, ok := c.cur[k]; ok {
+		// Another goroutine read the same text meanwhile: keep one.
+		c.mu.Unlock()
+		if pf := prev.full.Load(); pf != nil {
+			return prev, pf
+		}
+		return prev, f
+	}
+	if len(c.cur) >= cacheLimit {
+		c.old, c.cur = c.cur, map[cacheKey]*analysis{}
+	}
+	c.cur[k] = a
+	a.fulls = c.fulls
+	c.mu.Unlock()
 	return a, f
 }

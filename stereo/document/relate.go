@@ -42,29 +42,66 @@ func (r *Result) Relate() *Result {
 		return r
 	}
 	next := &Result{
-		Name:        r.Name,
-		Content:     r.Content,
-		Kind:        r.Kind,
-		Records:     append([]Record(nil), r.Records...),
-		Queries:     r.Queries,
-		Diagnostics: append([]Diagnostic(nil), r.Diagnostics...),
-		cfg:         r.cfg,
-		related:     true,
-		own:         r.own,
+		Name:    r.Name,
+		Content: r.Content,
+		Kind:    r.Kind,
+		Records: append([]Record(nil), r.Records...),
+		Queries: r.Queries,
+		cfg:     r.cfg,
+		related: true,
+		own:     r.own,
 	}
-	before := len(next.Diagnostics)
 	next.relateRecords()
-	if len(next.Diagnostics) > before {
-		// The findings before were sorted; a stable sort keeps them
-		// ahead of relations at the same place, as one pass would.
-		next.sortDiagnostics()
-	}
+	next.Diagnostics = mergeRelations(r.Diagnostics, next.rel)
 	return next
 }
 
-// relateRecords reports duplicates, mirror images and stereoisomers among
+// mergeRelations returns the findings ds (sorted by position) with the
+// relations rel (one per record, nil for most) among them, in the order a
+// stable sort of ds followed by the relations in record order gives:
+// a relation after the findings at its place. The relations of a list's
+// records come in host order, so one merge does it.
+func mergeRelations(ds []Diagnostic, rel []*relation) []Diagnostic {
+	n, ordered := 0, true
+	var last *relation
+	for _, x := range rel {
+		if x != nil {
+			n++
+			if last != nil && before(x.d.Span, last.d.Span) {
+				ordered = false
+			}
+			last = x
+		}
+	}
+	out := make([]Diagnostic, 0, len(ds)+n)
+	if !ordered {
+		// not in host order after all: all of them, sorted
+		out = append(out, ds...)
+		for _, x := range rel {
+			if x != nil {
+				out = append(out, x.d)
+			}
+		}
+		sortByPosition(out)
+		return out
+	}
+	i := 0
+	for _, x := range rel {
+		if x == nil {
+			continue
+		}
+		for i < len(ds) && !before(x.d.Span, ds[i].Span) {
+			out = append(out, ds[i])
+			i++
+		}
+		out = append(out, x.d)
+	}
+	return append(out, ds[i:]...)
+}
+
+// relateRecords finds duplicates, mirror images and stereoisomers among
 // the records of a list, each against the first earlier record it
-// matches. The identity index keeps keys in maps, so a list of 100,000
+// matches (r.rel). The identity index keeps keys in maps, so a list of 100,000
 // records is related in one pass; only records whose constitution
 // pre-key another record shares get identity keys (identity.ConstitutionPreKey), since the
 // others can match nothing.
@@ -78,11 +115,6 @@ func (r *Result) relateRecords() {
 		r.lines = lineStarts(r.Content) // before the groups are related in parallel
 	}
 	parallel(len(groups), func(g int) { r.relateGroup(groups[g]) })
-	for i := range r.rel {
-		if r.rel[i] != nil {
-			r.Diagnostics = append(r.Diagnostics, r.rel[i].d)
-		}
-	}
 }
 
 // collidingGroups returns the records whose constitution pre-key occurs
@@ -114,16 +146,16 @@ func (r *Result) collidingGroups() [][]int {
 }
 
 // relateGroup gives the records of one pre-key (in list order) their
-// identity keys and relates them. Their molecules are read again where
-// their analyses were dropped, and only for as long as the group needs
-// them: for the keys and for naming the units two stereoisomers differ in.
+// identity keys and relates them. AnalyzeRecords computed the keys as it
+// read the records; for the records an edit brought (Reanalyze) and for
+// analyses whose keys nobody needed before, the molecule is read again
+// for the keys alone.
 func (r *Result) relateGroup(members []int) {
-	mols := make([]*notation.Molecule, len(members))
-	for k, i := range members {
+	for _, i := range members {
 		rec := &r.Records[i]
-		rec.Identity, mols[k] = rec.an.identifyRead()
+		rec.Identity = rec.an.identify()
 	}
-	r.relateMembers(members, mols)
+	r.relateMembers(members)
 }
 
 // relation is the finding that relates a record to an earlier one,
@@ -142,17 +174,10 @@ const named = "\x00"
 // relateMembers relates each of some records (in list order, all with
 // identity keys) to the first earlier one of them it matches, setting
 // r.rel. Records whose pre-keys differ never match, so the records of
-// each pre-key can be related apart. mols[k], when not nil, is the
-// molecule of members[k].
-func (r *Result) relateMembers(members []int, mols []*notation.Molecule) {
+// each pre-key can be related apart.
+func (r *Result) relateMembers(members []int) {
 	idx := identity.NewIndex()
-	mol := func(k int) *notation.Molecule {
-		if mols[k] == nil {
-			mols[k] = r.Records[members[k]].an.molecule()
-		}
-		return mols[k]
-	}
-	for k, i := range members {
+	for _, i := range members {
 		rec := &r.Records[i]
 		m := idx.Add(*rec.Identity)
 		r.rel[i] = nil
@@ -160,9 +185,7 @@ func (r *Result) relateMembers(members []int, mols []*notation.Molecule) {
 			continue
 		}
 		j := members[m.Earlier]
-		d, ok := relationDiagnostic(m, i, rec, &r.Records[j], func() (*notation.Molecule, *notation.Molecule) {
-			return mol(k), mol(m.Earlier)
-		}, named)
+		d, ok := relationDiagnostic(m, i, rec, &r.Records[j], named)
 		if !ok {
 			continue
 		}
@@ -177,9 +200,9 @@ func (r *Result) relateMembers(members []int, mols []*notation.Molecule) {
 }
 
 // relationDiagnostic is the finding that record i (rec) is related to an
-// earlier record as m says; where names the earlier record, mols gives
-// the molecules of both. ok is false for relations that are not reported.
-func relationDiagnostic(m identity.Match, i int, rec, earlier *Record, mols func() (*notation.Molecule, *notation.Molecule), where string) (d Diagnostic, ok bool) {
+// earlier record as m says; where names the earlier record. Both records
+// have identity keys. ok is false for relations that are not reported.
+func relationDiagnostic(m identity.Match, i int, rec, earlier *Record, where string) (d Diagnostic, ok bool) {
 	d = Diagnostic{Span: rec.Occ.Span, Record: i,
 		Related: []Related{{Span: earlier.Occ.Span, Message: "the earlier record"}}}
 	switch m.Relation {
@@ -194,10 +217,10 @@ func relationDiagnostic(m identity.Match, i int, rec, earlier *Record, mols func
 		d.Code, d.Message = setRelationMessage(m, rec, earlier, where)
 	case identity.Diastereomers, identity.Unspecified:
 		d.Code, d.Severity = CodeListStereoisomer, notation.SeverityInformation
-		here, there := mols()
-		d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differingUnits(here, there, m.Differing))
+		differ := differingUnits(rec.an.atomName, earlier.an.atomName, m.Differing)
+		d.Message = fmt.Sprintf("a stereoisomer of %s: %s", where, differ)
 		if m.Relation == identity.Unspecified {
-			d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differingUnits(here, there, m.Differing))
+			d.Message = fmt.Sprintf("the same constitution as %s, marked differently: %s", where, differ)
 		}
 	default:
 		return d, false
@@ -322,8 +345,9 @@ func (r *Result) lineOf(off int) int {
 	return sort.SearchInts(r.lines, off+1) - 1
 }
 
-// differingUnits names the units in which two stereoisomers differ.
-func differingUnits(m, earlier *notation.Molecule, diffs []identity.UnitDifference) string {
+// differingUnits names the units in which two stereoisomers differ; name
+// and earlier name the atoms of each (AtomName).
+func differingUnits(name, earlier func(int) string, diffs []identity.UnitDifference) string {
 	if len(diffs) == 0 {
 		return "the configurations differ"
 	}
@@ -331,12 +355,12 @@ func differingUnits(m, earlier *notation.Molecule, diffs []identity.UnitDifferen
 	for _, d := range diffs {
 		var names []string
 		for _, a := range d.Atoms {
-			names = append(names, AtomName(m, a))
+			names = append(names, name(a))
 		}
 		if len(d.Atoms) == 0 {
 			// unmarked here: the unit is named by the earlier record's atoms
 			for _, a := range d.OtherAtoms {
-				names = append(names, AtomName(earlier, a))
+				names = append(names, earlier(a))
 			}
 		}
 		sep := ""

@@ -1,9 +1,13 @@
 package document
 
 import (
+	"fmt"
+	"math/rand"
 	"reflect"
 	"strings"
 	"testing"
+
+	"stereoline/notation"
 )
 
 // TestRelateInTwoSteps: AnalyzeRecords then Relate gives what Analyze
@@ -59,4 +63,47 @@ func codesAndSpans(r *Result) []string {
 		out = append(out, string(d.Code)+" "+string(r.Content[d.Span.Start:d.Span.End])+" "+d.Message)
 	}
 	return out
+}
+
+// TestMergeRelations checks the merge of Relate against what it stands
+// for, a stable sort by position of the findings followed by the
+// relations in record order, on random findings at few places (so many
+// share one), with the relations in host order and out of it.
+func TestMergeRelations(t *testing.T) {
+	rng := rand.New(rand.NewSource(11))
+	span := func() notation.Span {
+		s := rng.Intn(8)
+		return notation.Span{Start: s, End: s + rng.Intn(3)}
+	}
+	for round := 0; round < 500; round++ {
+		ds := make([]Diagnostic, rng.Intn(12))
+		for k := range ds {
+			ds[k] = Diagnostic{Span: span(), Message: fmt.Sprint("own ", k)}
+		}
+		sortByPosition(ds)
+		rel := make([]*relation, rng.Intn(10))
+		var spans []notation.Span
+		for range rel {
+			spans = append(spans, span())
+		}
+		if round%2 == 0 {
+			for a := 1; a < len(spans); a++ {
+				for b := a; b > 0 && before(spans[b], spans[b-1]); b-- {
+					spans[b], spans[b-1] = spans[b-1], spans[b]
+				}
+			}
+		}
+		want := append([]Diagnostic(nil), ds...)
+		for k := range rel {
+			if rng.Intn(3) == 0 {
+				continue // a record without a relation
+			}
+			rel[k] = &relation{d: Diagnostic{Span: spans[k], Message: fmt.Sprint("relation ", k)}}
+			want = append(want, rel[k].d)
+		}
+		sortByPosition(want)
+		if got := mergeRelations(ds, rel); len(got)+len(want) > 0 && !reflect.DeepEqual(got, want) {
+			t.Fatalf("round %d:\n got %v\nwant %v", round, got, want)
+		}
+	}
 }

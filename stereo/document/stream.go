@@ -269,8 +269,7 @@ func (s *streamRelater) add(c *Result, start, i int, rec *Record) {
 	}
 	j := s.order[m.Earlier]
 	earlier := s.record(c, start, j)
-	mols := func() (*notation.Molecule, *notation.Molecule) { return rec.Mol(), earlier.Mol() }
-	if d, ok := relationDiagnostic(m, i, rec, earlier, mols, s.whole.describeOcc(earlier.Occ)); ok {
+	if d, ok := relationDiagnostic(m, i, rec, earlier, s.whole.describeOcc(earlier.Occ)); ok {
 		c.add(d)
 	}
 }

@@ -1,6 +1,8 @@
 package lsp
 
 import (
+	"math/rand"
+	"slices"
 	"strings"
 	"testing"
 	"unicode/utf16"
@@ -160,5 +162,45 @@ func TestMapperSpanToRange(t *testing.T) {
 	}
 	if _, err := m.RangeToSpan(protocol.Range{Start: r.End, End: r.Start}); err == nil {
 		t.Errorf("reversed range: no error")
+	}
+}
+
+// A mapper moved through an edit (Replace) must equal the one built from
+// the new text: random edits of texts made of line breaks of the three
+// kinds LSP 3.17 names ("\n", "\r\n", "\r"), ASCII and wider characters,
+// at random places, including inside a "\r\n" pair and at the ends.
+func TestMapperReplaceAgreesWithNewMapper(t *testing.T) {
+	pieces := []string{"\n", "\r\n", "\r", "C", "[C@@H]", "é", "😀", " t", "\r\r", "\n\n"}
+	rng := rand.New(rand.NewSource(7))
+	random := func(n int) string {
+		var b strings.Builder
+		for range n {
+			b.WriteString(pieces[rng.Intn(len(pieces))])
+		}
+		return b.String()
+	}
+	for _, enc := range []PositionEncoding{EncodingUTF16, EncodingUTF8} {
+		text := []byte(random(40))
+		m := NewMapper(text, enc)
+		for step := range 3000 {
+			start := rng.Intn(len(text) + 1)
+			end := min(start+rng.Intn(6), len(text))
+			if rng.Intn(4) == 0 {
+				end = start
+			}
+			ins := random(rng.Intn(3))
+			if len(text) > 400 {
+				end = min(start+rng.Intn(40), len(text))
+				ins = ""
+			}
+			next := append(append(append([]byte(nil), text[:start]...), ins...), text[end:]...)
+			got := m.Replace(start, end, len(ins), next)
+			want := NewMapper(next, enc)
+			if !slices.Equal(got.lineStarts, want.lineStarts) || !slices.Equal(got.wide, want.wide) || got.encoding != want.encoding {
+				t.Fatalf("%s step %d: %q [%d,%d) -> %q:\nstarts %v\nwant   %v\nwide %v\nwant %v",
+					enc, step, text, start, end, ins, got.lineStarts, want.lineStarts, got.wide, want.wide)
+			}
+			text, m = next, got
+		}
 	}
 }

@@ -294,3 +294,21 @@ func splice(text []byte, from, to int, s string) []byte {
 	out = append(append(append(out, text[:from]...), s...), text[to:]...)
 	return out
 }
+
+// BenchmarkScalePublish measures the publishDiagnostics JSON of the list
+// STEREOLINE_SCALE_LIST names, analysed once; it skips without it.
+func BenchmarkScalePublish(b *testing.B) {
+	text := scaleList(b)
+	res := document.NewAnalyzer(document.DefaultConfig()).Analyze("scale.smi", "", text)
+	f := &fileVersion{URI: "file:///bench/scale.smi", Name: "scale.smi", mapper: NewMapper(text, EncodingUTF16)}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		v := int32(i)
+		parts, err := diagnosticsParts(f, res, &v)
+		if err != nil {
+			b.Fatal(err)
+		}
+		releaseParts(parts)
+	}
+}

@@ -249,6 +249,6 @@ func plain8(s string) bool {
 	below := x - ones*0x20
 	quote := x ^ (ones * '"')
 	backslash := x ^ (ones * '\\')
-	flags := (x | below | (quote - ones) &^ quote | (backslash - ones) &^ backslash) & highs
+	flags := (x | below | (quote-ones)&^quote | (backslash-ones)&^backslash) & highs
 	return flags == 0
 }

@@ -8,6 +8,7 @@ package document
 
 import (
 	"bytes"
+	"slices"
 	"sort"
 	"strings"
 
@@ -61,56 +62,87 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	next := &Result{Name: name, Content: content, Kind: prev.Kind, cfg: &cfg, related: true}
 	next.Records = make([]Record, n)
 	next.own = make([][]Diagnostic, n)
+	next.ownAt = make([]int, n)
 	next.rel = make([]*relation, n)
+	if prev.lines != nil {
+		next.lines = movedLines(prev.lines, content, from, oldTo, newTo)
+	}
 	copy(next.Records, prev.Records[:i0])
 	copy(next.own, prev.own[:i0])
+	prevOwnAt := prev.ownAt
+	if prevOwnAt == nil {
+		// a result of Analyze: the findings were made where the records are
+		prevOwnAt = make([]int, len(prev.Records))
+		for i := range prev.Records {
+			prevOwnAt[i] = prev.Records[i].Occ.Span.Start
+		}
+	}
+	copy(next.ownAt, prevOwnAt[:i0])
 	parallel(len(occs), func(k int) {
 		i := i0 + k
 		an, f := a.cache.get(occs[k].Text, cfg.Reading.notation(), cfg.Limits.limits())
 		next.Records[i] = Record{Occ: &occs[k], an: an}
 		next.own[i] = next.recordFindings(i, f)
+		next.ownAt[i] = occs[k].Span.Start
 	})
+	// The records after the edit keep their findings where they were
+	// made (ownAt says where); assemble moves them. Their occurrences
+	// are moved here, into blocks (a block the records before a later
+	// edit still point into is the only one kept for them).
 	moved := prev.Records[i1:]
-	var shifted []find.Occurrence
-	if delta != 0 {
-		shifted = make([]find.Occurrence, len(moved))
-	}
-	for k := range moved {
-		i := i1 + dn + k
-		rec := moved[k]
-		if delta != 0 {
-			shifted[k] = *rec.Occ
-			shifted[k].Shift(delta)
-			rec.Occ = &shifted[k]
-		}
-		next.Records[i] = rec
-		next.own[i] = moveDiagnostics(prev.own[i1+k], delta, i)
-	}
-	next.occArrays = prev.occArrays + 1
+	copy(next.Records[i1+dn:], moved)
+	copy(next.own[i1+dn:], prev.own[i1:])
+	copy(next.ownAt[i1+dn:], prevOwnAt[i1:])
+	next.occArrays = max(prev.occArrays, 1) + 1
 	if delta != 0 {
 		next.occArrays++
+		shiftOccurrences(next.Records[i1+dn:], delta)
 	}
 	if next.occArrays > maxOccArrays {
 		next.compactOccurrences()
 	}
-	next.relateAgain(prev, i0, i1, dn, delta, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
+	next.relateAgain(prev, i0, i1, dn, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
 	next.assemble()
 	return next
 }
 
-// maxOccArrays bounds the arrays of occurrences the records of a list
-// point into after edits. Each edit moves the records after it into an
-// array of its own while the records before it keep pointing into older
-// arrays, which stay whole in memory; past the bound the occurrences are
-// copied into one array again.
-const maxOccArrays = 3
+// occBlock is the number of occurrences in one block of moved ones.
+const occBlock = 512
 
-// compactOccurrences copies the occurrences of r's records into one array.
+// maxOccArrays bounds the arrays of occurrences the records of a list
+// point into after edits that are used in part only. Each edit puts the
+// records after it into blocks of their own, while the records before
+// it keep pointing into older arrays: the array or block at the place of
+// the edit stays whole in memory for the part of it before the edit.
+// Past the bound the occurrences are copied into blocks again, so the
+// memory so held stays below the bound times a block.
+const maxOccArrays = 32
+
+// shiftOccurrences points recs at copies of their occurrences moved by
+// delta bytes, in blocks.
+func shiftOccurrences(recs []Record, delta int) {
+	var block []find.Occurrence
+	for k := range recs {
+		if len(block) == 0 {
+			block = make([]find.Occurrence, min(occBlock, len(recs)-k))
+		}
+		block[0] = *recs[k].Occ
+		block[0].Shift(delta)
+		recs[k].Occ = &block[0]
+		block = block[1:]
+	}
+}
+
+// compactOccurrences copies the occurrences of r's records into blocks.
 func (r *Result) compactOccurrences() {
-	occs := make([]find.Occurrence, len(r.Records))
+	var block []find.Occurrence
 	for i := range r.Records {
-		occs[i] = *r.Records[i].Occ
-		r.Records[i].Occ = &occs[i]
+		if len(block) == 0 {
+			block = make([]find.Occurrence, min(occBlock, len(r.Records)-i))
+		}
+		block[0] = *r.Records[i].Occ
+		r.Records[i].Occ = &block[0]
+		block = block[1:]
 	}
 	r.occArrays = 1
 }
@@ -146,29 +178,26 @@ func changedLines(old, new []byte) (from, oldTo, newTo int) {
 	return from, oldTo, newTo
 }
 
-// moveDiagnostics returns a record's findings moved by delta bytes, for
-// record index i; the slice itself when nothing moves.
-func moveDiagnostics(ds []Diagnostic, delta, i int) []Diagnostic {
-	if len(ds) == 0 || delta == 0 && ds[0].Record == i {
-		return ds
-	}
-	out := make([]Diagnostic, len(ds))
-	for k, d := range ds {
-		out[k] = moveDiagnostic(d, delta, i)
-	}
-	return out
-}
-
 // moveDiagnostic moves one finding by delta bytes, for record index i.
-// Its related places move too: they lie in the same record.
-func moveDiagnostic(d Diagnostic, delta, i int) Diagnostic {
+// Its related places and fixes move too: they lie in the same record.
+// New slices are made for them; related places of one element are taken
+// from slab, which is returned with what is left of it.
+func moveDiagnostic(d Diagnostic, delta, i int, slab []Related) (Diagnostic, []Related) {
 	d.Record = i
 	if delta == 0 {
-		return d
+		return d, slab
 	}
 	d.Span = shift(d.Span, delta)
 	if d.Related != nil {
-		rel := make([]Related, len(d.Related))
+		var rel []Related
+		if len(d.Related) == 1 {
+			if len(slab) == 0 {
+				slab = make([]Related, slabSize)
+			}
+			rel, slab = slab[:1:1], slab[1:]
+		} else {
+			rel = make([]Related, len(d.Related))
+		}
 		for k, r := range d.Related {
 			r.Span = shift(r.Span, delta)
 			rel[k] = r
@@ -188,32 +217,42 @@ func moveDiagnostic(d Diagnostic, delta, i int) Diagnostic {
 		}
 		d.Fixes = fixes
 	}
-	return d
+	return d, slab
 }
+
+// slabSize is how many related places of one element assemble allocates
+// at a time.
+const slabSize = 1024
 
 // relateAgain sets the relations of the records of r, a new version of
 // prev in which prev's records [i0, i1) were replaced by r's records
-// [i0, i1+dn) and the records after them moved by delta bytes (and by
-// some lines when linesMoved). The records of every pre-key the change
-// touched are related again; the others keep their relations, moved.
-func (r *Result) relateAgain(prev *Result, i0, i1, dn, delta int, linesMoved bool) {
-	touched := map[uint64]bool{}
-	for _, rec := range prev.Records[i0:i1] {
-		if rec.an != nil && rec.an.identifiable {
-			touched[rec.an.preKey] = true
+// [i0, i1+dn) and the records after them moved (by some lines when
+// linesMoved). The records of every pre-key the change touched are
+// related again; the others keep their relations. A relation's places
+// and record index are set by assemble, so a relation is copied only
+// when the index or the line of its earlier record changed.
+func (r *Result) relateAgain(prev *Result, i0, i1, dn int, linesMoved bool) {
+	var touched []uint64 // a few pre-keys: a slice beats a map
+	touch := func(recs []Record) {
+		for _, rec := range recs {
+			if rec.an != nil && rec.an.identifiable && !slices.Contains(touched, rec.an.preKey) {
+				touched = append(touched, rec.an.preKey)
+			}
 		}
 	}
-	for _, rec := range r.Records[i0 : i1+dn] {
-		if rec.an != nil && rec.an.identifiable {
-			touched[rec.an.preKey] = true
-		}
-	}
-	groups := map[uint64][]int{}
+	touch(prev.Records[i0:i1])
+	touch(r.Records[i0 : i1+dn])
+	var groups [][]int // in the order of touched
 	for i := range r.Records {
 		rec := &r.Records[i]
-		if rec.an != nil && rec.an.identifiable && touched[rec.an.preKey] {
-			groups[rec.an.preKey] = append(groups[rec.an.preKey], i)
-			continue
+		if rec.an != nil && rec.an.identifiable && len(touched) > 0 {
+			if g := slices.Index(touched, rec.an.preKey); g >= 0 {
+				for len(groups) <= g {
+					groups = append(groups, nil)
+				}
+				groups[g] = append(groups[g], i)
+				continue
+			}
 		}
 		if i >= i0 && i < i1+dn {
 			continue // a new record without identity keys
@@ -223,32 +262,25 @@ func (r *Result) relateAgain(prev *Result, i0, i1, dn, delta int, linesMoved boo
 		if i >= i1+dn {
 			old = i - dn
 		}
-		if prev.rel[old] == nil {
+		rel := prev.rel[old]
+		if rel == nil {
 			continue
 		}
-		rel := prev.rel[old]
-		moved := i >= i1+dn
-		earlierMoved := rel.earlier >= i1
-		if moved || earlierMoved {
-			// A relation is shared between versions: a moved one is a copy.
+		if rel.earlier >= i1 && (dn != 0 || linesMoved) {
+			// A relation is shared between versions: a changed one is a copy.
 			c := *rel
 			rel = &c
-			if rel.earlier >= i1 {
-				rel.earlier += dn
+			rel.earlier += dn
+			if linesMoved {
+				rel.d.Message = r.relationMessage(rel.tmpl, rel.earlier)
 			}
-			d := moveDiagnostic(rel.d, 0, i)
-			if moved && delta != 0 {
-				d.Span = shift(d.Span, delta)
-			}
-			d.Related = []Related{{Span: r.Records[rel.earlier].Occ.Span, Message: d.Related[0].Message}}
-			if earlierMoved && linesMoved {
-				d.Message = r.relationMessage(rel.tmpl, rel.earlier)
-			}
-			rel.d = d
 		}
 		r.rel[i] = rel
 	}
 	for _, members := range groups {
+		if len(members) == 0 {
+			continue
+		}
 		if len(members) < 2 {
 			r.Records[members[0]].Identity = nil
 			continue
@@ -265,7 +297,10 @@ func (r *Result) relationMessage(tmpl string, earlier int) string {
 
 // assemble makes r.Diagnostics from the records' own findings and their
 // relations, in the order sortDiagnostics gives: a list's records do not
-// overlap, and a relation spans its record.
+// overlap, and a relation spans its record. Findings are moved to where
+// their records are now (own findings were made at ownAt; a relation
+// spans its record and names its earlier record's place) and given the
+// records' indices.
 func (r *Result) assemble() {
 	n := 0
 	for i := range r.own {
@@ -275,18 +310,66 @@ func (r *Result) assemble() {
 		}
 	}
 	out := make([]Diagnostic, 0, n)
+	var slab []Related
 	for i, own := range r.own {
-		if r.rel[i] == nil {
-			out = append(out, own...)
+		span := r.Records[i].Occ.Span
+		delta := 0
+		if r.ownAt != nil {
+			delta = span.Start - r.ownAt[i]
+		}
+		start := len(out)
+		for k := range own {
+			if own[k].Record == i && delta == 0 {
+				out = append(out, own[k])
+				continue
+			}
+			var d Diagnostic
+			d, slab = moveDiagnostic(own[k], delta, i, slab)
+			out = append(out, d)
+		}
+		rel := r.rel[i]
+		if rel == nil {
 			continue
 		}
-		d := r.rel[i].d
-		k := sort.Search(len(own), func(k int) bool { return before(d.Span, own[k].Span) })
-		out = append(out, own[:k]...)
-		out = append(out, d)
-		out = append(out, own[k:]...)
+		d := rel.d
+		d.Record = i
+		d.Span = span
+		if at := r.Records[rel.earlier].Occ.Span; d.Related[0].Span != at {
+			if len(slab) == 0 {
+				slab = make([]Related, slabSize)
+			}
+			slab[0] = Related{Span: at, Message: d.Related[0].Message}
+			d.Related, slab = slab[:1:1], slab[1:]
+		}
+		k := start + sort.Search(len(out)-start, func(k int) bool { return before(d.Span, out[start+k].Span) })
+		out = append(out, Diagnostic{})
+		copy(out[k+1:], out[k:])
+		out[k] = d
 	}
 	r.Diagnostics = out
+}
+
+// movedLines returns lineStarts of a text from lines, those of an older
+// version in which old[from:oldTo] became text[from:newTo] (changedLines):
+// the lines before the change are kept, those it made are found, and
+// those after it are moved.
+func movedLines(lines []int, text []byte, from, oldTo, newTo int) []int {
+	k := sort.SearchInts(lines, from+1) // lines[:k] start at or before from
+	after := sort.SearchInts(lines, oldTo+1)
+	out := make([]int, k, len(lines)+lineCount(text[from:newTo])+1)
+	copy(out, lines[:k])
+	for off := from; ; {
+		j := bytes.IndexByte(text[off:newTo], '\n')
+		if j < 0 {
+			break
+		}
+		off += j + 1
+		out = append(out, off)
+	}
+	for _, l := range lines[after:] {
+		out = append(out, l+newTo-oldTo)
+	}
+	return out
 }
 
 // lineStarts returns the offsets at which the lines of a text start.

@@ -79,6 +79,9 @@ func TestReanalyzeEqualsAnalyze(t *testing.T) {
 		next := a.reanalyzeList(prev, "edit.smi", "", []byte(text))
 		if next != nil {
 			incremental++
+			if next.lines != nil && !reflect.DeepEqual(next.lines, lineStarts(next.Content)) {
+				t.Fatalf("step %d (%s): the line table moved from the last version differs from the text's", step, what)
+			}
 		} else {
 			next = a.Analyze("edit.smi", "", []byte(text))
 		}

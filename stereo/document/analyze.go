@@ -64,6 +64,8 @@ type Result struct {
 	// findings were made: Reanalyze moves records without moving their
 	// findings, assemble does (nil: where the record is).
 	ownAt []int
+	// prekeys, when not nil, are the records' pre-keys (Reanalyze).
+	prekeys []prekey
 	// occArrays counts the arrays the records' occurrences lie in
 	// (Reanalyze).
 	occArrays int

@@ -8,9 +8,12 @@ package document
 
 import (
 	"bytes"
+	"runtime"
 	"slices"
 	"sort"
 	"strings"
+	"sync"
+	"sync/atomic"
 
 	"stereoline/notation"
 	"stereoline/notation/find"
@@ -78,12 +81,23 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 		}
 	}
 	copy(next.ownAt, prevOwnAt[:i0])
+	prevKeys := prev.prekeys
+	if prevKeys == nil {
+		prevKeys = make([]prekey, len(prev.Records))
+		for i := range prev.Records {
+			prevKeys[i] = prekeyOf(&prev.Records[i])
+		}
+	}
+	next.prekeys = make([]prekey, n)
+	copy(next.prekeys, prevKeys[:i0])
+	copy(next.prekeys[i1+dn:], prevKeys[i1:])
 	parallel(len(occs), func(k int) {
 		i := i0 + k
 		an, f := a.cache.get(occs[k].Text, cfg.Reading.notation(), cfg.Limits.limits())
 		next.Records[i] = Record{Occ: &occs[k], an: an}
 		next.own[i] = next.recordFindings(i, f)
 		next.ownAt[i] = occs[k].Span.Start
+		next.prekeys[i] = prekeyOf(&next.Records[i])
 	})
 	// The records after the edit keep their findings where they were
 	// made (ownAt says where); assemble moves them. Their occurrences
@@ -101,7 +115,7 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	if next.occArrays > maxOccArrays {
 		next.compactOccurrences()
 	}
-	next.relateAgain(prev, i0, i1, dn, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
+	next.relateAgain(prev, prevKeys, i0, i1, dn, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
 	next.assemble()
 	return next
 }
@@ -224,32 +238,46 @@ func moveDiagnostic(d Diagnostic, delta, i int, slab []Related) (Diagnostic, []R
 // at a time.
 const slabSize = 1024
 
+// prekey is a record's constitution pre-key, ok when it has one (an
+// identifiable record). Results keep them in an array of their own for
+// Reanalyze, which looks at every record's: reading them through the
+// records' analyses costs a cache miss a record.
+type prekey struct {
+	key uint64
+	ok  bool
+}
+
+func prekeyOf(rec *Record) prekey {
+	if rec.an == nil || !rec.an.identifiable {
+		return prekey{}
+	}
+	return prekey{rec.an.preKey, true}
+}
+
 // relateAgain sets the relations of the records of r, a new version of
 // prev in which prev's records [i0, i1) were replaced by r's records
 // [i0, i1+dn) and the records after them moved (by some lines when
-// linesMoved). The records of every pre-key the change touched are
-// related again; the others keep their relations. A relation's places
-// and record index are set by assemble, so a relation is copied only
-// when the index or the line of its earlier record changed.
-func (r *Result) relateAgain(prev *Result, i0, i1, dn int, linesMoved bool) {
+// linesMoved); prevKeys are prev's pre-keys. The records of every
+// pre-key the change touched are related again; the others keep their
+// relations. A relation's places and record index are set by assemble,
+// so a relation is copied only when the index or the line of its
+// earlier record changed.
+func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn int, linesMoved bool) {
 	var touched []uint64 // a few pre-keys: a slice beats a map
-	touch := func(recs []Record) {
-		for _, rec := range recs {
-			if rec.an != nil && rec.an.identifiable && !slices.Contains(touched, rec.an.preKey) {
-				touched = append(touched, rec.an.preKey)
+	touch := func(keys []prekey) {
+		for _, k := range keys {
+			if k.ok && !slices.Contains(touched, k.key) {
+				touched = append(touched, k.key)
 			}
 		}
 	}
-	touch(prev.Records[i0:i1])
-	touch(r.Records[i0 : i1+dn])
-	var groups [][]int // in the order of touched
-	for i := range r.Records {
-		rec := &r.Records[i]
-		if rec.an != nil && rec.an.identifiable && len(touched) > 0 {
-			if g := slices.Index(touched, rec.an.preKey); g >= 0 {
-				for len(groups) <= g {
-					groups = append(groups, nil)
-				}
+	touch(prevKeys[i0:i1])
+	touch(r.prekeys[i0 : i1+dn])
+	groups := make([][]int, len(touched)) // in the order of touched
+	var renamed []*relation
+	for i, k := range r.prekeys {
+		if k.ok && len(touched) > 0 {
+			if g := slices.Index(touched, k.key); g >= 0 {
 				groups[g] = append(groups[g], i)
 				continue
 			}
@@ -266,16 +294,23 @@ func (r *Result) relateAgain(prev *Result, i0, i1, dn int, linesMoved bool) {
 		if rel == nil {
 			continue
 		}
-		if rel.earlier >= i1 && (dn != 0 || linesMoved) {
+		if (dn != 0 || linesMoved) && rel.earlier >= i1 {
 			// A relation is shared between versions: a changed one is a copy.
 			c := *rel
 			rel = &c
 			rel.earlier += dn
 			if linesMoved {
-				rel.d.Message = r.relationMessage(rel.tmpl, rel.earlier)
+				renamed = append(renamed, rel)
 			}
 		}
 		r.rel[i] = rel
+	}
+	if len(renamed) > 0 {
+		r.lineOf(0) // the line table, before it is read in parallel
+		parallel(len(renamed), func(k int) {
+			rel := renamed[k]
+			rel.d.Message = r.relationMessage(rel.tmpl, rel.earlier)
+		})
 	}
 	for _, members := range groups {
 		if len(members) == 0 {
@@ -300,33 +335,50 @@ func (r *Result) relationMessage(tmpl string, earlier int) string {
 // overlap, and a relation spans its record. Findings are moved to where
 // their records are now (own findings were made at ownAt; a relation
 // spans its record and names its earlier record's place) and given the
-// records' indices.
+// records' indices. The records are done in chunks on all cores: the
+// work is reading findings spread over the heap.
 func (r *Result) assemble() {
-	n := 0
-	for i := range r.own {
-		n += len(r.own[i])
-		if r.rel[i] != nil {
-			n++
+	const chunk = 1024 // the tests' lists of 2,000 records take two
+	chunks := (len(r.own) + chunk - 1) / chunk
+	at := make([]int, chunks+1)
+	for c := range chunks {
+		n := 0
+		for i := c * chunk; i < min((c+1)*chunk, len(r.own)); i++ {
+			n += len(r.own[i])
+			if r.rel[i] != nil {
+				n++
+			}
 		}
+		at[c+1] = at[c] + n
 	}
-	out := make([]Diagnostic, 0, n)
+	out := make([]Diagnostic, at[chunks])
+	spread(chunks, func(c int) {
+		r.assembleRecords(out[at[c]:at[c+1]], c*chunk, min((c+1)*chunk, len(r.own)))
+	})
+	r.Diagnostics = out
+}
+
+// assembleRecords writes the findings of records [from, to) into out,
+// which holds exactly them.
+func (r *Result) assembleRecords(out []Diagnostic, from, to int) {
 	var slab []Related
-	for i, own := range r.own {
+	p := 0
+	for i := from; i < to; i++ {
+		own := r.own[i]
 		span := r.Records[i].Occ.Span
 		delta := 0
 		if r.ownAt != nil {
 			delta = span.Start - r.ownAt[i]
 		}
-		start := len(out)
 		for k := range own {
 			if own[k].Record == i && delta == 0 {
-				out = append(out, own[k])
+				out[p+k] = own[k]
 				continue
 			}
-			var d Diagnostic
-			d, slab = moveDiagnostic(own[k], delta, i, slab)
-			out = append(out, d)
+			out[p+k], slab = moveDiagnostic(own[k], delta, i, slab)
 		}
+		mine := out[p : p+len(own)]
+		p += len(own)
 		rel := r.rel[i]
 		if rel == nil {
 			continue
@@ -341,12 +393,35 @@ func (r *Result) assemble() {
 			slab[0] = Related{Span: at, Message: d.Related[0].Message}
 			d.Related, slab = slab[:1:1], slab[1:]
 		}
-		k := start + sort.Search(len(out)-start, func(k int) bool { return before(d.Span, out[start+k].Span) })
-		out = append(out, Diagnostic{})
-		copy(out[k+1:], out[k:])
-		out[k] = d
+		k := sort.Search(len(mine), func(k int) bool { return before(d.Span, mine[k].Span) })
+		copy(out[p-len(own)+k+1:p+1], mine[k:])
+		out[p-len(own)+k] = d
+		p++
 	}
-	r.Diagnostics = out
+}
+
+// spread calls f(0) ... f(n-1) on all cores; each call is a large piece
+// of work.
+func spread(n int, f func(int)) {
+	workers := min(runtime.GOMAXPROCS(0), n)
+	if workers < 2 {
+		for i := range n {
+			f(i)
+		}
+		return
+	}
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := int(next.Add(1)) - 1; i < n; i = int(next.Add(1)) - 1 {
+				f(i)
+			}
+		}()
+	}
+	wg.Wait()
 }
 
 // movedLines returns lineStarts of a text from lines, those of an older

@@ -365,6 +365,10 @@ func (r *Result) assembleRecords(out []Diagnostic, from, to int) {
 	p := 0
 	for i := from; i < to; i++ {
 		own := r.own[i]
+		rel := r.rel[i]
+		if len(own) == 0 && rel == nil {
+			continue // most records: their occurrences are not read
+		}
 		span := r.Records[i].Occ.Span
 		delta := 0
 		if r.ownAt != nil {
@@ -379,7 +383,6 @@ func (r *Result) assembleRecords(out []Diagnostic, from, to int) {
 		}
 		mine := out[p : p+len(own)]
 		p += len(own)
-		rel := r.rel[i]
 		if rel == nil {
 			continue
 		}

@@ -120,8 +120,11 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	return next
 }
 
-// occBlock is the number of occurrences in one block of moved ones.
-const occBlock = 512
+// occBlock is the number of occurrences in one block of moved ones: a
+// block (168 bytes an occurrence) stays below 32 KB, the largest object
+// the runtime allocates from its per-size lists rather than as pages of
+// its own.
+const occBlock = 192
 
 // maxOccArrays bounds the arrays of occurrences the records of a list
 // point into after edits that are used in part only. Each edit puts the
@@ -236,7 +239,7 @@ func moveDiagnostic(d Diagnostic, delta, i int, slab []Related) (Diagnostic, []R
 
 // slabSize is how many related places of one element assemble allocates
 // at a time.
-const slabSize = 1024
+const slabSize = 512
 
 // prekey is a record's constitution pre-key, ok when it has one (an
 // identifiable record). Results keep them in an array of their own for

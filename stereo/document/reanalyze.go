@@ -310,9 +310,24 @@ func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn int, li
 	}
 	if len(renamed) > 0 {
 		r.lineOf(0) // the line table, before it is read in parallel
+		// The relations of a group often name the same earlier record
+		// (its first): each record is named once.
+		names := make(map[int]string, len(renamed)/2)
+		var earlier []int
+		for _, rel := range renamed {
+			if _, ok := names[rel.earlier]; !ok {
+				names[rel.earlier] = ""
+				earlier = append(earlier, rel.earlier)
+			}
+		}
+		described := make([]string, len(earlier))
+		parallel(len(earlier), func(k int) { described[k] = r.describeRecord(earlier[k]) })
+		for k, j := range earlier {
+			names[j] = described[k]
+		}
 		parallel(len(renamed), func(k int) {
 			rel := renamed[k]
-			rel.d.Message = r.relationMessage(rel.tmpl, rel.earlier)
+			rel.d.Message = strings.ReplaceAll(rel.tmpl, named, names[rel.earlier])
 		})
 	}
 	for _, members := range groups {
@@ -325,12 +340,6 @@ func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn int, li
 		}
 		r.relateGroup(members)
 	}
-}
-
-// relationMessage fills a relation's message template with the name of
-// the earlier record.
-func (r *Result) relationMessage(tmpl string, earlier int) string {
-	return strings.ReplaceAll(tmpl, named, r.describeRecord(earlier))
 }
 
 // assemble makes r.Diagnostics from the records' own findings and their

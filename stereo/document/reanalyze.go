@@ -116,7 +116,7 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 		next.compactOccurrences()
 	}
 	next.relateAgain(prev, prevKeys, i0, i1, dn, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
-	next.assemble()
+	next.assembleFrom(prev, i0, i1, dn, delta, oldTo)
 	return next
 }
 
@@ -376,43 +376,133 @@ func (r *Result) assembleRecords(out []Diagnostic, from, to int) {
 	var slab []Related
 	p := 0
 	for i := from; i < to; i++ {
-		own := r.own[i]
-		rel := r.rel[i]
-		if len(own) == 0 && rel == nil {
+		n := len(r.own[i])
+		if r.rel[i] != nil {
+			n++
+		}
+		if n == 0 {
 			continue // most records: their occurrences are not read
 		}
-		span := r.Records[i].Occ.Span
-		delta := 0
-		if r.ownAt != nil {
-			delta = span.Start - r.ownAt[i]
-		}
-		for k := range own {
-			if own[k].Record == i && delta == 0 {
-				out[p+k] = own[k]
-				continue
-			}
-			out[p+k], slab = moveDiagnostic(own[k], delta, i, slab)
-		}
-		mine := out[p : p+len(own)]
-		p += len(own)
-		if rel == nil {
+		slab = r.assembleRecord(out[p:p+n], i, slab)
+		p += n
+	}
+}
+
+// assembleRecord writes the findings of record i into out, which holds
+// exactly them, taking related places of one element from slab; it
+// returns what is left of slab.
+func (r *Result) assembleRecord(out []Diagnostic, i int, slab []Related) []Related {
+	own := r.own[i]
+	span := r.Records[i].Occ.Span
+	delta := 0
+	if r.ownAt != nil {
+		delta = span.Start - r.ownAt[i]
+	}
+	for k := range own {
+		if own[k].Record == i && delta == 0 {
+			out[k] = own[k]
 			continue
 		}
-		d := rel.d
-		d.Record = i
-		d.Span = span
-		if at := r.Records[rel.earlier].Occ.Span; d.Related[0].Span != at {
-			if len(slab) == 0 {
-				slab = make([]Related, slabSize)
-			}
-			slab[0] = Related{Span: at, Message: d.Related[0].Message}
-			d.Related, slab = slab[:1:1], slab[1:]
-		}
-		k := sort.Search(len(mine), func(k int) bool { return before(d.Span, mine[k].Span) })
-		copy(out[p-len(own)+k+1:p+1], mine[k:])
-		out[p-len(own)+k] = d
-		p++
+		out[k], slab = moveDiagnostic(own[k], delta, i, slab)
 	}
+	rel := r.rel[i]
+	if rel == nil {
+		return slab
+	}
+	d := rel.d
+	d.Record = i
+	d.Span = span
+	if at := r.Records[rel.earlier].Occ.Span; d.Related[0].Span != at {
+		if len(slab) == 0 {
+			slab = make([]Related, slabSize)
+		}
+		slab[0] = Related{Span: at, Message: d.Related[0].Message}
+		d.Related, slab = slab[:1:1], slab[1:]
+	}
+	mine := out[:len(own)]
+	k := sort.Search(len(mine), func(k int) bool { return before(d.Span, mine[k].Span) })
+	copy(out[k+1:], mine[k:])
+	out[k] = d
+	return slab
+}
+
+// assembleFrom is assemble for r made from prev by replacing prev's
+// records [i0, i1) with r's records [i0, i1+dn) and moving the records
+// after them by delta bytes (oldTo is where they started in prev's
+// text). The findings of the records whose relation did not change are
+// read from prev.Diagnostics, in order, and moved; only the others are
+// assembled from the records' findings and relations.
+func (r *Result) assembleFrom(prev *Result, i0, i1, dn, delta, oldTo int) {
+	if len(prev.own) != len(prev.Records) || len(prev.rel) != len(prev.Records) {
+		r.assemble()
+		return
+	}
+	count := func(own [][]Diagnostic, rel []*relation, i int) int {
+		if rel[i] != nil {
+			return len(own[i]) + 1
+		}
+		return len(own[i])
+	}
+	n := 0
+	for i := range r.own {
+		n += count(r.own, r.rel, i)
+	}
+	pd := prev.Diagnostics
+	out := make([]Diagnostic, n)
+	var slab []Related
+	p, q := 0, 0 // next finding of pd, of out
+	for i := range r.Records {
+		if i == i0 {
+			for old := i0; old < i1; old++ {
+				p += count(prev.own, prev.rel, old)
+			}
+		}
+		old := i
+		if i >= i1+dn {
+			old = i - dn
+		}
+		fresh := i >= i0 && i < i1+dn
+		if !fresh {
+			run := count(prev.own, prev.rel, old)
+			if r.rel[i] == prev.rel[old] {
+				src := pd[p : p+run]
+				p += run
+				if i < i1+dn || delta == 0 && dn == 0 {
+					q += copy(out[q:], src)
+					continue
+				}
+				for k := range src {
+					d := src[k]
+					if IsRelation(d.Code) && r.rel[i] != nil {
+						d.Record = i
+						d.Span = shift(d.Span, delta)
+						if at := d.Related[0].Span; at.Start >= oldTo && delta != 0 {
+							if len(slab) == 0 {
+								slab = make([]Related, slabSize)
+							}
+							slab[0] = Related{Span: shift(at, delta), Message: d.Related[0].Message}
+							d.Related, slab = slab[:1:1], slab[1:]
+						}
+					} else {
+						d, slab = moveDiagnostic(d, delta, i, slab)
+					}
+					out[q] = d
+					q++
+				}
+				continue
+			}
+			p += run
+		}
+		k := count(r.own, r.rel, i)
+		slab = r.assembleRecord(out[q:q+k], i, slab)
+		q += k
+	}
+	if p != len(pd) || q != n {
+		// prev's findings were not in record order: not expected of a list
+		r.assemble()
+		return
+	}
+	r.Diagnostics = out
 }
 
 // spread calls f(0) ... f(n-1) on all cores; each call is a large piece

@@ -88,6 +88,13 @@ func TestReanalyzeEqualsAnalyze(t *testing.T) {
 			if next.lines != nil && !reflect.DeepEqual(next.lines, lineStarts(next.Content)) {
 				t.Fatalf("step %d (%s): the line table moved from the last version differs from the text's", step, what)
 			}
+			// The findings moved from the last version's (assembleFrom)
+			// equal those assembled from the records (assemble).
+			whole := *next
+			whole.assemble()
+			if !reflect.DeepEqual(whole.Diagnostics, next.Diagnostics) {
+				t.Fatalf("step %d (%s): assemble and assembleFrom differ", step, what)
+			}
 		} else {
 			next = a.Analyze("edit.smi", "", []byte(text))
 		}

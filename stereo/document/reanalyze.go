@@ -451,11 +451,19 @@ func (r *Result) assembleFrom(prev *Result, i0, i1, dn, delta, oldTo int) {
 	out := make([]Diagnostic, n)
 	var slab []Related
 	p, q := 0, 0 // next finding of pd, of out
+	// pd[copied:p] are findings that go to out[q:] as they are, copied
+	// in one go before anything else is written.
+	copied := 0
+	flush := func() {
+		q += copy(out[q:], pd[copied:p])
+	}
 	for i := range r.Records {
 		if i == i0 {
+			flush()
 			for old := i0; old < i1; old++ {
 				p += count(prev.own, prev.rel, old)
 			}
+			copied = p
 		}
 		old := i
 		if i >= i1+dn {
@@ -465,12 +473,14 @@ func (r *Result) assembleFrom(prev *Result, i0, i1, dn, delta, oldTo int) {
 		if !fresh {
 			run := count(prev.own, prev.rel, old)
 			if r.rel[i] == prev.rel[old] {
-				src := pd[p : p+run]
-				p += run
 				if i < i1+dn || delta == 0 && dn == 0 {
-					q += copy(out[q:], src)
+					p += run
 					continue
 				}
+				flush()
+				src := pd[p : p+run]
+				p += run
+				copied = p
 				for k := range src {
 					d := src[k]
 					if IsRelation(d.Code) && r.rel[i] != nil {
@@ -491,12 +501,18 @@ func (r *Result) assembleFrom(prev *Result, i0, i1, dn, delta, oldTo int) {
 				}
 				continue
 			}
+			flush()
 			p += run
+			copied = p
+		} else {
+			flush()
+			copied = p
 		}
 		k := count(r.own, r.rel, i)
 		slab = r.assembleRecord(out[q:q+k], i, slab)
 		q += k
 	}
+	flush()
 	if p != len(pd) || q != n {
 		// prev's findings were not in record order: not expected of a list
 		r.assemble()

@@ -204,3 +204,38 @@ func TestMapperReplaceAgreesWithNewMapper(t *testing.T) {
 		}
 	}
 }
+
+// applyChanges moves the line table through each change of a
+// notification (LSP 3.17, "DidChangeTextDocument Notification": each
+// change applies to the text the previous one left, one without a range
+// replaces the whole text); the mapper it returns must equal the one
+// built from the final text.
+func TestApplyChangesMapper(t *testing.T) {
+	rng := func(l1, c1, l2, c2 uint32) *protocol.Range {
+		return &protocol.Range{Start: protocol.Position{Line: l1, Character: c1}, End: protocol.Position{Line: l2, Character: c2}}
+	}
+	m := NewMapper([]byte("CCO a\r\nC[C@H](F)Cl é\nF/C=C/F\n"), EncodingUTF16)
+	changes := []contentChange{
+		{Range: rng(1, 2, 1, 4), Text: "@@"},
+		{Range: rng(0, 5, 1, 0), Text: "\n\r\n"},
+		{Text: "N\rO\n"},
+		{Range: rng(1, 0, 1, 1), Text: "😀\r"},
+		{Range: rng(2, 0, 2, 0), Text: "last"},
+	}
+	for _, tt := range []struct {
+		n    int
+		want string
+	}{
+		{2, "CCO a\n\r\nC[@@H](F)Cl é\nF/C=C/F\n"},
+		{5, "N\r😀\r\nlast"},
+	} {
+		got, err := applyChanges(m, EncodingUTF16, changes[:tt.n])
+		if err != nil {
+			t.Fatal(err)
+		}
+		want := NewMapper([]byte(tt.want), EncodingUTF16)
+		if string(got.Content()) != string(want.Content()) || !slices.Equal(got.lineStarts, want.lineStarts) || !slices.Equal(got.wide, want.wide) {
+			t.Errorf("%d changes: got %q %v %v, want %q %v %v", tt.n, got.Content(), got.lineStarts, got.wide, want.Content(), want.lineStarts, want.wide)
+		}
+	}
+}

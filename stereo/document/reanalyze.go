@@ -297,7 +297,8 @@ func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn int, li
 		if rel == nil {
 			continue
 		}
-		if (dn != 0 || linesMoved) && rel.earlier >= i1 {
+		// A record before the edit has its earlier record before it too.
+		if (dn != 0 || linesMoved) && i >= i1+dn && rel.earlier >= i1 {
 			// A relation is shared between versions: a changed one is a copy.
 			c := *rel
 			rel = &c

@@ -3,6 +3,7 @@ package lsp
 import (
 	"bytes"
 	"fmt"
+	"math/rand"
 	"os"
 	"strings"
 	"testing"
@@ -190,4 +191,124 @@ func scaleList(b *testing.B) []byte {
 		b.Skip(err)
 	}
 	return text
+}
+
+// BenchmarkScaleEditKinds is BenchmarkScaleRepublish for each kind of
+// one-line edit lsp/testdata/scaleclient makes, at random lines: a mark
+// toggled, a title extended, a line inserted (a copy of another record
+// with a new title) and a line deleted. It reports the three parts of
+// the work apart: the new line table (map-ms), Reanalyze (analyze-ms)
+// and the publishDiagnostics JSON (publish-ms). It skips without
+// STEREOLINE_SCALE_LIST.
+func BenchmarkScaleEditKinds(b *testing.B) {
+	text := scaleList(b)
+	a := document.NewAnalyzer(document.DefaultConfig())
+	base := a.Analyze("scale.smi", "", text)
+	kinds := []struct {
+		name string
+		edit func(text []byte, rng *rand.Rand) []byte
+	}{
+		{"mark", func(text []byte, rng *rand.Rand) []byte {
+			for {
+				from, to := randomLine(text, rng)
+				line := text[from:to]
+				if i := bytes.Index(line, []byte("@@")); i >= 0 {
+					return splice(text, from+i, from+i+1, "")
+				}
+				if i := bytes.IndexByte(line, '@'); i >= 0 {
+					return splice(text, from+i, from+i, "@")
+				}
+			}
+		}},
+		{"title", func(text []byte, rng *rand.Rand) []byte {
+			_, to := randomLine(text, rng)
+			return splice(text, to-1, to-1, "x")
+		}},
+		{"insert", func(text []byte, rng *rand.Rand) []byte {
+			from, to := randomLine(text, rng)
+			at, _ := randomLine(text, rng)
+			rec := text[from:to]
+			if i := bytes.IndexAny(rec, " \t"); i >= 0 {
+				rec = rec[:i]
+			}
+			return splice(text, at, at, string(rec)+"\tinserted\n")
+		}},
+		{"delete", func(text []byte, rng *rand.Rand) []byte {
+			from, to := randomLine(text, rng)
+			return splice(text, from, to, "")
+		}},
+	}
+	for _, k := range kinds {
+		b.Run(k.name, func(b *testing.B) {
+			rng := rand.New(rand.NewSource(1))
+			prev, content := base, text
+			m := NewMapper(text, EncodingUTF16)
+			var mapping, analysing, publishing time.Duration
+			b.ReportAllocs()
+			b.ResetTimer()
+			for i := 0; i < b.N; i++ {
+				next := k.edit(content, rng)
+				t0 := time.Now()
+				m = m.Replace(lastSplice.from, lastSplice.to, lastSplice.n, next)
+				content = next
+				f := &fileVersion{URI: "file:///bench/scale.smi", Name: "scale.smi", mapper: m}
+				t1 := time.Now()
+				res := a.Reanalyze(prev, "scale.smi", "", content)
+				t2 := time.Now()
+				v := int32(i)
+				parts, err := diagnosticsParts(f, res, &v)
+				if err != nil {
+					b.Fatal(err)
+				}
+				releaseParts(parts)
+				t3 := time.Now()
+				mapping, analysing, publishing = mapping+t1.Sub(t0), analysing+t2.Sub(t1), publishing+t3.Sub(t2)
+				prev = res
+			}
+			b.ReportMetric(float64(mapping.Microseconds())/1e3/float64(b.N), "map-ms")
+			b.ReportMetric(float64(analysing.Microseconds())/1e3/float64(b.N), "analyze-ms")
+			b.ReportMetric(float64(publishing.Microseconds())/1e3/float64(b.N), "publish-ms")
+		})
+	}
+}
+
+// randomLine returns the bounds of a random whole line of text, its line
+// break included.
+func randomLine(text []byte, rng *rand.Rand) (from, to int) {
+	at := rng.Intn(len(text))
+	from = bytes.LastIndexByte(text[:at], '\n') + 1
+	to = len(text)
+	if k := bytes.IndexByte(text[from:], '\n'); k >= 0 {
+		to = from + k + 1
+	}
+	return from, to
+}
+
+// lastSplice is the edit splice made last.
+var lastSplice struct{ from, to, n int }
+
+// splice returns a copy of text with text[from:to] replaced by s.
+func splice(text []byte, from, to int, s string) []byte {
+	lastSplice.from, lastSplice.to, lastSplice.n = from, to, len(s)
+	out := make([]byte, 0, len(text)-(to-from)+len(s))
+	out = append(append(append(out, text[:from]...), s...), text[to:]...)
+	return out
+}
+
+// BenchmarkScalePublish measures the publishDiagnostics JSON of the list
+// STEREOLINE_SCALE_LIST names, analysed once; it skips without it.
+func BenchmarkScalePublish(b *testing.B) {
+	text := scaleList(b)
+	res := document.NewAnalyzer(document.DefaultConfig()).Analyze("scale.smi", "", text)
+	f := &fileVersion{URI: "file:///bench/scale.smi", Name: "scale.smi", mapper: NewMapper(text, EncodingUTF16)}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		v := int32(i)
+		parts, err := diagnosticsParts(f, res, &v)
+		if err != nil {
+			b.Fatal(err)
+		}
+		releaseParts(parts)
+	}
 }

@@ -50,9 +50,17 @@ func NewMapper(content []byte, enc PositionEncoding) *Mapper {
 	}
 	// The exact number of line breaks (each \r\n counted twice): the
 	// table of a long list is its largest part.
-	starts := make([]int, 1, 1+bytes.Count(content, []byte{'\n'})+bytes.Count(content, []byte{'\r'}))
-	var wide []int
-	for i := 0; i < len(content); i++ {
+	starts, wide := scanLines(content, 0, len(content), make([]int, 1, 1+lineCount(content)), nil)
+	return &Mapper{content: content, lineStarts: starts, wide: wide, encoding: enc}
+}
+
+// scanLines appends to starts the line starts after the line breaks in
+// content[from:to], and to wide the lines holding a byte outside ASCII
+// there; starts must end with the start of the line holding from, which
+// must be a line start. A "\r" at to-1 looks at content[to] for its
+// "\n".
+func scanLines(content []byte, from, to int, starts, wide []int) ([]int, []int) {
+	for i := from; i < to; i++ {
 		switch c := content[i]; {
 		case c == '\n':
 			starts = append(starts, i+1)
@@ -67,7 +75,7 @@ func NewMapper(content []byte, enc PositionEncoding) *Mapper {
 			}
 		}
 	}
-	return &Mapper{content: content, lineStarts: starts, wide: wide, encoding: enc}
+	return starts, wide
 }
 
 // WithEncoding returns a mapper of the same text that counts characters
@@ -82,6 +90,52 @@ func (m *Mapper) WithEncoding(enc PositionEncoding) *Mapper {
 	c.encoding = enc
 	return &c
 }
+
+// Replace returns the mapper of content, the text of m with the bytes
+// [start, end) replaced by n bytes. The line table is not built again:
+// the lines before the edit are kept, the lines it touched are scanned
+// and the lines after it are moved, so an edit of a large document
+// costs a copy of the table rather than a scan of the text.
+func (m *Mapper) Replace(start, end, n int, content []byte) *Mapper {
+	delta := n - (end - start)
+	if start < 0 || end < start || end > len(m.content) || len(content) != len(m.content)+delta {
+		return NewMapper(content, m.encoding)
+	}
+	old := m.lineStarts
+	// The first line scanned holds start-1: a "\r" there ends its line
+	// according to the byte at start, which the edit may change.
+	first := sort.Search(len(old), func(i int) bool { return old[i] > max(start-1, 0) }) - 1
+	// The first line after the edit: its start follows a line break that
+	// lies after the edit (or ends at its last byte, in which case the
+	// same break ends the line in the new text too).
+	after := sort.Search(len(old), func(i int) bool { return old[i] > end })
+	scanTo := len(content)
+	if after < len(old) {
+		scanTo = old[after] + delta
+	}
+	starts := make([]int, first+1, len(old)+lineCount(content[start:start+n])+1)
+	copy(starts, old[:first+1])
+	w := sort.SearchInts(m.wide, first)
+	wide := append(make([]int, 0, len(m.wide)+1), m.wide[:w]...)
+	// The scan ends at the break before scanTo, which gives scanTo.
+	starts, wide = scanLines(content, old[first], scanTo, starts, wide)
+	if after < len(old) {
+		lines := len(starts) - 1 - after // the lines the edit added
+		for _, s := range old[after+1:] {
+			starts = append(starts, s+delta)
+		}
+		for _, l := range m.wide[sort.SearchInts(m.wide, after):] {
+			wide = append(wide, l+lines)
+		}
+	}
+	if len(wide) == 0 {
+		wide = nil
+	}
+	return &Mapper{content: content, lineStarts: starts, wide: wide, encoding: m.encoding}
+}
+
+// lineCount counts the line breaks of b, a "\r\n" as two (a bound).
+func lineCount(b []byte) int { return bytes.Count(b, []byte{'\n'}) + bytes.Count(b, []byte{'\r'}) }
 
 // Content returns the text the mapper was built for.
 func (m *Mapper) Content() []byte { return m.content }

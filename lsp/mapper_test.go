@@ -1,6 +1,8 @@
 package lsp
 
 import (
+	"math/rand"
+	"slices"
 	"strings"
 	"testing"
 	"unicode/utf16"
@@ -164,5 +166,80 @@ func TestMapperSpanToRange(t *testing.T) {
 	}
 	if _, err := m.RangeToSpan(protocol.Range{Start: r.End, End: r.Start}); err == nil {
 		t.Errorf("reversed range: no error")
+	}
+}
+
+// A mapper moved through an edit (Replace) must equal the one built from
+// the new text: random edits of texts made of line breaks of the three
+// kinds LSP 3.17 names ("\n", "\r\n", "\r"), ASCII and wider characters,
+// at random places, including inside a "\r\n" pair and at the ends.
+func TestMapperReplaceAgreesWithNewMapper(t *testing.T) {
+	pieces := []string{"\n", "\r\n", "\r", "C", "[C@@H]", "é", "😀", " t", "\r\r", "\n\n"}
+	rng := rand.New(rand.NewSource(7))
+	random := func(n int) string {
+		var b strings.Builder
+		for range n {
+			b.WriteString(pieces[rng.Intn(len(pieces))])
+		}
+		return b.String()
+	}
+	for _, enc := range []PositionEncoding{EncodingUTF16, EncodingUTF8} {
+		text := []byte(random(40))
+		m := NewMapper(text, enc)
+		for step := range 3000 {
+			start := rng.Intn(len(text) + 1)
+			end := min(start+rng.Intn(6), len(text))
+			if rng.Intn(4) == 0 {
+				end = start
+			}
+			ins := random(rng.Intn(3))
+			if len(text) > 400 {
+				end = min(start+rng.Intn(40), len(text))
+				ins = ""
+			}
+			next := append(append(append([]byte(nil), text[:start]...), ins...), text[end:]...)
+			got := m.Replace(start, end, len(ins), next)
+			want := NewMapper(next, enc)
+			if !slices.Equal(got.lineStarts, want.lineStarts) || !slices.Equal(got.wide, want.wide) || got.encoding != want.encoding {
+				t.Fatalf("%s step %d: %q [%d,%d) -> %q:\nstarts %v\nwant   %v\nwide %v\nwant %v",
+					enc, step, text, start, end, ins, got.lineStarts, want.lineStarts, got.wide, want.wide)
+			}
+			text, m = next, got
+		}
+	}
+}
+
+// applyChanges moves the line table through each change of a
+// notification (LSP 3.17, "DidChangeTextDocument Notification": each
+// change applies to the text the previous one left, one without a range
+// replaces the whole text); the mapper it returns must equal the one
+// built from the final text.
+func TestApplyChangesMapper(t *testing.T) {
+	rng := func(l1, c1, l2, c2 uint32) *protocol.Range {
+		return &protocol.Range{Start: protocol.Position{Line: l1, Character: c1}, End: protocol.Position{Line: l2, Character: c2}}
+	}
+	m := NewMapper([]byte("CCO a\r\nC[C@H](F)Cl é\nF/C=C/F\n"), EncodingUTF16)
+	changes := []contentChange{
+		{Range: rng(1, 2, 1, 4), Text: "@@"},
+		{Range: rng(0, 5, 1, 0), Text: "\n\r\n"},
+		{Text: "N\rO\n"},
+		{Range: rng(1, 0, 1, 1), Text: "😀\r"},
+		{Range: rng(2, 0, 2, 0), Text: "last"},
+	}
+	for _, tt := range []struct {
+		n    int
+		want string
+	}{
+		{2, "CCO a\n\r\nC[@@H](F)Cl é\nF/C=C/F\n"},
+		{5, "N\r😀\r\nlast"},
+	} {
+		got, err := applyChanges(m, EncodingUTF16, changes[:tt.n])
+		if err != nil {
+			t.Fatal(err)
+		}
+		want := NewMapper([]byte(tt.want), EncodingUTF16)
+		if string(got.Content()) != string(want.Content()) || !slices.Equal(got.lineStarts, want.lineStarts) || !slices.Equal(got.wide, want.wide) {
+			t.Errorf("%d changes: got %q %v %v, want %q %v %v", tt.n, got.Content(), got.lineStarts, got.wide, want.Content(), want.lineStarts, want.wide)
+		}
 	}
 }

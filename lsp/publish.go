@@ -191,6 +191,14 @@ func appendString(b []byte, s string) []byte {
 	b = append(b, '"')
 	start, checked := 0, false
 	for i := 0; i < len(s); i++ {
+		// Eight bytes at a time while none needs a look: most messages
+		// are plain ASCII from end to end.
+		for i+8 <= len(s) && plain8(s[i:i+8]) {
+			i += 8
+		}
+		if i == len(s) {
+			break
+		}
 		c := s[i]
 		if c >= utf8.RuneSelf {
 			// the rest is checked once, at its first byte outside ASCII
@@ -221,4 +229,26 @@ func appendString(b []byte, s string) []byte {
 	}
 	b = append(b, s[start:]...)
 	return append(b, '"')
+}
+
+// plain8 reports whether the eight bytes of s are ASCII that a JSON
+// string holds as it is: none is a control character, a quote, a
+// backslash or a byte outside ASCII.
+func plain8(s string) bool {
+	const (
+		ones  = 0x0101010101010101
+		highs = 0x8080808080808080
+	)
+	_ = s[7] // one bounds check, and one load of the word
+	x := uint64(s[0]) | uint64(s[1])<<8 | uint64(s[2])<<16 | uint64(s[3])<<24 |
+		uint64(s[4])<<32 | uint64(s[5])<<40 | uint64(s[6])<<48 | uint64(s[7])<<56
+	// A byte is flagged when its high bit is set, when it is below 0x20,
+	// or when it equals '"' or '\\' (a zero byte after the xor); the
+	// tests borrow only into bytes above a flagged one, so a word without
+	// flags is exact.
+	below := x - ones*0x20
+	quote := x ^ (ones * '"')
+	backslash := x ^ (ones * '\\')
+	flags := (x | below | (quote-ones)&^quote | (backslash-ones)&^backslash) & highs
+	return flags == 0
 }

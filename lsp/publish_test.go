@@ -137,3 +137,37 @@ func TestAppendString(t *testing.T) {
 		}
 	}
 }
+
+// TestAppendStringWords checks appendString on longer texts, which it
+// reads eight bytes at a time: every byte that needs an escape or a look
+// (RFC 8259, section 7: quote, backslash, controls; and bytes outside
+// ASCII) at every place of a word, among plain text, against
+// encoding/json as in TestAppendString.
+func TestAppendStringWords(t *testing.T) {
+	special := []string{"\"", "\\", "\x00", "\x1f", "\n", "\x7f", "é", "\xff", " ", "!", "#", "[", "]", "~"}
+	for _, sp := range special {
+		for at := 0; at < 20; at++ {
+			s := strings.Repeat("C", at) + sp + strings.Repeat("a", 20-at)
+			var g, w string
+			if err := json.Unmarshal(appendString(nil, s), &g); err != nil {
+				t.Fatalf("%q: %v", s, err)
+			}
+			q, _ := json.Marshal(s)
+			json.Unmarshal(q, &w)
+			if g != w {
+				t.Errorf("%q: %q, want %q", s, g, w)
+			}
+		}
+	}
+	for c := 0; c < 256; c++ {
+		word := strings.Repeat(string([]byte{byte(c)}), 8)
+		want := c >= 0x20 && c < 0x80 && c != '"' && c != '\\'
+		if got := plain8(word); got != want {
+			t.Errorf("plain8(%q) = %v, want %v", word, got, want)
+		}
+		mixed := "abc" + string([]byte{byte(c)}) + "defg"
+		if got := plain8(mixed); got != want {
+			t.Errorf("plain8(%q) = %v, want %v", mixed, got, want)
+		}
+	}
+}

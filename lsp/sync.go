@@ -65,7 +65,7 @@ func (s *Server) change(uri string, version int32, changes []contentChange) erro
 		s.log.Warn("document version did not increase", zap.String("uri", uri),
 			zap.Int32("had", old.Version), zap.Int32("got", version))
 	}
-	content, err := applyChanges(old.mapper, enc, changes)
+	mapper, err := applyChanges(old.mapper, enc, changes)
 	if err != nil {
 		// The client and the server now disagree on the text; keeping
 		// the old version is the least wrong, and the log says so.
@@ -73,7 +73,7 @@ func (s *Server) change(uri string, version int32, changes []contentChange) erro
 	}
 	next := *old
 	next.Version = version
-	next.mapper = NewMapper(content, enc)
+	next.mapper = mapper
 	s.mu.Lock()
 	if cur := s.snap.files[uri]; cur != old {
 		s.mu.Unlock()
@@ -94,18 +94,16 @@ func (s *Server) change(uri string, version int32, changes []contentChange) erro
 // applyChanges applies content changes to a text in order: a change
 // without a range replaces the whole text, one with a range replaces that
 // range of the text as the previous change left it (LSP 3.17,
-// "DidChangeTextDocument Notification").
-func applyChanges(m *Mapper, enc PositionEncoding, changes []contentChange) ([]byte, error) {
-	content := m.Content()
+// "DidChangeTextDocument Notification"). It returns the mapper of the
+// new text, whose line table is moved from the old one's where a change
+// has a range.
+func applyChanges(m *Mapper, enc PositionEncoding, changes []contentChange) (*Mapper, error) {
 	for i, ch := range changes {
 		if ch.Range == nil {
-			content = []byte(ch.Text)
-			m = nil
+			m = NewMapper([]byte(ch.Text), enc)
 			continue
 		}
-		if m == nil {
-			m = NewMapper(content, enc)
-		}
+		content := m.Content()
 		span, err := m.RangeToSpan(*ch.Range)
 		if err != nil {
 			return nil, fmt.Errorf("change %d: %w", i, err)
@@ -114,10 +112,9 @@ func applyChanges(m *Mapper, enc PositionEncoding, changes []contentChange) ([]b
 		next = append(next, content[:span.Start]...)
 		next = append(next, ch.Text...)
 		next = append(next, content[span.End:]...)
-		content = next
-		m = nil
+		m = m.Replace(span.Start, span.End, len(ch.Text), next)
 	}
-	return content, nil
+	return m, nil
 }
 
 // didClose drops a document; its diagnostics are cleared.

@@ -74,6 +74,12 @@ type Result struct {
 	// Relate). Reanalyze reuses both for the records an edit left alone.
 	own [][]Diagnostic
 	rel []*relation
+	// ownAt, when not nil, is where each record started when its own
+	// findings were made: Reanalyze moves records without moving their
+	// findings, assemble does (nil: where the record is).
+	ownAt []int
+	// prekeys, when not nil, are the records' pre-keys (Reanalyze).
+	prekeys []prekey
 	// occArrays counts the arrays the records' occurrences lie in
 	// (Reanalyze).
 	occArrays int

@@ -8,8 +8,12 @@ package document
 
 import (
 	"bytes"
+	"runtime"
+	"slices"
 	"sort"
 	"strings"
+	"sync"
+	"sync/atomic"
 
 	"stereoline/notation"
 	"stereoline/notation/find"
@@ -61,56 +65,101 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	next := &Result{Name: name, Content: content, Kind: prev.Kind, cfg: &cfg, related: true}
 	next.Records = make([]Record, n)
 	next.own = make([][]Diagnostic, n)
+	next.ownAt = make([]int, n)
 	next.rel = make([]*relation, n)
+	if prev.lines != nil {
+		next.lines = movedLines(prev.lines, content, from, oldTo, newTo)
+	}
 	copy(next.Records, prev.Records[:i0])
 	copy(next.own, prev.own[:i0])
+	prevOwnAt := prev.ownAt
+	if prevOwnAt == nil {
+		// a result of Analyze: the findings were made where the records are
+		prevOwnAt = make([]int, len(prev.Records))
+		for i := range prev.Records {
+			prevOwnAt[i] = prev.Records[i].Occ.Span.Start
+		}
+	}
+	copy(next.ownAt, prevOwnAt[:i0])
+	prevKeys := prev.prekeys
+	if prevKeys == nil {
+		prevKeys = make([]prekey, len(prev.Records))
+		for i := range prev.Records {
+			prevKeys[i] = prekeyOf(&prev.Records[i])
+		}
+	}
+	next.prekeys = make([]prekey, n)
+	copy(next.prekeys, prevKeys[:i0])
+	copy(next.prekeys[i1+dn:], prevKeys[i1:])
 	parallel(len(occs), func(k int) {
 		i := i0 + k
 		an, f := a.cache.get(occs[k].Text, cfg.Reading.notation(), cfg.Limits.limits())
 		next.Records[i] = Record{Occ: &occs[k], an: an}
 		next.own[i] = next.recordFindings(i, f)
+		next.ownAt[i] = occs[k].Span.Start
+		next.prekeys[i] = prekeyOf(&next.Records[i])
 	})
+	// The records after the edit keep their findings where they were
+	// made (ownAt says where); assemble moves them. Their occurrences
+	// are moved here, into blocks (a block the records before a later
+	// edit still point into is the only one kept for them).
 	moved := prev.Records[i1:]
-	var shifted []find.Occurrence
-	if delta != 0 {
-		shifted = make([]find.Occurrence, len(moved))
-	}
-	for k := range moved {
-		i := i1 + dn + k
-		rec := moved[k]
-		if delta != 0 {
-			shifted[k] = *rec.Occ
-			shifted[k].Shift(delta)
-			rec.Occ = &shifted[k]
-		}
-		next.Records[i] = rec
-		next.own[i] = moveDiagnostics(prev.own[i1+k], delta, i)
-	}
-	next.occArrays = prev.occArrays + 1
+	copy(next.Records[i1+dn:], moved)
+	copy(next.own[i1+dn:], prev.own[i1:])
+	copy(next.ownAt[i1+dn:], prevOwnAt[i1:])
+	next.occArrays = max(prev.occArrays, 1) + 1
 	if delta != 0 {
 		next.occArrays++
+		shiftOccurrences(next.Records[i1+dn:], delta)
 	}
 	if next.occArrays > maxOccArrays {
 		next.compactOccurrences()
 	}
-	next.relateAgain(prev, i0, i1, dn, delta, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
-	next.assemble()
+	next.relateAgain(prev, prevKeys, i0, i1, dn, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
+	next.assembleFrom(prev, i0, i1, dn, delta, oldTo)
 	return next
 }
 
-// maxOccArrays bounds the arrays of occurrences the records of a list
-// point into after edits. Each edit moves the records after it into an
-// array of its own while the records before it keep pointing into older
-// arrays, which stay whole in memory; past the bound the occurrences are
-// copied into one array again.
-const maxOccArrays = 3
+// occBlock is the number of occurrences in one block of moved ones: a
+// block (168 bytes an occurrence) stays below 32 KB, the largest object
+// the runtime allocates from its per-size lists rather than as pages of
+// its own.
+const occBlock = 192
 
-// compactOccurrences copies the occurrences of r's records into one array.
+// maxOccArrays bounds the arrays of occurrences the records of a list
+// point into after edits that are used in part only. Each edit puts the
+// records after it into blocks of their own, while the records before
+// it keep pointing into older arrays: the array or block at the place of
+// the edit stays whole in memory for the part of it before the edit.
+// Past the bound the occurrences are copied into blocks again, so the
+// memory so held stays below the bound times a block.
+const maxOccArrays = 32
+
+// shiftOccurrences points recs at copies of their occurrences moved by
+// delta bytes, in blocks.
+func shiftOccurrences(recs []Record, delta int) {
+	var block []find.Occurrence
+	for k := range recs {
+		if len(block) == 0 {
+			block = make([]find.Occurrence, min(occBlock, len(recs)-k))
+		}
+		block[0] = *recs[k].Occ
+		block[0].Shift(delta)
+		recs[k].Occ = &block[0]
+		block = block[1:]
+	}
+}
+
+// compactOccurrences copies the occurrences of r's records into blocks.
 func (r *Result) compactOccurrences() {
-	occs := make([]find.Occurrence, len(r.Records))
+	var block []find.Occurrence
 	for i := range r.Records {
-		occs[i] = *r.Records[i].Occ
-		r.Records[i].Occ = &occs[i]
+		if len(block) == 0 {
+			block = make([]find.Occurrence, min(occBlock, len(r.Records)-i))
+		}
+		block[0] = *r.Records[i].Occ
+		r.Records[i].Occ = &block[0]
+		block = block[1:]
 	}
 	r.occArrays = 1
 }
@@ -146,29 +195,26 @@ func changedLines(old, new []byte) (from, oldTo, newTo int) {
 	return from, oldTo, newTo
 }
 
-// moveDiagnostics returns a record's findings moved by delta bytes, for
-// record index i; the slice itself when nothing moves.
-func moveDiagnostics(ds []Diagnostic, delta, i int) []Diagnostic {
-	if len(ds) == 0 || delta == 0 && ds[0].Record == i {
-		return ds
-	}
-	out := make([]Diagnostic, len(ds))
-	for k, d := range ds {
-		out[k] = moveDiagnostic(d, delta, i)
-	}
-	return out
-}
-
 // moveDiagnostic moves one finding by delta bytes, for record index i.
-// Its related places move too: they lie in the same record.
-func moveDiagnostic(d Diagnostic, delta, i int) Diagnostic {
+// Its related places and fixes move too: they lie in the same record.
+// New slices are made for them; related places of one element are taken
+// from slab, which is returned with what is left of it.
+func moveDiagnostic(d Diagnostic, delta, i int, slab []Related) (Diagnostic, []Related) {
 	d.Record = i
 	if delta == 0 {
-		return d
+		return d, slab
 	}
 	d.Span = shift(d.Span, delta)
 	if d.Related != nil {
-		rel := make([]Related, len(d.Related))
+		var rel []Related
+		if len(d.Related) == 1 {
+			if len(slab) == 0 {
+				slab = make([]Related, slabSize)
+			}
+			rel, slab = slab[:1:1], slab[1:]
+		} else {
+			rel = make([]Related, len(d.Related))
+		}
 		for k, r := range d.Related {
 			r.Span = shift(r.Span, delta)
 			rel[k] = r
@@ -188,32 +234,56 @@ func moveDiagnostic(d Diagnostic, delta, i int) Diagnostic {
 		}
 		d.Fixes = fixes
 	}
-	return d
+	return d, slab
+}
+
+// slabSize is how many related places of one element assemble allocates
+// at a time.
+const slabSize = 512
+
+// prekey is a record's constitution pre-key, ok when it has one (an
+// identifiable record). Results keep them in an array of their own for
+// Reanalyze, which looks at every record's: reading them through the
+// records' analyses costs a cache miss a record.
+type prekey struct {
+	key uint64
+	ok  bool
+}
+
+func prekeyOf(rec *Record) prekey {
+	if rec.an == nil || !rec.an.identifiable {
+		return prekey{}
+	}
+	return prekey{rec.an.preKey, true}
 }
 
 // relateAgain sets the relations of the records of r, a new version of
 // prev in which prev's records [i0, i1) were replaced by r's records
-// [i0, i1+dn) and the records after them moved by delta bytes (and by
-// some lines when linesMoved). The records of every pre-key the change
-// touched are related again; the others keep their relations, moved.
-func (r *Result) relateAgain(prev *Result, i0, i1, dn, delta int, linesMoved bool) {
-	touched := map[uint64]bool{}
-	for _, rec := range prev.Records[i0:i1] {
-		if rec.an != nil && rec.an.identifiable {
-			touched[rec.an.preKey] = true
+// [i0, i1+dn) and the records after them moved (by some lines when
+// linesMoved); prevKeys are prev's pre-keys. The records of every
+// pre-key the change touched are related again; the others keep their
+// relations. A relation's places and record index are set by assemble,
+// so a relation is copied only when the index or the line of its
+// earlier record changed.
+func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn int, linesMoved bool) {
+	var touched []uint64 // a few pre-keys: a slice beats a map
+	touch := func(keys []prekey) {
+		for _, k := range keys {
+			if k.ok && !slices.Contains(touched, k.key) {
+				touched = append(touched, k.key)
+			}
 		}
 	}
-	for _, rec := range r.Records[i0 : i1+dn] {
-		if rec.an != nil && rec.an.identifiable {
-			touched[rec.an.preKey] = true
-		}
-	}
-	groups := map[uint64][]int{}
-	for i := range r.Records {
-		rec := &r.Records[i]
-		if rec.an != nil && rec.an.identifiable && touched[rec.an.preKey] {
-			groups[rec.an.preKey] = append(groups[rec.an.preKey], i)
-			continue
+	touch(prevKeys[i0:i1])
+	touch(r.prekeys[i0 : i1+dn])
+	groups := make([][]int, len(touched)) // in the order of touched
+	var renamed []*relation
+	for i, k := range r.prekeys {
+		if k.ok && len(touched) > 0 {
+			if g := slices.Index(touched, k.key); g >= 0 {
+				groups[g] = append(groups[g], i)
+				continue
+			}
 		}
 		if i >= i0 && i < i1+dn {
 			continue // a new record without identity keys
@@ -223,32 +293,48 @@ func (r *Result) relateAgain(prev *Result, i0, i1, dn, delta int, linesMoved boo
 		if i >= i1+dn {
 			old = i - dn
 		}
-		if prev.rel[old] == nil {
+		rel := prev.rel[old]
+		if rel == nil {
 			continue
 		}
-		rel := prev.rel[old]
-		moved := i >= i1+dn
-		earlierMoved := rel.earlier >= i1
-		if moved || earlierMoved {
-			// A relation is shared between versions: a moved one is a copy.
+		// A record before the edit has its earlier record before it too.
+		if (dn != 0 || linesMoved) && i >= i1+dn && rel.earlier >= i1 {
+			// A relation is shared between versions: a changed one is a copy.
 			c := *rel
 			rel = &c
-			if rel.earlier >= i1 {
-				rel.earlier += dn
+			rel.earlier += dn
+			if linesMoved {
+				renamed = append(renamed, rel)
 			}
-			d := moveDiagnostic(rel.d, 0, i)
-			if moved && delta != 0 {
-				d.Span = shift(d.Span, delta)
-			}
-			d.Related = []Related{{Span: r.Records[rel.earlier].Occ.Span, Message: d.Related[0].Message}}
-			if earlierMoved && linesMoved {
-				d.Message = r.relationMessage(rel.tmpl, rel.earlier)
-			}
-			rel.d = d
 		}
 		r.rel[i] = rel
 	}
+	if len(renamed) > 0 {
+		r.lineOf(0) // the line table, before it is read in parallel
+		// The relations of a group often name the same earlier record
+		// (its first): each record is named once.
+		names := make(map[int]string, len(renamed)/2)
+		var earlier []int
+		for _, rel := range renamed {
+			if _, ok := names[rel.earlier]; !ok {
+				names[rel.earlier] = ""
+				earlier = append(earlier, rel.earlier)
+			}
+		}
+		described := make([]string, len(earlier))
+		parallel(len(earlier), func(k int) { described[k] = r.describeRecord(earlier[k]) })
+		for k, j := range earlier {
+			names[j] = described[k]
+		}
+		parallel(len(renamed), func(k int) {
+			rel := renamed[k]
+			rel.d.Message = strings.ReplaceAll(rel.tmpl, named, names[rel.earlier])
+		})
+	}
 	for _, members := range groups {
+		if len(members) == 0 {
+			continue
+		}
 		if len(members) < 2 {
 			r.Records[members[0]].Identity = nil
 			continue
@@ -257,36 +343,230 @@ func (r *Result) relateAgain(prev *Result, i0, i1, dn, delta int, linesMoved boo
 	}
 }
 
-// relationMessage fills a relation's message template with the name of
-// the earlier record.
-func (r *Result) relationMessage(tmpl string, earlier int) string {
-	return strings.ReplaceAll(tmpl, named, r.describeRecord(earlier))
-}
-
 // assemble makes r.Diagnostics from the records' own findings and their
 // relations, in the order sortDiagnostics gives: a list's records do not
-// overlap, and a relation spans its record.
+// overlap, and a relation spans its record. Findings are moved to where
+// their records are now (own findings were made at ownAt; a relation
+// spans its record and names its earlier record's place) and given the
+// records' indices. The records are done in chunks on all cores: the
+// work is reading findings spread over the heap.
 func (r *Result) assemble() {
-	n := 0
-	for i := range r.own {
-		n += len(r.own[i])
+	const chunk = 1024 // the tests' lists of 2,000 records take two
+	chunks := (len(r.own) + chunk - 1) / chunk
+	at := make([]int, chunks+1)
+	for c := range chunks {
+		n := 0
+		for i := c * chunk; i < min((c+1)*chunk, len(r.own)); i++ {
+			n += len(r.own[i])
+			if r.rel[i] != nil {
+				n++
+			}
+		}
+		at[c+1] = at[c] + n
+	}
+	out := make([]Diagnostic, at[chunks])
+	spread(chunks, func(c int) {
+		r.assembleRecords(out[at[c]:at[c+1]], c*chunk, min((c+1)*chunk, len(r.own)))
+	})
+	r.Diagnostics = out
+}
+
+// assembleRecords writes the findings of records [from, to) into out,
+// which holds exactly them.
+func (r *Result) assembleRecords(out []Diagnostic, from, to int) {
+	var slab []Related
+	p := 0
+	for i := from; i < to; i++ {
+		n := len(r.own[i])
 		if r.rel[i] != nil {
 			n++
 		}
+		if n == 0 {
+			continue // most records: their occurrences are not read
+		}
+		slab = r.assembleRecord(out[p:p+n], i, slab)
+		p += n
 	}
-	out := make([]Diagnostic, 0, n)
-	for i, own := range r.own {
-		if r.rel[i] == nil {
-			out = append(out, own...)
+}
+
+// assembleRecord writes the findings of record i into out, which holds
+// exactly them, taking related places of one element from slab; it
+// returns what is left of slab.
+func (r *Result) assembleRecord(out []Diagnostic, i int, slab []Related) []Related {
+	own := r.own[i]
+	span := r.Records[i].Occ.Span
+	delta := 0
+	if r.ownAt != nil {
+		delta = span.Start - r.ownAt[i]
+	}
+	for k := range own {
+		if own[k].Record == i && delta == 0 {
+			out[k] = own[k]
 			continue
 		}
-		d := r.rel[i].d
-		k := sort.Search(len(own), func(k int) bool { return before(d.Span, own[k].Span) })
-		out = append(out, own[:k]...)
-		out = append(out, d)
-		out = append(out, own[k:]...)
+		out[k], slab = moveDiagnostic(own[k], delta, i, slab)
+	}
+	rel := r.rel[i]
+	if rel == nil {
+		return slab
+	}
+	d := rel.d
+	d.Record = i
+	d.Span = span
+	if at := r.Records[rel.earlier].Occ.Span; d.Related[0].Span != at {
+		if len(slab) == 0 {
+			slab = make([]Related, slabSize)
+		}
+		slab[0] = Related{Span: at, Message: d.Related[0].Message}
+		d.Related, slab = slab[:1:1], slab[1:]
+	}
+	mine := out[:len(own)]
+	k := sort.Search(len(mine), func(k int) bool { return before(d.Span, mine[k].Span) })
+	copy(out[k+1:], mine[k:])
+	out[k] = d
+	return slab
+}
+
+// assembleFrom is assemble for r made from prev by replacing prev's
+// records [i0, i1) with r's records [i0, i1+dn) and moving the records
+// after them by delta bytes (oldTo is where they started in prev's
+// text). The findings of the records whose relation did not change are
+// read from prev.Diagnostics, in order, and moved; only the others are
+// assembled from the records' findings and relations.
+func (r *Result) assembleFrom(prev *Result, i0, i1, dn, delta, oldTo int) {
+	if len(prev.own) != len(prev.Records) || len(prev.rel) != len(prev.Records) {
+		r.assemble()
+		return
+	}
+	count := func(own [][]Diagnostic, rel []*relation, i int) int {
+		if rel[i] != nil {
+			return len(own[i]) + 1
+		}
+		return len(own[i])
+	}
+	n := 0
+	for i := range r.own {
+		n += count(r.own, r.rel, i)
+	}
+	pd := prev.Diagnostics
+	out := make([]Diagnostic, n)
+	var slab []Related
+	p, q := 0, 0 // next finding of pd, of out
+	// pd[copied:p] are findings that go to out[q:] as they are, copied
+	// in one go before anything else is written.
+	copied := 0
+	flush := func() {
+		q += copy(out[q:], pd[copied:p])
+	}
+	for i := range r.Records {
+		if i == i0 {
+			flush()
+			for old := i0; old < i1; old++ {
+				p += count(prev.own, prev.rel, old)
+			}
+			copied = p
+		}
+		old := i
+		if i >= i1+dn {
+			old = i - dn
+		}
+		fresh := i >= i0 && i < i1+dn
+		if !fresh {
+			run := count(prev.own, prev.rel, old)
+			if r.rel[i] == prev.rel[old] {
+				if i < i1+dn || delta == 0 && dn == 0 {
+					p += run
+					continue
+				}
+				flush()
+				src := pd[p : p+run]
+				p += run
+				copied = p
+				for k := range src {
+					d := src[k]
+					if IsRelation(d.Code) && r.rel[i] != nil {
+						d.Record = i
+						d.Span = shift(d.Span, delta)
+						if at := d.Related[0].Span; at.Start >= oldTo && delta != 0 {
+							if len(slab) == 0 {
+								slab = make([]Related, slabSize)
+							}
+							slab[0] = Related{Span: shift(at, delta), Message: d.Related[0].Message}
+							d.Related, slab = slab[:1:1], slab[1:]
+						}
+					} else {
+						d, slab = moveDiagnostic(d, delta, i, slab)
+					}
+					out[q] = d
+					q++
+				}
+				continue
+			}
+			flush()
+			p += run
+			copied = p
+		} else {
+			flush()
+			copied = p
+		}
+		k := count(r.own, r.rel, i)
+		slab = r.assembleRecord(out[q:q+k], i, slab)
+		q += k
+	}
+	flush()
+	if p != len(pd) || q != n {
+		// prev's findings were not in record order: not expected of a list
+		r.assemble()
+		return
 	}
 	r.Diagnostics = out
+}
+
+// spread calls f(0) ... f(n-1) on all cores; each call is a large piece
+// of work.
+func spread(n int, f func(int)) {
+	workers := min(runtime.GOMAXPROCS(0), n)
+	if workers < 2 {
+		for i := range n {
+			f(i)
+		}
+		return
+	}
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := int(next.Add(1)) - 1; i < n; i = int(next.Add(1)) - 1 {
+				f(i)
+			}
+		}()
+	}
+	wg.Wait()
+}
+
+// movedLines returns lineStarts of a text from lines, those of an older
+// version in which old[from:oldTo] became text[from:newTo] (changedLines):
+// the lines before the change are kept, those it made are found, and
+// those after it are moved.
+func movedLines(lines []int, text []byte, from, oldTo, newTo int) []int {
+	k := sort.SearchInts(lines, from+1) // lines[:k] start at or before from
+	after := sort.SearchInts(lines, oldTo+1)
+	out := make([]int, k, len(lines)+lineCount(text[from:newTo])+1)
+	copy(out, lines[:k])
+	for off := from; ; {
+		j := bytes.IndexByte(text[off:newTo], '\n')
+		if j < 0 {
+			break
+		}
+		off += j + 1
+		out = append(out, off)
+	}
+	for _, l := range lines[after:] {
+		out = append(out, l+newTo-oldTo)
+	}
+	return out
 }
 
 // lineStarts returns the offsets at which the lines of a text start.

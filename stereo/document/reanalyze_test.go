@@ -33,6 +33,12 @@ var editTemplates = []string{
 	"C[C*H](F)CC[C*H](F)C",
 	"C1CC1[C*H](N)O",
 	"C1CC(C",
+	// Two records of testdata/scale/make_list.py's list (NCI set of
+	// rdkit-data), marks chosen at random: findings with related places
+	// (an impossible centre) and with fixes (an ineffective mark), which
+	// an edit before them moves.
+	"O=[P*H](O)c1ccccc1",
+	"CO[C*H](c1ccccc1)[C*H]([Hg]Br)C(=O)O[C*H]1C[C*H]2CC[C*]1(C)C2(C)C",
 }
 
 func editRecord(rng *rand.Rand, i int) string {
@@ -79,6 +85,16 @@ func TestReanalyzeEqualsAnalyze(t *testing.T) {
 		next := a.reanalyzeList(prev, "edit.smi", "", []byte(text))
 		if next != nil {
 			incremental++
+			if next.lines != nil && !reflect.DeepEqual(next.lines, lineStarts(next.Content)) {
+				t.Fatalf("step %d (%s): the line table moved from the last version differs from the text's", step, what)
+			}
+			// The findings moved from the last version's (assembleFrom)
+			// equal those assembled from the records (assemble).
+			whole := *next
+			whole.assemble()
+			if !reflect.DeepEqual(whole.Diagnostics, next.Diagnostics) {
+				t.Fatalf("step %d (%s): assemble and assembleFrom differ", step, what)
+			}
 		} else {
 			next = a.Analyze("edit.smi", "", []byte(text))
 		}
@@ -172,5 +188,43 @@ func compareResults(t *testing.T, what string, got, want *Result) {
 			t.Errorf("%s: finding %d:\n got %+v\nwant %+v", what, i, got.Diagnostics[i], want.Diagnostics[i])
 			return
 		}
+	}
+}
+
+// TestReanalyzeLongSession makes many edits that move the records after
+// them, so the arrays the moved occurrences lie in are copied together
+// again (compactOccurrences), and checks the results against a fresh
+// analysis as TestReanalyzeEqualsAnalyze does.
+func TestReanalyzeLongSession(t *testing.T) {
+	rng := rand.New(rand.NewSource(3))
+	a := NewAnalyzer(DefaultConfig())
+	lines := editList(rng, 1500)
+	text := strings.Join(lines, "\n") + "\n"
+	prev := a.Analyze("edit.smi", "", []byte(text))
+	compacted := 0
+	for step := 0; step < 3*maxOccArrays; step++ {
+		i := rng.Intn(len(lines))
+		lines[i] += "x" // a longer title moves the records after it
+		text = strings.Join(lines, "\n") + "\n"
+		next := a.reanalyzeList(prev, "edit.smi", "", []byte(text))
+		if next == nil {
+			// an edit of the lines the layout is read from
+			next = a.Analyze("edit.smi", "", []byte(text))
+		} else if next.occArrays < prev.occArrays {
+			compacted++
+		}
+		if next.occArrays > maxOccArrays {
+			t.Fatalf("step %d: %d arrays of occurrences, more than %d", step, next.occArrays, maxOccArrays)
+		}
+		if step%8 == 7 || step == 3*maxOccArrays-1 {
+			compareResults(t, fmt.Sprintf("step %d (title of line %d)", step, i), next, a.Analyze("edit.smi", "", []byte(text)))
+			if t.Failed() {
+				return
+			}
+		}
+		prev = next
+	}
+	if compacted == 0 {
+		t.Errorf("the occurrences were never copied together")
 	}
 }

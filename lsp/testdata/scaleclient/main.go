@@ -41,6 +41,7 @@ func main() {
 	rounds := flag.Int("rounds", 5, "edits of each kind")
 	debounce := flag.Duration("debounce", 100*time.Millisecond, "the server's debounce, subtracted from edit times")
 	serverLog := flag.String("log", "", "pass --log FILE -v to the server")
+	only := flag.String("kinds", "mark,title,insert,delete", "the kinds of edit to make, in this order")
 	flag.Parse()
 	if *list == "" {
 		fmt.Fprintln(os.Stderr, "usage: scaleclient -bin BIN -list FILE.smi")
@@ -90,14 +91,21 @@ func main() {
 
 	rng := rand.New(rand.NewSource(1))
 	version := int32(1)
-	kinds := []struct {
+	type kind struct {
 		name string
 		make func(*document, *rand.Rand) (edit, bool)
-	}{
-		{"change a mark", (*document).markEdit},
-		{"change a title", (*document).titleEdit},
-		{"insert a line", (*document).insertEdit},
-		{"delete a line", (*document).deleteEdit},
+	}
+	known := map[string]kind{
+		"mark":   {"change a mark", (*document).markEdit},
+		"title":  {"change a title", (*document).titleEdit},
+		"insert": {"insert a line", (*document).insertEdit},
+		"delete": {"delete a line", (*document).deleteEdit},
+	}
+	var kinds []kind
+	for _, k := range strings.Split(*only, ",") {
+		if k, ok := known[k]; ok {
+			kinds = append(kinds, k)
+		}
 	}
 	fmt.Printf("%-16s %8s %8s %8s   (median of %d; debounce %v; server CPU time per edit)\n", "edit", "total", "net", "cpu", *rounds, *debounce)
 	for _, k := range kinds {

@@ -155,14 +155,15 @@ func BenchmarkScaleEdit(b *testing.B) {
 // protocol, what one edit of the list STEREOLINE_SCALE_LIST names costs
 // after its debounce: the new line table, the engine's Reanalyze from the
 // previous result and the publishDiagnostics JSON of the new result (in
-// parts, as the server writes it); a mark is toggled on a line in the
-// middle. It skips without the variable.
+// parts, made from the last publication, as the server makes it); a mark
+// is toggled on a line in the middle. It skips without the variable.
 func BenchmarkScaleRepublish(b *testing.B) {
 	text := scaleList(b)
 	mid := bytes.IndexByte(text[len(text)/2:], '@') + len(text)/2
 	a := document.NewAnalyzer(document.DefaultConfig())
 	prev := a.Analyze("scale.smi", "", text)
 	versions := [2][]byte{text, append(append(append([]byte(nil), text[:mid]...), '@'), text[mid:]...)}
+	var last *publication
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
@@ -170,12 +171,12 @@ func BenchmarkScaleRepublish(b *testing.B) {
 		f := &fileVersion{URI: "file:///bench/scale.smi", Name: "scale.smi", mapper: NewMapper(content, EncodingUTF16)}
 		next := a.Reanalyze(prev, "scale.smi", "", content)
 		v := int32(i)
-		parts, err := diagnosticsParts(f, next, &v)
+		p, err := publish(last, f, next, &v)
 		if err != nil {
 			b.Fatal(err)
 		}
-		releaseParts(parts)
-		prev = next
+		last.release(p)
+		last, prev = p, next
 	}
 }
 
@@ -243,6 +244,7 @@ func BenchmarkScaleEditKinds(b *testing.B) {
 			rng := rand.New(rand.NewSource(1))
 			prev, content := base, text
 			m := NewMapper(text, EncodingUTF16)
+			var last *publication
 			var mapping, analysing, publishing time.Duration
 			b.ReportAllocs()
 			b.ResetTimer()
@@ -256,11 +258,12 @@ func BenchmarkScaleEditKinds(b *testing.B) {
 				res := a.Reanalyze(prev, "scale.smi", "", content)
 				t2 := time.Now()
 				v := int32(i)
-				parts, err := diagnosticsParts(f, res, &v)
+				p, err := publish(last, f, res, &v)
 				if err != nil {
 					b.Fatal(err)
 				}
-				releaseParts(parts)
+				last.release(p)
+				last = p
 				t3 := time.Now()
 				mapping, analysing, publishing = mapping+t1.Sub(t0), analysing+t2.Sub(t1), publishing+t3.Sub(t2)
 				prev = res
@@ -305,10 +308,10 @@ func BenchmarkScalePublish(b *testing.B) {
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
 		v := int32(i)
-		parts, err := diagnosticsParts(f, res, &v)
+		p, err := publish(nil, f, res, &v)
 		if err != nil {
 			b.Fatal(err)
 		}
-		releaseParts(parts)
+		p.release(nil)
 	}
 }

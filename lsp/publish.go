@@ -17,6 +17,7 @@ import (
 
 	"go.lsp.dev/protocol"
 
+	"stereoline/notation"
 	"stereoline/stereo/document"
 )
 
@@ -28,73 +29,161 @@ func diagnosticsJSON(f *fileVersion, res *document.Result, version *int32) (json
 	if err != nil {
 		return nil, err
 	}
-	defer releaseParts(parts)
 	return bytes.Join(parts, nil), nil
 }
 
-// partBuffers keeps the buffers of the parts of publications for the
-// next: a large list is published again on every edit, and buffers of
-// megabytes allocated afresh each time are garbage the collector must
-// clear and the runtime must fault in again.
+// diagnosticsParts is diagnosticsJSON in parts that are to be written one
+// after the other, written afresh.
+func diagnosticsParts(f *fileVersion, res *document.Result, version *int32) ([][]byte, error) {
+	p, err := publish(nil, f, res, version)
+	if err != nil {
+		return nil, err
+	}
+	return p.parts, nil
+}
+
+// A publication is the JSON of one publishDiagnostics notification of a
+// document, kept for the next: a one-line edit of a list of 100,000
+// records changes a few of its findings, and the JSON of the others is
+// the same bytes again wherever their lines did not move. The next
+// publication writes only the findings that changed and takes the
+// others' bytes from this one, without copying them.
+//
+// A publication and the buffers it refers to are owned by the one
+// goroutine that publishes the document (the worker publishes a document
+// once at a time); its parts must have been written before the next
+// publication of the document is made from it, which may give buffers
+// it no longer uses back for reuse.
+type publication struct {
+	uri      string
+	encoding PositionEncoding
+	content  []byte // the text the positions were computed in
+	lines    int    // its line count
+	// diags are the findings written: a result's, which is never changed
+	// once made (results are values), so they stay as they were
+	diags []document.Diagnostic
+	bufs  [][]byte // the buffers holding the findings' JSON
+	at    []jsonAt // where the JSON of each finding lies, in bufs
+	// parts are the params to write, one after the other: the head, the
+	// runs of findings' JSON and the commas between runs, the tail.
+	parts [][]byte
+}
+
+// jsonAt is where the JSON of one finding lies: bufs[buf][from:to].
+type jsonAt struct{ buf, from, to int32 }
+
+// Bounds that keep a chain of publications, each made from the one
+// before, from growing without bound: past them the next publication is
+// written afresh.
+const (
+	// maxPublicationParts bounds the parts of a publication; each edit
+	// may add a few.
+	maxPublicationParts = 4096
+	// A publication keeps buffers of at most twice the bytes it uses
+	// from them, and maxSpareBytes more.
+	maxSpareBytes = 4 << 20
+)
+
+var comma = []byte{','}
+
+// partBuffers keeps the buffers of publications that are no longer used
+// for the next: a large list is published again on every edit, and
+// buffers of megabytes allocated afresh each time are garbage the
+// collector must clear and the runtime must fault in again.
 var partBuffers sync.Pool
 
-// partBuffer returns an empty buffer for a part, reused when one is kept.
+// pooledBuffer is the size from which buffers are pooled; a smaller one
+// is allocated to its size, so a publication that keeps it keeps no
+// more than it uses.
+const pooledBuffer = 256 << 10
+
+// partBuffer returns an empty buffer for about size bytes, reused when
+// one of a similar size is kept.
 func partBuffer(size int) []byte {
-	if p, ok := partBuffers.Get().(*[]byte); ok && cap(*p) >= size/2 {
+	if size < pooledBuffer {
+		return make([]byte, 0, size)
+	}
+	if p, ok := partBuffers.Get().(*[]byte); ok && cap(*p) >= size/2 && cap(*p) <= 2*size {
 		return (*p)[:0]
 	}
 	return make([]byte, 0, size)
 }
 
-// releaseParts gives the buffers of written parts back for reuse; the
-// parts must not be used after.
-func releaseParts(parts [][]byte) {
-	for _, p := range parts[1 : len(parts)-1] {
-		if cap(p) >= 64<<10 {
-			p := p[:0]
-			partBuffers.Put(&p)
+// release gives the buffers of p back for reuse, except those next (which
+// may be nil) still uses; neither p's parts nor p may be used after.
+func (p *publication) release(next *publication) {
+	if p == nil {
+		return
+	}
+	for _, b := range p.bufs {
+		if cap(b) < pooledBuffer || next != nil && next.uses(b) {
+			continue
+		}
+		b = b[:0]
+		partBuffers.Put(&b)
+	}
+}
+
+// uses reports whether b is one of p's buffers.
+func (p *publication) uses(b []byte) bool {
+	for _, o := range p.bufs {
+		if cap(o) > 0 && cap(b) > 0 && &o[:1][0] == &b[:1][0] {
+			return true
 		}
 	}
+	return false
 }
 
 // publishChunk is how many findings one part of the JSON holds; the parts
 // of a large document are written on all cores.
 const publishChunk = 4096
 
-// diagnosticsParts is diagnosticsJSON in parts that are to be written one
-// after the other, so the megabytes of a large list are neither written
-// on one core nor copied into one buffer.
-func diagnosticsParts(f *fileVersion, res *document.Result, version *int32) ([][]byte, error) {
-	head := make([]byte, 0, 64+len(f.URI))
-	head = append(head, `{"uri":`...)
-	head = appendString(head, f.URI)
-	if version != nil {
-		head = append(head, `,"version":`...)
-		head = strconv.AppendInt(head, int64(*version), 10)
-	}
-	head = append(head, `,"diagnostics":[`...)
-	uri := appendString(nil, f.URI)
+// publish makes the publication of res for document version f: the JSON
+// of each finding that prev (the document's last publication, or nil)
+// wrote with the same bytes is taken from prev, the others are written,
+// on all cores when they are many. The caller gives prev's unused buffers
+// back with prev.release once the result replaces it.
+func publish(prev *publication, f *fileVersion, res *document.Result, version *int32) (*publication, error) {
 	ds := res.Diagnostics
-	chunks := (len(ds) + publishChunk - 1) / publishChunk
-	parts := make([][]byte, chunks+2)
-	parts[0] = head
-	errs := make([]error, chunks)
+	p := &publication{uri: f.URI, encoding: f.mapper.Encoding(), content: f.content(), lines: f.mapper.LineCount(),
+		diags: ds, at: make([]jsonAt, len(ds))}
+	reused := p.reuse(prev)
+	// the findings written afresh, in chunks written on all cores
+	type chunk struct{ from, to int }
+	var chunks []chunk
+	for i := 0; i < len(ds); {
+		if reused[i] {
+			i++
+			continue
+		}
+		j := i
+		for j < len(ds) && !reused[j] && j-i < publishChunk {
+			j++
+		}
+		chunks = append(chunks, chunk{i, j})
+		i = j
+	}
+	first := len(p.bufs)
+	p.bufs = append(p.bufs, make([][]byte, len(chunks))...)
+	uri := appendString(nil, f.URI)
+	errs := make([]error, len(chunks))
 	write := func(k int) {
-		from, to := k*publishChunk, min((k+1)*publishChunk, len(ds))
+		from, to := chunks[k].from, chunks[k].to
 		b := partBuffer((to - from) * 400)
 		var err error
 		c := cursor{m: f.mapper}
 		for i := from; i < to && err == nil; i++ {
-			if i > 0 {
+			if i > from {
 				b = append(b, ',')
 			}
+			start := len(b)
 			b, err = appendDiagnostic(b, &c, uri, &ds[i])
+			p.at[i] = jsonAt{buf: int32(first + k), from: int32(start), to: int32(len(b))}
 		}
 		errs[k] = err
-		parts[k+1] = b
+		p.bufs[first+k] = b
 	}
-	if workers := min(runtime.GOMAXPROCS(0), chunks); workers < 2 {
-		// a small document: written here, at once
+	if workers := min(runtime.GOMAXPROCS(0), len(chunks)); workers < 2 {
 		for k := range chunks {
 			write(k)
 		}
@@ -105,7 +194,7 @@ func diagnosticsParts(f *fileVersion, res *document.Result, version *int32) ([][
 			wg.Add(1)
 			go func() {
 				defer wg.Done()
-				for k := int(next.Add(1)) - 1; k < chunks; k = int(next.Add(1)) - 1 {
+				for k := int(next.Add(1)) - 1; k < len(chunks); k = int(next.Add(1)) - 1 {
 					write(k)
 				}
 			}()
@@ -117,8 +206,187 @@ func diagnosticsParts(f *fileVersion, res *document.Result, version *int32) ([][
 			return nil, err
 		}
 	}
-	parts[chunks+1] = []byte("]}")
-	return parts, nil
+
+	head := make([]byte, 0, 64+len(f.URI))
+	head = append(head, `{"uri":`...)
+	head = appendString(head, f.URI)
+	if version != nil {
+		head = append(head, `,"version":`...)
+		head = strconv.AppendInt(head, int64(*version), 10)
+	}
+	head = append(head, `,"diagnostics":[`...)
+	p.parts = append(p.parts, head)
+	// runs of findings whose JSON lies side by side in one buffer are one
+	// part
+	for i := 0; i < len(ds); {
+		run := p.at[i]
+		j := i + 1
+		for ; j < len(ds); j++ {
+			if a := p.at[j]; a.buf != run.buf || a.from != run.to+1 {
+				break
+			}
+			run.to = p.at[j].to
+		}
+		if i > 0 {
+			p.parts = append(p.parts, comma)
+		}
+		p.parts = append(p.parts, p.bufs[run.buf][run.from:run.to])
+		i = j
+	}
+	p.parts = append(p.parts, []byte("]}"))
+	return p, nil
+}
+
+// reuse sets p.bufs and p.at for the findings of p whose JSON prev holds
+// as it is to be written, and reports which those are. It finds none
+// when taking them would keep too many parts or too much of prev's
+// buffers unused.
+func (p *publication) reuse(prev *publication) []bool {
+	reused := make([]bool, len(p.diags))
+	if prev == nil || prev.uri != p.uri || prev.encoding != p.encoding {
+		return reused
+	}
+	m := newOffsetMap(prev, p)
+	ds, old := p.diags, prev.diags
+	bufs := make([]int32, len(prev.bufs)) // prev's buffer k is p's bufs[bufs[k]-1]; 0: unused
+	used, runs := 0, 0
+	k := 0
+	for i := range ds {
+		start, ok := m.old(ds[i].Span.Start)
+		if !ok {
+			continue
+		}
+		for k < len(old) && old[k].Span.Start < start {
+			k++
+		}
+		if k == len(old) {
+			break
+		}
+		if !m.same(&ds[i], &old[k]) {
+			continue
+		}
+		a := prev.at[k]
+		if bufs[a.buf] == 0 {
+			p.bufs = append(p.bufs, prev.bufs[a.buf])
+			bufs[a.buf] = int32(len(p.bufs))
+		}
+		a.buf = bufs[a.buf] - 1
+		if i == 0 || !reused[i-1] || p.at[i-1].buf != a.buf || p.at[i-1].to+1 != a.from {
+			runs++
+		}
+		p.at[i] = a
+		used += int(a.to - a.from)
+		reused[i] = true
+		k++
+	}
+	kept := 0
+	for _, b := range p.bufs {
+		kept += cap(b)
+	}
+	if 4*runs > maxPublicationParts || kept > 2*used+maxSpareBytes {
+		p.bufs = p.bufs[:0]
+		clear(reused)
+	}
+	return reused
+}
+
+// offsetMap maps offsets into the text of a new publication to offsets
+// into the text of the last one where both give the same LSP position:
+// before the first byte that differs, or, when the two have as many
+// lines, on the lines that begin after the last byte that differs.
+type offsetMap struct {
+	prefix int // offsets below it are the same in both texts
+	after  int // offsets from it map to offset-delta, when moved
+	delta  int
+	moved  bool // the lines after the edit kept their numbers
+}
+
+func newOffsetMap(prev, p *publication) offsetMap {
+	a, b := prev.content, p.content
+	n := min(len(a), len(b))
+	prefix := commonPrefix(a[:n], b[:n])
+	suffix := commonSuffix(a[prefix:], b[prefix:])
+	m := offsetMap{prefix: prefix, delta: len(b) - len(a), after: len(b) + 1, moved: prev.lines == p.lines}
+	// The position of an offset depends on the text before it and the
+	// byte at it (a "\r" before it may pair with a "\n" there): so the
+	// prefix maps offsets below its end, and the suffix maps offsets on
+	// lines that start after a line break inside it.
+	for i := len(b) - suffix; i < len(b); i++ {
+		if c := b[i]; c == '\n' || c == '\r' {
+			m.after = i + 1
+			if c == '\r' && i+1 < len(b) && b[i+1] == '\n' {
+				m.after = i + 2
+			}
+			break
+		}
+	}
+	return m
+}
+
+// old returns the offset in the last text with the same position as off
+// in the new one, or false.
+func (m *offsetMap) old(off int) (int, bool) {
+	switch {
+	case off < m.prefix:
+		return off, true
+	case off >= m.after && m.moved:
+		return off - m.delta, true
+	}
+	return 0, false
+}
+
+// span reports whether s in the new text has the same range as o in the
+// last one.
+func (m *offsetMap) span(s, o notation.Span) bool {
+	start, ok := m.old(s.Start)
+	if !ok || start != o.Start {
+		return false
+	}
+	end, ok := m.old(s.End)
+	return ok && end == o.End
+}
+
+// same reports whether d in the new text is written as the JSON o was
+// in the last: every field the JSON holds is equal, every range the
+// same.
+func (m *offsetMap) same(d, o *document.Diagnostic) bool {
+	if d.Code != o.Code || d.Severity != o.Severity || d.Unnecessary != o.Unnecessary ||
+		len(d.Related) != len(o.Related) || d.Message != o.Message || !m.span(d.Span, o.Span) {
+		return false
+	}
+	for k := range d.Related {
+		if d.Related[k].Message != o.Related[k].Message || !m.span(d.Related[k].Span, o.Related[k].Span) {
+			return false
+		}
+	}
+	return true
+}
+
+// commonPrefix returns the length of the common prefix of a and b, which
+// are as long; a block at a time while the blocks are equal.
+func commonPrefix(a, b []byte) int {
+	const block = 4096
+	i := 0
+	for i+block <= len(a) && bytes.Equal(a[i:i+block], b[i:i+block]) {
+		i += block
+	}
+	for i < len(a) && a[i] == b[i] {
+		i++
+	}
+	return i
+}
+
+// commonSuffix returns the length of the common suffix of a and b.
+func commonSuffix(a, b []byte) int {
+	const block = 4096
+	n := 0
+	for n+block <= min(len(a), len(b)) && bytes.Equal(a[len(a)-n-block:len(a)-n], b[len(b)-n-block:len(b)-n]) {
+		n += block
+	}
+	for n < min(len(a), len(b)) && a[len(a)-n-1] == b[len(b)-n-1] {
+		n++
+	}
+	return n
 }
 
 // appendDiagnostic writes one finding as a protocol Diagnostic; uri is

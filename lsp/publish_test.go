@@ -1,6 +1,7 @@
 package lsp
 
 import (
+	"bytes"
 	"encoding/json"
 	"math/rand"
 	"reflect"
@@ -169,5 +170,219 @@ func TestAppendStringWords(t *testing.T) {
 		if got := plain8(mixed); got != want {
 			t.Errorf("plain8(%q) = %v, want %v", mixed, got, want)
 		}
+	}
+}
+
+// TestPublicationFromLast checks that a publication made from the last
+// one is byte for byte the publication written afresh, through a chain of
+// random edits of a list: marks toggled, titles changed (also to text
+// outside ASCII), lines inserted and deleted, line breaks of every kind
+// added, removed and turned into others (a "\r" that pairs with a "\n"
+// after it), duplicates made and broken so that relations of lines before
+// and after the edit change, and edits at the first and last byte. It
+// also checks that most findings' JSON is taken from the last
+// publication where an edit moved no line, so it fails if nothing is
+// (records invented for the test).
+func TestPublicationFromLast(t *testing.T) {
+	records := []string{"N[C@@H](C)C(=O)O", "N[C@H](C)C(=O)O", "C[C@H](F)Cl", "C[C@@H](F)Cl", "F/C=C/F", "F/C=C\\F", "C1CC(", "OC[C@H]1OC(O)[C@@H](O)[C@H]1O"}
+	breaks := []string{"\n", "\r\n", "\r"}
+	rng := rand.New(rand.NewSource(7))
+	var b strings.Builder
+	for i := 0; i < 600; i++ {
+		b.WriteString(records[rng.Intn(len(records))])
+		b.WriteString("\tr" + strconv.Itoa(i))
+		if i%50 == 7 {
+			b.WriteString(" α")
+		}
+		b.WriteString(breaks[(i/100)%3])
+	}
+	text := []byte(b.String())
+	a := document.NewAnalyzer(document.DefaultConfig())
+	for _, enc := range []PositionEncoding{EncodingUTF16, EncodingUTF8} {
+		m := NewMapper(text, enc)
+		res := a.Analyze("/t/chain.smi", "", text)
+		f := &fileVersion{URI: "file:///t/chain.smi", Name: "/t/chain.smi", mapper: m}
+		v := int32(1)
+		last, err := publish(nil, f, res, &v)
+		if err != nil {
+			t.Fatal(err)
+		}
+		content := text
+		sameLines := 0
+		for step := 0; step < 120; step++ {
+			from := rng.Intn(len(content) + 1)
+			to := min(len(content), from+rng.Intn(3))
+			var ins string
+			switch step % 8 {
+			case 0: // a mark toggled
+				if k := bytes.IndexByte(content[from:], '@'); k >= 0 {
+					from, to, ins = from+k, from+k+1, "@@"
+				}
+			case 1: // a title changed
+				to, ins = from, "é"
+			case 2: // a line inserted
+				at := bytes.IndexByte(content[from:], '\n')
+				if at < 0 {
+					at = len(content) - from - 1
+				}
+				from, to, ins = from+at+1, from+at+1, records[rng.Intn(len(records))]+"\tnew\n"
+			case 3: // a line break changed or removed
+				k := bytes.IndexAny(content[from:], "\r\n")
+				if k < 0 {
+					break
+				}
+				from, to, ins = from+k, from+k+1, breaks[rng.Intn(3)]
+				if rng.Intn(4) == 0 {
+					ins = ""
+				}
+			case 4: // at the ends
+				if rng.Intn(2) == 0 {
+					from, to = 0, 0
+				} else {
+					from, to = len(content), len(content)
+				}
+				ins = "C\n"
+			case 5: // a record made the copy of another
+				to, ins = from, "C"
+			default:
+				ins = string("CN@\r\n()/"[rng.Intn(8)])
+			}
+			next := append(append(append([]byte(nil), content[:from]...), ins...), content[to:]...)
+			m = m.Replace(from, to, len(ins), next)
+			prev := res
+			res = a.Reanalyze(prev, "/t/chain.smi", "", next)
+			content = next
+			f = &fileVersion{URI: f.URI, Name: f.Name, mapper: m}
+			v++
+			p, err := publish(last, f, res, &v)
+			if err != nil {
+				t.Fatal(err)
+			}
+			fresh, err := diagnosticsJSON(f, res, &v)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if got := bytes.Join(p.parts, nil); !bytes.Equal(got, fresh) {
+				t.Fatalf("%v step %d (%q at %d-%d): the publication made from the last differs from the one written afresh:\n got %s\nwant %s",
+					enc, step, ins, from, to, got, fresh)
+			}
+			if m.LineCount() == last.lines && len(res.Diagnostics) > 100 && len(p.parts) < 40 {
+				sameLines++
+			}
+			last.release(p)
+			last = p
+		}
+		if sameLines < 20 {
+			t.Errorf("%v: %d edits that moved no line took most findings from the last publication, want at least 20", enc, sameLines)
+		}
+	}
+}
+
+// TestPublicationBounds checks that a chain of publications, each made
+// from the last, stays within maxPublicationParts parts and keeps
+// buffers of no more than twice the bytes it uses (and maxSpareBytes),
+// over many edits of a list long enough for buffers of several chunks.
+func TestPublicationBounds(t *testing.T) {
+	var b strings.Builder
+	for i := 0; i < 3*publishChunk; i++ {
+		b.WriteString("C1CC(\tbroken ")
+		b.WriteString(strconv.Itoa(i))
+		b.WriteByte('\n')
+	}
+	text := []byte(b.String())
+	a := document.NewAnalyzer(document.DefaultConfig())
+	m := NewMapper(text, EncodingUTF16)
+	res := a.Analyze("/t/bounds.smi", "", text)
+	f := &fileVersion{URI: "file:///t/bounds.smi", Name: "/t/bounds.smi", mapper: m}
+	last, err := publish(nil, f, res, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	rng := rand.New(rand.NewSource(3))
+	content := text
+	for step := 0; step < 3000; step++ {
+		// a title changed on a random line: one finding written afresh
+		at := rng.Intn(len(content) - 1)
+		at += bytes.IndexByte(content[at:], '\n')
+		next := append(append(append([]byte(nil), content[:at]...), 'x'), content[at:]...)
+		m = m.Replace(at, at, 1, next)
+		res = a.Reanalyze(res, "/t/bounds.smi", "", next)
+		content = next
+		f = &fileVersion{URI: f.URI, Name: f.Name, mapper: m}
+		p, err := publish(last, f, res, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		used, kept := 0, 0
+		for _, part := range p.parts {
+			used += len(part)
+		}
+		for _, buf := range p.bufs {
+			kept += cap(buf)
+		}
+		if len(p.parts) > maxPublicationParts || kept > 3*used+maxSpareBytes {
+			t.Fatalf("step %d: %d parts and %d bytes of buffers for %d bytes", step, len(p.parts), kept, used)
+		}
+		last.release(p)
+		last = p
+	}
+}
+
+// TestOffsetMapPositions checks the map between the offsets of two texts
+// that publications are made from: every offset of the new text it maps
+// has the position of the offset it maps to in the old text, in every
+// encoding, over random edits of short texts of line breaks of every
+// kind and characters outside ASCII (LSP 3.17, "Text Documents": "\n",
+// "\r\n" and "\r" end lines); and it maps most offsets of a long text
+// after an edit that moved no line.
+func TestOffsetMapPositions(t *testing.T) {
+	alphabet := []string{"a", "b", "\n", "\r", "\r\n", "é", "𝛼"}
+	rng := rand.New(rand.NewSource(11))
+	word := func(n int) string {
+		var b strings.Builder
+		for range n {
+			b.WriteString(alphabet[rng.Intn(len(alphabet))])
+		}
+		return b.String()
+	}
+	for _, enc := range []PositionEncoding{EncodingUTF16, EncodingUTF8, EncodingUTF32} {
+		mapped := 0
+		for trial := 0; trial < 3000; trial++ {
+			old := []byte(word(rng.Intn(12)))
+			from := rng.Intn(len(old) + 1)
+			to := from + rng.Intn(len(old)-from+1)
+			text := append(append(append([]byte(nil), old[:from]...), word(rng.Intn(3))...), old[to:]...)
+			last := &publication{content: old, lines: NewMapper(old, enc).LineCount()}
+			p := &publication{content: text, lines: NewMapper(text, enc).LineCount()}
+			m := newOffsetMap(last, p)
+			om, nm := NewMapper(old, enc), NewMapper(text, enc)
+			for off := 0; off <= len(text); off++ {
+				o, ok := m.old(off)
+				if !ok {
+					continue
+				}
+				mapped++
+				got, err1 := nm.OffsetToPosition(off)
+				want, err2 := om.OffsetToPosition(o)
+				if err1 != nil || err2 != nil || got != want {
+					t.Fatalf("%v: %q to %q: offset %d maps to %d: position %v, there %v (%v, %v)", enc, old, text, off, o, got, want, err1, err2)
+				}
+			}
+		}
+		if mapped < 10000 {
+			t.Errorf("%v: %d offsets mapped, want at least 10000", enc, mapped)
+		}
+	}
+	long := []byte(strings.Repeat("C[C@H](F)Cl\tα title\r\n", 1000))
+	text := append(append(append([]byte(nil), long[:500]...), '@'), long[500:]...)
+	m := newOffsetMap(&publication{content: long, lines: 2001}, &publication{content: text, lines: 2001})
+	n := 0
+	for off := range text {
+		if _, ok := m.old(off); ok {
+			n++
+		}
+	}
+	if n < len(text)-100 {
+		t.Errorf("%d of %d offsets mapped after a one-byte edit, want all but those of the edited line", n, len(text))
 	}
 }

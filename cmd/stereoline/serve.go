@@ -58,6 +58,7 @@ func serve(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			defer func() { pprof.StopCPUProfile(); f.Close() }()
 		}
 	}
+	widenPipe(stdout)
 	return lsp.Serve(context.Background(), stdio{stdin, stdout}, log, lsp.Options{})
 }
 

@@ -70,7 +70,12 @@ type publication struct {
 }
 
 // jsonAt is where the JSON of one finding lies: bufs[buf][from:to].
-type jsonAt struct{ buf, from, to int32 }
+// A part may pass 2 GB (a huge record's thousands of findings), so the
+// offsets are ints.
+type jsonAt struct {
+	buf      int32
+	from, to int
+}
 
 // Bounds that keep a chain of publications, each made from the one
 // before, from growing without bound: past them the next publication is
@@ -178,7 +183,7 @@ func publish(prev *publication, f *fileVersion, res *document.Result, version *i
 			}
 			start := len(b)
 			b, err = appendDiagnostic(b, &c, uri, &ds[i])
-			p.at[i] = jsonAt{buf: int32(first + k), from: int32(start), to: int32(len(b))}
+			p.at[i] = jsonAt{buf: int32(first + k), from: start, to: len(b)}
 		}
 		errs[k] = err
 		p.bufs[first+k] = b
@@ -275,7 +280,7 @@ func (p *publication) reuse(prev *publication) []bool {
 			runs++
 		}
 		p.at[i] = a
-		used += int(a.to - a.from)
+		used += a.to - a.from
 		reused[i] = true
 		k++
 	}

@@ -231,3 +231,22 @@ func TestEmptyMethodRequest(t *testing.T) {
 	s.frame(`{"jsonrpc":"2.0","id":78,"result":null}`) // an answer to nothing: dropped
 	s.finish()
 }
+
+// TestReadBody reads bodies whole and cut short, below and above the
+// size read into one buffer: a cut body is an error, never more bytes
+// than came.
+func TestReadBody(t *testing.T) {
+	for _, length := range []int64{5, bodyAtOnce + 3} {
+		body := strings.Repeat("x", 20)
+		got, err := readBody(strings.NewReader(body), length)
+		if length <= int64(len(body)) {
+			if err != nil || string(got) != body[:length] {
+				t.Errorf("length %d: got %q, %v", length, got, err)
+			}
+			continue
+		}
+		if err == nil || len(got) != len(body) {
+			t.Errorf("length %d of a 20-byte body: %d bytes, error %v; want the 20 and an error", length, len(got), err)
+		}
+	}
+}

@@ -68,17 +68,35 @@ func (s frameStream) Read(ctx context.Context) (jsonrpc2.Message, int64, error) 
 	if length == 0 {
 		return nil, total, errEmptyFrame
 	}
-	var data bytes.Buffer
-	n, err := io.CopyN(&data, s.in, length)
-	total += n
+	data, err := readBody(s.in, length)
+	total += int64(len(data))
 	if err != nil {
 		return nil, total, fmt.Errorf("read full of data: %w", err)
 	}
-	msg, err := jsonrpc2.DecodeMessage(data.Bytes())
+	msg, err := jsonrpc2.DecodeMessage(data)
 	if resp, ok := msg.(*jsonrpc2.Response); ok {
-		msg = emptyMethodCall(resp, data.Bytes())
+		msg = emptyMethodCall(resp, data)
 	}
 	return msg, total, err
+}
+
+// bodyAtOnce is the largest body read into a buffer of its announced
+// length; a larger one grows a buffer as it comes, so a header that
+// announces gigabytes does not get them before they arrive.
+const bodyAtOnce = 64 << 20
+
+// readBody reads a body of length bytes: a large document (megabytes of
+// text in one didOpen) goes into one buffer of its size, not copied
+// through buffers doubling in turn.
+func readBody(r io.Reader, length int64) ([]byte, error) {
+	if length <= bodyAtOnce {
+		data := make([]byte, length)
+		n, err := io.ReadFull(r, data)
+		return data[:n], err
+	}
+	var data bytes.Buffer
+	_, err := io.CopyN(&data, r, length)
+	return data.Bytes(), err
 }
 
 // emptyMethodCall turns back into a request what jsonrpc2 takes for a

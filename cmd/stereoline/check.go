@@ -57,36 +57,34 @@ func check(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			return 2
 		}
 	}
-	// Text and JSON Lines are written file by file as the reports come
-	// in order, and each report is dropped once written: memory does not
-	// grow with the findings of a whole tree. SARIF is one document,
-	// written at the end.
+	// Reports are written file by file as they come in order, and each
+	// is dropped once written: memory does not grow with the findings of
+	// a whole tree. SARIF is one document, whose head is written first
+	// and results as they come.
 	out := bufio.NewWriterSize(stdout, outputBuffer)
 	var (
-		sum     checkSummary
-		err     error
-		reports []fileReport
+		sum checkSummary
+		err error
+		sw  *sarifWriter
 	)
+	if opts.format == "sarif" {
+		sw, err = newSARIFWriter(out)
+	}
 	run.analyzeAll(files, func(rep fileReport) {
 		sum.add(rep)
 		switch {
-		case opts.format == "sarif":
-			reports = append(reports, rep)
 		case err != nil:
+		case opts.format == "sarif":
+			err = sw.add(rep)
 		case opts.format == "json":
 			err = writeJSONLines(out, []fileReport{rep})
 		default:
 			err = writeText(out, []fileReport{rep})
 		}
-		if opts.format != "sarif" {
-			rep.Findings.close()
-		}
+		rep.Findings.close()
 	})
 	if opts.format == "sarif" && err == nil {
-		err = writeSARIF(out, reports)
-	}
-	for i := range reports {
-		reports[i].Findings.close()
+		err = sw.finish()
 	}
 	if err == nil {
 		err = out.Flush()

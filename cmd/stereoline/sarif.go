@@ -2,6 +2,9 @@ package main
 
 import (
 	"bufio"
+	"bytes"
+	"encoding/json"
+	"fmt"
 	"net/url"
 	"path"
 	"strings"
@@ -38,20 +41,37 @@ func sarifURI(p string) string {
 	return (&url.URL{Path: p}).String()
 }
 
-// writeSARIF writes one SARIF 2.1.0 log with one run: the tool with a rule
-// for every code of the catalogue, and a result per finding. Columns
-// count Unicode code points, as the text output does, and the run says
-// so in columnKind (§3.14.17).
-func writeSARIF(w *bufio.Writer, reports []fileReport) error {
+// sarifWriter writes one SARIF 2.1.0 log with one run: the tool with a
+// rule for every code of the catalogue, and a result per finding.
+// Columns count Unicode code points, as the text output does, and the
+// run says so in columnKind (§3.14.17). The log is written as the
+// reports come, each result as it is read: the head (the log without
+// results) is marshalled once and split where its empty results array
+// stands, and each result is marshalled at the indent it has there, so
+// the bytes are those of marshalling the whole log at once, while
+// memory does not grow with the findings.
+type sarifWriter struct {
+	w         *bufio.Writer
+	tail      []byte // what follows the results
+	indent    string // of the results' elements
+	ruleIndex map[notation.Code]int
+	results   int
+}
+
+// sarifResults is the results member of the run as the head marshals it.
+const sarifResults = `"results": []`
+
+// newSARIFWriter writes the head of the log to w.
+func newSARIFWriter(w *bufio.Writer) (*sarifWriter, error) {
 	report, err := sarif.New(sarif.Version210)
 	if err != nil {
-		return err
+		return nil, err
 	}
 	driver := sarif.NewVersionedDriver("stereoline", sarifToolVersion)
 	driver.WithSemanticVersion(sarifToolVersion)
 	run := sarif.NewRun(*sarif.NewTool(driver))
 	run.WithColumnKind("unicodeCodePoints")
-	ruleIndex := map[notation.Code]int{}
+	sw := &sarifWriter{w: w, ruleIndex: map[notation.Code]int{}}
 	for i, doc := range codeCatalogue {
 		example := strings.TrimSpace(doc.Example.display())
 		rule := sarif.NewRule(string(doc.Code)).
@@ -61,41 +81,80 @@ func writeSARIF(w *bufio.Writer, reports []fileReport) error {
 			WithHelp(sarif.NewMultiformatMessageString(doc.Help + " Example: " + example).
 				WithMarkdown(doc.Help + "\n\nExample: `" + example + "`"))
 		driver.AddRule(rule)
-		ruleIndex[doc.Code] = i
+		sw.ruleIndex[doc.Code] = i
 	}
 	run.WithResults([]*sarif.Result{})
-	for _, rep := range reports {
-		if rep.Findings.Len() == 0 {
-			continue
+	report.AddRun(run)
+	head, err := json.MarshalIndent(report, "", "  ")
+	if err != nil {
+		return nil, err
+	}
+	// The member name cannot occur elsewhere unescaped: quotes inside
+	// strings are written \".
+	at := bytes.Index(head, []byte(sarifResults))
+	if at < 0 || bytes.Count(head, []byte(sarifResults)) != 1 {
+		return nil, fmt.Errorf("SARIF head without one results array")
+	}
+	line := bytes.LastIndexByte(head[:at], '\n') + 1
+	sw.indent = string(head[line:at]) + "  "
+	sw.tail = head[at+len(sarifResults)-1:] // from the closing bracket
+	_, err = w.Write(head[:at+len(sarifResults)-1])
+	return sw, err
+}
+
+// add writes the results of one file's findings.
+func (sw *sarifWriter) add(rep fileReport) error {
+	if rep.Findings.Len() == 0 {
+		return nil
+	}
+	uri := sarifURI(rep.Path)
+	for f := range rep.Findings.All() {
+		region := sarif.NewRegion().
+			WithStartLine(f.Start.Line + 1).
+			WithStartColumn(f.Start.CharCP + 1).
+			WithEndLine(f.End.Line + 1).
+			WithEndColumn(f.End.CharCP + 1)
+		loc := sarif.NewPhysicalLocation().
+			WithArtifactLocation(sarif.NewSimpleArtifactLocation(uri)).
+			WithRegion(region)
+		res := sarif.NewRuleResult(string(f.Code)).
+			WithLevel(sarifLevel(f.Severity)).
+			WithMessage(sarif.NewTextMessage(sarifMessage(f.Message))).
+			WithLocations([]*sarif.Location{sarif.NewLocationWithPhysicalLocation(loc)})
+		// The index of the rule, or -1 for a code without one, as
+		// Run.AddResult gives it.
+		i, ok := sw.ruleIndex[f.Code]
+		if !ok {
+			i = -1
 		}
-		uri := sarifURI(rep.Path)
-		for f := range rep.Findings.All() {
-			region := sarif.NewRegion().
-				WithStartLine(f.Start.Line + 1).
-				WithStartColumn(f.Start.CharCP + 1).
-				WithEndLine(f.End.Line + 1).
-				WithEndColumn(f.End.CharCP + 1)
-			loc := sarif.NewPhysicalLocation().
-				WithArtifactLocation(sarif.NewSimpleArtifactLocation(uri)).
-				WithRegion(region)
-			res := sarif.NewRuleResult(string(f.Code)).
-				WithLevel(sarifLevel(f.Severity)).
-				WithMessage(sarif.NewTextMessage(sarifMessage(f.Message))).
-				WithLocations([]*sarif.Location{sarif.NewLocationWithPhysicalLocation(loc)})
-			if i, ok := ruleIndex[f.Code]; ok {
-				res.WithRuleIndex(i)
-			}
-			run.AddResult(res)
+		res.WithRuleIndex(i)
+		b, err := json.MarshalIndent(res, sw.indent, "  ")
+		if err != nil {
+			return err
 		}
-		if err := rep.Findings.Err(); err != nil {
+		if sw.results > 0 {
+			sw.w.WriteByte(',')
+		}
+		sw.results++
+		sw.w.WriteString("\n")
+		sw.w.WriteString(sw.indent)
+		if _, err := sw.w.Write(b); err != nil {
 			return err
 		}
 	}
-	report.AddRun(run)
-	if err := report.PrettyWrite(w); err != nil {
+	return rep.Findings.Err()
+}
+
+// finish writes the rest of the log after the last results.
+func (sw *sarifWriter) finish() error {
+	if sw.results > 0 {
+		sw.w.WriteString("\n")
+		sw.w.WriteString(sw.indent[:len(sw.indent)-2])
+	}
+	if _, err := sw.w.Write(sw.tail); err != nil {
 		return err
 	}
-	return w.WriteByte('\n')
+	return sw.w.WriteByte('\n')
 }
 
 // sarifMessage makes a short lowercase finding a sentence: SARIF

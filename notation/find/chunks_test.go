@@ -106,3 +106,40 @@ func TestRefRebuilds(t *testing.T) {
 		}
 	}
 }
+
+// FuzzFindChunks checks, for any content of the streamed host kinds,
+// that the chunks of FindChunks joined are FindKind's occurrences, none
+// empty or over the chunk size, and that every Ref taken rebuilds its
+// occurrence.
+func FuzzFindChunks(f *testing.F) {
+	for name, src := range chunkCases() {
+		f.Add([]byte(src), uint8(KindForName(name)), uint16(3))
+	}
+	f.Add([]byte("C1CC1 a\r\n\r\n\tF/C=C/F  b c\nC1CC\n"), uint8(KindList), uint16(1))
+	f.Fuzz(func(t *testing.T, src []byte, kind uint8, size uint16) {
+		kinds := []Kind{KindList, KindCSV, KindTSV, KindPython}
+		k := kinds[int(kind)%len(kinds)]
+		n := 1 + int(size)%64
+		want := FindKind(k, src, Config{})
+		var got []Occurrence
+		FindChunks(k, src, Config{}, n, func(occs []Occurrence) {
+			if len(occs) == 0 || len(occs) > n {
+				t.Fatalf("a chunk of %d occurrences, size %d", len(occs), n)
+			}
+			got = append(got, occs...)
+		})
+		if len(got) != len(want) {
+			t.Fatalf("%d occurrences, FindKind %d", len(got), len(want))
+		}
+		for i := range want {
+			if !reflect.DeepEqual(strip(got[i]), strip(want[i])) {
+				t.Fatalf("occurrence %d is %+v, FindKind's %+v", i, got[i], want[i])
+			}
+			if r, ok := RefOf(src, &want[i]); ok {
+				if back := r.Occurrence(src); !reflect.DeepEqual(strip(back), strip(want[i])) {
+					t.Fatalf("Ref of occurrence %d rebuilt %+v, was %+v", i, back, want[i])
+				}
+			}
+		}
+	})
+}

@@ -163,7 +163,10 @@ func BenchmarkScaleRepublish(b *testing.B) {
 	a := document.NewAnalyzer(document.DefaultConfig())
 	prev := a.Analyze("scale.smi", "", text)
 	versions := [2][]byte{text, append(append(append([]byte(nil), text[:mid]...), '@'), text[mid:]...)}
-	var last *publication
+	last, err := publish(nil, &fileVersion{URI: "file:///bench/scale.smi", Name: "scale.smi", mapper: NewMapper(text, EncodingUTF16)}, prev, nil)
+	if err != nil {
+		b.Fatal(err)
+	}
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
@@ -244,7 +247,11 @@ func BenchmarkScaleEditKinds(b *testing.B) {
 			rng := rand.New(rand.NewSource(1))
 			prev, content := base, text
 			m := NewMapper(text, EncodingUTF16)
-			var last *publication
+			// the server published the list when it was opened
+			last, err := publish(nil, &fileVersion{URI: "file:///bench/scale.smi", Name: "scale.smi", mapper: m}, base, nil)
+			if err != nil {
+				b.Fatal(err)
+			}
 			var mapping, analysing, publishing time.Duration
 			b.ReportAllocs()
 			b.ResetTimer()

@@ -64,6 +64,9 @@ type publication struct {
 	diags []document.Diagnostic
 	bufs  [][]byte // the buffers holding the findings' JSON
 	at    []jsonAt // where the JSON of each finding lies, in bufs
+	// spare is the at of the publication before this one, which nothing
+	// reads once this one is made: the next publication's at
+	spare []jsonAt
 	// parts are the params to write, one after the other: the head, the
 	// runs of findings' JSON and the commas between runs, the tail.
 	parts [][]byte
@@ -150,19 +153,30 @@ const publishChunk = 4096
 // back with prev.release once the result replaces it.
 func publish(prev *publication, f *fileVersion, res *document.Result, version *int32) (*publication, error) {
 	ds := res.Diagnostics
+	var at []jsonAt
+	if prev != nil && cap(prev.spare) >= len(ds) {
+		at = prev.spare[:len(ds)]
+	} else {
+		// room for the findings a few inserted lines add
+		at = make([]jsonAt, len(ds), len(ds)+len(ds)/32+64)
+	}
 	p := &publication{uri: f.URI, encoding: f.mapper.Encoding(), content: f.content(), lines: f.mapper.LineCount(),
-		diags: ds, at: make([]jsonAt, len(ds))}
-	reused := p.reuse(prev)
+		diags: ds, at: at}
+	if prev != nil {
+		p.spare = prev.at
+	}
+	p.reuse(prev)
+	reused := func(i int) bool { return p.at[i].buf >= 0 }
 	// the findings written afresh, in chunks written on all cores
 	type chunk struct{ from, to int }
 	var chunks []chunk
 	for i := 0; i < len(ds); {
-		if reused[i] {
+		if reused(i) {
 			i++
 			continue
 		}
 		j := i
-		for j < len(ds) && !reused[j] && j-i < publishChunk {
+		for j < len(ds) && !reused(j) && j-i < publishChunk {
 			j++
 		}
 		chunks = append(chunks, chunk{i, j})
@@ -243,13 +257,15 @@ func publish(prev *publication, f *fileVersion, res *document.Result, version *i
 }
 
 // reuse sets p.bufs and p.at for the findings of p whose JSON prev holds
-// as it is to be written, and reports which those are. It finds none
-// when taking them would keep too many parts or too much of prev's
+// as it is to be written; the others' at is given buffer -1. It takes
+// none when taking them would keep too many parts or too much of prev's
 // buffers unused.
-func (p *publication) reuse(prev *publication) []bool {
-	reused := make([]bool, len(p.diags))
+func (p *publication) reuse(prev *publication) {
+	for i := range p.at {
+		p.at[i].buf = -1
+	}
 	if prev == nil || prev.uri != p.uri || prev.encoding != p.encoding {
-		return reused
+		return
 	}
 	m := newOffsetMap(prev, p)
 	ds, old := p.diags, prev.diags
@@ -276,12 +292,11 @@ func (p *publication) reuse(prev *publication) []bool {
 			bufs[a.buf] = int32(len(p.bufs))
 		}
 		a.buf = bufs[a.buf] - 1
-		if i == 0 || !reused[i-1] || p.at[i-1].buf != a.buf || p.at[i-1].to+1 != a.from {
+		if i == 0 || p.at[i-1].buf != a.buf || p.at[i-1].to+1 != a.from {
 			runs++
 		}
 		p.at[i] = a
 		used += a.to - a.from
-		reused[i] = true
 		k++
 	}
 	kept := 0
@@ -290,9 +305,10 @@ func (p *publication) reuse(prev *publication) []bool {
 	}
 	if 4*runs > maxPublicationParts || kept > 2*used+maxSpareBytes {
 		p.bufs = p.bufs[:0]
-		clear(reused)
+		for i := range p.at {
+			p.at[i].buf = -1
+		}
 	}
-	return reused
 }
 
 // offsetMap maps offsets into the text of a new publication to offsets

@@ -9,6 +9,7 @@ import (
 	"bytes"
 	"encoding/json"
 	"fmt"
+	"math"
 	"runtime"
 	"strconv"
 	"sync"
@@ -72,13 +73,16 @@ type publication struct {
 	parts [][]byte
 }
 
-// jsonAt is where the JSON of one finding lies: bufs[buf][from:to].
-// A part may pass 2 GB (a huge record's thousands of findings), so the
-// offsets are ints.
+// jsonAt is where the JSON of one finding lies: bufs[buf][from:from+n].
+// A part may pass 4 GB (a huge record's thousands of findings), so the
+// offset is an int; one finding's JSON does not (publish checks).
 type jsonAt struct {
-	buf      int32
-	from, to int
+	from int
+	n    uint32
+	buf  int32
 }
+
+func (a jsonAt) to() int { return a.from + int(a.n) }
 
 // Bounds that keep a chain of publications, each made from the one
 // before, from growing without bound: past them the next publication is
@@ -197,7 +201,10 @@ func publish(prev *publication, f *fileVersion, res *document.Result, version *i
 			}
 			start := len(b)
 			b, err = appendDiagnostic(b, &c, uri, &ds[i])
-			p.at[i] = jsonAt{buf: int32(first + k), from: start, to: len(b)}
+			if len(b)-start > math.MaxUint32 {
+				err = fmt.Errorf("%s: a finding of %d bytes of JSON", ds[i].Code, len(b)-start)
+			}
+			p.at[i] = jsonAt{buf: int32(first + k), from: start, n: uint32(len(b) - start)}
 		}
 		errs[k] = err
 		p.bufs[first+k] = b
@@ -239,17 +246,18 @@ func publish(prev *publication, f *fileVersion, res *document.Result, version *i
 	// part
 	for i := 0; i < len(ds); {
 		run := p.at[i]
+		end := run.to()
 		j := i + 1
 		for ; j < len(ds); j++ {
-			if a := p.at[j]; a.buf != run.buf || a.from != run.to+1 {
+			if a := p.at[j]; a.buf != run.buf || a.from != end+1 {
 				break
 			}
-			run.to = p.at[j].to
+			end = p.at[j].to()
 		}
 		if i > 0 {
 			p.parts = append(p.parts, comma)
 		}
-		p.parts = append(p.parts, p.bufs[run.buf][run.from:run.to])
+		p.parts = append(p.parts, p.bufs[run.buf][run.from:end])
 		i = j
 	}
 	p.parts = append(p.parts, []byte("]}"))
@@ -292,11 +300,11 @@ func (p *publication) reuse(prev *publication) {
 			bufs[a.buf] = int32(len(p.bufs))
 		}
 		a.buf = bufs[a.buf] - 1
-		if i == 0 || p.at[i-1].buf != a.buf || p.at[i-1].to+1 != a.from {
+		if i == 0 || p.at[i-1].buf != a.buf || p.at[i-1].to()+1 != a.from {
 			runs++
 		}
 		p.at[i] = a
-		used += a.to - a.from
+		used += int(a.n)
 		k++
 	}
 	kept := 0

@@ -42,6 +42,7 @@ func main() {
 	debounce := flag.Duration("debounce", 100*time.Millisecond, "the server's debounce, subtracted from edit times")
 	serverLog := flag.String("log", "", "pass --log FILE -v to the server")
 	only := flag.String("kinds", "mark,title,insert,delete", "the kinds of edit to make, in this order")
+	settle := flag.Duration("settle", 0, "wait this long after the open before the first edit (a user reads first)")
 	flag.Parse()
 	if *list == "" {
 		fmt.Fprintln(os.Stderr, "usage: scaleclient -bin BIN -list FILE.smi")
@@ -93,6 +94,7 @@ func main() {
 	fmt.Printf("with relations:       %8.0f ms  (%d diagnostics, %d relations); server CPU %.0f ms\n",
 		ms(full.at.Sub(begun)), full.count, full.relations, ms(c.cpu()-cpu0))
 	rss(c, "after open")
+	time.Sleep(*settle)
 
 	rng := rand.New(rand.NewSource(1))
 	version := int32(1)

@@ -5,6 +5,8 @@ import (
 	"errors"
 	"fmt"
 	"path"
+	"runtime"
+	"runtime/metrics"
 	"sync"
 	"sync/atomic"
 	"time"
@@ -184,7 +186,9 @@ type worker struct {
 	// document's publishing goroutine reads or replaces it
 	published map[string]*publication
 	wake      chan struct{}
-	pub       sync.Mutex // orders the check that a version is current with its publication
+	// collecting is set while an idle collection runs (collectIfIdle)
+	collecting atomic.Bool
+	pub        sync.Mutex // orders the check that a version is current with its publication
 }
 
 func newWorker(s *Server) *worker {
@@ -269,7 +273,53 @@ func (w *worker) publishOnce(ctx context.Context, uri string) {
 	w.mu.Unlock()
 	if again {
 		w.schedule(uri, 0)
+		return
 	}
+	w.collectIfIdle()
+}
+
+// idleGarbage is how much garbage the heap must hold for an idle worker
+// to collect it: what about three edits of a list of 100,000 records
+// leave behind (each its arrays of records and findings and the text,
+// some 37 MB). Smaller documents never get there; a large one is
+// collected before the runtime's own trigger, near the soft memory
+// limit, would start a collection in the middle of an edit. On the
+// 100,000-record list the peak RSS after 20 edits went from 452-458 MB
+// to 408-427 MB, the edits' times unchanged within the noise.
+const idleGarbage = 96 << 20
+
+// collectIfIdle runs a garbage collection when no document is due or
+// being published and the last publications left much garbage: the
+// collection then runs in the quiet time before the next edit's
+// debounce ends, rather than during that edit's analysis, which it
+// would slow on a machine of few cores (with a live heap of 200 MB, a
+// collection costs about 100 ms of processor time).
+func (w *worker) collectIfIdle() {
+	w.mu.Lock()
+	idle := len(w.due) == 0 && len(w.inflight) == 0
+	w.mu.Unlock()
+	if !idle || heapGarbage() < idleGarbage || !w.collecting.CompareAndSwap(false, true) {
+		return
+	}
+	go func() {
+		defer w.collecting.Store(false)
+		runtime.GC()
+	}()
+}
+
+// heapGarbage is the heap held by objects beyond those the last
+// collection found live: garbage, and what was allocated since.
+func heapGarbage() uint64 {
+	samples := []metrics.Sample{{Name: "/memory/classes/heap/objects:bytes"}, {Name: "/gc/heap/live:bytes"}}
+	metrics.Read(samples)
+	if samples[0].Value.Kind() != metrics.KindUint64 || samples[1].Value.Kind() != metrics.KindUint64 {
+		return 0
+	}
+	objects, live := samples[0].Value.Uint64(), samples[1].Value.Uint64()
+	if objects < live {
+		return 0
+	}
+	return objects - live
 }
 
 // publish analyses the current version of uri and pushes its

@@ -246,13 +246,19 @@ func (c *client) call(method string, params any) json.RawMessage {
 
 // read reads frames, timestamps each as soon as it is whole, answers the
 // server's requests and hands on answers and publications.
+// read reads frames and timestamps each as soon as it is whole; another
+// goroutine decodes them (handle), so that the decoding of one 30 MB
+// publication, this client's own cost, does not keep the server from
+// writing the next: the time taken is the server's and the pipe's.
 func (c *client) read(r *bufio.Reader) {
+	frames := make(chan frame, 16)
+	go c.handle(frames)
+	defer close(frames)
 	for {
 		length := -1
 		for {
 			line, err := r.ReadString('\n')
 			if err != nil {
-				close(c.pubs)
 				return
 			}
 			line = strings.TrimSpace(line)
@@ -265,10 +271,24 @@ func (c *client) read(r *bufio.Reader) {
 		}
 		body := make([]byte, length)
 		if _, err := io.ReadFull(r, body); err != nil {
-			close(c.pubs)
 			return
 		}
-		at := time.Now()
+		frames <- frame{body: body, at: time.Now()}
+	}
+}
+
+// frame is one message as it arrived.
+type frame struct {
+	body []byte
+	at   time.Time
+}
+
+// handle decodes the frames in order: publications go to c.pubs,
+// answers to their callers, and requests from the server are answered.
+func (c *client) handle(frames <-chan frame) {
+	defer close(c.pubs)
+	for fr := range frames {
+		body, at := fr.body, fr.at
 		var msg struct {
 			ID     *json.RawMessage `json:"id"`
 			Method string           `json:"method"`

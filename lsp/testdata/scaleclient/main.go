@@ -44,6 +44,7 @@ func main() {
 	serverLog := flag.String("log", "", "pass --log FILE -v to the server")
 	only := flag.String("kinds", "mark,title,insert,delete", "the kinds of edit to make, in this order")
 	settle := flag.Duration("settle", 0, "wait this long after the open before the first edit (a user reads first)")
+	pause := flag.Duration("pause", 0, "wait this long after each publication before the next edit (a user typing, not a script)")
 	flag.Parse()
 	if *list == "" {
 		fmt.Fprintln(os.Stderr, "usage: scaleclient -bin BIN -list FILE.smi")
@@ -124,6 +125,7 @@ func main() {
 			if !ok {
 				break
 			}
+			time.Sleep(*pause)
 			version++
 			cpu := c.cpu()
 			sent := time.Now()

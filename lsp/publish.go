@@ -10,10 +10,8 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
-	"runtime"
 	"strconv"
 	"sync"
-	"sync/atomic"
 	"unicode/utf8"
 
 	"go.lsp.dev/protocol"
@@ -209,24 +207,7 @@ func publish(prev *publication, f *fileVersion, res *document.Result, version *i
 		errs[k] = err
 		p.bufs[first+k] = b
 	}
-	if workers := min(runtime.GOMAXPROCS(0), len(chunks)); workers < 2 {
-		for k := range chunks {
-			write(k)
-		}
-	} else {
-		var next atomic.Int64
-		var wg sync.WaitGroup
-		for range workers {
-			wg.Add(1)
-			go func() {
-				defer wg.Done()
-				for k := int(next.Add(1)) - 1; k < len(chunks); k = int(next.Add(1)) - 1 {
-					write(k)
-				}
-			}()
-		}
-		wg.Wait()
-	}
+	document.Spread(len(chunks), write)
 	for _, err := range errs {
 		if err != nil {
 			return nil, err

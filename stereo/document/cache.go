@@ -340,18 +340,25 @@ func newCache() *cache {
 	return &cache{cur: map[cacheKey]*analysis{}, old: map[cacheKey]*analysis{}, fulls: newFullList(fullLimit)}
 }
 
-// get returns the analysis of text under reading r with its full
-// analysis, computing it outside the lock.
-func (c *cache) get(text string, r notation.Reading, lim limits) (*analysis, *fullAnalysis) {
-	k := cacheKey{text, r, lim}
+// lookup returns the cached analysis of k, moving it from the older
+// generation to the current one.
+func (c *cache) lookup(k cacheKey) (*analysis, bool) {
 	c.mu.Lock()
+	defer c.mu.Unlock()
 	a, ok := c.cur[k]
 	if !ok {
 		if a, ok = c.old[k]; ok {
 			c.cur[k] = a
 		}
 	}
-	c.mu.Unlock()
+	return a, ok
+}
+
+// get returns the analysis of text under reading r with its full
+// analysis, computing it outside the lock.
+func (c *cache) get(text string, r notation.Reading, lim limits) (*analysis, *fullAnalysis) {
+	k := cacheKey{text, r, lim}
+	a, ok := c.lookup(k)
 	if ok {
 		return a, a.get()
 	}
@@ -381,14 +388,7 @@ func (c *cache) get(text string, r notation.Reading, lim limits) (*analysis, *fu
 // again; the cache keeps the compact facts as get does.
 func (c *cache) read(text string, r notation.Reading, lim limits, rr *notation.Rereader) (*analysis, *fullAnalysis) {
 	k := cacheKey{text, r, lim}
-	c.mu.Lock()
-	a, ok := c.cur[k]
-	if !ok {
-		if a, ok = c.old[k]; ok {
-			c.cur[k] = a
-		}
-	}
-	c.mu.Unlock()
+	a, ok := c.lookup(k)
 	if ok {
 		if f := a.full.Load(); f != nil {
 			if a.fulls != nil && !a.pinned {

@@ -365,7 +365,7 @@ func (r *Result) assemble() {
 		at[c+1] = at[c] + n
 	}
 	out := make([]Diagnostic, at[chunks])
-	spread(chunks, func(c int) {
+	Spread(chunks, func(c int) {
 		r.assembleRecords(out[at[c]:at[c+1]], c*chunk, min((c+1)*chunk, len(r.own)))
 	})
 	r.Diagnostics = out
@@ -522,9 +522,9 @@ func (r *Result) assembleFrom(prev *Result, i0, i1, dn, delta, oldTo int) {
 	r.Diagnostics = out
 }
 
-// spread calls f(0) ... f(n-1) on all cores; each call is a large piece
-// of work.
-func spread(n int, f func(int)) {
+// Spread calls f(0) ... f(n-1) on all cores; each call is a large piece
+// of work (parallel is for many small ones).
+func Spread(n int, f func(int)) {
 	workers := min(runtime.GOMAXPROCS(0), n)
 	if workers < 2 {
 		for i := range n {

@@ -185,7 +185,7 @@ func BenchmarkScaleRepublish(b *testing.B) {
 
 // scaleList returns the list STEREOLINE_SCALE_LIST names, skipping the
 // benchmark without it.
-func scaleList(b *testing.B) []byte {
+func scaleList(b testing.TB) []byte {
 	name := os.Getenv("STEREOLINE_SCALE_LIST")
 	if name == "" {
 		b.Skip("STEREOLINE_SCALE_LIST is not set")
@@ -202,7 +202,8 @@ func scaleList(b *testing.B) []byte {
 // toggled, a title extended, a line inserted (a copy of another record
 // with a new title) and a line deleted. It reports the three parts of
 // the work apart: the new line table (map-ms), Reanalyze (analyze-ms)
-// and the publishDiagnostics JSON (publish-ms). It skips without
+// and the publishDiagnostics JSON (publish-ms), and the page faults of
+// the process (faults/op). It skips without
 // STEREOLINE_SCALE_LIST.
 func BenchmarkScaleEditKinds(b *testing.B) {
 	text := scaleList(b)
@@ -255,6 +256,7 @@ func BenchmarkScaleEditKinds(b *testing.B) {
 			var mapping, analysing, publishing time.Duration
 			b.ReportAllocs()
 			b.ResetTimer()
+			faults := minorFaults()
 			for i := 0; i < b.N; i++ {
 				next := k.edit(content, rng)
 				t0 := time.Now()
@@ -278,6 +280,8 @@ func BenchmarkScaleEditKinds(b *testing.B) {
 			b.ReportMetric(float64(mapping.Microseconds())/1e3/float64(b.N), "map-ms")
 			b.ReportMetric(float64(analysing.Microseconds())/1e3/float64(b.N), "analyze-ms")
 			b.ReportMetric(float64(publishing.Microseconds())/1e3/float64(b.N), "publish-ms")
+			// page faults are the cost of fresh memory (see idleGarbage)
+			b.ReportMetric(float64(minorFaults()-faults)/float64(b.N), "faults/op")
 		})
 	}
 }

@@ -38,8 +38,8 @@ func (s *Server) codeActions(ctx context.Context, snap *snapshot, params json.Ra
 			continue
 		}
 		ca := codeAction{Title: act.Title, Kind: act.Kind}
-		if act.Diagnostic >= 0 && act.Diagnostic < len(res.Diagnostics) {
-			d, err := toDiagnostic(f, &res.Diagnostics[act.Diagnostic])
+		if fixed := res.Diagnostic(act.Diagnostic); fixed != nil {
+			d, err := toDiagnostic(f, fixed)
 			if err != nil {
 				return nil, err
 			}

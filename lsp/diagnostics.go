@@ -23,13 +23,15 @@ import (
 // source, severity, the Unnecessary tag for marks that change nothing, and
 // related places in the same document.
 func (s *Server) toDiagnostics(f *fileVersion, res *document.Result) ([]protocol.Diagnostic, error) {
-	out := make([]protocol.Diagnostic, 0, len(res.Diagnostics))
-	for i := range res.Diagnostics {
-		d, err := toDiagnostic(f, &res.Diagnostics[i])
-		if err != nil {
-			return nil, err
+	out := make([]protocol.Diagnostic, 0, res.DiagnosticCount())
+	for _, part := range res.DiagnosticParts() {
+		for i := range part {
+			d, err := toDiagnostic(f, &part[i])
+			if err != nil {
+				return nil, err
+			}
+			out = append(out, d)
 		}
-		out = append(out, d)
 	}
 	return out, nil
 }

@@ -58,14 +58,17 @@ type publication struct {
 	encoding PositionEncoding
 	content  []byte // the text the positions were computed in
 	lines    int    // its line count
-	// diags are the findings written: a result's, which is never changed
-	// once made (results are values), so they stay as they were
-	diags []document.Diagnostic
+	// diags are the findings written, in the order written: pointers into
+	// a result's findings, which are never changed once made (results are
+	// values), so they stay as they were
+	diags []*document.Diagnostic
 	bufs  [][]byte // the buffers holding the findings' JSON
 	at    []jsonAt // where the JSON of each finding lies, in bufs
-	// spare is the at of the publication before this one, which nothing
-	// reads once this one is made: the next publication's at
-	spare []jsonAt
+	// spare and spareDiags are the at and diags of the publication before
+	// this one, which nothing reads once this one is made: the next
+	// publication's
+	spare      []jsonAt
+	spareDiags []*document.Diagnostic
 	// parts are the params to write, one after the other: the head, the
 	// runs of findings' JSON and the commas between runs, the tail.
 	parts [][]byte
@@ -89,10 +92,12 @@ const (
 	// maxPublicationParts bounds the parts of a publication; each edit
 	// may add a few.
 	maxPublicationParts = 4096
-	// A publication keeps buffers of at most twice the bytes it uses
-	// from them, and maxSpareBytes more.
-	maxSpareBytes = 4 << 20
 )
+
+// A publication keeps buffers of at most a quarter more than the bytes it
+// uses from them, and maxSpareBytes more; past that the JSON it takes is
+// copied together (compact). A variable for the tests.
+var maxSpareBytes = 4 << 20
 
 var comma = []byte{','}
 
@@ -154,7 +159,18 @@ const publishChunk = 4096
 // on all cores when they are many. The caller gives prev's unused buffers
 // back with prev.release once the result replaces it.
 func publish(prev *publication, f *fileVersion, res *document.Result, version *int32) (*publication, error) {
-	ds := res.Diagnostics
+	n := res.DiagnosticCount()
+	var ds []*document.Diagnostic
+	if prev != nil && cap(prev.spareDiags) >= n {
+		ds = prev.spareDiags[:0]
+	} else {
+		ds = make([]*document.Diagnostic, 0, n+n/32+64)
+	}
+	for _, part := range res.DiagnosticParts() {
+		for k := range part {
+			ds = append(ds, &part[k])
+		}
+	}
 	var at []jsonAt
 	if prev != nil && cap(prev.spare) >= len(ds) {
 		at = prev.spare[:len(ds)]
@@ -165,7 +181,7 @@ func publish(prev *publication, f *fileVersion, res *document.Result, version *i
 	p := &publication{uri: f.URI, encoding: f.mapper.Encoding(), content: f.content(), lines: f.mapper.LineCount(),
 		diags: ds, at: at}
 	if prev != nil {
-		p.spare = prev.at
+		p.spare, p.spareDiags = prev.at, prev.diags
 	}
 	p.reuse(prev)
 	reused := func(i int) bool { return p.at[i].buf >= 0 }
@@ -198,7 +214,7 @@ func publish(prev *publication, f *fileVersion, res *document.Result, version *i
 				b = append(b, ',')
 			}
 			start := len(b)
-			b, err = appendDiagnostic(b, &c, uri, &ds[i])
+			b, err = appendDiagnostic(b, &c, uri, ds[i])
 			if len(b)-start > math.MaxUint32 {
 				err = fmt.Errorf("%s: a finding of %d bytes of JSON", ds[i].Code, len(b)-start)
 			}
@@ -272,7 +288,7 @@ func (p *publication) reuse(prev *publication) {
 		if k == len(old) {
 			break
 		}
-		if !m.same(&ds[i], &old[k]) {
+		if !m.same(ds[i], old[k]) {
 			continue
 		}
 		a := prev.at[k]
@@ -292,12 +308,40 @@ func (p *publication) reuse(prev *publication) {
 	for _, b := range p.bufs {
 		kept += cap(b)
 	}
-	if 4*runs > maxPublicationParts || kept > 2*used+maxSpareBytes {
+	switch {
+	case 4*runs > maxPublicationParts:
 		p.bufs = p.bufs[:0]
 		for i := range p.at {
 			p.at[i].buf = -1
 		}
+	case kept > used+used/4+maxSpareBytes:
+		p.compact(used)
 	}
+}
+
+// compact copies the JSON p takes from the last publication into one
+// buffer of its own, in order, so that p does not keep the last one's
+// buffers for the part of them it uses: an edit that moves lines has the
+// findings after it written afresh, and without this the buffers kept
+// would grow to twice the JSON.
+func (p *publication) compact(used int) {
+	need := used + len(p.at) // and a comma before each
+	b := partBuffer(need)
+	if cap(b) < need {
+		b = make([]byte, 0, need)
+	}
+	for i, a := range p.at {
+		if a.buf < 0 {
+			continue
+		}
+		if len(b) > 0 {
+			b = append(b, ',')
+		}
+		from := len(b)
+		b = append(b, p.bufs[a.buf][a.from:a.to()]...)
+		p.at[i] = jsonAt{buf: 0, from: from, n: a.n}
+	}
+	p.bufs = append(p.bufs[:0], b)
 }
 
 // offsetMap maps offsets into the text of a new publication to offsets

@@ -28,8 +28,8 @@ func TestDiagnosticsJSON(t *testing.T) {
 	for _, enc := range []PositionEncoding{EncodingUTF16, EncodingUTF8} {
 		f := &fileVersion{URI: "file:///t/a \"b\".smi", Name: "/t/a.smi", Version: 3, mapper: NewMapper([]byte(text), enc)}
 		res := document.NewAnalyzer(document.DefaultConfig()).Analyze(f.Name, "", []byte(text))
-		if len(res.Diagnostics) < 4 {
-			t.Fatalf("%d findings, want at least 4", len(res.Diagnostics))
+		if len(res.Diagnostics()) < 4 {
+			t.Fatalf("%d findings, want at least 4", len(res.Diagnostics()))
 		}
 		if raw, want, same := publicationAgainstMarshal(t, f, res); !same {
 			t.Errorf("encoding %v:\n got %s\nwant %s", enc, raw, want)
@@ -62,8 +62,8 @@ func TestDiagnosticsJSONInParts(t *testing.T) {
 	text := b.String()
 	f := &fileVersion{URI: "file:///t/parts.smi", Name: "/t/parts.smi", Version: 1, mapper: NewMapper([]byte(text), EncodingUTF16)}
 	res := document.NewAnalyzer(document.DefaultConfig()).Analyze(f.Name, "", []byte(text))
-	if len(res.Diagnostics) <= publishChunk+100 {
-		t.Fatalf("%d findings, want more than %d", len(res.Diagnostics), publishChunk+100)
+	if len(res.Diagnostics()) <= publishChunk+100 {
+		t.Fatalf("%d findings, want more than %d", len(res.Diagnostics()), publishChunk+100)
 	}
 	if _, _, same := publicationAgainstMarshal(t, f, res); !same {
 		t.Errorf("the publication in parts differs from the marshalled one")
@@ -184,6 +184,17 @@ func TestAppendStringWords(t *testing.T) {
 // publication where an edit moved no line, so it fails if nothing is
 // (records invented for the test).
 func TestPublicationFromLast(t *testing.T) {
+	t.Run("spare", func(t *testing.T) { testPublicationFromLast(t) })
+	// Without spare bytes, a publication copies what it takes from the
+	// last one together whenever it would keep more than it uses.
+	t.Run("compact", func(t *testing.T) {
+		defer func(n int) { maxSpareBytes = n }(maxSpareBytes)
+		maxSpareBytes = 0
+		testPublicationFromLast(t)
+	})
+}
+
+func testPublicationFromLast(t *testing.T) {
 	records := []string{"N[C@@H](C)C(=O)O", "N[C@H](C)C(=O)O", "C[C@H](F)Cl", "C[C@@H](F)Cl", "F/C=C/F", "F/C=C\\F", "C1CC(", "OC[C@H]1OC(O)[C@@H](O)[C@H]1O"}
 	breaks := []string{"\n", "\r\n", "\r"}
 	rng := rand.New(rand.NewSource(7))
@@ -266,8 +277,22 @@ func TestPublicationFromLast(t *testing.T) {
 				t.Fatalf("%v step %d (%q at %d-%d): the publication made from the last differs from the one written afresh:\n got %s\nwant %s",
 					enc, step, ins, from, to, got, fresh)
 			}
-			if m.LineCount() == last.lines && len(res.Diagnostics) > 100 && len(p.parts) < 40 {
+			if m.LineCount() == last.lines && len(res.Diagnostics()) > 100 && len(p.parts) < 40 {
 				sameLines++
+			}
+			if maxSpareBytes == 0 && len(p.bufs) > 0 {
+				kept, used := 0, 0
+				for _, b := range p.bufs[:1] {
+					kept += cap(b)
+				}
+				for _, a := range p.at {
+					if a.buf == 0 {
+						used += int(a.n) + 1
+					}
+				}
+				if kept > 2*used+64<<10 {
+					t.Fatalf("%v step %d: the first buffer holds %d bytes for %d used", enc, step, kept, used)
+				}
 			}
 			last.release(p)
 			last = p

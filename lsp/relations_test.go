@@ -67,7 +67,7 @@ func TestRelationsPublishedSecond(t *testing.T) {
 	c.until("two publications", func() bool { return len(c.diags) >= 2 })
 	pubs := c.published(u)
 	code := func(d document.Diagnostic) string { return string(d.Code) }
-	want := document.NewAnalyzer(document.DefaultConfig()).Analyze("/work/isomers.smi", "", []byte(text)).Diagnostics
+	want := document.NewAnalyzer(document.DefaultConfig()).Analyze("/work/isomers.smi", "", []byte(text)).Diagnostics()
 	wire := func(i int) (own, rel map[string]int) {
 		code := func(d protocol.Diagnostic) string { return fmt.Sprint(d.Code) }
 		return codeCounts(pubs[i].Diagnostics, code, false), codeCounts(pubs[i].Diagnostics, code, true)
@@ -106,7 +106,7 @@ func TestRelationsSoonPublishedOnce(t *testing.T) {
 	quiet()
 	pubs := c.published(u)
 	code := func(d protocol.Diagnostic) string { return fmt.Sprint(d.Code) }
-	want := document.NewAnalyzer(document.DefaultConfig()).Analyze("/work/isomers.smi", "", []byte(text)).Diagnostics
+	want := document.NewAnalyzer(document.DefaultConfig()).Analyze("/work/isomers.smi", "", []byte(text)).Diagnostics()
 	if len(pubs) != 1 {
 		t.Fatalf("%d publications, want 1", len(pubs))
 	}

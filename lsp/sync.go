@@ -3,6 +3,7 @@ package lsp
 import (
 	"encoding/json"
 	"fmt"
+	"time"
 
 	"go.lsp.dev/protocol"
 	"go.uber.org/zap"
@@ -65,7 +66,9 @@ func (s *Server) change(uri string, version int32, changes []contentChange) erro
 		s.log.Warn("document version did not increase", zap.String("uri", uri),
 			zap.Int32("had", old.Version), zap.Int32("got", version))
 	}
+	begun := time.Now()
 	mapper, err := applyChanges(old.mapper, enc, changes)
+	s.log.Debug("changed", zap.String("uri", uri), zap.Int32("version", version), zap.Duration("took", time.Since(begun)))
 	if err != nil {
 		// The client and the server now disagree on the text; keeping
 		// the old version is the least wrong, and the log says so.

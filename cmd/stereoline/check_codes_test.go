@@ -125,7 +125,7 @@ func TestCatalogueExamples(t *testing.T) {
 		res := a.Analyze(d.Example.File, "", []byte(d.Example.Text))
 		found := false
 		var got []string
-		for _, diag := range res.Diagnostics {
+		for _, diag := range res.Diagnostics() {
 			found = found || diag.Code == d.Code
 			got = append(got, string(diag.Code))
 		}

@@ -229,7 +229,7 @@ func TestCheckSameAsEditor(t *testing.T) {
 		res := analyzer.Analyze(f, "", content)
 		m := lsp.NewMapper(content, lsp.EncodingUTF16)
 		var want []jsonFinding
-		for _, d := range res.Diagnostics {
+		for _, d := range res.Diagnostics() {
 			r, err := m.SpanToRange(d.Span)
 			if err != nil {
 				t.Fatalf("%s: %v", f, err)

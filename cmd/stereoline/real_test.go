@@ -170,7 +170,7 @@ func TestRealCorpus(t *testing.T) {
 			res := a.Analyze(path, "", content)
 			lineOf := func(off int) int { return 1 + bytes.Count(content[:off], []byte{'\n'}) }
 			counts := map[string]int{}
-			for _, d := range res.Diagnostics {
+			for _, d := range res.Diagnostics() {
 				severities[d.Severity]++
 				if d.Severity > notation.SeverityWarning {
 					continue

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"runtime"
 	"runtime/pprof"
 
 	"go.uber.org/zap"
@@ -57,6 +58,16 @@ func serve(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		if f, err := os.Create(prof); err == nil && pprof.StartCPUProfile(f) == nil {
 			defer func() { pprof.StopCPUProfile(); f.Close() }()
 		}
+	}
+	if prof := os.Getenv("STEREOLINE_HEAPPROFILE"); prof != "" {
+		// what the heap holds at the end of the session, for developers
+		defer func() {
+			if f, err := os.Create(prof); err == nil {
+				runtime.GC()
+				pprof.WriteHeapProfile(f)
+				f.Close()
+			}
+		}()
 	}
 	widenPipe(stdout)
 	return lsp.Serve(context.Background(), stdio{stdin, stdout}, log, lsp.Options{})

@@ -22,7 +22,7 @@ type Action struct {
 	Title string
 	Kind  string
 	Edits []Edit
-	// Diagnostic is the index in Result.Diagnostics the action fixes, or
+	// Diagnostic is the index in Result.Diagnostics() the action fixes, or
 	// -1 for rewrites.
 	Diagnostic int
 }
@@ -32,13 +32,17 @@ type Action struct {
 // empty span: the cursor).
 func (r *Result) Actions(span notation.Span) []Action {
 	var out []Action
-	for i, d := range r.Diagnostics {
-		if !d.Span.Overlaps(span) && !(span.Len() == 0 && span.Start == d.Span.End) {
-			continue
+	i := 0
+	for _, part := range r.DiagnosticParts() {
+		for k := range part {
+			d := &part[k]
+			if d.Span.Overlaps(span) || span.Len() == 0 && span.Start == d.Span.End {
+				for _, f := range d.Fixes {
+					out = append(out, Action{Title: f.Title, Kind: KindQuickFix, Edits: f.Edits, Diagnostic: i + k})
+				}
+			}
 		}
-		for _, f := range d.Fixes {
-			out = append(out, Action{Title: f.Title, Kind: KindQuickFix, Edits: f.Edits, Diagnostic: i})
-		}
+		i += len(part)
 	}
 	out = append(out, r.rewrites(span)...)
 	return out

@@ -61,8 +61,15 @@ type Result struct {
 	// Queries are the query patterns (SMARTS) of the document, read by
 	// their own reader and never checked as notation (query.go).
 	Queries []Query
-	// Diagnostics are sorted by host position.
-	Diagnostics []Diagnostic
+	// diags are the findings, sorted by host position, unless they are
+	// kept in parts (Diagnostics, DiagnosticParts).
+	diags []Diagnostic
+	// parts, when not nil, are the findings of a list in parts of
+	// partRecords records each (the last may hold fewer), which versions
+	// share where an edit left their records alone; joined makes diags
+	// of them when someone asks for all findings in one slice.
+	parts  [][]Diagnostic
+	joined *joinedParts
 
 	cfg     *Config
 	lines   []int // line starts, built on first use
@@ -262,9 +269,9 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	for _, own := range res.own {
 		n += len(own)
 	}
-	res.Diagnostics = make([]Diagnostic, 0, n)
+	res.diags = make([]Diagnostic, 0, n)
 	for _, own := range res.own {
-		res.Diagnostics = append(res.Diagnostics, own...)
+		res.diags = append(res.diags, own...)
 	}
 	res.queryDiagnostics()
 	res.sortDiagnostics()
@@ -300,7 +307,7 @@ func (s *preKeys) add(k uint64, i int) (first int, again bool) {
 
 // sortDiagnostics orders the findings by host position, stably, so
 // findings at one place keep the order they were made in.
-func (r *Result) sortDiagnostics() { sortByPosition(r.Diagnostics) }
+func (r *Result) sortDiagnostics() { sortByPosition(r.diags) }
 
 // sortByPosition orders findings by host position, stably. Findings
 // made record by record in host order (a list's) are in order already,
@@ -362,7 +369,7 @@ func parallel(n int, f func(int)) {
 // add appends a diagnostic after applying the configured severity.
 func (r *Result) add(d Diagnostic) {
 	if d, on := r.configured(d); on {
-		r.Diagnostics = append(r.Diagnostics, d)
+		r.diags = append(r.diags, d)
 	}
 }
 

@@ -83,7 +83,7 @@ func compareAnswers(t *testing.T, what string, got, want *Result, rng *rand.Rand
 	if g, w := got.InlayLabels(), want.InlayLabels(); !reflect.DeepEqual(g, w) {
 		t.Errorf("%s: inline labels differ: %d, want %d", what, len(g), len(w))
 	}
-	for _, d := range want.Diagnostics {
+	for _, d := range want.Diagnostics() {
 		if g, w := got.Actions(d.Span), want.Actions(d.Span); !reflect.DeepEqual(g, w) {
 			t.Errorf("%s: actions at %v differ:\n got %+v\nwant %+v", what, d.Span, g, w)
 			return

@@ -24,7 +24,7 @@ func TestListDiagnosticsInHostOffsets(t *testing.T) {
 		t.Fatalf("records = %d, want 2", len(res.Records))
 	}
 	var found bool
-	for _, d := range res.Diagnostics {
+	for _, d := range res.Diagnostics() {
 		if d.Code == stereo.CodeIneffectiveCenter {
 			found = true
 			if got := text[d.Span.Start:d.Span.End]; !strings.Contains(got, "@") {
@@ -36,7 +36,7 @@ func TestListDiagnosticsInHostOffsets(t *testing.T) {
 		}
 	}
 	if !found {
-		t.Errorf("no %s on C[C@H](C)O: %+v", stereo.CodeIneffectiveCenter, res.Diagnostics)
+		t.Errorf("no %s on C[C@H](C)O: %+v", stereo.CodeIneffectiveCenter, res.Diagnostics())
 	}
 }
 
@@ -76,7 +76,7 @@ func TestSeverityOverride(t *testing.T) {
 		t.Fatal(err)
 	}
 	res := NewAnalyzer(cfg).Analyze("x.smi", "", []byte("C[C@H](C)O\n"))
-	for _, d := range res.Diagnostics {
+	for _, d := range res.Diagnostics() {
 		if d.Code == stereo.CodeIneffectiveCenter {
 			t.Errorf("code switched off but reported: %+v", d)
 		}
@@ -110,7 +110,7 @@ func TestListRelations(t *testing.T) {
 	res := analyze(t, "pool.smi", text)
 	want := map[notation.Code]int{CodeListEnantiomer: 2, CodeListDuplicate: 3, CodeListStereoisomer: 5}
 	got := map[notation.Code]int{}
-	for _, d := range res.Diagnostics {
+	for _, d := range res.Diagnostics() {
 		if _, ok := want[d.Code]; ok {
 			got[d.Code] = res.lineOf(d.Span.Start) + 1
 			if len(d.Related) != 1 || d.Related[0].Span.Start != res.Records[0].Occ.Span.Start && d.Code != CodeListStereoisomer {
@@ -120,12 +120,12 @@ func TestListRelations(t *testing.T) {
 	}
 	for code, line := range want {
 		if got[code] != line {
-			t.Errorf("%s on line %d, want line %d (all: %+v)", code, got[code], line, res.Diagnostics)
+			t.Errorf("%s on line %d, want line %d (all: %+v)", code, got[code], line, res.Diagnostics())
 		}
 	}
 	// Source code is not a list: the same string twice is not reported.
 	res = analyze(t, "t.py", "smiles_in = \"N[C@@H](C)C(=O)O\"\nsmiles_out = \"N[C@@H](C)C(=O)O\"\n")
-	for _, d := range res.Diagnostics {
+	for _, d := range res.Diagnostics() {
 		if d.Code == CodeListDuplicate {
 			t.Errorf("duplicate reported in source code: %+v", d)
 		}
@@ -157,7 +157,7 @@ func TestActions(t *testing.T) {
 	}
 	// The one-sided bond's quick fix adds a partner mark, doubled.
 	var fix *Action
-	for _, d := range res.Diagnostics {
+	for _, d := range res.Diagnostics() {
 		if d.Code == stereo.CodeOneSidedBond {
 			for _, a := range res.Actions(d.Span) {
 				if a.Kind == KindQuickFix {
@@ -172,7 +172,7 @@ func TestActions(t *testing.T) {
 	}
 	fixed := text[:fix.Edits[0].Span.Start] + fix.Edits[0].NewText + text[fix.Edits[0].Span.End:]
 	after := analyze(t, "x.py", fixed)
-	for _, d := range after.Diagnostics {
+	for _, d := range after.Diagnostics() {
 		if d.Code == stereo.CodeOneSidedBond {
 			t.Errorf("after the fix %q still one-sided: %+v", fixed, d)
 		}
@@ -194,14 +194,14 @@ func TestParallelAnalysis(t *testing.T) {
 	lines := strings.SplitAfter(text, "\n")
 	for _, l := range lines[:len(records)] {
 		one := analyze(t, "one.smi", l)
-		for _, d := range one.Diagnostics {
+		for _, d := range one.Diagnostics() {
 			if !strings.HasPrefix(string(d.Code), "list-") {
 				want++
 			}
 		}
 	}
 	got := 0
-	for _, d := range big.Diagnostics {
+	for _, d := range big.Diagnostics() {
 		if big.RecordAt(d.Span.Start) < len(records) && !strings.HasPrefix(string(d.Code), "list-") {
 			got++
 		}

@@ -33,7 +33,7 @@ func TestGroupRelationsInAList(t *testing.T) {
 		"C[C@H](O)CC |&1:1|":            "",
 	}
 	got := map[string]string{}
-	for _, d := range r.Diagnostics {
+	for _, d := range r.Diagnostics() {
 		if !strings.HasPrefix(string(d.Code), "list-") {
 			continue
 		}
@@ -62,7 +62,7 @@ func TestGroupFixes(t *testing.T) {
 	for _, tt := range tests {
 		r := NewAnalyzer(DefaultConfig()).Analyze("x.cxsmi", "", []byte(tt.have))
 		found := false
-		for _, d := range r.Diagnostics {
+		for _, d := range r.Diagnostics() {
 			if string(d.Code) != tt.code {
 				continue
 			}

@@ -42,7 +42,7 @@ func TestLimitsKeyTheCache(t *testing.T) {
 	}{{base, 0}, {base.WithConfig(tight), 1}, {base, 0}} {
 		res := c.a.Analyze("list.smi", "", content)
 		var got []Diagnostic
-		for _, d := range res.Diagnostics {
+		for _, d := range res.Diagnostics() {
 			if d.Code == "stereo-over-budget" {
 				got = append(got, d)
 			}
@@ -73,7 +73,7 @@ func TestRecordAtomsLimit(t *testing.T) {
 	res := NewAnalyzer(cfg).Analyze("list.smi", "", content)
 	start := strings.Index(string(content), big)
 	var over, inBig int
-	for _, d := range res.Diagnostics {
+	for _, d := range res.Diagnostics() {
 		if d.Span.Start >= start && d.Span.Start < start+len(big) {
 			inBig++
 		}
@@ -85,7 +85,7 @@ func TestRecordAtomsLimit(t *testing.T) {
 		}
 	}
 	if over != 1 || inBig != 1 {
-		t.Errorf("%d budget findings, %d findings on the refused record, want 1 and 1: %+v", over, inBig, res.Diagnostics)
+		t.Errorf("%d budget findings, %d findings on the refused record, want 1 and 1: %+v", over, inBig, res.Diagnostics())
 	}
 	// the other two records are still related (enantiomers)
 	if len(res.Records) != 3 || res.Records[0].Identify() == nil || res.Records[2].Identify() == nil {
@@ -106,7 +106,7 @@ func TestRecordAtomsLimit(t *testing.T) {
 	res.Symbols()
 	// the default limit reads the record
 	res = NewAnalyzer(DefaultConfig()).Analyze("list.smi", "", content)
-	for _, d := range res.Diagnostics {
+	for _, d := range res.Diagnostics() {
 		if d.Code == "stereo-over-budget" {
 			t.Errorf("default limits: %+v", d)
 		}

@@ -36,7 +36,7 @@ func (a *Analyzer) AnalyzeOccurrences(name string, kind find.Kind, content []byt
 		res.own[i] = res.recordFindings(i, f)
 	})
 	for _, own := range res.own {
-		res.Diagnostics = append(res.Diagnostics, own...)
+		res.diags = append(res.diags, own...)
 	}
 	res.sortDiagnostics()
 	return res

@@ -56,7 +56,7 @@ func TestRelationsNeedCollidingPreKeys(t *testing.T) {
 	}, "\n") + "\n"
 	res := analyze(t, "pool.smi", text)
 	related := map[int]notation.Code{}
-	for _, d := range res.Diagnostics {
+	for _, d := range res.Diagnostics() {
 		if strings.HasPrefix(string(d.Code), "list-") {
 			related[d.Record] = d.Code
 		}
@@ -116,7 +116,7 @@ func TestPreKeyKeepsRelations(t *testing.T) {
 		earlier int
 	}
 	got := map[int]relation{}
-	for _, d := range res.Diagnostics {
+	for _, d := range res.Diagnostics() {
 		if strings.HasPrefix(string(d.Code), "list-") {
 			got[d.Record] = relation{d.Code, res.RecordAt(d.Related[0].Span.Start)}
 		}

@@ -21,7 +21,7 @@ func TestQueryPatterns(t *testing.T) {
 		t.Fatalf("queries %d, records %d; want 2 and 1", len(res.Queries), len(res.Records))
 	}
 	var codes []string
-	for _, d := range res.Diagnostics {
+	for _, d := range res.Diagnostics() {
 		codes = append(codes, string(d.Code))
 		if d.Code == smarts.CodeSyntax {
 			if got := text[d.Span.Start:d.Span.End]; got != ";" && got != "]" {

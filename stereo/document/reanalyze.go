@@ -116,7 +116,7 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 		next.compactOccurrences()
 	}
 	next.relateAgain(prev, prevKeys, i0, i1, dn, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
-	next.assembleFrom(prev, i0, i1, dn, delta, oldTo)
+	next.assembleFrom(prev, i0, i1, dn, delta)
 	return next
 }
 
@@ -199,19 +199,16 @@ func changedLines(old, new []byte) (from, oldTo, newTo int) {
 // Its related places and fixes move too: they lie in the same record.
 // New slices are made for them; related places of one element are taken
 // from slab, which is returned with what is left of it.
-func moveDiagnostic(d Diagnostic, delta, i int, slab []Related) (Diagnostic, []Related) {
+func moveDiagnostic(d Diagnostic, delta, i int, slab *relatedSlab) Diagnostic {
 	d.Record = i
 	if delta == 0 {
-		return d, slab
+		return d
 	}
 	d.Span = shift(d.Span, delta)
 	if d.Related != nil {
 		var rel []Related
 		if len(d.Related) == 1 {
-			if len(slab) == 0 {
-				slab = make([]Related, slabSize)
-			}
-			rel, slab = slab[:1:1], slab[1:]
+			rel = slab.take()
 		} else {
 			rel = make([]Related, len(d.Related))
 		}
@@ -234,12 +231,30 @@ func moveDiagnostic(d Diagnostic, delta, i int, slab []Related) (Diagnostic, []R
 		}
 		d.Fixes = fixes
 	}
-	return d, slab
+	return d
 }
 
-// slabSize is how many related places of one element assemble allocates
-// at a time.
+// A relatedSlab hands out related places of one element, allocated
+// together: a moved relation takes one, and a list has thousands.
+type relatedSlab struct {
+	free []Related
+	// left bounds the places still to be taken, so that the last
+	// allocation is no larger than it needs to be
+	left int
+}
+
+// slabSize is how many related places a slab allocates at most at a time.
 const slabSize = 512
+
+func (s *relatedSlab) take() []Related {
+	if len(s.free) == 0 {
+		s.free = make([]Related, min(slabSize, max(s.left, 1)))
+	}
+	r := s.free[:1:1]
+	s.free = s.free[1:]
+	s.left--
+	return r
+}
 
 // prekey is a record's constitution pre-key, ok when it has one (an
 // identifiable record). Results keep them in an array of their own for
@@ -343,56 +358,9 @@ func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn int, li
 	}
 }
 
-// assemble makes r.Diagnostics from the records' own findings and their
-// relations, in the order sortDiagnostics gives: a list's records do not
-// overlap, and a relation spans its record. Findings are moved to where
-// their records are now (own findings were made at ownAt; a relation
-// spans its record and names its earlier record's place) and given the
-// records' indices. The records are done in chunks on all cores: the
-// work is reading findings spread over the heap.
-func (r *Result) assemble() {
-	const chunk = 1024 // the tests' lists of 2,000 records take two
-	chunks := (len(r.own) + chunk - 1) / chunk
-	at := make([]int, chunks+1)
-	for c := range chunks {
-		n := 0
-		for i := c * chunk; i < min((c+1)*chunk, len(r.own)); i++ {
-			n += len(r.own[i])
-			if r.rel[i] != nil {
-				n++
-			}
-		}
-		at[c+1] = at[c] + n
-	}
-	out := make([]Diagnostic, at[chunks])
-	Spread(chunks, func(c int) {
-		r.assembleRecords(out[at[c]:at[c+1]], c*chunk, min((c+1)*chunk, len(r.own)))
-	})
-	r.Diagnostics = out
-}
-
-// assembleRecords writes the findings of records [from, to) into out,
-// which holds exactly them.
-func (r *Result) assembleRecords(out []Diagnostic, from, to int) {
-	var slab []Related
-	p := 0
-	for i := from; i < to; i++ {
-		n := len(r.own[i])
-		if r.rel[i] != nil {
-			n++
-		}
-		if n == 0 {
-			continue // most records: their occurrences are not read
-		}
-		slab = r.assembleRecord(out[p:p+n], i, slab)
-		p += n
-	}
-}
-
 // assembleRecord writes the findings of record i into out, which holds
-// exactly them, taking related places of one element from slab; it
-// returns what is left of slab.
-func (r *Result) assembleRecord(out []Diagnostic, i int, slab []Related) []Related {
+// exactly them, taking related places of one element from slab.
+func (r *Result) assembleRecord(out []Diagnostic, i int, slab *relatedSlab) {
 	own := r.own[i]
 	span := r.Records[i].Occ.Span
 	delta := 0
@@ -404,122 +372,23 @@ func (r *Result) assembleRecord(out []Diagnostic, i int, slab []Related) []Relat
 			out[k] = own[k]
 			continue
 		}
-		out[k], slab = moveDiagnostic(own[k], delta, i, slab)
+		out[k] = moveDiagnostic(own[k], delta, i, slab)
 	}
 	rel := r.rel[i]
 	if rel == nil {
-		return slab
+		return
 	}
 	d := rel.d
 	d.Record = i
 	d.Span = span
 	if at := r.Records[rel.earlier].Occ.Span; d.Related[0].Span != at {
-		if len(slab) == 0 {
-			slab = make([]Related, slabSize)
-		}
-		slab[0] = Related{Span: at, Message: d.Related[0].Message}
-		d.Related, slab = slab[:1:1], slab[1:]
+		d.Related = slab.take()
+		d.Related[0] = Related{Span: at, Message: rel.d.Related[0].Message}
 	}
 	mine := out[:len(own)]
 	k := sort.Search(len(mine), func(k int) bool { return before(d.Span, mine[k].Span) })
 	copy(out[k+1:], mine[k:])
 	out[k] = d
-	return slab
-}
-
-// assembleFrom is assemble for r made from prev by replacing prev's
-// records [i0, i1) with r's records [i0, i1+dn) and moving the records
-// after them by delta bytes (oldTo is where they started in prev's
-// text). The findings of the records whose relation did not change are
-// read from prev.Diagnostics, in order, and moved; only the others are
-// assembled from the records' findings and relations.
-func (r *Result) assembleFrom(prev *Result, i0, i1, dn, delta, oldTo int) {
-	if len(prev.own) != len(prev.Records) || len(prev.rel) != len(prev.Records) {
-		r.assemble()
-		return
-	}
-	count := func(own [][]Diagnostic, rel []*relation, i int) int {
-		if rel[i] != nil {
-			return len(own[i]) + 1
-		}
-		return len(own[i])
-	}
-	n := 0
-	for i := range r.own {
-		n += count(r.own, r.rel, i)
-	}
-	pd := prev.Diagnostics
-	out := make([]Diagnostic, n)
-	var slab []Related
-	p, q := 0, 0 // next finding of pd, of out
-	// pd[copied:p] are findings that go to out[q:] as they are, copied
-	// in one go before anything else is written.
-	copied := 0
-	flush := func() {
-		q += copy(out[q:], pd[copied:p])
-	}
-	for i := range r.Records {
-		if i == i0 {
-			flush()
-			for old := i0; old < i1; old++ {
-				p += count(prev.own, prev.rel, old)
-			}
-			copied = p
-		}
-		old := i
-		if i >= i1+dn {
-			old = i - dn
-		}
-		fresh := i >= i0 && i < i1+dn
-		if !fresh {
-			run := count(prev.own, prev.rel, old)
-			if r.rel[i] == prev.rel[old] {
-				if i < i1+dn || delta == 0 && dn == 0 {
-					p += run
-					continue
-				}
-				flush()
-				src := pd[p : p+run]
-				p += run
-				copied = p
-				for k := range src {
-					d := src[k]
-					if IsRelation(d.Code) && r.rel[i] != nil {
-						d.Record = i
-						d.Span = shift(d.Span, delta)
-						if at := d.Related[0].Span; at.Start >= oldTo && delta != 0 {
-							if len(slab) == 0 {
-								slab = make([]Related, slabSize)
-							}
-							slab[0] = Related{Span: shift(at, delta), Message: d.Related[0].Message}
-							d.Related, slab = slab[:1:1], slab[1:]
-						}
-					} else {
-						d, slab = moveDiagnostic(d, delta, i, slab)
-					}
-					out[q] = d
-					q++
-				}
-				continue
-			}
-			flush()
-			p += run
-			copied = p
-		} else {
-			flush()
-			copied = p
-		}
-		k := count(r.own, r.rel, i)
-		slab = r.assembleRecord(out[q:q+k], i, slab)
-		q += k
-	}
-	flush()
-	if p != len(pd) || q != n {
-		// prev's findings were not in record order: not expected of a list
-		r.assemble()
-		return
-	}
-	r.Diagnostics = out
 }
 
 // Spread calls f(0) ... f(n-1) on all cores; each call is a large piece

@@ -92,7 +92,7 @@ func TestReanalyzeEqualsAnalyze(t *testing.T) {
 			// equal those assembled from the records (assemble).
 			whole := *next
 			whole.assemble()
-			if !reflect.DeepEqual(whole.Diagnostics, next.Diagnostics) {
+			if !reflect.DeepEqual(whole.Diagnostics(), next.Diagnostics()) {
 				t.Fatalf("step %d (%s): assemble and assembleFrom differ", step, what)
 			}
 		} else {
@@ -180,12 +180,12 @@ func compareResults(t *testing.T, what string, got, want *Result) {
 			return
 		}
 	}
-	if len(got.Diagnostics) != len(want.Diagnostics) {
-		t.Errorf("%s: %d findings, want %d", what, len(got.Diagnostics), len(want.Diagnostics))
+	if len(got.Diagnostics()) != len(want.Diagnostics()) {
+		t.Errorf("%s: %d findings, want %d", what, len(got.Diagnostics()), len(want.Diagnostics()))
 	}
-	for i := range min(len(got.Diagnostics), len(want.Diagnostics)) {
-		if !reflect.DeepEqual(got.Diagnostics[i], want.Diagnostics[i]) {
-			t.Errorf("%s: finding %d:\n got %+v\nwant %+v", what, i, got.Diagnostics[i], want.Diagnostics[i])
+	for i := range min(len(got.Diagnostics()), len(want.Diagnostics())) {
+		if !reflect.DeepEqual(got.Diagnostics()[i], want.Diagnostics()[i]) {
+			t.Errorf("%s: finding %d:\n got %+v\nwant %+v", what, i, got.Diagnostics()[i], want.Diagnostics()[i])
 			return
 		}
 	}

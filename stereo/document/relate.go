@@ -52,7 +52,13 @@ func (r *Result) Relate() *Result {
 		own:     r.own,
 	}
 	next.relateRecords()
-	next.Diagnostics = mergeRelations(r.Diagnostics, next.rel)
+	if next.Kind == find.KindList && len(next.Queries) == 0 && len(next.rel) == len(next.own) && len(next.own) == len(next.Records) {
+		// A list's findings, in parts of records (parts.go): a
+		// Reanalyze of the next version keeps those the edit left alone.
+		next.assemble()
+		return next
+	}
+	next.diags = mergeRelations(r.Diagnostics(), next.rel)
 	return next
 }
 

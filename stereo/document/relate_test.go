@@ -27,13 +27,13 @@ func TestRelateInTwoSteps(t *testing.T) {
 	}, "\n") + "\n"
 	a := NewAnalyzer(DefaultConfig())
 	first := a.AnalyzeRecords("pool.smi", "", []byte(text))
-	firstDiags := append([]Diagnostic(nil), first.Diagnostics...)
-	for _, d := range first.Diagnostics {
+	firstDiags := append([]Diagnostic(nil), first.Diagnostics()...)
+	for _, d := range first.Diagnostics() {
 		if strings.HasPrefix(string(d.Code), "list-") {
 			t.Errorf("relation before Relate: %+v", d)
 		}
 	}
-	if len(first.Diagnostics) == 0 {
+	if len(first.Diagnostics()) == 0 {
 		t.Fatalf("no findings of the records themselves")
 	}
 	related := first.Relate()
@@ -41,10 +41,10 @@ func TestRelateInTwoSteps(t *testing.T) {
 	if !reflect.DeepEqual(codesAndSpans(related), codesAndSpans(whole)) {
 		t.Errorf("in two steps:\n%v\nin one:\n%v", codesAndSpans(related), codesAndSpans(whole))
 	}
-	if n := len(related.Diagnostics) - len(first.Diagnostics); n != 3 {
+	if n := len(related.Diagnostics()) - len(first.Diagnostics()); n != 3 {
 		t.Errorf("Relate added %d findings, want 3: an enantiomer, a duplicate, a stereoisomer", n)
 	}
-	if !reflect.DeepEqual(first.Diagnostics, firstDiags) {
+	if !reflect.DeepEqual(first.Diagnostics(), firstDiags) {
 		t.Errorf("Relate changed the first result's findings")
 	}
 	for i := range first.Records {
@@ -59,7 +59,7 @@ func TestRelateInTwoSteps(t *testing.T) {
 
 func codesAndSpans(r *Result) []string {
 	var out []string
-	for _, d := range r.Diagnostics {
+	for _, d := range r.Diagnostics() {
 		out = append(out, string(d.Code)+" "+string(r.Content[d.Span.Start:d.Span.End])+" "+d.Message)
 	}
 	return out
@@ -105,5 +105,37 @@ func TestMergeRelations(t *testing.T) {
 		if got := mergeRelations(ds, rel); len(got)+len(want) > 0 && !reflect.DeepEqual(got, want) {
 			t.Fatalf("round %d:\n got %v\nwant %v", round, got, want)
 		}
+	}
+}
+
+// TestRelateListInParts checks that the findings of a related list, kept
+// in parts of records, are those a merge of the relations into the
+// records' findings sorted by position gives, as for other related
+// kinds, and that the parts are aligned on records as Reanalyze needs.
+func TestRelateListInParts(t *testing.T) {
+	rng := rand.New(rand.NewSource(7))
+	text := strings.Join(editList(rng, 3*partRecords+17), "\n") + "\n"
+	records := NewAnalyzer(DefaultConfig()).AnalyzeRecords("parts.smi", "", []byte(text))
+	related := records.Relate()
+	if related.parts == nil {
+		t.Fatalf("a related list keeps no parts")
+	}
+	want := mergeRelations(records.Diagnostics(), related.rel)
+	if !reflect.DeepEqual(related.Diagnostics(), want) {
+		t.Fatalf("parts joined differ from the merge: %d findings against %d", related.DiagnosticCount(), len(want))
+	}
+	relations := 0
+	for c, part := range related.DiagnosticParts() {
+		for _, d := range part {
+			if d.Record < c*partRecords || d.Record >= (c+1)*partRecords {
+				t.Fatalf("part %d holds a finding of record %d", c, d.Record)
+			}
+			if IsRelation(d.Code) {
+				relations++
+			}
+		}
+	}
+	if relations == 0 || relations == related.DiagnosticCount() {
+		t.Errorf("%d relations among %d findings: the list does not test the merge", relations, related.DiagnosticCount())
 	}
 }

@@ -117,19 +117,19 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 			chunk.Records[k] = Record{Occ: &occs[k], an: an}
 		})
 		for k := range chunk.Records {
-			chunk.Diagnostics = append(chunk.Diagnostics, chunk.recordFindings(k, chunk.Records[k].an.get())...)
+			chunk.diags = append(chunk.diags, chunk.recordFindings(k, chunk.Records[k].an.get())...)
 		}
-		for k := range chunk.Diagnostics {
-			chunk.Diagnostics[k].Record += start
+		for k := range chunk.diags {
+			chunk.diags[k].Record += start
 		}
 		rel.chunk(chunk, start)
-		emit(chunk.Diagnostics)
+		emit(chunk.diags)
 		store.release(chunk.Records)
 		start += len(occs)
 	})
 	res.queryDiagnostics()
-	if len(res.Diagnostics) > 0 {
-		emit(res.Diagnostics)
+	if len(res.diags) > 0 {
+		emit(res.diags)
 	}
 	return start + len(res.Queries)
 }

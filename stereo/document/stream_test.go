@@ -48,16 +48,16 @@ func TestStreamMatchesAnalyze(t *testing.T) {
 			if n != len(want.Records)+len(want.Queries) {
 				t.Errorf("%s: Stream counted %d records, Analyze %d", f, n, len(want.Records)+len(want.Queries))
 			}
-			if len(got) != len(want.Diagnostics) {
-				t.Errorf("chunk %d, %s: %d findings streamed, Analyze has %d", chunk, f, len(got), len(want.Diagnostics))
+			if len(got) != len(want.Diagnostics()) {
+				t.Errorf("chunk %d, %s: %d findings streamed, Analyze has %d", chunk, f, len(got), len(want.Diagnostics()))
 				continue
 			}
 			for i := range got {
 				if IsRelation(got[i].Code) {
 					relations++
 				}
-				if !reflect.DeepEqual(got[i], want.Diagnostics[i]) {
-					t.Errorf("chunk %d, %s: finding %d\n got %+v\nwant %+v", chunk, f, i, got[i], want.Diagnostics[i])
+				if !reflect.DeepEqual(got[i], want.Diagnostics()[i]) {
+					t.Errorf("chunk %d, %s: finding %d\n got %+v\nwant %+v", chunk, f, i, got[i], want.Diagnostics()[i])
 					break
 				}
 			}

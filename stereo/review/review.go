@@ -317,7 +317,7 @@ func contentKeys(res *document.Result, at, to []int) []uint64 {
 // byRecord groups a result's findings by record.
 func byRecord(res *document.Result) map[int][]document.Diagnostic {
 	out := map[int][]document.Diagnostic{}
-	for _, d := range res.Diagnostics {
+	for _, d := range res.Diagnostics() {
 		if d.Record >= 0 {
 			out[d.Record] = append(out[d.Record], d)
 		}

@@ -187,8 +187,10 @@ type worker struct {
 	// document's publishing goroutine reads or replaces it
 	published map[string]*publication
 	wake      chan struct{}
-	// collecting is set while an idle collection runs (collectIfIdle)
+	// collecting is set while an idle collection runs (collectIfIdle);
+	// collected is closed when the last one started ends
 	collecting atomic.Bool
+	collected  atomic.Pointer[chan struct{}]
 	pub        sync.Mutex // orders the check that a version is current with its publication
 }
 
@@ -204,7 +206,8 @@ func newWorker(s *Server) *worker {
 	}
 }
 
-// schedule asks for uri to be published after delay (0: now).
+// schedule asks for uri to be published after delay (0: now). The
+// debounce of an edit is quiet time for a collection (collectIfIdle).
 func (w *worker) schedule(uri string, delay time.Duration) {
 	w.mu.Lock()
 	w.due[uri] = time.Now().Add(delay)
@@ -212,6 +215,9 @@ func (w *worker) schedule(uri string, delay time.Duration) {
 	select {
 	case w.wake <- struct{}{}:
 	default:
+	}
+	if delay >= 2*collectSlack {
+		w.collectIfIdle()
 	}
 }
 
@@ -266,6 +272,7 @@ func (w *worker) run(ctx context.Context) {
 
 // publishOnce publishes uri, then again if it changed meanwhile.
 func (w *worker) publishOnce(ctx context.Context, uri string) {
+	w.awaitCollection()
 	w.publish(ctx, uri)
 	w.mu.Lock()
 	delete(w.inflight, uri)
@@ -276,40 +283,90 @@ func (w *worker) publishOnce(ctx context.Context, uri string) {
 		w.schedule(uri, 0)
 		return
 	}
-	w.collectIfIdle()
+	// A client that sends the next edit at once would have it read while
+	// the collection runs (and pay for it, in assists); a person typing
+	// pauses longer than this.
+	time.AfterFunc(collectAfterPublishing, w.collectIfIdle)
 }
 
-// idleGarbage is how much garbage the heap must hold for an idle worker
-// to collect it: about what one edit of a list of 100,000 records leaves
-// behind (its arrays of records, parts of findings, the text and the
-// JSON written afresh, some 30 MB). Smaller documents never get there. A
-// large one is collected after each edit, in the quiet time before the
-// next: the next edit then finds the memory this one freed, already
-// touched, where it would otherwise grow the heap into memory the
-// process must fault in, which on some virtual machines costs more than
-// the edit's work. On the 100,000-record list this brought the peak RSS
-// from 415-441 MB to 346-348 MB and the first edits after the open from
-// 60-105 ms to 41-62 ms (lsp/testdata/scaleclient, net of the debounce).
-const idleGarbage = 32 << 20
+// collectAfterPublishing is how long after a publication an idle worker
+// waits before it collects the garbage.
+const collectAfterPublishing = 300 * time.Millisecond
 
-// collectIfIdle runs a garbage collection when no document is due or
-// being published and the last publications left much garbage: the
-// collection then runs in the quiet time before the next edit's
-// debounce ends, rather than during that edit's analysis, which it
-// would slow on a machine of few cores (with a live heap of 200 MB, a
-// collection costs about 100 ms of processor time).
+// collectSlack is the least time before the next analysis is due that a
+// collection may start in: it takes some 50 ms on two cores for a live
+// heap of 200 MB, mostly in the debounce of the edit that arrived.
+const collectSlack = 50 * time.Millisecond
+
+// idleGarbage is how much garbage the heap must hold for an idle worker
+// to collect it: about half of what one edit of a list of 100,000
+// records leaves behind (its arrays of records, parts of findings, the
+// text and the JSON written afresh, some 30 MB). Smaller documents
+// seldom get there. A large one is collected after each edit, in the
+// quiet time after its publication or in the next edit's debounce: the
+// next edit then finds the memory this one freed, already touched,
+// where it would otherwise grow the heap into memory the process must
+// fault in, which on some virtual machines costs more than the edit's
+// work. On the 100,000-record list (lsp/testdata/scaleclient, 9 edits of
+// each kind, 3 runs) this brought the peak RSS from 415-441 MB to
+// 340-346 MB and the edits from 60-105 (a mark), 27-92 (a title), 52-75
+// (an insert) and 56-69 ms (a delete) to 31-43, 28-37, 70-74 and 54-62
+// ms, net of the debounce.
+const idleGarbage = 16 << 20
+
+// collectIfIdle runs a garbage collection when no document is being
+// analysed or published, none is due within collectSlack, and the last
+// publications left much garbage: the collection then runs in quiet time
+// (after a publication, or in the debounce of the edit that just
+// arrived) rather than during an edit's analysis, which it would slow on
+// a machine of few cores (with a live heap of 200 MB, a collection costs
+// about 100 ms of processor time).
 func (w *worker) collectIfIdle() {
 	w.mu.Lock()
-	idle := len(w.due) == 0 && len(w.inflight) == 0
+	idle := len(w.inflight) == 0
+	soon := time.Now().Add(collectSlack)
+	for _, t := range w.due {
+		if t.Before(soon) {
+			idle = false
+		}
+	}
 	w.mu.Unlock()
 	if !idle || heapGarbage() < idleGarbage || !w.collecting.CompareAndSwap(false, true) {
 		return
 	}
+	done := make(chan struct{})
+	w.collected.Store(&done)
 	go func() {
-		defer w.collecting.Store(false)
+		defer func() {
+			w.collecting.Store(false)
+			close(done)
+		}()
+		begun, garbage := time.Now(), heapGarbage()
 		runtime.GC()
+		if w.s != nil {
+			w.s.log.Debug("collected", zap.Uint64("garbage MB", garbage>>20), zap.Duration("took", time.Since(begun)))
+		}
 	}()
 }
+
+// awaitCollection waits, for at most collectWait, for an idle collection
+// that is running to end: an analysis that started during one would run
+// on what the collection leaves of two cores and pay for its own
+// allocations in assists.
+func (w *worker) awaitCollection() {
+	if !w.collecting.Load() {
+		return
+	}
+	if done := w.collected.Load(); done != nil {
+		select {
+		case <-*done:
+		case <-time.After(collectWait):
+		}
+	}
+}
+
+// collectWait bounds the wait of an analysis for an idle collection.
+const collectWait = 100 * time.Millisecond
 
 // heapGarbage is the heap held by objects beyond those the last
 // collection found live: garbage, and what was allocated since.

@@ -308,10 +308,10 @@ const collectSlack = 50 * time.Millisecond
 // where it would otherwise grow the heap into memory the process must
 // fault in, which on some virtual machines costs more than the edit's
 // work. On the 100,000-record list (lsp/testdata/scaleclient, 9 edits of
-// each kind, 3 runs) this brought the peak RSS from 415-441 MB to
-// 340-346 MB and the edits from 60-105 (a mark), 27-92 (a title), 52-75
-// (an insert) and 56-69 ms (a delete) to 31-43, 28-37, 70-74 and 54-62
-// ms, net of the debounce.
+// each kind) this kept the peak RSS near 350 MB instead of about 400 MB,
+// and made the edits that come first after the open, mark changes,
+// faster: 38-44 ms instead of 50-70 ms net of the debounce. Edits that
+// insert or delete a line were not faster (55-95 ms).
 const idleGarbage = 16 << 20
 
 // collectIfIdle runs a garbage collection when no document is being

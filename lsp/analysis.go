@@ -216,7 +216,7 @@ func (w *worker) schedule(uri string, delay time.Duration) {
 	case w.wake <- struct{}{}:
 	default:
 	}
-	if delay >= 2*collectSlack {
+	if delay >= collectSlack {
 		w.collectIfIdle()
 	}
 }

@@ -90,7 +90,9 @@ func (s *Server) change(uri string, version int32, changes []contentChange) erro
 	}
 	s.setSnapshot(snap)
 	s.mu.Unlock()
-	s.work.schedule(uri, s.opts.Debounce)
+	// The debounce counts from the change's arrival: applying it (a copy
+	// of a large text) is part of the wait, not added to it.
+	s.work.schedule(uri, max(0, s.opts.Debounce-time.Since(begun)))
 	return nil
 }
 

@@ -104,8 +104,19 @@ var comma = []byte{','}
 // partBuffers keeps the buffers of publications that are no longer used
 // for the next: a large list is published again on every edit, and
 // buffers of megabytes allocated afresh each time are garbage the
-// collector must clear and the runtime must fault in again.
-var partBuffers sync.Pool
+// collector must clear and the runtime must fault in again. Unlike a
+// sync.Pool, which a collection empties (and an idle worker collects
+// after each large edit), it keeps them across collections, up to
+// maxPooledBytes.
+var partBuffers struct {
+	sync.Mutex
+	free  [][]byte
+	bytes int
+}
+
+// maxPooledBytes bounds the bytes of buffers kept for reuse: about the
+// JSON of a list of 100,000 records with as many findings.
+const maxPooledBytes = 32 << 20
 
 // pooledBuffer is the size from which buffers are pooled; a smaller one
 // is allocated to its size, so a publication that keeps it keeps no
@@ -118,10 +129,45 @@ func partBuffer(size int) []byte {
 	if size < pooledBuffer {
 		return make([]byte, 0, size)
 	}
-	if p, ok := partBuffers.Get().(*[]byte); ok && cap(*p) >= size/2 && cap(*p) <= 2*size {
-		return (*p)[:0]
+	pb := &partBuffers
+	pb.Lock()
+	defer pb.Unlock()
+	// the smallest that holds size, else the largest that is close
+	best := -1
+	for i, b := range pb.free {
+		if c := cap(b); c >= size/2 && c <= 2*size {
+			switch {
+			case best < 0:
+				best = i
+			case cap(pb.free[best]) < size:
+				if c > cap(pb.free[best]) {
+					best = i
+				}
+			case c >= size && c < cap(pb.free[best]):
+				best = i
+			}
+		}
 	}
-	return make([]byte, 0, size)
+	if best < 0 {
+		return make([]byte, 0, size)
+	}
+	b := pb.free[best]
+	pb.free[best] = pb.free[len(pb.free)-1]
+	pb.free = pb.free[:len(pb.free)-1]
+	pb.bytes -= cap(b)
+	return b[:0]
+}
+
+// putPartBuffer keeps b for reuse, unless the pool is full.
+func putPartBuffer(b []byte) {
+	pb := &partBuffers
+	pb.Lock()
+	defer pb.Unlock()
+	if pb.bytes+cap(b) > maxPooledBytes {
+		return
+	}
+	pb.free = append(pb.free, b[:0])
+	pb.bytes += cap(b)
 }
 
 // release gives the buffers of p back for reuse, except those next (which
@@ -134,8 +180,7 @@ func (p *publication) release(next *publication) {
 		if cap(b) < pooledBuffer || next != nil && next.uses(b) {
 			continue
 		}
-		b = b[:0]
-		partBuffers.Put(&b)
+		putPartBuffer(b)
 	}
 }
 

@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"math/rand"
 	"reflect"
+	"runtime"
 	"strconv"
 	"strings"
 	"testing"
@@ -409,5 +410,42 @@ func TestOffsetMapPositions(t *testing.T) {
 	}
 	if n < len(text)-100 {
 		t.Errorf("%d of %d offsets mapped after a one-byte edit, want all but those of the edited line", n, len(text))
+	}
+}
+
+// TestPartBufferPool checks that the buffers of publications are kept
+// across collections (a sync.Pool is emptied by them), handed out to the
+// size asked for, and bounded by maxPooledBytes.
+func TestPartBufferPool(t *testing.T) {
+	partBuffers.Lock()
+	saved := partBuffers.free
+	partBuffers.free, partBuffers.bytes = nil, 0
+	partBuffers.Unlock()
+	defer func() {
+		partBuffers.Lock()
+		partBuffers.free, partBuffers.bytes = saved, 0
+		for _, b := range saved {
+			partBuffers.bytes += cap(b)
+		}
+		partBuffers.Unlock()
+	}()
+	small, large := make([]byte, 0, 1<<20), make([]byte, 0, 3<<20)
+	putPartBuffer(small)
+	putPartBuffer(large)
+	runtime.GC()
+	if b := partBuffer(2 << 20); cap(b) != 3<<20 {
+		t.Errorf("a buffer for 2 MB has %d bytes, want the kept one of 3 MB", cap(b))
+	}
+	if b := partBuffer(1 << 20); cap(b) != 1<<20 || len(b) != 0 {
+		t.Errorf("a buffer for 1 MB has %d bytes (length %d), want the kept one of 1 MB, empty", cap(b), len(b))
+	}
+	if b := partBuffer(1 << 20); cap(b) != 1<<20 {
+		t.Errorf("an empty pool gave a buffer of %d bytes for 1 MB", cap(b))
+	}
+	for range 2 * maxPooledBytes / (4 << 20) {
+		putPartBuffer(make([]byte, 0, 4<<20))
+	}
+	if partBuffers.bytes > maxPooledBytes {
+		t.Errorf("the pool keeps %d bytes, more than %d", partBuffers.bytes, maxPooledBytes)
 	}
 }

@@ -283,15 +283,11 @@ func (w *worker) publishOnce(ctx context.Context, uri string) {
 		w.schedule(uri, 0)
 		return
 	}
-	// A client that sends the next edit at once would have it read while
-	// the collection runs (and pay for it, in assists); a person typing
-	// pauses longer than this.
-	time.AfterFunc(collectAfterPublishing, w.collectIfIdle)
+	// The garbage of this publication is collected in the debounce of
+	// the next edit (schedule): collected now, the collection would run
+	// while the next edit is read, or the requests that follow an edit
+	// (hovers, code actions) are answered, and slow them.
 }
-
-// collectAfterPublishing is how long after a publication an idle worker
-// waits before it collects the garbage.
-const collectAfterPublishing = 300 * time.Millisecond
 
 // collectSlack is the least time before the next analysis is due that a
 // collection may start in: it takes some 50 ms on two cores for a live

@@ -298,25 +298,27 @@ const collectSlack = 50 * time.Millisecond
 // to collect it: about half of what one edit of a list of 100,000
 // records leaves behind (its arrays of records, parts of findings, the
 // text and the JSON written afresh, some 30 MB). Smaller documents
-// seldom get there. A large one is collected after each edit, in the
-// quiet time after its publication or in the next edit's debounce: the
-// next edit then finds the memory this one freed, already touched,
-// where it would otherwise grow the heap into memory the process must
-// fault in, which on some virtual machines costs more than the edit's
-// work. On the 100,000-record list (lsp/testdata/scaleclient, 9 edits of
-// each kind) this kept the peak RSS near 350 MB instead of about 400 MB,
-// and made the edits that come first after the open, mark changes,
-// faster: 38-44 ms instead of 50-70 ms net of the debounce. Edits that
-// insert or delete a line were not faster (55-95 ms).
+// seldom get there. The garbage of a large one is collected in the
+// debounce of each edit: the edit then finds the memory the last one
+// freed, already touched, where it would otherwise grow the heap into
+// memory the process must fault in, which on some virtual machines
+// costs more than the edit's work. On the 100,000-record list
+// (lsp/testdata/scaleclient, 5 edits of each kind, with the publication
+// buffers pooled and the debounce counted from the change's arrival)
+// the edits took 26-36 ms (a mark), 29-33 (a title), 52-56 (an insert)
+// and 48-71 ms (a delete) net of the debounce, and the peak RSS was
+// 400 MB after 1,000 hovers; with the idle collection at 96 MB of
+// garbage, after publications, they had taken 50-70, 26-47, 53-67 and
+// 50-69 ms, and the peak RSS 390-420 MB.
 const idleGarbage = 16 << 20
 
 // collectIfIdle runs a garbage collection when no document is being
 // analysed or published, none is due within collectSlack, and the last
 // publications left much garbage: the collection then runs in quiet time
-// (after a publication, or in the debounce of the edit that just
-// arrived) rather than during an edit's analysis, which it would slow on
-// a machine of few cores (with a live heap of 200 MB, a collection costs
-// about 100 ms of processor time).
+// (the debounce of the edit that just arrived) rather than during an
+// edit's analysis, which it would slow on a machine of few cores (with a
+// live heap of 200 MB, a collection costs about 100 ms of processor
+// time).
 func (w *worker) collectIfIdle() {
 	w.mu.Lock()
 	idle := len(w.inflight) == 0

@@ -139,3 +139,51 @@ func TestRelateListInParts(t *testing.T) {
 		t.Errorf("%d relations among %d findings: the list does not test the merge", relations, related.DiagnosticCount())
 	}
 }
+
+// TestActionsOnListParts checks that the quick fixes of a related list,
+// whose findings are kept in parts, name by index (Diagnostic) the
+// finding they fix, as Diagnostics lists them.
+func TestActionsOnListParts(t *testing.T) {
+	var b strings.Builder
+	for i := range 3*partRecords + 5 {
+		if i%7 == 0 {
+			b.WriteString("C[C@H](C)C\tineffective " + fmt.Sprint(i) + "\n") // a mark on a non-stereocentre: a fix
+		} else {
+			b.WriteString("N[C@@H](C)C(=O)O\tdup " + fmt.Sprint(i) + "\n") // duplicates: relations
+		}
+	}
+	res := NewAnalyzer(DefaultConfig()).Analyze("fixes.smi", "", []byte(b.String()))
+	if res.parts == nil {
+		t.Fatalf("the list keeps no parts")
+	}
+	all := res.Diagnostics()
+	checked := 0
+	for _, d := range all {
+		if len(d.Fixes) == 0 {
+			continue
+		}
+		found := false
+		for _, act := range res.Actions(d.Span) {
+			if act.Diagnostic < 0 {
+				continue
+			}
+			got := res.Diagnostic(act.Diagnostic)
+			if got == nil || got != &all[act.Diagnostic] && (got.Span != all[act.Diagnostic].Span || got.Code != all[act.Diagnostic].Code) {
+				t.Fatalf("action %q names finding %d, which Diagnostic gives as %+v", act.Title, act.Diagnostic, got)
+			}
+			if got.Span == d.Span && got.Code == d.Code {
+				found = true
+			}
+		}
+		if !found {
+			t.Errorf("no action names the finding %s at %v", d.Code, d.Span)
+		}
+		checked++
+	}
+	if checked < 3*partRecords/7 {
+		t.Errorf("%d findings with fixes checked, want at least %d", checked, 3*partRecords/7)
+	}
+	if res.DiagnosticCount() != len(all) || res.Diagnostic(len(all)) != nil || res.Diagnostic(-1) != nil {
+		t.Errorf("count %d, joined %d, or a finding past the ends", res.DiagnosticCount(), len(all))
+	}
+}

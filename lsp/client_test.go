@@ -48,8 +48,10 @@ type fakeClient struct {
 	messages []string
 	asked    int             // workspace/configuration requests received
 	settings json.RawMessage // the answer to workspace/configuration
-	refresh  []string        // requests without an answer of substance: refreshes, registrations, progress tokens
-	exited   bool
+	// configDelay: see clientSetup
+	configDelay time.Duration
+	refresh     []string // requests without an answer of substance: refreshes, registrations, progress tokens
+	exited      bool
 }
 
 type progressRecord struct {
@@ -89,6 +91,9 @@ type clientSetup struct {
 	hook     func(*Server)
 	noInit   bool          // do not send initialize
 	limit    time.Duration // how long to wait for the server; 0 means waitLimit
+	// configDelay delays the answer to workspace/configuration, which
+	// carries the settings held when the request came
+	configDelay time.Duration
 }
 
 // start runs a server on one end of a pipe and initializes it from the
@@ -98,7 +103,8 @@ func start(t testing.TB, setup clientSetup) *fakeClient {
 	serverEnd, clientEnd := net.Pipe()
 	logs := &syncBuffer{}
 	log := zap.New(zapcore.NewCore(zapcore.NewJSONEncoder(zap.NewProductionEncoderConfig()), logs, zapcore.DebugLevel))
-	c := &fakeClient{t: t, logs: logs, status: make(chan int, 1), changed: make(chan struct{}), settings: setup.settings, limit: setup.limit}
+	c := &fakeClient{t: t, logs: logs, status: make(chan int, 1), changed: make(chan struct{}), settings: setup.settings, limit: setup.limit,
+		configDelay: setup.configDelay}
 	if c.limit == 0 {
 		c.limit = waitLimit
 	}
@@ -193,6 +199,13 @@ func (c *fakeClient) handle(ctx context.Context, reply jsonrpc2.Replier, req jso
 		settings := c.settings
 		if settings == nil {
 			settings = json.RawMessage("null")
+		}
+		if c.configDelay > 0 {
+			go func() {
+				time.Sleep(c.configDelay)
+				reply(ctx, []json.RawMessage{settings}, nil)
+			}()
+			return nil
 		}
 		return reply(ctx, []json.RawMessage{settings}, nil)
 	case methodInlayHintRefresh, methodDiagnosticRefresh, "client/registerCapability", "window/workDoneProgress/create":

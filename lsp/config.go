@@ -35,6 +35,9 @@ func settingsSection(raw json.RawMessage) json.RawMessage {
 // applies them.
 func (s *Server) fetchConfiguration() {
 	defer s.recoverPanic("workspace/configuration")
+	s.settingsMu.Lock()
+	gen := s.settingsGen
+	s.settingsMu.Unlock()
 	params := map[string]any{"items": []map[string]string{{"section": configSection}}}
 	var result []json.RawMessage
 	if err := s.callClient(s.ctx, "workspace/configuration", params, &result); err != nil {
@@ -44,6 +47,14 @@ func (s *Server) fetchConfiguration() {
 	if len(result) == 0 {
 		return
 	}
+	s.settingsMu.Lock()
+	defer s.settingsMu.Unlock()
+	if s.settingsGen != gen {
+		// The client pushed settings while it answered: those are newer.
+		s.log.Info("pulled settings dropped: newer ones were pushed meanwhile")
+		return
+	}
+	s.settingsGen++
 	if err := s.applySettings(result[0]); err != nil {
 		s.log.Warn("workspace settings ignored", zap.Error(err))
 		s.showWarning(fmt.Sprintf("stereoline: settings ignored: %v", err))
@@ -63,6 +74,9 @@ func (s *Server) didChangeConfiguration(params json.RawMessage) error {
 	var obj map[string]json.RawMessage
 	if json.Unmarshal(p.Settings, &obj) == nil {
 		if section, ok := obj[configSection]; ok {
+			s.settingsMu.Lock()
+			defer s.settingsMu.Unlock()
+			s.settingsGen++
 			if err := s.applySettings(section); err != nil {
 				s.showWarning(fmt.Sprintf("stereoline: settings ignored: %v", err))
 				return err

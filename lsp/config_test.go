@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"strings"
 	"testing"
+	"time"
 
 	"go.lsp.dev/protocol"
 )
@@ -196,5 +197,49 @@ func TestFinderSettings(t *testing.T) {
 				t.Errorf("markdown: %v, want %d findings", got, tt.md)
 			}
 		})
+	}
+}
+
+// TestPulledSettingsDoNotOverrideNewer checks that settings the client
+// pushes while it answers a workspace/configuration request (LSP 3.17)
+// are not overridden by that answer when it comes: the pushed ones are
+// newer. The client answers the server's first pull late, with the
+// settings it held when asked.
+func TestPulledSettingsDoNotOverrideNewer(t *testing.T) {
+	c := start(t, clientSetup{
+		caps:        map[string]any{"workspace": map[string]any{"configuration": true}},
+		settings:    json.RawMessage(`{"severity": {"stereo-ineffective-center": "hint"}}`),
+		configDelay: 300 * time.Millisecond,
+	})
+	c.until("workspace/configuration", func() bool { return c.asked > 0 })
+	c.notify("workspace/didChangeConfiguration", map[string]any{"settings": map[string]any{
+		"stereoline": map[string]any{"severity": map[string]string{"stereo-ineffective-center": "off"}},
+	}})
+	// The log says when the late answer came (no message tells the
+	// client).
+	handled := func() bool {
+		logs := c.logs.String()
+		return strings.Contains(logs, "pulled settings dropped") || strings.Count(logs, `"settings applied"`) > 1
+	}
+	for deadline := time.Now().Add(waitLimit); !handled(); {
+		if time.Now().After(deadline) {
+			t.Fatalf("the late answer to the pull did not come:\n%s", c.logs.String())
+		}
+		time.Sleep(10 * time.Millisecond)
+	}
+	const u = "file:///work/late.smi"
+	c.open(u, "", 1, isobutane)
+	c.until("a publication", func() bool {
+		for _, p := range c.diags {
+			if p.URI == u {
+				return true
+			}
+		}
+		return false
+	})
+	for _, p := range c.published(u) {
+		if severityOf(p.Diagnostics, "stereo-ineffective-center") != 0 {
+			t.Fatalf("the late answer to the pull overrode the pushed settings: %+v", p.Diagnostics)
+		}
 	}
 }

@@ -85,6 +85,12 @@ type Server struct {
 	requests      map[string]requestFunc
 	notifications map[string]notificationFunc
 
+	// settingsMu orders the settings the server applies, and settingsGen
+	// counts them: settings pulled with workspace/configuration are
+	// dropped when newer ones were applied while the client answered.
+	settingsMu  sync.Mutex
+	settingsGen uint64
+
 	mu          sync.Mutex
 	state       state
 	caps        clientCapabilities

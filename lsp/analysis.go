@@ -90,7 +90,7 @@ func (a *analysis) run(log *zap.Logger) {
 			a.result, a.err = nil, errAnalysis
 		}
 	}()
-	start, faults := time.Now(), minorFaults()
+	start, faults := time.Now(), minorFaults(log)
 	cfg := a.config.analyzer.Config()
 	if content := a.file.content(); len(content) > cfg.DocumentLimit() {
 		a.prev.Store(nil)
@@ -106,7 +106,7 @@ func (a *analysis) run(log *zap.Logger) {
 		closeRecords()
 		log.Debug("analysed again", zap.String("uri", a.file.URI), zap.Int32("version", a.file.Version),
 			zap.Int("records", len(a.result.Records)), zap.Duration("took", time.Since(start)),
-			zap.Int64("page faults", minorFaults()-faults))
+			zap.Int64("page faults", minorFaults(log)-faults))
 		return
 	}
 	a.records = a.config.analyzer.AnalyzeRecords(a.file.Name, a.file.LanguageID, a.file.content())
@@ -499,7 +499,7 @@ func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 	w.mu.Lock()
 	last := w.published[f.URI]
 	w.mu.Unlock()
-	begun, faults := time.Now(), minorFaults()
+	begun, faults := time.Now(), minorFaults(s.log)
 	p, err := publish(last, f, res, &version)
 	if err != nil {
 		s.log.Error("internal error", zap.String("uri", f.URI), zap.Error(fmt.Errorf("diagnostics: %w", err)))
@@ -519,11 +519,11 @@ func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 	w.mu.Lock()
 	w.sent[f.URI] = true
 	w.mu.Unlock()
-	made, madeFaults := time.Now(), minorFaults()
+	made, madeFaults := time.Now(), minorFaults(s.log)
 	s.notifyJSONParts("textDocument/publishDiagnostics", p.parts)
 	s.log.Debug("published", zap.String("uri", f.URI), zap.Int32("version", version), zap.Int("parts", len(p.parts)),
 		zap.Duration("made in", made.Sub(begun)), zap.Duration("written in", time.Since(made)),
-		zap.Int64("page faults", minorFaults()-faults), zap.Int64("page faults writing", minorFaults()-madeFaults))
+		zap.Int64("page faults", minorFaults(s.log)-faults), zap.Int64("page faults writing", minorFaults(s.log)-madeFaults))
 	return true
 }
 

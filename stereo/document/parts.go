@@ -137,7 +137,7 @@ func (r *Result) assembleFrom(prev *Result, i0, i1, dn, delta int) {
 		r.assemble()
 		return
 	}
-	old := prev.recordParts()
+	old := prev.parts // nil: a result not kept in parts; every part is made
 	parts := make([][]Diagnostic, (len(r.own)+partRecords-1)/partRecords)
 	var build []int
 	for c := range parts {
@@ -160,31 +160,4 @@ func sameRelations(a, b []*relation) bool {
 		}
 	}
 	return true
-}
-
-// recordParts returns r's findings in parts of partRecords records, or
-// nil when they are not in record order (never expected of a list).
-func (r *Result) recordParts() [][]Diagnostic {
-	if r.parts != nil {
-		return r.parts
-	}
-	ds := r.diags
-	parts := make([][]Diagnostic, (len(r.own)+partRecords-1)/partRecords)
-	at := 0
-	for c := range parts {
-		from, to := c*partRecords, min((c+1)*partRecords, len(r.own))
-		n := 0
-		for i := from; i < to; i++ {
-			n += r.findingCount(i)
-		}
-		if at+n > len(ds) || n > 0 && (ds[at].Record < from || ds[at+n-1].Record >= to) {
-			return nil
-		}
-		parts[c] = ds[at : at+n : at+n]
-		at += n
-	}
-	if at != len(ds) {
-		return nil
-	}
-	return parts
 }

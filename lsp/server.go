@@ -84,6 +84,7 @@ type Server struct {
 
 	requests      map[string]requestFunc
 	notifications map[string]notificationFunc
+	preread       *prereadSlot // large didOpen frames read by the stream
 
 	// settingsMu orders the settings the server applies, and settingsGen
 	// counts them: settings pulled with workspace/configuration are
@@ -152,7 +153,9 @@ func serve(ctx context.Context, stream io.ReadWriteCloser, log *zap.Logger, opts
 	if hook != nil {
 		hook(s)
 	}
-	s.out = &tolerantStream{Stream: newFrameStream(stream), log: log, raw: stream}
+	frames := newFrameStream(stream)
+	frames.preread = s.preread
+	s.out = &tolerantStream{Stream: frames, log: log, raw: stream}
 	s.conn = jsonrpc2.NewConn(s.out)
 	s.conn.Go(s.ctx, s.handle)
 	go s.work.run(s.ctx)
@@ -254,6 +257,7 @@ func newServer(ctx context.Context, log *zap.Logger, opts Options) *Server {
 		baseCfg:   document.DefaultConfig(),
 		changed:   make(chan struct{}),
 		notebooks: map[string][]string{},
+		preread:   &prereadSlot{},
 		running:   map[jsonrpc2.ID]context.CancelFunc{},
 		exited:    make(chan struct{}),
 
@@ -277,6 +281,7 @@ func newServer(ctx context.Context, log *zap.Logger, opts Options) *Server {
 	s.notifications = map[string]notificationFunc{
 		"initialized":                         s.initialized,
 		"textDocument/didOpen":                s.didOpen,
+		methodPrereadOpen:                     s.didOpenRead,
 		"textDocument/didChange":              s.didChange,
 		"textDocument/didClose":               s.didClose,
 		"textDocument/didSave":                s.didSave,
@@ -320,6 +325,9 @@ func (s *Server) notification(method string, params json.RawMessage) {
 	if st != stateInitialized {
 		// LSP 3.17: notifications before initialize are dropped, and
 		// after shutdown only exit is expected.
+		if method == methodPrereadOpen {
+			s.preread.take()
+		}
 		s.log.Debug("notification dropped", zap.String("method", method))
 		return
 	}

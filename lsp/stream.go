@@ -24,6 +24,9 @@ import (
 type frameStream struct {
 	jsonrpc2.Stream // Write and Close
 	in              *bufio.Reader
+	// preread, when set, takes large didOpen frames read here
+	// (preread.go)
+	preread *prereadSlot
 }
 
 func newFrameStream(conn io.ReadWriteCloser) frameStream {
@@ -72,6 +75,11 @@ func (s frameStream) Read(ctx context.Context) (jsonrpc2.Message, int64, error) 
 	total += int64(len(data))
 	if err != nil {
 		return nil, total, fmt.Errorf("read full of data: %w", err)
+	}
+	if length >= prereadFrom && s.preread != nil {
+		if msg, ok := s.preread.preread(data); ok {
+			return msg, total, nil
+		}
 	}
 	msg, err := jsonrpc2.DecodeMessage(data)
 	if resp, ok := msg.(*jsonrpc2.Response); ok {

@@ -42,27 +42,116 @@ func Stereoisomers(m *notation.Molecule) StereoisomerCount {
 		return StereoisomerCount{Count: 1, Exact: true}
 	}
 	g := newKeyGraph(m)
-	units := potentialUnits(g)
+	units, rank := potentialUnits(g)
 	n := len(units)
 	if n > maxEnumeratedUnits {
 		return StereoisomerCount{Count: 1 << min(n, 62), Units: n}
 	}
-	seen := map[string]bool{}
+	// A unit whose atoms no symmetry of the constitution can move (each
+	// has a rank no other atom has) keeps its configuration under every
+	// symmetry, so its assignments multiply the count: the isomers are
+	// the feasible assignments of the fixed units times the distinct
+	// keys of the others, enumerated with the fixed ones held. A record
+	// without symmetry needs no key at all, where enumerating took up to
+	// 4,096 canonical runs (tens of milliseconds for a hover on a record
+	// of ten units). A small bicycle whose bridgeheads fall on both sides
+	// is enumerated whole.
 	pairs := smallBicycles(g, units)
-	for mask := 0; mask < 1<<n; mask++ {
-		for i := range units {
+	fixed := make([]bool, n)
+	if countWithoutKeys {
+		fixed = fixedUnits(g, units, rank)
+		for _, p := range pairs {
+			if fixed[p.unit[0]] != fixed[p.unit[1]] {
+				clear(fixed)
+				break
+			}
+		}
+	}
+	var held, free []int
+	var heldPairs, freePairs []bicyclePair
+	for i := range units {
+		if fixed[i] {
+			held = append(held, i)
+		} else {
+			free = append(free, i)
+		}
+	}
+	for _, p := range pairs {
+		if fixed[p.unit[0]] {
+			heldPairs = append(heldPairs, p)
+		} else {
+			freePairs = append(freePairs, p)
+		}
+	}
+	assign := func(idx []int, mask int) {
+		for k, i := range idx {
 			// one sense or the other (Trans or Cis for a double bond)
 			units[i].hand = ringgeom.Anticlockwise
-			if mask&(1<<i) != 0 {
+			if mask&(1<<k) != 0 {
 				units[i].hand = ringgeom.Clockwise
 			}
 		}
-		if !feasible(units, pairs) {
-			continue
-		}
-		seen[newCanonState(g, units, true).run().text] = true
 	}
-	return StereoisomerCount{Count: len(seen), Units: n, Exact: true}
+	heldCount, first := 0, -1
+	for mask := 0; mask < 1<<len(held); mask++ {
+		assign(held, mask)
+		if feasible(units, heldPairs) {
+			heldCount++
+			if first < 0 {
+				first = mask
+			}
+		}
+	}
+	if heldCount == 0 || len(free) == 0 {
+		return StereoisomerCount{Count: heldCount, Units: n, Exact: true}
+	}
+	assign(held, first)
+	seen := map[string]bool{}
+	for mask := 0; mask < 1<<len(free); mask++ {
+		assign(free, mask)
+		if feasible(units, freePairs) {
+			seen[newCanonState(g, units, true).run().text] = true
+		}
+	}
+	return StereoisomerCount{Count: heldCount * len(seen), Units: n, Exact: true}
+}
+
+// countWithoutKeys lets Stereoisomers take its shortcuts: units tied by
+// two leaves dropped, fixed units held apart (a variable for the test
+// that compares the count with the plain enumeration).
+var countWithoutKeys = true
+
+// fixedUnits reports for each unit whether every atom of it (its centre
+// or ends, its ligands, the neighbours of its ends) has a rank in rank
+// that no other atom of g has (folded hydrogens aside): every symmetry of
+// the constitution keeps those atoms where they are, and so keeps the
+// unit's configuration.
+func fixedUnits(g *keyGraph, units []keyUnit, rank []int) []bool {
+	count := make(map[int]int, len(rank))
+	for a, r := range rank {
+		if !g.folded[a] {
+			count[r]++
+		}
+	}
+	alone := func(a int) bool { return a < 0 || a >= len(rank) || g.folded[a] || count[rank[a]] == 1 }
+	fixed := make([]bool, len(units))
+	for i := range units {
+		u := &units[i]
+		ok := alone(u.centre)
+		for _, l := range u.ligands {
+			ok = ok && alone(l)
+		}
+		if u.kind != keyTetrahedral {
+			for _, e := range u.ends {
+				ok = ok && alone(e)
+				for _, ed := range g.adj[e] {
+					ok = ok && alone(ed.to)
+				}
+			}
+		}
+		fixed[i] = ok
+	}
+	return fixed
 }
 
 // potentialUnits finds the units that could be stereogenic: tetrahedral
@@ -72,8 +161,9 @@ func Stereoisomers(m *notation.Molecule) StereoisomerCount {
 // different substituents at each end, or tied ones (an exocyclic bond
 // opposite a ring centre, a bond between branches that differ only in
 // configuration); allenes likewise. Configurations
-// are left at +1 for the caller to assign.
-func potentialUnits(g *keyGraph) []keyUnit {
+// are left at +1 for the caller to assign. It returns the units and the
+// constitution's ranks of the atoms.
+func potentialUnits(g *keyGraph) ([]keyUnit, []int) {
 	m := g.mol
 	cs := newCanonState(g, nil, false)
 	rank := cs.refine(cs.initialRanks())
@@ -109,7 +199,7 @@ func potentialUnits(g *keyGraph) []keyUnit {
 		switch {
 		case cs.parity(&u, rank) != ringgeom.NoHand, spiro && alone:
 			definite = append(definite, u)
-		case spiro, oneTiedPair(u.ligands, rank):
+		case spiro, oneTiedPair(u.ligands, rank) && !(countWithoutKeys && tiedLeaves(g, u.ligands, rank)):
 			tied = append(tied, u)
 		}
 	}
@@ -140,9 +230,10 @@ func potentialUnits(g *keyGraph) []keyUnit {
 		}
 		// a lone hydrogen or lone pair at both ends of a C=C is fine; two
 		// substituents at one end must differ
-		if cs.parity(&u, rank) != ringgeom.NoHand {
+		switch {
+		case cs.parity(&u, rank) != ringgeom.NoHand:
 			definite = append(definite, u)
-		} else {
+		case !countWithoutKeys || !tiedLeaves(g, g.substituents(t0, t1), rank) && !tiedLeaves(g, g.substituents(t1, t0), rank):
 			tied = append(tied, u)
 		}
 	}
@@ -153,7 +244,7 @@ func potentialUnits(g *keyGraph) []keyUnit {
 	if len(definite)+len(tied) >= 2 {
 		definite = append(definite, tied...)
 	}
-	return definite
+	return definite, rank
 }
 
 // tetrahedralCandidate reports whether atom a can be a tetrahedral
@@ -181,6 +272,22 @@ func tetrahedralCandidate(g *keyGraph, a int) (int, bool) {
 		return count, count == 4 && at.Charge == -1
 	}
 	return 0, false
+}
+
+// tiedLeaves reports whether two of ligs tie and both are atoms with no
+// other neighbour (two fluorines, two methyls): no configuration
+// anywhere can tell them apart, so the unit they tie never becomes
+// stereogenic and would only double the assignments to enumerate.
+func tiedLeaves(g *keyGraph, ligs []int, rank []int) bool {
+	for i := range ligs {
+		for j := i + 1; j < len(ligs); j++ {
+			a, b := ligs[i], ligs[j]
+			if a >= 0 && b >= 0 && rank[a] == rank[b] && len(g.adj[a]) == 1 && len(g.adj[b]) == 1 {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // oneTiedPair reports whether exactly two of the ligands tie, and they

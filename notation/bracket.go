@@ -148,7 +148,7 @@ func (r *reader) bracketSymbol(a *Atom) bool {
 				}
 			}
 		}
-		if z, ok := aromaticSymbols[t[r.pos:r.pos+1]]; ok {
+		if z, ok := aromaticNumber(t[r.pos : r.pos+1]); ok {
 			a.Symbol, a.Number, a.Aromatic = t[r.pos:r.pos+1], z, true
 			r.pos++
 			return true

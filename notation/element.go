@@ -40,6 +40,32 @@ func ElementSymbol(z int) string {
 // ElementNumber returns the atomic number of a symbol written with a
 // capital first letter ("Cl"), and whether the symbol is known.
 func ElementNumber(sym string) (int, bool) {
+	// the symbols of the organic subset without a map lookup: the reader
+	// asks for one per atom
+	switch sym {
+	case "C":
+		return ElemC, true
+	case "N":
+		return ElemN, true
+	case "O":
+		return ElemO, true
+	case "S":
+		return ElemS, true
+	case "F":
+		return ElemF, true
+	case "Cl":
+		return ElemCl, true
+	case "Br":
+		return ElemBr, true
+	case "P":
+		return ElemP, true
+	case "I":
+		return ElemI, true
+	case "H":
+		return ElemH, true
+	case "B":
+		return ElemB, true
+	}
 	z, ok := elementBySymbol[sym]
 	return z, ok
 }
@@ -68,6 +94,23 @@ const (
 // aromaticSymbols are the lowercase symbols OpenSMILES allows for
 // aromatic atoms (section 3.5): in brackets all of them, outside brackets
 // only b c n o p s.
+// aromaticNumber is the atomic number of an aromatic symbol, the
+// common ones without a map lookup.
+func aromaticNumber(sym string) (int, bool) {
+	switch sym {
+	case "c":
+		return ElemC, true
+	case "n":
+		return ElemN, true
+	case "o":
+		return ElemO, true
+	case "s":
+		return ElemS, true
+	}
+	z, ok := aromaticSymbols[sym]
+	return z, ok
+}
+
 var aromaticSymbols = map[string]int{
 	"b": ElemB, "c": ElemC, "n": ElemN, "o": ElemO, "p": ElemP, "s": ElemS,
 	"se": ElemSe, "as": ElemAs, "te": ElemTe,

@@ -1,8 +1,10 @@
 package notation
 
 import (
+	"slices"
 	"sort"
 	"strings"
+	"sync"
 )
 
 // kekulizeBudget bounds the matching work of one record, so that a huge
@@ -37,9 +39,12 @@ func kekulize(m *Molecule, inRing []bool) []bool {
 	// (aromatic, with its direction).
 	arom := aromaticBonds(m, inRing, false)
 	pi, unringed, match := kekuleAttempt(m, arom)
+	var match2 *matcher
 	if (len(unringed) > 0 || match.unmatched()) && hasMarkedAromaticBond(m, inRing) {
 		arom2 := aromaticBonds(m, inRing, true)
-		pi2, unringed2, match2 := kekuleAttempt(m, arom2)
+		var pi2 []bool
+		var unringed2 []int
+		pi2, unringed2, match2 = kekuleAttempt(m, arom2)
 		if len(unringed2) < len(unringed) || !match2.unmatched() {
 			arom, pi, unringed, match = arom2, pi2, unringed2, match2
 		}
@@ -60,6 +65,10 @@ func kekulize(m *Molecule, inRing []bool) []bool {
 		}
 	}
 	match.report()
+	match.release()
+	if match2 != nil && match2 != match {
+		match2.release()
+	}
 	return pi
 }
 
@@ -191,13 +200,45 @@ type matcher struct {
 	// false between calls (a search leaves used set on its vertices, so
 	// collecting with used would miss them)
 	reach []bool
+
+	// storage kept for the next record (matchers)
+	local, backing []int
+}
+
+// matchers keeps matchers and their storage for the next record: every
+// aromatic record of a list needs one, and a large one is not kept.
+var matchers = sync.Pool{New: func() any { return new(matcher) }}
+
+// maxPooledMatcher is the most atoms a matcher kept for reuse may have
+// been sized for.
+const maxPooledMatcher = 4096
+
+// ints returns s resized to n, reusing its storage when it can; the
+// contents are not cleared.
+func ints(s []int, n int) []int {
+	if cap(s) >= n {
+		return s[:n]
+	}
+	return make([]int, n)
+}
+
+// bools returns s resized to n and all false.
+func bools(s []bool, n int) []bool {
+	if cap(s) >= n {
+		s = s[:n]
+		clear(s)
+		return s
+	}
+	return make([]bool, n)
 }
 
 func newMatcher(m *Molecule, pi []bool, arom []bool) *matcher {
-	x := &matcher{m: m}
+	x := matchers.Get().(*matcher)
+	x.m, x.work = m, 0
 	// local index of each atom (-1 off the graph), and the neighbours of
 	// every vertex in one backing array, in the order of the atoms' bonds
-	local := make([]int, len(m.Atoms))
+	local := ints(x.local, len(m.Atoms))
+	x.local = local
 	n := 0
 	for i := range m.Atoms {
 		local[i] = -1
@@ -206,7 +247,7 @@ func newMatcher(m *Molecule, pi []bool, arom []bool) *matcher {
 			n++
 		}
 	}
-	x.atoms = make([]int, 0, n)
+	x.atoms = ints(x.atoms, n)[:0]
 	for i := range m.Atoms {
 		if pi[i] {
 			x.atoms = append(x.atoms, i)
@@ -221,7 +262,8 @@ func newMatcher(m *Molecule, pi []bool, arom []bool) *matcher {
 		}
 		return -1
 	}
-	degree := make([]int, n)
+	degree := ints(x.mate, n)
+	clear(degree)
 	total := 0
 	for v, a := range x.atoms {
 		for _, bi := range m.Atoms[a].Bonds {
@@ -231,8 +273,13 @@ func newMatcher(m *Molecule, pi []bool, arom []bool) *matcher {
 			}
 		}
 	}
-	backing := make([]int, total)
-	x.adj = make([][]int, n)
+	backing := ints(x.backing, total)
+	x.backing = backing
+	if cap(x.adj) >= n {
+		x.adj = x.adj[:n]
+	} else {
+		x.adj = make([][]int, n)
+	}
 	for v := range x.adj {
 		x.adj[v], backing = backing[:0:degree[v]], backing[degree[v]:]
 	}
@@ -247,7 +294,18 @@ func newMatcher(m *Molecule, pi []bool, arom []bool) *matcher {
 	for i := range x.mate {
 		x.mate[i] = -1
 	}
+	x.reach = bools(x.reach, n)
 	return x
+}
+
+// release gives the matcher back for the next record; it must not be
+// used after.
+func (x *matcher) release() {
+	if x == nil || len(x.local) > maxPooledMatcher {
+		return
+	}
+	x.m = nil
+	matchers.Put(x)
 }
 
 func (x *matcher) run() {
@@ -270,10 +328,10 @@ func (x *matcher) run() {
 			}
 		}
 	}
-	x.parent = make([]int, n)
-	x.base = make([]int, n)
-	x.used = make([]bool, n)
-	x.inBlossom = make([]bool, n)
+	x.parent = ints(x.parent, n)
+	x.base = ints(x.base, n)
+	x.used = bools(x.used, n)
+	x.inBlossom = bools(x.inBlossom, n)
 	for v := 0; v < n; v++ {
 		if x.mate[v] >= 0 || len(x.adj[v]) == 0 {
 			continue
@@ -295,9 +353,6 @@ func (x *matcher) run() {
 // component lists the local vertices reachable from root, so that one
 // search costs the size of its own ring system, not of the record.
 func (x *matcher) component(root int) []int {
-	if x.reach == nil {
-		x.reach = make([]bool, len(x.atoms))
-	}
 	seen := x.reach
 	comp := []int{root}
 	seen[root] = true
@@ -399,6 +454,9 @@ func (x *matcher) markPath(v, b, child int) {
 // report adds one kekulize error per aromatic system that kept atoms
 // without a double bond, naming those atoms.
 func (x *matcher) report() {
+	if !slices.Contains(x.mate, -1) {
+		return // every atom has its double bond
+	}
 	seen := make([]bool, len(x.atoms))
 	for v := range x.atoms {
 		if x.mate[v] >= 0 || seen[v] {

@@ -638,7 +638,7 @@ func (r *reader) organicAtom() int {
 	if len(sym) == 2 && sym != "Cl" && sym != "Br" {
 		a.Bracket = true // recovered: no implicit hydrogens for it
 		a.Number, _ = ElementNumber(sym)
-	} else if z, ok := aromaticSymbols[sym]; ok {
+	} else if z, ok := aromaticNumber(sym); ok {
 		a.Number = z
 		a.Aromatic = true
 	} else {

@@ -45,7 +45,7 @@ var pBlockPeriods = [][2]int{{5, 10}, {13, 18}, {31, 36}, {49, 54}}
 // lanthanides, wildcards), in which case no valence error is reported.
 func AllowedValences(z, charge int) []int {
 	if charge == 0 {
-		return neutralValences[z]
+		return neutralValence(z)
 	}
 	if z == ElemH {
 		return []int{0}
@@ -54,12 +54,31 @@ func AllowedValences(z, charge int) []int {
 		if z >= p[0] && z <= p[1] {
 			iso := z - charge
 			if iso >= p[0] && iso <= p[1] {
-				return neutralValences[iso]
+				return neutralValence(iso)
 			}
 			return nil
 		}
 	}
 	return nil
+}
+
+// valenceTable is neutralValences by atomic number, read without a map
+// lookup (once per atom of every record).
+var valenceTable = func() (t [128][]int) {
+	for z, v := range neutralValences {
+		if z >= 0 && z < len(t) {
+			t[z] = v
+		}
+	}
+	return t
+}()
+
+// neutralValence returns the allowed valences of the neutral element z.
+func neutralValence(z int) []int {
+	if z >= 0 && z < len(valenceTable) {
+		return valenceTable[z]
+	}
+	return neutralValences[z]
 }
 
 // bondOrderSum adds the Kekulé orders of an atom's bonds.

@@ -304,18 +304,24 @@ func groupsToJSON(m *notation.Molecule, an *stereo.Analysis) []groupJSON {
 }
 
 func unitToJSON(u *stereo.Unit) unitJSON {
-	j := unitJSON{Kind: u.Kind.String(), Specified: u.Specified, Ranked: []ligandJSON{}}
-	for _, a := range u.Atoms {
-		j.Atoms = append(j.Atoms, a+1)
+	// one allocation for each list (every record of a list has units)
+	j := unitJSON{Kind: u.Kind.String(), Specified: u.Specified, Ranked: make([]ligandJSON, 0, len(u.Ranked))}
+	ints := make([]int, len(u.Atoms)+len(u.Ranked))
+	numbers := ints[len(u.Atoms):] // the ligands' atom numbers
+	if len(u.Atoms) > 0 {
+		j.Atoms = ints[:len(u.Atoms):len(u.Atoms)]
+		for k, a := range u.Atoms {
+			j.Atoms[k] = a + 1
+		}
 	}
 	if u.Specified && u.Descriptor.Labelled() {
 		j.CIP = u.Descriptor.String()
 	}
-	for _, l := range u.Ranked {
+	for k, l := range u.Ranked {
 		lj := ligandJSON{Rank: l.Rank}
 		if l.Atom >= 0 {
-			n := l.Atom + 1
-			lj.Atom = &n
+			numbers[k] = l.Atom + 1
+			lj.Atom = &numbers[k]
 		} else if l.LonePair {
 			lj.Implicit = "lone pair"
 		} else {

@@ -157,12 +157,12 @@ func appendUnitJSON(b []byte, u *unitJSON) []byte {
 			}
 			l := &u.Ranked[i]
 			b = append(b, `{"rank":`...)
-			b = strconv.AppendInt(b, int64(l.Rank), 10)
+			b = appendJSONInt(b, l.Rank)
 			b = append(b, `,"atom":`...)
 			if l.Atom == nil {
 				b = append(b, "null"...)
 			} else {
-				b = strconv.AppendInt(b, int64(*l.Atom), 10)
+				b = appendJSONInt(b, *l.Atom)
 			}
 			if l.Implicit != "" {
 				b = append(b, `,"implicit":`...)
@@ -170,7 +170,7 @@ func appendUnitJSON(b []byte, u *unitJSON) []byte {
 			}
 			if l.On != 0 {
 				b = append(b, `,"on":`...)
-				b = strconv.AppendInt(b, int64(l.On), 10)
+				b = appendJSONInt(b, l.On)
 			}
 			b = append(b, '}')
 		}
@@ -180,7 +180,7 @@ func appendUnitJSON(b []byte, u *unitJSON) []byte {
 		b = append(b, `,"group":{"kind":`...)
 		b = appendJSONString(b, g.Kind)
 		b = append(b, `,"number":`...)
-		b = strconv.AppendInt(b, int64(g.Number), 10)
+		b = appendJSONInt(b, g.Number)
 		if g.CIP != "" {
 			b = append(b, `,"cip":`...)
 			b = appendJSONString(b, g.CIP)
@@ -199,7 +199,7 @@ func appendIntsJSON(b []byte, s []int) []byte {
 		if i > 0 {
 			b = append(b, ',')
 		}
-		b = strconv.AppendInt(b, int64(v), 10)
+		b = appendJSONInt(b, v)
 	}
 	return append(b, ']')
 }
@@ -217,20 +217,20 @@ func appendFloatJSON(b []byte, f float64) ([]byte, error) {
 
 func appendAtomJSON(b []byte, a *atomJSON) []byte {
 	b = append(b, `{"n":`...)
-	b = strconv.AppendInt(b, int64(a.N), 10)
+	b = appendJSONInt(b, a.N)
 	b = append(b, `,"symbol":`...)
 	b = appendJSONString(b, a.Symbol)
 	b = append(b, `,"charge":`...)
-	b = strconv.AppendInt(b, int64(a.Charge), 10)
+	b = appendJSONInt(b, a.Charge)
 	b = append(b, `,"hydrogens":`...)
-	b = strconv.AppendInt(b, int64(a.Hydrogens), 10)
+	b = appendJSONInt(b, a.Hydrogens)
 	b = append(b, `,"aromatic":`...)
 	b = strconv.AppendBool(b, a.Aromatic)
 	b = append(b, `,"map":`...)
-	b = strconv.AppendInt(b, int64(a.Map), 10)
+	b = appendJSONInt(b, a.Map)
 	if a.Isotope != 0 {
 		b = append(b, `,"isotope":`...)
-		b = strconv.AppendInt(b, int64(a.Isotope), 10)
+		b = appendJSONInt(b, a.Isotope)
 	}
 	if a.Role != "" {
 		b = append(b, `,"role":`...)
@@ -254,7 +254,7 @@ func appendBondJSON(b []byte, bj *bondJSON) ([]byte, error) {
 	b = append(b, `,"order":`...)
 	switch o := bj.Order.(type) {
 	case int:
-		b = strconv.AppendInt(b, int64(o), 10)
+		b = appendJSONInt(b, o)
 	case string:
 		b = appendJSONString(b, o)
 	default:
@@ -278,18 +278,39 @@ func appendBondJSON(b []byte, bj *bondJSON) ([]byte, error) {
 
 func appendPairJSON(b []byte, p [2]int) []byte {
 	b = append(b, '[')
-	b = strconv.AppendInt(b, int64(p[0]), 10)
+	b = appendJSONInt(b, p[0])
 	b = append(b, ',')
-	b = strconv.AppendInt(b, int64(p[1]), 10)
+	b = appendJSONInt(b, p[1])
 	return append(b, ']')
 }
 
 // appendJSONString appends s quoted as encoding/json quotes it: printable
 // ASCII other than '"', '\\' and the HTML characters it escapes is
 // written as it is; anything else goes through encoding/json.
+// appendJSONInt writes n in decimal; the numbers of a record (atom
+// numbers, offsets, counts) are mostly one or two digits, written here
+// without a call into strconv.
+func appendJSONInt(b []byte, n int) []byte {
+	switch {
+	case n >= 0 && n < 10:
+		return append(b, byte('0'+n))
+	case n >= 10 && n < 100:
+		return append(b, byte('0'+n/10), byte('0'+n%10))
+	}
+	return strconv.AppendInt(b, int64(n), 10)
+}
+
+// jsonSpecial marks the bytes appendJSONString leaves to encoding/json.
+var jsonSpecial = func() (t [256]bool) {
+	for c := range t {
+		t[c] = c < 0x20 || c >= 0x7f || c == '"' || c == '\\' || c == '<' || c == '>' || c == '&'
+	}
+	return t
+}()
+
 func appendJSONString(b []byte, s string) []byte {
 	for i := 0; i < len(s); i++ {
-		if c := s[i]; c < 0x20 || c >= 0x7f || c == '"' || c == '\\' || c == '<' || c == '>' || c == '&' {
+		if jsonSpecial[s[i]] {
 			q, _ := json.Marshal(s) // a string always encodes
 			return append(b, q...)
 		}

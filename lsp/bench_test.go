@@ -202,7 +202,8 @@ func scaleList(b testing.TB) []byte {
 // BenchmarkScaleEditKinds is BenchmarkScaleRepublish for each kind of
 // one-line edit lsp/testdata/scaleclient makes, at random lines: a mark
 // toggled, a title extended, a line inserted (a copy of another record
-// with a new title) and a line deleted. It reports the three parts of
+// with a new title) and a line deleted, and a line inserted or deleted
+// at the top, which moves every record. It reports the three parts of
 // the work apart: the new line table (map-ms), Reanalyze (analyze-ms)
 // and the publishDiagnostics JSON (publish-ms), and the page faults of
 // the process (faults/op). It skips without
@@ -243,6 +244,18 @@ func BenchmarkScaleEditKinds(b *testing.B) {
 		{"delete", func(text []byte, rng *rand.Rand) []byte {
 			from, to := randomLine(text, rng)
 			return splice(text, from, to, "")
+		}},
+		// at the top, every record after the edit moves: the most work
+		{"insert-top", func(text []byte, rng *rand.Rand) []byte {
+			from, to := randomLine(text, rng)
+			rec := text[from:to]
+			if i := bytes.IndexAny(rec, " \t"); i >= 0 {
+				rec = rec[:i]
+			}
+			return splice(text, 0, 0, string(rec)+"\tinserted\n")
+		}},
+		{"delete-top", func(text []byte, rng *rand.Rand) []byte {
+			return splice(text, 0, bytes.IndexByte(text, '\n')+1, "")
 		}},
 	}
 	for _, k := range kinds {

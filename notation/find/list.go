@@ -192,6 +192,12 @@ func (sc *listScanner) nextAll(out []Occurrence) []Occurrence {
 	return all[:n]
 }
 
+// headerLine reports whether the first data line of a list, without its
+// leading blanks, is a header line rather than a record.
+func headerLine(line []byte, lay Layout) bool {
+	return lay.Header || lay.Sep == ' ' && lay.Field == 0 && bytes.EqualFold(line[:notationEnd(line, 0, len(line), ' ')], []byte("smiles"))
+}
+
 // next appends up to max records (all when max < 0) to out.
 func (sc *listScanner) next(out []Occurrence, max int) []Occurrence {
 	src, v, lay := sc.src, sc.v, sc.v.layout
@@ -213,7 +219,7 @@ func (sc *listScanner) next(out []Occurrence, max int) []Occurrence {
 		}
 		if sc.first {
 			sc.first = false
-			if lay.Header || lay.Sep == ' ' && lay.Field == 0 && bytes.EqualFold(line[:notationEnd(line, 0, len(line), ' ')], []byte("smiles")) {
+			if headerLine(line, lay) {
 				continue
 			}
 		}

@@ -15,22 +15,40 @@ import (
 // exactly as FindKind(KindList, src, cfg) finds them there. ok is false
 // when those lines cannot be read apart from the rest, and the caller
 // must read the whole list: the list carries pragmas, is a table with a
-// header, holds query patterns or fragments, the range reaches into the
-// first lines the layout is read from, or a line of the range is a
-// comment.
-func FindListLines(src []byte, cfg Config, from, to int) (occs []Occurrence, ok bool) {
+// header, holds query patterns or fragments, or a line of the range is
+// a comment.
+//
+// old is the text before an edit that changed old[from:] into src[from:]
+// with the lines after to unchanged (nil when there is none). The
+// records outside the range are old's then. A range that reaches into
+// the first lines, which the layout is read from, can be read apart
+// only when old is given and its layout reads as src's, neither text
+// has a header line the edit moves, and no note on the layout goes on the first record:
+// the records outside the range are then read alike in both texts. This
+// keeps an edit at the top of a long list (a record added first, the
+// first record's mark changed) from reading the whole list again.
+func FindListLines(old, src []byte, cfg Config, from, to int) (occs []Occurrence, ok bool) {
 	if from < 0 || to > len(src) || from > to || bytes.Contains(src, []byte(pragmaWord)) {
 		return nil, false
 	}
-	sample := dataLines(src, skipBOM(src), sampleLines+1)
-	if len(sample) <= sampleLines || from <= sample[len(sample)-1].end {
-		return nil, false
-	}
-	fixed, _ := listSpec(src, &cfg)
+	fixed, bad := listSpec(src, &cfg)
 	v := detectLayout(src, skipBOM(src), fixed, newNamer(&cfg), &cfg)
 	lay := v.layout
 	if v.none || v.queries || v.fragments || lay.Sep != ' ' && lay.Header {
 		return nil, false
+	}
+	sample := dataLines(src, skipBOM(src), sampleLines+1)
+	if len(sample) <= sampleLines || from <= sample[len(sample)-1].end {
+		if old == nil || bad != "" || v.ambiguous != "" || lay.Header ||
+			bytes.Contains(old, []byte(pragmaWord)) || skipBOM(old) != skipBOM(src) {
+			return nil, false
+		}
+		from = max(from, skipBOM(src)) // a byte order mark both texts begin with is no part of a line
+		oldFixed, _ := listSpec(old, &cfg)
+		if detectLayout(old, skipBOM(old), oldFixed, newNamer(&cfg), &cfg) != v ||
+			headerFrom(src, from, lay) || headerFrom(old, from, lay) {
+			return nil, false
+		}
 	}
 	part := src[from:to]
 	for start := 0; start < len(part); {
@@ -48,6 +66,25 @@ func FindListLines(src []byte, cfg Config, from, to int) (occs []Occurrence, ok 
 		occs[i].Shift(from)
 	}
 	return occs, true
+}
+
+// headerFrom reports whether the first data line of a list starts at
+// or after offset from and is a header line the scanner skips: an edit
+// before it makes it a record, or a record the header.
+func headerFrom(src []byte, from int, lay Layout) bool {
+	for pos := skipBOM(src); pos < len(src); {
+		line, next := nextLine(src, pos)
+		start := pos
+		pos = next
+		for len(line) > 0 && (line[0] == ' ' || line[0] == '\t') {
+			line = line[1:]
+		}
+		if len(line) == 0 || line[0] == '\r' || isComment(line) {
+			continue
+		}
+		return start >= from && headerLine(line, lay)
+	}
+	return false
 }
 
 // Shift moves an occurrence by delta host bytes, as when the host text

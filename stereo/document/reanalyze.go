@@ -50,7 +50,7 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 		return &next
 	}
 	cfg := a.cfg
-	occs, ok := find.FindListLines(content, cfg.findConfig(name), from, newTo)
+	occs, ok := find.FindListLines(old, content, cfg.findConfig(name), from, newTo)
 	if !ok {
 		return nil
 	}

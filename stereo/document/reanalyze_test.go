@@ -228,3 +228,107 @@ func TestReanalyzeLongSession(t *testing.T) {
 		t.Errorf("the occurrences were never copied together")
 	}
 }
+
+// TestReanalyzeFirstLines edits the first lines of lists, which the
+// layout is read from, in several layouts (a header line, comments and a
+// byte order mark before the records among them), and checks each result
+// of Reanalyze against a fresh analysis as TestReanalyzeEqualsAnalyze
+// does. Edits that keep the layout are analysed incrementally; those
+// that change it (a header line added, a line that is no record) are
+// read whole or must still come out the same.
+func TestReanalyzeFirstLines(t *testing.T) {
+	layouts := []struct {
+		name   string
+		head   string
+		record func(rec string, i int) string
+	}{
+		{"tab", "", func(rec string, i int) string { return rec }},
+		{"blank", "", func(rec string, i int) string { return strings.Replace(rec, "\t", " ", 1) }},
+		{"comma", "", func(rec string, i int) string { return fmt.Sprintf("%d,%s", i, strings.Replace(rec, "\t", ",", 1)) }},
+		{"bare", "", func(rec string, i int) string { return strings.SplitN(rec, "\t", 2)[0] }},
+		{"header", "", func(rec string, i int) string { return strings.Replace(rec, "\t", " ", 1) }},
+		{"comment", "# made for the test\n\n", func(rec string, i int) string { return rec }},
+		{"bom", "\ufeff", func(rec string, i int) string { return rec }},
+	}
+	edits := []func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string){
+		func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string) {
+			return append([]string{rec(editRecord(rng, 30000), 30000)}, ls...), "a record inserted first"
+		},
+		func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string) {
+			return ls[1:], "the first record deleted"
+		},
+		func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string) {
+			i := rng.Intn(30)
+			if j := strings.Index(ls[i], "@"); j >= 0 {
+				ls[i] = ls[i][:j] + ls[i][j+1:]
+			} else {
+				ls[i] = strings.Replace(ls[i], "[CH]", "[C@@H]", 1)
+			}
+			return ls, fmt.Sprintf("a mark of line %d", i)
+		},
+		func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string) {
+			i := rng.Intn(30)
+			return append(ls[:i:i], append([]string{rec(editRecord(rng, 31000+i), 31000+i)}, ls[i:]...)...), fmt.Sprintf("a record inserted before line %d", i)
+		},
+		func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string) {
+			i := rng.Intn(30)
+			return append(ls[:i:i], ls[i+1:]...), fmt.Sprintf("line %d deleted", i)
+		},
+		func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string) {
+			return append([]string{"SMILES Name"}, ls...), "a header line inserted first"
+		},
+		func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string) {
+			return append([]string{"# a comment"}, ls...), "a comment inserted first"
+		},
+		func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string) {
+			i := rng.Intn(30)
+			ls[i] = "these words are no record"
+			return ls, fmt.Sprintf("line %d made prose", i)
+		},
+		func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string) {
+			i := rng.Intn(30)
+			ls[i] = ""
+			return ls, fmt.Sprintf("line %d emptied", i)
+		},
+	}
+	a := NewAnalyzer(DefaultConfig())
+	rng := rand.New(rand.NewSource(20261203))
+	for _, lay := range layouts {
+		name := lay.name
+		var lines []string
+		for i, r := range editList(rng, 300) {
+			lines = append(lines, lay.record(r, i))
+		}
+		if name == "header" {
+			// a line of its own, which the edits at the top may delete
+			// or put records before
+			lines = append([]string{"smiles name"}, lines...)
+		}
+		text := lay.head + strings.Join(lines, "\n") + "\n"
+		prev := a.Analyze("top.smi", "", []byte(text))
+		incremental := 0
+		for step := 0; step < 40; step++ {
+			// the edits from the sixth on change the layout read or add a
+			// header line; the next edit starts from the text before them
+			k := rng.Intn(len(edits))
+			edited, what := edits[k](rng, append([]string(nil), lines...), lay.record)
+			text = lay.head + strings.Join(edited, "\n") + "\n"
+			next := a.reanalyzeList(prev, "top.smi", "", []byte(text))
+			if next != nil {
+				incremental++
+			} else {
+				next = a.Analyze("top.smi", "", []byte(text))
+			}
+			compareResults(t, fmt.Sprintf("%s, step %d (%s)", name, step, what), next, a.Analyze("top.smi", "", []byte(text)))
+			if t.Failed() {
+				return
+			}
+			if k < 5 {
+				lines, prev = edited, next
+			}
+		}
+		if name != "header" && incremental < 10 {
+			t.Errorf("%s: only %d of 40 edits of the first lines were analysed incrementally", name, incremental)
+		}
+	}
+}

@@ -3,6 +3,7 @@ package document
 import (
 	"bytes"
 	"os"
+	"runtime"
 	"testing"
 )
 
@@ -54,4 +55,24 @@ func toggleMark(text []byte) []byte {
 	}
 	i += mid
 	return append(append(append([]byte(nil), text[:i]...), '@'), text[i+2:]...)
+}
+
+// BenchmarkScaleEditTop is BenchmarkScaleEdit for a record inserted at
+// the top of the list and taken away again: every record after it
+// moves, its findings and the relations that name it by its line. The
+// garbage is collected between edits, as the language server does while
+// it waits for the typing to pause.
+func BenchmarkScaleEditTop(b *testing.B) {
+	text := scaleList(b)
+	a := NewAnalyzer(DefaultConfig())
+	prev := a.Analyze("big.smi", "", text)
+	first := text[:bytes.IndexByte(text, '\n')+1]
+	versions := [2][]byte{text, append(append([]byte(nil), first...), text...)}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		b.StopTimer()
+		runtime.GC()
+		b.StartTimer()
+		prev = a.Reanalyze(prev, "big.smi", "", versions[(i+1)%2])
+	}
 }

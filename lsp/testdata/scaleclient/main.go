@@ -43,7 +43,7 @@ func main() {
 	rounds := flag.Int("rounds", 5, "edits of each kind")
 	debounce := flag.Duration("debounce", 100*time.Millisecond, "the server's debounce, subtracted from edit times")
 	serverLog := flag.String("log", "", "pass --log FILE -v to the server")
-	only := flag.String("kinds", "mark,title,insert,delete", "the kinds of edit to make, in this order")
+	only := flag.String("kinds", "mark,title,insert,delete", "the kinds of edit to make, in this order (also insert-top, delete-top)")
 	settle := flag.Duration("settle", 0, "wait this long after the open before the first edit (a user reads first)")
 	pause := flag.Duration("pause", 0, "wait this long after each publication before the next edit (a user typing, not a script)")
 	flag.Parse()
@@ -110,6 +110,14 @@ func main() {
 		"title":  {"change a title", (*document).titleEdit},
 		"insert": {"insert a line", (*document).insertEdit},
 		"delete": {"delete a line", (*document).deleteEdit},
+		// at the top every record after the edit moves: the most work
+		"insert-top": {"insert at the top", func(d *document, rng *rand.Rand) (edit, bool) {
+			src := rng.Intn(len(d.lines))
+			return edit{0, 0, 0, 0, d.notation(src) + "\tinserted-" + strconv.Itoa(src) + "\n"}, true
+		}},
+		"delete-top": {"delete the top", func(d *document, rng *rand.Rand) (edit, bool) {
+			return edit{0, 0, 1, 0, ""}, true
+		}},
 	}
 	var kinds []kind
 	for _, k := range strings.Split(*only, ",") {

@@ -15,8 +15,7 @@ import (
 // exactly as FindKind(KindList, src, cfg) finds them there. ok is false
 // when those lines cannot be read apart from the rest, and the caller
 // must read the whole list: the list carries pragmas, is a table with a
-// header, holds query patterns or fragments, or a line of the range is
-// a comment.
+// header, or holds query patterns or fragments.
 //
 // old is the text before an edit that changed old[from:] into src[from:]
 // with the lines after to unchanged (nil when there is none). The
@@ -50,15 +49,9 @@ func FindListLines(old, src []byte, cfg Config, from, to int) (occs []Occurrence
 			return nil, false
 		}
 	}
-	part := src[from:to]
-	for start := 0; start < len(part); {
-		line, next := nextLine(part, start)
-		start = next
-		if isComment(bytes.TrimLeft(line, " \t")) {
-			return nil, false
-		}
-	}
-	occs, queries := listRecords(part, 0, v, nil, false, nil)
+	// Comments are no records; without pragmas, which the check above
+	// rules out, they mean nothing else.
+	occs, queries := listRecords(src[from:to], 0, v, nil, false, nil)
 	if queries > 0 {
 		return nil, false
 	}

@@ -23,9 +23,9 @@ import (
 // document whose previous result, analysed by an analyzer with the same
 // configuration, is prev (nil for none). For a record list it reads only
 // the lines the change touched and relates again only the records whose
-// constitution the change touched; other documents, and lists where the
-// change reaches the lines the layout is read from, a comment or a
-// pragma, are analysed whole.
+// constitution the change touched; other documents, and lists with
+// pragmas or whose layout the change alters (find.FindListLines), are
+// analysed whole.
 func (a *Analyzer) Reanalyze(prev *Result, name, languageID string, content []byte) *Result {
 	if next := a.reanalyzeList(prev, name, languageID, content); next != nil {
 		return next

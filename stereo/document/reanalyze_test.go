@@ -275,6 +275,11 @@ func TestReanalyzeFirstLines(t *testing.T) {
 			return append(ls[:i:i], ls[i+1:]...), fmt.Sprintf("line %d deleted", i)
 		},
 		func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string) {
+			i := rng.Intn(len(ls))
+			ls[i] = "#" + ls[i]
+			return ls, fmt.Sprintf("line %d commented out", i)
+		},
+		func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string) {
 			return append([]string{"SMILES Name"}, ls...), "a header line inserted first"
 		},
 		func(rng *rand.Rand, ls []string, rec func(string, int) string) ([]string, string) {
@@ -308,8 +313,8 @@ func TestReanalyzeFirstLines(t *testing.T) {
 		prev := a.Analyze("top.smi", "", []byte(text))
 		incremental := 0
 		for step := 0; step < 40; step++ {
-			// the edits from the sixth on change the layout read or add a
-			// header line; the next edit starts from the text before them
+			// the edits from the seventh on change the layout read or add
+			// a header line; the next edit starts from the text before them
 			k := rng.Intn(len(edits))
 			edited, what := edits[k](rng, append([]string(nil), lines...), lay.record)
 			text = lay.head + strings.Join(edited, "\n") + "\n"
@@ -323,7 +328,7 @@ func TestReanalyzeFirstLines(t *testing.T) {
 			if t.Failed() {
 				return
 			}
-			if k < 5 {
+			if k < 6 {
 				lines, prev = edited, next
 			}
 		}

@@ -14,16 +14,18 @@ import (
 // offset from (a line start) to offset to (a line start or len(src)),
 // exactly as FindKind(KindList, src, cfg) finds them there. ok is false
 // when those lines cannot be read apart from the rest, and the caller
-// must read the whole list: the list carries pragmas, is a table with a
-// header, or holds query patterns or fragments.
+// must read the whole list: the list carries pragmas, or holds query
+// patterns or fragments; a list with a header line and separators, read
+// as a table (FindTableLines), when that cannot be read apart either.
 //
 // old is the text before an edit that changed old[from:] into src[from:]
 // with the lines after to unchanged (nil when there is none). The
 // records outside the range are old's then. A range that reaches into
 // the first lines, which the layout is read from, can be read apart
 // only when old is given and its layout reads as src's, neither text
-// has a header line the edit moves, and no note on the layout goes on the first record:
-// the records outside the range are then read alike in both texts. This
+// has a header line the edit moves, and no note on the layout goes on
+// the first record: the records outside the range are then read alike
+// in both texts. This
 // keeps an edit at the top of a long list (a record added first, the
 // first record's mark changed) from reading the whole list again.
 func FindListLines(old, src []byte, cfg Config, from, to int) (occs []Occurrence, ok bool) {
@@ -33,21 +35,37 @@ func FindListLines(old, src []byte, cfg Config, from, to int) (occs []Occurrence
 	fixed, bad := listSpec(src, &cfg)
 	v := detectLayout(src, skipBOM(src), fixed, newNamer(&cfg), &cfg)
 	lay := v.layout
-	if v.none || v.queries || v.fragments || lay.Sep != ' ' && lay.Header {
+	if v.none || v.queries || v.fragments {
 		return nil, false
 	}
+	table := lay.Sep != ' ' && lay.Header // read as a table by its header, if it names a structure column
 	sample := dataLines(src, skipBOM(src), sampleLines+1)
 	if len(sample) <= sampleLines || from <= sample[len(sample)-1].end {
-		if old == nil || bad != "" || v.ambiguous != "" || lay.Header ||
+		if old == nil || bad != "" || v.ambiguous != "" || lay.Header && !table ||
 			bytes.Contains(old, []byte(pragmaWord)) || skipBOM(old) != skipBOM(src) {
 			return nil, false
 		}
 		from = max(from, skipBOM(src)) // a byte order mark both texts begin with is no part of a line
 		oldFixed, _ := listSpec(old, &cfg)
 		if detectLayout(old, skipBOM(old), oldFixed, newNamer(&cfg), &cfg) != v ||
-			headerFrom(src, from, lay) || headerFrom(old, from, lay) {
+			!table && (headerFrom(src, from, lay) || headerFrom(old, from, lay)) {
 			return nil, false
 		}
+	}
+	if table {
+		// A table whose header names no structure column is read as a
+		// list; that is left to a whole reading.
+		if old == nil {
+			return nil, false
+		}
+		occs, ok := tableLines(old, src, sample[0].start, lay.Sep, &cfg, from, to)
+		if !ok {
+			return nil, false
+		}
+		for i := range occs {
+			occs[i].Kind, occs[i].Construct = KindList, ConstructListRecord
+		}
+		return occs, true
 	}
 	// Comments are no records; without pragmas, which the check above
 	// rules out, they mean nothing else.

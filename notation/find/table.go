@@ -24,50 +24,77 @@ func findTable(src []byte, sep byte, cfg *Config) []Occurrence {
 // findTableFrom is findTable for a table whose header line starts at
 // from (after comment lines of a list, say).
 func findTableFrom(src []byte, from int, sep byte, cfg *Config) []Occurrence {
+	if from >= len(src) {
+		return nil
+	}
+	sep = tableSep(src, sep)
+	h, next := readHeader(src, from, sep, cfg)
+	if !h.named {
+		if cfg.NoGuess {
+			return nil
+		}
+		return tableByContent(src, from, sep, newNamer(cfg), cfg)
+	}
+	out := h.rows(src, next, sep, nil)
+	queryList(out)
+	return out
+}
+
+// tableSep is the separator of a table read as sep: a .csv whose first
+// line has semicolons and no commas is read with ';'.
+func tableSep(src []byte, sep byte) byte {
 	if sep == ',' {
 		first := src
 		if k := bytes.IndexByte(src, '\n'); k >= 0 {
 			first = src[:k]
 		}
 		if bytes.IndexByte(first, ',') < 0 && bytes.IndexByte(first, ';') >= 0 {
-			sep = ';'
+			return ';'
 		}
 	}
+	return sep
+}
+
+// tableHeader is what the header record of a table says: which columns
+// hold structures and which the title.
+type tableHeader struct {
+	columns  []bool // structure columns by index
+	titleCol int    // -1 for none
+	named    bool   // some column holds structures
+}
+
+// readHeader reads the header record starting at from and returns it
+// and where the next record starts.
+func readHeader(src []byte, from int, sep byte, cfg *Config) (tableHeader, int) {
 	nm := newNamer(cfg)
-	var (
-		out      []Occurrence
-		columns  []bool // structure columns by index
-		titleCol = -1
-		header   = true
-	)
-	var rec []tableCell
-	for i := from; i < len(src); {
-		rec, i = readRecord(src, i, sep, rec[:0])
-		if header {
-			header = false
-			named := false
-			for k, c := range rec {
-				h := strings.TrimSpace(string(c.text))
-				columns = append(columns, nm.column(h, cfg.Columns))
-				named = named || columns[k]
-				if p := titlePriority(h); p > 0 && (titleCol < 0 || p < titlePriority(strings.TrimSpace(string(rec[titleCol].text)))) {
-					titleCol = k
-				}
-			}
-			if !named {
-				if cfg.NoGuess {
-					return nil
-				}
-				return tableByContent(src, from, sep, nm, cfg)
-			}
-			continue
+	h := tableHeader{titleCol: -1}
+	if from >= len(src) {
+		return h, from
+	}
+	rec, next := readRecord(src, from, sep, nil)
+	for k, c := range rec {
+		name := strings.TrimSpace(string(c.text))
+		h.columns = append(h.columns, nm.column(name, cfg.Columns))
+		h.named = h.named || h.columns[k]
+		if p := titlePriority(name); p > 0 && (h.titleCol < 0 || p < titlePriority(strings.TrimSpace(string(rec[h.titleCol].text)))) {
+			h.titleCol = k
 		}
+	}
+	return h, next
+}
+
+// rows appends the structures of the records of src from offset i on to
+// out.
+func (h *tableHeader) rows(src []byte, i int, sep byte, out []Occurrence) []Occurrence {
+	var rec []tableCell
+	for i < len(src) {
+		rec, i = readRecord(src, i, sep, rec[:0])
 		title := ""
-		if titleCol >= 0 && titleCol < len(rec) {
-			title = strings.TrimSpace(string(rec[titleCol].text))
+		if h.titleCol >= 0 && h.titleCol < len(rec) {
+			title = strings.TrimSpace(string(rec[h.titleCol].text))
 		}
 		for k, c := range rec {
-			if k >= len(columns) || !columns[k] {
+			if k >= len(h.columns) || !h.columns[k] {
 				continue
 			}
 			if o, ok := cellOccurrence(c, title); ok {
@@ -81,8 +108,83 @@ func findTableFrom(src []byte, from int, sep byte, cfg *Config) []Occurrence {
 			}
 		}
 	}
-	queryList(out)
 	return out
+}
+
+// FindTableLines is FindListLines for a CSV or TSV table (FindKind with
+// KindCSV or KindTSV, whose separator sep is): the structures of the
+// records on the lines from offset from to offset to of src, exactly as
+// the whole table's reading finds them there, where old is the text
+// before the edit (old[from:] became src[from:], the lines after to
+// unchanged). ok is false when they cannot be read apart: the edit
+// reaches the header line, the header names no structure column (the
+// table is read by its content), a field in quotes runs over a line
+// break in either text (a record is then no line), a structure of the
+// lines is a query pattern (whether the others are read as patterns
+// depends on them all), or the text has a pragma.
+func FindTableLines(old, src []byte, sep byte, cfg Config, from, to int) (occs []Occurrence, ok bool) {
+	if old == nil || from < 0 || to > len(src) || from > to || bytes.Contains(src, []byte(pragmaWord)) ||
+		skipBOM(old) != skipBOM(src) {
+		return nil, false
+	}
+	return tableLines(old, src, skipBOM(src), sep, &cfg, from, to)
+}
+
+// tableLines is FindTableLines for a table whose header line starts at
+// start.
+func tableLines(old, src []byte, start int, sep byte, cfg *Config, from, to int) (occs []Occurrence, ok bool) {
+	k := bytes.IndexByte(src[start:], '\n')
+	if k < 0 || start+k >= from {
+		return nil, false
+	}
+	sep = tableSep(src, sep)
+	if multiLineField(src, sep) || multiLineField(old, sep) {
+		return nil, false
+	}
+	h, _ := readHeader(src, start, sep, cfg)
+	if !h.named {
+		return nil, false
+	}
+	occs = h.rows(src[:to], from, sep, nil)
+	for i := range occs {
+		if occs[i].Dialect == DialectSMARTS {
+			return nil, false
+		}
+	}
+	return occs, true
+}
+
+// multiLineField reports whether a field of a table in double quotes
+// holds a line break or has no closing quote, as readRecord reads them:
+// a quote opens a field only where a field starts.
+func multiLineField(src []byte, sep byte) bool {
+	first := skipBOM(src)
+	for i := 0; i < len(src); {
+		k := bytes.IndexByte(src[i:], '"')
+		if k < 0 {
+			return false
+		}
+		q := i + k
+		if q > first && src[q-1] != sep && src[q-1] != '\n' {
+			i = q + 1 // a quote inside a field is a character
+			continue
+		}
+		j := q + 1
+		for {
+			k := bytes.IndexByte(src[j:], '"')
+			if k < 0 || bytes.IndexByte(src[j:j+k], '\n') >= 0 {
+				return true
+			}
+			j += k
+			if j+1 < len(src) && src[j+1] == '"' {
+				j += 2
+				continue
+			}
+			break
+		}
+		i = j + 1
+	}
+	return false
 }
 
 // tableByContent reads a table whose header names no structure column

@@ -36,8 +36,9 @@ func (a *Analyzer) Reanalyze(prev *Result, name, languageID string, content []by
 // reanalyzeList is Reanalyze for a list, or nil when the list must be
 // analysed whole.
 func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content []byte) *Result {
-	if prev == nil || !prev.related || prev.Kind != find.KindList || prev.rel == nil || prev.own == nil ||
-		len(prev.Queries) > 0 || a.kindOf(name, languageID) != find.KindList ||
+	kind := a.kindOf(name, languageID)
+	if prev == nil || !prev.related || prev.rel == nil || prev.own == nil || len(prev.Queries) > 0 ||
+		kind != prev.Kind || kind != find.KindList && kind != find.KindCSV && kind != find.KindTSV ||
 		bytes.Contains(prev.Content, []byte("stereoline:")) {
 		return nil
 	}
@@ -50,7 +51,16 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 		return &next
 	}
 	cfg := a.cfg
-	occs, ok := find.FindListLines(old, content, cfg.findConfig(name), from, newTo)
+	var occs []find.Occurrence
+	var ok bool
+	switch kind {
+	case find.KindCSV:
+		occs, ok = find.FindTableLines(old, content, ',', cfg.findConfig(name), from, newTo)
+	case find.KindTSV:
+		occs, ok = find.FindTableLines(old, content, '\t', cfg.findConfig(name), from, newTo)
+	default:
+		occs, ok = find.FindListLines(old, content, cfg.findConfig(name), from, newTo)
+	}
 	if !ok {
 		return nil
 	}

@@ -337,3 +337,103 @@ func TestReanalyzeFirstLines(t *testing.T) {
 		}
 	}
 }
+
+// TestReanalyzeTables applies random edits to CSV and TSV tables (a
+// header naming the structure column; quoted names with separators in
+// them; two structure columns; semicolons; lists with a header line and
+// separators, which are read as tables) and checks each result of
+// Reanalyze against a fresh analysis as TestReanalyzeEqualsAnalyze does.
+// Edits that make a quoted field run over a line break, or touch the
+// header, are read whole or must still come out the same.
+func TestReanalyzeTables(t *testing.T) {
+	tables := []struct {
+		name, file, header string
+		row                func(rec string, i int) string
+	}{
+		{"csv", "t.csv", "smiles,name", func(rec string, i int) string { return strings.Replace(rec, "\t", ",", 1) }},
+		{"quoted", "t.csv", "id,smiles,name", func(rec string, i int) string {
+			f := strings.SplitN(rec, "\t", 2)
+			return fmt.Sprintf("%d,%s,\"%s, batch %d\"", i, f[0], f[1], i%7)
+		}},
+		{"two columns", "t.csv", "reactant_smiles,product_smiles,id", func(rec string, i int) string {
+			f := strings.SplitN(rec, "\t", 2)
+			return fmt.Sprintf("%s,%s,%s", f[0], strings.ReplaceAll(f[0], "@", ""), f[1])
+		}},
+		{"semicolons", "t.csv", "smiles;name", func(rec string, i int) string { return strings.Replace(rec, "\t", ";", 1) }},
+		// a list with a header line and separators is read as a table
+		{"list with a header", "t.smi", "smiles,name", func(rec string, i int) string { return strings.Replace(rec, "\t", ",", 1) }},
+		{"list of quoted names", "t.smi", "id,smiles,name", func(rec string, i int) string {
+			f := strings.SplitN(rec, "\t", 2)
+			return fmt.Sprintf("%d,%s,\"%s, batch %d\"", i, f[0], f[1], i%7)
+		}},
+		{"tsv", "t.tsv", "name\tsmiles", func(rec string, i int) string {
+			f := strings.SplitN(rec, "\t", 2)
+			return f[1] + "\t" + f[0]
+		}},
+	}
+	a := NewAnalyzer(DefaultConfig())
+	rng := rand.New(rand.NewSource(20261204))
+	for _, tb := range tables {
+		var rows []string
+		for i, r := range editList(rng, 400) {
+			rows = append(rows, tb.row(r, i))
+		}
+		join := func(rows []string) string { return tb.header + "\n" + strings.Join(rows, "\n") + "\n" }
+		prev := a.Analyze(tb.file, "", []byte(join(rows)))
+		incremental := 0
+		for step := 0; step < 40; step++ {
+			edited := append([]string(nil), rows...)
+			i := rng.Intn(len(edited))
+			var what string
+			keep := true
+			switch k := rng.Intn(10); {
+			case k < 3:
+				if j := strings.Index(edited[i], "@"); j >= 0 {
+					edited[i] = edited[i][:j] + edited[i][j+1:]
+				} else {
+					edited[i] = strings.Replace(edited[i], "[CH]", "[C@H]", 1)
+				}
+				what = fmt.Sprintf("a mark of row %d", i)
+			case k < 5:
+				edited = append(edited[:i:i], append([]string{tb.row(editRecord(rng, 40000+i), 40000+i)}, edited[i:]...)...)
+				what = fmt.Sprintf("a row inserted before row %d", i)
+			case k < 7:
+				edited = append(edited[:i:i], edited[i+1:]...)
+				what = fmt.Sprintf("row %d deleted", i)
+			case k < 8:
+				edited[i] += "x"
+				what = fmt.Sprintf("row %d extended", i)
+			case k < 9:
+				// a quote left open: the rest of the table is one field
+				edited[i] = strings.Replace(edited[i], ",", ",\"", 1)
+				edited[i] = strings.Replace(edited[i], "\t", "\t\"", 1)
+				what, keep = fmt.Sprintf("a quote opened in row %d", i), false
+			default:
+				edited = append([]string{tb.row(editRecord(rng, 50000), 50000)}, edited...)
+				what = "a row inserted first"
+			}
+			text := join(edited)
+			if rng.Intn(8) == 0 {
+				text = strings.Replace(text, tb.header, tb.header+"_x", 1)
+				what += ", the header changed"
+				keep = false
+			}
+			next := a.reanalyzeList(prev, tb.file, "", []byte(text))
+			if next != nil {
+				incremental++
+			} else {
+				next = a.Analyze(tb.file, "", []byte(text))
+			}
+			compareResults(t, fmt.Sprintf("%s, step %d (%s)", tb.name, step, what), next, a.Analyze(tb.file, "", []byte(text)))
+			if t.Failed() {
+				return
+			}
+			if keep {
+				rows, prev = edited, next
+			}
+		}
+		if incremental < 20 {
+			t.Errorf("%s: only %d of 40 edits were analysed incrementally", tb.name, incremental)
+		}
+	}
+}

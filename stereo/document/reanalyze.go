@@ -11,7 +11,6 @@ import (
 	"runtime"
 	"slices"
 	"sort"
-	"strings"
 	"sync"
 	"sync/atomic"
 
@@ -345,23 +344,21 @@ func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn int, li
 	if len(renamed) > 0 {
 		r.lineOf(0) // the line table, before it is read in parallel
 		// The relations of a group often name the same earlier record
-		// (its first): each record is named once.
-		names := make(map[int]string, len(renamed)/2)
+		// (its first): each record is named once. slot[j] is one more
+		// than the place of record j's name in names.
+		slot := make([]int32, len(r.Records))
 		var earlier []int
 		for _, rel := range renamed {
-			if _, ok := names[rel.earlier]; !ok {
-				names[rel.earlier] = ""
+			if slot[rel.earlier] == 0 {
 				earlier = append(earlier, rel.earlier)
+				slot[rel.earlier] = int32(len(earlier))
 			}
 		}
-		described := make([]string, len(earlier))
-		parallel(len(earlier), func(k int) { described[k] = r.describeRecord(earlier[k]) })
-		for k, j := range earlier {
-			names[j] = described[k]
-		}
+		names := make([]string, len(earlier))
+		parallel(len(earlier), func(k int) { names[k] = r.describeRecord(earlier[k]) })
 		parallel(len(renamed), func(k int) {
 			rel := renamed[k]
-			rel.d.Message = strings.ReplaceAll(rel.tmpl, named, names[rel.earlier])
+			rel.d.Message = nameEarlier(rel.tmpl, names[slot[rel.earlier]-1])
 		})
 	}
 	for _, members := range groups {

@@ -3,6 +3,7 @@ package document
 import (
 	"fmt"
 	"sort"
+	"strconv"
 	"strings"
 
 	"stereoline/notation"
@@ -200,7 +201,7 @@ func (r *Result) relateMembers(members []int) {
 			continue
 		}
 		tmpl := d.Message
-		d.Message = strings.ReplaceAll(tmpl, named, r.describeRecord(j))
+		d.Message = nameEarlier(tmpl, r.describeRecord(j))
 		r.rel[i] = &relation{earlier: j, tmpl: tmpl, d: d}
 	}
 }
@@ -335,11 +336,22 @@ func (r *Result) describeRecord(i int) string { return r.describeOcc(r.Records[i
 
 // describeOcc is describeRecord for an occurrence.
 func (r *Result) describeOcc(o *find.Occurrence) string {
-	s := fmt.Sprintf("line %d", r.lineOf(o.Span.Start)+1)
+	b := make([]byte, 0, len("line  ()")+20+len(o.Title))
+	b = strconv.AppendInt(append(b, "line "...), int64(r.lineOf(o.Span.Start)+1), 10)
 	if o.Title != "" {
-		s += " (" + o.Title + ")"
+		b = append(append(append(b, " ("...), o.Title...), ')')
 	}
-	return s
+	return string(b)
+}
+
+// nameEarlier returns a relation's message template with the earlier
+// record named where named stands.
+func nameEarlier(tmpl, name string) string {
+	before, after, ok := strings.Cut(tmpl, named)
+	if !ok || strings.Contains(after, named) {
+		return strings.ReplaceAll(tmpl, named, name)
+	}
+	return before + name + after
 }
 
 // lineOf returns the 0-based line of a host offset, from a table of line

@@ -100,8 +100,42 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
 	rel := newStreamRelater(res, relatedKinds[kind])
 	reading := cfg.Reading.notation()
-	var store chunkStorage
-	start := 0 // the records of earlier chunks
+	// Two stages: while the records of a chunk are related and their
+	// findings emitted, the next chunk is read and labelled. Each stage
+	// keeps both cores busy only part of the time (relating is mostly
+	// one index, in order). The chunks alternate between two storages:
+	// the one a chunk is read into was released by the chunk before the
+	// last, which the second stage finished before it took the last.
+	var stores [2]chunkStorage
+	type streamed struct {
+		chunk  *Result
+		parity int // the storage it was read into
+	}
+	chunks := make(chan streamed)
+	done := make(chan any)
+	go func() {
+		var failed any
+		defer func() {
+			if r := recover(); r != nil {
+				failed = r
+				for range chunks { // let the first stage finish
+				}
+			}
+			done <- failed
+		}()
+		start := 0 // the records of earlier chunks
+		for c := range chunks {
+			chunk := c.chunk
+			for k := range chunk.diags {
+				chunk.diags[k].Record += start
+			}
+			rel.chunk(chunk, start)
+			emit(chunk.diags)
+			stores[c.parity].release(chunk.Records)
+			start += len(chunk.Records)
+		}
+	}()
+	records, parity := 0, 0
 	// The occurrences come a chunk at a time too (find.FindChunks), so
 	// that those of a long list are not all held.
 	find.FindChunks(kind, content, cfg.findConfig(name), streamChunk, func(occs []find.Occurrence) {
@@ -109,7 +143,8 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 		if len(occs) == 0 {
 			return
 		}
-		store = store.grow(len(occs))
+		store := stores[parity].grow(len(occs))
+		stores[parity] = store
 		chunk := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg,
 			Records: make([]Record, len(occs)), noFixes: a.noFixes}
 		parallel(len(occs), func(k int) {
@@ -119,19 +154,19 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 		for k := range chunk.Records {
 			chunk.diags = append(chunk.diags, chunk.recordFindings(k, chunk.Records[k].an.get())...)
 		}
-		for k := range chunk.diags {
-			chunk.diags[k].Record += start
-		}
-		rel.chunk(chunk, start)
-		emit(chunk.diags)
-		store.release(chunk.Records)
-		start += len(occs)
+		chunks <- streamed{chunk, parity}
+		records += len(occs)
+		parity ^= 1
 	})
+	close(chunks)
+	if failed := <-done; failed != nil {
+		panic(failed)
+	}
 	res.queryDiagnostics()
 	if len(res.diags) > 0 {
 		emit(res.diags)
 	}
-	return start + len(res.Queries)
+	return records + len(res.Queries)
 }
 
 // chunkStorage is the reading storage of a chunk's records, one

@@ -303,7 +303,18 @@ func (s *streamRelater) add(c *Result, start, i int, rec *Record) {
 		return
 	}
 	j := s.order[m.Earlier]
-	earlier := s.record(c, start, j)
+	var earlier *Record
+	switch {
+	case j >= start:
+		earlier = &c.Records[j-start]
+	case m.Relation == identity.Identical || m.Relation == identity.Enantiomers:
+		// their messages name the earlier record by its place alone: it
+		// is not read again (a list of many duplicates would read each
+		// first record as often)
+		earlier = &Record{Occ: s.occurrence(j)}
+	default:
+		earlier = s.record(c, start, j)
+	}
 	if d, ok := relationDiagnostic(m, i, rec, earlier, s.whole.describeOcc(earlier.Occ)); ok {
 		c.add(d)
 	}

@@ -20,7 +20,8 @@ import (
 //
 // old is the text before an edit that changed old[from:] into src[from:]
 // with the lines after to unchanged (nil when there is none). The
-// records outside the range are old's then. A range that reaches into
+// records outside the range are old's then; the caller must know that
+// none of old's records is a query pattern (see FindTableLines). A range that reaches into
 // the first lines, which the layout is read from, can be read apart
 // only when old is given and its layout reads as src's, neither text
 // has a header line the edit moves, and no note on the layout goes on

@@ -121,7 +121,10 @@ func (h *tableHeader) rows(src []byte, i int, sep byte, out []Occurrence) []Occu
 // table is read by its content), a field in quotes runs over a line
 // break in either text (a record is then no line), a structure of the
 // lines is a query pattern (whether the others are read as patterns
-// depends on them all), or the text has a pragma.
+// depends on them all), or the text has a pragma. The caller must know
+// that the old text's reading found no query pattern (none of its
+// records has DialectSMARTS): past a share of them, records that read as
+// both are read as patterns throughout.
 func FindTableLines(old, src []byte, sep byte, cfg Config, from, to int) (occs []Occurrence, ok bool) {
 	if old == nil || from < 0 || to > len(src) || from > to || bytes.Contains(src, []byte(pragmaWord)) ||
 		skipBOM(old) != skipBOM(src) {

@@ -1,0 +1,120 @@
+package find
+
+import (
+	"bytes"
+	"reflect"
+	"testing"
+)
+
+// FuzzFindEditLines checks the promise the language server's edits rest
+// on: when FindListLines or FindTableLines reads the lines of an edit
+// apart, the records it returns are those a whole reading of the new
+// text finds there, and every other record of that reading is the old
+// text's, moved by the bytes the edit added; no record reaches over the
+// edited lines. The edit replaces cut bytes at offset at of old by ins;
+// its lines are found as the document engine finds them (editedLines).
+// As the engine does, it reads a text whose records include query
+// patterns whole.
+func FuzzFindEditLines(f *testing.F) {
+	list := "N[C@@H](C)C(=O)O ala\nC[C@H](O)CC but\nF/C=C/F dfe\n"
+	for _, s := range []struct {
+		old, ins string
+		at       uint32
+		cut      uint8
+		which    uint8
+	}{
+		{list + list + list, "F/C=C\\F x\n", 0, 0, uint8(KindList)},
+		{list + list, "", 21, 16, uint8(KindList)},
+		{"# made by hand\n" + list + list, "#", 15, 0, uint8(KindList)},
+		{"smiles,name\nC[C@H](N)O,a\nF/C=C/F,\"b, c\"\n", "\"", 12, 0, uint8(KindCSV)},
+		{"smiles,name\nC[C@H](N)O,a\nF/C=C/F,b\"\n", ",\"x", 25, 1, uint8(KindCSV)},
+		{"name\tsmiles\na\tC[C@@H](N)O\nb\tF/C=C/F\n", "c\tOC[C@H](F)Cl\n", 26, 0, uint8(KindTSV)},
+		{"smiles,name\nC[C@H](N)O,a\n", "[C@@H]", 12, 7, uint8(KindList)},
+		{"\ufeff" + list + list, "C\n", 3, 0, uint8(KindList)},
+	} {
+		f.Add([]byte(s.old), s.at, s.cut, []byte(s.ins), s.which)
+	}
+	f.Fuzz(func(t *testing.T, old []byte, at uint32, cut uint8, ins []byte, which uint8) {
+		if len(old) > 1<<14 || len(ins) > 1<<10 {
+			return
+		}
+		kind := pickKind(which, KindList, KindCSV, KindTSV)
+		a := int(at) % (len(old) + 1)
+		z := min(len(old), a+int(cut))
+		src := append(append(append([]byte(nil), old[:a]...), ins...), old[z:]...)
+		from, oldTo, newTo := editedLines(old, src)
+		var got []Occurrence
+		var ok bool
+		switch kind {
+		case KindCSV:
+			got, ok = FindTableLines(old, src, ',', Config{}, from, newTo)
+		case KindTSV:
+			got, ok = FindTableLines(old, src, '\t', Config{}, from, newTo)
+		default:
+			got, ok = FindListLines(old, src, Config{}, from, newTo)
+		}
+		if !ok {
+			return
+		}
+		whole, before := FindKind(kind, src, Config{}), FindKind(kind, old, Config{})
+		for _, o := range before {
+			if o.Dialect == DialectSMARTS {
+				return // the callers read a text with query patterns whole
+			}
+		}
+		delta := len(src) - len(old)
+		var in, beforeEdit, afterEdit []Occurrence
+		for _, o := range whole {
+			switch {
+			case o.Span.End <= from:
+				beforeEdit = append(beforeEdit, o)
+			case o.Span.Start >= from && o.Span.End <= newTo:
+				in = append(in, o)
+			case o.Span.Start >= newTo:
+				afterEdit = append(afterEdit, o)
+			default:
+				t.Fatalf("a record at %v reaches over the edited lines %d to %d", o.Span, from, newTo)
+			}
+		}
+		if !reflect.DeepEqual(got, in) {
+			t.Fatalf("lines %d to %d read apart:\n got %+v\nwant %+v", from, newTo, got, in)
+		}
+		var oldBefore, oldAfter []Occurrence
+		for _, o := range before {
+			switch {
+			case o.Span.End <= from:
+				oldBefore = append(oldBefore, o)
+			case o.Span.Start >= oldTo:
+				o.Shift(delta)
+				oldAfter = append(oldAfter, o)
+			case o.Span.Start < from || o.Span.End > oldTo:
+				t.Fatalf("a record of the old text at %v reaches over the edited lines %d to %d", o.Span, from, oldTo)
+			}
+		}
+		if !reflect.DeepEqual(beforeEdit, oldBefore) || !reflect.DeepEqual(afterEdit, oldAfter) {
+			t.Fatalf("the records outside lines %d to %d are not the old text's:\n got %+v %+v\nwant %+v %+v",
+				from, newTo, beforeEdit, afterEdit, oldBefore, oldAfter)
+		}
+	})
+}
+
+// editedLines returns the lines where two versions of a text differ, as
+// the document engine's Reanalyze finds them: old[from:oldTo] became
+// new[from:newTo], line starts (or the texts' ends) around the bytes
+// that differ.
+func editedLines(old, new []byte) (from, oldTo, newTo int) {
+	p := 0
+	for p < len(old) && p < len(new) && old[p] == new[p] {
+		p++
+	}
+	s := 0
+	for s < len(old)-p && s < len(new)-p && old[len(old)-1-s] == new[len(new)-1-s] {
+		s++
+	}
+	from = bytes.LastIndexByte(old[:p], '\n') + 1
+	oldTo = len(old)
+	if k := bytes.IndexByte(old[len(old)-s:], '\n'); k >= 0 {
+		oldTo = len(old) - s + k + 1
+	}
+	return from, oldTo, oldTo + len(new) - len(old)
+}

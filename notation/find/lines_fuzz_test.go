@@ -1,7 +1,6 @@
 package find
 
 import (
-	"bytes"
 	"reflect"
 	"testing"
 )
@@ -12,7 +11,7 @@ import (
 // text finds there, and every other record of that reading is the old
 // text's, moved by the bytes the edit added; no record reaches over the
 // edited lines. The edit replaces cut bytes at offset at of old by ins;
-// its lines are found as the document engine finds them (editedLines).
+// its lines are found as the document engine finds them (EditedLines).
 // As the engine does, it reads a text whose records include query
 // patterns whole.
 func FuzzFindEditLines(f *testing.F) {
@@ -42,7 +41,7 @@ func FuzzFindEditLines(f *testing.F) {
 		a := int(at) % (len(old) + 1)
 		z := min(len(old), a+int(cut))
 		src := append(append(append([]byte(nil), old[:a]...), ins...), old[z:]...)
-		from, oldTo, newTo := editedLines(old, src)
+		from, oldTo, newTo := EditedLines(old, src)
 		var got []Occurrence
 		var ok bool
 		switch kind {
@@ -96,25 +95,4 @@ func FuzzFindEditLines(f *testing.F) {
 				from, newTo, beforeEdit, afterEdit, oldBefore, oldAfter)
 		}
 	})
-}
-
-// editedLines returns the lines where two versions of a text differ, as
-// the document engine's Reanalyze finds them: old[from:oldTo] became
-// new[from:newTo], line starts (or the texts' ends) around the bytes
-// that differ.
-func editedLines(old, new []byte) (from, oldTo, newTo int) {
-	p := 0
-	for p < len(old) && p < len(new) && old[p] == new[p] {
-		p++
-	}
-	s := 0
-	for s < len(old)-p && s < len(new)-p && old[len(old)-1-s] == new[len(new)-1-s] {
-		s++
-	}
-	from = bytes.LastIndexByte(old[:p], '\n') + 1
-	oldTo = len(old)
-	if k := bytes.IndexByte(old[len(old)-s:], '\n'); k >= 0 {
-		oldTo = len(old) - s + k + 1
-	}
-	return from, oldTo, oldTo + len(new) - len(old)
 }

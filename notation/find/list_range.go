@@ -147,3 +147,35 @@ func (o *Occurrence) Shift(delta int) {
 func shiftSpan(s notation.Span, delta int) notation.Span {
 	return notation.Span{Start: s.Start + delta, End: s.End + delta}
 }
+
+// EditedLines returns the lines where two versions of a text differ:
+// old[from:oldTo] became new[from:newTo]; from, oldTo and newTo are line
+// starts (or the ends of the texts), and the texts agree before from and
+// after the ends: the lines an editor's change touched, which
+// FindListLines and FindTableLines read apart.
+func EditedLines(old, new []byte) (from, oldTo, newTo int) {
+	// Blocks first, then bytes: the texts are megabytes long.
+	const block = 4096
+	p := 0
+	for p+block <= min(len(old), len(new)) && bytes.Equal(old[p:p+block], new[p:p+block]) {
+		p += block
+	}
+	for p < len(old) && p < len(new) && old[p] == new[p] {
+		p++
+	}
+	s := 0
+	for s+block <= min(len(old), len(new))-p && bytes.Equal(old[len(old)-s-block:len(old)-s], new[len(new)-s-block:len(new)-s]) {
+		s += block
+	}
+	for s < len(old)-p && s < len(new)-p && old[len(old)-1-s] == new[len(new)-1-s] {
+		s++
+	}
+	from = bytes.LastIndexByte(old[:p], '\n') + 1
+	// The first newline inside the common suffix ends the change.
+	oldTo = len(old)
+	if k := bytes.IndexByte(old[len(old)-s:], '\n'); k >= 0 {
+		oldTo = len(old) - s + k + 1
+	}
+	newTo = oldTo + len(new) - len(old)
+	return from, oldTo, newTo
+}

@@ -42,7 +42,7 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 		return nil
 	}
 	old := prev.Content
-	from, oldTo, newTo := changedLines(old, content)
+	from, oldTo, newTo := find.EditedLines(old, content)
 	if from == oldTo && from == newTo {
 		// The same text: the same result, for another name.
 		next := *prev
@@ -179,37 +179,6 @@ func (r *Result) compactOccurrences() {
 		block = block[1:]
 	}
 	r.occArrays = 1
-}
-
-// changedLines returns the lines where two versions of a text differ:
-// old[from:oldTo] became new[from:newTo]; from, oldTo and newTo are line
-// starts (or the ends of the texts), and the texts agree before from and
-// after the ends.
-func changedLines(old, new []byte) (from, oldTo, newTo int) {
-	// Blocks first, then bytes: the texts are megabytes long.
-	const block = 4096
-	p := 0
-	for p+block <= min(len(old), len(new)) && bytes.Equal(old[p:p+block], new[p:p+block]) {
-		p += block
-	}
-	for p < len(old) && p < len(new) && old[p] == new[p] {
-		p++
-	}
-	s := 0
-	for s+block <= min(len(old), len(new))-p && bytes.Equal(old[len(old)-s-block:len(old)-s], new[len(new)-s-block:len(new)-s]) {
-		s += block
-	}
-	for s < len(old)-p && s < len(new)-p && old[len(old)-1-s] == new[len(new)-1-s] {
-		s++
-	}
-	from = bytes.LastIndexByte(old[:p], '\n') + 1
-	// The first newline inside the common suffix ends the change.
-	oldTo = len(old)
-	if k := bytes.IndexByte(old[len(old)-s:], '\n'); k >= 0 {
-		oldTo = len(old) - s + k + 1
-	}
-	newTo = oldTo + len(new) - len(old)
-	return from, oldTo, newTo
 }
 
 // moveDiagnostic moves one finding by delta bytes, for record index i.
@@ -431,7 +400,7 @@ func Spread(n int, f func(int)) {
 }
 
 // movedLines returns lineStarts of a text from lines, those of an older
-// version in which old[from:oldTo] became text[from:newTo] (changedLines):
+// version in which old[from:oldTo] became text[from:newTo] (find.EditedLines):
 // the lines before the change are kept, those it made are found, and
 // those after it are moved.
 func movedLines(lines []int, text []byte, from, oldTo, newTo int) []int {

@@ -112,7 +112,7 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 		parity int // the storage it was read into
 	}
 	chunks := make(chan streamed)
-	done := make(chan any)
+	done := make(chan any, 1)
 	go func() {
 		var failed any
 		defer func() {
@@ -137,7 +137,14 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 	}()
 	records, parity := 0, 0
 	// The occurrences come a chunk at a time too (find.FindChunks), so
-	// that those of a long list are not all held.
+	// that those of a long list are not all held. The channel is closed
+	// however this stage ends, so that the second one ends too.
+	closed := false
+	defer func() {
+		if !closed {
+			close(chunks)
+		}
+	}()
 	find.FindChunks(kind, content, cfg.findConfig(name), streamChunk, func(occs []find.Occurrence) {
 		occs = res.splitChunkQueries(occs)
 		if len(occs) == 0 {
@@ -159,6 +166,7 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 		parity ^= 1
 	})
 	close(chunks)
+	closed = true
 	if failed := <-done; failed != nil {
 		panic(failed)
 	}

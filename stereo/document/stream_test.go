@@ -6,6 +6,7 @@ import (
 	"reflect"
 	"sort"
 	"testing"
+	"time"
 )
 
 // TestStreamMatchesAnalyze checks that the streamed findings, sorted as
@@ -109,5 +110,36 @@ func TestStreamWithoutFixes(t *testing.T) {
 	}
 	if fixed == 0 {
 		t.Error("no finding of the examples has a fix: the test compares nothing")
+	}
+}
+
+// TestStreamPanicReachesCaller makes the emit callback, which Stream
+// calls from its second stage, fail on a chunk in the middle of a list:
+// the panic must reach Stream's caller, as it would without the stage,
+// and Stream must not hang on the chunks still coming.
+func TestStreamPanicReachesCaller(t *testing.T) {
+	defer func(n int) { streamChunk = n }(streamChunk)
+	streamChunk = 2
+	var b []byte
+	for range 40 {
+		b = append(b, "N[C@@H](C)C(=O)O ala\nC[C@H](O)CC but\n"...)
+	}
+	done := make(chan any)
+	go func() {
+		defer func() { done <- recover() }()
+		calls := 0
+		NewAnalyzer(DefaultConfig()).Stream("p.smi", "", b, func([]Diagnostic) {
+			if calls++; calls == 5 {
+				panic("emit failed")
+			}
+		})
+	}()
+	select {
+	case r := <-done:
+		if r != "emit failed" {
+			t.Errorf("Stream's caller recovered %v, want the panic of emit", r)
+		}
+	case <-time.After(10 * time.Second):
+		t.Fatal("Stream did not return after its callback panicked")
 	}
 }

@@ -514,18 +514,22 @@ func layoutPragma(src []byte) (spec string, at int, ok bool) {
 	return "", 0, false
 }
 
+// namesColumn reports whether the header line of a list names a
+// structure column, which makes the list a table (listTable).
+func namesColumn(src []byte, header listLine, sep byte, nm namer, cfg *Config) bool {
+	for _, f := range splitFields(src, header.start, header.end, sep, nil) {
+		if nm.column(string(bytes.TrimSpace(src[f.start:f.end])), cfg.Columns) {
+			return true
+		}
+	}
+	return false
+}
+
 // listTable reads a delimited list with a header as a table when the
 // header names structure columns; ok is false when it names none.
 func listTable(src []byte, lay Layout, nm namer, cfg *Config) ([]Occurrence, bool) {
 	lines := dataLines(src, skipBOM(src), 1)
-	if len(lines) == 0 {
-		return nil, false
-	}
-	named := false
-	for _, f := range splitFields(src, lines[0].start, lines[0].end, lay.Sep, nil) {
-		named = named || nm.column(string(bytes.TrimSpace(src[f.start:f.end])), cfg.Columns)
-	}
-	if !named {
+	if len(lines) == 0 || !namesColumn(src, lines[0], lay.Sep, nm, cfg) {
 		return nil, false
 	}
 	occs := findTableFrom(src, lines[0].start, lay.Sep, cfg)

@@ -21,14 +21,14 @@ import (
 // old is the text before an edit that changed old[from:] into src[from:]
 // with the lines after to unchanged (nil when there is none). The
 // records outside the range are old's then; the caller must know that
-// none of old's records is a query pattern (see FindTableLines). A range that reaches into
-// the first lines, which the layout is read from, can be read apart
-// only when old is given and its layout reads as src's, neither text
-// has a header line the edit moves, and no note on the layout goes on
-// the first record: the records outside the range are then read alike
-// in both texts. This
-// keeps an edit at the top of a long list (a record added first, the
-// first record's mark changed) from reading the whole list again.
+// none of old's records is a query pattern (see FindTableLines). A range
+// that reaches into the first lines, which the layout is read from, can
+// be read apart only when old is given and its layout reads as src's,
+// neither text has a header line the edit moves, and no note on the
+// layout goes on the first record: the records outside the range are
+// then read alike in both texts. This keeps an edit at the top of a long
+// list (a record added first, the first record's mark changed) from
+// reading the whole list again.
 func FindListLines(old, src []byte, cfg Config, from, to int) (occs []Occurrence, ok bool) {
 	if from < 0 || to > len(src) || from > to || bytes.Contains(src, []byte(pragmaWord)) {
 		return nil, false
@@ -56,7 +56,7 @@ func FindListLines(old, src []byte, cfg Config, from, to int) (occs []Occurrence
 	if table {
 		// A table whose header names no structure column is read as a
 		// list; that is left to a whole reading.
-		if old == nil {
+		if old == nil || !namesColumn(src, sample[0], lay.Sep, newNamer(&cfg), &cfg) {
 			return nil, false
 		}
 		occs, ok := tableLines(old, src, sample[0].start, lay.Sep, &cfg, from, to)

@@ -32,6 +32,8 @@ func TestKindForName(t *testing.T) {
 		{"build.gradle.kts", KindKotlin},
 		{"README.md", KindMarkdown},
 		{"data.json", KindJSON},
+		{"reactions.jsonl", KindJSON},
+		{"records.ndjson", KindJSON},
 		{"conf.yml", KindYAML},
 		{"notes.txt", KindUnknown},
 		{"Makefile", KindUnknown},

@@ -1,6 +1,7 @@
 package find
 
 import (
+	"bytes"
 	"strings"
 	"unicode/utf8"
 
@@ -30,6 +31,132 @@ type jsonParser struct {
 func parseJSON(src []byte) jsonValue {
 	p := &jsonParser{src: src}
 	return p.value(0)
+}
+
+// parseJSONValues reads a document of one JSON value or of several one
+// after the other. When the first value is whole on its line (JSON
+// Lines, .jsonl and .ndjson: one value a line), every later line is read
+// on its own, so a line that does not read spoils no other: it is kept
+// as far as it reads, as JSON Lines readers skip a bad line. Otherwise
+// the values are read one after another (pretty-printed values written
+// in a row, or a JSON text sequence, RFC 7464, each value after a record
+// separator 0x1E); a later value that does not read is kept as far as it
+// reads and the reading goes on at the next line. An error in the first
+// value ends the reading there, as parseJSON does.
+func parseJSONValues(src []byte) []jsonValue {
+	p := &jsonParser{src: src}
+	p.blankOrSeparator()
+	first := p.value(0)
+	vs := []jsonValue{first}
+	if p.bad {
+		return vs
+	}
+	if next, ok := jsonOneLine(src, first.span); ok {
+		return jsonLineValues(src, next, len(src), vs)
+	}
+	for {
+		p.blankOrSeparator()
+		if p.i >= len(src) {
+			return vs
+		}
+		start := p.i
+		vs = append(vs, p.value(0))
+		if !p.bad {
+			continue
+		}
+		p.bad = false
+		from := max(p.i, start+1) - 1
+		next := bytes.IndexByte(src[from:], '\n')
+		if next < 0 {
+			return vs
+		}
+		p.i = from + next + 1
+	}
+}
+
+// jsonOneLine reports whether the value at s, the first of src, lies on
+// one line with nothing but blanks after it there: src is then read
+// line by line. next is the start of the line after it.
+func jsonOneLine(src []byte, s notation.Span) (next int, ok bool) {
+	if s.End <= s.Start || bytes.IndexByte(src[s.Start:s.End], '\n') >= 0 {
+		return 0, false
+	}
+	for i := s.End; i < len(src); i++ {
+		switch src[i] {
+		case ' ', '\t', '\r':
+		case '\n':
+			return i + 1, true
+		default:
+			return 0, false
+		}
+	}
+	return len(src), true
+}
+
+// jsonLineValues appends to vs the values on the lines of src from
+// offset from (a line start) to offset to (a line start or len(src)),
+// each line read on its own: a value cannot run past its line, and a
+// line that does not read is kept as far as it reads.
+func jsonLineValues(src []byte, from, to int, vs []jsonValue) []jsonValue {
+	for from < to {
+		end, next := to, to
+		if k := bytes.IndexByte(src[from:to], '\n'); k >= 0 {
+			end, next = from+k, from+k+1
+		}
+		p := &jsonParser{src: src[:end], i: from}
+		for {
+			p.blankOrSeparator()
+			if p.i >= end {
+				break
+			}
+			vs = append(vs, p.value(0))
+			if p.bad {
+				break
+			}
+		}
+		from = next
+	}
+	return vs
+}
+
+// jsonLineMode reports whether src is read line by line: its first
+// value reads whole on its line (parseJSONValues). It reads only that
+// value.
+func jsonLineMode(src []byte) bool {
+	p := &jsonParser{src: src}
+	p.blankOrSeparator()
+	first := p.value(0)
+	if p.bad {
+		return false
+	}
+	_, ok := jsonOneLine(src, first.span)
+	return ok
+}
+
+// FindJSONLines returns the notation on the lines of the JSON document
+// src from offset from (a line start) to offset to (a line start or
+// len(src)), exactly as FindKind(KindJSON, src, cfg) finds it there. ok
+// is false when those lines cannot be read apart from the rest and the
+// caller must read the whole document: unless both old (the text before
+// an edit that changed only those lines) and src are read line by line
+// (JSON Lines, parseJSONValues), a value may run over many lines.
+func FindJSONLines(old, src []byte, cfg Config, from, to int) (occs []Occurrence, ok bool) {
+	if from < 0 || to > len(src) || from > to || !jsonLineMode(old) || !jsonLineMode(src) {
+		return nil, false
+	}
+	jf := &jsonFinder{src: src, cfg: &cfg, nm: newNamer(&cfg)}
+	for _, v := range jsonLineValues(src, from, to, nil) {
+		jf.walk(v, wants{}, false)
+	}
+	return jf.out, true
+}
+
+// blankOrSeparator skips blanks and the record separators (0x1E) of a
+// JSON text sequence.
+func (p *jsonParser) blankOrSeparator() {
+	for p.blank(); p.i < len(p.src) && p.src[p.i] == 0x1e; p.blank() {
+		p.i++
+	}
 }
 
 func (p *jsonParser) blank() {
@@ -234,7 +361,9 @@ func jsonEscape(s string) string {
 // unmistakably notation. Keys themselves are never notation.
 func findJSON(src []byte, cfg *Config) []Occurrence {
 	jf := &jsonFinder{src: src, cfg: cfg, nm: newNamer(cfg)}
-	jf.walk(parseJSON(src), wants{}, false)
+	for _, v := range parseJSONValues(src) {
+		jf.walk(v, wants{}, false)
+	}
 	return jf.out
 }
 

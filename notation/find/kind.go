@@ -73,7 +73,7 @@ var extensions = map[string]Kind{
 	".java": KindJava,
 	".kt":   KindKotlin, ".kts": KindKotlin,
 	".md": KindMarkdown, ".markdown": KindMarkdown,
-	".json": KindJSON,
+	".json": KindJSON, ".jsonl": KindJSON, ".ndjson": KindJSON, ".jsonlines": KindJSON,
 	".yaml": KindYAML, ".yml": KindYAML,
 	".ipynb": KindNotebook,
 }
@@ -102,7 +102,7 @@ var languageIDs = map[string]Kind{
 	"java":     KindJava,
 	"kotlin":   KindKotlin,
 	"markdown": KindMarkdown,
-	"json":     KindJSON, "jsonc": KindJSON,
+	"json":     KindJSON, "jsonc": KindJSON, "jsonl": KindJSON, "jsonlines": KindJSON, "ndjson": KindJSON,
 	"yaml":     KindYAML,
 	"notebook": KindNotebook, "jupyter": KindNotebook,
 }

@@ -20,10 +20,11 @@ import (
 
 // Reanalyze returns what Analyze returns for a new version of a
 // document whose previous result, analysed by an analyzer with the same
-// configuration, is prev (nil for none). For a record list it reads only
-// the lines the change touched and relates again only the records whose
-// constitution the change touched; other documents, and lists with
-// pragmas or whose layout the change alters (find.FindListLines), are
+// configuration, is prev (nil for none). For a record list, a table and
+// a JSON Lines document it reads only the lines the change touched and
+// relates again only the records whose constitution the change touched;
+// other documents, and lists with pragmas or whose layout the change
+// alters (find.FindListLines, FindTableLines, FindJSONLines), are
 // analysed whole.
 func (a *Analyzer) Reanalyze(prev *Result, name, languageID string, content []byte) *Result {
 	if next := a.reanalyzeList(prev, name, languageID, content); next != nil {
@@ -32,12 +33,12 @@ func (a *Analyzer) Reanalyze(prev *Result, name, languageID string, content []by
 	return a.Analyze(name, languageID, content)
 }
 
-// reanalyzeList is Reanalyze for a list, or nil when the list must be
-// analysed whole.
+// reanalyzeList is Reanalyze for a list, a table or JSON Lines, or nil
+// when the document must be analysed whole.
 func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content []byte) *Result {
 	kind := a.kindOf(name, languageID)
 	if prev == nil || !prev.related || prev.rel == nil || prev.own == nil || len(prev.Queries) > 0 ||
-		kind != prev.Kind || kind != find.KindList && kind != find.KindCSV && kind != find.KindTSV ||
+		kind != prev.Kind || kind != find.KindList && kind != find.KindCSV && kind != find.KindTSV && kind != find.KindJSON ||
 		bytes.Contains(prev.Content, []byte("stereoline:")) {
 		return nil
 	}
@@ -57,11 +58,18 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 		occs, ok = find.FindTableLines(old, content, ',', cfg.findConfig(name), from, newTo)
 	case find.KindTSV:
 		occs, ok = find.FindTableLines(old, content, '\t', cfg.findConfig(name), from, newTo)
+	case find.KindJSON:
+		occs, ok = find.FindJSONLines(old, content, cfg.findConfig(name), from, newTo)
 	default:
 		occs, ok = find.FindListLines(old, content, cfg.findConfig(name), from, newTo)
 	}
 	if !ok {
 		return nil
+	}
+	for k := range occs {
+		if occs[k].Dialect == find.DialectSMARTS {
+			return nil // query patterns are split off the records whole (splitQueries)
+		}
 	}
 	occs = append([]find.Occurrence(nil), occs...) // records point into it
 	delta := len(content) - len(old)

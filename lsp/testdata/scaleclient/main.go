@@ -75,7 +75,7 @@ func main() {
 	c.notify("initialized", map[string]any{})
 
 	uri := "file:///scale/" + baseName(*list)
-	doc := newDocument(string(text))
+	doc := newDocument(string(text), languageID(*list) == "jsonl")
 	fmt.Printf("list: %s, %d lines, %d bytes\n", *list, len(doc.lines), len(text))
 
 	// The message is encoded before the clock starts: the 6 MB of JSON
@@ -113,6 +113,9 @@ func main() {
 		// at the top every record after the edit moves: the most work
 		"insert-top": {"insert at the top", func(d *document, rng *rand.Rand) (edit, bool) {
 			src := rng.Intn(len(d.lines))
+			if d.json {
+				return edit{0, 0, 0, 0, d.lines[src] + "\n"}, true
+			}
 			return edit{0, 0, 0, 0, d.notation(src) + "\tinserted-" + strconv.Itoa(src) + "\n"}, true
 		}},
 		"delete-top": {"delete the top", func(d *document, rng *rand.Rand) (edit, bool) {
@@ -430,19 +433,28 @@ func rss(c *client, when string) {
 }
 
 // document is the client's copy of the text, as lines.
-type document struct{ lines []string }
+// A document is the lines of the list; json says it is JSON Lines, one
+// object a line, whose structure is the value of its "smiles" key.
+type document struct {
+	lines []string
+	json  bool
+}
 
-func newDocument(text string) *document {
+func newDocument(text string, json bool) *document {
 	lines := strings.Split(text, "\n")
 	if len(lines) > 0 && lines[len(lines)-1] == "" {
 		lines = lines[:len(lines)-1]
 	}
-	return &document{lines: lines}
+	return &document{lines: lines, json: json}
 }
 
-// notation returns the first field of a line.
+// notation returns the first field of a line (of JSON Lines: the whole
+// line, whose marks are all in its structure).
 func (d *document) notation(line int) string {
 	s := d.lines[line]
+	if d.json {
+		return s
+	}
 	if i := strings.IndexAny(s, " \t"); i >= 0 {
 		return s[:i]
 	}
@@ -475,7 +487,7 @@ func (d *document) apply(e edit) {
 		return o + char
 	}
 	a, b := off(e.line1, e.char1), off(e.line2, e.char2)
-	*d = *newDocument(joined[:a] + e.text + joined[b:])
+	*d = *newDocument(joined[:a]+e.text+joined[b:], d.json)
 }
 
 // markEdit turns one @@ into @ or one @ into @@ on a random line.
@@ -496,13 +508,21 @@ func (d *document) markEdit(rng *rand.Rand) (edit, bool) {
 // titleEdit appends a character to the title of a random line.
 func (d *document) titleEdit(rng *rand.Rand) (edit, bool) {
 	line := rng.Intn(len(d.lines))
-	return edit{line, len(d.lines[line]), line, len(d.lines[line]), "x"}, true
+	at := len(d.lines[line])
+	if d.json {
+		// inside the last string of the object, its name
+		at = max(strings.LastIndexByte(d.lines[line], '"'), 0)
+	}
+	return edit{line, at, line, at, "x"}, true
 }
 
 // insertEdit inserts a copy of a random line with a new title before
 // another random line (a record that duplicates one already there).
 func (d *document) insertEdit(rng *rand.Rand) (edit, bool) {
 	src, at := rng.Intn(len(d.lines)), rng.Intn(len(d.lines))
+	if d.json {
+		return edit{at, 0, at, 0, d.lines[src] + "\n"}, true
+	}
 	return edit{at, 0, at, 0, d.notation(src) + "\tinserted-" + strconv.Itoa(src) + "\n"}, true
 }
 
@@ -531,6 +551,8 @@ func languageID(p string) string {
 		return "csv"
 	case strings.HasSuffix(p, ".tsv"):
 		return "tsv"
+	case strings.HasSuffix(p, ".jsonl"):
+		return "jsonl"
 	}
 	return "smiles"
 }

@@ -1,0 +1,54 @@
+package find
+
+import (
+	"slices"
+	"testing"
+)
+
+// TestFindJSONValues checks documents of several JSON values: JSON Lines
+// (jsonlines.org: one valid JSON value a line, UTF-8, "\n" or "\r\n"
+// ends a line), a JSON text sequence (RFC 7464: a record separator,
+// 0x1E, before each value), values written one after another, and a line
+// that does not read among good ones (JSON Lines readers skip it; common
+// practice). An error in the first value still ends the reading there.
+func TestFindJSONValues(t *testing.T) {
+	tests := []struct {
+		name, src string
+		want      []string
+	}{
+		{"lines", "{\"smiles\": \"C[C@H](N)C(=O)O\"}\n{\"smiles\": \"C[C@@H](N)C(=O)O\"}\r\n{\"smiles\": \"F/C=C/F\"}\n",
+			[]string{"C[C@H](N)C(=O)O", "C[C@@H](N)C(=O)O", "F/C=C/F"}},
+		{"no last line break", "{\"smiles\": \"CC\"}\n{\"smiles\": \"CO\"}",
+			[]string{"CC", "CO"}},
+		{"blank lines", "\n{\"smiles\": \"CC\"}\n\n\n{\"smiles\": \"CO\"}\n\n",
+			[]string{"CC", "CO"}},
+		{"a bad line is skipped", "{\"smiles\": \"CC\"}\n{\"smiles\": \"CN\", oops}\n]]\n{\"smiles\": \"CO\"}\n",
+			[]string{"CC", "CN", "CO"}},
+		{"a broken line spoils no other", "{\"smiles\": \"CC\"}\n{\"smiles\": \"CN\",\n{\"smiles\": \"CO\"}\n",
+			[]string{"CC", "CN", "CO"}},
+		{"text sequence", "\x1e{\"smiles\": \"CC\"}\n\x1e{\"smiles\": \"CO\"}\n",
+			[]string{"CC", "CO"}},
+		{"one after another", "{\"smiles\": \"CC\"}{\"smiles\": \"CO\"} [\"C[C@H](F)Cl\"]",
+			[]string{"CC", "CO", "C[C@H](F)Cl"}},
+		{"pretty-printed one after another", "{\n  \"smiles\": \"CC\"\n}\n{\n  \"smiles\": \"CO\"\n}\n",
+			[]string{"CC", "CO"}},
+		// a document whose first value breaks off is read as far as it
+		// reads and no further: the lines after the error are not values
+		{"error in the first value", "{\n  \"smiles\": \"CC\",\n  oops\n  \"smiles\": \"CO\"\n}\n",
+			[]string{"CC"}},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			var got []string
+			for _, o := range FindKind(KindJSON, []byte(tt.src), Config{}) {
+				got = append(got, o.Text)
+				if string([]byte(tt.src)[o.Span.Start:o.Span.End]) != o.Text {
+					t.Errorf("%q: span %v holds %q", o.Text, o.Span, tt.src[o.Span.Start:o.Span.End])
+				}
+			}
+			if !slices.Equal(got, tt.want) {
+				t.Errorf("found %q, want %q", got, tt.want)
+			}
+		})
+	}
+}

@@ -30,6 +30,8 @@ func FuzzFindEditLines(f *testing.F) {
 		{"name\tsmiles\na\tC[C@@H](N)O\nb\tF/C=C/F\n", "c\tOC[C@H](F)Cl\n", 26, 0, uint8(KindTSV)},
 		{"smiles,name\nC[C@H](N)O,a\n", "[C@@H]", 12, 7, uint8(KindList)},
 		{"\ufeff" + list + list, "C\n", 3, 0, uint8(KindList)},
+		// the cell edited decides whether the column is one of structures
+		{"smiles,structure\nCC,CCO\nCO,CCN\nCN,no match\nCF,no match\n", "n a", 27, 3, uint8(KindCSV)},
 		{"{\"smiles\": \"C[C@H](N)O\"}\n{\"smiles\": \"F/C=C/F\"}\n", "{\"smiles\": \"OC[C@@H](F)Cl\"}\n", 26, 0, uint8(KindJSON)},
 		{"[\"C[C@H](N)O\", \"F/C=C/F\"]\n{\"smiles\": \"F/C=C/F\"}\n", "", 20, 9, uint8(KindJSON)},
 	} {

@@ -2,6 +2,7 @@ package find
 
 import (
 	"bytes"
+	"slices"
 	"strings"
 
 	"stereoline/notation"
@@ -72,15 +73,78 @@ func readHeader(src []byte, from int, sep byte, cfg *Config) (tableHeader, int) 
 		return h, from
 	}
 	rec, next := readRecord(src, from, sep, nil)
+	var byName []int // columns chosen by their names, not by the configuration
 	for k, c := range rec {
 		name := strings.TrimSpace(string(c.text))
 		h.columns = append(h.columns, nm.column(name, cfg.Columns))
-		h.named = h.named || h.columns[k]
+		if h.columns[k] && !configured(name, cfg.Columns) {
+			byName = append(byName, k)
+		}
 		if p := titlePriority(name); p > 0 && (h.titleCol < 0 || p < titlePriority(strings.TrimSpace(string(rec[h.titleCol].text)))) {
 			h.titleCol = k
 		}
 	}
+	h.vet(src, next, sep, byName)
+	for _, c := range h.columns {
+		h.named = h.named || c
+	}
 	return h, next
+}
+
+// configured reports whether the configuration names a column so.
+func configured(name string, columns []string) bool {
+	for _, c := range columns {
+		if strings.EqualFold(strings.TrimSpace(c), name) {
+			return true
+		}
+	}
+	return false
+}
+
+// vetRecords is how many records after the header vet the columns
+// chosen by their names.
+const vetRecords = 200
+
+// minVetCells is the fewest cells of a column that vet it; a column
+// with fewer is kept.
+const minVetCells = 4
+
+// vet gives up the columns of cols, chosen by their names, whose cells
+// in the first vetRecords records after the header (starting at i) are
+// mostly not notation at all (plausible: a blank inside, no atom, a
+// file name): a column "reaction_conditions" of "THF, 0 °C, 2 h", or
+// "SubstructureMatches" of filter names and "no match". Empty and
+// placeholder cells do not count. A column the configuration names is
+// never given up; a broken record in a column of records is still
+// reported.
+func (h *tableHeader) vet(src []byte, i int, sep byte, cols []int) {
+	if len(cols) == 0 {
+		return
+	}
+	cells := make([]int, len(cols))
+	good := make([]int, len(cols))
+	var rec []tableCell
+	for n := 0; n < vetRecords && i < len(src); n++ {
+		rec, i = readRecord(src, i, sep, rec[:0])
+		for j, k := range cols {
+			if k >= len(rec) {
+				continue
+			}
+			text := strings.TrimSpace(string(rec[k].text))
+			if text == "" || placeholders[strings.ToLower(text)] {
+				continue
+			}
+			cells[j]++
+			if plausible(text) {
+				good[j]++
+			}
+		}
+	}
+	for j, k := range cols {
+		if cells[j] >= minVetCells && 2*good[j] < cells[j] {
+			h.columns[k] = false
+		}
+	}
 }
 
 // rows appends the structures of the records of src from offset i on to
@@ -145,7 +209,8 @@ func tableLines(old, src []byte, start int, sep byte, cfg *Config, from, to int)
 		return nil, false
 	}
 	h, _ := readHeader(src, start, sep, cfg)
-	if !h.named {
+	if ho, _ := readHeader(old, start, sep, cfg); !h.named || !slices.Equal(h.columns, ho.columns) {
+		// the first records, which vet the columns, chose others
 		return nil, false
 	}
 	occs = h.rows(src[:to], from, sep, nil)
@@ -359,10 +424,8 @@ func cellOccurrence(c tableCell, title string) (Occurrence, bool) {
 
 // column reports whether a table header names a structure column.
 func (n namer) column(h string, extra []string) bool {
-	for _, e := range extra {
-		if strings.EqualFold(strings.TrimSpace(e), h) {
-			return true
-		}
+	if configured(h, extra) {
+		return true
 	}
 	found := false
 	for _, p := range nameParts(h) {

@@ -372,6 +372,45 @@ type jsonFinder struct {
 	cfg *Config
 	nm  namer
 	out []Occurrence
+	// title is the name of the innermost object around the value
+	// visited: its name, title or id member, as a table's title column
+	title string
+}
+
+// maxJSONTitle bounds a title taken from a member: a title names a
+// record in messages.
+const maxJSONTitle = 200
+
+// objectTitle returns the title an object gives the records inside it:
+// the value of its best name, title or id member (titlePriority), a
+// string or a number; "" when it has none.
+func (jf *jsonFinder) objectTitle(v jsonValue) string {
+	best, title := 0, ""
+	for k := range v.vals {
+		val := v.vals[k]
+		if val.kind != 's' && val.kind != 'v' || val.span.Len() > maxJSONTitle+2 {
+			continue
+		}
+		p := titlePriority(jf.keyText(v.keys[k]))
+		if p == 0 || best != 0 && p >= best {
+			continue
+		}
+		var t string
+		if val.kind == 's' {
+			var d decoded
+			decodeJSON(jf.src, val.content(jf.src), true, &d)
+			t = strings.TrimSpace(string(d.text))
+		} else {
+			t = string(jf.src[val.span.Start:val.span.End])
+			if t == "null" || t == "true" || t == "false" {
+				continue
+			}
+		}
+		if t != "" && !strings.ContainsAny(t, "\r\n") {
+			best, title = p, t
+		}
+	}
+	return title
 }
 
 // walk visits a value; w says what a key above names (notation, a
@@ -380,6 +419,11 @@ type jsonFinder struct {
 func (jf *jsonFinder) walk(v jsonValue, w wants, other bool) {
 	switch v.kind {
 	case 'o':
+		if t := jf.objectTitle(v); t != "" {
+			outer := jf.title
+			jf.title = t
+			defer func() { jf.title = outer }()
+		}
 		for k := range v.vals {
 			key := jf.keyText(v.keys[k])
 			kw, about := jf.nm.classify(key)
@@ -439,6 +483,7 @@ func (jf *jsonFinder) str(v jsonValue, w wants) {
 		}
 		o := Occurrence{
 			Text:      text[r.from:r.to],
+			Title:     jf.title,
 			Span:      notation.Span{Start: sub.hostStart(), End: sub.hostEnd()},
 			Kind:      KindJSON,
 			Construct: ConstructJSONValue,

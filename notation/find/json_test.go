@@ -52,3 +52,30 @@ func TestFindJSONValues(t *testing.T) {
 		})
 	}
 }
+
+// TestFindJSONTitles checks that a record found in an object takes the
+// object's name, title or id member as its title, as a table's record
+// takes its title column (the best by the same ranking), and that an
+// inner object's name wins over an outer one's.
+func TestFindJSONTitles(t *testing.T) {
+	src := `{"name": "batch 7", "records": [
+  {"id": 17, "smiles": "C[C@H](N)C(=O)O", "title": "alanine"},
+  {"id": "r-2", "smiles": "F/C=C/F"},
+  {"smiles": "OC[C@@H](O)C=O", "name": null}
+], "reference": "C[C@@H](O)C(=O)O"}`
+	want := map[string]string{
+		"C[C@H](N)C(=O)O":  "alanine",
+		"F/C=C/F":          "r-2",
+		"OC[C@@H](O)C=O":   "batch 7",
+		"C[C@@H](O)C(=O)O": "batch 7",
+	}
+	occs := FindKind(KindJSON, []byte(src), Config{})
+	if len(occs) != len(want) {
+		t.Fatalf("found %d records, want %d", len(occs), len(want))
+	}
+	for _, o := range occs {
+		if o.Title != want[o.Text] {
+			t.Errorf("%s: title %q, want %q", o.Text, o.Title, want[o.Text])
+		}
+	}
+}

@@ -31,6 +31,15 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 		kind      Kind
 		bodyStart int
 	}
+	// table is the table being read: its last row, and the names of its
+	// structure columns once its delimiter row is read ("" for the
+	// others; nil before the delimiter row or outside a table).
+	var table struct {
+		last    []byte
+		columns []string
+		title   int
+	}
+	table.title = -1
 	// para is the paragraph being read: code spans may run over its
 	// lines but not out of it.
 	para := notation.Span{Start: -1}
@@ -63,6 +72,9 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 				out = fencedRecord(out, line, lineStart, prag)
 			}
 			continue
+		}
+		if t := bytes.TrimLeft(line, " \t"); len(t) == 0 || t[0] != '|' {
+			table.last, table.columns, table.title = nil, nil, -1 // a table ends at a line that is no row
 		}
 		if len(bytes.TrimSpace(line)) == 0 {
 			flush()
@@ -102,9 +114,17 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 		if t := bytes.TrimLeft(line, " \t"); len(t) > 0 && t[0] == '|' {
 			// A table row (GitHub Flavored Markdown, "Tables"): its
 			// cells are split at unescaped pipes before code spans are
-			// read, so each cell is read on its own.
+			// read, so each cell is read on its own. The row before the
+			// delimiter row is the header: the cells of a column it
+			// names as structures are notation.
 			flush()
-			out = tableRowCode(out, line, lineStart, prag, nm, cfg)
+			switch {
+			case table.last != nil && table.columns == nil && delimiterRow(line):
+				table.columns, table.title = headerColumns(table.last, nm, cfg)
+			default:
+				out = tableRowCode(out, line, lineStart, table.columns, table.title, prag, nm, cfg)
+			}
+			table.last = line
 			continue
 		}
 		heading := indent < 4 && len(body) > 0 && body[0] == '#'
@@ -194,16 +214,106 @@ func startsItem(line []byte) bool {
 	return n == len(b) || b[n] == ' ' || b[n] == '\t' || b[n] == '\r'
 }
 
-// tableRowCode adds the notation in the code spans of the cells of a
-// table row.
-func tableRowCode(out []Occurrence, line []byte, lineStart int, prag *pragmas, nm namer, cfg *Config) []Occurrence {
-	from := 0
-	for i := 0; i <= len(line); i++ {
+// tableRowCode adds the notation in the cells of a table row: in the
+// code spans of any cell, and a cell of a structure column (columns[k]
+// names it; columns is nil for a header row) as a whole unless it holds a
+// code span, whose content is then taken as named by the column. title
+// is the title column's index, or -1.
+func tableRowCode(out []Occurrence, line []byte, lineStart int, columns []string, title int, prag *pragmas, nm namer, cfg *Config) []Occurrence {
+	// the cells' starts and ends; the text before the first pipe is none
+	var cells [][2]int
+	for from, i := 0, 0; i <= len(line); i++ {
 		if i < len(line) && (line[i] != '|' || i > 0 && line[i-1] == '\\') {
 			continue
 		}
-		out = inlineCode(out, line[from:i], lineStart+from, line[:from], prag, nm, cfg)
+		cells = append(cells, [2]int{from, i})
 		from = i + 1
 	}
+	name := ""
+	if title >= 0 && title+1 < len(cells) {
+		c := cells[title+1]
+		name = strings.TrimSpace(strings.Trim(strings.TrimSpace(string(line[c[0]:c[1]])), "*_`"))
+	}
+	for n, c := range cells {
+		k := n - 1
+		cell, at := line[c[0]:c[1]], lineStart+c[0]
+		pre := line[:c[0]]
+		named := k >= 0 && k < len(columns) && columns[k] != ""
+		if named {
+			pre = []byte(columns[k] + " ")
+		}
+		n0 := len(out)
+		if named && bytes.IndexByte(cell, '`') < 0 {
+			out = markdownCell(out, cell, at, prag)
+		} else {
+			out = inlineCode(out, cell, at, pre, prag, nm, cfg)
+		}
+		for i := n0; i < len(out); i++ {
+			out[i].Title = name
+		}
+	}
 	return out
+}
+
+// markdownCell adds the text of a cell of a structure column, without the
+// blanks around it, when it could be a record at all (plausible: not
+// "n/a", "see text" or a dash).
+func markdownCell(out []Occurrence, cell []byte, at int, prag *pragmas) []Occurrence {
+	from, to := 0, len(cell)
+	for from < to && isBlank(cell[from]) {
+		from++
+	}
+	for to > from && isBlank(cell[to-1]) {
+		to--
+	}
+	text := string(cell[from:to])
+	if !plausible(text) || placeholders[strings.ToLower(text)] || !prag.allowed(at+from) {
+		return out
+	}
+	reason := ReasonName
+	if prag.forced(at + from) {
+		reason = ReasonPragma
+	}
+	return append(out, Occurrence{
+		Text:      text,
+		Span:      notation.Span{Start: at + from, End: at + to},
+		Kind:      KindMarkdown,
+		Construct: ConstructTableCell,
+		Reason:    reason,
+		m:         identityMap(at+from, to-from),
+	})
+}
+
+// delimiterRow reports whether a table row is the delimiter row under a
+// header: cells of dashes with an optional colon at either end
+// (GitHub Flavored Markdown, "Tables").
+func delimiterRow(line []byte) bool {
+	cells := bytes.Split(bytes.Trim(bytes.TrimSpace(line), "|"), []byte("|"))
+	for _, c := range cells {
+		c = bytes.TrimSpace(c)
+		c = bytes.TrimSuffix(bytes.TrimPrefix(c, []byte(":")), []byte(":"))
+		if len(c) == 0 || len(bytes.Trim(c, "-")) != 0 {
+			return false
+		}
+	}
+	return len(cells) > 0
+}
+
+// headerColumns returns, for each cell of a header row, its name when it
+// names a structure column (as a CSV header does) and "" otherwise (a
+// non-nil slice), and the index of the title column (as a CSV header's
+// is chosen), or -1.
+func headerColumns(header []byte, nm namer, cfg *Config) (columns []string, title int) {
+	cells := bytes.Split(bytes.Trim(bytes.TrimSpace(header), "|"), []byte("|"))
+	columns, title = make([]string, len(cells)), -1
+	best := 0
+	for k, c := range cells {
+		name := strings.TrimSpace(strings.Trim(strings.TrimSpace(string(c)), "*_`"))
+		if nm.column(name, cfg.Columns) {
+			columns[k] = name
+		} else if p := titlePriority(name); p > 0 && (best == 0 || p < best) {
+			best, title = p, k
+		}
+	}
+	return columns, title
 }

@@ -102,6 +102,16 @@ func TestCodeRules(t *testing.T) {
 		{KindList, "-NC(=O)CH3\t*-[N;D2]-[C;D3](=O)-[C;D1;H3]\tmethyl amide\n-X\t\t*-[#9,#17,#35,#53]\thalogens\n-C#N\t*-[C;D2]#[N;D1]\tcyano\n",
 			[]string{"q:*-[N;D2]-[C;D3](=O)-[C;D1;H3]", "q:*-[#9,#17,#35,#53]", "q:*-[C;D2]#[N;D1]"}},
 		{KindCSV, "\ufeffSMILES;Name\r\nCCO;ethanol\r\n", []string{"CCO"}},
+		// Markdown tables (GitHub Flavored Markdown, "Tables"): the cells
+		// of a column the header names as structures are records, plain
+		// or in a code span; other cells only by their code spans.
+		{KindMarkdown, "| name | SMILES |\n|:---|---:|\n| ethanol | CCO |\n| alanine | `C[C@H](N)C(=O)O` |\n| methanol | `CO` |\n| unknown | n/a |\n| later | see text |\n",
+			[]string{"CCO", "C[C@H](N)C(=O)O", "CO"}},
+		{KindMarkdown, "| name | formula |\n|---|---|\n| ethanol | CCO |\n| alanine | `C[C@H](N)C(=O)O` |\n", []string{"C[C@H](N)C(=O)O"}},
+		// no delimiter row: no header, no table
+		{KindMarkdown, "| SMILES |\n| CCO |\n", nil},
+		// a table ends at the first line that is no row
+		{KindMarkdown, "| SMILES |\n|---|\n| CCO |\n\n| CCN |\n", []string{"CCO"}},
 		{KindTSV, "name\tsmiles\tnote\nethanol\tCCO\tx\n", []string{"CCO"}},
 	}
 	for _, tt := range tests {

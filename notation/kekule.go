@@ -49,10 +49,7 @@ func kekulize(m *Molecule, inRing []bool) []bool {
 			arom, pi, unringed, match = arom2, pi2, unringed2, match2
 		}
 	}
-	for _, i := range unringed {
-		a := &m.Atoms[i]
-		m.Errors.Add(a.Span, CodeKekulize, "expected an aromatic atom to be in an aromatic ring, found %s %s", a.Symbol, ringPlace(a, inRing))
-	}
+	reportUnringed(m, unringed, inRing)
 	for bi := range m.Bonds {
 		if arom[bi] {
 			m.Bonds[bi].Kekule = 1
@@ -487,5 +484,47 @@ func (x *matcher) report() {
 		for _, a := range free[1:min(len(free), 20)] {
 			e.Related = append(e.Related, Related{x.m.Atoms[a].Span, "also without a double bond"})
 		}
+	}
+}
+
+// reportUnringed reports the aromatic atoms without aromatic ring bonds:
+// one finding for each chain of them bonded to one another, over the
+// chain's text, so that "[*]cccccc[*]" is one mistake, not six.
+func reportUnringed(m *Molecule, unringed []int, inRing []bool) {
+	if len(unringed) == 0 {
+		return
+	}
+	chain := make(map[int]int, len(unringed)) // atom -> chain, -1 before it is reached
+	for _, i := range unringed {
+		chain[i] = -1
+	}
+	n := 0
+	for _, first := range unringed {
+		if chain[first] >= 0 {
+			continue
+		}
+		chain[first] = n
+		stack := []int{first}
+		span, count := m.Atoms[first].Span, 0
+		for len(stack) > 0 {
+			i := stack[len(stack)-1]
+			stack = stack[:len(stack)-1]
+			count++
+			span.Start, span.End = min(span.Start, m.Atoms[i].Span.Start), max(span.End, m.Atoms[i].Span.End)
+			for _, bi := range m.Atoms[i].Bonds {
+				j := m.Bonds[bi].Other(i)
+				if c, ok := chain[j]; ok && c < 0 {
+					chain[j] = n
+					stack = append(stack, j)
+				}
+			}
+		}
+		a := &m.Atoms[first]
+		if count == 1 {
+			m.Errors.Add(a.Span, CodeKekulize, "expected an aromatic atom to be in an aromatic ring, found %s %s", a.Symbol, ringPlace(a, inRing))
+		} else {
+			m.Errors.Add(span, CodeKekulize, "expected aromatic atoms to be in an aromatic ring, found a chain of %d %s", count, ringPlace(a, inRing))
+		}
+		n++
 	}
 }

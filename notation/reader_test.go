@@ -1,6 +1,7 @@
 package notation
 
 import (
+	"slices"
 	"strings"
 	"testing"
 )
@@ -398,6 +399,35 @@ func TestKekulizeMessagePlace(t *testing.T) {
 		}
 		if !found {
 			t.Errorf("Read(%q): want a kekulize message saying %q, got %v", tt.have, tt.want, m.Errors)
+		}
+	}
+}
+
+// TestKekulizeChains checks that aromatic atoms without aromatic ring
+// bonds that are bonded to one another are one finding over their text,
+// and atoms apart are one each. RDKit 2022.09 rejects each of these
+// records (Chem.MolFromSmiles returns None; observed with Debian's
+// python3-rdkit).
+func TestKekulizeChains(t *testing.T) {
+	tests := []struct {
+		have  string
+		spans []string
+	}{
+		{"[*:2]cccccc[*:1]", []string{"cccccc"}},
+		{"Cc(c)C", []string{"c(c"}},
+		{"CcCCc", []string{"c", "c"}},
+		{"C1CCCc2c1cccc2-cc", []string{"cc"}},
+	}
+	for _, tt := range tests {
+		m := Read(tt.have)
+		var got []string
+		for _, e := range m.Errors {
+			if e.Code == CodeKekulize {
+				got = append(got, tt.have[e.Span.Start:e.Span.End])
+			}
+		}
+		if !slices.Equal(got, tt.spans) {
+			t.Errorf("Read(%q): kekulize findings over %q, want %q", tt.have, got, tt.spans)
 		}
 	}
 }

@@ -126,7 +126,9 @@ func (f *frame) assign() {
 
 // merge returns the stronger of two contexts, field by field.
 func merge(a, b wants) wants {
-	return wants{smiles: max(a.smiles, b.smiles), smarts: max(a.smarts, b.smarts), guess: a.guess || b.guess}
+	// loose while neither names the text any more firmly
+	loose := (a.loose || !a.named()) && (b.loose || !b.named()) && (a.named() || b.named())
+	return wants{smiles: max(a.smiles, b.smiles), smarts: max(a.smarts, b.smarts), guess: a.guess || b.guess, loose: loose}
 }
 
 // codeFinder applies the rules to one source text.
@@ -703,7 +705,7 @@ func (cf *codeFinder) layoutRecords(lines []byte, text string, lay Layout, w wan
 			// program runs.
 			title = ""
 		}
-		rs := decide(text[from:to], wants{smiles: max(w.smiles, weakly), smarts: w.smarts})
+		rs := decide(text[from:to], wants{smiles: max(w.smiles, weakly), smarts: w.smarts, loose: w.loose})
 		if reason == ReasonPragma && len(rs) == 0 && plausible(text[from:to]) {
 			rs = []found{{from: 0, to: to - from}}
 		}

@@ -46,6 +46,10 @@ type wants struct {
 	// guess: nothing names the text; take it when it is unmistakably
 	// notation or a query pattern.
 	guess bool
+	// loose: only a word that often names other things names the text
+	// (pattern, template, rule, filter: patternWords); take it only when
+	// it reads without error.
+	loose bool
 }
 
 func (w wants) named() bool { return w.smiles > 0 || w.smarts > 0 }
@@ -189,6 +193,20 @@ func separates(text string, i int) bool {
 // decideOne says what one record is. part says the record is one of
 // several in its text, which must each be notation on their own.
 func decideOne(s string, w wants, part bool) (d Dialect, byContent, ok bool) {
+	d, byContent, ok = decideNamed(s, w, part)
+	if ok && w.loose && w.named() {
+		if d == DialectSMARTS {
+			ok = readsAsQuery(s)
+		} else {
+			ok = readsAsNotation(s)
+		}
+	}
+	return d, byContent, ok
+}
+
+// decideNamed is decideOne before a loosely named text is held to
+// reading without error.
+func decideNamed(s string, w wants, part bool) (d Dialect, byContent, ok bool) {
 	if !w.named() && !maybeQuery(s) {
 		// The common case of a literal nobody names.
 		return DialectSMILES, false, w.guess && unmistakable(s)

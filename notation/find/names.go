@@ -72,16 +72,20 @@ var aboutWords = map[string]bool{
 // queryWords name query notation, SMARTS: a value so named is a query
 // pattern (MolFromSmarts("[#6]"), patt_smarts = "..."); qmol is the
 // query molecule constructor of RDKit's JavaScript build, get_qmol (from
-// memory); sma and smas abbreviate SMARTS as smi and smis do SMILES.
-var queryWords = map[string]bool{"smarts": true, "smirks": true, "smart": true, "qmol": true, "sma": true, "smas": true}
+// memory).
+var queryWords = map[string]bool{"smarts": true, "smirks": true, "qmol": true}
 
 // patternWords name what is often, not always, a query pattern: a text
 // so named is taken as SMARTS when it reads as one (common practice in
-// filter catalogues and reaction rule sets).
+// filter catalogues and reaction rule sets), and only then: in code at
+// large these words name templates, rules and filters of other kinds
+// (f2py's rules of C snippets, a config file's template). smart, sma
+// and smas abbreviate SMARTS as smi and smis do SMILES, but name smart
+// pointers, sync policies and simple moving averages as often.
 var patternWords = map[string]bool{
 	"pattern": true, "patterns": true, "patt": true, "patts": true, "query": true,
 	"queries": true, "template": true, "templates": true, "tmpl": true, "rule": true,
-	"rules": true, "filter": true, "filters": true,
+	"rules": true, "filter": true, "filters": true, "smart": true, "sma": true, "smas": true,
 }
 
 // pathWords are the subset of aboutWords that, in a function name, say
@@ -177,6 +181,7 @@ func (n namer) classify(name string) (w wants, about bool) {
 	if notationWord && !query {
 		w.smiles = weakly
 	}
+	w.loose = pattern && !query && !notationWord
 	return w, false
 }
 

@@ -38,6 +38,20 @@ func TestCodeRules(t *testing.T) {
 		{KindPython, `patt_smarts = "[C:1]=[C:2]"`, []string{"q:[C:1]=[C:2]"}},
 		{KindPython, `reaction = AllChem.ReactionFromSmiles("C=CC>>CCC")`, []string{"C=CC>>CCC"}},
 		{KindPython, `inchi = "InChI=1S/C2H6O/c1-2-3/h3H,2H2,1H3"`, nil},
+		// Words that often name other things (pattern, template, rule,
+		// filter, smart) name notation only when it reads without error:
+		// general code (f2py's rule tables of C snippets, a certificate
+		// request template, a sync policy class) is full of them.
+		{KindPython, `SmartSyncPolicy.local = SmartSyncPolicy('local')`, nil},
+		{KindPython, `sma = compute_sma("close", window=20)`, nil},
+		{KindPython, `rules = {"return": "return;", "append": "flen(#varname#),", "fmt": "O!"}`, nil},
+		{KindPython, "req_template = \"\"\"\n    [req]\n    distinguished_name = req_dn\n\"\"\"\n", nil},
+		{KindPython, `patt = "[C;H2]-[O"`, nil},
+		{KindPython, `pattern = "[#6]-[#8]"`, []string{"q:[#6]-[#8]"}},
+		{KindPython, `template = "[C:1]=[O:2]>>[C:1][O:2]"`, []string{"q:[C:1]=[O:2]>>[C:1][O:2]"}},
+		{KindPython, "templates = \"\"\"\n[C:1]=[O:2]>>[C:1][O:2]\n[N;H2:1]>>[N;H1:1]C\n\"\"\"\n", []string{"q:[C:1]=[O:2]>>[C:1][O:2]", "q:[N;H2:1]>>[N;H1:1]C"}},
+		// an explicit SMARTS name keeps a broken pattern, to report it
+		{KindPython, `smarts = "[C;H2]-[O"`, []string{"q:[C;H2]-[O"}},
 		{KindPython, `smiles = f"{a}CC"`, nil},
 		{KindPython, `smiles = rb"CC"`, nil},
 		{KindPython, "x = 1 \\\n  ; smiles = 'CCO'", []string{"CCO"}},

@@ -119,6 +119,9 @@ func (r *reader) bondExpr(st *chainState) {
 func (r *reader) bracketAtom(st *chainState) int {
 	start := r.pos
 	r.pos++
+	outer := r.bracket
+	r.bracket.in, r.bracket.erred = true, false
+	defer func() { r.bracket = outer }()
 	a := Atom{Bracket: true}
 	if r.pos < r.end && r.text[r.pos] == ']' {
 		r.errorf(notation.Span{Start: start, End: r.pos + 1}, CodeSyntax, "expected an atom expression inside '[]', found ']'")
@@ -306,10 +309,10 @@ func (r *reader) recursive(start int) {
 		return
 	}
 	r.depth++
-	role := r.role
-	r.role = notation.RoleNone
+	role, bracket := r.role, r.bracket
+	r.role, r.bracket.in = notation.RoleNone, false // a pattern of its own
 	r.chain(&Pattern{Text: r.text}, false)
-	r.role = role
+	r.role, r.bracket = role, bracket
 	r.depth--
 	if r.pos < r.end && r.text[r.pos] == ')' {
 		r.pos++

@@ -49,12 +49,22 @@ type reader struct {
 	// quick: stop at the first error without recording it (Valid);
 	// failed says there was one.
 	quick, failed bool
+	// bracket is the state of the bracket atom being read: inside one,
+	// its first error is reported and the others, which follow from it
+	// ("[#NOEL]": N, E and L are each no primitive), are not.
+	bracket struct{ in, erred bool }
 }
 
 func (r *reader) errorf(span notation.Span, code notation.Code, format string, args ...any) {
 	if r.quick {
 		r.failed = true
 		return
+	}
+	if r.bracket.in {
+		if r.bracket.erred {
+			return
+		}
+		r.bracket.erred = true
 	}
 	if len(r.p.Errors) >= maxErrors {
 		if !r.dropped {

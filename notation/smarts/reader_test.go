@@ -1,6 +1,7 @@
 package smarts
 
 import (
+	"slices"
 	"strings"
 	"testing"
 
@@ -133,5 +134,32 @@ func TestHostilePatterns(t *testing.T) {
 	}
 	if p := Read(deep); len(p.Errors) == 0 {
 		t.Errorf("nesting 10000 deep should be reported")
+	}
+}
+
+// TestBracketErrorsOnce checks that a bracket atom that does not read is
+// one finding, at its first error, not one per character that follows
+// from it; a recursive pattern inside a bracket is a pattern of its own.
+// The first pattern is Open Babel's example of an invalid SMARTS (its
+// python3-openbabel examples, testpybel.py); RDKit 2022.09 rejects all
+// three (observed).
+func TestBracketErrorsOnce(t *testing.T) {
+	tests := []struct {
+		text string
+		want []int // the starts of the errors
+	}{
+		{"[#NOEL][#NOEL]", []int{1, 8}},
+		{"[C;Q;X4]C", []int{3}},
+		{"[$(C[Q])]", []int{5}},
+	}
+	for _, tt := range tests {
+		p := Read(tt.text)
+		var got []int
+		for _, e := range p.Errors {
+			got = append(got, e.Span.Start)
+		}
+		if !slices.Equal(got, tt.want) {
+			t.Errorf("Read(%q): errors at %v, want %v (%v)", tt.text, got, tt.want, p.Errors)
+		}
 	}
 }

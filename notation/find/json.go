@@ -375,6 +375,8 @@ type jsonFinder struct {
 	// title is the name of the innermost object around the value
 	// visited: its name, title or id member, as a table's title column
 	title string
+	// key is the innermost key above the value visited ("" for none)
+	key string
 }
 
 // maxJSONTitle bounds a title taken from a member: a title names a
@@ -431,7 +433,10 @@ func (jf *jsonFinder) walk(v jsonValue, w wants, other bool) {
 			if !kw.named() && !aboutKey(key) {
 				child = w
 			}
+			outer := jf.key
+			jf.key = key
 			jf.walk(v.vals[k], child, other || about)
+			jf.key = outer
 		}
 	case 'a':
 		for _, e := range v.vals {
@@ -494,6 +499,9 @@ func (jf *jsonFinder) str(v jsonValue, w wants) {
 		}
 		if !named {
 			o.Reason = ReasonGuess
+		}
+		if jf.key != "" {
+			o.Field = FieldOfKey(jf.key)
 		}
 		for _, is := range d.issues {
 			if is.span.Start < o.Span.Start || is.span.Start >= o.Span.End {

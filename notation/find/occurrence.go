@@ -117,6 +117,13 @@ type Occurrence struct {
 	// 0 outside notebooks.
 	Cell int
 
+	// Field tells apart the records of different fields of one table
+	// or dataset, which are related only to records of their own field
+	// (a product is no duplicate of another row's reactant, a canonical
+	// form none of the isomeric one beside it): the 1-based column of a
+	// table, a hash of the key of a JSON value (FieldOfKey); 0 elsewhere.
+	Field uint32
+
 	// Diagnostics are host problems, with spans in host offsets: escapes
 	// the host eats (CodeHostEscape) and, on the first record of a list
 	// whose layout was unclear, CodeListLayout. Fixes[i] are the
@@ -131,6 +138,17 @@ type Occurrence struct {
 	// encode writes notation text as the host must hold it (a backslash
 	// doubled inside an escaping string literal); nil writes it verbatim.
 	encode func(string) string
+}
+
+// FieldOfKey is the Field of the values of a JSON key: a hash of the
+// key, never 0.
+func FieldOfKey(key string) uint32 {
+	h := uint32(2166136261) // FNV-1a
+	for i := 0; i < len(key); i++ {
+		h ^= uint32(key[i])
+		h *= 16777619
+	}
+	return h | 1<<31
 }
 
 // Encode returns notation text as it must be written at this occurrence

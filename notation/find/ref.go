@@ -8,10 +8,12 @@ import "stereoline/notation"
 // list after their chunk is gone (the relations of Stream).
 
 // Ref is an occurrence reduced to the offsets of its text and title in
-// the host content, 20 bytes instead of the occurrence's 200 or so.
+// the host content and its field, 24 bytes instead of the occurrence's
+// 200 or so.
 type Ref struct {
 	start, end      uint32
 	title, titleEnd uint32
+	field           uint32
 	kind            Kind
 	construct       Construct
 	reason          Reason
@@ -31,7 +33,7 @@ func RefOf(content []byte, o *Occurrence) (r Ref, ok bool) {
 		len(o.Diagnostics) > 0 || o.Cell != 0 || o.group != (groupMark{}) || o.encode != nil {
 		return Ref{}, false
 	}
-	r = Ref{start: uint32(s.Start), end: uint32(s.End), kind: o.Kind, construct: o.Construct, reason: o.Reason, dialect: o.Dialect}
+	r = Ref{start: uint32(s.Start), end: uint32(s.End), field: o.Field, kind: o.Kind, construct: o.Construct, reason: o.Reason, dialect: o.Dialect}
 	if o.Title == "" {
 		return r, true
 	}
@@ -65,6 +67,7 @@ func (r Ref) Occurrence(content []byte) Occurrence {
 		Construct: r.construct,
 		Reason:    r.reason,
 		Dialect:   r.dialect,
+		Field:     r.field,
 		m:         identityMap(int(r.start), int(r.end-r.start)),
 	}
 	if r.titleEnd > r.title {

@@ -162,6 +162,7 @@ func (h *tableHeader) rows(src []byte, i int, sep byte, out []Occurrence) []Occu
 				continue
 			}
 			if o, ok := cellOccurrence(c, title); ok {
+				o.Field = uint32(k + 1)
 				if sep == '\t' {
 					o.Kind = KindTSV
 				}

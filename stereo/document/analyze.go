@@ -255,7 +255,7 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 		res.Records[i] = Record{Occ: &occs[i], an: an}
 		res.own[i] = res.recordFindings(i, f)
 		if an.identifiable {
-			if j, again := seen.add(an.preKey, i); again {
+			if j, again := seen.add(relateKey(an.preKey, &occs[i]), i); again {
 				an.identifyWith(f.mol)
 				if j >= 0 {
 					res.Records[j].an.identify()

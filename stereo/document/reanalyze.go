@@ -263,7 +263,17 @@ func prekeyOf(rec *Record) prekey {
 	if rec.an == nil || !rec.an.identifiable {
 		return prekey{}
 	}
-	return prekey{rec.an.preKey, true}
+	return prekey{relateKey(rec.an.preKey, rec.Occ), true}
+}
+
+// relateKey is the key records are related by: the constitution pre-key,
+// and the field of a table or dataset the record is in (find.Occurrence
+// Field), so that records of different fields never collide.
+func relateKey(preKey uint64, o *find.Occurrence) uint64 {
+	if o == nil || o.Field == 0 {
+		return preKey
+	}
+	return preKey ^ (uint64(o.Field)+1)*0x9e3779b97f4a7c15
 }
 
 // relateAgain sets the relations of the records of r, a new version of

@@ -131,21 +131,25 @@ func (r *Result) collidingGroups() [][]int {
 	seen := make(map[uint64]int32, len(r.Records))
 	for i := range r.Records {
 		if an := r.Records[i].an; an != nil && an.identifiable {
-			seen[an.preKey]++
+			seen[relateKey(an.preKey, r.Records[i].Occ)]++
 		}
 	}
 	at := map[uint64]int{}
 	var groups [][]int
 	for i := range r.Records {
 		an := r.Records[i].an
-		if an == nil || !an.identifiable || seen[an.preKey] < 2 {
+		if an == nil || !an.identifiable {
 			continue
 		}
-		g, ok := at[an.preKey]
+		key := relateKey(an.preKey, r.Records[i].Occ)
+		if seen[key] < 2 {
+			continue
+		}
+		g, ok := at[key]
 		if !ok {
 			g = len(groups)
-			at[an.preKey] = g
-			groups = append(groups, make([]int, 0, seen[an.preKey]))
+			at[key] = g
+			groups = append(groups, make([]int, 0, seen[key]))
 		}
 		groups[g] = append(groups[g], i)
 	}

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math/rand"
 	"reflect"
+	"slices"
 	"strings"
 	"testing"
 
@@ -185,5 +186,52 @@ func TestActionsOnListParts(t *testing.T) {
 	}
 	if res.DiagnosticCount() != len(all) || res.Diagnostic(len(all)) != nil || res.Diagnostic(-1) != nil {
 		t.Errorf("count %d, joined %d, or a finding past the ends", res.DiagnosticCount(), len(all))
+	}
+}
+
+// TestRelateWithinFields checks that records are related only to records
+// of their own field: a table's column, a JSON key. A PubChem export
+// writes each compound twice, without and with its marks (the layout of
+// its CanonicalSMILES and IsomericSMILES columns, common practice), and
+// a reaction table writes products that other rows use as reactants;
+// neither is a duplicate or a stereoisomer of the other field's record.
+// Analyze and Stream (check) must agree. The molecules (alanine and its
+// mirror image, from memory) are facts; the rows are our own.
+func TestRelateWithinFields(t *testing.T) {
+	tests := []struct {
+		name, file, text string
+		want             []string // "code line", in order
+	}{
+		{"two columns", "t.csv",
+			"id,CanonicalSMILES,IsomericSMILES\n1,CC(N)C(=O)O,C[C@@H](N)C(=O)O\n2,CC(N)C(=O)O,C[C@H](N)C(=O)O\n3,CCO,CCO\n",
+			[]string{"list-duplicate 3", "list-enantiomer 3"}},
+		{"reactions", "t.csv",
+			"reactant_smiles,product_smiles\nC[C@@H](N)C(=O)O,C[C@@H](N)C(=O)OC\nC[C@@H](N)C(=O)OC,C[C@@H](NC=O)C(=O)OC\n",
+			nil},
+		{"json keys", "t.jsonl",
+			"{\"a_smiles\": \"C[C@@H](N)C(=O)O\", \"b_smiles\": \"C[C@H](N)C(=O)O\"}\n{\"a_smiles\": \"C[C@H](N)C(=O)O\"}\n",
+			[]string{"list-enantiomer 2"}},
+	}
+	cfg := DefaultConfig()
+	for _, tt := range tests {
+		a := NewAnalyzer(cfg)
+		describe := func(ds []Diagnostic, content string) []string {
+			var out []string
+			for _, d := range ds {
+				if strings.HasPrefix(string(d.Code), "list-") {
+					out = append(out, fmt.Sprintf("%s %d", d.Code, strings.Count(content[:d.Span.Start], "\n")+1))
+				}
+			}
+			return out
+		}
+		got := describe(a.Analyze(tt.file, "", []byte(tt.text)).Diagnostics(), tt.text)
+		if !slices.Equal(got, tt.want) {
+			t.Errorf("%s: Analyze related %q, want %q", tt.name, got, tt.want)
+		}
+		var streamed []Diagnostic
+		a.Stream(tt.file, "", []byte(tt.text), func(ds []Diagnostic) { streamed = append(streamed, ds...) })
+		if got := describe(streamed, tt.text); !slices.Equal(got, tt.want) {
+			t.Errorf("%s: Stream related %q, want %q", tt.name, got, tt.want)
+		}
 	}
 }

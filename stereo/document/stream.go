@@ -224,8 +224,9 @@ func (s chunkStorage) release(recs []Record) {
 type streamRelater struct {
 	on    bool
 	whole *Result // for line numbers and the content
-	idx   *identity.Index
-	order []int // index position -> record
+	// fields are the identity index of each field of the document
+	// (find.Occurrence Field): records are related within their field
+	fields map[uint32]*fieldIndex
 	// seen holds, for each pre-key met, the first record with it while it
 	// is alone (>= 0), or -1 once the records with it are in the index
 	// (int32: a list of a million records has about as many pre-keys).
@@ -238,8 +239,14 @@ type streamRelater struct {
 }
 
 func newStreamRelater(whole *Result, on bool) *streamRelater {
-	return &streamRelater{on: on, whole: whole, idx: identity.NewIndex(),
+	return &streamRelater{on: on, whole: whole, fields: map[uint32]*fieldIndex{},
 		seen: map[uint64]int32{}, odd: map[int]*find.Occurrence{}, earlier: map[int]*Record{}}
+}
+
+// fieldIndex is the identity index of the records of one field.
+type fieldIndex struct {
+	idx   *identity.Index
+	order []int // index position -> record
 }
 
 // chunk relates the records of a chunk (record k is record start+k of
@@ -260,16 +267,17 @@ func (s *streamRelater) chunk(c *Result, start int) {
 			continue
 		}
 		i := start + k
-		j, ok := s.seen[an.preKey]
+		key := relateKey(an.preKey, c.Records[k].Occ)
+		j, ok := s.seen[key]
 		switch {
 		case !ok && i <= math.MaxInt32:
-			s.seen[an.preKey] = int32(i)
+			s.seen[key] = int32(i)
 			continue
 		case !ok: // past two thousand million records: alone forever
 			continue
 		case j >= 0:
 			adds = append(adds, int(j))
-			s.seen[an.preKey] = -1
+			s.seen[key] = -1
 		}
 		adds = append(adds, i)
 	}
@@ -305,12 +313,18 @@ func (s *streamRelater) occurrence(j int) *find.Occurrence {
 
 // add puts a record into the index and returns the relation found.
 func (s *streamRelater) add(c *Result, start, i int, rec *Record) {
-	m := s.idx.Add(*rec.Identity)
-	s.order = append(s.order, i)
+	field := rec.Occ.Field
+	f := s.fields[field]
+	if f == nil {
+		f = &fieldIndex{idx: identity.NewIndex()}
+		s.fields[field] = f
+	}
+	m := f.idx.Add(*rec.Identity)
+	f.order = append(f.order, i)
 	if m.Earlier < 0 {
 		return
 	}
-	j := s.order[m.Earlier]
+	j := f.order[m.Earlier]
 	var earlier *Record
 	switch {
 	case j >= start:

@@ -535,6 +535,14 @@ func (cf *codeFinder) literal(t token, f *frame) {
 	}
 	if !w.named() {
 		reason = ReasonGuess
+		if hostChanges(d) && !strings.Contains(text, "=") {
+			// Nobody names the text, and it reads as notation only with
+			// a backslash the language turns into something else
+			// ("A!\n" is a line of text): a direction mark, the one mark
+			// written with a backslash, needs a double bond to mean
+			// anything, so without one the text is no record.
+			w.guess = false
+		}
 	}
 	rs := decideInto(cf.rs[:0], text, w)
 	cf.rs = rs
@@ -546,6 +554,19 @@ func (cf *codeFinder) literal(t token, f *frame) {
 	if len(rs) == 0 && pend {
 		cf.keep(lit, d, m, text, mark)
 	}
+}
+
+// hostChanges reports whether the language reads an escape of a decoded
+// literal as something else than its bytes (an error-severity issue: a
+// control character, a code point, a dropped backslash), as opposed to
+// keeping it with a warning.
+func hostChanges(d *decoded) bool {
+	for _, is := range d.issues {
+		if is.sev == notation.SeverityError {
+			return true
+		}
+	}
+	return false
 }
 
 // mayKeep is the quick test on the host bytes of a literal of a group,

@@ -37,7 +37,7 @@ raw = r"F/C=C\F"  # want «F/C=C\F»
 doubled = "F/C=C\\F"  # want «F/C=C\\F» text «F/C=C\F»
 
 # Escapes that change the string are errors; the text is as written.
-octal = "C1CC\1"  # want «C1CC\1» error «\1» fix «r"C1CC\1"» fix «"C1CC\\1"»
+smiles_octal = "C1CC\1"  # want «C1CC\1» error «\1» fix «r"C1CC\1"» fix «"C1CC\\1"»
 smiles_oct7 = "C\7C"  # want «C\7C» error «\7»
 smiles_t = "C\tC"  # want «C\tC» error «\t»
 smiles_n = "C\nC"  # want «C\nC» error «\n»
@@ -68,7 +68,7 @@ smiles_fixed = f"N[C@@H](C)C(=O)O"  # want «N[C@@H](C)C(=O)O»
 smiles_prose = f"see {table} for C{n}"
 template_string = t"{a} C1CCCCC1"  # want «C1CCCCC1»
 raw_f = rf"{a} F/C=C\F"  # want «F/C=C\F»
-escaped_f = f"{a} C1CC\1"  # want «C1CC\1» error «\1» fix «C1CC\\1»
+smiles_escaped_f = f"{a} C1CC\1"  # want «C1CC\1» error «\1» fix «C1CC\\1»
 named_escape = f"{a} \N{DEGREE SIGN}C1CCCCC1 F/C=C/F"  # want «F/C=C/F»
 joined = "C1CCCC" f"C1 {x}"  # want «C1CCCC" f"C1» text «C1CCCCC1»
 # want-after «CCO» title «ethanol» want-after «F/C=C/F» title «»

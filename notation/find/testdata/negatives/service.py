@@ -188,3 +188,15 @@ def legacy_report(items):
     lines.append("{}/{} at {:%Y/%m/%d} ratio {0:.2f}/{1}".format(a, b, when, x, y))
     lines.append("100% done, C1/B2 %s" % "ok")
     return "\n".join(lines)
+
+
+# Settings of a sync client; SmartSyncPolicy and friends are no patterns.
+SmartSyncPolicy.local = SmartSyncPolicy("local")
+sma = compute_sma("close", window=20)
+routine_rules = {"return": "return;", "append": "flen(#varname#),", "format": "O!"}
+req_template = """
+    [req]
+    distinguished_name = req_dn
+    DNS.1 = {hostname}
+"""
+banner = "A!\n" + "CN\tNO\r\n"

@@ -183,6 +183,7 @@ type labeller struct {
 
 	// Set while labelling the marked units (labelAll, units.go).
 	effective  markUse  // by bond: marks that configure a labelled double bond
+	quietMarks markUse  // by bond: marks warnQuietBond reported already
 	halfMarked []member // marked units that may be stereogenic together (together.go)
 
 	// Set while perceiving the unmarked units (perceive.go, together.go).

@@ -116,7 +116,7 @@ func (l *labeller) labelBonds() (quiet []*bondConfig) {
 	// a cumulene's configuration is kept under each of its double
 	// bonds: it is labelled once
 	done := map[*bondConfig]bool{}
-	l.effective = markUse{}
+	l.effective, l.quietMarks = markUse{}, nil
 	for _, bi := range sortedKeys(l.cfg.bonds) {
 		c := l.cfg.bonds[bi]
 		if done[c] {
@@ -172,6 +172,12 @@ func (l *labeller) labelOneSided() {
 	ranked := make([]label, len(l.oneSided))
 	claimed := markUse{}
 	for mb := range l.effective {
+		claimed[mb] = true
+	}
+	// a mark reported already, on the double bond it configures in vain
+	// (a ring too small for trans), is not reported again for the C=O
+	// it also touches
+	for mb := range l.quietMarks {
 		claimed[mb] = true
 	}
 	// a bond that may be stereogenic together with a ring atom claims
@@ -275,6 +281,12 @@ func (l *labeller) keepHigherClasses() {
 func (l *labeller) warnQuietBond(c *bondConfig) {
 	if l.effective.all(c.marks) {
 		return
+	}
+	if l.quietMarks == nil {
+		l.quietMarks = markUse{}
+	}
+	for _, mb := range c.marks {
+		l.quietMarks[mb] = true
 	}
 	size := l.ringSize(c)
 	switch {

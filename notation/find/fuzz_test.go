@@ -274,7 +274,7 @@ func lenientUnescape(s string) (string, bool) {
 			continue
 		}
 		switch c := s[i+1]; c {
-		case '\\', '"', '\'', '/':
+		case '\\', '"', '\'', '/', '$': // \$: a dollar in Kotlin and Julia strings
 			b.WriteByte(c)
 		case 'n':
 			b.WriteByte('\n')

@@ -34,16 +34,59 @@ type yamlFinder struct {
 	nm   namer
 	prag *pragmas
 	out  []Occurrence
+	// key is the innermost key above the scalar being read, mapping the
+	// mapping it is in (an index into titles), for each occurrence its
+	// mapping (outMaps); titles are each mapping's name, title or id
+	// member and its rank (titlePriority), given to the records found
+	// in it once the document is read
+	key     string
+	mapping int
+	outMaps []int
+	titles  []yamlTitle
+}
+
+type yamlTitle struct {
+	text   string
+	rank   int
+	parent int // the mapping it is nested in, -1 for none
 }
 
 type yamlLevel struct {
-	indent int
-	w      wants
+	indent  int
+	w       wants
+	key     string
+	mapping int // the mapping the level's lines are members of, -1 for none
 }
 
 func (yf *yamlFinder) run() {
+	yf.walk()
+	for k := range yf.out {
+		if yf.out[k].Title != "" {
+			continue // a block scalar's record titled on its line
+		}
+		// the innermost mapping around it that has a title
+		for m := yf.outMaps[k]; m >= 0; m = yf.titles[m].parent {
+			if yf.titles[m].rank > 0 {
+				yf.out[k].Title = yf.titles[m].text
+				break
+			}
+		}
+	}
+}
+
+// newMapping starts a mapping inside the mapping parent (-1 for none)
+// and returns its index.
+func (yf *yamlFinder) newMapping(parent int) int {
+	yf.titles = append(yf.titles, yamlTitle{parent: parent})
+	return len(yf.titles) - 1
+}
+
+// walk reads the document's lines.
+func (yf *yamlFinder) walk() {
 	src := yf.src
 	var stack []yamlLevel
+	// maps are the mappings open at each indent, innermost last
+	var maps []yamlLevel
 	block := -1 // indent of the key owning a block scalar being skipped
 	var blockW wants
 	for start := 0; start < len(src); {
@@ -69,35 +112,59 @@ func (yf *yamlFinder) run() {
 			yf.prag.addComment(body[c:], ls+indent+c)
 			body = bytes.TrimRight(body[:c], " \t")
 		}
-		if len(body) == 0 || bytes.HasPrefix(body, []byte("---")) || bytes.HasPrefix(body, []byte("...")) {
+		if bytes.HasPrefix(body, []byte("---")) || bytes.HasPrefix(body, []byte("...")) {
+			stack, maps = stack[:0], maps[:0] // a new document
+			continue
+		}
+		if len(body) == 0 {
 			continue
 		}
 		for len(stack) > 0 && stack[len(stack)-1].indent >= indent {
 			stack = stack[:len(stack)-1]
 		}
+		for len(maps) > 0 && maps[len(maps)-1].indent > indent {
+			maps = maps[:len(maps)-1]
+		}
 		var w wants
+		parentKey := ""
 		if len(stack) > 0 {
-			w = stack[len(stack)-1].w
+			w, parentKey = stack[len(stack)-1].w, stack[len(stack)-1].key
 		}
 		at := ls + indent
-		// Sequence items: "- value" or "- key: value".
+		// Sequence items: "- value" or "- key: value". An item starts
+		// a mapping of its own.
 		for len(body) > 0 && body[0] == '-' && (len(body) == 1 || body[1] == ' ') {
 			k := 1
 			for k < len(body) && body[k] == ' ' {
 				k++
 			}
-			stack = append(stack, yamlLevel{indent: indent, w: w})
+			stack = append(stack, yamlLevel{indent: indent, w: w, key: parentKey})
+			for len(maps) > 0 && maps[len(maps)-1].indent >= indent {
+				maps = maps[:len(maps)-1]
+			}
 			indent += k
 			body, at = body[k:], at+k
+			maps = append(maps, yamlLevel{indent: indent, mapping: yf.newMapping(innermost(maps))})
 		}
 		if len(body) == 0 {
 			continue
 		}
+		yf.mapping = -1
+		if len(maps) > 0 && maps[len(maps)-1].indent <= indent {
+			yf.mapping = maps[len(maps)-1].mapping
+		}
 		key, valueAt, ok := yamlKey(body)
 		if !ok {
+			yf.key = parentKey
 			yf.scalar(body, at, w)
 			continue
 		}
+		if len(maps) == 0 || maps[len(maps)-1].indent < indent {
+			// the first key of a mapping nested under a key
+			maps = append(maps, yamlLevel{indent: indent, mapping: yf.newMapping(innermost(maps))})
+		}
+		yf.mapping = maps[len(maps)-1].mapping
+		yf.title(key, body[valueAt:])
 		keyW, about := yf.nm.classify(key)
 		if !keyW.named() && !aboutKey(key) {
 			keyW = w
@@ -109,13 +176,51 @@ func (yf *yamlFinder) run() {
 		value := body[valueAt:]
 		switch {
 		case len(value) == 0:
-			stack = append(stack, yamlLevel{indent: indent, w: keyW})
+			stack = append(stack, yamlLevel{indent: indent, w: keyW, key: key})
 		case value[0] == '|' || value[0] == '>':
 			block, blockW = indent, keyW
+			yf.key = key
 		default:
+			yf.key = key
 			yf.scalar(value, at+valueAt, keyW)
 		}
 	}
+}
+
+// innermost returns the innermost open mapping, -1 for none.
+func innermost(maps []yamlLevel) int {
+	if len(maps) == 0 {
+		return -1
+	}
+	return maps[len(maps)-1].mapping
+}
+
+// title notes a name, title or id member of the mapping being read.
+func (yf *yamlFinder) title(key string, value []byte) {
+	rank := titlePriority(key)
+	t := &yf.titles[yf.mapping]
+	if rank == 0 || t.rank != 0 && rank >= t.rank || len(value) == 0 || len(value) > maxJSONTitle {
+		return
+	}
+	v := string(value)
+	if q := v[0]; (q == '"' || q == '\'') && len(v) >= 2 && v[len(v)-1] == q {
+		v = v[1 : len(v)-1]
+	}
+	v = strings.TrimSpace(v)
+	switch v {
+	case "", "~", "null", "|", ">":
+		return
+	}
+	t.text, t.rank = v, rank
+}
+
+// add appends an occurrence with the field and mapping it was found in.
+func (yf *yamlFinder) add(o Occurrence) {
+	if yf.key != "" {
+		o.Field = FieldOfKey(yf.key)
+	}
+	yf.out = append(yf.out, o)
+	yf.outMaps = append(yf.outMaps, yf.mapping)
 }
 
 // yamlComment returns where a comment starts in a line ('#' at the start
@@ -281,7 +386,7 @@ func (yf *yamlFinder) one(v []byte, at int, w wants) {
 			{Title: "make it a single-quoted string", Span: tok, NewText: "'" + strings.ReplaceAll(text, "'", "''") + "'"},
 		})
 	}
-	yf.out = append(yf.out, o)
+	yf.add(o)
 }
 
 // record takes one line of a block scalar under a notation-named key.
@@ -293,7 +398,7 @@ func (yf *yamlFinder) record(line []byte, at int) {
 	if recEnd == 0 {
 		return
 	}
-	yf.out = append(yf.out, Occurrence{
+	yf.add(Occurrence{
 		Text:      string(line[:recEnd]),
 		Title:     string(line[ts:te]),
 		Span:      notation.Span{Start: at, End: at + recEnd},

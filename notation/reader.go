@@ -69,7 +69,13 @@ func newReader(src, text string) *reader {
 // That work only adds errors, at most three for each atom, so the error
 // stays in the list as long as the list cannot reach maxErrors; a record
 // with an extension block is read whole.
-func Reads(text string) bool {
+func Reads(text string) bool { return ReadIfReads(text) != nil }
+
+// ReadIfReads returns what Read returns for text that Reads accepts, and
+// nil for other text, at Reads' lower cost for text that does not read:
+// for a caller that wants the molecule of text that may well be no
+// notation at all (a guess at a string nobody names).
+func ReadIfReads(text string) *Molecule {
 	if notationEnd, end := RecordEnd(text); end == notationEnd {
 		r := quietReader(text)
 		r.read()
@@ -78,11 +84,14 @@ func Reads(text string) bool {
 			quietReaders.Put(r)
 		}
 		if failed {
-			return false
+			return nil
 		}
 	}
 	m := Read(text)
-	return !m.Errors.HasErrors() && len(m.Atoms) > 0
+	if m.Errors.HasErrors() || len(m.Atoms) == 0 {
+		return nil
+	}
+	return m
 }
 
 // quietReaders keeps the readers of Reads, whose molecules never leave

@@ -104,8 +104,8 @@ func unmistakable(s string) bool {
 	if !organicShape(s) {
 		return false
 	}
-	m := notation.Read(s)
-	if m.Errors.HasErrors() || len(m.Atoms) == 0 {
+	m := notation.ReadIfReads(s) // most words fail early, before the costly part of a reading
+	if m == nil {
 		return false
 	}
 	return hasEvidence(m)

@@ -361,7 +361,12 @@ func jsonEscape(s string) string {
 // unmistakably notation. Keys themselves are never notation.
 func findJSON(src []byte, cfg *Config) []Occurrence {
 	jf := &jsonFinder{src: src, cfg: cfg, nm: newNamer(cfg)}
-	for _, v := range parseJSONValues(src) {
+	vs := parseJSONValues(src)
+	if len(vs) > 1000 {
+		// JSON Lines: about a record a value, room made once
+		jf.out = make([]Occurrence, 0, len(vs))
+	}
+	for _, v := range vs {
 		jf.walk(v, wants{}, false)
 	}
 	return jf.out

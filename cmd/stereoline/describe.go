@@ -22,7 +22,7 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	var rf readingFlags
 	rf.add(fs)
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: stereoline describe [--json] [--lone-pair RULE] [--ring-marks RULE] [FILE...]\n\nReads records (one notation per line, a title may follow after whitespace)\nfrom the files, or from standard input when none is named.")
+		fmt.Fprintln(stderr, "usage: stereoline describe [--json] [--lone-pair RULE] [--ring-marks RULE] [FILE...]\n\nReads records (one notation per line, a title may follow after whitespace)\nfrom the files, or from standard input when none is named; in a table, source\ncode, Markdown, JSON, YAML or a notebook, the notation check finds there.")
 		fs.PrintDefaults()
 	}
 	if err := fs.Parse(args); err != nil {
@@ -44,11 +44,11 @@ func describe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	var buf []byte
 	var d recordJSON
 	var rr notation.Rereader
-	status := eachLine(fs.Args(), stdin, stderr, func(name string, n int, line string) {
-		if trimmed := strings.TrimSpace(line); trimmed == "" || strings.HasPrefix(trimmed, "#") {
+	status := eachRecord(fs.Args(), stdin, stderr, func(name string, n int, rec notation.Record) {
+		if trimmed := strings.TrimSpace(rec.Line); trimmed == "" || strings.HasPrefix(trimmed, "#") {
 			return
 		}
-		describeRecordInto(&d, &rr, notation.SplitRecord(line), reading)
+		describeRecordInto(&d, &rr, rec, reading)
 		if !*asJSON {
 			writeTable(out, d)
 			return

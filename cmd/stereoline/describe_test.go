@@ -3,6 +3,9 @@ package main
 import (
 	"bytes"
 	"encoding/json"
+	"os"
+	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -85,5 +88,47 @@ func TestDescribeReading(t *testing.T) {
 	var out, errb bytes.Buffer
 	if status := run([]string{"describe", "--lone-pair", "first"}, strings.NewReader("CCO\n"), &out, &errb); status != 2 {
 		t.Errorf("a bad --lone-pair: status %d, want 2", status)
+	}
+}
+
+// TestDescribeHostFiles checks that describe reads the notation check
+// finds in a file of a host kind (a table, code, JSON Lines) rather than
+// its lines, with titles from the host, and still reads a list line by
+// line. The molecules (alanine, from memory) are facts; the files are
+// our own.
+func TestDescribeHostFiles(t *testing.T) {
+	dir := t.TempDir()
+	files := map[string]string{
+		"t.csv":   "id,smiles,name\n1,C[C@H](N)C(=O)O,L-ala\n2,F/C=C/F,E\n",
+		"s.py":    "from rdkit import Chem\nm = Chem.MolFromSmiles(\"C[C@@H](N)C(=O)O\")\nx = 'not notation'\n",
+		"d.jsonl": "{\"smiles\": \"C[C@H](N)C(=O)O\", \"name\": \"L-ala\"}\n",
+		"l.smi":   "C[C@H](N)C(=O)O L-ala\n# a comment\nF/C=C/F\n",
+	}
+	want := map[string][]string{
+		"t.csv":   {"C[C@H](N)C(=O)O L-ala", "F/C=C/F E"},
+		"s.py":    {"C[C@@H](N)C(=O)O "},
+		"d.jsonl": {"C[C@H](N)C(=O)O L-ala"},
+		"l.smi":   {"C[C@H](N)C(=O)O L-ala", "F/C=C/F "},
+	}
+	for name, text := range files {
+		path := filepath.Join(dir, name)
+		if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		var out, errb bytes.Buffer
+		if status := run([]string{"describe", "--json", path}, strings.NewReader(""), &out, &errb); status != 0 {
+			t.Fatalf("%s: status %d: %s", name, status, errb.String())
+		}
+		var got []string
+		for _, line := range strings.Split(strings.TrimSpace(out.String()), "\n") {
+			var d struct{ Input, Name string }
+			if err := json.Unmarshal([]byte(line), &d); err != nil {
+				t.Fatalf("%s: %v in %q", name, err, line)
+			}
+			got = append(got, d.Input+" "+d.Name)
+		}
+		if !slices.Equal(got, want[name]) {
+			t.Errorf("%s: described %q, want %q", name, got, want[name])
+		}
 	}
 }

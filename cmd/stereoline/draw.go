@@ -29,7 +29,7 @@ func draw(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	numbers := fs.Bool("numbers", false, "print atom numbers (as describe numbers them)")
 	outDir := fs.String("out", "", "write one file per record into this folder instead of standard output")
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: stereoline draw [--svg|--png|--json|--molfile] [--fischer] [--numbers] [--out DIR] [FILE...]\n\nDraws each record (one notation per line, a title may follow after whitespace)\nof the files, or of standard input when none is named.")
+		fmt.Fprintln(stderr, "usage: stereoline draw [--svg|--png|--json|--molfile] [--fischer] [--numbers] [--out DIR] [FILE...]\n\nDraws each record (one notation per line, a title may follow after whitespace)\nof the files, or of standard input when none is named; in a table, source code,\nMarkdown, JSON, YAML or a notebook, the notation check finds there.")
 		fs.PrintDefaults()
 	}
 	if err := fs.Parse(args); err != nil {
@@ -60,11 +60,10 @@ func draw(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	}
 	var items []item
 	failed := false
-	status := eachLine(fs.Args(), stdin, stderr, func(name string, n int, line string) {
-		if trimmed := strings.TrimSpace(line); trimmed == "" || strings.HasPrefix(trimmed, "#") {
+	status := eachRecord(fs.Args(), stdin, stderr, func(name string, n int, rec notation.Record) {
+		if trimmed := strings.TrimSpace(rec.Line); trimmed == "" || strings.HasPrefix(trimmed, "#") {
 			return
 		}
-		rec := notation.SplitRecord(line)
 		data, err := drawRecord(rec, ext, *fischer, *numbers)
 		if err != nil {
 			fmt.Fprintf(stderr, "%s:%d: %v\n", name, n, err)

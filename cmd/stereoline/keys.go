@@ -56,10 +56,15 @@ type keysRecordJSON struct {
 	Stereo       string `json:"stereo"`
 	Mirror       string `json:"mirror"`
 	Group        string `json:"group"`
+	// Field tells apart the fields of a table or dataset (a column, a
+	// JSON or YAML key; 0 for a list), whose records check relates only
+	// within their field: a group-by that keys on it as well finds what
+	// check finds
+	Field uint32 `json:"field"`
 }
 
 // keysColumns are the TSV header, in the order of keysRecordJSON.
-var keysColumns = []string{"path", "line", "column", "title", "constitution", "stereo", "mirror", "group"}
+var keysColumns = []string{"path", "line", "column", "title", "constitution", "stereo", "mirror", "group", "field"}
 
 // keys implements 'stereoline keys'.
 func keys(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
@@ -137,7 +142,7 @@ func (r *checkRun) keysFile(f checkFile, w *keysWriter) {
 	}
 	m := lsp.NewMapper(data, lsp.EncodingUTF32)
 	lc.analyzer.StreamRecords(f.path, "", data, true, func(_ int, rec *document.Record) {
-		k := keysRecordJSON{Path: f.path, Title: rec.Occ.Title, Group: groupKind(rec)}
+		k := keysRecordJSON{Path: f.path, Title: rec.Occ.Title, Group: groupKind(rec), Field: rec.Occ.Field}
 		if p, err := m.OffsetToPosition(rec.Occ.Span.Start); err == nil {
 			k.Line, k.Column = int(p.Line)+1, int(p.Character)+1
 		}
@@ -211,6 +216,8 @@ func (w *keysWriter) write(k *keysRecordJSON) {
 		b = append(b, '\t')
 		b = appendTSV(b, s)
 	}
+	b = append(b, '\t')
+	b = strconv.AppendUint(b, uint64(k.Field), 10)
 	b = append(b, '\n')
 	w.out.Write(b)
 	w.buf = b

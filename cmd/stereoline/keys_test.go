@@ -9,6 +9,7 @@ import (
 	"image/png"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -171,5 +172,35 @@ func TestCheckSkipsBinaryFormats(t *testing.T) {
 		if !strings.Contains(stderr, name+": skipped: binary file") {
 			t.Errorf("no note for %s: %s", name, stderr)
 		}
+	}
+}
+
+// TestKeysFields checks that keys gives each record the field check
+// relates it within: the column of a table, 0 in a list. The table is
+// our own; its molecules (alanine, from memory) are facts.
+func TestKeysFields(t *testing.T) {
+	dir := t.TempDir()
+	table := filepath.Join(dir, "t.csv")
+	list := filepath.Join(dir, "l.smi")
+	if err := os.WriteFile(table, []byte("id,a_smiles,b_smiles\n1,C[C@H](N)C(=O)O,C[C@@H](N)C(=O)O\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(list, []byte("C[C@H](N)C(=O)O\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	var out, errb bytes.Buffer
+	if status := run([]string{"keys", table, list}, strings.NewReader(""), &out, &errb); status != 0 {
+		t.Fatalf("status %d: %s", status, errb.String())
+	}
+	var fields []uint32
+	for _, line := range strings.Split(strings.TrimSpace(out.String()), "\n") {
+		var k keysRecordJSON
+		if err := json.Unmarshal([]byte(line), &k); err != nil {
+			t.Fatal(err)
+		}
+		fields = append(fields, k.Field)
+	}
+	if !slices.Equal(fields, []uint32{2, 3, 0}) {
+		t.Errorf("fields %v, want [2 3 0] (the table's second and third columns, then the list)", fields)
 	}
 }

@@ -54,7 +54,7 @@ def enantiomers(bag):
     """Pairs of sides: the records of one stereo key and those of its
     mirror key, for chiral records whose mirror image is in the shards."""
     chiral = bag.filter(lambda r: r["stereo"] != r["mirror"])
-    pair_key = lambda r: min(r["stereo"], r["mirror"])
+    pair_key = lambda r: (r.get("field", 0), min(r["stereo"], r["mirror"]))
     side = lambda r: 0 if r["stereo"] < r["mirror"] else 1
 
     def add(acc, r):
@@ -73,8 +73,10 @@ def relate(shards, binary, client):
     keyed = records.filter(lambda r: r["stereo"] != "")
     return {
         "records": records.count().compute(),
-        "duplicates": groups(keyed, lambda r: r["stereo"]),
-        "stereoisomers": groups(keyed, lambda r: r["constitution"]),
+        # check relates records within their field (a table's column, a
+        # JSON key; 0 for a list): so does the group-by
+        "duplicates": groups(keyed, lambda r: (r.get("field", 0), r["stereo"])),
+        "stereoisomers": groups(keyed, lambda r: (r.get("field", 0), r["constitution"])),
         "enantiomers": enantiomers(keyed),
     }
 

@@ -194,6 +194,14 @@ func compareResults(t *testing.T, what string, got, want *Result) {
 	}
 }
 
+// toggleRowMark removes the first '@' of a row, or marks its first [CH].
+func toggleRowMark(row string) string {
+	if j := strings.Index(row, "@"); j >= 0 {
+		return row[:j] + row[j+1:]
+	}
+	return strings.Replace(row, "[CH]", "[C@H]", 1)
+}
+
 // sameOccurrence is reflect.DeepEqual for occurrences, except that a
 // function field (the host's encoder) is equal to the same function:
 // DeepEqual holds no two non-nil functions equal.
@@ -416,11 +424,7 @@ func TestReanalyzeTables(t *testing.T) {
 			keep := true
 			switch k := rng.Intn(10); {
 			case k < 3:
-				if j := strings.Index(edited[i], "@"); j >= 0 {
-					edited[i] = edited[i][:j] + edited[i][j+1:]
-				} else {
-					edited[i] = strings.Replace(edited[i], "[CH]", "[C@H]", 1)
-				}
+				edited[i] = toggleRowMark(edited[i])
 				what = fmt.Sprintf("a mark of row %d", i)
 			case k < 5:
 				edited = append(edited[:i:i], append([]string{tb.row(editRecord(rng, 40000+i), 40000+i)}, edited[i:]...)...)
@@ -520,11 +524,7 @@ func TestReanalyzeJSONLines(t *testing.T) {
 			var what string
 			switch k := rng.Intn(10); {
 			case k < 3:
-				if j := strings.Index(edited[i], "@"); j >= 0 {
-					edited[i] = edited[i][:j] + edited[i][j+1:]
-				} else {
-					edited[i] = strings.Replace(edited[i], "[CH]", "[C@H]", 1)
-				}
+				edited[i] = toggleRowMark(edited[i])
 				what = fmt.Sprintf("a mark of line %d", i)
 			case k < 5:
 				edited = append(edited[:i:i], append([]string{doc.line(editRecord(rng, 40000+i), 40000+i)}, edited[i:]...)...)

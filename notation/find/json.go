@@ -44,14 +44,12 @@ func parseJSON(src []byte) jsonValue {
 // reads and the reading goes on at the next line. An error in the first
 // value ends the reading there, as parseJSON does.
 func parseJSONValues(src []byte) []jsonValue {
-	p := &jsonParser{src: src}
-	p.blankOrSeparator()
-	first := p.value(0)
+	p, first, next, lines := jsonFirstValue(src)
 	vs := []jsonValue{first}
 	if p.bad {
 		return vs
 	}
-	if next, ok := jsonOneLine(src, first.span); ok {
+	if lines {
 		return jsonLineValues(src, next, len(src), vs)
 	}
 	for {
@@ -119,18 +117,24 @@ func jsonLineValues(src []byte, from, to int, vs []jsonValue) []jsonValue {
 	return vs
 }
 
-// jsonLineMode reports whether src is read line by line: its first
-// value reads whole on its line (parseJSONValues). It reads only that
-// value.
-func jsonLineMode(src []byte) bool {
-	p := &jsonParser{src: src}
+// jsonFirstValue reads the first value of src and says whether src is
+// read line by line (lines): the value reads whole on its line, and the
+// next line starts at next.
+func jsonFirstValue(src []byte) (p *jsonParser, first jsonValue, next int, lines bool) {
+	p = &jsonParser{src: src}
 	p.blankOrSeparator()
-	first := p.value(0)
-	if p.bad {
-		return false
+	first = p.value(0)
+	if !p.bad {
+		next, lines = jsonOneLine(src, first.span)
 	}
-	_, ok := jsonOneLine(src, first.span)
-	return ok
+	return p, first, next, lines
+}
+
+// jsonLineMode reports whether src is read line by line
+// (parseJSONValues). It reads only its first value.
+func jsonLineMode(src []byte) bool {
+	_, _, _, lines := jsonFirstValue(src)
+	return lines
 }
 
 // FindJSONLines returns the notation on the lines of the JSON document

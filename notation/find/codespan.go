@@ -156,6 +156,12 @@ func namedBefore(pre, before []byte, nm namer) bool {
 		words = words[len(words)-3:]
 	}
 	for _, w := range words {
+		if strings.ContainsAny(w, "`/") {
+			// code or a path ("`MolToCXSmiles` writes `a:`",
+			// "`stereo/reaction`; `stereo/internal`"): a name in prose
+			// is a plain word
+			continue
+		}
 		if nm.value(strings.Trim(w, ":*_,()")) {
 			return true
 		}

@@ -338,8 +338,8 @@ func (cf *codeFinder) open(toks []token, i int, parent *frame) frame {
 			nf.forHead, nf.base, nf.collection = true, wants{}, false
 			break
 		}
-		if keywords[name] {
-			break
+		if keywords[name] && !(prev >= 1 && cf.is(toks[prev-1], ".")) {
+			break // a keyword, not a method of that name (re.match)
 		}
 		receiver := ""
 		if prev >= 2 && cf.is(toks[prev-1], ".") && toks[prev-2].kind == tIdent {

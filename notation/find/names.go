@@ -88,6 +88,10 @@ var patternWords = map[string]bool{
 	"rules": true, "filter": true, "filters": true, "smart": true, "sma": true, "smas": true,
 }
 
+// regexModules are the receivers whose functions take regular
+// expressions: Python's re and regex, Go's regexp (common practice).
+var regexModules = map[string]bool{"re": true, "regex": true, "regexp": true}
+
 // pathWords are the subset of aboutWords that, in a function name, say
 // its arguments are files rather than notation: read_smiles_file(p).
 var pathWords = map[string]bool{
@@ -195,6 +199,11 @@ func (n namer) classify(name string) (w wants, about bool) {
 // receiver counts only when it looks like a class or module (it starts
 // with a capital letter: SmartsPattern.create, Smarts.parse).
 func (n namer) call(name, receiver string) (w wants, about bool) {
+	if regexModules[receiver] || name == "RegExp" {
+		// re.match(r'[19K]', s): a regular expression, whose character
+		// classes look like bracket atoms
+		return wants{}, true
+	}
 	if len(name) < 3 || len(name) > 200 {
 		return wants{}, false
 	}

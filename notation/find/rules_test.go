@@ -50,6 +50,13 @@ func TestCodeRules(t *testing.T) {
 		{KindPython, `pattern = "[#6]-[#8]"`, []string{"q:[#6]-[#8]"}},
 		{KindPython, `template = "[C:1]=[O:2]>>[C:1][O:2]"`, []string{"q:[C:1]=[O:2]>>[C:1][O:2]"}},
 		{KindPython, "templates = \"\"\"\n[C:1]=[O:2]>>[C:1][O:2]\n[N;H2:1]>>[N;H1:1]C\n\"\"\"\n", []string{"q:[C:1]=[O:2]>>[C:1][O:2]", "q:[N;H2:1]>>[N;H1:1]C"}},
+		// regular expressions, whose classes look like bracket atoms with
+		// an isotope (CPython's test_re writes these); a method named like
+		// a keyword is still a call
+		{KindPython, `m = re.match(r"[19K]", s, re.I)`, nil},
+		{KindGo, `var rx = regexp.MustCompile("[13C]+")`, nil},
+		{KindJavaScript, `const rx = new RegExp("[13C]", "g");`, nil},
+		{KindPython, `hit = table.match("C[C@H](F)Cl")`, []string{"C[C@H](F)Cl"}},
 		// an explicit SMARTS name keeps a broken pattern, to report it
 		{KindPython, `smarts = "[C;H2]-[O"`, []string{"q:[C;H2]-[O"}},
 		{KindPython, `smiles = f"{a}CC"`, nil},

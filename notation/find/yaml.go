@@ -101,7 +101,7 @@ func (yf *yamlFinder) walk() {
 		if block >= 0 {
 			if indent > block || len(bytes.TrimSpace(line)) == 0 {
 				if blockW.named() && indent < len(rest) && rest[indent] != '#' {
-					yf.record(rest[indent:], ls+indent)
+					yf.record(rest[indent:], ls+indent, blockW)
 				}
 				continue
 			}
@@ -390,12 +390,17 @@ func (yf *yamlFinder) one(v []byte, at int, w wants) {
 }
 
 // record takes one line of a block scalar under a notation-named key.
-func (yf *yamlFinder) record(line []byte, at int) {
+func (yf *yamlFinder) record(line []byte, at int, w wants) {
 	if !yf.prag.allowed(at) {
 		return
 	}
 	recEnd, ts, te := splitRecord(line)
 	if recEnd == 0 {
+		return
+	}
+	if text := string(line[:recEnd]); w.loose && !readsAsNotation(text) && !readsAsQuery(text) {
+		// under a word that often names other things (help text under a
+		// key about a governance rule), only what reads
 		return
 	}
 	yf.add(Occurrence{

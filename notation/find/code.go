@@ -359,7 +359,10 @@ func (cf *codeFinder) open(toks []token, i int, parent *frame) frame {
 		default:
 			nf.base = wants{}
 		}
-		nf.noGuess = about
+		// a call inside the arguments of one that takes no notation
+		// (re.match(u(r'[19K]')), open(join(d, 'C1.smi'))) takes none
+		// by guess either
+		nf.noGuess = about || parent.noGuessHere()
 	case '[':
 		if pt.kind == tIdent && !keywords[cf.textS(pt)] || pt.kind == tString || cf.is(pt, ")") || cf.is(pt, "]") {
 			nf.subscript, nf.base, nf.collection, nf.nested = true, wants{}, false, false

@@ -54,6 +54,7 @@ func TestCodeRules(t *testing.T) {
 		// an isotope (CPython's test_re writes these); a method named like
 		// a keyword is still a call
 		{KindPython, `m = re.match(r"[19K]", s, re.I)`, nil},
+		{KindPython, `m = re.match(u(r"[19K]"), u(s))`, nil},
 		{KindGo, `var rx = regexp.MustCompile("[13C]+")`, nil},
 		{KindJavaScript, `const rx = new RegExp("[13C]", "g");`, nil},
 		{KindPython, `hit = table.match("C[C@H](F)Cl")`, []string{"C[C@H](F)Cl"}},

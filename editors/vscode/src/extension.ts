@@ -17,7 +17,8 @@ const section = "stereoline";
 // Languages whose documents go to the server. "smiles" and "rsmi" are
 // contributed by this extension; the others are VS Code's own ids (csv and
 // tsv are also contributed here, since VS Code has none built in).
-const languages = ["smiles", "rsmi", "python", "csv", "tsv", "markdown"];
+// jsonl: Visual Studio Code's language of JSON Lines datasets (.jsonl)
+const languages = ["smiles", "rsmi", "python", "csv", "tsv", "markdown", "jsonl"];
 
 let client: LanguageClient | undefined;
 

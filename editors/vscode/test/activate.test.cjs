@@ -325,6 +325,7 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
       ["sample.smi", "smiles"],
       ["sample.py", "python"],
       ["encoding.csv", "csv"],
+      ["sample.jsonl", "jsonl"],
     ];
     for (const [name, lang] of open) {
       const f = path.join(fixtures, name);
@@ -334,7 +335,7 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
     const didOpen = () => frames(fs.readFileSync(sent)).filter((m) => m.method === "textDocument/didOpen");
     assert.ok(await wait(() => didOpen().length >= open.length, 5000), `didOpen: ${JSON.stringify(didOpen())}`);
     await new Promise((r) => setTimeout(r, 200));
-    assert.deepEqual(didOpen().map((m) => m.params.textDocument.languageId).sort(), ["csv", "python", "smiles"]);
+    assert.deepEqual(didOpen().map((m) => m.params.textDocument.languageId).sort(), ["csv", "jsonl", "python", "smiles"]);
     stopped = true;
     await ext.deactivate();
     assert.ok(await wait(() => fs.existsSync(status), 5000), "the server did not exit after deactivate");

@@ -44,13 +44,14 @@ func parseJSON(src []byte) jsonValue {
 // reads and the reading goes on at the next line. An error in the first
 // value ends the reading there, as parseJSON does.
 func parseJSONValues(src []byte) []jsonValue {
-	p, first, next, lines := jsonFirstValue(src)
-	vs := []jsonValue{first}
+	if jsonLineMode(src) {
+		return jsonLineValues(src, 0, len(src), nil)
+	}
+	p := &jsonParser{src: src}
+	p.blankOrSeparator()
+	vs := []jsonValue{p.value(0)}
 	if p.bad {
 		return vs
-	}
-	if lines {
-		return jsonLineValues(src, next, len(src), vs)
 	}
 	for {
 		p.blankOrSeparator()
@@ -70,25 +71,6 @@ func parseJSONValues(src []byte) []jsonValue {
 		}
 		p.i = from + next + 1
 	}
-}
-
-// jsonOneLine reports whether the value at s, the first of src, lies on
-// one line with nothing but blanks after it there: src is then read
-// line by line. next is the start of the line after it.
-func jsonOneLine(src []byte, s notation.Span) (next int, ok bool) {
-	if s.End <= s.Start || bytes.IndexByte(src[s.Start:s.End], '\n') >= 0 {
-		return 0, false
-	}
-	for i := s.End; i < len(src); i++ {
-		switch src[i] {
-		case ' ', '\t', '\r':
-		case '\n':
-			return i + 1, true
-		default:
-			return 0, false
-		}
-	}
-	return len(src), true
 }
 
 // jsonLineValues appends to vs the values on the lines of src from
@@ -117,24 +99,45 @@ func jsonLineValues(src []byte, from, to int, vs []jsonValue) []jsonValue {
 	return vs
 }
 
-// jsonFirstValue reads the first value of src and says whether src is
-// read line by line (lines): the value reads whole on its line, and the
-// next line starts at next.
-func jsonFirstValue(src []byte) (p *jsonParser, first jsonValue, next int, lines bool) {
-	p = &jsonParser{src: src}
-	p.blankOrSeparator()
-	first = p.value(0)
-	if !p.bad {
-		next, lines = jsonOneLine(src, first.span)
+// jsonLineMode reports whether src is read line by line
+// (parseJSONValues): its first line that is not blank holds one whole
+// value, or, when that line does not read (a line being typed), the
+// next one does. A pretty-printed document's first lines ("{", "[" or
+// a member ending in a comma) hold no whole value. It reads at most
+// those two lines.
+func jsonLineMode(src []byte) bool {
+	for tries, from := 0, 0; tries < 2 && from < len(src); tries++ {
+		whole, next, blank := jsonWholeLine(src, from)
+		for blank && next < len(src) {
+			whole, next, blank = jsonWholeLine(src, next)
+		}
+		if blank || whole {
+			return whole
+		}
+		from = next
 	}
-	return p, first, next, lines
+	return false
 }
 
-// jsonLineMode reports whether src is read line by line
-// (parseJSONValues). It reads only its first value.
-func jsonLineMode(src []byte) bool {
-	_, _, _, lines := jsonFirstValue(src)
-	return lines
+// jsonWholeLine reads the line of src starting at from on its own and
+// reports whether it holds one whole value and blanks, or only blanks;
+// next is the start of the line after it.
+func jsonWholeLine(src []byte, from int) (whole bool, next int, blank bool) {
+	end, next := len(src), len(src)
+	if k := bytes.IndexByte(src[from:], '\n'); k >= 0 {
+		end, next = from+k, from+k+1
+	}
+	p := &jsonParser{src: src[:end], i: from}
+	p.blankOrSeparator()
+	if p.i >= end {
+		return false, next, true
+	}
+	p.value(0)
+	if p.bad {
+		return false, next, false
+	}
+	p.blank()
+	return p.i >= end, next, false
 }
 
 // FindJSONLines returns the notation on the lines of the JSON document

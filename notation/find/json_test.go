@@ -24,6 +24,8 @@ func TestFindJSONValues(t *testing.T) {
 			[]string{"CC", "CO"}},
 		{"a bad line is skipped", "{\"smiles\": \"CC\"}\n{\"smiles\": \"CN\", oops}\n]]\n{\"smiles\": \"CO\"}\n",
 			[]string{"CC", "CN", "CO"}},
+		{"a broken first line spoils no other", "{\"smiles\": \"CN\",\n{\"smiles\": \"CC\"}\n{\"smiles\": \"CO\"}\n",
+			[]string{"CN", "CC", "CO"}},
 		{"a broken line spoils no other", "{\"smiles\": \"CC\"}\n{\"smiles\": \"CN\",\n{\"smiles\": \"CO\"}\n",
 			[]string{"CC", "CN", "CO"}},
 		{"text sequence", "\x1e{\"smiles\": \"CC\"}\n\x1e{\"smiles\": \"CO\"}\n",

@@ -568,6 +568,19 @@ func TestReanalyzeJSONLines(t *testing.T) {
 				prev = a.Analyze(file, "", []byte(join(rows)))
 			}
 		}
+		// the first line broken, as by typing there: the lines after it
+		// are still read one by one, and the edit is read apart
+		edited := append([]string(nil), rows...)
+		edited[0] = strings.TrimRight(edited[0], "}]")
+		text := join(edited)
+		next := a.reanalyzeList(prev, file, "", []byte(text))
+		if next == nil {
+			if !doc.whole {
+				t.Errorf("%s: the first line broken: analysed whole", doc.name)
+			}
+			next = a.Analyze(file, "", []byte(text))
+		}
+		compareResults(t, doc.name+", the first line broken", next, a.Analyze(file, "", []byte(text)))
 		switch {
 		case doc.whole && incremental > 0:
 			t.Errorf("%s: %d of 40 edits were analysed apart", doc.name, incremental)

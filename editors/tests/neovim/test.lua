@@ -318,6 +318,16 @@ local function main()
   check(ok, "quick fix 'remove the mark' applied on the ineffective record", why)
   golden(smi, "sample.smi")
 
+  -- JSON Lines dataset ------------------------------------------------------
+  io.stdout:write("json lines\n")
+  vim.cmd("edit " .. vim.fn.fnameescape(fixtures .. "/sample.jsonl"))
+  local jl = vim.api.nvim_get_current_buf()
+  check(vim.bo[jl].filetype == "jsonl", "sample.jsonl has filetype jsonl", vim.bo[jl].filetype)
+  -- the second record is the mirror image of the first (OpenSMILES: @
+  -- and @@ are mirror images)
+  local jd = wait_diagnostics(jl, 1)
+  check(find_diag(jd, "list-enantiomer") ~= nil, "sample.jsonl: list-enantiomer on its second line", vim.inspect(jd))
+
   -- Shutdown ----------------------------------------------------------------
   io.stdout:write("shutdown\n")
   local client = client_of(smi)

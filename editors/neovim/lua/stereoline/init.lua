@@ -18,7 +18,7 @@ M.defaults = {
   cmd = { "stereoline", "serve" },
   -- Filetypes whose buffers go to the server. "smiles" is set below for
   -- .smi, .smiles and .rsmi files.
-  filetypes = { "smiles", "python", "csv", "tsv", "markdown" },
+  filetypes = { "smiles", "python", "csv", "tsv", "markdown", "jsonl" },
   -- Files or directories that mark a project root, searched upwards.
   root_markers = { ".git", "pyproject.toml", "setup.py" },
   -- The server's settings: severity, inlayHints, drawingLens, detection,
@@ -129,6 +129,13 @@ function M.setup(opts)
     group = group,
     pattern = { "*.tsv", "*.tab" },
     command = "setfiletype tsv",
+  })
+  -- JSON Lines datasets: the server reads the language "jsonl" line by
+  -- line; the type is set, as another detection may call them JSON.
+  vim.api.nvim_create_autocmd({ "BufRead", "BufNewFile" }, {
+    group = group,
+    pattern = { "*.jsonl", "*.ndjson" },
+    command = "set filetype=jsonl",
   })
   vim.api.nvim_create_autocmd("FileType", {
     group = group,

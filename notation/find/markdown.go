@@ -220,22 +220,13 @@ func startsItem(line []byte) bool {
 // code span, whose content is then taken as named by the column. title
 // is the title column's index, or -1.
 func tableRowCode(out []Occurrence, line []byte, lineStart int, columns []string, title int, prag *pragmas, nm namer, cfg *Config) []Occurrence {
-	// the cells' starts and ends; the text before the first pipe is none
-	var cells [][2]int
-	for from, i := 0, 0; i <= len(line); i++ {
-		if i < len(line) && (line[i] != '|' || i > 0 && line[i-1] == '\\') {
-			continue
-		}
-		cells = append(cells, [2]int{from, i})
-		from = i + 1
-	}
+	cells := rowCells(line)
 	name := ""
 	if title >= 0 && title+1 < len(cells) {
-		c := cells[title+1]
-		name = strings.TrimSpace(strings.Trim(strings.TrimSpace(string(line[c[0]:c[1]])), "*_`"))
+		name = cellName(line[cells[title+1][0]:cells[title+1][1]])
 	}
 	for n, c := range cells {
-		k := n - 1
+		k := n - 1 // the text before the first pipe is no cell
 		cell, at := line[c[0]:c[1]], lineStart+c[0]
 		pre := line[:c[0]]
 		named := k >= 0 && k < len(columns) && columns[k] != ""
@@ -255,60 +246,71 @@ func tableRowCode(out []Occurrence, line []byte, lineStart int, columns []string
 	return out
 }
 
+// rowCells returns the starts and ends of the pieces of a table row
+// between unescaped pipes: the text before the first pipe, each cell,
+// the text after the last.
+func rowCells(line []byte) [][2]int {
+	var cells [][2]int
+	for from, i := 0, 0; i <= len(line); i++ {
+		if i < len(line) && (line[i] != '|' || i > 0 && line[i-1] == '\\') {
+			continue
+		}
+		cells = append(cells, [2]int{from, i})
+		from = i + 1
+	}
+	return cells
+}
+
+// cellName is a header or name cell's text without blanks and emphasis.
+func cellName(cell []byte) string {
+	return strings.TrimSpace(strings.Trim(strings.TrimSpace(string(cell)), "*_`"))
+}
+
 // markdownCell adds the text of a cell of a structure column, without the
-// blanks around it, when it could be a record at all (plausible: not
-// "n/a", "see text" or a dash).
+// blanks around it, as a table's cell is read (cellOccurrence), when it
+// could be a record at all (plausible: not "see text" or a dash).
 func markdownCell(out []Occurrence, cell []byte, at int, prag *pragmas) []Occurrence {
-	from, to := 0, len(cell)
-	for from < to && isBlank(cell[from]) {
-		from++
-	}
-	for to > from && isBlank(cell[to-1]) {
-		to--
-	}
-	text := string(cell[from:to])
-	if !plausible(text) || placeholders[strings.ToLower(text)] || !prag.allowed(at+from) {
+	o, ok := cellOccurrence(tableCell{text: cell, m: identityMap(at, len(cell))}, "")
+	if !ok || !plausible(o.Text) || !prag.allowed(o.Span.Start) {
 		return out
 	}
-	reason := ReasonName
-	if prag.forced(at + from) {
-		reason = ReasonPragma
+	o.Kind, o.Reason = KindMarkdown, ReasonName
+	if prag.forced(o.Span.Start) {
+		o.Reason = ReasonPragma
 	}
-	return append(out, Occurrence{
-		Text:      text,
-		Span:      notation.Span{Start: at + from, End: at + to},
-		Kind:      KindMarkdown,
-		Construct: ConstructTableCell,
-		Reason:    reason,
-		m:         identityMap(at+from, to-from),
-	})
+	return append(out, o)
 }
 
 // delimiterRow reports whether a table row is the delimiter row under a
 // header: cells of dashes with an optional colon at either end
 // (GitHub Flavored Markdown, "Tables").
 func delimiterRow(line []byte) bool {
-	cells := bytes.Split(bytes.Trim(bytes.TrimSpace(line), "|"), []byte("|"))
-	for _, c := range cells {
-		c = bytes.TrimSpace(c)
-		c = bytes.TrimSuffix(bytes.TrimPrefix(c, []byte(":")), []byte(":"))
-		if len(c) == 0 || len(bytes.Trim(c, "-")) != 0 {
+	cells := rowCells(line)
+	n := 0
+	for k, c := range cells {
+		cell := bytes.TrimSpace(line[c[0]:c[1]])
+		if k == 0 || k == len(cells)-1 && len(cell) == 0 {
+			continue // before the first pipe, after the last
+		}
+		cell = bytes.TrimSuffix(bytes.TrimPrefix(cell, []byte(":")), []byte(":"))
+		if len(cell) == 0 || len(bytes.Trim(cell, "-")) != 0 {
 			return false
 		}
+		n++
 	}
-	return len(cells) > 0
+	return n > 0
 }
 
-// headerColumns returns, for each cell of a header row, its name when it
-// names a structure column (as a CSV header does) and "" otherwise (a
-// non-nil slice), and the index of the title column (as a CSV header's
-// is chosen), or -1.
+// headerColumns returns, for each cell of a header row (numbered as
+// tableRowCode numbers them), its name when it names a structure column
+// (as a CSV header does) and "" otherwise (a non-nil slice), and the
+// index of the title column (as a CSV header's is chosen), or -1.
 func headerColumns(header []byte, nm namer, cfg *Config) (columns []string, title int) {
-	cells := bytes.Split(bytes.Trim(bytes.TrimSpace(header), "|"), []byte("|"))
+	cells := rowCells(header)[1:]
 	columns, title = make([]string, len(cells)), -1
 	best := 0
 	for k, c := range cells {
-		name := strings.TrimSpace(strings.Trim(strings.TrimSpace(string(c)), "*_`"))
+		name := cellName(header[c[0]:c[1]])
 		if nm.column(name, cfg.Columns) {
 			columns[k] = name
 		} else if p := titlePriority(name); p > 0 && (best == 0 || p < best) {

@@ -2,6 +2,7 @@ package find
 
 import (
 	"bytes"
+	"sort"
 	"strings"
 	"unicode/utf8"
 
@@ -26,6 +27,10 @@ type jsonParser struct {
 	src []byte
 	i   int
 	bad bool
+	// shallow keeps the members and elements of the outermost value
+	// only (without theirs): a reading of a document's structure that
+	// allocates nothing per record (jsonArrayElements)
+	shallow bool
 }
 
 func parseJSON(src []byte) jsonValue {
@@ -158,6 +163,175 @@ func FindJSONLines(old, src []byte, cfg Config, from, to int) (occs []Occurrence
 	return jf.out, true
 }
 
+// JSONArray is what FindJSONEdit keeps of a document that is one array
+// for the edit after: where its elements lie.
+type JSONArray struct {
+	elems []notation.Span
+}
+
+// FindJSONEdit returns the notation on the lines of the JSON document
+// src from offset from (a line start) to offset newTo (a line start or
+// len(src)), exactly as FindKind(KindJSON, src, cfg) finds it there,
+// after an edit that changed only the lines of old from from to oldTo
+// into them. The lines read may be more than those (from2, oldTo2 and
+// newTo2 give them, in both texts): a record of a pretty-printed array
+// spans several lines, and all of them are read again when one changes,
+// since a member on one line may give the title of a record on another.
+// ok is false when the lines cannot be read apart and the caller must
+// read the whole document.
+//
+// Two layouts are read apart: JSON Lines (FindJSONLines), and one
+// array of values (records) across many lines, which src must read
+// without error from end to end. For such an array, arr is what the
+// call for old returned (nil: old is read), and next is kept for the
+// edit after this one.
+func FindJSONEdit(old, src []byte, cfg Config, from, oldTo, newTo int, arr *JSONArray) (occs []Occurrence, from2, oldTo2, newTo2 int, next *JSONArray, ok bool) {
+	if from < 0 || newTo > len(src) || from > newTo || oldTo > len(old) || from > oldTo || newTo-oldTo != len(src)-len(old) {
+		return nil, 0, 0, 0, nil, false
+	}
+	if jsonLineMode(old) || jsonLineMode(src) {
+		occs, ok = FindJSONLines(old, src, cfg, from, newTo)
+		return occs, from, oldTo, newTo, nil, ok
+	}
+	var oes []notation.Span
+	if arr != nil {
+		oes = arr.elems
+	} else if oes, ok = jsonArrayElements(old); !ok {
+		return nil, 0, 0, 0, nil, false
+	}
+	es, reread, ok := editedElements(oes, src, from, newTo, len(src)-len(old))
+	if !ok {
+		return nil, 0, 0, 0, nil, false
+	}
+	// Widen the lines to the elements read again and to whole elements,
+	// and to whole lines again, until no element lies across either end.
+	lineStart := func(off int) int { return bytes.LastIndexByte(src[:off], '\n') + 1 }
+	lineAfter := func(off int) int {
+		if k := bytes.IndexByte(src[off:], '\n'); k >= 0 {
+			return off + k + 1
+		}
+		return len(src)
+	}
+	from2, newTo2 = from, newTo
+	if reread.Len() > 0 {
+		from2 = min(from2, lineStart(reread.Start))
+		newTo2 = max(newTo2, lineAfter(reread.End-1))
+	}
+	for {
+		// elements k0..k1-1 overlap [from2, newTo2)
+		k0 := sort.Search(len(es), func(k int) bool { return es[k].End > from2 })
+		k1 := sort.Search(len(es), func(k int) bool { return es[k].Start >= newTo2 })
+		f, t := from2, newTo2
+		if k0 < k1 {
+			f = min(f, lineStart(es[k0].Start))
+			if es[k1-1].End > t {
+				t = lineAfter(es[k1-1].End - 1)
+			}
+		}
+		if f == from2 && t == newTo2 {
+			jf := &jsonFinder{src: src, cfg: &cfg, nm: newNamer(&cfg)}
+			for k := k0; k < k1; k++ {
+				p := &jsonParser{src: src[:es[k].End], i: es[k].Start}
+				jf.walk(p.value(1), wants{}, false)
+			}
+			occs = jf.out
+			break
+		}
+		from2, newTo2 = f, t
+	}
+	oldTo2 = newTo2 - (len(src) - len(old))
+	// In old, the same elements lie before from2 and after oldTo2 (the
+	// texts there are the same), none across either end.
+	across := func(es []notation.Span, off int) bool {
+		k := sort.Search(len(es), func(k int) bool { return es[k].End > off })
+		return k < len(es) && es[k].Start < off
+	}
+	after := func(es []notation.Span, off int) int {
+		return len(es) - sort.Search(len(es), func(k int) bool { return es[k].Start >= off })
+	}
+	before := func(es []notation.Span, off int) int {
+		return sort.Search(len(es), func(k int) bool { return es[k].End > off })
+	}
+	if across(oes, from2) || across(oes, oldTo2) || after(oes, oldTo2) != after(es, newTo2) || before(oes, from2) != before(es, from2) {
+		return nil, 0, 0, 0, nil, false
+	}
+	return occs, from2, oldTo2, newTo2, &JSONArray{elems: es}, true
+}
+
+// editedElements returns the spans of the elements of src, an edit of a
+// document that is one array whose elements were oes, and the part of
+// src read again: from an element before the edit (its text and place
+// are old's) to the first element boundary after the edit that is one
+// in old too, from where the texts are the same again. False when src
+// is not one array that reads without error.
+func editedElements(oes []notation.Span, src []byte, from, newTo, delta int) (es []notation.Span, reread notation.Span, ok bool) {
+	// the first element that ends after the edit begins, or the one
+	// before it when the edit begins before it; the state before it is
+	// old's: an element is expected
+	k := sort.Search(len(oes), func(k int) bool { return oes[k].End > from })
+	if k == len(oes) || oes[k].Start > from {
+		k--
+	}
+	if k < 0 {
+		es, ok = jsonArrayElements(src)
+		return es, notation.Span{Start: 0, End: len(src)}, ok
+	}
+	start := oes[k].Start
+	p := &jsonParser{src: src, i: start, shallow: true}
+	es = append(make([]notation.Span, 0, len(oes)+8), oes[:k]...)
+	for {
+		v := p.value(1)
+		if p.bad {
+			return nil, reread, false
+		}
+		es = append(es, v.span)
+		p.blank()
+		if p.i < len(src) && src[p.i] == ',' {
+			p.i++
+			p.blank()
+			// an element begins here; past the edit, where one began in
+			// old, the rest is old's moved
+			if p.i >= newTo {
+				j := sort.Search(len(oes), func(j int) bool { return oes[j].Start >= p.i-delta })
+				if j < len(oes) && oes[j].Start == p.i-delta {
+					for _, e := range oes[j:] {
+						es = append(es, notation.Span{Start: e.Start + delta, End: e.End + delta})
+					}
+					return es, notation.Span{Start: start, End: p.i}, true
+				}
+			}
+			continue
+		}
+		if p.i < len(src) && src[p.i] == ']' {
+			p.i++
+			p.blank()
+			return es, notation.Span{Start: start, End: p.i}, p.i == len(src)
+		}
+		return nil, reread, false
+	}
+}
+
+// jsonArrayElements returns the spans of the elements of a document
+// that is one array, read from end to end without error (blanks around
+// it); false for any other document.
+func jsonArrayElements(src []byte) ([]notation.Span, bool) {
+	p := &jsonParser{src: src, shallow: true}
+	p.blank()
+	if p.i >= len(src) || src[p.i] != '[' {
+		return nil, false
+	}
+	v := p.value(0)
+	p.blank()
+	if p.bad || p.i != len(src) || v.kind != 'a' {
+		return nil, false
+	}
+	es := make([]notation.Span, len(v.vals))
+	for k := range v.vals {
+		es[k] = v.vals[k].span
+	}
+	return es, true
+}
+
 // blankOrSeparator skips blanks and the record separators (0x1E) of a
 // JSON text sequence.
 func (p *jsonParser) blankOrSeparator() {
@@ -217,9 +391,13 @@ func (p *jsonParser) value(depth int) jsonValue {
 					break
 				}
 				p.i++
-				v.keys = append(v.keys, k)
+				if !p.shallow || depth == 0 {
+					v.keys = append(v.keys, k)
+				}
 			}
-			v.vals = append(v.vals, p.value(depth+1))
+			if e := p.value(depth + 1); !p.shallow || depth == 0 {
+				v.vals = append(v.vals, e)
+			}
 			p.blank()
 			if p.i < len(p.src) && p.src[p.i] == ',' {
 				p.i++

@@ -6,8 +6,9 @@ import (
 )
 
 // FuzzFindEditLines checks the promise the language server's edits rest
-// on: when FindListLines, FindTableLines or FindJSONLines reads the lines of an edit
-// apart, the records it returns are those a whole reading of the new
+// on: when FindListLines, FindTableLines or FindJSONEdit reads the lines
+// of an edit apart (FindJSONEdit may read more lines than the edit
+// changed), the records it returns are those a whole reading of the new
 // text finds there, and every other record of that reading is the old
 // text's, moved by the bytes the edit added; no record reaches over the
 // edited lines. The edit replaces cut bytes at offset at of old by ins;
@@ -34,6 +35,10 @@ func FuzzFindEditLines(f *testing.F) {
 		{"smiles,structure\nCC,CCO\nCO,CCN\nCN,no match\nCF,no match\n", "n a", 27, 3, uint8(KindCSV)},
 		{"{\"smiles\": \"C[C@H](N)O\"}\n{\"smiles\": \"F/C=C/F\"}\n", "{\"smiles\": \"OC[C@@H](F)Cl\"}\n", 26, 0, uint8(KindJSON)},
 		{"[\"C[C@H](N)O\", \"F/C=C/F\"]\n{\"smiles\": \"F/C=C/F\"}\n", "", 20, 9, uint8(KindJSON)},
+		// one array of records over many lines
+		{"[\n {\"smiles\": \"C[C@H](N)O\",\n  \"name\": \"a\"},\n {\"name\": \"b\", \"smiles\": \"F/C=C/F\"}\n]\n", "x", 36, 0, uint8(KindJSON)},
+		{"[\n {\"smiles\": \"C[C@H](N)O\"},\n {\"smiles\": \"F/C=C/F\"},\n {\"smiles\": \"OC[C@@H](F)Cl\"}\n]\n", "\"", 20, 0, uint8(KindJSON)},
+		{"[{\"smiles\": \"C[C@H](N)O\"},\n{\"smiles\": \"F/C=C/F\"}]\n", "},\n{", 13, 0, uint8(KindJSON)},
 	} {
 		f.Add([]byte(s.old), s.at, s.cut, []byte(s.ins), s.which)
 	}
@@ -54,7 +59,14 @@ func FuzzFindEditLines(f *testing.F) {
 		case KindTSV:
 			got, ok = FindTableLines(old, src, '\t', Config{}, from, newTo)
 		case KindJSON:
-			got, ok = FindJSONLines(old, src, Config{}, from, newTo)
+			var next *JSONArray
+			got, from, oldTo, newTo, next, ok = FindJSONEdit(old, src, Config{}, from, oldTo, newTo, nil)
+			if ok && next != nil {
+				// what is kept for the next edit is where the elements lie
+				if es, whole := jsonArrayElements(src); !whole || !reflect.DeepEqual(es, next.elems) {
+					t.Fatalf("elements kept %v, want %v (%t)", next.elems, es, whole)
+				}
+			}
 		default:
 			got, ok = FindListLines(old, src, Config{}, from, newTo)
 		}

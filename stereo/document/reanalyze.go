@@ -20,11 +20,12 @@ import (
 
 // Reanalyze returns what Analyze returns for a new version of a
 // document whose previous result, analysed by an analyzer with the same
-// configuration, is prev (nil for none). For a record list, a table and
-// a JSON Lines document it reads only the lines the change touched and
-// relates again only the records whose constitution the change touched;
-// other documents, and lists with pragmas or whose layout the change
-// alters (find.FindListLines, FindTableLines, FindJSONLines), are
+// configuration, is prev (nil for none). For a record list, a table, a
+// JSON Lines document and a JSON array of records it reads only the
+// lines the change touched (for an array, the whole records on them)
+// and relates again only the records whose constitution the change
+// touched; other documents, and lists with pragmas or whose layout the
+// change alters (find.FindListLines, FindTableLines, FindJSONEdit), are
 // analysed whole.
 func (a *Analyzer) Reanalyze(prev *Result, name, languageID string, content []byte) *Result {
 	if next := a.reanalyzeList(prev, name, languageID, content); next != nil {
@@ -53,13 +54,15 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	cfg := a.cfg
 	var occs []find.Occurrence
 	var ok bool
+	var array *find.JSONArray
 	switch kind {
 	case find.KindCSV:
 		occs, ok = find.FindTableLines(old, content, ',', cfg.findConfig(name), from, newTo)
 	case find.KindTSV:
 		occs, ok = find.FindTableLines(old, content, '\t', cfg.findConfig(name), from, newTo)
 	case find.KindJSON:
-		occs, ok = find.FindJSONLines(old, content, cfg.findConfig(name), from, newTo)
+		// a record of a pretty-printed array is read again whole
+		occs, from, oldTo, newTo, array, ok = find.FindJSONEdit(old, content, cfg.findConfig(name), from, oldTo, newTo, prev.jsonArray)
 	default:
 		occs, ok = find.FindListLines(old, content, cfg.findConfig(name), from, newTo)
 	}
@@ -79,7 +82,7 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	dn := len(occs) - (i1 - i0)
 	n := len(prev.Records) + dn
 
-	next := &Result{Name: name, Content: content, Kind: prev.Kind, cfg: &cfg, related: true}
+	next := &Result{Name: name, Content: content, Kind: prev.Kind, cfg: &cfg, related: true, jsonArray: array}
 	next.Records = make([]Record, n)
 	next.own = make([][]Diagnostic, n)
 	next.ownAt = make([]int, n)

@@ -1,6 +1,7 @@
 package document
 
 import (
+	"encoding/json"
 	"fmt"
 	"math/rand"
 	"reflect"
@@ -588,4 +589,114 @@ func TestReanalyzeJSONLines(t *testing.T) {
 			t.Errorf("%s: only %d of 40 edits were analysed apart", doc.name, incremental)
 		}
 	}
+}
+
+// TestReanalyzeJSONArray checks that an edit of a document that is one
+// array of records over many lines gives the findings a fresh analysis
+// gives, in four layouts: an object a line, objects pretty-printed over
+// several lines with the name after the structure (so an edit of the
+// name changes the title of a record on another line), records with
+// nested arrays, and the whole array on one line. Edits add, remove and
+// change records, break the syntax (read whole until mended), and put
+// random JSON punctuation anywhere. Records invented for the test.
+func TestReanalyzeJSONArray(t *testing.T) {
+	layouts := []struct {
+		name string
+		elem func(rec string, i int) string
+		sep  string
+		// apart: the least number of the 60 edits read apart
+		apart int
+	}{
+		{"a line each", func(rec string, i int) string {
+			f := strings.SplitN(rec, "\t", 2)
+			return fmt.Sprintf(`  {"id": %d, "smiles": %q, "name": %q}`, i, f[0], f[1])
+		}, ",\n", 25},
+		{"pretty-printed", func(rec string, i int) string {
+			f := strings.SplitN(rec, "\t", 2)
+			return fmt.Sprintf("  {\n    \"smiles\": %q,\n    \"id\": %d,\n    \"name\": %q\n  }", f[0], i, f[1])
+		}, ",\n", 25},
+		{"nested", func(rec string, i int) string {
+			f := strings.SplitN(rec, "\t", 2)
+			return fmt.Sprintf("  {\"title\": %q,\n   \"steps\": [{\"smiles\": %q}, {\"smiles\": %q}]}", f[1], f[0], strings.ReplaceAll(f[0], "@", ""))
+		}, ",\n", 25},
+		{"one line", func(rec string, i int) string {
+			f := strings.SplitN(rec, "\t", 2)
+			return fmt.Sprintf(`{"smiles": %q, "name": %q}`, f[0], f[1])
+		}, ", ", 0},
+	}
+	a := NewAnalyzer(DefaultConfig())
+	rng := rand.New(rand.NewSource(20261204))
+	for _, lay := range layouts {
+		var elems []string
+		for i, r := range editList(rng, 200) {
+			elems = append(elems, lay.elem(r, i))
+		}
+		join := func(es []string) string { return "[\n" + strings.Join(es, lay.sep) + "\n]\n" }
+		const file = "t.json"
+		text := join(elems)
+		prev := a.Analyze(file, "", []byte(text))
+		if len(prev.Records) < 180 {
+			t.Fatalf("%s: %d records in 200 elements", lay.name, len(prev.Records))
+		}
+		apart := 0
+		for step := 0; step < 60; step++ {
+			next := text
+			var what string
+			i := rng.Intn(len(elems))
+			switch k := rng.Intn(10); {
+			case k < 2:
+				elems[i] = toggleRowMark(elems[i])
+				next, what = join(elems), fmt.Sprintf("a mark of record %d", i)
+			case k < 3:
+				elems[i] = strings.Replace(elems[i], `-`, `_`, 1)
+				next, what = join(elems), fmt.Sprintf("the name of record %d", i)
+			case k < 5:
+				elems = append(elems[:i:i], append([]string{lay.elem(editRecord(rng, 40000+i), 40000+i)}, elems[i:]...)...)
+				next, what = join(elems), fmt.Sprintf("a record inserted before record %d", i)
+			case k < 6:
+				elems = append(elems[:i:i], elems[i+1:]...)
+				next, what = join(elems), fmt.Sprintf("record %d deleted", i)
+			case k < 7:
+				// a brace deleted, as by typing, and put back at the next step
+				broken := append([]string(nil), elems...)
+				broken[i] = strings.Replace(broken[i], "}", "", 1)
+				next, what = join(broken), fmt.Sprintf("record %d broken", i)
+			default:
+				// JSON punctuation anywhere
+				at := rng.Intn(len(text) + 1)
+				ins := string("{}[]\",: \n"[rng.Intn(9)])
+				next, what = text[:at]+ins+text[at:], fmt.Sprintf("%q put at %d", ins, at)
+			}
+			got := a.reanalyzeList(prev, file, "", []byte(next))
+			if got != nil && next != text {
+				apart++
+			} else if got == nil {
+				got = a.Analyze(file, "", []byte(next))
+			}
+			compareResults(t, fmt.Sprintf("%s, step %d (%s)", lay.name, step, what), got, a.Analyze(file, "", []byte(next)))
+			if t.Failed() {
+				return
+			}
+			if k := strings.Count(next, "{"); k != strings.Count(next, "}") || strings.Count(next, "[") != strings.Count(next, "]") || strings.Count(next, `"`)%2 != 0 {
+				// mended for the next step
+				next = join(elems)
+				got = a.Analyze(file, "", []byte(next))
+			} else if _, ok := jsonReads(next); !ok {
+				next = join(elems)
+				got = a.Analyze(file, "", []byte(next))
+			}
+			text, prev = next, got
+		}
+		if apart < lay.apart {
+			t.Errorf("%s: %d of 60 edits read apart, want at least %d", lay.name, apart, lay.apart)
+		}
+	}
+}
+
+// jsonReads reports whether s is JSON (encoding/json), for a test to put
+// a document back once an edit spoilt it.
+func jsonReads(s string) (any, bool) {
+	var v any
+	err := json.Unmarshal([]byte(s), &v)
+	return v, err == nil
 }

@@ -75,7 +75,7 @@ func main() {
 	c.notify("initialized", map[string]any{})
 
 	uri := "file:///scale/" + baseName(*list)
-	doc := newDocument(string(text), languageID(*list) == "jsonl")
+	doc := newDocument(string(text), languageID(*list) == "jsonl" || languageID(*list) == "json")
 	fmt.Printf("list: %s, %d lines, %d bytes\n", *list, len(doc.lines), len(text))
 
 	// The message is encoded before the clock starts: the 6 MB of JSON
@@ -553,6 +553,8 @@ func languageID(p string) string {
 		return "tsv"
 	case strings.HasSuffix(p, ".jsonl"):
 		return "jsonl"
+	case strings.HasSuffix(p, ".json"):
+		return "json"
 	}
 	return "smiles"
 }

@@ -27,10 +27,11 @@ type jsonParser struct {
 	src []byte
 	i   int
 	bad bool
-	// shallow keeps the members and elements of the outermost value
+	// shallow keeps the members and elements of the values at depth top
 	// only (without theirs): a reading of a document's structure that
-	// allocates nothing per record (jsonArrayElements)
+	// allocates nothing per record (jsonRecordArray)
 	shallow bool
+	top     int
 }
 
 func parseJSON(src []byte) jsonValue {
@@ -163,10 +164,24 @@ func FindJSONLines(old, src []byte, cfg Config, from, to int) (occs []Occurrence
 	return jf.out, true
 }
 
-// JSONArray is what FindJSONEdit keeps of a document that is one array
-// for the edit after: where its elements lie.
+// JSONArray is what FindJSONEdit keeps of a document that is an array
+// of records for the edit after: where its elements lie, and what the
+// document says around them.
 type JSONArray struct {
 	elems []notation.Span
+	close int // where the array's closing bracket is
+	ctx   jsonContext
+}
+
+// jsonContext is what the elements of an array of records are read
+// with (jsonFinder.walk): the whole document, or a member of a document
+// that is one object, {"compounds": [...]}.
+type jsonContext struct {
+	member bool   // the array is a member of an object
+	w      wants  // what the member's key names
+	other  bool   // the key names something about notation
+	title  string // the object's title
+	key    string
 }
 
 // FindJSONEdit returns the notation on the lines of the JSON document
@@ -180,11 +195,13 @@ type JSONArray struct {
 // ok is false when the lines cannot be read apart and the caller must
 // read the whole document.
 //
-// Two layouts are read apart: JSON Lines (FindJSONLines), and one
-// array of values (records) across many lines, which src must read
-// without error from end to end. For such an array, arr is what the
-// call for old returned (nil: old is read), and next is kept for the
-// edit after this one.
+// Two layouts are read apart: JSON Lines (FindJSONLines), and an array
+// of records (values) across many lines, either the whole document or
+// the longest array member of a document that is one object. src must
+// read without error from end to end, and the edit must change only the
+// array's elements and leave them in place outside the lines read. arr
+// is what the call for old returned (nil: old is read), and next is kept
+// for the edit after this one.
 func FindJSONEdit(old, src []byte, cfg Config, from, oldTo, newTo int, arr *JSONArray) (occs []Occurrence, from2, oldTo2, newTo2 int, next *JSONArray, ok bool) {
 	if from < 0 || newTo > len(src) || from > newTo || oldTo > len(old) || from > oldTo || newTo-oldTo != len(src)-len(old) {
 		return nil, 0, 0, 0, nil, false
@@ -193,18 +210,25 @@ func FindJSONEdit(old, src []byte, cfg Config, from, oldTo, newTo int, arr *JSON
 		occs, ok = FindJSONLines(old, src, cfg, from, newTo)
 		return occs, from, oldTo, newTo, nil, ok
 	}
-	var oes []notation.Span
-	if arr != nil {
-		oes = arr.elems
-	} else if oes, ok = jsonArrayElements(old); !ok {
-		return nil, 0, 0, 0, nil, false
+	if arr == nil {
+		if arr, ok = jsonRecordArray(old, &cfg); !ok {
+			return nil, 0, 0, 0, nil, false
+		}
 	}
-	es, reread, ok := editedElements(oes, src, from, newTo, len(src)-len(old))
+	next, ok = editedElements(arr, src, from, newTo, len(src)-len(old))
 	if !ok {
-		return nil, 0, 0, 0, nil, false
+		// the edit is not inside the elements: the array is found again,
+		// and must be read as it was
+		if arr.ctx.member {
+			return nil, 0, 0, 0, nil, false
+		}
+		if next, ok = jsonRecordArray(src, &cfg); !ok || next.ctx != arr.ctx {
+			return nil, 0, 0, 0, nil, false
+		}
 	}
-	// Widen the lines to the elements read again and to whole elements,
-	// and to whole lines again, until no element lies across either end.
+	es, oes := next.elems, arr.elems
+	// Widen the lines to whole elements, and to whole lines again, until
+	// no element lies across either end.
 	lineStart := func(off int) int { return bytes.LastIndexByte(src[:off], '\n') + 1 }
 	lineAfter := func(off int) int {
 		if k := bytes.IndexByte(src[off:], '\n'); k >= 0 {
@@ -213,14 +237,11 @@ func FindJSONEdit(old, src []byte, cfg Config, from, oldTo, newTo int, arr *JSON
 		return len(src)
 	}
 	from2, newTo2 = from, newTo
-	if reread.Len() > 0 {
-		from2 = min(from2, lineStart(reread.Start))
-		newTo2 = max(newTo2, lineAfter(reread.End-1))
-	}
+	var k0, k1 int
 	for {
 		// elements k0..k1-1 overlap [from2, newTo2)
-		k0 := sort.Search(len(es), func(k int) bool { return es[k].End > from2 })
-		k1 := sort.Search(len(es), func(k int) bool { return es[k].Start >= newTo2 })
+		k0 = sort.Search(len(es), func(k int) bool { return es[k].End > from2 })
+		k1 = sort.Search(len(es), func(k int) bool { return es[k].Start >= newTo2 })
 		f, t := from2, newTo2
 		if k0 < k1 {
 			f = min(f, lineStart(es[k0].Start))
@@ -229,15 +250,27 @@ func FindJSONEdit(old, src []byte, cfg Config, from, oldTo, newTo int, arr *JSON
 			}
 		}
 		if f == from2 && t == newTo2 {
-			jf := &jsonFinder{src: src, cfg: &cfg, nm: newNamer(&cfg)}
-			for k := k0; k < k1; k++ {
-				p := &jsonParser{src: src[:es[k].End], i: es[k].Start}
-				jf.walk(p.value(1), wants{}, false)
-			}
-			occs = jf.out
 			break
 		}
 		from2, newTo2 = f, t
+	}
+	// Between the elements on those lines there is nothing to find: only
+	// blanks, commas and the array's brackets.
+	for at, k := from2, k0; at < newTo2; {
+		end := newTo2
+		if k < k1 {
+			end = es[k].Start
+		}
+		for _, c := range src[at:end] {
+			if !strings.ContainsRune(" \t\r\n,[]", rune(c)) {
+				return nil, 0, 0, 0, nil, false
+			}
+		}
+		if k == k1 {
+			break
+		}
+		at = es[k].End
+		k++
 	}
 	oldTo2 = newTo2 - (len(src) - len(old))
 	// In old, the same elements lie before from2 and after oldTo2 (the
@@ -255,16 +288,27 @@ func FindJSONEdit(old, src []byte, cfg Config, from, oldTo, newTo int, arr *JSON
 	if across(oes, from2) || across(oes, oldTo2) || after(oes, oldTo2) != after(es, newTo2) || before(oes, from2) != before(es, from2) {
 		return nil, 0, 0, 0, nil, false
 	}
-	return occs, from2, oldTo2, newTo2, &JSONArray{elems: es}, true
+	ctx := next.ctx
+	depth := 1
+	if ctx.member {
+		depth = 2
+	}
+	jf := &jsonFinder{src: src, cfg: &cfg, nm: newNamer(&cfg), title: ctx.title, key: ctx.key}
+	for k := k0; k < k1; k++ {
+		p := &jsonParser{src: src[:es[k].End], i: es[k].Start}
+		jf.walk(p.value(depth), ctx.w, ctx.other)
+	}
+	return jf.out, from2, oldTo2, newTo2, next, true
 }
 
-// editedElements returns the spans of the elements of src, an edit of a
-// document that is one array whose elements were oes, and the part of
-// src read again: from an element before the edit (its text and place
-// are old's) to the first element boundary after the edit that is one
-// in old too, from where the texts are the same again. False when src
-// is not one array that reads without error.
-func editedElements(oes []notation.Span, src []byte, from, newTo, delta int) (es []notation.Span, reread notation.Span, ok bool) {
+// editedElements returns the array of records of src, an edit of a
+// document whose array was arr, reading only from an element before the
+// edit (its text and place are old's) to the first element boundary
+// after the edit that is one in old too, from where the texts are the
+// same again. False when the edit is not inside the elements, or when
+// they do not read without error.
+func editedElements(arr *JSONArray, src []byte, from, newTo, delta int) (*JSONArray, bool) {
+	oes := arr.elems
 	// the first element that ends after the edit begins, or the one
 	// before it when the edit begins before it; the state before it is
 	// old's: an element is expected
@@ -273,16 +317,18 @@ func editedElements(oes []notation.Span, src []byte, from, newTo, delta int) (es
 		k--
 	}
 	if k < 0 {
-		es, ok = jsonArrayElements(src)
-		return es, notation.Span{Start: 0, End: len(src)}, ok
+		return nil, false
 	}
-	start := oes[k].Start
-	p := &jsonParser{src: src, i: start, shallow: true}
-	es = append(make([]notation.Span, 0, len(oes)+8), oes[:k]...)
+	depth := 1
+	if arr.ctx.member {
+		depth = 2
+	}
+	p := &jsonParser{src: src, i: oes[k].Start, shallow: true, top: -1}
+	es := append(make([]notation.Span, 0, len(oes)+8), oes[:k]...)
 	for {
-		v := p.value(1)
+		v := p.value(depth)
 		if p.bad {
-			return nil, reread, false
+			return nil, false
 		}
 		es = append(es, v.span)
 		p.blank()
@@ -297,39 +343,65 @@ func editedElements(oes []notation.Span, src []byte, from, newTo, delta int) (es
 					for _, e := range oes[j:] {
 						es = append(es, notation.Span{Start: e.Start + delta, End: e.End + delta})
 					}
-					return es, notation.Span{Start: start, End: p.i}, true
+					return &JSONArray{elems: es, close: arr.close + delta, ctx: arr.ctx}, true
 				}
 			}
 			continue
 		}
-		if p.i < len(src) && src[p.i] == ']' {
-			p.i++
-			p.blank()
-			return es, notation.Span{Start: start, End: p.i}, p.i == len(src)
+		// the array ends where it ended, past the edit
+		if p.i < len(src) && src[p.i] == ']' && p.i >= newTo && p.i-delta == arr.close {
+			return &JSONArray{elems: es, close: p.i, ctx: arr.ctx}, true
 		}
-		return nil, reread, false
+		return nil, false
 	}
 }
 
-// jsonArrayElements returns the spans of the elements of a document
-// that is one array, read from end to end without error (blanks around
-// it); false for any other document.
-func jsonArrayElements(src []byte) ([]notation.Span, bool) {
+// jsonRecordArray finds the array of records of a document that reads
+// without error from end to end (blanks around it): the document when
+// it is one array, or the member of a document that is one object whose
+// value is the longest array; false for any other document.
+func jsonRecordArray(src []byte, cfg *Config) (*JSONArray, bool) {
 	p := &jsonParser{src: src, shallow: true}
 	p.blank()
-	if p.i >= len(src) || src[p.i] != '[' {
+	if p.i >= len(src) || src[p.i] != '[' && src[p.i] != '{' {
 		return nil, false
 	}
 	v := p.value(0)
 	p.blank()
-	if p.bad || p.i != len(src) || v.kind != 'a' {
+	if p.bad || p.i != len(src) {
 		return nil, false
 	}
-	es := make([]notation.Span, len(v.vals))
-	for k := range v.vals {
-		es[k] = v.vals[k].span
+	arr := &JSONArray{}
+	if v.kind == 'o' {
+		best := -1
+		for k := range v.vals {
+			if e := v.vals[k]; e.kind == 'a' && (best < 0 || e.span.Len() > v.vals[best].span.Len()) {
+				best = k
+			}
+		}
+		if best < 0 {
+			return nil, false
+		}
+		jf := &jsonFinder{src: src, cfg: cfg, nm: newNamer(cfg)}
+		key := jf.keyText(v.keys[best])
+		kw, about := jf.nm.classify(key)
+		if !kw.named() && !aboutKey(key) {
+			kw = wants{}
+		}
+		arr.ctx = jsonContext{member: true, w: kw, other: about, title: jf.objectTitle(v), key: key}
+		span := v.vals[best].span
+		p = &jsonParser{src: src[:span.End], i: span.Start, shallow: true, top: 1}
+		v = p.value(1)
+		if p.bad {
+			return nil, false
+		}
 	}
-	return es, true
+	arr.close = v.span.End - 1
+	arr.elems = make([]notation.Span, len(v.vals))
+	for k := range v.vals {
+		arr.elems[k] = v.vals[k].span
+	}
+	return arr, true
 }
 
 // blankOrSeparator skips blanks and the record separators (0x1E) of a
@@ -391,11 +463,11 @@ func (p *jsonParser) value(depth int) jsonValue {
 					break
 				}
 				p.i++
-				if !p.shallow || depth == 0 {
+				if !p.shallow || depth == p.top {
 					v.keys = append(v.keys, k)
 				}
 			}
-			if e := p.value(depth + 1); !p.shallow || depth == 0 {
+			if e := p.value(depth + 1); !p.shallow || depth == p.top {
 				v.vals = append(v.vals, e)
 			}
 			p.blank()

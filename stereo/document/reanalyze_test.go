@@ -591,12 +591,14 @@ func TestReanalyzeJSONLines(t *testing.T) {
 	}
 }
 
-// TestReanalyzeJSONArray checks that an edit of a document that is one
+// TestReanalyzeJSONArray checks that an edit of a document that is an
 // array of records over many lines gives the findings a fresh analysis
-// gives, in four layouts: an object a line, objects pretty-printed over
+// gives, in six layouts: an object a line, objects pretty-printed over
 // several lines with the name after the structure (so an edit of the
 // name changes the title of a record on another line), records with
-// nested arrays, and the whole array on one line. Edits add, remove and
+// nested arrays, the whole array on one line, and the array as a member
+// of an object that titles it and holds a record of its own (objects,
+// and plain strings under the member's key). Edits add, remove and
 // change records, break the syntax (read whole until mended), and put
 // random JSON punctuation anywhere. Records invented for the test.
 func TestReanalyzeJSONArray(t *testing.T) {
@@ -606,23 +608,34 @@ func TestReanalyzeJSONArray(t *testing.T) {
 		sep  string
 		// apart: the least number of the 60 edits read apart
 		apart int
+		// member: the array is a member of an object with a title and a
+		// record of its own
+		member bool
 	}{
 		{"a line each", func(rec string, i int) string {
 			f := strings.SplitN(rec, "\t", 2)
 			return fmt.Sprintf(`  {"id": %d, "smiles": %q, "name": %q}`, i, f[0], f[1])
-		}, ",\n", 25},
+		}, ",\n", 25, false},
 		{"pretty-printed", func(rec string, i int) string {
 			f := strings.SplitN(rec, "\t", 2)
 			return fmt.Sprintf("  {\n    \"smiles\": %q,\n    \"id\": %d,\n    \"name\": %q\n  }", f[0], i, f[1])
-		}, ",\n", 25},
+		}, ",\n", 25, false},
 		{"nested", func(rec string, i int) string {
 			f := strings.SplitN(rec, "\t", 2)
 			return fmt.Sprintf("  {\"title\": %q,\n   \"steps\": [{\"smiles\": %q}, {\"smiles\": %q}]}", f[1], f[0], strings.ReplaceAll(f[0], "@", ""))
-		}, ",\n", 25},
+		}, ",\n", 25, false},
 		{"one line", func(rec string, i int) string {
 			f := strings.SplitN(rec, "\t", 2)
 			return fmt.Sprintf(`{"smiles": %q, "name": %q}`, f[0], f[1])
-		}, ", ", 0},
+		}, ", ", 0, false},
+		{"member", func(rec string, i int) string {
+			f := strings.SplitN(rec, "\t", 2)
+			return fmt.Sprintf("    {\n      \"smiles\": %q,\n      \"id\": %d\n    }", f[0], i)
+		}, ",\n", 25, true},
+		{"member with records unnamed", func(rec string, i int) string {
+			f := strings.SplitN(rec, "\t", 2)
+			return fmt.Sprintf("    %q", f[0])
+		}, ",\n", 25, true},
 	}
 	a := NewAnalyzer(DefaultConfig())
 	rng := rand.New(rand.NewSource(20261204))
@@ -632,6 +645,12 @@ func TestReanalyzeJSONArray(t *testing.T) {
 			elems = append(elems, lay.elem(r, i))
 		}
 		join := func(es []string) string { return "[\n" + strings.Join(es, lay.sep) + "\n]\n" }
+		if lay.member {
+			join = func(es []string) string {
+				return "{\n  \"name\": \"set A\",\n  \"smiles\": [\n" + strings.Join(es, lay.sep) +
+					"\n  ],\n  \"reference\": {\"smiles\": \"CC[C@H](O)C\"}\n}\n"
+			}
+		}
 		const file = "t.json"
 		text := join(elems)
 		prev := a.Analyze(file, "", []byte(text))

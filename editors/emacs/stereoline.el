@@ -6,12 +6,13 @@
 ;;; Commentary:
 
 ;; Registers `stereoline serve' with eglot for SMILES list files (a
-;; `smiles-mode' defined here for .smi, .smiles and .rsmi) and, if you
-;; ask for it, for Python, CSV and Markdown buffers.
+;; `smiles-mode' defined here for .smi, .smiles and .rsmi), JSON Lines
+;; datasets (a `jsonl-mode' for .jsonl and .ndjson) and, if you ask for
+;; it, for Python, CSV and Markdown buffers.
 ;;
 ;;   (add-to-list 'load-path "/path/to/stereoline/editors/emacs")
 ;;   (require 'stereoline)
-;;   (setq stereoline-modes '(smiles-mode python-mode))
+;;   (setq stereoline-modes '(smiles-mode jsonl-mode python-mode))
 ;;   (stereoline-setup)
 ;;   (add-hook 'smiles-mode-hook #'eglot-ensure)
 ;;
@@ -22,6 +23,7 @@
 ;;; Code:
 
 (require 'eglot)
+(require 'js)
 
 (defgroup stereoline nil
   "Stereo marks of SMILES checked by the stereoline language server."
@@ -32,9 +34,9 @@
   "The stereoline program; it is started as PROGRAM serve."
   :type 'string)
 
-(defcustom stereoline-modes '(smiles-mode)
+(defcustom stereoline-modes '(smiles-mode jsonl-mode)
   "Major modes whose buffers eglot hands to stereoline.
-For example (smiles-mode python-mode csv-mode markdown-mode)."
+For example (smiles-mode jsonl-mode python-mode csv-mode markdown-mode)."
   :type '(repeat symbol))
 
 (defcustom stereoline-settings '(:inlayHints t)
@@ -71,6 +73,18 @@ initializationOptions and as the answer to workspace/configuration."
 
 ;;;###autoload
 (add-to-list 'auto-mode-alist '("\\.\\(?:smi\\|smiles\\|rsmi\\)\\'" . smiles-mode))
+
+;;; JSON Lines datasets
+
+;; One JSON value a line (.jsonl, .ndjson).  Emacs has no mode for them;
+;; this one reads them as JavaScript does and gives eglot the language id
+;; "jsonl".  Left alone when another package defines it.
+(unless (fboundp 'jsonl-mode)
+  (define-derived-mode jsonl-mode js-mode "JSONL"
+    "Major mode for JSON Lines datasets: one JSON value a line."))
+
+;;;###autoload
+(add-to-list 'auto-mode-alist '("\\.\\(?:jsonl\\|ndjson\\)\\'" . jsonl-mode))
 
 ;;; eglot
 

@@ -78,7 +78,7 @@ neovim() {
   need nvim "apt-get install neovim" || return 1
   nvim --version | head -1
   local work="$tmp/neovim"
-  mkdir -p "$work" && cp "$here"/fixtures/sample.py "$here"/fixtures/sample.smi "$work"/
+  mkdir -p "$work" && cp "$here"/fixtures/sample.py "$here"/fixtures/sample.smi "$here"/fixtures/sample.jsonl "$work"/
   STEREOLINE_WORK="$work" nvim --headless -u NONE -i NONE -n \
     --cmd "set rtp^=$root/editors/neovim" -c "luafile $here/neovim/test.lua" </dev/null
 }
@@ -87,7 +87,7 @@ emacs_eglot() {
   need emacs "apt-get install emacs-nox elpa-eglot" || return 1
   emacs --version | head -1
   local work="$tmp/emacs"
-  mkdir -p "$work" && cp "$here"/fixtures/sample.py "$here"/fixtures/sample.smi "$work"/
+  mkdir -p "$work" && cp "$here"/fixtures/sample.py "$here"/fixtures/sample.smi "$here"/fixtures/sample.jsonl "$work"/
   STEREOLINE_WORK="$work" STEREOLINE_EMACS="$root/editors/emacs" \
     emacs --batch -l "$here/emacs/test.el" </dev/null 2> >(grep -v '^Loading /etc/emacs' >&2)
 }
@@ -127,7 +127,7 @@ PY
 
 helix() {
   # Helix is not packaged for this system: check the fragment parses as
-  # TOML and starts `stereoline serve` for the smiles language.
+  # TOML and starts `stereoline serve` for the smiles and jsonl languages.
   python3 - "$root/editors/helix/languages.toml" <<'PY'
 import sys, tomllib
 c = tomllib.load(open(sys.argv[1], "rb"))
@@ -137,7 +137,10 @@ assert "stereoline" in ls["config"], "settings must sit under the stereoline sec
 smiles = [l for l in c["language"] if l["name"] == "smiles"][0]
 assert set(smiles["file-types"]) == {"smi", "smiles", "rsmi"}, smiles
 assert "stereoline" in smiles["language-servers"], smiles
-print("languages.toml parses; smiles files go to stereoline serve")
+jsonl = [l for l in c["language"] if l["name"] == "jsonl"][0]
+assert set(jsonl["file-types"]) == {"jsonl", "ndjson"} and jsonl["language-id"] == "jsonl", jsonl
+assert "stereoline" in jsonl["language-servers"], jsonl
+print("languages.toml parses; smiles and JSON Lines files go to stereoline serve")
 PY
 }
 

@@ -3,9 +3,10 @@
 ;; Run: emacs --batch -l editors/tests/emacs/test.el
 ;; with STEREOLINE_BIN (the server binary), STEREOLINE_WORK (a scratch
 ;; copy of the fixtures) and STEREOLINE_EMACS (editors/emacs).  Opens the
-;; Python fixture and the .smi list through the set-up in editors/emacs,
-;; waits for the pushed diagnostics, checks their codes and lines and the
-;; hover text, then shuts the server down and checks its exit status.
+;; Python fixture, the .smi list and the JSON Lines dataset through the
+;; set-up in editors/emacs, waits for the pushed diagnostics, checks
+;; their codes and lines and the hover text, then shuts the server down
+;; and checks its exit status.
 ;; Each check prints "ok" or "not ok"; the exit status is the number of
 ;; failed checks.
 
@@ -68,7 +69,7 @@
     (cl-pushnew (eglot-current-server) st-servers)))
 
 (setq stereoline-program (getenv "STEREOLINE_BIN")
-      stereoline-modes '(smiles-mode python-mode)
+      stereoline-modes '(smiles-mode jsonl-mode python-mode)
       stereoline-settings '(:inlayHints t)
       eglot-sync-connect t
       eglot-autoshutdown nil)
@@ -126,6 +127,18 @@
 ;; (IUPAC 2013 P-93).
 (let ((h (st-hover-at "=C/F")))
   (st-check (string-search "(E)" h) "hover on the difluoroethene double bond says (E)" h))
+
+;; JSON Lines dataset
+(princ "json lines file\n")
+(st-open "sample.jsonl")
+(st-check (eq major-mode 'jsonl-mode) "sample.jsonl is in jsonl-mode" major-mode)
+(st-check eglot--managed-mode "eglot manages the JSON Lines buffer")
+(st-wait (lambda () (assoc "list-enantiomer" (st-diagnostics))) 10)
+;; The two records are (R)- and (S)-lactic acid: mirror images (IUPAC
+;; 2013 P-93), one line each.
+(let ((diags (st-diagnostics)))
+  (st-check (member '("list-enantiomer" . 2) diags)
+            "diagnostic list-enantiomer on line 2" diags))
 
 ;; Shutdown: shutdown then exit must end each process with status 0
 ;; (LSP 3.17, "exit").  Done by hand: eglot-shutdown deletes the process

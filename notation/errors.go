@@ -36,6 +36,10 @@ const (
 	// a branch, outside the OpenSMILES grammar (branched_atom ::= atom
 	// ringbond* branch*) but accepted by widely used readers.
 	CodeRingAfterBranch Code = "ring-after-branch"
+	// CodeBranchWithoutAtom is a warning: a branch that holds ring-closure
+	// digits but no atom, "C(1)CC1", outside the OpenSMILES grammar
+	// (branch ::= '(' chain ')'); readers part on it.
+	CodeBranchWithoutAtom Code = "branch-without-atom"
 )
 
 // Severity orders diagnostics from most to least urgent. The zero value is

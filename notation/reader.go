@@ -264,8 +264,9 @@ func (r *reader) bondList() []int {
 
 // branch is an open '(' with the atom it hangs from.
 type branch struct {
-	atom int
-	pos  int
+	atom  int
+	pos   int
+	atoms int // the atoms read before it opened
 }
 
 // openRing is a ring-closure digit waiting for its partner.
@@ -528,7 +529,7 @@ func (r *reader) openBranch() {
 		r.errorf(Span{r.bondPos, r.bondPos + 1}, CodeSyntax, "expected an atom after bond '%c', found '('", r.bond)
 		r.bond = 0
 	}
-	r.stack = append(r.stack, branch{atom: r.prev, pos: start})
+	r.stack = append(r.stack, branch{atom: r.prev, pos: start, atoms: len(r.mol.Atoms)})
 	if r.pos < len(r.text) && r.text[r.pos] == ')' {
 		r.errorf(Span{start, r.pos + 1}, CodeSyntax, "expected an atom or bond after '(', found ')'")
 	}
@@ -545,6 +546,14 @@ func (r *reader) closeBranch() {
 	}
 	top := r.stack[len(r.stack)-1]
 	r.stack = r.stack[:len(r.stack)-1]
+	if len(r.mol.Atoms) == top.atoms && span.Start > top.pos+1 {
+		// "C(1)CC1": OpenSMILES wants a chain in a branch; readers part
+		// here (RDKit 2022.09.3 rejects it, Open Babel 3.1.1 bonds the
+		// digits to the atom before the branch, as this reader does).
+		// An empty "()" was reported where it opened.
+		e := r.errorf(Span{top.pos, span.End}, CodeBranchWithoutAtom, "expected an atom in the branch, found only the ring closure %s (outside the OpenSMILES grammar; some readers reject it, others read it as a ring bond of the atom before the branch, as here)", r.text[top.pos+1:span.Start])
+		e.Severity = SeverityWarning
+	}
 	r.prev = top.atom
 	r.afterBranch = true
 }

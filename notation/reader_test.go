@@ -461,3 +461,57 @@ func TestCountAtoms(t *testing.T) {
 		}
 	}
 }
+
+// TestBranchWithoutAtom checks the warning on a branch of ring-closure
+// digits alone. OpenSMILES (grammar: branch ::= '(' chain ')' |
+// '(' bond chain ')' | '(' dot chain ')') wants a chain in a branch;
+// RDKit 2022.09.3 (Debian python3-rdkit) rejects "C(1)CC1", Open Babel
+// 3.1.1 reads "C(2)**2" as "C1**1" (both run on this machine). The
+// reading here is Open Babel's: the digit bonds the atom before the
+// branch, so "C(1)CC1" is cyclopropane, three atoms in one ring. A
+// branch with an atom, and an empty "()", which is an error, give no
+// such warning.
+func TestBranchWithoutAtom(t *testing.T) {
+	for _, c := range []struct {
+		text            string
+		warnings        int
+		atoms, ringBond int
+	}{
+		{"C(1)CC1", 1, 3, 1},
+		{"C(=1)CC=1", 1, 3, 1},
+		{"C(1)(2)CC1C2", 2, 4, 2},
+		{"C(2)**2", 1, 3, 1},
+		{"C1CC1", 0, 3, 1},
+		{"C(C1)C1", 0, 3, 1},
+	} {
+		m := Read(c.text)
+		warnings := 0
+		for _, e := range m.Errors {
+			switch {
+			case e.Code == CodeBranchWithoutAtom && e.Severity == SeverityWarning:
+				warnings++
+			case e.Severity == SeverityError:
+				t.Errorf("%s: error %v", c.text, e)
+			}
+		}
+		rings := 0
+		for i := range m.Bonds {
+			if m.Bonds[i].Ring {
+				rings++
+			}
+		}
+		if warnings != c.warnings || len(m.Atoms) != c.atoms || rings != c.ringBond {
+			t.Errorf("%s: %d branch-without-atom warnings, %d atoms, %d ring bonds; want %d, %d, %d",
+				c.text, warnings, len(m.Atoms), rings, c.warnings, c.atoms, c.ringBond)
+		}
+	}
+	m := Read("C()C")
+	for _, e := range m.Errors {
+		if e.Code == CodeBranchWithoutAtom {
+			t.Errorf("C()C: %v besides the error of the empty branch", e)
+		}
+	}
+	if !m.Errors.HasErrors() {
+		t.Errorf("C()C: no error for the empty branch")
+	}
+}

@@ -199,6 +199,13 @@ var codeCatalogue = []codeDoc{
 		Help:    "Move the digit before the branch: c12ccccc1NC=CC2=O instead of c12ccccc1NC=CC(=O)2. Where a stereo mark sits on that atom, moving the digit changes the neighbour order, so rewrite the mark too, or let a writer produce the record.",
 		Example: codeExample{File: "example.smi", Text: "c12ccccc1NC=CC(=O)2\n"},
 	},
+	{
+		Code: notation.CodeBranchWithoutAtom, Origin: originReader,
+		Short:   "A branch that holds ring-closure digits but no atom (a warning).",
+		Full:    "In OpenSMILES a branch holds a chain of atoms (branch ::= '(' chain ')'); a branch of ring-closure digits alone, as in C(1)CC1, is outside the grammar, and readers part on it: some reject the record, others bond the digits to the atom before the branch. Stereoline reads it the second way and warns, since another reader may not read the record at all. A string that nobody names and that holds such a branch is not taken for notation.",
+		Help:    "Write the digits right after the atom: C1CC1 instead of C(1)CC1. Where the atom carries a stereo mark, the digit's place sets the neighbour order, so check the mark, or let a writer produce the record.",
+		Example: codeExample{File: "example.smi", Text: "C(1)CC1\n"},
+	},
 	// The stereo engine (stereo/codes.go).
 	{
 		Code: stereo.CodeIneffectiveCenter, Origin: originStereo,

@@ -105,10 +105,36 @@ func unmistakable(s string) bool {
 		return false
 	}
 	m := notation.ReadIfReads(s) // most words fail early, before the costly part of a reading
-	if m == nil {
+	if m == nil || outsideGrammar(m) || wildcardsOnly(m) {
 		return false
 	}
 	return hasEvidence(m)
+}
+
+// wildcardsOnly reports whether every atom is a wildcard: such a text
+// says no chemistry of its own, and an unnamed one is far more often a
+// pattern of another language ("[*-]" is a regular expression's class).
+func wildcardsOnly(m *notation.Molecule) bool {
+	for i := range m.Atoms {
+		if m.Atoms[i].Number != 0 {
+			return false
+		}
+	}
+	return true
+}
+
+// outsideGrammar reports whether a reading warned of a branch without an
+// atom, which some readers accept and others reject: a text nobody names
+// that holds one is no record ("C(2)**2" in a docstring is arithmetic).
+// A digit after a branch (ring-after-branch) is common in real data and
+// read alike by widely used readers, so it does not count here.
+func outsideGrammar(m *notation.Molecule) bool {
+	for _, e := range m.Errors {
+		if e.Code == notation.CodeBranchWithoutAtom {
+			return true
+		}
+	}
+	return false
 }
 
 // hasEvidence reports whether a molecule carries a stereo mark, ring or

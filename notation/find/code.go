@@ -163,6 +163,11 @@ type pendingLiteral struct {
 	m        offsetMap
 	from, to int
 	mark     groupMark
+	// word: a word under a loose name that reads as notation in this
+	// dialect ("CN" in patterns = ["C=O", "CN"]), taken when another
+	// literal of its group is
+	word    bool
+	dialect Dialect
 }
 
 // groupMark ties an occurrence to the literals it must agree with.
@@ -430,14 +435,17 @@ func group(f *frame) groupKey {
 // are query patterns too (and taken, if nothing else took them), except
 // where their place fixes the dialect. Occurrences stay in host order.
 func (cf *codeFinder) agree() {
-	query := map[int32]bool{}
+	query, taken := map[int32]bool{}, map[int32]bool{}
 	for i := range cf.out {
 		g := &cf.out[i].group
 		if g.key != 0 && g.byContent && cf.out[i].Dialect == DialectSMARTS {
 			query[g.key] = true
 		}
+		if g.key != 0 {
+			taken[g.key] = true
+		}
 	}
-	if len(query) == 0 {
+	if len(query) == 0 && !cf.words(taken) {
 		return
 	}
 	for i := range cf.out {
@@ -449,6 +457,14 @@ func (cf *codeFinder) agree() {
 	}
 	added := false
 	for _, p := range cf.pending {
+		if p.word {
+			if taken[p.mark.key] {
+				m := p.m
+				cf.emit(p.lit, p.d, &m, p.from, p.to, "", ReasonName, p.dialect, p.mark)
+				added = true
+			}
+			continue
+		}
 		if query[p.mark.key] {
 			m := p.m
 			cf.emit(p.lit, p.d, &m, p.from, p.to, "", ReasonGuess, DialectSMARTS, p.mark)
@@ -458,6 +474,16 @@ func (cf *codeFinder) agree() {
 	if added {
 		sort.SliceStable(cf.out, func(a, b int) bool { return cf.out[a].Span.Start < cf.out[b].Span.Start })
 	}
+}
+
+// words reports whether a word kept for agree has a group in taken.
+func (cf *codeFinder) words(taken map[int32]bool) bool {
+	for _, p := range cf.pending {
+		if p.word && taken[p.mark.key] {
+			return true
+		}
+	}
+	return false
 }
 
 func nextToken(toks []token, i int) int {
@@ -554,6 +580,14 @@ func (cf *codeFinder) literal(t token, f *frame) {
 		mk.byContent = r.byContent
 		cf.emit(lit, d, &m, r.from, r.to, "", reason, r.dialect, mk)
 	}
+	if len(rs) == 0 && mark.key != 0 && len(lit.pieces) == 1 && len(d.issues) == 0 {
+		if dia, ok := looseWord(text, w); ok {
+			kept := new(decoded)
+			*kept = *d
+			cf.pending = append(cf.pending, pendingLiteral{lit: lit, d: kept, m: m, from: 0, to: len(text), mark: cf.resolve(mark), word: true, dialect: dia})
+			return
+		}
+	}
 	if len(rs) == 0 && pend {
 		cf.keep(lit, d, m, text, mark)
 	}
@@ -601,8 +635,9 @@ func mayKeep(src []byte, lit *literal) bool {
 func (cf *codeFinder) keep(lit *literal, d *decoded, m offsetMap, text string, mark groupMark) {
 	// Not taken as notation, a query pattern of a group has a bracket
 	// atom, an aromatic atom, a wildcard or a bond query ('c[SH]',
-	// '[CH2]=*'); anything else is not worth reading.
-	if !strings.ContainsAny(text, "[*~@cnos") || len(lit.pieces) != 1 || len(d.issues) > 0 {
+	// '[CH2]=*'), and no range of characters ('[b-d]'); anything else is
+	// not worth reading.
+	if !strings.ContainsAny(text, "[*~@cnos") || len(lit.pieces) != 1 || len(d.issues) > 0 || characterRange(text) {
 		return
 	}
 	parts := [][2]int{{0, len(text)}}

@@ -195,14 +195,61 @@ func separates(text string, i int) bool {
 func decideOne(s string, w wants, part bool) (d Dialect, byContent, ok bool) {
 	d, byContent, ok = decideNamed(s, w, part)
 	if ok && w.loose && w.named() {
-		if d == DialectSMARTS {
+		switch {
+		case accidentalWord(s) || characterRange(s):
+			// a pattern named so is as often a word (an enum's "CO", a
+			// mode "O") or a regular expression's class ([a-z0-9]*)
+			ok = false
+		case d == DialectSMARTS:
 			ok = readsAsQuery(s)
-		} else {
+		default:
 			ok = readsAsNotation(s)
 		}
 	}
 	return d, byContent, ok
 }
+
+// looseWord reports whether s is a word under a loose name that reads
+// as notation, and in which dialect: one that decideOne does not take
+// alone, but that a list of patterns may hold beside others.
+func looseWord(s string, w wants) (Dialect, bool) {
+	if !w.loose || !w.named() || !accidentalWord(s) {
+		return 0, false
+	}
+	d, _, ok := decideNamed(s, w, false)
+	if !ok {
+		return 0, false
+	}
+	if d == DialectSMARTS {
+		return d, readsAsQuery(s)
+	}
+	return d, readsAsNotation(s)
+}
+
+// characterRange reports whether a bracket of s holds a range of
+// characters as regular expressions and globs write them: two lowercase
+// letters, two capitals or two digits joined by '-' ([a-z], [!b-d],
+// [A-Z0-9]). Inside a SMARTS bracket '-' is a charge, which a primitive
+// of another kind follows.
+func characterRange(s string) bool {
+	depth := 0
+	for i := 0; i < len(s); i++ {
+		switch c := s[i]; {
+		case c == '[':
+			depth++
+		case c == ']':
+			depth = max(depth-1, 0)
+		case depth > 0 && c == '-' && i > 0 && i+1 < len(s):
+			a, b := s[i-1], s[i+1]
+			if 'a' <= a && a <= 'z' && 'a' <= b && b <= 'z' || 'A' <= a && a <= 'Z' && 'A' <= b && b <= 'Z' || isDigitByte(a) && isDigitByte(b) {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+func isDigitByte(c byte) bool { return '0' <= c && c <= '9' }
 
 // decideNamed is decideOne before a loosely named text is held to
 // reading without error.
@@ -298,7 +345,16 @@ func hasElementAtom(s string) bool {
 			c == 'b', c == 'c', c == 'n', c == 'o', c == 'p', c == 's', c == '#':
 			return true
 		case depth > 0 && c >= 'A' && c <= 'Z':
-			return true // an element in brackets: [H], [Li], [Se]
+			// an element in brackets: [H], [Li], [Se]; not a primitive
+			// of another kind ([AZ], [D3])
+			if i+1 < len(s) && s[i+1] >= 'a' && s[i+1] <= 'z' {
+				if _, ok := notation.ElementNumber(s[i : i+2]); ok {
+					return true
+				}
+			}
+			if _, ok := notation.ElementNumber(s[i : i+1]); ok {
+				return true
+			}
 		}
 	}
 	return false
@@ -310,7 +366,19 @@ func hasElementAtom(s string) bool {
 // in brackets, a recursive pattern, a bond query), not merely a
 // bracketed range such as [a-z], which regular expressions write too.
 func guessableQuery(s string) bool {
-	if len(s) < 3 || !hasElementAtom(s) || !strongQuery(s) {
+	if len(s) < 3 || !hasElementAtom(s) && !strings.Contains(s, "$(") || !strongQuery(s) || characterRange(s) {
+		return false
+	}
+	if s[0] == '[' && strings.IndexByte(s, ']') == len(s)-1 && !strings.ContainsAny(s, "#$,;&") {
+		// one bracket atom of letters, '!' and charges ("[!b-]",
+		// "[!AZ]") is a glob's or a regular expression's class as often;
+		// an atomic number, a list or a conjunction ([Cl,Br,I]) is not
+		return false
+	}
+	if !strings.ContainsAny(s, "[0123456789") {
+		// no bracket atom and no ring: letters joined by operators
+		// ("a@b@c", "a/b*c") are addresses, paths and arithmetic far
+		// more often than patterns nobody names
 		return false
 	}
 	return smarts.Valid(s)

@@ -16,6 +16,11 @@ func TestCodeRules(t *testing.T) {
 		want []string
 	}{
 		{KindPython, `if smiles == "CCO": pass`, []string{"CCO"}},
+		// a word under a loose name is taken beside other patterns of its
+		// list (rdkit's VLib doctests write smas = ['C=O','CN']), not
+		// alone (a parser's mode letter, pattern = 'O')
+		{KindPython, `smas = ['C=O', 'CN']`, []string{"q:C=O", "q:CN"}},
+		{KindPython, `pattern = 'O'`, nil},
 		{KindPython, `def f(smiles: str = "CCO"): pass`, []string{"CCO"}},
 		{KindPython, "smiles_list = []\nsmiles_list.append(\"CCN\")\n", []string{"CCN"}},
 		{KindPython, `mols = {"a": "CCO"}`, nil},

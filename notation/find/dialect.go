@@ -230,16 +230,22 @@ func looseWord(s string, w wants) (Dialect, bool) {
 // characters as regular expressions and globs write them: two lowercase
 // letters, two capitals or two digits joined by '-' ([a-z], [!b-d],
 // [A-Z0-9]). Inside a SMARTS bracket '-' is a charge, which a primitive
-// of another kind follows.
+// of another kind follows, or a bond of a recursive pattern, which is
+// not looked at.
 func characterRange(s string) bool {
-	depth := 0
+	depth, parens := 0, 0
 	for i := 0; i < len(s); i++ {
 		switch c := s[i]; {
 		case c == '[':
 			depth++
 		case c == ']':
 			depth = max(depth-1, 0)
-		case depth > 0 && c == '-' && i > 0 && i+1 < len(s):
+		case depth > 0 && c == '(':
+			// a recursive pattern, $(N-C=O): '-' is a bond there
+			parens++
+		case depth > 0 && c == ')':
+			parens = max(parens-1, 0)
+		case depth > 0 && parens == 0 && c == '-' && i > 0 && i+1 < len(s):
 			a, b := s[i-1], s[i+1]
 			if 'a' <= a && a <= 'z' && 'a' <= b && b <= 'z' || 'A' <= a && a <= 'Z' && 'A' <= b && b <= 'Z' || isDigitByte(a) && isDigitByte(b) {
 				return true

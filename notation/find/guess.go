@@ -111,12 +111,14 @@ func unmistakable(s string) bool {
 	return hasEvidence(m)
 }
 
-// wildcardsOnly reports whether every atom is a wildcard: such a text
-// says no chemistry of its own, and an unnamed one is far more often a
-// pattern of another language ("[*-]" is a regular expression's class).
+// wildcardsOnly reports whether every atom is a wildcard without an
+// atom map: such a text says no chemistry of its own, and an unnamed one
+// is far more often a pattern of another language ("[*-]" is a regular
+// expression's class). A mapped wildcard is an attachment point
+// ("[*:1]", as matched-pair code writes them).
 func wildcardsOnly(m *notation.Molecule) bool {
 	for i := range m.Atoms {
-		if m.Atoms[i].Number != 0 {
+		if m.Atoms[i].Number != 0 || m.Atoms[i].Map != 0 {
 			return false
 		}
 	}

@@ -21,6 +21,12 @@ func TestCodeRules(t *testing.T) {
 		// alone (a parser's mode letter, pattern = 'O')
 		{KindPython, `smas = ['C=O', 'CN']`, []string{"q:C=O", "q:CN"}},
 		{KindPython, `pattern = 'O'`, nil},
+		// a recursive pattern's bond is no range of characters, and a
+		// mapped wildcard is an attachment point (rdkit-data Contrib's
+		// LEF and mmpa scripts write both unnamed); a bare "[*-]" is not
+		{KindPython, `x = "[N;!H0;$(N-[#6]);!$(N-C=[O,N,S])]"`, []string{"q:[N;!H0;$(N-[#6]);!$(N-C=[O,N,S])]"}},
+		{KindPython, `core = frag.replace("[*:1]", "[H]")`, []string{"[*:1]"}},
+		{KindPython, `marks = ("[*-]", "[*+]")`, nil},
 		{KindPython, `def f(smiles: str = "CCO"): pass`, []string{"CCO"}},
 		{KindPython, "smiles_list = []\nsmiles_list.append(\"CCN\")\n", []string{"CCN"}},
 		{KindPython, `mols = {"a": "CCO"}`, nil},

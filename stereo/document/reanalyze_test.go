@@ -550,15 +550,12 @@ func TestReanalyzeJSONLines(t *testing.T) {
 				what = "a line inserted first"
 			}
 			text := join(edited)
-			next := a.reanalyzeList(prev, file, "", []byte(text))
-			if next != nil && text != string(prev.Content) {
-				incremental++
-			} else if next == nil {
-				next = a.Analyze(file, "", []byte(text))
-			}
-			compareResults(t, fmt.Sprintf("%s, step %d (%s)", doc.name, step, what), next, a.Analyze(file, "", []byte(text)))
+			next, apart := reanalyzeStep(t, a, prev, file, text, fmt.Sprintf("%s, step %d (%s)", doc.name, step, what))
 			if t.Failed() {
 				return
+			}
+			if apart {
+				incremental++
 			}
 			rows, prev = edited, next
 			if step%10 == 9 {
@@ -638,7 +635,7 @@ func TestReanalyzeJSONArray(t *testing.T) {
 		}, ",\n", 25, true},
 	}
 	a := NewAnalyzer(DefaultConfig())
-	rng := rand.New(rand.NewSource(20261204))
+	rng := rand.New(rand.NewSource(20261205))
 	for _, lay := range layouts {
 		var elems []string
 		for i, r := range editList(rng, 200) {
@@ -686,15 +683,12 @@ func TestReanalyzeJSONArray(t *testing.T) {
 				ins := string("{}[]\",: \n"[rng.Intn(9)])
 				next, what = text[:at]+ins+text[at:], fmt.Sprintf("%q put at %d", ins, at)
 			}
-			got := a.reanalyzeList(prev, file, "", []byte(next))
-			if got != nil && next != text {
-				apart++
-			} else if got == nil {
-				got = a.Analyze(file, "", []byte(next))
-			}
-			compareResults(t, fmt.Sprintf("%s, step %d (%s)", lay.name, step, what), got, a.Analyze(file, "", []byte(next)))
+			got, read := reanalyzeStep(t, a, prev, file, next, fmt.Sprintf("%s, step %d (%s)", lay.name, step, what))
 			if t.Failed() {
 				return
+			}
+			if read {
+				apart++
 			}
 			if k := strings.Count(next, "{"); k != strings.Count(next, "}") || strings.Count(next, "[") != strings.Count(next, "]") || strings.Count(next, `"`)%2 != 0 {
 				// mended for the next step
@@ -710,6 +704,21 @@ func TestReanalyzeJSONArray(t *testing.T) {
 			t.Errorf("%s: %d of 60 edits read apart, want at least %d", lay.name, apart, lay.apart)
 		}
 	}
+}
+
+// reanalyzeStep analyses text as an edit of prev, apart where
+// reanalyzeList can (apart is then true, unless the text did not
+// change) and whole where it cannot, and compares the result with a
+// fresh analysis.
+func reanalyzeStep(t *testing.T, a *Analyzer, prev *Result, file, text, what string) (next *Result, apart bool) {
+	t.Helper()
+	next = a.reanalyzeList(prev, file, "", []byte(text))
+	apart = next != nil && text != string(prev.Content)
+	if next == nil {
+		next = a.Analyze(file, "", []byte(text))
+	}
+	compareResults(t, what, next, a.Analyze(file, "", []byte(text)))
+	return next, apart
 }
 
 // jsonReads reports whether s is JSON (encoding/json), for a test to put

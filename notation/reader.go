@@ -2,6 +2,7 @@ package notation
 
 import (
 	"fmt"
+	"strings"
 	"sync"
 	"unicode/utf8"
 )
@@ -546,16 +547,32 @@ func (r *reader) closeBranch() {
 	}
 	top := r.stack[len(r.stack)-1]
 	r.stack = r.stack[:len(r.stack)-1]
-	if len(r.mol.Atoms) == top.atoms && span.Start > top.pos+1 {
+	if inner := r.text[top.pos+1 : span.Start]; len(r.mol.Atoms) == top.atoms && ringClosuresOnly(inner) {
 		// "C(1)CC1": OpenSMILES wants a chain in a branch; readers part
 		// here (RDKit 2022.09.3 rejects it, Open Babel 3.1.1 bonds the
 		// digits to the atom before the branch, as this reader does).
 		// An empty "()" was reported where it opened.
-		e := r.errorf(Span{top.pos, span.End}, CodeBranchWithoutAtom, "expected an atom in the branch, found only the ring closure %s (outside the OpenSMILES grammar; some readers reject it, others read it as a ring bond of the atom before the branch, as here)", r.text[top.pos+1:span.Start])
+		e := r.errorf(Span{top.pos, span.End}, CodeBranchWithoutAtom, "expected an atom in the branch, found only the ring closure %s (outside the OpenSMILES grammar; some readers reject it, others read it as a ring bond of the atom before the branch, as here)", inner)
 		e.Severity = SeverityWarning
 	}
 	r.prev = top.atom
 	r.afterBranch = true
+}
+
+// ringClosuresOnly reports whether s is ring-closure digits alone, each
+// with its bond symbol if any ("1", "=1%12"): a branch of nothing else
+// read without error but no atom.
+func ringClosuresOnly(s string) bool {
+	digit := false
+	for i := 0; i < len(s); i++ {
+		switch c := s[i]; {
+		case c >= '0' && c <= '9':
+			digit = true
+		case strings.IndexByte("%-=#$:/\\", c) < 0:
+			return false
+		}
+	}
+	return digit
 }
 
 func (r *reader) dot() {

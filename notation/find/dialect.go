@@ -195,18 +195,19 @@ func separates(text string, i int) bool {
 func decideOne(s string, w wants, part bool) (d Dialect, byContent, ok bool) {
 	d, byContent, ok = decideNamed(s, w, part)
 	if ok && w.loose && w.named() {
-		switch {
-		case accidentalWord(s) || characterRange(s):
-			// a pattern named so is as often a word (an enum's "CO", a
-			// mode "O") or a regular expression's class ([a-z0-9]*)
-			ok = false
-		case d == DialectSMARTS:
-			ok = readsAsQuery(s)
-		default:
-			ok = readsAsNotation(s)
-		}
+		// a pattern named so is as often a word (an enum's "CO", a mode
+		// "O") or a regular expression's class ([a-z0-9]*)
+		ok = !accidentalWord(s) && !characterRange(s) && readsIn(d, s)
 	}
 	return d, byContent, ok
+}
+
+// readsIn reports whether s reads without error in dialect d.
+func readsIn(d Dialect, s string) bool {
+	if d == DialectSMARTS {
+		return readsAsQuery(s)
+	}
+	return readsAsNotation(s)
 }
 
 // looseWord reports whether s is a word under a loose name that reads
@@ -217,13 +218,7 @@ func looseWord(s string, w wants) (Dialect, bool) {
 		return 0, false
 	}
 	d, _, ok := decideNamed(s, w, false)
-	if !ok {
-		return 0, false
-	}
-	if d == DialectSMARTS {
-		return d, readsAsQuery(s)
-	}
-	return d, readsAsNotation(s)
+	return d, ok && readsIn(d, s)
 }
 
 // characterRange reports whether a bracket of s holds a range of

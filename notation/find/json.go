@@ -184,6 +184,15 @@ type jsonContext struct {
 	key    string
 }
 
+// depth is the depth of the elements in the document, as the parser
+// counts it (maxJSONDepth).
+func (c jsonContext) depth() int {
+	if c.member {
+		return 2
+	}
+	return 1
+}
+
 // FindJSONEdit returns the notation on the lines of the JSON document
 // src from offset from (a line start) to offset newTo (a line start or
 // len(src)), exactly as FindKind(KindJSON, src, cfg) finds it there,
@@ -289,14 +298,10 @@ func FindJSONEdit(old, src []byte, cfg Config, from, oldTo, newTo int, arr *JSON
 		return nil, 0, 0, 0, nil, false
 	}
 	ctx := next.ctx
-	depth := 1
-	if ctx.member {
-		depth = 2
-	}
 	jf := &jsonFinder{src: src, cfg: &cfg, nm: newNamer(&cfg), title: ctx.title, key: ctx.key}
 	for k := k0; k < k1; k++ {
 		p := &jsonParser{src: src[:es[k].End], i: es[k].Start}
-		jf.walk(p.value(depth), ctx.w, ctx.other)
+		jf.walk(p.value(ctx.depth()), ctx.w, ctx.other)
 	}
 	return jf.out, from2, oldTo2, newTo2, next, true
 }
@@ -319,14 +324,10 @@ func editedElements(arr *JSONArray, src []byte, from, newTo, delta int) (*JSONAr
 	if k < 0 {
 		return nil, false
 	}
-	depth := 1
-	if arr.ctx.member {
-		depth = 2
-	}
 	p := &jsonParser{src: src, i: oes[k].Start, shallow: true, top: -1}
 	es := append(make([]notation.Span, 0, len(oes)+8), oes[:k]...)
 	for {
-		v := p.value(depth)
+		v := p.value(arr.ctx.depth())
 		if p.bad {
 			return nil, false
 		}

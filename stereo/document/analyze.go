@@ -90,8 +90,9 @@ type Result struct {
 	// occArrays counts the arrays the records' occurrences lie in
 	// (Reanalyze).
 	occArrays int
-	// jsonArray is where the elements of a JSON document that is one
-	// array lie, once an edit was read apart (Reanalyze)
+	// jsonArray is where the elements of a JSON document's array of
+	// records lie (the document, or one member of it), once an edit was
+	// read apart (Reanalyze)
 	jsonArray *find.JSONArray
 }
 

@@ -28,6 +28,12 @@ func TestNoBlowUp(t *testing.T) {
 		{KindJavaScript, strings.Repeat("`${", 100000)},
 		{KindYAML, strings.Repeat("- ", 200000)},
 		{KindJSON, strings.Repeat("[", 200000)},
+		// errors the reading goes on after (resync): at every depth of
+		// 500 nested arrays, each element on a line of its own, and on
+		// every line of a long array
+		{KindJSON, deepBrokenJSON(500, 100000)},
+		{KindJSON, "[\n" + strings.Repeat("  {\"smiles\": \"C\" \"x\"}\n", 100000) + "]\n"},
+		{KindJSON, "[\n" + strings.Repeat("  x\n", 200000) + "]\n"},
 		{KindNotebook, `{"cells":[` + strings.Repeat(`{"cell_type":"code","source":"x_smiles = 'C'\n"},`, 10000) + `]}`},
 		{KindList, strings.Repeat("# stereoline: off\nC\n# stereoline: on\nC\n", 50000)},
 		{KindCSV, "smiles\n" + strings.Repeat("\"C\"\"\n", 100000)},
@@ -46,4 +52,17 @@ func TestNoBlowUp(t *testing.T) {
 			t.Errorf("%s: %v for %d bytes", c.k, d, len(c.s))
 		}
 	}
+}
+
+// deepBrokenJSON nests depth arrays, each element beginning a line one
+// space further in, with a line that does not read at the bottom and
+// lines more indented than any member after it.
+func deepBrokenJSON(depth, lines int) string {
+	var b strings.Builder
+	for k := range depth {
+		b.WriteString(strings.Repeat(" ", k) + "[\n")
+	}
+	b.WriteString(strings.Repeat(" ", depth) + "x x\n")
+	b.WriteString(strings.Repeat(strings.Repeat(" ", depth+100)+"y\n", lines))
+	return b.String()
 }

@@ -11,7 +11,9 @@ import (
 
 // jsonValue is one value of a JSON document (RFC 8259) with its spans.
 // The parser is forgiving: it stops quietly at the first syntax error,
-// keeping what it has read.
+// keeping what it has read, or, reading a document for notation
+// (recover), goes on at the next line that may begin a member of the
+// object or array the error is in (resync).
 type jsonValue struct {
 	kind byte          // 'o' object, 'a' array, 's' string, 'v' other
 	span notation.Span // the whole value (a string's quotes included)
@@ -32,6 +34,9 @@ type jsonParser struct {
 	// allocates nothing per record (jsonRecordArray)
 	shallow bool
 	top     int
+	// recover goes on reading an object or array after a member that
+	// does not read, at the next line that may begin one (resync)
+	recover bool
 }
 
 func parseJSON(src []byte) jsonValue {
@@ -47,13 +52,15 @@ func parseJSON(src []byte) jsonValue {
 // the values are read one after another (pretty-printed values written
 // in a row, or a JSON text sequence, RFC 7464, each value after a record
 // separator 0x1E); a later value that does not read is kept as far as it
-// reads and the reading goes on at the next line. An error in the first
-// value ends the reading there, as parseJSON does.
+// reads and the reading goes on at the next line. Inside the first value
+// the reading goes on after an error at the next line that may begin a
+// member of the object or array the error is in (resync); an error it
+// cannot go on from ends the reading there.
 func parseJSONValues(src []byte) []jsonValue {
 	if jsonLineMode(src) {
 		return jsonLineValues(src, 0, len(src), nil)
 	}
-	p := &jsonParser{src: src}
+	p := &jsonParser{src: src, recover: true}
 	p.blankOrSeparator()
 	vs := []jsonValue{p.value(0)}
 	if p.bad {
@@ -446,36 +453,20 @@ func (p *jsonParser) value(depth int) jsonValue {
 			v.kind, closer = 'a', ']'
 		}
 		p.i++
-		for !p.bad {
+		ind := -1 // the indentation of the members, once one begins its line
+		for {
 			p.blank()
 			if p.i < len(p.src) && p.src[p.i] == closer {
 				p.i++
 				break
 			}
-			if v.kind == 'o' {
-				k := p.value(depth + 1)
-				if k.kind != 's' {
-					p.bad = true
-					break
-				}
-				p.blank()
-				if p.i >= len(p.src) || p.src[p.i] != ':' {
-					p.bad = true
-					break
-				}
-				p.i++
-				if !p.shallow || depth == p.top {
-					v.keys = append(v.keys, k)
-				}
+			elem := p.i
+			if p.recover && ind < 0 {
+				ind = indentation(p.src, elem)
 			}
-			if e := p.value(depth + 1); !p.shallow || depth == p.top {
-				v.vals = append(v.vals, e)
-			}
-			p.blank()
-			if p.i < len(p.src) && p.src[p.i] == ',' {
-				p.i++
-			} else if p.i >= len(p.src) || p.src[p.i] != closer {
-				p.bad = true
+			p.member(&v, depth)
+			if p.bad && !(p.recover && ind >= 0 && p.resync(elem, ind, closer, v.kind)) {
+				break
 			}
 		}
 		v.span = notation.Span{Start: start, End: p.i}
@@ -488,6 +479,106 @@ func (p *jsonParser) value(depth int) jsonValue {
 		p.bad = true
 	}
 	return jsonValue{kind: 'v', span: notation.Span{Start: start, End: p.i}}
+}
+
+// member reads one member of an object (key, colon, value) or one
+// element of an array into v, and the comma after it; p.bad is set
+// when it does not read, v keeping what did.
+func (p *jsonParser) member(v *jsonValue, depth int) {
+	if v.kind == 'o' {
+		k := p.value(depth + 1)
+		if k.kind != 's' {
+			p.bad = true
+			return
+		}
+		p.blank()
+		if p.i >= len(p.src) || p.src[p.i] != ':' {
+			p.bad = true
+			return
+		}
+		p.i++
+		if !p.shallow || depth == p.top {
+			v.keys = append(v.keys, k)
+		}
+	}
+	if e := p.value(depth + 1); !p.shallow || depth == p.top {
+		v.vals = append(v.vals, e)
+	}
+	if p.bad {
+		return
+	}
+	p.blank()
+	closer := byte(']')
+	if v.kind == 'o' {
+		closer = '}'
+	}
+	if p.i < len(p.src) && p.src[p.i] == ',' {
+		p.i++
+	} else if p.i >= len(p.src) || p.src[p.i] != closer {
+		p.bad = true
+	}
+}
+
+// resync finds where the reading of an object or array (kind 'o' or
+// 'a', closed by closer) whose members begin their lines at indentation
+// ind goes on after its member or element that begins at elem did not
+// read, and reports whether it does. A document being typed, or with a
+// stray line (a comment, a merge conflict marker), keeps the records
+// after the error: the reading resumes at the next line, from where the
+// reading stopped, that begins at indentation ind with what may begin a
+// member (a key; for an array, any value), or that closes the
+// container. A line indented less that may close or continue a
+// container around this one ends the search: the container stays broken
+// and p.i is set to that line for the one around it to search on from.
+// Other lines (less indented text that is no JSON, members of a value
+// inside) are passed over. Lines are only searched forward of p.i, so a
+// document is searched about once however deep the error lies.
+func (p *jsonParser) resync(elem, ind int, closer, kind byte) bool {
+	src := p.src
+	from := max(p.i, elem+1)
+	at := bytes.LastIndexByte(src[:min(from, len(src))], '\n') + 1
+	for at < len(src) {
+		first := at
+		for first < len(src) && (src[first] == ' ' || src[first] == '\t') {
+			first++
+		}
+		next := len(src)
+		if k := bytes.IndexByte(src[first:], '\n'); k >= 0 {
+			next = first + k + 1
+		}
+		if first < from || first == len(src) || src[first] == '\n' || src[first] == '\r' {
+			at = next // before where the reading stopped, or blank
+			continue
+		}
+		c, in := src[first], first-at
+		switch {
+		case in <= ind && c == closer:
+			p.i, p.bad = first, false
+			return true
+		case in < ind && strings.IndexByte("{}[]\"", c) >= 0:
+			p.i = at
+			return false
+		case in == ind && (c == '"' || kind == 'a' && strings.IndexByte("{[-0123456789tfn", c) >= 0):
+			p.i, p.bad = first, false
+			return true
+		}
+		at = next
+	}
+	p.i = len(src)
+	return false
+}
+
+// indentation returns the indentation of the line of src holding offset
+// at when only blanks come before it there, else -1.
+func indentation(src []byte, at int) int {
+	ls := at
+	for ls > 0 && src[ls-1] != '\n' {
+		if src[ls-1] != ' ' && src[ls-1] != '\t' {
+			return -1
+		}
+		ls--
+	}
+	return at - ls
 }
 
 // content returns the span between a string value's quotes.

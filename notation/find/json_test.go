@@ -10,7 +10,9 @@ import (
 // ends a line), a JSON text sequence (RFC 7464: a record separator,
 // 0x1E, before each value), values written one after another, and a line
 // that does not read among good ones (JSON Lines readers skip it; common
-// practice). An error in the first value still ends the reading there.
+// practice). Inside a value, the reading goes on after an error at the
+// next line that begins at the indentation of the member that did not
+// read; an error it cannot go on from ends the reading there.
 func TestFindJSONValues(t *testing.T) {
 	tests := []struct {
 		name, src string
@@ -34,9 +36,13 @@ func TestFindJSONValues(t *testing.T) {
 			[]string{"CC", "CO", "C[C@H](F)Cl"}},
 		{"pretty-printed one after another", "{\n  \"smiles\": \"CC\"\n}\n{\n  \"smiles\": \"CO\"\n}\n",
 			[]string{"CC", "CO"}},
-		// a document whose first value breaks off is read as far as it
-		// reads and no further: the lines after the error are not values
-		{"error in the first value", "{\n  \"smiles\": \"CC\",\n  oops\n  \"smiles\": \"CO\"\n}\n",
+		// a line that does not read is passed over: the next line at
+		// the indentation of the members is one
+		{"a stray line among members", "{\n  \"smiles\": \"CC\",\n  oops\n  \"smiles\": \"CO\"\n}\n",
+			[]string{"CC", "CO"}},
+		// on one line there is no line to go on at: the reading of a
+		// first value that breaks off ends there
+		{"error in the first value", "{\"smiles\": \"CC\", oops \"smiles\": \"CO\"}\n",
 			[]string{"CC"}},
 	}
 	for _, tt := range tests {
@@ -79,5 +85,49 @@ func TestFindJSONTitles(t *testing.T) {
 		if o.Title != want[o.Text] {
 			t.Errorf("%s: title %q, want %q", o.Text, o.Title, want[o.Text])
 		}
+	}
+}
+
+// TestFindJSONResync checks that a JSON document with a syntax error
+// keeps the records after it: the reading goes on at the next line that
+// begins at the indentation of the members of the object or array the
+// error is in (a document being typed, a stray line such as a comment or
+// a merge conflict marker, as git writes them; common practice), and that
+// those records keep their titles.
+func TestFindJSONResync(t *testing.T) {
+	tests := []struct {
+		name, src string
+		want      []string // text and title of each record
+	}{
+		{"a closing brace missing", "[\n{\"id\": 1, \"smiles\": \"C[C@H](N)C(=O)O\"},\n{\"id\": 2, \"smiles\": \"C[C@@H](N)C(=O)O\"\n{\"id\": 3, \"smiles\": \"F/C=C/F\"},\n{\"id\": 4, \"smiles\": \"N[C@@H](C)C(=O)O\"}\n]\n",
+			[]string{"C[C@H](N)C(=O)O 1", "C[C@@H](N)C(=O)O 2", "F/C=C/F 3", "N[C@@H](C)C(=O)O 4"}},
+		{"a comma missing between records", "[\n  {\n    \"id\": \"a\",\n    \"smiles\": \"CC\"\n  }\n  {\n    \"id\": \"b\",\n    \"smiles\": \"C[C@H](F)Cl\"\n  }\n]\n",
+			[]string{"CC a", "C[C@H](F)Cl b"}},
+		{"a string left open", "[\n  {\n    \"id\": \"a\",\n    \"note\": \"half-typed,\n    \"smiles\": \"CC\"\n  },\n  {\n    \"id\": \"b\",\n    \"smiles\": \"C[C@H](F)Cl\"\n  }\n]\n",
+			[]string{"CC a", "C[C@H](F)Cl b"}},
+		{"merge conflict markers", "[\n  {\"id\": \"a\", \"smiles\": \"CC\"},\n<<<<<<< HEAD\n  {\"id\": \"b\", \"smiles\": \"C[C@H](F)Cl\"},\n=======\n  {\"id\": \"b\", \"smiles\": \"C[C@@H](F)Cl\"},\n>>>>>>> other\n  {\"id\": \"c\", \"smiles\": \"CO\"}\n]\n",
+			[]string{"CC a", "C[C@H](F)Cl b", "C[C@@H](F)Cl b", "CO c"}},
+		{"comments", "{\n  // the reference\n  \"smiles\": \"C[C@@H](O)C(=O)O\",\n  /* and its mirror image */\n  \"mirror_smiles\": \"C[C@H](O)C(=O)O\"\n}\n",
+			[]string{"C[C@@H](O)C(=O)O ", "C[C@H](O)C(=O)O "}},
+		{"an array member", "{\"name\": \"batch 7\", \"compounds\": [\n  {\"id\": 1, \"smiles\": \"CC\"},\n  {\"id\": 2, \"smiles\": \"CN\"\n  {\"smiles\": \"C[C@H](F)Cl\"}\n]}\n",
+			[]string{"CC 1", "CN 2", "C[C@H](F)Cl batch 7"}},
+		{"an error in an inner array", "[\n  {\n    \"id\": \"r1\",\n    \"tags\": [\n      \"x\"\n      \"y\"\n    ],\n    \"smiles\": \"C[C@H](F)Cl\"\n  },\n  {\n    \"id\": \"r2\",\n    \"smiles\": \"F/C=C/F\"\n  }\n]\n",
+			[]string{"C[C@H](F)Cl r1", "F/C=C/F r2"}},
+		{"no line to go on at", "[{\"smiles\": \"CC\"}, {\"smiles\": \"CO\" {\"smiles\": \"CN\"}]\n",
+			[]string{"CC ", "CO "}},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			var got []string
+			for _, o := range FindKind(KindJSON, []byte(tt.src), Config{}) {
+				got = append(got, o.Text+" "+o.Title)
+				if tt.src[o.Span.Start:o.Span.End] != o.Text {
+					t.Errorf("%q: span %v holds %q", o.Text, o.Span, tt.src[o.Span.Start:o.Span.End])
+				}
+			}
+			if !slices.Equal(got, tt.want) {
+				t.Errorf("found %q, want %q", got, tt.want)
+			}
+		})
 	}
 }

@@ -1,6 +1,8 @@
 package find
 
 import (
+	"slices"
+	"strconv"
 	"strings"
 
 	"stereoline/notation"
@@ -196,8 +198,9 @@ func decideOne(s string, w wants, part bool) (d Dialect, byContent, ok bool) {
 	d, byContent, ok = decideNamed(s, w, part)
 	if ok && w.loose && w.named() {
 		// a pattern named so is as often a word (an enum's "CO", a mode
-		// "O") or a regular expression's class ([a-z0-9]*)
-		ok = !accidentalWord(s) && !characterRange(s) && readsIn(d, s)
+		// "O"), a URL query ("a=b") or a regular expression's class
+		// ([a-z0-9]*)
+		ok = !accidentalWord(s) && !keyValueWords(s) && !characterRange(s) && readsIn(d, s)
 	}
 	return d, byContent, ok
 }
@@ -212,13 +215,30 @@ func readsIn(d Dialect, s string) bool {
 
 // looseWord reports whether s is a word under a loose name that reads
 // as notation, and in which dialect: one that decideOne does not take
-// alone, but that a list of patterns may hold beside others.
+// alone, but that a list of patterns may hold beside others. A pair of
+// lowercase words joined by '=' counts as a word: under a name such as
+// query it is a URL query's "a=b" far more often than a pattern.
 func looseWord(s string, w wants) (Dialect, bool) {
-	if !w.loose || !w.named() || !accidentalWord(s) {
+	if !w.loose || !w.named() || !accidentalWord(s) && !keyValueWords(s) {
 		return 0, false
 	}
 	d, _, ok := decideNamed(s, w, false)
 	return d, ok && readsIn(d, s)
+}
+
+// keyValueWords reports whether s is two words of lowercase letters
+// joined by '='.
+func keyValueWords(s string) bool {
+	k := strings.IndexByte(s, '=')
+	if k <= 0 || k == len(s)-1 {
+		return false
+	}
+	for i := 0; i < len(s); i++ {
+		if i != k && (s[i] < 'a' || s[i] > 'z') {
+			return false
+		}
+	}
+	return true
 }
 
 // characterRange reports whether a bracket of s holds a range of
@@ -382,7 +402,72 @@ func guessableQuery(s string) bool {
 		// more often than patterns nobody names
 		return false
 	}
+	if contradictoryBracket(s) {
+		return false
+	}
 	return smarts.Valid(s)
+}
+
+// contradictoryBracket reports a bracket atom that requires two elements
+// at once ("a[b;c]", a compound expression of another language: aromatic
+// boron and aromatic carbon), which no atom matches and no pattern
+// writes: among its parts joined by the AND operators ; and &, two that
+// are each one element (a symbol or #n) and name different elements, or
+// one element both aromatic and aliphatic. A string with a recursive
+// pattern is not looked at.
+func contradictoryBracket(s string) bool {
+	for i := 0; i < len(s); i++ {
+		if s[i] == '$' && i+1 < len(s) && s[i+1] == '(' {
+			return false // the brackets are nested: not worth reading
+		}
+		if s[i] != '[' {
+			continue
+		}
+		end := strings.IndexByte(s[i+1:], ']')
+		if end < 0 {
+			return false
+		}
+		inner := s[i+1 : i+1+end]
+		i += end + 1
+		var num int
+		var sym string
+		for _, part := range strings.FieldsFunc(inner, func(r rune) bool { return r == ';' || r == '&' }) {
+			n, ps, ok := oneElement(part)
+			if !ok {
+				continue
+			}
+			switch {
+			case num == 0:
+				num, sym = n, ps
+			case n != num || ps != "" && sym != "" && ps != sym:
+				return true
+			case sym == "":
+				sym = ps
+			}
+		}
+	}
+	return false
+}
+
+// oneElement reads a part of a bracket atom's expression that is one
+// element alone: a symbol (sym is it, aromatic in lower case) or an
+// atomic number #n (sym is "").
+func oneElement(part string) (num int, sym string, ok bool) {
+	if strings.HasPrefix(part, "#") {
+		n, err := strconv.Atoi(part[1:])
+		return n, "", err == nil && n > 0 && n < 119
+	}
+	switch part {
+	case "b", "c", "n", "o", "p", "s", "se", "as":
+		n, ok := notation.ElementNumber(strings.ToUpper(part[:1]) + part[1:])
+		return n, part, ok
+	}
+	if part == "" || part[0] < 'A' || part[0] > 'Z' || part == "H" {
+		// a lone H after an element counts hydrogens ([N;H])
+		return 0, "", false
+	}
+	n, ok := notation.ElementNumber(part)
+	return n, part, ok
 }
 
 // strongQuery reports primitives that regular expressions and globs do
@@ -413,8 +498,8 @@ func strongQuery(s string) bool {
 }
 
 // elementList reports whether the bracket that s starts inside holds a
-// comma-separated list of at least two atoms ([Cl,Br,I], [N,O;H1]),
-// which no regular expression's class looks like.
+// comma-separated list of at least two different atoms ([Cl,Br,I],
+// [N,O;H1]), which no regular expression's class looks like.
 func elementList(s string) bool {
 	end := strings.IndexByte(s, ']')
 	if end < 0 {
@@ -428,8 +513,10 @@ func elementList(s string) bool {
 	if len(items) < 2 {
 		return false
 	}
-	for _, it := range items {
-		if it == "" || !smilesBracket(it) {
+	for k, it := range items {
+		if it == "" || !smilesBracket(it) || slices.Contains(items[:k], it) {
+			// an item twice ("[O,O]", a C format string) is no list a
+			// pattern writes
 			return false
 		}
 	}

@@ -21,12 +21,26 @@ func TestCodeRules(t *testing.T) {
 		// alone (a parser's mode letter, pattern = 'O')
 		{KindPython, `smas = ['C=O', 'CN']`, []string{"q:C=O", "q:CN"}},
 		{KindPython, `pattern = 'O'`, nil},
+		// a URL query under a loose name, alone and beside a pattern
+		{KindGo, `u := URL{Path: "/p", RawQuery: "a=b"}`, nil},
+		{KindPython, `queries = ["c=c", "[#6]=O"]`, []string{"q:c=c", "q:[#6]=O"}},
 		// a recursive pattern's bond is no range of characters, and a
 		// mapped wildcard is an attachment point (rdkit-data Contrib's
 		// LEF and mmpa scripts write both unnamed); a bare "[*-]" is not
 		{KindPython, `x = "[N;!H0;$(N-[#6]);!$(N-C=[O,N,S])]"`, []string{"q:[N;!H0;$(N-[#6]);!$(N-C=[O,N,S])]"}},
 		{KindPython, `core = frag.replace("[*:1]", "[H]")`, []string{"[*:1]"}},
 		{KindPython, `marks = ("[*-]", "[*+]")`, nil},
+		// a bracket that requires two elements at once is a compound
+		// expression of another language (sympy's Mathematica parser
+		// tests); conjunctions with counts and numbers are patterns
+		{KindPython, `assert chain("a*b/c") == 1` + "\n" + `assert chain("a[b;c]") == 2`, nil},
+		{KindPython, `x = "[C;#7]CC"`, nil},
+		{KindPython, `x = "c[n;H1]c"`, []string{"q:c[n;H1]c"}},
+		{KindPython, `x = "[N;H]CC"`, []string{"q:[N;H]CC"}},
+		{KindPython, `x = "[#6;C]C[c&#6]"`, []string{"q:[#6;C]C[c&#6]"}},
+		// C-API format strings: a list that repeats its item is none
+		{KindPython, `buildvalue('[O]', 1)` + "\n" + `buildvalue('[O,O]', 1, 2)`, nil},
+		{KindPython, `x = "[Cl,Br,I]C"`, []string{"q:[Cl,Br,I]C"}},
 		{KindPython, `def f(smiles: str = "CCO"): pass`, []string{"CCO"}},
 		{KindPython, "smiles_list = []\nsmiles_list.append(\"CCN\")\n", []string{"CCN"}},
 		{KindPython, `mols = {"a": "CCO"}`, nil},

@@ -84,7 +84,7 @@ func check(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		rep.Findings.close()
 	})
 	if opts.format == "sarif" && err == nil {
-		err = sw.finish()
+		err = sw.finish(!run.failed, run.sortedNotes())
 	}
 	if err == nil {
 		err = out.Flush()

@@ -23,9 +23,10 @@ type checkRun struct {
 	stdin  io.Reader
 	stderr io.Writer
 
-	mu          sync.Mutex // guards failed, cfgReported and writes to stderr
+	mu          sync.Mutex // guards failed, cfgReported, notes and writes to stderr
 	failed      bool
 	cfgReported map[*loadedConfig]bool
+	notes       []runNote // what was said on standard error, for a SARIF log
 
 	cfgMu        sync.Mutex
 	configs      map[string]*loadedConfig // by configuration file path
@@ -41,6 +42,34 @@ func newCheckRun(opts checkOptions, stdin io.Reader, stderr io.Writer) *checkRun
 		configs: map[string]*loadedConfig{}, dirConfig: map[string]*loadedConfig{},
 		cfgReported: map[*loadedConfig]bool{},
 	}
+}
+
+// runNote is a note of the run about a file rather than a finding in
+// it: a file skipped, a path that cannot be read, a bad configuration.
+type runNote struct {
+	path  string // "" when the note is about no one file
+	level string // SARIF: "warning" for a skip, "error" for a failure
+	text  string
+}
+
+// note keeps a note for the report; r.mu must be held.
+func (r *checkRun) note(path, level, text string) {
+	r.notes = append(r.notes, runNote{path: filepath.ToSlash(path), level: level, text: text})
+}
+
+// sortedNotes returns the notes by path, then text: workers add them in
+// any order.
+func (r *checkRun) sortedNotes() []runNote {
+	r.mu.Lock()
+	defer r.mu.Unlock()
+	ns := slices.Clone(r.notes)
+	slices.SortStableFunc(ns, func(a, b runNote) int {
+		if c := cmp.Compare(a.path, b.path); c != 0 {
+			return c
+		}
+		return cmp.Compare(a.text, b.text)
+	})
+	return ns
 }
 
 // position is one end of a finding's range in the three conventions the
@@ -208,6 +237,7 @@ func (r *checkRun) readForAnalysis(f checkFile) (data []byte, lc *loadedConfig, 
 			if f.explicit || skip.reason != "binary file" {
 				r.mu.Lock()
 				fmt.Fprintf(r.stderr, "stereoline: %s: skipped: %s\n", f.path, skip.reason)
+				r.note(f.path, "warning", "not checked: "+skip.reason)
 				r.mu.Unlock()
 			}
 			return nil, lc, skip.reason, false
@@ -225,6 +255,7 @@ func (r *checkRun) configError(lc *loadedConfig) {
 	if !r.cfgReported[lc] {
 		r.cfgReported[lc] = true
 		fmt.Fprintf(r.stderr, "stereoline: %v\n", lc.err)
+		r.note("", "error", lc.err.Error())
 	}
 	r.failed = true
 }

@@ -150,6 +150,56 @@ func TestCheckSkips(t *testing.T) {
 	}
 }
 
+// TestCheckSARIFNotes checks that the SARIF log names the files it did
+// not check (SARIF 2.1.0 §3.20.21 toolExecutionNotifications) and says
+// whether the run succeeded (§3.20.14 executionSuccessful): a file too
+// large is a warning and leaves the run successful, a missing path is an
+// error and does not.
+func TestCheckSARIFNotes(t *testing.T) {
+	dir := writeFiles(t, map[string]string{
+		"shown.smi": "C/C=CC\n",
+		"big.smi":   strings.Repeat("C/C=CC\n", 200),
+	})
+	type note struct {
+		Level     string
+		Message   struct{ Text string }
+		Locations []struct {
+			PhysicalLocation struct {
+				ArtifactLocation struct{ URI string }
+			}
+		}
+	}
+	invocations := func(args ...string) (bool, []note) {
+		t.Helper()
+		stdout, _, _ := runCheck(t, "", append([]string{"--format", "sarif", "--max-size", "1kB"}, args...)...)
+		var log struct {
+			Runs []struct {
+				Invocations []struct {
+					ExecutionSuccessful        bool
+					ToolExecutionNotifications []note
+				}
+			}
+		}
+		if err := json.Unmarshal([]byte(stdout), &log); err != nil || len(log.Runs) != 1 || len(log.Runs[0].Invocations) != 1 {
+			t.Fatalf("want one run with one invocation (%v):\n%s", err, stdout)
+		}
+		inv := log.Runs[0].Invocations[0]
+		return inv.ExecutionSuccessful, inv.ToolExecutionNotifications
+	}
+	ok, notes := invocations(filepath.Join(dir, "shown.smi"), filepath.Join(dir, "big.smi"))
+	if !ok || len(notes) != 1 || notes[0].Level != "warning" || !strings.Contains(notes[0].Message.Text, "larger than") ||
+		len(notes[0].Locations) != 1 || !strings.HasSuffix(notes[0].Locations[0].PhysicalLocation.ArtifactLocation.URI, "/big.smi") {
+		t.Errorf("a skipped file: successful %v, notes %+v; want true and one warning on big.smi", ok, notes)
+	}
+	ok, notes = invocations(filepath.Join(dir, "shown.smi"), filepath.Join(dir, "gone.smi"))
+	if ok || len(notes) != 1 || notes[0].Level != "error" || !strings.HasSuffix(notes[0].Locations[0].PhysicalLocation.ArtifactLocation.URI, "/gone.smi") {
+		t.Errorf("a missing file: successful %v, notes %+v; want false and one error on gone.smi", ok, notes)
+	}
+	if ok, notes = invocations(filepath.Join(dir, "shown.smi")); !ok || len(notes) != 0 {
+		t.Errorf("a clean run: successful %v, notes %+v; want true and none", ok, notes)
+	}
+}
+
 func TestCheckConfigFile(t *testing.T) {
 	dir := writeFiles(t, map[string]string{
 		"a/one.smi":                    "C/C=CC\n",

@@ -149,5 +149,6 @@ func (r *checkRun) pathError(path string, err error) {
 	r.mu.Lock()
 	defer r.mu.Unlock()
 	fmt.Fprintf(r.stderr, "stereoline: %s: %v\n", filepath.ToSlash(path), err)
+	r.note(path, "error", "not checked: "+err.Error())
 	r.failed = true
 }

@@ -145,13 +145,38 @@ func (sw *sarifWriter) add(rep fileReport) error {
 	return rep.Findings.Err()
 }
 
-// finish writes the rest of the log after the last results.
-func (sw *sarifWriter) finish() error {
+// finish writes the rest of the log after the last results: the run's
+// invocation (SARIF 2.1.0 §3.20), which says whether the run succeeded
+// (no path that could not be read, no bad configuration: exit status
+// other than 2) and, as tool execution notifications (§3.20.21, §3.58),
+// names each file that was not checked and why, so a log read in CI
+// does not pass over a dataset that was skipped. The invocation is
+// written after the results, where it is known; the order of a JSON
+// object's members carries no meaning.
+func (sw *sarifWriter) finish(successful bool, notes []runNote) error {
 	if sw.results > 0 {
 		sw.w.WriteString("\n")
 		sw.w.WriteString(sw.indent[:len(sw.indent)-2])
 	}
-	if _, err := sw.w.Write(sw.tail); err != nil {
+	inv := sarif.NewInvocation().WithExecutionSuccess(successful)
+	for _, n := range notes {
+		note := sarif.NewNotification().WithLevel(n.level).WithMessage(sarif.NewTextMessage(sarifMessage(n.text)))
+		if n.path != "" {
+			loc := sarif.NewPhysicalLocation().WithArtifactLocation(sarif.NewSimpleArtifactLocation(sarifURI(n.path)))
+			note.WithLocations([]*sarif.Location{sarif.NewLocationWithPhysicalLocation(loc)})
+		}
+		inv.AddTToolExecutionNotification(note)
+	}
+	runIndent := sw.indent[:len(sw.indent)-2]
+	b, err := json.MarshalIndent([]*sarif.Invocation{inv}, runIndent, "  ")
+	if err != nil {
+		return err
+	}
+	// the tail begins with the results' closing bracket
+	sw.w.Write(sw.tail[:1])
+	sw.w.WriteString(",\n" + runIndent + `"invocations": `)
+	sw.w.Write(b)
+	if _, err := sw.w.Write(sw.tail[1:]); err != nil {
 		return err
 	}
 	return sw.w.WriteByte('\n')

@@ -198,9 +198,11 @@ func decideOne(s string, w wants, part bool) (d Dialect, byContent, ok bool) {
 	d, byContent, ok = decideNamed(s, w, part)
 	if ok && w.loose && w.named() {
 		// a pattern named so is as often a word (an enum's "CO", a mode
-		// "O"), a URL query ("a=b") or a regular expression's class
-		// ([a-z0-9]*)
-		ok = !accidentalWord(s) && !keyValueWords(s) && !characterRange(s) && readsIn(d, s)
+		// "O"), a URL query ("a=b"), a regular expression's class
+		// ([a-z0-9]*) or a glob's or expression's "match anything"
+		// ("[ab].*", "**/x")
+		ok = !accidentalWord(s) && !keyValueWords(s) && !characterRange(s) &&
+			!strings.Contains(s, ".*") && !strings.Contains(s, "**") && readsIn(d, s)
 	}
 	return d, byContent, ok
 }

@@ -24,6 +24,9 @@ func TestCodeRules(t *testing.T) {
 		// a URL query under a loose name, alone and beside a pattern
 		{KindGo, `u := URL{Path: "/p", RawQuery: "a=b"}`, nil},
 		{KindPython, `queries = ["c=c", "[#6]=O"]`, []string{"q:c=c", "q:[#6]=O"}},
+		// globs and regular expressions under a loose name (setuptools'
+		// tests write patterns = ["**/*.txt", "[ab].*"])
+		{KindPython, `patterns = ["**/*.txt", "[ab].*", "[cn]**"]`, nil},
 		// a recursive pattern's bond is no range of characters, and a
 		// mapped wildcard is an attachment point (rdkit-data Contrib's
 		// LEF and mmpa scripts write both unnamed); a bare "[*-]" is not

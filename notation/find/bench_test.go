@@ -60,3 +60,29 @@ func benchmarkFindFiles(b *testing.B, kind Kind, files ...string) {
 		FindKind(kind, src, Config{})
 	}
 }
+
+// BenchmarkFindJSONArray measures a pretty-printed JSON array of 20,000
+// records (an object of three members each, indented by two), read
+// whole: a document's first reading, and every reading of an edit that
+// cannot be read apart.
+func BenchmarkFindJSONArray(b *testing.B) {
+	var buf bytes.Buffer
+	records := []string{"F/C=C/F", "N[C@@H](C)C(=O)O", "C1CCCCC1", "CC(=O)Oc1ccccc1C(=O)O", "C/C=C\\\\C"}
+	buf.WriteString("[\n")
+	for i := 0; i < 20000; i++ {
+		if i > 0 {
+			buf.WriteString(",\n")
+		}
+		fmt.Fprintf(&buf, "  {\n    \"id\": %d,\n    \"smiles\": \"%s\",\n    \"name\": \"compound-%d\"\n  }", i, records[i%len(records)], i)
+	}
+	buf.WriteString("\n]\n")
+	src := buf.Bytes()
+	b.SetBytes(int64(len(src)))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if n := len(FindKind(KindJSON, src, Config{})); n != 20000 {
+			b.Fatalf("%d records", n)
+		}
+	}
+}

@@ -37,6 +37,34 @@ type jsonParser struct {
 	// recover goes on reading an object or array after a member that
 	// does not read, at the next line that may begin one (resync)
 	recover bool
+	// keys and vals hold the members of the containers being read, the
+	// innermost last; a container's are moved to slab, in slices of
+	// their exact length, when it ends: one allocation for thousands of
+	// members instead of a few for each object
+	keys, vals []jsonValue
+	slab       []jsonValue
+}
+
+// jsonSlab is the number of values allocated at once for the members of
+// containers.
+const jsonSlab = 4096
+
+// take moves the values of stack from base on into the slab and returns
+// them, and shortens the stack to base.
+func (p *jsonParser) take(stack *[]jsonValue, base int) []jsonValue {
+	vs := (*stack)[base:]
+	n := len(vs)
+	if n == 0 {
+		return nil
+	}
+	if cap(p.slab)-len(p.slab) < n {
+		p.slab = make([]jsonValue, 0, max(jsonSlab, n))
+	}
+	at := len(p.slab)
+	p.slab = append(p.slab, vs...)
+	clear(vs)
+	*stack = (*stack)[:base]
+	return p.slab[at : at+n : at+n]
 }
 
 func parseJSON(src []byte) jsonValue {
@@ -454,6 +482,7 @@ func (p *jsonParser) value(depth int) jsonValue {
 		}
 		p.i++
 		ind := -1 // the indentation of the members, once one begins its line
+		kb, vb := len(p.keys), len(p.vals)
 		for {
 			p.blank()
 			if p.i < len(p.src) && p.src[p.i] == closer {
@@ -464,11 +493,12 @@ func (p *jsonParser) value(depth int) jsonValue {
 			if p.recover && ind < 0 {
 				ind = indentation(p.src, elem)
 			}
-			p.member(&v, depth)
+			p.member(v.kind, depth)
 			if p.bad && !(p.recover && ind >= 0 && p.resync(elem, ind, closer, v.kind)) {
 				break
 			}
 		}
+		v.keys, v.vals = p.take(&p.keys, kb), p.take(&p.vals, vb)
 		v.span = notation.Span{Start: start, End: p.i}
 		return v
 	}
@@ -481,11 +511,12 @@ func (p *jsonParser) value(depth int) jsonValue {
 	return jsonValue{kind: 'v', span: notation.Span{Start: start, End: p.i}}
 }
 
-// member reads one member of an object (key, colon, value) or one
-// element of an array into v, and the comma after it; p.bad is set
-// when it does not read, v keeping what did.
-func (p *jsonParser) member(v *jsonValue, depth int) {
-	if v.kind == 'o' {
+// member reads one member of an object (kind 'o': key, colon, value)
+// or one element of an array onto the parser's stacks, and the comma
+// after it; p.bad is set when it does not read, the stacks keeping what
+// did.
+func (p *jsonParser) member(kind byte, depth int) {
+	if kind == 'o' {
 		k := p.value(depth + 1)
 		if k.kind != 's' {
 			p.bad = true
@@ -498,18 +529,18 @@ func (p *jsonParser) member(v *jsonValue, depth int) {
 		}
 		p.i++
 		if !p.shallow || depth == p.top {
-			v.keys = append(v.keys, k)
+			p.keys = append(p.keys, k)
 		}
 	}
 	if e := p.value(depth + 1); !p.shallow || depth == p.top {
-		v.vals = append(v.vals, e)
+		p.vals = append(p.vals, e)
 	}
 	if p.bad {
 		return
 	}
 	p.blank()
 	closer := byte(']')
-	if v.kind == 'o' {
+	if kind == 'o' {
 		closer = '}'
 	}
 	if p.i < len(p.src) && p.src[p.i] == ',' {
@@ -711,9 +742,23 @@ func jsonEscape(s string) string {
 func findJSON(src []byte, cfg *Config) []Occurrence {
 	jf := &jsonFinder{src: src, cfg: cfg, nm: newNamer(cfg)}
 	vs := parseJSONValues(src)
-	if len(vs) > 1000 {
-		// JSON Lines: about a record a value, room made once
-		jf.out = make([]Occurrence, 0, len(vs))
+	// about a record a value of JSON Lines, or an element of an array of
+	// records (the document, or its longest array member): room made once
+	n := len(vs)
+	if len(vs) == 1 {
+		n = 0
+		if v := vs[0]; v.kind == 'a' {
+			n = len(v.vals)
+		} else if v.kind == 'o' {
+			for _, m := range v.vals {
+				if m.kind == 'a' {
+					n = max(n, len(m.vals))
+				}
+			}
+		}
+	}
+	if n > 1000 {
+		jf.out = make([]Occurrence, 0, n)
 	}
 	for _, v := range vs {
 		jf.walk(v, wants{}, false)
@@ -722,10 +767,11 @@ func findJSON(src []byte, cfg *Config) []Occurrence {
 }
 
 type jsonFinder struct {
-	src []byte
-	cfg *Config
-	nm  namer
-	out []Occurrence
+	src  []byte
+	cfg  *Config
+	nm   namer
+	out  []Occurrence
+	keys map[string]jsonKey // keyInfo
 	// title is the name of the innermost object around the value
 	// visited: its name, title or id member, as a table's title column
 	title string
@@ -747,7 +793,7 @@ func (jf *jsonFinder) objectTitle(v jsonValue) string {
 		if val.kind != 's' && val.kind != 'v' || val.span.Len() > maxJSONTitle+2 {
 			continue
 		}
-		p := titlePriority(jf.keyText(v.keys[k]))
+		p := jf.keyInfo(v.keys[k]).title
 		if p == 0 || best != 0 && p >= best {
 			continue
 		}
@@ -781,10 +827,10 @@ func (jf *jsonFinder) walk(v jsonValue, w wants, other bool) {
 			defer func() { jf.title = outer }()
 		}
 		for k := range v.vals {
-			key := jf.keyText(v.keys[k])
-			kw, about := jf.nm.classify(key)
+			ki := jf.keyInfo(v.keys[k])
+			key, kw, about := ki.text, ki.w, ki.about
 			child := kw
-			if !kw.named() && !aboutKey(key) {
+			if !kw.named() && !ki.aboutKey {
 				child = w
 			}
 			outer := jf.key
@@ -801,6 +847,43 @@ func (jf *jsonFinder) walk(v jsonValue, w wants, other bool) {
 			jf.str(v, w)
 		}
 	}
+}
+
+// jsonKey is what a key says, worked out once for each key text of a
+// document (jsonFinder.keys): records of a dataset repeat their keys.
+type jsonKey struct {
+	text     string
+	w        wants // what the key names (namer.classify)
+	about    bool  // the key names something about notation
+	aboutKey bool  // aboutKey(text)
+	title    int   // titlePriority(text)
+}
+
+// maxJSONKeys bounds the keys kept: a document keyed by record names
+// ({"CHEMBL25": "...", ...}) has as many keys as records.
+const maxJSONKeys = 4096
+
+// keyInfo returns what the key k says, from the keys seen before when
+// it is written without escapes.
+func (jf *jsonFinder) keyInfo(k jsonValue) jsonKey {
+	cs := k.content(jf.src)
+	raw := jf.src[cs.Start:cs.End]
+	plain := bytes.IndexByte(raw, '\\') < 0
+	if plain {
+		if ki, ok := jf.keys[string(raw)]; ok {
+			return ki
+		}
+	}
+	ki := jsonKey{text: jf.keyText(k)}
+	ki.w, ki.about = jf.nm.classify(ki.text)
+	ki.aboutKey, ki.title = aboutKey(ki.text), titlePriority(ki.text)
+	if plain && len(jf.keys) < maxJSONKeys {
+		if jf.keys == nil {
+			jf.keys = map[string]jsonKey{}
+		}
+		jf.keys[ki.text] = ki
+	}
+	return ki
 }
 
 func (jf *jsonFinder) keyText(k jsonValue) string {
@@ -828,12 +911,27 @@ func (jf *jsonFinder) str(v jsonValue, w wants) {
 	w.guess = !named
 	var d decoded
 	cs := v.content(jf.src)
-	decodeJSON(jf.src, cs, false, &d)
-	text := string(d.text)
-	rs := decide(text, w)
-	if len(rs) == 0 {
+	var text string
+	if raw := jf.src[cs.Start:cs.End]; bytes.IndexByte(raw, '\\') < 0 {
+		// no escape: the text is the bytes, its map made only for a
+		// record (the one decodeJSON would make)
+		text = string(raw)
+		if rs := decide(text, w); len(rs) > 0 {
+			d.b.copy(cs.Start, len(raw))
+			jf.record(v, &d, cs, text, rs, named)
+		}
 		return
 	}
+	decodeJSON(jf.src, cs, false, &d)
+	text = string(d.text)
+	if rs := decide(text, w); len(rs) > 0 {
+		jf.record(v, &d, cs, text, rs, named)
+	}
+}
+
+// record adds the records rs of the JSON string v, whose content cs
+// decodes to text (d).
+func (jf *jsonFinder) record(v jsonValue, d *decoded, cs notation.Span, text string, rs []found, named bool) {
 	m := d.b.done(cs.Start)
 	for _, r := range rs {
 		sub := m

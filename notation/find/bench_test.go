@@ -86,3 +86,22 @@ func BenchmarkFindJSONArray(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkFindJSONLines measures 20,000 JSON Lines records, each line
+// read by a parser of its own.
+func BenchmarkFindJSONLines(b *testing.B) {
+	var buf bytes.Buffer
+	records := []string{"F/C=C/F", "N[C@@H](C)C(=O)O", "C1CCCCC1", "CC(=O)Oc1ccccc1C(=O)O", "C/C=C\\\\C"}
+	for i := 0; i < 20000; i++ {
+		fmt.Fprintf(&buf, "{\"id\": %d, \"smiles\": \"%s\", \"name\": \"compound-%d\"}\n", i, records[i%len(records)], i)
+	}
+	src := buf.Bytes()
+	b.SetBytes(int64(len(src)))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if n := len(FindKind(KindJSON, src, Config{})); n != 20000 {
+			b.Fatalf("%d records", n)
+		}
+	}
+}

@@ -45,8 +45,9 @@ type jsonParser struct {
 	slab       []jsonValue
 }
 
-// jsonSlab is the number of values allocated at once for the members of
-// containers.
+// jsonSlab is the most values allocated at once for the members of
+// containers; a parser starts with a few and doubles, so that one made
+// for each line of JSON Lines allocates no more than the line needs.
 const jsonSlab = 4096
 
 // take moves the values of stack from base on into the slab and returns
@@ -58,7 +59,7 @@ func (p *jsonParser) take(stack *[]jsonValue, base int) []jsonValue {
 		return nil
 	}
 	if cap(p.slab)-len(p.slab) < n {
-		p.slab = make([]jsonValue, 0, max(jsonSlab, n))
+		p.slab = make([]jsonValue, 0, max(min(jsonSlab, 2*cap(p.slab)), n, 8))
 	}
 	at := len(p.slab)
 	p.slab = append(p.slab, vs...)
@@ -119,12 +120,13 @@ func parseJSONValues(src []byte) []jsonValue {
 // each line read on its own: a value cannot run past its line, and a
 // line that does not read is kept as far as it reads.
 func jsonLineValues(src []byte, from, to int, vs []jsonValue) []jsonValue {
+	p := &jsonParser{} // one for all lines: its stacks and slab are shared
 	for from < to {
 		end, next := to, to
 		if k := bytes.IndexByte(src[from:to], '\n'); k >= 0 {
 			end, next = from+k, from+k+1
 		}
-		p := &jsonParser{src: src[:end], i: from}
+		p.src, p.i, p.bad = src[:end], from, false
 		for {
 			p.blankOrSeparator()
 			if p.i >= end {

@@ -828,9 +828,23 @@ func (jf *jsonFinder) walk(v jsonValue, w wants, other bool) {
 			jf.title = t
 			defer func() { jf.title = outer }()
 		}
+		// beside a member named as notation, a name, title or id member
+		// is the record's title (objectTitle), not a record of its own,
+		// as a table's title column is not read beside its notation
+		// column: {"name": "c1ccccc1O", "smiles": "Oc1ccccc1"}
+		named := false
+		for k := range v.keys {
+			if jf.keyInfo(v.keys[k]).w.named() {
+				named = true
+				break
+			}
+		}
 		for k := range v.vals {
 			ki := jf.keyInfo(v.keys[k])
 			key, kw, about := ki.text, ki.w, ki.about
+			if named && ki.title > 0 && !kw.named() && v.vals[k].kind == 's' {
+				continue
+			}
 			child := kw
 			if !kw.named() && !ki.aboutKey {
 				child = w

@@ -131,3 +131,29 @@ func TestFindJSONResync(t *testing.T) {
 		})
 	}
 }
+
+// TestFindJSONTitleBesideNotation checks that the name, title or id
+// member of an object that has a member named as notation is its title
+// and no record of its own, as a table's title column is no notation
+// column (common practice), while the same text in an object without
+// such a member is still looked at.
+func TestFindJSONTitleBesideNotation(t *testing.T) {
+	tests := []struct {
+		src  string
+		want []string // text and title of each record
+	}{
+		{`[{"name": "c1ccccc1O", "smiles": "Oc1ccccc1"}, {"id": "C[C@H](N)C(=O)O", "smiles": "C[C@@H](N)C(=O)O"}]`,
+			[]string{"Oc1ccccc1 c1ccccc1O", "C[C@@H](N)C(=O)O C[C@H](N)C(=O)O"}},
+		// no member named as notation: the name is looked at as before
+		{`{"name": "C[C@H](N)C(=O)O", "note": "x"}`, []string{"C[C@H](N)C(=O)O C[C@H](N)C(=O)O"}},
+	}
+	for _, tt := range tests {
+		var got []string
+		for _, o := range FindKind(KindJSON, []byte(tt.src), Config{}) {
+			got = append(got, o.Text+" "+o.Title)
+		}
+		if !slices.Equal(got, tt.want) {
+			t.Errorf("%s: found %q, want %q", tt.src, got, tt.want)
+		}
+	}
+}

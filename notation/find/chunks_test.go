@@ -25,7 +25,23 @@ func chunkCases() map[string]string {
 	for i := range 3000 {
 		fmt.Fprintf(&tabbed, "id%d\tC[C@@H](N)C%s\t%d\n", i, strings.Repeat("C", i%7), i)
 	}
+	var array, lines strings.Builder
+	array.WriteString("{\"name\": \"batch\", \"records\": [\n")
+	for i := range 3000 {
+		rec := []string{"N[C@@H](C)C(=O)O", "F/C=C\\\\F", "C1CC[C@H](O)CC1", "c1ccccc1O"}[i%4]
+		if i > 0 {
+			array.WriteString(",\n")
+		}
+		fmt.Fprintf(&array, "  {\"id\": %d, \"smiles\": \"%s\", \"tags\": [\"x\", \"C[C@H](F)Cl\"]}", i, rec)
+		if i%1000 == 500 {
+			array.WriteString("\n  oops a stray line")
+		}
+		fmt.Fprintf(&lines, "{\"smiles\": \"%s\", \"n\": %d}\n", rec, i)
+	}
+	array.WriteString("\n]}\n")
 	return map[string]string{
+		"array.json":  array.String(),
+		"lines.jsonl": lines.String(),
 		"long.smi":    long.String(),
 		"tabbed.smi":  tabbed.String(),
 		"header.smi":  "smiles name\nC[C@H](O)CC butanol\n\nF/C=C\\F difluoroethene\n",
@@ -117,7 +133,7 @@ func FuzzFindChunks(f *testing.F) {
 	}
 	f.Add([]byte("C1CC1 a\r\n\r\n\tF/C=C/F  b c\nC1CC\n"), uint8(KindList), uint16(1))
 	f.Fuzz(func(t *testing.T, src []byte, kind uint8, size uint16) {
-		kinds := []Kind{KindList, KindCSV, KindTSV, KindPython}
+		kinds := []Kind{KindList, KindCSV, KindTSV, KindPython, KindJSON}
 		k := kinds[int(kind)%len(kinds)]
 		n := 1 + int(size)%64
 		want := FindKind(k, src, Config{})

@@ -49,11 +49,18 @@ func FindKind(kind Kind, content []byte, cfg Config) []Occurrence {
 // list is read as it is handed out, the strings of each chunk copied
 // apart from the rest, so that a caller that keeps only what it needs of
 // each chunk never holds all the occurrences of a long list, nor a copy
-// of the whole of it (Stream in stereo/document). Other hosts, and the
-// lists that must be read whole, are found whole and handed out in
-// slices.
+// of the whole of it (Stream in stereo/document). A JSON document is
+// parsed whole and its records handed out as they are found. Other
+// hosts, and the lists that must be read whole, are found whole and
+// handed out in slices.
 func FindChunks(kind Kind, content []byte, cfg Config, n int, each func([]Occurrence)) {
 	if kind == KindList && findListChunks(content, &cfg, n, each) {
+		return
+	}
+	if kind == KindJSON {
+		// the document is parsed whole, its records handed out as the
+		// walk finds them
+		findJSONChunks(content, &cfg, n, each)
 		return
 	}
 	chunks(FindKind(kind, content, cfg), n, each)

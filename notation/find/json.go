@@ -742,11 +742,28 @@ func jsonEscape(s string) string {
 // notation, like "name"), and string values anywhere that are
 // unmistakably notation. Keys themselves are never notation.
 func findJSON(src []byte, cfg *Config) []Occurrence {
-	jf := &jsonFinder{src: src, cfg: cfg, nm: newNamer(cfg)}
+	return findJSONChunks(src, cfg, 0, nil)
+}
+
+// findJSONChunks is findJSON handing the occurrences to each n at a
+// time as the walk finds them, when each is not nil; it returns the
+// occurrences when each is nil.
+func findJSONChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) []Occurrence {
+	jf := &jsonFinder{src: src, cfg: cfg, nm: newNamer(cfg), each: each, chunk: n}
 	vs := parseJSONValues(src)
+	if each != nil {
+		jf.out = make([]Occurrence, 0, n)
+		for _, v := range vs {
+			jf.walk(v, wants{}, false)
+		}
+		if len(jf.out) > 0 {
+			each(jf.out)
+		}
+		return nil
+	}
 	// about a record a value of JSON Lines, or an element of an array of
 	// records (the document, or its longest array member): room made once
-	n := len(vs)
+	n = len(vs)
 	if len(vs) == 1 {
 		n = 0
 		if v := vs[0]; v.kind == 'a' {
@@ -774,6 +791,10 @@ type jsonFinder struct {
 	nm   namer
 	out  []Occurrence
 	keys map[string]jsonKey // keyInfo
+	// each, when not nil, is handed out every chunk occurrences
+	// (findJSONChunks)
+	each  func([]Occurrence)
+	chunk int
 	// title is the name of the innermost object around the value
 	// visited: its name, title or id member, as a table's title column
 	title string
@@ -979,5 +1000,9 @@ func (jf *jsonFinder) record(v jsonValue, d *decoded, cs notation.Span, text str
 			o.addDiag(e, []Fix{{Title: "double the backslashes", Span: v.span, NewText: `"` + jsonEscape(text) + `"`}})
 		}
 		jf.out = append(jf.out, o)
+		if jf.each != nil && len(jf.out) >= jf.chunk {
+			jf.each(jf.out)
+			jf.out = make([]Occurrence, 0, jf.chunk)
+		}
 	}
 }

@@ -1,6 +1,7 @@
 package document
 
 import (
+	"errors"
 	"path"
 	"runtime"
 	"sort"
@@ -240,26 +241,22 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	cfg := a.cfg
 	kind := a.kindOf(name, languageID)
 	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
-	occs := find.FindKind(kind, content, cfg.findConfig(name))
-	occs = res.splitQueries(occs)
-	res.Records = make([]Record, len(occs))
-	res.own = make([][]Diagnostic, len(occs))
 	// The records of a list whose constitution pre-key another has get
 	// their identity keys now, which Relate needs: a record from the
 	// molecule at hand, and the first record with its pre-key (in the
 	// order the goroutines take them) read again when the second comes.
 	var seen preKeys
 	if relatedKinds[kind] {
-		seen.first = make(map[uint64]int32, len(occs))
+		seen.first = make(map[uint64]int32, min(len(content)/32, 1<<20))
 	}
 	reading, lim := cfg.Reading.notation(), cfg.Limits.limits()
-	fill := func(i int) {
+	fill := func(i int, occ *find.Occurrence) {
 		rr := rereaders.Get().(*notation.Rereader)
-		an, f := a.cache.read(occs[i].Text, reading, lim, rr)
-		res.Records[i] = Record{Occ: &occs[i], an: an}
+		an, f := a.cache.read(occ.Text, reading, lim, rr)
+		res.Records[i] = Record{Occ: occ, an: an}
 		res.own[i] = res.recordFindings(i, f)
 		if an.identifiable {
-			if j, again := seen.add(relateKey(an.preKey, &occs[i]), i); again {
+			if j, again := seen.add(relateKey(an.preKey, occ), i); again {
 				an.identifyWith(f.mol)
 				if j >= 0 {
 					res.Records[j].an.identify()
@@ -268,7 +265,16 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 		}
 		rereaders.Put(rr)
 	}
-	parallel(len(occs), fill)
+	// The records are found a chunk at a time while the chunks before
+	// are read on all cores: the finder's pass over a long list overlaps
+	// the reading instead of coming before it.
+	findOverlapped(kind, content, cfg.findConfig(name), func(occs []find.Occurrence) {
+		occs = res.splitChunkQueries(occs)
+		base := len(res.Records)
+		res.Records = append(res.Records, make([]Record, len(occs))...)
+		res.own = append(res.own, make([][]Diagnostic, len(occs))...)
+		parallel(len(occs), func(k int) { fill(base+k, &occs[k]) })
+	})
 	n := 0
 	for _, own := range res.own {
 		n += len(own)
@@ -281,6 +287,45 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	res.sortDiagnostics()
 	return res
 }
+
+// overlapChunk is how many occurrences findOverlapped hands on at a time.
+const overlapChunk = 2048
+
+// findOverlapped calls each with the occurrences find.FindChunks finds,
+// in order, on the calling goroutine, while the finder goes on to the
+// next chunks on a goroutine of its own. A panic of the finder is raised
+// again on the calling goroutine.
+func findOverlapped(kind find.Kind, content []byte, cfg find.Config, each func([]find.Occurrence)) {
+	ch := make(chan []find.Occurrence, 2)
+	stop := make(chan struct{})
+	var failure any
+	go func() {
+		defer close(ch)
+		defer func() { failure = recover() }()
+		find.FindChunks(kind, content, cfg, overlapChunk, func(occs []find.Occurrence) {
+			select {
+			case ch <- occs:
+			case <-stop:
+				panic(errStopped)
+			}
+		})
+	}()
+	defer func() {
+		// each panicked, or returned: let the finder end
+		close(stop)
+		for range ch {
+		}
+	}()
+	for occs := range ch {
+		each(occs)
+	}
+	if failure != nil && failure != errStopped {
+		panic(failure)
+	}
+}
+
+// errStopped ends a finder whose chunks are no longer wanted.
+var errStopped = errors.New("finding stopped")
 
 // preKeys is the set of the constitution pre-keys of a document's
 // records that goroutines add to as they read them.

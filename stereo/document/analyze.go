@@ -268,7 +268,10 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	// The records are found a chunk at a time while the chunks before
 	// are read on all cores: the finder's pass over a long list overlaps
 	// the reading instead of coming before it.
-	findOverlapped(kind, content, cfg.findConfig(name), func(occs []find.Occurrence) {
+	fcfg := cfg.findConfig(name)
+	findOverlapped(func(each func([]find.Occurrence)) {
+		find.FindChunks(kind, content, fcfg, overlapChunk, each)
+	}, func(occs []find.Occurrence) {
 		occs = res.splitChunkQueries(occs)
 		base := len(res.Records)
 		res.Records = append(res.Records, make([]Record, len(occs))...)
@@ -291,18 +294,19 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 // overlapChunk is how many occurrences findOverlapped hands on at a time.
 const overlapChunk = 2048
 
-// findOverlapped calls each with the occurrences find.FindChunks finds,
-// in order, on the calling goroutine, while the finder goes on to the
-// next chunks on a goroutine of its own. A panic of the finder is raised
-// again on the calling goroutine.
-func findOverlapped(kind find.Kind, content []byte, cfg find.Config, each func([]find.Occurrence)) {
+// findOverlapped calls each with the chunks of occurrences that finder
+// hands out (find.FindChunks), in order, on the calling goroutine, while
+// the finder goes on to the next chunks on a goroutine of its own. A
+// panic of the finder is raised again on the calling goroutine; when
+// each panics, the finder is stopped at its next chunk.
+func findOverlapped(finder func(each func([]find.Occurrence)), each func([]find.Occurrence)) {
 	ch := make(chan []find.Occurrence, 2)
 	stop := make(chan struct{})
 	var failure any
 	go func() {
 		defer close(ch)
 		defer func() { failure = recover() }()
-		find.FindChunks(kind, content, cfg, overlapChunk, func(occs []find.Occurrence) {
+		finder(func(occs []find.Occurrence) {
 			select {
 			case ch <- occs:
 			case <-stop:

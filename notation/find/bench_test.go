@@ -8,23 +8,37 @@ import (
 	"testing"
 )
 
-// BenchmarkFindList measures the list path on a 100,000-record .smi file
-// (the hot path for large libraries); b.SetBytes makes the result MB/s.
-func BenchmarkFindList(b *testing.B) {
+// benchRecords are the structures of the generated benchmark documents
+// (OpenSMILES examples and common compounds; common practice).
+var benchRecords = []string{"F/C=C/F", "N[C@@H](C)C(=O)O", "C1CCCCC1", "CC(=O)Oc1ccccc1C(=O)O", "C/C=C\\C"}
+
+// benchmarkGenerated times FindKind on a document of n records that
+// line(buf, i, record) writes, one after another, checking it finds n;
+// b.SetBytes makes the result MB/s.
+func benchmarkGenerated(b *testing.B, kind Kind, head, tail string, n int, line func(*bytes.Buffer, int, string)) {
 	var buf bytes.Buffer
-	records := []string{"F/C=C/F", "N[C@@H](C)C(=O)O", "C1CCCCC1", "CC(=O)Oc1ccccc1C(=O)O", "C/C=C\\C"}
-	for i := 0; i < 100000; i++ {
-		fmt.Fprintf(&buf, "%s compound-%d\n", records[i%len(records)], i)
+	buf.WriteString(head)
+	for i := range n {
+		line(&buf, i, benchRecords[i%len(benchRecords)])
 	}
+	buf.WriteString(tail)
 	src := buf.Bytes()
 	b.SetBytes(int64(len(src)))
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		if n := len(FindKind(KindList, src, Config{})); n != 100000 {
-			b.Fatalf("%d records", n)
+		if got := len(FindKind(kind, src, Config{})); got != n {
+			b.Fatalf("%d records, want %d", got, n)
 		}
 	}
+}
+
+// BenchmarkFindList measures the list path on a 100,000-record .smi file
+// (the hot path for large libraries).
+func BenchmarkFindList(b *testing.B) {
+	benchmarkGenerated(b, KindList, "", "", 100000, func(buf *bytes.Buffer, i int, rec string) {
+		fmt.Fprintf(buf, "%s compound-%d\n", rec, i)
+	})
 }
 
 // BenchmarkFindPython measures a large Python file: the ordinary service
@@ -66,42 +80,17 @@ func benchmarkFindFiles(b *testing.B, kind Kind, files ...string) {
 // whole: a document's first reading, and every reading of an edit that
 // cannot be read apart.
 func BenchmarkFindJSONArray(b *testing.B) {
-	var buf bytes.Buffer
-	records := []string{"F/C=C/F", "N[C@@H](C)C(=O)O", "C1CCCCC1", "CC(=O)Oc1ccccc1C(=O)O", "C/C=C\\\\C"}
-	buf.WriteString("[\n")
-	for i := 0; i < 20000; i++ {
+	benchmarkGenerated(b, KindJSON, "[\n", "\n]\n", 20000, func(buf *bytes.Buffer, i int, rec string) {
 		if i > 0 {
 			buf.WriteString(",\n")
 		}
-		fmt.Fprintf(&buf, "  {\n    \"id\": %d,\n    \"smiles\": \"%s\",\n    \"name\": \"compound-%d\"\n  }", i, records[i%len(records)], i)
-	}
-	buf.WriteString("\n]\n")
-	src := buf.Bytes()
-	b.SetBytes(int64(len(src)))
-	b.ReportAllocs()
-	b.ResetTimer()
-	for i := 0; i < b.N; i++ {
-		if n := len(FindKind(KindJSON, src, Config{})); n != 20000 {
-			b.Fatalf("%d records", n)
-		}
-	}
+		fmt.Fprintf(buf, "  {\n    \"id\": %d,\n    \"smiles\": %q,\n    \"name\": \"compound-%d\"\n  }", i, rec, i)
+	})
 }
 
-// BenchmarkFindJSONLines measures 20,000 JSON Lines records, each line
-// read by a parser of its own.
+// BenchmarkFindJSONLines measures 20,000 JSON Lines records.
 func BenchmarkFindJSONLines(b *testing.B) {
-	var buf bytes.Buffer
-	records := []string{"F/C=C/F", "N[C@@H](C)C(=O)O", "C1CCCCC1", "CC(=O)Oc1ccccc1C(=O)O", "C/C=C\\\\C"}
-	for i := 0; i < 20000; i++ {
-		fmt.Fprintf(&buf, "{\"id\": %d, \"smiles\": \"%s\", \"name\": \"compound-%d\"}\n", i, records[i%len(records)], i)
-	}
-	src := buf.Bytes()
-	b.SetBytes(int64(len(src)))
-	b.ReportAllocs()
-	b.ResetTimer()
-	for i := 0; i < b.N; i++ {
-		if n := len(FindKind(KindJSON, src, Config{})); n != 20000 {
-			b.Fatalf("%d records", n)
-		}
-	}
+	benchmarkGenerated(b, KindJSON, "", "", 20000, func(buf *bytes.Buffer, i int, rec string) {
+		fmt.Fprintf(buf, "{\"id\": %d, \"smiles\": %q, \"name\": \"compound-%d\"}\n", i, rec, i)
+	})
 }

@@ -753,8 +753,9 @@ func findJSONChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) []O
 	vs := parseJSONValues(src)
 	if each != nil {
 		jf.out = make([]Occurrence, 0, n)
-		for _, v := range vs {
-			jf.walk(v, wants{}, false)
+		for i := range vs {
+			jf.walk(vs[i], wants{}, false)
+			vs[i] = jsonValue{} // read: its slabs may go while the rest is read
 		}
 		if len(jf.out) > 0 {
 			each(jf.out)
@@ -876,8 +877,14 @@ func (jf *jsonFinder) walk(v jsonValue, w wants, other bool) {
 			jf.key = outer
 		}
 	case 'a':
-		for _, e := range v.vals {
-			jf.walk(e, w, other)
+		for k := range v.vals {
+			jf.walk(v.vals[k], w, other)
+			if jf.each != nil {
+				// handed out as it is read: an element read is let go,
+				// so the parsed records before it need not stay while
+				// the chunks handed out are analysed
+				v.vals[k] = jsonValue{}
+			}
 		}
 	case 's':
 		if w.named() || !other {

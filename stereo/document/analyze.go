@@ -265,12 +265,23 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 		}
 		rereaders.Put(rr)
 	}
-	// The records are found a chunk at a time while the chunks before
-	// are read on all cores: the finder's pass over a long list overlaps
-	// the reading instead of coming before it.
+	// The records of a JSON document are handed out as its walk finds
+	// them, while the chunks before are read on all cores: the walk over
+	// a long dataset overlaps the reading instead of coming before it. A
+	// list is found whole: streaming it copies its text a window at a
+	// time and costs more than it overlaps (100,000 records: 120 to 180
+	// ms against 70 to 120 ms).
 	fcfg := cfg.findConfig(name)
 	findOverlapped(func(each func([]find.Occurrence)) {
-		find.FindChunks(kind, content, fcfg, overlapChunk, each)
+		if kind == find.KindJSON {
+			find.FindChunks(kind, content, fcfg, overlapChunk, each)
+			return
+		}
+		occs := find.FindKind(kind, content, fcfg)
+		for from := 0; from < len(occs); from += overlapChunk {
+			to := min(from+overlapChunk, len(occs))
+			each(occs[from:to:to])
+		}
 	}, func(occs []find.Occurrence) {
 		occs = res.splitChunkQueries(occs)
 		base := len(res.Records)

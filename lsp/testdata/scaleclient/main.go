@@ -112,14 +112,20 @@ func main() {
 		"delete": {"delete a line", (*document).deleteEdit},
 		// at the top every record after the edit moves: the most work
 		"insert-top": {"insert at the top", func(d *document, rng *rand.Rand) (edit, bool) {
-			src := rng.Intn(len(d.lines))
+			top := d.top()
+			src := top + rng.Intn(len(d.lines)-2*top)
 			if d.json {
-				return edit{0, 0, 0, 0, d.lines[src] + "\n"}, true
+				// an element that has its comma, before the first one
+				for top > 0 && !strings.HasSuffix(d.lines[src], ",") {
+					src = top + rng.Intn(len(d.lines)-2*top)
+				}
+				return edit{top, 0, top, 0, d.lines[src] + "\n"}, true
 			}
 			return edit{0, 0, 0, 0, d.notation(src) + "\tinserted-" + strconv.Itoa(src) + "\n"}, true
 		}},
 		"delete-top": {"delete the top", func(d *document, rng *rand.Rand) (edit, bool) {
-			return edit{0, 0, 1, 0, ""}, true
+			top := d.top()
+			return edit{top, 0, top + 1, 0, ""}, true
 		}},
 	}
 	var kinds []kind
@@ -446,6 +452,15 @@ func newDocument(text string, json bool) *document {
 		lines = lines[:len(lines)-1]
 	}
 	return &document{lines: lines, json: json}
+}
+
+// top is the first line of records: 1 in a JSON array written an
+// element a line between a "[" line and a "]" line, else 0.
+func (d *document) top() int {
+	if d.json && len(d.lines) > 3 && d.lines[0] == "[" && d.lines[len(d.lines)-1] == "]" {
+		return 1
+	}
+	return 0
 }
 
 // notation returns the first field of a line (of JSON Lines: the whole

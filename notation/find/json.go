@@ -492,8 +492,8 @@ func (p *jsonParser) value(depth int) jsonValue {
 				break
 			}
 			elem := p.i
-			if p.recover && ind < 0 {
-				ind = indentation(p.src, elem)
+			if p.recover && ind == -1 {
+				ind = memberIndentation(p.src, start, elem, v.kind)
 			}
 			p.member(v.kind, depth)
 			if p.bad && !(p.recover && ind >= 0 && p.resync(elem, ind, closer, v.kind)) {
@@ -519,11 +519,13 @@ func (p *jsonParser) value(depth int) jsonValue {
 // did.
 func (p *jsonParser) member(kind byte, depth int) {
 	if kind == 'o' {
-		k := p.value(depth + 1)
-		if k.kind != 's' {
+		if p.i >= len(p.src) || p.src[p.i] != '"' {
+			// no key: what is here is left for the reading to go on at
+			// (the next record, after a brace missing before it)
 			p.bad = true
 			return
 		}
+		k := p.value(depth + 1)
 		p.blank()
 		if p.i >= len(p.src) || p.src[p.i] != ':' {
 			p.bad = true
@@ -599,6 +601,31 @@ func (p *jsonParser) resync(elem, ind int, closer, kind byte) bool {
 	}
 	p.i = len(src)
 	return false
+}
+
+// memberIndentation returns the indentation of the members of the object
+// or array (kind 'o' or 'a') that opens at offset open, from its member
+// at offset elem: -1 when elem does not begin its line (a later member
+// may), -2 when the members are not indented as a pretty-printed
+// container's are and the reading is not to go on after an error in it.
+// An object's members are indented more than the line it opens on;
+// otherwise the "member" is the next record, after the object's closing
+// brace went missing. An array's elements may stand at the indentation
+// of the line it opens on ("[" alone on its first line, a record a line).
+func memberIndentation(src []byte, open, elem int, kind byte) int {
+	in := indentation(src, elem)
+	if in < 0 {
+		return -1
+	}
+	ls := bytes.LastIndexByte(src[:open], '\n') + 1
+	openIn := 0
+	for ls+openIn < open && (src[ls+openIn] == ' ' || src[ls+openIn] == '\t') {
+		openIn++
+	}
+	if in < openIn || kind == 'o' && in == openIn {
+		return -2
+	}
+	return in
 }
 
 // indentation returns the indentation of the line of src holding offset

@@ -101,6 +101,10 @@ func TestFindJSONResync(t *testing.T) {
 	}{
 		{"a closing brace missing", "[\n{\"id\": 1, \"smiles\": \"C[C@H](N)C(=O)O\"},\n{\"id\": 2, \"smiles\": \"C[C@@H](N)C(=O)O\"\n{\"id\": 3, \"smiles\": \"F/C=C/F\"},\n{\"id\": 4, \"smiles\": \"N[C@@H](C)C(=O)O\"}\n]\n",
 			[]string{"C[C@H](N)C(=O)O 1", "C[C@@H](N)C(=O)O 2", "F/C=C/F 3", "N[C@@H](C)C(=O)O 4"}},
+		// the comma after the missing brace makes the next record look
+		// like the object's next member: it is not taken as one
+		{"a closing brace missing before its comma", "[\n{\"id\": 1, \"smiles\": \"CC\"},\n{\"id\": 2, \"smiles\": \"CN\",\n{\"id\": 3, \"smiles\": \"CO\"},\n{\"id\": 4, \"smiles\": \"C[C@H](F)Cl\"}\n]\n",
+			[]string{"CC 1", "CN 2", "CO 3", "C[C@H](F)Cl 4"}},
 		{"a comma missing between records", "[\n  {\n    \"id\": \"a\",\n    \"smiles\": \"CC\"\n  }\n  {\n    \"id\": \"b\",\n    \"smiles\": \"C[C@H](F)Cl\"\n  }\n]\n",
 			[]string{"CC a", "C[C@H](F)Cl b"}},
 		{"a string left open", "[\n  {\n    \"id\": \"a\",\n    \"note\": \"half-typed,\n    \"smiles\": \"CC\"\n  },\n  {\n    \"id\": \"b\",\n    \"smiles\": \"C[C@H](F)Cl\"\n  }\n]\n",

@@ -37,6 +37,9 @@ type jsonParser struct {
 	// recover goes on reading an object or array after a member that
 	// does not read, at the next line that may begin one (resync)
 	recover bool
+	// levels are the objects and arrays being read, the innermost last,
+	// when recovering (resync)
+	levels []jsonLevel
 	// keys and vals hold the members of the containers being read, the
 	// innermost last; a container's are moved to slab, in slices of
 	// their exact length, when it ends: one allocation for thousands of
@@ -483,8 +486,11 @@ func (p *jsonParser) value(depth int) jsonValue {
 			v.kind, closer = 'a', ']'
 		}
 		p.i++
-		ind := -1 // the indentation of the members, once one begins its line
 		kb, vb := len(p.keys), len(p.vals)
+		me := len(p.levels)
+		if p.recover {
+			p.levels = append(p.levels, jsonLevel{ind: -1, kind: v.kind, closer: closer})
+		}
 		for {
 			p.blank()
 			if p.i < len(p.src) && p.src[p.i] == closer {
@@ -492,13 +498,16 @@ func (p *jsonParser) value(depth int) jsonValue {
 				break
 			}
 			elem := p.i
-			if p.recover && ind == -1 {
-				ind = memberIndentation(p.src, start, elem, v.kind)
+			if p.recover && p.levels[me].ind == -1 {
+				p.levels[me].ind, p.levels[me].openIn = memberIndentation(p.src, start, elem, v.kind)
 			}
 			p.member(v.kind, depth)
-			if p.bad && !(p.recover && ind >= 0 && p.resync(elem, ind, closer, v.kind)) {
+			if p.bad && !(p.recover && p.levels[me].ind >= 0 && p.resync(elem, me)) {
 				break
 			}
+		}
+		if p.recover {
+			p.levels = p.levels[:me]
 		}
 		v.keys, v.vals = p.take(&p.keys, kb), p.take(&p.vals, vb)
 		v.span = notation.Span{Start: start, End: p.i}
@@ -554,22 +563,40 @@ func (p *jsonParser) member(kind byte, depth int) {
 	}
 }
 
-// resync finds where the reading of an object or array (kind 'o' or
-// 'a', closed by closer) whose members begin their lines at indentation
-// ind goes on after its member or element that begins at elem did not
-// read, and reports whether it does. A document being typed, or with a
-// stray line (a comment, a merge conflict marker), keeps the records
-// after the error: the reading resumes at the next line, from where the
-// reading stopped, that begins at indentation ind with what may begin a
-// member (a key; for an array, any value), or that closes the
-// container. A line indented less that may close or continue a
-// container around this one ends the search: the container stays broken
-// and p.i is set to that line for the one around it to search on from.
-// Other lines (less indented text that is no JSON, members of a value
-// inside) are passed over. Lines are only searched forward of p.i, so a
-// document is searched about once however deep the error lies.
-func (p *jsonParser) resync(elem, ind int, closer, kind byte) bool {
-	src := p.src
+// jsonLevel is an object or array being read, for resync: the
+// indentation its members begin their lines at (-1 while no member has
+// begun a line, -2 when they are not indented as a pretty-printed
+// container's are), that of the line it opens on, its kind and closer.
+type jsonLevel struct {
+	ind, openIn  int
+	kind, closer byte
+}
+
+// begins reports whether a line indented by in whose first character is
+// c may begin a member of l or close it.
+func (l jsonLevel) begins(in int, c byte) bool {
+	if l.ind < 0 {
+		return false
+	}
+	return in == l.ind && (c == '"' || l.kind == 'a' && strings.IndexByte("{[-0123456789tfn", c) >= 0) ||
+		c == l.closer && in >= l.openIn && in <= l.ind
+}
+
+// resync finds where the reading of the object or array p.levels[me]
+// goes on after its member or element that begins at elem did not read,
+// and reports whether it does. A document being typed, or with a stray
+// line (a comment, a merge conflict marker), keeps the records after the
+// error: the reading resumes at the next line, from where the reading
+// stopped, that begins at the indentation of the container's members
+// with what may begin a member (a key; for an array, any value), or that
+// closes the container. A line that may begin a member of a container
+// around this one, or close it, ends the search: this one stays broken
+// and p.i is set to that line for that container to go on at. Other
+// lines (text that is no JSON, members of a value inside) are passed
+// over. Lines are only searched forward of p.i, so a document is
+// searched about once however deep the error lies.
+func (p *jsonParser) resync(elem, me int) bool {
+	src, l := p.src, p.levels[me]
 	from := max(p.i, elem+1)
 	at := bytes.LastIndexByte(src[:min(from, len(src))], '\n') + 1
 	for at < len(src) {
@@ -586,16 +613,15 @@ func (p *jsonParser) resync(elem, ind int, closer, kind byte) bool {
 			continue
 		}
 		c, in := src[first], first-at
-		switch {
-		case in <= ind && c == closer:
+		if l.begins(in, c) {
 			p.i, p.bad = first, false
 			return true
-		case in < ind && strings.IndexByte("{}[]\"", c) >= 0:
-			p.i = at
-			return false
-		case in == ind && (c == '"' || kind == 'a' && strings.IndexByte("{[-0123456789tfn", c) >= 0):
-			p.i, p.bad = first, false
-			return true
+		}
+		for k := me - 1; k >= 0; k-- {
+			if p.levels[k].begins(in, c) {
+				p.i = at
+				return false
+			}
 		}
 		at = next
 	}
@@ -605,27 +631,27 @@ func (p *jsonParser) resync(elem, ind int, closer, kind byte) bool {
 
 // memberIndentation returns the indentation of the members of the object
 // or array (kind 'o' or 'a') that opens at offset open, from its member
-// at offset elem: -1 when elem does not begin its line (a later member
-// may), -2 when the members are not indented as a pretty-printed
-// container's are and the reading is not to go on after an error in it.
+// at offset elem, and that of the line it opens on: -1 when elem does
+// not begin its line (a later member may), -2 when the members are not
+// indented as a pretty-printed container's are and the reading is not
+// to go on after an error in it.
 // An object's members are indented more than the line it opens on;
 // otherwise the "member" is the next record, after the object's closing
 // brace went missing. An array's elements may stand at the indentation
 // of the line it opens on ("[" alone on its first line, a record a line).
-func memberIndentation(src []byte, open, elem int, kind byte) int {
+func memberIndentation(src []byte, open, elem int, kind byte) (ind, openIn int) {
 	in := indentation(src, elem)
 	if in < 0 {
-		return -1
+		return -1, 0
 	}
 	ls := bytes.LastIndexByte(src[:open], '\n') + 1
-	openIn := 0
 	for ls+openIn < open && (src[ls+openIn] == ' ' || src[ls+openIn] == '\t') {
 		openIn++
 	}
 	if in < openIn || kind == 'o' && in == openIn {
-		return -2
+		return -2, openIn
 	}
-	return in
+	return in, openIn
 }
 
 // indentation returns the indentation of the line of src holding offset

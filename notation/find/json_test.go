@@ -1,7 +1,10 @@
 package find
 
 import (
+	"fmt"
+	"math/rand"
 	"slices"
+	"strings"
 	"testing"
 )
 
@@ -158,6 +161,73 @@ func TestFindJSONTitleBesideNotation(t *testing.T) {
 		}
 		if !slices.Equal(got, tt.want) {
 			t.Errorf("%s: found %q, want %q", tt.src, got, tt.want)
+		}
+	}
+}
+
+// TestFindJSONResyncLoss breaks arrays of records one character or one
+// line at a time (a character deleted, a bracket, brace, comma, colon,
+// quote, letter or line break put in, a line deleted) and checks that
+// each break costs at most the two records around it, in an array of an
+// object a line and in a pretty-printed one whose records hold an inner
+// array. Breaks on the first lines, which hold the document's own
+// bracket, are left out: a document that does not begin as JSON is not
+// read on.
+func TestFindJSONResyncLoss(t *testing.T) {
+	recs := []string{"N[C@@H](C)C(=O)O", "F/C=C/F", "C1CC[C@H](O)CC1", "c1ccccc1O"} // OpenSMILES examples (common practice)
+	const n = 40
+	layouts := map[string]func(b *strings.Builder, i int){
+		"an object a line": func(b *strings.Builder, i int) {
+			fmt.Fprintf(b, `{"id": %d, "smiles": "%s", "name": "n%d"}`, i, recs[i%4], i)
+		},
+		"pretty-printed": func(b *strings.Builder, i int) {
+			fmt.Fprintf(b, "  {\n    \"id\": %d,\n    \"smiles\": \"%s\",\n    \"tags\": [\n      \"a\",\n      \"b\"\n    ]\n  }", i, recs[i%4])
+		},
+	}
+	count := func(s string) int {
+		k := 0
+		for _, o := range FindKind(KindJSON, []byte(s), Config{}) {
+			if o.Field == FieldOfKey("smiles") {
+				k++
+			}
+		}
+		return k
+	}
+	for name, record := range layouts {
+		var b strings.Builder
+		b.WriteString("[\n")
+		for i := range n {
+			if i > 0 {
+				b.WriteString(",\n")
+			}
+			record(&b, i)
+		}
+		b.WriteString("\n]\n")
+		src := b.String()
+		if c := count(src); c != n {
+			t.Fatalf("%s: %d records in the whole document, want %d", name, c, n)
+		}
+		skip := strings.Index(src, "\"id\": 1,") // past the first record
+		rng := rand.New(rand.NewSource(1))
+		for range 2000 {
+			i := skip + rng.Intn(len(src)-skip)
+			var m string
+			switch rng.Intn(3) {
+			case 0:
+				m = src[:i] + src[i+1:]
+			case 1:
+				m = src[:i] + string("{}[],:\"x\n"[rng.Intn(9)]) + src[i:]
+			default:
+				ls := strings.LastIndexByte(src[:i], '\n') + 1
+				j := strings.IndexByte(src[i:], '\n')
+				if j < 0 {
+					continue
+				}
+				m = src[:ls] + src[i+j+1:]
+			}
+			if c := count(m); c < n-2 {
+				t.Errorf("%s: %d of %d records after a break at %d: %q", name, c, n, i, m[max(0, i-60):min(len(m), i+60)])
+			}
 		}
 	}
 }

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"path"
 	"runtime"
+	"slices"
 	"sort"
 	"sync"
 	"sync/atomic"
@@ -252,12 +253,20 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	reading, lim := cfg.Reading.notation(), cfg.Limits.limits()
 	fill := func(i int, occ *find.Occurrence) {
 		rr := rereaders.Get().(*notation.Rereader)
-		an, f := a.cache.read(occ.Text, reading, lim, rr)
+		an, f := a.cache.readNotes(occ.Text, reading, lim, rr)
 		res.Records[i] = Record{Occ: occ, an: an}
-		res.own[i] = res.recordFindings(i, f)
+		if f != nil {
+			res.own[i] = res.recordFindings(i, f)
+		} else {
+			res.own[i] = res.findingsFrom(i, an.notes.Load())
+		}
 		if an.identifiable {
 			if j, again := seen.add(relateKey(an.preKey, occ), i); again {
-				an.identifyWith(f.mol)
+				if f != nil {
+					an.identifyWith(f.mol)
+				} else {
+					an.identify() // known unless it was never needed
+				}
 				if j >= 0 {
 					res.Records[j].an.identify()
 				}
@@ -452,10 +461,79 @@ func (r *Result) configured(d Diagnostic) (_ Diagnostic, on bool) {
 }
 
 // recordFindings maps the host, reader and stereo findings of one
-// record to host offsets, sorted by position as sortDiagnostics sorts
-// the whole document's. It reads only record i, so records are done in
-// parallel.
+// record (its full analysis f) to host offsets, with their quick fixes
+// unless r leaves them out. The findings of f are kept compact on the
+// record's analysis (recordNotes) for the next reading of the record.
 func (r *Result) recordFindings(i int, f *fullAnalysis) []Diagnostic {
+	an := r.Records[i].an
+	n := an.notesOf(f, !r.noFixes)
+	return r.findingsFrom(i, n)
+}
+
+// notesOf returns the notes of the analysis's full analysis f: the ones
+// kept, when they have fixes or none are wanted, or made from f (and
+// kept when they have fixes and an is a cached analysis).
+func (an *analysis) notesOf(f *fullAnalysis, fixes bool) *recordNotes {
+	if an != nil {
+		if n := an.notes.Load(); n != nil && (n.fixes != nil || !fixes) {
+			return n
+		}
+	}
+	// The full analysis may live in a reader's storage that the next
+	// record reuses: notes that are kept hold copies; others (a result
+	// without fixes, a record of no cache) are used at once.
+	store := an != nil && fixes
+	var reaction notation.ErrorList
+	if f.reaction != nil {
+		reaction = f.reaction.Diagnostics
+	}
+	var copies []notation.Error
+	if store {
+		copies = make([]notation.Error, 0, len(f.mol.Errors)+len(f.stereo.Diagnostics)+len(reaction))
+	}
+	keep := func(es notation.ErrorList) []*notation.Error {
+		if !store || len(es) == 0 {
+			return es
+		}
+		out := make([]*notation.Error, len(es))
+		for k, e := range es {
+			c := *e // strings are shared: no reader writes into one
+			c.Related = slices.Clone(e.Related)
+			copies = append(copies, c)
+			out[k] = &copies[len(copies)-1]
+		}
+		return out
+	}
+	if store && len(f.mol.Errors)+len(f.stereo.Diagnostics)+len(reaction)+len(an.groupFindings) == 0 {
+		an.notes.Store(&noNotes)
+		return &noNotes
+	}
+	n := &recordNotes{reader: keep(f.mol.Errors), stereo: keep(f.stereo.Diagnostics), reaction: keep(reaction)}
+	if fixes {
+		var groups notation.ErrorList
+		if an != nil {
+			groups = an.groupFindings
+		}
+		n.fixes = make([]noteFix, 0, len(n.stereo)+len(groups))
+		for _, e := range f.stereo.Diagnostics {
+			n.fixes = append(n.fixes, notationFix(f, e))
+		}
+		for _, e := range groups {
+			n.fixes = append(n.fixes, notationFix(f, e))
+		}
+	}
+	if store {
+		an.notes.Store(n)
+	}
+	return n
+}
+
+// noNotes are the notes of every record without findings.
+var noNotes = recordNotes{fixes: []noteFix{}}
+
+// findingsFrom maps the notes of record i to host offsets, with the
+// host problems of its occurrence.
+func (r *Result) findingsFrom(i int, n *recordNotes) []Diagnostic {
 	var out []Diagnostic
 	add := func(d Diagnostic) {
 		if d, on := r.configured(d); on {
@@ -483,29 +561,29 @@ func (r *Result) recordFindings(i int, f *fullAnalysis) []Diagnostic {
 		}
 		return d
 	}
-	for _, e := range f.mol.Errors {
+	fix := func(k int) []Fix {
+		if r.noFixes || k >= len(n.fixes) || len(n.fixes[k].edits) == 0 {
+			return nil
+		}
+		return []Fix{{Title: n.fixes[k].title, Edits: r.hostEdits(i, n.fixes[k].edits)}}
+	}
+	for _, e := range n.reader {
 		add(mapped(e))
 	}
-	for _, e := range f.stereo.Diagnostics {
+	for k, e := range n.stereo {
 		d := mapped(e)
-		if !r.noFixes {
-			d.Fixes = r.fixesFor(i, f, e)
-		}
+		d.Fixes = fix(k)
 		add(d)
 	}
 	if rec.an != nil {
-		for _, e := range rec.an.groupFindings {
+		for k, e := range rec.an.groupFindings {
 			d := mapped(e)
-			if !r.noFixes {
-				d.Fixes = r.fixesFor(i, f, e)
-			}
+			d.Fixes = fix(len(n.stereo) + k)
 			add(d)
 		}
 	}
-	if f.reaction != nil {
-		for _, e := range f.reaction.Diagnostics {
-			add(mapped(e))
-		}
+	for _, e := range n.reaction {
+		add(mapped(e))
 	}
 	sortByPosition(out)
 	return out

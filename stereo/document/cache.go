@@ -56,11 +56,48 @@ type analysis struct {
 	// differ in takes (atomName), so relating a list reads no molecule
 	// twice for its messages.
 	elements []byte
+	// notes are the record's findings as the full analysis gives them,
+	// with their quick fixes (recordNotes), kept once made so that a
+	// document read whole again after an edit maps them to its host
+	// without reading and labelling the record again; nil until made.
+	notes atomic.Pointer[recordNotes]
 	// countOnce guards count, the stereoisomers of the constitution,
 	// which hovers show and which can take long for a symmetric
 	// structure: it is counted once per text.
 	countOnce sync.Once
 	count     identity.StereoisomerCount
+}
+
+// recordNotes are the findings of one record's text in its own offsets:
+// the reader's, the stereo engine's and the reaction checker's, and the
+// quick fixes of those that have one, the edits of the notation. They are
+// what Result.recordFindings takes from a full analysis, so either gives
+// the same findings.
+type recordNotes struct {
+	reader   []*notation.Error
+	stereo   []*notation.Error
+	reaction []*notation.Error
+	// fixes[k] is the fix of stereo[k], then fixes[len(stereo)+k] that of
+	// the analysis's groupFindings[k]; nil when made without fixes
+	fixes []noteFix
+}
+
+// noteFix is a quick fix in the notation's offsets; no edits: none.
+type noteFix struct {
+	title string
+	edits []notation.Edit
+}
+
+// readNotes is cache.read for a document read whole: a record whose
+// notes are kept (with fixes) comes back without its full analysis (f is
+// nil), unless that is kept anyway.
+func (c *cache) readNotes(text string, r notation.Reading, lim limits, rr *notation.Rereader) (*analysis, *fullAnalysis) {
+	if a, ok := c.lookup(cacheKey{text, r, lim}); ok {
+		if n := a.notes.Load(); n != nil && n.fixes != nil && a.full.Load() == nil {
+			return a, nil
+		}
+	}
+	return c.read(text, r, lim, rr)
 }
 
 // fullAnalysis is the part of an analysis that is dropped and read again.

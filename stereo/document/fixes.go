@@ -9,12 +9,14 @@ import (
 	"stereoline/stereo/transform"
 )
 
-// fixesFor returns the quick fixes of a stereo finding on record i: the
+// notationFix returns the quick fix of a stereo finding e of the full
+// analysis f, in the notation's offsets (no edits: none): the
 // ineffective or inverting mark removed, the partner mark of a one-sided
-// double bond added, or a mark readers read differently rewritten
-// portably. Every fix but the last is a minimal edit of the marks; the
-// portable rewrite of a lone-pair centre writes the record again.
-func (r *Result) fixesFor(i int, f *fullAnalysis, e *notation.Error) []Fix {
+// double bond added, a mark readers read differently rewritten portably,
+// or a stereo group mended. Every fix but the portable rewrite is a
+// minimal edit of the marks; the portable rewrite of a lone-pair centre
+// writes the record again. Result.hostEdits maps it to the host.
+func notationFix(f *fullAnalysis, e *notation.Error) noteFix {
 	m := f.mol
 	var edits []notation.Edit
 	var title string
@@ -61,9 +63,9 @@ func (r *Result) fixesFor(i int, f *fullAnalysis, e *notation.Error) []Fix {
 		edits, title = groupFix(m, e)
 	}
 	if len(edits) == 0 {
-		return nil
+		return noteFix{}
 	}
-	return []Fix{{Title: title, Edits: r.hostEdits(i, edits)}}
+	return noteFix{title: title, edits: edits}
 }
 
 // groupFix returns the quick fix of a finding about a stereo group: the

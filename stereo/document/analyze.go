@@ -253,10 +253,10 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	reading, lim := cfg.Reading.notation(), cfg.Limits.limits()
 	fill := func(i int, occ *find.Occurrence) {
 		rr := rereaders.Get().(*notation.Rereader)
-		an, f := a.cache.readNotes(occ.Text, reading, lim, rr)
+		an, f, again := a.cache.readNotes(occ.Text, reading, lim, rr)
 		res.Records[i] = Record{Occ: occ, an: an}
 		if f != nil {
-			res.own[i] = res.recordFindings(i, f)
+			res.own[i] = res.findingsFrom(i, an.notesOf(f, !res.noFixes, again))
 		} else {
 			res.own[i] = res.findingsFrom(i, an.notes.Load())
 		}
@@ -462,18 +462,15 @@ func (r *Result) configured(d Diagnostic) (_ Diagnostic, on bool) {
 
 // recordFindings maps the host, reader and stereo findings of one
 // record (its full analysis f) to host offsets, with their quick fixes
-// unless r leaves them out. The findings of f are kept compact on the
-// record's analysis (recordNotes) for the next reading of the record.
+// unless r leaves them out, through the record's notes (recordNotes).
 func (r *Result) recordFindings(i int, f *fullAnalysis) []Diagnostic {
-	an := r.Records[i].an
-	n := an.notesOf(f, !r.noFixes)
-	return r.findingsFrom(i, n)
+	return r.findingsFrom(i, r.Records[i].an.notesOf(f, !r.noFixes, false))
 }
 
 // notesOf returns the notes of the analysis's full analysis f: the ones
-// kept, when they have fixes or none are wanted, or made from f (and
-// kept when they have fixes and an is a cached analysis).
-func (an *analysis) notesOf(f *fullAnalysis, fixes bool) *recordNotes {
+// kept, when they have fixes or none are wanted, or made from f, and
+// kept when keep is set, they have fixes and an is a cached analysis.
+func (an *analysis) notesOf(f *fullAnalysis, fixes, keep bool) *recordNotes {
 	if an != nil {
 		if n := an.notes.Load(); n != nil && (n.fixes != nil || !fixes) {
 			return n
@@ -482,7 +479,7 @@ func (an *analysis) notesOf(f *fullAnalysis, fixes bool) *recordNotes {
 	// The full analysis may live in a reader's storage that the next
 	// record reuses: notes that are kept hold copies; others (a result
 	// without fixes, a record of no cache) are used at once.
-	store := an != nil && fixes
+	store := keep && an != nil && fixes
 	var reaction notation.ErrorList
 	if f.reaction != nil {
 		reaction = f.reaction.Diagnostics
@@ -491,7 +488,7 @@ func (an *analysis) notesOf(f *fullAnalysis, fixes bool) *recordNotes {
 	if store {
 		copies = make([]notation.Error, 0, len(f.mol.Errors)+len(f.stereo.Diagnostics)+len(reaction))
 	}
-	keep := func(es notation.ErrorList) []*notation.Error {
+	copied := func(es notation.ErrorList) []*notation.Error {
 		if !store || len(es) == 0 {
 			return es
 		}
@@ -508,7 +505,7 @@ func (an *analysis) notesOf(f *fullAnalysis, fixes bool) *recordNotes {
 		an.notes.Store(&noNotes)
 		return &noNotes
 	}
-	n := &recordNotes{reader: keep(f.mol.Errors), stereo: keep(f.stereo.Diagnostics), reaction: keep(reaction)}
+	n := &recordNotes{reader: copied(f.mol.Errors), stereo: copied(f.stereo.Diagnostics), reaction: copied(reaction)}
 	if fixes {
 		var groups notation.ErrorList
 		if an != nil {

@@ -57,9 +57,11 @@ type analysis struct {
 	// twice for its messages.
 	elements []byte
 	// notes are the record's findings as the full analysis gives them,
-	// with their quick fixes (recordNotes), kept once made so that a
-	// document read whole again after an edit maps them to its host
-	// without reading and labelling the record again; nil until made.
+	// with their quick fixes (recordNotes), kept once the text is read a
+	// second time, so that a document read whole again after an edit
+	// maps them to its host without reading and labelling the record
+	// again; nil until then (a first reading keeps none: they would cost
+	// the opening of a long list memory and time for nothing).
 	notes atomic.Pointer[recordNotes]
 	// countOnce guards count, the stereoisomers of the constitution,
 	// which hovers show and which can take long for a symmetric
@@ -90,14 +92,17 @@ type noteFix struct {
 
 // readNotes is cache.read for a document read whole: a record whose
 // notes are kept (with fixes) comes back without its full analysis (f is
-// nil), unless that is kept anyway.
-func (c *cache) readNotes(text string, r notation.Reading, lim limits, rr *notation.Rereader) (*analysis, *fullAnalysis) {
+// nil), unless that is kept anyway. again says the text was in the
+// cache: it is being read again, and its notes are worth keeping.
+func (c *cache) readNotes(text string, r notation.Reading, lim limits, rr *notation.Rereader) (a *analysis, f *fullAnalysis, again bool) {
 	if a, ok := c.lookup(cacheKey{text, r, lim}); ok {
 		if n := a.notes.Load(); n != nil && n.fixes != nil && a.full.Load() == nil {
-			return a, nil
+			return a, nil, true
 		}
+		again = true
 	}
-	return c.read(text, r, lim, rr)
+	a, f = c.read(text, r, lim, rr)
+	return a, f, again
 }
 
 // fullAnalysis is the part of an analysis that is dropped and read again.

@@ -677,8 +677,15 @@ func mayGuess(src []byte, lit *literal) bool {
 	if c.Len() < 3 {
 		return false
 	}
-	for _, b := range src[c.Start:c.End] {
-		if !notationByte[b] {
+	b := src[c.Start:c.End]
+	// A CXSMILES extension block after blanks belongs to the record
+	// ("C[C@H](O)CC |&1:1|"): the notation before it is looked at, and
+	// the whole is read later.
+	if n, end := notation.RecordEnd(b); end == len(b) && end > n {
+		b = b[:n]
+	}
+	for _, c := range b {
+		if !notationByte[c] {
 			return false
 		}
 	}

@@ -105,6 +105,11 @@ func decideInto(buf []found, text string, w wants) []found {
 		if len(out) != n0+1 || out[n0].dialect != DialectSMILES {
 			return buf
 		}
+		// A text nobody names is a record only when it reads without
+		// error, its block too.
+		if !w.named() && !notation.Reads(text) {
+			return buf
+		}
 		out[n0].to = len(text)
 		return out
 	}

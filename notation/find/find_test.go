@@ -384,3 +384,54 @@ func TestFixesFix(t *testing.T) {
 		t.Errorf("only %d fixes in the marker files", fixes)
 	}
 }
+
+// TestGuessExtensionBlock checks that a string literal nobody names is
+// taken whole when it is unmistakable notation followed by a CXSMILES
+// extension block after a blank (the layout CXSMILES writers use, as
+// RDKit 2022.09.3's MolToCXSmiles writes "C[C@H](F)Cl |&1:1|"), in every
+// language whose literals are guessed; and that text with a block that
+// is never closed, or that is no notation before the block, is not taken.
+func TestGuessExtensionBlock(t *testing.T) {
+	sources := []struct {
+		kind Kind
+		src  string
+	}{
+		{KindPython, "y = \"%s\"\nprint('%s')\n"},
+		{KindJavaScript, "const y = \"%s\";\nf('%s');\n"},
+		{KindGo, "var y = \"%s\"\nvar z = `%s`\n"},
+		{KindR, "y <- \"%s\"\nf('%s')\n"},
+	}
+	texts := []struct {
+		text string
+		want bool
+	}{
+		{"C[C@H](F)Cl |&1:1|", true},
+		{"N[C@@H](C)C(=O)O |o1:1|", true},
+		{"CC(C)Cc1ccc(cc1)[C@@H](C)C(=O)O |a:10|", true},
+		{"F/C=C/[C@H](O)C |&1:3,r|", true},
+		// an unknown field is kept as written (the reader notes it)
+		{"C[C@H](F)Cl |zz9|", true},
+		// a block that is never closed is no block: the text is no record
+		{"C[C@H](F)Cl |&1:1", false},
+		// and the text before it must be notation (common practice)
+		{"usage |&1:1|", false},
+		{"a b |&1:1|", false},
+	}
+	for _, s := range sources {
+		for _, tt := range texts {
+			src := strings.ReplaceAll(s.src, "%s", tt.text)
+			occs := FindKind(s.kind, []byte(src), Config{})
+			got := 0
+			for _, o := range occs {
+				if o.Text == tt.text {
+					got++
+				} else {
+					t.Errorf("%v %q: found %q, want the whole text or nothing", s.kind, tt.text, o.Text)
+				}
+			}
+			if want := map[bool]int{true: 2, false: 0}[tt.want]; got != want {
+				t.Errorf("%v %q: found %d times, want %d", s.kind, tt.text, got, want)
+			}
+		}
+	}
+}

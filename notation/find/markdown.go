@@ -13,6 +13,9 @@ import (
 //     ('#' lines are comments and may carry pragmas);
 //   - a fenced block tagged with a language we lex (python, js, go, ...)
 //     is searched as that language;
+//   - a fenced block without a tag, or tagged as plain text, holds a
+//     record on a line when the line starts with text that is
+//     unmistakably notation (see unmistakable), a title after it;
 //   - an inline code span is notation when it is unmistakably so, or when
 //     the text just before it mentions SMILES ("SMILES: `CCO`"); see
 //     codespan.go for spans over line breaks;
@@ -28,6 +31,7 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 		char      byte
 		n         int
 		records   bool
+		guess     bool // untagged: lines are guessed
 		kind      Kind
 		bodyStart int
 	}
@@ -68,8 +72,11 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 				fence.open = false
 				continue
 			}
-			if fence.records {
+			switch {
+			case fence.records:
 				out = fencedRecord(out, line, lineStart, prag)
+			case fence.guess && !cfg.NoGuess:
+				out = guessedFenceRecord(out, line, lineStart, prag)
 			}
 			continue
 		}
@@ -89,12 +96,17 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 			if fence.open {
 				flush()
 				info := strings.Fields(strings.ToLower(string(body[fence.n:])))
-				fence.records, fence.kind, fence.bodyStart = false, KindUnknown, start
+				fence.records, fence.guess, fence.kind, fence.bodyStart = false, false, KindUnknown, start
+				if len(info) == 0 {
+					fence.guess = true
+				}
 				if len(info) > 0 {
 					tag := strings.Trim(info[0], "{}.")
 					switch tag {
 					case "smiles", "smi", "rsmi", "cxsmiles":
 						fence.records = true
+					case "text", "txt", "plain", "plaintext":
+						fence.guess = true
 					default:
 						fence.kind = KindFor(tag)
 						if fence.kind == KindUnknown {
@@ -186,6 +198,35 @@ func fencedRecord(out []Occurrence, line []byte, lineStart int, prag *pragmas) [
 		Kind:      KindMarkdown,
 		Construct: ConstructFencedRecord,
 		Reason:    ReasonPlace,
+		m:         identityMap(lineStart, recEnd),
+	})
+}
+
+// guessedFenceRecord adds the record a line of an untagged fence starts
+// with, when it is unmistakably notation: such a block holds output,
+// commands and prose as often as records.
+func guessedFenceRecord(out []Occurrence, line []byte, lineStart int, prag *pragmas) []Occurrence {
+	lead := 0
+	for lead < len(line) && (line[lead] == ' ' || line[lead] == '\t') {
+		lead++
+	}
+	line, lineStart = line[lead:], lineStart+lead
+	recEnd, ts, te := splitRecord(line)
+	if recEnd < 3 || !prag.allowed(lineStart) {
+		return out
+	}
+	rec := string(line[:recEnd])
+	rs := decide(rec, wants{guess: true})
+	if len(rs) != 1 || rs[0].from != 0 || rs[0].to != len(rec) || rs[0].dialect != DialectSMILES {
+		return out
+	}
+	return append(out, Occurrence{
+		Text:      rec,
+		Title:     string(line[ts:te]),
+		Span:      notation.Span{Start: lineStart, End: lineStart + recEnd},
+		Kind:      KindMarkdown,
+		Construct: ConstructFencedRecord,
+		Reason:    ReasonGuess,
 		m:         identityMap(lineStart, recEnd),
 	})
 }

@@ -162,6 +162,16 @@ func TestCodeRules(t *testing.T) {
 		{KindMarkdown, "| SMILES |\n| CCO |\n", nil},
 		// a table ends at the first line that is no row
 		{KindMarkdown, "| SMILES |\n|---|\n| CCO |\n\n| CCN |\n", []string{"CCO"}},
+		// A fenced block without a tag (CommonMark 4.5) holds output,
+		// commands and prose as often as records: a line is a record when
+		// it starts with text that is unmistakably notation, a title
+		// after it; a block tagged smiles is a list, one tagged with
+		// another word is left alone.
+		{KindMarkdown, "```\n$ run --in data.smi\nC[C@H](F)Cl |&1:1| racemic sample\nN[C@@H](C)C(=O)O alanine\nCCO\n[INFO] 2024/01/02\nc1ccccc1 benzene\n```\n",
+			[]string{"C[C@H](F)Cl |&1:1|", "N[C@@H](C)C(=O)O", "c1ccccc1"}},
+		{KindMarkdown, "~~~ text\nF/C=C/F\n~~~\n", []string{"F/C=C/F"}},
+		{KindMarkdown, "```smiles\nCCO ethanol\n```\n", []string{"CCO"}},
+		{KindMarkdown, "```console\nF/C=C/F\n```\n", nil},
 		{KindTSV, "name\tsmiles\tnote\nethanol\tCCO\tx\n", []string{"CCO"}},
 	}
 	for _, tt := range tests {

@@ -80,7 +80,7 @@ func readHeader(src []byte, from int, sep byte, cfg *Config) (tableHeader, int) 
 		if h.columns[k] && !configured(name, cfg.Columns) {
 			byName = append(byName, k)
 		}
-		if p := titlePriority(name); p > 0 && (h.titleCol < 0 || p < titlePriority(strings.TrimSpace(string(rec[h.titleCol].text)))) {
+		if p := titlePriority(name); p > 0 && !h.columns[k] && (h.titleCol < 0 || p < titlePriority(strings.TrimSpace(string(rec[h.titleCol].text)))) {
 			h.titleCol = k
 		}
 	}
@@ -441,7 +441,12 @@ func (n namer) column(h string, extra []string) bool {
 }
 
 // titlePriority ranks headers for the title column: 1 is best, 0 is not
-// a title column.
+// a title column. A name comes first (name, title, compound_name,
+// iupac_name, pref_name), then the subject itself (compound, molecule),
+// then an identifier of the compound (id, chembl_id, molecule_chembl_id,
+// Compound ID, CID, cas), then any other identifier (assay_id), which
+// names the row at least. Headers are split into parts as names are
+// (nameParts), so case and separators do not matter.
 func titlePriority(h string) int {
 	switch strings.ToLower(h) {
 	case "name", "title", "compound name", "compound_name":
@@ -451,5 +456,39 @@ func titlePriority(h string) int {
 	case "id":
 		return 3
 	}
+	parts := nameParts(h)
+	if len(parts) == 0 || len(parts) > 4 {
+		return 0
+	}
+	last, rest := parts[len(parts)-1], parts[:len(parts)-1]
+	ofSubject := true // the other parts say whose name or identifier it is
+	for _, p := range rest {
+		ofSubject = ofSubject && titleSubjects[p]
+	}
+	switch {
+	case (last == "name" || last == "title") && ofSubject:
+		return 1
+	case len(parts) == 1 && titleIdentifiers[last]:
+		return 3
+	case (last == "id" || last == "identifier" || last == "number" && len(rest) > 0) && ofSubject:
+		return 3
+	case last == "id" || last == "identifier":
+		return 4
+	}
 	return 0
 }
+
+// titleSubjects are the parts before name or id in a header that names
+// the compound of a row (common practice in exported datasets:
+// molecule_chembl_id, pref_name, iupac_name, Compound ID).
+var titleSubjects = map[string]bool{
+	"compound": true, "molecule": true, "mol": true, "drug": true, "ligand": true, "substance": true,
+	"chemical": true, "product": true, "sample": true, "entry": true, "record": true, "pref": true,
+	"preferred": true, "common": true, "iupac": true, "trivial": true, "catalog": true, "catalogue": true,
+	"vendor": true, "supplier": true, "chembl": true, "pubchem": true, "zinc": true, "cas": true,
+	"registry": true, "reg": true, "corporate": true, "corp": true, "internal": true,
+}
+
+// titleIdentifiers are one-word headers of compound identifiers (PubChem
+// writes CID and SID; CAS registry numbers).
+var titleIdentifiers = map[string]bool{"cid": true, "sid": true, "cas": true, "casrn": true, "identifier": true}

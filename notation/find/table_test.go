@@ -64,3 +64,42 @@ func TestTableColumnVetting(t *testing.T) {
 		})
 	}
 }
+
+// TestTableTitleColumn checks which column gives a table's records their
+// titles, for headers as common dataset exports write them (from
+// memory: ChEMBL's activity export names molecule_chembl_id beside
+// assay_chembl_id and canonical_smiles; PubChem's property tables CID
+// and IsomericSMILES; ZINC zinc_id): a name before the subject, the
+// subject before an identifier of the compound, that before any other
+// identifier; a structure column is never the title.
+func TestTableTitleColumn(t *testing.T) {
+	tests := []struct {
+		table string
+		want  string
+	}{
+		{"assay_chembl_id,molecule_chembl_id,canonical_smiles\nCHEMBL900,CHEMBL25,C[C@H](N)C(=O)O\n", "CHEMBL25"},
+		{"molecule_chembl_id,pref_name,canonical_smiles\nCHEMBL25,ALANINE,C[C@H](N)C(=O)O\n", "ALANINE"},
+		{"CID,IsomericSMILES\n5950,C[C@H](N)C(=O)O\n", "5950"},
+		{"zinc_id,smiles\nZINC01,C[C@H](N)C(=O)O\n", "ZINC01"},
+		{"Compound ID,SMILES,Molecule Name\nK-1,C[C@H](N)C(=O)O,L-alanine\n", "L-alanine"},
+		{"smiles,target_id\nC[C@H](N)C(=O)O,T7\n", "T7"},
+		{"iupac_name,smiles\n(2S)-2-aminopropanoic acid,C[C@H](N)C(=O)O\n", "(2S)-2-aminopropanoic acid"},
+		// no column names the row
+		{"smiles,value\nC[C@H](N)C(=O)O,3\n", ""},
+		// an identifier of another thing still names the row
+		{"smiles_id,smiles\nS-9,CCO\n", "S-9"},
+		// a structure column is no title, whatever it is called (the
+		// configuration makes "compound" one here)
+		{"compound,id\nC[C@H](N)C(=O)O,A-1\n", "A-1"},
+	}
+	for _, tt := range tests {
+		occs := FindKind(KindCSV, []byte(tt.table), Config{Columns: []string{"compound"}})
+		if len(occs) == 0 {
+			t.Errorf("%q: no record", tt.table)
+			continue
+		}
+		if got := occs[len(occs)-1].Title; got != tt.want {
+			t.Errorf("%q: title %q, want %q", tt.table, got, tt.want)
+		}
+	}
+}

@@ -154,6 +154,9 @@ type codeFinder struct {
 	// query patterns: taken after all if their group turns out to hold
 	// query patterns (agree).
 	pending []pendingLiteral
+	// literals counts the string literals of each group, taken or not
+	// (see strays)
+	literals map[groupKey]int
 }
 
 // pendingLiteral is a literal kept for agree.
@@ -175,6 +178,9 @@ type groupMark struct {
 	key       int32 // an interned groupKey (codeFinder.intern); 0 for none
 	byContent bool  // SMARTS by its content
 	firm      bool  // its place fixes the dialect (MolFromSmiles(...))
+	// loose: taken because a loose name (pattern, rule, query, template,
+	// filter) is on it (see strays)
+	loose bool
 }
 
 // findCode finds notation in source code.
@@ -211,7 +217,49 @@ func findCode(src []byte, lang *codeLang, cfg *Config) []Occurrence {
 	toks := lang.lex(src, cf.prag)
 	cf.walk(toks)
 	cf.agree()
+	cf.strays()
 	return cf.out
+}
+
+// strays drops the literals taken only because a loose name is on their
+// list (rules = [...], templates = (...)) when most literals of the list
+// are no records: a list of arithmetic rules, configuration templates or
+// messages in which one item happens to read as a pattern ("A=B" among
+// "(A+B)=C" and "A GT 0") holds no patterns. A list of four or more
+// literals keeps its loosely named records only when at least half of
+// its literals are records; a literal that is a record without the name
+// (unmistakable notation, a query pattern by its content) stays anyway.
+func (cf *codeFinder) strays() {
+	loose := false
+	for i := range cf.out {
+		loose = loose || cf.out[i].group.loose
+	}
+	if !loose {
+		return
+	}
+	taken := map[int32]int{}
+	for i := range cf.out {
+		if k := cf.out[i].group.key; k != 0 {
+			taken[k]++
+		}
+	}
+	drop := map[int32]bool{}
+	for key, n := range cf.keys {
+		if lits := cf.literals[key]; lits >= 4 && 2*taken[n] < lits {
+			drop[n] = true
+		}
+	}
+	if len(drop) == 0 {
+		return
+	}
+	out := cf.out[:0]
+	for _, o := range cf.out {
+		// a literal that would be taken without the name stays
+		if !o.group.loose || !drop[o.group.key] || unmistakable(o.Text) || guessableQuery(o.Text) {
+			out = append(out, o)
+		}
+	}
+	cf.out = out
 }
 
 func (cf *codeFinder) walk(toks []token) {
@@ -522,7 +570,13 @@ func (cf *codeFinder) literal(t token, f *frame) {
 	}
 	// The group is interned only when the literal yields something.
 	cf.curKey = group(f)
-	mark := groupMark{firm: w.smiles == firmly || w.smarts == firmly}
+	if cf.curKey != (groupKey{}) {
+		if cf.literals == nil {
+			cf.literals = map[groupKey]int{}
+		}
+		cf.literals[cf.curKey]++
+	}
+	mark := groupMark{firm: w.smiles == firmly || w.smarts == firmly, loose: w.loose && w.named() && reason == ReasonName}
 	if cf.curKey != (groupKey{}) {
 		mark.key = currentGroup
 	}

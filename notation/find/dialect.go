@@ -206,7 +206,7 @@ func decideOne(s string, w wants, part bool) (d Dialect, byContent, ok bool) {
 		// "O"), a URL query ("a=b"), a regular expression's class
 		// ([a-z0-9]*) or a glob's or expression's "match anything"
 		// ("[ab].*", "**/x")
-		ok = !accidentalWord(s) && !keyValueWords(s) && !characterRange(s) &&
+		ok = !accidentalWord(s) && !keyValueWords(s) && !characterRange(s) && !contradictoryBracket(s) &&
 			!strings.Contains(s, ".*") && !strings.Contains(s, "**") && readsIn(d, s)
 	}
 	return d, byContent, ok
@@ -409,10 +409,31 @@ func guessableQuery(s string) bool {
 		// more often than patterns nobody names
 		return false
 	}
-	if contradictoryBracket(s) {
+	if contradictoryBracket(s) || letterList(s) {
 		return false
 	}
 	return smarts.Valid(s)
+}
+
+// letterList reports a text that is one bracket holding a comma list of
+// single capital letters ("[A,B]", "[B,C]"): a commutator, an index pair
+// or a list of variables in prose and formulas far more often than a
+// pattern nobody names; a list with a two-letter symbol, a number or a
+// condition ("[Cl,Br,I]", "[N,O;H1]") is not one.
+func letterList(s string) bool {
+	if len(s) < 5 || s[0] != '[' || s[len(s)-1] != ']' {
+		return false
+	}
+	items := strings.Split(s[1:len(s)-1], ",")
+	if len(items) < 2 {
+		return false
+	}
+	for _, it := range items {
+		if len(it) != 1 || it[0] < 'A' || it[0] > 'Z' {
+			return false
+		}
+	}
+	return true
 }
 
 // contradictoryBracket reports a bracket atom that requires two elements
@@ -439,6 +460,9 @@ func contradictoryBracket(s string) bool {
 		var num int
 		var sym string
 		for _, part := range strings.FieldsFunc(inner, func(r rune) bool { return r == ';' || r == '&' }) {
+			if implicitElements(part) {
+				return true
+			}
 			n, ps, ok := oneElement(part)
 			if !ok {
 				continue
@@ -451,6 +475,40 @@ func contradictoryBracket(s string) bool {
 			case sym == "":
 				sym = ps
 			}
+		}
+	}
+	return false
+}
+
+// implicitElements reports a part of lowercase letters only that reads
+// as aromatic symbols joined by the implicit AND of SMARTS (Daylight
+// SMARTS theory manual, 4.1: adjacent primitives are ANDed) and names two
+// different elements: "san" is s, a and n, an atom both sulfur and
+// nitrogen, which an INI section header ("[san]") is far more often.
+func implicitElements(part string) bool {
+	if len(part) < 2 {
+		return false
+	}
+	first := ""
+	for i := 0; i < len(part); {
+		var sym string
+		switch {
+		case i+1 < len(part) && (part[i:i+2] == "se" || part[i:i+2] == "as" || part[i:i+2] == "te"):
+			sym = part[i : i+2]
+		case strings.IndexByte("bcnops", part[i]) >= 0:
+			sym = part[i : i+1]
+		case part[i] == 'a':
+			i++ // any aromatic atom: no element
+			continue
+		default:
+			return false // not aromatic symbols alone
+		}
+		i += len(sym)
+		switch {
+		case first == "":
+			first = sym
+		case sym != first:
+			return true
 		}
 	}
 	return false

@@ -122,6 +122,23 @@ func TestCodeRules(t *testing.T) {
 		{KindPython, `salts = ["[Cl,Br,I]", "[Li,Na,K,Ca,Mg]"]`, []string{"q:[Cl,Br,I]", "q:[Li,Na,K,Ca,Mg]"}},
 		{KindPython, `x = "[c;x2;D2;r5:1]([n;x2;r5:2])[n;x2;r5:3]"`, []string{"q:[c;x2;D2;r5:1]([n;x2;r5:2])[n;x2;r5:3]"}},
 		{KindPython, `regex = "[a-z]"`, nil},
+		// A loosely named list (rules, templates) whose literals are
+		// mostly no records holds no patterns: the one that happens to
+		// read is dropped (pyparsing's arithmetic examples hold "A=B"
+		// among "(A+B)=C"); one that is a record by its content stays.
+		{KindPython, `rules = ["(A+B)=C", "A GT 0", "A=B", "(A-B)=C", "A < 7000"]`, nil},
+		{KindPython, `templates = ["[C:1]=[O:2]>>[C:1][O:2]", "x", "y", "z", "w"]`, []string{"q:[C:1]=[O:2]>>[C:1][O:2]"}},
+		{KindPython, `patterns = ["C=O", "CN", "not a pattern", "[OH]"]`, []string{"q:C=O", "q:CN", "q:[OH]"}},
+		// Adjacent primitives are ANDed (Daylight SMARTS theory manual,
+		// 4.1): "[san]" is an atom both sulfur and nitrogen, an INI
+		// section of a configuration template, not a pattern.
+		{KindPython, "req_template = \"\"\"\n[san]\nDNS.1 = host\n\"\"\"\n", nil},
+		{KindPython, `pattern = "[se]"`, []string{"q:[se]"}},
+		// A comma list of single capitals nobody names is a commutator
+		// or an index pair in prose ("[A,C] + [B,C]" in sympy's
+		// docstrings); a list of elements stays.
+		{KindPython, "def f():\n    \"\"\"Expands.\n\n    >>> c.expand()\n    [A,C] + [B,C]\n    \"\"\"\n", nil},
+		{KindPython, `x = "[Cl,Br,I]"`, []string{"q:[Cl,Br,I]"}},
 		{KindPython, `glob_pattern = "*"`, nil},
 		// One argument of one function agrees over the file.
 		{KindPython, "P('a', 'c[SH]', 'c[S-]')\nP('b', '[!O]S(=O)(=O)[OH]', '[!O]S(=O)(=O)[O-]')", []string{"q:c[SH]", "q:c[S-]", "q:[!O]S(=O)(=O)[OH]", "q:[!O]S(=O)(=O)[O-]"}},

@@ -61,6 +61,11 @@ func writeDiffText(w *bufio.Writer, files []*diffFile, base string) error {
 			p := &f.report.Pairs[i]
 			line, col := ps.where(p)
 			text := p.Explanation
+			if name := pairName(p); name != "" {
+				// the record by its name, so that a reviewer of a long
+				// list knows it without opening the file
+				text = name + ": " + text
+			}
 			if p.Class == review.Removed {
 				ol, _ := ps.old.at(p.Old.Occ.Span.Start)
 				text += fmt.Sprintf(" (line %d at %s)", ol, base)
@@ -70,6 +75,20 @@ func writeDiffText(w *bufio.Writer, files []*diffFile, base string) error {
 		}
 	}
 	return nil
+}
+
+// pairName is the name a changed record goes by in the text report: its
+// identity in the file (a list line's title, a table's ID, the name a
+// literal is bound to), else its title; "" for none, and for added and
+// removed records, whose explanation names them already.
+func pairName(p *review.Pair) string {
+	if p.Class == review.Added || p.Class == review.Removed || p.New == nil {
+		return ""
+	}
+	if p.New.Key != "" {
+		return p.New.Key
+	}
+	return p.New.Occ.Title
 }
 
 // findingsSentence lists the findings a change introduced or removed, as

@@ -62,13 +62,13 @@ func TestDiffText(t *testing.T) {
 		"C(O)C LRK-BB-007\n")
 	stdout, stderr, status := runDiff(t, dir)
 	want := []string{
-		"blocks.smi:1:12: epimer: C4 is now R (was S); the other centre is unchanged",
-		"blocks.smi:2:4: enantiomer: the mirror image (1 centre inverted): C2 is now R (was S)",
-		"blocks.smi:3:2: bond-flipped: C2=C3 is now Z (was E)",
-		"blocks.smi:4:1: constitution-changed: a different compound: C3H8O (was C2H6O)",
-		"blocks.smi:5:4: stereo-added: C2 is now marked S (was unmarked); hint gone: stereocentre without a configuration [stereo-undefined]",
-		"blocks.smi:6:1: stereo-removed: C2 is now unmarked (was R); new hint: stereocentre without a configuration [stereo-undefined]",
-		"blocks.smi:7:1: rewritten: the same compound with the same configuration, written differently",
+		"blocks.smi:1:12: epimer: LRK-BB-001: C4 is now R (was S); the other centre is unchanged",
+		"blocks.smi:2:4: enantiomer: LRK-BB-002: the mirror image (1 centre inverted): C2 is now R (was S)",
+		"blocks.smi:3:2: bond-flipped: LRK-BB-003: C2=C3 is now Z (was E)",
+		"blocks.smi:4:1: constitution-changed: LRK-BB-004: a different compound: C3H8O (was C2H6O)",
+		"blocks.smi:5:4: stereo-added: LRK-BB-005: C2 is now marked S (was unmarked); hint gone: stereocentre without a configuration [stereo-undefined]",
+		"blocks.smi:6:1: stereo-removed: LRK-BB-006: C2 is now unmarked (was R); new hint: stereocentre without a configuration [stereo-undefined]",
+		"blocks.smi:7:1: rewritten: LRK-BB-007: the same compound with the same configuration, written differently",
 	}
 	if got := relLines(stdout, dir); !slices.Equal(got, want) {
 		t.Errorf("got:\n%s\nwant:\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
@@ -248,7 +248,7 @@ func TestDiffBadInput(t *testing.T) {
 	writeFile(t, dir, "big.smi", big)
 	stdout, stderr, status := runDiff(t, dir)
 	want := []string{
-		"blocks.smi:1:1: unreadable: the new record does not read: unclosed branch: expected ')' [syntax]",
+		"blocks.smi:1:1: unreadable: LRK-BB-003: the new record does not read: unclosed branch: expected ')' [syntax]",
 		"gone.smi:1:1: removed: the record LRK-BB-001 is gone (line 1 at HEAD)",
 		"gone.smi:2:1: removed: the record LRK-BB-002 is gone (line 2 at HEAD)",
 		"new.smi:1:1: added: a new record LRK-BB-004",
@@ -260,7 +260,7 @@ func TestDiffBadInput(t *testing.T) {
 	}
 	for i := range want {
 		// the reader's wording of the syntax error is its own
-		if i == 0 && strings.HasPrefix(got[0], "blocks.smi:1:1: unreadable: the new record does not read: ") {
+		if i == 0 && strings.HasPrefix(got[0], "blocks.smi:1:1: unreadable: LRK-BB-003: the new record does not read: ") {
 			continue
 		}
 		if got[i] != want[i] {
@@ -297,7 +297,7 @@ func TestDiffDirect(t *testing.T) {
 	writeFile(t, dir, "old.smi", "N[C@@H](C)C(=O)O LRK-BB-001\nCCO LRK-BB-002\n")
 	writeFile(t, dir, "new.smi", "N[C@H](C)C(=O)O LRK-BB-001\nCCO LRK-BB-002\n")
 	stdout, stderr, status := runDiff(t, filepath.Join(dir, "old.smi"), filepath.Join(dir, "new.smi"))
-	want := "new.smi:1:4: enantiomer: the mirror image (1 centre inverted): C2 is now R (was S)"
+	want := "new.smi:1:4: enantiomer: LRK-BB-001: the mirror image (1 centre inverted): C2 is now R (was S)"
 	if got := relLines(stdout, dir); len(got) != 1 || got[0] != want || status != 0 {
 		t.Errorf("got %q (status %d, stderr %s), want %q", got, status, stderr, want)
 	}

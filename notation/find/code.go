@@ -171,6 +171,10 @@ type pendingLiteral struct {
 	// literal of its group is
 	word    bool
 	dialect Dialect
+	// sibling: a literal nobody names that reads as notation but is not
+	// unmistakably so ("CC(=O)O"), taken when its list holds a literal
+	// that is (["F/C=C/F", "CC(=O)O"])
+	sibling bool
 }
 
 // groupMark ties an occurrence to the literals it must agree with.
@@ -483,17 +487,21 @@ func group(f *frame) groupKey {
 // are query patterns too (and taken, if nothing else took them), except
 // where their place fixes the dialect. Occurrences stay in host order.
 func (cf *codeFinder) agree() {
-	query, taken := map[int32]bool{}, map[int32]bool{}
+	query, taken, guessed := map[int32]bool{}, map[int32]bool{}, map[int32]bool{}
 	for i := range cf.out {
-		g := &cf.out[i].group
-		if g.key != 0 && g.byContent && cf.out[i].Dialect == DialectSMARTS {
+		o := &cf.out[i]
+		g := &o.group
+		if g.key != 0 && g.byContent && o.Dialect == DialectSMARTS {
 			query[g.key] = true
 		}
 		if g.key != 0 {
 			taken[g.key] = true
 		}
+		if g.key != 0 && o.Reason == ReasonGuess && o.Dialect == DialectSMILES {
+			guessed[g.key] = true
+		}
 	}
-	if len(query) == 0 && !cf.words(taken) {
+	if len(query) == 0 && !cf.words(taken) && !cf.siblings(guessed) {
 		return
 	}
 	for i := range cf.out {
@@ -505,6 +513,14 @@ func (cf *codeFinder) agree() {
 	}
 	added := false
 	for _, p := range cf.pending {
+		if p.sibling {
+			if guessed[p.mark.key] && !query[p.mark.key] {
+				m := p.m
+				cf.emit(p.lit, p.d, &m, p.from, p.to, "", ReasonGuess, DialectSMILES, p.mark)
+				added = true
+			}
+			continue
+		}
 		if p.word {
 			if taken[p.mark.key] {
 				m := p.m
@@ -522,6 +538,17 @@ func (cf *codeFinder) agree() {
 	if added {
 		sort.SliceStable(cf.out, func(a, b int) bool { return cf.out[a].Span.Start < cf.out[b].Span.Start })
 	}
+}
+
+// siblings reports whether a sibling kept for agree has a group in
+// guessed.
+func (cf *codeFinder) siblings(guessed map[int32]bool) bool {
+	for _, p := range cf.pending {
+		if p.sibling && guessed[p.mark.key] {
+			return true
+		}
+	}
+	return false
 }
 
 // words reports whether a word kept for agree has a group in taken.
@@ -599,7 +626,7 @@ func (cf *codeFinder) literal(t token, f *frame) {
 	m := cf.decode(lit, d)
 	text := string(d.text)
 	if pend && !w.named() && (!w.guess || !mayGuess(cf.src, lit)) {
-		cf.keep(lit, d, m, text, mark)
+		cf.keep(lit, d, m, text, mark, false)
 		return
 	}
 	if w.named() && strings.IndexByte(text, '\n') >= 0 {
@@ -643,7 +670,7 @@ func (cf *codeFinder) literal(t token, f *frame) {
 		}
 	}
 	if len(rs) == 0 && pend {
-		cf.keep(lit, d, m, text, mark)
+		cf.keep(lit, d, m, text, mark, !w.named() && w.guess)
 	}
 }
 
@@ -685,13 +712,22 @@ func mayKeep(src []byte, lit *literal) bool {
 }
 
 // keep holds a literal nothing took for agree, when it could be a query
-// pattern of its group.
-func (cf *codeFinder) keep(lit *literal, d *decoded, m offsetMap, text string, mark groupMark) {
+// pattern of its group, or, guessing, a record beside one that is
+// unmistakably notation.
+func (cf *codeFinder) keep(lit *literal, d *decoded, m offsetMap, text string, mark groupMark, guessing bool) {
+	if len(lit.pieces) != 1 || len(d.issues) > 0 {
+		return
+	}
 	// Not taken as notation, a query pattern of a group has a bracket
 	// atom, an aromatic atom, a wildcard or a bond query ('c[SH]',
 	// '[CH2]=*'), and no range of characters ('[b-d]'); anything else is
 	// not worth reading.
-	if !strings.ContainsAny(text, "[*~@cnos") || len(lit.pieces) != 1 || len(d.issues) > 0 || characterRange(text) {
+	if !strings.ContainsAny(text, "[*~@cnos") || characterRange(text) {
+		if guessing && siblingRecord(text) {
+			kept := new(decoded)
+			*kept = *d
+			cf.pending = append(cf.pending, pendingLiteral{lit: lit, d: kept, m: m, from: 0, to: len(text), mark: cf.resolve(mark), sibling: true})
+		}
 		return
 	}
 	parts := [][2]int{{0, len(text)}}
@@ -709,6 +745,15 @@ func (cf *codeFinder) keep(lit *literal, d *decoded, m offsetMap, text string, m
 	for _, p := range parts {
 		cf.pending = append(cf.pending, pendingLiteral{lit: lit, d: kept, m: m, from: p[0], to: p[1], mark: cf.resolve(mark)})
 	}
+}
+
+// siblingRecord reports whether a literal nobody names could be a record
+// of a list that holds unmistakable notation: one record that reads
+// without error, with something besides letters ("CC(=O)O", "CCN(CC)CC";
+// not "CCO", "NO" or "a=b", which are words as often).
+func siblingRecord(s string) bool {
+	return len(s) >= 3 && plausible(s) && !strings.ContainsAny(s, " \t,;") && !accidentalWord(s) &&
+		!keyValueWords(s) && readsAsNotation(s)
 }
 
 // decode decodes a literal into d and returns its offset map.

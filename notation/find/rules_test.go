@@ -139,6 +139,14 @@ func TestCodeRules(t *testing.T) {
 		// docstrings); a list of elements stays.
 		{KindPython, "def f():\n    \"\"\"Expands.\n\n    >>> c.expand()\n    [A,C] + [B,C]\n    \"\"\"\n", nil},
 		{KindPython, `x = "[Cl,Br,I]"`, []string{"q:[Cl,Br,I]"}},
+		// A list nobody names that holds unmistakable notation holds
+		// records: its other literals that read as notation are taken,
+		// words and key=value pairs are not (common practice: lists of
+		// test structures mix ring and stereo records with acyclic ones).
+		{KindPython, `xs = ["F/C=C/F", "CC(=O)O", "CCN(CC)CC", "CCO", "hello", "a=b"]`, []string{"F/C=C/F", "CC(=O)O", "CCN(CC)CC"}},
+		{KindJavaScript, `const list = ["C[C@H](N)C(=O)O", "OCC(O)CO"];`, []string{"C[C@H](N)C(=O)O", "OCC(O)CO"}},
+		// without one, they are not
+		{KindPython, `ys = ["CC(=O)O", "CCN(CC)CC"]`, nil},
 		{KindPython, `glob_pattern = "*"`, nil},
 		// One argument of one function agrees over the file.
 		{KindPython, "P('a', 'c[SH]', 'c[S-]')\nP('b', '[!O]S(=O)(=O)[OH]', '[!O]S(=O)(=O)[O-]')", []string{"q:c[SH]", "q:c[S-]", "q:[!O]S(=O)(=O)[OH]", "q:[!O]S(=O)(=O)[O-]"}},

@@ -31,6 +31,8 @@ func TestKindForName(t *testing.T) {
 		{"Mol.java", KindJava},
 		{"build.gradle.kts", KindKotlin},
 		{"README.md", KindMarkdown},
+		{"report.Rmd", KindMarkdown},
+		{"paper.qmd", KindMarkdown},
 		{"data.json", KindJSON},
 		{"reactions.jsonl", KindJSON},
 		{"records.ndjson", KindJSON},

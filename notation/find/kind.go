@@ -73,6 +73,9 @@ var extensions = map[string]Kind{
 	".java": KindJava,
 	".kt":   KindKotlin, ".kts": KindKotlin,
 	".md": KindMarkdown, ".markdown": KindMarkdown,
+	// R Markdown and Quarto documents are Markdown whose code chunks are
+	// fences tagged {r}, {python}, ...
+	".rmd": KindMarkdown, ".qmd": KindMarkdown,
 	".json": KindJSON, ".jsonl": KindJSON, ".ndjson": KindJSON, ".jsonlines": KindJSON,
 	".yaml": KindYAML, ".yml": KindYAML,
 	".ipynb": KindNotebook,
@@ -101,8 +104,8 @@ var languageIDs = map[string]Kind{
 	"rust":     KindRust,
 	"java":     KindJava,
 	"kotlin":   KindKotlin,
-	"markdown": KindMarkdown,
-	"json":     KindJSON, "jsonc": KindJSON, "jsonl": KindJSON, "jsonlines": KindJSON, "ndjson": KindJSON,
+	"markdown": KindMarkdown, "rmd": KindMarkdown, "quarto": KindMarkdown,
+	"json": KindJSON, "jsonc": KindJSON, "jsonl": KindJSON, "jsonlines": KindJSON, "ndjson": KindJSON,
 	"yaml":     KindYAML,
 	"notebook": KindNotebook, "jupyter": KindNotebook,
 }

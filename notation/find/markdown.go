@@ -101,7 +101,9 @@ func findMarkdown(src []byte, cfg *Config) []Occurrence {
 					fence.guess = true
 				}
 				if len(info) > 0 {
-					tag := strings.Trim(info[0], "{}.")
+					// "{r}", "{python echo=FALSE}", "{r, label}": the
+					// chunk headers of R Markdown and Quarto
+					tag := strings.Trim(info[0], "{}.,")
 					switch tag {
 					case "smiles", "smi", "rsmi", "cxsmiles":
 						fence.records = true

@@ -197,6 +197,9 @@ func TestCodeRules(t *testing.T) {
 		{KindMarkdown, "~~~ text\nF/C=C/F\n~~~\n", []string{"F/C=C/F"}},
 		{KindMarkdown, "```smiles\nCCO ethanol\n```\n", []string{"CCO"}},
 		{KindMarkdown, "```console\nF/C=C/F\n```\n", nil},
+		// R Markdown and Quarto chunks are fences tagged {r}, {python},
+		// with options after the language (common practice)
+		{KindMarkdown, "```{r, echo=FALSE}\nm <- parse.smiles(\"C[C@H](O)CC\")\n```\n```{python}\nx = Chem.MolFromSmiles(\"F/C=C/F\")\n```\n", []string{"C[C@H](O)CC", "F/C=C/F"}},
 		{KindTSV, "name\tsmiles\tnote\nethanol\tCCO\tx\n", []string{"CCO"}},
 	}
 	for _, tt := range tests {

@@ -1,5 +1,6 @@
 // The Stereoline extension: it starts `stereoline serve` over stdio and
-// hands it list files, Python, notebooks, CSV, TSV and Markdown. All
+// hands it list files, tables, source code, notebooks, Markdown, JSON and
+// YAML. All
 // analysis happens in the server; this file only wires settings and
 // documents to it.
 import * as vscode from "vscode";
@@ -14,11 +15,17 @@ import {
 // initializationOptions and from workspace/configuration.
 const section = "stereoline";
 
-// Languages whose documents go to the server. "smiles" and "rsmi" are
-// contributed by this extension; the others are VS Code's own ids (csv and
-// tsv are also contributed here, since VS Code has none built in).
-// jsonl: Visual Studio Code's language of JSON Lines datasets (.jsonl)
-const languages = ["smiles", "rsmi", "python", "csv", "tsv", "markdown", "jsonl"];
+// Languages whose documents go to the server: every host kind it reads.
+// "smiles" and "rsmi" are contributed by this extension; the others are
+// VS Code's own ids (csv and tsv are also contributed here, since VS Code
+// has none built in; r, julia, rust, kotlin, rmd and quarto come with the
+// extensions of those languages). jsonl: Visual Studio Code's language of
+// JSON Lines datasets (.jsonl).
+const languages = [
+  "smiles", "rsmi", "python", "csv", "tsv", "markdown", "jsonl", "json", "yaml",
+  "javascript", "javascriptreact", "typescript", "typescriptreact",
+  "go", "r", "julia", "rust", "java", "kotlin", "rmd", "quarto",
+];
 
 let client: LanguageClient | undefined;
 

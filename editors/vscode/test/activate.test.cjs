@@ -331,11 +331,20 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
       const f = path.join(fixtures, name);
       record.opened.fire(textDocument(f, lang, fs.readFileSync(f, "utf8")));
     }
+    // JSON datasets and source code of other languages the server reads
+    const inline = [
+      ["compounds.json", "json", '[{"id": "A-1", "smiles": "C[C@H](N)C(=O)O"}]\n'],
+      ["screen.ts", "typescript", 'const lead = "C[C@H](N)C(=O)O";\n'],
+    ];
+    for (const [name, lang, text] of inline) {
+      record.opened.fire(textDocument(path.join(dir, name), lang, text));
+    }
     record.opened.fire(textDocument(path.join(dir, "notes.txt"), "plaintext", "C[C@H](C)O\n"));
     const didOpen = () => frames(fs.readFileSync(sent)).filter((m) => m.method === "textDocument/didOpen");
-    assert.ok(await wait(() => didOpen().length >= open.length, 5000), `didOpen: ${JSON.stringify(didOpen())}`);
+    const expected = open.length + inline.length;
+    assert.ok(await wait(() => didOpen().length >= expected, 5000), `didOpen: ${JSON.stringify(didOpen())}`);
     await new Promise((r) => setTimeout(r, 200));
-    assert.deepEqual(didOpen().map((m) => m.params.textDocument.languageId).sort(), ["csv", "jsonl", "python", "smiles"]);
+    assert.deepEqual(didOpen().map((m) => m.params.textDocument.languageId).sort(), ["csv", "json", "jsonl", "python", "smiles", "typescript"]);
     stopped = true;
     await ext.deactivate();
     assert.ok(await wait(() => fs.existsSync(status), 5000), "the server did not exit after deactivate");

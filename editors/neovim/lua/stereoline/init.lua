@@ -18,7 +18,11 @@ M.defaults = {
   cmd = { "stereoline", "serve" },
   -- Filetypes whose buffers go to the server. "smiles" is set below for
   -- .smi, .smiles and .rsmi files.
-  filetypes = { "smiles", "python", "csv", "tsv", "markdown", "jsonl" },
+  filetypes = {
+    "smiles", "python", "csv", "tsv", "markdown", "jsonl", "json", "yaml",
+    "javascript", "javascriptreact", "typescript", "typescriptreact",
+    "go", "r", "julia", "rust", "java", "kotlin", "rmd", "quarto",
+  },
   -- Files or directories that mark a project root, searched upwards.
   root_markers = { ".git", "pyproject.toml", "setup.py" },
   -- The server's settings: severity, inlayHints, drawingLens, detection,

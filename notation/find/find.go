@@ -37,6 +37,8 @@ func FindKind(kind Kind, content []byte, cfg Config) []Occurrence {
 		return findYAML(content, &cfg)
 	case KindNotebook:
 		return findNotebook(content, &cfg)
+	case KindRST:
+		return findRST(content, &cfg)
 	}
 	if lang := codeLangs[kind]; lang != nil {
 		return findCode(content, lang, &cfg)

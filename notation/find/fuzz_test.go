@@ -36,8 +36,9 @@ func FuzzFind(f *testing.F) {
 	f.Add([]byte("const s = `${a} F/C=C\\F ${`${b}`}`"), uint8(KindJavaScript))
 	f.Add([]byte("x = \"$(f(\")\")) C1CC1 $y\""), uint8(KindJulia))
 	f.Add([]byte("a `\nF/C=C/F\n` b ``x\n`` `c"), uint8(KindMarkdown))
+	f.Add([]byte(".. code-block:: python\n   :x:\n\n   s = 'F/C=C/F'\nText::\n\n  C1CC1 t\n>>> m('C\\1')\n``CC``"), uint8(KindRST))
 	f.Fuzz(func(t *testing.T, src []byte, kind uint8) {
-		k := Kind(kind % uint8(KindNotebook+1))
+		k := Kind(kind % uint8(KindRST+1))
 		checkFound(t, k, src, FindKind(k, src, Config{}))
 	})
 }
@@ -124,6 +125,23 @@ func FuzzFindMarkdown(f *testing.F) {
 	}
 	f.Fuzz(func(t *testing.T, src []byte) {
 		checkFound(t, KindMarkdown, src, FindKind(KindMarkdown, src, Config{}))
+	})
+}
+
+// FuzzFindRST: reStructuredText, with directives and their options,
+// literal blocks, doctest lines, inline literals and pragmas.
+func FuzzFindRST(f *testing.F) {
+	addSeedFiles(f, KindRST)
+	for _, s := range []string{
+		".. code-block:: python\n   :linenos:\n\n   s = 'F/C=C/F'\n   t = \"C1CC\\1\"\nafter",
+		"Text::\n\n  C[C@H](F)Cl t\n  >>> m('C1CC1')\n\nmore ``CC`` the SMILES ``CCO``.",
+		">>> x = ('F/C=C'\n...      '/F')\n'F/C=C/F'\n", ".. doctest::\n\n   >>> f('[C@@H]')\n",
+		"::\n\n\tC1CC1\n", ".. code:: js\n\n  s = `${a} F/C=C\\F`\n", "``\n`` ``C[C@@H](F)Cl",
+	} {
+		f.Add([]byte(s))
+	}
+	f.Fuzz(func(t *testing.T, src []byte) {
+		checkFound(t, KindRST, src, FindKind(KindRST, src, Config{}))
 	})
 }
 

@@ -28,6 +28,7 @@ const (
 	KindJSON
 	KindYAML
 	KindNotebook // Jupyter .ipynb
+	KindRST      // reStructuredText (Sphinx documentation)
 )
 
 var kindNames = [...]string{
@@ -47,6 +48,7 @@ var kindNames = [...]string{
 	KindJSON:       "json",
 	KindYAML:       "yaml",
 	KindNotebook:   "notebook",
+	KindRST:        "rst",
 }
 
 // String returns the lowercase name of the kind, as used in messages and
@@ -79,6 +81,7 @@ var extensions = map[string]Kind{
 	".json": KindJSON, ".jsonl": KindJSON, ".ndjson": KindJSON, ".jsonlines": KindJSON,
 	".yaml": KindYAML, ".yml": KindYAML,
 	".ipynb": KindNotebook,
+	".rst":   KindRST, ".rest": KindRST,
 }
 
 // KindForName picks the host kind from a file name (a path or a bare
@@ -108,6 +111,7 @@ var languageIDs = map[string]Kind{
 	"json": KindJSON, "jsonc": KindJSON, "jsonl": KindJSON, "jsonlines": KindJSON, "ndjson": KindJSON,
 	"yaml":     KindYAML,
 	"notebook": KindNotebook, "jupyter": KindNotebook,
+	"restructuredtext": KindRST,
 }
 
 // KindFor returns the host kind for an editor language identifier

@@ -24,7 +24,7 @@ const section = "stereoline";
 const languages = [
   "smiles", "rsmi", "python", "csv", "tsv", "markdown", "jsonl", "json", "yaml",
   "javascript", "javascriptreact", "typescript", "typescriptreact",
-  "go", "r", "julia", "rust", "java", "kotlin", "rmd", "quarto",
+  "go", "r", "julia", "rust", "java", "kotlin", "rmd", "quarto", "restructuredtext",
 ];
 
 let client: LanguageClient | undefined;

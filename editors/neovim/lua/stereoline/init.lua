@@ -21,7 +21,7 @@ M.defaults = {
   filetypes = {
     "smiles", "python", "csv", "tsv", "markdown", "jsonl", "json", "yaml",
     "javascript", "javascriptreact", "typescript", "typescriptreact",
-    "go", "r", "julia", "rust", "java", "kotlin", "rmd", "quarto",
+    "go", "r", "julia", "rust", "java", "kotlin", "rmd", "quarto", "rst",
   },
   -- Files or directories that mark a project root, searched upwards.
   root_markers = { ".git", "pyproject.toml", "setup.py" },

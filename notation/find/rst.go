@@ -1,0 +1,262 @@
+package find
+
+import (
+	"bytes"
+	"sort"
+	"strings"
+
+	"stereoline/notation"
+)
+
+// findRST reads a reStructuredText document (the markup of Sphinx
+// documentation; Docutils, "reStructuredText Markup Specification"):
+//   - the code of doctest lines (">>> ", "... ", Python's doctest module)
+//     anywhere in the document is read as Python: doctest blocks, literal
+//     blocks and the doctest directive alike;
+//   - the body of a code-block, code or sourcecode directive tagged with a
+//     language we lex is read as that language, and the bodies of
+//     testcode, ipython and jupyter-execute directives as Python;
+//   - a line of a literal block (after a paragraph ending in "::") or of a
+//     code block tagged text, or of none, is a record when it starts with
+//     unmistakable notation, as in an untagged Markdown fence;
+//   - the rest (prose, inline literals “...“, expected output) is read
+//     token by token, as the prose of a docstring: unmistakable notation,
+//     a query pattern by its content, or an inline literal the words just
+//     before name ("SMILES “CCO“").
+func findRST(src []byte, cfg *Config) []Occurrence {
+	prag := newPragmas(src)
+	nm := newNamer(cfg)
+	var out []Occurrence
+	blocks := rstBlocks(src)
+	code := doctestCode(src)
+	if code != nil {
+		// the doctest lines, blanked elsewhere: offsets are the file's
+		for _, o := range FindKind(KindPython, code, *cfg) {
+			if prag.allowed(o.Span.Start) {
+				out = append(out, o)
+			}
+		}
+	}
+	inBlock := make([]bool, len(src)+1)
+	for _, b := range blocks {
+		for i := b.start; i < b.end; i++ {
+			inBlock[i] = true
+		}
+		body := src[b.start:b.end]
+		switch {
+		case b.kind != KindUnknown:
+			if b.kind == KindPython && bytes.Contains(body, []byte(">>>")) {
+				continue // its doctest lines are read above
+			}
+			inner := FindKind(b.kind, body, *cfg)
+			lift(inner, identityMap(b.start, len(body)), nil)
+			for _, o := range inner {
+				if prag.allowed(o.Span.Start) {
+					out = append(out, o)
+				}
+			}
+		case b.guess && !cfg.NoGuess:
+			for start := b.start; start < b.end; {
+				line, next := nextLine(src[:b.end], start)
+				if t := bytes.TrimLeft(line, " \t"); !bytes.HasPrefix(t, []byte(">>>")) && !bytes.HasPrefix(t, []byte("...")) {
+					n := len(out)
+					out = guessedFenceRecord(out, line, start, prag)
+					for k := n; k < len(out); k++ {
+						out[k].Kind = KindRST
+					}
+				}
+				start = next
+			}
+		}
+	}
+	out = rstProse(out, src, code, inBlock, prag, nm, cfg)
+	sort.SliceStable(out, func(i, j int) bool { return out[i].Span.Start < out[j].Span.Start })
+	return out
+}
+
+// rstBlock is the body of a directive or a literal block: the lines after
+// it indented more than it, from start to end (offsets of the file).
+type rstBlock struct {
+	start, end int
+	kind       Kind // the language its body is read as; KindUnknown for none
+	guess      bool // its lines are guessed (literal blocks, text)
+}
+
+// rstBlocks finds the code directives and literal blocks of a document.
+func rstBlocks(src []byte) []rstBlock {
+	var blocks []rstBlock
+	paraEndsLiteral, paraIndent := false, 0
+	for start := 0; start < len(src); {
+		line, next := nextLine(src, start)
+		indent := leadingBlanks(line)
+		body := bytes.TrimRight(line[indent:], " \t\r")
+		if len(body) == 0 {
+			if paraEndsLiteral {
+				end := rstBody(src, next, paraIndent)
+				if end > next {
+					blocks = append(blocks, rstBlock{start: next, end: end, guess: true})
+					start = end
+					paraEndsLiteral = false
+					continue
+				}
+			}
+			paraEndsLiteral = false
+			start = next
+			continue
+		}
+		if kind, guess, ok := rstDirective(body); ok {
+			bodyStart := skipOptions(src, next, indent)
+			end := rstBody(src, bodyStart, indent)
+			if end > bodyStart {
+				blocks = append(blocks, rstBlock{start: bodyStart, end: end, kind: kind, guess: guess})
+			}
+			paraEndsLiteral = false
+			start = max(end, next)
+			continue
+		}
+		// A paragraph ending in "::" introduces a literal block (an
+		// expanded form "Paragraph::" or a lone "::").
+		paraEndsLiteral = bytes.HasSuffix(body, []byte("::")) && !bytes.HasPrefix(body, []byte(".. "))
+		paraIndent = indent
+		start = next
+	}
+	return blocks
+}
+
+// rstDirective reads a directive line (".. code-block:: python"): the
+// language its body is read as, or whether its lines are guessed.
+func rstDirective(body []byte) (kind Kind, guess, ok bool) {
+	if !bytes.HasPrefix(body, []byte(".. ")) {
+		return 0, false, false
+	}
+	name, arg, found := strings.Cut(string(body[3:]), "::")
+	if !found {
+		return 0, false, false
+	}
+	lang := strings.ToLower(strings.TrimSpace(arg))
+	if f := strings.Fields(lang); len(f) > 0 {
+		lang = f[0]
+	}
+	switch strings.TrimSpace(name) {
+	case "code-block", "code", "sourcecode":
+		switch lang {
+		case "", "text", "none", "txt", "smiles", "smi":
+			return KindUnknown, true, true
+		}
+		k := KindFor(lang)
+		if k == KindUnknown {
+			k = fenceAliases[lang]
+		}
+		if k == KindUnknown {
+			// pycon, console, bash, ...: not read, but its doctest lines are
+			return KindUnknown, false, true
+		}
+		return k, false, true
+	case "testcode", "ipython", "jupyter-execute":
+		return KindPython, false, true
+	case "doctest", "testoutput":
+		return KindUnknown, false, true
+	}
+	return 0, false, false
+}
+
+// skipOptions returns where the body of a directive starts: after its
+// option lines (":linenos:", ":caption: x"), indented more than it.
+func skipOptions(src []byte, from, indent int) int {
+	for start := from; start < len(src); {
+		line, next := nextLine(src, start)
+		k := leadingBlanks(line)
+		t := bytes.TrimRight(line[k:], " \t\r")
+		if k <= indent || len(t) == 0 || t[0] != ':' || bytes.Count(t, []byte(":")) < 2 {
+			return start
+		}
+		start = next
+	}
+	return len(src)
+}
+
+// rstBody returns where the block starting at from ends: at the first
+// line that is not blank and indented no more than indent.
+func rstBody(src []byte, from, indent int) int {
+	end := from
+	for start := from; start < len(src); {
+		line, next := nextLine(src, start)
+		k := leadingBlanks(line)
+		if len(bytes.TrimSpace(line)) > 0 {
+			if k <= indent {
+				break
+			}
+			end = next
+		}
+		start = next
+	}
+	return end
+}
+
+func leadingBlanks(line []byte) int {
+	k := 0
+	for k < len(line) && (line[k] == ' ' || line[k] == '\t') {
+		k++
+	}
+	return k
+}
+
+// rstProse takes the notation of the text outside code blocks and
+// doctest code, token by token.
+func rstProse(out []Occurrence, src, code []byte, inBlock []bool, prag *pragmas, nm namer, cfg *Config) []Occurrence {
+	for start := 0; start < len(src); {
+		for start < len(src) && isTokenBlank(src[start]) {
+			start++
+		}
+		end := start
+		for end < len(src) && !isTokenBlank(src[end]) {
+			end++
+		}
+		from, to := start, end
+		if from >= len(src) || inBlock[from] || code != nil && code[from] != ' ' || !prag.allowed(from) {
+			start = end
+			continue
+		}
+		for to > from && strings.IndexByte(".,;:", src[to-1]) >= 0 {
+			to--
+		}
+		literal := false
+		if to-from > 4 && bytes.HasPrefix(src[from:to], []byte("``")) && bytes.HasSuffix(src[from:to], []byte("``")) {
+			from, to, literal = from+2, to-2, true
+		}
+		if to > from {
+			s := string(src[from:to])
+			dialect, reason := DialectSMILES, Reason(0)
+			switch {
+			case literal && plausible(s) && namedBefore(nil, src[lineStartOf(src, start):start], nm):
+				reason = ReasonName
+				if queryContent(s) {
+					dialect = DialectSMARTS
+				}
+			case cfg.NoGuess:
+			case unmistakable(s):
+				reason = ReasonGuess
+			case queryContent(s) && guessableQuery(s):
+				dialect, reason = DialectSMARTS, ReasonGuess
+			}
+			if reason != 0 {
+				out = append(out, Occurrence{
+					Text:      s,
+					Span:      notation.Span{Start: from, End: to},
+					Kind:      KindRST,
+					Construct: ConstructInlineCode,
+					Reason:    reason,
+					Dialect:   dialect,
+					m:         identityMap(from, to-from),
+				})
+			}
+		}
+		start = end
+	}
+	return out
+}
+
+// lineStartOf returns the offset of the start of the line holding off.
+func lineStartOf(src []byte, off int) int {
+	return bytes.LastIndexByte(src[:off], '\n') + 1
+}

@@ -783,8 +783,10 @@ func mayGuess(src []byte, lit *literal) bool {
 	if n, end := notation.RecordEnd(b); end == len(b) && end > n {
 		b = b[:n]
 	}
+	// Blanks may separate records ("CC(=O)O C[C@@H](O)CC".split()):
+	// decide splits the text and takes it only when every part is one.
 	for _, c := range b {
-		if !notationByte[c] {
+		if !notationByte[c] && c != ' ' && c != '\t' {
 			return false
 		}
 	}

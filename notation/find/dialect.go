@@ -133,21 +133,28 @@ func decideInto(buf []found, text string, w wants) []found {
 // decideParts decides about a text holding separators: ok when it
 // splits into parts that are each a record.
 func decideParts(text string, parts [][2]int, w wants) ([]found, bool) {
-	{
-		out := make([]found, 0, len(parts))
-		for _, p := range parts {
-			d, by, ok := decideOne(text[p[0]:p[1]], w, true)
-			if !ok {
-				out = nil
-				break
-			}
-			out = append(out, found{from: p[0], to: p[1], dialect: d, byContent: by})
+	out := make([]found, 0, len(parts))
+	// guessing, a part that only reads ("CC(=O)O") is a record beside
+	// one that is unmistakably notation, as in a list (siblingRecord)
+	sure, siblings := false, false
+	for _, p := range parts {
+		part := text[p[0]:p[1]]
+		d, by, ok := decideOne(part, w, true)
+		switch {
+		case ok:
+			sure = true
+		case !w.named() && w.guess && siblingRecord(part):
+			d, by, ok, siblings = DialectSMILES, false, true, true
 		}
-		if out != nil {
-			return out, true
+		if !ok {
+			return nil, false
 		}
+		out = append(out, found{from: p[0], to: p[1], dialect: d, byContent: by})
 	}
-	return nil, false
+	if siblings && !sure {
+		return nil, false
+	}
+	return out, true
 }
 
 // splitParts returns the byte ranges of the parts of text between

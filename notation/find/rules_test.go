@@ -147,6 +147,11 @@ func TestCodeRules(t *testing.T) {
 		{KindJavaScript, `const list = ["C[C@H](N)C(=O)O", "OCC(O)CO"];`, []string{"C[C@H](N)C(=O)O", "OCC(O)CO"}},
 		// without one, they are not
 		{KindPython, `ys = ["CC(=O)O", "CCN(CC)CC"]`, nil},
+		// a string of records separated by blanks nobody names, likewise
+		// (the records of "...".split())
+		{KindPython, `parts = "CC(=O)O C[C@@H](O)CC".split()`, []string{"CC(=O)O", "C[C@@H](O)CC"}},
+		{KindPython, `msg = "use C[C@@H](O)CC here"`, nil},
+		{KindPython, `msg = "CC(=O)O CCN(CC)CC"`, nil},
 		{KindPython, `glob_pattern = "*"`, nil},
 		// One argument of one function agrees over the file.
 		{KindPython, "P('a', 'c[SH]', 'c[S-]')\nP('b', '[!O]S(=O)(=O)[OH]', '[!O]S(=O)(=O)[O-]')", []string{"q:c[SH]", "q:c[S-]", "q:[!O]S(=O)(=O)[OH]", "q:[!O]S(=O)(=O)[O-]"}},

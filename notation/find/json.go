@@ -854,6 +854,9 @@ type jsonFinder struct {
 	title string
 	// key is the innermost key above the value visited ("" for none)
 	key string
+	// own is the key whose value the string visited is, "" for an
+	// element of an array: a label for a record nothing else names
+	own string
 }
 
 // maxJSONTitle bounds a title taken from a member: a title names a
@@ -924,12 +927,15 @@ func (jf *jsonFinder) walk(v jsonValue, w wants, other bool) {
 			if !kw.named() && !ki.aboutKey {
 				child = w
 			}
-			outer := jf.key
-			jf.key = key
+			outer, outerOwn := jf.key, jf.own
+			jf.key, jf.own = key, key
 			jf.walk(v.vals[k], child, other || about)
-			jf.key = outer
+			jf.key, jf.own = outer, outerOwn
 		}
 	case 'a':
+		outerOwn := jf.own
+		jf.own = ""
+		defer func() { jf.own = outerOwn }()
 		for k := range v.vals {
 			jf.walk(v.vals[k], w, other)
 			if jf.each != nil {
@@ -1048,6 +1054,12 @@ func (jf *jsonFinder) record(v jsonValue, d *decoded, cs notation.Span, text str
 		}
 		if !named {
 			o.Reason = ReasonGuess
+			// the key of a record taken by its content labels it
+			// ({"lead": "C[C@@H](O)c1ccccc1"}); a key that names the
+			// notation does not
+			if o.Title == "" && labelKey(jf.own) {
+				o.Title = jf.own
+			}
 		}
 		if jf.key != "" {
 			o.Field = FieldOfKey(jf.key)

@@ -43,6 +43,11 @@ type yamlFinder struct {
 	mapping int
 	outMaps []int
 	titles  []yamlTitle
+	// own is the key whose value on its own line is the scalar being
+	// read ("" for an item of a sequence or a block), and outOwn that of
+	// each occurrence: a label for a record nothing else names
+	own    string
+	outOwn []string
 }
 
 type yamlTitle struct {
@@ -71,7 +76,26 @@ func (yf *yamlFinder) run() {
 				break
 			}
 		}
+		// else the key of a record taken by its content labels it
+		// ("lead: C[C@@H](O)c1ccccc1"); a key that names the notation
+		// does not (the record was taken by that name)
+		if yf.out[k].Title == "" && yf.out[k].Reason == ReasonGuess && labelKey(yf.outOwn[k]) {
+			yf.out[k].Title = yf.outOwn[k]
+		}
 	}
+}
+
+// labelKey reports whether a key can label the record that is its value:
+// not empty, not too long, and not a generic word of data formats.
+func labelKey(key string) bool {
+	if key == "" || len(key) > maxJSONTitle {
+		return false
+	}
+	switch strings.ToLower(key) {
+	case "value", "values", "data", "text", "input", "output", "default", "example", "item", "result", "string":
+		return false
+	}
+	return true
 }
 
 // newMapping starts a mapping inside the mapping parent (-1 for none)
@@ -155,7 +179,7 @@ func (yf *yamlFinder) walk() {
 		}
 		key, valueAt, ok := yamlKey(body)
 		if !ok {
-			yf.key = parentKey
+			yf.key, yf.own = parentKey, ""
 			yf.scalar(body, at, w)
 			continue
 		}
@@ -179,9 +203,9 @@ func (yf *yamlFinder) walk() {
 			stack = append(stack, yamlLevel{indent: indent, w: keyW, key: key})
 		case value[0] == '|' || value[0] == '>':
 			block, blockW = indent, keyW
-			yf.key = key
+			yf.key, yf.own = key, ""
 		default:
-			yf.key = key
+			yf.key, yf.own = key, key
 			yf.scalar(value, at+valueAt, keyW)
 		}
 	}
@@ -221,6 +245,7 @@ func (yf *yamlFinder) add(o Occurrence) {
 	}
 	yf.out = append(yf.out, o)
 	yf.outMaps = append(yf.outMaps, yf.mapping)
+	yf.outOwn = append(yf.outOwn, yf.own)
 }
 
 // yamlComment returns where a comment starts in a line ('#' at the start

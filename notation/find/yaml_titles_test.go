@@ -40,3 +40,35 @@ block_smiles: |
 		}
 	}
 }
+
+// TestOwnKeyLabels checks that in YAML and JSON a record taken by its
+// content, with no name, title or id member around it, is labelled by
+// the key it is the value of ("lead: C[C@@H](O)c1ccccc1", a layout of
+// common practice in configuration files), while a key that names the
+// notation, a generic key and an array's key label nothing.
+func TestOwnKeyLabels(t *testing.T) {
+	docs := []struct {
+		kind Kind
+		src  string
+	}{
+		{KindYAML, "compounds:\n  lead: C[C@@H](O)c1ccccc1\n  value: C[C@H](O)c1ccccc1\n  smiles: F/C=C/F\nlist:\n  - C[C@H](F)Cl\n"},
+		{KindJSON, `{"compounds": {"lead": "C[C@@H](O)c1ccccc1", "value": "C[C@H](O)c1ccccc1", "smiles": "F/C=C/F"}, "list": ["C[C@H](F)Cl"]}`},
+	}
+	want := []struct{ text, title string }{
+		{"C[C@@H](O)c1ccccc1", "lead"},
+		{"C[C@H](O)c1ccccc1", ""},
+		{"F/C=C/F", ""},
+		{"C[C@H](F)Cl", ""},
+	}
+	for _, d := range docs {
+		occs := FindKind(d.kind, []byte(d.src), Config{})
+		if len(occs) != len(want) {
+			t.Fatalf("%v: found %d records, want %d: %+v", d.kind, len(occs), len(want), occs)
+		}
+		for i, w := range want {
+			if occs[i].Text != w.text || occs[i].Title != w.title {
+				t.Errorf("%v record %d: %q titled %q, want %q titled %q", d.kind, i, occs[i].Text, occs[i].Title, w.text, w.title)
+			}
+		}
+	}
+}

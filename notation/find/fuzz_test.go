@@ -336,6 +336,14 @@ func decodesTo(host, want string) bool {
 		},
 		lenientUnescape,
 		func(s string) (string, bool) {
+			// a backslash before a character that means itself: R's
+			// "\ " and "\`" (?Quotes)
+			if len(s) == 2 && s[0] == '\\' {
+				return s[1:], true
+			}
+			return "", false
+		},
+		func(s string) (string, bool) {
 			// a doubled character: a quote in a CSV cell or a YAML
 			// scalar, %% in a format string, {{ in an f-string
 			if len(s) == 2 && s[0] == s[1] {

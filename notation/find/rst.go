@@ -30,7 +30,17 @@ func findRST(src []byte, cfg *Config) []Occurrence {
 	blocks := rstBlocks(src)
 	code := doctestCode(src)
 	if code != nil {
-		// the doctest lines, blanked elsewhere: offsets are the file's
+		// the doctest lines, blanked elsewhere (offsets are the file's),
+		// but those of a block read as another language
+		for _, b := range blocks {
+			if b.kind != KindUnknown && b.kind != KindPython {
+				for i := b.start; i < b.end; i++ {
+					if code[i] != '\n' {
+						code[i] = ' '
+					}
+				}
+			}
+		}
 		for _, o := range FindKind(KindPython, code, *cfg) {
 			if prag.allowed(o.Span.Start) {
 				out = append(out, o)

@@ -85,6 +85,9 @@ type frame struct {
 	// forHead: between "for" and "in" (or "of", or ':' in Java): the
 	// names of the loop variable say what the iterated values are.
 	forHead bool
+	// key: the string key of the current entry of a dict or object
+	// literal ({"naproxen": "..."}), a label for a record nobody names
+	key string
 }
 
 const (
@@ -306,6 +309,9 @@ func (cf *codeFinder) walk(toks []token) {
 				if !t.lit.skip && !t.lit.hasHoles() {
 					k := cf.keyText(t)
 					w, about := cf.nm.classify(k)
+					if f.open == '{' {
+						f.key = k
+					}
 					f.seg = w
 					f.about = !w.named() && aboutKey(k)
 					f.segAbout = about
@@ -343,6 +349,7 @@ func (cf *codeFinder) walk(toks []token) {
 			case ",", ";":
 				f.seg, f.val, f.about, f.segAbout = wants{}, valNone, false, false
 				f.arg++
+				f.key = ""
 			case "(", "[", "{":
 				frames = append(frames, cf.open(toks, i, f))
 			case ")", "]", "}":
@@ -656,10 +663,16 @@ func (cf *codeFinder) literal(t token, f *frame) {
 	}
 	rs := decideInto(cf.rs[:0], text, w)
 	cf.rs = rs
+	title := ""
+	if reason == ReasonGuess && len(rs) == 1 && f.key != "" && labelKey(f.key) {
+		// the key of a dict entry labels a record nobody names
+		// ({"naproxen": "COc1ccc2cc([C@H](C)C(=O)O)ccc2c1"})
+		title = f.key
+	}
 	for _, r := range rs {
 		mk := mark
 		mk.byContent = r.byContent
-		cf.emit(lit, d, &m, r.from, r.to, "", reason, r.dialect, mk)
+		cf.emit(lit, d, &m, r.from, r.to, title, reason, r.dialect, mk)
 	}
 	if len(rs) == 0 && mark.key != 0 && len(lit.pieces) == 1 && len(d.issues) == 0 {
 		if dia, ok := looseWord(text, w); ok {

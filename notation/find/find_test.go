@@ -437,3 +437,29 @@ func TestGuessExtensionBlock(t *testing.T) {
 		}
 	}
 }
+
+// TestDictKeyTitles checks that the string key of a dict or object entry
+// labels the record nobody names that is its value (a layout of common
+// practice: {"naproxen": "..."}), while a key that names the notation,
+// a generic key and the elements of a list under a key label nothing.
+func TestDictKeyTitles(t *testing.T) {
+	tests := []struct {
+		kind Kind
+		src  string
+		want []string // text=title
+	}{
+		{KindPython, `drugs = {"naproxen": "COc1ccc2cc([C@H](C)C(=O)O)ccc2c1", "value": "F/C=C/F", "smiles": "C[C@H](F)Cl", "pair": ["C1CC[C@H](O)CC1"]}`,
+			[]string{"COc1ccc2cc([C@H](C)C(=O)O)ccc2c1=naproxen", "F/C=C/F=", "C[C@H](F)Cl=", "C1CC[C@H](O)CC1="}},
+		{KindJavaScript, `const m = {"lead": "C[C@@H](O)c1ccccc1", other: "F/C=C/F"};`,
+			[]string{"C[C@@H](O)c1ccccc1=lead", "F/C=C/F="}},
+	}
+	for _, tt := range tests {
+		var got []string
+		for _, o := range FindKind(tt.kind, []byte(tt.src), Config{}) {
+			got = append(got, o.Text+"="+o.Title)
+		}
+		if strings.Join(got, " ") != strings.Join(tt.want, " ") {
+			t.Errorf("%v %q: got %q, want %q", tt.kind, tt.src, got, tt.want)
+		}
+	}
+}

@@ -39,6 +39,8 @@ func FindKind(kind Kind, content []byte, cfg Config) []Occurrence {
 		return findNotebook(content, &cfg)
 	case KindRST:
 		return findRST(content, &cfg)
+	case KindSDF:
+		return findSDF(content, &cfg)
 	}
 	if lang := codeLangs[kind]; lang != nil {
 		return findCode(content, lang, &cfg)

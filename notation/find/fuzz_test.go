@@ -38,7 +38,7 @@ func FuzzFind(f *testing.F) {
 	f.Add([]byte("a `\nF/C=C/F\n` b ``x\n`` `c"), uint8(KindMarkdown))
 	f.Add([]byte(".. code-block:: python\n   :x:\n\n   s = 'F/C=C/F'\nText::\n\n  C1CC1 t\n>>> m('C\\1')\n``CC``"), uint8(KindRST))
 	f.Fuzz(func(t *testing.T, src []byte, kind uint8) {
-		k := Kind(kind % uint8(KindRST+1))
+		k := Kind(kind % uint8(KindSDF+1))
 		checkFound(t, k, src, FindKind(k, src, Config{}))
 	})
 }

@@ -29,6 +29,7 @@ const (
 	KindYAML
 	KindNotebook // Jupyter .ipynb
 	KindRST      // reStructuredText (Sphinx documentation)
+	KindSDF      // SD files: the data items of their records
 )
 
 var kindNames = [...]string{
@@ -49,6 +50,7 @@ var kindNames = [...]string{
 	KindYAML:       "yaml",
 	KindNotebook:   "notebook",
 	KindRST:        "rst",
+	KindSDF:        "sdf",
 }
 
 // String returns the lowercase name of the kind, as used in messages and
@@ -82,6 +84,7 @@ var extensions = map[string]Kind{
 	".yaml": KindYAML, ".yml": KindYAML,
 	".ipynb": KindNotebook,
 	".rst":   KindRST, ".rest": KindRST,
+	".sdf": KindSDF, ".sd": KindSDF,
 }
 
 // KindForName picks the host kind from a file name (a path or a bare

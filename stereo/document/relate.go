@@ -30,7 +30,7 @@ const (
 // source code the same structure often appears twice on purpose (an input
 // and an expected value), so code is not related.
 var relatedKinds = map[find.Kind]bool{
-	find.KindList: true, find.KindCSV: true, find.KindTSV: true, find.KindJSON: true, find.KindYAML: true,
+	find.KindList: true, find.KindCSV: true, find.KindTSV: true, find.KindJSON: true, find.KindYAML: true, find.KindSDF: true,
 }
 
 // Relate returns the result with the relations between the records of a

@@ -177,11 +177,7 @@ func fenceRun(line []byte, c byte) int {
 
 // fencedRecord adds the record on one line of a smiles fence.
 func fencedRecord(out []Occurrence, line []byte, lineStart int, prag *pragmas) []Occurrence {
-	lead := 0
-	for lead < len(line) && (line[lead] == ' ' || line[lead] == '\t') {
-		lead++
-	}
-	line, lineStart = line[lead:], lineStart+lead
+	line, lineStart = trimLead(line, lineStart)
 	if len(line) == 0 || line[0] == '\r' {
 		return out
 	}
@@ -193,26 +189,14 @@ func fencedRecord(out []Occurrence, line []byte, lineStart int, prag *pragmas) [
 		return out
 	}
 	recEnd, ts, te := splitRecord(line)
-	return append(out, Occurrence{
-		Text:      string(line[:recEnd]),
-		Title:     string(line[ts:te]),
-		Span:      notation.Span{Start: lineStart, End: lineStart + recEnd},
-		Kind:      KindMarkdown,
-		Construct: ConstructFencedRecord,
-		Reason:    ReasonPlace,
-		m:         identityMap(lineStart, recEnd),
-	})
+	return append(out, fenceOccurrence(line, lineStart, recEnd, ts, te, ReasonPlace))
 }
 
 // guessedFenceRecord adds the record a line of an untagged fence starts
 // with, when it is unmistakably notation: such a block holds output,
 // commands and prose as often as records.
 func guessedFenceRecord(out []Occurrence, line []byte, lineStart int, prag *pragmas) []Occurrence {
-	lead := 0
-	for lead < len(line) && (line[lead] == ' ' || line[lead] == '\t') {
-		lead++
-	}
-	line, lineStart = line[lead:], lineStart+lead
+	line, lineStart = trimLead(line, lineStart)
 	recEnd, ts, te := splitRecord(line)
 	if recEnd < 3 || !prag.allowed(lineStart) {
 		return out
@@ -222,15 +206,27 @@ func guessedFenceRecord(out []Occurrence, line []byte, lineStart int, prag *prag
 	if len(rs) != 1 || rs[0].from != 0 || rs[0].to != len(rec) || rs[0].dialect != DialectSMILES {
 		return out
 	}
-	return append(out, Occurrence{
-		Text:      rec,
+	return append(out, fenceOccurrence(line, lineStart, recEnd, ts, te, ReasonGuess))
+}
+
+// trimLead drops the blanks a line of a block starts with.
+func trimLead(line []byte, lineStart int) ([]byte, int) {
+	lead := leadingBlanks(line)
+	return line[lead:], lineStart + lead
+}
+
+// fenceOccurrence is the record line[:recEnd] of a block's line starting
+// at lineStart, titled line[ts:te].
+func fenceOccurrence(line []byte, lineStart, recEnd, ts, te int, reason Reason) Occurrence {
+	return Occurrence{
+		Text:      string(line[:recEnd]),
 		Title:     string(line[ts:te]),
 		Span:      notation.Span{Start: lineStart, End: lineStart + recEnd},
 		Kind:      KindMarkdown,
 		Construct: ConstructFencedRecord,
-		Reason:    ReasonGuess,
+		Reason:    reason,
 		m:         identityMap(lineStart, recEnd),
-	})
+	}
 }
 
 // startsItem reports whether a line starts a list item (CommonMark 5.2:

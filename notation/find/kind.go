@@ -114,7 +114,7 @@ var languageIDs = map[string]Kind{
 	"json": KindJSON, "jsonc": KindJSON, "jsonl": KindJSON, "jsonlines": KindJSON, "ndjson": KindJSON,
 	"yaml":     KindYAML,
 	"notebook": KindNotebook, "jupyter": KindNotebook,
-	"restructuredtext": KindRST,
+	"restructuredtext": KindRST, "sdf": KindSDF,
 }
 
 // KindFor returns the host kind for an editor language identifier

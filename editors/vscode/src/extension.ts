@@ -17,14 +17,14 @@ const section = "stereoline";
 
 // Languages whose documents go to the server: every host kind it reads.
 // "smiles" and "rsmi" are contributed by this extension; the others are
-// VS Code's own ids (csv and tsv are also contributed here, since VS Code
-// has none built in; r, julia, rust, kotlin, rmd and quarto come with the
+// VS Code's own ids (csv, tsv and sdf are also contributed here, since VS
+// Code has none built in; r, julia, rust, kotlin, rmd and quarto come with the
 // extensions of those languages). jsonl: Visual Studio Code's language of
 // JSON Lines datasets (.jsonl).
 const languages = [
   "smiles", "rsmi", "python", "csv", "tsv", "markdown", "jsonl", "json", "yaml",
   "javascript", "javascriptreact", "typescript", "typescriptreact",
-  "go", "r", "julia", "rust", "java", "kotlin", "rmd", "quarto", "restructuredtext",
+  "go", "r", "julia", "rust", "java", "kotlin", "rmd", "quarto", "restructuredtext", "sdf",
 ];
 
 let client: LanguageClient | undefined;

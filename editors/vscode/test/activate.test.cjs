@@ -335,6 +335,7 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
     const inline = [
       ["compounds.json", "json", '[{"id": "A-1", "smiles": "C[C@H](N)C(=O)O"}]\n'],
       ["screen.ts", "typescript", 'const lead = "C[C@H](N)C(=O)O";\n'],
+      ["catalogue.sdf", "sdf", "KL-1\n\n\n  0  0  0  0  0  0  0  0  0  0999 V2000\nM  END\n> <SMILES>\nC[C@H](N)C(=O)O\n\n$$$$\n"],
     ];
     for (const [name, lang, text] of inline) {
       record.opened.fire(textDocument(path.join(dir, name), lang, text));
@@ -344,7 +345,7 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
     const expected = open.length + inline.length;
     assert.ok(await wait(() => didOpen().length >= expected, 5000), `didOpen: ${JSON.stringify(didOpen())}`);
     await new Promise((r) => setTimeout(r, 200));
-    assert.deepEqual(didOpen().map((m) => m.params.textDocument.languageId).sort(), ["csv", "json", "jsonl", "python", "smiles", "typescript"]);
+    assert.deepEqual(didOpen().map((m) => m.params.textDocument.languageId).sort(), ["csv", "json", "jsonl", "python", "sdf", "smiles", "typescript"]);
     stopped = true;
     await ext.deactivate();
     assert.ok(await wait(() => fs.existsSync(status), 5000), "the server did not exit after deactivate");

@@ -214,6 +214,17 @@ func leadingBlanks(line []byte) int {
 // rstProse takes the notation of the text outside code blocks and
 // doctest code, token by token.
 func rstProse(out []Occurrence, src, code []byte, inBlock []bool, prag *pragmas, nm namer, cfg *Config) []Occurrence {
+	add := func(from, to int, reason Reason, dialect Dialect) {
+		out = append(out, Occurrence{
+			Text:      string(src[from:to]),
+			Span:      notation.Span{Start: from, End: to},
+			Kind:      KindRST,
+			Construct: ConstructInlineCode,
+			Reason:    reason,
+			Dialect:   dialect,
+			m:         identityMap(from, to-from),
+		})
+	}
 	for start := 0; start < len(src); {
 		for start < len(src) && isTokenBlank(src[start]) {
 			start++
@@ -227,38 +238,42 @@ func rstProse(out []Occurrence, src, code []byte, inBlock []bool, prag *pragmas,
 			start = end
 			continue
 		}
+		if bytes.HasPrefix(src[from:], []byte("``")) {
+			// an inline literal, which may hold blanks ("``C[C@H](F)Cl
+			// |&1:1|``"): to its closing backquotes on the same line
+			line := src[from+2:]
+			if k := bytes.IndexByte(line, '\n'); k >= 0 {
+				line = line[:k]
+			}
+			if k := bytes.Index(line, []byte("``")); k > 0 {
+				from, to = from+2, from+2+k
+				s := string(src[from:to])
+				w := wants{guess: !cfg.NoGuess}
+				reason := ReasonGuess
+				if namedBefore(nil, src[lineStartOf(src, start):start], nm) {
+					w, reason = wants{smiles: firmly}, ReasonName
+				}
+				if plausible(s) {
+					for _, r := range decide(s, w) {
+						if r.dialect == DialectSMILES && queryContent(s[r.from:r.to]) && reason == ReasonName {
+							r.dialect = DialectSMARTS
+						}
+						add(from+r.from, from+r.to, reason, r.dialect)
+					}
+				}
+				start = to + 2
+				continue
+			}
+		}
 		for to > from && strings.IndexByte(".,;:", src[to-1]) >= 0 {
 			to--
 		}
-		literal := false
-		if to-from > 4 && bytes.HasPrefix(src[from:to], []byte("``")) && bytes.HasSuffix(src[from:to], []byte("``")) {
-			from, to, literal = from+2, to-2, true
-		}
-		if to > from {
-			s := string(src[from:to])
-			dialect, reason := DialectSMILES, Reason(0)
-			switch {
-			case literal && plausible(s) && namedBefore(nil, src[lineStartOf(src, start):start], nm):
-				reason = ReasonName
-				if queryContent(s) {
-					dialect = DialectSMARTS
-				}
-			case cfg.NoGuess:
+		if to > from && !cfg.NoGuess {
+			switch s := string(src[from:to]); {
 			case unmistakable(s):
-				reason = ReasonGuess
+				add(from, to, ReasonGuess, DialectSMILES)
 			case queryContent(s) && guessableQuery(s):
-				dialect, reason = DialectSMARTS, ReasonGuess
-			}
-			if reason != 0 {
-				out = append(out, Occurrence{
-					Text:      s,
-					Span:      notation.Span{Start: from, End: to},
-					Kind:      KindRST,
-					Construct: ConstructInlineCode,
-					Reason:    reason,
-					Dialect:   dialect,
-					m:         identityMap(from, to-from),
-				})
+				add(from, to, ReasonGuess, DialectSMARTS)
 			}
 		}
 		start = end

@@ -3,6 +3,8 @@ package find
 import (
 	"bytes"
 	"sort"
+
+	"stereoline/notation"
 )
 
 // Doctests (the Python standard library's doctest module): lines of a
@@ -87,6 +89,14 @@ func (cf *codeFinder) prose(lit *literal, d *decoded, m *offsetMap, code []byte)
 		for tok > start && (text[tok-1] == '.' || text[tok-1] == ',' || text[tok-1] == ';' || text[tok-1] == ':') {
 			tok--
 		}
+		if e := blockAfter(text, start, end); e > end && (code == nil || code[start] == ' ') && cf.prag.allowed(m.host(start)) {
+			// notation and its CXSMILES extension block, decided whole
+			if rs := decide(string(text[start:e]), wants{guess: true}); len(rs) == 1 && rs[0].from == 0 && rs[0].to == e-start {
+				cf.emit(lit, d, m, start, e, "", ReasonGuess, rs[0].dialect, groupMark{})
+				start = e
+				continue
+			}
+		}
 		if tok > start && (code == nil || code[start] == ' ') && cf.prag.allowed(m.host(start)) {
 			s := string(text[start:tok])
 			switch {
@@ -98,6 +108,24 @@ func (cf *codeFinder) prose(lit *literal, d *decoded, m *offsetMap, code []byte)
 		}
 		start = end
 	}
+}
+
+// blockAfter returns where the CXSMILES extension block after the token
+// text[start:end] ends, when one follows it on its line after blanks
+// ("C[C@H](F)Cl |&1:1|"); end when none does.
+func blockAfter(text []byte, start, end int) int {
+	if end >= len(text) || text[end] != ' ' && text[end] != '\t' {
+		return end
+	}
+	line := text[start:]
+	if k := bytes.IndexByte(line, '\n'); k >= 0 {
+		line = line[:k]
+	}
+	n, e := notation.RecordEnd(line)
+	if n != end-start || e <= n {
+		return end
+	}
+	return start + e
 }
 
 // doctestCode returns text with everything but the code of its doctest

@@ -265,6 +265,14 @@ func rstProse(out []Occurrence, src, code []byte, inBlock []bool, prag *pragmas,
 				continue
 			}
 		}
+		if e := blockAfter(src, from, end); e > end && !cfg.NoGuess {
+			// notation and its CXSMILES extension block, decided whole
+			if rs := decide(string(src[from:e]), wants{guess: true}); len(rs) == 1 && rs[0].from == 0 && rs[0].to == e-from {
+				add(from, e, ReasonGuess, rs[0].dialect)
+				start = e
+				continue
+			}
+		}
 		for to > from && strings.IndexByte(".,;:", src[to-1]) >= 0 {
 			to--
 		}

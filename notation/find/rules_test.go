@@ -139,6 +139,9 @@ func TestCodeRules(t *testing.T) {
 		// docstrings); a list of elements stays.
 		{KindPython, "def f():\n    \"\"\"Expands.\n\n    >>> c.expand()\n    [A,C] + [B,C]\n    \"\"\"\n", nil},
 		{KindPython, `x = "[Cl,Br,I]"`, []string{"q:[Cl,Br,I]"}},
+		// docstring prose keeps a CXSMILES extension block with its
+		// notation: without it the racemate would read as one enantiomer
+		{KindPython, "def f():\n    \"\"\"The racemate C[C@H](O)CC |&1:1| is read whole.\"\"\"\n", []string{"C[C@H](O)CC |&1:1|"}},
 		// A list nobody names that holds unmistakable notation holds
 		// records: its other literals that read as notation are taken,
 		// words and key=value pairs are not (common practice: lists of

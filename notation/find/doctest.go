@@ -113,13 +113,16 @@ func (cf *codeFinder) prose(lit *literal, d *decoded, m *offsetMap, code []byte)
 // blockAfter returns where the CXSMILES extension block after the token
 // text[start:end] ends, when one follows it on its line after blanks
 // ("C[C@H](F)Cl |&1:1|"); end when none does.
-func blockAfter(text []byte, start, end int) int {
+func blockAfter[T ~string | ~[]byte](text T, start, end int) int {
 	if end >= len(text) || text[end] != ' ' && text[end] != '\t' {
 		return end
 	}
 	line := text[start:]
-	if k := bytes.IndexByte(line, '\n'); k >= 0 {
-		line = line[:k]
+	for k := 0; k < len(line); k++ {
+		if line[k] == '\n' {
+			line = line[:k]
+			break
+		}
 	}
 	n, e := notation.RecordEnd(line)
 	if n != end-start || e <= n {

@@ -142,6 +142,7 @@ func TestCodeRules(t *testing.T) {
 		// docstring prose keeps a CXSMILES extension block with its
 		// notation: without it the racemate would read as one enantiomer
 		{KindPython, "def f():\n    \"\"\"The racemate C[C@H](O)CC |&1:1| is read whole.\"\"\"\n", []string{"C[C@H](O)CC |&1:1|"}},
+		{KindPython, `print(f"{cid}\tC[C@H](O)CC |&1:1|\t{n}")`, []string{"C[C@H](O)CC |&1:1|"}},
 		// A list nobody names that holds unmistakable notation holds
 		// records: its other literals that read as notation are taken,
 		// words and key=value pairs are not (common practice: lists of

@@ -69,6 +69,14 @@ func (cf *codeFinder) templateLiteral(lit *literal, w wants, reason Reason, mark
 			start = end
 			continue
 		}
+		if e := blockAfter(text, start, end); e > end && guess && !forced && strings.IndexByte(text[start:e], holeByte) < 0 {
+			// notation and its CXSMILES extension block, decided whole
+			if rs := decide(text[start:e], wants{guess: true}); len(rs) == 1 && rs[0].from == 0 && rs[0].to == e-start {
+				cf.emit(lit, d, &m, start, e, "", ReasonGuess, rs[0].dialect, mark)
+				start = e
+				continue
+			}
+		}
 		switch {
 		case forced:
 			cf.emit(lit, d, &m, start, end, "", ReasonPragma, dialectOf(tok), mark)

@@ -44,6 +44,16 @@ func TestNoBlowUp(t *testing.T) {
 		{KindJava, "String smiles = \"\"\"\n" + strings.Repeat("  C1CCCCC1 \\\n", 50000) + "\"\"\";"},
 		{KindJava, strings.Repeat("\"\"\"\n", 100000)},
 		{KindJulia, strings.Repeat("\"$(", 100000)},
+		// reStructuredText: nested directives, literal blocks, one long
+		// line of notation with blocks after it, unclosed literals
+		{KindRST, strings.Repeat(".. code-block:: python\n ", 50000)},
+		{KindRST, strings.Repeat("a::\n\n  C1CC1\n", 50000)},
+		{KindRST, strings.Repeat("C[C@H](F)Cl |", 100000)},
+		{KindRST, strings.Repeat("``C ", 100000)},
+		{KindPython, `"""` + strings.Repeat("C |x ", 200000) + `"""`},
+		// SD files: items without values, records without end
+		{KindSDF, strings.Repeat("> <SMILES>\n", 100000)},
+		{KindSDF, strings.Repeat("x\n\n\nM  END\n> <SMILES>\nC1CC1\n\n$$$$\n", 30000)},
 	}
 	for _, c := range cases {
 		start := time.Now()

@@ -114,21 +114,27 @@ func (cf *codeFinder) prose(lit *literal, d *decoded, m *offsetMap, code []byte)
 // text[start:end] ends, when one follows it on its line after blanks
 // ("C[C@H](F)Cl |&1:1|"); end when none does.
 func blockAfter[T ~string | ~[]byte](text T, start, end int) int {
-	if end >= len(text) || text[end] != ' ' && text[end] != '\t' {
+	p := end
+	for p < len(text) && (text[p] == ' ' || text[p] == '\t') {
+		p++
+	}
+	if p == end || p >= len(text) || text[p] != '|' {
 		return end
 	}
-	line := text[start:]
-	for k := 0; k < len(line); k++ {
-		if line[k] == '\n' {
-			line = line[:k]
-			break
-		}
+	// to the closing bar on the line: a block is short, so the cost is
+	// the block's, not the line's
+	q := p + 1
+	for q < len(text) && text[q] != '|' && text[q] != '\n' {
+		q++
 	}
-	n, e := notation.RecordEnd(line)
-	if n != end-start || e <= n {
+	if q >= len(text) || text[q] != '|' {
 		return end
 	}
-	return start + e
+	n, e := notation.RecordEnd(text[start : q+1])
+	if n != end-start || e != q+1-start {
+		return end
+	}
+	return q + 1
 }
 
 // doctestCode returns text with everything but the code of its doctest

@@ -241,16 +241,12 @@ func rstProse(out []Occurrence, src, code []byte, inBlock []bool, prag *pragmas,
 		if bytes.HasPrefix(src[from:], []byte("``")) {
 			// an inline literal, which may hold blanks ("``C[C@H](F)Cl
 			// |&1:1|``"): to its closing backquotes on the same line
-			line := src[from+2:]
-			if k := bytes.IndexByte(line, '\n'); k >= 0 {
-				line = line[:k]
-			}
-			if k := bytes.Index(line, []byte("``")); k > 0 {
+			if k := closingBackquotes(src[from+2:]); k > 0 {
 				from, to = from+2, from+2+k
 				s := string(src[from:to])
 				w := wants{guess: !cfg.NoGuess}
 				reason := ReasonGuess
-				if namedBefore(nil, src[lineStartOf(src, start):start], nm) {
+				if namedBefore(nil, wordsBefore(src, start), nm) {
 					w, reason = wants{smiles: firmly}, ReasonName
 				}
 				if plausible(s) {
@@ -289,7 +285,30 @@ func rstProse(out []Occurrence, src, code []byte, inBlock []bool, prag *pragmas,
 	return out
 }
 
-// lineStartOf returns the offset of the start of the line holding off.
-func lineStartOf(src []byte, off int) int {
-	return bytes.LastIndexByte(src[:off], '\n') + 1
+// closingBackquotes returns where the first pair of backquotes of b lies
+// on its first line, or -1: the cost is the distance to it or to the
+// line's end.
+func closingBackquotes(b []byte) int {
+	for k := 0; k < len(b); {
+		j := bytes.IndexAny(b[k:], "`\n")
+		if j < 0 || b[k+j] == '\n' {
+			return -1
+		}
+		k += j
+		if k+1 < len(b) && b[k+1] == '`' {
+			return k
+		}
+		k++
+	}
+	return -1
+}
+
+// wordsBefore returns the text before off on its line, at most the 64
+// bytes namedBefore looks at.
+func wordsBefore(src []byte, off int) []byte {
+	b := src[max(0, off-64):off]
+	if k := bytes.LastIndexByte(b, '\n'); k >= 0 {
+		b = b[k+1:]
+	}
+	return b
 }

@@ -169,12 +169,15 @@ func (n namer) classify(name string) (w wants, about bool) {
 	if len(name) < 3 || len(name) > 200 || n.extra == nil && !mentions(name) {
 		return wants{}, false
 	}
-	var notationWord, query, pattern, aboutWord bool
+	var notationWord, query, pattern, aboutWord, plainWord bool
 	for _, p := range nameParts(name) {
 		notationWord = notationWord || n.word(p)
 		query = query || queryWords[p]
 		pattern = pattern || patternWords[p]
 		aboutWord = aboutWord || aboutWords[p]
+		// a notation word that is not also an English word of other
+		// meanings (an emoji "reaction" of a chat message)
+		plainWord = plainWord || n.word(p) && !englishWords[p]
 	}
 	if aboutWord && (notationWord || query || pattern) {
 		return wants{}, true
@@ -185,9 +188,15 @@ func (n namer) classify(name string) (w wants, about bool) {
 	if notationWord && !query {
 		w.smiles = weakly
 	}
-	w.loose = pattern && !query && !notationWord
+	w.loose = pattern && !query && !notationWord || notationWord && !plainWord && !query && !pattern
 	return w, false
 }
+
+// englishWords are notation words (notationWords) that are ordinary words
+// as often: a name made only of them is loose, its text taken only when
+// it reads without error ({"reaction": {"unicode": "U+1F44D"}} holds an
+// emoji, not a broken record).
+var englishWords = map[string]bool{"reaction": true, "reactions": true}
 
 // call says what a function name, and the name of the value it is called
 // on, say about the string arguments: a constructor of SMILES

@@ -65,23 +65,50 @@ func findRST(src []byte, cfg *Config) []Occurrence {
 					out = append(out, o)
 				}
 			}
-		case b.guess && !cfg.NoGuess:
-			for start := b.start; start < b.end; {
-				line, next := nextLine(src[:b.end], start)
-				if t := bytes.TrimLeft(line, " \t"); !bytes.HasPrefix(t, []byte(">>>")) && !bytes.HasPrefix(t, []byte("...")) {
-					n := len(out)
-					out = guessedFenceRecord(out, line, start, prag)
-					for k := n; k < len(out); k++ {
-						out[k].Kind = KindRST
+		case b.guess:
+			first := len(out)
+			if !cfg.NoGuess {
+				for start := b.start; start < b.end; {
+					line, next := nextLine(src[:b.end], start)
+					if t := bytes.TrimLeft(line, " \t"); !bytes.HasPrefix(t, []byte(">>>")) && !bytes.HasPrefix(t, []byte("...")) {
+						n := len(out)
+						out = guessedFenceRecord(out, line, start, prag)
+						for k := n; k < len(out); k++ {
+							out[k].Kind = KindRST
+						}
 					}
+					start = next
 				}
-				start = next
+			}
+			if bytes.Contains(body, []byte(">>>")) {
+				continue // its doctest lines are read above
+			}
+			// Sphinx highlights literal blocks as Python unless told
+			// otherwise (its highlight_language): their code is read as
+			// Python too, but for the lines taken as records
+			guessed := out[first:]
+			inner := FindKind(KindPython, body, *cfg)
+			lift(inner, identityMap(b.start, len(body)), nil)
+			for _, o := range inner {
+				if prag.allowed(o.Span.Start) && !overlapsAny(o.Span, guessed) {
+					out = append(out, o)
+				}
 			}
 		}
 	}
 	out = rstProse(out, src, code, inBlock, prag, nm, cfg)
 	sort.SliceStable(out, func(i, j int) bool { return out[i].Span.Start < out[j].Span.Start })
 	return out
+}
+
+// overlapsAny reports whether s overlaps the span of one of occs.
+func overlapsAny(s notation.Span, occs []Occurrence) bool {
+	for _, o := range occs {
+		if s.Start < o.Span.End && o.Span.Start < s.End {
+			return true
+		}
+	}
+	return false
 }
 
 // rstBlock is the body of a directive or a literal block: the lines after

@@ -139,6 +139,11 @@ func TestCodeRules(t *testing.T) {
 		// docstrings); a list of elements stays.
 		{KindPython, "def f():\n    \"\"\"Expands.\n\n    >>> c.expand()\n    [A,C] + [B,C]\n    \"\"\"\n", nil},
 		{KindPython, `x = "[Cl,Br,I]"`, []string{"q:[Cl,Br,I]"}},
+		// "reaction" alone is an English word as often (the emoji
+		// reactions of a chat API): its text is taken only when it reads
+		{KindJSON, `{"reaction": {"emoji": "x", "unicode": "U+1F44D"}}`, nil},
+		{KindPython, `reactions = ["C=C.O>>CCO", "CC(=O>>CC"]`, []string{"C=C.O>>CCO"}},
+		{KindPython, `rxn = "CC(=O>>CC"`, []string{"CC(=O>>CC"}},
 		// docstring prose keeps a CXSMILES extension block with its
 		// notation: without it the racemate would read as one enantiomer
 		{KindPython, "def f():\n    \"\"\"The racemate C[C@H](O)CC |&1:1| is read whole.\"\"\"\n", []string{"C[C@H](O)CC |&1:1|"}},

@@ -78,24 +78,16 @@ func (cf *codeFinder) doctest(lit *literal) {
 func (cf *codeFinder) prose(lit *literal, d *decoded, m *offsetMap, code []byte) {
 	text := d.text
 	for start := 0; start < len(text); {
-		for start < len(text) && isTokenBlank(text[start]) {
-			start++
-		}
-		end := start
-		for end < len(text) && !isTokenBlank(text[end]) {
-			end++
-		}
+		var end int
+		start, end = nextWord(text, start)
 		tok := end
 		for tok > start && (text[tok-1] == '.' || text[tok-1] == ',' || text[tok-1] == ';' || text[tok-1] == ':') {
 			tok--
 		}
-		if e := blockAfter(text, start, end); e > end && (code == nil || code[start] == ' ') && cf.prag.allowed(m.host(start)) {
-			// notation and its CXSMILES extension block, decided whole
-			if rs := decide(string(text[start:e]), wants{guess: true}); len(rs) == 1 && rs[0].from == 0 && rs[0].to == e-start {
-				cf.emit(lit, d, m, start, e, "", ReasonGuess, rs[0].dialect, groupMark{})
-				start = e
-				continue
-			}
+		if e, dia, ok := withBlock(text, start, end); ok && (code == nil || code[start] == ' ') && cf.prag.allowed(m.host(start)) {
+			cf.emit(lit, d, m, start, e, "", ReasonGuess, dia, groupMark{})
+			start = e
+			continue
 		}
 		if tok > start && (code == nil || code[start] == ' ') && cf.prag.allowed(m.host(start)) {
 			s := string(text[start:tok])
@@ -108,6 +100,21 @@ func (cf *codeFinder) prose(lit *literal, d *decoded, m *offsetMap, code []byte)
 		}
 		start = end
 	}
+}
+
+// withBlock reads the word text[start:end] with the CXSMILES extension
+// block after it on its line, when one follows: it returns where the
+// block ends and the dialect when the whole is a record a guess takes.
+func withBlock[T ~string | ~[]byte](text T, start, end int) (blockEnd int, dialect Dialect, ok bool) {
+	e := blockAfter(text, start, end)
+	if e == end {
+		return end, 0, false
+	}
+	rs := decide(string(text[start:e]), wants{guess: true})
+	if len(rs) != 1 || rs[0].from != 0 || rs[0].to != e-start {
+		return end, 0, false
+	}
+	return e, rs[0].dialect, true
 }
 
 // blockAfter returns where the CXSMILES extension block after the token

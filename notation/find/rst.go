@@ -253,13 +253,8 @@ func rstProse(out []Occurrence, src, code []byte, inBlock []bool, prag *pragmas,
 		})
 	}
 	for start := 0; start < len(src); {
-		for start < len(src) && isTokenBlank(src[start]) {
-			start++
-		}
-		end := start
-		for end < len(src) && !isTokenBlank(src[end]) {
-			end++
-		}
+		var end int
+		start, end = nextWord(src, start)
 		from, to := start, end
 		if from >= len(src) || inBlock[from] || code != nil && code[from] != ' ' || !prag.allowed(from) {
 			start = end
@@ -288,13 +283,10 @@ func rstProse(out []Occurrence, src, code []byte, inBlock []bool, prag *pragmas,
 				continue
 			}
 		}
-		if e := blockAfter(src, from, end); e > end && !cfg.NoGuess {
-			// notation and its CXSMILES extension block, decided whole
-			if rs := decide(string(src[from:e]), wants{guess: true}); len(rs) == 1 && rs[0].from == 0 && rs[0].to == e-from {
-				add(from, e, ReasonGuess, rs[0].dialect)
-				start = e
-				continue
-			}
+		if e, dia, ok := withBlock(src, from, end); ok && !cfg.NoGuess {
+			add(from, e, ReasonGuess, dia)
+			start = e
+			continue
 		}
 		for to > from && strings.IndexByte(".,;:", src[to-1]) >= 0 {
 			to--

@@ -57,25 +57,17 @@ func (cf *codeFinder) templateLiteral(lit *literal, w wants, reason Reason, mark
 	}
 	guess := w.guess || named
 	for start := 0; start < len(text); {
-		for start < len(text) && isTokenBlank(text[start]) {
-			start++
-		}
-		end := start
-		for end < len(text) && !isTokenBlank(text[end]) {
-			end++
-		}
+		var end int
+		start, end = nextWord(text, start)
 		tok := text[start:end]
 		if tok == "" || strings.IndexByte(tok, holeByte) >= 0 || !cf.prag.allowed(m.host(start)) {
 			start = end
 			continue
 		}
-		if e := blockAfter(text, start, end); e > end && guess && !forced && strings.IndexByte(text[start:e], holeByte) < 0 {
-			// notation and its CXSMILES extension block, decided whole
-			if rs := decide(text[start:e], wants{guess: true}); len(rs) == 1 && rs[0].from == 0 && rs[0].to == e-start {
-				cf.emit(lit, d, &m, start, e, "", ReasonGuess, rs[0].dialect, mark)
-				start = e
-				continue
-			}
+		if e, dia, ok := withBlock(text, start, end); ok && guess && !forced && strings.IndexByte(text[start:e], holeByte) < 0 {
+			cf.emit(lit, d, &m, start, e, "", ReasonGuess, dia, mark)
+			start = e
+			continue
 		}
 		switch {
 		case forced:
@@ -101,6 +93,20 @@ func dialectOf(text string) Dialect {
 }
 
 func isTokenBlank(c byte) bool { return c == ' ' || c == '\t' || c == '\r' || c == '\n' }
+
+// nextWord returns the bounds of the first run of text from start on
+// between blanks (the tokens prose and templates are read by); start ==
+// end == len(text) when none is left.
+func nextWord[T ~string | ~[]byte](text T, start int) (from, to int) {
+	for start < len(text) && isTokenBlank(text[start]) {
+		start++
+	}
+	end := start
+	for end < len(text) && !isTokenBlank(text[end]) {
+		end++
+	}
+	return start, end
+}
 
 // mayGuessTemplate is the quick test of mayGuess for templates: an
 // unmistakable token is at least three notation bytes of fixed text with

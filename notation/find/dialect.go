@@ -214,7 +214,11 @@ func decideOne(s string, w wants, part bool) (d Dialect, byContent, ok bool) {
 		// ([a-z0-9]*) or a glob's or expression's "match anything"
 		// ("[ab].*", "**/x")
 		ok = !accidentalWord(s) && !keyValueWords(s) && !characterRange(s) && !contradictoryBracket(s) &&
-			!strings.Contains(s, ".*") && !strings.Contains(s, "**") && readsIn(d, s)
+			!strings.Contains(s, ".*") && !strings.Contains(s, "**") &&
+			(readsIn(d, s) || d == DialectSMILES && w.smiles > 0 && strings.Contains(s, ">"))
+		// under a reaction name (w.smiles), a text with a reaction arrow
+		// is a reaction even when it does not read: its errors are
+		// reported ("CC(=O>>CC"), where an emoji is not taken
 	}
 	return d, byContent, ok
 }

@@ -142,7 +142,8 @@ func TestCodeRules(t *testing.T) {
 		// "reaction" alone is an English word as often (the emoji
 		// reactions of a chat API): its text is taken only when it reads
 		{KindJSON, `{"reaction": {"emoji": "x", "unicode": "U+1F44D"}}`, nil},
-		{KindPython, `reactions = ["C=C.O>>CCO", "CC(=O>>CC"]`, []string{"C=C.O>>CCO"}},
+		{KindPython, `reactions = ["C=C.O>>CCO", "CC(=O>>CC"]`, []string{"C=C.O>>CCO", "CC(=O>>CC"}},
+		{KindPython, `reaction = "CC(=O"`, nil},
 		{KindPython, `rxn = "CC(=O>>CC"`, []string{"CC(=O>>CC"}},
 		// docstring prose keeps a CXSMILES extension block with its
 		// notation: without it the racemate would read as one enantiomer

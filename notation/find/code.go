@@ -157,8 +157,8 @@ type codeFinder struct {
 	// query patterns: taken after all if their group turns out to hold
 	// query patterns (agree).
 	pending []pendingLiteral
-	// literals counts the string literals of each group, taken or not
-	// (see strays)
+	// literals counts the string literals of each group under a loose
+	// name, taken or not (see strays)
 	literals map[groupKey]int
 }
 
@@ -604,7 +604,7 @@ func (cf *codeFinder) literal(t token, f *frame) {
 	}
 	// The group is interned only when the literal yields something.
 	cf.curKey = group(f)
-	if cf.curKey != (groupKey{}) {
+	if cf.curKey != (groupKey{}) && w.loose && w.named() {
 		if cf.literals == nil {
 			cf.literals = map[groupKey]int{}
 		}

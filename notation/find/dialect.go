@@ -491,6 +491,10 @@ func contradictoryBracket(s string) bool {
 	return false
 }
 
+// aromaticSymbols are the aromatic element symbols of SMARTS bracket
+// atoms (OpenSMILES 3.5 and Daylight SMARTS 4.1: b c n o p s, se as).
+var aromaticSymbols = map[string]bool{"b": true, "c": true, "n": true, "o": true, "p": true, "s": true, "se": true, "as": true}
+
 // implicitElements reports a part of lowercase letters only that reads
 // as aromatic symbols joined by the implicit AND of SMARTS (Daylight
 // SMARTS theory manual, 4.1: adjacent primitives are ANDed) and names two
@@ -504,9 +508,9 @@ func implicitElements(part string) bool {
 	for i := 0; i < len(part); {
 		var sym string
 		switch {
-		case i+1 < len(part) && (part[i:i+2] == "se" || part[i:i+2] == "as" || part[i:i+2] == "te"):
+		case i+1 < len(part) && aromaticSymbols[part[i:i+2]]:
 			sym = part[i : i+2]
-		case strings.IndexByte("bcnops", part[i]) >= 0:
+		case aromaticSymbols[part[i:i+1]]:
 			sym = part[i : i+1]
 		case part[i] == 'a':
 			i++ // any aromatic atom: no element
@@ -533,8 +537,7 @@ func oneElement(part string) (num int, sym string, ok bool) {
 		n, err := strconv.Atoi(part[1:])
 		return n, "", err == nil && n > 0 && n < 119
 	}
-	switch part {
-	case "b", "c", "n", "o", "p", "s", "se", "as":
+	if aromaticSymbols[part] {
 		n, ok := notation.ElementNumber(strings.ToUpper(part[:1]) + part[1:])
 		return n, part, ok
 	}

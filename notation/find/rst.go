@@ -47,11 +47,7 @@ func findRST(src []byte, cfg *Config) []Occurrence {
 			}
 		}
 	}
-	inBlock := make([]bool, len(src)+1)
 	for _, b := range blocks {
-		for i := b.start; i < b.end; i++ {
-			inBlock[i] = true
-		}
 		body := src[b.start:b.end]
 		switch {
 		case b.kind != KindUnknown:
@@ -96,7 +92,7 @@ func findRST(src []byte, cfg *Config) []Occurrence {
 			}
 		}
 	}
-	out = rstProse(out, src, code, inBlock, prag, nm, cfg)
+	out = rstProse(out, src, code, blocks, prag, nm, cfg)
 	sort.SliceStable(out, func(i, j int) bool { return out[i].Span.Start < out[j].Span.Start })
 	return out
 }
@@ -238,9 +234,19 @@ func leadingBlanks(line []byte) int {
 	return k
 }
 
-// rstProse takes the notation of the text outside code blocks and
-// doctest code, token by token.
-func rstProse(out []Occurrence, src, code []byte, inBlock []bool, prag *pragmas, nm namer, cfg *Config) []Occurrence {
+// rstProse takes the notation of the text outside code blocks (blocks,
+// in order and apart, as rstBlocks finds them) and doctest code, token by
+// token.
+func rstProse(out []Occurrence, src, code []byte, blocks []rstBlock, prag *pragmas, nm namer, cfg *Config) []Occurrence {
+	// inBlock reports whether off, which only grows from call to call,
+	// lies in a block
+	bi := 0
+	inBlock := func(off int) bool {
+		for bi < len(blocks) && blocks[bi].end <= off {
+			bi++
+		}
+		return bi < len(blocks) && blocks[bi].start <= off
+	}
 	add := func(from, to int, reason Reason, dialect Dialect) {
 		out = append(out, Occurrence{
 			Text:      string(src[from:to]),
@@ -256,7 +262,7 @@ func rstProse(out []Occurrence, src, code []byte, inBlock []bool, prag *pragmas,
 		var end int
 		start, end = nextWord(src, start)
 		from, to := start, end
-		if from >= len(src) || inBlock[from] || code != nil && code[from] != ' ' || !prag.allowed(from) {
+		if from >= len(src) || inBlock(from) || code != nil && code[from] != ' ' || !prag.allowed(from) {
 			start = end
 			continue
 		}

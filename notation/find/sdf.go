@@ -49,7 +49,10 @@ func findSDF(src []byte, cfg *Config) []Occurrence {
 			atStart = false
 		case bytes.Equal(body, []byte("$$$$")):
 			finish()
-		case len(body) > 0 && body[0] == '>' && !inItem:
+		case len(body) > 0 && body[0] == '>' && (!inItem || bytes.HasPrefix(bytes.TrimLeft(body[1:], " \t"), []byte("<"))):
+			// a header ends the item before it even without the blank
+			// line the format asks for; a value that starts with '>'
+			// (a reaction without reactants, ">>CCO") is no header
 			open := bytes.IndexByte(body, '<')
 			end := bytes.LastIndexByte(body, '>')
 			if open < 0 || end <= open {

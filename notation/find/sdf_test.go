@@ -42,6 +42,16 @@ func TestFindSDF(t *testing.T) {
 	if k := KindForName("catalogue.SDF"); k != KindSDF {
 		t.Errorf("KindForName(catalogue.SDF) = %v", k)
 	}
+	// items without the blank line between them, and a value that is a
+	// reaction without reactants
+	loose := "AX-4" + mol + "> <SMILES>\nC[C@H](F)Cl\n> <rxn_smiles>\n>>C[C@H](F)Cl\n$$$$\n"
+	var got []string
+	for _, o := range FindKind(KindSDF, []byte(loose), Config{}) {
+		got = append(got, o.Text)
+	}
+	if strings.Join(got, " ") != "C[C@H](F)Cl >>C[C@H](F)Cl" {
+		t.Errorf("items without blank lines: %q", got)
+	}
 	// a file of molfiles alone holds no record
 	if occs := FindKind(KindSDF, []byte(strings.Repeat("AX-9"+mol+"$$$$\n", 3)), Config{}); len(occs) != 0 {
 		t.Errorf("molfiles alone: %d records", len(occs))

@@ -7,6 +7,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"runtime/debug"
 	"slices"
 	"sync"
 	"sync/atomic"
@@ -147,11 +148,14 @@ func (r *checkRun) analyzeAll(files []checkFile, each func(fileReport)) {
 // reported against the file instead of ending the run.
 func (r *checkRun) analyzeFile(f checkFile) (rep fileReport) {
 	rep.Path = f.path
+	var data fileData
 	defer func() {
 		if p := recover(); p != nil {
-			r.pathError(f.path, fmt.Errorf("internal error: %v", p))
+			r.pathError(f.path, readFailure(p, data.mapped))
 		}
+		data.release()
 	}()
+	defer debug.SetPanicOnFault(debug.SetPanicOnFault(true)) // a mapped file cut short
 	data, lc, skipped, ok := r.readForAnalysis(f)
 	if !ok {
 		rep.Skipped = skipped
@@ -161,15 +165,26 @@ func (r *checkRun) analyzeFile(f checkFile) (rep fileReport) {
 	// and are converted to positions chunk by chunk: only the compact
 	// findings are kept, so memory grows with them rather than with the
 	// analyses, or the engine's diagnostics, of a long list.
-	conv := r.newConverter(f, data)
-	rep.Records = lc.analyzer.WithoutFixes().Stream(f.path, "", data, func(ds []document.Diagnostic) { // check prints no fixes
+	conv := r.newConverter(f, data.bytes)
+	rep.Records = lc.analyzer.WithoutFixes().Stream(f.path, "", data.bytes, func(ds []document.Diagnostic) { // check prints no fixes
 		sortDiagnostics(ds) // the slice is ours (Stream)
 		for i := range ds {
 			conv.add(&ds[i])
 		}
+		data.chunkDone()
 	})
 	rep.Findings = conv.done()
 	return rep
+}
+
+// readFailure is the error a panic while reading a file is reported as:
+// a fault in a mapped file means the file was cut short while it was
+// read (debug.SetPanicOnFault); anything else is the engine's.
+func readFailure(p any, mapped bool) error {
+	if _, fault := p.(interface{ Addr() uintptr }); fault && mapped {
+		return errors.New("the file changed (was cut short) while it was read")
+	}
+	return fmt.Errorf("internal error: %v", p)
 }
 
 // sortDiagnostics puts findings in the order of Analyze: by host span,
@@ -216,7 +231,7 @@ func b2i(b bool) int {
 // (--max-size wins over the maxFileSize setting) and returns it with the
 // configuration; ok is false when the file is not to be analysed: a
 // failure, reported, or a skip (skipped says why).
-func (r *checkRun) readForAnalysis(f checkFile) (data []byte, lc *loadedConfig, skipped string, ok bool) {
+func (r *checkRun) readForAnalysis(f checkFile) (data fileData, lc *loadedConfig, skipped string, ok bool) {
 	cfgPath := f.osPath
 	if f.stdin {
 		cfgPath = filepath.FromSlash(f.path)
@@ -224,7 +239,7 @@ func (r *checkRun) readForAnalysis(f checkFile) (data []byte, lc *loadedConfig, 
 	lc = r.loadedFor(cfgPath)
 	if lc.err != nil {
 		r.configError(lc)
-		return nil, nil, "", false
+		return fileData{}, nil, "", false
 	}
 	limit := r.opts.maxSize
 	if limit == 0 {
@@ -240,10 +255,10 @@ func (r *checkRun) readForAnalysis(f checkFile) (data []byte, lc *loadedConfig, 
 				r.note(f.path, "warning", "not checked: "+skip.reason)
 				r.mu.Unlock()
 			}
-			return nil, lc, skip.reason, false
+			return fileData{}, lc, skip.reason, false
 		}
 		r.pathError(f.path, err)
-		return nil, lc, "", false
+		return fileData{}, lc, "", false
 	}
 	return data, lc, "", true
 }

@@ -10,6 +10,7 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+	"sync/atomic"
 
 	"stereoline/notation/find"
 )
@@ -100,21 +101,82 @@ type errSkipped struct{ reason string }
 
 func (e errSkipped) Error() string { return e.reason }
 
+// fileData is a file's content as check reads it: in the heap, or, for
+// a large regular file where the system allows (mapfile_linux.go),
+// mapped, so that the run holds only the pages it is reading rather than
+// the whole file (a list of millions of records is hundreds of MB).
+type fileData struct {
+	bytes  []byte
+	mapped bool
+	handed int // chunks handed on since the pages were last dropped
+}
+
+// mapAtLeast is the size from which a regular file is mapped rather than
+// read: below it the copy costs less than the mapping.
+var mapAtLeast int64 = 16 << 20 // a variable for the tests
+
+// dropEvery is how many chunks of records (find.FindChunks) go by
+// between two drops of a mapped file's pages: some 16,000 records, a few
+// MB of a list. Pages touched again (a record read again for the message
+// of a relation) come back from the page cache.
+var dropEvery = 64 // a variable for the tests
+
+// chunkDone notes a chunk of records handed on, dropping the pages of a
+// mapped file every dropEvery chunks.
+func (d *fileData) chunkDone() {
+	if !d.mapped {
+		return
+	}
+	if d.handed++; d.handed >= dropEvery {
+		d.handed = 0
+		dropPages(d.bytes)
+	}
+}
+
+// release ends the mapping of a mapped file; nothing may use the bytes
+// afterwards (the findings kept are copies).
+func (d *fileData) release() {
+	if d.mapped {
+		unmapFile(d.bytes)
+		d.bytes, d.mapped = nil, false
+	}
+}
+
+// filesMapped counts the files mapped, for the tests.
+var filesMapped atomic.Int64
+
 // readCheckFile reads a file, refusing files over the size limit and
-// binary files (a NUL byte near the start).
-func (r *checkRun) readCheckFile(f checkFile, limit int64) ([]byte, error) {
+// binary files (a NUL byte near the start). The caller releases what it
+// returns.
+func (r *checkRun) readCheckFile(f checkFile, limit int64) (fileData, error) {
 	var src io.Reader
+	size := int64(-1) // unknown
 	if f.stdin {
 		src = r.stdin
 	} else {
 		fh, err := os.Open(f.osPath)
 		if err != nil {
-			return nil, err
+			return fileData{}, err
 		}
 		defer fh.Close()
-		// A regular file over the limit is told by its size, unread.
-		if st, err := fh.Stat(); err == nil && st.Mode().IsRegular() && st.Size() > limit {
-			return nil, errTooLarge(limit)
+		if st, err := fh.Stat(); err == nil && st.Mode().IsRegular() {
+			// A regular file over the limit is told by its size, unread.
+			if st.Size() > limit {
+				return fileData{}, errTooLarge(limit)
+			}
+			size = st.Size()
+			if canMap && size >= mapAtLeast {
+				if b, err := mapFile(fh, size); err == nil {
+					filesMapped.Add(1)
+					d := fileData{bytes: b, mapped: true}
+					if bytes.IndexByte(b[:binaryProbe], 0) >= 0 {
+						d.release()
+						return fileData{}, errSkipped{"binary file"}
+					}
+					return d, nil
+				}
+				// not mappable (some file systems): read it
+			}
 		}
 		src = fh
 	}
@@ -122,16 +184,39 @@ func (r *checkRun) readCheckFile(f checkFile, limit int64) ([]byte, error) {
 	// A binary file is told by its start, before the rest is read.
 	br := bufio.NewReaderSize(src, binaryProbe)
 	if head, _ := br.Peek(binaryProbe); bytes.IndexByte(head, 0) >= 0 {
-		return nil, errSkipped{"binary file"}
+		return fileData{}, errSkipped{"binary file"}
 	}
-	data, err := io.ReadAll(io.LimitReader(br, limit+1))
+	data, err := readAllSized(io.LimitReader(br, limit+1), size)
 	if err != nil {
-		return nil, err
+		return fileData{}, err
 	}
 	if int64(len(data)) > limit {
-		return nil, errTooLarge(limit)
+		return fileData{}, errTooLarge(limit)
 	}
-	return data, nil
+	return fileData{bytes: data}, nil
+}
+
+// readAllSized is io.ReadAll with room for size bytes made at once when
+// the size is known (>= 0): a file is not copied through ever larger
+// buffers, which for a large one briefly held it about twice.
+func readAllSized(r io.Reader, size int64) ([]byte, error) {
+	if size < 0 || size >= 1<<40 {
+		return io.ReadAll(r)
+	}
+	b := make([]byte, 0, int(size)+1) // the byte past the limit, or EOF
+	for {
+		n, err := r.Read(b[len(b):cap(b)])
+		b = b[:len(b)+n]
+		if err == io.EOF {
+			return b, nil
+		}
+		if err != nil {
+			return b, err
+		}
+		if len(b) == cap(b) { // the file grew since its size was taken
+			b = append(b, 0)[:len(b)]
+		}
+	}
 }
 
 // errTooLarge is the skip of a file over the largest file scanned.

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"fmt"
 	"runtime"
+	"runtime/debug"
 	"sync"
 
 	"stereoline/notation"
@@ -171,17 +172,27 @@ func (sc *listScanner) nextAll(out []Occurrence) []Occurrence {
 	all := out[:room[pieces]]
 	got := make([]int, pieces)
 	queries := make([]int, pieces)
+	failed := make([]any, pieces)
 	var wg sync.WaitGroup
 	for k := range pieces {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			// the content may be a mapped file: a fault on it, if the
+			// file is cut short meanwhile, is raised on the caller
+			defer func() { failed[k] = recover() }()
+			debug.SetPanicOnFault(true)
 			part := listScanner{src: sc.src[:bounds[k+1]], pos: bounds[k], v: sc.v, prag: sc.prag, text: sc.text}
 			got[k] = len(part.next(all[room[k]:room[k]:room[k+1]], -1))
 			queries[k] = part.queries
 		}()
 	}
 	wg.Wait()
+	for _, p := range failed {
+		if p != nil {
+			panic(p)
+		}
+	}
 	n := room[0]
 	for k := range pieces {
 		n += copy(all[n:], all[room[k]:room[k]+got[k]])

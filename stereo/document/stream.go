@@ -5,6 +5,7 @@ package document
 
 import (
 	"math"
+	"runtime/debug"
 	"stereoline/notation"
 	"stereoline/notation/find"
 	"stereoline/stereo/identity"
@@ -114,6 +115,9 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 	chunks := make(chan streamed)
 	done := make(chan any, 1)
 	go func() {
+		// the content may be a mapped file: a fault on it, if the file
+		// is cut short meanwhile, is a panic handed to the caller
+		debug.SetPanicOnFault(true)
 		var failed any
 		defer func() {
 			if r := recover(); r != nil {
@@ -233,7 +237,7 @@ type streamRelater struct {
 	seen map[uint64]int32
 	// refs are the records' occurrences by record, those of the records
 	// that cannot be rebuilt from the content (find.RefOf) in odd.
-	refs    []find.Ref
+	refs    refPages
 	odd     map[int]*find.Occurrence
 	earlier map[int]*Record // earlier records re-read for messages
 }
@@ -299,7 +303,7 @@ func (s *streamRelater) keep(i int, o *find.Occurrence) {
 		oc := *o
 		s.odd[i] = &oc
 	}
-	s.refs = append(s.refs, r)
+	s.refs.add(r)
 }
 
 // occurrence returns the occurrence of an earlier record.
@@ -307,7 +311,7 @@ func (s *streamRelater) occurrence(j int) *find.Occurrence {
 	if o, ok := s.odd[j]; ok {
 		return o
 	}
-	o := s.refs[j].Occurrence(s.whole.Content)
+	o := s.refs.at(j).Occurrence(s.whole.Content)
 	return &o
 }
 
@@ -360,3 +364,20 @@ func (s *streamRelater) record(c *Result, start, j int) *Record {
 	s.earlier[j] = r
 	return r
 }
+
+// refPages holds a Ref for each record in pages of a fixed size: a list
+// of millions of records neither leaves a quarter of a growing slice
+// unused nor holds the old slice and the new while it grows.
+type refPages [][]find.Ref
+
+const refPage = 8192
+
+func (p *refPages) add(r find.Ref) {
+	if n := len(*p); n == 0 || len((*p)[n-1]) == refPage {
+		*p = append(*p, make([]find.Ref, 0, refPage))
+	}
+	last := &(*p)[len(*p)-1]
+	*last = append(*last, r)
+}
+
+func (p refPages) at(i int) find.Ref { return p[i/refPage][i%refPage] }

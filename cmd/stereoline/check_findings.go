@@ -45,6 +45,7 @@ type findingList struct {
 	spillName string
 	noSpill   bool
 	err       error // a failure to read the file back
+	hold      int   // bytes of full blocks kept in memory; 0: spillAfter
 }
 
 // The block size, and how many bytes of full blocks a list holds in
@@ -95,7 +96,7 @@ func (l *findingList) add(f finding) {
 		if len(l.cur) > 0 {
 			l.blocks = append(l.blocks, l.cur)
 			l.held += len(l.cur)
-			if l.held > spillAfter {
+			if l.held > cmp.Or(l.hold, spillAfter) {
 				l.spillBlocks()
 			}
 		}

@@ -98,3 +98,53 @@ func TestCheckGoldenSpilled(t *testing.T) {
 		}
 	}
 }
+
+// TestConverterMergesRuns checks that findings added out of order come
+// out as a stable sort of them all: runs in order, more of them than a
+// converter holds before it merges, ties between runs in the order they
+// were added, and lists written to temporary files.
+func TestConverterMergesRuns(t *testing.T) {
+	defer func(b, s int) { findingBlock, spillAfter = b, s }(findingBlock, spillAfter)
+	findingBlock, spillAfter = 100, 1000
+	rng := rand.New(rand.NewPCG(3, 4))
+	codes := []notation.Code{"stereo-undefined", "list-duplicate", "list-stereoisomer"}
+	var all []finding
+	c := &converter{}
+	for run := range 3 * maxRuns {
+		// a run of findings in order, on lines that other runs share
+		line := rng.IntN(50)
+		for k := range 1 + rng.IntN(40) {
+			line += rng.IntN(3)
+			f := finding{
+				Start:    position{Line: line, Char16: rng.IntN(3)},
+				End:      position{Line: line, Char16: 5},
+				Severity: notation.SeverityInformation,
+				Code:     codes[rng.IntN(len(codes))],
+				Message:  fmt.Sprintf("run %d, finding %d", run, k),
+			}
+			if k > 0 && compareFindings(all[len(all)-1], f) > 0 {
+				f.Start.Char16 = all[len(all)-1].Start.Char16 // keep the run in order
+				f.Code = all[len(all)-1].Code
+			}
+			all = append(all, f)
+			c.addFinding(f)
+		}
+	}
+	want := slices.Clone(all)
+	slices.SortStableFunc(want, compareFindings)
+	got := c.done()
+	if got.Len() != len(want) {
+		t.Fatalf("%d findings merged, want %d", got.Len(), len(want))
+	}
+	if all := slices.Collect(got.All()); !slices.Equal(all, want) {
+		for i := range all {
+			if all[i] != want[i] {
+				t.Fatalf("finding %d is %+v, want %+v", i, all[i], want[i])
+			}
+		}
+	}
+	if got.Err() != nil {
+		t.Error(got.Err())
+	}
+	got.close()
+}

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"iter"
 	"os"
 	"path/filepath"
 	"runtime/debug"
@@ -283,13 +284,24 @@ type converter struct {
 	m16, m32 *lsp.Mapper // built on the first finding
 	filter   bool
 	changed  lineSet
-	out      findingList
-	last     finding // the last finding added to out
-	sorted   bool    // out is in compareFindings order so far
+	out      findingList // in compareFindings order
+	last     finding     // the last finding added to out
+	// runs are earlier lists in compareFindings order: a finding that
+	// comes before the last one starts a new list (the relations of a
+	// list related in parts, query patterns), and done merges them.
+	runs []findingList
 }
 
+// maxRuns bounds the sorted lists a converter holds before it merges
+// them into one; runHold is what each list after the first keeps in
+// memory before it writes to its temporary file.
+const (
+	maxRuns = 16
+	runHold = 1 << 20
+)
+
 func (r *checkRun) newConverter(f checkFile, content []byte) *converter {
-	c := &converter{content: content, sorted: true}
+	c := &converter{content: content}
 	if r.changes != nil {
 		c.filter, c.changed = true, r.changes.forFile(f)
 	}
@@ -321,30 +333,77 @@ func (c *converter) add(d *document.Diagnostic) {
 	if c.filter && !c.changed.touches(fd.Start, fd.End) {
 		return
 	}
-	if c.out.Len() > 0 && c.sorted && compareFindings(c.last, fd) > 0 {
-		c.sorted = false
+	c.addFinding(fd)
+}
+
+// addFinding adds a converted finding.
+func (c *converter) addFinding(fd finding) {
+	if c.out.Len() > 0 && compareFindings(c.last, fd) > 0 {
+		c.out.done()
+		c.runs = append(c.runs, c.out)
+		if len(c.runs) == maxRuns {
+			c.runs = []findingList{mergeRuns(c.runs, 0)}
+		}
+		c.out = findingList{hold: runHold}
 	}
 	c.out.add(fd)
 	c.last = fd
 }
 
 // done returns the findings in sortDiagnostics order. The engine streams
-// them chunk by chunk in host order, so only findings emitted out of
-// order (query patterns, last) need the final sort; a stable sort of
-// chunks each sorted stably is the stable sort of them all.
+// them in host order but for what it emits out of order: each run of
+// findings in order is a sorted list, and a stable sort of runs each
+// sorted stably is their merge, ties taken from the earlier run.
 func (c *converter) done() findingList {
-	if !c.sorted {
-		all := slices.Collect(c.out.All())
-		err := c.out.Err()
-		c.out.close()
-		slices.SortStableFunc(all, compareFindings)
-		c.out = findingList{err: err}
-		for _, f := range all {
-			c.out.add(f)
-		}
+	if len(c.runs) > 0 {
+		c.out.done()
+		c.out = mergeRuns(append(c.runs, c.out), 0)
+		c.runs = nil
 	}
 	c.out.done()
 	return c.out
+}
+
+// mergeRuns merges lists in compareFindings order into one, stably (a
+// tie goes to the earlier list), and closes them; the result keeps hold
+// bytes in memory before it writes to its temporary file (0: the
+// default). A failure to read one back is the result's Err.
+func mergeRuns(runs []findingList, hold int) findingList {
+	out := findingList{hold: hold}
+	type head struct {
+		f    finding
+		ok   bool
+		next func() (finding, bool)
+		stop func()
+	}
+	heads := make([]head, len(runs))
+	for k := range runs {
+		next, stop := iter.Pull(runs[k].All())
+		f, ok := next()
+		heads[k] = head{f, ok, next, stop}
+	}
+	for {
+		best := -1
+		for k := range heads {
+			if heads[k].ok && (best < 0 || compareFindings(heads[k].f, heads[best].f) < 0) {
+				best = k
+			}
+		}
+		if best < 0 {
+			break
+		}
+		out.add(heads[best].f)
+		heads[best].f, heads[best].ok = heads[best].next()
+	}
+	for k := range heads {
+		heads[k].stop()
+		if err := runs[k].Err(); err != nil && out.err == nil {
+			out.err = err
+		}
+		runs[k].close()
+	}
+	out.done()
+	return out
 }
 
 // startProgress shows "checked N/M files" on stderr while a run takes

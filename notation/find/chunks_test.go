@@ -107,6 +107,11 @@ func TestRefRebuilds(t *testing.T) {
 				}
 				continue
 			}
+			var again Ref
+			b, _ := r.AppendBinary(nil)
+			if err := again.UnmarshalBinary(b); err != nil || again != r || len(b) != RefSize {
+				t.Errorf("%s: the Ref of %q written as %d bytes read back as %+v (%v), was %+v", name, o.Text, len(b), again, err, r)
+			}
 			back := r.Occurrence(content)
 			if !reflect.DeepEqual(strip(back), strip(o)) {
 				t.Errorf("%s: rebuilt %+v, was %+v", name, back, o)

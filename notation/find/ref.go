@@ -1,6 +1,11 @@
 package find
 
-import "stereoline/notation"
+import (
+	"encoding/binary"
+	"fmt"
+
+	"stereoline/notation"
+)
 
 // This file implements a compact stand-in for an occurrence whose text
 // and title are host bytes as they stand (the records of a list, most
@@ -74,4 +79,27 @@ func (r Ref) Occurrence(content []byte) Occurrence {
 		o.Title = string(content[r.title:r.titleEnd])
 	}
 	return o
+}
+
+// RefSize is the length of a Ref as AppendBinary writes it.
+const RefSize = 24
+
+// AppendBinary appends the Ref in RefSize bytes (encoding.BinaryAppender),
+// for a caller that keeps the references of many records on disk.
+func (r Ref) AppendBinary(b []byte) ([]byte, error) {
+	for _, v := range [...]uint32{r.start, r.end, r.title, r.titleEnd, r.field} {
+		b = binary.LittleEndian.AppendUint32(b, v)
+	}
+	return append(b, byte(r.kind), byte(r.construct), byte(r.reason), byte(r.dialect)), nil
+}
+
+// UnmarshalBinary reads a Ref that AppendBinary wrote.
+func (r *Ref) UnmarshalBinary(b []byte) error {
+	if len(b) != RefSize {
+		return fmt.Errorf("a reference is %d bytes, not %d", RefSize, len(b))
+	}
+	u := func(k int) uint32 { return binary.LittleEndian.Uint32(b[4*k:]) }
+	*r = Ref{start: u(0), end: u(1), title: u(2), titleEnd: u(3), field: u(4),
+		kind: Kind(b[20]), construct: Construct(b[21]), reason: Reason(b[22]), dialect: Dialect(b[23])}
+	return nil
 }

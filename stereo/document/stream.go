@@ -90,6 +90,10 @@ func (r *Result) splitChunkQueries(occs []find.Occurrence) []find.Occurrence {
 // the pre-key. Memory grows with the findings and the keys, not with the
 // analyses.
 //
+// A very long list is related in parts on disk once it is read
+// (partition.go): its relations are then emitted after all the records'
+// own findings, part by part, each part's in the order of the records.
+//
 // Sorted stably by host span and then by IsRelation, the emitted
 // findings are Analyze's Diagnostics. The Diagnostics passed to emit
 // carry their Fixes too (none from an analyzer WithoutFixes); the slice
@@ -100,6 +104,13 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 	kind := a.kindOf(name, languageID)
 	res := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg}
 	rel := newStreamRelater(res, relatedKinds[kind])
+	var parts *partitions // a very long list is related in parts (partition.go)
+	if rel.on {
+		if parts = newPartitions(content); parts != nil {
+			defer parts.close()
+			rel.on = false
+		}
+	}
 	reading := cfg.Reading.notation()
 	// Two stages: while the records of a chunk are related and their
 	// findings emitted, the next chunk is read and labelled. Each stage
@@ -134,6 +145,9 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 				chunk.diags[k].Record += start
 			}
 			rel.chunk(chunk, start)
+			if parts != nil {
+				parts.note(chunk, start)
+			}
 			emit(chunk.diags)
 			stores[c.parity].release(chunk.Records)
 			start += len(chunk.Records)
@@ -173,6 +187,9 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 	closed = true
 	if failed := <-done; failed != nil {
 		panic(failed)
+	}
+	if parts != nil {
+		parts.relate(res, emit)
 	}
 	res.queryDiagnostics()
 	if len(res.diags) > 0 {

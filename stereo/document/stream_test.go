@@ -27,9 +27,18 @@ func TestStreamMatchesAnalyze(t *testing.T) {
 		}
 	}
 	defer func(n int) { streamChunk = n }(streamChunk)
+	defer func(above, each int) { partitionAbove, partitionBytes = above, each }(partitionAbove, partitionBytes)
 	relations := 0
-	for _, chunk := range []int{1, 3, 2048} {
+	for _, mode := range []struct {
+		chunk int
+		parts bool // related in parts on disk, a part for every 200 bytes
+	}{{1, false}, {3, false}, {2048, false}, {3, true}, {2048, true}} {
+		chunk := mode.chunk
 		streamChunk = chunk
+		partitionAbove, partitionBytes = 1<<40, 1<<40
+		if mode.parts {
+			partitionAbove, partitionBytes = 0, 200
+		}
 		for _, f := range files {
 			data, err := os.ReadFile(f)
 			if err != nil {
@@ -50,7 +59,7 @@ func TestStreamMatchesAnalyze(t *testing.T) {
 				t.Errorf("%s: Stream counted %d records, Analyze %d", f, n, len(want.Records)+len(want.Queries))
 			}
 			if len(got) != len(want.Diagnostics()) {
-				t.Errorf("chunk %d, %s: %d findings streamed, Analyze has %d", chunk, f, len(got), len(want.Diagnostics()))
+				t.Errorf("chunk %d, in parts %v, %s: %d findings streamed, Analyze has %d", chunk, mode.parts, f, len(got), len(want.Diagnostics()))
 				continue
 			}
 			for i := range got {
@@ -58,7 +67,7 @@ func TestStreamMatchesAnalyze(t *testing.T) {
 					relations++
 				}
 				if !reflect.DeepEqual(got[i], want.Diagnostics()[i]) {
-					t.Errorf("chunk %d, %s: finding %d\n got %+v\nwant %+v", chunk, f, i, got[i], want.Diagnostics()[i])
+					t.Errorf("chunk %d, in parts %v, %s: finding %d\n got %+v\nwant %+v", chunk, mode.parts, f, i, got[i], want.Diagnostics()[i])
 					break
 				}
 			}

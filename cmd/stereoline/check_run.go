@@ -172,7 +172,6 @@ func (r *checkRun) analyzeFile(f checkFile) (rep fileReport) {
 		for i := range ds {
 			conv.add(&ds[i])
 		}
-		data.chunkDone()
 	})
 	rep.Findings = conv.done()
 	return rep

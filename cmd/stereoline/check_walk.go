@@ -11,6 +11,7 @@ import (
 	"os"
 	"path/filepath"
 	"sync/atomic"
+	"time"
 
 	"stereoline/notation/find"
 )
@@ -108,35 +109,49 @@ func (e errSkipped) Error() string { return e.reason }
 type fileData struct {
 	bytes  []byte
 	mapped bool
-	handed int // chunks handed on since the pages were last dropped
+	stop   chan struct{} // closed by release: the dropper ends
+	ended  chan struct{} // closed by the dropper when it ends
 }
 
 // mapAtLeast is the size from which a regular file is mapped rather than
 // read: below it the copy costs less than the mapping.
 var mapAtLeast int64 = 16 << 20 // a variable for the tests
 
-// dropEvery is how many chunks of records (find.FindChunks) go by
-// between two drops of a mapped file's pages: some 16,000 records, a few
-// MB of a list. Pages touched again (a record read again for the message
-// of a relation) come back from the page cache.
-var dropEvery = 64 // a variable for the tests
+// dropInterval is how often the pages of a mapped file are dropped while
+// it is analysed. The finder and the line tables scan the whole content
+// at first (a layout pragma may sit anywhere), at some GB a second: at
+// this pace not more than some tens of MB of it are ever in memory,
+// where drops by records read left the whole file in memory after the
+// first scan. Pages touched again (a record read again for the message
+// of a relation) come back from the page cache; a drop of a mapping
+// mostly out of memory costs microseconds.
+var dropInterval = 10 * time.Millisecond // a variable for the tests
 
-// chunkDone notes a chunk of records handed on, dropping the pages of a
-// mapped file every dropEvery chunks.
-func (d *fileData) chunkDone() {
-	if !d.mapped {
-		return
-	}
-	if d.handed++; d.handed >= dropEvery {
-		d.handed = 0
-		dropPages(d.bytes)
-	}
+// mapped returns the data of a mapped file and starts its dropper.
+func mapped(b []byte) fileData {
+	d := fileData{bytes: b, mapped: true, stop: make(chan struct{}), ended: make(chan struct{})}
+	go func() {
+		defer close(d.ended)
+		tick := time.NewTicker(dropInterval)
+		defer tick.Stop()
+		for {
+			select {
+			case <-d.stop:
+				return
+			case <-tick.C:
+				dropPages(b)
+			}
+		}
+	}()
+	return d
 }
 
 // release ends the mapping of a mapped file; nothing may use the bytes
 // afterwards (the findings kept are copies).
 func (d *fileData) release() {
 	if d.mapped {
+		close(d.stop)
+		<-d.ended
 		unmapFile(d.bytes)
 		d.bytes, d.mapped = nil, false
 	}
@@ -168,7 +183,7 @@ func (r *checkRun) readCheckFile(f checkFile, limit int64) (fileData, error) {
 			if canMap && size >= mapAtLeast {
 				if b, err := mapFile(fh, size); err == nil {
 					filesMapped.Add(1)
-					d := fileData{bytes: b, mapped: true}
+					d := mapped(b)
 					if bytes.IndexByte(b[:binaryProbe], 0) >= 0 {
 						d.release()
 						return fileData{}, errSkipped{"binary file"}

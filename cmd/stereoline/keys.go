@@ -129,10 +129,6 @@ func keys(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	return 0
 }
 
-// streamChunkRecords is how many records the engine streams a chunk at
-// a time (document.Analyzer.StreamRecords), for fileData.chunkDone.
-const streamChunkRecords = 256
-
 // keysFile prints the keys of one file's records, streaming: a chunk of
 // records is read and keyed at a time and nothing of it is kept.
 func (r *checkRun) keysFile(f checkFile, w *keysWriter) {
@@ -149,10 +145,7 @@ func (r *checkRun) keysFile(f checkFile, w *keysWriter) {
 		return
 	}
 	m := lsp.NewMapper(data.bytes, lsp.EncodingUTF32)
-	lc.analyzer.StreamRecords(f.path, "", data.bytes, true, func(i int, rec *document.Record) {
-		if i%streamChunkRecords == 0 {
-			data.chunkDone()
-		}
+	lc.analyzer.StreamRecords(f.path, "", data.bytes, true, func(_ int, rec *document.Record) {
 		k := keysRecordJSON{Path: f.path, Title: rec.Occ.Title, Group: groupKind(rec), Field: rec.Occ.Field}
 		if p, err := m.OffsetToPosition(rec.Occ.Span.Start); err == nil {
 			k.Line, k.Column = int(p.Line)+1, int(p.Character)+1

@@ -7,6 +7,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 )
 
 // writeRelatedList writes a list whose records are related in every way
@@ -34,16 +35,16 @@ func writeRelatedList(t *testing.T, path string, copies int) {
 }
 
 // TestMappedFileFindings checks that a file check maps gives the
-// findings of the same file read into memory, its pages dropped after
-// every chunk of records.
+// findings of the same file read into memory, its pages dropped every
+// 50 microseconds.
 func TestMappedFileFindings(t *testing.T) {
 	if !canMap {
 		t.Skip("files are not mapped on this system")
 	}
 	path := filepath.Join(t.TempDir(), "related.smi")
 	writeRelatedList(t, path, 400)
-	saved, savedDrop := mapAtLeast, dropEvery
-	t.Cleanup(func() { mapAtLeast, dropEvery = saved, savedDrop })
+	saved, savedDrop := mapAtLeast, dropInterval
+	t.Cleanup(func() { mapAtLeast, dropInterval = saved, savedDrop })
 
 	mapAtLeast = math.MaxInt64
 	before := filesMapped.Load()
@@ -51,7 +52,7 @@ func TestMappedFileFindings(t *testing.T) {
 	if filesMapped.Load() != before {
 		t.Fatal("the file was mapped with mapping off")
 	}
-	mapAtLeast, dropEvery = 0, 1
+	mapAtLeast, dropInterval = 0, 50*time.Microsecond
 	mapped, stderr, mappedStatus := runCheck(t, "", "--format", "json", path)
 	if filesMapped.Load() != before+1 {
 		t.Fatal("the file was not mapped")

@@ -25,7 +25,7 @@ import (
 // again for it, a second reading of the related records only.
 var (
 	partitionAbove = 64 << 20 // content bytes (about a million records of a list)
-	partitionBytes = 32 << 20 // content bytes for each part
+	partitionBytes = 16 << 20 // content bytes for each part
 )
 
 // partEntry is what a part's file holds for a record.

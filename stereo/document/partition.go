@@ -168,12 +168,16 @@ func (p *partitions) relatePart(whole *Result, entries []partEntry, emit func([]
 		occs := make([]find.Occurrence, len(part))
 		chunk := &Result{Name: whole.Name, Content: whole.Content, Kind: whole.Kind, cfg: whole.cfg,
 			Records: make([]Record, len(part))}
-		parallel(len(part), func(k int) {
+		// the texts are copied out of the content here, on the goroutine
+		// that handles a fault in it (Stream), not on the workers
+		for k := range part {
 			if o, ok := p.odd[part[k].record]; ok {
 				occs[k] = *o
 			} else {
 				occs[k] = part[k].ref.Occurrence(whole.Content)
 			}
+		}
+		parallel(len(part), func(k int) {
 			an := analyseInto(&store[k], occs[k].Text, reading, whole.cfg.Limits.limits())
 			chunk.Records[k] = Record{Occ: &occs[k], an: an}
 		})

@@ -280,7 +280,7 @@ func (r *checkRun) configError(lc *loadedConfig) {
 // changed lines when asked.
 type converter struct {
 	content  []byte
-	m16, m32 *lsp.Mapper // built on the first finding
+	m16, m32 *lsp.BlockMapper // built on the first finding
 	filter   bool
 	changed  lineSet
 	out      findingList // in compareFindings order
@@ -290,6 +290,10 @@ type converter struct {
 	// list related in parts, query patterns), and done merges them.
 	runs []findingList
 }
+
+// mapperBlock is the number of lines of a block of the positions' line
+// table (lsp.BlockMapper): some hundreds of KB of a list.
+const mapperBlock = 4096
 
 // maxRuns bounds the sorted lists a converter holds before it merges
 // them into one; runHold is what each list after the first keeps in
@@ -313,8 +317,10 @@ func (r *checkRun) newConverter(f checkFile, content []byte) *converter {
 // encoding), JSON Lines count UTF-16 units as LSP does.
 func (c *converter) pos(off int) position {
 	if c.m16 == nil {
-		c.m16 = lsp.NewMapper(c.content, lsp.EncodingUTF16)
-		c.m32 = c.m16.WithEncoding(lsp.EncodingUTF32) // one line table
+		// the findings come in order, but for a few runs: a table of
+		// blocks, not of every line of a long list
+		c.m16 = lsp.NewBlockMapper(c.content, lsp.EncodingUTF16, mapperBlock)
+		c.m32 = c.m16.WithEncoding(lsp.EncodingUTF32) // one table
 	}
 	off = max(0, min(off, len(c.content)))
 	p16, err16 := c.m16.OffsetToPosition(off)

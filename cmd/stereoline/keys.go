@@ -144,7 +144,7 @@ func (r *checkRun) keysFile(f checkFile, w *keysWriter) {
 	if !ok {
 		return
 	}
-	m := lsp.NewMapper(data.bytes, lsp.EncodingUTF32)
+	m := lsp.NewBlockMapper(data.bytes, lsp.EncodingUTF32, mapperBlock) // records come in order
 	lc.analyzer.StreamRecords(f.path, "", data.bytes, true, func(_ int, rec *document.Record) {
 		k := keysRecordJSON{Path: f.path, Title: rec.Occ.Title, Group: groupKind(rec), Field: rec.Occ.Field}
 		if p, err := m.OffsetToPosition(rec.Occ.Span.Start); err == nil {

@@ -73,10 +73,14 @@ type Result struct {
 	parts  [][]Diagnostic
 	joined *joinedParts
 
-	cfg     *Config
-	lines   []int // line starts, built on first use
-	related bool  // Relate has run
-	noFixes bool  // recordFindings leaves the quick fixes out (Analyzer.WithoutFixes)
+	cfg   *Config
+	lines []int // line starts, built on first use
+	// lineStride, when above 1, makes lines hold the start of every
+	// lineStride-th line only (a streamed result: the table of every
+	// line of a long list would be most of what a check holds)
+	lineStride int
+	related    bool // Relate has run
+	noFixes    bool // recordFindings leaves the quick fixes out (Analyzer.WithoutFixes)
 
 	// own are each record's own findings, sorted by position; rel the
 	// relation of each record of a list to an earlier one (set by

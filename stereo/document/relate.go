@@ -1,6 +1,7 @@
 package document
 
 import (
+	"bytes"
 	"fmt"
 	"sort"
 	"strconv"
@@ -361,10 +362,33 @@ func nameEarlier(tmpl, name string) string {
 // lineOf returns the 0-based line of a host offset, from a table of line
 // starts built once per result.
 func (r *Result) lineOf(off int) int {
+	if r.lineStride > 1 {
+		if r.lines == nil {
+			r.lines = everyLineStart(r.Content, r.lineStride)
+		}
+		k := sort.SearchInts(r.lines, off+1) - 1
+		return k*r.lineStride + bytes.Count(r.Content[r.lines[k]:off], []byte{'\n'})
+	}
 	if r.lines == nil {
 		r.lines = lineStarts(r.Content)
 	}
 	return sort.SearchInts(r.lines, off+1) - 1
+}
+
+// everyLineStart returns the start of every n-th line of a text (lines
+// 0, n, 2n...).
+func everyLineStart(text []byte, n int) []int {
+	starts := []int{0}
+	for off, line := 0, 0; ; {
+		k := bytes.IndexByte(text[off:], '\n')
+		if k < 0 {
+			return starts
+		}
+		off += k + 1
+		if line++; line%n == 0 {
+			starts = append(starts, off)
+		}
+	}
 }
 
 // differingUnits names the units in which two stereoisomers differ; name

@@ -5,6 +5,7 @@ import (
 	"path/filepath"
 	"reflect"
 	"sort"
+	"strings"
 	"testing"
 	"time"
 )
@@ -150,5 +151,21 @@ func TestStreamPanicReachesCaller(t *testing.T) {
 		}
 	case <-time.After(10 * time.Second):
 		t.Fatal("Stream did not return after its callback panicked")
+	}
+}
+
+// TestSparseLineOf checks that line numbers from a table of every n-th
+// line (a streamed result) are those of the table of every line, for
+// every offset of a text with empty lines and "\r\n" breaks.
+func TestSparseLineOf(t *testing.T) {
+	text := []byte(strings.Repeat("C[C@H](N)O a\n\n\r\nF/C=C/F\r\n", 40) + "CC")
+	full := &Result{Content: text}
+	for _, n := range []int{2, 3, 64} {
+		sparse := &Result{Content: text, lineStride: n}
+		for off := 0; off <= len(text); off++ {
+			if got, want := sparse.lineOf(off), full.lineOf(off); got != want {
+				t.Fatalf("every %d lines: offset %d is on line %d, want %d", n, off, got, want)
+			}
+		}
 	}
 }

@@ -79,8 +79,11 @@ type Result struct {
 	// lineStride-th line only (a streamed result: the table of every
 	// line of a long list would be most of what a check holds)
 	lineStride int
-	related    bool // Relate has run
-	noFixes    bool // recordFindings leaves the quick fixes out (Analyzer.WithoutFixes)
+	// linesScanned and linesCounted say how far lines was built (the
+	// offset, and the line breaks before it) when lineStride is above 1
+	linesScanned, linesCounted int
+	related                    bool // Relate has run
+	noFixes                    bool // recordFindings leaves the quick fixes out (Analyzer.WithoutFixes)
 
 	// own are each record's own findings, sorted by position; rel the
 	// relation of each record of a list to an earlier one (set by

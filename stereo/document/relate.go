@@ -363,9 +363,7 @@ func nameEarlier(tmpl, name string) string {
 // starts built once per result.
 func (r *Result) lineOf(off int) int {
 	if r.lineStride > 1 {
-		if r.lines == nil {
-			r.lines = everyLineStart(r.Content, r.lineStride)
-		}
+		r.coverLines(off)
 		k := sort.SearchInts(r.lines, off+1) - 1
 		return k*r.lineStride + bytes.Count(r.Content[r.lines[k]:off], []byte{'\n'})
 	}
@@ -375,18 +373,23 @@ func (r *Result) lineOf(off int) int {
 	return sort.SearchInts(r.lines, off+1) - 1
 }
 
-// everyLineStart returns the start of every n-th line of a text (lines
-// 0, n, 2n...).
-func everyLineStart(text []byte, n int) []int {
-	starts := []int{0}
-	for off, line := 0, 0; ; {
-		k := bytes.IndexByte(text[off:], '\n')
+// coverLines extends the table of every lineStride-th line start until
+// it holds those up to off: the text is read as far as the lines asked
+// for, not all at once (a mapped file lets its pages go behind the
+// reading).
+func (r *Result) coverLines(off int) {
+	if r.lines == nil {
+		r.lines = []int{0}
+	}
+	for r.linesScanned <= off && r.linesScanned < len(r.Content) {
+		k := bytes.IndexByte(r.Content[r.linesScanned:], '\n')
 		if k < 0 {
-			return starts
+			r.linesScanned = len(r.Content)
+			return
 		}
-		off += k + 1
-		if line++; line%n == 0 {
-			starts = append(starts, off)
+		r.linesScanned += k + 1
+		if r.linesCounted++; r.linesCounted%r.lineStride == 0 {
+			r.lines = append(r.lines, r.linesScanned)
 		}
 	}
 }

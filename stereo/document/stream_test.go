@@ -1,9 +1,11 @@
 package document
 
 import (
+	"math/rand/v2"
 	"os"
 	"path/filepath"
 	"reflect"
+	"slices"
 	"sort"
 	"strings"
 	"testing"
@@ -160,11 +162,20 @@ func TestStreamPanicReachesCaller(t *testing.T) {
 func TestSparseLineOf(t *testing.T) {
 	text := []byte(strings.Repeat("C[C@H](N)O a\n\n\r\nF/C=C/F\r\n", 40) + "CC")
 	full := &Result{Content: text}
+	inOrder := make([]int, len(text)+1)
+	for off := range inOrder {
+		inOrder[off] = off
+	}
+	shuffled := slices.Clone(inOrder)
+	rand.New(rand.NewPCG(7, 8)).Shuffle(len(shuffled), func(i, j int) { shuffled[i], shuffled[j] = shuffled[j], shuffled[i] })
 	for _, n := range []int{2, 3, 64} {
-		sparse := &Result{Content: text, lineStride: n}
-		for off := 0; off <= len(text); off++ {
-			if got, want := sparse.lineOf(off), full.lineOf(off); got != want {
-				t.Fatalf("every %d lines: offset %d is on line %d, want %d", n, off, got, want)
+		for _, offs := range [][]int{inOrder, shuffled} {
+			// the table is built as far as the offsets asked for
+			sparse := &Result{Content: text, lineStride: n}
+			for _, off := range offs {
+				if got, want := sparse.lineOf(off), full.lineOf(off); got != want {
+					t.Fatalf("every %d lines: offset %d is on line %d, want %d", n, off, got, want)
+				}
 			}
 		}
 	}

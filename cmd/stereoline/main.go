@@ -50,9 +50,11 @@ func main() {
 
 // scanMemoryLimit is the soft memory limit of check and keys: under 500
 // MB with the runtime's own overhead, and far enough above the live heap
-// of a 500,000-record list (about 300 MB of records, keys and findings)
-// that the collector does not run back to back. Below the live heap it
-// would: 320 MB made that list three times slower.
+// of a long list (some 100 MB of keys and findings at most: past 64 MB a
+// list is related in parts) that the collector does not run back to
+// back, as it did when the heap of a list held all its keys and came
+// near the limit (a limit of 320 MB made a 500,000-record list three
+// times slower then).
 const scanMemoryLimit = 440 << 20
 
 // serveMemoryLimit is the soft memory limit of the language server.

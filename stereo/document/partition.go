@@ -9,6 +9,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"runtime/debug"
 
 	"stereoline/notation/find"
 )
@@ -161,33 +162,70 @@ func (p *partitions) relatePart(whole *Result, entries []partEntry, emit func([]
 	count = nil
 	rel := newStreamRelater(whole, true)
 	reading := whole.cfg.Reading.notation()
-	var store chunkStorage
-	for start := 0; start < len(related); start += streamChunk {
-		part := related[start:min(start+streamChunk, len(related))]
-		store = store.grow(len(part))
-		occs := make([]find.Occurrence, len(part))
-		chunk := &Result{Name: whole.Name, Content: whole.Content, Kind: whole.Kind, cfg: whole.cfg,
-			Records: make([]Record, len(part))}
-		// the texts are copied out of the content here, on the goroutine
-		// that handles a fault in it (Stream), not on the workers
-		for k := range part {
-			if o, ok := p.odd[part[k].record]; ok {
-				occs[k] = *o
-			} else {
-				occs[k] = part[k].ref.Occurrence(whole.Content)
+	// Two stages, as in Stream: while a chunk is related, the next one is
+	// read again and labelled, into the other of two storages; the
+	// unbuffered channel hands a chunk over only once the one before it
+	// is done with, storage released.
+	type readChunk struct {
+		chunk  *Result
+		start  int
+		parity int
+	}
+	var stores [2]chunkStorage
+	chunks := make(chan readChunk)
+	stop := make(chan struct{})
+	var failed any
+	go func() {
+		defer close(chunks)
+		defer func() { failed = recover() }()
+		// the texts are copied out of the content here: a fault in a
+		// mapped file cut short is a panic raised again by the caller
+		debug.SetPanicOnFault(true)
+		parity := 0
+		for start := 0; start < len(related); start += streamChunk {
+			part := related[start:min(start+streamChunk, len(related))]
+			store := stores[parity].grow(len(part))
+			stores[parity] = store
+			occs := make([]find.Occurrence, len(part))
+			for k := range part {
+				if o, ok := p.odd[part[k].record]; ok {
+					occs[k] = *o
+				} else {
+					occs[k] = part[k].ref.Occurrence(whole.Content)
+				}
 			}
+			chunk := &Result{Name: whole.Name, Content: whole.Content, Kind: whole.Kind, cfg: whole.cfg,
+				Records: make([]Record, len(part))}
+			parallel(len(part), func(k int) {
+				an := analyseInto(&store[k], occs[k].Text, reading, whole.cfg.Limits.limits())
+				chunk.Records[k] = Record{Occ: &occs[k], an: an}
+			})
+			select {
+			case chunks <- readChunk{chunk, start, parity}:
+			case <-stop:
+				return
+			}
+			parity ^= 1
 		}
-		parallel(len(part), func(k int) {
-			an := analyseInto(&store[k], occs[k].Text, reading, whole.cfg.Limits.limits())
-			chunk.Records[k] = Record{Occ: &occs[k], an: an}
-		})
-		rel.chunk(chunk, start)
+	}()
+	defer func() {
+		// the caller's stage ended, returned or panicked: let the reader end
+		close(stop)
+		for range chunks {
+		}
+	}()
+	for c := range chunks {
+		chunk := c.chunk
+		rel.chunk(chunk, c.start)
 		for i := range chunk.diags {
 			chunk.diags[i].Record = related[chunk.diags[i].Record].record
 		}
 		if len(chunk.diags) > 0 {
 			emit(chunk.diags)
 		}
-		store.release(chunk.Records)
+		stores[c.parity].release(chunk.Records)
+	}
+	if failed != nil {
+		panic(failed)
 	}
 }

@@ -347,7 +347,10 @@ func (c *converter) addFinding(fd finding) {
 		c.out.done()
 		c.runs = append(c.runs, c.out)
 		if len(c.runs) == maxRuns {
-			c.runs = []findingList{mergeRuns(c.runs, 0)}
+			// the runs after the first (the records' own findings, the
+			// longest) are merged into one, which keeps their place in
+			// the order of runs and so the merge stable
+			c.runs = append(c.runs[:1:1], mergeRuns(c.runs[1:], runHold))
 		}
 		c.out = findingList{hold: runHold}
 	}

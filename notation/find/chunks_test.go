@@ -39,7 +39,19 @@ func chunkCases() map[string]string {
 		fmt.Fprintf(&lines, "{\"smiles\": \"%s\", \"n\": %d}\n", rec, i)
 	}
 	array.WriteString("\n]}\n")
+	var tsv strings.Builder
+	tsv.WriteString("id\tsmiles\tname\n")
+	for i := range 3000 {
+		fmt.Fprintf(&tsv, "%d\tC[C@@H](N)C%s\tn-%d\n", i, strings.Repeat("C", i%7), i)
+	}
 	return map[string]string{
+		"big.tsv": tsv.String(),
+		// one record in two a pattern by its content: the nitrate that
+		// reads as both becomes a pattern too (queryList)
+		"patterns.csv": "smiles,name\n[#6][OX2H],alcohol\n[N](=O)(O)O,nitrate\nCCO,ethanol\n[CX3](=O)[OX2H1],acid\n",
+		"quoted.csv":   "\"id\",\"smiles\"\n\"1\",\"C[C@H](O)CC\"\n\"2, b\",\"F/C=C/F\"\n\"3\nc\",\"CC\"\n",
+		"semi.csv":     "id;smiles\n1;C[C@H](O)CC\n2;F/C=C\\F\n",
+		"content.csv":  "a,b\nC[C@H](O)CC,x\nF/C=C/F,y\nN[C@@H](C)C(=O)O,z\n",
 		"array.json":  array.String(),
 		"lines.jsonl": lines.String(),
 		"long.smi":    long.String(),

@@ -61,6 +61,10 @@ func FindChunks(kind Kind, content []byte, cfg Config, n int, each func([]Occurr
 	if kind == KindList && findListChunks(content, &cfg, n, each) {
 		return
 	}
+	if kind == KindCSV && findTableChunks(content, ',', &cfg, n, each) ||
+		kind == KindTSV && findTableChunks(content, '\t', &cfg, n, each) {
+		return
+	}
 	if kind == KindJSON {
 		// the document is parsed whole, its records handed out as the
 		// walk finds them

@@ -3,6 +3,7 @@ package find
 import (
 	"bytes"
 	"slices"
+	"stereoline/notation/smarts"
 	"strings"
 
 	"stereoline/notation"
@@ -150,6 +151,53 @@ func (h *tableHeader) vet(src []byte, i int, sep byte, cols []int) {
 // rows appends the structures of the records of src from offset i on to
 // out.
 func (h *tableHeader) rows(src []byte, i int, sep byte, out []Occurrence) []Occurrence {
+	h.eachRow(src, i, sep, func(o Occurrence) { out = append(out, o) })
+	return out
+}
+
+// findTableChunks is findTable handing out the structures n at a time,
+// so that those of a long table are not all held (FindChunks): a first
+// pass counts the query patterns that queryList decides on, a second
+// reads the records again and hands them out. It returns false, having
+// handed out nothing, for a table read by its content.
+func findTableChunks(src []byte, sep byte, cfg *Config, n int, each func([]Occurrence)) bool {
+	from := skipBOM(src)
+	if from >= len(src) {
+		return false
+	}
+	sep = tableSep(src, sep)
+	h, next := readHeader(src, from, sep, cfg)
+	if !h.named {
+		return false
+	}
+	total, patterns := 0, 0
+	h.eachRow(src, next, sep, func(o Occurrence) {
+		total++
+		if o.Dialect == DialectSMARTS {
+			patterns++
+		}
+	})
+	asPatterns := patterns > 0 && patterns*10 >= total // as queryList decides
+	out := make([]Occurrence, 0, n)
+	h.eachRow(src, next, sep, func(o Occurrence) {
+		if asPatterns && o.Dialect == DialectSMILES && smarts.Valid(o.Text) {
+			o.Dialect = DialectSMARTS
+		}
+		out = append(out, o)
+		if len(out) == n {
+			each(out)
+			out = make([]Occurrence, 0, n)
+		}
+	})
+	if len(out) > 0 {
+		each(out)
+	}
+	return true
+}
+
+// eachRow calls f with the structures of the records of src from offset
+// i on, in order.
+func (h *tableHeader) eachRow(src []byte, i int, sep byte, f func(Occurrence)) {
 	var rec []tableCell
 	for i < len(src) {
 		rec, i = readRecord(src, i, sep, rec[:0])
@@ -169,11 +217,10 @@ func (h *tableHeader) rows(src []byte, i int, sep byte, out []Occurrence) []Occu
 				if queryContent(o.Text) {
 					o.Dialect = DialectSMARTS
 				}
-				out = append(out, o)
+				f(o)
 			}
 		}
 	}
-	return out
 }
 
 // FindTableLines is FindListLines for a CSV or TSV table (FindKind with

@@ -5,6 +5,7 @@ package document
 
 import (
 	"bufio"
+	"bytes"
 	"encoding/binary"
 	"fmt"
 	"io"
@@ -29,6 +30,12 @@ var (
 	partitionBytes = 16 << 20 // content bytes for each part
 )
 
+// partitionLines is the estimated number of lines above which a list is
+// related in parts however short it is: the index of a million records
+// of distinct constitutions holds about 150 MB, so a list of short
+// records must not wait for 64 MB.
+const partitionLines = 1_000_000
+
 // partEntry is what a part's file holds for a record.
 type partEntry struct {
 	record int    // in the document
@@ -51,7 +58,7 @@ type partitions struct {
 // nil when content is short enough to relate in memory or a temporary
 // file cannot be made.
 func newPartitions(content []byte) *partitions {
-	if len(content) <= partitionAbove {
+	if len(content) <= partitionAbove && estimatedLines(content) <= partitionLines {
 		return nil
 	}
 	n := 1 + len(content)/partitionBytes
@@ -69,6 +76,16 @@ func newPartitions(content []byte) *partitions {
 		p.out = append(p.out, bufio.NewWriterSize(f, 64<<10))
 	}
 	return p
+}
+
+// estimatedLines estimates the lines of content from those of its first
+// 4 MB.
+func estimatedLines(content []byte) int {
+	sample := content[:min(len(content), 4<<20)]
+	if len(sample) == 0 {
+		return 0
+	}
+	return int(int64(bytes.Count(sample, []byte{'\n'})) * int64(len(content)) / int64(len(sample)))
 }
 
 // close removes the files.

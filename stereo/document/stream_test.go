@@ -180,3 +180,19 @@ func TestSparseLineOf(t *testing.T) {
 		}
 	}
 }
+
+// TestPartitionsForShortRecords checks that a list of more than a
+// million short lines is related in parts though it is far below the
+// size at which a list of common records is, and that a shorter one is
+// not.
+func TestPartitionsForShortRecords(t *testing.T) {
+	if p := newPartitions([]byte(strings.Repeat("C\n", 1_100_000))); p == nil {
+		t.Error("1,100,000 records of 2 bytes related in memory")
+	} else {
+		p.close()
+	}
+	if p := newPartitions([]byte(strings.Repeat("C\n", 900_000))); p != nil {
+		p.close()
+		t.Error("900,000 records of 2 bytes related in parts")
+	}
+}

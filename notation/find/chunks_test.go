@@ -52,22 +52,30 @@ func chunkCases() map[string]string {
 		"quoted.csv":   "\"id\",\"smiles\"\n\"1\",\"C[C@H](O)CC\"\n\"2, b\",\"F/C=C/F\"\n\"3\nc\",\"CC\"\n",
 		"semi.csv":     "id;smiles\n1;C[C@H](O)CC\n2;F/C=C\\F\n",
 		"content.csv":  "a,b\nC[C@H](O)CC,x\nF/C=C/F,y\nN[C@@H](C)C(=O)O,z\n",
-		"array.json":  array.String(),
-		"lines.jsonl": lines.String(),
-		"long.smi":    long.String(),
-		"tabbed.smi":  tabbed.String(),
-		"header.smi":  "smiles name\nC[C@H](O)CC butanol\n\nF/C=C\\F difluoroethene\n",
-		"queries.smi": "[#6][OX2H] alcohol\n[CX3](=O)[OX2H1] acid\nC[C@H](N)C(=O)O alanine\n",
-		"table.csv":   "id,smiles,amount\n1,C[C@H](O)CC,3\n2,F/C=C/F,4\n",
-		"unclear.smi": "CCO CCN\nCCC CCCl\n",
-		"empty.smi":   "",
-		"code.py":     "A = 'C[C@H](O)CC'\nB = 'F/C=C/F'\n",
+		"array.json":   array.String(),
+		"lines.jsonl":  lines.String(),
+		"long.smi":     long.String(),
+		"tabbed.smi":   tabbed.String(),
+		"header.smi":   "smiles name\nC[C@H](O)CC butanol\n\nF/C=C\\F difluoroethene\n",
+		"queries.smi":  "[#6][OX2H] alcohol\n[CX3](=O)[OX2H1] acid\nC[C@H](N)C(=O)O alanine\n",
+		"table.csv":    "id,smiles,amount\n1,C[C@H](O)CC,3\n2,F/C=C/F,4\n",
+		"unclear.smi":  "CCO CCN\nCCC CCCl\n",
+		"empty.smi":    "",
+		"code.py":      "A = 'C[C@H](O)CC'\nB = 'F/C=C/F'\n",
 	}
 }
 
 // TestFindChunksIsFindKind checks that the chunks, joined, are what
 // FindKind finds, occurrence for occurrence, for several chunk sizes.
 func TestFindChunksIsFindKind(t *testing.T) {
+	defer func(w int) { jsonLineWindow = w }(jsonLineWindow)
+	for _, window := range []int{1 << 20, 1, 150} {
+		jsonLineWindow = window // JSON Lines read a line or two at a time too
+		testFindChunksIsFindKind(t)
+	}
+}
+
+func testFindChunksIsFindKind(t *testing.T) {
 	for name, src := range chunkCases() {
 		kind := KindForName(name)
 		want := FindKind(kind, []byte(src), Config{})

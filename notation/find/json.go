@@ -803,6 +803,31 @@ func findJSON(src []byte, cfg *Config) []Occurrence {
 // occurrences when each is nil.
 func findJSONChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) []Occurrence {
 	jf := &jsonFinder{src: src, cfg: cfg, nm: newNamer(cfg), each: each, chunk: n}
+	if each != nil && jsonLineMode(src) {
+		// JSON Lines: each line is read on its own, so the lines are
+		// read and walked a window at a time, not all read first (the
+		// values of a million lines are hundreds of MB)
+		jf.out = make([]Occurrence, 0, n)
+		var vs []jsonValue
+		for from := 0; from < len(src); {
+			to := min(len(src), from+jsonLineWindow)
+			if k := bytes.IndexByte(src[to:], '\n'); k >= 0 {
+				to += k + 1
+			} else {
+				to = len(src)
+			}
+			vs = jsonLineValues(src, from, to, vs[:0])
+			for i := range vs {
+				jf.walk(vs[i], wants{}, false)
+				vs[i] = jsonValue{}
+			}
+			from = to
+		}
+		if len(jf.out) > 0 {
+			each(jf.out)
+		}
+		return nil
+	}
 	vs := parseJSONValues(src)
 	if each != nil {
 		jf.out = make([]Occurrence, 0, n)
@@ -838,6 +863,10 @@ func findJSONChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) []O
 	}
 	return jf.out
 }
+
+// jsonLineWindow is how many bytes of JSON Lines are read before their
+// values are walked (a variable for the tests).
+var jsonLineWindow = 1 << 20
 
 type jsonFinder struct {
 	src  []byte

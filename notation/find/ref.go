@@ -35,7 +35,7 @@ func RefOf(content []byte, o *Occurrence) (r Ref, ok bool) {
 	if len(content) >= 1<<32-1 || s.Start < 0 || s.End > len(content) || s.Start > s.End ||
 		o.m.runs != nil || o.m.base != s.Start || o.m.size != len(o.Text) ||
 		string(content[s.Start:s.End]) != o.Text ||
-		len(o.Diagnostics) > 0 || o.Cell != 0 || o.group != (groupMark{}) || o.encode != nil {
+		len(o.Diagnostics) > 0 || o.Cell != 0 || o.group != (groupMark{}) || o.encode != nil && !isJSONValue(o) {
 		return Ref{}, false
 	}
 	r = Ref{start: uint32(s.Start), end: uint32(s.End), field: o.Field, kind: o.Kind, construct: o.Construct, reason: o.Reason, dialect: o.Dialect}
@@ -78,7 +78,17 @@ func (r Ref) Occurrence(content []byte) Occurrence {
 	if r.titleEnd > r.title {
 		o.Title = string(content[r.title:r.titleEnd])
 	}
+	if isJSONValue(&o) {
+		o.encode = jsonEscape
+	}
 	return o
+}
+
+// isJSONValue reports whether o is a string value of a JSON document,
+// whose encoder is always jsonEscape (json.go): a Ref of it rebuilds the
+// encoder from its kind and construct.
+func isJSONValue(o *Occurrence) bool {
+	return o.Kind == KindJSON && o.Construct == ConstructJSONValue
 }
 
 // RefSize is the length of a Ref as AppendBinary writes it.

@@ -51,6 +51,8 @@ func chunkCases() map[string]string {
 		"patterns.csv": "smiles,name\n[#6][OX2H],alcohol\n[N](=O)(O)O,nitrate\nCCO,ethanol\n[CX3](=O)[OX2H1],acid\n",
 		"quoted.csv":   "\"id\",\"smiles\"\n\"1\",\"C[C@H](O)CC\"\n\"2, b\",\"F/C=C/F\"\n\"3\nc\",\"CC\"\n",
 		"semi.csv":     "id;smiles\n1;C[C@H](O)CC\n2;F/C=C\\F\n",
+		"strings.json": "[\"C[C@H](O)CC\", \"CCO\", \"hello\", \"F/C=C/F\"]\n",
+		"nested.json":  "[{\"id\": \"a\", \"smiles\": \"C[C@H](O)CC\", \"more\": [{\"smiles\": \"F/C=C\\\\F\"}]},\n {\"name\": \"b\", \"rxn\": \"CC>>C[C@H](O)CC\"}]\n",
 		"content.csv":  "a,b\nC[C@H](O)CC,x\nF/C=C/F,y\nN[C@@H](C)C(=O)O,z\n",
 		"array.json":   array.String(),
 		"lines.jsonl":  lines.String(),
@@ -68,11 +70,13 @@ func chunkCases() map[string]string {
 // TestFindChunksIsFindKind checks that the chunks, joined, are what
 // FindKind finds, occurrence for occurrence, for several chunk sizes.
 func TestFindChunksIsFindKind(t *testing.T) {
-	defer func(w int) { jsonLineWindow = w }(jsonLineWindow)
+	defer func(w, a int) { jsonLineWindow, jsonArrayStreamFrom = w, a }(jsonLineWindow, jsonArrayStreamFrom)
 	for _, window := range []int{1 << 20, 1, 150} {
 		jsonLineWindow = window // JSON Lines read a line or two at a time too
 		testFindChunksIsFindKind(t)
 	}
+	jsonArrayStreamFrom = 0 // arrays read element by element
+	testFindChunksIsFindKind(t)
 }
 
 func testFindChunksIsFindKind(t *testing.T) {

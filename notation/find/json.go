@@ -828,6 +828,22 @@ func findJSONChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) []O
 		}
 		return nil
 	}
+	if each != nil && len(src) >= jsonArrayStreamFrom {
+		if arr, ok := jsonRecordArray(src, cfg); ok && !arr.ctx.member {
+			// a long document that is one array: its elements are read
+			// and walked one at a time, as an edit reads them apart
+			// (FindJSONEdit), not all read first
+			jf.out = make([]Occurrence, 0, n)
+			for _, e := range arr.elems {
+				p := &jsonParser{src: src[:e.End], i: e.Start}
+				jf.walk(p.value(arr.ctx.depth()), arr.ctx.w, arr.ctx.other)
+			}
+			if len(jf.out) > 0 {
+				each(jf.out)
+			}
+			return nil
+		}
+	}
 	vs := parseJSONValues(src)
 	if each != nil {
 		jf.out = make([]Occurrence, 0, n)
@@ -863,6 +879,11 @@ func findJSONChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) []O
 	}
 	return jf.out
 }
+
+// jsonArrayStreamFrom is the size from which a document that is one
+// array of records is streamed element by element (a variable for the
+// tests).
+var jsonArrayStreamFrom = 8 << 20
 
 // jsonLineWindow is how many bytes of JSON Lines are read before their
 // values are walked (a variable for the tests).

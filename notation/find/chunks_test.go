@@ -152,8 +152,9 @@ func TestRefRebuilds(t *testing.T) {
 	}
 }
 
-// FuzzFindChunks checks, for any content of the streamed host kinds,
-// that the chunks of FindChunks joined are FindKind's occurrences, none
+// FuzzFindChunks checks, for any content of the streamed host kinds
+// (JSON Lines in windows of a few lines, JSON arrays element by
+// element), that the chunks of FindChunks joined are FindKind's occurrences, none
 // empty or over the chunk size, and that every Ref taken rebuilds its
 // occurrence.
 func FuzzFindChunks(f *testing.F) {
@@ -162,6 +163,9 @@ func FuzzFindChunks(f *testing.F) {
 	}
 	f.Add([]byte("C1CC1 a\r\n\r\n\tF/C=C/F  b c\nC1CC\n"), uint8(KindList), uint16(1))
 	f.Fuzz(func(t *testing.T, src []byte, kind uint8, size uint16) {
+		// JSON Lines read a few lines at a time, arrays element by element
+		defer func(w, a int) { jsonLineWindow, jsonArrayStreamFrom = w, a }(jsonLineWindow, jsonArrayStreamFrom)
+		jsonLineWindow, jsonArrayStreamFrom = 1+int(size)%200, 0
 		kinds := []Kind{KindList, KindCSV, KindTSV, KindPython, KindJSON}
 		k := kinds[int(kind)%len(kinds)]
 		n := 1 + int(size)%64

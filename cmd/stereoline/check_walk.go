@@ -127,8 +127,8 @@ var mapAtLeast int64 = 16 << 20 // a variable for the tests
 // mostly out of memory costs microseconds.
 var dropInterval = 10 * time.Millisecond // a variable for the tests
 
-// mapped returns the data of a mapped file and starts its dropper.
-func mapped(b []byte) fileData {
+// mapData returns the data of a mapped file and starts its dropper.
+func mapData(b []byte) fileData {
 	d := fileData{bytes: b, mapped: true, stop: make(chan struct{}), ended: make(chan struct{})}
 	go func() {
 		defer close(d.ended)
@@ -183,7 +183,7 @@ func (r *checkRun) readCheckFile(f checkFile, limit int64) (fileData, error) {
 			if canMap && size >= mapAtLeast {
 				if b, err := mapFile(fh, size); err == nil {
 					filesMapped.Add(1)
-					d := mapped(b)
+					d := mapData(b)
 					if bytes.IndexByte(b[:binaryProbe], 0) >= 0 {
 						d.release()
 						return fileData{}, errSkipped{"binary file"}

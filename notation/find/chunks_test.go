@@ -70,12 +70,12 @@ func chunkCases() map[string]string {
 // TestFindChunksIsFindKind checks that the chunks, joined, are what
 // FindKind finds, occurrence for occurrence, for several chunk sizes.
 func TestFindChunksIsFindKind(t *testing.T) {
-	defer func(w, a int) { jsonLineWindow, jsonArrayStreamFrom = w, a }(jsonLineWindow, jsonArrayStreamFrom)
+	defer func(w, a int) { jsonLineWindow, streamFrom = w, a }(jsonLineWindow, streamFrom)
 	for _, window := range []int{1 << 20, 1, 150} {
 		jsonLineWindow = window // JSON Lines read a line or two at a time too
 		testFindChunksIsFindKind(t)
 	}
-	jsonArrayStreamFrom = 0 // arrays read element by element
+	streamFrom = 0 // arrays element by element, tables in two passes
 	testFindChunksIsFindKind(t)
 }
 
@@ -164,8 +164,8 @@ func FuzzFindChunks(f *testing.F) {
 	f.Add([]byte("C1CC1 a\r\n\r\n\tF/C=C/F  b c\nC1CC\n"), uint8(KindList), uint16(1))
 	f.Fuzz(func(t *testing.T, src []byte, kind uint8, size uint16) {
 		// JSON Lines read a few lines at a time, arrays element by element
-		defer func(w, a int) { jsonLineWindow, jsonArrayStreamFrom = w, a }(jsonLineWindow, jsonArrayStreamFrom)
-		jsonLineWindow, jsonArrayStreamFrom = 1+int(size)%200, 0
+		defer func(w, a int) { jsonLineWindow, streamFrom = w, a }(jsonLineWindow, streamFrom)
+		jsonLineWindow, streamFrom = 1+int(size)%200, 0
 		kinds := []Kind{KindList, KindCSV, KindTSV, KindPython, KindJSON}
 		k := kinds[int(kind)%len(kinds)]
 		n := 1 + int(size)%64

@@ -61,8 +61,8 @@ func FindChunks(kind Kind, content []byte, cfg Config, n int, each func([]Occurr
 	if kind == KindList && findListChunks(content, &cfg, n, each) {
 		return
 	}
-	if kind == KindCSV && findTableChunks(content, ',', &cfg, n, each) ||
-		kind == KindTSV && findTableChunks(content, '\t', &cfg, n, each) {
+	if len(content) >= streamFrom && (kind == KindCSV && findTableChunks(content, ',', &cfg, n, each) ||
+		kind == KindTSV && findTableChunks(content, '\t', &cfg, n, each)) {
 		return
 	}
 	if kind == KindJSON {
@@ -73,6 +73,12 @@ func FindChunks(kind Kind, content []byte, cfg Config, n int, each func([]Occurr
 	}
 	chunks(FindKind(kind, content, cfg), n, each)
 }
+
+// streamFrom is the size from which FindChunks reads a CSV or TSV table
+// in two passes and a JSON array element by element, so that their
+// occurrences or values are not all held: below it, reading them whole
+// costs less (a variable for the tests).
+var streamFrom = 8 << 20
 
 // chunks hands out occs n at a time.
 func chunks(occs []Occurrence, n int, each func([]Occurrence)) {

@@ -803,59 +803,55 @@ func findJSON(src []byte, cfg *Config) []Occurrence {
 // occurrences when each is nil.
 func findJSONChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) []Occurrence {
 	jf := &jsonFinder{src: src, cfg: cfg, nm: newNamer(cfg), each: each, chunk: n}
-	if each != nil && jsonLineMode(src) {
-		// JSON Lines: each line is read on its own, so the lines are
-		// read and walked a window at a time, not all read first (the
-		// values of a million lines are hundreds of MB)
+	if each != nil {
 		jf.out = make([]Occurrence, 0, n)
-		var vs []jsonValue
-		for from := 0; from < len(src); {
-			to := min(len(src), from+jsonLineWindow)
-			if k := bytes.IndexByte(src[to:], '\n'); k >= 0 {
-				to += k + 1
-			} else {
-				to = len(src)
-			}
-			vs = jsonLineValues(src, from, to, vs[:0])
+		walk := func(vs []jsonValue) {
 			for i := range vs {
 				jf.walk(vs[i], wants{}, false)
-				vs[i] = jsonValue{}
+				vs[i] = jsonValue{} // read: its slabs may go while the rest is read
 			}
-			from = to
 		}
-		if len(jf.out) > 0 {
-			each(jf.out)
+		lines := jsonLineMode(src)
+		var arr *JSONArray
+		array := false
+		if len(src) >= streamFrom && !lines {
+			arr, array = jsonRecordArray(src, cfg)
+			array = array && !arr.ctx.member
 		}
-		return nil
-	}
-	if each != nil && len(src) >= jsonArrayStreamFrom {
-		if arr, ok := jsonRecordArray(src, cfg); ok && !arr.ctx.member {
+		switch {
+		case lines:
+			// each line is read on its own: a window of lines at a
+			// time, not all read first (the values of a million lines
+			// are hundreds of MB)
+			var vs []jsonValue
+			for from := 0; from < len(src); {
+				to := min(len(src), from+jsonLineWindow)
+				if k := bytes.IndexByte(src[to:], '\n'); k >= 0 {
+					to += k + 1
+				} else {
+					to = len(src)
+				}
+				vs = jsonLineValues(src, from, to, vs[:0])
+				walk(vs)
+				from = to
+			}
+		case array:
 			// a long document that is one array: its elements are read
 			// and walked one at a time, as an edit reads them apart
-			// (FindJSONEdit), not all read first
-			jf.out = make([]Occurrence, 0, n)
+			// (FindJSONEdit)
 			for _, e := range arr.elems {
 				p := &jsonParser{src: src[:e.End], i: e.Start}
 				jf.walk(p.value(arr.ctx.depth()), arr.ctx.w, arr.ctx.other)
 			}
-			if len(jf.out) > 0 {
-				each(jf.out)
-			}
-			return nil
-		}
-	}
-	vs := parseJSONValues(src)
-	if each != nil {
-		jf.out = make([]Occurrence, 0, n)
-		for i := range vs {
-			jf.walk(vs[i], wants{}, false)
-			vs[i] = jsonValue{} // read: its slabs may go while the rest is read
+		default:
+			walk(parseJSONValues(src))
 		}
 		if len(jf.out) > 0 {
 			each(jf.out)
 		}
 		return nil
 	}
+	vs := parseJSONValues(src)
 	// about a record a value of JSON Lines, or an element of an array of
 	// records (the document, or its longest array member): room made once
 	n = len(vs)
@@ -879,11 +875,6 @@ func findJSONChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) []O
 	}
 	return jf.out
 }
-
-// jsonArrayStreamFrom is the size from which a document that is one
-// array of records is streamed element by element (a variable for the
-// tests).
-var jsonArrayStreamFrom = 8 << 20
 
 // jsonLineWindow is how many bytes of JSON Lines are read before their
 // values are walked (a variable for the tests).

@@ -3,10 +3,10 @@ package find
 import (
 	"bytes"
 	"slices"
-	"stereoline/notation/smarts"
 	"strings"
 
 	"stereoline/notation"
+	"stereoline/notation/smarts"
 )
 
 // findTable reads a CSV or TSV table (RFC 4180: fields separated by the

@@ -39,6 +39,18 @@ func chunkCases() map[string]string {
 		fmt.Fprintf(&lines, "{\"smiles\": \"%s\", \"n\": %d}\n", rec, i)
 	}
 	array.WriteString("\n]}\n")
+	// a document that reads, its records under a member between others:
+	// a title, a member named as notation, and a shorter array
+	var member strings.Builder
+	member.WriteString("{\"name\": \"batch 7\", \"smiles\": \"C[C@H](O)CC\", \"extra\": [\"F/C=C/F\", {\"smiles\": \"CCO\"}],\n \"records\": [\n")
+	for i := range 2000 {
+		rec := []string{"N[C@@H](C)C(=O)O", "F/C=C\\\\F", "C1CC[C@H](O)CC1", "c1ccccc1O"}[i%4]
+		if i > 0 {
+			member.WriteString(",\n")
+		}
+		fmt.Fprintf(&member, "  {\"id\": %d, \"smiles\": \"%s\", \"more\": [\"C[C@H](F)Cl\"], \"title\": \"t%d\"}", i, rec, i)
+	}
+	member.WriteString("\n],\n \"reagent\": \"O[C@@H](C)CC\", \"notes\": {\"rxn\": \"CC>>C[C@H](O)CC\"}}\n")
 	var tsv strings.Builder
 	tsv.WriteString("id\tsmiles\tname\n")
 	for i := range 3000 {
@@ -55,6 +67,7 @@ func chunkCases() map[string]string {
 		"nested.json":  "[{\"id\": \"a\", \"smiles\": \"C[C@H](O)CC\", \"more\": [{\"smiles\": \"F/C=C\\\\F\"}]},\n {\"name\": \"b\", \"rxn\": \"CC>>C[C@H](O)CC\"}]\n",
 		"content.csv":  "a,b\nC[C@H](O)CC,x\nF/C=C/F,y\nN[C@@H](C)C(=O)O,z\n",
 		"array.json":   array.String(),
+		"member.json":  member.String(),
 		"lines.jsonl":  lines.String(),
 		"long.smi":     long.String(),
 		"tabbed.smi":   tabbed.String(),

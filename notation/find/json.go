@@ -414,12 +414,7 @@ func jsonRecordArray(src []byte, cfg *Config) (*JSONArray, bool) {
 	}
 	arr := &JSONArray{}
 	if v.kind == 'o' {
-		best := -1
-		for k := range v.vals {
-			if e := v.vals[k]; e.kind == 'a' && (best < 0 || e.span.Len() > v.vals[best].span.Len()) {
-				best = k
-			}
-		}
+		best := recordMember(v)
 		if best < 0 {
 			return nil, false
 		}
@@ -443,6 +438,62 @@ func jsonRecordArray(src []byte, cfg *Config) (*JSONArray, bool) {
 		arr.elems[k] = v.vals[k].span
 	}
 	return arr, true
+}
+
+// recordMember returns the index of the member of the object v whose
+// value is the longest array, the first of those as long; -1 when no
+// member is an array.
+func recordMember(v jsonValue) int {
+	best := -1
+	for k := range v.vals {
+		if e := v.vals[k]; e.kind == 'a' && (best < 0 || e.span.Len() > v.vals[best].span.Len()) {
+			best = k
+		}
+	}
+	return best
+}
+
+// walkMemberArray walks a document that is one object as walk does,
+// each member read on its own, and the elements of its array of records
+// (arr, jsonRecordArray) one at a time: the object's values are not all
+// read first.
+func (jf *jsonFinder) walkMemberArray(arr *JSONArray) {
+	p := &jsonParser{src: jf.src, shallow: true}
+	p.blank()
+	v := p.value(0) // the members' spans only: the document reads (jsonRecordArray)
+	best := recordMember(v)
+	if t := jf.objectTitle(v); t != "" {
+		jf.title = t
+	}
+	named := false
+	for k := range v.keys {
+		if jf.keyInfo(v.keys[k]).w.named() {
+			named = true
+			break
+		}
+	}
+	for k := range v.vals {
+		ki := jf.keyInfo(v.keys[k])
+		if named && ki.title > 0 && !ki.w.named() && v.vals[k].kind == 's' {
+			continue
+		}
+		child := ki.w
+		if !ki.w.named() && !ki.aboutKey {
+			child = wants{}
+		}
+		jf.key, jf.own = ki.text, ki.text
+		if k != best {
+			mp := &jsonParser{src: jf.src[:v.vals[k].span.End], i: v.vals[k].span.Start}
+			jf.walk(mp.value(1), child, ki.about)
+			continue
+		}
+		jf.own = ""
+		for _, e := range arr.elems {
+			ep := &jsonParser{src: jf.src[:e.End], i: e.Start}
+			jf.walk(ep.value(arr.ctx.depth()), child, ki.about)
+		}
+	}
+	jf.key, jf.own, jf.title = "", "", ""
 }
 
 // blankOrSeparator skips blanks and the record separators (0x1E) of a
@@ -816,7 +867,6 @@ func findJSONChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) []O
 		array := false
 		if len(src) >= streamFrom && !lines {
 			arr, array = jsonRecordArray(src, cfg)
-			array = array && !arr.ctx.member
 		}
 		switch {
 		case lines:
@@ -835,6 +885,11 @@ func findJSONChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) []O
 				walk(vs)
 				from = to
 			}
+		case array && arr.ctx.member:
+			// a long document that is one object around its records:
+			// its members are read one at a time, the records' array
+			// element by element
+			jf.walkMemberArray(arr)
 		case array:
 			// a long document that is one array: its elements are read
 			// and walked one at a time, as an edit reads them apart

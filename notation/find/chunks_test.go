@@ -56,8 +56,21 @@ func chunkCases() map[string]string {
 	for i := range 3000 {
 		fmt.Fprintf(&tsv, "%d\tC[C@@H](N)C%s\tn-%d\n", i, strings.Repeat("C", i%7), i)
 	}
+	// tables whose header names no structure column, or that have none:
+	// read by their content
+	var nohead strings.Builder
+	nohead.WriteString("# exported list\n")
+	for i := range 1500 {
+		fmt.Fprintf(&nohead, "item-%d,C[C@@H](N)C%s(=O)O,%d\n", i, strings.Repeat("C", i%5), i%3)
+		if i%400 == 7 {
+			nohead.WriteString("\n# a comment\nitem-x,-,0\n")
+		}
+	}
 	return map[string]string{
-		"big.tsv": tsv.String(),
+		"nohead.csv":   nohead.String(),
+		"nohead.tsv":   strings.ReplaceAll(nohead.String(), ",", "\t"),
+		"contentq.csv": "a,b\n[#6][OX2H],x\n[N](=O)(O)O,y\nCCO,z\n[CX3](=O)[OX2H1],w\nc1ccccc1O,v\n",
+		"big.tsv":      tsv.String(),
 		// one record in two a pattern by its content: the nitrate that
 		// reads as both becomes a pattern too (queryList)
 		"patterns.csv": "smiles,name\n[#6][OX2H],alcohol\n[N](=O)(O)O,nitrate\nCCO,ethanol\n[CX3](=O)[OX2H1],acid\n",

@@ -167,11 +167,24 @@ func findTableChunks(src []byte, sep byte, cfg *Config, n int, each func([]Occur
 	}
 	sep = tableSep(src, sep)
 	h, next := readHeader(src, from, sep, cfg)
+	rows := func(f func(Occurrence)) { h.eachRow(src, next, sep, f) }
 	if !h.named {
-		return false
+		if cfg.NoGuess {
+			return false
+		}
+		nm := newNamer(cfg)
+		l, ok := contentLayout(src, from, sep, nm, cfg)
+		if !ok {
+			return false
+		}
+		rows = func(f func(Occurrence)) {
+			// the strings are pieces of windows of the text, not of one
+			// copy of it all
+			eachContentRow(src, from, sep, l, hostText{src: src, window: streamWindow}, f)
+		}
 	}
 	total, patterns := 0, 0
-	h.eachRow(src, next, sep, func(o Occurrence) {
+	rows(func(o Occurrence) {
 		total++
 		if o.Dialect == DialectSMARTS {
 			patterns++
@@ -179,7 +192,7 @@ func findTableChunks(src []byte, sep byte, cfg *Config, n int, each func([]Occur
 	})
 	asPatterns := patterns > 0 && patterns*10 >= total // as queryList decides
 	out := make([]Occurrence, 0, n)
-	h.eachRow(src, next, sep, func(o Occurrence) {
+	rows(func(o Occurrence) {
 		if asPatterns && o.Dialect == DialectSMILES && smarts.Valid(o.Text) {
 			o.Dialect = DialectSMARTS
 		}
@@ -314,16 +327,34 @@ func multiLineField(src []byte, sep byte) bool {
 // happen to spell atoms stays silent. With detection by names only
 // (Config.NoGuess) it is not done.
 func tableByContent(src []byte, from int, sep byte, nm namer, cfg *Config) []Occurrence {
-	v := detectLayout(src, from, layoutSpec{sep: sep, sepSet: true}, nm, cfg)
-	if v.ambiguous != "" || v.score < 0.5 || !structured(src, from, v.layout) {
+	l, ok := contentLayout(src, from, sep, nm, cfg)
+	if !ok {
 		return nil
 	}
+	var out []Occurrence
+	eachContentRow(src, from, sep, l, wholeText(src), func(o Occurrence) { out = append(out, o) })
+	queryList(out)
+	return out
+}
+
+// contentLayout returns the layout a table is read by its content with
+// (tableByContent); false when none is clear enough.
+func contentLayout(src []byte, from int, sep byte, nm namer, cfg *Config) (Layout, bool) {
+	v := detectLayout(src, from, layoutSpec{sep: sep, sepSet: true}, nm, cfg)
+	if v.ambiguous != "" || v.score < 0.5 || !structured(src, from, v.layout) {
+		return Layout{}, false
+	}
+	return v.layout, true
+}
+
+// eachContentRow calls f with the structures of the records of a table
+// read by its content in the layout l, in order, before queryList; their
+// strings are pieces of text.
+func eachContentRow(src []byte, from int, sep byte, l Layout, text hostText, f func(Occurrence)) {
 	kind := KindCSV
 	if sep == '\t' {
 		kind = KindTSV
 	}
-	text := wholeText(src)
-	var out []Occurrence
 	var fields []fieldSpan
 	first := true
 	for start := from; start < len(src); {
@@ -336,15 +367,16 @@ func tableByContent(src []byte, from int, sep byte, nm namer, cfg *Config) []Occ
 		if len(bytes.TrimSpace(line)) == 0 || isComment(line) {
 			continue
 		}
+		text.cover(ls, ls+len(line))
 		if first {
 			first = false
-			if v.layout.Header {
+			if l.Header {
 				continue
 			}
 		}
 		var o Occurrence
 		var ok bool
-		fields, ok = layoutRecord(&o, &text, src, ls, ls+len(line), v.layout, fields)
+		fields, ok = layoutRecord(&o, &text, src, ls, ls+len(line), l, fields)
 		if !ok || placeholders[strings.ToLower(o.Text)] {
 			continue
 		}
@@ -352,10 +384,8 @@ func tableByContent(src []byte, from int, sep byte, nm namer, cfg *Config) []Occ
 		if queryContent(o.Text) {
 			o.Dialect = DialectSMARTS
 		}
-		out = append(out, o)
+		f(o)
 	}
-	queryList(out)
-	return out
 }
 
 // structured reports whether at least a third of the sample cells of the

@@ -160,6 +160,58 @@ type codeFinder struct {
 	// literals counts the string literals of each group under a loose
 	// name, taken or not (see strays)
 	literals map[groupKey]int
+	// carriers are the plain names passed whole to a constructor of the
+	// notation somewhere in the code (see carrierNames)
+	carriers map[string]wants
+}
+
+// carrierNames returns the names that are passed on their own as an
+// argument of a constructor of the notation (Chem.MolFromSmiles(s),
+// ReactionFromSmarts(t, ...)), with what they then carry: a loose
+// notation name. The strings such a name is given or iterates over
+// (s = "CC(C)O"; for s in ["CCO", "C1CCCCC1"]: ... MolFromSmiles(s)) are
+// then taken when they read without error; a name used for other text
+// elsewhere leaves that text alone unless it reads as a record.
+func (cf *codeFinder) carrierNames(toks []token) map[string]wants {
+	var out map[string]wants
+	for i := 0; i+3 < len(toks); i++ {
+		if toks[i].kind != tIdent || !cf.is(toks[i+1], "(") {
+			continue
+		}
+		receiver := ""
+		if i >= 2 && cf.is(toks[i-1], ".") && toks[i-2].kind == tIdent {
+			receiver = cf.textS(toks[i-2])
+		}
+		callee := cf.textS(toks[i])
+		w, _ := cf.nm.call(callee, receiver)
+		// a converter's argument (smiles_to_smarts(s)) is not what its
+		// name calls it
+		if w.smiles != firmly && (w.smarts != firmly || strings.Contains(strings.ToLower(callee), "smi")) {
+			continue
+		}
+		// each argument that is one name: f(a, b), not f(a.b) or f(a[0])
+		for j := i + 2; j+1 < len(toks) && toks[j].kind == tIdent; j += 2 {
+			name := cf.textS(toks[j])
+			end := toks[j+1]
+			if !cf.is(end, ",") && !cf.is(end, ")") {
+				break
+			}
+			if named, about := cf.nm.classify(name); !named.named() && !about && !keywords[name] {
+				if out == nil {
+					out = map[string]wants{}
+				}
+				c := wants{smiles: weakly, loose: true}
+				if w.smarts == firmly {
+					c = wants{smarts: weakly, loose: true}
+				}
+				out[name] = merge(out[name], c)
+			}
+			if cf.is(end, ")") {
+				break
+			}
+		}
+	}
+	return out
 }
 
 // pendingLiteral is a literal kept for agree.
@@ -222,6 +274,7 @@ type groupMark struct {
 func findCode(src []byte, lang *codeLang, cfg *Config) []Occurrence {
 	cf := &codeFinder{src: src, lang: lang, cfg: cfg, nm: newNamer(cfg), prag: newPragmas(src)}
 	toks := lang.lex(src, cf.prag)
+	cf.carriers = cf.carrierNames(toks)
 	cf.walk(toks)
 	cf.agree()
 	cf.strays()
@@ -289,6 +342,9 @@ func (cf *codeFinder) walk(toks []token) {
 				continue
 			}
 			w, about := cf.nm.classify(name)
+			if c, ok := cf.carriers[name]; ok && !w.named() && !about {
+				w = c
+			}
 			if w.named() {
 				f.seg = merge(f.seg, w)
 			} else if about {

@@ -102,3 +102,17 @@ pct_line = "%s\tF/C=C/F %5.2f" % (cid, mass)  # want «F/C=C/F»
 smiles_pct = "C%sC" % ring
 smiles_ring = "C%%10CCCCC%%10 %s" % x  # want «C%%10CCCCC%%10» text «C%10CCCCC%10»
 smiles_fmt = "{0}{{x}} C{n}C".format(a, n=2)
+# A plain name passed whole to a constructor of the notation carries it:
+# the strings it is given or iterates over are taken where they read
+# without error ("C1CC", "hello" are left alone).
+for probe in ["CCO", "CC(C)O", "C1CC"]:  # want «CCO» want «CC(C)O»
+    Chem.MolFromSmiles(probe)
+mols = [Chem.MolFromSmiles(q9) for q9 in ("OCC(C)N", "hello")]  # want «OCC(C)N»
+held = "CCC(C=O)CCC"  # want «CCC(C=O)CCC»
+img = Chem.MolFromSmiles(held, sanitize=False)
+p9 = "C=O"  # want «C=O» dialect «smarts»
+Chem.MolFromSmarts(p9)
+# A converter's argument is not what its name calls it: the reaction side
+# held is SMILES, found for what it is.
+conv_in = "[*:1][H]"  # want «[*:1][H]»
+conv_out = smiles_to_smarts(conv_in)

@@ -178,17 +178,14 @@ func (p *partitions) relatePart(whole *Result, entries []partEntry, emit func([]
 	}
 	count = nil
 	rel := newStreamRelater(whole, true)
-	reading := whole.cfg.Reading.notation()
 	// Two stages, as in Stream: while a chunk is related, the next one is
-	// read again and labelled, into the other of two storages; the
-	// unbuffered channel hands a chunk over only once the one before it
-	// is done with, storage released.
+	// read again and labelled.
 	type readChunk struct {
 		chunk  *Result
 		start  int
 		parity int
 	}
-	var stores [2]chunkStorage
+	var stores stageStores
 	chunks := make(chan readChunk)
 	stop := make(chan struct{})
 	var failed any
@@ -198,11 +195,8 @@ func (p *partitions) relatePart(whole *Result, entries []partEntry, emit func([]
 		// the texts are copied out of the content here: a fault in a
 		// mapped file cut short is a panic raised again by the caller
 		debug.SetPanicOnFault(true)
-		parity := 0
 		for start := 0; start < len(related); start += streamChunk {
 			part := related[start:min(start+streamChunk, len(related))]
-			store := stores[parity].grow(len(part))
-			stores[parity] = store
 			occs := make([]find.Occurrence, len(part))
 			for k := range part {
 				if o, ok := p.odd[part[k].record]; ok {
@@ -211,18 +205,13 @@ func (p *partitions) relatePart(whole *Result, entries []partEntry, emit func([]
 					occs[k] = part[k].ref.Occurrence(whole.Content)
 				}
 			}
-			chunk := &Result{Name: whole.Name, Content: whole.Content, Kind: whole.Kind, cfg: whole.cfg,
-				Records: make([]Record, len(part))}
-			parallel(len(part), func(k int) {
-				an := analyseInto(&store[k], occs[k].Text, reading, whole.cfg.Limits.limits())
-				chunk.Records[k] = Record{Occ: &occs[k], an: an}
-			})
+			chunk := &Result{Name: whole.Name, Content: whole.Content, Kind: whole.Kind, cfg: whole.cfg}
+			parity := stores.label(chunk, occs)
 			select {
 			case chunks <- readChunk{chunk, start, parity}:
 			case <-stop:
 				return
 			}
-			parity ^= 1
 		}
 	}()
 	defer func() {
@@ -240,7 +229,7 @@ func (p *partitions) relatePart(whole *Result, entries []partEntry, emit func([]
 		if len(chunk.diags) > 0 {
 			emit(chunk.diags)
 		}
-		stores[c.parity].release(chunk.Records)
+		stores.release(c.parity, chunk.Records)
 	}
 	if failed != nil {
 		panic(failed)

@@ -113,14 +113,11 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 			rel.on = false
 		}
 	}
-	reading := cfg.Reading.notation()
 	// Two stages: while the records of a chunk are related and their
 	// findings emitted, the next chunk is read and labelled. Each stage
 	// keeps both cores busy only part of the time (relating is mostly
-	// one index, in order). The chunks alternate between two storages:
-	// the one a chunk is read into was released by the chunk before the
-	// last, which the second stage finished before it took the last.
-	var stores [2]chunkStorage
+	// one index, in order).
+	var stores stageStores
 	type streamed struct {
 		chunk  *Result
 		parity int // the storage it was read into
@@ -151,11 +148,11 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 				parts.note(chunk, start)
 			}
 			emit(chunk.diags)
-			stores[c.parity].release(chunk.Records)
+			stores.release(c.parity, chunk.Records)
 			start += len(chunk.Records)
 		}
 	}()
-	records, parity := 0, 0
+	records := 0
 	// The occurrences come a chunk at a time too (find.FindChunks), so
 	// that those of a long list are not all held. The channel is closed
 	// however this stage ends, so that the second one ends too.
@@ -170,20 +167,13 @@ func (a *Analyzer) Stream(name, languageID string, content []byte, emit func([]D
 		if len(occs) == 0 {
 			return
 		}
-		store := stores[parity].grow(len(occs))
-		stores[parity] = store
-		chunk := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg,
-			Records: make([]Record, len(occs)), noFixes: a.noFixes}
-		parallel(len(occs), func(k int) {
-			an := analyseInto(&store[k], occs[k].Text, reading, cfg.Limits.limits())
-			chunk.Records[k] = Record{Occ: &occs[k], an: an}
-		})
+		chunk := &Result{Name: name, Content: content, Kind: kind, cfg: &cfg, noFixes: a.noFixes}
+		parity := stores.label(chunk, occs)
 		for k := range chunk.Records {
 			chunk.diags = append(chunk.diags, chunk.recordFindings(k, chunk.Records[k].an.get())...)
 		}
 		chunks <- streamed{chunk, parity}
 		records += len(occs)
-		parity ^= 1
 	})
 	close(chunks)
 	closed = true
@@ -221,6 +211,37 @@ func (s chunkStorage) grow(n int) chunkStorage {
 	}
 	return s
 }
+
+// stageStores are the two storages the chunks of a two-stage reading
+// (Stream, partitions.relatePart) alternate between: while the second
+// stage handles a chunk read into one, the first reads the next into
+// the other, which the chunk before the last released when the second
+// stage was done with it (the chunks are handed over unbuffered).
+type stageStores struct {
+	stores [2]chunkStorage
+	next   int // the storage the next chunk is read into
+}
+
+// label reads and labels the records of occs, on all cores, into the
+// next storage, as chunk's Records, and returns that storage's parity
+// for release.
+func (s *stageStores) label(chunk *Result, occs []find.Occurrence) int {
+	parity := s.next
+	s.next ^= 1
+	store := s.stores[parity].grow(len(occs))
+	s.stores[parity] = store
+	reading, lim := chunk.cfg.Reading.notation(), chunk.cfg.Limits.limits()
+	chunk.Records = make([]Record, len(occs))
+	parallel(len(occs), func(k int) {
+		an := analyseInto(&store[k], occs[k].Text, reading, lim)
+		chunk.Records[k] = Record{Occ: &occs[k], an: an}
+	})
+	return parity
+}
+
+// release is called when the second stage is done with the records of a
+// chunk read into the storage of parity.
+func (s *stageStores) release(parity int, recs []Record) { s.stores[parity].release(recs) }
 
 // release is called when the records of a chunk are done with: it
 // drops the storage of positions that read a large molecule.

@@ -2,6 +2,7 @@ package find
 
 import (
 	"bytes"
+	"reflect"
 
 	"stereoline/notation"
 )
@@ -97,6 +98,60 @@ func headerFrom(src []byte, from int, lay Layout) bool {
 		return start >= from && headerLine(line, lay)
 	}
 	return false
+}
+
+// SameMoved reports whether o is p moved by delta host bytes (Shift):
+// every field equal, spans and offsets delta apart, host findings and
+// fixes included.
+func (o *Occurrence) SameMoved(p *Occurrence, delta int) bool {
+	if o.Text != p.Text || o.Title != p.Title || o.Kind != p.Kind || o.Construct != p.Construct ||
+		o.Reason != p.Reason || o.Dialect != p.Dialect || o.Cell != p.Cell || o.Field != p.Field ||
+		o.Span != shiftSpan(p.Span, delta) || o.group != p.group ||
+		len(o.Diagnostics) != len(p.Diagnostics) || len(o.Fixes) != len(p.Fixes) ||
+		o.m.size != p.m.size || len(o.m.runs) != len(p.m.runs) || (o.m.runs == nil) != (p.m.runs == nil) {
+		return false
+	}
+	for i, e := range o.Diagnostics {
+		f := p.Diagnostics[i]
+		if e.Code != f.Code || e.Severity != f.Severity || e.Msg != f.Msg || e.Span != shiftSpan(f.Span, delta) ||
+			len(e.Related) != len(f.Related) {
+			return false
+		}
+		for k, r := range e.Related {
+			if r.Msg != f.Related[k].Msg || r.Span != shiftSpan(f.Related[k].Span, delta) {
+				return false
+			}
+		}
+	}
+	for i, fs := range o.Fixes {
+		if len(fs) != len(p.Fixes[i]) {
+			return false
+		}
+		for k, x := range fs {
+			y := p.Fixes[i][k]
+			if x.Title != y.Title || x.NewText != y.NewText || x.Span != shiftSpan(y.Span, delta) {
+				return false
+			}
+		}
+	}
+	// the host's encoder: none, or the same function (those of the
+	// kinds compared, lists, tables and JSON, are functions without
+	// state)
+	if (o.encode == nil) != (p.encode == nil) ||
+		o.encode != nil && reflect.ValueOf(o.encode).Pointer() != reflect.ValueOf(p.encode).Pointer() {
+		return false
+	}
+	if o.m.runs == nil {
+		return o.m.base == p.m.base+delta
+	}
+	for i, r := range o.m.runs {
+		q := p.m.runs[i]
+		q.h += delta
+		if r != q {
+			return false
+		}
+	}
+	return true
 }
 
 // Shift moves an occurrence by delta host bytes, as when the host text

@@ -103,6 +103,11 @@ type Result struct {
 	// records lie (the document, or one member of it), once an edit was
 	// read apart (Reanalyze)
 	jsonArray *find.JSONArray
+	// foundWhole: Reanalyze found this version's records whole, its
+	// edit could not be read apart (rereadWhole); reread is how many
+	// records it read again
+	foundWhole bool
+	reread     int
 }
 
 // Record is one notation occurrence with its analysis. A record keeps

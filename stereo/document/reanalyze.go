@@ -24,9 +24,12 @@ import (
 // JSON Lines document and a JSON array of records it reads only the
 // lines the change touched (for an array, the whole records on them)
 // and relates again only the records whose constitution the change
-// touched; other documents, and lists with pragmas or whose layout the
-// change alters (find.FindListLines, FindTableLines, FindJSONEdit), are
-// analysed whole.
+// touched. Where the lines cannot be read apart (a layout or header the
+// edit may change, a JSON document that does not read, YAML and SD
+// files: find.FindListLines, FindTableLines, FindJSONEdit), the records
+// are found whole but only those that changed are read and related
+// again (rereadWhole). Other documents, and lists with pragmas or query
+// patterns, are analysed whole.
 func (a *Analyzer) Reanalyze(prev *Result, name, languageID string, content []byte) *Result {
 	if next := a.reanalyzeList(prev, name, languageID, content); next != nil {
 		return next
@@ -34,12 +37,13 @@ func (a *Analyzer) Reanalyze(prev *Result, name, languageID string, content []by
 	return a.Analyze(name, languageID, content)
 }
 
-// reanalyzeList is Reanalyze for a list, a table or JSON Lines, or nil
-// when the document must be analysed whole.
+// reanalyzeList is Reanalyze for a document whose records are related
+// (a list, a table, JSON, YAML, an SD file), or nil when the document
+// must be analysed whole.
 func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content []byte) *Result {
 	kind := a.kindOf(name, languageID)
 	if prev == nil || !prev.related || prev.rel == nil || prev.own == nil || len(prev.Queries) > 0 ||
-		kind != prev.Kind || kind != find.KindList && kind != find.KindCSV && kind != find.KindTSV && kind != find.KindJSON ||
+		kind != prev.Kind || !relatedKinds[kind] ||
 		bytes.Contains(prev.Content, []byte("stereoline:")) {
 		return nil
 	}
@@ -55,6 +59,7 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	var occs []find.Occurrence
 	var ok bool
 	var array *find.JSONArray
+	edit := [3]int{from, oldTo, newTo}
 	switch kind {
 	case find.KindCSV:
 		occs, ok = find.FindTableLines(old, content, ',', cfg.findConfig(name), from, newTo)
@@ -63,11 +68,24 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	case find.KindJSON:
 		// a record of a pretty-printed array is read again whole
 		occs, from, oldTo, newTo, array, ok = find.FindJSONEdit(old, content, cfg.findConfig(name), from, oldTo, newTo, prev.jsonArray)
-	default:
+	case find.KindList:
 		occs, ok = find.FindListLines(old, content, cfg.findConfig(name), from, newTo)
+	default:
+		// YAML and SD files are not read apart by lines: found whole below
 	}
-	if !ok {
-		return nil
+	delta := len(content) - len(old)
+	var i0, i1 int
+	if ok {
+		// prev's records [i0, i1) lie on the changed lines.
+		i0 = sort.Search(len(prev.Records), func(i int) bool { return prev.Records[i].Occ.Span.Start >= from })
+		i1 = sort.Search(len(prev.Records), func(i int) bool { return prev.Records[i].Occ.Span.Start >= oldTo })
+	} else {
+		// The lines cannot be read apart (a document that does not read
+		// as JSON, a layout or a table header the edit may change): the
+		// whole is found again, and only the records that differ from
+		// prev's are read and related again.
+		from, oldTo, newTo = edit[0], edit[1], edit[2]
+		occs, i0, i1 = rereadWhole(prev, content, kind, cfg.findConfig(name), delta)
 	}
 	for k := range occs {
 		if occs[k].Dialect == find.DialectSMARTS {
@@ -75,14 +93,11 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 		}
 	}
 	occs = append([]find.Occurrence(nil), occs...) // records point into it
-	delta := len(content) - len(old)
-	// prev's records [i0, i1) lie on the changed lines.
-	i0 := sort.Search(len(prev.Records), func(i int) bool { return prev.Records[i].Occ.Span.Start >= from })
-	i1 := sort.Search(len(prev.Records), func(i int) bool { return prev.Records[i].Occ.Span.Start >= oldTo })
 	dn := len(occs) - (i1 - i0)
 	n := len(prev.Records) + dn
 
-	next := &Result{Name: name, Content: content, Kind: prev.Kind, cfg: &cfg, related: true, jsonArray: array}
+	next := &Result{Name: name, Content: content, Kind: prev.Kind, cfg: &cfg, related: true, jsonArray: array,
+		foundWhole: !ok, reread: len(occs)}
 	next.Records = make([]Record, n)
 	next.own = make([][]Diagnostic, n)
 	next.ownAt = make([]int, n)
@@ -138,6 +153,26 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	next.relateAgain(prev, prevKeys, i0, i1, dn, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
 	next.assembleFrom(prev, i0, i1, dn, delta)
 	return next
+}
+
+// rereadWhole finds the records of content whole, as Analyze does, and
+// returns those that differ from prev's, which are prev's [i0, i1): the
+// records before them are prev's as they were, those after them prev's
+// moved by delta bytes (find.Occurrence.SameMoved). The records compared
+// are found in the same order both times, so a record that is the same
+// text at the same place is the same record whichever edit made it so.
+func rereadWhole(prev *Result, content []byte, kind find.Kind, fcfg find.Config, delta int) (occs []find.Occurrence, i0, i1 int) {
+	all := find.FindKind(kind, content, fcfg)
+	n, m := len(prev.Records), len(all)
+	p := 0
+	for p < n && p < m && all[p].SameMoved(prev.Records[p].Occ, 0) {
+		p++
+	}
+	s := 0
+	for s < n-p && s < m-p && all[m-1-s].SameMoved(prev.Records[n-1-s].Occ, delta) {
+		s++
+	}
+	return all[p : m-s], p, n - s
 }
 
 // occBlock is the number of occurrences in one block of moved ones: a

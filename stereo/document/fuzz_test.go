@@ -51,3 +51,49 @@ func FuzzStreamInParts(f *testing.F) {
 		}
 	})
 }
+
+// FuzzReanalyze checks that an edit of a document whose records are
+// related, analysed from the last version's result (read apart by lines,
+// or found whole and compared, rereadWhole), gives the records and
+// findings a fresh analysis of the edited text gives: any text of any
+// such kind, any one edit, then the edit taken back.
+func FuzzReanalyze(f *testing.F) {
+	for _, seed := range []struct {
+		kind uint8
+		text string
+	}{
+		// alanine and its mirror image, E and Z 2-butene, lactic acid
+		// and its racemate (common practice)
+		{0, "N[C@@H](C)C(=O)O a\nN[C@H](C)C(=O)O b\nN[C@@H](C)C(=O)O c\n"},
+		{1, "smiles,name\nF[C@H](Cl)Br,x\nF[C@@H](Cl)Br,y\nF[C@H](Cl)Br,z\n"},
+		{2, "[\n  {\"smiles\": \"C/C=C/C\", \"name\": \"e\"},\n  {\"smiles\": \"C/C=C\\\\C\", \"name\": \"z\"}\n]\n"},
+		{3, "compounds:\n  - name: a\n    smiles: \"C[C@H](O)C(=O)O\"\n  - name: b\n    smiles: \"C[C@@H](O)C(=O)O\"\n"},
+		{4, "a\n  demo\n\n  0  0  0  0  0  0  0  0  0  0999 V2000\nM  END\n> <SMILES>\nN[C@@H](C)C(=O)O\n\n$$$$\n"},
+		{5, "{\"smiles\": \"F/C=C/F\"}\n{\"smiles\": \"F/C=C\\\\F\"}\n"},
+	} {
+		f.Add(seed.kind, seed.text, uint16(10), uint8(3), "@")
+	}
+	names := []string{"list.smi", "table.csv", "data.json", "data.yaml", "set.sdf", "lines.jsonl", "table.tsv"}
+	f.Fuzz(func(t *testing.T, kind uint8, text string, at uint16, cut uint8, insert string) {
+		if len(text) > 4000 || len(insert) > 200 {
+			return
+		}
+		name := names[int(kind)%len(names)]
+		from := int(at) % (len(text) + 1)
+		to := min(len(text), from+int(cut%32))
+		edited := text[:from] + insert + text[to:]
+		a := NewAnalyzer(DefaultConfig())
+		prev := a.Analyze(name, "", []byte(text))
+		for _, step := range []struct{ what, text string }{{"the edit", edited}, {"the edit taken back", text}} {
+			next := a.reanalyzeList(prev, name, "", []byte(step.text))
+			if next == nil {
+				next = a.Analyze(name, "", []byte(step.text))
+			}
+			compareResults(t, name+", "+step.what, next, NewAnalyzer(DefaultConfig()).Analyze(name, "", []byte(step.text)))
+			if t.Failed() {
+				return
+			}
+			prev = next
+		}
+	})
+}

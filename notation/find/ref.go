@@ -1,8 +1,10 @@
 package find
 
 import (
+	"bytes"
 	"encoding/binary"
 	"fmt"
+	"reflect"
 
 	"stereoline/notation"
 )
@@ -23,27 +25,39 @@ type Ref struct {
 	construct       Construct
 	reason          Reason
 	dialect         Dialect
+	// backslashes: the host doubles a backslash (a YAML double-quoted
+	// scalar): the encoder is doubleBackslashes
+	backslashes bool
 }
+
+// titleWindow is how far from its record a title is looked for in the
+// content when it is not on the record's line: a name member of the
+// same YAML mapping or JSON object, a few lines away.
+const titleWindow = 4096
 
 // RefOf returns the compact stand-in for o, found in content. ok is false
 // when o cannot be rebuilt from content alone: its text is not its host
 // bytes as they stand (escapes, pieces), it carries host findings, its
-// title is not a piece of its line, or the content is too long for the
-// offsets.
+// title is not a piece of the content near it, or the content is too
+// long for the offsets.
 func RefOf(content []byte, o *Occurrence) (r Ref, ok bool) {
 	s := o.Span
+	backslashes := o.encode != nil && o.Kind == KindYAML && sameFunc(o.encode, doubleBackslashes)
 	if len(content) >= 1<<32-1 || s.Start < 0 || s.End > len(content) || s.Start > s.End ||
 		o.m.runs != nil || o.m.base != s.Start || o.m.size != len(o.Text) ||
-		string(content[s.Start:s.End]) != o.Text ||
-		len(o.Diagnostics) > 0 || o.Cell != 0 || o.group != (groupMark{}) || o.encode != nil && !isJSONValue(o) {
+		string(content[s.Start:s.End]) != o.Text || len(o.Diagnostics) > 0 || o.Cell != 0 ||
+		o.group != (groupMark{}) || o.encode != nil && !isJSONValue(o) && !backslashes || o.Dialect > 0x7f {
 		return Ref{}, false
 	}
-	r = Ref{start: uint32(s.Start), end: uint32(s.End), field: o.Field, kind: o.Kind, construct: o.Construct, reason: o.Reason, dialect: o.Dialect}
+	r = Ref{start: uint32(s.Start), end: uint32(s.End), field: o.Field, kind: o.Kind, construct: o.Construct,
+		reason: o.Reason, dialect: o.Dialect, backslashes: backslashes}
 	if o.Title == "" {
 		return r, true
 	}
 	// The title is on the record's line: after it (the usual place),
-	// else before it. Any piece of the line that reads the same will do.
+	// else before it; else (a name member of the same YAML mapping or
+	// JSON object) on the lines around. Any piece of the content that
+	// reads the same will do.
 	lineStart, lineEnd := s.Start, s.End
 	for lineStart > 0 && content[lineStart-1] != '\n' {
 		lineStart--
@@ -51,16 +65,31 @@ func RefOf(content []byte, o *Occurrence) (r Ref, ok bool) {
 	for lineEnd < len(content) && content[lineEnd] != '\n' {
 		lineEnd++
 	}
-	n := len(o.Title)
-	for _, span := range [2][2]int{{s.End, lineEnd}, {lineStart, s.Start}} {
-		for p := span[0]; p+n <= span[1]; p++ {
-			if string(content[p:p+n]) == o.Title {
-				r.title, r.titleEnd = uint32(p), uint32(p+n)
-				return r, true
-			}
-		}
+	title := []byte(o.Title)
+	if k := bytes.Index(content[s.End:lineEnd], title); k >= 0 {
+		return r.titled(s.End+k, len(title)), true
+	}
+	if k := bytes.LastIndex(content[lineStart:s.Start], title); k >= 0 {
+		return r.titled(lineStart+k, len(title)), true
+	}
+	if k := bytes.LastIndex(content[max(0, s.Start-titleWindow):s.Start], title); k >= 0 {
+		return r.titled(max(0, s.Start-titleWindow)+k, len(title)), true
+	}
+	if k := bytes.Index(content[s.End:min(len(content), s.End+titleWindow)], title); k >= 0 {
+		return r.titled(s.End+k, len(title)), true
 	}
 	return Ref{}, false
+}
+
+// titled is r with its title at content[at:at+n].
+func (r Ref) titled(at, n int) Ref {
+	r.title, r.titleEnd = uint32(at), uint32(at+n)
+	return r
+}
+
+// sameFunc reports whether f and g are the same function (of no state).
+func sameFunc(f, g func(string) string) bool {
+	return reflect.ValueOf(f).Pointer() == reflect.ValueOf(g).Pointer()
 }
 
 // Occurrence rebuilds the occurrence from the content RefOf was given.
@@ -81,6 +110,9 @@ func (r Ref) Occurrence(content []byte) Occurrence {
 	if isJSONValue(&o) {
 		o.encode = jsonEscape
 	}
+	if r.backslashes {
+		o.encode = doubleBackslashes
+	}
 	return o
 }
 
@@ -100,7 +132,11 @@ func (r Ref) AppendBinary(b []byte) ([]byte, error) {
 	for _, v := range [...]uint32{r.start, r.end, r.title, r.titleEnd, r.field} {
 		b = binary.LittleEndian.AppendUint32(b, v)
 	}
-	return append(b, byte(r.kind), byte(r.construct), byte(r.reason), byte(r.dialect)), nil
+	last := byte(r.dialect)
+	if r.backslashes {
+		last |= 0x80
+	}
+	return append(b, byte(r.kind), byte(r.construct), byte(r.reason), last), nil
 }
 
 // UnmarshalBinary reads a Ref that AppendBinary wrote.
@@ -110,6 +146,7 @@ func (r *Ref) UnmarshalBinary(b []byte) error {
 	}
 	u := func(k int) uint32 { return binary.LittleEndian.Uint32(b[4*k:]) }
 	*r = Ref{start: u(0), end: u(1), title: u(2), titleEnd: u(3), field: u(4),
-		kind: Kind(b[20]), construct: Construct(b[21]), reason: Reason(b[22]), dialect: Dialect(b[23])}
+		kind: Kind(b[20]), construct: Construct(b[21]), reason: Reason(b[22]), dialect: Dialect(b[23] & 0x7f),
+		backslashes: b[23]&0x80 != 0}
 	return nil
 }

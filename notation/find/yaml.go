@@ -24,8 +24,21 @@ var yamlRules = &escapeRules{
 // scalars only when unmistakably so. '#' comments may carry pragmas.
 func findYAML(src []byte, cfg *Config) []Occurrence {
 	yf := &yamlFinder{src: src, cfg: cfg, nm: newNamer(cfg), prag: newPragmas(src)}
-	yf.run()
-	return yf.out
+	yf.walk()
+	yf.flush(true)
+	return yf.done
+}
+
+// findYAMLChunks is findYAML handing its occurrences to each n at a
+// time, as soon as their titles are known: a long document's are not
+// all held (FindChunks).
+func findYAMLChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) {
+	yf := &yamlFinder{src: src, cfg: cfg, nm: newNamer(cfg), prag: newPragmas(src), each: each, chunk: max(n, 1)}
+	yf.walk()
+	yf.flush(true)
+	if len(yf.done) > 0 {
+		each(yf.done)
+	}
 }
 
 type yamlFinder struct {
@@ -48,12 +61,18 @@ type yamlFinder struct {
 	// each occurrence: a label for a record nothing else names
 	own    string
 	outOwn []string
+	// done are the occurrences whose titles are known (flush), in
+	// order; each, when not nil, is handed them chunk at a time
+	done  []Occurrence
+	each  func([]Occurrence)
+	chunk int
 }
 
 type yamlTitle struct {
 	text   string
 	rank   int
-	parent int // the mapping it is nested in, -1 for none
+	parent int  // the mapping it is nested in, -1 for none
+	closed bool // no more lines of it come: its title is final
 }
 
 type yamlLevel struct {
@@ -63,26 +82,86 @@ type yamlLevel struct {
 	mapping int // the mapping the level's lines are members of, -1 for none
 }
 
-func (yf *yamlFinder) run() {
-	yf.walk()
-	for k := range yf.out {
-		if yf.out[k].Title != "" {
-			continue // a block scalar's record titled on its line
+// flush titles the occurrences found so far whose titles are known, in
+// order, and moves them to done (handing done out when it holds a
+// chunk): an occurrence is titled by the innermost mapping around it
+// that has a title, and that is known once each mapping from its own up
+// to the first with a title is closed. At the end (all), every mapping
+// is closed. Once no occurrence waits, the mappings closed are
+// forgotten.
+func (yf *yamlFinder) flush(all bool) {
+	k := 0
+	for ; k < len(yf.out); k++ {
+		o := &yf.out[k]
+		if o.Title != "" {
+			// a block scalar's record titled on its line
+			yf.ready(o)
+			continue
 		}
-		// the innermost mapping around it that has a title
-		for m := yf.outMaps[k]; m >= 0; m = yf.titles[m].parent {
-			if yf.titles[m].rank > 0 {
-				yf.out[k].Title = yf.titles[m].text
-				break
-			}
+		m := yf.outMaps[k]
+		for ; m >= 0 && (all || yf.titles[m].closed) && yf.titles[m].rank == 0; m = yf.titles[m].parent {
 		}
-		// else the key of a record taken by its content labels it
-		// ("lead: C[C@@H](O)c1ccccc1"); a key that names the notation
-		// does not (the record was taken by that name)
-		if yf.out[k].Title == "" && yf.out[k].Reason == ReasonGuess && labelKey(yf.outOwn[k]) {
-			yf.out[k].Title = yf.outOwn[k]
+		if m >= 0 && !all && !yf.titles[m].closed {
+			break // a mapping around it is still being read
 		}
+		if m >= 0 {
+			o.Title = yf.titles[m].text
+		} else if o.Reason == ReasonGuess && labelKey(yf.outOwn[k]) {
+			// else the key of a record taken by its content labels it
+			// ("lead: C[C@@H](O)c1ccccc1"); a key that names the notation
+			// does not (the record was taken by that name)
+			o.Title = yf.outOwn[k]
+		}
+		yf.ready(o)
 	}
+	if k == 0 {
+		return
+	}
+	n := copy(yf.out, yf.out[k:])
+	clear(yf.out[n:])
+	yf.out = yf.out[:n]
+	yf.outMaps = yf.outMaps[:copy(yf.outMaps, yf.outMaps[k:])]
+	yf.outOwn = yf.outOwn[:copy(yf.outOwn, yf.outOwn[k:])]
+}
+
+// ready moves a titled occurrence to done, handing done out when it
+// holds a chunk.
+func (yf *yamlFinder) ready(o *Occurrence) {
+	yf.done = append(yf.done, *o)
+	if yf.each != nil && len(yf.done) == yf.chunk {
+		yf.each(yf.done)
+		yf.done = make([]Occurrence, 0, yf.chunk)
+	}
+}
+
+// close marks the mappings of levels closed.
+func (yf *yamlFinder) close(levels []yamlLevel) {
+	for _, l := range levels {
+		yf.titles[l.mapping].closed = true
+	}
+}
+
+// forget renumbers the mappings when no occurrence waits for a title
+// and many are closed: only the open ones, maps, are kept (a mapping's
+// parent is open while it is).
+func (yf *yamlFinder) forget(maps []yamlLevel) {
+	if len(yf.out) > 0 || len(yf.titles) < 4096+2*len(maps) {
+		return
+	}
+	kept := make([]yamlTitle, 0, max(64, 2*len(maps)))
+	renumber := make(map[int]int, len(maps))
+	for i := range maps {
+		t := yf.titles[maps[i].mapping]
+		if p, ok := renumber[t.parent]; ok {
+			t.parent = p
+		} else {
+			t.parent = -1
+		}
+		renumber[maps[i].mapping] = len(kept)
+		maps[i].mapping = len(kept)
+		kept = append(kept, t)
+	}
+	yf.titles = kept
 }
 
 // labelKey reports whether a key can label the record that is its value:
@@ -137,6 +216,7 @@ func (yf *yamlFinder) walk() {
 			body = bytes.TrimRight(body[:c], " \t")
 		}
 		if bytes.HasPrefix(body, []byte("---")) || bytes.HasPrefix(body, []byte("...")) {
+			yf.close(maps)
 			stack, maps = stack[:0], maps[:0] // a new document
 			continue
 		}
@@ -147,8 +227,13 @@ func (yf *yamlFinder) walk() {
 			stack = stack[:len(stack)-1]
 		}
 		for len(maps) > 0 && maps[len(maps)-1].indent > indent {
+			yf.close(maps[len(maps)-1:])
 			maps = maps[:len(maps)-1]
 		}
+		if len(yf.out) > 0 {
+			yf.flush(false)
+		}
+		yf.forget(maps)
 		var w wants
 		parentKey := ""
 		if len(stack) > 0 {
@@ -164,7 +249,11 @@ func (yf *yamlFinder) walk() {
 			}
 			stack = append(stack, yamlLevel{indent: indent, w: w, key: parentKey})
 			for len(maps) > 0 && maps[len(maps)-1].indent >= indent {
+				yf.close(maps[len(maps)-1:])
 				maps = maps[:len(maps)-1]
+			}
+			if len(yf.out) > 0 {
+				yf.flush(false)
 			}
 			indent += k
 			body, at = body[k:], at+k

@@ -87,7 +87,23 @@ func chunkCases() map[string]string {
 		}
 	}
 	yml.WriteString("  title: the batch\n---\nsmiles: F/C=C/F\nname: second\n")
+	// an SD file: titles from an id item or the name line, records
+	// with no structure item, a pattern item
+	var sdf strings.Builder
+	mol := "\n     demo          2D\n\n  0  0  0  0  0  0  0  0  0  0999 V2000\nM  END\n"
+	for i := range 900 {
+		rec := []string{"N[C@@H](C)C(=O)O", "F/C=C/F", "C1CC[C@H](O)CC1", "c1ccccc1O"}[i%4]
+		fmt.Fprintf(&sdf, "AX-%d%s", i, mol)
+		switch i % 3 {
+		case 0:
+			fmt.Fprintf(&sdf, ">  <SMILES>\n%s\n\n>  <Compound ID>\nLOT-%d\n\n", rec, i)
+		case 1:
+			fmt.Fprintf(&sdf, "> <Canonical_SMILES>\n%s\n\n> <smarts_query>\n[#6;R]\n\n> <SMILES>\nCCO\n\n", rec)
+		}
+		sdf.WriteString("$$$$\n")
+	}
 	return map[string]string{
+		"set.sdf":      sdf.String(),
 		"set.yaml":     yml.String(),
 		"nohead.csv":   nohead.String(),
 		"nohead.tsv":   strings.ReplaceAll(nohead.String(), ",", "\t"),
@@ -214,7 +230,7 @@ func FuzzFindChunks(f *testing.F) {
 		// JSON Lines read a few lines at a time, arrays element by element
 		defer func(w, a int) { jsonLineWindow, streamFrom = w, a }(jsonLineWindow, streamFrom)
 		jsonLineWindow, streamFrom = 1+int(size)%200, 0
-		kinds := []Kind{KindList, KindCSV, KindTSV, KindPython, KindJSON, KindYAML}
+		kinds := []Kind{KindList, KindCSV, KindTSV, KindPython, KindJSON, KindYAML, KindSDF}
 		k := kinds[int(kind)%len(kinds)]
 		n := 1 + int(size)%64
 		want := FindKind(k, src, Config{})

@@ -65,6 +65,11 @@ func FindChunks(kind Kind, content []byte, cfg Config, n int, each func([]Occurr
 		kind == KindTSV && findTableChunks(content, '\t', &cfg, n, each)) {
 		return
 	}
+	if kind == KindSDF {
+		// a record's occurrences handed out as soon as it ends
+		findSDFChunks(content, &cfg, max(n, 1), each)
+		return
+	}
 	if kind == KindYAML {
 		// occurrences handed out as their titles are known
 		findYAMLChunks(content, &cfg, n, each)

@@ -17,7 +17,12 @@ import (
 // line; the molfile itself is not line notation and is not read. A
 // record's title is its item named as a table's title column (ID, name),
 // else the molfile's name line.
-func findSDF(src []byte, cfg *Config) []Occurrence {
+func findSDF(src []byte, cfg *Config) []Occurrence { return findSDFChunks(src, cfg, 0, nil) }
+
+// findSDFChunks is findSDF handing its occurrences to each n at a time,
+// a record's as soon as it ends, when each is not nil (FindChunks); it
+// returns them when each is nil.
+func findSDFChunks(src []byte, cfg *Config, n int, each func([]Occurrence)) []Occurrence {
 	nm := newNamer(cfg)
 	var out []Occurrence
 	first := 0           // the first occurrence of the current record
@@ -35,6 +40,14 @@ func findSDF(src []byte, cfg *Config) []Occurrence {
 		}
 		first, name, title, rank = len(out), "", "", 0
 		atStart, inItem = true, false
+		if each != nil && len(out) >= n {
+			k := 0
+			for ; len(out)-k >= n; k += n {
+				each(out[k : k+n : k+n])
+			}
+			out = append(make([]Occurrence, 0, n), out[k:]...)
+			first = len(out)
+		}
 	}
 	for start := skipBOM(src); start < len(src); {
 		line, next := nextLine(src, start)
@@ -91,5 +104,9 @@ func findSDF(src []byte, cfg *Config) []Occurrence {
 		}
 	}
 	finish()
+	if each != nil {
+		chunks(out, n, each)
+		return nil
+	}
 	return out
 }

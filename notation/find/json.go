@@ -462,9 +462,34 @@ func (jf *jsonFinder) walkMemberArray(arr *JSONArray) {
 	p.blank()
 	v := p.value(0) // the members' spans only: the document reads (jsonRecordArray)
 	best := recordMember(v)
+	jf.walkObject(v, wants{}, false, func(k int, w wants, other bool) {
+		if k != best {
+			mp := &jsonParser{src: jf.src[:v.vals[k].span.End], i: v.vals[k].span.Start}
+			jf.walk(mp.value(1), w, other)
+			return
+		}
+		// as walk visits an array
+		jf.own = ""
+		for _, e := range arr.elems {
+			ep := &jsonParser{src: jf.src[:e.End], i: e.Start}
+			jf.walk(ep.value(arr.ctx.depth()), w, other)
+		}
+	})
+}
+
+// walkObject visits the members of the object v as walk does, member
+// walking the value of the k-th with what its key says (w, other), the
+// object's title and the key set.
+func (jf *jsonFinder) walkObject(v jsonValue, w wants, other bool, member func(k int, w wants, other bool)) {
 	if t := jf.objectTitle(v); t != "" {
+		outer := jf.title
 		jf.title = t
+		defer func() { jf.title = outer }()
 	}
+	// beside a member named as notation, a name, title or id member
+	// is the record's title (objectTitle), not a record of its own,
+	// as a table's title column is not read beside its notation
+	// column: {"name": "c1ccccc1O", "smiles": "Oc1ccccc1"}
 	named := false
 	for k := range v.keys {
 		if jf.keyInfo(v.keys[k]).w.named() {
@@ -479,21 +504,13 @@ func (jf *jsonFinder) walkMemberArray(arr *JSONArray) {
 		}
 		child := ki.w
 		if !ki.w.named() && !ki.aboutKey {
-			child = wants{}
+			child = w
 		}
+		outer, outerOwn := jf.key, jf.own
 		jf.key, jf.own = ki.text, ki.text
-		if k != best {
-			mp := &jsonParser{src: jf.src[:v.vals[k].span.End], i: v.vals[k].span.Start}
-			jf.walk(mp.value(1), child, ki.about)
-			continue
-		}
-		jf.own = ""
-		for _, e := range arr.elems {
-			ep := &jsonParser{src: jf.src[:e.End], i: e.Start}
-			jf.walk(ep.value(arr.ctx.depth()), child, ki.about)
-		}
+		member(k, child, other || ki.about)
+		jf.key, jf.own = outer, outerOwn
 	}
-	jf.key, jf.own, jf.title = "", "", ""
 }
 
 // blankOrSeparator skips blanks and the record separators (0x1E) of a
@@ -997,37 +1014,7 @@ func (jf *jsonFinder) objectTitle(v jsonValue) string {
 func (jf *jsonFinder) walk(v jsonValue, w wants, other bool) {
 	switch v.kind {
 	case 'o':
-		if t := jf.objectTitle(v); t != "" {
-			outer := jf.title
-			jf.title = t
-			defer func() { jf.title = outer }()
-		}
-		// beside a member named as notation, a name, title or id member
-		// is the record's title (objectTitle), not a record of its own,
-		// as a table's title column is not read beside its notation
-		// column: {"name": "c1ccccc1O", "smiles": "Oc1ccccc1"}
-		named := false
-		for k := range v.keys {
-			if jf.keyInfo(v.keys[k]).w.named() {
-				named = true
-				break
-			}
-		}
-		for k := range v.vals {
-			ki := jf.keyInfo(v.keys[k])
-			key, kw, about := ki.text, ki.w, ki.about
-			if named && ki.title > 0 && !kw.named() && v.vals[k].kind == 's' {
-				continue
-			}
-			child := kw
-			if !kw.named() && !ki.aboutKey {
-				child = w
-			}
-			outer, outerOwn := jf.key, jf.own
-			jf.key, jf.own = key, key
-			jf.walk(v.vals[k], child, other || about)
-			jf.key, jf.own = outer, outerOwn
-		}
+		jf.walkObject(v, w, other, func(k int, w wants, other bool) { jf.walk(v.vals[k], w, other) })
 	case 'a':
 		outerOwn := jf.own
 		jf.own = ""

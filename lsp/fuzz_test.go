@@ -57,9 +57,9 @@ var fuzzTexts = []string{
 	"",
 }
 
-var fuzzLanguages = []string{"smiles", "python", "csv", "markdown", "json", "plaintext", "", "jupyter"}
+var fuzzLanguages = []string{"smiles", "python", "csv", "markdown", "json", "plaintext", "", "jupyter", "yaml"}
 
-var fuzzURIs = []string{"file:///fuzz/a.smi", "file:///fuzz/b.py", "file:///fuzz/c.md"}
+var fuzzURIs = []string{"file:///fuzz/a.smi", "file:///fuzz/b.py", "file:///fuzz/c.md", "file:///fuzz/d.yaml", "file:///fuzz/e.sdf", "file:///fuzz/f.json"}
 
 // fuzzSession is a client written by hand over a pipe, so that it can
 // send any bytes and count every reply.

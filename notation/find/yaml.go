@@ -66,6 +66,7 @@ type yamlFinder struct {
 	done  []Occurrence
 	each  func([]Occurrence)
 	chunk int
+	head  int // out[:head] were moved to done (flush)
 }
 
 type yamlTitle struct {
@@ -87,10 +88,11 @@ type yamlLevel struct {
 // chunk): an occurrence is titled by the innermost mapping around it
 // that has a title, and that is known once each mapping from its own up
 // to the first with a title is closed. At the end (all), every mapping
-// is closed. Once no occurrence waits, the mappings closed are
-// forgotten.
+// is closed. The occurrences before yf.head were moved; the rest is
+// moved down once it is at most half of out, so each is copied a bounded
+// number of times.
 func (yf *yamlFinder) flush(all bool) {
-	k := 0
+	k := yf.head
 	for ; k < len(yf.out); k++ {
 		o := &yf.out[k]
 		if o.Title != "" {
@@ -114,7 +116,8 @@ func (yf *yamlFinder) flush(all bool) {
 		}
 		yf.ready(o)
 	}
-	if k == 0 {
+	yf.head = k
+	if k < 1024 && k < len(yf.out) || 2*k < len(yf.out) {
 		return
 	}
 	n := copy(yf.out, yf.out[k:])
@@ -122,7 +125,11 @@ func (yf *yamlFinder) flush(all bool) {
 	yf.out = yf.out[:n]
 	yf.outMaps = yf.outMaps[:copy(yf.outMaps, yf.outMaps[k:])]
 	yf.outOwn = yf.outOwn[:copy(yf.outOwn, yf.outOwn[k:])]
+	yf.head = 0
 }
+
+// waiting reports whether occurrences wait for their titles.
+func (yf *yamlFinder) waiting() bool { return yf.head < len(yf.out) }
 
 // ready moves a titled occurrence to done, handing done out when it
 // holds a chunk.
@@ -145,7 +152,7 @@ func (yf *yamlFinder) close(levels []yamlLevel) {
 // and many are closed: only the open ones, maps, are kept (a mapping's
 // parent is open while it is).
 func (yf *yamlFinder) forget(maps []yamlLevel) {
-	if len(yf.out) > 0 || len(yf.titles) < 4096+2*len(maps) {
+	if yf.waiting() || len(yf.titles) < 4096+2*len(maps) {
 		return
 	}
 	kept := make([]yamlTitle, 0, max(64, 2*len(maps)))
@@ -230,7 +237,7 @@ func (yf *yamlFinder) walk() {
 			yf.close(maps[len(maps)-1:])
 			maps = maps[:len(maps)-1]
 		}
-		if len(yf.out) > 0 {
+		if yf.waiting() {
 			yf.flush(false)
 		}
 		yf.forget(maps)
@@ -252,7 +259,7 @@ func (yf *yamlFinder) walk() {
 				yf.close(maps[len(maps)-1:])
 				maps = maps[:len(maps)-1]
 			}
-			if len(yf.out) > 0 {
+			if yf.waiting() {
 				yf.flush(false)
 			}
 			indent += k

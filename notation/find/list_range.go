@@ -2,7 +2,6 @@ package find
 
 import (
 	"bytes"
-	"reflect"
 
 	"stereoline/notation"
 )
@@ -135,10 +134,9 @@ func (o *Occurrence) SameMoved(p *Occurrence, delta int) bool {
 		}
 	}
 	// the host's encoder: none, or the same function (those of the
-	// kinds compared, lists, tables and JSON, are functions without
-	// state)
-	if (o.encode == nil) != (p.encode == nil) ||
-		o.encode != nil && reflect.ValueOf(o.encode).Pointer() != reflect.ValueOf(p.encode).Pointer() {
+	// kinds compared, lists, tables, JSON, YAML and SD files, are
+	// functions without state)
+	if (o.encode == nil) != (p.encode == nil) || o.encode != nil && !sameFunc(o.encode, p.encode) {
 		return false
 	}
 	if o.m.runs == nil {

@@ -32,8 +32,10 @@ type Ref struct {
 
 // titleWindow is how far from its record a title is looked for in the
 // content when it is not on the record's line: a name member of the
-// same YAML mapping or JSON object, a few lines away.
-const titleWindow = 4096
+// same YAML mapping or JSON object, a few lines away. Records titled from
+// far away are looked for this far on either side in vain, so it stays
+// small.
+const titleWindow = 1024
 
 // RefOf returns the compact stand-in for o, found in content. ok is false
 // when o cannot be rebuilt from content alone: its text is not its host

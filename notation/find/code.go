@@ -816,11 +816,11 @@ func (cf *codeFinder) keep(lit *literal, d *decoded, m offsetMap, text string, m
 	}
 }
 
-// siblingRecord reports whether a literal nobody names could be a record
+// siblingRecordText reports whether a literal nobody names could be a record
 // of a list that holds unmistakable notation: one record that reads
 // without error, with something besides letters ("CC(=O)O", "CCN(CC)CC";
 // not "CCO", "NO" or "a=b", which are words as often).
-func siblingRecord(s string) bool {
+func siblingRecordText(s string) bool {
 	return len(s) >= 3 && plausible(s) && !strings.ContainsAny(s, " \t,;") && !accidentalWord(s) &&
 		!keyValueWords(s) && readsAsNotation(s)
 }

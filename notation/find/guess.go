@@ -80,14 +80,14 @@ func hasAtom(s string) bool {
 	return false
 }
 
-// unmistakable reports whether a literal nobody names is notation anyway:
+// unmistakableText reports whether a literal nobody names is notation anyway:
 // it reads without error and carries something ordinary text does not —
 // a chirality mark, a bond direction mark in a molecule that has a double
 // bond for it to mean something, a ring closure, or a bracket atom with a
 // charge, isotope, hydrogen count or class. Element-like words ("Cl",
 // "CO", "NO", "SCSS"), "I/O" and "N/A", paths, dates and versions fail one
 // of these tests.
-func unmistakable(s string) bool {
+func unmistakableText(s string) bool {
 	if len(s) < 3 || !plausible(s) {
 		return false
 	}

@@ -2,8 +2,10 @@ package document
 
 import (
 	"bytes"
+	"fmt"
 	"os"
 	"runtime"
+	"strconv"
 	"testing"
 )
 
@@ -75,4 +77,29 @@ func BenchmarkScaleEditTop(b *testing.B) {
 		b.StartTimer()
 		prev = a.Reanalyze(prev, "big.smi", "", versions[(i+1)%2])
 	}
+}
+
+// BenchmarkScaleEditCode is BenchmarkScaleEdit for a Python module that
+// holds the first 20,000 records of the list as a literal list of
+// (notation, title) pairs: source code is found again whole on every
+// edit (here a byte added to a title in the middle), and the records
+// that did not change are answered from the caches.
+func BenchmarkScaleEditCode(b *testing.B) {
+	var src bytes.Buffer
+	src.WriteString("from rdkit import Chem\n\nLIBRARY = [\n")
+	for i, line := range bytes.SplitN(scaleList(b), []byte("\n"), 20001)[:20000] {
+		rec, title, _ := bytes.Cut(line, []byte("\t"))
+		fmt.Fprintf(&src, "    (%s, %q),\n", strconv.Quote(string(rec)), fmt.Sprint(string(title), "-", i))
+	}
+	src.WriteString("]\nmols = [Chem.MolFromSmiles(s) for s, _ in LIBRARY]\n")
+	text := src.Bytes()
+	a := NewAnalyzer(DefaultConfig())
+	prev := a.Analyze("library.py", "python", text)
+	mid := bytes.IndexByte(text[len(text)/2:], '"') + len(text)/2
+	versions := [2][]byte{text, append(append(append([]byte(nil), text[:mid]...), 'x'), text[mid:]...)}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		prev = a.Reanalyze(prev, "library.py", "python", versions[(i+1)%2])
+	}
+	b.ReportMetric(float64(len(prev.Records)), "records")
 }

@@ -91,7 +91,8 @@ func main() {
 	fmt.Printf("first publication:    %8.0f ms  (%d diagnostics, %d relations, %.1f MB)\n",
 		ms(first.at.Sub(begun)), first.count, first.relations, float64(first.size)/1e6)
 	full := first
-	if first.relations == 0 {
+	// Records in code and prose are not related: no relations to wait for.
+	if lang := languageID(*list); first.relations == 0 && lang != "python" && lang != "markdown" {
 		full = c.waitPublication(1, true)
 	}
 	fmt.Printf("with relations:       %8.0f ms  (%d diagnostics, %d relations); server CPU %.0f ms\n",
@@ -570,6 +571,12 @@ func languageID(p string) string {
 		return "jsonl"
 	case strings.HasSuffix(p, ".json"):
 		return "json"
+	case strings.HasSuffix(p, ".py"):
+		return "python"
+	case strings.HasSuffix(p, ".md"):
+		return "markdown"
+	case strings.HasSuffix(p, ".yaml"), strings.HasSuffix(p, ".yml"):
+		return "yaml"
 	}
 	return "smiles"
 }

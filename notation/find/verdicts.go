@@ -1,0 +1,84 @@
+package find
+
+import (
+	"strings"
+	"sync"
+)
+
+// verdicts remembers the answers of the tests that read a literal's text
+// as notation to decide whether it is a record (unmistakable,
+// siblingRecord): a source file of 20,000 literals is found again whole
+// on every edit, and all but the edited ones are texts the last finding
+// read. Both tests depend on the text alone.
+var verdicts = newVerdictMemo(1<<16, 8<<20)
+
+// verdictLongest is the longest text remembered: a longer one costs more
+// memory than most and is rare in source.
+const verdictLongest = 1024
+
+// A verdict is two bits a test: known, and the answer.
+const (
+	knownUnmistakable = 1 << iota
+	isUnmistakable
+	knownSibling
+	isSibling
+)
+
+// A verdictMemo maps texts to verdicts within bounds: a generation holds
+// at most entries texts and bytes bytes of them; when the current one
+// fills it becomes the old one and the older is dropped, so the texts of
+// the document being edited stay while a scan of many files passes
+// through.
+type verdictMemo struct {
+	mu             sync.Mutex
+	cur, old       map[string]uint8
+	size           int // the bytes of cur's texts
+	entries, bytes int
+}
+
+func newVerdictMemo(entries, bytes int) *verdictMemo {
+	return &verdictMemo{cur: map[string]uint8{}, entries: entries, bytes: bytes}
+}
+
+// verdict returns the answer of test for s, one of the tests (known
+// marks it, yes is its answer), from memory or computed.
+func (v *verdictMemo) verdict(s string, known, yes uint8, test func(string) bool) bool {
+	if len(s) > verdictLongest {
+		return test(s)
+	}
+	v.mu.Lock()
+	got, ok := v.cur[s]
+	if !ok {
+		got = v.old[s]
+	}
+	v.mu.Unlock()
+	if got&known != 0 {
+		return got&yes != 0
+	}
+	answer := test(s) // outside the lock: a reading may take a while
+	got |= known
+	if answer {
+		got |= yes
+	}
+	v.mu.Lock()
+	defer v.mu.Unlock()
+	if _, ok := v.cur[s]; !ok {
+		if len(v.cur) >= v.entries || v.size+len(s) > v.bytes {
+			v.old, v.cur, v.size = v.cur, make(map[string]uint8, len(v.cur)), 0
+		}
+		s = strings.Clone(s) // not a window into a whole file
+		v.size += len(s)
+	}
+	v.cur[s] |= got
+	return answer
+}
+
+// unmistakable is unmistakableText, remembered.
+func unmistakable(s string) bool {
+	return verdicts.verdict(s, knownUnmistakable, isUnmistakable, unmistakableText)
+}
+
+// siblingRecord is siblingRecordText, remembered.
+func siblingRecord(s string) bool {
+	return verdicts.verdict(s, knownSibling, isSibling, siblingRecordText)
+}

@@ -16,7 +16,7 @@ var verdicts = newVerdictMemo(1<<16, 8<<20)
 // memory than most and is rare in source.
 const verdictLongest = 1024
 
-// A verdict is two bits a test: known, and the answer.
+// A verdict holds two bits for each test: known, and the answer.
 const (
 	knownUnmistakable = 1 << iota
 	isUnmistakable

@@ -87,7 +87,8 @@ func BenchmarkScaleEditTop(b *testing.B) {
 func BenchmarkScaleEditCode(b *testing.B) {
 	var src bytes.Buffer
 	src.WriteString("from rdkit import Chem\n\nLIBRARY = [\n")
-	for i, line := range bytes.SplitN(scaleList(b), []byte("\n"), 20001)[:20000] {
+	lines := bytes.SplitN(scaleList(b), []byte("\n"), 20001)
+	for i, line := range lines[:min(len(lines), 20000)] {
 		rec, title, _ := bytes.Cut(line, []byte("\t"))
 		fmt.Fprintf(&src, "    (%s, %q),\n", strconv.Quote(string(rec)), fmt.Sprint(string(title), "-", i))
 	}

@@ -3,6 +3,8 @@ package find
 import (
 	"strings"
 	"sync"
+
+	"stereoline/notation/genmap"
 )
 
 // verdicts remembers the answers of the tests that read a literal's text
@@ -27,20 +29,15 @@ const (
 	isSibling
 )
 
-// A verdictMemo maps texts to verdicts within bounds: a generation holds
-// at most entries texts and bytes bytes of them; when the current one
-// fills it becomes the old one and the older is dropped, so the texts of
-// the document being edited stay while a scan of many files passes
-// through.
+// A verdictMemo maps texts to verdicts, in a genmap.Map whose
+// generations are bounded in texts and in their bytes.
 type verdictMemo struct {
-	mu             sync.Mutex
-	cur, old       map[string]uint8
-	size           int // the bytes of cur's texts
-	entries, bytes int
+	mu sync.Mutex
+	m  *genmap.Map[string, uint8]
 }
 
 func newVerdictMemo(entries, bytes int) *verdictMemo {
-	return &verdictMemo{cur: map[string]uint8{}, entries: entries, bytes: bytes}
+	return &verdictMemo{m: genmap.New[string, uint8](entries, bytes, func(s string) int { return len(s) })}
 }
 
 // verdict returns the answer of test for s, one of the tests (known
@@ -50,10 +47,7 @@ func (v *verdictMemo) verdict(s string, known, yes uint8, test func(string) bool
 		return test(s)
 	}
 	v.mu.Lock()
-	got, ok := v.cur[s]
-	if !ok {
-		got = v.old[s]
-	}
+	got, _ := v.m.Get(s)
 	v.mu.Unlock()
 	if got&known != 0 {
 		return got&yes != 0
@@ -65,14 +59,11 @@ func (v *verdictMemo) verdict(s string, known, yes uint8, test func(string) bool
 	}
 	v.mu.Lock()
 	defer v.mu.Unlock()
-	if _, ok := v.cur[s]; !ok {
-		if len(v.cur) >= v.entries || v.size+len(s) > v.bytes {
-			v.old, v.cur, v.size = v.cur, make(map[string]uint8, len(v.cur)), 0
-		}
-		s = strings.Clone(s) // not a window into a whole file
-		v.size += len(s)
+	if had, ok := v.m.Get(s); ok {
+		v.m.Put(s, had|got) // the other test's answer, kept meanwhile
+	} else {
+		v.m.Put(strings.Clone(s), got) // not a window into a whole file
 	}
-	v.cur[s] |= got
 	return answer
 }
 

@@ -36,8 +36,8 @@ func TestVerdictsRemembered(t *testing.T) {
 	// many texts: two generations at most, each within its bounds
 	for i := 0; i < 100; i++ {
 		v.verdict(fmt.Sprintf("C%dCC", i), knownUnmistakable, isUnmistakable, even)
-		if len(v.cur) > 8 || len(v.old) > 8 || v.size > 200 {
-			t.Fatalf("after %d texts: %d and %d entries, %d bytes", i+1, len(v.cur), len(v.old), v.size)
+		if cur, old := v.m.Len(); cur > 8 || old > 8 || v.m.Weight() > 200 {
+			t.Fatalf("after %d texts: %d and %d entries, %d bytes", i+1, cur, old, v.m.Weight())
 		}
 	}
 	long := strings.Repeat("C", verdictLongest+1)

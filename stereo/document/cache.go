@@ -6,6 +6,7 @@ import (
 	"sync/atomic"
 
 	"stereoline/notation"
+	"stereoline/notation/genmap"
 	"stereoline/stereo"
 	"stereoline/stereo/identity"
 	"stereoline/stereo/reaction"
@@ -366,7 +367,7 @@ func (l *fullList) kept() int {
 // changed.
 type cache struct {
 	mu       sync.Mutex
-	cur, old map[cacheKey]*analysis
+	analyses *genmap.Map[cacheKey, *analysis] // cacheLimit in a generation
 	fulls    *fullList
 }
 
@@ -379,7 +380,7 @@ type cacheKey struct {
 }
 
 func newCache() *cache {
-	return &cache{cur: map[cacheKey]*analysis{}, old: map[cacheKey]*analysis{}, fulls: newFullList(fullLimit)}
+	return &cache{analyses: genmap.New[cacheKey, *analysis](cacheLimit, 0, nil), fulls: newFullList(fullLimit)}
 }
 
 // lookup returns the cached analysis of k, moving it from the older
@@ -387,13 +388,7 @@ func newCache() *cache {
 func (c *cache) lookup(k cacheKey) (*analysis, bool) {
 	c.mu.Lock()
 	defer c.mu.Unlock()
-	a, ok := c.cur[k]
-	if !ok {
-		if a, ok = c.old[k]; ok {
-			c.cur[k] = a
-		}
-	}
-	return a, ok
+	return c.analyses.Get(k)
 }
 
 // get returns the analysis of text under reading r with its full
@@ -407,15 +402,12 @@ func (c *cache) get(text string, r notation.Reading, lim limits) (*analysis, *fu
 	a = analyse(text, r, lim)
 	f := a.full.Load()
 	c.mu.Lock()
-	if prev, ok := c.cur[k]; ok {
+	if prev, ok := c.analyses.Get(k); ok {
 		// Another goroutine read the same text meanwhile: keep one.
 		c.mu.Unlock()
 		return prev, prev.get()
 	}
-	if len(c.cur) >= cacheLimit {
-		c.old, c.cur = c.cur, map[cacheKey]*analysis{}
-	}
-	c.cur[k] = a
+	c.analyses.Put(k, a)
 	a.fulls = c.fulls
 	c.mu.Unlock()
 	c.fulls.add(a)
@@ -442,7 +434,7 @@ func (c *cache) read(text string, r notation.Reading, lim limits, rr *notation.R
 	}
 	a, f := analyseUnkept(rr, text, r, lim)
 	c.mu.Lock()
-	if prev, ok := c.cur[k]; ok {
+	if prev, ok := c.analyses.Get(k); ok {
 		// Another goroutine read the same text meanwhile: keep one.
 		c.mu.Unlock()
 		if pf := prev.full.Load(); pf != nil {
@@ -450,10 +442,7 @@ func (c *cache) read(text string, r notation.Reading, lim limits, rr *notation.R
 		}
 		return prev, f
 	}
-	if len(c.cur) >= cacheLimit {
-		c.old, c.cur = c.cur, map[cacheKey]*analysis{}
-	}
-	c.cur[k] = a
+	c.analyses.Put(k, a)
 	a.fulls = c.fulls
 	c.mu.Unlock()
 	return a, f

@@ -106,13 +106,14 @@ func TestFullListBound(t *testing.T) {
 		n := 0
 		a.cache.mu.Lock()
 		defer a.cache.mu.Unlock()
-		for _, gen := range []map[cacheKey]*analysis{a.cache.cur, a.cache.old} {
-			for _, an := range gen {
-				if an.full.Load() != nil && !an.pinned {
-					n++
-				}
+		seen := map[*analysis]bool{}
+		a.cache.analyses.All(func(_ cacheKey, an *analysis) bool {
+			if !seen[an] && an.full.Load() != nil && !an.pinned {
+				n++
 			}
-		}
+			seen[an] = true
+			return true
+		})
 		return n
 	}
 	if n := kept(); n > limit {

@@ -26,14 +26,19 @@ func New[K comparable, V any](entries, weight int, weigh func(K) int) *Map[K, V]
 }
 
 // Get returns the value of k, moving it from the older generation to the
-// current one.
+// current one while that has room. A Get never drops the older
+// generation: a set of keys in use that fills more than one generation
+// (the records of a long document, asked for on every edit) would then
+// push out the half it had not yet asked for, and each round of asking
+// would miss most of them.
 func (m *Map[K, V]) Get(k K) (V, bool) {
 	if v, ok := m.cur[k]; ok {
 		return v, true
 	}
 	v, ok := m.old[k]
-	if ok {
-		m.put(k, v)
+	if ok && !m.full(m.weightOf(k)) {
+		m.cur[k] = v
+		m.size += m.weightOf(k)
 	}
 	return v, ok
 }
@@ -50,15 +55,25 @@ func (m *Map[K, V]) Put(k K, v V) {
 
 // put adds k, which the current generation lacks.
 func (m *Map[K, V]) put(k K, v V) {
-	w := 0
-	if m.weigh != nil {
-		w = m.weigh(k)
-	}
-	if len(m.cur) >= m.entries || m.weigh != nil && m.size+w > m.weight {
+	w := m.weightOf(k)
+	if m.full(w) {
 		m.old, m.cur, m.size = m.cur, make(map[K]V, len(m.cur)), 0
 	}
 	m.cur[k] = v
 	m.size += w
+}
+
+// full reports whether the current generation has no room for a key of
+// weight w.
+func (m *Map[K, V]) full(w int) bool {
+	return len(m.cur) >= m.entries || m.weigh != nil && m.size+w > m.weight
+}
+
+func (m *Map[K, V]) weightOf(k K) int {
+	if m.weigh == nil {
+		return 0
+	}
+	return m.weigh(k)
 }
 
 // All calls f for each entry of both generations (an entry may come

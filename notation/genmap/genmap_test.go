@@ -58,3 +58,20 @@ func TestKeptInUse(t *testing.T) {
 		t.Errorf("All gave %d entries, Len %d and %d", seen, cur, old)
 	}
 }
+
+// TestWorkingSet checks that keys asked for over and over stay while
+// they fit in the two generations, even when they fill more than one:
+// asking never drops what it has not yet asked for.
+func TestWorkingSet(t *testing.T) {
+	m := New[int, int](8, 0, nil)
+	for i := range 12 {
+		m.Put(i, i)
+	}
+	for round := range 5 {
+		for i := range 12 {
+			if _, ok := m.Get(i); !ok {
+				t.Fatalf("round %d: key %d of 12 is gone (generations of 8)", round, i)
+			}
+		}
+	}
+}

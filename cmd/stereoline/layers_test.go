@@ -19,7 +19,7 @@ var layers = []struct {
 	layer    int
 	packages []string
 }{
-	{0, []string{"notation"}},
+	{0, []string{"notation", "notation/genmap"}},
 	{1, []string{"notation/smarts"}},
 	{2, []string{"notation/find"}},
 	{3, []string{"stereo/internal/ringgeom"}},

@@ -432,6 +432,9 @@ func detectLayout(text []byte, from int, fixed layoutSpec, nm namer, cfg *Config
 		if !ok {
 			continue
 		}
+		if f.end-f.start > maxLayoutField {
+			continue
+		}
 		s := string(text[f.start:f.end])
 		if queryContent(s) {
 			v.queries = true
@@ -479,11 +482,17 @@ func separators(text []byte, lines []listLine, fixed layoutSpec) []byte {
 	return append(out, ' ')
 }
 
+// maxLayoutField is the longest field the layout is judged by: a record
+// of 400 KB (a hostile chain) would cost the sampling more than its own
+// analysis, and says nothing about the columns that fieldReads could not
+// learn from the other lines.
+const maxLayoutField = 4096
+
 // fieldReads reports whether one field reads as a record: notation
 // without an error, or a query pattern (by its content) without one.
 // Numbers, words that spell no structure and prose fail here.
 func fieldReads(b []byte) bool {
-	if len(b) == 0 || len(b) > 4096 {
+	if len(b) == 0 || len(b) > maxLayoutField {
 		return false
 	}
 	// The quick tests of plausible on the bytes, before a string is made.

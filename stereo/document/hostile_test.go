@@ -8,18 +8,26 @@ import (
 )
 
 // BenchmarkHostileDocument analyses a .smi list holding one hostile
-// record of issue 13, as the checker does (finder, reading, analysis,
-// relations), with a fresh cache each time.
+// record of issue 13 as the language server does (Analyze) and as the
+// checker does (Stream): finder, reading, analysis, relations, with a
+// fresh cache each time.
 func BenchmarkHostileDocument(b *testing.B) {
 	for _, c := range []struct{ name, text string }{
 		{"chain-1000000", strings.Repeat("C", 1000000)},
 		{"chain-marks-50000", strings.Repeat("[C@H](F)", 50000)},
 		{"small-rings-8000", strings.Repeat("C%10CC%10", 8000)},
 	} {
-		content := []byte(c.text + "\n")
+		content := []byte(c.text + " hostile\n") // a list line: notation and title
 		b.Run(c.name, func(b *testing.B) {
 			for b.Loop() {
 				NewAnalyzer(DefaultConfig()).Analyze("hostile.smi", "", content)
+			}
+		})
+		// the checker's path: found a chunk at a time, the list's layout
+		// sampled from its first lines
+		b.Run(c.name+"/stream", func(b *testing.B) {
+			for b.Loop() {
+				NewAnalyzer(DefaultConfig()).Stream("hostile.smi", "", content, func([]Diagnostic) {})
 			}
 		})
 	}

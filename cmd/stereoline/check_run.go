@@ -6,16 +6,20 @@ import (
 	"fmt"
 	"io"
 	"iter"
+	"math"
 	"os"
+	"path"
 	"path/filepath"
 	"runtime/debug"
 	"slices"
+	"strings"
 	"sync"
 	"sync/atomic"
 	"time"
 
 	"stereoline/lsp"
 	"stereoline/notation"
+	"stereoline/notation/find"
 	"stereoline/stereo/document"
 )
 
@@ -228,8 +232,9 @@ func b2i(b bool) int {
 }
 
 // readForAnalysis reads a file under the size limit of its configuration
-// (--max-size wins over the maxFileSize setting) and returns it with the
-// configuration; ok is false when the file is not to be analysed: a
+// (--max-size wins over the maxFileSize setting; a list or table named on
+// the command line has none unless one of them is set) and returns it
+// with the configuration; ok is false when the file is not to be analysed: a
 // failure, reported, or a skip (skipped says why).
 func (r *checkRun) readForAnalysis(f checkFile) (data fileData, lc *loadedConfig, skipped string, ok bool) {
 	cfgPath := f.osPath
@@ -244,6 +249,12 @@ func (r *checkRun) readForAnalysis(f checkFile) (data fileData, lc *loadedConfig
 	limit := r.opts.maxSize
 	if limit == 0 {
 		limit = lc.maxSize
+		if f.explicit && !f.stdin && !lc.sizeSet && streamedFile(f.path) {
+			// a list or table the user named is checked whatever its
+			// size: its records are read a chunk at a time from the
+			// mapped file, so memory does not grow with it
+			limit = math.MaxInt64 - 1 // and readCheckFile reads one byte more
+		}
 	}
 	data, err := r.readCheckFile(f, limit)
 	if err != nil {
@@ -462,4 +473,22 @@ func isTerminal(w io.Writer) bool {
 	}
 	st, err := f.Stat()
 	return err == nil && st.Mode()&os.ModeCharDevice != 0
+}
+
+// streamedFile reports whether the file named is found and analysed a
+// chunk at a time in bounded memory whatever its size, by its extension:
+// record lists, tables, SD files and JSON Lines. Other kinds (source,
+// Markdown, notebooks, JSON and YAML documents of any shape) may be found
+// whole.
+func streamedFile(name string) bool {
+	switch find.KindForName(name) {
+	case find.KindList, find.KindCSV, find.KindTSV, find.KindSDF:
+		return true
+	case find.KindJSON:
+		switch strings.ToLower(path.Ext(name)) {
+		case ".jsonl", ".ndjson", ".jsonlines":
+			return true
+		}
+	}
+	return false
 }

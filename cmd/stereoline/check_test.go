@@ -345,3 +345,41 @@ func TestCheckReadingSetting(t *testing.T) {
 		}
 	}
 }
+
+// TestCheckNamedListAnySize checks that a record list named on the
+// command line is checked past the default largest file scanned (it is
+// read a chunk at a time), while the same list found in a folder, or
+// named with --max-size or under a maxFileSize setting, is skipped, and a
+// Python module named past the default is skipped too (it is found
+// whole).
+func TestCheckNamedListAnySize(t *testing.T) {
+	limit, err := parseSize(defaultMaxSize)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// one record with a one-sided double bond, then comment lines past
+	// the default limit
+	pad := strings.Repeat("# padding, not a record\n", int(limit)/24+1)
+	dir := writeFiles(t, map[string]string{
+		"large.smi":             "C/C=CC first\n" + pad,
+		"large.py":              "s = 'C/C=CC'\n" + pad,
+		"set/large.smi":         "C/C=CC first\n" + pad,
+		"set/" + configFileName: `{"maxFileSize": "1MB"}`,
+	})
+	const finding = "large.smi:1:2: warning"
+	stdout, stderr, _ := runCheck(t, "", filepath.Join(dir, "large.smi"))
+	if !strings.Contains(stdout, finding) || strings.Contains(stderr, "skipped") {
+		t.Errorf("a list named past the default limit should be checked: stdout %q, stderr %q", stdout, stderr)
+	}
+	for _, args := range [][]string{
+		{"--max-size", defaultMaxSize, filepath.Join(dir, "large.smi")},
+		{dir},
+		{filepath.Join(dir, "set", "large.smi")},
+		{filepath.Join(dir, "large.py")},
+	} {
+		stdout, stderr, _ := runCheck(t, "", args...)
+		if strings.Contains(stdout, "large.") || !strings.Contains(stderr, "skipped: larger than the largest file scanned") {
+			t.Errorf("%v: want the large files skipped; stdout %q, stderr %q", args, stdout, stderr)
+		}
+	}
+}

@@ -20,6 +20,7 @@ type loadedConfig struct {
 	cfg      document.Config
 	analyzer *document.Analyzer
 	maxSize  int64 // the maxFileSize setting, in bytes
+	sizeSet  bool  // maxSize was set by the file, not the default
 	err      error
 }
 
@@ -88,6 +89,7 @@ func (r *checkRun) loadConfigLocked(path string) *loadedConfig {
 	lc.maxSize, _ = document.ParseSize(document.DefaultMaxFileSize)
 	if lc.cfg.MaxFileSize != "" && lc.err == nil {
 		lc.maxSize, lc.err = document.ParseSize(lc.cfg.MaxFileSize) // checked by Validate
+		lc.sizeSet = true
 	}
 	// --lone-pair and --ring-marks win over the file (checked when the
 	// options were read)

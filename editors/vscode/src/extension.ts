@@ -46,7 +46,7 @@ function settings(): Record<string, unknown> {
       ringMarks: c.get("reading.ringMarks", "closing"),
     },
     limits: {
-      recordTime: c.get("limits.recordTime", "800ms"),
+      recordTime: c.get("limits.recordTime", "500ms"),
       digraphNodes: c.get("limits.digraphNodes", 200000),
       recordAtoms: c.get("limits.recordAtoms", 200000),
     },

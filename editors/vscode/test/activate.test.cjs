@@ -301,7 +301,7 @@ test("activate starts stereoline serve with the settings, deactivate stops it", 
       names: [],
       files: {},
       reading: { lonePair: "last", ringMarks: "closing" },
-      limits: { recordTime: "800ms", digraphNodes: 200000, recordAtoms: 200000 },
+      limits: { recordTime: "500ms", digraphNodes: 200000, recordAtoms: 200000 },
     });
     // The server asks for the "stereoline" section (workspace/configuration);
     // the client answers from the same settings.

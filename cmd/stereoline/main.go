@@ -42,8 +42,9 @@ func main() {
 		// The server keeps compact results per record (some 150 MB for
 		// a list of 100,000 records with its relations); without a
 		// limit the garbage of reading such a list lets the heap grow to
-		// twice that and more. GOMEMLIMIT overrides it.
-		debug.SetMemoryLimit(serveMemoryLimit)
+		// twice that and more. It rises above the live heap of a larger
+		// document (memlimit.go). GOMEMLIMIT overrides it.
+		followLiveHeap(serveMemoryLimit)
 	}
 	os.Exit(run(os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
 }

@@ -17,6 +17,15 @@ import (
 // instead of about 0.5).
 var verdicts = newVerdictMemo(1<<17, 16<<20)
 
+// RememberVerdicts sizes the memory of verdicts: generations of entries
+// texts and bytes bytes of them, two of which are kept. The language
+// server, which finds a large module again on every edit, calls it once
+// before it finds anything; the checker keeps the default, which bounds
+// what a scan of many files holds.
+func RememberVerdicts(entries, bytes int) {
+	verdicts = newVerdictMemo(entries, bytes)
+}
+
 // verdictLongest is the longest text remembered: a longer one costs more
 // memory than most and is rare in source.
 const verdictLongest = 1024

@@ -8,11 +8,9 @@ import (
 	"iter"
 	"math"
 	"os"
-	"path"
 	"path/filepath"
 	"runtime/debug"
 	"slices"
-	"strings"
 	"sync"
 	"sync/atomic"
 	"time"
@@ -249,7 +247,7 @@ func (r *checkRun) readForAnalysis(f checkFile) (data fileData, lc *loadedConfig
 	limit := r.opts.maxSize
 	if limit == 0 {
 		limit = lc.maxSize
-		if f.explicit && !f.stdin && !lc.sizeSet && streamedFile(f.path) {
+		if f.explicit && !f.stdin && !lc.sizeSet && find.BoundedByName(f.path) {
 			// a list or table the user named is checked whatever its
 			// size: its records are read a chunk at a time from the
 			// mapped file, so memory does not grow with it
@@ -473,22 +471,4 @@ func isTerminal(w io.Writer) bool {
 	}
 	st, err := f.Stat()
 	return err == nil && st.Mode()&os.ModeCharDevice != 0
-}
-
-// streamedFile reports whether the file named is found and analysed a
-// chunk at a time in bounded memory whatever its size, by its extension:
-// record lists, tables, SD files and JSON Lines. Other kinds (source,
-// Markdown, notebooks, JSON and YAML documents of any shape) may be found
-// whole.
-func streamedFile(name string) bool {
-	switch find.KindForName(name) {
-	case find.KindList, find.KindCSV, find.KindTSV, find.KindSDF:
-		return true
-	case find.KindJSON:
-		switch strings.ToLower(path.Ext(name)) {
-		case ".jsonl", ".ndjson", ".jsonlines":
-			return true
-		}
-	}
-	return false
 }

@@ -21,14 +21,8 @@ import (
 // so an edit runs one collection at most.
 const liveHeadroom = 200 << 20
 
-// limitFor returns the soft limit for a live heap of live bytes: base, or
-// live plus liveHeadroom when that is higher.
-func limitFor(base, live int64) int64 {
-	return max(base, live+liveHeadroom)
-}
-
-// followLiveHeap sets the soft memory limit to base now and to limitFor
-// the live heap after every collection, for the life of the process. It
+// followLiveHeap sets the soft memory limit to base now and, after every
+// collection, to the live heap plus liveHeadroom when that is higher, for the life of the process. It
 // is called once, by serve; a limit the user set (GOMEMLIMIT) is left
 // alone by not calling it.
 func followLiveHeap(base int64) {
@@ -44,7 +38,7 @@ func followLiveHeap(base int64) {
 			metrics.Read(sample)
 			if sample[0].Value.Kind() == metrics.KindUint64 {
 				live := int64(sample[0].Value.Uint64())
-				if want := limitFor(base, live); want != current {
+				if want := max(base, live+liveHeadroom); want != current {
 					debug.SetMemoryLimit(want)
 					current = want
 				}

@@ -94,6 +94,25 @@ func KindForName(name string) Kind {
 	return extensions[strings.ToLower(path.Ext(strings.ReplaceAll(name, "\\", "/")))]
 }
 
+// BoundedByName reports whether FindChunks hands out the records of a
+// file of this name a chunk at a time in memory that does not grow with
+// the file, whatever its size, judging by the extension alone (before
+// the file is read): record lists, CSV and TSV tables, SD files and JSON
+// Lines. Other kinds may be found whole: source code, Markdown,
+// notebooks, and JSON or YAML documents of any shape.
+func BoundedByName(name string) bool {
+	switch KindForName(name) {
+	case KindList, KindCSV, KindTSV, KindSDF:
+		return true
+	case KindJSON:
+		switch strings.ToLower(path.Ext(strings.ReplaceAll(name, "\\", "/"))) {
+		case ".jsonl", ".ndjson", ".jsonlines":
+			return true
+		}
+	}
+	return false
+}
+
 // languageIDs maps editor language identifiers to kinds. The common ones
 // are those of the LSP 3.17 specification's list of known language
 // identifiers; "smiles" and friends are our own, for editors that

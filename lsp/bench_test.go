@@ -342,3 +342,38 @@ func BenchmarkScalePublish(b *testing.B) {
 		p.release(nil)
 	}
 }
+
+// BenchmarkScalePublishMoved measures the publishDiagnostics JSON of the
+// list STEREOLINE_SCALE_LIST names after a record was inserted at its
+// top, made from the publication before the edit: every finding moved
+// down a line. It skips without the list.
+func BenchmarkScalePublishMoved(b *testing.B) {
+	text := scaleList(b)
+	a := document.NewAnalyzer(document.DefaultConfig())
+	res := a.Analyze("scale.smi", "", text)
+	m := NewMapper(text, EncodingUTF16)
+	last, err := publish(nil, &fileVersion{URI: "file:///bench/scale.smi", Name: "scale.smi", mapper: m}, res, nil)
+	if err != nil {
+		b.Fatal(err)
+	}
+	first := text[:bytes.IndexByte(text, '\n')+1]
+	next := splice(text, 0, 0, string(first))
+	m = m.Replace(lastSplice.from, lastSplice.to, lastSplice.n, next)
+	moved := a.Reanalyze(res, "scale.smi", "", next)
+	f := &fileVersion{URI: "file:///bench/scale.smi", Name: "scale.smi", mapper: m}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		v := int32(i)
+		p, err := publish(last, f, moved, &v)
+		if err != nil {
+			b.Fatal(err)
+		}
+		// p's buffers, not last's, go back for reuse
+		for _, buf := range p.bufs {
+			if !last.uses(buf) && cap(buf) >= pooledBuffer {
+				putPartBuffer(buf)
+			}
+		}
+	}
+}

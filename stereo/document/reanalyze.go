@@ -150,7 +150,7 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	if next.occArrays > maxOccArrays {
 		next.compactOccurrences()
 	}
-	next.relateAgain(prev, prevKeys, i0, i1, dn, lineCount(old[from:oldTo]) != lineCount(content[from:newTo]))
+	next.relateAgain(prev, prevKeys, i0, i1, dn, lineCount(content[from:newTo])-lineCount(old[from:oldTo]))
 	next.assembleFrom(prev, i0, i1, dn, delta)
 	return next
 }
@@ -316,13 +316,13 @@ func relateKey(preKey uint64, o *find.Occurrence) uint64 {
 
 // relateAgain sets the relations of the records of r, a new version of
 // prev in which prev's records [i0, i1) were replaced by r's records
-// [i0, i1+dn) and the records after them moved (by some lines when
-// linesMoved); prevKeys are prev's pre-keys. The records of every
-// pre-key the change touched are related again; the others keep their
-// relations. A relation's places and record index are set by assemble,
-// so a relation is copied only when the index or the line of its
-// earlier record changed.
-func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn int, linesMoved bool) {
+// [i0, i1+dn) and the records after them moved (lines lines further
+// down; up when negative); prevKeys are prev's pre-keys. The records of
+// every pre-key the change touched are related again; the others keep
+// their relations. A relation's places and record index are set by
+// assemble, so a relation is copied only when the index or the line of
+// its earlier record changed.
+func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn, lines int) {
 	var touched []uint64 // a few pre-keys: a slice beats a map
 	touch := func(keys []prekey) {
 		for _, k := range keys {
@@ -333,58 +333,51 @@ func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn int, li
 	}
 	touch(prevKeys[i0:i1])
 	touch(r.prekeys[i0 : i1+dn])
-	groups := make([][]int, len(touched)) // in the order of touched
-	var renamed []*relation
-	for i, k := range r.prekeys {
-		if k.ok && len(touched) > 0 {
-			if g := slices.Index(touched, k.key); g >= 0 {
-				groups[g] = append(groups[g], i)
+	// The records are gone through in spans, on all cores: an edit at
+	// the top of a long list moves every relation, and each that moves
+	// is copied (a relation is shared between versions: a changed one
+	// is a copy), its message naming the earlier record's moved line.
+	const span = 4096
+	spans := (len(r.prekeys) + span - 1) / span
+	touchedIn := make([][]int, spans) // the records of touched pre-keys, in order
+	moves := dn != 0 || lines != 0
+	Spread(spans, func(sp int) {
+		for i := sp * span; i < min(len(r.prekeys), (sp+1)*span); i++ {
+			if k := r.prekeys[i]; k.ok && len(touched) > 0 && slices.Contains(touched, k.key) {
+				touchedIn[sp] = append(touchedIn[sp], i)
 				continue
 			}
-		}
-		if i >= i0 && i < i1+dn {
-			continue // a new record without identity keys
-		}
-		// A record the change left alone, with its relation.
-		old := i
-		if i >= i1+dn {
-			old = i - dn
-		}
-		rel := prev.rel[old]
-		if rel == nil {
-			continue
-		}
-		// A record before the edit has its earlier record before it too.
-		if (dn != 0 || linesMoved) && i >= i1+dn && rel.earlier >= i1 {
-			// A relation is shared between versions: a changed one is a copy.
-			c := *rel
-			rel = &c
-			rel.earlier += dn
-			if linesMoved {
-				renamed = append(renamed, rel)
+			if i >= i0 && i < i1+dn {
+				continue // a new record without identity keys
 			}
-		}
-		r.rel[i] = rel
-	}
-	if len(renamed) > 0 {
-		r.lineOf(0) // the line table, before it is read in parallel
-		// The relations of a group often name the same earlier record
-		// (its first): each record is named once. slot[j] is one more
-		// than the place of record j's name in names.
-		slot := make([]int32, len(r.Records))
-		var earlier []int
-		for _, rel := range renamed {
-			if slot[rel.earlier] == 0 {
-				earlier = append(earlier, rel.earlier)
-				slot[rel.earlier] = int32(len(earlier))
+			// A record the change left alone, with its relation.
+			old := i
+			if i >= i1+dn {
+				old = i - dn
 			}
+			rel := prev.rel[old]
+			if rel == nil {
+				continue
+			}
+			// A record before the edit has its earlier record before it too.
+			if moves && i >= i1+dn && rel.earlier >= i1 {
+				c := *rel
+				c.earlier += dn
+				if lines != 0 {
+					c.line += lines
+					c.d.Message = nameEarlierAt(c.tmpl, c.line, r.Records[c.earlier].Occ.Title)
+				}
+				rel = &c
+			}
+			r.rel[i] = rel
 		}
-		names := make([]string, len(earlier))
-		parallel(len(earlier), func(k int) { names[k] = r.describeRecord(earlier[k]) })
-		parallel(len(renamed), func(k int) {
-			rel := renamed[k]
-			rel.d.Message = nameEarlier(rel.tmpl, names[slot[rel.earlier]-1])
-		})
+	})
+	groups := make([][]int, len(touched)) // in the order of touched
+	for _, in := range touchedIn {
+		for _, i := range in {
+			g := slices.Index(touched, r.prekeys[i].key)
+			groups[g] = append(groups[g], i)
+		}
 	}
 	for _, members := range groups {
 		if len(members) == 0 {

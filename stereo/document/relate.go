@@ -175,6 +175,7 @@ func (r *Result) relateGroup(members []int) {
 // changed once made: versions of a list share it.
 type relation struct {
 	earlier int    // the record it is related to
+	line    int    // the earlier record's line (0-based), as the message names it
 	tmpl    string // the message with named where the earlier record is named
 	d       Diagnostic
 }
@@ -205,9 +206,9 @@ func (r *Result) relateMembers(members []int) {
 		if !on {
 			continue
 		}
-		tmpl := d.Message
-		d.Message = nameEarlier(tmpl, r.describeRecord(j))
-		r.rel[i] = &relation{earlier: j, tmpl: tmpl, d: d}
+		tmpl, line := d.Message, r.lineOf(r.Records[j].Occ.Span.Start)
+		d.Message = nameEarlierAt(tmpl, line, r.Records[j].Occ.Title)
+		r.rel[i] = &relation{earlier: j, line: line, tmpl: tmpl, d: d}
 	}
 }
 
@@ -336,27 +337,46 @@ func relativeOf(an *stereo.Analysis) string {
 	return " (" + strings.Join(parts, ", ") + ")"
 }
 
-// describeRecord names a record for messages: "line 12 (LRK-BB-003)".
-func (r *Result) describeRecord(i int) string { return r.describeOcc(r.Records[i].Occ) }
-
-// describeOcc is describeRecord for an occurrence.
+// describeOcc names the record of an occurrence for messages: "line 12
+// (LRK-BB-003)".
 func (r *Result) describeOcc(o *find.Occurrence) string {
-	b := make([]byte, 0, len("line  ()")+20+len(o.Title))
-	b = strconv.AppendInt(append(b, "line "...), int64(r.lineOf(o.Span.Start)+1), 10)
-	if o.Title != "" {
-		b = append(append(append(b, " ("...), o.Title...), ')')
-	}
-	return string(b)
+	return nameEarlierAt(named, r.lineOf(o.Span.Start), o.Title)
 }
 
-// nameEarlier returns a relation's message template with the earlier
-// record named where named stands.
-func nameEarlier(tmpl, name string) string {
+// nameEarlierAt returns a relation's message template with the earlier
+// record named where named stands, by its line (0-based) and its title:
+// "line 12 (title)". The message is written in one allocation.
+func nameEarlierAt(tmpl string, line int, title string) string {
 	before, after, ok := strings.Cut(tmpl, named)
-	if !ok || strings.Contains(after, named) {
-		return strings.ReplaceAll(tmpl, named, name)
+	var num [20]byte
+	n := strconv.AppendInt(num[:0], int64(line+1), 10)
+	name := len("line ") + len(n)
+	if title != "" {
+		name += len(" ()") + len(title)
 	}
-	return before + name + after
+	if !ok || strings.Contains(after, named) {
+		var b strings.Builder
+		b.Grow(name)
+		writeName(&b, n, title)
+		return strings.ReplaceAll(tmpl, named, b.String())
+	}
+	var b strings.Builder
+	b.Grow(len(before) + name + len(after))
+	b.WriteString(before)
+	writeName(&b, n, title)
+	b.WriteString(after)
+	return b.String()
+}
+
+// writeName writes the name of a record by its line number and title.
+func writeName(b *strings.Builder, line []byte, title string) {
+	b.WriteString("line ")
+	b.Write(line)
+	if title != "" {
+		b.WriteString(" (")
+		b.WriteString(title)
+		b.WriteByte(')')
+	}
 }
 
 // lineOf returns the 0-based line of a host offset, from a table of line

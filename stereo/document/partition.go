@@ -195,8 +195,9 @@ func (p *partitions) relatePart(whole *Result, entries []partEntry, emit func([]
 		// the texts are copied out of the content here: a fault in a
 		// mapped file cut short is a panic raised again by the caller
 		debug.SetPanicOnFault(true)
-		for start := 0; start < len(related); start += streamChunk {
-			part := related[start:min(start+streamChunk, len(related))]
+		chunk := chunkSize()
+		for start := 0; start < len(related); start += chunk {
+			part := related[start:min(start+chunk, len(related))]
 			occs := make([]find.Occurrence, len(part))
 			for k := range part {
 				if o, ok := p.odd[part[k].record]; ok {

@@ -150,7 +150,7 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	if next.occArrays > maxOccArrays {
 		next.compactOccurrences()
 	}
-	next.relateAgain(prev, prevKeys, i0, i1, dn, lineCount(content[from:newTo])-lineCount(old[from:oldTo]))
+	next.relateAgain(prev, prevKeys, i0, i1, dn, newTo, lineCount(content[from:newTo])-lineCount(old[from:oldTo]))
 	next.assembleFrom(prev, i0, i1, dn, delta)
 	return next
 }
@@ -316,13 +316,14 @@ func relateKey(preKey uint64, o *find.Occurrence) uint64 {
 
 // relateAgain sets the relations of the records of r, a new version of
 // prev in which prev's records [i0, i1) were replaced by r's records
-// [i0, i1+dn) and the records after them moved (lines lines further
-// down; up when negative); prevKeys are prev's pre-keys. The records of
-// every pre-key the change touched are related again; the others keep
-// their relations. A relation's places and record index are set by
-// assemble, so a relation is copied only when the index or the line of
-// its earlier record changed.
-func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn, lines int) {
+// [i0, i1+dn) and the records after them moved: those from offset
+// newTo of r's text are lines lines further down (up when negative), the
+// text from there being the same as after the edited lines. prevKeys are
+// prev's pre-keys. The records of every pre-key the change touched are
+// related again; the others keep their relations. A relation's places
+// and record index are set by assemble, so a relation is copied only
+// when the index or the line of its earlier record changed.
+func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn, newTo, lines int) {
 	var touched []uint64 // a few pre-keys: a slice beats a map
 	touch := func(keys []prekey) {
 		for _, k := range keys {
@@ -340,6 +341,9 @@ func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn, lines 
 	const span = 4096
 	spans := (len(r.prekeys) + span - 1) / span
 	touchedIn := make([][]int, spans) // the records of touched pre-keys, in order
+	// moved relations whose earlier record starts before newTo (a record
+	// of a document found whole may): its line is looked up after
+	lookUp := make([][]int, spans)
 	moves := dn != 0 || lines != 0
 	Spread(spans, func(sp int) {
 		for i := sp * span; i < min(len(r.prekeys), (sp+1)*span); i++ {
@@ -363,15 +367,25 @@ func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn, lines 
 			if moves && i >= i1+dn && rel.earlier >= i1 {
 				c := *rel
 				c.earlier += dn
-				if lines != 0 {
+				if o := r.Records[c.earlier].Occ; lines != 0 && o.Span.Start >= newTo {
 					c.line += lines
-					c.d.Message = nameEarlierAt(c.tmpl, c.line, r.Records[c.earlier].Occ.Title)
+					c.d.Message = nameEarlierAt(c.tmpl, c.line, o.Title)
+				} else if lines != 0 {
+					lookUp[sp] = append(lookUp[sp], i)
 				}
 				rel = &c
 			}
 			r.rel[i] = rel
 		}
 	})
+	for _, in := range lookUp {
+		for _, i := range in {
+			c := r.rel[i] // a copy of its own
+			o := r.Records[c.earlier].Occ
+			c.line = r.lineOf(o.Span.Start)
+			c.d.Message = nameEarlierAt(c.tmpl, c.line, o.Title)
+		}
+	}
 	groups := make([][]int, len(touched)) // in the order of touched
 	for _, in := range touchedIn {
 		for _, i := range in {

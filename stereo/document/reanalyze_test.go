@@ -846,3 +846,28 @@ func TestReanalyzeFoundWhole(t *testing.T) {
 		}
 	}
 }
+
+// TestReanalyzeEarlierInsideEdit checks the line a moved relation names
+// when its earlier record lies inside the edited lines of a document
+// found whole: one change of a JSON array on one line lengthens the
+// first record and turns the spaces after the second into two line
+// breaks. The second record moves by the change's bytes, so it is the
+// same record moved, but not by the change's lines, which all come after
+// it. Against a fresh analysis; it fails when the line is the earlier
+// one moved by the change's lines (the mirror image pair is common
+// practice).
+func TestReanalyzeEarlierInsideEdit(t *testing.T) {
+	old := `["CCO", "C[C@H](N)O",  "C[C@@H](N)O"]` + "\n"
+	edited := `["CCCO", "C[C@H](N)O",` + "\n\n" + `"C[C@@H](N)O"]` + "\n"
+	a := NewAnalyzer(DefaultConfig())
+	next := a.Reanalyze(a.Analyze("set.json", "", []byte(old)), "set.json", "", []byte(edited))
+	want := NewAnalyzer(DefaultConfig()).Analyze("set.json", "", []byte(edited))
+	compareResults(t, "set.json", next, want)
+	named := false
+	for _, d := range next.Diagnostics() {
+		named = named || d.Code == CodeListEnantiomer && strings.Contains(d.Message, "line 1")
+	}
+	if !named {
+		t.Errorf("no mirror image of line 1 among %v", next.Diagnostics())
+	}
+}

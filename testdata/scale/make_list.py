@@ -64,7 +64,7 @@ def main():
     seen = set()
     written = 0
     rounds = 0
-    while written < n and rounds < 12:
+    while written < n and rounds < 40:
         for smi, name in parents():
             mol = Chem.MolFromSmiles(smi)
             if mol is None or mol.GetNumAtoms() > 80:

@@ -190,8 +190,8 @@ func ParseSize(s string) (int64, error) {
 // DefaultMaxDocumentSize is the largest document the language server
 // analyses unless the maxDocumentSize setting says otherwise: about five
 // times a 100,000-record list. The server's memory grows with the
-// records (peak RSS about 400 MB at 100,000 records, 700 MB at
-// 190,000), so a document near the limit needs more than the 500 MB a
+// records (peak RSS about 400 MB at 100,000 records, 700 to 800 MB at
+// 190,000 to 200,000), so a document near the limit needs more than the 500 MB a
 // list of 100,000 is held to.
 const DefaultMaxDocumentSize = "32MB"
 

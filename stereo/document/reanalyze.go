@@ -341,8 +341,8 @@ func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn, newTo,
 	const span = 4096
 	spans := (len(r.prekeys) + span - 1) / span
 	touchedIn := make([][]int, spans) // the records of touched pre-keys, in order
-	// moved relations whose earlier record starts before newTo (a record
-	// of a document found whole may): its line is looked up after
+	// moved relations whose earlier record starts before newTo: its line
+	// is looked up after
 	lookUp := make([][]int, spans)
 	moves := dn != 0 || lines != 0
 	Spread(spans, func(sp int) {
@@ -364,16 +364,25 @@ func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn, newTo,
 				continue
 			}
 			// A record before the edit has its earlier record before it too.
-			if moves && i >= i1+dn && rel.earlier >= i1 {
-				c := *rel
-				c.earlier += dn
-				if o := r.Records[c.earlier].Occ; lines != 0 && o.Span.Start >= newTo {
-					c.line += lines
-					c.d.Message = nameEarlierAt(c.tmpl, c.line, o.Title)
-				} else if lines != 0 {
+			if i >= i1+dn && rel.earlier >= i1 && (moves || r.foundWhole) {
+				switch o := r.Records[rel.earlier+dn].Occ; {
+				case o.Span.Start < newTo:
+					// inside the edited lines (in a document found whole,
+					// a record there may be the same record moved), moved
+					// by other lines than the edit's
+					c := *rel
+					c.earlier += dn
+					rel = &c
 					lookUp[sp] = append(lookUp[sp], i)
+				case moves:
+					c := *rel
+					c.earlier += dn
+					if lines != 0 {
+						c.line += lines
+						c.d.Message = nameEarlierAt(c.tmpl, c.line, o.Title)
+					}
+					rel = &c
 				}
-				rel = &c
 			}
 			r.rel[i] = rel
 		}

@@ -848,26 +848,31 @@ func TestReanalyzeFoundWhole(t *testing.T) {
 }
 
 // TestReanalyzeEarlierInsideEdit checks the line a moved relation names
-// when its earlier record lies inside the edited lines of a document
-// found whole: one change of a JSON array on one line lengthens the
-// first record and turns the spaces after the second into two line
-// breaks. The second record moves by the change's bytes, so it is the
-// same record moved, but not by the change's lines, which all come after
-// it. Against a fresh analysis; it fails when the line is the earlier
-// one moved by the change's lines (the mirror image pair is common
-// practice).
+// when its earlier record lies inside the edited lines, against a fresh
+// analysis (the mirror image pair is common practice). In a JSON array
+// on one line one change lengthens the first record and turns the spaces
+// after the second into two line breaks: the second record moves by the
+// change's bytes but not by its lines, which all come after it. In a
+// YAML file found whole a comment line is added before the second record
+// and the comment line after it joins its line: the lines of the change
+// add up to none, yet the record moves down a line. It fails when the
+// line is the earlier one moved by the change's lines.
 func TestReanalyzeEarlierInsideEdit(t *testing.T) {
-	old := `["CCO", "C[C@H](N)O",  "C[C@@H](N)O"]` + "\n"
-	edited := `["CCCO", "C[C@H](N)O",` + "\n\n" + `"C[C@@H](N)O"]` + "\n"
-	a := NewAnalyzer(DefaultConfig())
-	next := a.Reanalyze(a.Analyze("set.json", "", []byte(old)), "set.json", "", []byte(edited))
-	want := NewAnalyzer(DefaultConfig()).Analyze("set.json", "", []byte(edited))
-	compareResults(t, "set.json", next, want)
-	named := false
-	for _, d := range next.Diagnostics() {
-		named = named || d.Code == CodeListEnantiomer && strings.Contains(d.Message, "line 1")
-	}
-	if !named {
-		t.Errorf("no mirror image of line 1 among %v", next.Diagnostics())
+	for _, c := range []struct{ name, old, edited, want string }{
+		{"set.json", `["CCO", "C[C@H](N)O",  "C[C@@H](N)O"]` + "\n",
+			`["CCCO", "C[C@H](N)O",` + "\n\n" + `"C[C@@H](N)O"]` + "\n", "line 1"},
+		{"set.yaml", "compounds:\n  - smiles: \"CCO\"\n  - smiles: \"C[C@H](N)O\"\n# note\n  - smiles: \"C[C@@H](N)O\"\n",
+			"compounds:\n  - smiles: \"CCO\"\n#x\n  - smiles: \"C[C@H](N)O\" # note\n  - smiles: \"C[C@@H](N)O\"\n", "line 4"},
+	} {
+		a := NewAnalyzer(DefaultConfig())
+		next := a.Reanalyze(a.Analyze(c.name, "", []byte(c.old)), c.name, "", []byte(c.edited))
+		compareResults(t, c.name, next, NewAnalyzer(DefaultConfig()).Analyze(c.name, "", []byte(c.edited)))
+		named := false
+		for _, d := range next.Diagnostics() {
+			named = named || d.Code == CodeListEnantiomer && strings.Contains(d.Message, c.want)
+		}
+		if !named {
+			t.Errorf("%s: no mirror image of %s among %v", c.name, c.want, next.Diagnostics())
+		}
 	}
 }

@@ -150,7 +150,7 @@ func (a *Analyzer) reanalyzeList(prev *Result, name, languageID string, content 
 	if next.occArrays > maxOccArrays {
 		next.compactOccurrences()
 	}
-	next.relateAgain(prev, prevKeys, i0, i1, dn, newTo, lineCount(content[from:newTo])-lineCount(old[from:oldTo]))
+	next.relateAgain(prev, prevKeys, i0, i1, dn, from, newTo, lineCount(content[from:newTo])-lineCount(old[from:oldTo]))
 	next.assembleFrom(prev, i0, i1, dn, delta)
 	return next
 }
@@ -316,14 +316,15 @@ func relateKey(preKey uint64, o *find.Occurrence) uint64 {
 
 // relateAgain sets the relations of the records of r, a new version of
 // prev in which prev's records [i0, i1) were replaced by r's records
-// [i0, i1+dn) and the records after them moved: those from offset
-// newTo of r's text are lines lines further down (up when negative), the
-// text from there being the same as after the edited lines. prevKeys are
-// prev's pre-keys. The records of every pre-key the change touched are
-// related again; the others keep their relations. A relation's places
-// and record index are set by assemble, so a relation is copied only
-// when the index or the line of its earlier record changed.
-func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn, newTo, lines int) {
+// [i0, i1+dn) and the records after them moved. The edited lines are
+// [from, newTo) of r's text: the records before them are on the lines
+// they were, those after them lines lines further down (up when
+// negative). prevKeys are prev's pre-keys. The records of every pre-key
+// the change touched are related again; the others keep their
+// relations. A relation's places and record index are set by assemble,
+// so a relation is copied only when the index or the line of its
+// earlier record changed.
+func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn, from, newTo, lines int) {
 	var touched []uint64 // a few pre-keys: a slice beats a map
 	touch := func(keys []prekey) {
 		for _, k := range keys {
@@ -341,8 +342,8 @@ func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn, newTo,
 	const span = 4096
 	spans := (len(r.prekeys) + span - 1) / span
 	touchedIn := make([][]int, spans) // the records of touched pre-keys, in order
-	// moved relations whose earlier record starts before newTo: its line
-	// is looked up after
+	// copied relations whose earlier record starts on the edited lines:
+	// its line is looked up after
 	lookUp := make([][]int, spans)
 	moves := dn != 0 || lines != 0
 	Spread(spans, func(sp int) {
@@ -363,20 +364,25 @@ func (r *Result) relateAgain(prev *Result, prevKeys []prekey, i0, i1, dn, newTo,
 			if rel == nil {
 				continue
 			}
-			// A record before the edit has its earlier record before it too.
-			if i >= i1+dn && rel.earlier >= i1 && (moves || r.foundWhole) {
-				switch o := r.Records[rel.earlier+dn].Occ; {
-				case o.Span.Start < newTo:
-					// inside the edited lines (in a document found whole,
-					// a record there may be the same record moved), moved
-					// by other lines than the edit's
+			// The earlier record's index now. Its line is looked at when
+			// it may have moved: after the edit, or anywhere in a
+			// document found whole, where a record on the edited lines
+			// may be the same record moved, by other lines than the
+			// edit's (records found by lines there are read again).
+			e := rel.earlier
+			if e >= i1 {
+				e += dn
+			}
+			if r.foundWhole || moves && e >= i1+dn {
+				switch o := r.Records[e].Occ; {
+				case o.Span.Start >= from && o.Span.Start < newTo:
 					c := *rel
-					c.earlier += dn
+					c.earlier = e
 					rel = &c
 					lookUp[sp] = append(lookUp[sp], i)
-				case moves:
+				case o.Span.Start >= newTo && (e != rel.earlier || lines != 0):
 					c := *rel
-					c.earlier += dn
+					c.earlier = e
 					if lines != 0 {
 						c.line += lines
 						c.d.Message = nameEarlierAt(c.tmpl, c.line, o.Title)

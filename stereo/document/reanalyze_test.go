@@ -855,14 +855,18 @@ func TestReanalyzeFoundWhole(t *testing.T) {
 // change's bytes but not by its lines, which all come after it. In a
 // YAML file found whole a comment line is added before the second record
 // and the comment line after it joins its line: the lines of the change
-// add up to none, yet the record moves down a line. It fails when the
-// line is the earlier one moved by the change's lines.
+// add up to none, yet the record moves down a line. In another a
+// comment line is split in two with as many bytes: every record stays
+// where it was in bytes, and moves down a line. It fails when the line
+// is the earlier one moved by the change's lines, or not moved.
 func TestReanalyzeEarlierInsideEdit(t *testing.T) {
 	for _, c := range []struct{ name, old, edited, want string }{
 		{"set.json", `["CCO", "C[C@H](N)O",  "C[C@@H](N)O"]` + "\n",
 			`["CCCO", "C[C@H](N)O",` + "\n\n" + `"C[C@@H](N)O"]` + "\n", "line 1"},
 		{"set.yaml", "compounds:\n  - smiles: \"CCO\"\n  - smiles: \"C[C@H](N)O\"\n# note\n  - smiles: \"C[C@@H](N)O\"\n",
 			"compounds:\n  - smiles: \"CCO\"\n#x\n  - smiles: \"C[C@H](N)O\" # note\n  - smiles: \"C[C@@H](N)O\"\n", "line 4"},
+		{"set.yaml", "compounds:\n#ab\n  - smiles: \"C[C@H](N)O\"\n  - smiles: \"C[C@@H](N)O\"\n",
+			"compounds:\n#\n\n  - smiles: \"C[C@H](N)O\"\n  - smiles: \"C[C@@H](N)O\"\n", "line 4"},
 	} {
 		a := NewAnalyzer(DefaultConfig())
 		next := a.Reanalyze(a.Analyze(c.name, "", []byte(c.old)), c.name, "", []byte(c.edited))

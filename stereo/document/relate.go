@@ -348,35 +348,23 @@ func (r *Result) describeOcc(o *find.Occurrence) string {
 // "line 12 (title)". The message is written in one allocation.
 func nameEarlierAt(tmpl string, line int, title string) string {
 	before, after, ok := strings.Cut(tmpl, named)
+	if !ok || strings.Contains(after, named) {
+		return strings.ReplaceAll(tmpl, named, nameEarlierAt(named, line, title))
+	}
 	var num [20]byte
 	n := strconv.AppendInt(num[:0], int64(line+1), 10)
-	name := len("line ") + len(n)
-	if title != "" {
-		name += len(" ()") + len(title)
-	}
-	if !ok || strings.Contains(after, named) {
-		var b strings.Builder
-		b.Grow(name)
-		writeName(&b, n, title)
-		return strings.ReplaceAll(tmpl, named, b.String())
-	}
 	var b strings.Builder
-	b.Grow(len(before) + name + len(after))
+	b.Grow(len(before) + len("line  ()") + len(n) + len(title) + len(after))
 	b.WriteString(before)
-	writeName(&b, n, title)
-	b.WriteString(after)
-	return b.String()
-}
-
-// writeName writes the name of a record by its line number and title.
-func writeName(b *strings.Builder, line []byte, title string) {
 	b.WriteString("line ")
-	b.Write(line)
+	b.Write(n)
 	if title != "" {
 		b.WriteString(" (")
 		b.WriteString(title)
 		b.WriteByte(')')
 	}
+	b.WriteString(after)
+	return b.String()
 }
 
 // lineOf returns the 0-based line of a host offset, from a table of line

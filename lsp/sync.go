@@ -85,7 +85,8 @@ func (s *Server) change(uri string, version int32, changes []contentChange) erro
 	snap := s.snap.clone()
 	prev := snap.analyses[uri]
 	snap.put(&next, s.configFor(snap, next.path()))
-	if a := snap.analyses[uri]; prev != nil && prev.config.id == a.config.id {
+	a := snap.analyses[uri]
+	if prev != nil && prev.config.id == a.config.id {
 		a.prev.Store(prev)
 	}
 	s.setSnapshot(snap)
@@ -93,6 +94,19 @@ func (s *Server) change(uri string, version int32, changes []contentChange) erro
 	// The debounce counts from the change's arrival: applying it (a copy
 	// of a large text) is part of the wait, not added to it.
 	s.work.schedule(uri, max(0, s.opts.Debounce-time.Since(begun)))
+	if prev != nil && prev.config.id == a.config.id && prev.quick(s.opts.Debounce) {
+		// The last version was analysed in less than the debounce: this
+		// one is analysed during the debounce, after the collection that
+		// schedule may have started (the two at once slow each other on
+		// a machine of few cores), and published when the typing pauses.
+		// A version replaced meanwhile costs one such analysis; the next
+		// one waits for its debounce, as its predecessor is not done, so
+		// fast typing analyses at most every other version.
+		go func() {
+			s.work.awaitCollection()
+			a.start(s.log)
+		}()
+	}
 	return nil
 }
 

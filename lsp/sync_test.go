@@ -191,3 +191,60 @@ func TestMaxDocumentSize(t *testing.T) {
 		t.Error("a document under the limit got no findings")
 	}
 }
+
+// An edit of a document whose last analysis was quick is analysed during
+// its debounce, and still published only once the debounce has passed;
+// an edit that follows one whose analysis is not done waits for its
+// debounce.
+func TestAnalysisDuringDebounce(t *testing.T) {
+	const debounce = 4 * time.Second
+	var srv *Server
+	c := start(t, clientSetup{debounce: debounce, hook: func(s *Server) { srv = s }})
+	const u = "file:///work/quick.smi"
+	c.open(u, "", 1, "CCO ethanol\n")
+	c.diagnostics(u, 1)
+	// analysisOf waits for version to be the current one (a change is a
+	// notification) and returns its analysis.
+	analysisOf := func(version int32) *analysis {
+		for deadline := time.Now().Add(debounce / 4); ; time.Sleep(time.Millisecond) {
+			if f, a, ok := srv.current().lookup(u); ok && f.Version == version {
+				return a
+			}
+			if time.Now().After(deadline) {
+				t.Fatalf("version %d did not arrive", version)
+			}
+		}
+	}
+	// waitDone reports whether the analysis of version finishes within d.
+	waitDone := func(version int32, d time.Duration) bool {
+		a := analysisOf(version)
+		select {
+		case <-a.done:
+			return true
+		case <-time.After(d):
+			return false
+		}
+	}
+
+	changed := time.Now()
+	c.change(u, 2, map[string]any{"text": "C[C@H](F)Cl marked\n"})
+	if !waitDone(2, debounce/2) {
+		t.Fatalf("version 2 was not analysed during its debounce of %v", debounce)
+	}
+	if since := time.Since(changed); since >= debounce {
+		t.Fatalf("the check ran past the debounce (%v); the machine is too slow for this test", since)
+	}
+	for _, p := range c.published(u) {
+		if *p.Version == 2 {
+			t.Fatalf("version 2 published before its debounce ended")
+		}
+	}
+
+	// Two edits at once: whether or not the first is analysed before the
+	// second arrives, the last version is the one published.
+	c.change(u, 3, map[string]any{"text": "C[C@@H](F)Cl marked\n"})
+	c.change(u, 4, map[string]any{"text": "C[C@H](F)Br marked\n"})
+	if got := codes(t, c, u, 4, "C[C@H](F)Br marked\n"); len(got) != 0 {
+		t.Errorf("version 4: %v", got)
+	}
+}

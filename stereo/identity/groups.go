@@ -253,7 +253,7 @@ func identifyGroups(g *keyGraph, groups [][]int, and []bool, written Identity) I
 	for _, k := range set.members {
 		set.mirrors = append(set.mirrors, byKey[k])
 	}
-	set.union = digest("union\x00" + strings.Join(set.members, ","))
+	set.union = digest("union\x00", strings.Join(set.members, ","))
 	set.pair = len(set.members) == 2 && set.mirrors[0] == set.members[1]
 	text, kind := serialiseSubstances(substances, nil)
 	if kind == OneStereoisomer {
@@ -339,8 +339,8 @@ func groupedKey(g *keyGraph, groups [][]int, and []bool, written Identity) Ident
 	}
 	sort.Strings(parts)
 	out := written
-	out.Key = digest("unexpanded\x00" + written.Key + "\x00" + strings.Join(parts, ";"))
-	out.MirrorKey = digest("unexpanded\x00" + written.MirrorKey + "\x00" + strings.Join(parts, ";"))
+	out.Key = digest("unexpanded\x00", written.Key, "\x00", strings.Join(parts, ";"))
+	out.MirrorKey = digest("unexpanded\x00", written.MirrorKey, "\x00", strings.Join(parts, ";"))
 	hasOr, hasAnd := false, false
 	for _, a := range and {
 		hasAnd = hasAnd || a

@@ -69,10 +69,24 @@ type identityUnit struct {
 	chiral bool // a tetrahedral or allene unit (changes in a mirror)
 }
 
-// digest turns a serialisation into a short printable key.
-func digest(s string) string {
-	sum := sha256.Sum256([]byte(s))
-	return hex.EncodeToString(sum[:16])
+// digest turns a serialisation, given in parts to be joined, into a
+// short printable key. The parts are hashed through a small buffer on
+// the stack: converting a serialisation of hundreds of bytes to a slice
+// allocated a copy of it for every key of every record.
+func digest(parts ...string) string {
+	h := sha256.New()
+	var chunk [512]byte
+	for _, s := range parts {
+		for len(s) > 0 {
+			n := copy(chunk[:], s)
+			h.Write(chunk[:n])
+			s = s[n:]
+		}
+	}
+	var sum [sha256.Size]byte
+	var out [32]byte
+	hex.Encode(out[:], h.Sum(sum[:0])[:16])
+	return string(out[:])
 }
 
 // Identify computes the keys and the chirality class of m.
@@ -108,7 +122,7 @@ func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 		// no marks: the stereo serialisation is the constitution's with
 		// an empty unit list (a zero varint), and the mirror is the same
 		con := newCanonState(g, units, false).runFrom(base)
-		k := digest(con.text + "\x00")
+		k := digest(con.text, "\x00")
 		return Identity{Key: k, MirrorKey: k, ConstitutionKey: digest(con.text)}
 	}
 	st := newCanonState(g, units, true)

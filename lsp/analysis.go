@@ -197,7 +197,12 @@ type worker struct {
 	// for the next to take the JSON of unchanged findings from; only the
 	// document's publishing goroutine reads or replaces it
 	published map[string]*publication
-	wake      chan struct{}
+	// making is held while a publication is made from the last one and
+	// written, or the last one dropped: the next may give buffers of the
+	// last back for reuse only once its parts are written (prepare makes
+	// one outside publishOnce)
+	making sync.Mutex
+	wake   chan struct{}
 	// collecting is set while an idle collection runs (collectIfIdle);
 	// collected is closed when the last one started ends
 	collecting atomic.Bool
@@ -401,6 +406,9 @@ func (w *worker) publish(ctx context.Context, uri string) {
 	s := w.s
 	f, a, open := s.current().lookup(uri)
 	if !open {
+		// making before pub, as send takes them
+		w.making.Lock()
+		defer w.making.Unlock()
 		w.pub.Lock()
 		defer w.pub.Unlock()
 		if _, _, reopened := s.current().lookup(uri); reopened {
@@ -507,21 +515,14 @@ func (w *worker) await(ctx context.Context, uri string, a *analysis) bool {
 func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 	s := w.s
 	version := f.Version
-	w.mu.Lock()
-	last := w.published[f.URI]
-	w.mu.Unlock()
+	w.making.Lock()
+	defer w.making.Unlock()
 	begun, faults := time.Now(), minorFaults(s.log)
-	p, err := publish(last, f, res, &version)
+	p, err := w.make(f, res)
 	if err != nil {
 		s.log.Error("internal error", zap.String("uri", f.URI), zap.Error(fmt.Errorf("diagnostics: %w", err)))
 		return false
 	}
-	// The last publication was written (or dropped) before this one was
-	// made: its buffers this one does not use can serve the next.
-	last.release(p)
-	w.mu.Lock()
-	w.published[f.URI] = p
-	w.mu.Unlock()
 	w.pub.Lock()
 	defer w.pub.Unlock()
 	if cur := s.current(); cur.analyses[f.URI] != a {
@@ -536,6 +537,57 @@ func (w *worker) send(f *fileVersion, a *analysis, res *document.Result) bool {
 		zap.Duration("made in", made.Sub(begun)), zap.Duration("written in", time.Since(made)),
 		zap.Int64("page faults", minorFaults(s.log)-faults), zap.Int64("page faults writing", minorFaults(s.log)-madeFaults))
 	return true
+}
+
+// make returns the publication of res for document version f, made from
+// the document's last publication, which it replaces, unless that is the
+// publication of res already (prepare made it). w.making must be held.
+func (w *worker) make(f *fileVersion, res *document.Result) (*publication, error) {
+	version := f.Version
+	w.mu.Lock()
+	last := w.published[f.URI]
+	w.mu.Unlock()
+	if last != nil && last.res == res && last.version == version && last.uri == f.URI {
+		return last, nil
+	}
+	p, err := publish(last, f, res, &version)
+	if err != nil {
+		return nil, err
+	}
+	p.res = res
+	// The last publication was written (or dropped) before this one was
+	// made: its buffers this one does not use can serve the next.
+	last.release(p)
+	w.mu.Lock()
+	w.published[f.URI] = p
+	w.mu.Unlock()
+	return p, nil
+}
+
+// prepare makes the publication of a's whole result, an analysis that
+// ran during the debounce of its edit (change, in sync.go), so that the
+// worker only writes it once the debounce ends (make finds it). It makes
+// nothing when a is no longer the document's current analysis, failed,
+// or would not be published as a whole: a document that shows nothing
+// yet may have its records' own findings published first.
+func (w *worker) prepare(a *analysis) {
+	s := w.s
+	defer s.recoverPanic("prepare diagnostics")
+	if !s.pushesDiagnostics() || a.err != nil || a.result == nil || a.tooLarge {
+		return
+	}
+	uri := a.file.URI
+	w.making.Lock()
+	defer w.making.Unlock()
+	w.mu.Lock()
+	shown := w.sent[uri]
+	w.mu.Unlock()
+	if _, cur, open := s.current().lookup(uri); !open || cur != a || !shown {
+		return
+	}
+	if _, err := w.make(a.file, a.result); err != nil {
+		s.log.Error("internal error", zap.String("uri", uri), zap.Error(fmt.Errorf("diagnostics: %w", err)))
+	}
 }
 
 // showProgress reports an analysis that takes longer than the progress

@@ -55,6 +55,8 @@ func diagnosticsParts(f *fileVersion, res *document.Result, version *int32) ([][
 // it no longer uses back for reuse.
 type publication struct {
 	uri      string
+	version  int32            // the document version it publishes
+	res      *document.Result // the result it publishes, set by worker.make
 	encoding PositionEncoding
 	content  []byte // the text the positions were computed in
 	lines    int    // its line count
@@ -225,7 +227,7 @@ func publish(prev *publication, f *fileVersion, res *document.Result, version *i
 		// room for the findings a few inserted lines add
 		at = make([]jsonAt, len(ds), len(ds)+len(ds)/32+64)
 	}
-	p := &publication{uri: f.URI, encoding: f.mapper.Encoding(), content: f.content(), lines: f.mapper.LineCount(),
+	p := &publication{uri: f.URI, version: f.Version, encoding: f.mapper.Encoding(), content: f.content(), lines: f.mapper.LineCount(),
 		diags: ds, at: at}
 	if prev != nil {
 		p.spare, p.spareDiags = prev.at, prev.diags

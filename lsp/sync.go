@@ -98,13 +98,16 @@ func (s *Server) change(uri string, version int32, changes []contentChange) erro
 		// The last version was analysed in less than the debounce: this
 		// one is analysed during the debounce, after the collection that
 		// schedule may have started (the two at once slow each other on
-		// a machine of few cores), and published when the typing pauses.
+		// a machine of few cores), and its publication made (prepare) and
+		// written when the typing pauses.
 		// A version replaced meanwhile costs one such analysis; the next
 		// one waits for its debounce, as its predecessor is not done, so
 		// fast typing analyses at most every other version.
 		go func() {
 			s.work.awaitCollection()
 			a.start(s.log)
+			<-a.done
+			s.work.prepare(a)
 		}()
 	}
 	return nil

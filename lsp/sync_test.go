@@ -227,9 +227,23 @@ func TestAnalysisDuringDebounce(t *testing.T) {
 	}
 
 	changed := time.Now()
-	c.change(u, 2, map[string]any{"text": "C[C@H](F)Cl marked\n"})
+	// a mark between two methyl groups changes nothing (common practice)
+	const text2 = "C[C@H](C)Cl two methyls\n"
+	c.change(u, 2, map[string]any{"text": text2})
 	if !waitDone(2, debounce/2) {
 		t.Fatalf("version 2 was not analysed during its debounce of %v", debounce)
+	}
+	// and its publication is made (prepare), to be written when the
+	// debounce ends
+	made := false
+	for deadline := time.Now().Add(debounce / 4); !made && time.Now().Before(deadline); time.Sleep(time.Millisecond) {
+		srv.work.mu.Lock()
+		p := srv.work.published[u]
+		srv.work.mu.Unlock()
+		made = p != nil && p.version == 2
+	}
+	if !made {
+		t.Errorf("the publication of version 2 was not made during its debounce")
 	}
 	if since := time.Since(changed); since >= debounce {
 		t.Fatalf("the check ran past the debounce (%v); the machine is too slow for this test", since)
@@ -239,6 +253,12 @@ func TestAnalysisDuringDebounce(t *testing.T) {
 			t.Fatalf("version 2 published before its debounce ended")
 		}
 	}
+	if got := codes(t, c, u, 2, text2); len(got) != 1 || got[0] != "stereo-ineffective-center @" {
+		t.Errorf("version 2: %v, want the ineffective mark", got)
+	}
+	if since := time.Since(changed); since < debounce {
+		t.Errorf("version 2 published %v after the change, before its debounce of %v", since, debounce)
+	}
 
 	// Two edits at once: whether or not the first is analysed before the
 	// second arrives, the last version is the one published.
@@ -246,5 +266,46 @@ func TestAnalysisDuringDebounce(t *testing.T) {
 	c.change(u, 4, map[string]any{"text": "C[C@H](F)Br marked\n"})
 	if got := codes(t, c, u, 4, "C[C@H](F)Br marked\n"); len(got) != 0 {
 		t.Errorf("version 4: %v", got)
+	}
+}
+
+// A document closed after the publication of its last edit was made
+// during the debounce, before it was written, is cleared, and that
+// publication is never written; opened again, it is published afresh.
+func TestCloseAfterPreparedPublication(t *testing.T) {
+	const debounce = 2 * time.Second
+	var srv *Server
+	c := start(t, clientSetup{debounce: debounce, hook: func(s *Server) { srv = s }})
+	const u = "file:///work/closed.smi"
+	c.open(u, "", 1, "CCO ethanol\n")
+	c.diagnostics(u, 1)
+	c.change(u, 2, map[string]any{"text": "C[C@H](C)Cl two methyls\n"})
+	made := false
+	for deadline := time.Now().Add(debounce / 2); !made && time.Now().Before(deadline); time.Sleep(time.Millisecond) {
+		srv.work.mu.Lock()
+		p := srv.work.published[u]
+		srv.work.mu.Unlock()
+		made = p != nil && p.version == 2
+	}
+	if !made {
+		t.Fatalf("the publication of version 2 was not made during its debounce")
+	}
+	c.notify("textDocument/didClose", map[string]any{"textDocument": textDoc(u)})
+	c.cleared(u)
+	time.Sleep(debounce + debounce/2)
+	for _, p := range c.published(u) {
+		if p.Version != nil && *p.Version == 2 {
+			t.Errorf("version 2 was written after the document was closed")
+		}
+	}
+	srv.work.mu.Lock()
+	_, kept := srv.work.published[u]
+	srv.work.mu.Unlock()
+	if kept {
+		t.Errorf("the closed document's publication is still kept")
+	}
+	c.open(u, "", 3, "C[C@H](C)Cl two methyls\n")
+	if got := codes(t, c, u, 3, "C[C@H](C)Cl two methyls\n"); len(got) != 1 || got[0] != "stereo-ineffective-center @" {
+		t.Errorf("reopened: %v, want the ineffective mark", got)
 	}
 }

@@ -198,11 +198,8 @@ func TestMaxDocumentSize(t *testing.T) {
 // debounce.
 func TestAnalysisDuringDebounce(t *testing.T) {
 	const debounce = 4 * time.Second
-	var srv *Server
-	c := start(t, clientSetup{debounce: debounce, hook: func(s *Server) { srv = s }})
 	const u = "file:///work/quick.smi"
-	c.open(u, "", 1, "CCO ethanol\n")
-	c.diagnostics(u, 1)
+	c, srv := startPublished(t, debounce, u)
 	// analysisOf waits for version to be the current one (a change is a
 	// notification) and returns its analysis.
 	analysisOf := func(version int32) *analysis {
@@ -235,14 +232,7 @@ func TestAnalysisDuringDebounce(t *testing.T) {
 	}
 	// and its publication is made (prepare), to be written when the
 	// debounce ends
-	made := false
-	for deadline := time.Now().Add(debounce / 4); !made && time.Now().Before(deadline); time.Sleep(time.Millisecond) {
-		srv.work.mu.Lock()
-		p := srv.work.published[u]
-		srv.work.mu.Unlock()
-		made = p != nil && p.version == 2
-	}
-	if !made {
+	if !prepared(srv, u, 2, debounce/4) {
 		t.Errorf("the publication of version 2 was not made during its debounce")
 	}
 	if since := time.Since(changed); since >= debounce {
@@ -269,25 +259,40 @@ func TestAnalysisDuringDebounce(t *testing.T) {
 	}
 }
 
+// startPublished starts a server with the debounce given, opens uri
+// (ethanol, no findings) and waits for its publication.
+func startPublished(t *testing.T, debounce time.Duration, uri string) (*fakeClient, *Server) {
+	t.Helper()
+	var srv *Server
+	c := start(t, clientSetup{debounce: debounce, hook: func(s *Server) { srv = s }})
+	c.open(uri, "", 1, "CCO ethanol\n")
+	c.diagnostics(uri, 1)
+	return c, srv
+}
+
+// prepared reports whether the last publication srv keeps of uri is of
+// version within d: one made before it is written.
+func prepared(srv *Server, uri string, version int32, d time.Duration) bool {
+	for deadline := time.Now().Add(d); time.Now().Before(deadline); time.Sleep(time.Millisecond) {
+		srv.work.mu.Lock()
+		p := srv.work.published[uri]
+		srv.work.mu.Unlock()
+		if p != nil && p.version == version {
+			return true
+		}
+	}
+	return false
+}
+
 // A document closed after the publication of its last edit was made
 // during the debounce, before it was written, is cleared, and that
 // publication is never written; opened again, it is published afresh.
 func TestCloseAfterPreparedPublication(t *testing.T) {
 	const debounce = 2 * time.Second
-	var srv *Server
-	c := start(t, clientSetup{debounce: debounce, hook: func(s *Server) { srv = s }})
 	const u = "file:///work/closed.smi"
-	c.open(u, "", 1, "CCO ethanol\n")
-	c.diagnostics(u, 1)
+	c, srv := startPublished(t, debounce, u)
 	c.change(u, 2, map[string]any{"text": "C[C@H](C)Cl two methyls\n"})
-	made := false
-	for deadline := time.Now().Add(debounce / 2); !made && time.Now().Before(deadline); time.Sleep(time.Millisecond) {
-		srv.work.mu.Lock()
-		p := srv.work.published[u]
-		srv.work.mu.Unlock()
-		made = p != nil && p.version == 2
-	}
-	if !made {
+	if !prepared(srv, u, 2, debounce/2) {
 		t.Fatalf("the publication of version 2 was not made during its debounce")
 	}
 	c.notify("textDocument/didClose", map[string]any{"textDocument": textDoc(u)})

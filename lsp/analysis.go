@@ -181,11 +181,13 @@ func (s *Server) result(ctx context.Context, snap *snapshot, uri string) (*fileV
 // once its last change is older than the debounce time, and only its
 // latest version is. Its analysis starts then too, or at once when the
 // version before was analysed in less than the debounce (change, in
-// sync.go): a one-line edit of a list of 100,000 records is then
-// analysed while the server waits for the typing to pause. Documents are published concurrently, so
-// a small file is not kept waiting behind a large one, but at most one
-// publication per document runs at a time: a version that arrives while
-// one is being analysed is published after it.
+// sync.go), with its publication made before the debounce ends
+// (prepare): a one-line edit of a list of 100,000 records is then
+// analysed while the server waits for the typing to pause. Documents are
+// published concurrently, so a small file is not kept waiting behind a
+// large one, but at most one publication per document runs at a time: a
+// version that arrives while one is being analysed is published after
+// it.
 type worker struct {
 	s        *Server
 	mu       sync.Mutex
@@ -194,8 +196,8 @@ type worker struct {
 	again    map[string]bool
 	sent     map[string]bool // documents with diagnostics on the client
 	// published holds the last publication made of each open document,
-	// for the next to take the JSON of unchanged findings from; only the
-	// document's publishing goroutine reads or replaces it
+	// for the next to take the JSON of unchanged findings from; it is
+	// read or replaced only with making held
 	published map[string]*publication
 	// making is held while a publication is made from the last one and
 	// written, or the last one dropped: the next may give buffers of the

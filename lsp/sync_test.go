@@ -314,3 +314,52 @@ func TestCloseAfterPreparedPublication(t *testing.T) {
 		t.Errorf("reopened: %v, want the ineffective mark", got)
 	}
 }
+
+// Edits of several documents that come faster and slower than the
+// debounce, so that some versions are analysed and their publications
+// made during it and then replaced: each document's last publication is
+// of its last version, with that version's findings, and no document's
+// publication is ever of a version older than one published before it.
+func TestEditsAroundTheDebounce(t *testing.T) {
+	const debounce = 30 * time.Millisecond
+	c := start(t, clientSetup{debounce: debounce})
+	// the versions alternate between an ineffective mark (two methyl
+	// groups) and a real stereocentre (common practice)
+	texts := [2]string{"C[C@H](C)Cl two methyls\nCCO\n", "C[C@H](F)Cl marked\nCCO\n"}
+	uris := []string{"file:///work/a.smi", "file:///work/b.smi", "file:///work/c.smi"}
+	for _, u := range uris {
+		c.open(u, "", 1, texts[1])
+		c.diagnostics(u, 1)
+	}
+	const edits = 40
+	for v := int32(2); v <= edits; v++ {
+		for _, u := range uris {
+			c.change(u, v, map[string]any{"text": texts[v%2]})
+		}
+		// pauses shorter and longer than the debounce
+		time.Sleep(time.Duration(v%4) * debounce / 2)
+	}
+	for _, u := range uris {
+		got := codes(t, c, u, edits, texts[edits%2])
+		if len(got) != 1 || got[0] != "stereo-ineffective-center @" {
+			t.Errorf("%s version %d: %v, want the ineffective mark", u, edits, got)
+		}
+		last := int32(0)
+		for _, p := range c.published(u) {
+			if p.Version == nil {
+				continue
+			}
+			if *p.Version < last {
+				t.Errorf("%s: version %d published after version %d", u, *p.Version, last)
+			}
+			last = *p.Version
+			want := 0
+			if *p.Version%2 == 0 {
+				want = 1
+			}
+			if len(p.Diagnostics) != want {
+				t.Errorf("%s version %d published with %d findings, want %d", u, *p.Version, len(p.Diagnostics), want)
+			}
+		}
+	}
+}

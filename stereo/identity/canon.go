@@ -105,6 +105,7 @@ type canonState struct {
 type canonResult struct {
 	rank     []int
 	text     string
+	con      int // the length of the atoms and bonds that begin text
 	parities []int
 }
 
@@ -170,7 +171,7 @@ func (c *canonState) mirrorLeaf(m *canonState, res canonResult) (string, bool) {
 		return "", false
 	}
 	m.keep, m.ring, m.sym = c.keep, c.ring, c.sym
-	return m.leaf(res.rank).text, true
+	return m.leafOn(res).text, true
 }
 
 // plain reports whether a finished stereo run took the path its
@@ -830,6 +831,27 @@ func (c *canonState) moveAhead(rank []int, low, a int) []int {
 
 // leaf serialises a total order.
 func (c *canonState) leaf(rank []int) canonResult {
+	sc := c.g.scratch()
+	buf := c.appendConstitution(sc.buf[:0], rank)
+	return c.appendUnits(buf, rank, len(buf))
+}
+
+// leafOn serialises the total order of res, a leaf of another state of
+// the same graph: the atoms and bonds are written as res wrote them, so
+// only this state's units are written afresh (the mirror image's, and
+// the constitution's, which has none).
+func (c *canonState) leafOn(res canonResult) canonResult {
+	if !c.stereo {
+		// nothing after the atoms and bonds: the text is res's first part
+		return canonResult{rank: res.rank, text: res.text[:res.con], con: res.con, parities: make([]int, len(c.units))}
+	}
+	sc := c.g.scratch()
+	buf := append(sc.buf[:0], res.text[:res.con]...)
+	return c.appendUnits(buf, res.rank, res.con)
+}
+
+// appendConstitution writes the atoms and bonds of a total order.
+func (c *canonState) appendConstitution(buf []byte, rank []int) []byte {
 	g := c.g
 	sc := g.scratch()
 	order := grow(sc.leafOrder, len(c.atoms))
@@ -837,7 +859,6 @@ func (c *canonState) leaf(rank []int) canonResult {
 	for _, a := range c.atoms {
 		order[rank[a]] = a
 	}
-	buf := sc.buf[:0]
 	put := func(v int) { buf = binary.AppendVarint(buf, int64(v)) }
 	put(len(order))
 	for _, a := range order {
@@ -871,7 +892,16 @@ func (c *canonState) leaf(rank []int) canonResult {
 		put(b[1])
 		put(b[2])
 	}
-	res := canonResult{rank: rank, parities: make([]int, len(c.units))}
+	return buf
+}
+
+// appendUnits writes the units of a stereo state after buf, the atoms
+// and bonds of the total order rank (con bytes long), and returns the
+// leaf.
+func (c *canonState) appendUnits(buf []byte, rank []int, con int) canonResult {
+	g := c.g
+	put := func(v int) { buf = binary.AppendVarint(buf, int64(v)) }
+	res := canonResult{rank: rank, con: con, parities: make([]int, len(c.units))}
 	if c.stereo {
 		var us [][4]int
 		for i := range c.units {
@@ -906,7 +936,7 @@ func (c *canonState) leaf(rank []int) canonResult {
 		}
 	}
 	res.text = string(buf)
-	sc.buf = buf
+	g.scratch().buf = buf
 	return res
 }
 

@@ -131,7 +131,7 @@ func identifyGraph(g *keyGraph, units []keyUnit) Identity {
 	var con canonResult
 	if shortcuts && st.plain() {
 		// the constitution's run breaks the same ties in the same order
-		con = cs.leaf(res.rank)
+		con = cs.leafOn(res)
 	} else {
 		con = cs.runFrom(base)
 	}

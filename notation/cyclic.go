@@ -11,6 +11,12 @@ import "sync"
 // ring. Its working storage is pooled: the reader and the identity keys
 // of every record of a list ask for it.
 func CyclicBonds(m *Molecule, keep func(*Bond) bool) []bool {
+	return cyclicBondsInto(m, keep, nil)
+}
+
+// cyclicBondsInto is CyclicBonds writing into dst's storage when it is
+// large enough (a reused molecule's).
+func cyclicBondsInto(m *Molecule, keep func(*Bond) bool, dst []bool) []bool {
 	n := len(m.Atoms)
 	usable := func(b *Bond) bool {
 		return b.Begin >= 0 && b.Begin < n && b.End >= 0 && b.End < n && b.Begin != b.End && (keep == nil || keep(b))
@@ -39,7 +45,8 @@ func CyclicBonds(m *Molecule, keep func(*Bond) bool) []bool {
 			fill[b.End]++
 		}
 	}
-	inRing := make([]bool, len(m.Bonds))
+	inRing := grownTo(dst, len(m.Bonds))
+	clear(inRing)
 	disc, low := fill, grownTo(sc.low, n) // fill is spent: it holds the discovery times now
 	for i := range disc {
 		disc[i] = -1

@@ -30,7 +30,11 @@ func finish(m *Molecule) {
 			b.Kekule = 1
 		}
 	}
-	inRing := CyclicBonds(m, nil)
+	inRing := cyclicBondsInto(m, nil, m.ringBonds)
+	m.ringBonds = inRing
+	if len(inRing) == 0 {
+		m.ringBonds = nil // as a molecule read afresh has it
+	}
 	pi := kekulize(m, inRing)
 	implicitHydrogens(m, pi)
 	checkValences(m)

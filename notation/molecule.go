@@ -29,6 +29,20 @@ type Molecule struct {
 	// Reading is how the marks OpenSMILES leaves open are read
 	// (reading.go): set by ReadWith, the default for Read.
 	Reading Reading
+
+	// ringBonds holds which bonds lie on a ring, as the reader found them
+	// for the Kekulé structure (RingBonds).
+	ringBonds []bool
+}
+
+// RingBonds reports which bonds lie on a ring: CyclicBonds(m, nil), as
+// the reader found it, or computed afresh for a molecule the reader did
+// not make. The slice is shared: callers must not change it.
+func (m *Molecule) RingBonds() []bool {
+	if len(m.ringBonds) == len(m.Bonds) && m.ringBonds != nil {
+		return m.ringBonds
+	}
+	return CyclicBonds(m, nil)
 }
 
 // Role is the part of a reaction an atom was written in.

@@ -153,7 +153,7 @@ func reuseReader(r *reader, src, text string, quiet bool) {
 	if cap(bs) < atoms+rings {
 		bs = make([]Bond, 0, atoms+rings)
 	}
-	*m = Molecule{Text: text, Atoms: as, Bonds: bs, Errors: m.Errors[:0]}
+	*m = Molecule{Text: text, Atoms: as, Bonds: bs, Errors: m.Errors[:0], ringBonds: m.ringBonds[:0]}
 	rs := r.rings
 	clear(rs)
 	*r = reader{text: src, mol: m, prev: -1, rings: rs, stack: r.stack[:0], quiet: quiet,

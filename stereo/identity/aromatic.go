@@ -206,9 +206,10 @@ func (g *keyGraph) piElectrons(a int, inRing map[int]bool, aromaticBond []bool) 
 	return 0, false
 }
 
-// cyclicBonds marks the bonds that lie on a ring (notation.CyclicBonds).
+// cyclicBonds marks the bonds that lie on a ring (notation.CyclicBonds),
+// as the reader found them; the slice is shared and not changed.
 func cyclicBonds(m *notation.Molecule) []bool {
-	return notation.CyclicBonds(m, nil)
+	return m.RingBonds()
 }
 
 // kekuleRingPossible reports whether the Hückel tests of aromaticity
@@ -239,6 +240,20 @@ func (g *keyGraph) kekuleRingPossible(aromaticBond []bool) bool {
 				able[a] = true
 			}
 		}
+	}
+	// the cycles of the atoms that can give electrons are cycles of the
+	// whole graph: when every ring bond between two of them is aromatic
+	// already, they need not be found
+	candidate := false
+	for bi, on := range g.ringBonds() {
+		b := &m.Bonds[bi]
+		if on && able[b.Begin] && able[b.End] && (!aromaticBond[bi] || !m.Atoms[b.Begin].Aromatic || !m.Atoms[b.End].Aromatic) {
+			candidate = true
+			break
+		}
+	}
+	if !candidate {
+		return false
 	}
 	cyc := notation.CyclicBonds(m, func(b *notation.Bond) bool { return able[b.Begin] && able[b.End] })
 	for bi, on := range cyc {

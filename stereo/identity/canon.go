@@ -265,7 +265,13 @@ func (c *canonState) classes(rank []int) int {
 // rank is the number of atoms with a smaller signature. Since the rank
 // comes first, only the atoms of one class need comparing: the new rank
 // is where the class starts plus the members ahead of the atom.
-func (c *canonState) refine(rank []int) []int {
+func (c *canonState) refine(rank []int) []int { return c.refineFrom(nil, rank) }
+
+// refineFrom is refine of rank, which splits classes of the ranks prev
+// (positions that refine leaves as they are; nil: none known): only the
+// classes with a neighbour of an atom whose rank changed can split in
+// the first round, as in every later one.
+func (c *canonState) refineFrom(prev, rank []int) []int {
 	g := c.g
 	sc := g.scratch()
 	order := sc.byRank(c.atoms, rank)
@@ -274,14 +280,23 @@ func (c *canonState) refine(rank []int) []int {
 	sc.rankA, sc.rankB = bufs[0], bufs[1]
 	n := c.classes(rank)
 	codes := func(a int) []int { return sc.codes[sc.off[a]:sc.off[a+1]] }
-	// touched[a] is iter+1 when a neighbour of a changed rank in round
-	// iter: a class none of whose atoms was touched in the last round
-	// has the codes it had then, which were all equal, so it does not
-	// split and is not sorted again (from the second round on, when the
-	// ranks are positions, so an unsplit class keeps its rank)
+	// touched[a] is iter+1 when a neighbour of a changed rank before
+	// round iter: a class none of whose atoms was touched has the codes
+	// it had in the last round (or in prev, which refine leaves alone),
+	// which were all equal, so it does not split and is not sorted again
+	// (once the ranks are positions, so an unsplit class keeps its rank)
 	touched := grow(sc.touched, g.n)
 	sc.touched = touched
 	clear(touched)
+	if prev != nil {
+		for _, a := range c.atoms {
+			if prev[a] != rank[a] {
+				for _, e := range g.adj[a] {
+					touched[e.to] = 1
+				}
+			}
+		}
+	}
 	for iter := 0; iter <= len(c.atoms); iter++ {
 		next := bufs[iter%2]
 		m := 0
@@ -297,7 +312,7 @@ func (c *canonState) refine(rank []int) []int {
 				continue
 			}
 			class := order[i:j]
-			if iter > 0 && !touchedIn(class, touched, iter) {
+			if (iter > 0 || prev != nil) && !touchedIn(class, touched, iter+1) {
 				for _, a := range class {
 					next[a] = i
 				}
@@ -331,7 +346,7 @@ func (c *canonState) refine(rank []int) []int {
 		for _, a := range order {
 			if next[a] != cur[a] {
 				for _, e := range g.adj[a] {
-					touched[e.to] = iter + 1
+					touched[e.to] = iter + 2
 				}
 			}
 		}
@@ -341,11 +356,11 @@ func (c *canonState) refine(rank []int) []int {
 	return c.fresh(cur)
 }
 
-// touchedIn reports whether an atom of class was touched in round
-// iter-1 (refine).
-func touchedIn(class, touched []int, iter int) bool {
+// touchedIn reports whether an atom of class was touched with stamp
+// (refineFrom).
+func touchedIn(class, touched []int, stamp int) bool {
 	for _, a := range class {
-		if touched[a] == iter {
+		if touched[a] == stamp {
 			return true
 		}
 	}
@@ -516,7 +531,7 @@ func (c *canonState) stereoRefine(rank []int) []int {
 		}
 		before := c.classes(rank)
 		next := c.splitBy(rank, func(a int) int { return extra[a] })
-		next = c.refine(next)
+		next = c.refineFrom(rank, next)
 		if c.classes(next) == before {
 			return rank
 		}
@@ -822,7 +837,7 @@ func (c *canonState) moveAhead(rank []int, low, a int) []int {
 		}
 		return 0
 	})
-	next = c.refine(next)
+	next = c.refineFrom(rank, next)
 	if c.stereo {
 		next = c.stereoRefine(next)
 	}

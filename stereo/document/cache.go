@@ -196,6 +196,11 @@ func (a *analysis) computeInto(rr *notation.Rereader) *fullAnalysis {
 // Rereader per goroutine at a time.
 var rereaders = sync.Pool{New: func() any { return new(notation.Rereader) }}
 
+// identifiers compute identity keys; one taken on a goroutine mostly
+// comes back to it, so the stereoisomers of a list, which follow one
+// another, share the work on their constitution (identity.Identifier).
+var identifiers = sync.Pool{New: func() any { return new(identity.Identifier) }}
+
 // oversized is the analysis of a record with more atoms than the
 // recordAtoms limit: it is not read, and its one finding says why. The
 // molecule holds the text only, so requests on the record (hover, a
@@ -272,7 +277,9 @@ func (a *analysis) identifyWith(m *notation.Molecule) {
 
 // setIdentity sets the identity keys and the atoms' elements from m.
 func (a *analysis) setIdentity(m *notation.Molecule) {
-	x := identity.Identify(m)
+	id := identifiers.Get().(*identity.Identifier)
+	x := id.Identify(m)
+	identifiers.Put(id)
 	a.elements = make([]byte, len(m.Atoms))
 	for i := range m.Atoms {
 		if z := m.Atoms[i].Number; z >= 0 && z < 0xff {

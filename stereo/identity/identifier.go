@@ -1,0 +1,137 @@
+// This file implements Identifier: identity keys of one structure after
+// another, with the work on a constitution shared between consecutive
+// structures that differ only in their marks.
+
+package identity
+
+import "stereoline/notation"
+
+// An Identifier computes the identity keys of structures one after
+// another, as Identify does. When a structure has the constitution of the
+// one before, atom for atom in the same order (the stereoisomers of one
+// compound in a list, written alike but for their marks), the key graph's
+// atoms, edges and aromaticity and the refined ranks of its atoms are
+// taken from that one instead of being computed again; only the marks
+// are read. The keys are the same either way.
+//
+// An Identifier is used by one goroutine at a time. Its zero value is
+// ready to use.
+type Identifier struct {
+	st   *keyStore
+	last *keyGraph    // the last structure's graph, whose constitution parts the next may share
+	sig  constitution // what those parts were computed from
+	// shared counts the structures that shared the parts (for the tests)
+	shared int
+}
+
+// Identify computes the keys and the chirality class of m.
+func (x *Identifier) Identify(m *notation.Molecule) Identity {
+	if m == nil || len(m.Atoms) == 0 {
+		return Identity{}
+	}
+	if x.st == nil {
+		x.st = new(keyStore)
+	}
+	var g *keyGraph
+	if x.last != nil && x.sig.same(m) {
+		g = x.last.withMarksOf(m, x.st)
+		x.shared++
+	} else {
+		x.last = nil
+		g = newKeyGraphIn(m, x.st)
+		x.sig.take(m)
+	}
+	id := identifyGraph(g, g.units)
+	if groups, and := keyGroups(m, g.units); len(groups) > 0 {
+		id = identifyGroups(g, groups, and, id)
+	}
+	g.releaseScratch()
+	if g.n > keyStoreKeep {
+		// a large structure's storage is not kept
+		*x = Identifier{}
+		return id
+	}
+	x.last = g
+	return id
+}
+
+// withMarksOf returns the key graph of m, whose constitution is g's
+// (constitution.same): it shares g's atoms, edges, aromaticity and base
+// ranks, which nothing changes once made, and reads m's own marks. The
+// ring searches, which keep the molecule they ran on, run again on m
+// when asked for.
+func (g *keyGraph) withMarksOf(m *notation.Molecule, st *keyStore) *keyGraph {
+	g.baseRanks() // made once, shared from now on
+	n := &keyGraph{mol: m, n: g.n, folded: g.folded, hydro: g.hydro, adj: g.adj, arom: g.arom, base: g.base, atoms: g.atoms}
+	n.units = st.units[:0]
+	n.readUnits()
+	st.units = n.units[:0]
+	return n
+}
+
+// constitution is what a key graph's shared parts are computed from: of
+// each atom its element, isotope, charge, role, map number, aromatic
+// flag, hydrogens and bonds in order, and of each bond its ends and
+// order.
+type constitution struct {
+	atoms []constitutionAtom
+	bonds []constitutionBond
+	lists []int // the atoms' bonds, one list after another
+}
+
+type constitutionAtom struct {
+	number, isotope, charge, hydrogens, mapNum, bonds int
+	role                                              notation.Role
+	aromatic                                          bool
+}
+
+type constitutionBond struct {
+	begin, end int
+	order      notation.BondOrder
+}
+
+func atomOf(at *notation.Atom) constitutionAtom {
+	return constitutionAtom{number: at.Number, isotope: at.Isotope, charge: at.Charge, hydrogens: at.HydrogenCount(),
+		mapNum: at.Map, bonds: len(at.Bonds), role: at.Role, aromatic: at.Aromatic}
+}
+
+// take records m's constitution.
+func (c *constitution) take(m *notation.Molecule) {
+	c.atoms, c.bonds, c.lists = c.atoms[:0], c.bonds[:0], c.lists[:0]
+	for i := range m.Atoms {
+		at := &m.Atoms[i]
+		c.atoms = append(c.atoms, atomOf(at))
+		c.lists = append(c.lists, at.Bonds...)
+	}
+	for i := range m.Bonds {
+		b := &m.Bonds[i]
+		c.bonds = append(c.bonds, constitutionBond{b.Begin, b.End, b.Order})
+	}
+}
+
+// same reports whether m has the constitution recorded.
+func (c *constitution) same(m *notation.Molecule) bool {
+	if len(m.Atoms) != len(c.atoms) || len(m.Bonds) != len(c.bonds) {
+		return false
+	}
+	for i := range m.Bonds {
+		b := &m.Bonds[i]
+		if c.bonds[i] != (constitutionBond{b.Begin, b.End, b.Order}) {
+			return false
+		}
+	}
+	k := 0
+	for i := range m.Atoms {
+		at := &m.Atoms[i]
+		if c.atoms[i] != atomOf(at) {
+			return false
+		}
+		for _, bi := range at.Bonds {
+			if c.lists[k] != bi {
+				return false
+			}
+			k++
+		}
+	}
+	return true
+}

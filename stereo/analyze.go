@@ -103,6 +103,12 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 	}
 	l := &labeller{g: &ws.g, cfg: &ws.cfg, nodeCap: opt.NodeCap, res: res, spare: ws.spare, budget: b}
 	l.classes = &lazyClasses{g: l.g}
+	if ws.classed.Same(m) {
+		l.classes.class, l.classes.shared = ws.g.store.class[:ws.g.n], true
+		sharedClasses.Add(1)
+	} else {
+		ws.classed.Forget() // the storage is about to hold other classes
+	}
 	defer func() {
 		// an internal error must not reach the user; the analysis so far
 		// is kept and the failure reported at the start of the text. The

@@ -763,6 +763,9 @@ func (e doubleBondEnd) distinct(class *lazyClasses) bool {
 type lazyClasses struct {
 	g     *graph
 	class []uint64
+	// shared says the classes were those of the molecule before, of the
+	// same constitution (workspace.classed)
+	shared bool
 }
 
 // of returns the symmetry class of atom a: a 64-bit name, equal for

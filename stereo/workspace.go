@@ -2,7 +2,12 @@
 
 package stereo
 
-import "sync"
+import (
+	"sync"
+	"sync/atomic"
+
+	"stereoline/stereo/internal/skeleton"
+)
 
 // Storage kept between Analyze calls. An analysis builds a graph of the
 // molecule and a digraph for every unit; growing that storage afresh for
@@ -16,9 +21,18 @@ type workspace struct {
 	g     graph
 	spare []*digraph
 	cfg   configs
+	// classed is the constitution whose symmetry classes the graph's
+	// storage holds (g.store.class), left by the last call that computed
+	// them: a next molecule with that constitution takes them as they
+	// are (the stereoisomers of a list, one after another)
+	classed skeleton.Skeleton
 }
 
 var workspaces = sync.Pool{New: func() any { return new(workspace) }}
+
+// sharedClasses counts the analyses that took the symmetry classes of
+// the molecule before (workspace.classed), for the tests.
+var sharedClasses atomic.Int64
 
 // keepNodes is the largest digraph kept in a workspace: one that grew
 // towards the node cap for a pathological molecule would otherwise hold
@@ -31,6 +45,9 @@ func takeWorkspace() *workspace { return workspaces.Get().(*workspace) }
 // giveBack returns the storage of a finished call to the pool, dropping
 // what must not outlive it: the molecule and any oversized digraph.
 func (w *workspace) giveBack(l *labeller) {
+	if l.classes.class != nil && !l.classes.shared {
+		w.classed.Take(w.g.mol)
+	}
 	w.g.mol = nil
 	w.g.store.geom.Release()
 	// filtered in place: kept digraphs move down over dropped ones

@@ -4,7 +4,10 @@
 
 package identity
 
-import "stereoline/notation"
+import (
+	"stereoline/notation"
+	"stereoline/stereo/internal/skeleton"
+)
 
 // An Identifier computes the identity keys of structures one after
 // another, as Identify does. When a structure has the constitution of the
@@ -18,8 +21,8 @@ import "stereoline/notation"
 // ready to use.
 type Identifier struct {
 	st   *keyStore
-	last *keyGraph    // the last structure's graph, whose constitution parts the next may share
-	sig  constitution // what those parts were computed from
+	last *keyGraph         // the last structure's graph, whose constitution parts the next may share
+	sig  skeleton.Skeleton // what those parts were computed from
 	// shared counts the structures that shared the parts (for the tests)
 	shared int
 }
@@ -33,13 +36,13 @@ func (x *Identifier) Identify(m *notation.Molecule) Identity {
 		x.st = new(keyStore)
 	}
 	var g *keyGraph
-	if x.last != nil && x.sig.same(m) {
+	if x.last != nil && x.sig.Same(m) {
 		g = x.last.withMarksOf(m, x.st)
 		x.shared++
 	} else {
 		x.last = nil
 		g = newKeyGraphIn(m, x.st)
-		x.sig.take(m)
+		x.sig.Take(m)
 	}
 	id := identifyGraph(g, g.units)
 	if groups, and := keyGroups(m, g.units); len(groups) > 0 {
@@ -56,7 +59,7 @@ func (x *Identifier) Identify(m *notation.Molecule) Identity {
 }
 
 // withMarksOf returns the key graph of m, whose constitution is g's
-// (constitution.same): it shares g's atoms, edges, aromaticity and base
+// (skeleton.Skeleton.Same): it shares g's atoms, edges, aromaticity and base
 // ranks, which nothing changes once made, and reads m's own marks. The
 // ring searches, which keep the molecule they ran on, run again on m
 // when asked for.
@@ -67,71 +70,4 @@ func (g *keyGraph) withMarksOf(m *notation.Molecule, st *keyStore) *keyGraph {
 	n.readUnits()
 	st.units = n.units[:0]
 	return n
-}
-
-// constitution is what a key graph's shared parts are computed from: of
-// each atom its element, isotope, charge, role, map number, aromatic
-// flag, hydrogens and bonds in order, and of each bond its ends and
-// order.
-type constitution struct {
-	atoms []constitutionAtom
-	bonds []constitutionBond
-	lists []int // the atoms' bonds, one list after another
-}
-
-type constitutionAtom struct {
-	number, isotope, charge, hydrogens, mapNum, bonds int
-	role                                              notation.Role
-	aromatic                                          bool
-}
-
-type constitutionBond struct {
-	begin, end int
-	order      notation.BondOrder
-}
-
-func atomOf(at *notation.Atom) constitutionAtom {
-	return constitutionAtom{number: at.Number, isotope: at.Isotope, charge: at.Charge, hydrogens: at.HydrogenCount(),
-		mapNum: at.Map, bonds: len(at.Bonds), role: at.Role, aromatic: at.Aromatic}
-}
-
-// take records m's constitution.
-func (c *constitution) take(m *notation.Molecule) {
-	c.atoms, c.bonds, c.lists = c.atoms[:0], c.bonds[:0], c.lists[:0]
-	for i := range m.Atoms {
-		at := &m.Atoms[i]
-		c.atoms = append(c.atoms, atomOf(at))
-		c.lists = append(c.lists, at.Bonds...)
-	}
-	for i := range m.Bonds {
-		b := &m.Bonds[i]
-		c.bonds = append(c.bonds, constitutionBond{b.Begin, b.End, b.Order})
-	}
-}
-
-// same reports whether m has the constitution recorded.
-func (c *constitution) same(m *notation.Molecule) bool {
-	if len(m.Atoms) != len(c.atoms) || len(m.Bonds) != len(c.bonds) {
-		return false
-	}
-	for i := range m.Bonds {
-		b := &m.Bonds[i]
-		if c.bonds[i] != (constitutionBond{b.Begin, b.End, b.Order}) {
-			return false
-		}
-	}
-	k := 0
-	for i := range m.Atoms {
-		at := &m.Atoms[i]
-		if c.atoms[i] != atomOf(at) {
-			return false
-		}
-		for _, bi := range at.Bonds {
-			if c.lists[k] != bi {
-				return false
-			}
-			k++
-		}
-	}
-	return true
 }

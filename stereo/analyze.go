@@ -82,6 +82,13 @@ type Options struct {
 	// skipGroups leaves the stereo groups unread: the labels of a group
 	// inverted are computed by analysing the inverted record so.
 	skipGroups bool
+
+	// FindingsOnly leaves out what only explains the findings: the
+	// ligands of the unmarked stereogenic units are not ranked (their
+	// Unit.Ranked and Decisions stay nil), unless the record has stereo
+	// groups, whose reading looks at every ranking. The findings are the
+	// same; a record near its time budget may spend less of it.
+	FindingsOnly bool
 }
 
 // Analyze finds the stereogenic units of m, labels them and reports the
@@ -103,6 +110,7 @@ func AnalyzeWith(m *notation.Molecule, opt Options) (res *Analysis) {
 	}
 	l := &labeller{g: &ws.g, cfg: &ws.cfg, nodeCap: opt.NodeCap, res: res, spare: ws.spare, budget: b}
 	l.classes = &lazyClasses{g: l.g}
+	l.unranked = opt.FindingsOnly && (m.Extension == nil || len(m.Extension.Groups) == 0)
 	if ws.classed.Same(m) {
 		l.classes.class, l.classes.shared = ws.g.store.class[:ws.g.n], true
 		sharedClasses.Add(1)
@@ -168,6 +176,9 @@ type labeller struct {
 	nodeCap int
 	spare   []*digraph // storage of digraphs already used, for reuse (digraph_reuse.go)
 	budget  *budget    // the call's time budget (budget.go)
+	// unranked leaves the unmarked units' ligands unranked
+	// (Options.FindingsOnly)
+	unranked bool
 	// overBudget are the marked units left undetermined because the
 	// budget was spent, in the order met; reportBudget reports them
 	overBudget []notation.Span

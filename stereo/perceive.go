@@ -289,6 +289,9 @@ func (l *labeller) inSmallRing(a int) bool {
 // and the explanation is as useful before a mark is written).
 func (l *labeller) unspecifiedCentre(a int) Unit {
 	u := Unit{Kind: KindTetrahedral, Atoms: []int{a}, Centre: a, Bond: -1}
+	if l.unranked {
+		return u
+	}
 	var lb label
 	l.withExplainCap(func() {
 		d := l.digraph(a)
@@ -380,6 +383,9 @@ func (l *labeller) withExplainCap(rank func()) {
 // with the ligands at each end ranked.
 func (l *labeller) unspecifiedBond(a, b, bi int) Unit {
 	u := Unit{Kind: KindDoubleBond, Atoms: []int{a, b}, Centre: -1, Bond: bi}
+	if l.unranked {
+		return u
+	}
 	var lb label
 	l.withExplainCap(func() { lb = l.doubleBond(unmarkedBond(bi, [2]int{a, b}, [2]int{b, a})) })
 	if !lb.capped {

@@ -135,7 +135,7 @@ func analyse(text string, r notation.Reading, lim limits) *analysis {
 // not nil (stream.go): the analysis keeps its full analysis, whose
 // molecule is then valid only until rr's next read.
 func analyseInto(rr *notation.Rereader, text string, r notation.Reading, lim limits) *analysis {
-	a, f := analyseUnkept(rr, text, r, lim)
+	a, f := analyseUnkept(rr, text, r, lim, false)
 	a.full.Store(f)
 	return a
 }
@@ -144,9 +144,9 @@ func analyseInto(rr *notation.Rereader, text string, r notation.Reading, lim lim
 // its storage and does not keep the full analysis: the one returned is
 // valid only until rr reads again. A pinned analysis keeps its full
 // analysis all the same, and rr gives its storage up to it.
-func analyseUnkept(rr *notation.Rereader, text string, r notation.Reading, lim limits) (*analysis, *fullAnalysis) {
+func analyseUnkept(rr *notation.Rereader, text string, r notation.Reading, lim limits, findingsOnly bool) (*analysis, *fullAnalysis) {
 	a := &analysis{key: cacheKey{text, r, lim}}
-	f := a.computeInto(rr)
+	f := a.computeInto(rr, findingsOnly)
 	if m := f.mol; !m.Reaction && !m.Errors.HasErrors() && len(m.Atoms) > 0 {
 		a.identifiable = true
 		a.preKey = identity.ConstitutionPreKey(m)
@@ -167,11 +167,14 @@ func analyseUnkept(rr *notation.Rereader, text string, r notation.Reading, lim l
 }
 
 // compute reads and labels the analysis's text.
-func (a *analysis) compute() *fullAnalysis { return a.computeInto(nil) }
+func (a *analysis) compute() *fullAnalysis { return a.computeInto(nil, false) }
 
 // computeInto is compute reading the molecule into rr's storage, when rr
-// is not nil.
-func (a *analysis) computeInto(rr *notation.Rereader) *fullAnalysis {
+// is not nil. With findingsOnly the stereo analysis leaves out what only
+// explains (stereo.Options.FindingsOnly): for a full analysis read for
+// its findings and identity keys and then dropped, which a request that
+// needs more computes again.
+func (a *analysis) computeInto(rr *notation.Rereader, findingsOnly bool) *fullAnalysis {
 	lim := a.key.limits
 	if n := notation.CountAtoms(a.key.text); n > lim.atoms {
 		return oversized(a.key.text, n, lim.atoms)
@@ -183,7 +186,7 @@ func (a *analysis) computeInto(rr *notation.Rereader) *fullAnalysis {
 	} else {
 		m = notation.ReadWith(a.key.text, a.key.reading)
 	}
-	opt := stereo.Options{NodeCap: lim.nodeCap, Budget: lim.budget, Start: start}
+	opt := stereo.Options{NodeCap: lim.nodeCap, Budget: lim.budget, Start: start, FindingsOnly: findingsOnly}
 	f := &fullAnalysis{mol: m, stereo: stereo.AnalyzeWith(m, opt)}
 	if m.Reaction {
 		f.reaction = reaction.AnalyzeWith(m, f.stereo)
@@ -426,7 +429,9 @@ func (c *cache) get(text string, r notation.Reading, lim limits) (*analysis, *fu
 // read into rr's storage and its full analysis not kept (unless pinned),
 // and an analysis whose full analysis was dropped is computed again the
 // same way. The full analysis returned is valid only until rr reads
-// again; the cache keeps the compact facts as get does.
+// again, and it holds the findings only (computeInto): the cache keeps
+// the compact facts as get does. A pinned one is kept as it is; it ran
+// out of time, so its explanations were cut short anyway.
 func (c *cache) read(text string, r notation.Reading, lim limits, rr *notation.Rereader) (*analysis, *fullAnalysis) {
 	k := cacheKey{text, r, lim}
 	a, ok := c.lookup(k)
@@ -437,9 +442,9 @@ func (c *cache) read(text string, r notation.Reading, lim limits, rr *notation.R
 			}
 			return a, f
 		}
-		return a, a.computeInto(rr)
+		return a, a.computeInto(rr, true)
 	}
-	a, f := analyseUnkept(rr, text, r, lim)
+	a, f := analyseUnkept(rr, text, r, lim, true)
 	c.mu.Lock()
 	if prev, ok := c.analyses.Get(k); ok {
 		// Another goroutine read the same text meanwhile: keep one.

@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"stereoline/notation"
+	"stereoline/stereo"
 )
 
 // withKept returns an analyzer for the default configuration whose cache
@@ -199,5 +200,38 @@ func TestPinnedKeepTheirMolecules(t *testing.T) {
 	}
 	if pinned < 2 {
 		t.Fatalf("%d pinned analyses, want several", pinned)
+	}
+}
+
+// TestUnmarkedCentreExplainedAfterFirstReading checks that the first
+// reading of a list, which ranks no unmarked unit's ligands
+// (stereo.Options.FindingsOnly), leaves nothing less for the requests:
+// the hover of the unmarked centre of butan-2-ol (common practice: C2
+// is a stereocentre, O > C3 > C1 > H) names the CIP priority of its
+// ligands, as an analysis of the record alone does.
+func TestUnmarkedCentreExplainedAfterFirstReading(t *testing.T) {
+	text := "C[C@H](O)CC marked\nCC(O)CC unmarked\nC[C@@H](O)CC mirror\n"
+	res := NewAnalyzer(DefaultConfig()).Analyze("explain.smi", "", []byte(text))
+	line := strings.Index(text, "CC(O)CC")
+	got, _, ok := res.Hover(line + 1)
+	if !ok || !strings.Contains(got, "CIP priority: O") {
+		t.Fatalf("hover of the unmarked centre: %t %q, want its CIP priority", ok, got)
+	}
+	alone := NewAnalyzer(DefaultConfig()).Analyze("alone.smi", "", []byte("CC(O)CC\n"))
+	want, _, _ := alone.Hover(1)
+	// the part on the unit; what follows names the record and its list
+	got, _, _ = strings.Cut(got, "\n---")
+	want, _, _ = strings.Cut(want, "\n---")
+	if got != want {
+		t.Errorf("hover in the list:\n%s\nalone:\n%s", got, want)
+	}
+	var unit *stereo.Unit
+	for k := range res.Records[1].Stereo().Units {
+		if u := &res.Records[1].Stereo().Units[k]; u.Centre == 1 {
+			unit = u
+		}
+	}
+	if unit == nil || len(unit.Ranked) != 4 {
+		t.Errorf("the unmarked centre's unit: %+v, want four ranked ligands", unit)
 	}
 }

@@ -22,7 +22,7 @@ var layers = []struct {
 	{0, []string{"notation", "notation/genmap"}},
 	{1, []string{"notation/smarts"}},
 	{2, []string{"notation/find"}},
-	{3, []string{"stereo/internal/ringgeom"}},
+	{3, []string{"stereo/internal/ringgeom", "stereo/internal/skeleton"}},
 	{4, []string{"stereo"}},
 	{5, []string{"stereo/identity"}},
 	{6, []string{"stereo/transform", "stereo/reaction", "stereo/depict", "stereo/readings"}},

@@ -128,14 +128,15 @@ func (a *analysis) stereoisomersOf(m *notation.Molecule) identity.StereoisomerCo
 // within the limits lim: the time budget counts the reading too. The
 // analysis keeps its full analysis (it is on no list of kept ones).
 func analyse(text string, r notation.Reading, lim limits) *analysis {
-	return analyseInto(nil, text, r, lim)
+	return analyseInto(nil, text, r, lim, false)
 }
 
 // analyseInto is analyse reading the text into rr's storage when rr is
 // not nil (stream.go): the analysis keeps its full analysis, whose
-// molecule is then valid only until rr's next read.
-func analyseInto(rr *notation.Rereader, text string, r notation.Reading, lim limits) *analysis {
-	a, f := analyseUnkept(rr, text, r, lim, false)
+// molecule is then valid only until rr's next read. With findingsOnly
+// that analysis holds the findings only (computeInto).
+func analyseInto(rr *notation.Rereader, text string, r notation.Reading, lim limits, findingsOnly bool) *analysis {
+	a, f := analyseUnkept(rr, text, r, lim, findingsOnly)
 	a.full.Store(f)
 	return a
 }

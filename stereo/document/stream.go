@@ -75,7 +75,7 @@ func (a *Analyzer) StreamRecords(name, languageID string, content []byte, identi
 		store = store.grow(len(occs))
 		recs := make([]Record, len(occs))
 		parallel(len(occs), func(k int) {
-			an := analyseInto(&store[k], occs[k].Text, reading, cfg.Limits.limits())
+			an := analyseInto(&store[k], occs[k].Text, reading, cfg.Limits.limits(), false)
 			recs[k] = Record{Occ: &occs[k], an: an}
 			if identify {
 				recs[k].Identity = an.identify()
@@ -253,7 +253,9 @@ func (s *stageStores) label(chunk *Result, occs []find.Occurrence) int {
 	reading, lim := chunk.cfg.Reading.notation(), chunk.cfg.Limits.limits()
 	chunk.Records = make([]Record, len(occs))
 	parallel(len(occs), func(k int) {
-		an := analyseInto(&store[k], occs[k].Text, reading, lim)
+		// the records' analyses are dropped once their findings and
+		// keys are out: nothing asks them to explain
+		an := analyseInto(&store[k], occs[k].Text, reading, lim, true)
 		chunk.Records[k] = Record{Occ: &occs[k], an: an}
 	})
 	return parity

@@ -150,7 +150,9 @@ func analyseUnkept(rr *notation.Rereader, text string, r notation.Reading, lim l
 	f := a.computeInto(rr, findingsOnly)
 	if m := f.mol; !m.Reaction && !m.Errors.HasErrors() && len(m.Atoms) > 0 {
 		a.identifiable = true
-		a.preKey = identity.ConstitutionPreKey(m)
+		id := identifiers.Get().(*identity.Identifier)
+		a.preKey = id.PreKey(m)
+		identifiers.Put(id)
 		if len(f.stereo.Groups) > 0 {
 			a.groupFindings = identity.GroupFindings(m)
 		}

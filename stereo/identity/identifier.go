@@ -25,6 +25,27 @@ type Identifier struct {
 	sig  skeleton.Skeleton // what those parts were computed from
 	// shared counts the structures that shared the parts (for the tests)
 	shared int
+
+	// the last pre-key computed and the constitution it was computed from
+	preKey    uint64
+	preKeyOf  skeleton.Skeleton
+	preShared int // for the tests
+}
+
+// PreKey is ConstitutionPreKey(m), taken from the last structure asked
+// for when m has its constitution (skeleton.Skeleton.Same).
+func (x *Identifier) PreKey(m *notation.Molecule) uint64 {
+	if x.preKeyOf.Same(m) {
+		x.preShared++
+		return x.preKey
+	}
+	x.preKey = ConstitutionPreKey(m)
+	if len(m.Atoms) > keyStoreKeep {
+		x.preKeyOf.Forget()
+		return x.preKey
+	}
+	x.preKeyOf.Take(m)
+	return x.preKey
 }
 
 // Identify computes the keys and the chirality class of m.

@@ -65,7 +65,8 @@ func flipMarks(s string) []string {
 // of hand-made texts with the atoms of the one before but another
 // constitution, one after another with one Identifier and one Rereader
 // (so the molecule before is overwritten): every Identity must be
-// Identify's, and the shared path must be taken.
+// Identify's and every pre-key ConstitutionPreKey's, and the shared
+// paths must be taken.
 func TestIdentifierAgreesWithIdentify(t *testing.T) {
 	texts := []string{
 		// same atoms in the same order, constitution changed by a
@@ -85,13 +86,17 @@ func TestIdentifierAgreesWithIdentify(t *testing.T) {
 	var rr notation.Rereader
 	for _, s := range texts {
 		want := Identify(notation.Read(s))
-		got := x.Identify(rr.ReadWith(s, notation.Reading{}))
+		m := rr.ReadWith(s, notation.Reading{})
+		if got, want := x.PreKey(m), ConstitutionPreKey(notation.Read(s)); got != want {
+			t.Errorf("%q: Identifier's pre-key %x, ConstitutionPreKey %x", s, got, want)
+		}
+		got := x.Identify(m)
 		if !reflect.DeepEqual(got, want) {
 			t.Errorf("%q: Identifier gives %+v, Identify %+v", s, got, want)
 		}
 	}
-	if x.shared == 0 {
-		t.Errorf("no structure shared the work of the one before (%d texts)", len(texts))
+	if x.shared == 0 || x.preShared == 0 {
+		t.Errorf("no structure shared the work of the one before (%d texts; keys %d, pre-keys %d)", len(texts), x.shared, x.preShared)
 	}
-	t.Logf("%d texts, %d shared the constitution of the one before", len(texts), x.shared)
+	t.Logf("%d texts, %d shared the keys' work on the constitution of the one before, %d its pre-key", len(texts), x.shared, x.preShared)
 }

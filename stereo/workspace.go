@@ -39,13 +39,18 @@ var sharedClasses atomic.Int64
 // its memory for every later small one.
 const keepNodes = 1 << 14
 
+// classedKeep is the largest molecule whose constitution a workspace
+// keeps with its symmetry classes: lists of stereoisomers are of small
+// molecules, and a copy of a huge one would stay in the pool.
+const classedKeep = 4096
+
 // takeWorkspace returns a workspace for one Analyze call.
 func takeWorkspace() *workspace { return workspaces.Get().(*workspace) }
 
 // giveBack returns the storage of a finished call to the pool, dropping
 // what must not outlive it: the molecule and any oversized digraph.
 func (w *workspace) giveBack(l *labeller) {
-	if l.classes.class != nil && !l.classes.shared {
+	if l.classes.class != nil && !l.classes.shared && w.g.n <= classedKeep {
 		w.classed.Take(w.g.mol)
 	}
 	w.g.mol = nil

@@ -257,15 +257,17 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 	// The records of a list whose constitution pre-key another has get
 	// their identity keys now, which Relate needs: a record from the
 	// molecule at hand, and the first record with its pre-key (in the
-	// order the goroutines take them) read again when the second comes.
+	// order the goroutines take them) when the second comes, from its
+	// molecule if it was the record read just before on this goroutine
+	// (readerPair), else read again.
 	var seen preKeys
 	if relatedKinds[kind] {
 		seen.first = make(map[uint64]int32, min(len(content)/32, 1<<20))
 	}
 	reading, lim := cfg.Reading.notation(), cfg.Limits.limits()
 	fill := func(i int, occ *find.Occurrence) {
-		rr := rereaders.Get().(*notation.Rereader)
-		an, f, again := a.cache.readNotes(occ.Text, reading, lim, rr)
+		p := readerPairs.Get().(*readerPair)
+		an, f, again := a.cache.readNotes(occ.Text, reading, lim, &p.cur)
 		res.Records[i] = Record{Occ: occ, an: an}
 		if f != nil {
 			res.own[i] = res.findingsFrom(i, an.notesOf(f, !res.noFixes, again))
@@ -280,11 +282,20 @@ func (a *Analyzer) AnalyzeRecords(name, languageID string, content []byte) *Resu
 					an.identify() // known unless it was never needed
 				}
 				if j >= 0 {
-					res.Records[j].an.identify()
+					first := res.Records[j].an
+					if m := p.prevMol; m != nil && m.Text == first.key.text && m.Reading == first.key.reading {
+						first.identifyWith(m)
+					} else {
+						first.identify()
+					}
 				}
 			}
 		}
-		rereaders.Put(rr)
+		if f != nil {
+			// this molecule stays valid while the next record is read
+			p.cur, p.prev, p.prevMol = p.prev, p.cur, f.mol
+		}
+		readerPairs.Put(p)
 	}
 	// The records of a JSON document are handed out as its walk finds
 	// them, while the chunks before are read on all cores: the walk over

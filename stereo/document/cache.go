@@ -202,6 +202,20 @@ func (a *analysis) computeInto(rr *notation.Rereader, findingsOnly bool) *fullAn
 // Rereader per goroutine at a time.
 var rereaders = sync.Pool{New: func() any { return new(notation.Rereader) }}
 
+// readerPair is two Rereaders that one goroutine at a time reads the
+// records of a list into in turn, so that the molecule of the record
+// read before stays valid while the next is read: the first record of a
+// pre-key needs its identity keys only when a second comes, which in a
+// list of stereoisomers is mostly the next record, and is then not read
+// again (AnalyzeRecords). prevMol is the molecule read before, in prev
+// or kept by its analysis; nil when none.
+type readerPair struct {
+	cur, prev notation.Rereader
+	prevMol   *notation.Molecule
+}
+
+var readerPairs = sync.Pool{New: func() any { return new(readerPair) }}
+
 // identifiers compute identity keys; one taken on a goroutine mostly
 // comes back to it, so the stereoisomers of a list, which follow one
 // another, share the work on their constitution (identity.Identifier).
